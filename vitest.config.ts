@@ -1,0 +1,18 @@
+import { defineConfig } from "vitest/config";
+import path from "node:path";
+
+export default defineConfig({
+  resolve: {
+    alias: {
+      "@": path.resolve(__dirname),
+      "server-only": path.resolve(__dirname, "tests/support/server-only-stub.ts"),
+    },
+  },
+  test: {
+    include: ["lib/**/*.test.ts", "tests/**/*.test.ts"],
+    exclude: ["tests/e2e/**", "node_modules/**"],
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+    pool: "forks",
+  },
+});
