@@ -4,8 +4,8 @@ import path from "node:path";
 export default defineConfig({
   resolve: {
     alias: {
-      "@": path.resolve(__dirname),
-      "server-only": path.resolve(__dirname, "tests/support/server-only-stub.ts"),
+      "@": path.resolve(import.meta.dirname),
+      "server-only": path.resolve(import.meta.dirname, "tests/support/server-only-stub.ts"),
     },
   },
   test: {
@@ -14,5 +14,6 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: "forks",
+    env: { LOAMWORK_DATA_DIR: "memory", NODE_ENV: "test" },
   },
 });

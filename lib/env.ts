@@ -1,0 +1,34 @@
+import { z } from "zod";
+
+/** Every environment variable Loamwork reads, checked once (style.md: config checked at start). */
+const schema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  /** A real PostgreSQL server; when unset, PGlite is embedded. */
+  DATABASE_URL: z.string().url().optional(),
+  /** PGlite data folder, or "memory" for an in-memory database (tests). */
+  LOAMWORK_DATA_DIR: z.string().default(".data/pglite"),
+  /** Where uploaded photos and their derivatives are kept. */
+  LOAMWORK_FILES_DIR: z.string().default(".data/files"),
+  AUTH_SECRET: z.string().min(16).default("loamwork-development-secret-change-me"),
+  AUTH_URL: z.string().url().optional(),
+  SMTP_URL: z.string().default("smtp://127.0.0.1:2525"),
+  MAIL_FROM: z.string().default("Loamwork <loamwork@localhost>"),
+  MAIL_SINK_DIR: z.string().default(".data/mail"),
+  APP_URL: z.string().url().default("http://localhost:3000"),
+});
+
+export type Env = z.infer<typeof schema>;
+
+let cached: Env | undefined;
+
+export function env(): Env {
+  if (!cached) {
+    const parsed = schema.safeParse(process.env);
+    if (!parsed.success) {
+      const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+      throw new Error(`Loamwork configuration is invalid:\n${lines.join("\n")}`);
+    }
+    cached = parsed.data;
+  }
+  return cached;
+}

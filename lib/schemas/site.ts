@@ -1,0 +1,28 @@
+import { z } from "zod";
+import { roleSchema } from "./common";
+
+export const siteCreateSchema = z.object({
+  code: z
+    .string()
+    .trim()
+    .min(2, "A site code needs at least 2 characters.")
+    .max(20)
+    .regex(/^[A-Za-z0-9-]+$/, "Use letters, digits and hyphens only."),
+  name: z.string().trim().min(1, "Give the site a name.").max(200),
+  gridDescription: z.string().trim().max(2000).default(""),
+  gridOriginX: z.coerce.number().finite().default(0),
+  gridOriginY: z.coerce.number().finite().default(0),
+  crs: z.string().trim().max(2000).nullish(),
+});
+
+export const siteUpdateSchema = siteCreateSchema.omit({ code: true }).partial();
+
+export const memberAddSchema = z.object({
+  email: z.string().trim().toLowerCase().email("Enter an e-mail address."),
+  role: roleSchema,
+});
+
+export const memberRoleSchema = z.object({ role: roleSchema });
+
+export type SiteCreate = z.infer<typeof siteCreateSchema>;
+export type SiteUpdate = z.infer<typeof siteUpdateSchema>;

@@ -1,0 +1,68 @@
+import "server-only";
+import { and, asc, eq } from "drizzle-orm";
+import type { Db, Tx } from "@/db/client";
+import { contexts, finds, type Context } from "@/db/schema";
+import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
+import { recordAudit } from "./audit";
+import { conflict, notFound } from "./errors";
+import { assertContextWritable } from "./locks";
+import type { SiteActor } from "./membership";
+import { assertOutline, getTrench } from "./trenches";
+
+export async function listContexts(db: Db, siteId: string, trenchId?: string) {
+  const where = trenchId ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)) : eq(contexts.siteId, siteId);
+  return db.select().from(contexts).where(where).orderBy(asc(contexts.number));
+}
+
+export async function getContext(db: Db | Tx, siteId: string, contextId: string): Promise<Context> {
+  const [row] = await db.select().from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
+  if (!row) throw notFound("That context");
+  return row;
+}
+
+async function assertNumberFree(tx: Db | Tx, siteId: string, number: number) {
+  const [taken] = await tx.select({ id: contexts.id }).from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.number, number)));
+  if (taken) throw conflict(`Context ${number} already exists on this site; context numbers are unique per site.`);
+}
+
+export async function createContext(db: Db, actor: SiteActor, input: ContextCreate) {
+  if (input.extent) assertOutline(input.extent);
+  return db.transaction(async (tx) => {
+    await getTrench(tx, actor.site.id, input.trenchId);
+    await assertNumberFree(tx, actor.site.id, input.number);
+    const [row] = await tx
+      .insert(contexts)
+      .values({ ...input, extent: input.extent ?? null, siteId: actor.site.id, recordedBy: actor.userId })
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "context", recordId: row.id, after: row });
+    return row;
+  });
+}
+
+export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate) {
+  if (input.extent) assertOutline(input.extent);
+  return db.transaction(async (tx) => {
+    const before = await getContext(tx, actor.site.id, contextId);
+    await assertContextWritable(tx, before);
+    if (input.number !== undefined && input.number !== before.number) await assertNumberFree(tx, actor.site.id, input.number);
+    const [after] = await tx
+      .update(contexts)
+      .set({ ...input, updatedAt: new Date() })
+      .where(eq(contexts.id, contextId))
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "context", recordId: contextId, before, after });
+    return after;
+  });
+}
+
+export async function deleteContext(db: Db, actor: SiteActor, contextId: string) {
+  return db.transaction(async (tx) => {
+    const before = await getContext(tx, actor.site.id, contextId);
+    await assertContextWritable(tx, before, "deleted");
+    const [hasFind] = await tx.select({ id: finds.id }).from(finds).where(eq(finds.contextId, contextId)).limit(1);
+    if (hasFind) throw conflict(`Context ${before.number} still has finds; move or delete them first.`);
+    await tx.delete(contexts).where(eq(contexts.id, contextId));
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "context", recordId: contextId, before });
+    return { deleted: contextId };
+  });
+}

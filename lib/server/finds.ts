@@ -1,0 +1,158 @@
+import "server-only";
+import { and, asc, desc, eq, gte, ilike, lte, or, sql, type SQL } from "drizzle-orm";
+import type { Db, Tx } from "@/db/client";
+import { artefactClasses, contexts, finds, users, type Find } from "@/db/schema";
+import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
+import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
+import { recordAudit } from "./audit";
+import { badInput, notFound } from "./errors";
+import { allocateFindNumbers } from "./find-numbers";
+import { assertContextWritable } from "./locks";
+import type { SiteActor } from "./membership";
+import { getContext } from "./contexts";
+import { getTrench } from "./trenches";
+
+export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
+  const [row] = await db.select().from(finds).where(and(eq(finds.siteId, siteId), eq(finds.id, findId)));
+  if (!row) throw notFound("That find");
+  return row;
+}
+
+async function assertClass(tx: Db | Tx, siteId: string, classId: string) {
+  const [row] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, siteId), eq(artefactClasses.id, classId)));
+  if (!row) throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
+  return row;
+}
+
+/** Refuses a position outside the trench outline, with the distance to the edge. */
+export async function assertInsideTrench(tx: Db | Tx, siteId: string, trenchId: string, x: number, y: number) {
+  const trench = await getTrench(tx, siteId, trenchId);
+  const check = checkOutline(trench.outline);
+  if (!check.ok) throw badInput(`Trench ${trench.code} has no valid outline yet: ${check.reason}`);
+  const d = distanceOutside(check.window, x, y);
+  if (d > 0) {
+    const msg = `(${x.toFixed(3)}, ${y.toFixed(3)}) lies ${d.toFixed(3)} m outside the outline of trench ${trench.code}.`;
+    throw badInput(`The find is outside its trench: ${msg}`, { x: [msg], y: [msg] }, { distance: d });
+  }
+  return trench;
+}
+
+export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
+  return db.transaction(async (tx) => {
+    const context = await getContext(tx, actor.site.id, input.contextId);
+    await assertContextWritable(tx, context, "given new finds");
+    await assertClass(tx, actor.site.id, input.classId);
+    await assertInsideTrench(tx, actor.site.id, context.trenchId, input.x, input.y);
+    const number = await allocateFindNumbers(tx, actor.site.id);
+    const [row] = await tx
+      .insert(finds)
+      .values({ ...input, z: input.z ?? null, count: input.count ?? null, weightG: input.weightG ?? null, siteId: actor.site.id, trenchId: context.trenchId, number, recordedBy: actor.userId })
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "find", recordId: row.id, after: row });
+    return row;
+  });
+}
+
+export async function updateFind(db: Db, actor: SiteActor, findId: string, input: FindUpdate) {
+  return db.transaction(async (tx) => {
+    const before = await getFind(tx, actor.site.id, findId);
+    const from = await getContext(tx, actor.site.id, before.contextId);
+    await assertContextWritable(tx, from, "changed (nor its finds)");
+    let trenchId = before.trenchId;
+    if (input.contextId && input.contextId !== before.contextId) {
+      const to = await getContext(tx, actor.site.id, input.contextId);
+      await assertContextWritable(tx, to, "given new finds");
+      trenchId = to.trenchId;
+    }
+    if (input.classId) await assertClass(tx, actor.site.id, input.classId);
+    await assertInsideTrench(tx, actor.site.id, trenchId, input.x ?? before.x, input.y ?? before.y);
+    const [after] = await tx
+      .update(finds)
+      .set({ ...input, trenchId, updatedAt: new Date() })
+      .where(eq(finds.id, findId))
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "find", recordId: findId, before, after });
+    return after;
+  });
+}
+
+export async function deleteFind(db: Db, actor: SiteActor, findId: string) {
+  return db.transaction(async (tx) => {
+    const before = await getFind(tx, actor.site.id, findId);
+    const context = await getContext(tx, actor.site.id, before.contextId);
+    await assertContextWritable(tx, context, "changed (nor its finds)");
+    await tx.delete(finds).where(eq(finds.id, findId));
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "find", recordId: findId, before });
+    return { deleted: findId, number: before.number };
+  });
+}
+
+const sortColumns = {
+  number: finds.number,
+  recordedAt: finds.recordedAt,
+  context: contexts.number,
+  class: artefactClasses.code,
+  x: finds.x,
+  y: finds.y,
+  z: finds.z,
+} as const;
+
+/** One page of the finds register, filtered and sorted in the database. */
+export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
+  const where: SQL[] = [eq(finds.siteId, siteId)];
+  if (q.trenchId) where.push(eq(finds.trenchId, q.trenchId));
+  if (q.contextId) where.push(eq(finds.contextId, q.contextId));
+  if (q.classId) where.push(eq(finds.classId, q.classId));
+  if (q.recordedBy) where.push(eq(finds.recordedBy, q.recordedBy));
+  if (q.from) where.push(gte(finds.recordedAt, q.from));
+  if (q.to) where.push(lte(finds.recordedAt, q.to));
+  if (q.q) {
+    const term = `%${q.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
+    const text = or(ilike(finds.description, term), sql`${finds.number}::text = ${q.q}`, ilike(artefactClasses.label, term));
+    if (text) where.push(text);
+  }
+  const filter = and(...where);
+  const order = q.dir === "desc" ? desc(sortColumns[q.sort]) : asc(sortColumns[q.sort]);
+  const rows = await db
+    .select({
+      id: finds.id,
+      number: finds.number,
+      x: finds.x,
+      y: finds.y,
+      z: finds.z,
+      count: finds.count,
+      weightG: finds.weightG,
+      description: finds.description,
+      method: finds.method,
+      recordedAt: finds.recordedAt,
+      recordedBy: users.name,
+      trenchId: finds.trenchId,
+      contextId: finds.contextId,
+      contextNumber: contexts.number,
+      contextState: contexts.state,
+      classId: finds.classId,
+      classCode: artefactClasses.code,
+      classLabel: artefactClasses.label,
+      total: sql<number>`count(*) over ()`.mapWith(Number),
+    })
+    .from(finds)
+    .innerJoin(contexts, eq(contexts.id, finds.contextId))
+    .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
+    .leftJoin(users, eq(users.id, finds.recordedBy))
+    .where(filter)
+    .orderBy(order, asc(finds.number))
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  const total = rows[0]?.total ?? (q.page > 1 ? await countFinds(db, filter) : 0);
+  return { page: q.page, pageSize: q.pageSize, total, rows: rows.map(({ total: _t, ...r }) => r) };
+}
+
+async function countFinds(db: Db, filter: SQL | undefined): Promise<number> {
+  const [row] = await db
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(finds)
+    .innerJoin(contexts, eq(contexts.id, finds.contextId))
+    .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
+    .where(filter);
+  return row?.n ?? 0;
+}

@@ -1,0 +1,129 @@
+import "server-only";
+import { and, asc, count, eq, sql } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { contexts, finds, memberships, sites, trenches, users, analysisRuns, type Role } from "@/db/schema";
+import type { SiteCreate, SiteUpdate } from "@/lib/schemas/site";
+import { recordAudit } from "./audit";
+import { badInput, conflict, notFound } from "./errors";
+import type { SiteActor } from "./membership";
+
+/** The sites a user belongs to, with their role and what awaits them there. */
+export async function listMySites(db: Db, userId: string) {
+  const rows = await db
+    .select({
+      id: sites.id,
+      code: sites.code,
+      name: sites.name,
+      role: memberships.role,
+      trenches: sql<number>`(select count(*)::int from ${trenches} where ${trenches.siteId} = ${sites.id})`,
+      finds: sql<number>`(select count(*)::int from ${finds} where ${finds.siteId} = ${sites.id})`,
+      awaitingSignOff: sql<number>`(select count(*)::int from ${contexts} where ${contexts.siteId} = ${sites.id} and ${contexts.state} = 'awaiting')`,
+      runsDone: sql<number>`(select count(*)::int from ${analysisRuns} where ${analysisRuns.siteId} = ${sites.id} and ${analysisRuns.status} = 'done')`,
+    })
+    .from(memberships)
+    .innerJoin(sites, eq(sites.id, memberships.siteId))
+    .where(eq(memberships.userId, userId))
+    .orderBy(asc(sites.code));
+  return rows;
+}
+
+export async function createSite(db: Db, userId: string, input: SiteCreate) {
+  return db.transaction(async (tx) => {
+    const [taken] = await tx.select({ id: sites.id }).from(sites).where(sql`lower(${sites.code}) = lower(${input.code})`);
+    if (taken) throw conflict(`The site code ${input.code} is already in use; choose another.`);
+    const [site] = await tx.insert(sites).values({ ...input, crs: input.crs ?? null }).returning();
+    await tx.insert(memberships).values({ siteId: site.id, userId, role: "director" });
+    await recordAudit(tx, { siteId: site.id, actorId: userId, action: "create", recordType: "site", recordId: site.id, after: site });
+    return site;
+  });
+}
+
+export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
+  return db.transaction(async (tx) => {
+    const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "site", recordId: actor.site.id, before: actor.site, after });
+    return after;
+  });
+}
+
+export async function siteOverview(db: Db, actor: SiteActor) {
+  const trenchRows = await db
+    .select({
+      id: trenches.id,
+      code: trenches.code,
+      name: trenches.name,
+      maxDepth: trenches.maxDepth,
+      signedOffAt: trenches.signedOffAt,
+      contexts: sql<number>`(select count(*)::int from ${contexts} where ${contexts.trenchId} = ${trenches.id})`,
+      finds: sql<number>`(select count(*)::int from ${finds} where ${finds.trenchId} = ${trenches.id})`,
+    })
+    .from(trenches)
+    .where(eq(trenches.siteId, actor.site.id))
+    .orderBy(asc(trenches.code));
+  const [awaiting] = await db
+    .select({ n: count() })
+    .from(contexts)
+    .where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting")));
+  return { site: actor.site, role: actor.role, trenches: trenchRows, awaitingSignOff: awaiting?.n ?? 0 };
+}
+
+export async function listMembers(db: Db, siteId: string) {
+  return db
+    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, since: memberships.createdAt })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.siteId, siteId))
+    .orderBy(asc(users.name));
+}
+
+/** Adds an existing Loamwork user to the site (invitations of new people arrive by e-mail; see invitations). */
+export async function addMember(db: Db, actor: SiteActor, input: { email: string; role: Role }) {
+  return db.transaction(async (tx) => {
+    const [user] = await tx.select().from(users).where(eq(users.email, input.email));
+    if (!user) throw badInput(`No Loamwork account uses ${input.email}; send an invitation instead.`, { email: ["No account with this address."] });
+    const [existing] = await tx
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, user.id)));
+    if (existing) throw conflict(`${user.name} is already on this site as ${existing.role}.`);
+    const [row] = await tx.insert(memberships).values({ siteId: actor.site.id, userId: user.id, role: input.role }).returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "add", recordType: "member", recordId: user.id, after: row });
+    return row;
+  });
+}
+
+async function assertNotLastDirector(db: Db, siteId: string, userId: string) {
+  const rows = await db
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.siteId, siteId), eq(memberships.role, "director")));
+  if (rows.length === 1 && rows[0].userId === userId) {
+    throw conflict("A site needs at least one director; make someone else director first.");
+  }
+}
+
+export async function changeMemberRole(db: Db, actor: SiteActor, userId: string, role: Role) {
+  return db.transaction(async (tx) => {
+    const [before] = await tx.select().from(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
+    if (!before) throw notFound("That member");
+    if (before.role === "director" && role !== "director") await assertNotLastDirector(tx as unknown as Db, actor.site.id, userId);
+    const [after] = await tx
+      .update(memberships)
+      .set({ role })
+      .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)))
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "change-role", recordType: "member", recordId: userId, before, after });
+    return after;
+  });
+}
+
+export async function removeMember(db: Db, actor: SiteActor, userId: string) {
+  return db.transaction(async (tx) => {
+    const [before] = await tx.select().from(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
+    if (!before) throw notFound("That member");
+    if (before.role === "director") await assertNotLastDirector(tx as unknown as Db, actor.site.id, userId);
+    await tx.delete(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "remove", recordType: "member", recordId: userId, before });
+    return { removed: userId };
+  });
+}

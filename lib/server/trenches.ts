@@ -1,0 +1,94 @@
+import "server-only";
+import { and, asc, eq } from "drizzle-orm";
+import type { Db, Tx } from "@/db/client";
+import { contexts, finds, trenches, type Trench } from "@/db/schema";
+import { checkOutline, windowToPolygon, type OutlinePolygon } from "@/lib/geometry/outline";
+import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
+import type { Window } from "@/lib/spatial/types";
+import { recordAudit } from "./audit";
+import { badInput, conflict, notFound } from "./errors";
+import type { SiteActor } from "./membership";
+
+/** Validates an outline or refuses it with the reason, as a field error on `outline`. */
+export function assertOutline(polygon: OutlinePolygon): Window {
+  const check = checkOutline(polygon);
+  if (!check.ok) throw badInput(`The trench outline is not valid: ${check.reason}`, { outline: [check.reason] });
+  return check.window;
+}
+
+export async function listTrenches(db: Db, siteId: string) {
+  return db.select().from(trenches).where(eq(trenches.siteId, siteId)).orderBy(asc(trenches.code));
+}
+
+export async function getTrench(db: Db | Tx, siteId: string, trenchId: string): Promise<Trench> {
+  const [row] = await db.select().from(trenches).where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
+  if (!row) throw notFound("That trench");
+  return row;
+}
+
+export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate) {
+  const window = assertOutline(input.outline);
+  return db.transaction(async (tx) => {
+    const [taken] = await tx.select({ id: trenches.id }).from(trenches).where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
+    if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
+    const [row] = await tx
+      .insert(trenches)
+      .values({ siteId: actor.site.id, code: input.code, name: input.name, outline: windowToPolygon(window), maxDepth: input.maxDepth ?? null })
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "trench", recordId: row.id, after: row });
+    return row;
+  });
+}
+
+export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate) {
+  const window = input.outline ? assertOutline(input.outline) : null;
+  return db.transaction(async (tx) => {
+    const before = await getTrench(tx, actor.site.id, trenchId);
+    if (window) {
+      const placed = await tx
+        .select({ number: finds.number, x: finds.x, y: finds.y, state: contexts.state, context: contexts.number })
+        .from(finds)
+        .innerJoin(contexts, eq(contexts.id, finds.contextId))
+        .where(eq(finds.trenchId, trenchId));
+      const outside = placed.filter((f) => !window.contains(f.x, f.y));
+      if (outside.length) {
+        const locked = outside.filter((f) => f.state === "signed_off");
+        const names = outside.slice(0, 5).map((f) => f.number).join(", ");
+        throw conflict(
+          `The new outline would leave ${outside.length} find(s) outside the trench (find ${names}${outside.length > 5 ? ", …" : ""})` +
+            (locked.length ? `, ${locked.length} of them in signed-off contexts` : "") +
+            ". Move those finds first or draw the outline around them.",
+          { outside: outside.map((f) => f.number) },
+        );
+      }
+    }
+    if (input.code && input.code !== before.code) {
+      const [taken] = await tx.select({ id: trenches.id }).from(trenches).where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
+      if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
+    }
+    const [after] = await tx
+      .update(trenches)
+      .set({
+        ...(input.code !== undefined && { code: input.code }),
+        ...(input.name !== undefined && { name: input.name }),
+        ...(input.maxDepth !== undefined && { maxDepth: input.maxDepth }),
+        ...(window && { outline: windowToPolygon(window) }),
+        updatedAt: new Date(),
+      })
+      .where(eq(trenches.id, trenchId))
+      .returning();
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "trench", recordId: trenchId, before, after });
+    return after;
+  });
+}
+
+export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string) {
+  return db.transaction(async (tx) => {
+    const before = await getTrench(tx, actor.site.id, trenchId);
+    const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
+    if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);
+    await tx.delete(trenches).where(eq(trenches.id, trenchId));
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "trench", recordId: trenchId, before });
+    return { deleted: trenchId };
+  });
+}
