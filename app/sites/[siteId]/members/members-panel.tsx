@@ -1,0 +1,70 @@
+"use client";
+
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
+import { roles } from "@/lib/schemas/common";
+
+type Member = { userId: string; name: string; email: string; role: (typeof roles)[number] };
+
+async function api<T>(url: string, init?: RequestInit): Promise<T> {
+  const res = await fetch(url, { ...init, headers: { "content-type": "application/json" } });
+  const body = await res.json().catch(() => ({}));
+  if (!res.ok) throw new Error(body.error ?? `The server answered ${res.status}.`);
+  return body as T;
+}
+
+export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; canManage: boolean; selfId: string }) {
+  const qc = useQueryClient();
+  const key = ["members", siteId];
+  const members = useQuery({ queryKey: key, queryFn: () => api<Member[]>(`/api/sites/${siteId}/members`) });
+  const [email, setEmail] = useState("");
+  const [role, setRole] = useState<Member["role"]>("digger");
+  const done = () => qc.invalidateQueries({ queryKey: key });
+  const add = useMutation({ mutationFn: () => api(`/api/sites/${siteId}/members`, { method: "POST", body: JSON.stringify({ email, role }) }), onSuccess: () => { setEmail(""); done(); } });
+  const change = useMutation({ mutationFn: (m: { userId: string; role: string }) => api(`/api/sites/${siteId}/members/${m.userId}`, { method: "PATCH", body: JSON.stringify({ role: m.role }) }), onSuccess: done });
+  const remove = useMutation({ mutationFn: (userId: string) => api(`/api/sites/${siteId}/members/${userId}`, { method: "DELETE" }), onSuccess: done });
+  const failure = add.error ?? change.error ?? remove.error;
+
+  return (
+    <div className="space-y-4">
+      <table className="ledger">
+        <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{canManage && <th />}</tr></thead>
+        <tbody>
+          {members.data?.map((m) => (
+            <tr key={m.userId}>
+              <td>{m.name}</td>
+              <td className="font-mono text-xs">{m.email}</td>
+              <td>
+                {canManage ? (
+                  <select aria-label={`Role of ${m.name}`} className="field max-w-40" value={m.role} onChange={(e) => change.mutate({ userId: m.userId, role: e.target.value })}>
+                    {roles.map((r) => <option key={r} value={r}>{r}</option>)}
+                  </select>
+                ) : m.role}
+              </td>
+              {canManage && (
+                <td>{m.userId !== selfId && <button className="btn" onClick={() => remove.mutate(m.userId)}>Take off site</button>}</td>
+              )}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {members.isLoading && <p>Loading members…</p>}
+      <p className="field-error" role="alert" aria-live="polite">{failure?.message}</p>
+      {canManage && (
+        <form className="sheet flex flex-wrap items-end gap-3" onSubmit={(e) => { e.preventDefault(); add.mutate(); }}>
+          <div className="grow">
+            <label className="label" htmlFor="new-email">Add a person by e-mail</label>
+            <input id="new-email" className="field" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
+          </div>
+          <div>
+            <label className="label" htmlFor="new-role">Role</label>
+            <select id="new-role" className="field" value={role} onChange={(e) => setRole(e.target.value as Member["role"])}>
+              {roles.map((r) => <option key={r} value={r}>{r}</option>)}
+            </select>
+          </div>
+          <button className="btn-primary" type="submit" disabled={add.isPending}>Add to site</button>
+        </form>
+      )}
+    </div>
+  );
+}

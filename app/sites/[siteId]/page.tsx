@@ -1,0 +1,58 @@
+import Link from "next/link";
+import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
+import { OutlineSketch } from "@/components/outline-sketch";
+import { SiteNav } from "@/components/site-nav";
+import { countHumanRemains } from "@/lib/server/human-remains";
+import { pageSiteActor } from "@/lib/server/page-access";
+import { siteOverview } from "@/lib/server/sites";
+import { listTrenches } from "@/lib/server/trenches";
+
+export default async function SiteOverviewPage({ params }: { params: Promise<{ siteId: string }> }) {
+  const { siteId } = await params;
+  const { db, actor } = await pageSiteActor(siteId);
+  const [overview, outlines, remains] = await Promise.all([siteOverview(db, actor), listTrenches(db, siteId), countHumanRemains(db, siteId)]);
+  const outlineOf = new Map(outlines.map((t) => [t.id, t.outline]));
+  const deepest = Math.max(0, ...overview.trenches.map((t) => t.maxDepth ?? 0));
+  return (
+    <>
+      <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}`} />
+      <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
+        <div>
+          <p className="font-mono text-sm text-ink-faint">{actor.site.code}</p>
+          <h1 className="text-3xl font-bold">{actor.site.name}</h1>
+          {actor.site.gridDescription && <p className="mt-1 max-w-3xl text-ink-soft">{actor.site.gridDescription}</p>}
+        </div>
+        {remains > 0 && <HumanRemainsBanner count={remains} />}
+        {deepest > DEEP_TRENCH_M && <DeepTrenchCaution depth={deepest} />}
+        <section className="sheet" aria-labelledby="awaiting">
+          <h2 id="awaiting" className="text-lg font-bold">What awaits you</h2>
+          <p className="mt-1">
+            {actor.role === "director"
+              ? `${overview.awaitingSignOff} context sheet(s) submitted for your sign-off.`
+              : actor.role === "digger"
+                ? "Record finds on the trench plans and submit finished contexts for sign-off."
+                : "Run distribution tests on the finds in Patterns."}
+          </p>
+        </section>
+        <section aria-labelledby="trenches">
+          <h2 id="trenches" className="text-xl font-bold">Trenches</h2>
+          <ul className="mt-3 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+            {overview.trenches.map((t) => (
+              <li key={t.id} className="sheet flex gap-4">
+                {outlineOf.get(t.id) && <OutlineSketch outline={outlineOf.get(t.id)!} />}
+                <div>
+                  <Link className="text-lg font-bold underline decoration-accent/40 underline-offset-4" href={`/sites/${siteId}/trenches/${t.id}`}>
+                    Trench {t.code}
+                  </Link>
+                  <p className="text-sm text-ink-soft">{t.name}</p>
+                  <p className="mt-2 text-sm"><span className="num">{t.contexts}</span> contexts · <span className="num">{t.finds}</span> finds</p>
+                  {t.signedOffAt && <p className="mt-1 text-sm font-semibold text-ok">Signed off</p>}
+                </div>
+              </li>
+            ))}
+          </ul>
+        </section>
+      </main>
+    </>
+  );
+}

@@ -1,0 +1,26 @@
+import Link from "next/link";
+import { SignOutButton } from "./sign-out-button";
+
+export function AppHeader({ userName, crumbs = [] }: { userName: string; crumbs?: { href: string; label: string }[] }) {
+  return (
+    <header className="no-print border-b-2 border-ink/70 bg-paper-deep">
+      <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-3 px-4 py-2">
+        <Link href="/sites" className="font-mono text-lg font-semibold tracking-tight text-ink">
+          loam<span className="text-accent">work</span>
+        </Link>
+        <nav aria-label="Where you are" className="flex flex-wrap items-center gap-1 text-ink-soft">
+          {crumbs.map((c) => (
+            <span key={c.href} className="flex items-center gap-1">
+              <span aria-hidden>/</span>
+              <Link className="underline decoration-ink/30 underline-offset-4 hover:text-ink" href={c.href}>{c.label}</Link>
+            </span>
+          ))}
+        </nav>
+        <div className="ml-auto flex items-center gap-3">
+          <span className="text-sm text-ink-soft">{userName}</span>
+          <SignOutButton />
+        </div>
+      </div>
+    </header>
+  );
+}

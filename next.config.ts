@@ -1,0 +1,10 @@
+import type { NextConfig } from "next";
+
+const config: NextConfig = {
+  // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
+  serverExternalPackages: ["@electric-sql/pglite", "piscina", "sharp", "smtp-server", "mailparser", "nodemailer"],
+  experimental: { authInterrupts: true },
+  poweredByHeader: false,
+};
+
+export default config;
