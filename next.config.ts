@@ -5,6 +5,8 @@ const config: NextConfig = {
   serverExternalPackages: ["@electric-sql/pglite", "piscina", "sharp", "smtp-server", "mailparser", "nodemailer"],
   experimental: { authInterrupts: true },
   poweredByHeader: false,
+  // Types are checked by `npm run typecheck` in the test command, once for the whole tree.
+  typescript: { ignoreBuildErrors: true },
 };
 
 export default config;

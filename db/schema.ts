@@ -266,3 +266,12 @@ export type Find = typeof finds.$inferSelect;
 export type AnalysisRun = typeof analysisRuns.$inferSelect;
 export type AuditEntry = typeof auditEntries.$inferSelect;
 export type Photo = typeof photos.$inferSelect;
+
+export const passwordResets = pgTable("password_resets", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  tokenHash: text("token_hash").notNull().unique(),
+  expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+  usedAt: timestamp("used_at", { withTimezone: true }),
+  createdAt: created(),
+});

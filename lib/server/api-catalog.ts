@@ -1,43 +1,32 @@
-import { z, type ZodType } from "zod";
-import type { Role } from "@/db/schema";
+import { z } from "zod";
 import { emptyQuery } from "@/lib/schemas/common";
 import { artefactClassCreateSchema, artefactClassUpdateSchema } from "@/lib/schemas/artefact-class";
 import { contextCreateSchema, contextUpdateSchema } from "@/lib/schemas/context";
 import { findCreateSchema, findListQuery, findUpdateSchema } from "@/lib/schemas/find";
 import { memberAddSchema, memberRoleSchema, siteCreateSchema, siteUpdateSchema } from "@/lib/schemas/site";
 import { trenchCreateSchema, trenchUpdateSchema } from "@/lib/schemas/trench";
+import { patternsApi } from "./catalog/patterns";
+import { planApi } from "./catalog/plan";
+import { recordingApi } from "./catalog/recording";
+import { signOffApi } from "./catalog/sign-off";
+import { classers, directorOnly, everyone, recorders, type ApiOperation } from "./catalog/types";
+
+export type { ApiOperation } from "./catalog/types";
 
 /**
  * Every JSON API operation in one table: its path, who may call it, and the zod schema of its input.
  * The route handlers, the OpenAPI document and the role × write test all read this table, so a new
- * route cannot skip any of them.
+ * route cannot skip any of them. Each feature keeps its operations in lib/server/catalog/<feature>.ts.
  */
-export type ApiOperation = {
-  method: "GET" | "POST" | "PATCH" | "DELETE";
-  path: string;
-  summary: string;
-  /** Site roles allowed; "member" = any member; undefined = any signed-in user (not site-scoped). */
-  roles?: readonly Role[] | "member";
-  doing?: string;
-  input?: ZodType;
-  from?: "body" | "query" | "none";
-  successStatus?: number;
-};
-
-const recorders = ["digger", "director"] as const;
-const classers = ["specialist", "director"] as const;
-const director = ["director"] as const;
-const everyone = ["digger", "specialist", "director"] as const;
-
-export const api = {
+const coreApi = {
   sitesList: { method: "GET", path: "/api/sites", summary: "Sites you belong to, with your role", from: "none" },
   sitesCreate: { method: "POST", path: "/api/sites", summary: "Create a site (you become its director)", input: siteCreateSchema, successStatus: 201 },
   siteRead: { method: "GET", path: "/api/sites/{siteId}", summary: "Site overview", roles: "member", from: "none" },
-  siteUpdate: { method: "PATCH", path: "/api/sites/{siteId}", summary: "Change the site's name and grid", roles: director, doing: "change the site's settings", input: siteUpdateSchema },
+  siteUpdate: { method: "PATCH", path: "/api/sites/{siteId}", summary: "Change the site's name and grid", roles: directorOnly, doing: "change the site's settings", input: siteUpdateSchema },
   membersList: { method: "GET", path: "/api/sites/{siteId}/members", summary: "Members and their roles", roles: "member", from: "none" },
-  membersAdd: { method: "POST", path: "/api/sites/{siteId}/members", summary: "Add an existing user to the site", roles: director, doing: "manage members", input: memberAddSchema, successStatus: 201 },
-  memberUpdate: { method: "PATCH", path: "/api/sites/{siteId}/members/{userId}", summary: "Change a member's role", roles: director, doing: "manage members", input: memberRoleSchema },
-  memberRemove: { method: "DELETE", path: "/api/sites/{siteId}/members/{userId}", summary: "Remove a member", roles: director, doing: "manage members", from: "none" },
+  membersAdd: { method: "POST", path: "/api/sites/{siteId}/members", summary: "Add an existing user to the site", roles: directorOnly, doing: "manage members", input: memberAddSchema, successStatus: 201 },
+  memberUpdate: { method: "PATCH", path: "/api/sites/{siteId}/members/{userId}", summary: "Change a member's role", roles: directorOnly, doing: "manage members", input: memberRoleSchema },
+  memberRemove: { method: "DELETE", path: "/api/sites/{siteId}/members/{userId}", summary: "Remove a member", roles: directorOnly, doing: "manage members", from: "none" },
   classesList: { method: "GET", path: "/api/sites/{siteId}/classes", summary: "Artefact classes", roles: "member", from: "none" },
   classesCreate: { method: "POST", path: "/api/sites/{siteId}/classes", summary: "Add an artefact class", roles: classers, doing: "maintain artefact classes", input: artefactClassCreateSchema, successStatus: 201 },
   classUpdate: { method: "PATCH", path: "/api/sites/{siteId}/classes/{classId}", summary: "Change an artefact class", roles: classers, doing: "maintain artefact classes", input: artefactClassUpdateSchema },
@@ -45,7 +34,7 @@ export const api = {
   trenchesCreate: { method: "POST", path: "/api/sites/{siteId}/trenches", summary: "Open a trench with its outline", roles: recorders, doing: "lay out trenches", input: trenchCreateSchema, successStatus: 201 },
   trenchRead: { method: "GET", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "One trench", roles: "member", from: "none" },
   trenchUpdate: { method: "PATCH", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Change a trench or its outline", roles: recorders, doing: "edit trenches", input: trenchUpdateSchema },
-  trenchDelete: { method: "DELETE", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Delete an empty trench", roles: director, doing: "delete trenches", from: "none" },
+  trenchDelete: { method: "DELETE", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Delete an empty trench", roles: directorOnly, doing: "delete trenches", from: "none" },
   contextsList: { method: "GET", path: "/api/sites/{siteId}/contexts", summary: "Context sheets (optionally of one trench)", roles: "member", input: z.object({ trenchId: z.string().uuid().optional() }), from: "query" },
   contextsCreate: { method: "POST", path: "/api/sites/{siteId}/contexts", summary: "Open a context sheet", roles: recorders, doing: "record contexts", input: contextCreateSchema, successStatus: 201 },
   contextRead: { method: "GET", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "One context sheet", roles: "member", from: "none" },
@@ -57,6 +46,8 @@ export const api = {
   findUpdate: { method: "PATCH", path: "/api/sites/{siteId}/finds/{findId}", summary: "Change a find (specialists may re-class)", roles: everyone, doing: "change finds", input: findUpdateSchema },
   findDelete: { method: "DELETE", path: "/api/sites/{siteId}/finds/{findId}", summary: "Delete a find (its number is never reused)", roles: recorders, doing: "delete finds", from: "none" },
 } satisfies Record<string, ApiOperation>;
+
+export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi };
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

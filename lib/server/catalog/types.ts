@@ -1,0 +1,22 @@
+import type { ZodType } from "zod";
+import type { Role } from "@/db/schema";
+
+/** One JSON API operation: its path, who may call it, and the zod schema of its input. */
+export type ApiOperation = {
+  method: "GET" | "POST" | "PATCH" | "DELETE";
+  path: string;
+  summary: string;
+  /** Site roles allowed; "member" = any member; undefined = any signed-in user (not site-scoped). */
+  roles?: readonly Role[] | "member";
+  doing?: string;
+  input?: ZodType;
+  from?: "body" | "query" | "none";
+  successStatus?: number;
+};
+
+/** Role sets used across the catalogue. */
+export const recorders = ["digger", "director"] as const;
+export const classers = ["specialist", "director"] as const;
+export const directorOnly = ["director"] as const;
+export const everyone = ["digger", "specialist", "director"] as const;
+export const analysts = ["specialist", "director"] as const;

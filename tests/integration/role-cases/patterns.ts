@@ -1,0 +1,3 @@
+import type { RoleCases } from "./types";
+
+export const patternsCases: RoleCases = {};
