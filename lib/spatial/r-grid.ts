@@ -1,0 +1,94 @@
+/**
+ * Distance grids for K-type functions. The default follows spatstat 3.x (`rmax.rule("K")` and
+ * `handle.r.b.args`): r max = min(short side of the bounding box / 4, √(1000 / (π λ))), with 513 values
+ * from 0. The first term is Ripley's (1988) rule of thumb, the second keeps the expected number of
+ * neighbours within r max near 1000.
+ */
+import { SpatialInputError } from "./errors";
+import type { Window } from "./types";
+
+export interface RGridOptions {
+  /** Number of r values, 0 included (default 513). */
+  count?: number;
+  /** Override r max; must not exceed the window's diameter. */
+  rmax?: number;
+}
+
+/** spatstat's default r max for K with intensity λ = n / |W|. */
+export function defaultRMax(window: Window, n: number): number {
+  const { bbox } = window;
+  const ripley = Math.min(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY) / 4;
+  const lambda = n / window.area;
+  return Math.min(ripley, Math.sqrt(1000 / (Math.PI * lambda)));
+}
+
+/** The default r grid for a pattern of n points in `window`. */
+export function defaultRGrid(window: Window, n: number, options: RGridOptions = {}): Float64Array {
+  const count = options.count ?? 513;
+  if (!Number.isInteger(count) || count < 2) throw new SpatialInputError(`An r grid needs at least 2 values; got ${count}.`);
+  if (!(n >= 1)) throw new SpatialInputError("The default r grid needs at least one point to estimate the intensity.");
+  const rmax = options.rmax ?? defaultRMax(window, n);
+  const r = new Float64Array(count);
+  for (let k = 0; k < count; k++) r[k] = (rmax * k) / (count - 1);
+  return checkRGrid(window, r);
+}
+
+/**
+ * Copy a user's r grid, refusing what spatstat refuses (first value not 0, values not increasing) and
+ * distances beyond the window's diameter, where no pair can exist.
+ */
+export function checkRGrid(window: Window, input: ArrayLike<number>): Float64Array {
+  const r = Float64Array.from(input);
+  if (r.length < 2) throw new SpatialInputError(`An r grid needs at least 2 values; got ${r.length}.`);
+  if (r[0] !== 0) throw new SpatialInputError(`The r grid must start at 0; it starts at ${r[0]}.`);
+  for (let k = 1; k < r.length; k++) {
+    if (!Number.isFinite(r[k]) || !(r[k] > r[k - 1])) {
+      throw new SpatialInputError(`The r grid must increase strictly; value ${k + 1} (${r[k]}) does not.`);
+    }
+  }
+  const last = r[r.length - 1];
+  if (last > window.diameter) {
+    throw new SpatialInputError(
+      `r = ${last} is beyond the trench window (its largest extent is ${window.diameter.toFixed(3)} m); choose a smaller r max.`,
+    );
+  }
+  return r;
+}
+
+/**
+ * Bin index of a distance on grid r, following spatstat's `whist` on breaks (−r₁, r₀ = 0, r₁, …): the
+ * smallest k with d < r[k], except that d = r[last] falls in the last bin; r.length when d is beyond the grid.
+ * The value at r[k] of a cumulative count is then #{d < r[k]}.
+ */
+export function createBinner(r: Float64Array): (d: number) => number {
+  const m = r.length;
+  const step = r[m - 1] / (m - 1);
+  let uniform = true;
+  for (let k = 0; k < m; k++) {
+    if (Math.abs(r[k] - k * step) > 1e-9 * r[m - 1]) uniform = false;
+  }
+  const last = r[m - 1];
+  if (uniform) {
+    return (d: number): number => {
+      if (d > last) return m;
+      if (d === last) return m - 1;
+      let k = Math.floor(d / step) + 1;
+      if (k > m - 1) k = m - 1;
+      while (k < m - 1 && r[k] <= d) k++;
+      while (k > 0 && r[k - 1] > d) k--;
+      return k;
+    };
+  }
+  return (d: number): number => {
+    if (d > last) return m;
+    if (d === last) return m - 1;
+    let lo = 0;
+    let hi = m - 1; // invariant: r[hi] > d
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (r[mid] > d) hi = mid;
+      else lo = mid + 1;
+    }
+    return lo;
+  };
+}
