@@ -212,9 +212,28 @@ mc_block <- function(X, r, nsim, seed, fix.n) {
   out
 }
 
+# jsonlite prints at most 15 significant digits, so doubles are formatted here with %.17g (enough to
+# round-trip every double) and handed to jsonlite verbatim. NA, NaN and Inf become null.
+num17 <- function(v) ifelse(is.finite(v), sprintf("%.17g", v), "null")
+verbatim <- function(x) {
+  if (is.list(x)) {
+    out <- lapply(x, verbatim)
+    attributes(out) <- attributes(x)[intersect(names(attributes(x)), c("names"))]
+    return(out)
+  }
+  if (is.double(x) && is.matrix(x)) {
+    rows <- apply(x, 1, function(row) paste0("[", paste(num17(row), collapse = ","), "]"))
+    return(structure(paste0("[", paste(rows, collapse = ","), "]"), class = "json"))
+  }
+  if (is.double(x)) {
+    body <- paste(num17(unname(x)), collapse = ",")
+    return(structure(if (length(x) == 1) body else paste0("[", body, "]"), class = "json"))
+  }
+  x
+}
 write_fixture <- function(name, obj) {
   path <- file.path(out_dir, paste0(name, ".json"))
-  write_json(obj, path, digits = I(17), auto_unbox = TRUE, pretty = TRUE, na = "null")
+  write_json(verbatim(obj), path, json_verbatim = TRUE, auto_unbox = TRUE, pretty = TRUE, na = "null")
   cat("wrote", path, "\n")
 }
 
