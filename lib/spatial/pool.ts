@@ -1,0 +1,124 @@
+/**
+ * Simulations over a worker-thread pool (piscina). A run is cut into chunks of consecutive simulation
+ * indices; each chunk is one task, the curves come back as moved buffers and are placed by index, so the
+ * result is the same for any number of threads (and for no pool at all: `runSimulations` without a pool
+ * runs the same chunks in this thread, yielding to the event loop between them).
+ *
+ * Worker threads do not inherit the parent's TypeScript loader, so the default worker file is
+ * worker-entry.mjs, which registers tsx in the thread and imports worker.ts. That works under vitest, tsx
+ * scripts and plain `node`; a bundled server (Next.js) should pass `workerFile` pointing at a copy of this
+ * folder outside the bundle, or at a compiled worker.js.
+ */
+import { setMaxListeners } from "node:events";
+import { availableParallelism } from "node:os";
+import { Piscina } from "piscina";
+import type { CurveSet } from "./envelope";
+import { SpatialInputError } from "./errors";
+import { runSimChunk } from "./sim-chunk";
+import type { SimChunk, SimSetup } from "./sim-models";
+
+export interface SimulationPool {
+  readonly threads: number;
+  runChunk(chunk: SimChunk, signal?: AbortSignal): Promise<Float64Array>;
+  destroy(): Promise<void>;
+}
+
+export interface PoolOptions {
+  /** Worker threads (default: min(2, available cores)). */
+  threads?: number;
+  /** Worker module (URL or path); default worker-entry.mjs beside this file. */
+  workerFile?: string | URL;
+}
+
+export function defaultThreads(): number {
+  return Math.max(1, Math.min(2, availableParallelism()));
+}
+
+export function createSimulationPool(options: PoolOptions = {}): SimulationPool {
+  const threads = options.threads ?? defaultThreads();
+  if (!Number.isInteger(threads) || threads < 1 || threads > 64) throw new SpatialInputError(`Worker threads must be 1 to 64; got ${threads}.`);
+  const file = options.workerFile ?? new URL("./worker-entry.mjs", import.meta.url);
+  const piscina = new Piscina({ filename: file instanceof URL ? file.href : file, minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
+  return {
+    threads,
+    async runChunk(chunk, signal) {
+      const out = (await piscina.run(chunk, { signal: signal ?? null })) as Float64Array | { inputError: string };
+      if (out instanceof Float64Array) return out;
+      throw new SpatialInputError(out.inputError);
+    },
+    destroy: () => piscina.destroy(),
+  };
+}
+
+export interface RunSimulationsOptions {
+  seed: number;
+  /** First random stream of this run (distinct tests of one run use distinct ranges). */
+  streamBase: number;
+  nsim: number;
+  pool?: SimulationPool | null;
+  signal?: AbortSignal;
+  /** Called with the fraction of simulations done, ending with 1. */
+  onProgress?: (fraction: number) => void;
+  /** Number of chunks (default: 8 per thread, at most nsim). */
+  chunks?: number;
+}
+
+let keyCounter = 0;
+
+function abortError(): DOMException {
+  return new DOMException("The simulation run was cancelled.", "AbortError");
+}
+
+/** Run nsim simulations of `setup`; rows of the result are in simulation order. */
+export async function runSimulations(setup: SimSetup, options: RunSimulationsOptions): Promise<CurveSet & { sims: Float64Array }> {
+  const { seed, streamBase, nsim, pool, signal, onProgress } = options;
+  if (!Number.isInteger(nsim) || nsim < 1 || nsim > 100_000) throw new SpatialInputError(`The number of simulations must be 1 to 100000; got ${nsim}.`);
+  if (signal?.aborted) throw abortError();
+  const threads = pool ? pool.threads : 1;
+  const chunkCount = Math.min(nsim, options.chunks ?? 8 * threads);
+  const key = `run-${process.pid}-${++keyCounter}`;
+  const bounds = Array.from({ length: chunkCount + 1 }, (_, c) => Math.round((c * nsim) / chunkCount));
+  let m = 0;
+  let sims = new Float64Array(0);
+  let done = 0;
+  const place = (from: number, to: number, curves: Float64Array): void => {
+    const rowLength = curves.length / (to - from);
+    if (m === 0) {
+      m = rowLength;
+      sims = new Float64Array(nsim * m);
+    }
+    sims.set(curves, from * m);
+    done += to - from;
+    onProgress?.(done / nsim);
+  };
+  const chunkAt = (c: number): SimChunk => ({ setup, key, seed, streamBase, from: bounds[c], to: bounds[c + 1] });
+  if (!pool) {
+    for (let c = 0; c < chunkCount; c++) {
+      await new Promise<void>((resolve) => setImmediate(resolve));
+      if (signal?.aborted) throw abortError();
+      const result = runSimChunk(chunkAt(c), () => signal?.aborted === true);
+      place(result.from, result.to, result.curves);
+    }
+    return { m, s: nsim, sims };
+  }
+  const inner = new AbortController();
+  setMaxListeners(0, inner.signal); // piscina listens once per queued chunk
+  const relay = () => inner.abort();
+  signal?.addEventListener("abort", relay, { once: true });
+  try {
+    await Promise.all(
+      Array.from({ length: chunkCount }, async (_, c) => {
+        const chunk = chunkAt(c);
+        const curves = await pool.runChunk(chunk, inner.signal);
+        place(chunk.from, chunk.to, curves);
+      }),
+    );
+  } catch (error) {
+    inner.abort(); // stop the chunks still queued or running
+    if (signal?.aborted) throw abortError();
+    throw error;
+  } finally {
+    signal?.removeEventListener("abort", relay);
+  }
+  return { m, s: nsim, sims };
+}
