@@ -4,6 +4,7 @@
  * (reduced-sample) counts of spatstat's `Kount`.
  */
 import type { PairList } from "./neighbours";
+import type { Binning } from "./r-grid";
 
 /**
  * out[k] = Σ_p (weights[2p] + weights[2p+1]) over pairs with bin(d_p) ≤ k when `bothWays`, else Σ weights[p].
@@ -29,12 +30,13 @@ export function cumulativePairSum(
 }
 
 /**
- * Reduced-sample counts (Ripley 1977; spatstat `Kount`): numerator[k] counts ordered pairs (i, j) with
- * d_ij < r[k], d_ij ≤ b_i and b_i ≥ r[k−1]; denominator[k] counts points i with b_i ≥ r[k−1] (all at k = 0).
- * `centreIsI[p]` chooses which end of pair p is the centre: with `bothWays` both ends are tried.
+ * Reduced-sample counts (Ripley 1977; spatstat `Kount` / `Krect.engine`, see createBinning): numerator[k]
+ * counts ordered pairs (i, j) that count at r[k] with centre i, denominator[k] the centres i that count at
+ * r[k]. With `bothWays` both ends of a pair are tried as centre (bj: boundary distances of the j pattern,
+ * default bi).
  */
 export function borderCounts(
-  bin: (d: number) => number,
+  binning: Binning,
   m: number,
   pairs: PairList,
   bi: Float64Array,
@@ -45,13 +47,14 @@ export function borderCounts(
 ): void {
   numerator.fill(0, 0, m);
   denominator.fill(0, 0, m);
+  const { bin, lastCentre, needsUncensored } = binning;
   const add = (d: number, b: number): void => {
-    if (d > b) return; // censored: the circle of radius d leaves the window
+    if (needsUncensored && d > b) return; // censored: the circle of radius d leaves the window
     const k = bin(d);
-    if (k >= m) return;
+    const last = lastCentre(b);
+    if (k >= m || last < k) return;
     numerator[k] += 1;
-    const stop = bin(b) + 1; // first k with b < r[k−1]
-    if (stop < m) numerator[stop] -= 1;
+    if (last + 1 < m) numerator[last + 1] -= 1;
   };
   for (let p = 0; p < pairs.count; p++) {
     const d = pairs.d[p];
@@ -60,8 +63,8 @@ export function borderCounts(
   }
   for (let k = 1; k < m; k++) numerator[k] += numerator[k - 1];
   for (let i = 0; i < bi.length; i++) {
-    const k = bin(bi[i]); // point i counts at grid values 0 .. k
-    denominator[Math.min(k, m - 1)] += 1;
+    const last = lastCentre(bi[i]);
+    if (last >= 0) denominator[last] += 1;
   }
   for (let k = m - 2; k >= 0; k--) denominator[k] += denominator[k + 1];
 }

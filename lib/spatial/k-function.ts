@@ -3,7 +3,7 @@
  * L = √(K/π) (Besag 1977, discussion of Ripley 1977), with spatstat 3.x conventions:
  *   K̂(r) = |W| / (n(n−1)) · Σ_{i≠j} w_ij · 1{d_ij < r}     (isotropic, translation)
  *   K̂(r) = Σ_{i≠j} 1{d_ij < r, d_ij ≤ b_i, b_i ≥ r⁻} / (λ · #{i: b_i ≥ r⁻})   (border, r⁻ the previous grid value)
- * with λ = n/|W|. Edge weights: isotropic (Ripley 1977) in edge-isotropic.ts, translation (Ohser 1983) in
+ * with λ = n/|W| (in a rectangle on an even grid, spatstat's `Krect.engine` rule instead: see createBinning). Edge weights: isotropic (Ripley 1977) in edge-isotropic.ts, translation (Ohser 1983) in
  * edge-translation.ts.
  */
 import { borderCounts, cumulativePairSum } from "./k-accumulate";
@@ -11,7 +11,7 @@ import { isotropicPairWeights } from "./edge-isotropic";
 import { translationPairWeights } from "./edge-translation";
 import { pairsWithin, type PairList } from "./neighbours";
 import { checkPattern } from "./pattern";
-import { checkRGrid, createBinner, defaultRGrid, defaultRMax } from "./r-grid";
+import { checkRGrid, createBinning, defaultRGrid, defaultRMax } from "./r-grid";
 import { SpatialInputError } from "./errors";
 import type { KCorrection, PointsInput, Window } from "./types";
 
@@ -85,7 +85,8 @@ export function defaultKGrid(window: Window, x: Float64Array, y: Float64Array, w
     let deepest = 0;
     for (let k = 0; k < x.length; k++) deepest = Math.max(deepest, window.boundaryDistance(x[k], y[k]));
     if (!(deepest > 0)) throw new SpatialInputError("Border correction: every point lies on the trench edge.");
-    rmax = Math.min(rmax, deepest);
+    // just below the deepest point, so that it still counts at r max under either binning rule
+    rmax = Math.min(rmax, deepest * (1 - 1e-9));
   }
   return defaultRGrid(window, x.length, { rmax });
 }
@@ -100,7 +101,7 @@ export function kFunction(window: Window, points: PointsInput, options: KOptions
   const m = r.length;
   const rmax = r[m - 1];
   const pairs = options.pairs ?? pairsWithin({ x, y }, rmax);
-  const bin = createBinner(r);
+  const binning = createBinning(window, r);
   const lambda = n / window.area;
   const scale = window.area / (n * (n - 1));
   const K: KResult["K"] = {};
@@ -109,7 +110,7 @@ export function kFunction(window: Window, points: PointsInput, options: KOptions
       const b = boundaryDistances(window, x, y);
       const num = new Float64Array(m);
       const den = new Float64Array(m);
-      borderCounts(bin, m, pairs, b, null, true, num, den);
+      borderCounts(binning, m, pairs, b, null, true, num, den);
       K.border = borderRatio(num, den, r, lambda, label);
       continue;
     }
@@ -117,7 +118,7 @@ export function kFunction(window: Window, points: PointsInput, options: KOptions
       c === "isotropic"
         ? isotropicPairWeights(window, x, y, n, pairs, rmax)
         : translationPairWeights(window, x, y, x, y, pairs);
-    const sum = cumulativePairSum(bin, m, pairs, weights, c === "isotropic", new Float64Array(m));
+    const sum = cumulativePairSum(binning.bin, m, pairs, weights, c === "isotropic", new Float64Array(m));
     // translation weights are symmetric: one per unordered pair, counted for both orders
     const factor = c === "isotropic" ? scale : 2 * scale;
     for (let k = 0; k < m; k++) sum[k] *= factor;

@@ -92,3 +92,50 @@ export function createBinner(r: Float64Array): (d: number) => number {
     return lo;
   };
 }
+
+/** A rule placing pair distances and boundary distances on an r grid. */
+export interface Binning {
+  /** Grid index from which a pair at distance d counts (m: nowhere). */
+  bin(d: number): number;
+  /** Last grid index at which a centre with boundary distance b counts in the border correction (−1: none). */
+  lastCentre(b: number): number;
+  /** True when a pair also needs d ≤ b_i to count (the generic rule); the rectangle rule has it built in. */
+  needsUncensored: boolean;
+}
+
+/** True for an axis-aligned rectangle without holes (spatstat's window type "rectangle"). */
+export function isAxisRectangle(window: Window): boolean {
+  if (window.holes.length > 0 || window.outer.length !== 4) return false;
+  const { minX, minY, maxX, maxY } = window.bbox;
+  return window.outer.every(([x, y]) => (x === minX || x === maxX) && (y === minY || y === maxY));
+}
+
+function isUniform(r: Float64Array): boolean {
+  const m = r.length;
+  const step = r[m - 1] / (m - 1);
+  for (let k = 0; k < m; k++) if (Math.abs(r[k] - k * step) > 1e-7 * step) return false;
+  return true;
+}
+
+/**
+ * spatstat has two discretisations and K-type estimators follow whichever spatstat 3.x would use:
+ * - generic (polygons, or an uneven grid): `whist` on breaks (−r₁, 0, r₁, …), so a pair counts at r[k]
+ *   when d < r[k]; a centre counts at r[k] when b ≥ r[k−1], a pair also needing d ≤ b_i (`Kount`);
+ * - rectangle with an evenly spaced grid (`Krect.engine`): a pair counts at r[l] when d ≤ r[l] (index
+ *   ⌈d/Δr⌉) and d < r max; a centre counts at r[l] when r[l] < b (index < ⌈b/Δr⌉).
+ * The two differ only where distances fall exactly on grid values.
+ */
+export function createBinning(window: Window, r: Float64Array): Binning {
+  const m = r.length;
+  if (isAxisRectangle(window) && isUniform(r)) {
+    const step = r[m - 1] / (m - 1);
+    const rmax = r[m - 1];
+    return {
+      bin: (d) => (d < rmax ? Math.ceil(d / step) : m),
+      lastCentre: (b) => Math.min(Math.ceil(b / step) - 1, m - 1),
+      needsUncensored: false,
+    };
+  }
+  const bin = createBinner(r);
+  return { bin, lastCentre: (b) => Math.min(bin(b), m - 1), needsUncensored: true };
+}
