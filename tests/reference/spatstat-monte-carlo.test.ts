@@ -1,0 +1,79 @@
+/**
+ * Global MAD test on L (isotropic) against spatstat's `mad.test` / `dclf.test` p-values
+ * (fixtures trench-*-{random,clustered}.json and dataset-*.json, 199 simulations each).
+ *
+ * The observed MAD statistic is deterministic and checked to a relative 1e-6. The p-values cannot match
+ * another generator's draws; they are checked within a binomial tolerance (argued at `pTolerance`).
+ */
+import { describe, expect, it } from "vitest";
+import { createWindow } from "@/lib/spatial/window";
+import { lFunction } from "@/lib/spatial/k-function";
+import { runSimulations } from "@/lib/spatial/pool";
+import { globalTest, type GlobalStatistic } from "@/lib/spatial/global-test";
+import { createRandom } from "@/lib/spatial/random";
+import type { CsrCount } from "@/lib/spatial/simulate";
+import { expectClose, fixtureFiles, loadFixture, source, type Fixture, type McBlock } from "./fixture";
+
+/** Simulations on the engine's side: more than spatstat's 199 so the engine's own noise is small. */
+const ENGINE_NSIM = 999;
+const SEED = 20261201;
+
+/**
+ * Both p-values estimate the same true p* = P(T_sim ≥ T_obs | data). spatstat's is (1 + Bin(s_R, p*)) /
+ * (s_R + 1), variance ≈ p*(1 − p*)/s_R; the engine's likewise with s_E. Their difference has standard
+ * deviation σ = √(p*(1 − p*)(1/s_R + 1/s_E)), with p* estimated by pooling both. We allow 4σ (a false
+ * failure about once in 16 000 checks, normal approximation) plus 1/(s_R + 1) for the "+1" of the rank
+ * rule and the discreteness of the smaller run. Common practice for Monte Carlo comparisons; the bound is
+ * ours.
+ */
+function pTolerance(pR: number, sR: number, pE: number, sE: number): number {
+  const pooled = (pR * (sR + 1) + pE * (sE + 1)) / (sR + sE + 2);
+  const sigma = Math.sqrt(pooled * (1 - pooled) * (1 / sR + 1 / sE));
+  return 4 * sigma + 1 / (sR + 1);
+}
+
+async function engineTest(fx: Fixture, count: CsrCount, statistic: GlobalStatistic) {
+  const W = createWindow({ outer: fx.window.outer, holes: fx.window.holes });
+  const r = Float64Array.from(fx.r);
+  const obs = lFunction(W, { x: fx.points.x, y: fx.points.y }, { r, correction: "isotropic" }).L.isotropic!;
+  const set = await runSimulations(
+    { window: { outer: fx.window.outer, holes: fx.window.holes }, r: fx.r, model: { kind: "csr-l", n: fx.n, count, correction: "isotropic" } },
+    { seed: SEED, streamBase: 0, nsim: ENGINE_NSIM },
+  );
+  const res = globalTest(obs, set, r, { statistic, theory: r, rng: createRandom(SEED, 1_000_000) });
+  return { obs, res };
+}
+
+function checkAgainst(fx: Fixture, block: McBlock, count: CsrCount) {
+  it(`MAD on L: observed statistic and p-value (${count} n) agree with spatstat`, async () => {
+    const { obs, res } = await engineTest(fx, count, "mad");
+    const ref = block.mad.twoSided;
+    const label = source(fx, `${block.envelopeCall}; ${ref.call} (nsim = ${block.nsim}, seed ${block.seed})`);
+    expectClose(res.observed, ref.statistic, `${label}: mad statistic`);
+    const tol = pTolerance(ref.p, block.nsim, res.pValue, res.nsim);
+    expect(Math.abs(res.pValue - ref.p), `${label}: engine p ${res.pValue} vs spatstat p ${ref.p}, tolerance ${tol}`).toBeLessThanOrEqual(tol);
+    // Direction: the largest deviation of L from r has the sign spatstat's one-sided tests point to.
+    let at = 0;
+    for (let k = 0; k < obs.length; k++) if (Math.abs(obs[k] - fx.r[k]) > Math.abs(obs[at] - fx.r[at])) at = k;
+    const above = obs[at] > fx.r[at];
+    if (block.mad.greater.p <= 0.05) expect(above, `${label}: spatstat mad.test(alternative = 'greater') p = ${block.mad.greater.p}`).toBe(true);
+    if (block.mad.less.p <= 0.05) expect(above, `${label}: spatstat mad.test(alternative = 'less') p = ${block.mad.less.p}`).toBe(false);
+  });
+
+  it(`DCLF on L: p-value (${count} n) agrees with spatstat`, async () => {
+    const { res } = await engineTest(fx, count, "dclf");
+    const ref = block.dclf.twoSided;
+    const label = source(fx, `${block.envelopeCall}; ${ref.call} (nsim = ${block.nsim}, seed ${block.seed})`);
+    const tol = pTolerance(ref.p, block.nsim, res.pValue, res.nsim);
+    expect(Math.abs(res.pValue - ref.p), `${label}: engine p ${res.pValue} vs spatstat p ${ref.p}, tolerance ${tol}`).toBeLessThanOrEqual(tol);
+  });
+}
+
+const files = [...fixtureFiles("trench-").filter((f) => /-(random|clustered)\.json$/.test(f)), ...fixtureFiles("dataset-")];
+
+describe.each(files)("spatstat Monte Carlo reference %s", (file) => {
+  const fx = loadFixture(file);
+  const mc = fx.monteCarlo!;
+  checkAgainst(fx, mc.poissonN, "poisson");
+  if (mc.fixedN) checkAgainst(fx, mc.fixedN, "fixed");
+});
