@@ -16,6 +16,8 @@ export interface FixtureMeta {
   fixture: string;
   seed: number;
   source?: string;
+  dataset?: string;
+  datasetCall?: string;
   expectedVerdict?: string;
 }
 
