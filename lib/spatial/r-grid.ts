@@ -123,11 +123,12 @@ function isUniform(r: Float64Array): boolean {
  *   when d < r[k]; a centre counts at r[k] when b ≥ r[k−1], a pair also needing d ≤ b_i (`Kount`);
  * - rectangle with an evenly spaced grid (`Krect.engine`): a pair counts at r[l] when d ≤ r[l] (index
  *   ⌈d/Δr⌉) and d < r max; a centre counts at r[l] when r[l] < b (index < ⌈b/Δr⌉).
- * The two differ only where distances fall exactly on grid values.
+ * The two differ only where distances fall exactly on grid values. `rule = "generic"` forces the first
+ * (spatstat's Kcross and Kdot always use it).
  */
-export function createBinning(window: Window, r: Float64Array): Binning {
+export function createBinning(window: Window, r: Float64Array, rule: "auto" | "generic" = "auto"): Binning {
   const m = r.length;
-  if (isAxisRectangle(window) && isUniform(r)) {
+  if (rule === "auto" && isAxisRectangle(window) && isUniform(r)) {
     const step = r[m - 1] / (m - 1);
     const rmax = r[m - 1];
     return {
