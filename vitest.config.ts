@@ -14,6 +14,7 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: "forks",
+    setupFiles: ["tests/support/pg-per-file.ts"],
     env: { LOAMWORK_DATA_DIR: "memory", NODE_ENV: "test" },
   },
 });

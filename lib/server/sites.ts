@@ -46,25 +46,27 @@ export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
   });
 }
 
+/** Per-trench counts, grouped in the database (one query each, not one per trench). */
+async function countsByTrench(db: Db, siteId: string) {
+  const [ctxCounts, findCounts] = await Promise.all([
+    db.select({ trenchId: contexts.trenchId, n: count() }).from(contexts).where(eq(contexts.siteId, siteId)).groupBy(contexts.trenchId),
+    db.select({ trenchId: finds.trenchId, n: count() }).from(finds).where(eq(finds.siteId, siteId)).groupBy(finds.trenchId),
+  ]);
+  return { contexts: new Map(ctxCounts.map((r) => [r.trenchId, r.n])), finds: new Map(findCounts.map((r) => [r.trenchId, r.n])) };
+}
+
 export async function siteOverview(db: Db, actor: SiteActor) {
-  const trenchRows = await db
-    .select({
-      id: trenches.id,
-      code: trenches.code,
-      name: trenches.name,
-      maxDepth: trenches.maxDepth,
-      signedOffAt: trenches.signedOffAt,
-      contexts: sql<number>`(select count(*)::int from ${contexts} where ${contexts.trenchId} = ${trenches.id})`,
-      finds: sql<number>`(select count(*)::int from ${finds} where ${finds.trenchId} = ${trenches.id})`,
-    })
-    .from(trenches)
-    .where(eq(trenches.siteId, actor.site.id))
-    .orderBy(asc(trenches.code));
-  const [awaiting] = await db
-    .select({ n: count() })
-    .from(contexts)
-    .where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting")));
-  return { site: actor.site, role: actor.role, trenches: trenchRows, awaitingSignOff: awaiting?.n ?? 0 };
+  const [rows, counts, awaiting] = await Promise.all([
+    db
+      .select({ id: trenches.id, code: trenches.code, name: trenches.name, maxDepth: trenches.maxDepth, signedOffAt: trenches.signedOffAt })
+      .from(trenches)
+      .where(eq(trenches.siteId, actor.site.id))
+      .orderBy(asc(trenches.code)),
+    countsByTrench(db, actor.site.id),
+    db.select({ n: count() }).from(contexts).where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting"))),
+  ]);
+  const trenchRows = rows.map((t) => ({ ...t, contexts: counts.contexts.get(t.id) ?? 0, finds: counts.finds.get(t.id) ?? 0 }));
+  return { site: actor.site, role: actor.role, trenches: trenchRows, awaitingSignOff: awaiting[0]?.n ?? 0 };
 }
 
 export async function listMembers(db: Db, siteId: string) {

@@ -1,0 +1,89 @@
+/**
+ * Starts Loamwork as a person would meet it: the built app on a port, its own PGlite data folder seeded
+ * with the demo site, and the local stand-ins for hosted services. Used by `npm run demo` and the browser
+ * tests. The seed runs in a child process that exits before the server opens the same folder, because
+ * only one process may open a PGlite folder at a time.
+ */
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { existsSync, mkdirSync } from "node:fs";
+import path from "node:path";
+
+export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string> };
+export type Stack = { url: string; env: Record<string, string>; stop: () => Promise<void> };
+
+const root = path.resolve(import.meta.dirname, "..");
+
+export function ensureBuilt(): void {
+  if (existsSync(path.join(root, ".next", "BUILD_ID"))) return;
+  const r = spawnSync(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "build"], { cwd: root, stdio: "inherit" });
+  if (r.status !== 0) throw new Error("next build failed");
+}
+
+async function waitForHealth(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  while (Date.now() < until) {
+    if (child.exitCode !== null) throw new Error(`the app exited early with code ${child.exitCode}`);
+    try {
+      const res = await fetch(`${url}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`the app did not answer ${url}/api/health within ${timeoutMs} ms`);
+}
+
+export async function startStack(opts: StackOptions): Promise<Stack> {
+  const dataDir = path.resolve(root, opts.dataDir);
+  mkdirSync(dataDir, { recursive: true });
+  const url = `http://localhost:${opts.port}`;
+  const env: Record<string, string> = {
+    ...(process.env as Record<string, string>),
+    NODE_ENV: "production",
+    LOAMWORK_DATA_DIR: path.join(dataDir, "pglite"),
+    LOAMWORK_FILES_DIR: path.join(dataDir, "files"),
+    MAIL_SINK_DIR: path.join(dataDir, "mail"),
+    AUTH_URL: url,
+    APP_URL: url,
+    AUTH_SECRET: process.env.AUTH_SECRET ?? "loamwork-local-stack-secret-0001",
+    ...opts.extraEnv,
+  };
+  delete env.DATABASE_URL;
+  const stops: (() => Promise<void>)[] = [];
+
+  const seed = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
+  if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
+  if (!opts.quiet) process.stdout.write(seed.stdout);
+
+  const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(opts.port)], {
+    cwd: root,
+    env,
+    stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
+  });
+  let log = "";
+  app.stdout?.on("data", (d) => (log = (log + d).slice(-20_000)));
+  app.stderr?.on("data", (d) => (log = (log + d).slice(-20_000)));
+  stops.push(
+    () =>
+      new Promise<void>((resolve) => {
+        if (app.exitCode !== null) return resolve();
+        app.once("exit", () => resolve());
+        app.kill("SIGTERM");
+        setTimeout(() => app.kill("SIGKILL"), 5000).unref();
+      }),
+  );
+  try {
+    await waitForHealth(url, app);
+  } catch (err) {
+    for (const stop of stops.reverse()) await stop();
+    throw new Error(`${(err as Error).message}\n--- app log ---\n${log}`);
+  }
+  return {
+    url,
+    env,
+    stop: async () => {
+      for (const stop of stops.reverse()) await stop();
+    },
+  };
+}

@@ -1,0 +1,11 @@
+#!/usr/bin/env bash
+# The whole test suite (`npm test`): system packages, types, units and integration on PGlite, the same
+# integration suite on a real PostgreSQL server, a production build, and browser tests in Debian's chromium.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+bash scripts/ensure-system.sh
+echo "== types"; npx tsc --noEmit -p .
+echo "== units and integration (PGlite)"; npx vitest run
+echo "== integration (PostgreSQL)"; bash scripts/with-postgres.sh npx vitest run tests/integration
+echo "== build"; rm -rf .next && npx next build >/tmp/loamwork-build.log 2>&1 || { tail -50 /tmp/loamwork-build.log; exit 1; }
+echo "== browser"; npx vitest run -c vitest.e2e.config.ts

@@ -1,0 +1,51 @@
+import { chromium, type Browser, type Page } from "playwright-core";
+import { inject } from "vitest";
+import { DEMO_USERS } from "@/db/seed-demo";
+
+export const baseURL = () => inject("baseURL");
+
+/**
+ * Debian's chromium, never a downloaded browser (local-services.md lists the flags this machine needs).
+ * playwright gives every launch a fresh, empty profile of its own.
+ */
+export async function openBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    headless: true,
+    args: [
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
+  });
+}
+
+export const viewports = { desktop: { width: 1366, height: 900 }, tablet: { width: 820, height: 1180 } } as const;
+
+export async function newPage(browser: Browser, size: keyof typeof viewports = "desktop"): Promise<Page> {
+  const context = await browser.newContext({ baseURL: baseURL(), viewport: viewports[size], hasTouch: size === "tablet" });
+  return context.newPage();
+}
+
+/** Signs in through the real form as one of the demo users and waits for the sites list. */
+export async function signIn(page: Page, role: (typeof DEMO_USERS)[number]["role"]): Promise<void> {
+  const user = DEMO_USERS.find((u) => u.role === role)!;
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(user.email);
+  await page.getByLabel("Password").fill(user.password);
+  await page.getByRole("button", { name: "Open my notebook" }).click();
+  await page.waitForURL("**/sites");
+}
+
+/** Waits up to `timeout` ms for the locator to show; fails the test naming what was missing. */
+export async function shown(locator: import("playwright-core").Locator, timeout = 10_000): Promise<void> {
+  try {
+    await locator.first().waitFor({ state: "visible", timeout });
+  } catch {
+    throw new Error(`expected to see ${String(locator)} within ${timeout} ms`);
+  }
+}

@@ -1,0 +1,95 @@
+import { describe, expect, it } from "vitest";
+import { session, call } from "../support/harness";
+import { makeSite } from "../support/fixtures";
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import { eq } from "drizzle-orm";
+import * as trenchesRoute from "@/app/api/sites/[siteId]/trenches/route";
+import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
+import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
+import * as contextsRoute from "@/app/api/sites/[siteId]/contexts/route";
+import { buildOpenApiDocument } from "@/lib/server/openapi";
+import { api } from "@/lib/server/api-catalog";
+
+const ring = (pts: number[][]) => pts as [number, number][];
+
+describe("bad input is refused with the reason and changes nothing", () => {
+  const badOutlines: [string, [number, number][][], RegExp][] = [
+    ["self-crossing (a bow tie)", [ring([[0, 0], [4, 4], [4, 0], [0, 4]])], /crosses or touches itself/],
+    ["fewer than 3 distinct vertices", [ring([[0, 0], [1, 1], [1, 1], [0, 0]])], /at least 3 distinct vertices/],
+    ["a hole outside the outer ring", [ring([[0, 0], [4, 0], [4, 4], [0, 4]]), ring([[5, 5], [6, 5], [6, 6], [5, 6]])], /Hole 1 is not strictly inside/],
+    ["two overlapping holes", [ring([[0, 0], [9, 0], [9, 9], [0, 9]]), ring([[1, 1], [4, 1], [4, 4], [1, 4]]), ring([[3, 3], [6, 3], [6, 6], [3, 6]])], /overlap or touch/],
+  ];
+  for (const [what, coordinates, reason] of badOutlines) {
+    it(`refuses a trench outline with ${what}`, async () => {
+      const fx = await makeSite();
+      session.userId = fx.people.digger.id;
+      const res = await call(trenchesRoute, "POST", { siteId: fx.site.id }, { code: "X", outline: { type: "Polygon", coordinates } });
+      expect(res.status).toBe(400);
+      expect(res.json.fieldErrors.outline[0]).toMatch(reason);
+      const db = await getDb();
+      expect(await db.select().from(schema.trenches).where(eq(schema.trenches.code, "X"))).toHaveLength(0);
+    });
+  }
+
+  it("refuses a find outside its trench, stating the distance to the edge", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    // Trench A is 10 × 6 m from (0, 0); (12, 3) is 2 m east of its edge. Inside the baulk (5, 2.5) is 0.5 m from the hole's edge.
+    const outside = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 12, y: 3 });
+    expect(outside.status).toBe(400);
+    expect(outside.json.details.distance).toBeCloseTo(2, 9);
+    expect(outside.json.error).toMatch(/2\.000 m outside/);
+    const inBaulk = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 5, y: 2.5 });
+    expect(inBaulk.status).toBe(400);
+    expect(inBaulk.json.details.distance).toBeCloseTo(0.5, 9);
+    const db = await getDb();
+    expect(await db.select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id))).toHaveLength(0);
+    const [site] = await db.select().from(schema.sites).where(eq(schema.sites.id, fx.site.id));
+    expect(site.nextFindNumber).toBe(1);
+  });
+
+  it("names each bad field and allocates numbers 1, 2 for the good finds", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.director.id;
+    const bad = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: "nope", classId: fx.cls.id, x: "east", y: 1, count: 0 });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.json.fieldErrors).sort()).toEqual(["contextId", "count", "x"]);
+    const a = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 });
+    const b = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: "2.5", y: 1 });
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect([a.json.number, b.json.number]).toEqual([1, 2]);
+    expect(b.json.x).toBe(2.5);
+  });
+
+  it("refuses a duplicate context number with 409 and a malformed body with 400", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    const dup = await call(contextsRoute, "POST", { siteId: fx.site.id }, { trenchId: fx.trench.id, number: fx.context.number, type: "fill" });
+    expect(dup.status).toBe(409);
+    expect(dup.json.error).toMatch(new RegExp(`Context ${fx.context.number} already exists`));
+    const req = new Request("http://localhost/api/x", { method: "POST", body: "{not json" });
+    const res = await contextsRoute.POST(req, { params: Promise.resolve({ siteId: fx.site.id }) });
+    expect(res.status).toBe(400);
+  });
+
+  it("refuses an outline change that would leave a find outside the trench", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 9, y: 5 });
+    const res = await call(trenchRoute, "PATCH", { siteId: fx.site.id, trenchId: fx.trench.id }, { outline: { type: "Polygon", coordinates: [ring([[0, 0], [5, 0], [5, 5], [0, 5]])] } });
+    expect(res.status).toBe(409);
+    expect(res.json.error).toMatch(/leave 1 find\(s\) outside/);
+  });
+});
+
+describe("OpenAPI document", () => {
+  it("lists every catalogued route with its method", () => {
+    const doc = buildOpenApiDocument();
+    for (const op of Object.values(api)) {
+      const item = doc.paths?.[op.path] as Record<string, unknown> | undefined;
+      expect(item?.[op.method.toLowerCase()], `${op.method} ${op.path}`).toBeDefined();
+    }
+    expect(doc.openapi).toBe("3.1.0");
+  });
+});
