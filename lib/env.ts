@@ -15,6 +15,8 @@ const schema = z.object({
   MAIL_FROM: z.string().default("Loamwork <loamwork@localhost>"),
   MAIL_SINK_DIR: z.string().default(".data/mail"),
   APP_URL: z.string().url().default("http://localhost:3000"),
+  /** Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database. */
+  LOAMWORK_RUN_QUEUE: z.enum(["local", "pg-boss"]).optional(),
 });
 
 export type Env = z.infer<typeof schema>;
