@@ -26,14 +26,17 @@ export function signInDelayMs(failures: number): number {
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 /** Checks e-mail and password; returns the user or null. Repeated failures slow every later try. */
-export async function verifySignIn(raw: unknown): Promise<{ id: string; email: string; name: string } | null> {
+export async function verifySignIn(
+  raw: unknown,
+  wait: (ms: number) => Promise<unknown> = sleep,
+): Promise<{ id: string; email: string; name: string } | null> {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) return null;
   const { email, password } = parsed.data;
   const db = await getDb();
   const [record] = await db.select().from(signInFailures).where(eq(signInFailures.email, email));
   const recent = record && Date.now() - record.lastFailureAt.getTime() < FAILURE_MEMORY_MS ? record.failures : 0;
-  await sleep(signInDelayMs(recent));
+  await wait(signInDelayMs(recent));
   const [user] = await db.select().from(users).where(eq(users.email, email));
   const ok = user ? await checkPassword(password, user.passwordHash) : false;
   if (ok && user) {
