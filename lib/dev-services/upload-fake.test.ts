@@ -45,15 +45,15 @@ async function serveApp(handler: (req: Request) => Promise<Response>) {
   return { url, close: () => new Promise<void>((r) => server.close(() => r())) };
 }
 
-function pngBytes(n: number): Uint8Array {
-  const b = new Uint8Array(n);
+function pngBytes(n: number): Uint8Array<ArrayBuffer> {
+  const b = new Uint8Array(new ArrayBuffer(n));
   b.set([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
   for (let i = 8; i < n; i++) b[i] = (i * 31) % 251;
   return b;
 }
 
 /** What uploadthing/client does for one file: ask the app for a presigned URL, HEAD it, PUT the rest. */
-async function browserUpload(appUrl: string, slug: string, bytes: Uint8Array, name = "trench.png") {
+async function browserUpload(appUrl: string, slug: string, bytes: Uint8Array<ArrayBuffer>, name = "trench.png") {
   const res = await fetch(`${appUrl}/api/uploadthing?actionType=upload&slug=${slug}`, {
     method: "POST",
     headers: { "content-type": "application/json", "x-uploadthing-package": "test" },
@@ -64,7 +64,7 @@ async function browserUpload(appUrl: string, slug: string, bytes: Uint8Array, na
   return { presigned, put: () => putFrom(presigned.url, bytes, name) };
 }
 
-async function putFrom(url: string, bytes: Uint8Array, name: string, start?: number) {
+async function putFrom(url: string, bytes: Uint8Array<ArrayBuffer>, name: string, start?: number) {
   const head = await fetch(url, { method: "HEAD" });
   const from = start ?? Number(head.headers.get("x-ut-range-start") ?? "0");
   const form = new FormData();
@@ -112,7 +112,7 @@ for (const isDev of [false, true]) {
         router,
         config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev, logLevel: "Error", handleDaemonPromise: isDev ? "void" : "await" },
       });
-      app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req) : handlers.GET(req)));
+      app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req as never) : handlers.GET(req as never)));
     });
     afterAll(() => app.close());
 
@@ -142,7 +142,7 @@ describe("presigned URL checks and resumable PUT", () => {
   let app: Awaited<ReturnType<typeof serveApp>>;
   beforeAll(async () => {
     const handlers = createRouteHandler({ router, config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" } });
-    app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req) : handlers.GET(req)));
+    app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req as never) : handlers.GET(req as never)));
   });
   afterAll(() => app.close());
 

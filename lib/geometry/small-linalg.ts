@@ -44,7 +44,7 @@ export function leastSquares(rows: number[][], b: number[]): number[] | null {
 export function symmetricEigen(input: number[][]): { values: number[]; vectors: number[][] } {
   const n = input.length;
   const a = input.map((row) => [...row]);
-  const v = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+  const v: number[][] = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
   for (let sweep = 0; sweep < 100; sweep++) {
     let off = 0;
     for (let p = 0; p < n; p++) for (let q = p + 1; q < n; q++) off += a[p][q] * a[p][q];
