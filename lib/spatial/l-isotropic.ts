@@ -8,7 +8,7 @@
  */
 import { createCellGrid } from "./cell-grid";
 import { createIsotropicWeights, isotropicWeight } from "./isotropic-weights";
-import { createBinner } from "./r-grid";
+import { createBinning } from "./r-grid";
 import type { Window } from "./types";
 
 export interface IsotropicLEstimator {
@@ -27,7 +27,7 @@ export interface IsotropicLEstimator {
 }
 
 export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEstimator {
-  const bin = createBinner(r);
+  const bin = createBinning(window, r).bin;
   const m = r.length;
   const rmax = r[m - 1];
   const grid = createCellGrid(window.bbox, rmax);

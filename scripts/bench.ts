@@ -1,0 +1,24 @@
+/**
+ * `npm run bench [-- NAME ...]`: runs every scripts/bench-*.ts (or only bench-NAME.ts), one child process
+ * each so that one benchmark's memory and JIT state do not colour the next. Arguments after the names
+ * are passed through (e.g. `npm run bench -- spatial --quick`).
+ */
+import { spawnSync } from "node:child_process";
+import { readdirSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+
+const here = dirname(fileURLToPath(import.meta.url));
+const available = readdirSync(here).filter((f) => /^bench-.+\.ts$/.test(f)).map((f) => f.slice(6, -3)).sort();
+const args = process.argv.slice(2);
+const names = args.filter((a) => !a.startsWith("--"));
+const passThrough = args.filter((a) => a.startsWith("--"));
+const chosen = names.length ? names : available;
+for (const name of chosen) {
+  if (!available.includes(name)) {
+    console.error(`No benchmark "${name}"; available: ${available.join(", ")}`);
+    process.exit(2);
+  }
+  const run = spawnSync(process.execPath, ["--import", "tsx", join(here, `bench-${name}.ts`), ...passThrough], { stdio: "inherit" });
+  if (run.status !== 0) process.exit(run.status ?? 1);
+}
