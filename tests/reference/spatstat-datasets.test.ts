@@ -7,15 +7,23 @@
  *   japanesepines — Numata (1961), as in Diggle (2003): no evidence against CSR.
  *   amacrine — Diggle (1986) J. Neurosci. Meth. 18:115–125: two types (on/off).
  */
-import { describe, it } from "vitest";
-import { createWindow } from "@/lib/spatial/window";
+import { describe, expect, it } from "vitest";
+import { clarkEvans } from "@/lib/spatial/clark-evans";
 import { kFunction } from "@/lib/spatial/k-function";
 import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
 import { expectCurve, fixtureFiles, loadFixture, source } from "./fixture";
+import { checkClarkEvans, windowOf } from "./check-clark-evans";
+
+/** Verdict at the 5 % level from a two-sided Clark–Evans test (common practice). */
+function verdict(R: number, p: number): string {
+  return p >= 0.05 ? "random" : R < 1 ? "clustered" : "regular";
+}
+
+const EXPECTED: Record<string, string> = { cells: "regular", redwood: "clustered", japanesepines: "random" };
 
 describe.each(fixtureFiles("dataset-"))("spatstat.data reference %s", (file) => {
   const fx = loadFixture(file);
-  const W = createWindow({ outer: fx.window.outer, holes: fx.window.holes });
+  const W = windowOf(fx);
   const pts = { x: fx.points.x, y: fx.points.y };
 
   it("has spatstat's nearest-neighbour distances", () => {
@@ -28,4 +36,20 @@ describe.each(fixtureFiles("dataset-"))("spatstat.data reference %s", (file) => 
     expectCurve(res.K.isotropic!, fx.K.iso, source(fx, fx.K.call + " $iso"));
     expectCurve(res.K.border!, fx.K.border, source(fx, fx.K.call + " $border"));
   });
+
+  it("has spatstat's Clark–Evans R, z and p", () => {
+    checkClarkEvans(fx, W);
+  });
+
+  const expected = EXPECTED[fx.meta.dataset!];
+  if (expected) {
+    it(`comes out ${expected}, as the literature and spatstat say`, () => {
+      // Source of the expected verdict: fixture meta.source (the dataset's published analyses) and the
+      // spatstat reference's own Clark–Evans R and p in the same fixture.
+      const ce = clarkEvans(W, { x: fx.points.x, y: fx.points.y });
+      const label = source(fx, fx.clarkEvans.callTest);
+      expect(verdict(fx.clarkEvans.R, fx.clarkEvans.pTwoSided), label).toBe(expected);
+      expect(verdict(ce.R, ce.pTwoSided), label).toBe(expected);
+    });
+  }
 });

@@ -4,16 +4,12 @@
  * written by make-fixtures.R; each expectation's label names spatstat's version, the file and the call.
  */
 import { describe, it } from "vitest";
-import { createWindow } from "@/lib/spatial/window";
 import { kFunction, lFunction } from "@/lib/spatial/k-function";
 import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source, type Fixture } from "./fixture";
+import { checkClarkEvans, windowOf } from "./check-clark-evans";
 
 const trenchFiles = fixtureFiles("trench-");
-
-function windowOf(fx: Fixture) {
-  return createWindow({ outer: fx.window.outer, holes: fx.window.holes });
-}
 
 /** The r grid up to the last value where spatstat's border estimate exists (it is NaN beyond). */
 function borderGrid(fx: Fixture): { r: number[]; expected: (number | null)[] } {
@@ -35,6 +31,10 @@ describe.each(trenchFiles)("spatstat reference %s", (file) => {
   it("has spatstat's nearest-neighbour distances", () => {
     const nn = nearestNeighbourDistances({ x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) });
     expectCurve(nn, fx.nndist, source(fx, "nndist(X)"));
+  });
+
+  it("has spatstat's Clark–Evans R, z and p (no edge correction)", () => {
+    checkClarkEvans(fx, W);
   });
 
   it("has spatstat's K with the isotropic correction", () => {
