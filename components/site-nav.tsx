@@ -11,6 +11,7 @@ export function siteSections(siteId: string) {
     { href: `${base}/patterns`, label: "Patterns" },
     { href: `${base}/sign-off`, label: "Sign-off" },
     { href: `${base}/members`, label: "People" },
+    { href: `${base}/settings`, label: "Classes & grid" },
   ];
 }
 

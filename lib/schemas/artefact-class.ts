@@ -9,7 +9,7 @@ export const artefactClassCreateSchema = z.object({
   material: z.string().trim().max(200).default(""),
   colour: z.string().regex(/^#[0-9a-fA-F]{6}$/, "A colour is written #rrggbb."),
   symbol: z.enum(symbolShapes),
-  humanRemains: z.coerce.boolean().default(false),
+  humanRemains: z.boolean().default(false),
 });
 
 export const artefactClassUpdateSchema = artefactClassCreateSchema.partial();

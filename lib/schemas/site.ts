@@ -1,5 +1,16 @@
+import proj4 from "proj4";
 import { z } from "zod";
 import { roleSchema } from "./common";
+
+/** True when proj4 can read the definition and it is a projection in metres (not longitude/latitude). */
+function isProjectedDefinition(def: string): boolean {
+  try {
+    const p = proj4.Proj(def) as unknown as { projName?: string; units?: string };
+    return p.projName !== "longlat" && (p.units === undefined || p.units === "m");
+  } catch {
+    return false;
+  }
+}
 
 export const siteCreateSchema = z.object({
   code: z
@@ -12,7 +23,13 @@ export const siteCreateSchema = z.object({
   gridDescription: z.string().trim().max(2000).default(""),
   gridOriginX: z.coerce.number().finite().default(0),
   gridOriginY: z.coerce.number().finite().default(0),
-  crs: z.string().trim().max(2000).nullish(),
+  crs: z
+    .string()
+    .trim()
+    .max(2000)
+    .transform((v) => (v === "" ? null : v))
+    .nullish()
+    .refine((v) => !v || isProjectedDefinition(v), "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m)."),
 });
 
 export const siteUpdateSchema = siteCreateSchema.omit({ code: true }).partial();

@@ -93,3 +93,24 @@ describe("OpenAPI document", () => {
     expect(doc.openapi).toBe("3.1.0");
   });
 });
+
+describe("site grid settings", () => {
+  it("accepts a projected proj4 definition and refuses longitude/latitude or nonsense, naming the field", async () => {
+    const { makeSite } = await import("../support/fixtures");
+    const siteRoute = await import("@/app/api/sites/[siteId]/route");
+    const fx = await makeSite();
+    session.userId = fx.people.director.id;
+    // British National Grid as proj4 writes it (EPSG:27700 definition, from memory of the EPSG registry entry).
+    const bng = "+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy +units=m +no_defs";
+    const ok = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: bng, gridOriginX: 451200, gridOriginY: 287350 });
+    expect(ok.status).toBe(200);
+    expect(ok.json).toMatchObject({ crs: bng, gridOriginX: 451200 });
+    for (const bad of ["+proj=longlat +datum=WGS84 +no_defs", "+proj=nothing-like-this"]) {
+      const res = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: bad });
+      expect(res.status).toBe(400);
+      expect(res.json.fieldErrors.crs[0]).toMatch(/projected proj4 definition/);
+    }
+    const cleared = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: "" });
+    expect(cleared.json.crs).toBeNull();
+  });
+});
