@@ -1,19 +1,59 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { users, type Context } from "@/db/schema";
+import { contexts, users, type Context } from "@/db/schema";
 import { conflict } from "./errors";
 
-/** Refuses any change to a signed-off context, its finds or its relations, naming who locked it and when. */
-export async function assertContextWritable(tx: Db | Tx, context: Context, doing = "changed"): Promise<void> {
-  if (context.state !== "signed_off") return;
-  let who = "a director";
-  if (context.signedOffBy) {
-    const [u] = await tx.select({ name: users.name }).from(users).where(eq(users.id, context.signedOffBy));
-    if (u) who = u.name;
+/**
+ * The lock rule of product.md "Record states", applied by every write to a context, its finds and its relations.
+ *
+ * - `open`: anyone whose role allows the write may make it.
+ * - `awaiting` (submitted for sign-off): the sheet is frozen for everyone, the director included, so that what
+ *   the director reviews is exactly what gets signed. A director who wants a change returns the sheet to `open`
+ *   with a written reason (sign-off.ts `reopenContext`), which tells its recorders; then it can be edited again.
+ * - `signed_off`: frozen until a director reopens it with a written reason.
+ *
+ * Refusals are 409 and name who submitted or signed off the sheet and when.
+ */
+export type LockDetails = { contextId: string; contextNumber: number; state: "awaiting" | "signed_off"; by: string; at: string | null };
+
+/** "2026-07-14 09:30 UTC", the form every refusal and stamp uses. */
+export function formatStamp(at: Date | null | undefined): string | null {
+  return at ? at.toISOString().slice(0, 16).replace("T", " ") + " UTC" : null;
+}
+
+async function nameOf(tx: Db | Tx, userId: string | null, fallback: string): Promise<string> {
+  if (!userId) return fallback;
+  const [u] = await tx.select({ name: users.name }).from(users).where(eq(users.id, userId));
+  return u?.name ?? fallback;
+}
+
+/** Whether the context's sheet, finds and relations may be changed now (no reason given; see assertContextWritable). */
+export function isContextWritable(context: Pick<Context, "state">): boolean {
+  return context.state === "open";
+}
+
+/** Refuses any change to a context awaiting sign-off or signed off, naming who and when. */
+export async function assertContextWritable(tx: Db | Tx, given: Context, doing = "changed"): Promise<void> {
+  // Read the state again under a share lock: a sign-off running at the same moment takes the row FOR UPDATE,
+  // so it waits for this write to commit (or this write waits for it and then sees the new state).
+  const [fresh] = await tx.select().from(contexts).where(eq(contexts.id, given.id)).for("share");
+  const context = fresh ?? given;
+  if (context.state === "open") return;
+  if (context.state === "signed_off") {
+    const who = await nameOf(tx, context.signedOffBy, "a director");
+    const when = formatStamp(context.signedOffAt);
+    const details: LockDetails = { contextId: context.id, contextNumber: context.number, state: "signed_off", by: who, at: when };
+    throw conflict(
+      `Context ${context.number} was signed off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} until a director reopens it with a reason.`,
+      details,
+    );
   }
-  const when = context.signedOffAt ? context.signedOffAt.toISOString().slice(0, 16).replace("T", " ") + " UTC" : "earlier";
+  const who = await nameOf(tx, context.submittedBy, "a recorder");
+  const when = formatStamp(context.submittedAt);
+  const details: LockDetails = { contextId: context.id, contextNumber: context.number, state: "awaiting", by: who, at: when };
   throw conflict(
-    `Context ${context.number} was signed off by ${who} on ${when}; it cannot be ${doing} until a director reopens it with a reason.`,
+    `Context ${context.number} was submitted for sign-off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} while it awaits sign-off. A director can sign it off or return it to open with a reason.`,
+    details,
   );
 }
