@@ -1,0 +1,132 @@
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { session, call } from "../support/harness";
+import { makeSite } from "../support/fixtures";
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import { startMailSink, type MailSink } from "@/lib/dev-services/mail-sink";
+import { messagesTo } from "@/lib/server/mail/sink-reader";
+import { hashPassword, checkPassword } from "@/lib/server/passwords";
+import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
+import * as acceptRoute from "@/app/api/auth-extra/invitations/accept/route";
+import * as resetRequestRoute from "@/app/api/auth-extra/password-reset/request/route";
+import * as resetConfirmRoute from "@/app/api/auth-extra/password-reset/confirm/route";
+
+let sink: MailSink;
+let dir: string;
+const APP = "http://loamwork.example";
+
+beforeAll(async () => {
+  dir = mkdtempSync(path.join(tmpdir(), "loamwork-mail-"));
+  sink = await startMailSink({ port: 0, dir });
+  process.env.SMTP_URL = sink.url;
+  process.env.APP_URL = APP;
+  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
+});
+afterAll(async () => {
+  await sink?.stop();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+/** The single-use token at the end of the first link of that path in a message. */
+function tokenIn(text: string, route: string): string {
+  const m = text.match(new RegExp(`${APP}/${route}/([A-Za-z0-9_-]+)`));
+  if (!m) throw new Error(`no ${route} link in:\n${text}`);
+  return m[1];
+}
+
+describe("invitations by e-mail", () => {
+  it("mails an expiring link; a new person accepts once and joins in the invited role", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.director.id;
+    const res = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "New.Digger@Example.org", role: "specialist" });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    expect(res.json.mail).toEqual({ sent: 1, failed: 0 });
+    expect(res.json.invitation.tokenHash).toBeUndefined();
+    const [m] = messagesTo(dir, "new.digger@example.org");
+    expect(m.from).toEqual(["records@loamwork.example"]);
+    expect(m.subject).toBe(`Invitation to ${fx.site.code} ${fx.site.name} on Loamwork`);
+    const token = tokenIn(m.text, "invite");
+    expect(m.html).toContain(`href="${APP}/invite/${token}"`);
+    const days = (new Date(res.json.invitation.expiresAt).getTime() - Date.now()) / 86400_000;
+    expect(days).toBeGreaterThan(6.99);
+    expect(days).toBeLessThanOrEqual(7);
+
+    session.userId = null;
+    const noName = await call(acceptRoute, "POST", {}, { token, password: "a-long-password-1" });
+    expect(noName.status).toBe(400);
+    const ok = await call(acceptRoute, "POST", {}, { token, name: "Ada Newcomer", password: "a-long-password-1" });
+    expect(ok.status, JSON.stringify(ok.json)).toBe(200);
+    const db = await getDb();
+    const [user] = await db.select().from(schema.users).where(eq(schema.users.email, "new.digger@example.org"));
+    expect(await checkPassword("a-long-password-1", user.passwordHash)).toBe(true);
+    const [mem] = await db.select().from(schema.memberships).where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, user.id)));
+    expect(mem.role).toBe("specialist");
+    const again = await call(acceptRoute, "POST", {}, { token, name: "Ada", password: "a-long-password-1" });
+    expect(again.status).toBe(409);
+  });
+
+  it("an existing account proves itself with its password; an expired link is refused", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const [known] = await db.insert(schema.users).values({ email: "known@example.org", name: "Known Person", passwordHash: await hashPassword("known-password-9") }).returning();
+    session.userId = fx.people.director.id;
+    await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "known@example.org", role: "digger" });
+    const token = tokenIn(messagesTo(dir, "known@example.org")[0].text, "invite");
+    session.userId = null;
+    expect((await call(acceptRoute, "POST", {}, { token, password: "wrong-password" })).status).toBe(400);
+    expect((await call(acceptRoute, "POST", {}, { token, password: "known-password-9" })).status).toBe(200);
+    const rows = await db.select().from(schema.memberships).where(eq(schema.memberships.userId, known.id));
+    expect(rows.map((r) => r.role)).toEqual(["digger"]);
+
+    session.userId = fx.people.director.id;
+    await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "late@example.org", role: "digger" });
+    const late = tokenIn(messagesTo(dir, "late@example.org")[0].text, "invite");
+    await db.update(schema.invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(schema.invitations.email, "late@example.org"));
+    session.userId = null;
+    const refused = await call(acceptRoute, "POST", {}, { token: late, name: "Late", password: "late-password-1" });
+    expect(refused.status).toBe(409);
+    expect(refused.json.error).toContain("expired");
+  });
+
+  it("refuses to invite someone already on the site", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.director.id;
+    const res = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: fx.people.digger.email, role: "director" });
+    expect(res.status).toBe(409);
+    expect(messagesTo(dir, fx.people.digger.email)).toHaveLength(0);
+  });
+});
+
+describe("password reset by e-mail", () => {
+  it("mails a one-hour link to an account, sets the new password once, and answers alike for unknown addresses", async () => {
+    const db = await getDb();
+    const [u] = await db.insert(schema.users).values({ email: "forgetful@example.org", name: "Forgetful Digger", passwordHash: await hashPassword("old-password-1") }).returning();
+    const unknown = await call(resetRequestRoute, "POST", {}, { email: "nobody@example.org" });
+    const known = await call(resetRequestRoute, "POST", {}, { email: "Forgetful@example.org" });
+    expect(unknown).toEqual(known);
+    expect(messagesTo(dir, "nobody@example.org")).toHaveLength(0);
+    const [m] = messagesTo(dir, "forgetful@example.org");
+    expect(m.subject).toBe("Choose a new Loamwork password");
+    expect(m.text).toContain("Hello Forgetful Digger,");
+    const token = tokenIn(m.text, "reset-password");
+    expect(m.html).toContain(`href="${APP}/reset-password/${token}"`);
+
+    expect((await call(resetConfirmRoute, "POST", {}, { token, password: "short" })).status).toBe(400);
+    const ok = await call(resetConfirmRoute, "POST", {}, { token, password: "new-password-22" });
+    expect(ok.status, JSON.stringify(ok.json)).toBe(200);
+    const [after] = await db.select().from(schema.users).where(eq(schema.users.id, u.id));
+    expect(await checkPassword("new-password-22", after.passwordHash)).toBe(true);
+    expect((await call(resetConfirmRoute, "POST", {}, { token, password: "third-password-3" })).status).toBe(409);
+  });
+
+  it("sends at most three links an hour to one account", async () => {
+    const db = await getDb();
+    await db.insert(schema.users).values({ email: "flooded@example.org", name: "Flooded", passwordHash: "x" });
+    for (let i = 0; i < 5; i++) await call(resetRequestRoute, "POST", {}, { email: "flooded@example.org" });
+    expect(messagesTo(dir, "flooded@example.org")).toHaveLength(3);
+  });
+});
