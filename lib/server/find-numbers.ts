@@ -16,3 +16,19 @@ export async function allocateFindNumbers(tx: Tx, siteId: string, howMany = 1): 
     .returning({ next: sites.nextFindNumber });
   return row.next - howMany;
 }
+
+/**
+ * Marks every number up to `highest` as handed out, after an import brought its own numbers (from the
+ * total station's point ids). Never lowers the counter, so no number can come round again.
+ */
+export async function reserveFindNumbersThrough(tx: Tx, siteId: string, highest: number): Promise<void> {
+  await tx
+    .update(sites)
+    .set({ nextFindNumber: sql`greatest(${sites.nextFindNumber}, ${highest + 1})` })
+    .where(eq(sites.id, siteId));
+}
+
+/** Takes the site row's lock for the rest of the transaction, so numbering and imports queue behind it. */
+export async function lockSiteNumbers(tx: Tx, siteId: string): Promise<void> {
+  await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, siteId)).for("update");
+}

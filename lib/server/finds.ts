@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, gte, ilike, lte, or, sql, type SQL } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, finds, users, type Find } from "@/db/schema";
+import { artefactClasses, contexts, finds, trenches, users, type Find } from "@/db/schema";
 import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
@@ -97,23 +97,31 @@ const sortColumns = {
   z: finds.z,
 } as const;
 
-/** One page of the finds register, filtered and sorted in the database. */
-export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
+/** The register's filters without paging: what the register shows and what its export writes. */
+export type FindFilters = Omit<FindListQuery, "page" | "pageSize">;
+
+function registerFilter(siteId: string, q: FindFilters): SQL | undefined {
   const where: SQL[] = [eq(finds.siteId, siteId)];
   if (q.trenchId) where.push(eq(finds.trenchId, q.trenchId));
   if (q.contextId) where.push(eq(finds.contextId, q.contextId));
   if (q.classId) where.push(eq(finds.classId, q.classId));
   if (q.recordedBy) where.push(eq(finds.recordedBy, q.recordedBy));
   if (q.from) where.push(gte(finds.recordedAt, q.from));
-  if (q.to) where.push(lte(finds.recordedAt, q.to));
+  // A bare date as the end of the range means "through that day".
+  if (q.to) where.push(lte(finds.recordedAt, endOfDay(q.to)));
   if (q.q) {
     const term = `%${q.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
-    const text = or(ilike(finds.description, term), sql`${finds.number}::text = ${q.q}`, ilike(artefactClasses.label, term));
+    const text = or(ilike(finds.description, term), sql`${finds.number}::text = ${q.q}`, ilike(artefactClasses.label, term), ilike(artefactClasses.code, term));
     if (text) where.push(text);
   }
-  const filter = and(...where);
+  return and(...where);
+}
+
+const endOfDay = (d: Date) => (d.getUTCHours() === 0 && d.getUTCMinutes() === 0 && d.getUTCSeconds() === 0 ? new Date(d.getTime() + 86_399_999) : d);
+
+function registerQuery(db: Db, siteId: string, q: FindFilters) {
   const order = q.dir === "desc" ? desc(sortColumns[q.sort]) : asc(sortColumns[q.sort]);
-  const rows = await db
+  return db
     .select({
       id: finds.id,
       number: finds.number,
@@ -126,32 +134,47 @@ export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
       method: finds.method,
       recordedAt: finds.recordedAt,
       recordedBy: users.name,
+      recordedById: finds.recordedBy,
       trenchId: finds.trenchId,
+      trenchCode: trenches.code,
       contextId: finds.contextId,
       contextNumber: contexts.number,
       contextState: contexts.state,
       classId: finds.classId,
       classCode: artefactClasses.code,
       classLabel: artefactClasses.label,
-      total: sql<number>`count(*) over ()`.mapWith(Number),
+      classColour: artefactClasses.colour,
     })
     .from(finds)
     .innerJoin(contexts, eq(contexts.id, finds.contextId))
+    .innerJoin(trenches, eq(trenches.id, finds.trenchId))
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
     .leftJoin(users, eq(users.id, finds.recordedBy))
-    .where(filter)
+    .where(registerFilter(siteId, q))
     .orderBy(order, asc(finds.number))
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
-  const total = rows[0]?.total ?? (q.page > 1 ? await countFinds(db, filter) : 0);
-  return { page: q.page, pageSize: q.pageSize, total, rows: rows.map(({ total: _t, ...r }) => r) };
+    .$dynamic();
+}
+
+export type RegisterRow = Awaited<ReturnType<typeof registerQuery>>[number];
+
+/** One page of the finds register, filtered, sorted and counted in the database. */
+export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
+  const [rows, total] = await Promise.all([
+    registerQuery(db, siteId, q).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+    countFinds(db, registerFilter(siteId, q)),
+  ]);
+  return { page: q.page, pageSize: q.pageSize, total, rows };
+}
+
+/** Every find the filters select, in the register's order (for exports). */
+export async function allFinds(db: Db, siteId: string, q: FindFilters): Promise<RegisterRow[]> {
+  return registerQuery(db, siteId, q);
 }
 
 async function countFinds(db: Db, filter: SQL | undefined): Promise<number> {
   const [row] = await db
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(finds)
-    .innerJoin(contexts, eq(contexts.id, finds.contextId))
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
     .where(filter);
   return row?.n ?? 0;

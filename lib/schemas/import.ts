@@ -1,0 +1,51 @@
+import { z } from "zod";
+
+/** The find fields a total-station column can be mapped to. */
+export const importFields = ["number", "x", "y", "z", "classCode", "contextNumber", "count", "weightG", "description"] as const;
+export type ImportField = (typeof importFields)[number];
+
+export const importFieldLabels: Record<ImportField, string> = {
+  number: "Find number",
+  x: "x (easting, m)",
+  y: "y (northing, m)",
+  z: "z (level, m)",
+  classCode: "Class code",
+  contextNumber: "Context",
+  count: "Count",
+  weightG: "Weight (g)",
+  description: "Description",
+};
+
+const column = z.string().trim().min(1).max(200);
+
+/** Which header of the file feeds each field; x, y, class and context are needed, the rest optional. */
+export const importMappingSchema = z.object({
+  number: column.optional(),
+  x: column,
+  y: column,
+  z: column.optional(),
+  classCode: column,
+  contextNumber: column,
+  count: column.optional(),
+  weightG: column.optional(),
+  description: column.optional(),
+});
+export type ImportMapping = z.infer<typeof importMappingSchema>;
+
+/** About 30 MB of CSV: far beyond a day's total-station export (50,000 rows is about 3 MB). */
+export const MAX_IMPORT_CHARS = 30_000_000;
+
+export const importPreviewSchema = z.object({
+  csv: z.string().min(1, "The file is empty.").max(MAX_IMPORT_CHARS, "That file is larger than 30 MB; split it."),
+  fileName: z.string().trim().max(300).default("upload.csv"),
+  /** Omit to use the site's remembered mapping (or a guess from the headers). */
+  mapping: importMappingSchema.optional(),
+});
+
+export const importCommitSchema = importPreviewSchema.extend({ mapping: importMappingSchema });
+
+export type ImportPreviewInput = z.infer<typeof importPreviewSchema>;
+export type ImportCommitInput = z.infer<typeof importCommitSchema>;
+
+/** One refused row: its number as a spreadsheet shows it (the header is row 1) and every reason. */
+export type ImportRowError = { row: number; reasons: string[] };

@@ -1,0 +1,91 @@
+import "server-only";
+import { randomUUID } from "node:crypto";
+import type { Db, Tx } from "@/db/client";
+import { auditEntries, finds } from "@/db/schema";
+import { importFields, type ImportCommitInput, type ImportMapping, type ImportPreviewInput } from "@/lib/schemas/import";
+import { recordAudit } from "@/lib/server/audit";
+import { getContext } from "@/lib/server/contexts";
+import { badInput } from "@/lib/server/errors";
+import { allocateFindNumbers, lockSiteNumbers, reserveFindNumbersThrough } from "@/lib/server/find-numbers";
+import { assertContextWritable } from "@/lib/server/locks";
+import type { SiteActor } from "@/lib/server/membership";
+import { guessMapping } from "./guess";
+import { loadImportLookups } from "./lookups";
+import { getImportMapping, saveImportMapping } from "./mapping-store";
+import { parseCsv, type ParsedCsv } from "./parse";
+import { validateRows, type ValidRow } from "./validate";
+
+const required = ["x", "y", "classCode", "contextNumber"] as const;
+/** Rows per INSERT: 14 parameters a row stays well under PostgreSQL's 65,535 bind parameters. */
+const BATCH = 2000;
+
+function missingHeaders(csv: ParsedCsv, mapping: Partial<ImportMapping>): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const f of required) if (!mapping[f]) out[`mapping.${f}`] = ["Pick the column that holds this."];
+  for (const f of importFields) {
+    const h = mapping[f];
+    if (h && !csv.headers.includes(h)) out[`mapping.${f}`] = [`The file has no column "${h}".`];
+  }
+  return out;
+}
+
+/** Reads the file, settles the mapping (given, remembered or guessed) and checks every row; imports nothing. */
+export async function previewImport(db: Db, actor: SiteActor, input: ImportPreviewInput) {
+  const csv = parseCsv(input.csv);
+  const remembered = await getImportMapping(db, actor.site.id);
+  const mapping: Partial<ImportMapping> = input.mapping ?? remembered ?? guessMapping(csv.headers);
+  const source = input.mapping ? "given" : remembered ? "remembered" : "guessed";
+  const problems = missingHeaders(csv, mapping);
+  const base = { headers: csv.headers, mapping, mappingSource: source, rowCount: csv.rows.length, sample: csv.rows.slice(0, 10) };
+  if (Object.keys(problems).length) return { ...base, mappingProblems: problems, errors: [], validCount: 0 };
+  const full = mapping as ImportMapping;
+  if (input.mapping) await db.transaction((tx) => saveImportMapping(tx, actor, full));
+  const result = validateRows(csv, full, await loadImportLookups(db, actor.site.id));
+  return { ...base, mappingProblems: {}, errors: result.errors, validCount: result.valid.length };
+}
+
+/**
+ * Imports the whole file in one transaction or nothing at all. Validation runs again inside the
+ * transaction with the site's numbering lock held, so what was previewed cannot go stale underneath.
+ */
+export async function commitImport(db: Db, actor: SiteActor, input: ImportCommitInput) {
+  const csv = parseCsv(input.csv);
+  const problems = missingHeaders(csv, input.mapping);
+  if (Object.keys(problems).length) throw badInput("The column mapping is not complete.", problems);
+  if (csv.rows.length === 0) throw badInput("The file has a header but no rows.");
+  return db.transaction(async (tx) => {
+    await lockSiteNumbers(tx, actor.site.id);
+    const result = validateRows(csv, input.mapping, await loadImportLookups(tx, actor.site.id));
+    if (result.errors.length) {
+      const n = result.errors.length;
+      throw badInput(`${n} of ${csv.rows.length} rows cannot be imported, so nothing was imported. Fix ${n === 1 ? "it" : "them"} and upload the file again.`, undefined, { errors: result.errors });
+    }
+    for (const id of result.contextIds) await assertContextWritable(tx, await getContext(tx, actor.site.id, id), "given new finds");
+    const numbers = await numberRows(tx, actor.site.id, result.valid);
+    const importId = randomUUID();
+    for (let i = 0; i < result.valid.length; i += BATCH) {
+      const values = result.valid.slice(i, i + BATCH).map((r, k) => ({
+        siteId: actor.site.id, trenchId: r.trenchId, contextId: r.contextId, classId: r.classId, number: numbers[i + k],
+        x: r.x, y: r.y, z: r.z, count: r.count, weightG: r.weightG, description: r.description, method: "imported" as const, recordedBy: actor.userId,
+      }));
+      const rows = await tx.insert(finds).values(values).returning();
+      // One trail entry per find, written in the same batches, so each find's trail starts at its import.
+      await tx.insert(auditEntries).values(rows.map((row) => ({ siteId: actor.site.id, actorId: actor.userId, action: "import", recordType: "find", recordId: row.id, before: null, after: JSON.parse(JSON.stringify(row)), reason: null })));
+    }
+    const range = numbers.reduce((m, n) => [Math.min(m[0], n), Math.max(m[1], n)], [Infinity, -Infinity]);
+    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: result.contextIds.size };
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "import", recordType: "import", recordId: importId, after: summary });
+    await saveImportMapping(tx, actor, input.mapping);
+    return { imported: result.valid.length, firstNumber: range[0], lastNumber: range[1], importId };
+  });
+}
+
+/** File numbers are kept; blank ones are allocated after the highest, in file order, without gaps. */
+async function numberRows(tx: Tx, siteId: string, rows: ValidRow[]): Promise<number[]> {
+  let highest = 0;
+  for (const r of rows) if (r.number !== null && r.number > highest) highest = r.number;
+  if (highest) await reserveFindNumbersThrough(tx, siteId, highest);
+  const blanks = rows.filter((r) => r.number === null).length;
+  let next = blanks ? await allocateFindNumbers(tx, siteId, blanks) : 0;
+  return rows.map((r) => r.number ?? next++);
+}

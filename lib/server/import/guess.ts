@@ -1,0 +1,28 @@
+import type { ImportField, ImportMapping } from "@/lib/schemas/import";
+
+/** Header spellings Loamwork recognises for each field, tried in order (its own export's names first). */
+const patterns: [ImportField, RegExp][] = [
+  ["number", /^(number|find|find[ _-]?(no|number|id)|no|pt|point[ _-]?(id|no)?|id)$/i],
+  ["x", /^(x|east|easting|e)$/i],
+  ["y", /^(y|north|northing|n)$/i],
+  ["z", /^(z|level|elev|elevation|height|h|depth)$/i],
+  ["classCode", /^(class|class[ _-]?code|code|type)$/i],
+  ["contextNumber", /^(context|ctx|context[ _-]?(no|number)|layer)$/i],
+  ["count", /^(count|qty|quantity|n[ _-]?items)$/i],
+  ["weightG", /^(weight|weight[ _-]?g|wt|grams)$/i],
+  ["description", /^(description|desc|note|notes|remark|remarks)$/i],
+];
+
+/** A first guess at the mapping from the file's headers, for a site that has none remembered. */
+export function guessMapping(headers: string[]): Partial<ImportMapping> {
+  const out: Partial<Record<ImportField, string>> = {};
+  const taken = new Set<string>();
+  for (const [field, re] of patterns) {
+    const hit = headers.find((h) => !taken.has(h) && re.test(h.trim()));
+    if (hit) {
+      out[field] = hit;
+      taken.add(hit);
+    }
+  }
+  return out;
+}

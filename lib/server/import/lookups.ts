@@ -1,0 +1,45 @@
+import "server-only";
+import { eq } from "drizzle-orm";
+import type { Db, Tx } from "@/db/client";
+import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/schema";
+import { checkOutline } from "@/lib/geometry/outline";
+import type { Window } from "@/lib/spatial/types";
+
+export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null };
+export type TrenchWindow = { code: string; window: Window | null; problem?: string };
+
+/** Everything a row is checked against, read once per file so 50,000 rows cost one pass in memory. */
+export type ImportLookups = {
+  classes: Map<string, string>;
+  contexts: Map<number, ImportContext>;
+  trenches: Map<string, TrenchWindow>;
+  usedNumbers: Set<number>;
+  nextNumber: number;
+};
+
+export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<ImportLookups> {
+  const [site] = await db.select({ next: sites.nextFindNumber }).from(sites).where(eq(sites.id, siteId));
+  const [cls, ctx, tr, nums] = await Promise.all([
+    db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId)),
+    db
+      .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt })
+      .from(contexts)
+      .leftJoin(users, eq(users.id, contexts.signedOffBy))
+      .where(eq(contexts.siteId, siteId)),
+    db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline }).from(trenches).where(eq(trenches.siteId, siteId)),
+    db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId)),
+  ]);
+  const windows = new Map<string, TrenchWindow>();
+  for (const t of tr) {
+    // Each trench window is built once here, not once per row.
+    const check = checkOutline(t.outline);
+    windows.set(t.id, check.ok ? { code: t.code, window: check.window } : { code: t.code, window: null, problem: check.reason });
+  }
+  return {
+    classes: new Map(cls.map((c) => [c.code.toUpperCase(), c.id])),
+    contexts: new Map(ctx.map((c) => [c.number, c])),
+    trenches: windows,
+    usedNumbers: new Set(nums.map((r) => r.n)),
+    nextNumber: site?.next ?? 1,
+  };
+}

@@ -1,0 +1,119 @@
+import type { ImportField, ImportMapping, ImportRowError } from "@/lib/schemas/import";
+import type { ImportLookups } from "./lookups";
+import type { ParsedCsv } from "./parse";
+
+/** A row that passed every check, ready to insert. `number` null = the server allocates one. */
+export type ValidRow = {
+  row: number;
+  number: number | null;
+  contextId: string;
+  trenchId: string;
+  classId: string;
+  x: number;
+  y: number;
+  z: number | null;
+  count: number | null;
+  weightG: number | null;
+  description: string;
+};
+
+export type Validation = { valid: ValidRow[]; errors: ImportRowError[]; contextIds: Set<string> };
+
+/** Accepts "12.5" and "12,5" (a decimal comma, common in European instrument exports); nothing else. */
+function readNumber(raw: string): number | null {
+  const s = raw.trim().replace(/^(-?\d+),(\d+)$/, "$1.$2");
+  if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(s)) return null;
+  const v = Number(s);
+  return Number.isFinite(v) ? v : null;
+}
+
+const when = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "earlier");
+
+/**
+ * Checks every row against the site's classes, contexts, trench windows and used find numbers, in
+ * memory, and lists every reason a row fails. Row numbers are as a spreadsheet shows them.
+ */
+export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportLookups): Validation {
+  const col = new Map<ImportField, number>();
+  for (const [field, header] of Object.entries(mapping) as [ImportField, string | undefined][]) {
+    if (!header) continue;
+    const i = csv.headers.indexOf(header);
+    if (i < 0) throw new Error(`mapping names a column "${header}" the file does not have`);
+    col.set(field, i);
+  }
+  const cell = (r: string[], f: ImportField) => (col.has(f) ? (r[col.get(f)!] ?? "").trim() : "");
+  const valid: ValidRow[] = [];
+  const errors: ImportRowError[] = [];
+  const contextIds = new Set<string>();
+  const inFile = new Map<number, number>();
+  csv.rows.forEach((r, i) => {
+    const row = i + 2;
+    const reasons: string[] = [];
+    const problem = csv.rowProblems.get(i);
+    if (problem) reasons.push(`the row ${problem}`);
+    const coord = (f: "x" | "y" | "z", required: boolean) => {
+      const raw = cell(r, f);
+      if (!raw) {
+        if (required) reasons.push(`${f} is empty`);
+        return null;
+      }
+      const v = readNumber(raw);
+      if (v === null) reasons.push(`${f} "${raw}" is not a number`);
+      return v;
+    };
+    const x = coord("x", true);
+    const y = coord("y", true);
+    const z = coord("z", false);
+    const code = cell(r, "classCode");
+    const classId = lk.classes.get(code.toUpperCase());
+    if (!code) reasons.push("class code is empty");
+    else if (!classId) reasons.push(`class code "${code}" is not one of this site's classes`);
+    const ctxRaw = cell(r, "contextNumber");
+    const ctxNumber = readNumber(ctxRaw);
+    const ctx = ctxNumber === null ? undefined : lk.contexts.get(ctxNumber);
+    if (!ctxRaw) reasons.push("context is empty");
+    else if (!ctx) reasons.push(`context "${ctxRaw}" does not exist on this site`);
+    else if (ctx.state === "signed_off") reasons.push(`context ${ctx.number} was signed off by ${ctx.signedOffBy ?? "a director"} on ${when(ctx.signedOffAt)}; a director must reopen it first`);
+    if (ctx && x !== null && y !== null) {
+      const t = lk.trenches.get(ctx.trenchId);
+      if (!t?.window) reasons.push(`trench ${t?.code ?? "?"} of context ${ctx.number} has no valid outline${t?.problem ? ` (${t.problem})` : ""}`);
+      else if (!t.window.contains(x, y)) {
+        reasons.push(`(${x}, ${y}) lies ${t.window.boundaryDistance(x, y).toFixed(3)} m outside trench ${t.code}`);
+      }
+    }
+    let number: number | null = null;
+    const numRaw = cell(r, "number");
+    if (numRaw) {
+      const n = readNumber(numRaw);
+      if (n === null || !Number.isInteger(n) || n < 1) reasons.push(`find number "${numRaw}" is not a whole number of 1 or more`);
+      else if (lk.usedNumbers.has(n)) reasons.push(`find number ${n} is already in use on this site`);
+      else if (n < lk.nextNumber) reasons.push(`find number ${n} was handed out before (deleted finds keep their numbers); leave it blank to get a new one`);
+      else if (inFile.has(n)) reasons.push(`find number ${n} is also on row ${inFile.get(n)}`);
+      else {
+        number = n;
+        inFile.set(n, row);
+      }
+    }
+    const count = optionalWhole(cell(r, "count"), "count", reasons);
+    const weightRaw = cell(r, "weightG");
+    const weightG = weightRaw ? readNumber(weightRaw) : null;
+    if (weightRaw && (weightG === null || weightG < 0)) reasons.push(`weight "${weightRaw}" is not a weight in grams`);
+    if (reasons.length) {
+      errors.push({ row, reasons });
+      return;
+    }
+    contextIds.add(ctx!.id);
+    valid.push({ row, number, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: x!, y: y!, z, count, weightG, description: cell(r, "description").slice(0, 4000) });
+  });
+  return { valid, errors, contextIds };
+}
+
+function optionalWhole(raw: string, name: string, reasons: string[]): number | null {
+  if (!raw) return null;
+  const v = readNumber(raw);
+  if (v === null || !Number.isInteger(v) || v < 1) {
+    reasons.push(`${name} "${raw}" is not a whole number of 1 or more`);
+    return null;
+  }
+  return v;
+}
