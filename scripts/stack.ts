@@ -9,7 +9,7 @@ import { existsSync, mkdirSync } from "node:fs";
 import path from "node:path";
 
 export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string> };
-export type Stack = { url: string; env: Record<string, string>; stop: () => Promise<void> };
+export type Stack = { url: string; env: NodeJS.ProcessEnv; stop: () => Promise<void> };
 
 const root = path.resolve(import.meta.dirname, "..");
 
@@ -38,8 +38,8 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   const dataDir = path.resolve(root, opts.dataDir);
   mkdirSync(dataDir, { recursive: true });
   const url = `http://localhost:${opts.port}`;
-  const env: Record<string, string> = {
-    ...(process.env as Record<string, string>),
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
     NODE_ENV: "production",
     LOAMWORK_DATA_DIR: path.join(dataDir, "pglite"),
     LOAMWORK_FILES_DIR: path.join(dataDir, "files"),
