@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { AppHeader } from "@/components/app-header";
+import { NewSiteForm } from "@/components/sites/new-site-form";
 import { pageUser } from "@/lib/server/page-access";
 import { listMySites } from "@/lib/server/sites";
 
@@ -34,6 +35,7 @@ export default async function SitesPage() {
             </li>
           ))}
         </ul>
+        <div className="mt-8"><NewSiteForm /></div>
       </main>
     </>
   );
