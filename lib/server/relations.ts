@@ -58,8 +58,10 @@ export async function addRelation(db: Db, actor: SiteActor, input: RelationCreat
       .from(contextRelations)
       .where(or(and(eq(contextRelations.fromId, from.id), eq(contextRelations.toId, to.id)), and(eq(contextRelations.fromId, to.id), eq(contextRelations.toId, from.id))));
     if (existing) {
-      const seen = readingFrom(existing, from.id);
-      throw conflict(`Contexts ${from.number} and ${to.number} are already related: ${from.number} ${readingLabels[seen.reading]} ${to.number}. Remove that relation first to change it.`);
+      // Said from the sheet the person is typing on.
+      const [here, there] = input.contextId === from.id ? [from, to] : [to, from];
+      const seen = readingFrom(existing, here.id);
+      throw conflict(`Contexts ${here.number} and ${there.number} are already related: ${here.number} ${readingLabels[seen.reading]} ${there.number}. Remove that relation first to change it.`);
     }
     const [all, ctxs] = await Promise.all([listRelations(tx, actor.site.id), siteContexts(tx, actor.site.id)]);
     const loop = loopIfAdded(ctxs, all, { id: "new", ...stored });
