@@ -1,0 +1,122 @@
+/**
+ * The engine's run result (lib/spatial/run-test.ts) turned into Loamwork's stored result: curves as
+ * L(r) − r (0 under CSR) ready to plot, verdict words, the sentence to quote, the question each test
+ * answered, the cautions, and the pictures that are not tests (NN histogram, quadrat grid, heat layer).
+ */
+import type { RunResult as EngineResult, TestResult as EngineTest } from "@/lib/spatial/run-test";
+import type { Window } from "@/lib/spatial/types";
+import type { SpecClass, SpecEntry, SpecFind } from "./engine-spec";
+import { quadratGrid } from "./engine-spec";
+import { kernelDensity, nnHistogram, quadratCells, type Pts } from "./plot-data";
+import { questionOf } from "./questions";
+import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "./result-types";
+import type { Correction } from "./run-schema";
+
+const VERDICTS: Record<string, VerdictWord> = {
+  clustered: "clustered",
+  "evenly spread": "regular",
+  together: "associated",
+  apart: "segregated",
+  "no evidence against the null": "no-evidence",
+};
+
+const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
+const minus = (a: number[], r: number[]) => a.map((v, k) => Number((v - r[k]).toPrecision(8)));
+
+function curveOf(t: EngineTest, subtractR: boolean): { curve: Curve; departures: Departure[] } {
+  const c = t.curves!;
+  const f = (a: number[]) => (subtractR ? minus(a, c.r) : a);
+  return {
+    curve: { r: c.r, obs: f(c.observed), lo: f(c.band.lo), hi: f(c.band.hi), theo: f(c.reference) },
+    departures: c.excursions.map((e) => ({ side: e.side, from: e.from, to: e.to })),
+  };
+}
+
+function sentenceOf(t: EngineTest): string {
+  const sims = t.nsim ? `, ${t.nsim} simulations` : "";
+  return `${t.summary} Test: ${t.test}; null: ${t.null}${sims}; seed ${t.seed}.`;
+}
+
+export type AdaptInput = {
+  engine: EngineResult;
+  entries: SpecEntry[];
+  window: Window;
+  classes: (SpecClass & { label: string; colour: string; symbol: string })[];
+  finds: SpecFind[];
+  correction: Correction;
+  rmax: number;
+  elapsedMs: number;
+};
+
+export function adaptResult(input: AdaptInput): RunResult {
+  const { engine, entries, window, classes, finds } = input;
+  const pts = new Map<string, Pts>(classes.map((c) => [c.id, { x: [], y: [] }]));
+  for (const f of finds) {
+    const p = pts.get(f.classId);
+    if (p) { p.x.push(f.x); p.y.push(f.y); }
+  }
+  const label = new Map(classes.map((c) => [c.id, `${c.code} (${c.label.toLowerCase()})`]));
+  const name = (id: string) => label.get(id) ?? id;
+  const pool = `${finds.length} ${classes.map((c) => c.code).join(" + ")}`;
+  const tests: TestOut[] = engine.results.map((t, i) => {
+    const entry = entries[i];
+    const base = {
+      verdict: VERDICTS[t.verdict] ?? "no-evidence",
+      sentence: sentenceOf(t),
+      p: num(t.pValue),
+      question: questionOf(entry.test, name, pool),
+      notes: t.cautions,
+    };
+    const d = t.details;
+    const classId = entry.classId ?? "";
+    const n = pts.get(classId)?.x.length ?? t.n;
+    switch (entry.test.kind) {
+      case "clark-evans": {
+        const h = nnHistogram(pts.get(classId)!);
+        const meanNN = num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
+        return { ...base, kind: "clark-evans", classId, n, R: num(d.R) ?? NaN, z: num(d.z), meanNN, expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedNNDistance) ?? 0.5 / Math.sqrt(n / window.area), correction: entry.test.correction, alternative: entry.test.alternative, histogram: { edges: h.edges, counts: h.counts } };
+      }
+      case "quadrat": {
+        const { nx, ny } = quadratGrid(window, entry.test.cellSize);
+        const cells = quadratCells(window, nx, ny, pts.get(classId)!);
+        const mean = cells.reduce((s, c) => s + c.count, 0) / cells.length;
+        const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
+        return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: d.monteCarlo === true, cells };
+      }
+      case "l-csr": {
+        const { curve, departures } = curveOf(t, true);
+        const above = departures.find((x) => x.side === "above");
+        return { ...base, kind: "l-csr", classId, n, statistic: entry.test.statistic, count: entry.test.count, curve, departures, clusterScale: above ? { from: above.from, to: above.to } : null };
+      }
+      case "pcf":
+        return { ...base, kind: "pcf", classId, n, curve: curveOf(t, false).curve, bandwidth: num(d.bandwidth) ?? 0 };
+      case "cross-l":
+      case "k-diff": {
+        const { curve, departures } = curveOf(t, entry.test.kind === "cross-l");
+        const { a, b } = entry.test;
+        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "labelling", curve, departures };
+      }
+      case "inhom-l": {
+        const { curve, departures } = curveOf(t, true);
+        return { ...base, kind: "inhom-l", classId, n, reference: entry.test.reference, bandwidth: num(d.bandwidth) ?? 0, curve, departures };
+      }
+    }
+  });
+  const inScope: ClassInScope[] = classes.map((c) => ({ id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, n: pts.get(c.id)!.x.length }));
+  return {
+    engineVersion: engine.engineVersion,
+    seed: engine.seed,
+    nsim: engine.nsim,
+    level: engine.level,
+    rmax: input.rmax,
+    correction: input.correction,
+    outline: [window.outer, ...window.holes].map((r) => r.map((v) => [v[0], v[1]] as [number, number])),
+    area: window.area,
+    classes: inScope,
+    tests,
+    density: classes.filter((c) => pts.get(c.id)!.x.length >= 2).map((c) => kernelDensity(window, pts.get(c.id)!, c.id)),
+    points: classes.map((c) => ({ classId: c.id, ...pts.get(c.id)! })),
+    cautions: engine.cautions,
+    elapsedMs: input.elapsedMs,
+  };
+}

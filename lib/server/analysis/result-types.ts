@@ -1,0 +1,75 @@
+/**
+ * The stored result of a run, as the workspace reads it. Loamwork's own shape, built from the engine's
+ * output by engine-adapter.ts, so the plots and verdicts do not depend on the engine's internal types.
+ * Plain numbers and arrays only (it is stored as JSON in analysis_runs.result). Types only: safe to
+ * import from client components.
+ */
+import type { Correction } from "./run-schema";
+
+export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated" | "segregated";
+
+/** A stretch of distances where the observed curve lies outside the pointwise band. */
+export type Departure = { side: "above" | "below"; from: number; to: number };
+
+export type Curve = { r: number[]; obs: number[]; lo?: number[]; hi?: number[]; theo?: number[] };
+
+export type ClassInScope = { id: string; code: string; label: string; colour: string; symbol: string; n: number };
+
+type Base = {
+  /** Plain-language verdict at the run's level. */
+  verdict: VerdictWord;
+  /** One sentence a specialist can quote, naming the test, p, simulations and seed. */
+  sentence: string;
+  p: number | null;
+  /** Which question this test answered (and, for cross tests, what inflates it). */
+  question: string;
+  notes: string[];
+};
+
+export type ClarkEvansOut = Base & {
+  kind: "clark-evans"; classId: string; n: number; R: number; z: number | null; meanNN: number; expectedNN: number;
+  correction: "none" | "donnelly" | "monte-carlo"; alternative: string;
+  /** Nearest-neighbour distances histogram. */
+  histogram: { edges: number[]; counts: number[] };
+};
+export type QuadratCell = { x0: number; y0: number; x1: number; y1: number; count: number; expected: number };
+export type QuadratOut = Base & {
+  kind: "quadrat"; classId: string; n: number; cellSize: number; X2: number; df: number; vmr: number;
+  monteCarlo: boolean; cells: QuadratCell[];
+};
+export type LOut = Base & {
+  kind: "l-csr"; classId: string; n: number; statistic: "mad" | "dclf"; count: "fixed" | "poisson";
+  /** L(r) − r and its band. */
+  curve: Curve; departures: Departure[];
+  /** Rough cluster diameter read from the first departure above (overstates, statistics.md). */
+  clusterScale: { from: number; to: number } | null;
+};
+export type PcfOut = Base & { kind: "pcf"; classId: string; n: number; curve: Curve; bandwidth: number };
+export type CrossOut = Base & {
+  kind: "cross-l" | "k-diff"; a: string; b: string; nA: number; nB: number; null: "labelling" | "fixed-a";
+  curve: Curve; departures: Departure[];
+};
+export type InhomOut = Base & { kind: "inhom-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };
+export type TestOut = ClarkEvansOut | QuadratOut | LOut | PcfOut | CrossOut | InhomOut;
+
+/** Kernel intensity on a pixel grid (row 0 at minY), for the heat layer on the plan. */
+export type DensityOut = { classId: string; nx: number; ny: number; minX: number; minY: number; dx: number; dy: number; values: number[]; bandwidth: number; rule: string };
+
+export type RunResult = {
+  engineVersion: string;
+  seed: number;
+  nsim: number;
+  level: number;
+  rmax: number;
+  correction: Correction;
+  outline: [number, number][][];
+  area: number;
+  classes: ClassInScope[];
+  tests: TestOut[];
+  density: DensityOut[];
+  /** Where each class's finds lie, for the plan overlay. */
+  points: { classId: string; x: number[]; y: number[] }[];
+  /** statistics.md's cautions, as the engine words them. */
+  cautions: string[];
+  elapsedMs: number;
+};

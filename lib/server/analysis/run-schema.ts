@@ -1,0 +1,75 @@
+import { z } from "zod";
+
+/**
+ * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,
+ * the classes), the tests, and the shared parameters. No `server-only` here: the workspace form builds the
+ * same shape, and the route handler parses it with this schema.
+ */
+const id = z.string().uuid("Not a valid record id.");
+
+export const correctionSchema = z.enum(["isotropic", "translation", "border"]);
+export type Correction = z.infer<typeof correctionSchema>;
+
+export const testSchema = z.discriminatedUnion("kind", [
+  z.object({
+    kind: z.literal("clark-evans"),
+    /** none: Clark & Evans 1954 as published; donnelly: Donnelly 1978 (rectangles, approximate); monte-carlo: exact in W. */
+    correction: z.enum(["none", "donnelly", "monte-carlo"]).default("monte-carlo"),
+    alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
+  }),
+  z.object({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
+  z.object({
+    kind: z.literal("l-csr"),
+    statistic: z.enum(["mad", "dclf"]).default("dclf"),
+    /** fixed: the observed n in every simulation; poisson: a Poisson number with mean n (spatstat's default). */
+    count: z.enum(["fixed", "poisson"]).default("fixed"),
+  }),
+  z.object({ kind: z.literal("pcf") }),
+  z.object({
+    kind: z.literal("cross-l"),
+    a: id,
+    b: id,
+    /** labelling: do A and B share locations more than labels shuffled among them? fixed-a: are B nearer A than CSR points? */
+    null: z.enum(["labelling", "fixed-a"]).default("labelling"),
+  }),
+  z.object({ kind: z.literal("k-diff"), a: id, b: id }),
+  z.object({ kind: z.literal("inhom-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
+]);
+export type RunTest = z.infer<typeof testSchema>;
+export type TestKind = RunTest["kind"];
+
+export const runParamsSchema = z.object({
+  correction: correctionSchema.default("isotropic"),
+  /** Largest distance studied (m); default a quarter of the trench's short side. */
+  rmax: z.coerce.number().positive("The distance range must be larger than 0 m.").optional(),
+  nsim: z.coerce.number().int().min(19, "Use at least 19 simulations (p can then reach 0.05).").max(9999).default(999),
+  level: z.coerce.number().gt(0).lt(0.5).default(0.05),
+  seed: z.coerce.number().int().min(0).max(2 ** 31 - 1).optional(),
+});
+export type RunParamsInput = z.input<typeof runParamsSchema>;
+
+export const runScopeSchema = z.object({
+  trenchId: id,
+  contextIds: z.array(id).min(1, "Choose at least one context.").max(50),
+  classIds: z.array(id).min(1, "Choose at least one class.").max(12),
+});
+export type RunScope = z.infer<typeof runScopeSchema>;
+
+export const runCreateSchema = z.object({
+  scope: runScopeSchema,
+  tests: z.array(testSchema).min(1, "Choose at least one test.").max(40),
+  params: runParamsSchema.default({ correction: "isotropic", nsim: 999, level: 0.05 }),
+  label: z.string().trim().max(120).optional(),
+});
+export type RunCreate = z.infer<typeof runCreateSchema>;
+export type RunCreateInput = z.input<typeof runCreateSchema>;
+
+/** Query of the scope summary: ids joined by commas so a URL can carry them. */
+const idList = z
+  .string()
+  .default("")
+  .transform((s) => s.split(",").map((v) => v.trim()).filter(Boolean))
+  .pipe(z.array(id));
+export const scopeQuerySchema = z.object({ trenchId: id, contextIds: idList, classIds: idList });
+
+export const runListQuerySchema = z.object({ trenchId: id.optional() });

@@ -1,0 +1,53 @@
+import "server-only";
+import type { Db } from "@/db/client";
+import { contexts } from "@/db/schema";
+import { eq } from "drizzle-orm";
+import { defaultRmax, roundMetres, DEFAULT_PARAMS } from "./defaults";
+import type { RunScope, TestKind } from "./run-schema";
+import { loadScope, siteRelations, type ScopeData } from "./scope-data";
+import { stratigraphicWarnings, type StratWarning } from "./stratigraphy";
+import { LOW_POWER_N, MIN_POINTS } from "./thresholds";
+
+export type ScopeSummary = {
+  trench: { id: string; code: string; area: number; shortSide: number };
+  classes: { id: string; code: string; label: string; colour: string; symbol: string; n: number; lowPower: boolean; tooFewFor: TestKind[] }[];
+  totalFinds: number;
+  warnings: StratWarning[];
+  defaults: { correction: string; rmax: number; nsim: number; level: number };
+  minPoints: Record<TestKind, number>;
+  fingerprint: string;
+};
+
+export function countsByClass(data: ScopeData): Map<string, number> {
+  const n = new Map<string, number>();
+  for (const f of data.finds) n.set(f.classId, (n.get(f.classId) ?? 0) + 1);
+  return n;
+}
+
+export async function stratWarningsFor(db: Db, siteId: string, data: ScopeData): Promise<StratWarning[]> {
+  const [relations, all] = await Promise.all([siteRelations(db, siteId), db.select({ id: contexts.id }).from(contexts).where(eq(contexts.siteId, siteId))]);
+  return stratigraphicWarnings(data.contexts, all.map((c) => c.id), relations);
+}
+
+/** What the workspace shows before a run: n per class, which tests each class is too small for, warnings, defaults. */
+export async function scopeSummary(db: Db, siteId: string, scope: RunScope): Promise<ScopeSummary> {
+  const data = await loadScope(db, siteId, scope);
+  const n = countsByClass(data);
+  const { bbox } = data.window;
+  return {
+    trench: { id: data.trench.id, code: data.trench.code, area: data.window.area, shortSide: Math.min(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY) },
+    classes: data.classes.map((c) => {
+      const count = n.get(c.id) ?? 0;
+      return {
+        id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, n: count,
+        lowPower: count < LOW_POWER_N,
+        tooFewFor: (Object.keys(MIN_POINTS) as TestKind[]).filter((k) => count < MIN_POINTS[k]),
+      };
+    }),
+    totalFinds: data.finds.length,
+    warnings: await stratWarningsFor(db, siteId, data),
+    defaults: { ...DEFAULT_PARAMS, rmax: roundMetres(defaultRmax(data.window)) },
+    minPoints: MIN_POINTS,
+    fingerprint: data.fingerprint,
+  };
+}
