@@ -1,4 +1,20 @@
-import type { ApiOperation } from "./types";
+import { photoFitInputSchema, photoListQuery } from "@/lib/geometry/photo-fit-input";
+import { recorders, type ApiOperation } from "./types";
 
-/** API operations of the trench plan: photos, photo fit, outline editing (issue: trench plan). */
-export const planApi = {} satisfies Record<string, ApiOperation>;
+/**
+ * API operations of the trench plan: photos, photo fit, photo files. Uploads themselves go through the
+ * uploadthing route (/api/uploadthing), whose middleware applies the same role rule (recorders).
+ */
+export const planApi = {
+  photosList: { method: "GET", path: "/api/sites/{siteId}/photos", summary: "Plan photos (optionally of one trench), with their fits", roles: "member", input: photoListQuery, from: "query" },
+  photoRead: { method: "GET", path: "/api/sites/{siteId}/photos/{photoId}", summary: "One plan photo with its fit", roles: "member", from: "none" },
+  photoFit: { method: "POST", path: "/api/sites/{siteId}/photos/{photoId}/fit", summary: "Fit a photo to the site grid from control points", roles: recorders, doing: "fit plan photos", input: photoFitInputSchema },
+  photoDelete: { method: "DELETE", path: "/api/sites/{siteId}/photos/{photoId}", summary: "Delete a plan photo and its derivatives", roles: recorders, doing: "delete plan photos", from: "none" },
+  photoFile: {
+    method: "GET",
+    path: "/api/files/{siteId}/{photoId}/{variant}",
+    summary: "A photo derivative (display, thumb, warp), for members of its site only",
+    roles: "member",
+    from: "none",
+  },
+} satisfies Record<string, ApiOperation>;

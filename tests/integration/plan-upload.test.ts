@@ -1,0 +1,112 @@
+/**
+ * A photo upload end to end through the app's own file router and the uploadthing SDK's route handler,
+ * against the local upload fake (production flow: the fake POSTs the callback to the app).
+ */
+import http from "node:http";
+import { mkdtemp } from "node:fs/promises";
+import os from "node:os";
+import path from "node:path";
+import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import sharp from "sharp";
+import { createRouteHandler } from "uploadthing/next";
+import { session } from "../support/harness";
+import { makeSite, type SiteFixture } from "../support/fixtures";
+import { getDb } from "@/db/client";
+import { listPhotos } from "@/lib/server/photos";
+import { uploadRouter } from "@/lib/server/uploads/file-router";
+import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "@/lib/dev-services/upload-fake";
+
+let fx: SiteFixture;
+let fake: Awaited<ReturnType<typeof startUploadFake>>;
+let app: { url: string; close(): Promise<void> };
+
+beforeAll(async () => {
+  process.env.LOAMWORK_FILES_DIR = await mkdtemp(path.join(os.tmpdir(), "loamwork-files-"));
+  fake = await startUploadFake({ port: 0, dir: await mkdtemp(path.join(os.tmpdir(), "loamwork-fake-")), callbackTimeoutMs: 20_000 });
+  const handlers = createRouteHandler({ router: uploadRouter, config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" } });
+  const server = http.createServer(async (req, res) => {
+    const chunks: Buffer[] = [];
+    for await (const c of req) chunks.push(c as Buffer);
+    const request = new Request(`http://${req.headers.host}${req.url}`, { method: req.method, headers: req.headers as Record<string, string>, body: chunks.length ? Buffer.concat(chunks) : undefined });
+    const out = await (req.method === "POST" ? handlers.POST(request as never) : handlers.GET(request as never));
+    res.writeHead(out.status, Object.fromEntries(out.headers.entries()));
+    res.end(Buffer.from(await out.arrayBuffer()));
+  });
+  await new Promise<void>((r) => server.listen(0, "127.0.0.1", () => r()));
+  app = { url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`, close: () => new Promise((r) => server.close(() => r())) };
+  await getDb();
+  fx = await makeSite();
+});
+afterAll(async () => {
+  await app?.close();
+  await fake?.stop();
+});
+
+async function requestUpload(file: { name: string; size: number; type: string }, input: unknown) {
+  const res = await fetch(`${app.url}/api/uploadthing?actionType=upload&slug=trenchPhoto`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ files: [{ ...file, lastModified: 1 }], input }),
+  });
+  return { status: res.status, json: (await res.json()) as any };
+}
+
+async function put(url: string, bytes: Buffer, name: string, type: string) {
+  const form = new FormData();
+  form.append("file", new Blob([new Uint8Array(bytes)], { type }), name);
+  const res = await fetch(url, { method: "PUT", body: form, headers: { Range: "bytes=0-" } });
+  return (await res.json()) as any;
+}
+
+describe("photo upload through the uploadthing route and the fake", () => {
+  it("a digger's JPEG becomes a photo record with derivatives", async () => {
+    session.userId = fx.people.digger.id;
+    const bytes = await sharp({ create: { width: 640, height: 480, channels: 3, background: "#8a6a4a" } }).jpeg().toBuffer();
+    const presigned = await requestUpload({ name: "a-east.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    expect(presigned.status, JSON.stringify(presigned.json)).toBe(200);
+    const out = await put(presigned.json[0].url, bytes, "a-east.jpg", "image/jpeg");
+    expect(out.error).toBeUndefined();
+    expect(out.serverData.error).toBeNull();
+    const photos = await listPhotos(await getDb(), fx.site.id, fx.trench.id);
+    expect(photos.map((p) => p.id)).toContain(out.serverData.photoId);
+    expect(photos.find((p) => p.id === out.serverData.photoId)).toMatchObject({ fileName: "a-east.jpg", width: 640, height: 480 });
+  });
+
+  it("refuses a file that is not an image, naming the type", async () => {
+    session.userId = fx.people.digger.id;
+    const res = await requestUpload({ name: "sheet.pdf", size: 1200, type: "application/pdf" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    expect(res.status).toBe(400);
+    expect(res.json.message).toMatch(/sheet\.pdf.*application\/pdf.*not a photo/);
+  });
+
+  it("refuses a photo over the size limit, with the size and the limit", async () => {
+    session.userId = fx.people.digger.id;
+    const res = await requestUpload({ name: "huge.jpg", size: 40 * 1024 * 1024, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    expect(res.status).toBeGreaterThanOrEqual(400);
+    expect(res.json.message).toMatch(/40\.0 MB.*limit.*16 MB/);
+  });
+
+  it("refuses a specialist (role) and a stranger (not found), and a signed-out caller", async () => {
+    const input = { siteId: fx.site.id, trenchId: fx.trench.id };
+    const file = { name: "a.jpg", size: 100, type: "image/jpeg" };
+    session.userId = fx.people.specialist.id;
+    const spec = await requestUpload(file, input);
+    expect(spec.status).toBe(403);
+    expect(spec.json.message).toMatch(/specialist cannot upload plan photos/);
+    session.userId = fx.people.stranger.id;
+    expect((await requestUpload(file, input)).status).toBe(404);
+    session.userId = null;
+    expect((await requestUpload(file, input)).status).toBe(403);
+  });
+
+  it("reports bytes that claim to be a JPEG but are not, without recording a photo", async () => {
+    session.userId = fx.people.digger.id;
+    const before = (await listPhotos(await getDb(), fx.site.id)).length;
+    const bytes = Buffer.from("this is a context sheet, typed up");
+    const presigned = await requestUpload({ name: "fake.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const out = await put(presigned.json[0].url, bytes, "fake.jpg", "image/jpeg");
+    expect(out.serverData.error).toMatch(/not an image/);
+    expect((await listPhotos(await getDb(), fx.site.id)).length).toBe(before);
+  });
+});
