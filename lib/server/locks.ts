@@ -57,3 +57,14 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
     details,
   );
 }
+
+/**
+ * The same refusal for a write that touches several contexts at once (an outline edit that would leave finds
+ * of these contexts outside, an import into several contexts): the first locked one is named.
+ */
+export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly string[], doing = "changed"): Promise<void> {
+  for (const id of [...new Set(contextIds)]) {
+    const [c] = await tx.select().from(contexts).where(eq(contexts.id, id));
+    if (c) await assertContextWritable(tx, c, doing);
+  }
+}
