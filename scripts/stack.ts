@@ -7,8 +7,11 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync } from "node:fs";
 import path from "node:path";
+import { startMailSink } from "../lib/dev-services/mail-sink";
+import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "../lib/dev-services/upload-fake";
 
-export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string> };
+/** The app's port; the SMTP sink listens on port + 1525 and the upload fake on port + 210 unless given. */
+export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string>; smtpPort?: number; uploadPort?: number };
 export type Stack = { url: string; env: NodeJS.ProcessEnv; stop: () => Promise<void> };
 
 const root = path.resolve(import.meta.dirname, "..");
@@ -51,6 +54,21 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   };
   delete env.DATABASE_URL;
   const stops: (() => Promise<void>)[] = [];
+
+  // Local stand-ins for the hosted services, speaking their real protocols (local-services.md).
+  const mail = await startMailSink({ port: opts.smtpPort ?? opts.port + 1525, dir: path.join(dataDir, "mail") });
+  stops.push(() => mail.stop());
+  const uploads = await startUploadFake({ port: opts.uploadPort ?? opts.port + 210, dir: path.join(dataDir, "uploads"), appUrl: url });
+  stops.push(() => uploads.stop());
+  Object.assign(env, {
+    SMTP_URL: mail.url,
+    UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
+    UPLOADTHING_INGEST_URL: uploads.url,
+    UPLOADTHING_API_URL: uploads.url,
+    UPLOADTHING_IS_DEV: "false",
+    UPLOADTHING_CALLBACK_URL: `${url}/api/uploadthing`,
+    LOAMWORK_DEV_MAIL: "1",
+  });
 
   const seed = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
   if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
