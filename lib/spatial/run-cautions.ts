@@ -22,6 +22,9 @@ export function testCautions(t: TestSpec, n: number): string[] {
   if (t.type === "cross-l" && t.null === "a-fixed") {
     out.push(`Class ${t.a} fixed, class ${t.b} replaced by random positions: this asks whether ${t.b} finds lie nearer to ${t.a} finds than chance positions would. ${t.b}'s own clustering inflates this test.`);
   }
+  if (t.type === "inhomogeneous-l") {
+    out.push("The intensity is a kernel estimate read on a pixel image, not left out at each find: when the reference includes the tested class, its own finds raise the estimate where they lie, which makes the test conservative. The bandwidth changes the answer.");
+  }
   if (t.type === "clark-evans" && t.correction === "donnelly") {
     out.push("Donnelly's correction was derived for rectangles; in an irregular trench it is an approximation — the Monte Carlo version is exact for any window.");
   }

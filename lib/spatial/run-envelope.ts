@@ -37,7 +37,7 @@ export interface EnvelopeOutcome {
 export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array, hi: Float64Array): Excursion[] {
   const out: Excursion[] = [];
   let open: Excursion | null = null;
-  for (let k = 1; k < r.length; k++) {
+  for (let k = r[0] === 0 ? 1 : 0; k < r.length; k++) {
     const side = obs[k] > hi[k] ? "above" : obs[k] < lo[k] ? "below" : null;
     if (open && side !== open.side) {
       open.to = r[k];
@@ -75,7 +75,7 @@ export async function envelopeTest(
   let pValue: number;
   let globalBand: EnvelopeOutcome["globalBand"];
   if (statistic === "rank") {
-    const res = rankEnvelope(observed, set, spec.level, [1, r.length]);
+    const res = rankEnvelope(observed, set, spec.level, [r[0] === 0 ? 1 : 0, r.length]);
     pValue = res.pValue;
     globalBand = { lo: round(res.lo), hi: round(res.hi), level: spec.level };
   } else {

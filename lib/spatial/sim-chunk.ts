@@ -21,6 +21,7 @@ export function prepareModel(setup: SimSetup): PreparedModel {
   switch (model.kind) {
     case "csr-l":
     case "csr-nn":
+    case "csr-g":
       return prepareCsr(window, r, model);
     case "labelling":
     case "fixed-a":

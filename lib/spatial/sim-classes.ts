@@ -12,7 +12,7 @@ import { SpatialInputError } from "./errors";
 import { createIsotropicWeights, isotropicWeight } from "./isotropic-weights";
 import { pairsWithin } from "./neighbours";
 import { createPairScanner } from "./pair-grid";
-import { createBinner } from "./r-grid";
+import { createBinner, createBinning } from "./r-grid";
 import { createWindowSampler } from "./sample-window";
 import type { PreparedModel } from "./sim-csr";
 import type { SimModel } from "./sim-models";
@@ -28,7 +28,8 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
   const x = Float64Array.from(model.x), y = Float64Array.from(model.y);
   const n = x.length, m = r.length;
   const pairs = pairsWithin({ x, y }, r[m - 1]);
-  const bin = createBinner(r);
+  // each class's own K follows K's binning rule; cross-K always spatstat's generic one (r-grid.ts)
+  const bin = model.statistic === "k-diff" ? createBinning(window, r).bin : createBinner(r);
   const bins = new Int32Array(pairs.count);
   for (let p = 0; p < pairs.count; p++) bins[p] = bin(pairs.d[p]);
   const iso = model.correction === "isotropic";

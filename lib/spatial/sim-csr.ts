@@ -1,7 +1,8 @@
-/** Prepared CSR models: L̂ under CSR (any edge correction) and the mean nearest-neighbour distance. */
+/** Prepared CSR models: L̂ (any edge correction), the pair correlation ĝ and the mean nearest-neighbour distance. */
 import { kFunction, kToL } from "./k-function";
 import { createIsotropicL } from "./l-isotropic";
 import { nearestNeighbourDistances } from "./neighbours";
+import { pairCorrelation } from "./pair-correlation";
 import { createPairScanner } from "./pair-grid";
 import type { Random } from "./random";
 import { createWindowSampler } from "./sample-window";
@@ -33,7 +34,15 @@ export function csrLCurve(window: Window, r: Float64Array, correction: "isotropi
   };
 }
 
-export function prepareCsr(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "csr-l" | "csr-nn" }>): PreparedModel {
+/** ĝ of a pattern on the positive grid r, isotropic correction, with a fixed kernel half-width. */
+export function pcfCurve(window: Window, r: Float64Array, halfWidth: number) {
+  return (x: Float64Array, y: Float64Array, n: number, out: Float64Array, offset: number): void => {
+    const g = pairCorrelation(window, { x: x.subarray(0, n), y: y.subarray(0, n) }, { r, halfWidth, label: "a simulated pattern" }).g.isotropic!;
+    out.set(g, offset);
+  };
+}
+
+export function prepareCsr(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "csr-l" | "csr-nn" | "csr-g" }>): PreparedModel {
   const sampler = createWindowSampler(window);
   const buffers = { x: new Float64Array(model.n), y: new Float64Array(model.n) };
   if (model.kind === "csr-nn") {
@@ -48,7 +57,7 @@ export function prepareCsr(window: Window, r: Float64Array, model: Extract<SimMo
       },
     };
   }
-  const curve = csrLCurve(window, r, model.correction);
+  const curve = model.kind === "csr-g" ? pcfCurve(window, r, model.halfWidth) : csrLCurve(window, r, model.correction);
   return {
     m: r.length,
     simulate(rng, out, offset) {

@@ -23,6 +23,8 @@ export type EdgeCorrection = "isotropic" | "translation" | "border";
 export type SimModel =
   /** L̂ of CSR patterns with n or Poisson(n) points. */
   | { kind: "csr-l"; n: number; count: CsrCount; correction: EdgeCorrection }
+  /** Pair correlation ĝ (kernel half-width fixed from the observed pattern) of CSR patterns; r > 0 only. */
+  | { kind: "csr-g"; n: number; count: CsrCount; halfWidth: number }
   /** Mean nearest-neighbour distance of CSR patterns of n points (one value per simulation). */
   | { kind: "csr-nn"; n: number }
   /** Random labelling of fixed locations; labels 0 = class A, 1 = class B, 2 = neither. */

@@ -1,0 +1,132 @@
+/**
+ * `npm run bench -- spatial [--quick]`: the engine benchmark of issue 3. For n = 200, 1000, 5000 uniform
+ * points in the demo trench (demo-window.ts: L-shaped, with a baulk), each n in its own child process so
+ * that peak memory is per n:
+ * - one isotropic K (k-function.ts, the estimator used on observed data), and the simulation-loop kernel;
+ * - a 999-simulation global envelope test on L (isotropic, MAD, CSR) through runDistributionTest on a warm
+ *   two-thread pool (pool start-up timed apart), the per-simulation cost, and the share of the kernel's
+ *   time spent enumerating pairs (the floor: what is left if the weights were free);
+ * - when Rscript with spatstat is installed, the same work in spatstat with fewer simulations, scaled
+ *   per simulation, and the ratio.
+ * Writes the markdown table to stdout and to bench/results-spatial.md.
+ */
+import { execFileSync, spawnSync } from "node:child_process";
+import { mkdirSync, writeFileSync } from "node:fs";
+import { availableParallelism, cpus, tmpdir } from "node:os";
+import { join } from "node:path";
+import { DEMO_TRENCH } from "../lib/spatial/demo-window";
+import { kFunction } from "../lib/spatial/k-function";
+import { createIsotropicL } from "../lib/spatial/l-isotropic";
+import { createSimulationPool } from "../lib/spatial/pool";
+import { createRandom } from "../lib/spatial/random";
+import { defaultRGrid } from "../lib/spatial/r-grid";
+import { runDistributionTest } from "../lib/spatial/run-test";
+import { createWindowSampler } from "../lib/spatial/sample-window";
+import { ENGINE_VERSION } from "../lib/spatial/version";
+import { createWindow } from "../lib/spatial/window";
+
+const NSIM = 999;
+const quick = process.argv.includes("--quick");
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function timeIt(reps: number, f: () => void): number {
+  f();
+  const t: number[] = [];
+  for (let k = 0; k < reps; k++) {
+    const t0 = performance.now();
+    f();
+    t.push(performance.now() - t0);
+  }
+  return median(t);
+}
+
+/** Child mode: measure one n and print a JSON line. */
+async function measure(n: number): Promise<void> {
+  const win = createWindow(DEMO_TRENCH);
+  const x = new Float64Array(n), y = new Float64Array(n);
+  createWindowSampler(win).fill(createRandom(2024), n, x, y);
+  const r = defaultRGrid(win, n);
+  const reps = n >= 5000 ? 5 : 20;
+  const kMs = timeIt(reps, () => kFunction(win, { x, y }, { r, correction: "isotropic" }));
+  const est = createIsotropicL(win, r);
+  const out = new Float64Array(r.length);
+  const kernelMs = timeIt(reps, () => est.l(x, y, n, out));
+  const pairMs = timeIt(reps, () => est.countPairs(x, y, n));
+  const pairs = est.countPairs(x, y, n);
+  const t0 = performance.now();
+  const pool = createSimulationPool({ threads: 2 });
+  const points = Array.from(x, (v, k) => ({ x: v, y: y[k] }));
+  const spec = { window: DEMO_TRENCH, points, seed: 1, nsim: 19, tests: [{ type: "l-envelope", statistic: "mad" }] };
+  await runDistributionTest(spec, { pool }); // warm: threads started, worker code compiled
+  const startupMs = performance.now() - t0;
+  const nsim = quick && n >= 5000 ? 99 : NSIM;
+  const t1 = performance.now();
+  const res = await runDistributionTest({ ...spec, nsim }, { pool });
+  const testMs = performance.now() - t1;
+  await pool.destroy();
+  const csv = join(tmpdir(), `loamwork-bench-${n}.csv`);
+  writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
+  const maxRssMb = process.resourceUsage().maxRSS / 1024;
+  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, pairMs, startupMs, nsim, testMs, p: res.results[0].pValue, maxRssMb, csv })}\n`);
+}
+
+function spatstat(csv: string, nsim: number): { k: number; test: number; nsim: number; spatstat: string; p: number } | null {
+  try {
+    const outText = execFileSync("Rscript", [join(import.meta.dirname, "bench-spatial-r.R"), csv, String(nsim)], { encoding: "utf8", stdio: ["ignore", "pipe", "ignore"], timeout: 900_000 });
+    return JSON.parse(outText.trim().split("\n").pop()!);
+  } catch {
+    return null;
+  }
+}
+
+async function main(): Promise<void> {
+  const child = process.argv.find((a) => a.startsWith("--n="));
+  if (child) return measure(Number(child.slice(4)));
+  const rows: string[] = [];
+  const notes: string[] = [];
+  let spatstatVersion = "";
+  for (const n of [200, 1000, 5000]) {
+    const run = spawnSync(process.execPath, ["--import", "tsx", import.meta.filename, `--n=${n}`, ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
+    if (run.status !== 0) throw new Error(`bench for n = ${n} failed: ${run.stderr}`);
+    const m = JSON.parse(run.stdout.trim().split("\n").pop()!);
+    const perSim = m.testMs / m.nsim;
+    const rNsim = n <= 200 ? 39 : n <= 1000 ? 19 : 4;
+    const R = spatstat(m.csv, rNsim);
+    let rCols = "not installed | – | –";
+    if (R) {
+      spatstatVersion = R.spatstat;
+      const rPerSim = R.test / R.nsim;
+      rCols = `${R.k.toFixed(3)} s | ${(rPerSim * NSIM).toFixed(1)} s (${R.nsim} sims × ${NSIM / R.nsim} scaled) | ${((rPerSim * NSIM) / (perSim * NSIM / 1000)).toFixed(0)}×`;
+    }
+    rows.push(
+      `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
+    );
+    process.stderr.write(`n = ${n} done\n`);
+  }
+  notes.push(
+    `Engine ${ENGINE_VERSION}; Node ${process.version}; ${availableParallelism()} cores (${cpus()[0]?.model ?? "unknown CPU"}); ${new Date().toISOString().slice(0, 16)} UTC.`,
+    "Points: uniform in the demo trench (about 12 m × 8 m, L-shaped, with a 2 m × 0.8 m baulk), seed 2024; r grid: spatstat's default (513 values, r max = min(short side/4, √(1000/(πλ)))).",
+    "K: one isotropic K̂ by k-function.ts (kdbush pairs, exact Math.acos weights); kernel: the fused simulation-loop estimator (grid pairs + weights, l-isotropic.ts), median of repeated runs.",
+    `Test: runDistributionTest, L under CSR (Poisson n), isotropic, MAD, ${NSIM} simulations on a warm 2-thread pool; pool start-up (threads + loading the TypeScript worker) is timed separately and not included.`,
+    "Pairs share: the kernel's pair enumeration alone over the whole kernel — the floor if edge weights cost nothing.",
+    "Peak memory: maxRSS of the process (main thread + workers) over the whole measurement of that n.",
+    spatstatVersion
+      ? `spatstat ${spatstatVersion}: Kest(correction = "isotropic") and mad.test(X, Lest, correction = "isotropic") on the same points and window, run with fewer simulations and scaled to ${NSIM} per simulation (R is single-threaded).`
+      : "spatstat: Rscript with spatstat was not found, so no ratio was measured.",
+  );
+  const table = [
+    "| n | pairs ≤ r max | one K (isotropic) | kernel K | 999-sim L test (wall) | per sim | pair enumeration share | peak RSS | pool start-up | spatstat K | spatstat 999-sim test | ratio (test) |",
+    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+    ...rows,
+  ].join("\n");
+  const md = `# Spatial engine benchmark\n\n${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
+  mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });
+  writeFileSync(join(import.meta.dirname, "..", "bench", "results-spatial.md"), md);
+  process.stdout.write(md);
+}
+
+await main();
