@@ -1,0 +1,86 @@
+import { describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { session } from "../support/harness";
+import { makeSite } from "../support/fixtures";
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import { signedArea2 } from "@/lib/server/export/geojson";
+import * as exportFindsRoute from "@/app/api/sites/[siteId]/export/finds/route";
+import * as exportTrenchesRoute from "@/app/api/sites/[siteId]/export/trenches/route";
+import * as exportContextsRoute from "@/app/api/sites/[siteId]/export/contexts/route";
+import * as matrixImageRoute from "@/app/api/sites/[siteId]/matrix/image/route";
+
+async function get(mod: { GET: Function }, siteId: string, query: string) {
+  const res: Response = await mod.GET(new Request(`http://localhost/x?${query}`), { params: Promise.resolve({ siteId }) });
+  return res;
+}
+
+/** A ring drawn clockwise on purpose, to prove the export re-orients it. */
+const clockwiseExtent = { type: "Polygon" as const, coordinates: [[[1, 1], [1, 3], [3, 3], [3, 1], [1, 1]] as [number, number][]] };
+
+describe("GeoJSON exports (RFC 7946)", () => {
+  it("writes trench outlines and context extents with exterior rings counter-clockwise and holes clockwise", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    await db.update(schema.contexts).set({ extent: clockwiseExtent }).where(eq(schema.contexts.id, fx.context.id));
+    session.userId = fx.people.specialist.id;
+    const trenches = await (await get(exportTrenchesRoute, fx.site.id, "coords=grid")).json();
+    expect(trenches.type).toBe("FeatureCollection");
+    const [outer, hole] = trenches.features[0].geometry.coordinates;
+    // RFC 7946 §3.1.6: exterior rings counter-clockwise (positive shoelace area), holes clockwise; rings closed.
+    expect(signedArea2(outer)).toBeGreaterThan(0);
+    expect(signedArea2(hole)).toBeLessThan(0);
+    expect(Math.abs(signedArea2(outer)) / 2).toBeCloseTo(60, 9); // 10 m × 6 m, the fixture's trench
+    expect(Math.abs(signedArea2(hole)) / 2).toBeCloseTo(2, 9); // its 2 m × 1 m baulk
+    for (const ring of [outer, hole]) expect(ring[0]).toEqual(ring[ring.length - 1]);
+    const extents = await (await get(exportContextsRoute, fx.site.id, "format=geojson")).json();
+    const extent = extents.features.find((f: any) => f.properties.number === fx.context.number);
+    expect(signedArea2(extent.geometry.coordinates[0])).toBeGreaterThan(0);
+    const empty = extents.features.filter((f: any) => f.properties.number !== fx.context.number);
+    for (const f of empty) expect(f.geometry).toBeNull();
+  });
+
+  it("writes finds as x, y (, z) positions in the site grid, and in longitude, latitude through the site's CRS", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 7, x: 2.5, y: 4, z: 10.25, method: "typed" });
+    session.userId = fx.people.digger.id;
+    const grid = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=grid")).json();
+    // RFC 7946 §3.1.1: x (easting) first, then y (northing), then elevation.
+    expect(grid.features[0].geometry).toEqual({ type: "Point", coordinates: [2.5, 4, 10.25] });
+    const refused = await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat");
+    expect(refused.status).toBe(400);
+    // Grid origin at UTM zone 30N (500000 m E, 0 m N): the zone's central meridian, 3° W, on the equator
+    // (UTM definition: false easting 500 000 m on the central meridian, zone 30 centred on 3° W).
+    await db.update(schema.sites).set({ crs: "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs", gridOriginX: 500000 - 2.5, gridOriginY: -4 }).where(eq(schema.sites.id, fx.site.id));
+    const lonlat = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat")).json();
+    const [lon, lat] = lonlat.features[0].geometry.coordinates;
+    expect(lon).toBeCloseTo(-3, 9);
+    expect(lat).toBeCloseTo(0, 9);
+    const crs = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=crs")).json();
+    expect(crs.features[0].geometry.coordinates.slice(0, 2)).toEqual([500000, 0]);
+  });
+});
+
+describe("CSV and matrix image exports", () => {
+  it("writes the contexts CSV with relations read from each side, and the matrix as SVG and PNG", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const [upper] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 1, type: "layer" }).returning();
+    await db.insert(schema.contextRelations).values({ siteId: fx.site.id, fromId: upper.id, toId: fx.context.id, kind: "above" });
+    session.userId = fx.people.digger.id;
+    const csv = await (await get(exportContextsRoute, fx.site.id, "format=csv")).text();
+    const lines = csv.trim().split("\r\n");
+    expect(lines[0]).toBe("number,trench,type,state,colour,compaction,composition,inclusions,description,interpretation,relations,finds,has_extent,signed_off_at");
+    expect(lines[1]).toContain(`1,A,layer,open,,,,,,,above ${fx.context.number},0,no,`);
+    expect(lines[2]).toContain(`below 1`);
+    const svg = await get(matrixImageRoute, fx.site.id, "format=svg");
+    expect(svg.headers.get("content-type")).toBe("image/svg+xml");
+    const text = await svg.text();
+    expect(text.startsWith("<svg")).toBe(true);
+    expect(text).toContain(`>${fx.context.number}</text>`);
+    const png = new Uint8Array(await (await get(matrixImageRoute, fx.site.id, "format=png")).arrayBuffer());
+    // PNG signature, PNG specification §5.2: 89 50 4E 47 0D 0A 1A 0A.
+    expect([...png.slice(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+  });
+});
