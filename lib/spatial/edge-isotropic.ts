@@ -70,7 +70,8 @@ export function isotropicEdgeData(window: Window, x: ArrayLike<number>, y: Array
       const ux = ex / len, uy = ey / len;
       const sa = ax * ux + ay * uy;
       const t = Math.max(0, Math.min(len, -sa));
-      const segDist = Math.hypot(ax + t * ux, ay + t * uy);
+      const qx = ax + t * ux, qy = ay + t * uy;
+      const segDist = Math.sqrt(qx * qx + qy * qy);
       if (segDist <= tol) onBoundary = true;
       if (segDist < nearest) nearest = segDist;
       if (segDist >= rmax) continue; // a circle of radius < rmax cannot reach this edge
