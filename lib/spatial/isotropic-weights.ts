@@ -48,20 +48,28 @@ export interface IsotropicWeights {
   weight(i: number, d: number): number;
 }
 
-/** Weight of centre i at distance d from prepared tables; a plain function so that V8 can inline it. */
+/** Weight of centre i at distance d from prepared tables. */
 export function isotropicWeight(t: IsotropicTables, i: number, d: number): number {
-  if (d <= t.bdist[i]) return 1;
-  const slots = t.slots;
+  return weightFrom(t.bdist, t.start, t.slots, t.total, i, d);
+}
+
+/**
+ * The same from the table arrays themselves: the form the hot loop calls, with the arrays held in locals
+ * so that V8 inlines it without reloading object fields.
+ */
+export function weightFrom(bdist: Float64Array, start: Int32Array, slots: Float64Array, total: Float64Array, i: number, d: number): number {
+  if (d <= bdist[i]) return 1;
+  const inv = 1 / d;
   let lost = 0;
-  for (let k = t.start[i] * SLOT, k1 = t.start[i + 1] * SLOT; k < k1; k += SLOT) {
+  for (let k = start[i] * SLOT, k1 = start[i + 1] * SLOT; k < k1; k += SLOT) {
     if (slots[k] >= d) break;
-    const x = slots[k + 1] / d;
+    const x = slots[k + 1] * inv;
     const beta = x < 1 ? acosAS(x) : 0;
     const lo = slots[k + 2] > -beta ? slots[k + 2] : -beta;
     const hi = slots[k + 3] < beta ? slots[k + 3] : beta;
     if (hi > lo) lost += slots[k + 4] * (hi - lo);
   }
-  const theta = t.total[i] - lost;
+  const theta = total[i] - lost;
   if (!(theta * MAX_WEIGHT > TWO_PI)) return MAX_WEIGHT;
   const w = TWO_PI / theta;
   return w > 1 ? w : 1;

@@ -7,7 +7,7 @@
  * stored; the grid, weight tables and histogram are reused from one pattern to the next.
  */
 import { createCellGrid } from "./cell-grid";
-import { createIsotropicWeights, isotropicWeight } from "./isotropic-weights";
+import { createIsotropicWeights, weightFrom } from "./isotropic-weights";
 import { createBinning } from "./r-grid";
 import type { Window } from "./types";
 
@@ -46,6 +46,7 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
     }
     // Prepared in sorted order so that the tables are read in memory order inside the loop.
     const tables = weigh ? weights.prepare(sx, sy, n) : null;
+    const bd = tables ? tables.bdist : sx, st = tables ? tables.start : order, sl = tables ? tables.slots : sx, tot = tables ? tables.total : sx;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {
       for (let cx = 0; cx < nx; cx++) {
@@ -64,7 +65,7 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
               pairs++;
               if (tables === null) continue;
               const d = Math.sqrt(dd);
-              const w = isotropicWeight(tables, p, d) + isotropicWeight(tables, q, d);
+              const w = weightFrom(bd, st, sl, tot, p, d) + weightFrom(bd, st, sl, tot, q, d);
               hist[bin(d)] += u ? w * su[p] * su[q] : w;
             }
           }
