@@ -1,17 +1,12 @@
+import Link from "next/link";
 import type { Db } from "@/db/client";
 import { listAudit } from "@/lib/server/audit-read";
+import { AuditChanges } from "./audit-changes";
 
-/** Fields that change on every write and say nothing to a reader. */
-const noise = new Set(["updatedAt", "createdAt"]);
+const stamp = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
 
-function changedFields(before: unknown, after: unknown): string[] {
-  const b = (before ?? {}) as Record<string, unknown>;
-  const a = (after ?? {}) as Record<string, unknown>;
-  const keys = new Set([...Object.keys(b), ...Object.keys(a)]);
-  return [...keys].filter((k) => !noise.has(k) && JSON.stringify(b[k]) !== JSON.stringify(a[k]));
-}
-
-const show = (v: unknown) => (v === null || v === undefined || v === "" ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v));
+/** Actions that change a record's standing rather than its content, drawn so they stand out in the trail. */
+const milestone: Record<string, string> = { submit: "submitted for sign-off", "sign-off": "signed off", reopen: "reopened", return: "returned to open" };
 
 /** The trace of one record: who changed what, when, and why (reasons of reopenings). Server component. */
 export async function AuditTrail({ db, siteId, recordType, recordId }: { db: Db; siteId: string; recordType: string; recordId: string }) {
@@ -21,27 +16,19 @@ export async function AuditTrail({ db, siteId, recordType, recordId }: { db: Db;
       <h2 id={`trail-${recordId}`} className="text-lg font-bold">Record trail</h2>
       {entries.length === 0 && <p className="text-ink-soft">No changes recorded yet.</p>}
       <ol className="mt-2 space-y-2">
-        {entries.map((e) => {
-          const fields = changedFields(e.before, e.after);
-          const b = (e.before ?? {}) as Record<string, unknown>;
-          const a = (e.after ?? {}) as Record<string, unknown>;
-          return (
-            <li key={e.id} className="border-l-4 border-ink/30 pl-3 text-sm">
-              <p>
-                <span className="num">{e.at.toISOString().slice(0, 16).replace("T", " ")}</span> · <strong>{e.actor ?? "system"}</strong> · {e.action}
-              </p>
-              {e.reason && <p className="italic">Reason: {e.reason}</p>}
-              {e.action === "update" && fields.length > 0 && (
-                <ul className="text-ink-soft">
-                  {fields.slice(0, 8).map((f) => (
-                    <li key={f}><span className="font-semibold">{f}</span>: {show(b[f])} → {show(a[f])}</li>
-                  ))}
-                </ul>
-              )}
-            </li>
-          );
-        })}
+        {entries.map((e) => (
+          <li key={e.id} className={`border-l-4 pl-3 text-sm ${milestone[e.action] ? "border-accent" : "border-ink/30"}`}>
+            <p>
+              <span className="num">{stamp(e.at)}</span> · <strong>{e.actor ?? "system"}</strong> · {milestone[e.action] ?? e.action}
+            </p>
+            {e.reason && <p className="italic">Reason: {e.reason}</p>}
+            <AuditChanges action={e.action} before={e.before} after={e.after} />
+          </li>
+        ))}
       </ol>
+      <p className="mt-2 text-sm">
+        <Link className="underline" href={`/sites/${siteId}/audit?recordType=${recordType}&recordId=${recordId}`}>Open in the site&apos;s record trail</Link>
+      </p>
     </section>
   );
 }

@@ -1,0 +1,84 @@
+import Link from "next/link";
+import type { Metadata } from "next";
+import { AuditChanges, recordLabel } from "@/components/audit/audit-changes";
+import { SiteNav } from "@/components/site-nav";
+import { listAudit } from "@/lib/server/audit-read";
+import { auditQuerySchema } from "@/lib/server/catalog/sign-off";
+import { pageSiteActor } from "@/lib/server/page-access";
+import { listMembers } from "@/lib/server/sites";
+
+export const metadata: Metadata = { title: "Record trail" };
+
+const recordTypes = ["context", "find", "relation", "trench", "member", "class", "photo", "run", "import", "site"] as const;
+
+/** Where each kind of record is read; others have no page of their own. */
+function recordHref(siteId: string, type: string, id: string): string | null {
+  if (type === "context") return `/sites/${siteId}/contexts/${id}`;
+  if (type === "find") return `/sites/${siteId}/finds/${id}`;
+  if (type === "trench") return `/sites/${siteId}/trenches/${id}`;
+  return null;
+}
+
+export default async function AuditPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const { siteId } = await params;
+  const { db, actor } = await pageSiteActor(siteId);
+  const raw = await searchParams;
+  const parsed = auditQuerySchema.safeParse(Object.fromEntries(Object.entries(raw).filter(([, v]) => v)));
+  const filter = parsed.success ? parsed.data : { limit: 200 };
+  const [entries, members] = await Promise.all([listAudit(db, siteId, filter), listMembers(db, siteId)]);
+  return (
+    <>
+      <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/audit`} />
+      <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
+        <h1 className="text-3xl font-bold">Record trail</h1>
+        <p className="max-w-3xl text-ink-soft">Every change to the site&apos;s records, newest first, with the values before and after. Entries are never changed or removed.</p>
+        <form className="sheet flex flex-wrap items-end gap-3" method="get">
+          <div>
+            <label className="label" htmlFor="recordType">Kind of record</label>
+            <select id="recordType" name="recordType" className="field" defaultValue={filter.recordType ?? ""}>
+              <option value="">Any</option>
+              {recordTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+            </select>
+          </div>
+          <div>
+            <label className="label" htmlFor="recordId">Record id</label>
+            <input id="recordId" name="recordId" className="field font-mono" defaultValue={filter.recordId ?? ""} />
+          </div>
+          <div>
+            <label className="label" htmlFor="actorId">Person</label>
+            <select id="actorId" name="actorId" className="field" defaultValue={filter.actorId ?? ""}>
+              <option value="">Anyone</option>
+              {members.map((m) => <option key={m.userId} value={m.userId}>{m.name}</option>)}
+            </select>
+          </div>
+          <button className="btn-primary" type="submit">Show</button>
+          <Link className="btn" href={`/sites/${siteId}/audit`}>Clear</Link>
+        </form>
+        {!parsed.success && <p className="field-error" role="alert">Those filters are not valid; showing everything.</p>}
+        <table className="ledger">
+          <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>Record</th><th>Change</th></tr></thead>
+          <tbody>
+            {entries.map((e) => {
+              const href = recordHref(siteId, e.recordType, e.recordId);
+              const label = recordLabel(e.recordType, e.before, e.after);
+              return (
+                <tr key={e.id}>
+                  <td className="num whitespace-nowrap">{e.at.toISOString().slice(0, 16).replace("T", " ")}</td>
+                  <td>{e.actor ?? "system"}</td>
+                  <td>{e.action}{e.reason && <p className="italic">Reason: {e.reason}</p>}</td>
+                  <td>
+                    {href ? <Link className="underline" href={href}>{label}</Link> : label}{" "}
+                    <Link className="text-xs text-ink-faint underline" href={`/sites/${siteId}/audit?recordType=${e.recordType}&recordId=${e.recordId}`} title="Only this record">only this</Link>
+                  </td>
+                  <td><AuditChanges action={e.action} before={e.before} after={e.after} /></td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {entries.length === 0 && <p className="text-ink-soft">No entries match.</p>}
+        {entries.length === filter.limit && <p className="text-sm text-ink-soft">Showing the newest {filter.limit}; narrow the filters to see older ones.</p>}
+      </main>
+    </>
+  );
+}

@@ -1,0 +1,70 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useId, useState } from "react";
+import type { Context, Role } from "@/db/schema";
+import { fetchJson } from "@/components/ui/fetch-json";
+
+type Props = { siteId: string; contextId: string; number: number; state: Context["state"]; role: Role; ready: boolean };
+type Outcome = { mail?: { sent: number; failed: number } };
+
+/** The buttons of one context in the sign-off flow, as the caller's role allows; the server checks again. */
+export function SignOffActions({ siteId, contextId, number, state, role, ready }: Props) {
+  const router = useRouter();
+  const reasonId = useId();
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const [note, setNote] = useState<string | null>(null);
+  const [asking, setAsking] = useState(false);
+  const [reason, setReason] = useState("");
+  const base = `/api/sites/${siteId}/sign-off/${contextId}`;
+
+  async function run(step: "submit" | "lock" | "reopen", body?: unknown) {
+    setBusy(true);
+    setError(null);
+    try {
+      const out = await fetchJson<Outcome>(`${base}/${step}`, { method: "POST", body: body ?? {} });
+      const m = out.mail;
+      setNote(m ? (m.failed ? `Done; ${m.failed} e-mail(s) could not be sent.` : `Done; ${m.sent} e-mail(s) sent.`) : "Done.");
+      setAsking(false);
+      setReason("");
+      router.refresh();
+    } catch (err) {
+      setError((err as Error).message);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const director = role === "director";
+  const reopenWord = state === "signed_off" ? "Reopen" : "Return";
+  return (
+    <div className="space-y-2">
+      <div className="flex flex-wrap gap-2">
+        {state === "open" && role !== "specialist" && (
+          <button className="btn-primary" disabled={busy || !ready} onClick={() => run("submit")} title={ready ? undefined : "Complete the sheet first"}>
+            Submit {number} for sign-off
+          </button>
+        )}
+        {state === "awaiting" && director && (
+          <button className="btn-primary" disabled={busy || !ready} onClick={() => run("lock")}>Sign off {number}</button>
+        )}
+        {state !== "open" && director && !asking && (
+          <button className="btn" disabled={busy} onClick={() => setAsking(true)}>{reopenWord} {number}…</button>
+        )}
+      </div>
+      {asking && (
+        <form className="space-y-2" onSubmit={(e) => { e.preventDefault(); run("reopen", { reason }); }}>
+          <label className="label" htmlFor={reasonId}>Why {reopenWord.toLowerCase()} context {number}? Every member is told, and the reason stays in the record trail.</label>
+          <textarea id={reasonId} className="field min-h-24" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={10} />
+          <div className="flex gap-2">
+            <button className="btn-danger" type="submit" disabled={busy || reason.trim().length < 10}>{reopenWord} with this reason</button>
+            <button className="btn" type="button" onClick={() => setAsking(false)}>Cancel</button>
+          </div>
+        </form>
+      )}
+      <p className="field-error" role="alert" aria-live="polite">{error}</p>
+      {note && !error && <p className="text-sm text-ok" aria-live="polite">{note}</p>}
+    </div>
+  );
+}
