@@ -59,7 +59,7 @@ async function clarkEvansTest(ctx: RunContext, t: Extract<Classic, { type: "clar
     test = "Clark–Evans R, Monte Carlo test in the window (Besag & Diggle 1977)";
     details.meanNNDistanceUnderCsr = meanSim;
   }
-  const v = verdictOf(t, pValue, ctx.spec.level, direction);
+  const v = verdictOf(t, pValue, ctx.spec.level, direction, test);
   return { type: t.type, test, null: t.correction === "monte-carlo" ? "CSR, n fixed" : "CSR", verdict: v.verdict, summary: v.summary, pValue, nsim, n, details };
 }
 
@@ -90,10 +90,11 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
   const pMonteCarlo = monteCarloRankPValue(q.X2, sims, t.alternative, false);
   const small = Math.min(...q.expected) < 5;
   const pValue = small ? pMonteCarlo : q.p;
-  const v = verdictOf(t, pValue, ctx.spec.level, q.pClustered < q.pRegular ? 1 : -1);
+  const test = small ? "quadrat counts, Monte Carlo X² test (some expected counts < 5)" : "quadrat counts, Pearson X² test (Greig-Smith 1952)";
+  const v = verdictOf(t, pValue, ctx.spec.level, q.pClustered < q.pRegular ? 1 : -1, test);
   return {
     type: t.type,
-    test: small ? "quadrat counts, Monte Carlo X² test (some expected counts < 5)" : "quadrat counts, Pearson X² test (Greig-Smith 1952)",
+    test,
     null: "CSR, n fixed",
     verdict: v.verdict,
     summary: v.summary,

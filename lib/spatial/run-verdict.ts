@@ -13,7 +13,7 @@ export interface VerdictText {
 const pct = (level: number) => `${Math.round(level * 1000) / 10} %`;
 
 /** `direction` +1 when the observed statistic lies above the null (more pairs near: clustering). */
-export function verdictOf(t: TestSpec, p: number, level: number, direction: number): VerdictText {
+export function verdictOf(t: TestSpec, p: number, level: number, direction: number, testName?: string): VerdictText {
   const reject = p <= level;
   const statName = "statistic" in t ? ({ mad: "MAD", dclf: "DCLF", rank: "global rank envelope (ERL)" } as const)[t.statistic] : "";
   const at = `at the ${pct(level)} level (p = ${p.toPrecision(3)})`;
@@ -33,7 +33,7 @@ export function verdictOf(t: TestSpec, p: number, level: number, direction: numb
     t.type === "l-envelope" ? `Besag's L, ${statName} test` :
     t.type === "pcf-envelope" ? `pair correlation g, ${statName} test` :
     t.type === "inhomogeneous-l" ? `inhomogeneous L, ${statName} test` :
-    t.type === "clark-evans" ? `Clark–Evans R (${t.correction})` : "quadrat counts";
+    testName ?? (t.type === "clark-evans" ? `Clark–Evans R (${t.correction})` : "quadrat counts");
   if (!reject) return { verdict: "no evidence against the null", test, nullName, summary: `No evidence against ${nullName} ${at}.` };
   const verdict: Verdict = direction > 0 ? "clustered" : "evenly spread";
   return { verdict, test, nullName, summary: `The finds are ${verdict} ${at} (${test}).` };
