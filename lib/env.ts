@@ -14,6 +14,8 @@ const schema = z.object({
   SMTP_URL: z.string().default("smtp://127.0.0.1:2525"),
   MAIL_FROM: z.string().default("Loamwork <loamwork@localhost>"),
   MAIL_SINK_DIR: z.string().default(".data/mail"),
+  /** "1" shows the caught-mail page (/dev/mail) in a production build too (demo, browser tests). */
+  LOAMWORK_DEV_MAIL: z.enum(["0", "1"]).default("0"),
   APP_URL: z.string().url().default("http://localhost:3000"),
   /** Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database. */
   LOAMWORK_RUN_QUEUE: z.enum(["local", "pg-boss"]).optional(),
