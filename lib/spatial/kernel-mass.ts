@@ -5,7 +5,7 @@
  * u, the kernel mass of the triangle (u, a, b) is (1/2π)∫ (1 − exp(−ρ(t)²/(2σ²))) dt over the wedge, with
  * ρ(t) = h / cos t the distance to the edge's line. The one-dimensional integral is done by composite
  * 8-point Gauss–Legendre quadrature (nodes from Abramowitz & Stegun 1964, Table 25.4) on panels of width
- * σ, so e(u) is exact to about 1e-12, far below the kernel estimate's own error.
+ * 2σ, so e(u) is exact to about 1e-12, far below the kernel estimate's own error.
  */
 import type { Window } from "./types";
 
@@ -18,28 +18,30 @@ const REACH = 8;
  * ∫ (1 − exp(−ρ²/(2σ²))) dt over the wedge of edge positions s ∈ [s0, s1] along a line at distance h,
  * written in s (t = atan(s/h), dt = h ds / (h² + s²)) so that the integrand
  * h·(1 − e^{−q})/(h² + s²), q = (h² + s²)/(2σ²), is smooth on the scale of σ even when h ≪ σ.
- * Where |s| > 8σ the bracket is 1 and the integral is the angle atan(s/h) itself.
+ * Where the line is more than 8σ away the bracket is 1 and the integral is the angle atan(s/h) itself.
  */
 function wedgeMass(h: number, sigma: number, s0: number, s1: number): number {
-  const cut = REACH * sigma;
+  // beyond |s| = √((8σ)² − h²) the point on the line is more than 8σ away
+  const cut = Math.sqrt(Math.max(0, REACH * REACH * sigma * sigma - h * h));
   let total = 0;
   if (s0 < -cut) total += Math.atan(Math.min(s1, -cut) / h) - Math.atan(s0 / h);
   if (s1 > cut) total += Math.atan(s1 / h) - Math.atan(Math.max(s0, cut) / h);
   const a = Math.max(s0, -cut);
   const b = Math.min(s1, cut);
   if (b <= a) return total;
-  const panels = Math.max(1, Math.ceil((b - a) / sigma));
+  const panels = Math.max(1, Math.ceil((b - a) / (2 * sigma)));
   const width = (b - a) / panels;
   const twoVar = 2 * sigma * sigma;
   for (let p = 0; p < panels; p++) {
     const mid = a + (p + 0.5) * width;
     const half = width / 2;
     for (let k = 0; k < 4; k++) {
-      for (const sv of [mid - half * GL_X[k], mid + half * GL_X[k]]) {
-        const rho2 = h * h + sv * sv;
-        // (1 − e^{−q}) via expm1 keeps precision when q is tiny
-        total += (GL_W[k] * half * h * -Math.expm1(-rho2 / twoVar)) / rho2;
-      }
+      const lo = mid - half * GL_X[k];
+      const hi = mid + half * GL_X[k];
+      const r2lo = h * h + lo * lo;
+      const r2hi = h * h + hi * hi;
+      // (1 − e^{−q}) via expm1 keeps precision when q is tiny
+      total -= GL_W[k] * half * h * (Math.expm1(-r2lo / twoVar) / r2lo + Math.expm1(-r2hi / twoVar) / r2hi);
     }
   }
   return total;
