@@ -53,7 +53,7 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
       {canManage && (
         <form className="sheet flex flex-wrap items-end gap-3" onSubmit={(e) => { e.preventDefault(); add.mutate(); }}>
           <div className="grow">
-            <label className="label" htmlFor="new-email">Add a person by e-mail</label>
+            <label className="label" htmlFor="new-email">Add someone who already has a Loamwork account</label>
             <input id="new-email" className="field" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
           </div>
           <div>

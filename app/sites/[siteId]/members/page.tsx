@@ -1,5 +1,6 @@
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { InvitationsPanel } from "./invitations-panel";
 import { MembersPanel } from "./members-panel";
 
 export default async function MembersPage({ params }: { params: Promise<{ siteId: string }> }) {
@@ -14,6 +15,11 @@ export default async function MembersPage({ params }: { params: Promise<{ siteId
         <div className="mt-4">
           <MembersPanel siteId={siteId} canManage={actor.role === "director"} selfId={actor.userId} />
         </div>
+        {actor.role === "director" && (
+          <div className="mt-8">
+            <InvitationsPanel siteId={siteId} />
+          </div>
+        )}
       </main>
     </>
   );
