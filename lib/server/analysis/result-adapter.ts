@@ -28,13 +28,15 @@ function curveOf(t: EngineTest, subtractR: boolean): { curve: Curve; departures:
   const f = (a: number[]) => (subtractR ? minus(a, c.r) : a);
   return {
     curve: { r: c.r, obs: f(c.observed), lo: f(c.band.lo), hi: f(c.band.hi), theo: f(c.reference) },
-    departures: c.excursions.map((e) => ({ side: e.side, from: e.from, to: e.to })),
+    departures: c.excursions.map((e) => ({ side: e.side, from: e.from, to: e.to, rejoins: e.rejoins })),
   };
 }
 
 function sentenceOf(t: EngineTest): string {
   const sims = t.nsim ? `, ${t.nsim} simulations` : "";
-  return `${t.summary} Test: ${t.test}; null: ${t.null}${sims}; seed ${t.seed}.`;
+  // The engine's summary may end by naming the test in brackets; it is named once, below.
+  const summary = t.summary.replace(/\s\((?:[^()]|\([^()]*\))*\)\.$/, ".");
+  return `${summary} Test: ${t.test}; null: ${t.null}${sims}; seed ${t.seed}.`;
 }
 
 export type AdaptInput = {
@@ -74,14 +76,14 @@ export function adaptResult(input: AdaptInput): RunResult {
       case "clark-evans": {
         const h = nnHistogram(pts.get(classId)!);
         const meanNN = num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
-        return { ...base, kind: "clark-evans", classId, n, R: num(d.R) ?? NaN, z: num(d.z), meanNN, expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedNNDistance) ?? 0.5 / Math.sqrt(n / window.area), correction: entry.test.correction, alternative: entry.test.alternative, histogram: { edges: h.edges, counts: h.counts } };
+        return { ...base, kind: "clark-evans", classId, n, R: num(d.R) ?? NaN, z: num(d.z), meanNN, expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedUnderCsr) ?? 0.5 / Math.sqrt(n / window.area), correction: entry.test.correction, alternative: entry.test.alternative, histogram: { edges: h.edges, counts: h.counts } };
       }
       case "quadrat": {
         const { nx, ny } = quadratGrid(window, entry.test.cellSize);
         const cells = quadratCells(window, nx, ny, pts.get(classId)!);
         const mean = cells.reduce((s, c) => s + c.count, 0) / cells.length;
         const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
-        return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: d.monteCarlo === true, cells };
+        return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: t.test.includes("Monte Carlo"), cells };
       }
       case "l-csr": {
         const { curve, departures } = curveOf(t, true);

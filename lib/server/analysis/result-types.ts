@@ -9,7 +9,7 @@ import type { Correction } from "./run-schema";
 export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated" | "segregated";
 
 /** A stretch of distances where the observed curve lies outside the pointwise band. */
-export type Departure = { side: "above" | "below"; from: number; to: number };
+export type Departure = { side: "above" | "below"; from: number; to: number; rejoins: boolean };
 
 export type Curve = { r: number[]; obs: number[]; lo?: number[]; hi?: number[]; theo?: number[] };
 

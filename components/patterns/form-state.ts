@@ -1,0 +1,63 @@
+import type { RunCreateInput, RunTest } from "@/lib/server/analysis/run-schema";
+
+/** The workspace form: scope, tests with their options, shared parameters. Every default is changeable. */
+export type FormState = {
+  trenchId: string;
+  contextIds: string[];
+  classIds: string[];
+  clarkEvans: { on: boolean; correction: "none" | "donnelly" | "monte-carlo"; alternative: "two-sided" | "clustered" | "regular" };
+  quadrat: { on: boolean; cellSize: string };
+  lcsr: { on: boolean; statistic: "mad" | "dclf"; count: "fixed" | "poisson" };
+  pcf: { on: boolean };
+  cross: { on: boolean; a: string; b: string; null: "labelling" | "fixed-a" };
+  kdiff: { on: boolean; a: string; b: string };
+  inhom: { on: boolean; classId: string; reference: string };
+  correction: "isotropic" | "translation" | "border";
+  rmax: string;
+  nsim: string;
+  level: string;
+  seed: string;
+};
+
+export function initialForm(trenchId: string): FormState {
+  return {
+    trenchId,
+    contextIds: [],
+    classIds: [],
+    clarkEvans: { on: true, correction: "monte-carlo", alternative: "two-sided" },
+    quadrat: { on: false, cellSize: "1" },
+    lcsr: { on: true, statistic: "dclf", count: "fixed" },
+    pcf: { on: false },
+    cross: { on: false, a: "", b: "", null: "labelling" },
+    kdiff: { on: false, a: "", b: "" },
+    inhom: { on: false, classId: "", reference: "all" },
+    correction: "isotropic",
+    rmax: "",
+    nsim: "999",
+    level: "0.05",
+    seed: "",
+  };
+}
+
+/** The request body the run API takes (lib/server/analysis/run-schema.ts). */
+export function toRequest(f: FormState): RunCreateInput {
+  const tests: RunTest[] = [];
+  if (f.clarkEvans.on) tests.push({ kind: "clark-evans", correction: f.clarkEvans.correction, alternative: f.clarkEvans.alternative });
+  if (f.quadrat.on) tests.push({ kind: "quadrat", cellSize: Number(f.quadrat.cellSize) });
+  if (f.lcsr.on) tests.push({ kind: "l-csr", statistic: f.lcsr.statistic, count: f.lcsr.count });
+  if (f.pcf.on) tests.push({ kind: "pcf" });
+  if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null });
+  if (f.kdiff.on) tests.push({ kind: "k-diff", a: f.kdiff.a, b: f.kdiff.b });
+  if (f.inhom.on) tests.push({ kind: "inhom-l", classId: f.inhom.classId, reference: f.inhom.reference });
+  return {
+    scope: { trenchId: f.trenchId, contextIds: f.contextIds, classIds: f.classIds },
+    tests,
+    params: {
+      correction: f.correction,
+      nsim: Number(f.nsim),
+      level: Number(f.level),
+      ...(f.rmax.trim() && { rmax: Number(f.rmax) }),
+      ...(f.seed.trim() && { seed: Number(f.seed) }),
+    },
+  };
+}

@@ -1,0 +1,81 @@
+"use client";
+
+import { useState } from "react";
+import type { RunResult } from "@/lib/server/analysis/result-types";
+import { PlotFrame } from "./plot-frame";
+
+/** Cividis-like ramp (colour-blind safe: Nuñez, Anderton & Renslow 2018), sampled at 6 stops. */
+const RAMP = ["#00224e", "#35456c", "#666970", "#948e77", "#c8b866", "#fee838"];
+function ramp(t: number): string {
+  const x = Math.max(0, Math.min(1, t)) * (RAMP.length - 1);
+  const i = Math.min(RAMP.length - 2, Math.floor(x));
+  const f = x - i;
+  const hex = (s: string, k: number) => parseInt(s.slice(1 + 2 * k, 3 + 2 * k), 16);
+  const mix = (k: number) => Math.round(hex(RAMP[i], k) * (1 - f) + hex(RAMP[i + 1], k) * f).toString(16).padStart(2, "0");
+  return `#${mix(0)}${mix(1)}${mix(2)}`;
+}
+
+/**
+ * The trench outline with one class's kernel density as a heat layer, the quadrat grid with counts, and
+ * the finds. Drawn as plain SVG in site-grid metres, north up (y flipped for the screen).
+ */
+export function PlanOverlay({ result, runName }: { result: RunResult; runName: string }) {
+  const withDensity = result.classes.filter((c) => result.density.some((d) => d.classId === c.id));
+  const [classId, setClassId] = useState(withDensity[0]?.id ?? result.classes[0]?.id);
+  const [showHeat, setShowHeat] = useState(true);
+  const [showGrid, setShowGrid] = useState(true);
+  const all = result.outline.flat();
+  const xs = all.map((p) => p[0]), ys = all.map((p) => p[1]);
+  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const span = Math.max(maxX - minX, maxY - minY);
+  const pad = span * 0.04;
+  const sy = (y: number) => maxY - y;
+  const path = result.outline.map((ring) => "M" + ring.map(([x, y]) => `${x - minX},${sy(y)}`).join("L") + "Z").join(" ");
+  const density = result.density.find((d) => d.classId === classId);
+  const peak = density ? Math.max(...density.values) : 1;
+  const quadrat = result.tests.find((t) => t.kind === "quadrat" && t.classId === classId);
+  const cls = result.classes.find((c) => c.id === classId);
+  const pts = result.points.find((p) => p.classId === classId);
+  const csv = () => (density ? density.values.map((v, k) => ({ x: density.minX + ((k % density.nx) + 0.5) * density.dx, y: density.minY + (Math.floor(k / density.nx) + 0.5) * density.dy, intensity_per_m2: v })) : []);
+  return (
+    <PlotFrame title={`Plan: ${cls?.code ?? ""} density${quadrat ? " and quadrat counts" : ""}`} name={`plan-${runName}-${cls?.code ?? "class"}`} csv={csv} caption={density ? `Heat: finds per m², ${density.rule}, bandwidth ${density.bandwidth.toFixed(2)} m. Peak ${peak.toFixed(1)} per m².` : undefined}>
+      <div className="no-print mb-2 flex flex-wrap items-center gap-3 text-sm">
+        <label className="flex items-center gap-2">
+          <span className="label mb-0">Class</span>
+          <select className="field w-auto" value={classId} onChange={(e) => setClassId(e.target.value)}>
+            {result.classes.map((c) => <option key={c.id} value={c.id}>{c.code} — {c.label}</option>)}
+          </select>
+        </label>
+        <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showHeat} onChange={(e) => setShowHeat(e.target.checked)} /> Heat layer</label>
+        <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showGrid} onChange={(e) => setShowGrid(e.target.checked)} disabled={!quadrat} /> Quadrat grid</label>
+      </div>
+      <svg viewBox={`${-pad} ${-pad} ${maxX - minX + 2 * pad} ${maxY - minY + 2 * pad}`} className="h-auto max-h-[420px] w-full" role="img" aria-label="Trench plan with the density of finds">
+        <defs>
+          <clipPath id={`clip-${runName}`}><path d={path} clipRule="evenodd" /></clipPath>
+        </defs>
+        <path d={path} fill="#efe6d3" fillRule="evenodd" />
+        {showHeat && density && (
+          <g clipPath={`url(#clip-${runName})`}>
+            {density.values.map((v, k) =>
+              v > 0 ? (
+                <rect key={k} x={density.minX - minX + (k % density.nx) * density.dx} y={sy(density.minY + (Math.floor(k / density.nx) + 1) * density.dy)} width={density.dx * 1.02} height={density.dy * 1.02} fill={ramp(v / peak)} />
+              ) : null,
+            )}
+          </g>
+        )}
+        {showGrid && quadrat && quadrat.kind === "quadrat" && (
+          <g clipPath={`url(#clip-${runName})`}>
+            {quadrat.cells.map((c, k) => (
+              <g key={k}>
+                <rect x={c.x0 - minX} y={sy(c.y1)} width={c.x1 - c.x0} height={c.y1 - c.y0} fill="none" stroke="#ffffff" strokeWidth={span / 250} />
+                <text x={(c.x0 + c.x1) / 2 - minX} y={sy((c.y0 + c.y1) / 2)} fontSize={span / 32} textAnchor="middle" dominantBaseline="middle" fill="#ffffff" stroke="#2e2116" strokeWidth={span / 700} fontFamily="monospace">{c.count}</text>
+              </g>
+            ))}
+          </g>
+        )}
+        {pts && cls && pts.x.map((x, k) => <circle key={k} cx={x - minX} cy={sy(pts.y[k])} r={span / 220} fill={cls.colour} stroke="#2e2116" strokeWidth={span / 1200} />)}
+        <path d={path} fill="none" stroke="#2e2116" strokeWidth={span / 200} fillRule="evenodd" />
+      </svg>
+    </PlotFrame>
+  );
+}

@@ -1,0 +1,77 @@
+"use client";
+
+import { ClassSymbol } from "@/components/class-symbol";
+import type { RunView } from "@/lib/server/analysis/run-view";
+import { TestFigure } from "./class-plots";
+import { PlanOverlay } from "./plan-overlay";
+import { VerdictCard } from "./verdict-card";
+import { fmtM } from "./words";
+
+/** A finished run: header with everything needed to reproduce it, warnings, verdicts and figures, cautions. */
+export function RunResultView({ run, compact = false }: { run: RunView; compact?: boolean }) {
+  const result = run.result;
+  if (!result) return null;
+  const byId = new Map(result.classes.map((c) => [c.id, c]));
+  const name = (id: string) => byId.get(id)?.code ?? "?";
+  const perClass = result.classes.map((c) => ({ c, tests: result.tests.filter((t) => "classId" in t && t.classId === c.id) }));
+  const between = result.tests.filter((t) => t.kind === "cross-l" || t.kind === "k-diff");
+  const p = run.params;
+  return (
+    <div className="space-y-4" data-testid="run-result">
+      <section className="sheet text-sm" aria-label="How this run was made">
+        <p>
+          Trench <b>{p.names.trench}</b>, context{p.names.contexts.length > 1 ? "s" : ""} <b className="num">{p.names.contexts.join(", ")}</b>; level {result.level}, {result.nsim} simulations, seed <span className="num">{result.seed}</span>, {result.correction} edge correction, r up to {fmtM(result.rmax)}; engine {result.engineVersion}; records fingerprint <span className="num" title={run.fingerprint}>{run.fingerprint.slice(0, 12)}…</span>; computed in {(result.elapsedMs / 1000).toFixed(1)} s.
+        </p>
+        {run.outOfDate && (
+          <p role="status" className="mt-2 rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">
+            Out of date: finds, contexts or the outline this run read have changed since. Run it again with seed {result.seed} to compare.
+          </p>
+        )}
+      </section>
+      {p.warnings.length > 0 && (
+        <section role="alert" className="rounded border-2 border-warn bg-warn-light p-3 text-warn">
+          <p className="font-bold">Contexts mixed in this scope</p>
+          <ul className="list-disc pl-5 text-sm">{p.warnings.map((w, i) => <li key={i}>{w.message}</li>)}</ul>
+        </section>
+      )}
+      {perClass.map(({ c, tests }) =>
+        tests.length ? (
+          <section key={c.id} aria-labelledby={`cls-${run.id}-${c.id}`} className="space-y-3">
+            <h3 id={`cls-${run.id}-${c.id}`} className="text-lg font-bold">
+              <ClassSymbol symbol={c.symbol} colour={c.colour} /> {c.code} <span className="font-normal text-ink-soft">{c.label}, n = <span className="num">{c.n}</span></span>
+              {c.n < 20 && <span className="ml-2 text-sm font-semibold text-warn">few points: little power</span>}
+            </h3>
+            <div className={`grid gap-3 ${compact ? "" : "lg:grid-cols-2"}`}>
+              {tests.map((t, i) => (
+                <div key={i} className="space-y-3">
+                  <VerdictCard t={t} rmax={result.rmax} subject={c.code} />
+                  <TestFigure t={t} result={result} cls={c} name={name} />
+                </div>
+              ))}
+            </div>
+          </section>
+        ) : null,
+      )}
+      {between.length > 0 && (
+        <section aria-label="Between classes" className="space-y-3">
+          <h3 className="text-lg font-bold">Between classes</h3>
+          <div className={`grid gap-3 ${compact ? "" : "lg:grid-cols-2"}`}>
+            {between.map((t, i) =>
+              t.kind === "cross-l" || t.kind === "k-diff" ? (
+                <div key={i} className="space-y-3">
+                  <VerdictCard t={t} rmax={result.rmax} subject={`${name(t.a)} and ${name(t.b)}`} />
+                  <TestFigure t={t} result={result} cls={byId.get(t.b)} name={name} />
+                </div>
+              ) : null,
+            )}
+          </div>
+        </section>
+      )}
+      <PlanOverlay result={result} runName={run.id.slice(0, 8)} />
+      <section className="sheet" aria-labelledby={`cautions-${run.id}`}>
+        <h3 id={`cautions-${run.id}`} className="font-bold">Before you quote this</h3>
+        <ul className="mt-1 list-disc pl-5 text-sm">{result.cautions.map((c, i) => <li key={i}>{c}</li>)}</ul>
+      </section>
+    </div>
+  );
+}

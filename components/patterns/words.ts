@@ -1,0 +1,40 @@
+import type { VerdictWord } from "@/lib/server/analysis/result-types";
+
+/** Verdict words on screen (statistics.md: clustered / evenly spread / no evidence against the null). */
+export const VERDICT_LABEL: Record<VerdictWord, string> = {
+  clustered: "Clustered",
+  regular: "Evenly spread",
+  "no-evidence": "No evidence against the null",
+  associated: "Go together",
+  segregated: "Keep apart",
+};
+
+export const VERDICT_TONE: Record<VerdictWord, string> = {
+  clustered: "border-accent bg-accent-light text-accent-dark",
+  regular: "border-ok bg-ok-light text-ok",
+  "no-evidence": "border-ink/30 bg-paper-deep text-ink",
+  associated: "border-accent bg-accent-light text-accent-dark",
+  segregated: "border-warn bg-warn-light text-warn",
+};
+
+export const fmtP = (p: number | null) => (p === null ? "—" : p < 0.001 ? p.toExponential(1) : p.toFixed(3));
+export const fmtM = (v: number) => `${v.toFixed(2)} m`;
+
+/** "about 12 s" from milliseconds, for the time-remaining line. */
+export function fmtDuration(ms: number): string {
+  if (!Number.isFinite(ms) || ms < 0) return "estimating…";
+  const s = Math.round(ms / 1000);
+  if (s < 1) return "under a second";
+  if (s < 90) return `about ${s} s`;
+  return `about ${Math.round(s / 60)} min`;
+}
+
+export const TEST_LABEL: Record<string, string> = {
+  "clark-evans": "Clark–Evans",
+  quadrat: "Quadrat counts",
+  "l-csr": "Besag's L under CSR",
+  pcf: "Pair correlation",
+  "cross-l": "Cross-L",
+  "k-diff": "K difference",
+  "inhom-l": "Inhomogeneous L",
+};
