@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import { createWindow, rectangleWindow } from "./window";
 import { isotropicPairWeights, isotropicWeight } from "./edge-isotropic";
 import { pairsWithin } from "./neighbours";
@@ -44,6 +45,30 @@ describe("isotropic edge weight", () => {
   it("is clamped to 100 at a sharp corner and to at least 1", () => {
     const thin = createWindow({ outer: [[0, 0], [100, 0], [0, 0.01]] });
     expect(isotropicWeight(thin, 0.001, 0.001, 50)).toBe(100);
+  });
+
+  it("agrees with the closed-form rectangle weight for random centres and radii (property)", () => {
+    // Independent formula for rectangles: each edge cuts the half-angle acos(d/r), limited on either side by
+    // the direction to that edge's corners (Ripley 1977; the rectangle case as spatstat's Krect computes it).
+    const a = 6, b = 4;
+    const w = rectangleWindow(0, 0, a, b);
+    const hang = (d: number, r: number) => (d < r ? Math.acos(d / r) : 0);
+    const rect = (x: number, y: number, r: number) => {
+      const [dL, dR, dD, dU] = [x, a - x, y, b - y];
+      const cL = Math.min(hang(dL, r), Math.atan2(dU, dL)) + Math.min(hang(dL, r), Math.atan2(dD, dL));
+      const cR = Math.min(hang(dR, r), Math.atan2(dU, dR)) + Math.min(hang(dR, r), Math.atan2(dD, dR));
+      const cU = Math.min(hang(dU, r), Math.atan2(dL, dU)) + Math.min(hang(dU, r), Math.atan2(dR, dU));
+      const cD = Math.min(hang(dD, r), Math.atan2(dL, dD)) + Math.min(hang(dD, r), Math.atan2(dR, dD));
+      const inside = 1 - (cL + cR + cU + cD) / (2 * Math.PI);
+      return inside <= 0.01 ? 100 : Math.max(1, 1 / inside); // clamped to [1, 100] as spatstat's edge.Ripley
+    };
+    const unit = fc.double({ min: 0.01, max: 0.99, noNaN: true });
+    fc.assert(
+      fc.property(unit, unit, fc.double({ min: 0.01, max: 7, noNaN: true }), (u, v, r) => {
+        expect(isotropicWeight(w, u * a, v * b, r)).toBeCloseTo(rect(u * a, v * b, r), 9);
+      }),
+      { numRuns: 500 },
+    );
   });
 
   it("gives per-pair weights in both directions", () => {
