@@ -48,13 +48,18 @@ beforeAll(async () => {
 });
 
 describe("verdicts on the demo site, trench A context 1005", () => {
-  it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, DCLF test under CSR)", async () => {
+  it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, DCLF test under CSR; Clark–Evans in the window)", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD, demo.cls.FCR] },
-      tests: [{ kind: "l-csr" }],
+      tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }],
       params: { nsim: 199, seed: 7 },
     });
-    const verdict = (code: string) => run.result!.tests.find((t) => t.kind === "l-csr" && "classId" in t && t.classId === demo.cls[code])!;
+    const verdict = (code: string, kind = "l-csr") => run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
+    expect(verdict("FLK", "clark-evans").verdict).toBe("clustered");
+    expect(verdict("SHD", "clark-evans").verdict).toBe("no-evidence");
+    expect(verdict("FCR", "clark-evans").verdict).toBe("regular");
+    // n per class as the seed lays them out in 1005 (db/seed-demo.ts)
+    expect(run.result!.classes.map((c) => [c.code, c.n]).sort()).toEqual([["FCR", 60], ["FLK", 150], ["SHD", 90]]);
     expect(verdict("FLK").verdict).toBe("clustered");
     expect(verdict("FLK").p).toBeLessThanOrEqual(0.05);
     expect(verdict("SHD").verdict).toBe("no-evidence");
@@ -63,5 +68,41 @@ describe("verdicts on the demo site, trench A context 1005", () => {
     if (flk.kind !== "l-csr") throw new Error("wrong kind");
     expect(flk.clusterScale).not.toBeNull();
     expect(run.progress).toBe(1);
+  });
+});
+
+/**
+ * statistics.md: random labelling cannot see two classes that share the same clusters (the labels stay
+ * exchangeable); "one class fixed" asks whether B lies nearer A than chance positions would. The demo
+ * bears this out, and the pool of locations matters: with other classes in scope, labelling detects it.
+ */
+describe("FLK and CHP: which null detects that they go together", () => {
+  const cross = async (codes: string[], nul: "labelling" | "fixed-a") => {
+    const run = await runToEnd({
+      scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: codes.map((c) => demo.cls[c]) },
+      tests: [{ kind: "cross-l", a: demo.cls.FLK, b: demo.cls.CHP, null: nul }],
+      params: { nsim: 199, seed: 11 },
+    });
+    return run.result!.tests[0];
+  };
+
+  it("one class fixed (FLK stays, CHP at random): associated", async () => {
+    const t = await cross(["FLK", "CHP"], "fixed-a");
+    expect(t.verdict).toBe("associated");
+    expect(t.p).toBeLessThanOrEqual(0.05);
+    expect(t.question).toContain("own clustering inflates");
+  });
+
+  it("random labelling among FLK and CHP alone: no evidence, as the null predicts for shared clusters", async () => {
+    const t = await cross(["FLK", "CHP"], "labelling");
+    expect(t.verdict).toBe("no-evidence");
+    expect(t.p).toBeGreaterThan(0.05);
+    expect(t.question).toContain("rightly finds nothing");
+  });
+
+  it("random labelling over all four classes of 1005: associated (the pool includes FCR and SHD locations)", async () => {
+    const t = await cross(["FLK", "CHP", "FCR", "SHD"], "labelling");
+    expect(t.verdict).toBe("associated");
+    expect(t.question).toContain("CHP + FCR + FLK + SHD finds");
   });
 });

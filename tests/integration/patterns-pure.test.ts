@@ -1,0 +1,54 @@
+/** The pure parts of Patterns: canonical JSON for fingerprints, stratigraphic equivalence, departures. */
+import { describe, expect, it } from "vitest";
+import { canonicalJson } from "@/lib/server/analysis/canonical-json";
+import { stratigraphicWarnings, type RelationRow } from "@/lib/server/analysis/stratigraphy";
+import { departureSentences, mainDepartures } from "@/components/patterns/departures";
+
+describe("canonical JSON", () => {
+  it("does not depend on key order and writes dates as ISO strings", () => {
+    const t = new Date("2026-05-04T10:00:00.000Z");
+    expect(canonicalJson({ b: 1, a: [{ y: 2, x: t }] })).toBe(canonicalJson({ a: [{ x: t, y: 2 }], b: 1 }));
+    expect(canonicalJson({ b: 1, a: { d: t } })).toBe('{"a":{"d":"2026-05-04T10:00:00.000Z"},"b":1}');
+  });
+  it("refuses numbers without a JSON form", () => {
+    expect(() => canonicalJson({ x: NaN })).toThrow(/no JSON form/);
+  });
+});
+
+describe("stratigraphic equivalence of the chosen contexts", () => {
+  const ids = ["a", "b", "c", "d", "e"];
+  const ctx = (id: string, number: number) => ({ id, number });
+  const rel = (fromId: string, kind: RelationRow["kind"], toId: string): RelationRow => ({ fromId, kind, toId });
+
+  it("treats contexts joined by same_as (even through a third) as one surface", () => {
+    const rels = [rel("a", "same_as", "b"), rel("b", "same_as", "c")];
+    expect(stratigraphicWarnings([ctx("a", 1), ctx("c", 3)], ids, rels)).toEqual([]);
+  });
+  it("warns when one chosen context is later than another, directly or through the matrix", () => {
+    const rels = [rel("a", "above", "d"), rel("d", "cuts", "b")];
+    const w = stratigraphicWarnings([ctx("a", 1), ctx("b", 2)], ids, rels);
+    expect(w).toHaveLength(1);
+    expect(w[0]).toMatchObject({ kind: "ordered", a: 1, b: 2 });
+  });
+  it("orders a context equivalent to a later one as later too", () => {
+    const rels = [rel("e", "same_as", "a"), rel("a", "fills", "b")];
+    expect(stratigraphicWarnings([ctx("e", 5), ctx("b", 2)], ids, rels)[0]).toMatchObject({ kind: "ordered", a: 5, b: 2 });
+  });
+  it("says so when nothing in the record joins two contexts", () => {
+    expect(stratigraphicWarnings([ctx("a", 1), ctx("b", 2)], ids, [])[0].kind).toBe("unrelated");
+  });
+});
+
+describe("where the curve leaves the band", () => {
+  it("names the wide departures with a cluster-size reading and counts brief crossings", () => {
+    const deps = [
+      { side: "above" as const, from: 0.1, to: 1.2, rejoins: true },
+      { side: "below" as const, from: 1.5, to: 1.52, rejoins: true },
+    ];
+    expect(mainDepartures(deps, 2).shown).toHaveLength(1);
+    const lines = departureSentences(deps, 2, "l");
+    expect(lines[0]).toContain("rejoins it at 1.20 m");
+    expect(lines[0]).toContain("tends to overstate");
+    expect(lines[1]).toContain("1 brief crossing");
+  });
+});
