@@ -12,7 +12,7 @@
  */
 import { execFileSync, spawnSync } from "node:child_process";
 import { mkdirSync, writeFileSync } from "node:fs";
-import { availableParallelism, cpus, tmpdir } from "node:os";
+import { availableParallelism, cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { DEMO_TRENCH } from "../lib/spatial/demo-window";
 import { kFunction } from "../lib/spatial/k-function";
@@ -64,14 +64,19 @@ async function measure(n: number): Promise<void> {
   await runDistributionTest(spec, { pool }); // warm: threads started, worker code compiled
   const startupMs = performance.now() - t0;
   const nsim = quick && n >= 5000 ? 99 : NSIM;
+  const load = loadavg()[0];
+  const c1 = process.cpuUsage();
   const t1 = performance.now();
   const res = await runDistributionTest({ ...spec, nsim }, { pool });
   const testMs = performance.now() - t1;
+  // user + system time of every thread of this process (main and workers)
+  const cpu = process.cpuUsage(c1);
+  const testCpuMs = (cpu.user + cpu.system) / 1000;
   await pool.destroy();
   const csv = join(tmpdir(), `loamwork-bench-${n}.csv`);
   writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
-  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, pairMs, startupMs, nsim, testMs, p: res.results[0].pValue, maxRssMb, csv })}\n`);
+  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, pairMs, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`);
 }
 
 function spatstat(csv: string, nsim: number): { k: number; test: number; nsim: number; spatstat: string; p: number } | null {
@@ -103,7 +108,7 @@ async function main(): Promise<void> {
       rCols = `${R.k.toFixed(3)} s | ${(rPerSim * NSIM).toFixed(1)} s (${R.nsim} sims × ${NSIM / R.nsim} scaled) | ${((rPerSim * NSIM) / (perSim * NSIM / 1000)).toFixed(0)}×`;
     }
     rows.push(
-      `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
+      `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${(m.testCpuMs / 1000).toFixed(2)} s | ${m.load.toFixed(1)} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
     );
     process.stderr.write(`n = ${n} done\n`);
   }
@@ -112,6 +117,7 @@ async function main(): Promise<void> {
     "Points: uniform in the demo trench (about 12 m × 8 m, L-shaped, with a 2 m × 0.8 m baulk), seed 2024; r grid: spatstat's default (513 values, r max = min(short side/4, √(1000/(πλ)))).",
     "K: one isotropic K̂ by k-function.ts (kdbush pairs, exact Math.acos weights); kernel: the fused simulation-loop estimator (grid pairs + weights, l-isotropic.ts), median of repeated runs.",
     `Test: runDistributionTest, L under CSR (Poisson n), isotropic, MAD, ${NSIM} simulations on a warm 2-thread pool; pool start-up (threads + loading the TypeScript worker) is timed separately and not included.`,
+    "Load avg: the 1-minute load average when the test started (other work on the machine); with load well above the 2 cores, wall times stretch and the CPU column (main thread + both workers) is the steadier figure.",
     "Pairs share: the kernel's pair enumeration alone over the whole kernel — the floor if edge weights cost nothing.",
     "Peak memory: maxRSS of the process (main thread + workers) over the whole measurement of that n.",
     spatstatVersion
@@ -119,8 +125,8 @@ async function main(): Promise<void> {
       : "spatstat: Rscript with spatstat was not found, so no ratio was measured.",
   );
   const table = [
-    "| n | pairs ≤ r max | one K (isotropic) | kernel K | 999-sim L test (wall) | per sim | pair enumeration share | peak RSS | pool start-up | spatstat K | spatstat 999-sim test | ratio (test) |",
-    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+    "| n | pairs ≤ r max | one K (isotropic) | kernel K | 999-sim L test (wall) | test CPU (all threads) | load avg | per sim (wall) | pair enumeration share | peak RSS | pool start-up | spatstat K | spatstat 999-sim test | ratio (test) |",
+    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
     ...rows,
   ].join("\n");
   const md = `# Spatial engine benchmark\n\n${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;

@@ -57,12 +57,11 @@ export interface RunOptions {
 async function runOne(ctx: RunContext, t: TestSpec): Promise<Omit<TestResult, "options" | "level" | "seed" | "cautions">> {
   if (t.type === "clark-evans" || t.type === "quadrat") return classicTest(ctx, t);
   let curves: EnvelopeOutcome;
-  let n: number;
   if (t.type === "l-envelope") curves = await lEnvelopeTest(ctx, t);
   else if (t.type === "cross-l") curves = await crossLTest(ctx, t);
   else if (t.type === "k-difference") curves = await kDifferenceTest(ctx, t);
   else curves = await extraCurveTest(ctx, t);
-  n = t.type === "l-envelope" || t.type === "pcf-envelope" || t.type === "inhomogeneous-l"
+  const n = t.type === "l-envelope" || t.type === "pcf-envelope" || t.type === "inhomogeneous-l"
     ? ctx.spec.points.filter((p) => t.class === undefined || p.cls === t.class).length
     : ctx.spec.points.filter((p) => p.cls === t.a || p.cls === t.b).length;
   const v = verdictOf(t, curves.pValue, ctx.spec.level, curves.direction);
