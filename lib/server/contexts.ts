@@ -1,7 +1,7 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { contexts, finds, type Context } from "@/db/schema";
+import { contexts, finds, trenches, type Context } from "@/db/schema";
 import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
@@ -65,4 +65,24 @@ export async function deleteContext(db: Db, actor: SiteActor, contextId: string)
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "context", recordId: contextId, before });
     return { deleted: contextId };
   });
+}
+
+/** The context list: every sheet with its trench code and how many finds it holds. */
+export async function contextSummaries(db: Db, siteId: string, trenchId?: string) {
+  const where = trenchId ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)) : eq(contexts.siteId, siteId);
+  return db
+    .select({
+      id: contexts.id,
+      number: contexts.number,
+      type: contexts.type,
+      state: contexts.state,
+      description: contexts.description,
+      trenchId: contexts.trenchId,
+      trenchCode: trenches.code,
+      finds: sql<number>`(select count(*) from ${finds} where ${finds.contextId} = ${contexts.id})`.mapWith(Number),
+    })
+    .from(contexts)
+    .innerJoin(trenches, eq(trenches.id, contexts.trenchId))
+    .where(where)
+    .orderBy(asc(contexts.number));
 }

@@ -1,11 +1,12 @@
 import "server-only";
 import { eq } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial/types";
 
-export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null };
+export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null; submittedBy: string | null; submittedAt: Date | null };
 export type TrenchWindow = { code: string; window: Window | null; problem?: string };
 
 /** Everything a row is checked against, read once per file so 50,000 rows cost one pass in memory. */
@@ -17,14 +18,17 @@ export type ImportLookups = {
   nextNumber: number;
 };
 
+const submitter = alias(users, "submitter");
+
 export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<ImportLookups> {
   const [site] = await db.select({ next: sites.nextFindNumber }).from(sites).where(eq(sites.id, siteId));
   const [cls, ctx, tr, nums] = await Promise.all([
     db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId)),
     db
-      .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt })
+      .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt, submittedBy: submitter.name, submittedAt: contexts.submittedAt })
       .from(contexts)
       .leftJoin(users, eq(users.id, contexts.signedOffBy))
+      .leftJoin(submitter, eq(submitter.id, contexts.submittedBy))
       .where(eq(contexts.siteId, siteId)),
     db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline }).from(trenches).where(eq(trenches.siteId, siteId)),
     db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId)),

@@ -74,6 +74,7 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     if (!ctxRaw) reasons.push("context is empty");
     else if (!ctx) reasons.push(`context "${ctxRaw}" does not exist on this site`);
     else if (ctx.state === "signed_off") reasons.push(`context ${ctx.number} was signed off by ${ctx.signedOffBy ?? "a director"} on ${when(ctx.signedOffAt)}; a director must reopen it first`);
+    else if (ctx.state === "awaiting") reasons.push(`context ${ctx.number} awaits sign-off (submitted by ${ctx.submittedBy ?? "a recorder"} on ${when(ctx.submittedAt)}); a director must return it to open first`);
     if (ctx && x !== null && y !== null) {
       const t = lk.trenches.get(ctx.trenchId);
       if (!t?.window) reasons.push(`trench ${t?.code ?? "?"} of context ${ctx.number} has no valid outline${t?.problem ? ` (${t.problem})` : ""}`);

@@ -1,0 +1,72 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { inArray } from "drizzle-orm";
+import { AuditTrail } from "@/components/audit/audit-trail";
+import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
+import { LockNotice } from "@/components/contexts/lock-notice";
+import { RelationsPanel } from "@/components/contexts/relations-panel";
+import { StateBadge } from "@/components/contexts/state-badge";
+import { SiteNav } from "@/components/site-nav";
+import { users } from "@/db/schema";
+import { contextSummaries, getContext } from "@/lib/server/contexts";
+import { isPublicError } from "@/lib/server/errors";
+import { formatStamp, isContextWritable } from "@/lib/server/locks";
+import { pageSiteActor } from "@/lib/server/page-access";
+import { listTrenches } from "@/lib/server/trenches";
+
+const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation"] as const;
+
+export default async function ContextSheetPage({ params }: { params: Promise<{ siteId: string; contextId: string }> }) {
+  const { siteId, contextId } = await params;
+  const { db, actor } = await pageSiteActor(siteId);
+  const c = await getContext(db, siteId, contextId).catch((err) => {
+    if (isPublicError(err) && err.status === 404) notFound();
+    throw err;
+  });
+  const [trenches, all] = await Promise.all([listTrenches(db, siteId), contextSummaries(db, siteId)]);
+  const ids = [c.recordedBy, c.signedOffBy, c.submittedBy].filter((x): x is string => !!x);
+  const names = new Map((ids.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : []).map((u) => [u.id, u.name]));
+  const trench = trenches.find((t) => t.id === c.trenchId);
+  const mine = all.find((x) => x.id === c.id);
+  const writable = isContextWritable(c) && actor.role !== "specialist";
+  const signed = c.state === "signed_off";
+  const base = `/sites/${siteId}/contexts`;
+  return (
+    <>
+      <SiteNav siteId={siteId} role={actor.role} current={base} />
+      <main className="mx-auto max-w-5xl space-y-4 px-4 py-6">
+        <p><Link className="underline" href={base}>← Context sheets</Link> · <Link className="underline" href={`${base}/matrix?trench=${c.trenchId}`}>Matrix of trench {trench?.code}</Link></p>
+        <div className="flex flex-wrap items-baseline gap-3">
+          <h1 className="text-3xl font-bold">Context <span className="num">{c.number}</span></h1>
+          <span className="text-xl text-ink-soft">{c.type} · trench {trench?.code}</span>
+          <StateBadge state={c.state} />
+        </div>
+        <p className="text-sm text-ink-soft">
+          Recorded by {c.recordedBy ? names.get(c.recordedBy) ?? "—" : "—"} on <span className="num">{formatStamp(c.createdAt)}</span> ·{" "}
+          <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}><span className="num">{mine?.finds ?? 0}</span> finds</Link> ·{" "}
+          <Link className="underline" href={`/sites/${siteId}/trenches/${c.trenchId}`}>plan of trench {trench?.code}</Link>
+        </p>
+        <LockNotice state={c.state} number={c.number} who={names.get((signed ? c.signedOffBy : c.submittedBy) ?? "") ?? null} at={formatStamp(signed ? c.signedOffAt : c.submittedAt)} />
+        {writable ? (
+          <ContextSheetForm
+            siteId={siteId}
+            contextId={c.id}
+            trenches={trenches.map((t) => ({ id: t.id, code: t.code }))}
+            initial={{ trenchId: c.trenchId, number: c.number, type: c.type, colour: c.colour, compaction: c.compaction, composition: c.composition, inclusions: c.inclusions, description: c.description, interpretation: c.interpretation }}
+          />
+        ) : (
+          <dl className="sheet grid gap-x-6 gap-y-2 sm:grid-cols-[10rem_1fr]">
+            {sheetFields.map((f) => (
+              <div key={f} className="contents">
+                <dt className="font-semibold capitalize text-ink-soft">{f}</dt>
+                <dd className="whitespace-pre-wrap">{c[f] || "—"}</dd>
+              </div>
+            ))}
+          </dl>
+        )}
+        <RelationsPanel siteId={siteId} contextId={c.id} number={c.number} canEdit={writable} others={all.filter((o) => o.id !== c.id).map((o) => ({ id: o.id, number: o.number }))} />
+        <AuditTrail db={db} siteId={siteId} recordType="context" recordId={c.id} />
+      </main>
+    </>
+  );
+}

@@ -1,0 +1,62 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { AuditTrail } from "@/components/audit/audit-trail";
+import { HumanRemainsBanner } from "@/components/cautions";
+import { LockNotice } from "@/components/contexts/lock-notice";
+import { FindEditForm } from "@/components/register/find-edit-form";
+import { SiteNav } from "@/components/site-nav";
+import { users } from "@/db/schema";
+import { eq } from "drizzle-orm";
+import { listClasses } from "@/lib/server/artefact-classes";
+import { getContext, listContexts } from "@/lib/server/contexts";
+import { isPublicError } from "@/lib/server/errors";
+import { getFind } from "@/lib/server/finds";
+import { formatStamp, isContextWritable } from "@/lib/server/locks";
+import { pageSiteActor } from "@/lib/server/page-access";
+
+export default async function FindPage({ params }: { params: Promise<{ siteId: string; findId: string }> }) {
+  const { siteId, findId } = await params;
+  const { db, actor } = await pageSiteActor(siteId);
+  const f = await getFind(db, siteId, findId).catch((err) => {
+    if (isPublicError(err) && err.status === 404) notFound();
+    throw err;
+  });
+  const [ctx, contexts, classes] = await Promise.all([getContext(db, siteId, f.contextId), listContexts(db, siteId), listClasses(db, siteId)]);
+  const cls = classes.find((c) => c.id === f.classId);
+  const signed = ctx.state === "signed_off";
+  const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
+  const [locker] = lockerId ? await db.select({ name: users.name }).from(users).where(eq(users.id, lockerId)) : [];
+  const writable = isContextWritable(ctx);
+  return (
+    <>
+      <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/finds`} />
+      <main className="mx-auto max-w-4xl space-y-4 px-4 py-6">
+        <p><Link className="underline" href={`/sites/${siteId}/finds`}>← Finds register</Link></p>
+        <div className="flex flex-wrap items-baseline gap-3">
+          <h1 className="text-3xl font-bold">Find <span className="num">{f.number}</span></h1>
+          <span className="text-xl text-ink-soft">{cls?.code} · {cls?.label}</span>
+          <Link className="btn ml-auto" href={`/sites/${siteId}/trenches/${f.trenchId}?find=${f.id}`}>See it on the plan</Link>
+          <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>Context {ctx.number}</Link>
+        </div>
+        {cls?.humanRemains && <HumanRemainsBanner count={1} />}
+        <LockNotice state={ctx.state} number={ctx.number} who={locker?.name ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt)} />
+        {writable ? (
+          <FindEditForm
+            siteId={siteId}
+            findId={f.id}
+            initial={{ contextId: f.contextId, classId: f.classId, x: f.x, y: f.y, z: f.z, count: f.count, weightG: f.weightG, description: f.description }}
+            contexts={contexts.filter((c) => isContextWritable(c) || c.id === f.contextId).map((c) => ({ id: c.id, number: c.number }))}
+            classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label }))}
+          />
+        ) : (
+          <dl className="sheet grid grid-cols-[10rem_1fr] gap-y-1">
+            <dt className="text-ink-soft">Position (m)</dt><dd className="num">{f.x.toFixed(3)}, {f.y.toFixed(3)}{f.z !== null ? `, ${f.z.toFixed(3)}` : ""}</dd>
+            <dt className="text-ink-soft">Count · weight</dt><dd className="num">{f.count ?? "—"} · {f.weightG ?? "—"} g</dd>
+            <dt className="text-ink-soft">Description</dt><dd>{f.description || "—"}</dd>
+          </dl>
+        )}
+        <AuditTrail db={db} siteId={siteId} recordType="find" recordId={f.id} />
+      </main>
+    </>
+  );
+}

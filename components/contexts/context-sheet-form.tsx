@@ -1,0 +1,85 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import type { z } from "zod";
+import { contextCreateSchema, contextTypes } from "@/lib/schemas/context";
+import { ApiError, apiFetch } from "@/components/register/api-fetch";
+import { applyFieldErrors, FormField } from "./form-field";
+
+type Input = z.input<typeof contextCreateSchema>;
+type Output = z.output<typeof contextCreateSchema>;
+
+const textFields = [
+  { name: "colour", label: "Colour", rows: 1 },
+  { name: "compaction", label: "Compaction", rows: 1 },
+  { name: "composition", label: "Composition", rows: 2 },
+  { name: "inclusions", label: "Inclusions", rows: 2 },
+  { name: "description", label: "Description", rows: 4 },
+  { name: "interpretation", label: "Interpretation", rows: 3 },
+] as const;
+
+/** The context sheet, checked in the browser by the very schema the server checks it with. */
+export function ContextSheetForm({ siteId, trenches, initial, contextId }: { siteId: string; trenches: { id: string; code: string }[]; initial?: Partial<Input>; contextId?: string }) {
+  const router = useRouter();
+  const [failure, setFailure] = useState<string | null>(null);
+  const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(contextCreateSchema),
+    defaultValues: { trenchId: trenches[0]?.id, type: "layer", ...initial },
+  });
+  const e = formState.errors;
+
+  const submit = handleSubmit(async (values) => {
+    setFailure(null);
+    try {
+      if (contextId) {
+        const { trenchId: _fixed, ...changes } = values;
+        await apiFetch(`/api/sites/${siteId}/contexts/${contextId}`, { method: "PATCH", body: JSON.stringify(changes) });
+        router.refresh();
+      } else {
+        const made = await apiFetch<{ id: string }>(`/api/sites/${siteId}/contexts`, { method: "POST", body: JSON.stringify(values) });
+        router.push(`/sites/${siteId}/contexts/${made.id}`);
+      }
+    } catch (err) {
+      if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
+      setFailure(err instanceof Error ? err.message : String(err));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Context sheet">
+      <div className="grid gap-3 sm:grid-cols-3">
+        <FormField id="ctx-number" label="Context number" error={e.number?.message}>
+          <input id="ctx-number" className="field num" inputMode="numeric" aria-invalid={!!e.number} aria-describedby="ctx-number-error" {...register("number")} />
+        </FormField>
+        <FormField id="ctx-type" label="Type" error={e.type?.message}>
+          <select id="ctx-type" className="field" aria-describedby="ctx-type-error" {...register("type")}>
+            {contextTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+          </select>
+        </FormField>
+        <FormField id="ctx-trench" label="Trench" error={e.trenchId?.message} hint={contextId ? "A context stays in the trench it was opened in." : undefined}>
+          <select id="ctx-trench" className="field" disabled={!!contextId} aria-describedby="ctx-trench-error" {...register("trenchId")}>
+            {trenches.map((t) => <option key={t.id} value={t.id}>Trench {t.code}</option>)}
+          </select>
+        </FormField>
+      </div>
+      <div className="grid gap-3 sm:grid-cols-2">
+        {textFields.map((f) => (
+          <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
+            {f.rows === 1 ? (
+              <input id={`ctx-${f.name}`} className="field" aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+            ) : (
+              <textarea id={`ctx-${f.name}`} className="field" rows={f.rows} aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+            )}
+          </FormField>
+        ))}
+      </div>
+      <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
+      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+        {contextId ? "Save the sheet" : "Open the sheet"}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,68 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import type { z } from "zod";
+import { findUpdateSchema } from "@/lib/schemas/find";
+import { applyFieldErrors, FormField } from "@/components/contexts/form-field";
+import { ApiError, apiFetch } from "./api-fetch";
+
+type Input = z.input<typeof findUpdateSchema>;
+type Output = z.output<typeof findUpdateSchema>;
+
+/** Editing a find with the server's own schema; the number is the server's and never changes. */
+export function FindEditForm({ siteId, findId, initial, contexts, classes }: {
+  siteId: string; findId: string; initial: Input;
+  contexts: { id: string; number: number }[]; classes: { id: string; code: string; label: string }[];
+}) {
+  const router = useRouter();
+  const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
+  const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({ resolver: zodResolver(findUpdateSchema), defaultValues: initial });
+  const e = formState.errors;
+  const submit = handleSubmit(async (values) => {
+    setNote(null);
+    try {
+      await apiFetch(`/api/sites/${siteId}/finds/${findId}`, { method: "PATCH", body: JSON.stringify(values) });
+      setNote({ ok: true, text: "Saved." });
+      router.refresh();
+    } catch (err) {
+      if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
+      setNote({ ok: false, text: err instanceof Error ? err.message : String(err) });
+    }
+  });
+  const num = (name: "x" | "y" | "z" | "count" | "weightG", label: string) => (
+    <FormField id={`find-${name}`} label={label} error={e[name]?.message}>
+      <input id={`find-${name}`} className="field num" inputMode="decimal" aria-describedby={`find-${name}-error`} {...register(name)} />
+    </FormField>
+  );
+  return (
+    <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Edit the find">
+      <div className="grid gap-3 sm:grid-cols-2">
+        <FormField id="find-context" label="Context" error={e.contextId?.message}>
+          <select id="find-context" className="field num" {...register("contextId")}>
+            {contexts.map((c) => <option key={c.id} value={c.id}>{c.number}</option>)}
+          </select>
+        </FormField>
+        <FormField id="find-class" label="Class" error={e.classId?.message}>
+          <select id="find-class" className="field" {...register("classId")}>
+            {classes.map((c) => <option key={c.id} value={c.id}>{c.code} · {c.label}</option>)}
+          </select>
+        </FormField>
+      </div>
+      <div className="grid gap-3 sm:grid-cols-5">
+        {num("x", "x (m)")}
+        {num("y", "y (m)")}
+        {num("z", "z (m)")}
+        {num("count", "Count")}
+        {num("weightG", "Weight (g)")}
+      </div>
+      <FormField id="find-description" label="Description" error={e.description?.message}>
+        <textarea id="find-description" className="field" rows={3} {...register("description")} />
+      </FormField>
+      <p role="status" aria-live="polite" className={note?.ok ? "font-semibold text-ok" : "field-error"}>{note?.text ?? ""}</p>
+      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Save the find</button>
+    </form>
+  );
+}

@@ -1,0 +1,124 @@
+"use client";
+
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
+import Link from "next/link";
+import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { useMemo, useState } from "react";
+import { apiFetch } from "./api-fetch";
+import { FindPanel, type RegisterRow } from "./find-panel";
+import { RegisterFilters, type RegisterOptions } from "./register-filters";
+import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
+
+type Page = { page: number; pageSize: number; total: number; rows: RegisterRow[] };
+const sortable = new Set(["number", "context", "class", "x", "y", "z", "recordedAt"]);
+const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
+
+const columns: ColumnDef<RegisterRow>[] = [
+  { id: "number", header: "Find", cell: (c) => <span className="font-bold">{c.row.original.number}</span> },
+  { id: "trench", header: "Trench", cell: (c) => c.row.original.trenchCode },
+  { id: "context", header: "Context", cell: (c) => c.row.original.contextNumber },
+  { id: "class", header: "Class", cell: (c) => <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm align-middle" style={{ background: c.row.original.classColour }} />{c.row.original.classCode}</span> },
+  { id: "x", header: "x (m)", cell: (c) => metres(c.row.original.x) },
+  { id: "y", header: "y (m)", cell: (c) => metres(c.row.original.y) },
+  { id: "z", header: "z (m)", cell: (c) => metres(c.row.original.z) },
+  { id: "recorder", header: "Recorder", cell: (c) => c.row.original.recordedBy ?? "—" },
+  { id: "recordedAt", header: "Recorded", cell: (c) => new Date(c.row.original.recordedAt).toISOString().slice(0, 10) },
+  { id: "description", header: "Description", cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span> },
+];
+const numeric = new Set(["number", "context", "x", "y", "z", "recordedAt"]);
+
+/** The finds register: server-side filters, sorting and paging, all held in the URL. */
+export function FindsRegister({ siteId, options, canImport }: { siteId: string; options: RegisterOptions; canImport: boolean }) {
+  const router = useRouter();
+  const pathname = usePathname();
+  const params = useSearchParams();
+  const view = useMemo(() => readView(new URLSearchParams(params.toString())), [params]);
+  const [openId, setOpenId] = useState<string | null>(null);
+  const go = (change: RegisterView) => router.replace(`${pathname}?${viewQuery(withChange(view, change))}`, { scroll: false });
+  const qs = viewQuery(view);
+  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => apiFetch<Page>(`/api/sites/${siteId}/finds?${qs}`), placeholderData: keepPreviousData });
+  const pageSize = Number(view.pageSize ?? 50);
+  const page = Number(view.page ?? 1);
+  const total = data.data?.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  const sorting: SortingState = [{ id: view.sort ?? "number", desc: view.dir === "desc" }];
+  const table = useReactTable({
+    data: data.data?.rows ?? [],
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    manualSorting: true,
+    manualPagination: true,
+    manualFiltering: true,
+    pageCount: pages,
+    state: { sorting, pagination: { pageIndex: page - 1, pageSize } },
+    enableSortingRemoval: false,
+    getRowId: (r) => r.id,
+  });
+  const sortBy = (id: string) => go({ sort: id, dir: view.sort === id && view.dir !== "desc" ? "desc" : "asc", page: "" });
+  const exportQs = viewQuery(view, ["page", "pageSize"]);
+  const open = data.data?.rows.find((r) => r.id === openId);
+
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap items-center gap-2">
+        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=csv&${exportQs}`} download>Export CSV</a>
+        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&${exportQs}`} download>Export GeoJSON</a>
+        {canImport && <Link className="btn-primary" href={`/sites/${siteId}/finds/import`}>Import total-station CSV</Link>}
+        {Object.keys(view).some((k) => !["sort", "dir", "page", "pageSize"].includes(k)) && <button type="button" className="btn" onClick={() => router.replace(pathname)}>Clear filters</button>}
+      </div>
+      <RegisterFilters view={view} options={options} onChange={go} />
+      <p aria-live="polite" className="text-sm text-ink-soft">
+        {data.isFetching ? "Reading the register…" : <><span className="num">{total}</span> finds match · page <span className="num">{page}</span> of <span className="num">{pages}</span></>}
+      </p>
+      {data.error && <p role="alert" className="field-error">{data.error.message}</p>}
+      <div className="overflow-x-auto">
+        <table className="ledger sheet" aria-label="Finds register">
+          <thead>
+            {table.getHeaderGroups().map((hg) => (
+              <tr key={hg.id}>
+                {hg.headers.map((h) => {
+                  const active = sorting[0].id === h.id;
+                  return (
+                    <th key={h.id} className={numeric.has(h.id) ? "num" : ""} aria-sort={active ? (sorting[0].desc ? "descending" : "ascending") : undefined}>
+                      {sortable.has(h.id) ? (
+                        <button type="button" className="inline-flex min-h-11 items-center gap-1 font-semibold" onClick={() => sortBy(h.id)}>
+                          {flexRender(h.column.columnDef.header, h.getContext())}
+                          <span aria-hidden>{active ? (sorting[0].desc ? "▼" : "▲") : "↕"}</span>
+                        </button>
+                      ) : flexRender(h.column.columnDef.header, h.getContext())}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`} onClick={() => setOpenId(row.id === openId ? null : row.id)}>
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className={numeric.has(cell.column.id) ? "num" : ""}>
+                    {cell.column.id === "number" ? (
+                      <button type="button" className="min-h-11 font-bold underline" aria-expanded={row.id === openId} onClick={(e) => { e.stopPropagation(); setOpenId(row.id === openId ? null : row.id); }}>
+                        {row.original.number}
+                      </button>
+                    ) : flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {open && <FindPanel siteId={siteId} find={open} onClose={() => setOpenId(null)} />}
+      <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
+        <button type="button" className="btn" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>← Previous</button>
+        <button type="button" className="btn" disabled={page >= pages} onClick={() => go({ page: String(page + 1) })}>Next →</button>
+        <label className="ml-auto text-sm" htmlFor="f-size">Rows a page</label>
+        <select id="f-size" className="field w-24" value={pageSize} onChange={(e) => go({ pageSize: e.target.value })}>
+          {[25, 50, 100, 250, 500].map((n) => <option key={n} value={n}>{n}</option>)}
+        </select>
+      </nav>
+    </div>
+  );
+}
