@@ -1,14 +1,18 @@
 import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
-import { OutlineSketch } from "@/components/outline-sketch";
+import { PlanLoader } from "@/components/plan/plan-loader";
 import { SiteNav } from "@/components/site-nav";
-import { checkOutline } from "@/lib/geometry/outline";
+import { listClasses } from "@/lib/server/artefact-classes";
+import { recorders } from "@/lib/server/catalog/types";
 import { listContexts } from "@/lib/server/contexts";
 import { isPublicError } from "@/lib/server/errors";
 import { countHumanRemains } from "@/lib/server/human-remains";
+import { isRole } from "@/lib/server/membership";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { listPhotos } from "@/lib/server/photos";
 import { getTrench } from "@/lib/server/trenches";
 
+/** The trench plan: a server-read seed (trench, contexts, classes, photos) for the client canvas. */
 export default async function TrenchPage({ params }: { params: Promise<{ siteId: string; trenchId: string }> }) {
   const { siteId, trenchId } = await params;
   const { db, actor } = await pageSiteActor(siteId);
@@ -16,24 +20,26 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [contexts, remains] = await Promise.all([listContexts(db, siteId, trenchId), countHumanRemains(db, siteId, trenchId)]);
-  const check = checkOutline(trench.outline);
+  const [contexts, classes, photos, remains] = await Promise.all([listContexts(db, siteId, trenchId), listClasses(db, siteId), listPhotos(db, siteId, trenchId), countHumanRemains(db, siteId, trenchId)]);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current="" />
-      <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
-        <h1 className="text-3xl font-bold">Trench {trench.code} <span className="text-xl font-normal text-ink-soft">{trench.name}</span></h1>
+      <main className="space-y-2 px-2 py-2 lg:px-4">
+        <h1 className="text-2xl font-bold">
+          Trench {trench.code} <span className="text-lg font-normal text-ink-soft">{trench.name} · plan</span>
+        </h1>
         {remains > 0 && <HumanRemainsBanner count={remains} />}
         {(trench.maxDepth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={trench.maxDepth!} />}
-        <section className="sheet flex flex-wrap gap-6">
-          <OutlineSketch outline={trench.outline} size={220} />
-          <dl className="grid grid-cols-2 gap-x-4 gap-y-1 self-start">
-            <dt className="text-ink-soft">Area</dt><dd className="num">{check.ok ? `${check.window.area.toFixed(2)} m²` : "—"}</dd>
-            <dt className="text-ink-soft">Perimeter</dt><dd className="num">{check.ok ? `${check.window.perimeter.toFixed(2)} m` : "—"}</dd>
-            <dt className="text-ink-soft">Holes</dt><dd className="num">{trench.outline.coordinates.length - 1}</dd>
-            <dt className="text-ink-soft">Contexts</dt><dd className="num">{contexts.length}</dd>
-          </dl>
-        </section>
+        <div className="overflow-hidden rounded border border-paper-edge bg-white/60">
+          <PlanLoader
+            siteId={siteId}
+            trench={{ id: trench.id, code: trench.code, outline: trench.outline, signedOff: Boolean(trench.signedOffAt) }}
+            classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, humanRemains: c.humanRemains }))}
+            contexts={contexts.map((c) => ({ id: c.id, number: c.number, type: c.type, state: c.state, signedOffAt: c.signedOffAt ? c.signedOffAt.toISOString() : null }))}
+            photos={photos}
+            canEdit={isRole(actor, recorders)}
+          />
+        </div>
       </main>
     </>
   );

@@ -1,0 +1,215 @@
+/** Canvas drawing for the plan layers, in screen pixels (the Konva layer has already applied the pixel ratio). */
+import { gridLines, labelDecimals, toScreen, type View } from "@/lib/geometry/plan-view";
+import type { Problem, Pt, Rings } from "@/lib/geometry/outline-edit";
+import type { ClassRow, FindRow } from "./api";
+import { openSymbols, traceSymbol } from "./symbols";
+
+export const INK = "#1b130c";
+export const WARN = "#b8400f";
+export const ACCENT = "#1d5c8c";
+export const FIND_R = 7;
+
+export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: number, hasPhoto: boolean) {
+  const g = gridLines(v, w, h);
+  c.save();
+  c.lineWidth = 1;
+  c.strokeStyle = hasPhoto ? "rgba(255,255,255,0.75)" : "rgba(46,33,22,0.22)";
+  c.beginPath();
+  for (const x of g.xs) {
+    const sx = Math.round(toScreen(v, x, 0)[0]) + 0.5;
+    c.moveTo(sx, 0);
+    c.lineTo(sx, h);
+  }
+  for (const y of g.ys) {
+    const sy = Math.round(toScreen(v, 0, y)[1]) + 0.5;
+    c.moveTo(0, sy);
+    c.lineTo(w, sy);
+  }
+  c.stroke();
+  if (hasPhoto) {
+    // A dark twin line keeps the grid visible over pale soil as well as dark.
+    c.strokeStyle = "rgba(27,19,12,0.45)";
+    c.setLineDash([4, 4]);
+    c.stroke();
+    c.setLineDash([]);
+  }
+  const d = labelDecimals(g.step);
+  c.font = "600 12px var(--font-mono), ui-monospace, monospace";
+  c.textBaseline = "top";
+  const label = (text: string, x: number, y: number) => {
+    const tw = c.measureText(text).width;
+    c.fillStyle = "rgba(247,242,232,0.92)";
+    c.fillRect(x - 2, y - 1, tw + 4, 16);
+    c.fillStyle = INK;
+    c.fillText(text, x, y + 1);
+  };
+  for (const x of g.xs) label(`${x.toFixed(d)}`, toScreen(v, x, 0)[0] + 3, 4);
+  for (const y of g.ys) label(`${y.toFixed(d)}`, 4, toScreen(v, 0, y)[1] + 3);
+  c.restore();
+  return g.step;
+}
+
+export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, hasPhoto: boolean, problem: Problem | null) {
+  if (!rings.length) return;
+  c.save();
+  c.beginPath();
+  for (const r of rings) {
+    r.forEach(([x, y], i) => {
+      const [sx, sy] = toScreen(v, x, y);
+      if (i === 0) c.moveTo(sx, sy);
+      else c.lineTo(sx, sy);
+    });
+    c.closePath();
+  }
+  if (!hasPhoto) {
+    c.fillStyle = "#eadcc0";
+    c.fill("evenodd");
+  }
+  c.lineJoin = "round";
+  c.strokeStyle = "#fff";
+  c.lineWidth = 5;
+  c.stroke();
+  c.strokeStyle = INK;
+  c.lineWidth = 2.5;
+  c.stroke();
+  // Holes: hatched so a baulk reads as "not dug" on paper and over a photo.
+  for (const r of rings.slice(1)) {
+    c.save();
+    c.beginPath();
+    r.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
+    c.closePath();
+    c.clip();
+    c.strokeStyle = "rgba(46,33,22,0.55)";
+    c.lineWidth = 1.5;
+    c.beginPath();
+    const xs = r.map((p) => toScreen(v, p[0], p[1]));
+    const minX = Math.min(...xs.map((p) => p[0])), maxX = Math.max(...xs.map((p) => p[0]));
+    const minY = Math.min(...xs.map((p) => p[1])), maxY = Math.max(...xs.map((p) => p[1]));
+    for (let t = minX - (maxY - minY); t < maxX; t += 9) {
+      c.moveTo(t, maxY);
+      c.lineTo(t + (maxY - minY), minY);
+    }
+    c.stroke();
+    c.restore();
+  }
+  if (problem) {
+    c.strokeStyle = WARN;
+    c.lineWidth = 6;
+    c.setLineDash([10, 6]);
+    c.beginPath();
+    const ring = rings[problem.ring] ?? [];
+    const edge = (i: number) => {
+      const a = toScreen(v, ...ring[i]);
+      const b = toScreen(v, ...ring[(i + 1) % ring.length]);
+      c.moveTo(...a);
+      c.lineTo(...b);
+    };
+    if (problem.edges.length) problem.edges.forEach(edge);
+    else for (const k of problem.rings ?? [problem.ring]) rings[k]?.forEach((_, i) => {
+      const r = rings[k];
+      c.moveTo(...toScreen(v, ...r[i]));
+      c.lineTo(...toScreen(v, ...r[(i + 1) % r.length]));
+    });
+    c.stroke();
+    c.setLineDash([]);
+  }
+  c.restore();
+}
+
+export function drawVertices(c: CanvasRenderingContext2D, v: View, rings: Rings, selected: { ring: number; v: number } | null) {
+  c.save();
+  rings.forEach((r, k) => {
+    r.forEach((p, i) => {
+      const q = r[(i + 1) % r.length];
+      const [mx, my] = toScreen(v, (p[0] + q[0]) / 2, (p[1] + q[1]) / 2);
+      c.beginPath();
+      c.arc(mx, my, 6, 0, Math.PI * 2);
+      c.fillStyle = "rgba(255,255,255,0.85)";
+      c.fill();
+      c.strokeStyle = ACCENT;
+      c.lineWidth = 2;
+      c.stroke();
+      c.beginPath();
+      c.moveTo(mx - 3.5, my);
+      c.lineTo(mx + 3.5, my);
+      c.moveTo(mx, my - 3.5);
+      c.lineTo(mx, my + 3.5);
+      c.stroke();
+    });
+    r.forEach((p, i) => {
+      const [sx, sy] = toScreen(v, p[0], p[1]);
+      const on = selected?.ring === k && selected.v === i;
+      c.beginPath();
+      c.arc(sx, sy, on ? 11 : 9, 0, Math.PI * 2);
+      c.fillStyle = on ? ACCENT : "#fff";
+      c.fill();
+      c.lineWidth = 2.5;
+      c.strokeStyle = INK;
+      c.stroke();
+    });
+  });
+  c.restore();
+}
+
+export function drawDrawing(c: CanvasRenderingContext2D, v: View, pts: Pt[], pointer: Pt | null) {
+  if (!pts.length) return;
+  c.save();
+  c.strokeStyle = ACCENT;
+  c.lineWidth = 3;
+  c.setLineDash([8, 5]);
+  c.beginPath();
+  pts.forEach((p, i) => (i === 0 ? c.moveTo(...toScreen(v, ...p)) : c.lineTo(...toScreen(v, ...p))));
+  if (pointer) c.lineTo(...toScreen(v, ...pointer));
+  c.stroke();
+  c.setLineDash([]);
+  pts.forEach((p, i) => {
+    const [sx, sy] = toScreen(v, ...p);
+    c.beginPath();
+    c.arc(sx, sy, i === 0 ? 12 : 7, 0, Math.PI * 2);
+    c.fillStyle = i === 0 ? "rgba(29,92,140,0.35)" : "#fff";
+    c.fill();
+    c.strokeStyle = ACCENT;
+    c.lineWidth = 2.5;
+    c.stroke();
+  });
+  c.restore();
+}
+
+/** All finds in one pass: one path per class, filled and outlined once. */
+export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: FindRow[], classes: Map<string, ClassRow>, w: number, h: number, moved?: { id: string; at: Pt } | null) {
+  const byClass = new Map<string, FindRow[]>();
+  for (const f of finds) {
+    let list = byClass.get(f.classId);
+    if (!list) byClass.set(f.classId, (list = []));
+    list.push(f);
+  }
+  c.save();
+  c.lineJoin = "round";
+  for (const [classId, list] of byClass) {
+    const cls = classes.get(classId);
+    const symbol = cls?.symbol ?? "disc";
+    c.beginPath();
+    for (const f of list) {
+      const at = moved && moved.id === f.id ? moved.at : ([f.x, f.y] as Pt);
+      const sx = v.ox + at[0] * v.scale;
+      const sy = v.oy - at[1] * v.scale;
+      if (sx < -20 || sy < -20 || sx > w + 20 || sy > h + 20) continue;
+      traceSymbol(c, symbol, sx, sy, FIND_R);
+    }
+    if (openSymbols.has(symbol)) {
+      c.strokeStyle = INK;
+      c.lineWidth = 5;
+      c.stroke();
+      c.strokeStyle = cls?.colour ?? "#666";
+      c.lineWidth = 2.6;
+      c.stroke();
+    } else {
+      c.fillStyle = cls?.colour ?? "#666";
+      c.fill();
+      c.strokeStyle = INK;
+      c.lineWidth = 1.4;
+      c.stroke();
+    }
+  }
+  c.restore();
+}

@@ -1,0 +1,48 @@
+"use client";
+
+import type { FitModel } from "@/lib/geometry/photo-fit";
+import type { PhotoView } from "@/lib/geometry/photo-fit-input";
+import { PhotoFitPanel, type DraftPoint } from "./photo-fit-panel";
+import { PhotoUpload } from "./photo-upload";
+
+export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, onUploaded, fit }: {
+  siteId: string;
+  trenchId: string;
+  photos: PhotoView[];
+  photo: PhotoView | null;
+  canEdit: boolean;
+  onPhoto: (id: string) => void;
+  onUploaded: (id: string) => void;
+  fit: {
+    points: DraftPoint[];
+    active: number | null;
+    model: FitModel | "auto";
+    onPoints: (p: DraftPoint[]) => void;
+    onActive: (i: number | null) => void;
+    onModel: (m: FitModel | "auto") => void;
+    onFit: () => void;
+    fitting: boolean;
+    error: string | null;
+  };
+}) {
+  return (
+    <div className="space-y-4">
+      {canEdit && <PhotoUpload siteId={siteId} trenchId={trenchId} onUploaded={onUploaded} />}
+      {photos.length > 1 && (
+        <div className="flex flex-wrap gap-2" aria-label="Photos of this trench">
+          {photos.map((p) => (
+            <button key={p.id} type="button" onClick={() => onPhoto(p.id)} aria-pressed={p.id === photo?.id} className={`rounded border-2 p-1 ${p.id === photo?.id ? "border-accent" : "border-paper-edge"}`}>
+              <img src={p.thumbUrl} alt={p.fileName} className="h-16 w-auto" />
+              <span className="block text-xs">{p.fit ? "fitted" : "not fitted"}</span>
+            </button>
+          ))}
+        </div>
+      )}
+      {photo ? (
+        <PhotoFitPanel photo={photo} canEdit={canEdit} {...fit} />
+      ) : (
+        <p className="text-ink-soft">No photo of this trench yet.</p>
+      )}
+    </div>
+  );
+}

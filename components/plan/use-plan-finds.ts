@@ -1,0 +1,83 @@
+"use client";
+
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { useCallback } from "react";
+import { nearestEdge, type Pt, type Rings } from "@/lib/geometry/outline-edit";
+import { ApiError, apiCall, fetchAllFinds, type ContextRow, type FindRow } from "./api";
+import type { Refused } from "./draw-marks";
+import type { QuickFind } from "./find-form";
+import type { UndoEntry } from "./use-undo";
+
+type Deps = {
+  siteId: string;
+  trenchId: string;
+  contexts: ContextRow[];
+  savedRings: Rings;
+  pushUndo: (e: UndoEntry) => void;
+  say: (kind: "ok" | "warn", text: string) => void;
+};
+
+const num = (s: string) => (s.trim() === "" ? null : Number(s));
+
+/** The trench's finds (all pages) and the plan's writes to them, each with its undo. */
+export function usePlanFinds({ siteId, trenchId, contexts, savedRings, pushUndo, say }: Deps) {
+  const qc = useQueryClient();
+  const key = ["plan-finds", siteId, trenchId];
+  const query = useQuery({ queryKey: key, queryFn: () => fetchAllFinds(siteId, trenchId), staleTime: 60_000 });
+  const finds = query.data ?? [];
+  const patch = useCallback((fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])), [qc, siteId, trenchId]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  const withContext = (row: Omit<FindRow, "contextNumber" | "contextState" | "classCode" | "classLabel" | "recordedBy"> & Partial<FindRow>, classCode: string, classLabel: string): FindRow => {
+    const ctx = contexts.find((c) => c.id === row.contextId);
+    return { recordedBy: null, ...row, contextNumber: ctx?.number ?? 0, contextState: ctx?.state ?? "open", classCode, classLabel } as FindRow;
+  };
+
+  /** Records a find; an outside-trench refusal comes back as the refused mark to draw. */
+  const record = useCallback(
+    async (at: Pt, v: QuickFind, cls: { code: string; label: string }): Promise<{ ok: true; row: FindRow } | { ok: false; message: string; refused: Refused | null }> => {
+      try {
+        const created = await apiCall<FindRow>(`/api/sites/${siteId}/finds`, {
+          method: "POST",
+          body: { contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: num(v.z), count: num(v.count), weightG: num(v.weightG), description: v.description, method: "plan" },
+        });
+        const row = withContext({ ...created, recordedAt: String(created.recordedAt) }, cls.code, cls.label);
+        patch((rows) => [...rows, row]);
+        pushUndo({
+          label: `record find #${row.number}`,
+          run: async () => {
+            await apiCall(`/api/sites/${siteId}/finds/${row.id}`, { method: "DELETE" });
+            patch((rows) => rows.filter((r) => r.id !== row.id));
+          },
+        });
+        say("ok", `Find #${row.number} recorded (number allocated by the server).`);
+        return { ok: true, row };
+      } catch (err) {
+        if (!(err instanceof ApiError)) throw err;
+        const distance = typeof err.details?.distance === "number" ? err.details.distance : null;
+        const near = distance !== null ? nearestEdge(savedRings, at[0], at[1]) : null;
+        return { ok: false, message: err.message, refused: distance !== null ? { at, nearest: near?.point ?? at, distance } : null };
+      }
+    },
+    [siteId, savedRings, patch, pushUndo, say], // eslint-disable-line react-hooks/exhaustive-deps
+  );
+
+  const move = useCallback(
+    async (f: FindRow, to: Pt) => {
+      const from: Pt = [f.x, f.y];
+      const send = async (p: Pt) => {
+        await apiCall(`/api/sites/${siteId}/finds/${f.id}`, { method: "PATCH", body: { x: p[0], y: p[1] } });
+        patch((rows) => rows.map((r) => (r.id === f.id ? { ...r, x: p[0], y: p[1] } : r)));
+      };
+      try {
+        await send(to);
+        pushUndo({ label: `move find #${f.number}`, run: () => send(from) });
+        say("ok", `Find #${f.number} moved to ${to[0].toFixed(3)}, ${to[1].toFixed(3)}.`);
+      } catch (err) {
+        say("warn", `Find #${f.number} was not moved: ${(err as Error).message}`);
+      }
+    },
+    [siteId, patch, pushUndo, say],
+  );
+
+  return { finds, loading: query.isLoading, error: query.error as Error | null, record, move };
+}
