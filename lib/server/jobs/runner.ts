@@ -11,14 +11,15 @@ import { simulationPool } from "./sim-pool";
 /**
  * Where runs execute. Embedded database: in this process (the only one allowed to open PGlite), in the
  * engine's worker-thread pool, off the request. PostgreSQL: through pg-boss to separate worker processes.
- * LOAMWORK_RUN_QUEUE forces one or the other (tests run the local queue against PostgreSQL too).
+ * LOAMWORK_RUN_QUEUE forces one or the other. Under NODE_ENV=test the default is the local queue even on
+ * PostgreSQL, so the integration suite runs its jobs in-process on both databases; the pg-boss test opts in.
  */
 type Runner = { kind: "local"; queue: LocalRunQueue } | { kind: "pg-boss"; boss: PgBoss };
 const holder = ((globalThis as Record<string, unknown>).__loamworkRunner ??= {}) as { ready?: Promise<Runner> };
 
 export function runQueueKind(): "local" | "pg-boss" {
   const e = env();
-  return e.LOAMWORK_RUN_QUEUE ?? (e.DATABASE_URL ? "pg-boss" : "local");
+  return e.LOAMWORK_RUN_QUEUE ?? (e.DATABASE_URL && e.NODE_ENV !== "test" ? "pg-boss" : "local");
 }
 
 async function start(): Promise<Runner> {
