@@ -24,7 +24,8 @@
  *   pairCorrelation(window, points, { r, correction, halfWidth: 0.15/√λ }) → g
  *   crossK(window, A, B, options) → K_AB, L_AB;  dotK(window, all, isA, options);  kDifference(window, A, B)
  *   kInhom(window, points, { lambda? | intensity: { sigma: "scott" }, renormalise: true }) → K, L
- *   intensityAtPoints(window, points, { sigma: "scott", edge: "uniform", leaveOneOut: true })
+ *   intensityAtPoints(window, points, { sigma: "scott" | "diggle" | metres, edge: "uniform", leaveOneOut: true })
+ *   scottBandwidth(points), diggleBandwidth(window, points) (Berman–Diggle cross-validation)
  *   densityGrid(window, points, { sigma: "scott", edge: "uniform", nx: 128 }) → the plan's heat layer
  * Edge weights, for callers that loop over many patterns
  *   isotropicPairWeights / isotropicCrossWeights / isotropicWeight (Ripley 1977, exact for polygons)
@@ -66,6 +67,7 @@ export {
   type PointIntensity,
 } from "./intensity";
 export { kInhom, type KInhomOptions, type KInhomResult } from "./k-inhom";
+export { diggleBandwidth, type DiggleBandwidth } from "./bandwidth";
 
 export * from "./random";
 export * from "./sample-window";

@@ -5,10 +5,12 @@
  *   λ̂(u) = Σ_j φ_σ(u − x_j) / e(x_j)        ("diggle", Jones 1993), or no correction,
  * with e the kernel's mass inside W (kernel-mass.ts). The kernel is cut at 8σ (tail below 1e-14).
  * Bandwidth rule (default): Scott's (1992) normal-reference rule, which in two dimensions is also
- * Silverman's (1986, eq. 4.14): σ = √(s_x·s_y)·n^(−1/6), as spatstat's `bw.scott(isotropic = TRUE)`.
+ * Silverman's (1986, eq. 4.14): σ = √(s_x·s_y)·n^(−1/6), as spatstat's `bw.scott(isotropic = TRUE)`;
+ * or Berman–Diggle cross-validation (Diggle 1985), as spatstat's `bw.diggle` (bandwidth.ts).
  */
 import KDBush from "kdbush";
 import { gaussianEdgeMass } from "./kernel-mass";
+import { diggleBandwidth } from "./bandwidth";
 import { checkPattern } from "./pattern";
 import { SpatialInputError } from "./errors";
 import type { Points, PointsInput, Window } from "./types";
@@ -16,8 +18,8 @@ import type { Points, PointsInput, Window } from "./types";
 export type KernelEdge = "uniform" | "diggle" | "none";
 
 export interface IntensityOptions {
-  /** σ in metres, or "scott" (default). */
-  sigma?: number | "scott";
+  /** σ in metres, "scott" (default) or "diggle" (Berman–Diggle cross-validation, bandwidth.ts). */
+  sigma?: number | "scott" | "diggle";
   edge?: KernelEdge;
   label?: string;
 }
@@ -36,8 +38,8 @@ export function scottBandwidth(p: Points): number {
   return sigma;
 }
 
-function resolveSigma(p: Points, sigma: IntensityOptions["sigma"]): number {
-  const s = sigma === undefined || sigma === "scott" ? scottBandwidth(p) : sigma;
+function resolveSigma(window: Window, p: Points, sigma: IntensityOptions["sigma"]): number {
+  const s = sigma === undefined || sigma === "scott" ? scottBandwidth(p) : sigma === "diggle" ? diggleBandwidth(window, p).sigma : sigma;
   if (!(s > 0) || !Number.isFinite(s)) throw new SpatialInputError(`The kernel bandwidth must be a positive distance; got ${s}.`);
   return s;
 }
@@ -65,7 +67,7 @@ export interface PointIntensity {
 export function intensityAtPoints(window: Window, points: PointsInput, options: PointIntensityOptions = {}): PointIntensity {
   const p = checkPattern(window, points, { label: options.label });
   const n = p.x.length;
-  const sigma = resolveSigma(p, options.sigma);
+  const sigma = resolveSigma(window, p, options.sigma);
   const edge = options.edge ?? "uniform";
   const leaveOneOut = options.leaveOneOut ?? true;
   const mass = edge === "none" ? null : Float64Array.from(p.x, (x, k) => gaussianEdgeMass(window, x, p.y[k], sigma));
@@ -145,7 +147,7 @@ function pixelEdgeMass(window: Window, sigma: number, nx: number, ny: number): F
 /** Kernel density on a pixel grid for the plan's heat layer. */
 export function densityGrid(window: Window, points: PointsInput, options: DensityGridOptions = {}): DensityGrid {
   const p = checkPattern(window, points, { label: options.label, minPoints: 2 });
-  const sigma = resolveSigma(p, options.sigma);
+  const sigma = resolveSigma(window, p, options.sigma);
   const edge = options.edge ?? "uniform";
   const { bbox } = window;
   const width = bbox.maxX - bbox.minX;
