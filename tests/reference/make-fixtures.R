@@ -116,16 +116,47 @@ pcf_block <- function(X, r) {
   )
 }
 
+# Mass of a Gaussian kernel (sd sigma, centred at (ux, uy)) inside W, computed by vertical slices: at each x
+# the slice of W is a union of y-intervals whose Gaussian mass is exact through pnorm, and the x-integral
+# is done by integrate() between the vertices' x values. Independent of spatstat's pixel edge factor.
+gaussian_mass_exact <- function(W, ux, uy, sigma) {
+  rings <- as.polygonal(W)$bdry
+  seg <- do.call(rbind, lapply(rings, function(r) {
+    k <- length(r$x); nx <- c(2:k, 1)
+    cbind(r$x, r$y, r$x[nx], r$y[nx])
+  }))
+  seg <- seg[seg[, 1] != seg[, 3], , drop = FALSE]   # vertical edges never cross a vertical slice
+  slice <- function(xs) vapply(xs, function(x) {
+    sel <- (seg[, 1] <= x & x < seg[, 3]) | (seg[, 3] <= x & x < seg[, 1])
+    s <- seg[sel, , drop = FALSE]
+    ys <- sort(s[, 2] + (x - s[, 1]) * (s[, 4] - s[, 2]) / (s[, 3] - s[, 1]))
+    lo <- ys[c(TRUE, FALSE)]; hi <- ys[c(FALSE, TRUE)]
+    dnorm(x, ux, sigma) * sum(pnorm(hi, uy, sigma) - pnorm(lo, uy, sigma))
+  }, numeric(1))
+  b <- sort(unique(c(seg[, 1], seg[, 3], ux)))
+  total <- 0
+  for (k in seq_len(length(b) - 1)) {
+    total <- total + integrate(slice, b[k], b[k + 1], rel.tol = 1e-13, abs.tol = 0, subdivisions = 1000L)$value
+  }
+  total
+}
+
 # Inhomogeneous K with a fixed intensity vector: the lambda values are stored so the engine can use them.
 kinhom_block <- function(X, r, sigma) {
   lam <- run(density.ppp(X, sigma = sigma, at = "points", leaveoneout = TRUE, edge = TRUE))
   lamNoEdge <- run(density.ppp(X, sigma = sigma, at = "points", leaveoneout = TRUE, edge = FALSE))
   lambda <- as.numeric(lam$value)
+  mass <- mapply(function(x, y) gaussian_mass_exact(Window(X), x, y, sigma), X$x, X$y)
   k0 <- run(Kinhom(X, lambda = lambda, r = r, correction = "isotropic", renormalise = FALSE))
   k1 <- run(Kinhom(X, lambda = lambda, r = r, correction = "isotropic", renormalise = TRUE))
   list(
     sigma = sigma, lambda = lambda, lambdaCall = lam$call,
     lambdaNoEdge = as.numeric(lamNoEdge$value), lambdaNoEdgeCall = lamNoEdge$call,
+    edgeMassExact = mass, lambdaEdgeExact = as.numeric(lamNoEdge$value) / mass,
+    edgeMassCall = paste("gaussian_mass_exact(W, x_i, y_i, sigma) in make-fixtures.R: vertical slices, pnorm per slice,",
+                         "integrate(rel.tol = 1e-13) over x; lambdaEdgeExact = lambdaNoEdge / edgeMassExact",
+                         "(the 'uniform' edge correction of density.ppp(edge = TRUE, diggle = FALSE), without its pixels)"),
+    scott = unname(bw.scott(X, isotropic = TRUE)), scottCall = "bw.scott(X, isotropic = TRUE)",
     iso = as.data.frame(k0$value)$iso, call = k0$call,
     isoRenormalised = as.data.frame(k1$value)$iso, callRenormalised = k1$call,
     note = paste("Kinhom iso = sum_{i != j} w_ij / (lambda_i lambda_j) / |W| over ordered pairs with d < r;",
