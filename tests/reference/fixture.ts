@@ -61,6 +61,7 @@ export interface Fixture {
   pcf?: { h: number; isoExact: (number | null)[]; transExact: (number | null)[]; call: string; callExact: string };
   Kinhom?: {
     sigma: number; lambda: number[]; lambdaNoEdge: number[]; lambdaNoEdgeCall: string;
+    edgeMassExact: number[]; lambdaEdgeExact: number[]; edgeMassCall: string; scott: number; scottCall: string;
     iso: (number | null)[]; isoRenormalised: (number | null)[]; call: string; callRenormalised: string;
   };
   cross?: Record<string, (number | null)[] | string>;
