@@ -11,7 +11,7 @@
 import type { PairList } from "./neighbours";
 import type { Window } from "./types";
 
-/** Non-vertical edges of W in coordinates relative to the bounding-box corner. */
+/** Non-vertical edges of W in coordinates relative to the bounding-box corner, sorted by left end. */
 export interface TrapezoidEdges {
   count: number;
   x0: Float64Array;
@@ -48,6 +48,12 @@ export function trapezoidEdges(window: Window): TrapezoidEdges {
     t.slope[k] = (by - ay) / (bx - ax);
     t.sigma[k] = left ? -1 : 1;
   }
+  // sorted by left end, so the overlap loop can stop at the first edge starting right of e
+  const order = Array.from({ length: t.count }, (_, k) => k).sort((a, b) => t.x0[a] - t.x0[b]);
+  for (const key of ["x0", "x1", "y0", "slope", "sigma"] as const) {
+    const old = t[key].slice(0, t.count);
+    order.forEach((from, to) => (t[key][to] = old[from]));
+  }
   cache.set(window, t);
   return t;
 }
@@ -61,7 +67,9 @@ export function setCovariance(window: Window, dx: number, dy: number): number {
   for (let e = 0; e < count; e++) {
     const ea = x0[e], eb = x1[e], ey = y0[e], es = slope[e];
     for (let f = 0; f < count; f++) {
-      const fa = x0[f] + dx, fb = x1[f] + dx;
+      const fa = x0[f] + dx;
+      if (fa >= eb) break; // this and every later edge of W + v starts right of e
+      const fb = x1[f] + dx;
       const xl = ea > fa ? ea : fa;
       const xr = eb < fb ? eb : fb;
       if (xr <= xl) continue;
