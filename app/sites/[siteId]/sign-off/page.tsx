@@ -2,7 +2,7 @@ import Link from "next/link";
 import type { Metadata } from "next";
 import { SiteNav } from "@/components/site-nav";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
-import { StateBadge } from "@/components/sign-off/state-badge";
+import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { listSignOffQueue } from "@/lib/server/sign-off";
 

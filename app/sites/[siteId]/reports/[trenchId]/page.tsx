@@ -4,7 +4,7 @@ import { ClassSymbol } from "@/components/class-symbol";
 import { SiteNav } from "@/components/site-nav";
 import { PlanFigure } from "@/components/sign-off/plan-figure";
 import { PrintButton } from "@/components/sign-off/print-button";
-import { StateBadge } from "@/components/sign-off/state-badge";
+import { StateBadge } from "@/components/contexts/state-badge";
 import type { RunResult } from "@/lib/server/analysis/result-types";
 import { isPublicError } from "@/lib/server/errors";
 import { pageSiteActor } from "@/lib/server/page-access";
