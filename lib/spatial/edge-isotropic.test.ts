@@ -42,6 +42,16 @@ describe("isotropic edge weight", () => {
     expect(isotropicWeight(ell, 3, 3, 2)).toBeCloseTo((2 * Math.PI) / (2 * Math.PI - Math.PI / 6), 12);
   });
 
+  it("handles finds digitised on the trench edge: half the circle inside on an edge, a quarter at a corner", () => {
+    expect(isotropicWeight(square, 5, 0, 1)).toBeCloseTo(2, 12); // θ = π
+    expect(isotropicWeight(square, 0, 0, 1)).toBeCloseTo(4, 12); // θ = π/2
+    const ell = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] });
+    expect(isotropicWeight(ell, 4, 4, 1)).toBeCloseTo(4 / 3, 12); // reflex corner: θ = 3π/2
+    // at r larger than the distance to the far side of the notch the arc is still counted exactly:
+    // centre (4, 4), r = 1.5 in L: the inside directions are 90°…360° (the notch is 0°…90°)
+    expect(isotropicWeight(ell, 4, 4, 1.5)).toBeCloseTo(4 / 3, 12);
+  });
+
   it("is clamped to 100 at a sharp corner and to at least 1", () => {
     const thin = createWindow({ outer: [[0, 0], [100, 0], [0, 0.01]] });
     expect(isotropicWeight(thin, 0.001, 0.001, 50)).toBe(100);
