@@ -54,6 +54,9 @@ export interface RunOptions {
   pool?: SimulationPool | null;
 }
 
+/** Finds × simulations below which a run stays in the calling thread unless `workers` is given. */
+export const SMALL_RUN = 100_000;
+
 async function runOne(ctx: RunContext, t: TestSpec): Promise<Omit<TestResult, "options" | "level" | "seed" | "cautions">> {
   if (t.type === "clark-evans" || t.type === "quadrat") return classicTest(ctx, t);
   let curves: EnvelopeOutcome;
@@ -71,7 +74,9 @@ async function runOne(ctx: RunContext, t: TestSpec): Promise<Omit<TestResult, "o
 export async function runDistributionTest(input: unknown, options: RunOptions = {}): Promise<RunResult> {
   const spec: RunSpec = parseRunSpec(input);
   const window = createWindow(spec.window);
-  const threads = spec.workers ?? defaultThreads();
+  // Starting worker threads costs more than a small run itself; the numbers are the same either way.
+  const small = spec.points.length * spec.nsim < SMALL_RUN;
+  const threads = spec.workers ?? (small ? 0 : defaultThreads());
   const ownPool = options.pool === undefined && threads > 0 ? createSimulationPool({ threads }) : null;
   const pool = options.pool ?? ownPool;
   const results: TestResult[] = [];
