@@ -150,12 +150,15 @@ export function isotropicPairWeights(
 ): Float64Array {
   const data = isotropicEdgeData(window, x, y, n, rmax);
   const w = out && out.length >= 2 * pairs.count ? out : new Float64Array(2 * pairs.count);
+  const { bdist, total } = data;
+  const pi = pairs.i, pj = pairs.j, pd = pairs.d;
   for (let p = 0; p < pairs.count; p++) {
-    const d = pairs.d[p];
-    const i = pairs.i[p];
-    const j = pairs.j[p];
-    w[2 * p] = isotropicWeightAt(data, i, d);
-    w[2 * p + 1] = isotropicWeightAt(data, j, d);
+    const d = pd[p];
+    const i = pi[p];
+    const j = pj[p];
+    // the common case, a circle wholly inside W, without a call
+    w[2 * p] = d <= bdist[i] && total[i] === TWO_PI ? 1 : isotropicWeightAt(data, i, d);
+    w[2 * p + 1] = d <= bdist[j] && total[j] === TWO_PI ? 1 : isotropicWeightAt(data, j, d);
   }
   return w;
 }
