@@ -6,7 +6,7 @@ import Link from "next/link";
 export type RegisterRow = {
   id: string; number: number; x: number; y: number; z: number | null; count: number | null; weightG: number | null; description: string; method: string;
   recordedAt: string; recordedBy: string | null; trenchId: string; trenchCode: string; contextId: string; contextNumber: number; contextState: string;
-  classId: string; classCode: string; classLabel: string; classColour: string;
+  classId: string; classCode: string; classLabel: string; classColour: string; classSymbol: string;
 };
 
 const lockWords: Record<string, string> = { signed_off: "its context is signed off", awaiting: "its context awaits sign-off" };

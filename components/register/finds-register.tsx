@@ -6,6 +6,8 @@ import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
 import { apiFetch } from "./api-fetch";
+import { ClassMark } from "./class-mark";
+import { Fragment } from "react";
 import { FindPanel, type RegisterRow } from "./find-panel";
 import { RegisterFilters, type RegisterOptions } from "./register-filters";
 import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
@@ -18,7 +20,7 @@ const columns: ColumnDef<RegisterRow>[] = [
   { id: "number", header: "Find", cell: (c) => <span className="font-bold">{c.row.original.number}</span> },
   { id: "trench", header: "Trench", cell: (c) => c.row.original.trenchCode },
   { id: "context", header: "Context", cell: (c) => c.row.original.contextNumber },
-  { id: "class", header: "Class", cell: (c) => <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm align-middle" style={{ background: c.row.original.classColour }} />{c.row.original.classCode}</span> },
+  { id: "class", header: "Class", cell: (c) => <span><ClassMark symbol={c.row.original.classSymbol} colour={c.row.original.classColour} />{c.row.original.classCode}</span> },
   { id: "x", header: "x (m)", cell: (c) => metres(c.row.original.x) },
   { id: "y", header: "y (m)", cell: (c) => metres(c.row.original.y) },
   { id: "z", header: "z (m)", cell: (c) => metres(c.row.original.z) },
@@ -57,7 +59,6 @@ export function FindsRegister({ siteId, options, canImport }: { siteId: string; 
   });
   const sortBy = (id: string) => go({ sort: id, dir: view.sort === id && view.dir !== "desc" ? "desc" : "asc", page: "" });
   const exportQs = viewQuery(view, ["page", "pageSize"]);
-  const open = data.data?.rows.find((r) => r.id === openId);
 
   return (
     <div className="space-y-3">
@@ -95,22 +96,30 @@ export function FindsRegister({ siteId, options, canImport }: { siteId: string; 
           </thead>
           <tbody>
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`} onClick={() => setOpenId(row.id === openId ? null : row.id)}>
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className={numeric.has(cell.column.id) ? "num" : ""}>
-                    {cell.column.id === "number" ? (
-                      <button type="button" className="min-h-11 font-bold underline" aria-expanded={row.id === openId} onClick={(e) => { e.stopPropagation(); setOpenId(row.id === openId ? null : row.id); }}>
-                        {row.original.number}
-                      </button>
-                    ) : flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
-                ))}
-              </tr>
+              <Fragment key={row.id}>
+                <tr className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`} onClick={() => setOpenId(row.id === openId ? null : row.id)}>
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className={numeric.has(cell.column.id) ? "num" : ""}>
+                      {cell.column.id === "number" ? (
+                        <button type="button" className="min-h-11 font-bold underline" aria-expanded={row.id === openId} onClick={(e) => { e.stopPropagation(); setOpenId(row.id === openId ? null : row.id); }}>
+                          {row.original.number}
+                        </button>
+                      ) : flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+                {row.id === openId && (
+                  <tr>
+                    <td colSpan={columns.length} className="bg-paper-deep p-2">
+                      <FindPanel siteId={siteId} find={row.original} onClose={() => setOpenId(null)} />
+                    </td>
+                  </tr>
+                )}
+              </Fragment>
             ))}
           </tbody>
         </table>
       </div>
-      {open && <FindPanel siteId={siteId} find={open} onClose={() => setOpenId(null)} />}
       <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
         <button type="button" className="btn" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>← Previous</button>
         <button type="button" className="btn" disabled={page >= pages} onClick={() => go({ page: String(page + 1) })}>Next →</button>

@@ -144,6 +144,7 @@ function registerQuery(db: Db, siteId: string, q: FindFilters) {
       classCode: artefactClasses.code,
       classLabel: artefactClasses.label,
       classColour: artefactClasses.colour,
+      classSymbol: artefactClasses.symbol,
     })
     .from(finds)
     .innerJoin(contexts, eq(contexts.id, finds.contextId))

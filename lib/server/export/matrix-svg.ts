@@ -17,8 +17,8 @@ const stateMarks: Record<string, string> = { open: "", awaiting: " · awaiting",
 
 /**
  * Lays the matrix out with dagre (the layered Sugiyama-style layout of Gansner et al. 1993), latest
- * contexts at the top, and draws it as a standalone SVG. Redundant relations stay in the drawing as
- * dashed lines; they weigh nothing in the layout so they do not pull the layers about.
+ * contexts at the top, and draws it as a standalone SVG. The layout sees only the transitive reduction;
+ * redundant relations are added afterwards as dashed curves, so they do not pull the layers about.
  * `linkOf` gives the sheet address of each context (omit for a downloaded file).
  */
 export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?: (contextId: string) => string): MatrixDrawing {
@@ -26,17 +26,28 @@ export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?:
   g.setGraph({ rankdir: "TB", nodesep: 28, ranksep: 44, marginx: pad, marginy: pad });
   g.setDefaultEdgeLabel(() => ({}));
   for (const n of matrix.nodes) g.setNode(n.key, { width: Math.max(72, n.label.length * charW + 28), height: boxH });
+  // Only the relations the matrix needs take part in the layout; redundant ones are drawn on top.
   matrix.edges.forEach((e, i) => {
-    if (e.from !== e.to) g.setEdge(e.from, e.to, { weight: e.redundant ? 0 : 1, minlen: 1 }, `e${i}`);
+    if (e.from !== e.to && !e.redundant) g.setEdge(e.from, e.to, { weight: 1, minlen: 1 }, `e${i}`);
   });
   dagre.layout(g);
   const { width = 0, height = 0 } = g.graph();
   const parts: string[] = [];
   matrix.edges.forEach((e, i) => {
     if (e.from === e.to) return;
-    const pts: { x: number; y: number }[] = g.edge({ v: e.from, w: e.to, name: `e${i}` })?.points ?? [];
-    if (pts.length < 2) return;
-    const d = pts.map((p, k) => `${k ? "L" : "M"}${p.x.toFixed(1)},${p.y.toFixed(1)}`).join(" ");
+    let d: string;
+    if (e.redundant) {
+      // A dashed curve bowed to one side, from the bottom of the later box to the top of the earlier one.
+      const a = g.node(e.from);
+      const b = g.node(e.to);
+      const [x1, y1, x2, y2] = [a.x, a.y + a.height / 2, b.x, b.y - b.height / 2];
+      const bow = Math.max(a.width, b.width) / 2 + 18;
+      d = `M${x1.toFixed(1)},${y1.toFixed(1)} C${(x1 - bow).toFixed(1)},${(y1 + 30).toFixed(1)} ${(x2 - bow).toFixed(1)},${(y2 - 30).toFixed(1)} ${x2.toFixed(1)},${y2.toFixed(1)}`;
+    } else {
+      const pts: { x: number; y: number }[] = g.edge({ v: e.from, w: e.to, name: `e${i}` })?.points ?? [];
+      if (pts.length < 2) return;
+      d = pts.map((p, k) => `${k ? "L" : "M"}${p.x.toFixed(1)},${p.y.toFixed(1)}`).join(" ");
+    }
     const style = e.redundant ? `stroke="${faint}" stroke-dasharray="5 4"` : `stroke="${ink}"`;
     parts.push(`<path d="${d}" fill="none" stroke-width="1.5" ${style} marker-end="url(#${e.redundant ? "tip-faint" : "tip"})"><title>${e.redundant ? "redundant: " : ""}${esc(e.relation.kind)}</title></path>`);
   });
