@@ -129,7 +129,11 @@ export default function PlanCanvas(p: Props) {
 
   const onDown = (e: React.PointerEvent) => {
     if (e.button !== 0 && e.pointerType === "mouse" && e.button !== 1) return;
-    box.current!.setPointerCapture(e.pointerId);
+    try {
+      box.current!.setPointerCapture(e.pointerId);
+    } catch {
+      // Synthetic pointers (scripts, some styluses) cannot be captured; the gesture still works.
+    }
     const s = local(e);
     pointers.current.set(e.pointerId, s);
     if (pointers.current.size === 2) return startPinch();
@@ -229,6 +233,7 @@ export default function PlanCanvas(p: Props) {
         latest.current.onPointer(null);
       }}
       data-testid="plan-canvas"
+      data-view={JSON.stringify(view)}
     >
       <Stage width={width} height={height} listening={false}>
         <Layer listening={false}>
@@ -246,7 +251,15 @@ export default function PlanCanvas(p: Props) {
           />
         </Layer>
         <Layer listening={false}>
-          <Shape listening={false} perfectDrawEnabled={false} sceneFunc={(ctx) => drawFinds(native(ctx), view, p.finds, p.classes, width, height, moved)} />
+          <Shape
+            listening={false}
+            perfectDrawEnabled={false}
+            sceneFunc={(ctx) => {
+              drawFinds(native(ctx), view, p.finds, p.classes, width, height, moved);
+              // For the benchmark (scripts/bench-plan.ts): the first frame with finds on the plan.
+              if (p.finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: p.finds.length });
+            }}
+          />
         </Layer>
         <Layer listening={false}>
           <Shape

@@ -295,7 +295,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const shownRings = tool === "outline" || tool === "draw" || tool === "hole" || dirty ? rings : savedRings;
 
   return (
-    <div className="flex flex-col lg:h-[calc(100vh-7.5rem)] lg:flex-row">
+    <div className="flex flex-col lg:h-[max(30rem,calc(100vh-16.5rem))] lg:flex-row">
       <section className="flex min-h-[58vh] flex-1 flex-col lg:min-h-0" aria-label={`Plan of trench ${trench.code}`}>
         <PlanToolbar tool={tool} onTool={chooseTool} canEdit={canEdit} onZoomTrench={zoomToTrench} onZoom={(f) => view && setView(zoomAt(view, f, size.width / 2, size.height / 2))} onUndo={() => void undo()} undoLabel={top} onHelp={() => setPanel("help")} />
         <p className="border-b border-paper-edge bg-paper-deep px-3 py-1 text-sm" aria-live="polite" data-testid="tool-hint">{toolHint(tool)}</p>

@@ -1,0 +1,108 @@
+/**
+ * `npm run bench:plan`: the trench plan with 5,000 finds in Chromium (playwright-core + Debian chromium).
+ * Starts the built app with its own seeded data folder, imports 5,000 finds into one new trench through
+ * the total-station import, then measures
+ *   - first paint: navigation start → the first frame with every find drawn (a performance mark the
+ *     canvas sets), finds fetched over the JSON API included;
+ *   - frame time while panning and while zooming: one synthetic pointer or wheel event per frame, frame
+ *     rate limit off, so each requestAnimationFrame interval is the frame's whole cost.
+ * Prints a markdown table. Not a test: the figures depend on the machine.
+ */
+import path from "node:path";
+import { rmSync } from "node:fs";
+import { chromium } from "playwright-core";
+import { ensureBuilt, startStack } from "./stack";
+
+const N = Number(process.env.BENCH_FINDS ?? 5000);
+const RUNS = Number(process.env.BENCH_RUNS ?? 3);
+const port = Number(process.env.BENCH_PORT ?? 3390);
+
+/** Seeded points inside a 40 × 30 m trench with a 6 × 4 m baulk (Park–Miller minimal standard LCG). */
+function points(n: number) {
+  let s = 20261201;
+  const rnd = () => (s = (s * 48271) % 2147483647) / 2147483647;
+  const out: [number, number][] = [];
+  while (out.length < n) {
+    const x = rnd() * 40;
+    const y = rnd() * 30;
+    if (x > 17 && x < 23 && y > 13 && y < 17) continue;
+    out.push([Number(x.toFixed(3)), Number(y.toFixed(3))]);
+  }
+  return out;
+}
+
+const median = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
+const p95 = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(a.length * 0.95)];
+
+ensureBuilt();
+const dataDir = path.join(".tmp", "bench-plan");
+rmSync(dataDir, { recursive: true, force: true });
+const stack = await startStack({ port, dataDir, quiet: true });
+const browser = await chromium.launch({
+  executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+  headless: true,
+  args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-frame-rate-limit", "--disable-gpu-vsync"],
+});
+try {
+  const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
+  const page = await context.newPage();
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill("director@loamwork.test");
+  await page.getByLabel("Password").fill("matrix-director-3");
+  await page.getByRole("button", { name: "Open my notebook" }).click();
+  await page.waitForURL("**/sites");
+  const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
+  const outline = { type: "Polygon", coordinates: [[[0, 0], [40, 0], [40, 30], [0, 30], [0, 0]], [[17, 13], [23, 13], [23, 17], [17, 17], [17, 13]]] };
+  const trench = await (await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code: "BENCH", name: "Benchmark", outline } })).json();
+  for (const n of [9001, 9002, 9003]) await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number: n, type: "deposit" } });
+  const classes = ((await (await page.request.get(`/api/sites/${site.id}/classes`)).json()) as { code: string }[]).map((c) => c.code);
+  const csv = ["x,y,class,context", ...points(N).map(([x, y], i) => `${x},${y},${classes[i % classes.length]},${9001 + (i % 3)}`)].join("\n");
+  const imported = await page.request.post(`/api/sites/${site.id}/import`, { data: { csv, fileName: "bench.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } }, timeout: 300_000 });
+  if (imported.status() !== 201) throw new Error(`import failed: ${imported.status()} ${await imported.text()}`);
+
+  const rows: string[][] = [];
+  for (let run = 1; run <= RUNS; run++) {
+    await page.goto(`/sites/${site.id}/trenches/${trench.id}`);
+    await page.waitForFunction(() => performance.getEntriesByName("loamwork-plan-finds").length > 0, undefined, { timeout: 60_000 });
+    const firstPaint = await page.evaluate(() => {
+      const m = performance.getEntriesByName("loamwork-plan-finds")[0] as PerformanceMark;
+      return { at: m.startTime, finds: m.detail as number };
+    });
+    const frames = await page.evaluate(async () => {
+      const el = document.querySelector("[data-testid=plan-canvas]") as HTMLElement;
+      const r = el.getBoundingClientRect();
+      const cx = r.left + r.width / 2;
+      const cy = r.top + r.height / 2;
+      const opts = (x: number, y: number) => ({ pointerId: 7, clientX: x, clientY: y, button: 0, buttons: 1, bubbles: true, pointerType: "mouse", isPrimary: true });
+      const run = (steps: number, act: (i: number) => void) =>
+        new Promise<number[]>((resolve) => {
+          const times: number[] = [];
+          let last = 0;
+          let i = 0;
+          const frame = () => {
+            const now = performance.now();
+            if (i > 0) times.push(now - last);
+            last = now;
+            if (i === steps) return resolve(times);
+            act(i++);
+            requestAnimationFrame(frame);
+          };
+          requestAnimationFrame(frame);
+        });
+      el.dispatchEvent(new PointerEvent("pointerdown", opts(cx, cy)));
+      const pan = await run(240, (i) => el.dispatchEvent(new PointerEvent("pointermove", opts(cx + 200 * Math.sin(i / 20), cy + 120 * Math.cos(i / 25)))));
+      el.dispatchEvent(new PointerEvent("pointerup", opts(cx, cy)));
+      const zoom = await run(240, (i) => el.dispatchEvent(new WheelEvent("wheel", { deltaY: i % 60 < 30 ? -40 : 40, clientX: cx, clientY: cy, bubbles: true, cancelable: true })));
+      return { pan, zoom };
+    });
+    rows.push([String(run), String(firstPaint.finds), firstPaint.at.toFixed(0), median(frames.pan).toFixed(2), p95(frames.pan).toFixed(2), median(frames.zoom).toFixed(2), p95(frames.zoom).toFixed(2)]);
+  }
+  const version = browser.version();
+  console.log(`\nTrench plan, ${N} finds, Chromium ${version}, 1366 × 900, ${RUNS} runs\n`);
+  console.log("| run | finds drawn | first paint (ms) | pan median (ms) | pan p95 (ms) | zoom median (ms) | zoom p95 (ms) |");
+  console.log("| --- | --- | --- | --- | --- | --- | --- |");
+  for (const r of rows) console.log(`| ${r.join(" | ")} |`);
+} finally {
+  await browser.close();
+  await stack.stop();
+}
