@@ -11,8 +11,8 @@ export default defineConfig({
   test: {
     include: ["lib/**/*.test.ts", "tests/**/*.test.ts"],
     exclude: ["tests/e2e/**", "node_modules/**"],
-    testTimeout: 30_000,
-    hookTimeout: 60_000,
+    testTimeout: 60_000,
+    hookTimeout: 120_000,
     pool: "forks",
     setupFiles: ["tests/support/pg-per-file.ts"],
     env: { LOAMWORK_DATA_DIR: "memory", NODE_ENV: "test" },

@@ -1,9 +1,16 @@
-import { vi } from "vitest";
+import { beforeAll, vi } from "vitest";
+import { getDb } from "@/db/client";
 
 /** The user the mocked session reports; null = signed out. Set by each test. */
 export const session = { userId: null as string | null };
 
 vi.mock("@/lib/server/session", () => ({ currentUserId: async () => session.userId }));
+
+// Open and migrate the database before the first test, under the hook timeout, so a loaded machine's slow
+// start is not charged to whichever test happens to run first.
+beforeAll(async () => {
+  await getDb();
+}, 120_000);
 
 type RouteModule = Record<string, (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>>;
 
