@@ -53,6 +53,8 @@ describe("mail templates: the text and HTML forms say the same thing", () => {
     expect(re.subject).toBe("WHD26: context 1005 reopened — Two finds belong to 1004.");
     expect(re.text).toContain("Imogen reopened the signed-off context 1005");
     expect(re.html).toContain("See the section drawing.");
+    const long = contextReopenedMail({ ...base, from: "signed_off", reason: "The subsoil boundary was drawn ten centimetres too high; re-check the section." });
+    expect(long.subject).toBe("WHD26: context 1005 reopened — The subsoil boundary was drawn ten centimetres too high; re…");
     const ret = contextReopenedMail({ ...base, from: "awaiting" });
     expect(ret.subject.startsWith("WHD26: context 1005 returned")).toBe(true);
     expect(ret.text).toContain("returned the context submitted for sign-off 1005");
