@@ -103,6 +103,19 @@ describe("kFunction", () => {
     );
   });
 
+  it("does not depend on where the site grid puts the trench (national-grid offsets)", () => {
+    const outer: [number, number][] = [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]];
+    const hole: [number, number][] = [[6, 1], [8, 1], [8, 2.5], [6, 2.5]];
+    const pts = { x: [1, 2.5, 3, 7, 9, 1.5, 3.2, 5, 2, 0.4], y: [1, 2, 8, 3, 1, 6, 3.1, 0.5, 9.5, 4] };
+    const [ex, ny] = [451234.5, 6123456.25];
+    const shift = (r: [number, number][]) => r.map(([x, y]) => [x + ex, y + ny] as [number, number]);
+    const rr = Array.from({ length: 17 }, (_, k) => (k * 2) / 16);
+    const corr = ["isotropic", "translation", "border"] as const;
+    const local = kFunction(createWindow({ outer, holes: [hole] }), pts, { r: rr, correction: [...corr] });
+    const far = kFunction(createWindow({ outer: shift(outer), holes: [shift(hole)] }), { x: pts.x.map((v) => v + ex), y: pts.y.map((v) => v + ny) }, { r: rr, correction: [...corr] });
+    for (const c of corr) local.K[c]!.forEach((v, k) => expect(far.K[c]![k]).toBeCloseTo(v, 6));
+  });
+
   it("refuses bad input with a message naming the problem", () => {
     const w = rectangleWindow(0, 0, 10, 10);
     expect(() => kFunction(w, { x: [1], y: [1] })).toThrow(/has 1 point\(s\); this test needs at least 2/);

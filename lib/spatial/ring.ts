@@ -23,13 +23,17 @@ export function cleanRing(ring: Ring, label: string): Ring {
   return out;
 }
 
-/** Signed area by the shoelace formula: positive for counter-clockwise rings. */
+/**
+ * Signed area by the shoelace formula: positive for counter-clockwise rings. Taken relative to the first
+ * vertex, so that national-grid coordinates (hundreds of kilometres) lose no precision to cancellation.
+ */
 export function signedArea(ring: Ring): number {
+  const [ox, oy] = ring[0];
   let s = 0;
   for (let k = 0, m = ring.length; k < m; k++) {
     const a = ring[k];
     const b = ring[(k + 1) % m];
-    s += a[0] * b[1] - b[0] * a[1];
+    s += (a[0] - ox) * (b[1] - oy) - (b[0] - ox) * (a[1] - oy);
   }
   return s / 2;
 }

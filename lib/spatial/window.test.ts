@@ -36,6 +36,13 @@ describe("createWindow", () => {
     expect(w.area).toBeCloseTo(62, 12);
   });
 
+  it("keeps full precision in national-grid coordinates", () => {
+    // The 10 × 4 + 4 × 6 L-shape moved to easting 451 234.5, northing 6 123 456.25: area still 64.
+    const far = createWindow({ outer: ell.map(([x, y]) => [x + 451234.5, y + 6123456.25] as [number, number]) });
+    expect(far.area).toBeCloseTo(64, 8);
+    expect(far.perimeter).toBeCloseTo(40, 8);
+  });
+
   it("drops a repeated closing vertex", () => {
     const w = createWindow({ outer: [...ell, [0, 0]] });
     expect(w.outer.length).toBe(6);
