@@ -1,0 +1,95 @@
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seed-demo";
+import { messagesTo } from "@/lib/server/mail/sink-reader";
+import { newPage, openBrowser, shown, signIn } from "./support/browser";
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await openBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const mailDir = () => path.join(inject("dataDir"), "mail");
+const digger = DEMO_USERS.find((u) => u.role === "digger")!;
+const director = DEMO_USERS.find((u) => u.role === "director")!;
+
+/** Waits for the sink to hold a message to `to` whose subject contains `subject` (mail is sent after the commit). */
+async function mailTo(to: string, subject: string) {
+  for (let i = 0; i < 50; i++) {
+    const hit = messagesTo(mailDir(), to).find((m) => m.subject.includes(subject));
+    if (hit) return hit;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`no mail to ${to} with "${subject}" in the sink`);
+}
+
+/** A fresh, complete context in trench C below 3001, recorded by the digger through the JSON API. */
+async function freshContext(page: Page) {
+  const [site] = await (await page.request.get("/api/sites")).json();
+  const trenches = await (await page.request.get(`/api/sites/${site.id}/trenches`)).json();
+  const contexts = await (await page.request.get(`/api/sites/${site.id}/contexts`)).json();
+  const taken = new Set(contexts.map((c: { number: number }) => c.number));
+  let number = 3500;
+  while (taken.has(number)) number++;
+  const res = await page.request.post(`/api/sites/${site.id}/contexts`, {
+    data: { trenchId: trenches.find((t: { code: string }) => t.code === "C").id, number, type: "layer", colour: "mid brown", compaction: "firm", composition: "silty sand", description: "Layer under the topsoil.", interpretation: "Subsoil." },
+  });
+  expect(res.status()).toBe(201);
+  const ctx = await res.json();
+  const top = contexts.find((c: { number: number }) => c.number === 3001);
+  expect((await page.request.post(`/api/sites/${site.id}/relations`, { data: { contextId: ctx.id, reading: "below", otherId: top.id } })).status()).toBe(201);
+  return { siteId: site.id as string, contextId: ctx.id as string, number };
+}
+
+describe("sign-off in the browser", () => {
+  it("a digger submits, the director signs off, the digger cannot edit, the director reopens with a reason and the digger is told", async () => {
+    const d = await newPage(browser);
+    await signIn(d, "digger");
+    const { siteId, contextId, number } = await freshContext(d);
+
+    await d.goto(`/sites/${siteId}/sign-off`);
+    await d.getByRole("button", { name: `Submit ${number} for sign-off` }).click();
+    await shown(d.getByText(/e-mail\(s\) sent/));
+    await shown(d.locator(`tr[data-context="${number}"]`).getByText("awaiting sign-off"));
+    expect((await mailTo(director.email, `context ${number} awaits your sign-off`)).text).toContain(`/sites/${siteId}/sign-off`);
+
+    const boss = await newPage(browser);
+    await signIn(boss, "director");
+    await boss.goto(`/sites/${siteId}/sign-off`);
+    await boss.getByRole("button", { name: `Sign off ${number}` }).click();
+    await shown(boss.getByText(/e-mail\(s\) sent/));
+    await mailTo(digger.email, `context ${number} signed off`);
+
+    // The sheet is shown read-only with who signed it off, and the server refuses an edit all the same.
+    await d.goto(`/sites/${siteId}/contexts/${contextId}`);
+    await shown(d.getByText(`Signed off by ${director.name}`));
+    expect(await d.getByLabel("Colour").count()).toBe(0);
+    const refused = await d.request.patch(`/api/sites/${siteId}/contexts/${contextId}`, { data: { colour: "dark brown" } });
+    expect(refused.status()).toBe(409);
+    expect((await refused.json()).error).toContain(`Context ${number} was signed off by ${director.name}`);
+    await d.goto(`/sites/${siteId}/sign-off`);
+    expect(await d.getByRole("button", { name: `Reopen ${number}…` }).count()).toBe(0);
+
+    const reason = "The subsoil boundary was planned 10 cm too high; re-check against the section.";
+    await boss.goto(`/sites/${siteId}/sign-off`);
+    await boss.getByRole("button", { name: `Reopen ${number}…` }).click();
+    await boss.getByLabel(`Why reopen context ${number}?`, { exact: false }).fill(reason);
+    await boss.getByRole("button", { name: "Reopen with this reason" }).click();
+    await shown(boss.getByText(/e-mail\(s\) sent/));
+
+    const told = await mailTo(digger.email, `context ${number} reopened`);
+    expect(told.text).toContain(`> ${reason}`);
+    const link = told.text.match(/https?:\/\/\S+\/contexts\/[0-9a-f-]{36}/)?.[0];
+    expect(link).toBe(`${new URL(d.url()).origin}/sites/${siteId}/contexts/${contextId}`);
+    await d.goto(link!);
+    await shown(d.getByLabel("Colour"));
+    await shown(d.getByText(reason));
+    await d.context().close();
+    await boss.context().close();
+  });
+});
