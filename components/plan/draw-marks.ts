@@ -43,7 +43,7 @@ export function drawPlacing(c: CanvasRenderingContext2D, v: View, p: Pt) {
   c.restore();
 }
 
-export function drawRefused(c: CanvasRenderingContext2D, v: View, r: Refused) {
+export function drawRefused(c: CanvasRenderingContext2D, v: View, r: Refused, width: number) {
   const [sx, sy] = toScreen(v, ...r.at);
   const [nx, ny] = toScreen(v, ...r.nearest);
   c.save();
@@ -65,11 +65,13 @@ export function drawRefused(c: CanvasRenderingContext2D, v: View, r: Refused) {
   const text = `outside by ${formatMetres(r.distance)}`;
   c.font = "700 14px var(--font-mono), ui-monospace, monospace";
   const tw = c.measureText(text).width;
+  // Keep the label on the canvas: to the left of the mark when the mark is near the right edge.
+  const left = sx + 14 + tw + 12 > width ? sx - 14 - tw - 12 : sx + 14;
   c.fillStyle = WARN;
-  c.fillRect(sx + 14, sy - 12, tw + 12, 24);
+  c.fillRect(left, sy - 12, tw + 12, 24);
   c.fillStyle = "#fff";
   c.textBaseline = "middle";
-  c.fillText(text, sx + 20, sy);
+  c.fillText(text, left + 6, sy);
   c.restore();
 }
 

@@ -7,7 +7,7 @@ import { openSymbols, traceSymbol } from "./symbols";
 export const INK = "#1b130c";
 export const WARN = "#b8400f";
 export const ACCENT = "#1d5c8c";
-export const FIND_R = 7;
+export const FIND_R = 8;
 
 export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: number, hasPhoto: boolean) {
   const g = gridLines(v, w, h);

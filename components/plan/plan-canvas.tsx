@@ -271,7 +271,7 @@ export default function PlanCanvas(p: Props) {
               if (editing) drawVertices(c, view, p.rings, p.selectedVertex);
               if (drawingRing) drawDrawing(c, view, p.drawing, pointer);
               if (p.placing) drawPlacing(c, view, p.placing);
-              if (p.refused) drawRefused(c, view, p.refused);
+              if (p.refused) drawRefused(c, view, p.refused, width);
               drawFitMarks(c, view, p.fitMarks);
             }}
           />
