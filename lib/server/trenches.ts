@@ -7,6 +7,7 @@ import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
 import type { Window } from "@/lib/spatial/types";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
+import { assertContextsWritable } from "./locks";
 import type { SiteActor } from "./membership";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
@@ -46,18 +47,17 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
     const before = await getTrench(tx, actor.site.id, trenchId);
     if (window) {
       const placed = await tx
-        .select({ number: finds.number, x: finds.x, y: finds.y, state: contexts.state, context: contexts.number })
+        .select({ number: finds.number, x: finds.x, y: finds.y, contextId: finds.contextId })
         .from(finds)
-        .innerJoin(contexts, eq(contexts.id, finds.contextId))
         .where(eq(finds.trenchId, trenchId));
       const outside = placed.filter((f) => !window.contains(f.x, f.y));
       if (outside.length) {
-        const locked = outside.filter((f) => f.state === "signed_off");
+        // Finds of a locked context cannot be stranded at all: that refusal names who locked it and when.
+        await assertContextsWritable(tx, outside.map((f) => f.contextId), "changed by moving the trench outline past its finds");
         const names = outside.slice(0, 5).map((f) => f.number).join(", ");
         throw conflict(
-          `The new outline would leave ${outside.length} find(s) outside the trench (find ${names}${outside.length > 5 ? ", …" : ""})` +
-            (locked.length ? `, ${locked.length} of them in signed-off contexts` : "") +
-            ". Move those finds first or draw the outline around them.",
+          `The new outline would leave ${outside.length} find(s) outside the trench (find ${names}${outside.length > 5 ? ", …" : ""}). ` +
+            "Move those finds first or draw the outline around them.",
           { outside: outside.map((f) => f.number) },
         );
       }

@@ -81,6 +81,19 @@ describe("bad input is refused with the reason and changes nothing", () => {
     expect(res.status).toBe(409);
     expect(res.json.error).toMatch(/leave 1 find\(s\) outside/);
   });
+
+  it("names who signed off a context whose finds an outline change would strand", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 9, y: 5 });
+    const db = await getDb();
+    await db.update(schema.contexts).set({ state: "signed_off", signedOffBy: fx.people.director.id, signedOffAt: new Date("2026-07-14T09:30:00Z") }).where(eq(schema.contexts.id, fx.context.id));
+    const before = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
+    const res = await call(trenchRoute, "PATCH", { siteId: fx.site.id, trenchId: fx.trench.id }, { outline: { type: "Polygon", coordinates: [ring([[0, 0], [5, 0], [5, 5], [0, 5]])] } });
+    expect(res.status).toBe(409);
+    expect(res.json.error).toContain(`Context ${fx.context.number} was signed off by Director on 2026-07-14 09:30 UTC`);
+    expect(await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id))).toEqual(before);
+  });
 });
 
 describe("OpenAPI document", () => {
