@@ -8,7 +8,7 @@
  */
 import { createCellGrid } from "./cell-grid";
 import { createIsotropicWeights, weightFrom } from "./isotropic-weights";
-import { createBinning } from "./r-grid";
+import { createBinning, isAxisRectangle } from "./r-grid";
 import type { Window } from "./types";
 
 export interface IsotropicLEstimator {
@@ -30,6 +30,11 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
   const bin = createBinning(window, r).bin;
   const m = r.length;
   const rmax = r[m - 1];
+  // In a polygon window r-grid.ts bins by the generic rule (the smallest k with d < r[k]); on an even grid
+  // that k is guessed by one multiplication and confirmed against r, and only a failed guess (an uneven
+  // grid, d on a grid value) asks the binner. Rectangles keep their own rule through the binner.
+  const guess = !isAxisRectangle(window);
+  const inv = (m - 1) / rmax;
   // Cells of side r max / 2 with a reach of two cells: about 40 % fewer distance checks than cells of r max.
   const REACH = 2;
   const grid = createCellGrid(window.bbox, rmax / REACH);
@@ -70,8 +75,11 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
               pairs++;
               if (tables === null) continue;
               const d = Math.sqrt(dd);
-              const w = weightFrom(bd, st, sl, tot, p, d) + weightFrom(bd, st, sl, tot, q, d);
-              hist[bin(d)] += u ? w * su[p] * su[q] : w;
+              // most circles of the pair lie wholly inside W (weight 1): test that here, without a call
+              const w = (d <= bd[p] ? 1 : weightFrom(bd, st, sl, tot, p, d)) + (d <= bd[q] ? 1 : weightFrom(bd, st, sl, tot, q, d));
+              let b = guess ? Math.floor(d * inv) + 1 : 0;
+              if (!(b > 0 && b < m && r[b - 1] <= d && d < r[b])) b = bin(d);
+              hist[b] += u ? w * su[p] * su[q] : w;
             }
           }
         }
