@@ -26,7 +26,7 @@ export function initialForm(trenchId: string): FormState {
     classIds: [],
     clarkEvans: { on: true, correction: "monte-carlo", alternative: "two-sided" },
     quadrat: { on: false, cellSize: "1" },
-    lcsr: { on: true, statistic: "dclf", count: "fixed" },
+    lcsr: { on: true, statistic: "mad", count: "fixed" },
     pcf: { on: false },
     cross: { on: false, a: "", b: "", null: "labelling" },
     kdiff: { on: false, a: "", b: "" },

@@ -45,7 +45,7 @@ export function TestPicker({ form, set, summary }: Props) {
       <legend className="px-1 text-lg font-bold">2 · Tests</legend>
       <p className="text-xs text-ink-soft">Per class: each chosen class is tested on its own.</p>
       <Row title="Besag's L, global envelope test under CSR" source="Ripley 1977; Besag 1977; Baddeley et al. 2014" on={form.lcsr.on} onToggle={(on) => set({ lcsr: { ...form.lcsr, on } })} shortfall={short("l-csr")}>
-        <Pick label="Global test" value={form.lcsr.statistic} options={[["dclf", "DCLF (integrated)"], ["mad", "MAD (largest deviation)"]]} onChange={(statistic) => set({ lcsr: { ...form.lcsr, statistic } })} />
+        <Pick label="Global test" value={form.lcsr.statistic} options={[["mad", "MAD (largest deviation)"], ["dclf", "DCLF (integrated)"]]} onChange={(statistic) => set({ lcsr: { ...form.lcsr, statistic } })} />
         <Pick label="Simulated n" value={form.lcsr.count} options={[["fixed", "Fixed at the observed n"], ["poisson", "Poisson with mean n"]]} onChange={(count) => set({ lcsr: { ...form.lcsr, count } })} />
       </Row>
       <Row title="Clark–Evans nearest-neighbour test" source="Clark & Evans 1954; Besag & Diggle 1977" on={form.clarkEvans.on} onToggle={(on) => set({ clarkEvans: { ...form.clarkEvans, on } })} shortfall={short("clark-evans")}>

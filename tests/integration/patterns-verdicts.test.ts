@@ -48,7 +48,9 @@ beforeAll(async () => {
 });
 
 describe("verdicts on the demo site, trench A context 1005", () => {
-  it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, DCLF test under CSR; Clark–Evans in the window)", async () => {
+  // Besag's L with the workspace's default global test (MAD). Under DCLF, SHD's one seeded layout sits near
+  // the line (p ≈ 0.05–0.07 with 999 simulations, depending on the seed), so it is not asserted here.
+  it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, MAD test under CSR; Clark–Evans in the window)", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD, demo.cls.FCR] },
       tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }],

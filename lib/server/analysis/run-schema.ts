@@ -20,7 +20,8 @@ export const testSchema = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
   z.object({
     kind: z.literal("l-csr"),
-    statistic: z.enum(["mad", "dclf"]).default("dclf"),
+    /** MAD by default, as the engine and spatstat's `mad.test`; DCLF integrates over r and is often more powerful. */
+    statistic: z.enum(["mad", "dclf"]).default("mad"),
     /** fixed: the observed n in every simulation; poisson: a Poisson number with mean n (spatstat's default). */
     count: z.enum(["fixed", "poisson"]).default("fixed"),
   }),
