@@ -12,9 +12,14 @@ export function mainDepartures(deps: Departure[], rmax: number): { shown: Depart
 }
 
 /** Where the curve leaves the band and rejoins it, in words, with what it suggests about cluster size. */
-export function departureSentences(deps: Departure[], rmax: number, kind: "l" | "cross"): string[] {
+export function departureSentences(deps: Departure[], rmax: number, kind: "l" | "cross", significant = true): string[] {
   if (!deps.length) return [`The observed curve stays inside the pointwise band over the whole range 0–${fmtM(rmax)}.`];
   const { shown, minor } = mainDepartures(deps, rmax);
+  if (!significant) {
+    // Without a global rejection a crossing of the pointwise band is expected somewhere; no size is read from it.
+    const where = shown.map((d) => `${fmtM(d.from)}–${fmtM(d.to)}`).join(", ");
+    return [`The curve crosses the pointwise band ${deps.length === 1 ? "once" : `${deps.length} times`}${where ? ` (widest: ${where})` : ""}, but the global test finds no evidence: such crossings happen by chance, so no cluster size should be read from them.`];
+  }
   const lines = shown.map((d) => {
     const span = d.rejoins ? `from r = ${fmtM(d.from)} and rejoins it at ${fmtM(d.to)}` : `from r = ${fmtM(d.from)} and does not rejoin it before r max (${fmtM(rmax)})`;
     if (d.side === "above") {

@@ -51,4 +51,10 @@ describe("where the curve leaves the band", () => {
     expect(lines[0]).toContain("tends to overstate");
     expect(lines[1]).toContain("1 brief crossing");
   });
+  it("reads no cluster size from crossings when the global test found nothing", () => {
+    const lines = departureSentences([{ side: "above", from: 0.8, to: 1.1, rejoins: true }], 2, "l", false);
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toContain("no cluster size should be read");
+    expect(lines[0]).not.toContain("overstate");
+  });
 });
