@@ -1,7 +1,7 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { contexts, users, type Context } from "@/db/schema";
+import { contexts, users, type Context, type Trench } from "@/db/schema";
 import { conflict } from "./errors";
 
 /**
@@ -67,4 +67,15 @@ export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly s
     const [c] = await tx.select().from(contexts).where(eq(contexts.id, id));
     if (c) await assertContextWritable(tx, c, doing);
   }
+}
+
+/**
+ * Refuses a change to a signed-off trench as a whole (a new context in it, a redrawn outline), naming who
+ * signed it off and when. A trench is signed off when all its contexts are (sign-off.ts); reopening any of
+ * them reopens the trench.
+ */
+export async function assertTrenchWritable(tx: Db | Tx, trench: Pick<Trench, "code" | "signedOffAt" | "signedOffBy">, doing = "changed"): Promise<void> {
+  if (!trench.signedOffAt) return;
+  const who = await nameOf(tx, trench.signedOffBy, "a director");
+  throw conflict(`Trench ${trench.code} was signed off by ${who} on ${formatStamp(trench.signedOffAt)}; it cannot be ${doing} until a director reopens one of its contexts with a reason.`);
 }

@@ -32,7 +32,7 @@ describe("invitations and password reset in the browser", () => {
     const [site] = await (await boss.request.get("/api/sites")).json();
     await boss.goto(`/sites/${site.id}/members`);
     await boss.getByLabel("Invite a person by e-mail").fill(email);
-    await boss.getByLabel("As", { exact: true }).selectOption("specialist");
+    await boss.getByLabel("Invite as").selectOption("specialist");
     await boss.getByRole("button", { name: "Send invitation" }).click();
     await shown(boss.getByText(`Invitation sent to ${email}.`));
     await shown(boss.getByRole("cell", { name: email }));

@@ -1,7 +1,7 @@
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite } from "../support/fixtures";
@@ -15,16 +15,22 @@ import * as acceptRoute from "@/app/api/auth-extra/invitations/accept/route";
 import * as resetRequestRoute from "@/app/api/auth-extra/password-reset/request/route";
 import * as resetConfirmRoute from "@/app/api/auth-extra/password-reset/confirm/route";
 
+// The transport reads SMTP_URL once (lib/env.ts caches it), so the sink's address is fixed before any import.
+const mailEnv = vi.hoisted(() => {
+  const port = 20000 + Math.floor(Math.random() * 20000);
+  process.env.SMTP_URL = `smtp://127.0.0.1:${port}`;
+  process.env.APP_URL = "http://loamwork.example";
+  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
+  return { port };
+});
+
 let sink: MailSink;
 let dir: string;
 const APP = "http://loamwork.example";
 
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), "loamwork-mail-"));
-  sink = await startMailSink({ port: 0, dir });
-  process.env.SMTP_URL = sink.url;
-  process.env.APP_URL = APP;
-  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
+  sink = await startMailSink({ port: mailEnv.port, dir });
 });
 afterAll(async () => {
   await sink?.stop();

@@ -1,7 +1,7 @@
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite, makeUser } from "../support/fixtures";
@@ -15,16 +15,23 @@ import * as reopenRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/reop
 import * as queueRoute from "@/app/api/sites/[siteId]/sign-off/route";
 import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
 import { completeSheet } from "./role-cases/sign-off";
+import { assertTrenchWritable } from "@/lib/server/locks";
+
+// The transport reads SMTP_URL once (lib/env.ts caches it), so the sink's address is fixed before any import.
+const mailEnv = vi.hoisted(() => {
+  const port = 20000 + Math.floor(Math.random() * 20000);
+  process.env.SMTP_URL = `smtp://127.0.0.1:${port}`;
+  process.env.APP_URL = "http://loamwork.example";
+  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
+  return { port };
+});
 
 let sink: MailSink;
 let dir: string;
 
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), "loamwork-mail-"));
-  sink = await startMailSink({ port: 0, dir });
-  // Before the first env() read, so the app's transport points at this sink.
-  process.env.SMTP_URL = sink.url;
-  process.env.APP_URL = "http://loamwork.example";
+  sink = await startMailSink({ port: mailEnv.port, dir });
 });
 afterAll(async () => {
   await sink?.stop();
@@ -98,6 +105,7 @@ describe("submit → sign off → reopen", () => {
     expect(lock.json.trenchSignedOff).toBe(true);
     const [t] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
     expect(t.signedOffBy).toBe(fx.people.director.id);
+    await expect(assertTrenchWritable(db, t, "given new contexts")).rejects.toThrow(/^Trench A was signed off by Director on \d{4}-\d\d-\d\d \d\d:\d\d UTC; it cannot be given new contexts/);
     const [signed] = messagesTo(dir, fx.people.digger.email);
     expect(signed.subject).toBe(`${fx.site.code}: context ${fx.context.number} signed off`);
     expect(signed.text).toContain(`http://loamwork.example/sites/${fx.site.id}/contexts/${fx.context.id}`);

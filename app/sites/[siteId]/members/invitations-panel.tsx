@@ -40,7 +40,7 @@ export function InvitationsPanel({ siteId }: { siteId: string }) {
           <input id="invite-email" className="field" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
         </div>
         <div>
-          <label className="label" htmlFor="invite-role">As</label>
+          <label className="label" htmlFor="invite-role">Invite as</label>
           <select id="invite-role" className="field" value={role} onChange={(e) => setRole(e.target.value as typeof role)}>
             {roles.map((r) => <option key={r} value={r}>{r}</option>)}
           </select>

@@ -1,12 +1,14 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ClassSymbol } from "@/components/class-symbol";
+import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { SiteNav } from "@/components/site-nav";
 import { PlanFigure } from "@/components/sign-off/plan-figure";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { StateBadge } from "@/components/contexts/state-badge";
 import type { RunResult } from "@/lib/server/analysis/result-types";
 import { isPublicError } from "@/lib/server/errors";
+import { countHumanRemains } from "@/lib/server/human-remains";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { getTrench } from "@/lib/server/trenches";
 import { loadTrenchReport } from "../load-report";
@@ -23,7 +25,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const r = await loadTrenchReport(db, trench);
+  const [r, remains] = await Promise.all([loadTrenchReport(db, trench), countHumanRemains(db, siteId, trenchId)]);
   const signedCount = r.sheets.filter((s) => s.state === "signed_off").length;
   const matches = r.stampedFingerprint === r.fingerprint;
   return (
@@ -58,6 +60,8 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
           </dl>
         </header>
 
+        {remains > 0 && <HumanRemainsBanner count={remains} />}
+        {(trench.maxDepth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={trench.maxDepth!} />}
         <section className="report-section" aria-labelledby="plan-h">
           <h2 id="plan-h" className="text-2xl font-bold">Plan</h2>
           <PlanFigure outline={trench.outline} points={r.finds.map((f) => ({ x: f.x, y: f.y, symbol: f.cls?.symbol ?? "disc", colour: f.cls?.colour ?? "#000", label: `Find ${f.number}` }))} />
