@@ -62,7 +62,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
 
         {remains > 0 && <HumanRemainsBanner count={remains} />}
         {(trench.maxDepth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={trench.maxDepth!} />}
-        <section className="report-section" aria-labelledby="plan-h">
+        <section aria-labelledby="plan-h">
           <h2 id="plan-h" className="text-2xl font-bold">Plan</h2>
           <PlanFigure outline={trench.outline} points={r.finds.map((f) => ({ x: f.x, y: f.y, symbol: f.cls?.symbol ?? "disc", colour: f.cls?.colour ?? "#000", label: `Find ${f.number}` }))} />
           <ul className="mt-2 flex flex-wrap gap-4 text-sm" aria-label="Legend">
@@ -130,6 +130,9 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
             );
           })}
         </section>
+        <p className="print-footer" aria-hidden="true">
+          {actor.site.code} trench {trench.code} · {trench.signedOffAt ? `signed off by ${r.signedOffByName} on ${stamp(trench.signedOffAt)}` : "DRAFT, not signed off"} · SHA-256 {r.fingerprint.slice(0, 16)}…
+        </p>
       </main>
     </>
   );
