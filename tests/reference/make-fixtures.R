@@ -133,7 +133,10 @@ gaussian_mass_exact <- function(W, ux, uy, sigma) {
     lo <- ys[c(TRUE, FALSE)]; hi <- ys[c(FALSE, TRUE)]
     dnorm(x, ux, sigma) * sum(pnorm(hi, uy, sigma) - pnorm(lo, uy, sigma))
   }, numeric(1))
+  # beyond 10 sigma on either side the kernel's mass is below 1e-23: the x-integral stops there
+  lo <- ux - 10 * sigma; hi <- ux + 10 * sigma
   b <- sort(unique(c(seg[, 1], seg[, 3], ux)))
+  b <- sort(unique(c(pmin(pmax(b, lo), hi))))
   total <- 0
   for (k in seq_len(length(b) - 1)) {
     total <- total + integrate(slice, b[k], b[k + 1], rel.tol = 1e-13, abs.tol = 0, subdivisions = 1000L)$value
@@ -157,6 +160,9 @@ kinhom_block <- function(X, r, sigma) {
                          "integrate(rel.tol = 1e-13) over x; lambdaEdgeExact = lambdaNoEdge / edgeMassExact",
                          "(the 'uniform' edge correction of density.ppp(edge = TRUE, diggle = FALSE), without its pixels)"),
     scott = unname(bw.scott(X, isotropic = TRUE)), scottCall = "bw.scott(X, isotropic = TRUE)",
+    diggle = unname(as.numeric(bwd <- bw.diggle(X, correction = "isotropic"))),
+    diggleH = attr(bwd, "h"), diggleCV = ifelse(is.finite(attr(bwd, "cv")), attr(bwd, "cv"), NA_real_),
+    diggleCall = "bw.diggle(X, correction = 'isotropic') (nr = 512 on the default r max; h = sigma values tried, cv = criterion M)",
     iso = as.data.frame(k0$value)$iso, call = k0$call,
     isoRenormalised = as.data.frame(k1$value)$iso, callRenormalised = k1$call,
     note = paste("Kinhom iso = sum_{i != j} w_ij / (lambda_i lambda_j) / |W| over ordered pairs with d < r;",
@@ -262,6 +268,84 @@ verbatim <- function(x) {
   }
   x
 }
+# Between-class Monte Carlo tests (classes A and B), 199 simulations, isotropic correction:
+# random labelling of the fixed locations (cross-L and the K difference K_AA - K_BB, reference = mean of
+# the simulations, spatstat's leaveout = 1), and class A fixed with B replaced by n_B uniform points
+# (cross-L against the theoretical L = r).
+cross_mc_block <- function(X, r, nsim, seed) {
+  W <- Window(X)
+  XA <- split(X)$A
+  nB <- sum(marks(X) == "B")
+  env <- environment()
+  kdiff <- function(X, r, ...) {
+    KA <- Kcross(X, "A", "A", r = r, correction = "isotropic")
+    KB <- Kcross(X, "B", "B", r = r, correction = "isotropic")
+    eval.fv(KA - KB)
+  }
+  tests <- function(E, what, seedT) {
+    out <- list()
+    for (t in c("mad", "dclf")) {
+      set.seed(seedT)
+      f <- if (t == "mad") mad.test else dclf.test
+      v <- f(E, verbose = FALSE)
+      out[[t]] <- list(statistic = v$statistic[[1]], rank = v$statistic$rank, p = v$p.value,
+                       call = sprintf("set.seed(%d); %s(E, alternative = 'two.sided')", seedT, if (t == "mad") "mad.test" else "dclf.test"))
+    }
+    out$what <- what
+    out
+  }
+  # envelope() keeps no theoretical column when `simulate` is an expression, so mad.test/dclf.test would
+  # silently fall back to the mean of the simulations; the theory-referenced test is computed here from
+  # the saved simulated curves with envelopeTest's own formulas (MAD = max |L - r|,
+  # DCLF = (rmax - rmin) * mean((L - r)^2), p = rank / (nsim + 1), ties at random).
+  theory_tests <- function(E, r, seedT) {
+    obs <- E$obs
+    sims <- as.matrix(as.data.frame(attr(E, "simfuns")))[, -1, drop = FALSE]
+    out <- list()
+    for (t in c("mad", "dclf")) {
+      dev <- function(f) if (t == "mad") max(abs(f - r)) else diff(range(r)) * mean((f - r)^2)
+      tobs <- dev(obs)
+      tsim <- apply(sims, 2, dev)
+      set.seed(seedT)
+      nties <- sum(tsim == tobs)
+      rank <- sum(tobs < tsim) + 1 + (if (nties > 0) sample(1:nties, 1L) else 0)
+      out[[t]] <- list(statistic = tobs, rank = rank, p = rank / (ncol(sims) + 1),
+                       call = sprintf("%s of E$obs against r, from attr(E, 'simfuns') (envelopeTest's formulas)", t))
+    }
+    out
+  }
+  set.seed(seed + 1)
+  E1 <- run(envelope(X, Lcross, i = "A", j = "B", r = r, correction = "isotropic", nsim = nsim,
+                     simulate = expression(rlabel(X)), envir.simul = env, savefuns = TRUE, verbose = FALSE))
+  set.seed(seed + 2)
+  E2 <- run(envelope(X, kdiff, r = r, nsim = nsim, simulate = expression(rlabel(X)), envir.simul = env,
+                     savefuns = TRUE, verbose = FALSE))
+  set.seed(seed + 3)
+  E3 <- run(envelope(X, Lcross, i = "A", j = "B", r = r, correction = "isotropic", nsim = nsim,
+                     simulate = expression(superimpose(A = XA, B = runifpoint(nB, W))), envir.simul = env,
+                     savefuns = TRUE, verbose = FALSE))
+  list(
+    nsim = nsim, seed = seed,
+    labellingCrossL = c(tests(E1$value, "Lcross(A, B) under random labelling, reference = mean of simulations", seed + 11),
+                        list(envelopeCall = paste("set.seed(seed + 1);", E1$call))),
+    labellingKDiff = c(tests(E2$value, "K_AA - K_BB under random labelling, reference = mean of simulations", seed + 12),
+                       list(envelopeCall = paste("set.seed(seed + 2);", E2$call,
+                                                 "with kdiff = eval.fv(Kcross(X, 'A', 'A', r, 'isotropic') - Kcross(X, 'B', 'B', r, 'isotropic'))"))),
+    fixedACrossL = c(theory_tests(E3$value, r, seed + 13),
+                     list(what = "Lcross(A, B) with A fixed and B = runifpoint(nB, W), reference = theoretical L = r",
+                          envelopeCall = paste("set.seed(seed + 3);", E3$call)))
+  )
+}
+
+# Clark-Evans Monte Carlo test with n fixed (spatstat uses simulation when nsim is given).
+ce_mc_block <- function(X, nsim, seed) {
+  set.seed(seed)
+  t <- run(clarkevans.test(X, correction = "none", alternative = "two.sided", nsim = nsim))
+  list(nsim = nsim, seed = seed, R = unname(t$value$statistic), p = t$value$p.value,
+       call = paste("set.seed(seed);", t$call),
+       note = "p = min(1, 2 min(p_lower, p_upper)), p_upper = (1 + #{R_sim >= R}) / (nsim + 1), CSR with n fixed.")
+}
+
 write_fixture <- function(name, obj) {
   path <- file.path(out_dir, paste0(name, ".json"))
   write_json(verbatim(obj), path, json_verbatim = TRUE, auto_unbox = TRUE, pretty = TRUE, na = "null")
@@ -291,10 +375,16 @@ pattern_fixture <- function(name, windowName, X, generator, seed, r, mc) {
     pcf = pcf_block(X, r),
     Kinhom = kinhom_block(X, r, sigma = 1)
   )
-  if (is.marked(X)) fx$cross <- cross_block(X, r)
+  kd <- Kest(X, correction = "isotropic")
+  fx$defaultR <- list(rmax = max(kd$r), count = length(kd$r), call = "Kest(X, correction = 'isotropic')$r (spatstat's default grid)")
+  if (is.marked(X)) {
+    fx$cross <- cross_block(X, r)
+    fx$crossMonteCarlo <- cross_mc_block(X, r, nsim = 199, seed = seed + 300)
+  }
   if (mc) {
     fx$monteCarlo <- list(poissonN = mc_block(unmark(X), r, nsim = 199, seed = seed + 100, fix.n = FALSE),
-                          fixedN = mc_block(unmark(X), r, nsim = 199, seed = seed + 200, fix.n = TRUE))
+                          fixedN = mc_block(unmark(X), r, nsim = 199, seed = seed + 200, fix.n = TRUE),
+                          clarkEvans = ce_mc_block(unmark(X), nsim = 199, seed = seed + 400))
   }
   write_fixture(name, fx)
 }
@@ -401,7 +491,8 @@ for (dname in names(datasets)) {
     r = r_unit,
     K = list(iso = kd$iso, border = kd$border, L = list(iso = sqrt(kd$iso / pi), border = sqrt(kd$border / pi)),
              call = K$call),
-    monteCarlo = list(poissonN = mc_block(XU, r_unit, nsim = 199, seed = seed, fix.n = FALSE))
+    monteCarlo = list(poissonN = mc_block(XU, r_unit, nsim = 199, seed = seed, fix.n = FALSE),
+                      clarkEvans = ce_mc_block(XU, nsim = 199, seed = seed + 400))
   )
   if (dname == "amacrine") {
     kab <- run(Kcross(X, i = "on", j = "off", r = r_unit, correction = "isotropic"))
