@@ -62,10 +62,12 @@ export interface Fixture {
   Kinhom?: {
     sigma: number; lambda: number[]; lambdaNoEdge: number[]; lambdaNoEdgeCall: string;
     edgeMassExact: number[]; lambdaEdgeExact: number[]; edgeMassCall: string; scott: number; scottCall: string;
+    diggle: number; diggleH: number[]; diggleCV: (number | null)[]; diggleCall: string;
     iso: (number | null)[]; isoRenormalised: (number | null)[]; call: string; callRenormalised: string;
   };
   cross?: Record<string, (number | null)[] | string>;
-  monteCarlo?: { poissonN: McBlock; fixedN?: McBlock };
+  monteCarlo?: { poissonN: McBlock; fixedN?: McBlock; clarkEvans?: { nsim: number; seed: number; R: number; p: number; call: string } };
+  defaultR?: { rmax: number; count: number; call: string };
 }
 
 const DIR = path.join(__dirname, "fixtures");
@@ -118,4 +120,21 @@ export function classPoints(fx: Fixture, mark: string): { x: number[]; y: number
     }
   });
   return { x, y };
+}
+
+/**
+ * Both p-values estimate the same true p* = P(T_sim ≥ T_obs | data). spatstat's is (1 + Bin(s_R, p*)) /
+ * (s_R + 1), variance ≈ p*(1 − p*)/s_R; the engine's likewise with s_E. Their difference has standard
+ * deviation σ = √(p*(1 − p*)(1/s_R + 1/s_E)), with p* estimated by pooling both. We allow 4σ (a false
+ * failure about once in 16 000 checks, normal approximation) plus 1/(s_R + 1) for the "+1" of the rank
+ * rule and the discreteness of the smaller run. Common practice for Monte Carlo comparisons; the bound is
+ * ours. With `doubled`, p is a two-sided p formed as twice the smaller one-sided p.
+ */
+export function pTolerance(pR: number, sR: number, pE: number, sE: number, doubled = false): number {
+  // A two-sided p = min(1, 2·min(p_low, p_high)) is twice a one-sided estimate: halve, bound, double.
+  const f = doubled ? 2 : 1;
+  const [a, b] = [Math.min(1, pR / f), Math.min(1, pE / f)];
+  const pooled = (a * (sR + 1) + b * (sE + 1)) / (sR + sE + 2);
+  const sigma = Math.sqrt(pooled * (1 - pooled) * (1 / sR + 1 / sE));
+  return f * (4 * sigma + 1 / (sR + 1));
 }

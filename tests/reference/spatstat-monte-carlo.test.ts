@@ -11,26 +11,14 @@ import { lFunction } from "@/lib/spatial/k-function";
 import { runSimulations } from "@/lib/spatial/pool";
 import { globalTest, type GlobalStatistic } from "@/lib/spatial/global-test";
 import { createRandom } from "@/lib/spatial/random";
+import { meanNearestNeighbour } from "@/lib/spatial/clark-evans";
+import { monteCarloRankPValue } from "@/lib/spatial/run-classic-tests";
 import type { CsrCount } from "@/lib/spatial/simulate";
-import { expectClose, fixtureFiles, loadFixture, source, type Fixture, type McBlock } from "./fixture";
+import { expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture, type McBlock } from "./fixture";
 
 /** Simulations on the engine's side: more than spatstat's 199 so the engine's own noise is small. */
 const ENGINE_NSIM = 999;
 const SEED = 20261201;
-
-/**
- * Both p-values estimate the same true p* = P(T_sim ≥ T_obs | data). spatstat's is (1 + Bin(s_R, p*)) /
- * (s_R + 1), variance ≈ p*(1 − p*)/s_R; the engine's likewise with s_E. Their difference has standard
- * deviation σ = √(p*(1 − p*)(1/s_R + 1/s_E)), with p* estimated by pooling both. We allow 4σ (a false
- * failure about once in 16 000 checks, normal approximation) plus 1/(s_R + 1) for the "+1" of the rank
- * rule and the discreteness of the smaller run. Common practice for Monte Carlo comparisons; the bound is
- * ours.
- */
-function pTolerance(pR: number, sR: number, pE: number, sE: number): number {
-  const pooled = (pR * (sR + 1) + pE * (sE + 1)) / (sR + sE + 2);
-  const sigma = Math.sqrt(pooled * (1 - pooled) * (1 / sR + 1 / sE));
-  return 4 * sigma + 1 / (sR + 1);
-}
 
 async function engineTest(fx: Fixture, count: CsrCount, statistic: GlobalStatistic) {
   const W = createWindow({ outer: fx.window.outer, holes: fx.window.holes });
@@ -76,4 +64,20 @@ describe.each(files)("spatstat Monte Carlo reference %s", (file) => {
   const mc = fx.monteCarlo!;
   checkAgainst(fx, mc.poissonN, "poisson");
   if (mc.fixedN) checkAgainst(fx, mc.fixedN, "fixed");
+
+  const ce = mc.clarkEvans;
+  if (ce) {
+    it("Clark–Evans Monte Carlo p (n fixed, two-sided) agrees with spatstat", async () => {
+      const W = createWindow({ outer: fx.window.outer, holes: fx.window.holes });
+      const dbar = meanNearestNeighbour(W, { x: fx.points.x, y: fx.points.y });
+      const set = await runSimulations(
+        { window: { outer: fx.window.outer, holes: fx.window.holes }, r: [0, 1], model: { kind: "csr-nn", n: fx.n } },
+        { seed: SEED, streamBase: 0, nsim: ENGINE_NSIM },
+      );
+      const p = monteCarloRankPValue(dbar, set.sims, "two-sided", true);
+      const label = source(fx, `${ce.call} (nsim = ${ce.nsim})`);
+      const tol = pTolerance(ce.p, ce.nsim, p, ENGINE_NSIM, true);
+      expect(Math.abs(p - ce.p), `${label}: engine p ${p} vs spatstat p ${ce.p}, tolerance ${tol}`).toBeLessThanOrEqual(tol);
+    });
+  }
 });

@@ -11,6 +11,7 @@ import { describe, expect, it } from "vitest";
 import { quadratTest } from "@/lib/spatial/quadrat";
 import { intensityAtPoints, scottBandwidth } from "@/lib/spatial/intensity";
 import { kInhom } from "@/lib/spatial/k-inhom";
+import { diggleBandwidth } from "@/lib/spatial/bandwidth";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source } from "./fixture";
 import { windowOf } from "./check-clark-evans";
 
@@ -46,6 +47,15 @@ describe.each(fixtureFiles("trench-"))("spatstat quadrat and inhomogeneous refer
 
   it("has Scott's bandwidth as spatstat's bw.scott(isotropic = TRUE)", () => {
     expectClose(scottBandwidth({ x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) }), ki.scott, source(fx, ki.scottCall));
+  });
+
+  it("has spatstat's Berman–Diggle bandwidth and its criterion", () => {
+    const res = diggleBandwidth(W, { x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) });
+    const label = source(fx, ki.diggleCall);
+    // spatstat's h attribute holds σ = r/2; the engine's h holds r.
+    expectCurve(res.h.map((h) => h / 2), ki.diggleH, `${label}: sigma grid`);
+    expectCurve(res.M, ki.diggleCV, `${label}: criterion M`);
+    expectClose(res.sigma, ki.diggle, `${label}: sigma`);
   });
 
   it("has spatstat's Kinhom for the stored intensities, plain and renormalised", () => {

@@ -3,9 +3,10 @@
  * trench with a baulk left standing), to a relative 1e-6. Fixtures: tests/reference/fixtures/trench-*.json,
  * written by make-fixtures.R; each expectation's label names spatstat's version, the file and the call.
  */
-import { describe, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { kFunction, lFunction } from "@/lib/spatial/k-function";
 import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
+import { defaultRGrid } from "@/lib/spatial/r-grid";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source, type Fixture } from "./fixture";
 import { checkClarkEvans, windowOf } from "./check-clark-evans";
 
@@ -26,6 +27,13 @@ describe.each(trenchFiles)("spatstat reference %s", (file) => {
   it("has the area and perimeter (holes included) of spatstat's owin", () => {
     expectClose(W.area, fx.area, source(fx, "area(Window(X))"));
     expectClose(W.perimeter, fx.perimeter, source(fx, "perimeter(Window(X))"));
+  });
+
+  it("has spatstat's default r grid for K", () => {
+    const r = defaultRGrid(W, fx.n);
+    const ref = fx.defaultR!;
+    expect(r.length, source(fx, ref.call)).toBe(ref.count);
+    expectClose(r[r.length - 1], ref.rmax, source(fx, ref.call));
   });
 
   it("has spatstat's nearest-neighbour distances", () => {
