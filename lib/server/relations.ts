@@ -63,7 +63,8 @@ export async function addRelation(db: Db, actor: SiteActor, input: RelationCreat
       const seen = readingFrom(existing, here.id);
       throw conflict(`Contexts ${here.number} and ${there.number} are already related: ${here.number} ${readingLabels[seen.reading]} ${there.number}. Remove that relation first to change it.`);
     }
-    const [all, ctxs] = await Promise.all([listRelations(tx, actor.site.id), siteContexts(tx, actor.site.id)]);
+    const all = await listRelations(tx, actor.site.id);
+    const ctxs = await siteContexts(tx, actor.site.id);
     const loop = loopIfAdded(ctxs, all, { id: "new", ...stored });
     if (loop) {
       throw badInput(`That relation would make the matrix loop back on itself: ${loop}. A context cannot be both earlier and later than another.`, { otherId: [`Loop: ${loop}`] }, { loop });

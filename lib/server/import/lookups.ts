@@ -22,17 +22,17 @@ const submitter = alias(users, "submitter");
 
 export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<ImportLookups> {
   const [site] = await db.select({ next: sites.nextFindNumber }).from(sites).where(eq(sites.id, siteId));
-  const [cls, ctx, tr, nums] = await Promise.all([
-    db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId)),
-    db
-      .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt, submittedBy: submitter.name, submittedAt: contexts.submittedAt })
-      .from(contexts)
-      .leftJoin(users, eq(users.id, contexts.signedOffBy))
-      .leftJoin(submitter, eq(submitter.id, contexts.submittedBy))
-      .where(eq(contexts.siteId, siteId)),
-    db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline }).from(trenches).where(eq(trenches.siteId, siteId)),
-    db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId)),
-  ]);
+  // One query after another: inside a transaction they share one connection (node-postgres queues
+  // concurrent queries on a client, and warns that it will stop doing so).
+  const cls = await db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId));
+  const ctx = await db
+    .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt, submittedBy: submitter.name, submittedAt: contexts.submittedAt })
+    .from(contexts)
+    .leftJoin(users, eq(users.id, contexts.signedOffBy))
+    .leftJoin(submitter, eq(submitter.id, contexts.submittedBy))
+    .where(eq(contexts.siteId, siteId));
+  const tr = await db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline }).from(trenches).where(eq(trenches.siteId, siteId));
+  const nums = await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId));
   const windows = new Map<string, TrenchWindow>();
   for (const t of tr) {
     // Each trench window is built once here, not once per row.
