@@ -2,7 +2,7 @@ import type { ImportField, ImportMapping } from "@/lib/schemas/import";
 
 /** Header spellings Loamwork recognises for each field, tried in order (its own export's names first). */
 const patterns: [ImportField, RegExp][] = [
-  ["number", /^(number|find|find[ _-]?(no|number|id)|no|pt|point[ _-]?(id|no)?|id)$/i],
+  ["number", /^(number|find|find[ _-]?(no|number|id)|no|pt|pt[ _-]?(id|no)|point[ _-]?(id|no)?|id)$/i],
   ["x", /^(x|east|easting|e)$/i],
   ["y", /^(y|north|northing|n)$/i],
   ["z", /^(z|level|elev|elevation|height|h|depth)$/i],
