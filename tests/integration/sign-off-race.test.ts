@@ -26,7 +26,7 @@ describe("a find recorded while its sheet is being submitted", () => {
       const digger = await loadSiteActor(db, fx.people.digger.id, fx.site.id);
       const director = await loadSiteActor(db, fx.people.director.id, fx.site.id);
       const [find, submit] = await Promise.allSettled([
-        createFind(db, director, { contextId: fx.context.id, classId: fx.cls.id, x: 1 + round / 10, y: 1, method: "plan" }),
+        createFind(db, director, { contextId: fx.context.id, classId: fx.cls.id, x: 1 + round / 10, y: 1, method: "plan", description: "" }),
         submitContext(db, digger, fx.context.id),
       ]);
       expect(submit.status).toBe("fulfilled");
