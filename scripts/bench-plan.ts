@@ -45,6 +45,8 @@ const browser = await chromium.launch({
 });
 try {
   const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
+  // tsx keeps function names with a `__name` helper that does not exist inside the page.
+  await context.addInitScript({ content: "window.__name = (f) => f;" });
   const page = await context.newPage();
   await page.goto("/sign-in");
   await page.getByLabel("E-mail").fill("director@loamwork.test");

@@ -44,7 +44,7 @@ export type FindRow = {
 };
 
 export type ClassRow = { id: string; code: string; label: string; colour: string; symbol: string; humanRemains: boolean };
-export type ContextRow = { id: string; number: number; type: string; state: "open" | "awaiting" | "signed_off"; signedOffAt: string | null };
+export type ContextRow = { id: string; number: number; type: string; state: "open" | "awaiting" | "signed_off"; signedOffAt: string | null; extent?: { type: "Polygon"; coordinates: [number, number][][] } | null };
 
 /** Every find of a trench, 500 a page, pages after the first fetched together. */
 export async function fetchAllFinds(siteId: string, trenchId: string): Promise<FindRow[]> {

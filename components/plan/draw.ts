@@ -116,6 +116,35 @@ export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, 
   c.restore();
 }
 
+/** Context extents: dashed outlines with the context number, under the finds. */
+export function drawExtents(c: CanvasRenderingContext2D, v: View, contexts: { number: number; extent?: { coordinates: [number, number][][] } | null }[]) {
+  c.save();
+  c.font = "700 12px var(--font-mono), ui-monospace, monospace";
+  for (const ctx of contexts) {
+    const rings = ctx.extent?.coordinates;
+    if (!rings?.length) continue;
+    c.beginPath();
+    for (const r of rings) r.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
+    c.setLineDash([7, 5]);
+    c.strokeStyle = "#fff";
+    c.lineWidth = 4;
+    c.stroke();
+    c.strokeStyle = "#5a2d82";
+    c.lineWidth = 2;
+    c.stroke();
+    c.setLineDash([]);
+    const [lx, ly] = toScreen(v, ...rings[0][0]);
+    const label = String(ctx.number);
+    const tw = c.measureText(label).width;
+    c.fillStyle = "#5a2d82";
+    c.fillRect(lx + 4, ly - 18, tw + 8, 16);
+    c.fillStyle = "#fff";
+    c.textBaseline = "top";
+    c.fillText(label, lx + 8, ly - 16);
+  }
+  c.restore();
+}
+
 export function drawVertices(c: CanvasRenderingContext2D, v: View, rings: Rings, selected: { ring: number; v: number } | null) {
   c.save();
   rings.forEach((r, k) => {

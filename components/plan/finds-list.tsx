@@ -1,19 +1,19 @@
 "use client";
 
-import { useEffect, useRef } from "react";
+import { memo, useEffect, useMemo, useRef } from "react";
 import type { ClassRow, FindRow } from "./api";
 import { SymbolIcon } from "./symbols";
 
 const LIMIT = 300;
 
 /** The side list of the finds shown on the plan; its selection is the plan's selection. */
-export function FindsList({ finds, classes, selected, onSelect }: {
+export const FindsList = memo(function FindsList({ finds, classes, selected, onSelect }: {
   finds: FindRow[];
   classes: Map<string, ClassRow>;
   selected: ReadonlySet<string>;
   onSelect: (f: FindRow, additive: boolean) => void;
 }) {
-  const sorted = [...finds].sort((a, b) => b.number - a.number);
+  const sorted = useMemo(() => [...finds].sort((a, b) => b.number - a.number), [finds]);
   const picked = sorted.filter((f) => selected.has(f.id));
   const rest = sorted.filter((f) => !selected.has(f.id)).slice(0, Math.max(0, LIMIT - picked.length));
   const shown = [...picked, ...rest];
@@ -51,4 +51,4 @@ export function FindsList({ finds, classes, selected, onSelect }: {
       </ul>
     </div>
   );
-}
+});

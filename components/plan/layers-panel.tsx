@@ -1,10 +1,11 @@
 "use client";
 
+import { memo } from "react";
 import type { ClassRow, ContextRow, FindRow } from "./api";
 import { SymbolIcon } from "./symbols";
 
 /** Per-class and per-context visibility of finds on the plan, with counts. */
-export function LayersPanel({ classes, contexts, finds, hiddenClasses, hiddenContexts, onToggleClass, onToggleContext, photoOpacity, onPhotoOpacity, hasPhoto }: {
+export const LayersPanel = memo(function LayersPanel({ classes, contexts, finds, hiddenClasses, hiddenContexts, onToggleClass, onToggleContext, photoOpacity, onPhotoOpacity, hasPhoto }: {
   classes: ClassRow[];
   contexts: ContextRow[];
   finds: FindRow[];
@@ -49,4 +50,4 @@ export function LayersPanel({ classes, contexts, finds, hiddenClasses, hiddenCon
       )}
     </div>
   );
-}
+});

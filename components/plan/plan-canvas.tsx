@@ -7,7 +7,7 @@ import type { Context } from "konva/lib/Context";
 import { nearestEdge, type EdgeHit, type Problem, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import { toScreen, toWorld, zoomAt, type View } from "@/lib/geometry/plan-view";
 import type { ClassRow, FindRow } from "./api";
-import { drawDrawing, drawFinds, drawGrid, drawOutline, drawVertices } from "./draw";
+import { drawDrawing, drawExtents, drawFinds, drawGrid, drawOutline, drawVertices } from "./draw";
 import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type FitMark, type Photo, type Refused } from "./draw-marks";
 
 export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "fit";
@@ -24,6 +24,8 @@ type Props = {
   classes: Map<string, ClassRow>;
   selected: ReadonlySet<string>;
   rings: Rings;
+  /** Context extents shown on the plan (their contexts' layers switched on). */
+  extents: { number: number; extent?: { coordinates: [number, number][][] } | null }[];
   problem: Problem | null;
   selectedVertex: VertexRef | null;
   drawing: Pt[];
@@ -155,7 +157,8 @@ export default function PlanCanvas(p: Props) {
     const s = local(e);
     const world = toWorld(latest.current.view, ...s);
     if (e.pointerType === "mouse" || pointers.current.has(e.pointerId)) {
-      setPointer(world);
+      // Only the rubber band of a ring being drawn needs a re-render per move.
+      if (latest.current.tool === "draw" || latest.current.tool === "hole") setPointer(world);
       latest.current.onPointer(world);
     }
     if (!pointers.current.has(e.pointerId)) return;
@@ -246,6 +249,7 @@ export default function PlanCanvas(p: Props) {
             sceneFunc={(ctx) => {
               const c = native(ctx);
               drawOutline(c, view, p.rings, hasPhoto, p.problem);
+              drawExtents(c, view, p.extents);
               drawGrid(c, view, width, height, hasPhoto);
             }}
           />

@@ -1,10 +1,10 @@
 "use client";
 
 import { formatMetres, scaleBar, type View } from "@/lib/geometry/plan-view";
-import type { Pt } from "@/lib/geometry/outline-edit";
+import type { RefObject } from "react";
 
 /** Scale bar, north arrow and the pointer's grid position, drawn over the canvas in HTML for crisp text. */
-export function PlanOverlay({ view, pointer }: { view: View; pointer: Pt | null }) {
+export function PlanOverlay({ view, pointerRef }: { view: View; pointerRef: RefObject<HTMLDivElement | null> }) {
   const bar = scaleBar(view, 140);
   return (
     <>
@@ -21,8 +21,8 @@ export function PlanOverlay({ view, pointer }: { view: View; pointer: Pt | null 
         </svg>
         <span className="text-xs font-bold">N (grid)</span>
       </div>
-      <div className="num pointer-events-none absolute bottom-3 right-3 rounded border border-ink/40 bg-paper/95 px-3 py-2 text-sm font-semibold shadow" aria-live="off" data-testid="pointer-coords">
-        {pointer ? `x ${pointer[0].toFixed(3)} m · y ${pointer[1].toFixed(3)} m` : "x — · y —"}
+      <div ref={pointerRef} className="num pointer-events-none absolute bottom-3 right-3 rounded border border-ink/40 bg-paper/95 px-3 py-2 text-sm font-semibold shadow" aria-live="off" data-testid="pointer-coords">
+        x — · y —
       </div>
     </>
   );

@@ -29,6 +29,8 @@ export type PlanScreenProps = {
   classes: ClassRow[];
   contexts: ContextRow[];
   photos: PhotoView[];
+  /** Every find of the trench, read by the page on the server for the first paint. */
+  finds: FindRow[];
   canEdit: boolean;
 };
 
@@ -38,14 +40,18 @@ const panels: { id: Panel; label: string }[] = [
   { id: "outline", label: "Outline" }, { id: "photo", label: "Photo" }, { id: "help", label: "Shortcuts" },
 ];
 
-export default function PlanScreen({ siteId, trench, classes, contexts, photos: initialPhotos, canEdit }: PlanScreenProps) {
+export default function PlanScreen({ siteId, trench, classes, contexts, photos: initialPhotos, finds: initialFinds, canEdit }: PlanScreenProps) {
   const qc = useQueryClient();
   const box = useRef<HTMLDivElement>(null);
   const [size, setSize] = useState({ width: 0, height: 0 });
   const [view, setView] = useState<View | null>(null);
   const [tool, setTool] = useState<Tool>("look");
   const [panel, setPanel] = useState<Panel>("finds");
-  const [pointer, setPointer] = useState<Pt | null>(null);
+  const pointerText = useRef<HTMLDivElement>(null);
+  const setPointer = useCallback((p: Pt | null) => {
+    // Written straight into the overlay: a state update per pointer move would re-render the whole screen.
+    if (pointerText.current) pointerText.current.textContent = p ? `x ${p[0].toFixed(3)} m · y ${p[1].toFixed(3)} m` : "x — · y —";
+  }, []);
   const [message, setMessage] = useState<{ kind: "ok" | "warn"; text: string } | null>(null);
   const say = useCallback((kind: "ok" | "warn", text: string) => setMessage({ kind, text }), []);
   const { push, undo, top } = useUndo(say);
@@ -70,7 +76,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const [lastFind, setLastFind] = useState<Partial<QuickFind>>({});
 
   const classMap = useMemo(() => new Map(classes.map((c) => [c.id, c])), [classes]);
-  const { finds, loading, error, record, move } = usePlanFinds({ siteId, trenchId: trench.id, contexts, savedRings, pushUndo: push, say });
+  const { finds, loading, error, record, move } = usePlanFinds({ siteId, trenchId: trench.id, initialFinds, contexts, savedRings, pushUndo: push, say });
   const visible = useMemo(() => finds.filter((f) => !hiddenClasses.has(f.classId) && !hiddenContexts.has(f.contextId)), [finds, hiddenClasses, hiddenContexts]);
 
   const photosQuery = useQuery({ queryKey: ["plan-photos", siteId, trench.id], queryFn: () => apiCall<PhotoView[]>(`/api/sites/${siteId}/photos?trenchId=${trench.id}`), initialData: initialPhotos });
@@ -113,6 +119,18 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     setRings(next);
     setOutlineError(null);
     push({ label, run: () => setRings(prev) });
+  };
+
+  // A vertex drag moves the ring live; its undo returns to the rings from before the drag began.
+  const dragStart = useRef<Rings | null>(null);
+  const onVertexMove = (ref: VertexRef, to: Pt, done: boolean) => {
+    dragStart.current ??= rings;
+    const before = dragStart.current;
+    setRings((r) => moveVertex(r, ref.ring, ref.v, to));
+    if (!done) return;
+    dragStart.current = null;
+    setOutlineError(null);
+    push({ label: "move a vertex", run: () => setRings(before) });
   };
 
   const closeRing = () => {
@@ -228,6 +246,16 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     }
   };
 
+  const latestView = useRef({ view, size });
+  latestView.current = { view, size };
+  const selectFromList = useCallback((f: FindRow, add: boolean) => {
+    setSelected((s) => (add ? new Set([...s, f.id]) : new Set([f.id])));
+    const { view: v, size: sz } = latestView.current;
+    if (!v || add) return;
+    const [sx, sy] = toScreen(v, f.x, f.y);
+    if (sx < 0 || sy < 0 || sx > sz.width || sy > sz.height) setView({ ...v, ox: v.ox + sz.width / 2 - sx, oy: v.oy + sz.height / 2 - sy });
+  }, []);
+
   const dragRefusal = (f: FindRow) => {
     if (f.contextState === "signed_off") {
       const ctx = contexts.find((c) => c.id === f.contextId);
@@ -303,13 +331,13 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           {view && size.width > 0 && (
             <PlanCanvas
               width={size.width} height={size.height} view={view} onView={setView} tool={tool} finds={visible} classes={classMap} selected={selected}
-              rings={shownRings} problem={shownRings === rings ? problem : null} selectedVertex={selectedVertex} drawing={drawing} photo={photoLayer} placing={placing}
+              rings={shownRings} extents={contexts.filter((c) => c.extent && !hiddenContexts.has(c.id))} problem={shownRings === rings ? problem : null} selectedVertex={selectedVertex} drawing={drawing} photo={photoLayer} placing={placing}
               refused={refused} fitMarks={fitMarks} dragRefusal={dragRefusal} onTap={onTap} onFindMoved={(f, to) => void move(f, to)}
-              onVertexMove={(ref, to, done) => (done ? editRings(moveVertex(rings, ref.ring, ref.v, to), "move a vertex") : setRings((r) => moveVertex(r, ref.ring, ref.v, to)))}
+              onVertexMove={onVertexMove}
               onRefusedDrag={(reason) => say("warn", reason)} onPointer={setPointer}
             />
           )}
-          {view && <PlanOverlay view={view} pointer={pointer} />}
+          {view && <PlanOverlay view={view} pointerRef={pointerText} />}
           {message && (
             <div role={message.kind === "warn" ? "alert" : "status"} className={`absolute left-1/2 top-3 z-10 flex max-w-[90%] -translate-x-1/2 items-center gap-3 rounded border-2 px-3 py-1 font-semibold shadow ${message.kind === "warn" ? "border-warn bg-warn-light text-warn" : "border-ok bg-ok-light text-ok"}`} data-testid="plan-message">
               <span>{message.text}</span>
@@ -327,7 +355,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           ))}
         </div>
         <div className="flex-1 overflow-auto p-3" role="tabpanel">
-          {panel === "finds" && <FindsList finds={visible} classes={classMap} selected={selected} onSelect={(f, add) => { setSelected(add ? new Set([...selected, f.id]) : new Set([f.id])); if (view && !add) { const [sx, sy] = toScreen(view, f.x, f.y); if (sx < 0 || sy < 0 || sx > size.width || sy > size.height) setView({ ...view, ox: view.ox + size.width / 2 - sx, oy: view.oy + size.height / 2 - sy }); } }} />}
+          {panel === "finds" && <FindsList finds={visible} classes={classMap} selected={selected} onSelect={selectFromList} />}
           {panel === "record" && (placing ? (
             <FindForm at={placing} classes={classes} contexts={contexts} defaults={lastFind} busy={busy} serverError={formError} onSubmit={(v) => void submitFind(v)} onCancel={() => { setPlacing(null); setRefused(null); setFormError(null); }} />
           ) : (

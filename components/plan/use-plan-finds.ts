@@ -11,6 +11,7 @@ import type { UndoEntry } from "./use-undo";
 type Deps = {
   siteId: string;
   trenchId: string;
+  initialFinds: FindRow[];
   contexts: ContextRow[];
   savedRings: Rings;
   pushUndo: (e: UndoEntry) => void;
@@ -20,10 +21,10 @@ type Deps = {
 const num = (s: string) => (s.trim() === "" ? null : Number(s));
 
 /** The trench's finds (all pages) and the plan's writes to them, each with its undo. */
-export function usePlanFinds({ siteId, trenchId, contexts, savedRings, pushUndo, say }: Deps) {
+export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRings, pushUndo, say }: Deps) {
   const qc = useQueryClient();
   const key = ["plan-finds", siteId, trenchId];
-  const query = useQuery({ queryKey: key, queryFn: () => fetchAllFinds(siteId, trenchId), staleTime: 60_000 });
+  const query = useQuery({ queryKey: key, queryFn: () => fetchAllFinds(siteId, trenchId), initialData: initialFinds, staleTime: 60_000 });
   const finds = query.data ?? [];
   const patch = useCallback((fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])), [qc, siteId, trenchId]); // eslint-disable-line react-hooks/exhaustive-deps
 

@@ -10,6 +10,7 @@ import { countHumanRemains } from "@/lib/server/human-remains";
 import { isRole } from "@/lib/server/membership";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { listPhotos } from "@/lib/server/photos";
+import { listPlanFinds } from "@/lib/server/plan-finds";
 import { getTrench } from "@/lib/server/trenches";
 
 /** The trench plan: a server-read seed (trench, contexts, classes, photos) for the client canvas. */
@@ -20,7 +21,13 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [contexts, classes, photos, remains] = await Promise.all([listContexts(db, siteId, trenchId), listClasses(db, siteId), listPhotos(db, siteId, trenchId), countHumanRemains(db, siteId, trenchId)]);
+  const [contexts, classes, photos, remains, finds] = await Promise.all([
+    listContexts(db, siteId, trenchId),
+    listClasses(db, siteId),
+    listPhotos(db, siteId, trenchId),
+    countHumanRemains(db, siteId, trenchId),
+    listPlanFinds(db, siteId, trenchId),
+  ]);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current="" />
@@ -35,8 +42,9 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
             siteId={siteId}
             trench={{ id: trench.id, code: trench.code, outline: trench.outline, signedOff: Boolean(trench.signedOffAt) }}
             classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, humanRemains: c.humanRemains }))}
-            contexts={contexts.map((c) => ({ id: c.id, number: c.number, type: c.type, state: c.state, signedOffAt: c.signedOffAt ? c.signedOffAt.toISOString() : null }))}
+            contexts={contexts.map((c) => ({ id: c.id, number: c.number, type: c.type, state: c.state, signedOffAt: c.signedOffAt ? c.signedOffAt.toISOString() : null, extent: c.extent ?? null }))}
             photos={photos}
+            finds={finds}
             canEdit={isRole(actor, recorders)}
           />
         </div>
