@@ -24,7 +24,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
         </p>
         {run.outOfDate && (
           <p role="status" className="mt-2 rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">
-            Out of date: finds, contexts or the outline this run read have changed since. Run it again with seed {result.seed} to compare.
+            Out of date: finds, context states (e.g. a sign-off) or the outline this run read have changed since. Run it again with seed {result.seed} to compare.
           </p>
         )}
       </section>

@@ -1,48 +1,61 @@
 /**
  * The PostgreSQL path of runs: the app sends a run to pg-boss and a separate worker process
  * (`npm run worker`, scripts/worker.ts) takes it, computes it and writes the result back; a cancel from
- * the app stops the worker's run. Needs PostgreSQL binaries: uses LOAMWORK_TEST_PG when the suite runs
- * beside a server (scripts/with-postgres.sh), otherwise starts a throwaway cluster on a loopback port.
+ * the app stops the worker's run. Uses the database the suite gives this file when it runs beside a
+ * server (scripts/with-postgres.sh); otherwise starts a throwaway cluster on a loopback port. Skipped,
+ * with a message, only when no PostgreSQL binaries exist.
  */
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
-import { tmpdir } from "node:os";
+import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";
-import pg from "pg";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type pg from "pg";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 
-const pgRoot = "/usr/lib/postgresql";
-const pgBin = existsSync(pgRoot) ? readdirSync(pgRoot).map((v) => path.join(pgRoot, v, "bin")).find((b) => existsSync(path.join(b, "initdb"))) : undefined;
-if (!pgBin && !process.env.LOAMWORK_TEST_PG) console.warn("patterns-pgboss: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no LOAMWORK_TEST_PG.");
+/**
+ * Everything the environment needs is settled here, before any module reads it (lib/env caches it): the
+ * queue kind, and — when the suite does not already give this file a database (scripts/with-postgres.sh
+ * and tests/support/pg-per-file.ts) — a throwaway cluster on a free loopback port with a database.
+ */
+const setup = await vi.hoisted(async () => {
+  const { spawnSync } = await import("node:child_process");
+  const { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } = await import("node:fs");
+  const { tmpdir } = await import("node:os");
+  const path = await import("node:path");
+  process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
+  const root = "/usr/lib/postgresql";
+  const bin = existsSync(root) ? readdirSync(root).map((v) => path.join(root, v, "bin")).find((b) => existsSync(path.join(b, "initdb"))) : undefined;
+  if (process.env.DATABASE_URL || !bin) return { available: !!process.env.DATABASE_URL, stop: () => {} };
+  const dir = mkdtempSync(path.join(tmpdir(), "loamwork-pgboss-"));
+  const root0 = process.getuid?.() === 0;
+  // As root, the server must run as postgres, which must own the folder.
+  if (root0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
+  const run = (cmd: string[]) => {
+    const r = root0 ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" }) : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
+    if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
+  };
+  const port = Number(spawnSync(process.execPath, ["-e", "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"], { encoding: "utf8" }).stdout);
+  run([path.join(bin, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
+  run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-l", `${dir}/log`, "-o", `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`, "-w", "start"]);
+  run([path.join(bin, "createdb"), "-h", "127.0.0.1", "-p", String(port), "-U", "loamwork", "loamwork_runs"]);
+  process.env.DATABASE_URL = `postgres://loamwork@127.0.0.1:${port}/loamwork_runs`;
+  return {
+    available: true,
+    stop: () => {
+      try {
+        run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-m", "fast", "-w", "stop"]);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  };
+});
+if (!setup.available) console.warn("patterns-pgboss: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.");
 
-const asPg = (cmd: string[]) => (process.getuid?.() === 0 ? ["runuser", ["-u", "postgres", "--", ...cmd]] : [cmd[0], cmd.slice(1)]) as [string, string[]];
-const freePort = () => new Promise<number>((resolve) => { const s = createServer().listen(0, "127.0.0.1", () => { const p = (s.address() as { port: number }).port; s.close(() => resolve(p)); }); });
-
-let cluster: { dir: string; stop: () => void } | undefined;
 let worker: ChildProcess | undefined;
 let workerLog = "";
 
-async function serverUrl(): Promise<string> {
-  if (process.env.LOAMWORK_TEST_PG) return process.env.LOAMWORK_TEST_PG;
-  const dir = mkdtempSync(path.join(tmpdir(), "loamwork-pgboss-"));
-  // As root, initdb must run as postgres, which must own the folder.
-  if (process.getuid?.() === 0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
-  const port = await freePort();
-  const run = (cmd: string[]) => {
-    const [c, a] = asPg(cmd);
-    const r = spawnSync(c, a, { encoding: "utf8" });
-    if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
-  };
-  run([path.join(pgBin!, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
-  run([path.join(pgBin!, "pg_ctl"), "-D", `${dir}/data`, "-l", `${dir}/log`, "-o", `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`, "-w", "start"]);
-  cluster = { dir, stop: () => { try { run([path.join(pgBin!, "pg_ctl"), "-D", `${dir}/data`, "-m", "fast", "-w", "stop"]); } finally { rmSync(dir, { recursive: true, force: true }); } } };
-  return `postgres://loamwork@127.0.0.1:${port}/postgres`;
-}
-
-describe.skipIf(!pgBin && !process.env.LOAMWORK_TEST_PG)("runs through pg-boss and a separate worker process", () => {
+describe.skipIf(!setup.available)("runs through pg-boss and a separate worker process", () => {
   let d: { siteId: string; trenchId: string; ctx: string; flk: string; specialist: string };
   let mods: Awaited<ReturnType<typeof load>>;
   const load = async () => ({
@@ -56,18 +69,8 @@ describe.skipIf(!pgBin && !process.env.LOAMWORK_TEST_PG)("runs through pg-boss a
   });
 
   beforeAll(async () => {
-    const base = await serverUrl();
-    const name = `lw_pgboss_${process.pid}`;
-    const admin = new pg.Client({ connectionString: base });
-    await admin.connect();
-    await admin.query(`drop database if exists ${name}`);
-    await admin.query(`create database ${name}`);
-    await admin.end();
-    const url = new URL(base);
-    url.pathname = `/${name}`;
-    process.env.DATABASE_URL = url.toString();
-    process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
     mods = await load();
+    expect(mods.runner.runQueueKind()).toBe("pg-boss");
     const db = await mods.client.getDb();
     const { siteId } = await mods.seed.seedDemo(db);
     const { s } = mods;
@@ -98,7 +101,7 @@ describe.skipIf(!pgBin && !process.env.LOAMWORK_TEST_PG)("runs through pg-boss a
     }
     await mods?.runner.stopRunner();
     await mods?.client.closeDb();
-    cluster?.stop();
+    setup.stop();
   }, 60_000);
 
   const waitFor = async (runId: string, want: (row: { status: string; progress: number }) => boolean) => {

@@ -115,6 +115,8 @@ async function getRow(db: Db, siteId: string, runId: string): Promise<AnalysisRu
 export async function readRun(db: Db, siteId: string, runId: string): Promise<RunView> {
   await ensureRunner();
   const row = await getRow(db, siteId, runId);
+  // Only a finished run can be out of date; while it runs it is polled often, so skip the re-read.
+  if (row.status !== "done") return toView(row, false);
   const now = await currentFingerprint(db, siteId, row.scope as RunScope);
   return toView(row, now !== row.fingerprint);
 }
