@@ -61,3 +61,21 @@ export function toRequest(f: FormState): RunCreateInput {
     },
   };
 }
+
+/** A saved run's settings back in the form (same seed), to run it again on today's records. */
+export function formFromRun(run: { scope: { trenchId: string; contextIds: string[]; classIds: string[] }; seed: number; params: { correction: FormState["correction"]; rmax: number; nsim: number; level: number; tests: RunTest[] } }): FormState {
+  const f = initialForm(run.scope.trenchId);
+  f.contextIds = [...run.scope.contextIds];
+  f.classIds = [...run.scope.classIds];
+  f.clarkEvans.on = f.lcsr.on = false;
+  for (const t of run.params.tests) {
+    if (t.kind === "clark-evans") f.clarkEvans = { on: true, correction: t.correction, alternative: t.alternative };
+    if (t.kind === "quadrat") f.quadrat = { on: true, cellSize: String(t.cellSize) };
+    if (t.kind === "l-csr") f.lcsr = { on: true, statistic: t.statistic, count: t.count };
+    if (t.kind === "pcf") f.pcf = { on: true };
+    if (t.kind === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null };
+    if (t.kind === "k-diff") f.kdiff = { on: true, a: t.a, b: t.b };
+    if (t.kind === "inhom-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
+  }
+  return { ...f, correction: run.params.correction, rmax: String(run.params.rmax), nsim: String(run.params.nsim), level: String(run.params.level), seed: String(run.seed) };
+}

@@ -7,7 +7,7 @@ import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import type { RunView } from "@/lib/server/analysis/run-view";
 import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
 import { CompareView } from "./compare-view";
-import { initialForm, toRequest, type FormState } from "./form-state";
+import { formFromRun, initialForm, toRequest, type FormState } from "./form-state";
 import { RunProgress } from "./run-progress";
 import { RunResultView } from "./run-result";
 import { RunsList } from "./runs-list";
@@ -89,7 +89,7 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
           <p className="sheet text-sm">Your role can read every saved run; running tests needs the finds specialist or director role.</p>
         )}
       </form>
-      <div className="min-w-0 space-y-4">
+      <div className={`min-w-0 space-y-4 ${runId || compare.length === 2 ? "order-first xl:order-none" : ""}`}>
         {compare.length === 2 ? (
           <CompareView siteId={siteId} ids={compare} onClose={() => setUrl({ compare: [] })} />
         ) : runId && run.data ? (
@@ -100,7 +100,17 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
             {run.data.status === "failed" && <p role="alert" className="sheet border-warn text-warn">This run failed: {run.data.error}</p>}
             {run.data.status === "cancelled" && <p role="status" className="sheet">This run was cancelled; nothing was saved but its settings.</p>}
             {cancel.error && <p className="field-error" role="alert">{(cancel.error as Error).message}</p>}
-            {run.data.status === "done" && <RunResultView run={run.data} />}
+            {run.data.status === "done" && (
+              <>
+                {canRun && (
+                  <div className="flex flex-wrap items-center gap-2">
+                    <button type="button" className="btn" onClick={() => setForm(formFromRun(run.data!))}>Put these settings in the form</button>
+                    <span className="text-sm text-ink-soft">same scope, tests and seed — run again to check the numbers{run.data.outOfDate ? " on today's records" : ""}.</span>
+                  </div>
+                )}
+                <RunResultView run={run.data} />
+              </>
+            )}
           </>
         ) : runId && run.error ? (
           <p role="alert" className="sheet text-warn">{(run.error as Error).message}</p>
