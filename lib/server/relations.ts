@@ -67,7 +67,7 @@ export async function addRelation(db: Db, actor: SiteActor, input: RelationCreat
     const ctxs = await siteContexts(tx, actor.site.id);
     const loop = loopIfAdded(ctxs, all, { id: "new", ...stored });
     if (loop) {
-      throw badInput(`That relation would make the matrix loop back on itself: ${loop}. A context cannot be both earlier and later than another.`, { otherId: [`Loop: ${loop}`] }, { loop });
+      throw badInput(`That relation would make the matrix loop back on itself: ${loop}. A context cannot be both earlier and later than another.`, { otherId: [`That would make a loop: ${loop}. A context cannot be both earlier and later than another.`] }, { loop });
     }
     const [row] = await tx.insert(contextRelations).values({ ...stored, siteId: actor.site.id, createdBy: actor.userId }).returning();
     const after = { ...row, reads: `${from.number} ${readingLabels[row.kind]} ${to.number}` };
