@@ -108,3 +108,31 @@ describe("FLK and CHP: which null detects that they go together", () => {
     expect(t.question).toContain("CHP + FCR + FLK + SHD finds");
   });
 });
+
+describe("the other tests of the workspace run end to end and come back plottable", () => {
+  it("quadrat counts, pair correlation, K difference and inhomogeneous L on FLK and SHD", async () => {
+    const run = await runToEnd({
+      scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD] },
+      tests: [{ kind: "quadrat", cellSize: 2 }, { kind: "pcf" }, { kind: "k-diff", a: demo.cls.FLK, b: demo.cls.SHD }, { kind: "inhom-l", classId: demo.cls.FLK, reference: "all" }],
+      params: { nsim: 39, seed: 3 },
+    });
+    const tests = run.result!.tests;
+    expect(tests.map((t) => t.kind).sort()).toEqual(["inhom-l", "k-diff", "pcf", "pcf", "quadrat", "quadrat"]);
+    for (const t of tests) {
+      expect(t.p).toBeGreaterThan(0);
+      expect(t.p).toBeLessThanOrEqual(1);
+      if ("curve" in t) {
+        expect(t.curve.obs).toHaveLength(t.curve.r.length);
+        expect(t.curve.lo).toHaveLength(t.curve.r.length);
+        expect(t.curve.obs.every(Number.isFinite)).toBe(true);
+      }
+    }
+    const q = tests.find((t) => t.kind === "quadrat" && t.classId === demo.cls.FLK)!;
+    if (q.kind !== "quadrat") throw new Error("wrong kind");
+    // every FLK find of 1005 falls in exactly one cell; expected counts add up to n
+    expect(q.cells.reduce((s, c) => s + c.count, 0)).toBe(150);
+    expect(q.cells.reduce((s, c) => s + c.expected, 0)).toBeCloseTo(150, 6);
+    expect(q.verdict).toBe("clustered");
+    expect(run.result!.density.map((d) => d.values.length > 0)).toEqual([true, true]);
+  });
+});

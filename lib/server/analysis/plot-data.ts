@@ -36,9 +36,10 @@ export function quadratCells(w: Window, nx: number, ny: number, p: Pts): Quadrat
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
       const x0 = minX + i * dx, y0 = minY + j * dy, x1 = x0 + dx, y1 = y0 + dy;
-      let area = clippedRingArea(w.outer as [number, number][], x0, y0, x1, y1);
-      for (const h of w.holes) area -= clippedRingArea(h as [number, number][], x0, y0, x1, y1);
-      if (area > 1e-9) cells.push({ x0, y0, x1, y1, count: counts[j * nx + i], area: Math.abs(area) });
+      // Rings are oriented (holes clockwise), so clipped areas are signed: subtract magnitudes.
+      let area = Math.abs(clippedRingArea(w.outer as [number, number][], x0, y0, x1, y1));
+      for (const h of w.holes) area -= Math.abs(clippedRingArea(h as [number, number][], x0, y0, x1, y1));
+      if (area > 1e-9) cells.push({ x0, y0, x1, y1, count: counts[j * nx + i], area });
     }
   }
   const n = p.x.length;
