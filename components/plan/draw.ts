@@ -204,41 +204,60 @@ export function drawDrawing(c: CanvasRenderingContext2D, v: View, pts: Pt[], poi
   c.restore();
 }
 
-/** All finds in one pass: one path per class, filled and outlined once. */
-export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: FindRow[], classes: Map<string, ClassRow>, w: number, h: number, moved?: { id: string; at: Pt } | null) {
-  const byClass = new Map<string, FindRow[]>();
-  for (const f of finds) {
-    let list = byClass.get(f.classId);
-    if (!list) byClass.set(f.classId, (list = []));
-    list.push(f);
-  }
-  c.save();
+const sprites = new Map<string, HTMLCanvasElement>();
+const SPRITE_CSS = FIND_R * 2 + 10;
+
+/**
+ * One pre-drawn image per class symbol and colour: blitting 5,000 small images is far cheaper than
+ * rasterising 5,000 vector outlines each frame, which matters on tablets without a fast GPU.
+ */
+function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElement {
+  const key = `${symbol}|${colour}|${ratio}`;
+  let canvas = sprites.get(key);
+  if (canvas) return canvas;
+  canvas = document.createElement("canvas");
+  canvas.width = canvas.height = Math.ceil(SPRITE_CSS * ratio);
+  const c = canvas.getContext("2d")!;
+  c.scale(ratio, ratio);
   c.lineJoin = "round";
-  for (const [classId, list] of byClass) {
-    const cls = classes.get(classId);
-    const symbol = cls?.symbol ?? "disc";
-    c.beginPath();
-    for (const f of list) {
-      const at = moved && moved.id === f.id ? moved.at : ([f.x, f.y] as Pt);
-      const sx = v.ox + at[0] * v.scale;
-      const sy = v.oy - at[1] * v.scale;
-      if (sx < -20 || sy < -20 || sx > w + 20 || sy > h + 20) continue;
-      traceSymbol(c, symbol, sx, sy, FIND_R);
+  c.beginPath();
+  traceSymbol(c, symbol, SPRITE_CSS / 2, SPRITE_CSS / 2, FIND_R);
+  if (openSymbols.has(symbol)) {
+    c.strokeStyle = INK;
+    c.lineWidth = 5;
+    c.stroke();
+    c.strokeStyle = colour;
+    c.lineWidth = 2.6;
+    c.stroke();
+  } else {
+    c.fillStyle = colour;
+    c.fill();
+    c.strokeStyle = INK;
+    c.lineWidth = 1.4;
+    c.stroke();
+  }
+  sprites.set(key, canvas);
+  return canvas;
+}
+
+/** All finds in one pass, one cached sprite per class, skipping those off the screen. */
+export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: FindRow[], classes: Map<string, ClassRow>, w: number, h: number, moved?: { id: string; at: Pt } | null) {
+  const ratio = Math.max(1, Math.round(c.getTransform().a * 100) / 100);
+  const byClass = new Map<string, HTMLCanvasElement>();
+  const half = SPRITE_CSS / 2;
+  c.save();
+  c.imageSmoothingEnabled = false;
+  for (const f of finds) {
+    let img = byClass.get(f.classId);
+    if (!img) {
+      const cls = classes.get(f.classId);
+      byClass.set(f.classId, (img = sprite(cls?.symbol ?? "disc", cls?.colour ?? "#666666", ratio)));
     }
-    if (openSymbols.has(symbol)) {
-      c.strokeStyle = INK;
-      c.lineWidth = 5;
-      c.stroke();
-      c.strokeStyle = cls?.colour ?? "#666";
-      c.lineWidth = 2.6;
-      c.stroke();
-    } else {
-      c.fillStyle = cls?.colour ?? "#666";
-      c.fill();
-      c.strokeStyle = INK;
-      c.lineWidth = 1.4;
-      c.stroke();
-    }
+    const at = moved && moved.id === f.id ? moved.at : null;
+    const sx = v.ox + (at ? at[0] : f.x) * v.scale;
+    const sy = v.oy - (at ? at[1] : f.y) * v.scale;
+    if (sx < -20 || sy < -20 || sx > w + 20 || sy > h + 20) continue;
+    c.drawImage(img, Math.round(sx - half), Math.round(sy - half), SPRITE_CSS, SPRITE_CSS);
   }
   c.restore();
 }
