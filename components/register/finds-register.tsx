@@ -31,7 +31,7 @@ const columns: ColumnDef<RegisterRow>[] = [
 const numeric = new Set(["number", "context", "x", "y", "z", "recordedAt"]);
 
 /** The finds register: server-side filters, sorting and paging, all held in the URL. */
-export function FindsRegister({ siteId, options, canImport }: { siteId: string; options: RegisterOptions; canImport: boolean }) {
+export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: string; options: RegisterOptions; canImport: boolean; hasCrs: boolean }) {
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();
@@ -64,7 +64,9 @@ export function FindsRegister({ siteId, options, canImport }: { siteId: string; 
     <div className="space-y-3">
       <div className="flex flex-wrap items-center gap-2">
         <a className="btn" href={`/api/sites/${siteId}/export/finds?format=csv&${exportQs}`} download>Export CSV</a>
-        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&${exportQs}`} download>Export GeoJSON</a>
+        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=grid&${exportQs}`} download>GeoJSON (site grid)</a>
+        {hasCrs && <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=lonlat&${exportQs}`} download>GeoJSON (WGS 84)</a>}
+        {hasCrs && <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=crs&${exportQs}`} download>GeoJSON (site CRS)</a>}
         {canImport && <Link className="btn-primary" href={`/sites/${siteId}/finds/import`}>Import total-station CSV</Link>}
         {Object.keys(view).some((k) => !["sort", "dir", "page", "pageSize"].includes(k)) && <button type="button" className="btn" onClick={() => router.replace(pathname)}>Clear filters</button>}
       </div>

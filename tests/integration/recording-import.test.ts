@@ -65,6 +65,7 @@ describe("total-station import", () => {
     const fx = await makeSite();
     const db = await getDb();
     const [locked] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 4444, type: "fill", state: "signed_off", signedOffAt: new Date("2026-11-20T09:00:00Z"), signedOffBy: fx.people.director.id }).returning();
+    const [waiting] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 4445, type: "fill", state: "awaiting", submittedAt: new Date("2026-11-25T09:00:00Z"), submittedBy: fx.people.digger.id }).returning();
     session.userId = fx.people.director.id;
     const c = fx.context.number;
     const csv = [
@@ -75,6 +76,7 @@ describe("total-station import", () => {
       `4,1,1,,FL,${c}`,
       `4,2,2,,FL,${c}`,
       `5,1,1,,FL,${locked.number}`,
+      `6,1,1,,FL,${waiting.number}`,
     ].join("\n");
     const res = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, mapping });
     expect(res.status).toBe(400);
@@ -85,6 +87,7 @@ describe("total-station import", () => {
       { row: 4, reasons: ['context "9999" does not exist on this site'] },
       { row: 6, reasons: ["find number 4 is also on row 5"] },
       { row: 7, reasons: ["context 4444 was signed off by Director on 2026-11-20; a director must reopen it first"] },
+      { row: 8, reasons: ["context 4445 awaits sign-off (submitted by Digger on 2026-11-25); a director must return it to open first"] },
     ]);
     expect(await findsOf(fx.site.id)).toHaveLength(0);
   });

@@ -105,10 +105,13 @@ describe("relations through the API", () => {
     const audits = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.recordType, "relation"));
     expect(audits.filter((x) => x.siteId === fx.site.id)).toHaveLength(2);
 
+    // "Same as" joins the fixture's context and 1011 into one node of the matrix.
+    expect((await call(relationsRoute, "POST", params, { contextId: fx.context.id, reading: "same_as", otherId: c[1011].id })).status).toBe(201);
     const m = await call(matrixRoute, "GET", params, undefined, {});
     expect(m.status).toBe(200);
     expect(m.json.loop).toBeNull();
-    expect(m.json.nodes.map((n: any) => n.label)).toContain(String(fx.context.number));
+    const joined = [fx.context.number, 1011].sort((p, q) => p - q).join(" = ");
+    expect(m.json.nodes.map((n: any) => n.label).sort()).toEqual(["1004", "1007", joined].sort());
   });
 
   it("refuses to add or remove a relation of a signed-off context", async () => {

@@ -14,6 +14,8 @@ export default async function ContextsPage({ params, searchParams }: { params: P
   const rows = await contextSummaries(db, siteId, chosen?.id);
   const canRecord = actor.role !== "specialist";
   const base = `/sites/${siteId}/contexts`;
+  // With a CRS the outlines go out as WGS 84 longitude/latitude (RFC 7946's own); without, in site-grid metres.
+  const coords = actor.site.crs?.trim() ? "&coords=lonlat" : "&coords=grid";
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={base} />
@@ -22,7 +24,8 @@ export default async function ContextsPage({ params, searchParams }: { params: P
           <h1 className="mr-auto text-3xl font-bold">Context sheets</h1>
           <Link className="btn" href={`${base}/matrix${chosen ? `?trench=${chosen.id}` : ""}`}>Harris matrix</Link>
           <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=csv`} download>Contexts CSV</a>
-          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson`} download>Extents GeoJSON</a>
+          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson${coords}`} download>Extents GeoJSON</a>
+          <a className="btn" href={`/api/sites/${siteId}/export/trenches?${coords.slice(1)}`} download>Trench outlines GeoJSON</a>
           {canRecord && <Link className="btn-primary" href={`${base}/new`}>Open a new sheet</Link>}
         </div>
         <nav aria-label="Trenches" className="flex flex-wrap gap-2">

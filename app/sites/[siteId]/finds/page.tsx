@@ -23,7 +23,7 @@ export default async function FindsRegisterPage({ params }: { params: Promise<{ 
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
         <h1 className="text-3xl font-bold">Finds register</h1>
         <Suspense fallback={<p>Reading the register…</p>}>
-          <FindsRegister siteId={siteId} options={options} canImport={actor.role !== "specialist"} />
+          <FindsRegister siteId={siteId} options={options} canImport={actor.role !== "specialist"} hasCrs={!!actor.site.crs?.trim()} />
         </Suspense>
       </main>
     </>
