@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { SignInForm } from "./sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -12,6 +13,9 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
         <h1 className="mt-1 text-3xl font-bold">Sign in to the site record</h1>
         <p className="mt-2 text-ink-soft">Finds, contexts and plans of the sites you work on.</p>
         <SignInForm next={next} />
+        <p className="mt-4 text-sm">
+          <Link className="underline underline-offset-4" href="/reset-password">Forgotten your password?</Link>
+        </p>
       </div>
     </main>
   );

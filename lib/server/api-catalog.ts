@@ -7,6 +7,7 @@ import { memberAddSchema, memberRoleSchema, siteCreateSchema, siteUpdateSchema }
 import { trenchCreateSchema, trenchUpdateSchema } from "@/lib/schemas/trench";
 import { patternsApi } from "./catalog/patterns";
 import { planApi } from "./catalog/plan";
+import { publicApi } from "./catalog/public";
 import { recordingApi } from "./catalog/recording";
 import { signOffApi } from "./catalog/sign-off";
 import { classers, directorOnly, everyone, recorders, type ApiOperation } from "./catalog/types";
@@ -47,7 +48,7 @@ const coreApi = {
   findDelete: { method: "DELETE", path: "/api/sites/{siteId}/finds/{findId}", summary: "Delete a find (its number is never reused)", roles: recorders, doing: "delete finds", from: "none" },
 } satisfies Record<string, ApiOperation>;
 
-export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi };
+export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...publicApi };
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

@@ -72,16 +72,31 @@ export async function runGuarded<I, R>(
       actor = await loadSiteActor(db, userId, siteId);
       if (spec.roles !== "member") assertRole(actor, spec.roles, spec.doing);
     }
-    let input = rawInput as I;
-    if (spec.input) {
-      const parsed = spec.input.safeParse(rawInput);
-      if (!parsed.success) {
-        const fieldErrors = zodFieldErrors(parsed.error);
-        throw badInput(`Check the input — ${describeFieldErrors(fieldErrors)}`, fieldErrors);
-      }
-      input = parsed.data;
-    }
+    const input = parseInput(spec.input, rawInput);
     return { ok: true, data: await fn({ db, userId, actor, input }) };
+  } catch (err) {
+    return toFailure(err);
+  }
+}
+
+function parseInput<I>(schema: ZodType<I> | undefined, raw: unknown): I {
+  if (!schema) return raw as I;
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) {
+    const fieldErrors = zodFieldErrors(parsed.error);
+    throw badInput(`Check the input — ${describeFieldErrors(fieldErrors)}`, fieldErrors);
+  }
+  return parsed.data;
+}
+
+/**
+ * The entries a person uses before they can sign in (password reset, accepting an invitation): the same
+ * parsing and error mapping, no session demanded; each proves its right with a single-use token instead.
+ */
+export async function runPublic<I, R>(schema: ZodType<I>, rawInput: unknown, fn: (ctx: { db: Db; input: I }) => Promise<R>): Promise<GuardOutcome<R>> {
+  try {
+    const input = parseInput(schema, rawInput);
+    return { ok: true, data: await fn({ db: await getDb(), input }) };
   } catch (err) {
     return toFailure(err);
   }

@@ -10,6 +10,7 @@ function pathParams(path: string) {
 }
 
 function roleNote(op: ApiOperation) {
+  if (op.public) return "No sign-in: the request proves its right with a single-use token.";
   if (!op.roles) return "Any signed-in user.";
   if (op.roles === "member") return "Any member of the site.";
   return `Site roles: ${op.roles.join(", ")}.`;

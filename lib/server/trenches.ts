@@ -7,7 +7,7 @@ import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
 import type { Window } from "@/lib/spatial/types";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
-import { assertContextsWritable } from "./locks";
+import { assertContextsWritable, assertTrenchWritable } from "./locks";
 import type { SiteActor } from "./membership";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
@@ -45,6 +45,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
   const window = input.outline ? assertOutline(input.outline) : null;
   return db.transaction(async (tx) => {
     const before = await getTrench(tx, actor.site.id, trenchId);
+    await assertTrenchWritable(tx, before, "changed");
     if (window) {
       const placed = await tx
         .select({ number: finds.number, x: finds.x, y: finds.y, contextId: finds.contextId })
@@ -85,6 +86,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
 export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string) {
   return db.transaction(async (tx) => {
     const before = await getTrench(tx, actor.site.id, trenchId);
+    await assertTrenchWritable(tx, before, "deleted");
     const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
     if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);
     await tx.delete(trenches).where(eq(trenches.id, trenchId));

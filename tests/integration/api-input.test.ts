@@ -96,6 +96,21 @@ describe("bad input is refused with the reason and changes nothing", () => {
   });
 });
 
+describe("a signed-off trench", () => {
+  it("refuses outline edits naming who signed it off, and changes nothing", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    await db.update(schema.trenches).set({ signedOffAt: new Date("2026-08-01T16:00:00Z"), signedOffBy: fx.people.director.id }).where(eq(schema.trenches.id, fx.trench.id));
+    const [before] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
+    session.userId = fx.people.director.id;
+    const res = await call(trenchRoute, "PATCH", { siteId: fx.site.id, trenchId: fx.trench.id }, { name: "Renamed" });
+    expect(res.status).toBe(409);
+    expect(res.json.error).toContain("Trench A was signed off by Director on 2026-08-01 16:00 UTC");
+    const [after] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
+    expect(after).toEqual(before);
+  });
+});
+
 describe("OpenAPI document", () => {
   it("lists every catalogued route with its method", () => {
     const doc = buildOpenApiDocument();
@@ -104,6 +119,7 @@ describe("OpenAPI document", () => {
       expect(item?.[op.method.toLowerCase()], `${op.method} ${op.path}`).toBeDefined();
     }
     expect(doc.openapi).toBe("3.1.0");
+    expect((doc.paths?.["/api/auth-extra/password-reset/request"] as { post?: { description?: string } }).post?.description).toMatch(/No sign-in/);
   });
 });
 

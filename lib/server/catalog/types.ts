@@ -12,6 +12,8 @@ export type ApiOperation = {
   input?: ZodType;
   from?: "body" | "query" | "none";
   successStatus?: number;
+  /** Used before sign-in (password reset, invitation): no session, no role; a single-use token instead. */
+  public?: true;
 };
 
 /** Role sets used across the catalogue. */

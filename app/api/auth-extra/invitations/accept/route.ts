@@ -1,4 +1,5 @@
-import { acceptInvitation, invitationAcceptSchema } from "@/lib/server/invitations";
-import { publicRoute } from "../../public-route";
+import { api } from "@/lib/server/api-catalog";
+import { publicRoute } from "@/lib/server/http";
+import { acceptInvitation } from "@/lib/server/invitations";
 
-export const POST = publicRoute(invitationAcceptSchema, (db, input) => acceptInvitation(db, input));
+export const POST = publicRoute(api.invitationAccept, (ctx) => acceptInvitation(ctx.db, ctx.input));

@@ -1,4 +1,5 @@
-import { confirmPasswordReset, resetConfirmSchema } from "@/lib/server/password-reset";
-import { publicRoute } from "../../public-route";
+import { api } from "@/lib/server/api-catalog";
+import { publicRoute } from "@/lib/server/http";
+import { confirmPasswordReset } from "@/lib/server/password-reset";
 
-export const POST = publicRoute(resetConfirmSchema, (db, input) => confirmPasswordReset(db, input));
+export const POST = publicRoute(api.passwordResetConfirm, (ctx) => confirmPasswordReset(ctx.db, ctx.input));
