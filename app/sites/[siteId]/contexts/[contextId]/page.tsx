@@ -6,12 +6,14 @@ import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { RelationsPanel } from "@/components/contexts/relations-panel";
 import { StateBadge } from "@/components/contexts/state-badge";
+import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { SiteNav } from "@/components/site-nav";
 import { users } from "@/db/schema";
 import { contextSummaries, getContext } from "@/lib/server/contexts";
 import { isPublicError } from "@/lib/server/errors";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { sheetProblems } from "@/lib/server/sign-off";
 import { listTrenches } from "@/lib/server/trenches";
 
 const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation"] as const;
@@ -23,7 +25,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [trenches, all] = await Promise.all([listTrenches(db, siteId), contextSummaries(db, siteId)]);
+  const [trenches, all, problems] = await Promise.all([listTrenches(db, siteId), contextSummaries(db, siteId), sheetProblems(db, c)]);
   const ids = [c.recordedBy, c.signedOffBy, c.submittedBy].filter((x): x is string => !!x);
   const names = new Map((ids.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : []).map((u) => [u.id, u.name]));
   const trench = trenches.find((t) => t.id === c.trenchId);
@@ -46,6 +48,15 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}><span className="num">{mine?.finds ?? 0}</span> finds</Link> ·{" "}
           <Link className="underline" href={`/sites/${siteId}/trenches/${c.trenchId}`}>plan of trench {trench?.code}</Link>
         </p>
+        <section aria-labelledby="sign-off-h" className="sheet">
+          <h2 id="sign-off-h" className="text-lg font-bold">Sign-off</h2>
+          {c.state === "open" && problems.length > 0 && (
+            <ul className="mt-1 list-disc pl-5 text-sm text-warn" aria-label="What keeps this sheet from sign-off">
+              {problems.map((p) => <li key={p.field + p.message}>{p.message}</li>)}
+            </ul>
+          )}
+          <div className="mt-2"><SignOffActions siteId={siteId} contextId={c.id} number={c.number} state={c.state} role={actor.role} ready={problems.length === 0} /></div>
+        </section>
         <LockNotice state={c.state} number={c.number} who={names.get((signed ? c.signedOffBy : c.submittedBy) ?? "") ?? null} at={formatStamp(signed ? c.signedOffAt : c.submittedAt)} />
         {writable ? (
           <ContextSheetForm
