@@ -4,6 +4,7 @@
  * Fewer simulations than the default (99) keep the test short; FLK's clustering and SHD's randomness in
  * the demo (db/seed-demo.ts) are decided at that number too (see tests/integration/patterns-verdicts).
  */
+import { readFile } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
@@ -51,6 +52,17 @@ describe("Patterns workspace", () => {
     const plot = page.getByRole("figure", { name: "L(r) − r, FLK" });
     await shown(plot.locator("svg.recharts-surface path.recharts-curve").first());
     await shown(page.getByText(/Equifinality/));
+    // The figure and its curves can be taken away: CSV of the curves, SVG of the drawing.
+    const save = async (button: string) => {
+      const [download] = await Promise.all([page.waitForEvent("download"), plot.getByRole("button", { name: button }).click()]);
+      return { name: download.suggestedFilename(), text: await readFile((await download.path())!, "utf8") };
+    };
+    const csv = await save("CSV");
+    expect(csv.name).toBe("l-minus-r-FLK.csv");
+    expect(csv.text.split(/\r?\n/)[0]).toBe("r,observed,band_lo,band_hi,null_curve");
+    const svg = await save("SVG");
+    expect(svg.name).toBe("l-minus-r-FLK.svg");
+    expect(svg.text.startsWith("<svg")).toBe(true);
     await page.screenshot({ path: "test-results/patterns-result.png", fullPage: true });
     // The run is saved: a reload of the same address shows it again.
     await page.reload();
