@@ -13,7 +13,7 @@ import { RegisterFilters, type RegisterOptions } from "./register-filters";
 import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
 
 type Page = { page: number; pageSize: number; total: number; rows: RegisterRow[] };
-const sortable = new Set(["number", "context", "class", "x", "y", "z", "recordedAt"]);
+const sortable = new Set(["number", "trench", "context", "class", "recorder", "x", "y", "z", "recordedAt"]);
 const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
 
 const columns: ColumnDef<RegisterRow>[] = [

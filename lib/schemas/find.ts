@@ -18,7 +18,7 @@ export const findCreateSchema = z.object({
 
 export const findUpdateSchema = findCreateSchema.omit({ method: true }).partial();
 
-export const findSortKeys = ["number", "recordedAt", "context", "class", "x", "y", "z"] as const;
+export const findSortKeys = ["number", "recordedAt", "trench", "context", "class", "recorder", "x", "y", "z"] as const;
 
 export const findListQuery = pageQuery.extend({
   trenchId: uuid.optional(),

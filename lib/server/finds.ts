@@ -90,8 +90,10 @@ export async function deleteFind(db: Db, actor: SiteActor, findId: string) {
 const sortColumns = {
   number: finds.number,
   recordedAt: finds.recordedAt,
+  trench: trenches.code,
   context: contexts.number,
   class: artefactClasses.code,
+  recorder: users.name,
   x: finds.x,
   y: finds.y,
   z: finds.z,
@@ -171,6 +173,8 @@ export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
   let ids = db.select({ id: finds.id }).from(finds).$dynamic();
   if (q.sort === "context") ids = ids.innerJoin(contexts, eq(contexts.id, finds.contextId));
   if (q.sort === "class") ids = ids.innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId));
+  if (q.sort === "trench") ids = ids.innerJoin(trenches, eq(trenches.id, finds.trenchId));
+  if (q.sort === "recorder") ids = ids.leftJoin(users, eq(users.id, finds.recordedBy));
   const [pageIds, total] = await Promise.all([
     ids.where(filter).orderBy(sortOrder(q), asc(finds.number)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
     countFinds(db, filter),

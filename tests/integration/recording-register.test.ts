@@ -48,6 +48,10 @@ describe("finds register", () => {
     expect(nums(byClass)).toEqual([3, 6, 9, 12, 15, 18, 21, 24, 27, 30]);
     const byContext = await q({ sort: "context", dir: "desc", pageSize: "3" });
     expect(byContext.rows.map((r: any) => r.contextNumber)).toEqual([9001, 9001, 9001]);
+    // The fixture's people are named "Digger" and "Specialist": alphabetical order puts the digger's finds first.
+    expect(nums(await q({ sort: "recorder", dir: "asc", pageSize: "3" }))).toEqual([11, 12, 13]);
+    expect(nums(await q({ sort: "recorder", dir: "desc", pageSize: "3" }))).toEqual([1, 2, 3]);
+    expect((await q({ sort: "trench", pageSize: "2" })).rows.map((r: any) => r.trenchCode)).toEqual(["A", "A"]);
     expect((await call(findsRoute, "GET", { siteId: fx.site.id }, undefined, { sort: "colour" })).status).toBe(400);
   });
 
