@@ -11,7 +11,7 @@ export function useRun(siteId: string, runId: string | null) {
     queryFn: () => fetchJson<RunView>(`/api/sites/${siteId}/runs/${runId}`),
     enabled: !!runId,
     staleTime: 0,
-    refetchInterval: (q) => (q.state.data && (q.state.data.status === "queued" || q.state.data.status === "running") ? 200 : false),
+    refetchInterval: (q) => (q.state.data && (q.state.data.status === "queued" || q.state.data.status === "running") ? 150 : false),
   });
 }
 
