@@ -5,7 +5,7 @@ import type { PhotoView } from "@/lib/geometry/photo-fit-input";
 import { PhotoFitPanel, type DraftPoint } from "./photo-fit-panel";
 import { PhotoUpload } from "./photo-upload";
 
-export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, onUploaded, fit }: {
+export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, onUploaded, onDelete, fit }: {
   siteId: string;
   trenchId: string;
   photos: PhotoView[];
@@ -13,6 +13,7 @@ export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, 
   canEdit: boolean;
   onPhoto: (id: string) => void;
   onUploaded: (id: string) => void;
+  onDelete: (id: string) => void;
   fit: {
     points: DraftPoint[];
     active: number | null;
@@ -39,7 +40,14 @@ export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, 
         </div>
       )}
       {photo ? (
-        <PhotoFitPanel photo={photo} canEdit={canEdit} {...fit} />
+        <>
+          <PhotoFitPanel photo={photo} canEdit={canEdit} {...fit} />
+          {canEdit && (
+            <button type="button" className="btn-danger" onClick={() => window.confirm(`Delete the photo “${photo.fileName}” and its fit? Finds and the outline stay.`) && onDelete(photo.id)}>
+              Delete this photo
+            </button>
+          )}
+        </>
       ) : (
         <p className="text-ink-soft">No photo of this trench yet.</p>
       )}

@@ -371,6 +371,16 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           {panel === "photo" && (
             <PhotoPanel siteId={siteId} trenchId={trench.id} photos={photos} photo={photo} canEdit={canEdit} onPhoto={setPhotoId}
               onUploaded={async (id) => { await photosQuery.refetch(); setPhotoId(id); chooseTool("fit"); }}
+              onDelete={async (id) => {
+                try {
+                  await apiCall(`/api/sites/${siteId}/photos/${id}`, { method: "DELETE" });
+                  const left = (await photosQuery.refetch()).data ?? [];
+                  setPhotoId(left[0]?.id ?? null);
+                  say("ok", "Photo deleted.");
+                } catch (err) {
+                  say("warn", `Photo not deleted: ${(err as Error).message}`);
+                }
+              }}
               fit={{ points: fitPoints, active: activePoint, model: fitModel, onPoints: setFitPoints, onActive: setActivePoint, onModel: setFitModel, onFit: () => void runFit(), fitting, error: fitError }} />
           )}
           {panel === "help" && <HelpPanel onClose={() => setPanel("finds")} />}
