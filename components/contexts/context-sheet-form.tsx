@@ -6,7 +6,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { contextCreateSchema, contextTypes } from "@/lib/schemas/context";
-import { ApiError, apiFetch } from "@/components/register/api-fetch";
+import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import { applyFieldErrors, FormField } from "./form-field";
 
 type Input = z.input<typeof contextCreateSchema>;
@@ -36,10 +36,10 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
     try {
       if (contextId) {
         const { trenchId: _fixed, ...changes } = values;
-        await apiFetch(`/api/sites/${siteId}/contexts/${contextId}`, { method: "PATCH", body: JSON.stringify(changes) });
+        await fetchJson(`/api/sites/${siteId}/contexts/${contextId}`, { method: "PATCH", body: changes });
         router.refresh();
       } else {
-        const made = await apiFetch<{ id: string }>(`/api/sites/${siteId}/contexts`, { method: "POST", body: JSON.stringify(values) });
+        const made = await fetchJson<{ id: string }>(`/api/sites/${siteId}/contexts`, { method: "POST", body: values });
         router.push(`/sites/${siteId}/contexts/${made.id}`);
       }
     } catch (err) {

@@ -6,7 +6,7 @@ import Link from "next/link";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { readingLabels, relationCreateSchema, relationReadings } from "@/lib/schemas/relation";
-import { ApiError, apiFetch } from "@/components/register/api-fetch";
+import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import { applyFieldErrors, FormField } from "./form-field";
 
 type Reading = { relationId: string; reading: string; label: string; otherId: string; otherNumber: number; redundant: boolean };
@@ -16,18 +16,18 @@ type Input = z.input<typeof relationCreateSchema>;
 export function RelationsPanel({ siteId, contextId, number, others, canEdit }: { siteId: string; contextId: string; number: number; others: { id: string; number: number }[]; canEdit: boolean }) {
   const qc = useQueryClient();
   const key = ["relations", siteId, contextId];
-  const list = useQuery({ queryKey: key, queryFn: () => apiFetch<Reading[]>(`/api/sites/${siteId}/relations?contextId=${contextId}`) });
+  const list = useQuery({ queryKey: key, queryFn: () => fetchJson<Reading[]>(`/api/sites/${siteId}/relations?contextId=${contextId}`) });
   const { register, handleSubmit, setError, reset, formState } = useForm<Input>({ resolver: zodResolver(relationCreateSchema), defaultValues: { contextId, reading: "above", otherId: "" } });
   const refresh = () => qc.invalidateQueries({ queryKey: ["relations", siteId] });
   const add = useMutation({
-    mutationFn: (v: Input) => apiFetch(`/api/sites/${siteId}/relations`, { method: "POST", body: JSON.stringify(v) }),
+    mutationFn: (v: Input) => fetchJson(`/api/sites/${siteId}/relations`, { method: "POST", body: v }),
     onSuccess: () => { reset({ contextId, reading: "above", otherId: "" }); refresh(); },
     onError: (err) => {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setError("root", { message: err.message });
     },
   });
-  const remove = useMutation({ mutationFn: (id: string) => apiFetch(`/api/sites/${siteId}/relations/${id}`, { method: "DELETE" }), onSuccess: refresh });
+  const remove = useMutation({ mutationFn: (id: string) => fetchJson(`/api/sites/${siteId}/relations/${id}`, { method: "DELETE" }), onSuccess: refresh });
   const e = formState.errors;
 
   return (

@@ -7,7 +7,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { findUpdateSchema } from "@/lib/schemas/find";
 import { applyFieldErrors, FormField } from "@/components/contexts/form-field";
-import { ApiError, apiFetch } from "./api-fetch";
+import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 
 type Input = z.input<typeof findUpdateSchema>;
 type Output = z.output<typeof findUpdateSchema>;
@@ -24,7 +24,7 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes }: {
   const submit = handleSubmit(async (values) => {
     setNote(null);
     try {
-      await apiFetch(`/api/sites/${siteId}/finds/${findId}`, { method: "PATCH", body: JSON.stringify(values) });
+      await fetchJson(`/api/sites/${siteId}/finds/${findId}`, { method: "PATCH", body: values });
       setNote({ ok: true, text: "Saved." });
       router.refresh();
     } catch (err) {

@@ -5,7 +5,7 @@ import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type Sortin
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
-import { apiFetch } from "./api-fetch";
+import { fetchJson } from "@/components/ui/fetch-json";
 import { ClassMark } from "./class-mark";
 import { Fragment } from "react";
 import { FindPanel, type RegisterRow } from "./find-panel";
@@ -39,7 +39,7 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
   const [openId, setOpenId] = useState<string | null>(null);
   const go = (change: RegisterView) => router.replace(`${pathname}?${viewQuery(withChange(view, change))}`, { scroll: false });
   const qs = viewQuery(view);
-  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => apiFetch<Page>(`/api/sites/${siteId}/finds?${qs}`), placeholderData: keepPreviousData });
+  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => fetchJson<Page>(`/api/sites/${siteId}/finds?${qs}`), placeholderData: keepPreviousData });
   const pageSize = Number(view.pageSize ?? 50);
   const page = Number(view.page ?? 1);
   const total = data.data?.total ?? 0;

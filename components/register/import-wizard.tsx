@@ -6,7 +6,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { importFieldLabels, importFields, importMappingSchema, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
 import { FormField } from "@/components/contexts/form-field";
-import { ApiError, apiFetch } from "./api-fetch";
+import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import { ImportReport } from "./import-report";
 
 export type Preview = {
@@ -30,7 +30,7 @@ export function ImportWizard({ siteId }: { siteId: string }) {
     setFailure(null);
     setDone(null);
     try {
-      const p = await apiFetch<Preview>(`/api/sites/${siteId}/import/preview`, { method: "POST", body: JSON.stringify({ csv: text, fileName: name, mapping }) });
+      const p = await fetchJson<Preview>(`/api/sites/${siteId}/import/preview`, { method: "POST", body: { csv: text, fileName: name, mapping } });
       setPreview(p);
       form.reset(p.mapping as ImportMapping);
       for (const [k, msgs] of Object.entries(p.mappingProblems)) form.setError(k.replace("mapping.", "") as keyof ImportMapping, { message: msgs.join(" ") });
@@ -46,7 +46,7 @@ export function ImportWizard({ siteId }: { siteId: string }) {
     setBusy("Importing…");
     setFailure(null);
     try {
-      setDone(await apiFetch(`/api/sites/${siteId}/import`, { method: "POST", body: JSON.stringify({ csv: file.text, fileName: file.name, mapping }) }));
+      setDone(await fetchJson(`/api/sites/${siteId}/import`, { method: "POST", body: { csv: file.text, fileName: file.name, mapping } }));
       setPreview(null);
       setFile(null);
     } catch (err) {

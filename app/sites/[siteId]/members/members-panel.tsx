@@ -2,27 +2,21 @@
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
+import { fetchJson } from "@/components/ui/fetch-json";
 import { roles } from "@/lib/schemas/common";
 
 type Member = { userId: string; name: string; email: string; role: (typeof roles)[number] };
 
-async function api<T>(url: string, init?: RequestInit): Promise<T> {
-  const res = await fetch(url, { ...init, headers: { "content-type": "application/json" } });
-  const body = await res.json().catch(() => ({}));
-  if (!res.ok) throw new Error(body.error ?? `The server answered ${res.status}.`);
-  return body as T;
-}
-
 export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; canManage: boolean; selfId: string }) {
   const qc = useQueryClient();
   const key = ["members", siteId];
-  const members = useQuery({ queryKey: key, queryFn: () => api<Member[]>(`/api/sites/${siteId}/members`) });
+  const members = useQuery({ queryKey: key, queryFn: () => fetchJson<Member[]>(`/api/sites/${siteId}/members`) });
   const [email, setEmail] = useState("");
   const [role, setRole] = useState<Member["role"]>("digger");
   const done = () => qc.invalidateQueries({ queryKey: key });
-  const add = useMutation({ mutationFn: () => api(`/api/sites/${siteId}/members`, { method: "POST", body: JSON.stringify({ email, role }) }), onSuccess: () => { setEmail(""); done(); } });
-  const change = useMutation({ mutationFn: (m: { userId: string; role: string }) => api(`/api/sites/${siteId}/members/${m.userId}`, { method: "PATCH", body: JSON.stringify({ role: m.role }) }), onSuccess: done });
-  const remove = useMutation({ mutationFn: (userId: string) => api(`/api/sites/${siteId}/members/${userId}`, { method: "DELETE" }), onSuccess: done });
+  const add = useMutation({ mutationFn: () => fetchJson(`/api/sites/${siteId}/members`, { method: "POST", body: { email, role } }), onSuccess: () => { setEmail(""); done(); } });
+  const change = useMutation({ mutationFn: (m: { userId: string; role: string }) => fetchJson(`/api/sites/${siteId}/members/${m.userId}`, { method: "PATCH", body: { role: m.role } }), onSuccess: done });
+  const remove = useMutation({ mutationFn: (userId: string) => fetchJson(`/api/sites/${siteId}/members/${userId}`, { method: "DELETE" }), onSuccess: done });
   const failure = add.error ?? change.error ?? remove.error;
 
   return (
