@@ -5,11 +5,13 @@ import { parseOutlineText, type Rings } from "@/lib/geometry/outline-edit";
 import type { OutlineCheck } from "@/lib/geometry/outline";
 
 /** Live measures of the outline being edited, its refusal reason, saving, and pasted coordinates. */
-export function OutlinePanel({ rings, check, dirty, saving, serverError, selectedVertex, drawing, onSave, onDiscard, onDeleteVertex, onImport, onCloseRing, onCancelRing }: {
+export function OutlinePanel({ rings, check, dirty, saving, locked, serverError, selectedVertex, drawing, onSave, onDiscard, onDeleteVertex, onImport, onCloseRing, onCancelRing }: {
   rings: Rings;
   check: OutlineCheck | null;
   dirty: boolean;
   saving: boolean;
+  /** Why the outline cannot be saved (the trench is signed off), or null. */
+  locked: string | null;
   serverError: string | null;
   selectedVertex: boolean;
   drawing: { kind: "draw" | "hole"; count: number } | null;
@@ -57,9 +59,10 @@ export function OutlinePanel({ rings, check, dirty, saving, serverError, selecte
           Not a valid outline: {check.reason} The fault is marked on the plan.
         </p>
       )}
+      {locked && <p role="status" className="rounded border-2 border-ink/40 bg-paper-deep p-2 font-semibold">{locked}</p>}
       {serverError && <p role="alert" className="rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">{serverError}</p>}
       <div className="flex flex-wrap gap-2">
-        <button type="button" className="btn-primary" onClick={onSave} disabled={!dirty || saving || !check?.ok}>{saving ? "Saving…" : "Save outline"}</button>
+        <button type="button" className="btn-primary" onClick={onSave} disabled={!dirty || saving || !check?.ok || Boolean(locked)}>{saving ? "Saving…" : "Save outline"}</button>
         <button type="button" className="btn" onClick={onDiscard} disabled={!dirty}>Discard changes</button>
         <button type="button" className="btn-danger" onClick={onDeleteVertex} disabled={!selectedVertex}>Delete vertex</button>
       </div>

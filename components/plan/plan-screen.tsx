@@ -363,7 +363,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           ))}
           {panel === "layers" && <LayersPanel classes={classes} contexts={contexts} finds={finds} hiddenClasses={hiddenClasses} hiddenContexts={hiddenContexts} onToggleClass={(id) => setHiddenClasses(toggle(hiddenClasses, id))} onToggleContext={(id) => setHiddenContexts(toggle(hiddenContexts, id))} photoOpacity={opacity} onPhotoOpacity={setOpacity} hasPhoto={Boolean(photoLayer)} />}
           {panel === "outline" && (
-            <OutlinePanel rings={rings} check={check} dirty={dirty} saving={savingOutline} serverError={outlineError} selectedVertex={Boolean(selectedVertex)}
+            <OutlinePanel rings={rings} check={check} dirty={dirty} saving={savingOutline} locked={trench.signedOff ? `Trench ${trench.code} is signed off: its outline cannot change until a director reopens it.` : null} serverError={outlineError} selectedVertex={Boolean(selectedVertex)}
               drawing={tool === "draw" || tool === "hole" ? { kind: tool, count: drawing.length } : null}
               onSave={() => void saveOutline()} onDiscard={() => { setRings(savedRings); setOutlineError(null); }} onDeleteVertex={deleteSelectedVertex}
               onImport={(r) => { editRings(r, "import coordinates"); setTool("outline"); }} onCloseRing={closeRing} onCancelRing={() => setDrawing([])} />
