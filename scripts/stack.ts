@@ -37,6 +37,30 @@ async function waitForHealth(url: string, child: ChildProcess, timeoutMs = 60_00
   throw new Error(`the app did not answer ${url}/api/health within ${timeoutMs} ms`);
 }
 
+/** Local stand-ins for the hosted services, speaking their real protocols (local-services.md). */
+async function startServices(opts: StackOptions, dataDir: string, url: string, env: NodeJS.ProcessEnv, stops: (() => Promise<void>)[]) {
+  const mail = await startMailSink({ port: opts.smtpPort ?? opts.port + 1525, dir: path.join(dataDir, "mail") });
+  stops.push(() => mail.stop());
+  const uploads = await startUploadFake({ port: opts.uploadPort ?? opts.port + 210, dir: path.join(dataDir, "uploads"), appUrl: url });
+  stops.push(() => uploads.stop());
+  Object.assign(env, {
+    SMTP_URL: mail.url,
+    UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
+    UPLOADTHING_INGEST_URL: uploads.url,
+    UPLOADTHING_API_URL: uploads.url,
+    UPLOADTHING_IS_DEV: "false",
+    UPLOADTHING_CALLBACK_URL: `${url}/api/uploadthing`,
+    LOAMWORK_DEV_MAIL: "1",
+  });
+}
+
+/** Seeds in a child process that exits before the server opens the same PGlite folder. */
+function seedDemo(env: NodeJS.ProcessEnv, quiet?: boolean) {
+  const seed = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
+  if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
+  if (!quiet) process.stdout.write(seed.stdout);
+}
+
 export async function startStack(opts: StackOptions): Promise<Stack> {
   const dataDir = path.resolve(root, opts.dataDir);
   mkdirSync(dataDir, { recursive: true });
@@ -54,54 +78,38 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   };
   delete env.DATABASE_URL;
   const stops: (() => Promise<void>)[] = [];
-
-  // Local stand-ins for the hosted services, speaking their real protocols (local-services.md).
-  const mail = await startMailSink({ port: opts.smtpPort ?? opts.port + 1525, dir: path.join(dataDir, "mail") });
-  stops.push(() => mail.stop());
-  const uploads = await startUploadFake({ port: opts.uploadPort ?? opts.port + 210, dir: path.join(dataDir, "uploads"), appUrl: url });
-  stops.push(() => uploads.stop());
-  Object.assign(env, {
-    SMTP_URL: mail.url,
-    UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
-    UPLOADTHING_INGEST_URL: uploads.url,
-    UPLOADTHING_API_URL: uploads.url,
-    UPLOADTHING_IS_DEV: "false",
-    UPLOADTHING_CALLBACK_URL: `${url}/api/uploadthing`,
-    LOAMWORK_DEV_MAIL: "1",
-  });
-
-  const seed = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
-  if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
-  if (!opts.quiet) process.stdout.write(seed.stdout);
-
-  const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(opts.port)], {
-    cwd: root,
-    env,
-    stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
-  });
+  const stopAll = async () => {
+    for (const stop of stops.splice(0).reverse()) await stop();
+  };
   let log = "";
-  app.stdout?.on("data", (d) => (log = (log + d).slice(-20_000)));
-  app.stderr?.on("data", (d) => (log = (log + d).slice(-20_000)));
-  stops.push(
-    () =>
-      new Promise<void>((resolve) => {
-        if (app.exitCode !== null) return resolve();
-        app.once("exit", () => resolve());
-        app.kill("SIGTERM");
-        setTimeout(() => app.kill("SIGKILL"), 5000).unref();
-      }),
-  );
   try {
+    await startServices(opts, dataDir, url, env, stops);
+    seedDemo(env, opts.quiet);
+    const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(opts.port)], {
+      cwd: root,
+      env,
+      stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
+    });
+    app.stdout?.on("data", (d) => (log = (log + d).slice(-20_000)));
+    app.stderr?.on("data", (d) => (log = (log + d).slice(-20_000)));
+    stops.push(
+      () =>
+        new Promise<void>((resolve) => {
+          if (app.exitCode !== null) return resolve();
+          app.once("exit", () => resolve());
+          app.kill("SIGTERM");
+          setTimeout(() => app.kill("SIGKILL"), 5000).unref();
+        }),
+    );
     await waitForHealth(url, app);
   } catch (err) {
-    for (const stop of stops.reverse()) await stop();
-    throw new Error(`${(err as Error).message}\n--- app log ---\n${log}`);
+    // Whatever had started (services, the app) is stopped, so a failed start leaves no port taken.
+    await stopAll();
+    throw new Error(`${(err as Error).message}${log ? `\n--- app log ---\n${log}` : ""}`);
   }
   return {
     url,
     env,
-    stop: async () => {
-      for (const stop of stops.reverse()) await stop();
-    },
+    stop: stopAll,
   };
 }

@@ -1,16 +1,30 @@
 import { rmSync } from "node:fs";
+import net from "node:net";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
 import { ensureBuilt, startStack, type Stack } from "../../../scripts/stack";
 
 let stack: Stack | undefined;
 
+/** A port nothing listens on now, so a browser run never collides with another server on this machine. */
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+  });
+}
+
 /** One built, seeded app for all browser tests; each test makes its own records so tests do not collide. */
 export default async function setup(project: TestProject) {
   ensureBuilt();
   const dataDir = path.join(".tmp", `e2e-${process.pid}`);
   rmSync(dataDir, { recursive: true, force: true });
-  stack = await startStack({ port: Number(process.env.E2E_PORT ?? 3100), dataDir, quiet: true });
+  const port = process.env.E2E_PORT ? Number(process.env.E2E_PORT) : await freePort();
+  stack = await startStack({ port, dataDir, quiet: true, smtpPort: 0, uploadPort: 0 });
   project.provide("baseURL", stack.url);
   project.provide("dataDir", path.resolve(dataDir));
   return async () => {
