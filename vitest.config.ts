@@ -14,7 +14,7 @@ export default defineConfig({
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: "forks",
-    setupFiles: ["tests/support/pg-per-file.ts"],
+    setupFiles: ["tests/support/per-file-setup.ts"],
     env: { LOAMWORK_DATA_DIR: "memory", NODE_ENV: "test" },
   },
 });

@@ -1,10 +1,16 @@
 import { closeDb, getDb } from "@/db/client";
 import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
+import { seedDemoPhoto } from "@/db/seed-demo-photo";
 
-/** `npm run seed`: creates the invented demo site (once) and prints the demo sign-ins. */
+/**
+ * `npm run seed`: creates the invented demo site and its fitted trench photo (once each) and prints the
+ * demo sign-ins. Run with the react-server condition, under which the server modules it reuses load.
+ */
 const db = await getDb();
 const { created } = await seedDemo(db);
+const photo = await seedDemoPhoto(db);
 await closeDb();
 console.log(created ? "Demo site Whinnydale Holm created." : "Demo site already present; nothing changed.");
+if (photo) console.log("Synthetic photo of trench A added and fitted to the site grid.");
 console.log("Demo sign-ins:");
 for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email.padEnd(28)} ${u.password}`);

@@ -56,7 +56,7 @@ async function startServices(opts: StackOptions, dataDir: string, url: string, e
 
 /** Seeds in a child process that exits before the server opens the same PGlite folder. */
 function seedDemo(env: NodeJS.ProcessEnv, quiet?: boolean) {
-  const seed = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
+  const seed = spawnSync(process.execPath, ["--conditions=react-server", "--import", "tsx", path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
   if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
   if (!quiet) process.stdout.write(seed.stdout);
 }

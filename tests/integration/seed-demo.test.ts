@@ -39,3 +39,23 @@ describe("demo site seed", () => {
     expect(site.nextFindNumber).toBe(found.length + 1);
   });
 });
+
+describe("demo trench photo", () => {
+  it("is added once, fitted to the grid through its four pegs with sub-centimetre residuals", async () => {
+    const { seedDemoPhoto } = await import("@/db/seed-demo-photo");
+    const { loadFile } = await import("@/lib/server/uploads/file-store");
+    const db = await getDb();
+    await seedDemo(db);
+    expect(await seedDemoPhoto(db)).toBe(true);
+    expect(await seedDemoPhoto(db)).toBe(false);
+    const rows = await db.select().from(s.photos);
+    expect(rows).toHaveLength(1);
+    const fit = rows[0].fit as { model: string; points: unknown[]; residuals: number[]; rms: number };
+    expect(fit.model).toBe("similarity");
+    expect(fit.points).toHaveLength(4);
+    // The pegs' pixels are whole pixels at 95 px/m: rounding moves each by at most √2/2 px ≈ 7.4 mm.
+    for (const r of fit.residuals) expect(r).toBeLessThan(0.0075);
+    const display = await loadFile(rows[0].displayPath!);
+    expect(display?.subarray(0, 2)).toEqual(Buffer.from([0xff, 0xd8]));
+  });
+});

@@ -1,4 +1,11 @@
+import { mkdtempSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import pg from "pg";
+
+/** Every test file stores photos and mail in a fresh temporary folder, never in the working tree. */
+process.env.LOAMWORK_FILES_DIR = mkdtempSync(path.join(os.tmpdir(), "loamwork-files-"));
+process.env.MAIL_SINK_DIR = mkdtempSync(path.join(os.tmpdir(), "loamwork-mail-"));
 
 /**
  * When the suite runs against a real PostgreSQL server (LOAMWORK_TEST_PG, set by scripts/with-postgres.sh),
