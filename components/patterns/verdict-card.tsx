@@ -10,7 +10,7 @@ export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; su
       <header className="flex flex-wrap items-baseline gap-3">
         <h4 className="font-bold">{TEST_LABEL[t.kind]}</h4>
         <span data-verdict={t.verdict} className={`rounded border-2 px-2 py-0.5 text-sm font-bold ${VERDICT_TONE[t.verdict]}`}>{VERDICT_LABEL[t.verdict]}</span>
-        <span className="num text-sm">p = {fmtP(t.p)}</span>
+        <span className="num text-sm">p {t.p !== null && t.p < 1e-12 ? "" : "= "}{fmtP(t.p)}</span>
       </header>
       <p>{t.sentence}</p>
       <p className="text-sm text-ink-soft"><span className="font-semibold">Question answered: </span>{t.question}</p>
