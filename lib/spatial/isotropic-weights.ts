@@ -59,17 +59,32 @@ export function isotropicWeight(t: IsotropicTables, i: number, d: number): numbe
  */
 export function weightFrom(bdist: Float64Array, start: Int32Array, slots: Float64Array, total: Float64Array, i: number, d: number): number {
   if (d <= bdist[i]) return 1;
-  const inv = 1 / d;
+  return weightBeyond(start, slots, total, i, d, 1 / d);
+}
+
+/**
+ * The weight when d exceeds the boundary distance, with inv = 1/d given (the hot loop shares it between
+ * the two centres of a pair). Within the loop seg < d, so h ≤ seg < d and acos is always in range. The
+ * polynomial of acosAS is evaluated in Estrin's form here (shorter dependency chain; it differs from
+ * Horner's by rounding only).
+ */
+export function weightBeyond(start: Int32Array, slots: Float64Array, total: Float64Array, i: number, d: number, inv: number): number {
   let lost = 0;
   for (let k = start[i] * SLOT, k1 = start[i + 1] * SLOT; k < k1; k += SLOT) {
     if (slots[k] >= d) break;
     const x = slots[k + 1] * inv;
-    const beta = x < 1 ? acosAS(x) : 0;
-    const lo = slots[k + 2] > -beta ? slots[k + 2] : -beta;
-    const hi = slots[k + 3] < beta ? slots[k + 3] : beta;
-    if (hi > lo) lost += slots[k + 4] * (hi - lo);
+    const x2 = x * x, x4 = x2 * x2;
+    const beta =
+      Math.sqrt(1 - x) *
+      (1.570796305 + x * -0.2145988016 + x2 * (0.0889789874 + x * -0.0501743046) + x4 * (0.030891881 + x * -0.0170881256 + x2 * (0.0066700901 + x * -0.0012624911)));
+    // |[t_a, t_b] ∩ [−β, β]| = max(0, min(t_b, β) − max(t_a, −β)) without branches (unpredictable ones
+    // cost more than the arithmetic), by min(u, v) = (u + v − |u − v|)/2, max(u, v) = (u + v + |u − v|)/2:
+    // z is twice the difference and z + |z| four times the overlap, hence the 1/4 below
+    const ta = slots[k + 2], tb = slots[k + 3];
+    const z = tb - ta + 2 * beta - Math.abs(tb - beta) - Math.abs(ta + beta);
+    lost += slots[k + 4] * (z + Math.abs(z));
   }
-  const theta = total[i] - lost;
+  const theta = total[i] - 0.25 * lost;
   if (!(theta * MAX_WEIGHT > TWO_PI)) return MAX_WEIGHT;
   const w = TWO_PI / theta;
   return w > 1 ? w : 1;

@@ -7,7 +7,7 @@
  * stored; the grid, weight tables and histogram are reused from one pattern to the next.
  */
 import { createCellGrid } from "./cell-grid";
-import { createIsotropicWeights, weightFrom } from "./isotropic-weights";
+import { createIsotropicWeights, weightBeyond } from "./isotropic-weights";
 import { createBinning, isAxisRectangle } from "./r-grid";
 import type { Window } from "./types";
 
@@ -76,7 +76,8 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
               if (tables === null) continue;
               const d = Math.sqrt(dd);
               // most circles of the pair lie wholly inside W (weight 1): test that here, without a call
-              const w = (d <= bd[p] ? 1 : weightFrom(bd, st, sl, tot, p, d)) + (d <= bd[q] ? 1 : weightFrom(bd, st, sl, tot, q, d));
+              const invD = 1 / d;
+              const w = (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) + (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
               let b = guess ? Math.floor(d * inv) + 1 : 0;
               if (!(b > 0 && b < m && r[b - 1] <= d && d < r[b])) b = bin(d);
               hist[b] += u ? w * su[p] * su[q] : w;
