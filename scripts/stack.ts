@@ -5,7 +5,7 @@
  * only one process may open a PGlite folder at a time.
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync, mkdirSync } from "node:fs";
+import { appendFileSync, existsSync, mkdirSync } from "node:fs";
 import path from "node:path";
 import { startMailSink } from "../lib/dev-services/mail-sink";
 import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "../lib/dev-services/upload-fake";
@@ -90,8 +90,13 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
       env,
       stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
     });
-    app.stdout?.on("data", (d) => (log = (log + d).slice(-20_000)));
-    app.stderr?.on("data", (d) => (log = (log + d).slice(-20_000)));
+    // Quiet runs (browser tests) keep the server's output in <dataDir>/app.log for when a test fails.
+    const keep = (d: Buffer) => {
+      log = (log + d).slice(-20_000);
+      appendFileSync(path.join(dataDir, "app.log"), d);
+    };
+    app.stdout?.on("data", keep);
+    app.stderr?.on("data", keep);
     stops.push(
       () =>
         new Promise<void>((resolve) => {

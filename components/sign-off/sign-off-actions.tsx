@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import type { Context, Role } from "@/db/schema";
 import { fetchJson } from "@/components/ui/fetch-json";
+import { useSignOffNotice } from "./sign-off-notice";
 
 type Props = { siteId: string; contextId: string; number: number; state: Context["state"]; role: Role; ready: boolean };
 type Outcome = { mail?: { sent: number; failed: number } };
@@ -11,6 +12,7 @@ type Outcome = { mail?: { sent: number; failed: number } };
 /** The buttons of one context in the sign-off flow, as the caller's role allows; the server checks again. */
 export function SignOffActions({ siteId, contextId, number, state, role, ready }: Props) {
   const router = useRouter();
+  const announce = useSignOffNotice();
   const reasonId = useId();
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
@@ -25,7 +27,10 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
     try {
       const out = await fetchJson<Outcome>(`${base}/${step}`, { method: "POST", body: body ?? {} });
       const m = out.mail;
-      setNote(m ? (m.failed ? `Done; ${m.failed} e-mail(s) could not be sent.` : `Done; ${m.sent} e-mail(s) sent.`) : "Done.");
+      const what = { submit: `Context ${number} submitted for sign-off`, lock: `Context ${number} signed off`, reopen: `Context ${number} ${state === "signed_off" ? "reopened" : "returned to open"}` }[step];
+      const text = `${what}; ${m ? (m.failed ? `${m.failed} e-mail(s) could not be sent.` : `${m.sent} e-mail(s) sent.`) : "done."}`;
+      if (announce) announce({ text, tone: m?.failed ? "error" : "ok" });
+      else setNote(text);
       setAsking(false);
       setReason("");
       router.refresh();

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { Metadata } from "next";
 import { SiteNav } from "@/components/site-nav";
+import { SignOffNoticeProvider } from "@/components/sign-off/sign-off-notice";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
@@ -51,6 +52,7 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
             })}
           </ul>
         </section>
+        <SignOffNoticeProvider>
         {groups.map((g) => (
           <section key={g.key} aria-labelledby={`${g.key}-h`}>
             <h2 id={`${g.key}-h`} className="text-xl font-bold">{g.title} <span className="num text-base text-ink-soft">({g.rows.length})</span></h2>
@@ -83,6 +85,7 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
             )}
           </section>
         ))}
+        </SignOffNoticeProvider>
         <p><Link className="underline" href={`/sites/${siteId}/audit`}>Record trail of the whole site</Link></p>
       </main>
     </>
