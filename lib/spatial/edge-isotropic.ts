@@ -34,7 +34,7 @@ export interface IsotropicEdgeData {
 }
 
 /** Σ_e s_e·wedge_e over all edges: the angle of W seen from c (π on an edge, the corner angle at a vertex). */
-function fanAngle(edges: Float64Array, edgeCount: number, cx: number, cy: number, tol: number): number {
+export function fanAngle(edges: Float64Array, edgeCount: number, cx: number, cy: number, tol: number): number {
   let sum = 0;
   for (let e = 0; e < edgeCount; e++) {
     const ax = edges[4 * e] - cx, ay = edges[4 * e + 1] - cy;

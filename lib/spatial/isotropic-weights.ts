@@ -15,6 +15,7 @@
  * well under 1e−7 relative.
  */
 import type { Window } from "./types";
+import { fanAngle } from "./edge-isotropic";
 
 const TWO_PI = 2 * Math.PI;
 const MAX_WEIGHT = 100;
@@ -90,19 +91,6 @@ export function weightBeyond(start: Int32Array, slots: Float64Array, total: Floa
   return w > 1 ? w : 1;
 }
 
-/** Σ_k s_k·(wedge of edge k) over all edges: the angle of W seen from (cx, cy), π on an edge's interior. */
-function fanAngle(window: Window, cx: number, cy: number, tol: number): number {
-  const { edges, edgeCount } = window;
-  let sum = 0;
-  for (let e = 0; e < edgeCount; e++) {
-    const ax = edges[4 * e] - cx, ay = edges[4 * e + 1] - cy;
-    const bx = edges[4 * e + 2] - cx, by = edges[4 * e + 3] - cy;
-    const cross = ax * by - ay * bx;
-    if (Math.abs(cross) <= tol * Math.hypot(bx - ax, by - ay)) continue;
-    sum += Math.atan2(cross, ax * bx + ay * by);
-  }
-  return sum;
-}
 
 export function createIsotropicWeights(window: Window, rmax: number): IsotropicWeights {
   const { edges, edgeCount } = window;
@@ -155,7 +143,7 @@ export function createIsotropicWeights(window: Window, rmax: number): IsotropicW
         s++;
       }
       bdist[i] = best;
-      tables.total[i] = best <= tol ? fanAngle(window, cx, cy, tol) : TWO_PI;
+      tables.total[i] = best <= tol ? fanAngle(window.edges, window.edgeCount, cx, cy, tol) : TWO_PI;
     }
     start[n] = s;
     return tables;
