@@ -7,6 +7,7 @@
  * stored; the grid, weight tables and histogram are reused from one pattern to the next.
  */
 import { createCellGrid } from "./cell-grid";
+import { createWasmIsotropicScan } from "./isotropic-scan";
 import { createIsotropicWeights, weightBeyond } from "./isotropic-weights";
 import { createBinning, isAxisRectangle } from "./r-grid";
 import type { Window } from "./types";
@@ -24,9 +25,19 @@ export interface IsotropicLEstimator {
   l(x: Float64Array, y: Float64Array, n: number, out: Float64Array): number;
   /** The same pair enumeration without weights: the floor of the cost (for the benchmark). */
   countPairs(x: Float64Array, y: Float64Array, n: number): number;
+  /** Which implementation of the weighted scan runs. */
+  readonly kernel: "wasm" | "typescript";
 }
 
-export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEstimator {
+export interface IsotropicLOptions {
+  /**
+   * "wasm" (default where available): the WebAssembly build of the weighted scan (isotropic-scan.ts), used
+   * for polygon windows; "typescript": the loop below. The two agree to rounding (tested).
+   */
+  kernel?: "wasm" | "typescript";
+}
+
+export function createIsotropicL(window: Window, r: Float64Array, options: IsotropicLOptions = {}): IsotropicLEstimator {
   const bin = createBinning(window, r).bin;
   const m = r.length;
   const rmax = r[m - 1];
@@ -42,6 +53,8 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
   const hist = new Float64Array(m + 1);
   const { nx, ny, cellStart } = grid;
   const r2 = rmax * rmax;
+  // The WebAssembly scan follows the generic (polygon) binning rule only; rectangles keep the loop below.
+  const wasm = guess && options.kernel !== "typescript" ? createWasmIsotropicScan(r, grid, REACH) : null;
 
   let su = new Float64Array(0);
   const scan = (x: Float64Array, y: Float64Array, n: number, weigh: boolean, u?: Float64Array): number => {
@@ -53,6 +66,7 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
     }
     // Prepared in sorted order so that the tables are read in memory order inside the loop.
     const tables = weigh ? weights.prepare(sx, sy, n) : null;
+    if (tables && wasm) return wasm.scan(grid, n, tables, hist, u ? su : null);
     const bd = tables ? tables.bdist : sx, st = tables ? tables.start : order, sl = tables ? tables.slots : sx, tot = tables ? tables.total : sx;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {
@@ -113,5 +127,5 @@ export function createIsotropicL(window: Window, r: Float64Array): IsotropicLEst
     return pairs;
   };
 
-  return { r, k, l, sums, countPairs: (x, y, n) => scan(x, y, n, false) };
+  return { r, k, l, sums, countPairs: (x, y, n) => scan(x, y, n, false), kernel: wasm ? "wasm" : "typescript" };
 }

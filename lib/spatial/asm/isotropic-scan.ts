@@ -1,0 +1,130 @@
+/**
+ * AssemblyScript source of the isotropic pair scan, compiled to WebAssembly (with 128-bit SIMD) by
+ * `npm run build:kernel` into ../isotropic-scan-wasm.ts. It is the same computation as the TypeScript loop
+ * of ../l-isotropic.ts — half-stencil pair enumeration over the cell grid, Ripley's isotropic weight of
+ * each end of a pair from the prepared edge slots (fan decomposition, acos by Abramowitz & Stegun 4.4.46),
+ * binning on the r grid — written for WebAssembly so that the bounds checks go and the two nearest edge
+ * slots of a centre are weighed in one pair of SIMD lanes.
+ *
+ * Every array lives in linear memory at offsets the caller passes (../isotropic-scan.ts lays them out):
+ *   sx, sy      f64[n]        points in cell order
+ *   cellStart   i32[cells+1]  first sorted position of each cell
+ *   bd, total   f64[n]        boundary distance; angle of W seen from the point (2π inside)
+ *   blockStart  i32[n+1]      point i's slot blocks are blockStart[i] .. blockStart[i+1]-1
+ *   blocks      80 bytes each: two slots side by side as f64 pairs (seg₀ seg₁ | h₀ h₁ | ta₀ ta₁ | tb₀ tb₁ |
+ *               sign₀ sign₁), slots sorted by segment distance; a missing second slot has seg = ∞, sign = 0
+ *   r           f64[m]        the r grid
+ *   hist        f64[m+1]      weighted pair counts per bin (added to)
+ *   u           f64[n]        optional factor per point (0 = none): pair weight w·u_p·u_q
+ *
+ * A slot that the circle does not reach (seg ≥ d) adds nothing even when computed: x = h/d is clamped to
+ * 1 (β = 0) or its angular range [ta, tb] misses (−β, β); so only whole blocks are skipped, by the sorted
+ * first segment distance.
+ */
+
+const TWO_PI: f64 = 6.283185307179586;
+const MAX_WEIGHT: f64 = 100;
+const BLOCK: usize = 80;
+
+/** spatstat's whist rule (r-grid.ts createBinner): smallest k with d < r[k]; d = r[m−1] in bin m−1. */
+@inline function binSearch(d: f64, pR: usize, m: i32): i32 {
+  const last = load<f64>(pR + ((<usize>(m - 1)) << 3));
+  if (d > last) return m;
+  if (d == last) return m - 1;
+  let lo: i32 = 0;
+  let hi: i32 = m - 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (load<f64>(pR + ((<usize>mid) << 3)) > d) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
+/** Isotropic weight of centre i at distance d > its boundary distance (inv = 1/d). */
+@inline function weightBeyond(i: i32, d: f64, inv: f64, pStart: usize, pBlocks: usize, pTotal: usize): f64 {
+  let lost = f64x2.splat(0);
+  const invv = f64x2.splat(inv);
+  const one = f64x2.splat(1);
+  const b0 = load<i32>(pStart + ((<usize>i) << 2));
+  const b1 = load<i32>(pStart + ((<usize>(i + 1)) << 2));
+  for (let b = b0; b < b1; b++) {
+    const base = pBlocks + (<usize>b) * BLOCK;
+    if (load<f64>(base) >= d) break;
+    const x = f64x2.min(f64x2.mul(v128.load(base, 16), invv), one);
+    const x2 = f64x2.mul(x, x);
+    const x4 = f64x2.mul(x2, x2);
+    // acos(x) = √(1−x)·P(x), P of degree 7 in Estrin's form (the same terms as isotropic-weights.ts)
+    const q0 = f64x2.add(f64x2.splat(1.570796305), f64x2.mul(x, f64x2.splat(-0.2145988016)));
+    const q1 = f64x2.mul(x2, f64x2.add(f64x2.splat(0.0889789874), f64x2.mul(x, f64x2.splat(-0.0501743046))));
+    const q2 = f64x2.add(
+      f64x2.add(f64x2.splat(0.030891881), f64x2.mul(x, f64x2.splat(-0.0170881256))),
+      f64x2.mul(x2, f64x2.add(f64x2.splat(0.0066700901), f64x2.mul(x, f64x2.splat(-0.0012624911)))),
+    );
+    const beta = f64x2.mul(f64x2.sqrt(f64x2.sub(one, x)), f64x2.add(f64x2.add(q0, q1), f64x2.mul(x4, q2)));
+    const ta = v128.load(base, 32);
+    const tb = v128.load(base, 48);
+    const sign = v128.load(base, 64);
+    // four times |[ta, tb] ∩ [−β, β]|, without branches (see isotropic-weights.ts)
+    const z = f64x2.sub(f64x2.sub(f64x2.add(f64x2.sub(tb, ta), f64x2.add(beta, beta)), f64x2.abs(f64x2.sub(tb, beta))), f64x2.abs(f64x2.add(ta, beta)));
+    lost = f64x2.add(lost, f64x2.mul(sign, f64x2.add(z, f64x2.abs(z))));
+  }
+  const theta = load<f64>(pTotal + ((<usize>i) << 3)) - 0.25 * (f64x2.extract_lane(lost, 0) + f64x2.extract_lane(lost, 1));
+  if (!(theta * MAX_WEIGHT > TWO_PI)) return MAX_WEIGHT;
+  const w = TWO_PI / theta;
+  return w > 1 ? w : 1;
+}
+
+/**
+ * Add every unordered pair within r max (d² ≤ r2) to hist: w(p, d) + w(q, d), times u_p·u_q when pU ≠ 0.
+ * `guessStep` = (m−1)/r max guesses the bin on an even grid (confirmed against r, else binary search).
+ * Returns the number of pairs.
+ */
+export function scan(
+  n: i32, nx: i32, ny: i32, reach: i32, r2: f64, m: i32, guessStep: f64,
+  pSx: usize, pSy: usize, pCell: usize, pBd: usize, pTotal: usize, pStart: usize, pBlocks: usize,
+  pR: usize, pHist: usize, pU: usize,
+): i32 {
+  let pairs: i32 = 0;
+  for (let cy = 0; cy < ny; cy++) {
+    for (let cx = 0; cx < nx; cx++) {
+      const c = cy * nx + cx;
+      const s0 = load<i32>(pCell + ((<usize>c) << 2));
+      const s1 = load<i32>(pCell + ((<usize>(c + 1)) << 2));
+      // half stencil: the rest of this cell and the next `reach` cells of the row, then the next `reach`
+      // rows from cx − reach to cx + reach (each a contiguous run of sorted positions)
+      const rowEnd = load<i32>(pCell + ((<usize>(cy * nx + min(nx - 1, cx + reach) + 1)) << 2));
+      const lo = max(0, cx - reach);
+      const hi = min(nx - 1, cx + reach);
+      for (let p = s0; p < s1; p++) {
+        const xa = load<f64>(pSx + ((<usize>p) << 3));
+        const ya = load<f64>(pSy + ((<usize>p) << 3));
+        const bdp = load<f64>(pBd + ((<usize>p) << 3));
+        const up = pU ? load<f64>(pU + ((<usize>p) << 3)) : 1.0;
+        for (let pass = 0; pass <= reach; pass++) {
+          const row = cy + pass;
+          if (row >= ny) break;
+          const q0 = pass == 0 ? p + 1 : load<i32>(pCell + ((<usize>(row * nx + lo)) << 2));
+          const q1 = pass == 0 ? rowEnd : load<i32>(pCell + ((<usize>(row * nx + hi + 1)) << 2));
+          for (let q = q0; q < q1; q++) {
+            const dx = load<f64>(pSx + ((<usize>q) << 3)) - xa;
+            const dy = load<f64>(pSy + ((<usize>q) << 3)) - ya;
+            const dd = dx * dx + dy * dy;
+            if (dd > r2) continue;
+            pairs++;
+            const d = Math.sqrt(dd);
+            const inv = 1 / d;
+            const w =
+              (d <= bdp ? 1.0 : weightBeyond(p, d, inv, pStart, pBlocks, pTotal)) +
+              (d <= load<f64>(pBd + ((<usize>q) << 3)) ? 1.0 : weightBeyond(q, d, inv, pStart, pBlocks, pTotal));
+            let b = <i32>Math.floor(d * guessStep) + 1;
+            if (!(b > 0 && b < m && load<f64>(pR + ((<usize>(b - 1)) << 3)) <= d && d < load<f64>(pR + ((<usize>b) << 3)))) b = binSearch(d, pR, m);
+            const at = pHist + ((<usize>b) << 3);
+            store<f64>(at, load<f64>(at) + (pU ? w * up * load<f64>(pU + ((<usize>q) << 3)) : w));
+          }
+        }
+      }
+    }
+  }
+  return pairs;
+}
