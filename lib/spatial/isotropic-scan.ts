@@ -18,7 +18,7 @@ const PAGE = 65536;
 type ScanExport = (
   n: number, nx: number, ny: number, reach: number, r2: number, m: number, guessStep: number,
   pSx: number, pSy: number, pCell: number, pBd: number, pTotal: number, pStart: number, pBlocks: number,
-  pR: number, pHist: number, pU: number,
+  pR: number, pHist: number, pU: number, pExt: number,
 ) => number;
 
 let compiled: WebAssembly.Module | null | undefined;
@@ -54,7 +54,11 @@ export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: 
   const rmax = r[m - 1];
   const cells = grid.nx * grid.ny;
   let capN = 0, capBlocks = 0;
-  let at = { r: 0, hist: 0, cell: 0, sx: 0, sy: 0, bd: 0, total: 0, u: 0, start: 0, blocks: 0 };
+  let at = { r: 0, hist: 0, ext: 0, cell: 0, sx: 0, sy: 0, bd: 0, total: 0, u: 0, start: 0, blocks: 0 };
+  // Stencil of cells of side s = r max / reach: cells dx, dy apart hold points at least
+  // ((dx−1)⁺² + (dy−1)⁺²)^½·s apart, so row dy needs |dx| ≤ ⌊√(reach² − (dy−1)²)⌋ + 1 (≤ keeps pairs at
+  // exactly r max).
+  const ext = Int32Array.from({ length: reach + 1 }, (_, dy) => (dy === 0 ? reach : Math.min(reach, Math.floor(Math.sqrt(reach * reach - (dy - 1) * (dy - 1))) + 1)));
   let f64 = new Float64Array(0), i32 = new Int32Array(0);
 
   /** Lay out every array for up to n points and b blocks (16-byte aligned, for the SIMD loads). */
@@ -68,7 +72,7 @@ export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: 
       return o;
     };
     at = {
-      r: take(8 * m), hist: take(8 * (m + 1)), cell: take(4 * (cells + 1)), sx: take(8 * capN), sy: take(8 * capN), bd: take(8 * capN),
+      r: take(8 * m), hist: take(8 * (m + 1)), ext: take(4 * (reach + 1)), cell: take(4 * (cells + 1)), sx: take(8 * capN), sy: take(8 * capN), bd: take(8 * capN),
       total: take(8 * capN), u: take(8 * capN), start: take(4 * (capN + 1)), blocks: take(8 * BLOCK * capBlocks),
     };
     const pages = Math.ceil(off / PAGE) - memory.buffer.byteLength / PAGE;
@@ -76,6 +80,7 @@ export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: 
     f64 = new Float64Array(memory.buffer);
     i32 = new Int32Array(memory.buffer);
     f64.set(r, at.r / 8);
+    i32.set(ext, at.ext / 4);
   };
 
   return {
@@ -113,7 +118,7 @@ export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: 
       }
       i32[startAt + n] = blk;
       f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = run(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0);
+      const pairs = run(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0, at.ext);
       hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
       return pairs;
     },

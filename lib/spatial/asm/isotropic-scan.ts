@@ -16,6 +16,8 @@
  *   r           f64[m]        the r grid
  *   hist        f64[m+1]      weighted pair counts per bin (added to)
  *   u           f64[n]        optional factor per point (0 = none): pair weight w·u_p·u_q
+ *   ext         i32[reach+1]  stencil: row dy of the half stencil spans columns cx − ext[dy] .. cx + ext[dy]
+ *               (row 0: cx .. cx + ext[0]); only cells that can hold a point within r max of the cell
  *
  * A slot that the circle does not reach (seg ≥ d) adds nothing even when computed: x = h/d is clamped to
  * 1 (β = 0) or its angular range [ta, tb] misses (−β, β); so only whole blocks are skipped, by the sorted
@@ -83,7 +85,7 @@ const BLOCK: usize = 80;
 export function scan(
   n: i32, nx: i32, ny: i32, reach: i32, r2: f64, m: i32, guessStep: f64,
   pSx: usize, pSy: usize, pCell: usize, pBd: usize, pTotal: usize, pStart: usize, pBlocks: usize,
-  pR: usize, pHist: usize, pU: usize,
+  pR: usize, pHist: usize, pU: usize, pExt: usize,
 ): i32 {
   let pairs: i32 = 0;
   for (let cy = 0; cy < ny; cy++) {
@@ -91,11 +93,9 @@ export function scan(
       const c = cy * nx + cx;
       const s0 = load<i32>(pCell + ((<usize>c) << 2));
       const s1 = load<i32>(pCell + ((<usize>(c + 1)) << 2));
-      // half stencil: the rest of this cell and the next `reach` cells of the row, then the next `reach`
-      // rows from cx − reach to cx + reach (each a contiguous run of sorted positions)
-      const rowEnd = load<i32>(pCell + ((<usize>(cy * nx + min(nx - 1, cx + reach) + 1)) << 2));
-      const lo = max(0, cx - reach);
-      const hi = min(nx - 1, cx + reach);
+      // half stencil: the rest of this cell and the next ext[0] cells of the row, then the next `reach`
+      // rows from cx − ext[dy] to cx + ext[dy] (each a contiguous run of sorted positions)
+      const rowEnd = load<i32>(pCell + ((<usize>(cy * nx + min(nx - 1, cx + load<i32>(pExt)) + 1)) << 2));
       for (let p = s0; p < s1; p++) {
         const xa = load<f64>(pSx + ((<usize>p) << 3));
         const ya = load<f64>(pSy + ((<usize>p) << 3));
@@ -104,8 +104,9 @@ export function scan(
         for (let pass = 0; pass <= reach; pass++) {
           const row = cy + pass;
           if (row >= ny) break;
-          const q0 = pass == 0 ? p + 1 : load<i32>(pCell + ((<usize>(row * nx + lo)) << 2));
-          const q1 = pass == 0 ? rowEnd : load<i32>(pCell + ((<usize>(row * nx + hi + 1)) << 2));
+          const e = load<i32>(pExt + ((<usize>pass) << 2));
+          const q0 = pass == 0 ? p + 1 : load<i32>(pCell + ((<usize>(row * nx + max(0, cx - e))) << 2));
+          const q1 = pass == 0 ? rowEnd : load<i32>(pCell + ((<usize>(row * nx + min(nx - 1, cx + e) + 1)) << 2));
           for (let q = q0; q < q1; q++) {
             const dx = load<f64>(pSx + ((<usize>q) << 3)) - xa;
             const dy = load<f64>(pSy + ((<usize>q) << 3)) - ya;
