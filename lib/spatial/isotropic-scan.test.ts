@@ -38,7 +38,9 @@ describe("WebAssembly isotropic scan", () => {
     // growing and shrinking n exercises the re-layout of linear memory
     for (const [n, seed] of [[40, 1], [1000, 2], [300, 3], [1500, 4], [2, 5]]) {
       const p = pattern(n, seed);
-      expect(wasm.sums(p.x, p.y, n, a)).toBe(ts.sums(p.x, p.y, n, b));
+      const pairs = ts.sums(p.x, p.y, n, b);
+      expect(wasm.sums(p.x, p.y, n, a)).toBe(pairs);
+      expect(wasm.countPairs(p.x, p.y, n)).toBe(pairs);
       expect(worstRelative(a, b)).toBeLessThan(1e-12);
       if (n >= 40) expect(a[r.length - 1]).toBeGreaterThan(0);
     }

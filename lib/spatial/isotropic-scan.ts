@@ -18,7 +18,7 @@ const PAGE = 65536;
 type ScanExport = (
   n: number, nx: number, ny: number, reach: number, r2: number, m: number, guessStep: number,
   pSx: number, pSy: number, pCell: number, pBd: number, pTotal: number, pStart: number, pBlocks: number,
-  pR: number, pHist: number, pU: number, pExt: number,
+  pR: number, pHist: number, pU: number, pExt: number, weigh: number,
 ) => number;
 
 let compiled: WebAssembly.Module | null | undefined;
@@ -42,6 +42,8 @@ export interface WasmIsotropicScan {
    * of unordered pairs within r max.
    */
   scan(grid: CellGrid, n: number, tables: IsotropicTables, hist: Float64Array, u: Float64Array | null): number;
+  /** The same enumeration without weights or bins: the number of pairs (the floor of the cost). */
+  countPairs(grid: CellGrid, n: number): number;
 }
 
 export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: number): WasmIsotropicScan | null {
@@ -118,9 +120,16 @@ export function createWasmIsotropicScan(r: Float64Array, grid: CellGrid, reach: 
       }
       i32[startAt + n] = blk;
       f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = run(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0, at.ext);
+      const pairs = run(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0, at.ext, 1);
       hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
       return pairs;
+    },
+    countPairs(g, n) {
+      if (n > capN) layout(n, capBlocks);
+      f64.set(g.sx.subarray(0, n), at.sx / 8);
+      f64.set(g.sy.subarray(0, n), at.sy / 8);
+      i32.set(g.cellStart, at.cell / 4);
+      return run(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, 0, at.ext, 0);
     },
   };
 }

@@ -65,6 +65,7 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
   let su = new Float64Array(0);
   const scan = (x: Float64Array, y: Float64Array, n: number, weigh: boolean, u?: Float64Array): number => {
     grid.bucket(x, y, n);
+    if (wasm && !weigh) return wasm.countPairs(grid, n);
     const { sx, sy, order } = grid;
     if (u) {
       if (su.length < n) su = new Float64Array(n);

@@ -80,12 +80,12 @@ const BLOCK: usize = 80;
 /**
  * Add every unordered pair within r max (d² ≤ r2) to hist: w(p, d) + w(q, d), times u_p·u_q when pU ≠ 0.
  * `guessStep` = (m−1)/r max guesses the bin on an even grid (confirmed against r, else binary search).
- * Returns the number of pairs.
+ * Returns the number of pairs; with weigh = 0 it only counts them (the benchmark's floor).
  */
 export function scan(
   n: i32, nx: i32, ny: i32, reach: i32, r2: f64, m: i32, guessStep: f64,
   pSx: usize, pSy: usize, pCell: usize, pBd: usize, pTotal: usize, pStart: usize, pBlocks: usize,
-  pR: usize, pHist: usize, pU: usize, pExt: usize,
+  pR: usize, pHist: usize, pU: usize, pExt: usize, weigh: i32,
 ): i32 {
   let pairs: i32 = 0;
   for (let cy = 0; cy < ny; cy++) {
@@ -113,6 +113,7 @@ export function scan(
             const dd = dx * dx + dy * dy;
             if (dd > r2) continue;
             pairs++;
+            if (!weigh) continue;
             const d = Math.sqrt(dd);
             const inv = 1 / d;
             const w =
