@@ -3,6 +3,7 @@ import { gridLines, labelDecimals, toScreen, type View } from "@/lib/geometry/pl
 import type { Problem, Pt, Rings } from "@/lib/geometry/outline-edit";
 import type { ClassRow, FindRow } from "./api";
 import { openSymbols, traceSymbol } from "./symbols";
+import type { Area } from "./view-cache";
 
 export const INK = "#1b130c";
 export const WARN = "#b8400f";
@@ -240,23 +241,27 @@ function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElemen
   return canvas;
 }
 
-/** All finds in one pass, one cached sprite per class, skipping those off the screen. */
-export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: FindRow[], classes: Map<string, ClassRow>, w: number, h: number, moved?: { id: string; at: Pt } | null) {
+/**
+ * Finds in one pass, one cached sprite per class, skipping those outside `area` (the viewport, or the
+ * larger bitmap of a view cache) and the one with id `skip` (being dragged, drawn on its own).
+ */
+export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: readonly FindRow[], classes: Map<string, ClassRow>, area: Area, skip?: string | null) {
   const ratio = Math.max(1, Math.round(c.getTransform().a * 100) / 100);
   const byClass = new Map<string, HTMLCanvasElement>();
   const half = SPRITE_CSS / 2;
+  const [x0, y0, x1, y1] = [area.x0 - half, area.y0 - half, area.x1 + half, area.y1 + half];
   c.save();
   c.imageSmoothingEnabled = false;
   for (const f of finds) {
+    if (f.id === skip) continue;
+    const sx = v.ox + f.x * v.scale;
+    const sy = v.oy - f.y * v.scale;
+    if (sx < x0 || sy < y0 || sx > x1 || sy > y1) continue;
     let img = byClass.get(f.classId);
     if (!img) {
       const cls = classes.get(f.classId);
       byClass.set(f.classId, (img = sprite(cls?.symbol ?? "disc", cls?.colour ?? "#666666", ratio)));
     }
-    const at = moved && moved.id === f.id ? moved.at : null;
-    const sx = v.ox + (at ? at[0] : f.x) * v.scale;
-    const sy = v.oy - (at ? at[1] : f.y) * v.scale;
-    if (sx < -20 || sy < -20 || sx > w + 20 || sy > h + 20) continue;
     c.drawImage(img, Math.round(sx - half), Math.round(sy - half), SPRITE_CSS, SPRITE_CSS);
   }
   c.restore();

@@ -1,14 +1,17 @@
 "use client";
 
 import KDBush from "kdbush";
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { Layer, Shape, Stage } from "react-konva";
 import type { Context } from "konva/lib/Context";
+import type { Layer as KonvaLayer } from "konva/lib/Layer";
 import { nearestEdge, type EdgeHit, type Problem, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import { toScreen, toWorld, zoomAt, type View } from "@/lib/geometry/plan-view";
 import type { ClassRow, FindRow } from "./api";
 import { drawDrawing, drawExtents, drawFinds, drawGrid, drawOutline, drawVertices } from "./draw";
 import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type FitMark, type Photo, type Refused } from "./draw-marks";
+import { ViewCache } from "./view-cache";
+import type { ViewStore } from "./view-store";
 
 export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "fit";
 export type VertexRef = { ring: number; v: number };
@@ -17,8 +20,8 @@ export type Tap = { world: Pt; find: FindRow | null; vertex: VertexRef | null; e
 type Props = {
   width: number;
   height: number;
-  view: View;
-  onView: (v: View) => void;
+  /** The live view: gestures write it, the canvas redraws from it (never through React state). */
+  viewStore: ViewStore;
   tool: Tool;
   finds: FindRow[];
   classes: Map<string, ClassRow>;
@@ -64,6 +67,23 @@ export default function PlanCanvas(p: Props) {
   const [pointer, setPointer] = useState<Pt | null>(null);
   const latest = useRef(p);
   latest.current = p;
+  const viewNow = () => latest.current.viewStore.get()!;
+  const layer = useRef<KonvaLayer>(null);
+  const redraw = useCallback(() => layer.current?.batchDraw(), []);
+  const [caches] = useState(() => ({ photo: new ViewCache(redraw), finds: new ViewCache(redraw) }));
+  useEffect(() => () => (caches.photo.dispose(), caches.finds.dispose()), [caches]);
+
+  // A view change redraws the canvas (once per animation frame, Konva batches) and republishes the view
+  // on the element for scripts and tests; React is not involved.
+  useLayoutEffect(() => {
+    const publish = () => {
+      const v = latest.current.viewStore.get();
+      if (v && box.current) box.current.dataset.view = JSON.stringify(v);
+      redraw();
+    };
+    publish();
+    return p.viewStore.subscribe(publish);
+  }, [p.viewStore, redraw]);
 
   const index = useMemo(() => {
     const idx = new KDBush(Math.max(1, p.finds.length));
@@ -80,7 +100,7 @@ export default function PlanCanvas(p: Props) {
 
   const findAt = useCallback(
     (s: Pt): FindRow | null => {
-      const v = latest.current.view;
+      const v = viewNow();
       const [x, y] = toWorld(v, ...s);
       let best: FindRow | null = null;
       let bestD = Infinity;
@@ -96,7 +116,8 @@ export default function PlanCanvas(p: Props) {
   );
 
   const vertexAt = (s: Pt): VertexRef | null => {
-    const { rings, view } = latest.current;
+    const { rings } = latest.current;
+    const view = viewNow();
     let best: VertexRef | null = null;
     let bestD = HIT_PX;
     rings.forEach((r, k) =>
@@ -117,7 +138,7 @@ export default function PlanCanvas(p: Props) {
       e.preventDefault();
       const s = local(e);
       const factor = Math.exp(-e.deltaY * (e.deltaMode === 1 ? 0.05 : 0.0015));
-      latest.current.onView(zoomAt(latest.current.view, factor, s[0], s[1]));
+      latest.current.viewStore.set(zoomAt(viewNow(), factor, s[0], s[1]));
     };
     el.addEventListener("wheel", onWheel, { passive: false });
     return () => el.removeEventListener("wheel", onWheel);
@@ -125,7 +146,7 @@ export default function PlanCanvas(p: Props) {
 
   const startPinch = () => {
     const [a, b] = [...pointers.current.values()];
-    gesture.current = { kind: "pinch", dist: Math.hypot(a[0] - b[0], a[1] - b[1]) || 1, mid: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2], view: latest.current.view };
+    gesture.current = { kind: "pinch", dist: Math.hypot(a[0] - b[0], a[1] - b[1]) || 1, mid: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2], view: viewNow() };
     setMoved(null);
   };
 
@@ -146,7 +167,7 @@ export default function PlanCanvas(p: Props) {
       kind: "pending",
       id: e.pointerId,
       start: s,
-      view: latest.current.view,
+      view: viewNow(),
       find: !panOnly && (tool === "look" || tool === "place") ? findAt(s) : null,
       vertex: !panOnly && tool === "outline" ? vertexAt(s) : null,
       additive: e.shiftKey || e.ctrlKey || e.metaKey,
@@ -155,7 +176,7 @@ export default function PlanCanvas(p: Props) {
 
   const onMove = (e: React.PointerEvent) => {
     const s = local(e);
-    const world = toWorld(latest.current.view, ...s);
+    const world = toWorld(viewNow(), ...s);
     if (e.pointerType === "mouse" || pointers.current.has(e.pointerId)) {
       // Only the rubber band of a ring being drawn needs a re-render per move.
       if (latest.current.tool === "draw" || latest.current.tool === "hole") setPointer(world);
@@ -169,7 +190,7 @@ export default function PlanCanvas(p: Props) {
       const dist = Math.hypot(a[0] - b[0], a[1] - b[1]);
       const mid: Pt = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
       const shifted = { ...g.view, ox: g.view.ox + mid[0] - g.mid[0], oy: g.view.oy + mid[1] - g.mid[1] };
-      latest.current.onView(zoomAt(shifted, dist / g.dist, mid[0], mid[1]));
+      latest.current.viewStore.set(zoomAt(shifted, dist / g.dist, mid[0], mid[1]));
       return;
     }
     if (g.kind === "pending" && g.id === e.pointerId) {
@@ -189,7 +210,7 @@ export default function PlanCanvas(p: Props) {
       }
     }
     const h = gesture.current;
-    if (h.kind === "pan" && h.id === e.pointerId) latest.current.onView({ ...h.view, ox: h.view.ox + s[0] - h.start[0], oy: h.view.oy + s[1] - h.start[1] });
+    if (h.kind === "pan" && h.id === e.pointerId) latest.current.viewStore.set({ ...h.view, ox: h.view.ox + s[0] - h.start[0], oy: h.view.oy + s[1] - h.start[1] });
     if (h.kind === "find" && h.id === e.pointerId) setMoved({ id: h.find.id, at: world });
     if (h.kind === "vertex" && h.id === e.pointerId) latest.current.onVertexMove(h.vertex, world, false);
   };
@@ -198,13 +219,15 @@ export default function PlanCanvas(p: Props) {
     const s = local(e);
     const g = gesture.current;
     pointers.current.delete(e.pointerId);
-    const world = toWorld(latest.current.view, ...s);
+    const world = toWorld(viewNow(), ...s);
+    if (g.kind === "pinch" || g.kind === "pan") redraw(); // exact again now the gesture is over
     if (g.kind === "pinch") {
       gesture.current = { kind: "none" };
       return;
     }
     if (g.kind === "pending" && g.id === e.pointerId && e.type === "pointerup") {
-      const { tool, rings, view } = latest.current;
+      const { tool, rings } = latest.current;
+      const view = viewNow();
       const edge = tool === "outline" && !g.vertex ? nearestEdge(rings, ...world) : null;
       latest.current.onTap({ world, find: g.find, vertex: g.vertex, edge: edge && edge.distance * view.scale <= HIT_PX ? edge : null, additive: g.additive });
     }
@@ -216,11 +239,36 @@ export default function PlanCanvas(p: Props) {
     gesture.current = { kind: "none" };
   };
 
-  const { view, width, height } = p;
-  const hasPhoto = Boolean(p.photo?.img);
+  const { width, height } = p;
   const selectedPts = useMemo(() => p.finds.filter((f) => p.selected.has(f.id)).map((f) => (moved?.id === f.id ? moved.at : ([f.x, f.y] as Pt))), [p.finds, p.selected, moved]);
-  const editing = p.tool === "outline";
-  const drawingRing = p.tool === "draw" || p.tool === "hole";
+  const movedFind = useMemo(() => {
+    const f = moved && p.finds.find((g) => g.id === moved.id);
+    return f ? [{ ...f, x: moved.at[0], y: moved.at[1] }] : [];
+  }, [p.finds, moved]);
+
+  // Everything on one canvas: a pan then repaints and hands the compositor one bitmap, not four.
+  const scene = (ctx: Context) => {
+    const c = native(ctx);
+    const view = viewNow();
+    const live = gesture.current.kind === "pan" || gesture.current.kind === "pinch";
+    const screen = { x0: 0, y0: 0, x1: width, y1: height };
+    const { photo, finds, classes } = p;
+    const hasPhoto = Boolean(photo?.img);
+    if (photo?.img) caches.photo.draw(c, view, width, height, [photo.img, photo.opacity, ...photo.matrix], live, (cc, v) => drawPhoto(cc, v, photo));
+    drawOutline(c, view, p.rings, hasPhoto, p.problem);
+    drawExtents(c, view, p.extents);
+    drawGrid(c, view, width, height, hasPhoto);
+    caches.finds.draw(c, view, width, height, [finds, classes, moved?.id ?? null], live, (cc, v, area) => drawFinds(cc, v, finds, classes, area, moved?.id));
+    if (movedFind.length) drawFinds(c, view, movedFind, classes, screen);
+    // For the benchmark (scripts/bench-plan.ts): the first frame with finds on the plan.
+    if (finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: finds.length });
+    drawSelection(c, view, selectedPts);
+    if (p.tool === "outline") drawVertices(c, view, p.rings, p.selectedVertex);
+    if (p.tool === "draw" || p.tool === "hole") drawDrawing(c, view, p.drawing, pointer);
+    if (p.placing) drawPlacing(c, view, p.placing);
+    if (p.refused) drawRefused(c, view, p.refused, width);
+    drawFitMarks(c, view, p.fitMarks);
+  };
 
   return (
     <div
@@ -236,49 +284,10 @@ export default function PlanCanvas(p: Props) {
         latest.current.onPointer(null);
       }}
       data-testid="plan-canvas"
-      data-view={JSON.stringify(view)}
     >
       <Stage width={width} height={height} listening={false}>
-        <Layer listening={false}>
-          {p.photo && <Shape listening={false} perfectDrawEnabled={false} sceneFunc={(ctx) => drawPhoto(native(ctx), view, p.photo!)} />}
-        </Layer>
-        <Layer listening={false}>
-          <Shape
-            listening={false}
-            perfectDrawEnabled={false}
-            sceneFunc={(ctx) => {
-              const c = native(ctx);
-              drawOutline(c, view, p.rings, hasPhoto, p.problem);
-              drawExtents(c, view, p.extents);
-              drawGrid(c, view, width, height, hasPhoto);
-            }}
-          />
-        </Layer>
-        <Layer listening={false}>
-          <Shape
-            listening={false}
-            perfectDrawEnabled={false}
-            sceneFunc={(ctx) => {
-              drawFinds(native(ctx), view, p.finds, p.classes, width, height, moved);
-              // For the benchmark (scripts/bench-plan.ts): the first frame with finds on the plan.
-              if (p.finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: p.finds.length });
-            }}
-          />
-        </Layer>
-        <Layer listening={false}>
-          <Shape
-            listening={false}
-            perfectDrawEnabled={false}
-            sceneFunc={(ctx) => {
-              const c = native(ctx);
-              drawSelection(c, view, selectedPts);
-              if (editing) drawVertices(c, view, p.rings, p.selectedVertex);
-              if (drawingRing) drawDrawing(c, view, p.drawing, pointer);
-              if (p.placing) drawPlacing(c, view, p.placing);
-              if (p.refused) drawRefused(c, view, p.refused, width);
-              drawFitMarks(c, view, p.fitMarks);
-            }}
-          />
+        <Layer ref={layer} listening={false}>
+          <Shape listening={false} perfectDrawEnabled={false} sceneFunc={scene} />
         </Layer>
       </Stage>
     </div>

@@ -1,11 +1,18 @@
 "use client";
 
-import { formatMetres, scaleBar, type View } from "@/lib/geometry/plan-view";
-import type { RefObject } from "react";
+import { formatMetres, scaleBar } from "@/lib/geometry/plan-view";
+import { useSyncExternalStore, type RefObject } from "react";
+import type { ViewStore } from "./view-store";
 
-/** Scale bar, north arrow and the pointer's grid position, drawn over the canvas in HTML for crisp text. */
-export function PlanOverlay({ view, pointerRef }: { view: View; pointerRef: RefObject<HTMLDivElement | null> }) {
-  const bar = scaleBar(view, 140);
+/**
+ * Scale bar, north arrow and the pointer's grid position, drawn over the canvas in HTML for crisp text.
+ * Only the scale matters to the bar, so a pan does not re-render it; the pointer text is written by the
+ * screen straight into `pointerRef`.
+ */
+export function PlanOverlay({ viewStore, pointerRef }: { viewStore: ViewStore; pointerRef: RefObject<HTMLDivElement | null> }) {
+  const scaleNow = () => viewStore.get()?.scale ?? 1;
+  const scale = useSyncExternalStore(viewStore.subscribe, scaleNow, scaleNow);
+  const bar = scaleBar({ scale, ox: 0, oy: 0 }, 140);
   return (
     <>
       <div className="pointer-events-none absolute bottom-3 left-3 rounded border border-ink/40 bg-paper/95 px-3 py-2 text-ink shadow" aria-label="Scale bar">

@@ -6,7 +6,7 @@ import { checkOutline, type OutlinePolygon } from "@/lib/geometry/outline";
 import { deleteVertex, insertVertex, locateProblem, moveVertex, polygonToRings, ringsToPolygon, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import type { FitModel } from "@/lib/geometry/photo-fit";
 import type { PhotoView } from "@/lib/geometry/photo-fit-input";
-import { fitBounds, gridLines, toScreen, zoomAt, type View } from "@/lib/geometry/plan-view";
+import { fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view";
 import { ApiError, apiCall, type ClassRow, type ContextRow, type FindRow } from "./api";
 import type { Refused } from "./draw-marks";
 import { FindForm, type QuickFind } from "./find-form";
@@ -21,6 +21,7 @@ import { PlanToolbar, toolHint } from "./plan-toolbar";
 import { usePhotoLayer } from "./use-photo-layer";
 import { usePlanFinds } from "./use-plan-finds";
 import { useUndo } from "./use-undo";
+import { createViewStore } from "./view-store";
 import type { DraftPoint } from "./photo-fit-panel";
 
 export type PlanScreenProps = {
@@ -44,7 +45,9 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const qc = useQueryClient();
   const box = useRef<HTMLDivElement>(null);
   const [size, setSize] = useState({ width: 0, height: 0 });
-  const [view, setView] = useState<View | null>(null);
+  // The view lives in a store, not in state: a pan or zoom must not re-render the panels and the finds list.
+  const [viewStore] = useState(createViewStore);
+  const [hasView, setHasView] = useState(false);
   const [tool, setTool] = useState<Tool>("look");
   const [panel, setPanel] = useState<Panel>("finds");
   const pointerText = useRef<HTMLDivElement>(null);
@@ -109,10 +112,14 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     if (!pts.length) return { minX: 0, minY: 0, maxX: 10, maxY: 10 };
     return { minX: Math.min(...pts.map((p) => p[0])), minY: Math.min(...pts.map((p) => p[1])), maxX: Math.max(...pts.map((p) => p[0])), maxY: Math.max(...pts.map((p) => p[1])) };
   }, [rings, savedRings]);
-  const zoomToTrench = useCallback(() => size.width && setView(fitBounds(trenchBounds(), size.width, size.height)), [size, trenchBounds]);
+  const zoomToTrench = useCallback(() => {
+    if (!size.width) return;
+    viewStore.set(fitBounds(trenchBounds(), size.width, size.height));
+    setHasView(true);
+  }, [size, trenchBounds, viewStore]);
   useEffect(() => {
-    if (!view && size.width > 0) zoomToTrench();
-  }, [size.width, view, zoomToTrench]);
+    if (!viewStore.get() && size.width > 0) zoomToTrench();
+  }, [size.width, viewStore, zoomToTrench]);
 
   const editRings = (next: Rings, label: string) => {
     const prev = rings;
@@ -188,6 +195,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   };
 
   const snapToGrid = (p: Pt): Pt => {
+    const view = viewStore.get();
     if (!view) return p;
     const { step } = gridLines(view, size.width, size.height);
     const q: Pt = [Math.round(p[0] / step) * step, Math.round(p[1] / step) * step];
@@ -215,6 +223,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       } else setSelectedVertex(null);
     } else if (tool === "draw" || tool === "hole") {
       const first = drawing[0];
+      const view = viewStore.get();
       if (first && drawing.length >= 3 && view) {
         const [fx, fy] = toScreen(view, ...first);
         const [tx, ty] = toScreen(view, ...t.world);
@@ -246,15 +255,15 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     }
   };
 
-  const latestView = useRef({ view, size });
-  latestView.current = { view, size };
+  const latestSize = useRef(size);
+  latestSize.current = size;
   const selectFromList = useCallback((f: FindRow, add: boolean) => {
     setSelected((s) => (add ? new Set([...s, f.id]) : new Set([f.id])));
-    const { view: v, size: sz } = latestView.current;
+    const [v, sz] = [viewStore.get(), latestSize.current];
     if (!v || add) return;
     const [sx, sy] = toScreen(v, f.x, f.y);
-    if (sx < 0 || sy < 0 || sx > sz.width || sy > sz.height) setView({ ...v, ox: v.ox + sz.width / 2 - sx, oy: v.oy + sz.height / 2 - sy });
-  }, []);
+    if (sx < 0 || sy < 0 || sx > sz.width || sy > sz.height) viewStore.set({ ...v, ox: v.ox + sz.width / 2 - sx, oy: v.oy + sz.height / 2 - sy });
+  }, [viewStore]);
 
   const dragRefusal = (f: FindRow) => {
     if (f.contextState === "signed_off") {
@@ -292,15 +301,16 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       if (e.ctrlKey || e.metaKey || e.altKey) return;
       const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", p: "fit" };
       if (toolKeys[k.toLowerCase()] && (canEdit || k.toLowerCase() === "v")) return chooseTool(toolKeys[k.toLowerCase()]);
+      const view = viewStore.get();
       if (!view) return;
       const c: Pt = [size.width / 2, size.height / 2];
       if (k === "z" || k === "Z") zoomToTrench();
-      else if (k === "+" || k === "=") setView(zoomAt(view, 1.5, ...c));
-      else if (k === "-" || k === "_") setView(zoomAt(view, 1 / 1.5, ...c));
+      else if (k === "+" || k === "=") viewStore.set(zoomAt(view, 1.5, ...c));
+      else if (k === "-" || k === "_") viewStore.set(zoomAt(view, 1 / 1.5, ...c));
       else if (k.startsWith("Arrow")) {
         e.preventDefault();
         const d = 60;
-        setView({ ...view, ox: view.ox + (k === "ArrowLeft" ? d : k === "ArrowRight" ? -d : 0), oy: view.oy + (k === "ArrowUp" ? d : k === "ArrowDown" ? -d : 0) });
+        viewStore.set({ ...view, ox: view.ox + (k === "ArrowLeft" ? d : k === "ArrowRight" ? -d : 0), oy: view.oy + (k === "ArrowUp" ? d : k === "ArrowDown" ? -d : 0) });
       } else if (k === "u" || k === "U") void undo();
       else if (k === "?") setPanel((p) => (p === "help" ? "finds" : "help"));
       else if (k === "Enter" && (tool === "draw" || tool === "hole")) closeRing();
@@ -325,19 +335,22 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   return (
     <div className="flex flex-col lg:h-[max(30rem,calc(100vh-16.5rem))] lg:flex-row">
       <section className="flex min-h-[58vh] flex-1 flex-col lg:min-h-0" aria-label={`Plan of trench ${trench.code}`}>
-        <PlanToolbar tool={tool} onTool={chooseTool} canEdit={canEdit} onZoomTrench={zoomToTrench} onZoom={(f) => view && setView(zoomAt(view, f, size.width / 2, size.height / 2))} onUndo={() => void undo()} undoLabel={top} onHelp={() => setPanel("help")} />
+        <PlanToolbar tool={tool} onTool={chooseTool} canEdit={canEdit} onZoomTrench={zoomToTrench} onZoom={(f) => {
+          const view = viewStore.get();
+          if (view) viewStore.set(zoomAt(view, f, size.width / 2, size.height / 2));
+        }} onUndo={() => void undo()} undoLabel={top} onHelp={() => setPanel("help")} />
         <p className="border-b border-paper-edge bg-paper-deep px-3 py-1 text-sm" aria-live="polite" data-testid="tool-hint">{toolHint(tool)}</p>
         <div ref={box} className="relative flex-1 overflow-hidden">
-          {view && size.width > 0 && (
+          {hasView && size.width > 0 && (
             <PlanCanvas
-              width={size.width} height={size.height} view={view} onView={setView} tool={tool} finds={visible} classes={classMap} selected={selected}
+              width={size.width} height={size.height} viewStore={viewStore} tool={tool} finds={visible} classes={classMap} selected={selected}
               rings={shownRings} extents={contexts.filter((c) => c.extent && !hiddenContexts.has(c.id))} problem={shownRings === rings ? problem : null} selectedVertex={selectedVertex} drawing={drawing} photo={photoLayer} placing={placing}
               refused={refused} fitMarks={fitMarks} dragRefusal={dragRefusal} onTap={onTap} onFindMoved={(f, to) => void move(f, to)}
               onVertexMove={onVertexMove}
               onRefusedDrag={(reason) => say("warn", reason)} onPointer={setPointer}
             />
           )}
-          {view && <PlanOverlay view={view} pointerRef={pointerText} />}
+          {hasView && <PlanOverlay viewStore={viewStore} pointerRef={pointerText} />}
           {message && (
             <div role={message.kind === "warn" ? "alert" : "status"} className={`absolute left-1/2 top-3 z-10 flex max-w-[90%] -translate-x-1/2 items-center gap-3 rounded border-2 px-3 py-1 font-semibold shadow ${message.kind === "warn" ? "border-warn bg-warn-light text-warn" : "border-ok bg-ok-light text-ok"}`} data-testid="plan-message">
               <span>{message.text}</span>
