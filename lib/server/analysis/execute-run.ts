@@ -5,17 +5,33 @@ import { analysisRuns } from "@/db/schema";
 import { SpatialInputError } from "@/lib/spatial/errors";
 import type { SimulationPool } from "@/lib/spatial/pool";
 import { runDistributionTest } from "@/lib/spatial/run-test";
+import { publishRun } from "../jobs/run-events";
 import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
 import type { RunScope } from "./run-schema";
 import type { RunParamsStored } from "./run-view";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
-import { loadScope } from "./scope-data";
+import { loadScope, type ScopeData } from "./scope-data";
 
-/** Progress is written at most this often (ms): often enough for a smooth bar, rarely enough for the database. */
-const PROGRESS_EVERY_MS = 150;
+/**
+ * Progress is written to the run's row at most this often (ms). A worker process's row is all its
+ * watchers see, so it writes often enough for a smooth bar; a run in the app's own process also tells
+ * its watchers directly (run-events.ts), so its row needs only enough for a reload to show roughly where
+ * it is, and the database is left to the requests.
+ */
+const PROGRESS_EVERY_MS = { row: 150, live: 1000 };
 
-export type ExecuteOptions = { signal: AbortSignal; pool: SimulationPool | null };
+export type ExecuteOptions = {
+  signal: AbortSignal;
+  pool: SimulationPool | null;
+  /** Tell watchers in this process each change (the app's local queue); off in separate worker processes. */
+  live?: boolean;
+  /**
+   * The records as the request that created the run read them, handed over when the run starts at once
+   * in the same process; the run then computes on exactly what its fingerprint was taken of.
+   */
+  scope?: ScopeData;
+};
 
 /**
  * Executes one stored run: reads its records (this process holds the database; the worker threads get
@@ -27,19 +43,26 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
   if (!row || (row.status !== "queued" && row.status !== "running")) return;
   const params = row.params as RunParamsStored;
   const started = Date.now();
+  const live = options.live === true;
   try {
-    const data = await loadScope(db, row.siteId, row.scope as RunScope);
     // The fingerprint is of the records actually read, which may have changed since the run was queued.
-    if (!(await markRunning(db, runId, data.fingerprint))) return;
+    const data = options.scope ?? (await loadScope(db, row.siteId, row.scope as RunScope));
+    const startedAt = new Date();
+    if (!(await markRunning(db, runId, data.fingerprint, startedAt))) return;
+    const startedIso = startedAt.toISOString();
+    if (live) publishRun({ runId, status: "running", progress: 0, startedAt: startedIso });
     const stop = new AbortController();
     const relay = () => stop.abort();
     options.signal.addEventListener("abort", relay, { once: true });
     if (options.signal.aborted) stop.abort();
-    let lastWrite = 0;
+    let lastWrite = Date.now();
     let writing: Promise<void> = Promise.resolve();
+    const every = live ? PROGRESS_EVERY_MS.live : PROGRESS_EVERY_MS.row;
     const onProgress = (fraction: number) => {
+      if (fraction >= 1 || stop.signal.aborted) return;
+      if (live) publishRun({ runId, status: "running", progress: fraction, startedAt: startedIso });
       const now = Date.now();
-      if (now - lastWrite < PROGRESS_EVERY_MS || fraction >= 1) return;
+      if (now - lastWrite < every) return;
       lastWrite = now;
       writing = writing.then(async () => {
         if (!(await writeProgress(db, runId, fraction))) stop.abort();
@@ -48,11 +71,14 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     const finds = data.finds.map((f) => ({ x: f.x, y: f.y, classId: f.classId }));
     const { spec, entries } = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests: params.tests, params, seed: row.seed });
     try {
+      const engineStart = Date.now();
       const engine = await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool });
+      const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;
       const result = adaptResult({ engine, entries, window: data.window, classes: data.classes, finds, correction: params.correction, rmax: params.rmax, elapsedMs: Date.now() - started });
-      await markDone(db, runId, result);
+      result.timing = { engineStart, engineEnd };
+      if ((await markDone(db, runId, result)) && live) publishRun({ runId, status: "done", progress: 1, startedAt: startedIso });
     } finally {
       options.signal.removeEventListener("abort", relay);
       await writing.catch(() => undefined);
@@ -62,6 +88,7 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     const message = err instanceof SpatialInputError ? err.message : "The run failed on the server; see the server log.";
     if (!(err instanceof SpatialInputError)) console.error(`[loamwork] run ${runId} failed`, err);
     await markFailed(db, runId, message);
+    if (live) publishRun({ runId, status: "failed", progress: 0, startedAt: null });
   }
 }
 

@@ -72,4 +72,6 @@ export type RunResult = {
   /** statistics.md's cautions, as the engine words them. */
   cautions: string[];
   elapsedMs: number;
+  /** When the engine started and finished (server clock, ms since 1970), to see where a run's time went. */
+  timing?: { engineStart: number; engineEnd: number };
 };

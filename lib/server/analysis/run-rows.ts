@@ -8,10 +8,10 @@ import type { RunResult } from "./result-types";
  * Status writes of a run. Each transition names the status it expects, so a run cancelled meanwhile is
  * never flipped back to running or done (the update then matches no row and the caller learns it).
  */
-export async function markRunning(db: Db | Tx, runId: string, fingerprint: string): Promise<boolean> {
+export async function markRunning(db: Db | Tx, runId: string, fingerprint: string, startedAt = new Date()): Promise<boolean> {
   const rows = await db
     .update(analysisRuns)
-    .set({ status: "running", progress: 0, startedAt: new Date(), error: null, fingerprint })
+    .set({ status: "running", progress: 0, startedAt, error: null, fingerprint })
     .where(and(eq(analysisRuns.id, runId), inArray(analysisRuns.status, ["queued", "running"])))
     .returning({ id: analysisRuns.id });
   return rows.length === 1;

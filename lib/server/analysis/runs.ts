@@ -7,6 +7,7 @@ import { ENGINE_VERSION } from "@/lib/spatial/version";
 import { recordAudit } from "../audit";
 import { badInput, conflict, notFound } from "../errors";
 import type { SiteActor } from "../membership";
+import { latestRunEvent, publishRun } from "../jobs/run-events";
 import { cancelRunJob, ensureRunner, submitRun } from "../jobs/runner";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunResult } from "./result-types";
@@ -78,11 +79,11 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "run", recordId: run.id, after: { scope: run.scope, params, seed } });
     return run;
   });
-  await submitRun(row.id);
+  await submitRun(row.id, data);
   return toView(row, false);
 }
 
-function toView(row: AnalysisRun, outOfDate: boolean): RunView {
+export function toView(row: AnalysisRun, outOfDate: boolean): RunView {
   return {
     id: row.id,
     status: row.status,
@@ -111,12 +112,18 @@ async function getRow(db: Db, siteId: string, runId: string): Promise<AnalysisRu
   return row;
 }
 
+/** A running row's progress is written only now and then when the run executes here; its last event is fresher. */
+function withLiveProgress(row: AnalysisRun): AnalysisRun {
+  const live = row.status === "running" ? latestRunEvent(row.id) : undefined;
+  return live && live.status === "running" && live.progress > row.progress ? { ...row, progress: live.progress } : row;
+}
+
 /** One run; out of date when the records it read have changed since (compared on every read). */
 export async function readRun(db: Db, siteId: string, runId: string): Promise<RunView> {
   await ensureRunner();
   const row = await getRow(db, siteId, runId);
-  // Only a finished run can be out of date; while it runs it is polled often, so skip the re-read.
-  if (row.status !== "done") return toView(row, false);
+  // Only a finished run can be out of date; while it runs it is watched closely, so skip the re-read.
+  if (row.status !== "done") return toView(withLiveProgress(row), false);
   const now = await currentFingerprint(db, siteId, row.scope as RunScope);
   return toView(row, now !== row.fingerprint);
 }
@@ -151,5 +158,6 @@ export async function cancelRun(db: Db, actor: SiteActor, runId: string): Promis
     return cancelled;
   });
   await cancelRunJob(runId);
+  publishRun({ runId, status: "cancelled", progress: after.progress, startedAt: after.startedAt?.toISOString() ?? null });
   return toView(after, false);
 }

@@ -1,0 +1,94 @@
+import "server-only";
+import { eq } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { analysisRuns } from "@/db/schema";
+import { isFinished, latestRunEvent, watchRun, type RunStatus } from "../jobs/run-events";
+import { runQueueKind } from "../jobs/runner";
+import { readRun } from "./runs";
+
+/** How often the row is looked at besides the events: a run in another process is seen only this way. */
+const ROW_CHECK_MS = { local: 1000, remote: 200 };
+const KEEP_ALIVE_MS = 15_000;
+
+/** The small part of a run that changes while it executes, as a watcher receives it. */
+export type RunProgressEvent = { status: RunStatus; progress: number; startedAt: string | null; now: string };
+
+/**
+ * A run as a stream of server-sent events (text/event-stream), for a page watching it: first `run` with
+ * the whole run as GET …/runs/{runId} returns it, then `progress` at each step of the simulations, and at
+ * the end `run` once more with the status it finished with and its result, after which the stream closes.
+ * A run executing in this process is followed through its events; the row is checked as well, which is
+ * how a run taken by a separate worker process (pg-boss) is followed.
+ */
+export async function runEventStream(db: Db, siteId: string, runId: string, signal: AbortSignal): Promise<Response> {
+  const first = await readRun(db, siteId, runId); // a run that does not exist (or is another site's) is a 404 here
+  const encoder = new TextEncoder();
+  let stop = () => {};
+  const stream = new ReadableStream<Uint8Array>({
+    start(controller) {
+      let closed = false;
+      let lastProgress = first.progress;
+      let lastStatus = first.status;
+      const send = (event: string, data: unknown) => {
+        if (!closed) controller.enqueue(encoder.encode(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`));
+      };
+      const progress = (status: RunStatus, value: number, startedAt: string | null) => {
+        if (status === lastStatus && value <= lastProgress) return;
+        lastStatus = status;
+        lastProgress = value;
+        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
+      };
+      const close = () => {
+        if (closed) return;
+        closed = true;
+        unwatch();
+        clearInterval(rowCheck);
+        clearInterval(keepAlive);
+        signal.removeEventListener("abort", close);
+        controller.close();
+      };
+      stop = close;
+      let finishing = false;
+      const finish = () => {
+        if (finishing) return;
+        finishing = true;
+        readRun(db, siteId, runId).then(
+          (view) => {
+            send("run", view);
+            close();
+          },
+          () => close(),
+        );
+      };
+      send("run", first);
+      const unwatch = watchRun(runId, (e) => (isFinished(e.status) ? finish() : progress(e.status, e.progress, e.startedAt)));
+      const checkRow = () => {
+        db.select({ status: analysisRuns.status, progress: analysisRuns.progress, startedAt: analysisRuns.startedAt })
+          .from(analysisRuns)
+          .where(eq(analysisRuns.id, runId))
+          .then(([row]) => {
+            if (!row || isFinished(row.status)) return finish();
+            const live = latestRunEvent(runId);
+            progress(row.status, Math.max(row.progress, live?.progress ?? 0), row.startedAt?.toISOString() ?? null);
+          })
+          .catch(() => undefined);
+      };
+      const rowCheck = setInterval(checkRow, runQueueKind() === "local" ? ROW_CHECK_MS.local : ROW_CHECK_MS.remote);
+      const keepAlive = setInterval(() => !closed && controller.enqueue(encoder.encode(": still watching\n\n")), KEEP_ALIVE_MS);
+      signal.addEventListener("abort", close, { once: true });
+      if (isFinished(first.status)) close();
+      else checkRow(); // it may have moved on between the first read and the subscription
+    },
+    cancel() {
+      stop();
+    },
+  });
+  return new Response(stream, {
+    headers: {
+      "content-type": "text/event-stream; charset=utf-8",
+      // no-transform keeps the server's compression from holding events back until the stream ends
+      "cache-control": "no-cache, no-transform",
+      "x-accel-buffering": "no",
+    },
+  });
+}

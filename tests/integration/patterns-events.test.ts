@@ -1,0 +1,141 @@
+/**
+ * A run followed as server-sent events (GET …/runs/{runId}/events), the way the Patterns page follows
+ * it: the run first, progress as the simulations go, the finished run last, then the stream ends. Also a
+ * finished run (one event), a cancelled run, a stranger and an unknown run.
+ */
+import { beforeAll, describe, expect, it } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { session, call } from "../support/harness";
+import { getDb } from "@/db/client";
+import * as s from "@/db/schema";
+import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
+import { runsIdle } from "@/lib/server/jobs/runner";
+import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
+import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+import * as eventsRoute from "@/app/api/sites/[siteId]/runs/[runId]/events/route";
+import * as cancelRoute from "@/app/api/sites/[siteId]/runs/[runId]/cancel/route";
+
+let d: { siteId: string; trenchId: string; ctx: Record<number, string>; cls: Record<string, string>; people: Record<string, string> };
+
+beforeAll(async () => {
+  const db = await getDb();
+  const { siteId } = await seedDemo(db);
+  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+  const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
+  const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
+  const people: Record<string, string> = {};
+  for (const u of DEMO_USERS) people[u.role] = (await db.select().from(s.users).where(eq(s.users.email, u.email)))[0].id;
+  d = { siteId, trenchId: trench.id, people, ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])), cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) };
+});
+
+async function start(classCode: string, nsim: number, seed: number) {
+  session.userId = d.people.specialist;
+  const res = await call(runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls[classCode]] }, tests: [{ kind: "l-csr" }], params: { nsim, seed } });
+  expect(res.status, JSON.stringify(res.json)).toBe(201);
+  return res.json.id as string;
+}
+
+type Sse = { event: string; data: any };
+
+/** Opens the stream and reads it as the browser's EventSource would; `onEvent` may act while it runs. */
+async function follow(runId: string, onEvent?: (e: Sse) => Promise<void> | void): Promise<{ status: number; events: Sse[] }> {
+  const req = new Request("http://localhost/api/test", { method: "GET" });
+  const res = await eventsRoute.GET(req, { params: Promise.resolve({ siteId: d.siteId, runId }) });
+  if (res.status !== 200) return { status: res.status, events: [] };
+  expect(res.headers.get("content-type")).toContain("text/event-stream");
+  const events: Sse[] = [];
+  const reader = res.body!.pipeThrough(new TextDecoderStream()).getReader();
+  let buffer = "";
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    buffer += value;
+    let end: number;
+    while ((end = buffer.indexOf("\n\n")) >= 0) {
+      const block = buffer.slice(0, end);
+      buffer = buffer.slice(end + 2);
+      const event = /^event: (.*)$/m.exec(block)?.[1];
+      const data = /^data: (.*)$/m.exec(block)?.[1];
+      if (!event || data === undefined) continue; // a keep-alive comment
+      const e = { event, data: JSON.parse(data) };
+      events.push(e);
+      await onEvent?.(e);
+    }
+  }
+  return { status: res.status, events };
+}
+
+describe("run events", () => {
+  it("streams the run, its progress as it rises, and the finished run with its result, then ends", async () => {
+    const id = await start("FLK", 1999, 77);
+    const { status, events } = await follow(id);
+    expect(status).toBe(200);
+    expect(events[0].event).toBe("run");
+    expect(events[0].data.id).toBe(id);
+    expect(["queued", "running"]).toContain(events[0].data.status);
+    const progress = events.filter((e) => e.event === "progress").map((e) => e.data);
+    expect(progress.length).toBeGreaterThan(2);
+    for (const p of progress) {
+      expect(p.status).toBe("running");
+      expect(p.progress).toBeGreaterThanOrEqual(0);
+      expect(p.progress).toBeLessThan(1);
+      expect(Date.parse(p.now)).toBeGreaterThanOrEqual(Date.parse(p.startedAt));
+    }
+    const values = progress.map((p) => p.progress);
+    expect(values).toEqual([...values].sort((a, b) => a - b));
+    expect(values.at(-1)).toBeGreaterThan(0.5);
+    const last = events.at(-1)!;
+    expect(last.event).toBe("run");
+    expect(last.data.status).toBe("done");
+    expect(last.data.progress).toBe(1);
+    expect(last.data.outOfDate).toBe(false);
+    // the same run as the JSON route reads it
+    const read = (await call(runRoute, "GET", { siteId: d.siteId, runId: id })).json;
+    expect(last.data.result.tests).toEqual(read.result.tests);
+    expect(last.data.result.tests[0].verdict).toBe("clustered");
+    const timing = last.data.result.timing;
+    expect(timing.engineEnd).toBeGreaterThan(timing.engineStart);
+    expect(timing.engineStart).toBeGreaterThanOrEqual(Date.parse(last.data.startedAt));
+  });
+
+  it("gives a finished run as one event and ends", async () => {
+    const id = await start("SHD", 99, 3);
+    await runsIdle();
+    session.userId = d.people.digger; // any member may watch
+    const { events } = await follow(id);
+    expect(events.map((e) => e.event)).toEqual(["run"]);
+    expect(events[0].data.status).toBe("done");
+  });
+
+  it("ends with the cancelled run when the run is cancelled while watched", async () => {
+    const id = await start("FLK", 9999, 5);
+    let cancelled = false;
+    const { events } = await follow(id, async (e) => {
+      if (!cancelled && e.event === "progress" && e.data.progress > 0) {
+        cancelled = true;
+        session.userId = d.people.specialist;
+        const res = await call(cancelRoute, "POST", { siteId: d.siteId, runId: id });
+        expect(res.status, JSON.stringify(res.json)).toBe(200);
+      }
+    });
+    await runsIdle();
+    expect(cancelled).toBe(true);
+    const last = events.at(-1)!;
+    expect(last.event).toBe("run");
+    expect(last.data.status).toBe("cancelled");
+    expect(last.data.result).toBeNull();
+  });
+
+  it("refuses a stranger, a signed-out caller and an unknown run", async () => {
+    const id = await start("SHD", 99, 4);
+    await runsIdle();
+    session.userId = null;
+    expect((await follow(id)).status).toBe(401);
+    const db = await getDb();
+    const [stranger] = await db.insert(s.users).values({ email: "events-stranger@loamwork.test", name: "Stranger", passwordHash: "x" }).returning();
+    session.userId = stranger.id;
+    expect((await follow(id)).status).toBe(404);
+    session.userId = d.people.specialist;
+    expect((await follow("00000000-0000-4000-8000-000000000000")).status).toBe(404);
+  });
+});
