@@ -2,20 +2,25 @@
  * The in-process run queue used with the embedded database: only the app process may open PGlite, so it
  * runs every job itself, one (or `concurrency`) at a time, each with an AbortController so a cancel stops
  * the simulations in the worker threads at once. Jobs are run ids; the work function is passed in.
+ * A submitter may hand over what it already holds for the run (`hint`); it reaches the work function
+ * only when the run starts at once, never after waiting behind others, when it would be out of date.
  */
-export type RunWork = (runId: string, signal: AbortSignal) => Promise<void>;
+export type RunWork<H = unknown> = (runId: string, signal: AbortSignal, hint?: H) => Promise<void>;
 
-export class LocalRunQueue {
+export class LocalRunQueue<H = unknown> {
   private readonly waiting: string[] = [];
   private readonly active = new Map<string, AbortController>();
+  private readonly hints = new Map<string, H>();
   private idleWaiters: (() => void)[] = [];
 
-  constructor(private readonly work: RunWork, private readonly concurrency = 1) {}
+  constructor(private readonly work: RunWork<H>, private readonly concurrency = 1) {}
 
-  submit(runId: string): void {
+  submit(runId: string, hint?: H): void {
     if (this.active.has(runId) || this.waiting.includes(runId)) return;
     this.waiting.push(runId);
+    if (hint !== undefined) this.hints.set(runId, hint);
     this.pump();
+    this.hints.delete(runId);
   }
 
   /** Stops a run: drops it from the queue, or aborts it if it is running. */
@@ -46,7 +51,7 @@ export class LocalRunQueue {
       const controller = new AbortController();
       this.active.set(runId, controller);
       // Off the request: the caller of submit() has already answered; failures are recorded on the run by `work`.
-      void this.work(runId, controller.signal)
+      void this.work(runId, controller.signal, this.hints.get(runId))
         .catch((err) => console.error(`[loamwork] run ${runId} failed outside its own error handling`, err))
         .finally(() => {
           this.active.delete(runId);

@@ -5,6 +5,7 @@ import { createSimulationPool, type SimulationPool } from "@/lib/spatial/pool";
 import { executeRun } from "../analysis/execute-run";
 import { failStale } from "../analysis/run-rows";
 import { openBoss, RUN_EXPIRE_SECONDS, workRuns } from "./pg-queue";
+import { warmSimulationPool } from "./sim-pool";
 
 export type RunWorker = { stop: () => Promise<void> };
 
@@ -20,6 +21,7 @@ export async function startRunWorker(options: { concurrency?: number; threads?: 
   const stale = await failStale(db, new Date(Date.now() - 2 * RUN_EXPIRE_SECONDS * 1000));
   if (stale) console.log(`[loamwork] marked ${stale} abandoned run(s) failed`);
   const pool: SimulationPool = createSimulationPool({ threads: options.threads });
+  if (env().NODE_ENV !== "test") void warmSimulationPool(pool);
   const boss = await openBoss(url);
   const stopWork = await workRuns(boss, (runId, signal) => executeRun(db, runId, { signal, pool }), options.concurrency ?? 1);
   return {

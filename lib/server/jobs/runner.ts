@@ -3,10 +3,11 @@ import type PgBoss from "pg-boss";
 import { getDb } from "@/db/client";
 import { env } from "@/lib/env";
 import { executeRun } from "../analysis/execute-run";
+import type { ScopeData } from "../analysis/scope-data";
 import { failStale, requeueOrphans } from "../analysis/run-rows";
 import { LocalRunQueue } from "./local-queue";
 import { openBoss, RUN_EXPIRE_SECONDS, sendRun } from "./pg-queue";
-import { simulationPool } from "./sim-pool";
+import { simulationPool, warmSimulationPool } from "./sim-pool";
 
 /**
  * Where runs execute. Embedded database: in this process (the only one allowed to open PGlite), in the
@@ -14,7 +15,7 @@ import { simulationPool } from "./sim-pool";
  * LOAMWORK_RUN_QUEUE forces one or the other. Under NODE_ENV=test the default is the local queue even on
  * PostgreSQL, so the integration suite runs its jobs in-process on both databases; the pg-boss test opts in.
  */
-type Runner = { kind: "local"; queue: LocalRunQueue } | { kind: "pg-boss"; boss: PgBoss };
+type Runner = { kind: "local"; queue: LocalRunQueue<ScopeData> } | { kind: "pg-boss"; boss: PgBoss };
 const holder = ((globalThis as Record<string, unknown>).__loamworkRunner ??= {}) as { ready?: Promise<Runner> };
 
 export function runQueueKind(): "local" | "pg-boss" {
@@ -29,7 +30,9 @@ async function start(): Promise<Runner> {
     if (!url) throw new Error("LOAMWORK_RUN_QUEUE=pg-boss needs DATABASE_URL.");
     return { kind: "pg-boss", boss: await openBoss(url) };
   }
-  const queue = new LocalRunQueue((runId, signal) => executeRun(db, runId, { signal, pool: simulationPool() }));
+  const queue = new LocalRunQueue<ScopeData>((runId, signal, scope) => executeRun(db, runId, { signal, pool: simulationPool(), live: true, scope }));
+  // Warm the simulation threads now rather than on the first Run (tests start their own runs, cold or not).
+  if (env().NODE_ENV !== "test") void warmSimulationPool();
   // A run left 'running' or 'queued' belongs to a process that stopped (a crash or a restart): run it again.
   for (const id of await requeueOrphans(db)) queue.submit(id);
   return { kind: "local", queue };
@@ -44,9 +47,10 @@ export function ensureRunner(): Promise<Runner> {
   return holder.ready;
 }
 
-export async function submitRun(runId: string): Promise<void> {
+/** Queues a stored run; `scope` is what the creating request read, used if the run starts at once here. */
+export async function submitRun(runId: string, scope?: ScopeData): Promise<void> {
   const runner = await ensureRunner();
-  if (runner.kind === "local") runner.queue.submit(runId);
+  if (runner.kind === "local") runner.queue.submit(runId, scope);
   else await sendRun(runner.boss, runId);
 }
 

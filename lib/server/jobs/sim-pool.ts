@@ -1,21 +1,50 @@
 import "server-only";
 import path from "node:path";
 import { createSimulationPool, type SimulationPool } from "@/lib/spatial/pool";
+import { createRandom } from "@/lib/spatial/random";
+import { runDistributionTest } from "@/lib/spatial/run-test";
 
 /**
  * The engine's worker-thread pool of this process, created once. The worker file is named by its path in
  * the source tree: a Next.js server bundles this module, so the engine's own `import.meta.url` default
  * would point inside the bundle, where the worker entry does not exist.
  */
-const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool };
+const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool; warm?: Promise<void> };
 
 export function simulationPool(): SimulationPool {
   holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "spatial", "worker-entry.mjs") });
   return holder.pool;
 }
 
+/**
+ * Readies the pool before anyone presses Run: each worker thread loads the engine (compiling its
+ * TypeScript on the way) and simulates a few small patterns, so the first real run does not pay for
+ * thread start and a cold JIT. Runs once per pool, in the background; a failure is only logged, since a
+ * real run reports its own. A run submitted meanwhile waits at most for these few small tasks.
+ */
+export function warmSimulationPool(pool: SimulationPool = simulationPool()): Promise<void> {
+  if (pool === holder.pool && holder.warm) return holder.warm;
+  const rng = createRandom(7);
+  const points = Array.from({ length: 200 }, () => ({ x: 10 * rng.next(), y: 6 * rng.next() }));
+  const spec = {
+    window: { outer: [[0, 0], [10, 0], [10, 6], [0, 6]] as [number, number][] },
+    points,
+    seed: 1,
+    nsim: 8 * pool.threads * 2,
+    r: { max: 1.5, count: 33 },
+    tests: [{ type: "l-envelope" as const, count: "fixed" as const, correction: "isotropic" as const, statistic: "mad" as const }],
+  };
+  const warm = runDistributionTest(spec, { pool }).then(
+    () => undefined,
+    (err) => console.error("[loamwork] warming the simulation threads failed; runs will start them", err),
+  );
+  if (pool === holder.pool) holder.warm = warm;
+  return warm;
+}
+
 export async function closeSimulationPool(): Promise<void> {
   const pool = holder.pool;
   holder.pool = undefined;
+  holder.warm = undefined;
   if (pool) await pool.destroy();
 }
