@@ -1,7 +1,7 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { usePathname, useSearchParams } from "next/navigation";
 import { useEffect, useState } from "react";
 import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import type { RunView } from "@/lib/server/analysis/run-view";
@@ -20,7 +20,6 @@ type Props = { siteId: string; canRun: boolean; trenches: TrenchOption[]; contex
 
 /** The Patterns workspace: scope → tests → parameters → run → progress → verdicts, figures, cautions. */
 export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes }: Props) {
-  const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
   const runId = search.get("run");
@@ -29,11 +28,13 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
   const [form, setForm] = useState<FormState>(() => initialForm(trenches.find((t) => contexts.some((c) => c.trenchId === t.id))?.id ?? trenches[0]?.id ?? ""));
   const set = (f: Partial<FormState>) => setForm((old) => ({ ...old, ...f }));
 
+  // The run and the comparison live in the address (reload, share), but nothing on the server depends on
+  // them: the history API changes the address and useSearchParams without asking the server for the page.
   const setUrl = (params: { run?: string | null; compare?: string[] }) => {
     const next = new URLSearchParams(search.toString());
     if (params.run !== undefined) (params.run ? next.set("run", params.run) : next.delete("run"));
     if (params.compare !== undefined) (params.compare.length ? next.set("compare", params.compare.join(",")) : next.delete("compare"));
-    router.replace(`${pathname}?${next.toString()}`, { scroll: false });
+    window.history.replaceState(null, "", `${pathname}?${next.toString()}`);
   };
 
   const summary = useQuery({
@@ -44,16 +45,23 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
   const runs = useRuns(siteId);
   const run = useRun(siteId, runId);
   const status = run.data?.status;
+  const shownId = run.data?.id;
   useEffect(() => {
-    if (status) void qc.invalidateQueries({ queryKey: ["runs", siteId] });
-  }, [status, qc, siteId]);
+    if (!status || !shownId) return;
+    // While a run goes on, its row in the list follows it here; the list is read again once it has ended
+    // (out-of-date marks included), not while the server is busy simulating.
+    if (status === "queued" || status === "running") {
+      qc.setQueryData(["runs", siteId], (old: Omit<RunView, "result">[] | undefined) => old?.map((r) => (r.id === shownId ? { ...r, status } : r)));
+    } else void qc.invalidateQueries({ queryKey: ["runs", siteId] });
+  }, [status, shownId, qc, siteId]);
 
   const start = useMutation({
     mutationFn: () => fetchJson<RunView>(`/api/sites/${siteId}/runs`, { body: toRequest(form) }),
     onSuccess: (created) => {
       qc.setQueryData(["run", siteId, created.id], created);
       setUrl({ run: created.id });
-      void qc.invalidateQueries({ queryKey: ["runs", siteId] });
+      const { result: _none, ...listed } = created;
+      qc.setQueryData(["runs", siteId], (old: Omit<RunView, "result">[] | undefined) => (old ? [listed, ...old.filter((r) => r.id !== created.id)] : old));
     },
   });
   const cancel = useMutation({
