@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { at, freshTrench } from "./support/plan-trench";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -27,28 +28,6 @@ async function trenchPhoto(): Promise<Buffer> {
   const dots = PEGS.map((p) => `<circle cx="${p.px}" cy="${p.py}" r="14" fill="#fff" stroke="#000" stroke-width="4"/>`).join("");
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1200" height="900"><rect width="1200" height="900" fill="#7a5a3a"/><rect x="100" y="100" width="1000" height="700" fill="#9b7550"/>${dots}</svg>`;
   return sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
-}
-
-/** Opens a fresh trench (so runs never collide) with a placeholder outline and one open context. */
-async function freshTrench(page: Page) {
-  const sites = (await (await page.request.get("/api/sites")).json()) as { id: string; code: string }[];
-  const site = sites.find((s) => s.code === "WHD26") ?? sites[0];
-  const code = `P${Date.now().toString(36).slice(-5).toUpperCase()}`;
-  const t = await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code, name: "Plan test", outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [4, 6], [0, 0]]] } } });
-  expect(t.status()).toBe(201);
-  const trench = await t.json();
-  const number = 60000 + Math.floor(Math.random() * 30000);
-  const c = await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number, type: "deposit" } });
-  expect(c.status()).toBe(201);
-  return { siteId: site.id as string, trenchId: trench.id as string, code, contextNumber: number };
-}
-
-/** Screen position (page coordinates) of a grid point, from the view the canvas publishes. */
-async function at(page: Page, x: number, y: number): Promise<[number, number]> {
-  const canvas = page.getByTestId("plan-canvas");
-  const view = JSON.parse((await canvas.getAttribute("data-view"))!) as { scale: number; ox: number; oy: number };
-  const box = (await canvas.boundingBox())!;
-  return [box.x + view.ox + x * view.scale, box.y + view.oy - y * view.scale];
 }
 
 async function tapPlan(page: Page, touch: boolean, x: number, y: number) {

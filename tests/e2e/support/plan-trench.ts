@@ -1,0 +1,30 @@
+import { expect } from "vitest";
+import type { Page } from "playwright-core";
+
+export type PlanView = { scale: number; ox: number; oy: number };
+
+/** Opens a fresh trench (so runs never collide) with a placeholder outline and one open context. */
+export async function freshTrench(page: Page) {
+  const sites = (await (await page.request.get("/api/sites")).json()) as { id: string; code: string }[];
+  const site = sites.find((s) => s.code === "WHD26") ?? sites[0];
+  const code = `P${Date.now().toString(36).slice(-5).toUpperCase()}`;
+  const t = await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code, name: "Plan test", outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [4, 6], [0, 0]]] } } });
+  expect(t.status()).toBe(201);
+  const trench = await t.json();
+  const number = 60000 + Math.floor(Math.random() * 30000);
+  const c = await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number, type: "deposit" } });
+  expect(c.status()).toBe(201);
+  return { siteId: site.id as string, trenchId: trench.id as string, code, contextNumber: number };
+}
+
+/** The view the plan canvas publishes on its element (data-view). */
+export async function planView(page: Page): Promise<PlanView> {
+  return JSON.parse((await page.getByTestId("plan-canvas").getAttribute("data-view"))!) as PlanView;
+}
+
+/** Screen position (page coordinates) of a grid point, from the view the canvas publishes. */
+export async function at(page: Page, x: number, y: number): Promise<[number, number]> {
+  const view = await planView(page);
+  const box = (await page.getByTestId("plan-canvas").boundingBox())!;
+  return [box.x + view.ox + x * view.scale, box.y + view.oy - y * view.scale];
+}
