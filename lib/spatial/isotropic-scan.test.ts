@@ -59,6 +59,21 @@ describe("WebAssembly isotropic scan", () => {
     expect(worstRelative(a, b)).toBeLessThan(1e-12);
   });
 
+  test("grows its memory for a many-sided outline where every find is near many edges", () => {
+    // a 72-sided round pit, 1.5 m across: every find is within r max of dozens of edges
+    const outer = Array.from({ length: 72 }, (_, k) => [0.75 * Math.cos((k * Math.PI) / 36), 0.75 * Math.sin((k * Math.PI) / 36)] as [number, number]);
+    const pit = createWindow({ outer });
+    const x = new Float64Array(300), y = new Float64Array(300);
+    createWindowSampler(pit).fill(createRandom(21), 300, x, y);
+    const r = defaultRGrid(pit, 300);
+    const a = new Float64Array(r.length), b = new Float64Array(r.length);
+    const wasm = createIsotropicL(pit, r);
+    expect(wasm.kernel).toBe("wasm");
+    wasm.sums(x, y, 300, a);
+    createIsotropicL(pit, r, { kernel: "typescript" }).sums(x, y, 300, b);
+    expect(worstRelative(a, b)).toBeLessThan(1e-12);
+  });
+
   test("bins an uneven r grid by spatstat's rule, distances on grid values included", () => {
     const p = pattern(600, 11);
     const r = Float64Array.from([0, 0.05, 0.1, 0.3, 0.31, 0.7, 1.0, 1.4, 1.9]);

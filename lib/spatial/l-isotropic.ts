@@ -60,7 +60,7 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
   const hist = new Float64Array(m + 1);
   const { nx, ny, cellStart } = grid;
   const r2 = rmax * rmax;
-  const wasm = useWasm ? createWasmIsotropicScan(r, grid, REACH) : null;
+  const wasm = useWasm ? createWasmIsotropicScan(window, r, grid, REACH) : null;
 
   let su = new Float64Array(0);
   const scan = (x: Float64Array, y: Float64Array, n: number, weigh: boolean, u?: Float64Array): number => {
@@ -71,9 +71,9 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
       if (su.length < n) su = new Float64Array(n);
       for (let p = 0; p < n; p++) su[p] = u[order[p]];
     }
+    if (wasm) return wasm.scan(grid, n, hist, u ? su : null);
     // Prepared in sorted order so that the tables are read in memory order inside the loop.
     const tables = weigh ? weights.prepare(sx, sy, n) : null;
-    if (tables && wasm) return wasm.scan(grid, n, tables, hist, u ? su : null);
     const bd = tables ? tables.bdist : sx, st = tables ? tables.start : order, sl = tables ? tables.slots : sx, tot = tables ? tables.total : sx;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {

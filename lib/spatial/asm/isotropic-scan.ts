@@ -19,6 +19,10 @@
  *   ext         i32[reach+1]  stencil: row dy of the half stencil spans columns cx − ext[dy] .. cx + ext[dy]
  *               (row 0: cx .. cx + ext[0]); only cells that can hold a point within r max of the cell
  *
+ * `prepare` fills bd, total and the blocks from the window's edges (f64[4·E]: ax ay bx by) as
+ * isotropic-weights.ts prepares its slots; a point on the boundary (bd ≤ tol) gets total = −1 and the caller
+ * computes its angle (edge-isotropic.ts fanAngle).
+ *
  * A slot that the circle does not reach (seg ≥ d) adds nothing even when computed: x = h/d is clamped to
  * 1 (β = 0) or its angular range [ta, tb] misses (−β, β); so only whole blocks are skipped, by the sorted
  * first segment distance.
@@ -129,4 +133,82 @@ export function scan(
     }
   }
   return pairs;
+}
+
+/**
+ * Edge slots of points (sx, sy)[0..n-1]: for every edge nearer than r max (segment distance seg, line
+ * distance h > tol), h, the end angles t_a, t_b seen from the point about the foot of the perpendicular,
+ * and the side (+1 when the point is on W's side). Slots are sorted by seg (insertion through a scratch row
+ * of E slots at pScratch) and written two to a block. Returns the number of blocks, or −1 when more than
+ * blockCap would be needed (the caller grows the memory and calls again).
+ */
+export function prepare(
+  n: i32, edgeCount: i32, rmax: f64, tol: f64,
+  pSx: usize, pSy: usize, pEdges: usize, pBd: usize, pTotal: usize, pStart: usize, pBlocks: usize,
+  blockCap: i32, pScratch: usize,
+): i32 {
+  let blk: i32 = 0;
+  for (let i = 0; i < n; i++) {
+    store<i32>(pStart + ((<usize>i) << 2), blk);
+    const cx = load<f64>(pSx + ((<usize>i) << 3));
+    const cy = load<f64>(pSy + ((<usize>i) << 3));
+    let best = Infinity;
+    let count: i32 = 0;
+    for (let e = 0; e < edgeCount; e++) {
+      const pe = pEdges + (<usize>e) * 32;
+      const ax = load<f64>(pe) - cx;
+      const ay = load<f64>(pe, 8) - cy;
+      const ex = load<f64>(pe, 16) - cx - ax;
+      const ey = load<f64>(pe, 24) - cy - ay;
+      const len2 = ex * ex + ey * ey;
+      let t = -(ax * ex + ay * ey) / len2;
+      t = t < 0 ? 0 : t > 1 ? 1 : t;
+      const px = ax + t * ex;
+      const py = ay + t * ey;
+      const seg = Math.sqrt(px * px + py * py);
+      if (seg < best) best = seg;
+      if (seg >= rmax) continue;
+      const len = Math.sqrt(len2);
+      const cross = ax * ey - ay * ex;
+      const h = Math.abs(cross) / len;
+      if (h <= tol) continue;
+      // insertion by segment distance among this point's slots (5 values each in the scratch row)
+      let at = count;
+      while (at > 0 && load<f64>(pScratch + (<usize>(at - 1)) * 40) > seg) {
+        const from = pScratch + (<usize>(at - 1)) * 40;
+        memory.copy(from + 40, from, 40);
+        at--;
+      }
+      const slot = pScratch + (<usize>at) * 40;
+      store<f64>(slot, seg);
+      store<f64>(slot, h, 8);
+      store<f64>(slot, Math.atan((ax * ex + ay * ey) / len / h), 16);
+      store<f64>(slot, Math.atan(((ax + ex) * ex + (ay + ey) * ey) / len / h), 24);
+      store<f64>(slot, cross > 0 ? 1.0 : -1.0, 32);
+      count++;
+    }
+    store<f64>(pBd + ((<usize>i) << 3), best);
+    store<f64>(pTotal + ((<usize>i) << 3), best <= tol ? -1.0 : TWO_PI);
+    const need = (count + 1) >> 1;
+    if (blk + need > blockCap) return -1;
+    for (let k = 0; k < count; k += 2) {
+      const base = pBlocks + (<usize>blk) * BLOCK;
+      const a = pScratch + (<usize>k) * 40;
+      for (let v: usize = 0; v < 5; v++) store<f64>(base + v * 16, load<f64>(a + v * 8));
+      if (k + 1 < count) {
+        const b = a + 40;
+        for (let v: usize = 0; v < 5; v++) store<f64>(base + v * 16 + 8, load<f64>(b + v * 8));
+      } else {
+        // an empty second lane: never reached (seg = ∞), adds nothing (sign 0), stays finite (h = 1)
+        store<f64>(base, Infinity, 8);
+        store<f64>(base, 1.0, 24);
+        store<f64>(base, 0.0, 40);
+        store<f64>(base, 0.0, 56);
+        store<f64>(base, 0.0, 72);
+      }
+      blk++;
+    }
+  }
+  store<i32>(pStart + ((<usize>n) << 2), blk);
+  return blk;
 }
