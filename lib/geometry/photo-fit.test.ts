@@ -69,6 +69,68 @@ describe("fitPhoto recovers known transforms from synthetic control points", () 
   });
 });
 
+describe("projective fits are refined in metres after the DLT", () => {
+  /** Seeded normal deviates: Park–Miller minimal standard generator and the Box–Muller transform. */
+  function normals(seed: number) {
+    let s = seed;
+    const uniform = () => (s = (s * 48271) % 2147483647) / 2147483647;
+    return () => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+  }
+  // Twelve pegs across a 4000 × 3000 photo, their surveyed positions off by about 2 cm (σ per axis).
+  const pixels: [number, number][] = [[60, 40], [1400, 90], [2700, 30], [3950, 70], [3900, 1500], [3960, 2960], [2600, 2900], [1300, 2950], [40, 2980], [80, 1400], [1500, 1200], [2800, 1900]];
+  const rmsOf = (m: number[], pts: ControlPoint[]) => Math.sqrt(pts.reduce((a, p) => { const [x, y] = applyFit(m, p.px, p.py); return a + (x - p.x) ** 2 + (y - p.y) ** 2; }, 0) / pts.length);
+
+  // An oblique photo (w from 0.7 to 1.6 over the frame): the DLT's algebraic error weights each peg by
+  // its w, so its answer is visibly off the least-squares answer in metres.
+  const oblique = [0.0041, 0.0009, 12.5, -0.0004, -0.0049, 30.25, 1.5e-4, -1e-4, 1];
+
+  it("noisy pegs: a smaller RMS in metres than the DLT alone, and a minimum of that RMS", () => {
+    for (const [truth, seed] of [[projective, 7], [oblique, 7], [oblique, 1234], [oblique, 99991]] as const) {
+      const noise = normals(seed);
+      const pts = through(truth, pixels).map((p) => ({ ...p, x: p.x + 0.02 * noise(), y: p.y + 0.02 * noise() }));
+      const dlt = fitPhoto(pts, { refine: false });
+      const fit = fitPhoto(pts);
+      expect(fit.model).toBe("projective");
+      expect(fit.rms).toBeLessThan(dlt.rms * (truth === oblique ? 0.999 : 1));
+      expect(fit.rms).toBeCloseTo(rmsOf(fit.matrix, pts), 12);
+      // A minimum: nudging any of the eight free entries either way (by 1e-5 of its size) does not lower the RMS.
+      for (let k = 0; k < 8; k++) {
+        for (const sign of [1, -1]) {
+          const nudged = [...fit.matrix];
+          nudged[k] += sign * 1e-5 * (Math.abs(nudged[k]) || 1e-9);
+          expect(rmsOf(nudged, pts)).toBeGreaterThanOrEqual(fit.rms * (1 - 1e-12));
+        }
+      }
+      // With 2 cm of noise on twelve pegs the fit still puts the photo's centre within 2 cm of the truth.
+      const [x, y] = applyFit(fit.matrix, 2000, 1500);
+      const [tx, ty] = applyFit(truth, 2000, 1500);
+      expect(Math.hypot(x - tx, y - ty)).toBeLessThan(0.02);
+    }
+  });
+
+  it("exact pegs are still recovered exactly, by the DLT and after refinement", () => {
+    for (const truth of [projective, oblique]) {
+      const pts = through(truth, pixels);
+      expectMatrix(fitPhoto(pts, { refine: false }).matrix, truth, 1e-7);
+      const fit = fitPhoto(pts);
+      expectMatrix(fit.matrix, truth, 1e-7);
+      expect(fit.rms).toBeLessThan(1e-9);
+    }
+  });
+
+  it("a genuinely perspective photo of a real-sized grid: the refinement does not wander off", () => {
+    // Grid origin far from zero, as on a national grid: normalisation keeps the refinement well conditioned.
+    const far = [0.0041, 0.0009, 412_300.25, -0.0004, -0.0049, 5_310_020.5, 2e-6, -3e-6, 1];
+    const noise = normals(42);
+    const pts = through(far, pixels).map((p) => ({ ...p, x: p.x + 0.01 * noise(), y: p.y + 0.01 * noise() }));
+    const dlt = fitPhoto(pts, { refine: false });
+    const fit = fitPhoto(pts);
+    expect(fit.rms).toBeLessThanOrEqual(dlt.rms);
+    expect(fit.rms).toBeLessThan(0.02);
+    expect(fit.rms).toBeGreaterThan(0.004); // it cannot fit the noise away with 16 spare coordinates
+  });
+});
+
 describe("residuals", () => {
   it("match the hand-computed plane fit of four square corners with one corner displaced", () => {
     // Hand computation: a least-squares plane through the 2×2 design (0,0),(1,0),(0,1),(1,1) with values
