@@ -1,13 +1,10 @@
-import { mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { TEST_APP_URL, useMailSink } from "../support/mail-sink";
+import { describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
-import { startMailSink, type MailSink } from "@/lib/dev-services/mail-sink";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
 import { hashPassword, checkPassword } from "@/lib/server/passwords";
 import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
@@ -15,27 +12,8 @@ import * as acceptRoute from "@/app/api/auth-extra/invitations/accept/route";
 import * as resetRequestRoute from "@/app/api/auth-extra/password-reset/request/route";
 import * as resetConfirmRoute from "@/app/api/auth-extra/password-reset/confirm/route";
 
-// The transport reads SMTP_URL once (lib/env.ts caches it), so the sink's address is fixed before any import.
-const mailEnv = vi.hoisted(() => {
-  const port = 20000 + Math.floor(Math.random() * 20000);
-  process.env.SMTP_URL = `smtp://127.0.0.1:${port}`;
-  process.env.APP_URL = "http://loamwork.example";
-  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
-  return { port };
-});
-
-let sink: MailSink;
-let dir: string;
-const APP = "http://loamwork.example";
-
-beforeAll(async () => {
-  dir = mkdtempSync(path.join(tmpdir(), "loamwork-mail-"));
-  sink = await startMailSink({ port: mailEnv.port, dir });
-});
-afterAll(async () => {
-  await sink?.stop();
-  rmSync(dir, { recursive: true, force: true });
-});
+const mail = useMailSink();
+const APP = TEST_APP_URL;
 
 /** The single-use token at the end of the first link of that path in a message. */
 function tokenIn(text: string, route: string): string {
@@ -52,7 +30,7 @@ describe("invitations by e-mail", () => {
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     expect(res.json.mail).toEqual({ sent: 1, failed: 0 });
     expect(res.json.invitation.tokenHash).toBeUndefined();
-    const [m] = messagesTo(dir, "new.digger@example.org");
+    const [m] = messagesTo(mail.dir, "new.digger@example.org");
     expect(m.from).toEqual(["records@loamwork.example"]);
     expect(m.subject).toBe(`Invitation to ${fx.site.code} ${fx.site.name} on Loamwork`);
     const token = tokenIn(m.text, "invite");
@@ -81,7 +59,7 @@ describe("invitations by e-mail", () => {
     const [known] = await db.insert(schema.users).values({ email: "known@example.org", name: "Known Person", passwordHash: await hashPassword("known-password-9") }).returning();
     session.userId = fx.people.director.id;
     await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "known@example.org", role: "digger" });
-    const token = tokenIn(messagesTo(dir, "known@example.org")[0].text, "invite");
+    const token = tokenIn(messagesTo(mail.dir, "known@example.org")[0].text, "invite");
     session.userId = null;
     expect((await call(acceptRoute, "POST", {}, { token, password: "wrong-password" })).status).toBe(400);
     expect((await call(acceptRoute, "POST", {}, { token, password: "known-password-9" })).status).toBe(200);
@@ -90,7 +68,7 @@ describe("invitations by e-mail", () => {
 
     session.userId = fx.people.director.id;
     await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "late@example.org", role: "digger" });
-    const late = tokenIn(messagesTo(dir, "late@example.org")[0].text, "invite");
+    const late = tokenIn(messagesTo(mail.dir, "late@example.org")[0].text, "invite");
     await db.update(schema.invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(schema.invitations.email, "late@example.org"));
     session.userId = null;
     const refused = await call(acceptRoute, "POST", {}, { token: late, name: "Late", password: "late-password-1" });
@@ -103,7 +81,7 @@ describe("invitations by e-mail", () => {
     session.userId = fx.people.director.id;
     const res = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: fx.people.digger.email, role: "director" });
     expect(res.status).toBe(409);
-    expect(messagesTo(dir, fx.people.digger.email)).toHaveLength(0);
+    expect(messagesTo(mail.dir, fx.people.digger.email)).toHaveLength(0);
   });
 });
 
@@ -114,8 +92,8 @@ describe("password reset by e-mail", () => {
     const unknown = await call(resetRequestRoute, "POST", {}, { email: "nobody@example.org" });
     const known = await call(resetRequestRoute, "POST", {}, { email: "Forgetful@example.org" });
     expect(unknown).toEqual(known);
-    expect(messagesTo(dir, "nobody@example.org")).toHaveLength(0);
-    const [m] = messagesTo(dir, "forgetful@example.org");
+    expect(messagesTo(mail.dir, "nobody@example.org")).toHaveLength(0);
+    const [m] = messagesTo(mail.dir, "forgetful@example.org");
     expect(m.subject).toBe("Choose a new Loamwork password");
     expect(m.text).toContain("Hello Forgetful Digger,");
     const token = tokenIn(m.text, "reset-password");
@@ -133,6 +111,6 @@ describe("password reset by e-mail", () => {
     const db = await getDb();
     await db.insert(schema.users).values({ email: "flooded@example.org", name: "Flooded", passwordHash: "x" });
     for (let i = 0; i < 5; i++) await call(resetRequestRoute, "POST", {}, { email: "flooded@example.org" });
-    expect(messagesTo(dir, "flooded@example.org")).toHaveLength(3);
+    expect(messagesTo(mail.dir, "flooded@example.org")).toHaveLength(3);
   });
 });

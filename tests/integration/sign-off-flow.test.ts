@@ -1,13 +1,10 @@
-import { mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { useMailSink } from "../support/mail-sink";
+import { describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite, makeUser } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
-import { startMailSink, type MailSink } from "@/lib/dev-services/mail-sink";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
 import * as submitRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/submit/route";
 import * as lockRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/lock/route";
@@ -17,26 +14,7 @@ import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/rou
 import { completeSheet } from "./role-cases/sign-off";
 import { assertTrenchWritable } from "@/lib/server/locks";
 
-// The transport reads SMTP_URL once (lib/env.ts caches it), so the sink's address is fixed before any import.
-const mailEnv = vi.hoisted(() => {
-  const port = 20000 + Math.floor(Math.random() * 20000);
-  process.env.SMTP_URL = `smtp://127.0.0.1:${port}`;
-  process.env.APP_URL = "http://loamwork.example";
-  process.env.MAIL_FROM = "Loamwork test <records@loamwork.example>";
-  return { port };
-});
-
-let sink: MailSink;
-let dir: string;
-
-beforeAll(async () => {
-  dir = mkdtempSync(path.join(tmpdir(), "loamwork-mail-"));
-  sink = await startMailSink({ port: mailEnv.port, dir });
-});
-afterAll(async () => {
-  await sink?.stop();
-  rmSync(dir, { recursive: true, force: true });
-});
+const mail = useMailSink();
 
 const as = (id: string) => (session.userId = id);
 
@@ -86,12 +64,12 @@ describe("submit → sign off → reopen", () => {
     expect(sub.status, JSON.stringify(sub.json)).toBe(200);
     expect(sub.json.mail).toEqual({ sent: 2, failed: 0 });
     for (const d of [fx.people.director, second]) {
-      const [m] = messagesTo(dir, d.email);
+      const [m] = messagesTo(mail.dir, d.email);
       expect(m.subject).toBe(`${fx.site.code}: context ${fx.context.number} awaits your sign-off`);
       expect(m.text).toContain(`http://loamwork.example/sites/${fx.site.id}/sign-off`);
       expect(m.html).toContain(`href="http://loamwork.example/sites/${fx.site.id}/sign-off"`);
     }
-    expect(messagesTo(dir, fx.people.digger.email)).toHaveLength(0);
+    expect(messagesTo(mail.dir, fx.people.digger.email)).toHaveLength(0);
 
     // Awaiting: frozen for the digger and the director alike.
     const frozen = await call(contextRoute, "PATCH", p, { colour: "dark brown" });
@@ -106,7 +84,7 @@ describe("submit → sign off → reopen", () => {
     const [t] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
     expect(t.signedOffBy).toBe(fx.people.director.id);
     await expect(assertTrenchWritable(db, t, "given new contexts")).rejects.toThrow(/^Trench A was signed off by Director on \d{4}-\d\d-\d\d \d\d:\d\d UTC; it cannot be given new contexts/);
-    const [signed] = messagesTo(dir, fx.people.digger.email);
+    const [signed] = messagesTo(mail.dir, fx.people.digger.email);
     expect(signed.subject).toBe(`${fx.site.code}: context ${fx.context.number} signed off`);
     expect(signed.text).toContain(`http://loamwork.example/sites/${fx.site.id}/contexts/${fx.context.id}`);
     expect(signed.text).toContain("Every context of trench A is now signed off, so the trench is signed off too.");
@@ -121,12 +99,12 @@ describe("submit → sign off → reopen", () => {
     expect(t2.signedOffAt).toBeNull();
     // Every member but the director who reopened it is told, with the reason quoted.
     for (const who of [fx.people.digger, fx.people.specialist, second]) {
-      const [m] = messagesTo(dir, who.email);
+      const [m] = messagesTo(mail.dir, who.email);
       expect(m.subject).toContain(`context ${fx.context.number} reopened`);
       expect(m.text).toContain(`> ${reason}`);
       expect(m.html).toContain("re-check the section");
     }
-    expect(messagesTo(dir, fx.people.director.email).some((m) => m.subject.includes("reopened"))).toBe(false);
+    expect(messagesTo(mail.dir, fx.people.director.email).some((m) => m.subject.includes("reopened"))).toBe(false);
 
     const trail = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, fx.context.id));
     expect(trail.map((e) => e.action)).toEqual(["submit", "sign-off", "reopen"]);
