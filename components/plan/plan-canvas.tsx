@@ -258,7 +258,7 @@ export default function PlanCanvas(p: Props) {
     drawOutline(c, view, p.rings, hasPhoto, p.problem);
     drawExtents(c, view, p.extents);
     drawGrid(c, view, width, height, hasPhoto);
-    caches.finds.draw(c, view, width, height, [finds, classes, moved?.id ?? null], live, (cc, v, area) => drawFinds(cc, v, finds, classes, area, moved?.id));
+    if (finds.length) caches.finds.draw(c, view, width, height, [finds, classes, moved?.id ?? null], live, (cc, v, area) => drawFinds(cc, v, finds, classes, area, moved?.id));
     if (movedFind.length) drawFinds(c, view, movedFind, classes, screen);
     // For the benchmark (scripts/bench-plan.ts): the first frame with finds on the plan.
     if (finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: finds.length });
