@@ -12,6 +12,7 @@ export function NnHistogram({ t, code, colour }: { t: ClarkEvansOut; code: strin
     <PlotFrame
       title={`Nearest-neighbour distances, ${code}`}
       name={`nn-histogram-${code}`}
+      height={220}
       csv={() => counts.map((c, k) => ({ from_m: edges[k], to_m: edges[k + 1], finds: c }))}
       caption={`Mean ${t.meanNN.toFixed(3)} m; under CSR in this trench ${t.expectedNN.toFixed(3)} m; R = ${t.R.toFixed(3)}.`}
     >
@@ -35,6 +36,7 @@ export function QuadratChart({ t, code, colour }: { t: QuadratOut; code: string;
     <PlotFrame
       title={`Quadrat counts, ${code}`}
       name={`quadrat-${code}`}
+      height={220}
       csv={() => t.cells.map((c, k) => ({ cell: k + 1, x0: c.x0, y0: c.y0, x1: c.x1, y1: c.y1, observed: c.count, expected: c.expected }))}
       caption={`X² = ${t.X2.toFixed(2)}, df = ${t.df}, variance/mean = ${t.vmr.toFixed(2)}${t.monteCarlo ? "; small expected counts, p by Monte Carlo" : ""}. Dots: expected from each cell's area inside the trench.`}
     >

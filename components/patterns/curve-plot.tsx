@@ -27,7 +27,7 @@ export function CurvePlot({ title, name, curve, yLabel, theoLabel, colour, depar
   }));
   const csv = () => curve.r.map((r, k) => ({ r, observed: curve.obs[k], band_lo: curve.lo?.[k] ?? null, band_hi: curve.hi?.[k] ?? null, null_curve: curve.theo?.[k] ?? null }));
   return (
-    <PlotFrame title={title} name={name} csv={csv} caption={caption}>
+    <PlotFrame title={title} name={name} csv={csv} caption={caption} height={250}>
       <ResponsiveContainer width="100%" height={250}>
         <ComposedChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
           <CartesianGrid stroke="#e6dcc8" />

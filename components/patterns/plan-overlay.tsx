@@ -1,7 +1,8 @@
 "use client";
 
-import { useState } from "react";
+import { useMemo, useState } from "react";
 import type { RunResult } from "@/lib/server/analysis/result-types";
+import { AfterPaint } from "./after-paint";
 import { PlotFrame } from "./plot-frame";
 
 /** Cividis-like ramp (colour-blind safe: Nuñez, Anderton & Renslow 2018), sampled at 6 stops. */
@@ -15,9 +16,15 @@ function ramp(t: number): string {
   return `#${mix(0)}${mix(1)}${mix(2)}`;
 }
 
+/** Shades of the heat layer: cells are grouped by shade, one SVG path per shade. */
+const SHADES = 48;
+const n4 = (v: number) => Number(v.toFixed(4)); // 0.1 mm: plenty for a plan, and short path text
+
 /**
  * The trench outline with one class's kernel density as a heat layer, the quadrat grid with counts, and
- * the finds. Drawn as plain SVG in site-grid metres, north up (y flipped for the screen).
+ * the finds. Drawn as plain SVG in site-grid metres, north up (y flipped for the screen). The heat layer
+ * is a few paths (one per shade, its cells as squares) and the finds one path of circles, not thousands
+ * of elements: the page stays quick to draw, and the exported SVG stays small.
  */
 export function PlanOverlay({ result, runName }: { result: RunResult; runName: string }) {
   const withDensity = result.classes.filter((c) => result.density.some((d) => d.classId === c.id));
@@ -36,6 +43,23 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
   const quadrat = result.tests.find((t) => t.kind === "quadrat" && t.classId === classId);
   const cls = result.classes.find((c) => c.id === classId);
   const pts = result.points.find((p) => p.classId === classId);
+  const heat = useMemo(() => {
+    if (!density) return [];
+    const byShade: string[][] = Array.from({ length: SHADES }, () => []);
+    const w = n4(density.dx * 1.02), h = n4(density.dy * 1.02);
+    density.values.forEach((v, k) => {
+      if (!(v > 0)) return;
+      const x = n4(density.minX - minX + (k % density.nx) * density.dx);
+      const y = n4(sy(density.minY + (Math.floor(k / density.nx) + 1) * density.dy));
+      byShade[Math.min(SHADES - 1, Math.round((v / peak) * (SHADES - 1)))].push(`M${x} ${y}h${w}v${h}h${-w}z`);
+    });
+    return byShade.flatMap((cells, shade) => (cells.length ? [{ shade, d: cells.join(""), fill: ramp(shade / (SHADES - 1)) }] : []));
+  }, [density, peak, minX, maxY]); // eslint-disable-line react-hooks/exhaustive-deps -- sy() reads only maxY
+  const finds = useMemo(() => {
+    if (!pts) return "";
+    const r = n4(span / 220);
+    return pts.x.map((x, k) => `M${n4(x - minX - r)} ${n4(sy(pts.y[k]))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`).join("");
+  }, [pts, minX, maxY, span]); // eslint-disable-line react-hooks/exhaustive-deps -- sy() reads only maxY
   const csv = () => (density ? density.values.map((v, k) => ({ x: density.minX + ((k % density.nx) + 0.5) * density.dx, y: density.minY + (Math.floor(k / density.nx) + 0.5) * density.dy, intensity_per_m2: v })) : []);
   return (
     <PlotFrame title={`Plan: ${cls?.code ?? ""} density${quadrat ? " and quadrat counts" : ""}`} name={`plan-${runName}-${cls?.code ?? "class"}`} csv={csv} caption={density ? `Heat: finds per m², ${density.rule}, bandwidth ${density.bandwidth.toFixed(2)} m. Peak ${peak.toFixed(1)} per m².` : undefined}>
@@ -49,6 +73,7 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
         <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showHeat} onChange={(e) => setShowHeat(e.target.checked)} /> Heat layer</label>
         <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showGrid} onChange={(e) => setShowGrid(e.target.checked)} disabled={!quadrat} /> Quadrat grid</label>
       </div>
+      <AfterPaint box={{ width: "100%", maxHeight: 420, aspectRatio: `${maxX - minX + 2 * pad} / ${maxY - minY + 2 * pad}` }}>
       <svg viewBox={`${-pad} ${-pad} ${maxX - minX + 2 * pad} ${maxY - minY + 2 * pad}`} className="h-auto max-h-[420px] w-full" role="img" aria-label="Trench plan with the density of finds">
         <defs>
           <clipPath id={`clip-${runName}`}><path d={path} clipRule="evenodd" /></clipPath>
@@ -56,11 +81,7 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
         <path d={path} fill="#efe6d3" fillRule="evenodd" />
         {showHeat && density && (
           <g clipPath={`url(#clip-${runName})`}>
-            {density.values.map((v, k) =>
-              v > 0 ? (
-                <rect key={k} x={density.minX - minX + (k % density.nx) * density.dx} y={sy(density.minY + (Math.floor(k / density.nx) + 1) * density.dy)} width={density.dx * 1.02} height={density.dy * 1.02} fill={ramp(v / peak)} />
-              ) : null,
-            )}
+            {heat.map((p) => <path key={p.shade} d={p.d} fill={p.fill} />)}
           </g>
         )}
         {showGrid && quadrat && quadrat.kind === "quadrat" && (
@@ -73,9 +94,10 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
             ))}
           </g>
         )}
-        {pts && cls && pts.x.map((x, k) => <circle key={k} cx={x - minX} cy={sy(pts.y[k])} r={span / 220} fill={cls.colour} stroke="#2e2116" strokeWidth={span / 1200} />)}
+        {finds && cls && <path d={finds} fill={cls.colour} stroke="#2e2116" strokeWidth={span / 1200} />}
         <path d={path} fill="none" stroke="#2e2116" strokeWidth={span / 200} fillRule="evenodd" />
       </svg>
+      </AfterPaint>
     </PlotFrame>
   );
 }

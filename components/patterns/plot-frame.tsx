@@ -1,10 +1,12 @@
 "use client";
 
 import { useRef, useState, type ReactNode } from "react";
+import { AfterPaint } from "./after-paint";
 import { exportCsv, exportPng, exportSvg } from "./export-plot";
 
-/** A figure with its title, caption and export buttons (SVG, PNG, CSV of the curves). */
-export function PlotFrame({ title, name, csv, caption, children }: { title: string; name: string; csv: () => Record<string, number | string | null>[]; caption?: ReactNode; children: ReactNode }) {
+/** A figure with its title, caption and export buttons (SVG, PNG, CSV of the curves). Given the
+ * drawing's `height`, the drawing comes a frame after the rest (after-paint.tsx). */
+export function PlotFrame({ title, name, csv, caption, height, children }: { title: string; name: string; csv: () => Record<string, number | string | null>[]; caption?: ReactNode; height?: number; children: ReactNode }) {
   const ref = useRef<HTMLDivElement>(null);
   const [error, setError] = useState<string | null>(null);
   const guard = (fn: () => void | Promise<void>) => async () => {
@@ -25,7 +27,7 @@ export function PlotFrame({ title, name, csv, caption, children }: { title: stri
           <button type="button" className="btn min-h-11 px-2 text-xs" onClick={guard(() => exportCsv(csv(), name))}>CSV</button>
         </div>
       </div>
-      <div ref={ref} className="mt-2">{children}</div>
+      <div ref={ref} className="mt-2">{height === undefined ? children : <AfterPaint box={{ height }}>{children}</AfterPaint>}</div>
       {caption && <p className="mt-1 text-xs text-ink-soft">{caption}</p>}
       {error && <p className="field-error" aria-live="polite">{error}</p>}
     </figure>
