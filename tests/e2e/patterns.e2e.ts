@@ -71,13 +71,24 @@ describe("Patterns workspace", () => {
     await page.context().close();
   });
 
-  it("a specialist cancels a long run", async () => {
+  it("a specialist watches a long run's progress, reloads the page, finds it still running, and cancels it", async () => {
     const page = await newPage(browser);
     await signIn(page, "specialist");
     await openPatterns(page);
-    await chooseScope(page, ["FLK"]);
+    // L, Clark–Evans and pair correlation on four classes, 9999 simulations each: several seconds.
+    await chooseScope(page, ["FLK", "SHD", "FCR", "CHP"]);
+    await page.getByRole("checkbox", { name: /Pair correlation/ }).check();
     await page.getByLabel("Simulations").fill("9999");
     await page.getByRole("button", { name: "Run tests" }).click();
+    const bar = page.getByRole("progressbar", { name: "Simulations done" });
+    const percent = async () => Number(await bar.getAttribute("aria-valuenow"));
+    await page.waitForFunction(() => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > 0, undefined, { timeout: 30_000 });
+    await shown(page.getByText(/% · (about \d+ (s|min)|under a second) left/));
+    const before = await percent();
+    // The run goes on on the server; the page, reloaded, picks it up where it has got to.
+    await page.reload();
+    await shown(bar, 30_000);
+    await page.waitForFunction((p) => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > p, before, { timeout: 30_000 });
     await page.getByRole("button", { name: "Cancel run" }).click();
     await shown(page.getByText("This run was cancelled"), 30_000);
     await shown(page.getByRole("table", { name: "Saved runs" }).getByText("cancelled"));

@@ -78,12 +78,13 @@ describe("runs", () => {
   });
 
   it("cancels a running run: it stops before the end and keeps no result", async () => {
-    const id = await start(body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.FLK] }, tests: [{ kind: "l-csr" }], params: { nsim: 9999, seed: 5 } }));
-    const db = await getDb();
+    // Four classes, L and Clark–Evans, 9999 simulations each: long enough to be caught running.
+    const classIds = [d.cls.FLK, d.cls.SHD, d.cls.FCR, d.cls.CHP];
+    const id = await start(body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds }, tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }], params: { nsim: 9999, seed: 5 } }));
     for (;;) {
-      const [row] = await db.select().from(s.analysisRuns).where(eq(s.analysisRuns.id, id));
-      if (row.status === "running" && row.progress > 0) break;
-      expect(["queued", "running"]).toContain(row.status);
+      const run = await read(id); // as a page reading it would see it, live progress included
+      if (run.status === "running" && run.progress > 0) break;
+      expect(["queued", "running"]).toContain(run.status);
       await new Promise((r) => setTimeout(r, 20));
     }
     const res = await call(cancelRoute, "POST", { siteId: d.siteId, runId: id });

@@ -9,6 +9,7 @@ import { readRun } from "./runs";
 /** How often the row is looked at besides the events: a run in another process is seen only this way. */
 const ROW_CHECK_MS = { local: 1000, remote: 200 };
 const KEEP_ALIVE_MS = 15_000;
+const PROGRESS_EVERY_MS = 100;
 
 /** The small part of a run that changes while it executes, as a watcher receives it. */
 export type RunProgressEvent = { status: RunStatus; progress: number; startedAt: string | null; now: string };
@@ -27,30 +28,61 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
   const stream = new ReadableStream<Uint8Array>({
     start(controller) {
       let closed = false;
+      let finishing = false;
       let lastProgress = first.progress;
       let lastStatus = first.status;
-      const send = (event: string, data: unknown) => {
-        if (!closed) controller.enqueue(encoder.encode(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`));
-      };
-      const progress = (status: RunStatus, value: number, startedAt: string | null) => {
-        if (status === lastStatus && value <= lastProgress) return;
-        lastStatus = status;
-        lastProgress = value;
-        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
-      };
+      let unwatch = () => {};
+      let rowCheck: ReturnType<typeof setInterval> | undefined;
+      let keepAlive: ReturnType<typeof setInterval> | undefined;
+      let later: ReturnType<typeof setTimeout> | undefined;
       const close = () => {
         if (closed) return;
         closed = true;
         unwatch();
         clearInterval(rowCheck);
         clearInterval(keepAlive);
+        clearTimeout(later);
         signal.removeEventListener("abort", close);
-        controller.close();
+        try {
+          controller.close();
+        } catch {
+          // already closed from the other side (the watcher cancelled the stream)
+        }
       };
       stop = close;
-      let finishing = false;
+      const write = (text: string) => {
+        if (closed) return;
+        try {
+          controller.enqueue(encoder.encode(text));
+        } catch {
+          close(); // the watcher went away
+        }
+      };
+      const send = (event: string, data: unknown) => write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
+      // At most one progress event per PROGRESS_EVERY_MS (the latest wins): the engine reports every chunk
+      // of simulations, far more often than a progress bar needs redrawing.
+      let lastSentAt = 0;
+      let pending: { status: RunStatus; value: number; startedAt: string | null } | null = null;
+      const flush = () => {
+        clearTimeout(later);
+        later = undefined;
+        if (!pending) return;
+        const { status, value, startedAt } = pending;
+        pending = null;
+        lastSentAt = Date.now();
+        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
+      };
+      const progress = (status: RunStatus, value: number, startedAt: string | null) => {
+        if (status === lastStatus && value <= lastProgress) return;
+        lastStatus = status;
+        lastProgress = value;
+        pending = { status, value, startedAt };
+        const wait = lastSentAt + PROGRESS_EVERY_MS - Date.now();
+        if (wait <= 0) flush();
+        else later ??= setTimeout(flush, wait);
+      };
       const finish = () => {
-        if (finishing) return;
+        if (finishing || closed) return;
         finishing = true;
         readRun(db, siteId, runId).then(
           (view) => {
@@ -60,8 +92,6 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
           () => close(),
         );
       };
-      send("run", first);
-      const unwatch = watchRun(runId, (e) => (isFinished(e.status) ? finish() : progress(e.status, e.progress, e.startedAt)));
       const checkRow = () => {
         db.select({ status: analysisRuns.status, progress: analysisRuns.progress, startedAt: analysisRuns.startedAt })
           .from(analysisRuns)
@@ -73,11 +103,13 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
           })
           .catch(() => undefined);
       };
-      const rowCheck = setInterval(checkRow, runQueueKind() === "local" ? ROW_CHECK_MS.local : ROW_CHECK_MS.remote);
-      const keepAlive = setInterval(() => !closed && controller.enqueue(encoder.encode(": still watching\n\n")), KEEP_ALIVE_MS);
+      send("run", first);
+      if (isFinished(first.status) || signal.aborted) return close();
+      unwatch = watchRun(runId, (e) => (isFinished(e.status) ? finish() : progress(e.status, e.progress, e.startedAt)));
+      rowCheck = setInterval(checkRow, runQueueKind() === "local" ? ROW_CHECK_MS.local : ROW_CHECK_MS.remote);
+      keepAlive = setInterval(() => write(": still watching\n\n"), KEEP_ALIVE_MS);
       signal.addEventListener("abort", close, { once: true });
-      if (isFinished(first.status)) close();
-      else checkRow(); // it may have moved on between the first read and the subscription
+      checkRow(); // it may have moved on between the first read and the subscription
     },
     cancel() {
       stop();
