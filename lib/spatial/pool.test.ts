@@ -47,7 +47,7 @@ describe("simulation pool", () => {
       await expect(run).rejects.toMatchObject({ name: "AbortError" });
       expect(reports).toBeLessThan(10);
     }
-    // the pool still works after a cancelled run (it replaces the stopped threads)
+    // the pool still works after a cancelled run (its threads were never stopped)
     const after = await runSimulations(setup, { seed: 99, streamBase: 1, nsim: 4, pool: two });
     expect(after.s).toBe(4);
   }, 60_000);

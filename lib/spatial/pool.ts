@@ -9,7 +9,6 @@
  * scripts and plain `node`; a bundled server (Next.js) should pass `workerFile` pointing at a copy of this
  * folder outside the bundle, or at a compiled worker.js.
  */
-import { setMaxListeners } from "node:events";
 import { availableParallelism } from "node:os";
 import { Piscina } from "piscina";
 import type { CurveSet } from "./envelope";
@@ -19,7 +18,9 @@ import type { SimChunk, SimSetup } from "./sim-models";
 
 export interface SimulationPool {
   readonly threads: number;
-  runChunk(chunk: SimChunk, signal?: AbortSignal): Promise<Float64Array>;
+  /** One chunk in a thread (never aborted mid-task: see runSimulations). */
+  runChunk(chunk: SimChunk): Promise<Float64Array>;
+  /** Stop the threads once the chunks they hold are done. */
   destroy(): Promise<void>;
 }
 
@@ -41,12 +42,14 @@ export function createSimulationPool(options: PoolOptions = {}): SimulationPool 
   const piscina = new Piscina({ filename: file instanceof URL ? file.href : file, minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
   return {
     threads,
-    async runChunk(chunk, signal) {
-      const out = (await piscina.run(chunk, { signal: signal ?? null })) as Float64Array | { inputError: string };
+    async runChunk(chunk) {
+      const out = (await piscina.run(chunk)) as Float64Array | { inputError: string };
       if (out instanceof Float64Array) return out;
       throw new SpatialInputError(out.inputError);
     },
-    destroy: () => piscina.destroy(),
+    // close, not destroy: chunks still in a thread (a cancelled or failed run's last ones) finish first, so
+    // no result arrives for a task the pool has already forgotten
+    destroy: () => piscina.close(),
   };
 }
 
@@ -101,24 +104,34 @@ export async function runSimulations(setup: SimSetup, options: RunSimulationsOpt
     }
     return { m, s: nsim, sims };
   }
-  const inner = new AbortController();
-  setMaxListeners(0, inner.signal); // piscina listens once per queued chunk
-  const relay = () => inner.abort();
-  signal?.addEventListener("abort", relay, { once: true });
+  // A cancelled run stops handing out chunks and returns at once; a chunk already in a thread finishes there
+  // (a few tens of milliseconds) and its result is dropped. The pool's threads are never aborted
+  // mid-task: piscina terminates a thread to abort a running task, and a result already on its way then
+  // arrives for a task it no longer knows (an uncaught "Unexpected message from Worker"); a new thread
+  // would also have to load the engine again.
+  let next = 0;
+  let cancelled = false;
+  const lane = async (): Promise<void> => {
+    while (!cancelled && next < chunkCount) {
+      const chunk = chunkAt(next++);
+      const curves = await pool.runChunk(chunk);
+      if (cancelled || signal?.aborted) return;
+      place(chunk.from, chunk.to, curves);
+    }
+  };
+  let onAbort: (() => void) | undefined;
+  const aborted = new Promise<never>((_, reject) => {
+    onAbort = () => reject(abortError());
+    signal?.addEventListener("abort", onAbort, { once: true });
+  });
   try {
-    await Promise.all(
-      Array.from({ length: chunkCount }, async (_, c) => {
-        const chunk = chunkAt(c);
-        const curves = await pool.runChunk(chunk, inner.signal);
-        place(chunk.from, chunk.to, curves);
-      }),
-    );
-  } catch (error) {
-    inner.abort(); // stop the chunks still queued or running
+    // two chunks in flight per thread, so that no thread waits for its next task
+    await Promise.race([Promise.all(Array.from({ length: Math.min(chunkCount, 2 * threads) }, lane)), aborted]);
     if (signal?.aborted) throw abortError();
-    throw error;
   } finally {
-    signal?.removeEventListener("abort", relay);
+    cancelled = true;
+    if (onAbort) signal?.removeEventListener("abort", onAbort);
+    aborted.catch(() => undefined);
   }
   return { m, s: nsim, sims };
 }
