@@ -26,6 +26,23 @@ describe("pointwise envelopes", () => {
     expect(Array.from(e2.mean)).toEqual([0, 3, 3]);
   });
 
+  test("the band by selection equals the k-th values of each fully sorted column, ties and all", () => {
+    const rng = createRandom(31);
+    for (const [s, m, rank] of [[999, 40, 25], [99, 7, 2], [19, 5, 1], [40, 3, 20]]) {
+      // values on a coarse grid so that many are tied
+      const set = { m, s, sims: Float64Array.from({ length: s * m }, () => Math.round(rng.next() * 50) / 10) };
+      const band = pointwiseEnvelope(set, rank);
+      for (let k = 0; k < m; k++) {
+        const col = Float64Array.from({ length: s }, (_, i) => set.sims[i * m + k]).sort();
+        expect([band.lo[k], band.hi[k]]).toEqual([col[rank - 1], col[s - rank]]);
+      }
+    }
+  });
+
+  test("a simulated curve that is not a number is refused", () => {
+    expect(() => pointwiseEnvelope({ m: 2, s: 3, sims: Float64Array.from([0, 1, 0, NaN, 0, 2]) })).toThrow(/not a number at grid value 2/);
+  });
+
   test("a rank beyond s/2 is refused; rankForLevel inverts 2k/(s+1)", () => {
     expect(() => pointwiseEnvelope(set, 3)).toThrow(/rank/);
     expect(rankForLevel(999, 0.05)).toBe(25); // 2·25/1000 = 0.05

@@ -4,6 +4,7 @@
  * observed value lies outside the band at one fixed r with probability 2k/(s+1) (two-sided). This is a
  * picture, not a test: the band is crossed somewhere far more often than that (global-test.ts).
  */
+import quickselect from "quickselect";
 import { SpatialInputError } from "./errors";
 
 /** s simulated curves on an m-point grid, row-major: value of simulation i at r_k is sims[i*m + k]. */
@@ -30,6 +31,8 @@ export function assertCurveSet(set: CurveSet): void {
   }
 }
 
+const byValue = (a: number, b: number): number => a - b;
+
 /** Band from rank k of s at every r (k = 1: the simulated minimum and maximum). */
 export function pointwiseEnvelope(set: CurveSet, rank = 1): PointwiseEnvelope {
   assertCurveSet(set);
@@ -39,14 +42,19 @@ export function pointwiseEnvelope(set: CurveSet, rank = 1): PointwiseEnvelope {
   }
   const lo = new Float64Array(m), hi = new Float64Array(m), mean = new Float64Array(m);
   const column = new Float64Array(s);
+  // the k-th lowest and k-th highest by selection (Floyd & Rivest 1975, the quickselect package) rather
+  // than a full sort of each column: the same two values, several times faster for 999 simulations
+  const values = column as unknown as number[];
   for (let k = 0; k < m; k++) {
     let sum = 0;
     for (let i = 0; i < s; i++) {
       column[i] = sims[i * m + k];
       sum += column[i];
     }
-    column.sort();
+    if (sum !== sum) throw new SpatialInputError(`A simulated curve is not a number at grid value ${k + 1}.`);
+    quickselect(values, rank - 1, 0, s - 1, byValue);
     lo[k] = column[rank - 1];
+    quickselect(values, s - rank, rank, s - 1, byValue);
     hi[k] = column[s - rank];
     mean[k] = sum / s;
   }
