@@ -57,7 +57,9 @@ const BLOCK: usize = 80;
   for (let b = b0; b < b1; b++) {
     const base = pBlocks + (<usize>b) * BLOCK;
     if (load<f64>(base) >= d) break;
-    const x = f64x2.min(f64x2.mul(v128.load(base, 16), invv), one);
+    // pmin (one < x ? one : x) compiles to a single minpd; min's NaN and signed-zero rules cost several
+    // instructions more, and x is never NaN here
+    const x = f64x2.pmin(f64x2.mul(v128.load(base, 16), invv), one);
     const x2 = f64x2.mul(x, x);
     const x4 = f64x2.mul(x2, x2);
     // acos(x) = √(1−x)·P(x), P of degree 7 in Estrin's form (the same terms as isotropic-weights.ts)
