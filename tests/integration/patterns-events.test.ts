@@ -4,28 +4,20 @@
  * finished run (one event), a cancelled run, a stranger and an unknown run.
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
+import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
 import { runsIdle } from "@/lib/server/jobs/runner";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import * as eventsRoute from "@/app/api/sites/[siteId]/runs/[runId]/events/route";
 import * as cancelRoute from "@/app/api/sites/[siteId]/runs/[runId]/cancel/route";
 
-let d: { siteId: string; trenchId: string; ctx: Record<number, string>; cls: Record<string, string>; people: Record<string, string> };
+let d: DemoSite;
 
 beforeAll(async () => {
-  const db = await getDb();
-  const { siteId } = await seedDemo(db);
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-  const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
-  const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
-  const people: Record<string, string> = {};
-  for (const u of DEMO_USERS) people[u.role] = (await db.select().from(s.users).where(eq(s.users.email, u.email)))[0].id;
-  d = { siteId, trenchId: trench.id, people, ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])), cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) };
+  d = await seedDemoSite();
 });
 
 /** Besag's L on the given classes of context 1005; four classes at 9999 simulations take a few seconds. */

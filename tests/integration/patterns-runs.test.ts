@@ -7,9 +7,9 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
+import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
 import { executeRun } from "@/lib/server/analysis/execute-run";
 import { requeueOrphans } from "@/lib/server/analysis/run-rows";
 import { runsIdle } from "@/lib/server/jobs/runner";
@@ -19,17 +19,10 @@ import * as cancelRoute from "@/app/api/sites/[siteId]/runs/[runId]/cancel/route
 import * as scopeRoute from "@/app/api/sites/[siteId]/runs/scope/route";
 import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 
-let d: { siteId: string; trenchId: string; ctx: Record<number, string>; cls: Record<string, string>; people: Record<string, string> };
+let d: DemoSite;
 
 beforeAll(async () => {
-  const db = await getDb();
-  const { siteId } = await seedDemo(db);
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-  const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
-  const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
-  const people: Record<string, string> = {};
-  for (const u of DEMO_USERS) people[u.role] = (await db.select().from(s.users).where(eq(s.users.email, u.email)))[0].id;
-  d = { siteId, trenchId: trench.id, people, ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])), cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) };
+  d = await seedDemoSite();
 });
 
 const body = (over: Record<string, unknown> = {}) => ({
