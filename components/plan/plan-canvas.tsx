@@ -13,7 +13,10 @@ import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type 
 import { ViewCache } from "./view-cache";
 import type { ViewStore } from "./view-store";
 
-export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "fit";
+export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "extent" | "fit";
+
+/** Tools that draw a ring corner by corner (the trench edge, a hole, a context's extent). */
+export const drawsRing = (t: Tool): boolean => t === "draw" || t === "hole" || t === "extent";
 export type VertexRef = { ring: number; v: number };
 export type Tap = { world: Pt; find: FindRow | null; vertex: VertexRef | null; edge: EdgeHit | null; additive: boolean };
 
@@ -179,7 +182,7 @@ export default function PlanCanvas(p: Props) {
     const world = toWorld(viewNow(), ...s);
     if (e.pointerType === "mouse" || pointers.current.has(e.pointerId)) {
       // Only the rubber band of a ring being drawn needs a re-render per move.
-      if (latest.current.tool === "draw" || latest.current.tool === "hole") setPointer(world);
+      if (drawsRing(latest.current.tool)) setPointer(world);
       latest.current.onPointer(world);
     }
     if (!pointers.current.has(e.pointerId)) return;
@@ -264,7 +267,7 @@ export default function PlanCanvas(p: Props) {
     if (finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: finds.length });
     drawSelection(c, view, selectedPts);
     if (p.tool === "outline") drawVertices(c, view, p.rings, p.selectedVertex);
-    if (p.tool === "draw" || p.tool === "hole") drawDrawing(c, view, p.drawing, pointer);
+    if (drawsRing(p.tool)) drawDrawing(c, view, p.drawing, pointer);
     if (p.placing) drawPlacing(c, view, p.placing);
     if (p.refused) drawRefused(c, view, p.refused, width);
     drawFitMarks(c, view, p.fitMarks);

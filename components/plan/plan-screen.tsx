@@ -10,11 +10,12 @@ import { fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view
 import { ApiError, apiCall, type ClassRow, type ContextRow, type FindRow } from "./api";
 import type { Refused } from "./draw-marks";
 import { FindForm, type QuickFind } from "./find-form";
+import { ExtentPanel } from "./extent-panel";
 import { FindsList } from "./finds-list";
 import { HelpPanel } from "./help-panel";
 import { LayersPanel } from "./layers-panel";
 import { OutlinePanel } from "./outline-panel";
-import PlanCanvas, { type Tap, type Tool, type VertexRef } from "./plan-canvas";
+import PlanCanvas, { drawsRing, type Tap, type Tool, type VertexRef } from "./plan-canvas";
 import { PlanOverlay } from "./plan-overlay";
 import { PhotoPanel } from "./photo-panel";
 import { PlanToolbar, toolHint } from "./plan-toolbar";
@@ -35,10 +36,10 @@ export type PlanScreenProps = {
   canEdit: boolean;
 };
 
-type Panel = "finds" | "record" | "layers" | "outline" | "photo" | "help";
+type Panel = "finds" | "record" | "layers" | "outline" | "extent" | "photo" | "help";
 const panels: { id: Panel; label: string }[] = [
   { id: "finds", label: "Finds" }, { id: "record", label: "Record" }, { id: "layers", label: "Layers" },
-  { id: "outline", label: "Outline" }, { id: "photo", label: "Photo" }, { id: "help", label: "Shortcuts" },
+  { id: "outline", label: "Outline" }, { id: "extent", label: "Extent" }, { id: "photo", label: "Photo" }, { id: "help", label: "Shortcuts" },
 ];
 
 export default function PlanScreen({ siteId, trench, classes, contexts, photos: initialPhotos, finds: initialFinds, canEdit }: PlanScreenProps) {
@@ -68,6 +69,12 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const dirty = JSON.stringify(rings) !== JSON.stringify(savedRings);
   const check = useMemo(() => (rings.length ? checkOutline(ringsToPolygon(rings)) : null), [rings]);
   const problem = useMemo(() => (check && !check.ok ? locateProblem(rings) : null), [check, rings]);
+
+  // Context extents as saved (a context's optional extent polygon), drawn on the plan and edited with the extent tool.
+  const [extents, setExtents] = useState(() => new Map(contexts.map((c) => [c.id, c.extent ?? null])));
+  const [extentContext, setExtentContext] = useState(contexts[0]?.id ?? "");
+  const [extentError, setExtentError] = useState<string | null>(null);
+  const [savingExtent, setSavingExtent] = useState(false);
 
   const [selected, setSelected] = useState<ReadonlySet<string>>(new Set());
   const [hiddenClasses, setHiddenClasses] = useState<ReadonlySet<string>>(new Set());
@@ -175,6 +182,38 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     }
   };
 
+  /** Save the ring as the chosen context's extent (null clears it); refused rings and locked contexts say why. */
+  const saveExtent = async (ring: Pt[] | null) => {
+    const ctx = contexts.find((c) => c.id === extentContext);
+    if (!ctx) return setExtentError("Pick the context whose extent this is.");
+    const extent = ring ? ringsToPolygon([ring]) : null;
+    if (extent) {
+      const c = checkOutline(extent);
+      if (!c.ok) return setExtentError(`Not saved: ${c.reason}`);
+    }
+    const prev = extents.get(ctx.id) ?? null;
+    const url = `/api/sites/${siteId}/contexts/${ctx.id}`;
+    setSavingExtent(true);
+    try {
+      await apiCall(url, { method: "PATCH", body: { extent } });
+      setExtents((m) => new Map(m).set(ctx.id, extent));
+      setDrawing([]);
+      setExtentError(null);
+      say("ok", extent ? `Extent of context ${ctx.number} saved.` : `Extent of context ${ctx.number} cleared.`);
+      push({
+        label: `${extent ? "save" : "clear"} the extent of context ${ctx.number}`,
+        run: async () => {
+          await apiCall(url, { method: "PATCH", body: { extent: prev } });
+          setExtents((m) => new Map(m).set(ctx.id, prev));
+        },
+      });
+    } catch (err) {
+      setExtentError(`Not saved: ${(err as Error).message}`);
+    } finally {
+      setSavingExtent(false);
+    }
+  };
+
   const submitFind = async (v: QuickFind) => {
     if (!placing) return;
     const cls = classMap.get(v.classId);
@@ -221,13 +260,13 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
         editRings(insertVertex(rings, t.edge.ring, t.edge.edge, t.edge.point), "add a vertex");
         setSelectedVertex({ ring: t.edge.ring, v: t.edge.edge + 1 });
       } else setSelectedVertex(null);
-    } else if (tool === "draw" || tool === "hole") {
+    } else if (drawsRing(tool)) {
       const first = drawing[0];
       const view = viewStore.get();
       if (first && drawing.length >= 3 && view) {
         const [fx, fy] = toScreen(view, ...first);
         const [tx, ty] = toScreen(view, ...t.world);
-        if (Math.hypot(fx - tx, fy - ty) <= 22) return closeRing();
+        if (Math.hypot(fx - tx, fy - ty) <= 22) return tool === "extent" ? void saveExtent(drawing) : closeRing();
       }
       setDrawing([...drawing, t.world]);
     } else if (tool === "fit" && activePoint !== null && fitPoints[activePoint]) {
@@ -289,6 +328,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     if (t !== "place") setPlacing(null);
     if (t === "outline" || t === "draw" || t === "hole") setPanel("outline");
     if (t === "fit") setPanel("photo");
+    if (t === "extent") setPanel("extent");
     if (t === "place") setPanel("record");
   };
 
@@ -299,7 +339,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       const k = e.key;
       if ((e.ctrlKey || e.metaKey) && k.toLowerCase() === "z") return (e.preventDefault(), void undo());
       if (e.ctrlKey || e.metaKey || e.altKey) return;
-      const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", p: "fit" };
+      const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", e: "extent", p: "fit" };
       if (toolKeys[k.toLowerCase()] && (canEdit || k.toLowerCase() === "v")) return chooseTool(toolKeys[k.toLowerCase()]);
       const view = viewStore.get();
       if (!view) return;
@@ -314,6 +354,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       } else if (k === "u" || k === "U") void undo();
       else if (k === "?") setPanel((p) => (p === "help" ? "finds" : "help"));
       else if (k === "Enter" && (tool === "draw" || tool === "hole")) closeRing();
+      else if (k === "Enter" && tool === "extent" && drawing.length >= 3) void saveExtent(drawing);
       else if ((k === "Delete" || k === "Backspace") && tool === "outline") deleteSelectedVertex();
       else if (k === "Escape") {
         setDrawing([]);
@@ -344,7 +385,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           {hasView && size.width > 0 && (
             <PlanCanvas
               width={size.width} height={size.height} viewStore={viewStore} tool={tool} finds={visible} classes={classMap} selected={selected}
-              rings={shownRings} extents={contexts.filter((c) => c.extent && !hiddenContexts.has(c.id))} problem={shownRings === rings ? problem : null} selectedVertex={selectedVertex} drawing={drawing} photo={photoLayer} placing={placing}
+              rings={shownRings} extents={contexts.filter((c) => extents.get(c.id) && !hiddenContexts.has(c.id)).map((c) => ({ number: c.number, extent: extents.get(c.id) }))} problem={shownRings === rings ? problem : null} selectedVertex={selectedVertex} drawing={drawing} photo={photoLayer} placing={placing}
               refused={refused} fitMarks={fitMarks} dragRefusal={dragRefusal} onTap={onTap} onFindMoved={(f, to) => void move(f, to)}
               onVertexMove={onVertexMove}
               onRefusedDrag={(reason) => say("warn", reason)} onPointer={setPointer}
@@ -380,6 +421,12 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
               drawing={tool === "draw" || tool === "hole" ? { kind: tool, count: drawing.length } : null}
               onSave={() => void saveOutline()} onDiscard={() => { setRings(savedRings); setOutlineError(null); }} onDeleteVertex={deleteSelectedVertex}
               onImport={(r) => { editRings(r, "import coordinates"); setTool("outline"); }} onCloseRing={closeRing} onCancelRing={() => setDrawing([])} />
+          )}
+          {panel === "extent" && (
+            <ExtentPanel contexts={contexts.map((c) => ({ ...c, extent: extents.get(c.id) ?? null }))} contextId={extentContext} hasExtent={Boolean(extents.get(extentContext))}
+              count={tool === "extent" ? drawing.length : 0} saving={savingExtent} error={extentError} canEdit={canEdit}
+              onContext={(id) => { setExtentContext(id); setExtentError(null); }} onClose={() => void saveExtent(drawing)}
+              onCancel={() => setDrawing([])} onClear={() => void saveExtent(null)} />
           )}
           {panel === "photo" && (
             <PhotoPanel siteId={siteId} trenchId={trench.id} photos={photos} photo={photo} canEdit={canEdit} onPhoto={setPhotoId}

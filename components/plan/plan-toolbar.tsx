@@ -8,6 +8,7 @@ const tools: { id: Tool; label: string; key: string; hint: string }[] = [
   { id: "outline", label: "Edit outline", key: "O", hint: "Drag a vertex, tap a + to add one, tap a vertex then Delete to remove it." },
   { id: "draw", label: "Draw edge", key: "D", hint: "Tap each corner of the trench edge; tap the first corner to close it." },
   { id: "hole", label: "Add hole", key: "H", hint: "Tap each corner of a baulk or unexcavated block; tap the first to close." },
+  { id: "extent", label: "Draw extent", key: "E", hint: "Pick the context in the Extent panel, tap each corner of its extent; tap the first to close and save." },
   { id: "fit", label: "Fit photo", key: "P", hint: "Tap a peg on the photo, then type or tap its grid position." },
 ];
 
@@ -58,11 +59,12 @@ export const shortcuts: [string, string][] = [
   ["O", "Edit the outline's vertices"],
   ["D", "Draw a new trench edge"],
   ["H", "Add a hole (baulk, intrusion)"],
+  ["E", "Draw a context's extent"],
   ["P", "Fit the photo to the grid"],
   ["Z", "Zoom to the trench"],
   ["+ / −", "Zoom in / out"],
   ["Arrow keys", "Pan the plan"],
-  ["Enter", "Close the ring being drawn"],
+  ["Enter", "Close the ring being drawn (an extent is saved)"],
   ["Delete", "Delete the selected vertex"],
   ["U or Ctrl+Z", "Undo the last action"],
   ["Esc", "Cancel what is under way"],

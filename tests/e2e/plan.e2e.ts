@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
-import { at, freshTrench } from "./support/plan-trench";
+import { freshTrench, tapPlan } from "./support/plan-trench";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -28,13 +28,6 @@ async function trenchPhoto(): Promise<Buffer> {
   const dots = PEGS.map((p) => `<circle cx="${p.px}" cy="${p.py}" r="14" fill="#fff" stroke="#000" stroke-width="4"/>`).join("");
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1200" height="900"><rect width="1200" height="900" fill="#7a5a3a"/><rect x="100" y="100" width="1000" height="700" fill="#9b7550"/>${dots}</svg>`;
   return sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
-}
-
-async function tapPlan(page: Page, touch: boolean, x: number, y: number) {
-  await page.evaluate(() => window.scrollTo(0, 0));
-  const [sx, sy] = await at(page, x, y);
-  if (touch) await page.touchscreen.tap(sx, sy);
-  else await page.mouse.click(sx, sy);
 }
 
 for (const size of ["desktop", "tablet"] as const) {

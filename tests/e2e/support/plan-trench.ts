@@ -28,3 +28,11 @@ export async function at(page: Page, x: number, y: number): Promise<[number, num
   const box = (await page.getByTestId("plan-canvas").boundingBox())!;
   return [box.x + view.ox + x * view.scale, box.y + view.oy - y * view.scale];
 }
+
+/** A tap (touch) or click (mouse) on the plan at grid point (x, y). */
+export async function tapPlan(page: Page, touch: boolean, x: number, y: number) {
+  await page.evaluate(() => window.scrollTo(0, 0));
+  const [sx, sy] = await at(page, x, y);
+  if (touch) await page.touchscreen.tap(sx, sy);
+  else await page.mouse.click(sx, sy);
+}
