@@ -5,8 +5,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
-import { freshTrench, tapPlan } from "./support/plan-trench";
+import { openBrowser, shown } from "./support/browser";
+import { openFreshPlan, tapPlan } from "./support/plan-trench";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -25,11 +25,7 @@ async function extentOf(page: Page, siteId: string, contextNumber: number): Prom
 
 describe("trench plan, context extents", () => {
   it("draws, refuses a crossing ring, clears and undoes the clear", async () => {
-    const page = await newPage(browser, "desktop");
-    await signIn(page, "digger");
-    const t = await freshTrench(page);
-    await page.goto(`/sites/${t.siteId}/trenches/${t.trenchId}`);
-    await shown(page.getByTestId("plan-canvas"), 20_000);
+    const { page, t } = await openFreshPlan(browser, "desktop");
 
     await page.getByRole("button", { name: /Draw extent/ }).click();
     await expect.poll(() => page.getByLabel("Context").inputValue()).not.toBe("");

@@ -5,8 +5,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, CDPSession, Page } from "playwright-core";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
-import { freshTrench, planView, type PlanView } from "./support/plan-trench";
+import { openBrowser } from "./support/browser";
+import { openFreshPlan, planView, type PlanView } from "./support/plan-trench";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -39,11 +39,7 @@ async function viewAfter(page: Page, before: PlanView): Promise<PlanView> {
 
 describe("trench plan, two-finger gestures on a tablet", () => {
   it("pinches to zoom about the point between the fingers and pans with them", async () => {
-    const page = await newPage(browser, "tablet");
-    await signIn(page, "digger");
-    const t = await freshTrench(page);
-    await page.goto(`/sites/${t.siteId}/trenches/${t.trenchId}`);
-    await shown(page.getByTestId("plan-canvas"), 20_000);
+    const { page, t } = await openFreshPlan(browser, "tablet");
     await page.evaluate(() => window.scrollTo(0, 0));
     const cdp = await page.context().newCDPSession(page);
     const box = (await page.getByTestId("plan-canvas").boundingBox())!;

@@ -1,5 +1,6 @@
 import { expect } from "vitest";
-import type { Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
+import { newPage, shown, signIn } from "./browser";
 
 export type PlanView = { scale: number; ox: number; oy: number };
 
@@ -15,6 +16,16 @@ export async function freshTrench(page: Page) {
   const c = await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number, type: "deposit" } });
   expect(c.status()).toBe(201);
   return { siteId: site.id as string, trenchId: trench.id as string, code, contextNumber: number };
+}
+
+/** A digger's plan of a fresh trench, open and drawn, in a new page of that size. */
+export async function openFreshPlan(browser: Browser, size: "desktop" | "tablet") {
+  const page = await newPage(browser, size);
+  await signIn(page, "digger");
+  const t = await freshTrench(page);
+  await page.goto(`/sites/${t.siteId}/trenches/${t.trenchId}`);
+  await shown(page.getByTestId("plan-canvas"), 20_000);
+  return { page, t };
 }
 
 /** The view the plan canvas publishes on its element (data-view). */
