@@ -9,6 +9,7 @@
 import type { CellGrid } from "./cell-grid";
 import { fanAngle } from "./edge-isotropic";
 import { ISOTROPIC_SCAN_WASM } from "./isotropic-scan-wasm";
+import { edgeTolerance } from "./isotropic-weights";
 import type { Window } from "./types";
 
 /** f64 values per block of two edge slots in linear memory (asm/isotropic-scan.ts). */
@@ -61,9 +62,8 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
   const m = r.length;
   const rmax = r[m - 1];
   const cells = grid.nx * grid.ny;
-  const { edges, edgeCount, bbox } = window;
-  // the tolerance of isotropic-weights.ts: a point closer than this to an edge's line is on it
-  const tol = 1e-12 * Math.max(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY);
+  const { edges, edgeCount } = window;
+  const tol = edgeTolerance(window);
   // Stencil of cells of side s = r max / reach: cells dx, dy apart hold points at least
   // ((dx−1)⁺² + (dy−1)⁺²)^½·s apart, so row dy needs |dx| ≤ ⌊√(reach² − (dy−1)²)⌋ + 1 (≤ keeps pairs at
   // exactly r max).

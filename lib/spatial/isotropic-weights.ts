@@ -92,9 +92,14 @@ export function weightBeyond(start: Int32Array, slots: Float64Array, total: Floa
 }
 
 
+/** Distance below which a point counts as on an edge's line (relative to the window's extent). */
+export function edgeTolerance(window: Window): number {
+  return 1e-12 * Math.max(window.bbox.maxX - window.bbox.minX, window.bbox.maxY - window.bbox.minY);
+}
+
 export function createIsotropicWeights(window: Window, rmax: number): IsotropicWeights {
   const { edges, edgeCount } = window;
-  const tol = 1e-12 * Math.max(window.bbox.maxX - window.bbox.minX, window.bbox.maxY - window.bbox.minY);
+  const tol = edgeTolerance(window);
   const tables: IsotropicTables = { bdist: new Float64Array(0), total: new Float64Array(0), start: new Int32Array(1), slots: new Float64Array(64 * SLOT) };
 
   const prepare = (x: Float64Array, y: Float64Array, n: number): IsotropicTables => {

@@ -56,11 +56,12 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
   // to the disc (isotropic-scan.ts), which checks fewer distances again.
   const REACH = useWasm ? REACH_WASM : 2;
   const grid = createCellGrid(window.bbox, rmax / REACH);
-  const weights = createIsotropicWeights(window, rmax);
+  const wasm = useWasm ? createWasmIsotropicScan(window, r, grid, REACH) : null;
+  // the TypeScript loop's edge tables (the WebAssembly scan prepares its own in linear memory)
+  const weights = wasm ? null : createIsotropicWeights(window, rmax);
   const hist = new Float64Array(m + 1);
   const { nx, ny, cellStart } = grid;
   const r2 = rmax * rmax;
-  const wasm = useWasm ? createWasmIsotropicScan(window, r, grid, REACH) : null;
 
   let su = new Float64Array(0);
   const scan = (x: Float64Array, y: Float64Array, n: number, weigh: boolean, u?: Float64Array): number => {
@@ -73,7 +74,7 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
     }
     if (wasm) return wasm.scan(grid, n, hist, u ? su : null);
     // Prepared in sorted order so that the tables are read in memory order inside the loop.
-    const tables = weigh ? weights.prepare(sx, sy, n) : null;
+    const tables = weigh && weights ? weights.prepare(sx, sy, n) : null;
     const bd = tables ? tables.bdist : sx, st = tables ? tables.start : order, sl = tables ? tables.slots : sx, tot = tables ? tables.total : sx;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {

@@ -1,6 +1,6 @@
 /**
  * Simulations over a worker-thread pool (piscina). A run is cut into chunks of consecutive simulation
- * indices; each chunk is one task, the curves come back as moved buffers and are placed by index, so the
+ * indices; each chunk is one task, its curves come back by structured clone and are placed by index, so the
  * result is the same for any number of threads (and for no pool at all: `runSimulations` without a pool
  * runs the same chunks in this thread, yielding to the event loop between them).
  *
