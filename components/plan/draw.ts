@@ -3,11 +3,13 @@ import { gridLines, labelDecimals, toScreen, type View } from "@/lib/geometry/pl
 import type { Problem, Pt, Rings } from "@/lib/geometry/outline-edit";
 import type { ClassRow, FindRow } from "./api";
 import { openSymbols, traceSymbol } from "./symbols";
-import type { Area } from "./view-cache";
+import { pixelRatioOf, type Area } from "./view-cache";
 
 export const INK = "#1b130c";
 export const WARN = "#b8400f";
 export const ACCENT = "#1d5c8c";
+/** Context extents: their dashed outline and number label. */
+export const EXTENT = "#5a2d82";
 export const FIND_R = 8;
 
 export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: number, hasPhoto: boolean) {
@@ -50,16 +52,17 @@ export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: num
   return g.step;
 }
 
+/** Adds the points of a ring (or an open line) to the current path, in screen pixels; the caller closes it if it should be closed. */
+function traceRing(c: CanvasRenderingContext2D, v: View, ring: readonly Pt[]) {
+  ring.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
+}
+
 export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, hasPhoto: boolean, problem: Problem | null) {
   if (!rings.length) return;
   c.save();
   c.beginPath();
   for (const r of rings) {
-    r.forEach(([x, y], i) => {
-      const [sx, sy] = toScreen(v, x, y);
-      if (i === 0) c.moveTo(sx, sy);
-      else c.lineTo(sx, sy);
-    });
+    traceRing(c, v, r);
     c.closePath();
   }
   if (!hasPhoto) {
@@ -77,7 +80,7 @@ export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, 
   for (const r of rings.slice(1)) {
     c.save();
     c.beginPath();
-    r.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
+    traceRing(c, v, r);
     c.closePath();
     c.clip();
     c.strokeStyle = "rgba(46,33,22,0.55)";
@@ -125,19 +128,19 @@ export function drawExtents(c: CanvasRenderingContext2D, v: View, contexts: { nu
     const rings = ctx.extent?.coordinates;
     if (!rings?.length) continue;
     c.beginPath();
-    for (const r of rings) r.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
+    for (const r of rings) traceRing(c, v, r);
     c.setLineDash([7, 5]);
     c.strokeStyle = "#fff";
     c.lineWidth = 4;
     c.stroke();
-    c.strokeStyle = "#5a2d82";
+    c.strokeStyle = EXTENT;
     c.lineWidth = 2;
     c.stroke();
     c.setLineDash([]);
     const [lx, ly] = toScreen(v, ...rings[0][0]);
     const label = String(ctx.number);
     const tw = c.measureText(label).width;
-    c.fillStyle = "#5a2d82";
+    c.fillStyle = EXTENT;
     c.fillRect(lx + 4, ly - 18, tw + 8, 16);
     c.fillStyle = "#fff";
     c.textBaseline = "top";
@@ -188,7 +191,7 @@ export function drawDrawing(c: CanvasRenderingContext2D, v: View, pts: Pt[], poi
   c.lineWidth = 3;
   c.setLineDash([8, 5]);
   c.beginPath();
-  pts.forEach((p, i) => (i === 0 ? c.moveTo(...toScreen(v, ...p)) : c.lineTo(...toScreen(v, ...p))));
+  traceRing(c, v, pts);
   if (pointer) c.lineTo(...toScreen(v, ...pointer));
   c.stroke();
   c.setLineDash([]);
@@ -246,7 +249,7 @@ function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElemen
  * larger bitmap of a view cache) and the one with id `skip` (being dragged, drawn on its own).
  */
 export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: readonly FindRow[], classes: Map<string, ClassRow>, area: Area, skip?: string | null) {
-  const ratio = Math.max(1, Math.round(c.getTransform().a * 100) / 100);
+  const ratio = pixelRatioOf(c);
   const byClass = new Map<string, HTMLCanvasElement>();
   const half = SPRITE_CSS / 2;
   const [x0, y0, x1, y1] = [area.x0 - half, area.y0 - half, area.x1 + half, area.y1 + half];

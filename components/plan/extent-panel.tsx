@@ -1,8 +1,20 @@
 "use client";
 
+import { stateWords } from "@/components/contexts/state-badge";
 import type { ContextRow } from "./api";
 
-const stateWords: Record<ContextRow["state"], string> = { open: "open", awaiting: "awaiting sign-off", signed_off: "signed off" };
+/**
+ * Why a context's extent cannot change now, or null when it is open. Worded as the server's refusal
+ * (assertContextWritable): an awaiting context waits for a director to sign it off or return it to open;
+ * a signed-off one stays frozen until a director reopens it.
+ */
+export function extentLockedMessage(ctx: Pick<ContextRow, "number" | "state">): string | null {
+  if (ctx.state === "open") return null;
+  if (ctx.state === "awaiting") {
+    return `Context ${ctx.number} is ${stateWords.awaiting.text}: its extent cannot change while it awaits sign-off. A director can sign it off or return it to open with a reason.`;
+  }
+  return `Context ${ctx.number} is ${stateWords[ctx.state]?.text ?? ctx.state}: its extent cannot change until a director reopens it with a reason.`;
+}
 
 /** A context's extent on the plan: pick the context, tap the corners of its extent, close to save; or clear it. */
 export function ExtentPanel({ contexts, contextId, hasExtent, count, saving, error, canEdit, onContext, onClose, onCancel, onClear }: {
@@ -21,7 +33,7 @@ export function ExtentPanel({ contexts, contextId, hasExtent, count, saving, err
 }) {
   const ctx = contexts.find((c) => c.id === contextId);
   if (!contexts.length) return <p className="text-ink-soft">This trench has no contexts yet: open a context sheet first, then draw its extent here.</p>;
-  const locked = ctx && ctx.state !== "open" ? `Context ${ctx.number} is ${stateWords[ctx.state]}: its extent cannot change until a director reopens it.` : null;
+  const locked = ctx ? extentLockedMessage(ctx) : null;
   return (
     <div className="space-y-4">
       <div>
@@ -29,7 +41,7 @@ export function ExtentPanel({ contexts, contextId, hasExtent, count, saving, err
         <select id="extent-context" className="field" value={contextId} onChange={(e) => onContext(e.target.value)}>
           {contexts.map((c) => (
             <option key={c.id} value={c.id}>
-              {c.number} · {c.type}{c.extent ? " · has an extent" : ""}{c.state !== "open" ? ` · ${stateWords[c.state]}` : ""}
+              {c.number} · {c.type}{c.extent ? " · has an extent" : ""}{c.state !== "open" ? ` · ${stateWords[c.state]?.text ?? c.state}` : ""}
             </option>
           ))}
         </select>

@@ -10,7 +10,7 @@ import { fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view
 import { ApiError, apiCall, type ClassRow, type ContextRow, type FindRow } from "./api";
 import type { Refused } from "./draw-marks";
 import { FindForm, type QuickFind } from "./find-form";
-import { ExtentPanel } from "./extent-panel";
+import { ExtentPanel, extentLockedMessage } from "./extent-panel";
 import { FindsList } from "./finds-list";
 import { HelpPanel } from "./help-panel";
 import { LayersPanel } from "./layers-panel";
@@ -75,10 +75,16 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const [extentContext, setExtentContext] = useState(contexts[0]?.id ?? "");
   const [extentError, setExtentError] = useState<string | null>(null);
   const [savingExtent, setSavingExtent] = useState(false);
+  const savingExtentNow = useRef(false); // also catches two taps that land before React re-renders
+  // The chosen context, or the first one when the chosen one is gone from the list.
+  const extentContextId = contexts.some((c) => c.id === extentContext) ? extentContext : contexts[0]?.id ?? "";
 
   const [selected, setSelected] = useState<ReadonlySet<string>>(new Set());
   const [hiddenClasses, setHiddenClasses] = useState<ReadonlySet<string>>(new Set());
   const [hiddenContexts, setHiddenContexts] = useState<ReadonlySet<string>>(new Set());
+  // Stable callbacks so the memoised layers panel does not redraw on every plan render.
+  const toggleClass = useCallback((id: string) => setHiddenClasses((s) => toggle(s, id)), []);
+  const toggleContext = useCallback((id: string) => setHiddenContexts((s) => toggle(s, id)), []);
   const [placing, setPlacing] = useState<Pt | null>(null);
   const [refused, setRefused] = useState<Refused | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
@@ -184,8 +190,12 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
 
   /** Save the ring as the chosen context's extent (null clears it); refused rings and locked contexts say why. */
   const saveExtent = async (ring: Pt[] | null) => {
-    const ctx = contexts.find((c) => c.id === extentContext);
+    // The first-corner tap and Enter call this directly, so a second tap while saving must not send a second PATCH.
+    if (savingExtent || savingExtentNow.current) return;
+    const ctx = contexts.find((c) => c.id === extentContextId);
     if (!ctx) return setExtentError("Pick the context whose extent this is.");
+    const locked = extentLockedMessage(ctx);
+    if (locked) return setExtentError(locked);
     const extent = ring ? ringsToPolygon([ring]) : null;
     if (extent) {
       const c = checkOutline(extent);
@@ -193,6 +203,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     }
     const prev = extents.get(ctx.id) ?? null;
     const url = `/api/sites/${siteId}/contexts/${ctx.id}`;
+    savingExtentNow.current = true;
     setSavingExtent(true);
     try {
       await apiCall(url, { method: "PATCH", body: { extent } });
@@ -210,6 +221,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     } catch (err) {
       setExtentError(`Not saved: ${(err as Error).message}`);
     } finally {
+      savingExtentNow.current = false;
       setSavingExtent(false);
     }
   };
@@ -415,7 +427,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
           ) : (
             <p className="text-ink-soft">{canEdit ? "Choose Place find (F) and tap the plan where the find came out of the ground." : "Your role on this site reads the plan but does not record finds."}</p>
           ))}
-          {panel === "layers" && <LayersPanel classes={classes} contexts={contexts} finds={finds} hiddenClasses={hiddenClasses} hiddenContexts={hiddenContexts} onToggleClass={(id) => setHiddenClasses(toggle(hiddenClasses, id))} onToggleContext={(id) => setHiddenContexts(toggle(hiddenContexts, id))} photoOpacity={opacity} onPhotoOpacity={setOpacity} hasPhoto={Boolean(photoLayer)} />}
+          {panel === "layers" && <LayersPanel classes={classes} contexts={contexts} finds={finds} hiddenClasses={hiddenClasses} hiddenContexts={hiddenContexts} onToggleClass={toggleClass} onToggleContext={toggleContext} photoOpacity={opacity} onPhotoOpacity={setOpacity} hasPhoto={Boolean(photoLayer)} />}
           {panel === "outline" && (
             <OutlinePanel rings={rings} check={check} dirty={dirty} saving={savingOutline} locked={trench.signedOff ? `Trench ${trench.code} is signed off: its outline cannot change until a director reopens it.` : null} serverError={outlineError} selectedVertex={Boolean(selectedVertex)}
               drawing={tool === "draw" || tool === "hole" ? { kind: tool, count: drawing.length } : null}
@@ -423,7 +435,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
               onImport={(r) => { editRings(r, "import coordinates"); setTool("outline"); }} onCloseRing={closeRing} onCancelRing={() => setDrawing([])} />
           )}
           {panel === "extent" && (
-            <ExtentPanel contexts={contexts.map((c) => ({ ...c, extent: extents.get(c.id) ?? null }))} contextId={extentContext} hasExtent={Boolean(extents.get(extentContext))}
+            <ExtentPanel contexts={contexts.map((c) => ({ ...c, extent: extents.get(c.id) ?? null }))} contextId={extentContextId} hasExtent={Boolean(extents.get(extentContextId))}
               count={tool === "extent" ? drawing.length : 0} saving={savingExtent} error={extentError} canEdit={canEdit}
               onContext={(id) => { setExtentContext(id); setExtentError(null); }} onClose={() => void saveExtent(drawing)}
               onCancel={() => setDrawing([])} onClear={() => void saveExtent(null)} />
@@ -435,7 +447,8 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
                 try {
                   await apiCall(`/api/sites/${siteId}/photos/${id}`, { method: "DELETE" });
                   const left = (await photosQuery.refetch()).data ?? [];
-                  setPhotoId(left[0]?.id ?? null);
+                  // Skip the deleted photo even if the refetch failed and returned the old list.
+                  setPhotoId(left.filter((p) => p.id !== id)[0]?.id ?? null);
                   say("ok", "Photo deleted.");
                 } catch (err) {
                   say("warn", `Photo not deleted: ${(err as Error).message}`);

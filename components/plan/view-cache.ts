@@ -5,6 +5,11 @@ export type Area = { x0: number; y0: number; x1: number; y1: number };
 export type Painter = (c: CanvasRenderingContext2D, v: View, area: Area) => void;
 export type CacheOutcome = "blit" | "built" | "direct";
 
+/** The device pixel ratio a canvas context draws at (its transform's x scale, rounded to 1/100, never below 1). */
+export function pixelRatioOf(c: CanvasRenderingContext2D): number {
+  return Math.max(1, Math.round(c.getTransform().a * 100) / 100);
+}
+
 const isWhole = (n: number) => Math.abs(n - Math.round(n)) < 1e-6;
 const sameKey = (a: readonly unknown[], b: readonly unknown[]) => a.length === b.length && a.every((x, i) => Object.is(x, b[i]));
 
@@ -31,7 +36,7 @@ export class ViewCache {
    * viewport. `key` lists everything the picture depends on besides the view.
    */
   draw(c: CanvasRenderingContext2D, v: View, w: number, h: number, key: readonly unknown[], live: boolean, paint: Painter): CacheOutcome {
-    const dpr = Math.max(1, Math.round(c.getTransform().a * 100) / 100);
+    const dpr = pixelRatioOf(c);
     const fullKey = [...key, v.scale, dpr];
     const steady = v.scale === this.lastScale;
     this.lastScale = v.scale;

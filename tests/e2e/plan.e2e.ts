@@ -4,10 +4,10 @@
  * see them listed with server-allocated numbers, and see an out-of-trench find refused with its distance.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import sharp from "sharp";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
-import { freshTrench, tapPlan } from "./support/plan-trench";
+import { openBrowser, shown } from "./support/browser";
+import { openFreshPlan, tapPlan } from "./support/plan-trench";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -34,11 +34,7 @@ for (const size of ["desktop", "tablet"] as const) {
   describe(`trench plan at ${size} size`, () => {
     it("goes from an empty trench to a fitted photo, an outline with a hole and placed finds", async () => {
       const touch = size === "tablet";
-      const page = await newPage(browser, size);
-      await signIn(page, "digger");
-      const t = await freshTrench(page);
-      await page.goto(`/sites/${t.siteId}/trenches/${t.trenchId}`);
-      await shown(page.getByTestId("plan-canvas"), 20_000);
+      const { page, t } = await openFreshPlan(browser, size);
 
       // 1. Upload a photo through the uploadthing SDK and the local fake.
       await page.getByRole("tab", { name: "Photo" }).click();
