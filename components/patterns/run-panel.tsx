@@ -6,7 +6,7 @@ import { fetchJson } from "@/components/ui/fetch-json";
 import type { RunView } from "@/lib/server/analysis/run-view";
 import { RunProgress } from "./run-progress";
 import { RunResultView } from "./run-result";
-import { useRun } from "./use-run";
+import { inProgress, useRun } from "./use-run";
 
 type Props = { siteId: string; runId: string; canRun: boolean; onUseSettings: (run: RunView) => void; fallback: ReactNode };
 
@@ -23,7 +23,7 @@ export function RunPanel({ siteId, runId, canRun, onUseSettings, fallback }: Pro
     if (!status) return;
     // While a run goes on, its row in the list follows it here; the list is read again once it has ended
     // (out-of-date marks included), not while the server is busy simulating.
-    if (status === "queued" || status === "running") {
+    if (inProgress(status)) {
       qc.setQueryData(["runs", siteId], (old: Omit<RunView, "result">[] | undefined) => old?.map((r) => (r.id === runId && r.status !== status ? { ...r, status } : r)));
     } else void qc.invalidateQueries({ queryKey: ["runs", siteId] });
   }, [status, runId, qc, siteId]);
@@ -40,7 +40,7 @@ export function RunPanel({ siteId, runId, canRun, onUseSettings, fallback }: Pro
   if (!data) return <>{fallback}</>;
   return (
     <>
-      {(data.status === "queued" || data.status === "running") && (
+      {inProgress(data.status) && (
         <RunProgress run={data} canCancel={canRun} cancelling={cancel.isPending} onCancel={() => cancel.mutate(data.id)} />
       )}
       {data.status === "failed" && <p role="alert" className="sheet border-warn text-warn">This run failed: {data.error}</p>}

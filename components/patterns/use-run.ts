@@ -7,7 +7,8 @@ import type { RunProgressEvent } from "@/lib/server/analysis/run-watch";
 import type { RunView } from "@/lib/server/analysis/run-view";
 
 type Status = RunView["status"];
-const inProgress = (s: Status | undefined) => s === "queued" || s === "running";
+/** A run still queued or simulating. */
+export const inProgress = (s: Status | undefined) => s === "queued" || s === "running";
 /** Poll interval when the event stream cannot be had (a proxy that refuses it, an old browser). */
 const FALLBACK_POLL_MS = 150;
 

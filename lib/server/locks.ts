@@ -70,9 +70,9 @@ export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly s
 }
 
 /**
- * Refuses a change to a signed-off trench as a whole (a new context in it, a redrawn outline), naming who
+ * Refuses a change to a signed-off trench as a whole (a redrawn outline, its deletion), naming who
  * signed it off and when. A trench is signed off when all its contexts are (sign-off.ts); reopening any of
- * them reopens the trench.
+ * them reopens the trench. Callers read the trench row `for update` in the same transaction.
  */
 export async function assertTrenchWritable(tx: Db | Tx, trench: Pick<Trench, "code" | "signedOffAt" | "signedOffBy">, doing = "changed"): Promise<void> {
   if (!trench.signedOffAt) return;

@@ -21,8 +21,10 @@ export async function listTrenches(db: Db, siteId: string) {
   return db.select().from(trenches).where(eq(trenches.siteId, siteId)).orderBy(asc(trenches.code));
 }
 
-export async function getTrench(db: Db | Tx, siteId: string, trenchId: string): Promise<Trench> {
-  const [row] = await db.select().from(trenches).where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
+/** One trench of the site; `forUpdate` locks its row for the rest of the transaction (a sign-off committing at the same moment is waited for). */
+export async function getTrench(db: Db | Tx, siteId: string, trenchId: string, options: { forUpdate?: boolean } = {}): Promise<Trench> {
+  const query = db.select().from(trenches).where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
+  const [row] = await (options.forUpdate ? query.for("update") : query);
   if (!row) throw notFound("That trench");
   return row;
 }
@@ -44,7 +46,7 @@ export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate
 export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate) {
   const window = input.outline ? assertOutline(input.outline) : null;
   return db.transaction(async (tx) => {
-    const before = await getTrench(tx, actor.site.id, trenchId);
+    const before = await getTrench(tx, actor.site.id, trenchId, { forUpdate: true });
     await assertTrenchWritable(tx, before, "changed");
     if (window) {
       const placed = await tx
@@ -85,7 +87,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
 
 export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string) {
   return db.transaction(async (tx) => {
-    const before = await getTrench(tx, actor.site.id, trenchId);
+    const before = await getTrench(tx, actor.site.id, trenchId, { forUpdate: true });
     await assertTrenchWritable(tx, before, "deleted");
     const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
     if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);

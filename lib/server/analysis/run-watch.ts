@@ -2,7 +2,7 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { analysisRuns } from "@/db/schema";
-import { isFinished, latestRunEvent, watchRun, type RunStatus } from "../jobs/run-events";
+import { freshestProgress, isFinished, watchRun, type RunStatus } from "../jobs/run-events";
 import { runQueueKind } from "../jobs/runner";
 import { readRun } from "./runs";
 
@@ -98,8 +98,7 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
           .where(eq(analysisRuns.id, runId))
           .then(([row]) => {
             if (!row || isFinished(row.status)) return finish();
-            const live = latestRunEvent(runId);
-            progress(row.status, Math.max(row.progress, live?.progress ?? 0), row.startedAt?.toISOString() ?? null);
+            progress(row.status, freshestProgress(runId, row.progress), row.startedAt?.toISOString() ?? null);
           })
           .catch(() => undefined);
       };

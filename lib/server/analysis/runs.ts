@@ -7,7 +7,7 @@ import { ENGINE_VERSION } from "@/lib/spatial/version";
 import { recordAudit } from "../audit";
 import { badInput, conflict, notFound } from "../errors";
 import type { SiteActor } from "../membership";
-import { latestRunEvent, publishRun } from "../jobs/run-events";
+import { freshestProgress, publishRun } from "../jobs/run-events";
 import { cancelRunJob, ensureRunner, submitRun } from "../jobs/runner";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunResult } from "./result-types";
@@ -83,7 +83,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
   return toView(row, false);
 }
 
-export function toView(row: AnalysisRun, outOfDate: boolean): RunView {
+function toView(row: AnalysisRun, outOfDate: boolean): RunView {
   return {
     id: row.id,
     status: row.status,
@@ -114,8 +114,7 @@ async function getRow(db: Db, siteId: string, runId: string): Promise<AnalysisRu
 
 /** A running row's progress is written only now and then when the run executes here; its last event is fresher. */
 function withLiveProgress(row: AnalysisRun): AnalysisRun {
-  const live = row.status === "running" ? latestRunEvent(row.id) : undefined;
-  return live && live.status === "running" && live.progress > row.progress ? { ...row, progress: live.progress } : row;
+  return row.status === "running" ? { ...row, progress: freshestProgress(row.id, row.progress) } : row;
 }
 
 /** One run; out of date when the records it read have changed since (compared on every read). */

@@ -1,5 +1,6 @@
 import "server-only";
 import { EventEmitter } from "node:events";
+import { runStatusEnum } from "@/db/schema";
 
 /**
  * What a run executing in this process tells anyone watching it, as it happens: its status and progress
@@ -7,8 +8,8 @@ import { EventEmitter } from "node:events";
  * Patterns page follow a local run without asking the database every few hundred milliseconds. Runs that
  * separate worker processes take (pg-boss) publish nothing here; their watchers read the row instead.
  */
-export type RunStatus = "queued" | "running" | "done" | "failed" | "cancelled";
-export type RunEvent = { runId: string; status: RunStatus; progress: number; startedAt: string | null; at: string };
+export type RunStatus = (typeof runStatusEnum.enumValues)[number];
+export type RunEvent = { runId: string; status: RunStatus; progress: number; startedAt: string | null };
 
 type Bus = { emitter: EventEmitter; latest: Map<string, RunEvent> };
 const bus = ((globalThis as Record<string, unknown>).__loamworkRunEvents ??= (() => {
@@ -19,17 +20,17 @@ const bus = ((globalThis as Record<string, unknown>).__loamworkRunEvents ??= (()
 
 export const isFinished = (status: RunStatus) => status === "done" || status === "failed" || status === "cancelled";
 
-export function publishRun(event: Omit<RunEvent, "at">): void {
-  const full = { ...event, at: new Date().toISOString() };
+export function publishRun(event: RunEvent): void {
   // Only a run still in progress needs remembering, for a watcher that arrives between two events.
-  if (isFinished(full.status)) bus.latest.delete(full.runId);
-  else bus.latest.set(full.runId, full);
-  bus.emitter.emit(full.runId, full);
+  if (isFinished(event.status)) bus.latest.delete(event.runId);
+  else bus.latest.set(event.runId, event);
+  bus.emitter.emit(event.runId, event);
 }
 
-/** The last event of a run in progress in this process, if any. */
-export function latestRunEvent(runId: string): RunEvent | undefined {
-  return bus.latest.get(runId);
+/** A running run's progress: the row's, or the fresher one this process last published for it. */
+export function freshestProgress(runId: string, rowProgress: number): number {
+  const live = bus.latest.get(runId);
+  return live && live.status === "running" && live.progress > rowProgress ? live.progress : rowProgress;
 }
 
 /** Calls `listener` with each event of the run from now on; returns the unsubscribe function. */

@@ -50,7 +50,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
         </p>
         <section aria-labelledby="sign-off-h" className="sheet">
           <h2 id="sign-off-h" className="text-lg font-bold">Sign-off</h2>
-          {c.state === "open" && problems.length > 0 && (
+          {c.state !== "signed_off" && problems.length > 0 && (
             <ul className="mt-1 list-disc pl-5 text-sm text-warn" aria-label="What keeps this sheet from sign-off">
               {problems.map((p) => <li key={p.field + p.message}>{p.message}</li>)}
             </ul>
