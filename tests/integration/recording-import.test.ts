@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite, squareWithBaulk } from "../support/fixtures";
 import { getDb } from "@/db/client";
@@ -50,6 +50,13 @@ describe("total-station import", () => {
       [103, 2.0, 4.5, 10.0, "imported"],
       [104, 8.0, 5.5, 9.9, "imported"],
     ]);
+    // Each imported find's trail starts with the import, naming the file's trail entry; the refused file left none.
+    const db = await getDb();
+    const [fileEntry] = await db.select().from(schema.auditEntries).where(and(eq(schema.auditEntries.siteId, fx.site.id), eq(schema.auditEntries.recordType, "import"), eq(schema.auditEntries.action, "import")));
+    expect(fileEntry.after).toMatchObject({ fileName: "day1.csv", rows: 4, numbers: [101, 104] });
+    const trail = await db.select().from(schema.auditEntries).where(and(eq(schema.auditEntries.siteId, fx.site.id), eq(schema.auditEntries.recordType, "find")));
+    expect(trail.map((e) => [e.action, e.recordId, (e.after as { number: number; importId: string }).number, (e.after as { importId: string }).importId]).sort((a, b) => Number(a[2]) - Number(b[2])))
+      .toEqual(rows.map((r) => ["import", r.id, r.number, fileEntry.recordId]));
     // Numbers up to the highest imported are spent; the next find typed in gets 105.
     const next = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 });
     expect(next.json.number).toBe(105);

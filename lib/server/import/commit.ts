@@ -63,13 +63,12 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
     for (const id of result.contextIds) await assertContextWritable(tx, await getContext(tx, actor.site.id, id), "given new finds");
     const numbers = await numberRows(tx, actor.site.id, result.valid);
     const importId = randomUUID();
-    const ids: string[] = [];
     for (let i = 0; i < result.valid.length; i += BATCH) {
-      ids.push(...(await insertBatch(tx, actor, result.valid.slice(i, i + BATCH), numbers.slice(i, i + BATCH))));
+      await insertBatch(tx, actor, importId, result.valid.slice(i, i + BATCH), numbers.slice(i, i + BATCH));
     }
     const range = numbers.reduce((m, n) => [Math.min(m[0], n), Math.max(m[1], n)], [Infinity, -Infinity]);
-    // One trail entry for the whole file, naming every find it created (by id and number).
-    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: [...result.contextIds], finds: ids.map((id, k) => [id, numbers[k]]) };
+    // One trail entry for the whole file; each find has its own (insertBatch), naming this import.
+    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: [...result.contextIds] };
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "import", recordType: "import", recordId: importId, after: summary });
     await saveImportMapping(tx, actor, input.mapping);
     return { imported: result.valid.length, firstNumber: range[0], lastNumber: range[1], importId };
@@ -88,9 +87,12 @@ async function numberRows(tx: Tx, siteId: string, rows: ValidRow[]): Promise<num
 
 /**
  * Inserts rows through jsonb_to_recordset: one statement and one parameter per batch. Binding 14 parameters
- * per row made PGlite spend most of a 50,000-row import marshalling them (measured about 3× slower).
+ * per row made PGlite spend most of a 50,000-row import marshalling them (measured about 3× slower). Each
+ * new find's trail entry (action "import", the row as created, the import's id) is written by one more
+ * set-based statement (keys as in every other find entry), so a find's own trail starts with the file it
+ * came from.
  */
-async function insertBatch(tx: Tx, actor: SiteActor, rows: ValidRow[], numbers: number[]): Promise<string[]> {
+async function insertBatch(tx: Tx, actor: SiteActor, importId: string, rows: ValidRow[], numbers: number[]): Promise<void> {
   const records = rows.map((r, k) => ({
     id: randomUUID(), site_id: actor.site.id, trench_id: r.trenchId, context_id: r.contextId, class_id: r.classId, number: numbers[k],
     x: r.x, y: r.y, z: r.z, count: r.count, weight_g: r.weightG, description: r.description, recorded_by: actor.userId,
@@ -100,5 +102,11 @@ async function insertBatch(tx: Tx, actor: SiteActor, rows: ValidRow[], numbers: 
     select id, site_id, trench_id, context_id, class_id, number, x, y, z, count, weight_g, description, 'imported', recorded_by
     from jsonb_to_recordset(${JSON.stringify(records)}::jsonb) as r(id uuid, site_id uuid, trench_id uuid, context_id uuid, class_id uuid,
       number integer, x double precision, y double precision, z double precision, count integer, weight_g double precision, description text, recorded_by uuid)`);
-  return records.map((r) => r.id);
+  await tx.execute(sql`
+    insert into audit_entries (site_id, actor_id, action, record_type, record_id, after)
+    select f.site_id, ${actor.userId}::uuid, 'import', 'find', f.id::text, jsonb_build_object(
+      'id', f.id, 'siteId', f.site_id, 'trenchId', f.trench_id, 'contextId', f.context_id, 'classId', f.class_id, 'number', f.number,
+      'x', f.x, 'y', f.y, 'z', f.z, 'count', f.count, 'weightG', f.weight_g, 'description', f.description, 'method', f.method,
+      'recordedBy', f.recorded_by, 'recordedAt', f.recorded_at, 'importId', ${importId}::text)
+    from finds f where f.id in (select (e->>'id')::uuid from jsonb_array_elements(${JSON.stringify(records.map((r) => ({ id: r.id })))}::jsonb) as e)`);
 }
