@@ -5,7 +5,7 @@ import { analysisRuns } from "@/db/schema";
 import { SpatialInputError } from "@/lib/spatial/errors";
 import type { SimulationPool } from "@/lib/spatial/pool";
 import { runDistributionTest } from "@/lib/spatial/run-test";
-import { publishRun } from "../jobs/run-events";
+import { forgetRun, publishRun } from "../jobs/run-events";
 import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
 import type { RunScope } from "./run-schema";
@@ -89,6 +89,8 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     if (!(err instanceof SpatialInputError)) console.error(`[loamwork] run ${runId} failed`, err);
     await markFailed(db, runId, message);
     if (live) publishRun({ runId, status: "failed", progress: 0, startedAt: null });
+  } finally {
+    if (live) forgetRun(runId);
   }
 }
 

@@ -27,6 +27,14 @@ export function publishRun(event: RunEvent): void {
   bus.emitter.emit(event.runId, event);
 }
 
+/**
+ * Forget a run's last event once it has stopped in this process, however it stopped (a cancel or an
+ * aborted write publishes no end event; watchers learn those from the row).
+ */
+export function forgetRun(runId: string): void {
+  bus.latest.delete(runId);
+}
+
 /** A running run's progress: the row's, or the fresher one this process last published for it. */
 export function freshestProgress(runId: string, rowProgress: number): number {
   const live = bus.latest.get(runId);
