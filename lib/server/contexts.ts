@@ -26,7 +26,7 @@ async function assertNumberFree(tx: Db | Tx, siteId: string, number: number) {
 }
 
 export async function createContext(db: Db, actor: SiteActor, input: ContextCreate) {
-  if (input.extent) assertOutline(input.extent);
+  if (input.extent) assertOutline(input.extent, "extent");
   return db.transaction(async (tx) => {
     await getTrench(tx, actor.site.id, input.trenchId);
     await assertNumberFree(tx, actor.site.id, input.number);
@@ -40,7 +40,7 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
 }
 
 export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate) {
-  if (input.extent) assertOutline(input.extent);
+  if (input.extent) assertOutline(input.extent, "extent");
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);
     await assertContextWritable(tx, before);

@@ -11,9 +11,11 @@ import { assertContextsWritable, assertTrenchWritable } from "./locks";
 import type { SiteActor } from "./membership";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
-export function assertOutline(polygon: OutlinePolygon): Window {
+/** A valid polygon as a window, or a 400 naming the field (`outline` of a trench, `extent` of a context) and why. */
+export function assertOutline(polygon: OutlinePolygon, field: "outline" | "extent" = "outline"): Window {
   const check = checkOutline(polygon);
-  if (!check.ok) throw badInput(`The trench outline is not valid: ${check.reason}`, { outline: [check.reason] });
+  const what = field === "outline" ? "The trench outline" : "The context's extent";
+  if (!check.ok) throw badInput(`${what} is not valid: ${check.reason}`, { [field]: [check.reason] });
   return check.window;
 }
 

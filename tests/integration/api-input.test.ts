@@ -8,6 +8,7 @@ import * as trenchesRoute from "@/app/api/sites/[siteId]/trenches/route";
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
 import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
 import * as contextsRoute from "@/app/api/sites/[siteId]/contexts/route";
+import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
 import { buildOpenApiDocument } from "@/lib/server/openapi";
 import { api } from "@/lib/server/api-catalog";
 
@@ -31,6 +32,18 @@ describe("bad input is refused with the reason and changes nothing", () => {
       expect(await db.select().from(schema.trenches).where(eq(schema.trenches.code, "X"))).toHaveLength(0);
     });
   }
+
+  it("refuses a self-crossing context extent, naming the extent, and leaves the context as it was", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    const res = await call(contextRoute, "PATCH", { siteId: fx.site.id, contextId: fx.context.id }, { extent: { type: "Polygon", coordinates: badOutlines[0][1] } });
+    expect(res.status).toBe(400);
+    expect(res.json.error).toMatch(/^The context's extent is not valid: .*crosses or touches itself/);
+    expect(res.json.fieldErrors.extent[0]).toMatch(/crosses or touches itself/);
+    const db = await getDb();
+    const [row] = await db.select().from(schema.contexts).where(eq(schema.contexts.id, fx.context.id));
+    expect(row.extent).toBeNull();
+  });
 
   it("refuses a find outside its trench, stating the distance to the edge", async () => {
     const fx = await makeSite();
