@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import Papa from "papaparse";
 import { eq } from "drizzle-orm";
 import { session } from "../support/harness";
 import { makeSite } from "../support/fixtures";
@@ -82,5 +83,51 @@ describe("CSV and matrix image exports", () => {
     const png = new Uint8Array(await (await get(matrixImageRoute, fx.site.id, "format=png")).arrayBuffer());
     // PNG signature, PNG specification §5.2: 89 50 4E 47 0D 0A 1A 0A.
     expect([...png.slice(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+  });
+});
+
+/** Text a spreadsheet would evaluate: OWASP's CSV-injection triggers, a full-width one, one after blanks. */
+const formulas = {
+  minus: "-2+3+cmd|' /C calc'!A0",
+  equals: "=HYPERLINK(\"http://example.invalid\",\"x\")",
+  plus: "+1+1",
+  at: "@SUM(1+1)",
+  tab: "\t=1+1",
+  cr: "\r=1+1",
+  fullWidth: "\uFF0D1+1",
+  blanks: "  =1+1",
+};
+
+describe("CSV exports against spreadsheet formulas", () => {
+  it("writes numbers as numbers (negative ones too) and every formula-like text cell of the finds CSV inert", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    let number = 1;
+    for (const text of Object.values(formulas)) {
+      await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: number++, x: -1.5, y: -0.25, z: -3, weightG: 12.5, description: text, method: "typed" });
+    }
+    session.userId = fx.people.digger.id;
+    const csv = await (await get(exportFindsRoute, fx.site.id, "format=csv&sort=number&dir=asc")).text();
+    const [head, ...rows] = Papa.parse<string[]>(csv.trim(), { newline: "\r\n" }).data;
+    const col = (name: string) => head.indexOf(name);
+    // OWASP, "CSV Injection": a cell starting with = + - @ tab or CR gets a leading single quote.
+    expect(rows.map((r) => r[col("description")])).toEqual(Object.values(formulas).map((t) => `'${t}`));
+    for (const r of rows) {
+      expect([r[col("x")], r[col("y")], r[col("z")], r[col("weight_g")]]).toEqual(["-1.5", "-0.25", "-3", "12.5"]);
+      expect(r[col("count")]).toBe("");
+    }
+  });
+
+  it("writes every formula-like text field of the contexts CSV inert and the numbers as numbers", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const fields = { colour: formulas.plus, compaction: formulas.blanks, composition: formulas.tab, inclusions: formulas.fullWidth, description: formulas.minus, interpretation: formulas.at };
+    await db.update(schema.contexts).set(fields).where(eq(schema.contexts.id, fx.context.id));
+    session.userId = fx.people.digger.id;
+    const csv = await (await get(exportContextsRoute, fx.site.id, "format=csv")).text();
+    const [head, ...rows] = Papa.parse<string[]>(csv.trim(), { newline: "\r\n" }).data;
+    const row = rows.find((r) => r[head.indexOf("number")] === String(fx.context.number))!;
+    for (const [field, text] of Object.entries(fields)) expect(row[head.indexOf(field)]).toBe(`'${text}`);
+    expect(row[head.indexOf("finds")]).toBe("0");
   });
 });

@@ -106,6 +106,9 @@ describe("total-station import", () => {
       { x: 1.5, y: 1.25, z: 10.5, description: "flake, cortex on one face" },
       { x: 8.75, y: 5.5, z: null, description: 'core "B", refits' },
       { x: 0.5, y: 4.0, z: 9.75, description: "" },
+      // Guarded against spreadsheet formulas on export, given back as typed on import.
+      { x: 2.5, y: 0.5, z: 9.5, description: "-2+3+cmd|' /C calc'!A0" },
+      { x: 3.5, y: 0.5, z: 9.5, description: "'=already quoted" },
     ];
     for (const m of made) await call(findsRoute, "POST", { siteId: a.site.id }, { contextId: a.context.id, classId: a.cls.id, ...m });
     // The harness parses JSON answers; the CSV is read as text from the handler directly.

@@ -1,32 +1,50 @@
 import Papa from "papaparse";
 import type { Context } from "@/db/schema";
 import type { RegisterRow } from "@/lib/server/finds";
+import { inertText } from "@/lib/csv-cells";
+
+type Kind = "number" | "text";
+export type CsvColumn = readonly [name: string, kind: Kind];
+
+/** A number column's cell: the number itself, or empty when there is none. Anything else is a bug here. */
+function numberCell(name: string, v: unknown): number | string {
+  if (v === null || v === undefined || v === "") return "";
+  if (typeof v !== "number" || !Number.isFinite(v)) throw new Error(`CSV column ${name} holds ${typeof v}, not a number`);
+  return v;
+}
 
 /**
- * CSV text through papaparse. Cells starting with = + @ or a tab are prefixed with ' so a spreadsheet
- * does not run them as formulas (OWASP "CSV injection"); "-" is left alone because negative coordinates
- * start with it.
+ * CSV text through papaparse, each cell written by its column's kind: numbers as numbers, text made
+ * inert against spreadsheet formulas (see lib/csv-cells.ts).
  */
-export function toCsv(columns: string[], rows: unknown[][]): string {
-  return Papa.unparse({ fields: columns, data: rows }, { escapeFormulae: /^[=+@\t\r]/, newline: "\r\n" });
+export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string {
+  const data = rows.map((r) => columns.map(([name, kind], i) => (kind === "number" ? numberCell(name, r[i]) : inertText(String(r[i] ?? "")))));
+  return Papa.unparse({ fields: columns.map(([name]) => name), data }, { escapeFormulae: false, newline: "\r\n" });
 }
 
 /** The register's columns; the header names are ones the import recognises, so a file round-trips. */
-export const findCsvColumns = ["number", "trench", "context", "class", "x", "y", "z", "count", "weight_g", "description", "method", "recorded_by", "recorded_at"];
+export const findCsvColumns: readonly CsvColumn[] = [
+  ["number", "number"], ["trench", "text"], ["context", "number"], ["class", "text"], ["x", "number"], ["y", "number"], ["z", "number"],
+  ["count", "number"], ["weight_g", "number"], ["description", "text"], ["method", "text"], ["recorded_by", "text"], ["recorded_at", "text"],
+];
 
 export function findsCsv(rows: RegisterRow[]): string {
   return toCsv(
     findCsvColumns,
-    rows.map((f) => [f.number, f.trenchCode, f.contextNumber, f.classCode, f.x, f.y, f.z ?? "", f.count ?? "", f.weightG ?? "", f.description, f.method, f.recordedBy ?? "", f.recordedAt.toISOString()]),
+    rows.map((f) => [f.number, f.trenchCode, f.contextNumber, f.classCode, f.x, f.y, f.z, f.count, f.weightG, f.description, f.method, f.recordedBy ?? "", f.recordedAt.toISOString()]),
   );
 }
 
 export type ContextExportRow = Context & { trenchCode: string; finds: number; relations: string };
 
+export const contextCsvColumns: readonly CsvColumn[] = [
+  ["number", "number"], ["trench", "text"], ["type", "text"], ["state", "text"], ["colour", "text"], ["compaction", "text"], ["composition", "text"],
+  ["inclusions", "text"], ["description", "text"], ["interpretation", "text"], ["relations", "text"], ["finds", "number"], ["has_extent", "text"], ["signed_off_at", "text"],
+];
+
 export function contextsCsv(rows: ContextExportRow[]): string {
-  const columns = ["number", "trench", "type", "state", "colour", "compaction", "composition", "inclusions", "description", "interpretation", "relations", "finds", "has_extent", "signed_off_at"];
   return toCsv(
-    columns,
+    contextCsvColumns,
     rows.map((c) => [c.number, c.trenchCode, c.type, c.state, c.colour, c.compaction, c.composition, c.inclusions, c.description, c.interpretation, c.relations, c.finds, c.extent ? "yes" : "no", c.signedOffAt?.toISOString() ?? ""]),
   );
 }

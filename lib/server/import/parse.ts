@@ -1,4 +1,5 @@
 import Papa from "papaparse";
+import { restoreText } from "@/lib/csv-cells";
 import { badInput } from "@/lib/server/errors";
 
 export type ParsedCsv = {
@@ -15,7 +16,8 @@ export type ParsedCsv = {
  */
 export function parseCsv(text: string): ParsedCsv {
   const out = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { header: false, skipEmptyLines: "greedy", delimitersToGuess: [",", ";", "\t", "|"] });
-  const [head, ...rows] = out.data;
+  // A Loamwork export guards formula-like text with a leading quote; reading it back undoes exactly that.
+  const [head, ...rows] = out.data.map((r) => r.map(restoreText));
   if (!head || head.every((h) => !h.trim())) throw badInput("The file has no header row; the first row must name the columns.");
   const headers = head.map((h) => h.trim());
   const seen = new Set<string>();
