@@ -34,11 +34,6 @@ export const siteCreateSchema = z.object({
 
 export const siteUpdateSchema = siteCreateSchema.omit({ code: true }).partial();
 
-export const memberAddSchema = z.object({
-  email: z.string().trim().toLowerCase().email("Enter an e-mail address."),
-  role: roleSchema,
-});
-
 export const memberRoleSchema = z.object({ role: roleSchema });
 
 export type SiteCreate = z.infer<typeof siteCreateSchema>;

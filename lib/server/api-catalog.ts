@@ -3,7 +3,7 @@ import { emptyQuery } from "@/lib/schemas/common";
 import { artefactClassCreateSchema, artefactClassUpdateSchema } from "@/lib/schemas/artefact-class";
 import { contextCreateSchema, contextUpdateSchema } from "@/lib/schemas/context";
 import { findCreateSchema, findListQuery, findUpdateSchema } from "@/lib/schemas/find";
-import { memberAddSchema, memberRoleSchema, siteCreateSchema, siteUpdateSchema } from "@/lib/schemas/site";
+import { memberRoleSchema, siteCreateSchema, siteUpdateSchema } from "@/lib/schemas/site";
 import { trenchCreateSchema, trenchUpdateSchema } from "@/lib/schemas/trench";
 import { patternsApi } from "./catalog/patterns";
 import { planApi } from "./catalog/plan";
@@ -25,7 +25,6 @@ const coreApi = {
   siteRead: { method: "GET", path: "/api/sites/{siteId}", summary: "Site overview", roles: "member", from: "none" },
   siteUpdate: { method: "PATCH", path: "/api/sites/{siteId}", summary: "Change the site's name and grid", roles: directorOnly, doing: "change the site's settings", input: siteUpdateSchema },
   membersList: { method: "GET", path: "/api/sites/{siteId}/members", summary: "Members and their roles", roles: "member", from: "none" },
-  membersAdd: { method: "POST", path: "/api/sites/{siteId}/members", summary: "Add an existing user to the site", roles: directorOnly, doing: "manage members", input: memberAddSchema, successStatus: 201 },
   memberUpdate: { method: "PATCH", path: "/api/sites/{siteId}/members/{userId}", summary: "Change a member's role", roles: directorOnly, doing: "manage members", input: memberRoleSchema },
   memberRemove: { method: "DELETE", path: "/api/sites/{siteId}/members/{userId}", summary: "Remove a member", roles: directorOnly, doing: "manage members", from: "none" },
   classesList: { method: "GET", path: "/api/sites/{siteId}/classes", summary: "Artefact classes", roles: "member", from: "none" },

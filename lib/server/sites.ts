@@ -4,7 +4,7 @@ import type { Db } from "@/db/client";
 import { contexts, finds, memberships, sites, trenches, users, analysisRuns, type Role } from "@/db/schema";
 import type { SiteCreate, SiteUpdate } from "@/lib/schemas/site";
 import { recordAudit } from "./audit";
-import { badInput, conflict, notFound } from "./errors";
+import { conflict, notFound } from "./errors";
 import type { SiteActor } from "./membership";
 
 /** The sites a user belongs to, with their role and what awaits them there. */
@@ -76,22 +76,6 @@ export async function listMembers(db: Db, siteId: string) {
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.siteId, siteId))
     .orderBy(asc(users.name));
-}
-
-/** Adds an existing Loamwork user to the site (invitations of new people arrive by e-mail; see invitations). */
-export async function addMember(db: Db, actor: SiteActor, input: { email: string; role: Role }) {
-  return db.transaction(async (tx) => {
-    const [user] = await tx.select().from(users).where(eq(users.email, input.email));
-    if (!user) throw badInput(`No Loamwork account uses ${input.email}; send an invitation instead.`, { email: ["No account with this address."] });
-    const [existing] = await tx
-      .select()
-      .from(memberships)
-      .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, user.id)));
-    if (existing) throw conflict(`${user.name} is already on this site as ${existing.role}.`);
-    const [row] = await tx.insert(memberships).values({ siteId: actor.site.id, userId: user.id, role: input.role }).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "add", recordType: "member", recordId: user.id, after: row });
-    return row;
-  });
 }
 
 async function assertNotLastDirector(db: Db, siteId: string, userId: string) {

@@ -86,7 +86,7 @@ const cases: LockCase[] = [
 const outsideTheLock: Record<string, string> = {
   sitesCreate: "a new site has no contexts",
   siteUpdate: "site name and grid description only",
-  membersAdd: "membership", memberUpdate: "membership", memberRemove: "membership",
+  memberUpdate: "membership", memberRemove: "membership",
   classesCreate: "a new class has no finds",
   classUpdate: "label/colour/symbol of the vocabulary; finds keep their class",
   trenchesCreate: "a new trench has no contexts",

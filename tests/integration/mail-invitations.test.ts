@@ -8,6 +8,8 @@ import * as schema from "@/db/schema";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
 import { hashPassword, checkPassword } from "@/lib/server/passwords";
 import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
+import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
+import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import * as acceptRoute from "@/app/api/auth-extra/invitations/accept/route";
 import * as resetRequestRoute from "@/app/api/auth-extra/password-reset/request/route";
 import * as resetConfirmRoute from "@/app/api/auth-extra/password-reset/confirm/route";
@@ -74,6 +76,37 @@ describe("invitations by e-mail", () => {
     const refused = await call(acceptRoute, "POST", {}, { token: late, name: "Late", password: "late-password-1" });
     expect(refused.status).toBe(409);
     expect(refused.json.error).toContain("expired");
+  });
+
+  it("adds no one without consent: a known and an unknown address get the same answer, and only acceptance joins", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const [known] = await db.insert(schema.users).values({ email: "has.account@example.org", name: "Has Account", passwordHash: await hashPassword("known-password-9") }).returning();
+    // No route puts an account on a site at once: the members collection takes no POST.
+    expect("POST" in membersRoute).toBe(false);
+    const adds = (Object.values(api) as ApiOperation[]).filter((op) => op.method === "POST" && op.path.endsWith("/members"));
+    expect(adds).toEqual([]);
+
+    session.userId = fx.people.director.id;
+    const a = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "has.account@example.org", role: "digger" });
+    const b = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "no.account@example.org", role: "digger" });
+    // Same status, same body once the address, the ids and the times are taken out: nothing tells whether an account exists.
+    const blank = (r: typeof a, email: string) => JSON.stringify(r.json).replaceAll(email, "EMAIL").replace(/"[0-9a-f-]{36}"/g, '"ID"').replace(/"\d{4}-\d\d-\d\dT[\d:.]+Z"/g, '"TIME"');
+    expect(a.status).toBe(201);
+    expect(b.status).toBe(a.status);
+    expect(blank(a, "has.account@example.org")).toBe(blank(b, "no.account@example.org"));
+    const [toKnown] = messagesTo(mail.dir, "has.account@example.org");
+    const [toUnknown] = messagesTo(mail.dir, "no.account@example.org");
+    expect(toKnown.subject).toBe(toUnknown.subject);
+
+    // Until she accepts, she is not on the site and the site does not show her name.
+    const listed = async () => (await call(membersRoute, "GET", { siteId: fx.site.id })).json.map((m: { email: string }) => m.email);
+    expect(await listed()).not.toContain("has.account@example.org");
+    expect(await db.select().from(schema.memberships).where(eq(schema.memberships.userId, known.id))).toEqual([]);
+    session.userId = null;
+    expect((await call(acceptRoute, "POST", {}, { token: tokenIn(toKnown.text, "invite"), password: "known-password-9" })).status).toBe(200);
+    session.userId = fx.people.director.id;
+    expect(await listed()).toContain("has.account@example.org");
   });
 
   it("refuses to invite someone already on the site", async () => {

@@ -5,7 +5,6 @@ import type { SiteFixture } from "../../support/fixtures";
 import { nextCount, type RoleCases } from "./types";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as siteRoute from "@/app/api/sites/[siteId]/route";
-import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
 import * as memberRoute from "@/app/api/sites/[siteId]/members/[userId]/route";
 import * as classesRoute from "@/app/api/sites/[siteId]/classes/route";
 import * as classRoute from "@/app/api/sites/[siteId]/classes/[classId]/route";
@@ -20,10 +19,6 @@ import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 export const coreCases: RoleCases = {
   sitesCreate: async () => ({ mod: sitesRoute, params: {}, body: { code: `NEW-${nextCount()}`, name: "New site" } }),
   siteUpdate: async (fx) => ({ mod: siteRoute, params: { siteId: fx.site.id }, body: { name: `Renamed ${nextCount()}` } }),
-  membersAdd: async (fx) => {
-    const u = await makeUser("Newcomer");
-    return { mod: membersRoute, params: { siteId: fx.site.id }, body: { email: u.email, role: "digger" } };
-  },
   memberUpdate: async (fx) => {
     const u = await makeUser("Member");
     const db = await getDb();

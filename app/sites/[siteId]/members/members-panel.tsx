@@ -1,7 +1,6 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { useState } from "react";
 import { fetchJson } from "@/components/ui/fetch-json";
 import { roles } from "@/lib/schemas/common";
 
@@ -11,13 +10,10 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
   const qc = useQueryClient();
   const key = ["members", siteId];
   const members = useQuery({ queryKey: key, queryFn: () => fetchJson<Member[]>(`/api/sites/${siteId}/members`) });
-  const [email, setEmail] = useState("");
-  const [role, setRole] = useState<Member["role"]>("digger");
   const done = () => qc.invalidateQueries({ queryKey: key });
-  const add = useMutation({ mutationFn: () => fetchJson(`/api/sites/${siteId}/members`, { method: "POST", body: { email, role } }), onSuccess: () => { setEmail(""); done(); } });
   const change = useMutation({ mutationFn: (m: { userId: string; role: string }) => fetchJson(`/api/sites/${siteId}/members/${m.userId}`, { method: "PATCH", body: { role: m.role } }), onSuccess: done });
   const remove = useMutation({ mutationFn: (userId: string) => fetchJson(`/api/sites/${siteId}/members/${userId}`, { method: "DELETE" }), onSuccess: done });
-  const failure = add.error ?? change.error ?? remove.error;
+  const failure = change.error ?? remove.error;
 
   return (
     <div className="space-y-4">
@@ -44,21 +40,6 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
       </table>
       {members.isLoading && <p>Loading members…</p>}
       <p className="field-error" role="alert" aria-live="polite">{failure?.message}</p>
-      {canManage && (
-        <form className="sheet flex flex-wrap items-end gap-3" onSubmit={(e) => { e.preventDefault(); add.mutate(); }}>
-          <div className="grow">
-            <label className="label" htmlFor="new-email">Add someone who already has a Loamwork account</label>
-            <input id="new-email" className="field" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
-          </div>
-          <div>
-            <label className="label" htmlFor="new-role">Role</label>
-            <select id="new-role" className="field" value={role} onChange={(e) => setRole(e.target.value as Member["role"])}>
-              {roles.map((r) => <option key={r} value={r}>{r}</option>)}
-            </select>
-          </div>
-          <button className="btn-primary" type="submit" disabled={add.isPending}>Add to site</button>
-        </form>
-      )}
     </div>
   );
 }

@@ -1,7 +1,8 @@
 import { api } from "@/lib/server/api-catalog";
 import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
-import { addMember, listMembers } from "@/lib/server/sites";
+import { listMembers } from "@/lib/server/sites";
+
+// No POST: people join a site only by accepting an invitation mailed to them (POST …/invitations).
 
 export const GET = guardedRoute(api.membersList, (ctx) => listMembers(ctx.db, siteActor(ctx).site.id));
-export const POST = guardedRoute(api.membersAdd, (ctx) => addMember(ctx.db, siteActor(ctx), ctx.input));
