@@ -3,10 +3,20 @@ import NextAuth from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
 import { verifySignIn } from "@/lib/server/sign-in";
+import { endSessions, sessionIsCurrent } from "@/lib/server/session-version";
+import { getDb } from "@/db/client";
+
+declare module "next-auth" {
+  interface User {
+    sessionVersion?: number;
+  }
+}
 
 declare module "next-auth/jwt" {
   interface JWT {
     uid?: string;
+    /** The account's session version at sign-in (lib/server/session-version.ts). */
+    sv?: number;
   }
 }
 
@@ -22,13 +32,26 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
     }),
   ],
   callbacks: {
-    jwt({ token, user }) {
-      if (user?.id) token.uid = user.id;
-      return token;
+    // Runs on sign-in and on every read of the session (auth(), /api/auth/session): a session whose account
+    // has since signed out or reset its password is refused here, and its cookie cleared.
+    async jwt({ token, user }) {
+      if (user?.id) {
+        token.uid = user.id;
+        token.sv = user.sessionVersion;
+        return token;
+      }
+      return (await sessionIsCurrent(token.uid, token.sv)) ? token : null;
     },
     session({ session, token }) {
       if (token.uid && session.user) session.user.id = token.uid;
       return session;
+    },
+  },
+  events: {
+    // Signing out ends the session for everyone holding a copy of its cookie, not only in this browser.
+    async signOut(message) {
+      const uid = "token" in message ? message.token?.uid : undefined;
+      if (uid) await endSessions(await getDb(), uid);
     },
   },
 });

@@ -16,5 +16,7 @@ export default defineConfig({
     pool: "forks",
     setupFiles: ["tests/support/per-file-setup.ts"],
     env: { LOAMWORK_DATA_DIR: "memory", NODE_ENV: "test" },
+    // next-auth imports "next/server" without an extension, which plain Node ESM cannot resolve.
+    server: { deps: { inline: ["next-auth"] } },
   },
 });

@@ -37,6 +37,8 @@ export const users = pgTable("users", {
   email: text("email").notNull().unique(),
   name: text("name").notNull(),
   passwordHash: text("password_hash").notNull(),
+  /** Put into every session at sign-in; raised by signing out or a password reset, which ends older sessions. */
+  sessionVersion: integer("session_version").notNull().default(0),
   createdAt: created(),
 });
 

@@ -9,6 +9,7 @@ import { hashToken, newPasswordSchema, newToken } from "./invitations";
 import { passwordResetMail } from "./mail/templates/password-reset";
 import { deliver } from "./mail/transport";
 import { hashPassword } from "./passwords";
+import { endSessions } from "./session-version";
 
 /** A reset link works for an hour (common practice for password-reset links). */
 export const RESET_MINUTES = 60;
@@ -39,7 +40,10 @@ export async function requestPasswordReset(db: Db, email: string): Promise<{ acc
   return { accepted: true };
 }
 
-/** Sets the new password, uses up the link and every other open link of the account, and clears sign-in slow-downs. */
+/**
+ * Sets the new password, uses up the link and every other open link of the account, ends every session the
+ * account had (whoever knew the old password may hold one), and clears sign-in slow-downs.
+ */
 export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetConfirmSchema>): Promise<{ email: string }> {
   return db.transaction(async (tx) => {
     const [reset] = await tx
@@ -49,6 +53,7 @@ export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetCo
       .for("update");
     if (!reset) throw conflict("This reset link has expired or has already been used; ask for a new one.");
     const [user] = await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, reset.userId)).returning();
+    await endSessions(tx, user.id);
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
     await tx.delete(signInFailures).where(eq(signInFailures.email, user.email));
     return { email: user.email };

@@ -29,7 +29,7 @@ const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 export async function verifySignIn(
   raw: unknown,
   wait: (ms: number) => Promise<unknown> = sleep,
-): Promise<{ id: string; email: string; name: string } | null> {
+): Promise<{ id: string; email: string; name: string; sessionVersion: number } | null> {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) return null;
   const { email, password } = parsed.data;
@@ -41,7 +41,7 @@ export async function verifySignIn(
   const ok = user ? await checkPassword(password, user.passwordHash) : false;
   if (ok && user) {
     if (record) await db.delete(signInFailures).where(eq(signInFailures.email, email));
-    return { id: user.id, email: user.email, name: user.name };
+    return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
   }
   await db
     .insert(signInFailures)
