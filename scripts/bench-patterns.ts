@@ -1,5 +1,5 @@
 /**
- * `npm run bench:patterns`: the Patterns workspace end to end in a browser. The built app is served with
+ * `npm run bench -- patterns`: the Patterns workspace end to end in a browser. The built app is served with
  * the demo site plus a class of 1,000 finds laid at random in trench A (context 1005); a specialist signs
  * in, picks that class and context, gives a seed and presses Run. The run is Besag's L alone under CSR —
  * the form's other default test, Clark–Evans with its Monte Carlo edge correction, is unticked — with the

@@ -1,5 +1,5 @@
 /**
- * `npm run bench:plan`: the trench plan with 5,000 finds in Chromium (playwright-core + Debian chromium).
+ * `npm run bench -- plan`: the trench plan with 5,000 finds in Chromium (playwright-core + Debian chromium).
  * Starts the built app with its own seeded data folder, imports 5,000 finds into one new trench through
  * the total-station import, then measures
  *   - first paint: navigation start → the first frame with every find drawn (a performance mark the

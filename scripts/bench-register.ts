@@ -1,5 +1,5 @@
 /**
- * `npm run bench:register`: the finds register and the total-station import at scale, in process, through
+ * `npm run bench -- register`: the finds register and the total-station import at scale, in process, through
  * the real route handlers (guard, zod, use case, database) against an in-memory PGlite.
  *  1. 50,000 finds in the demo site; filtered and sorted register pages, each asked --runs times
  *     (default 25); the median per query is reported. Target: < 200 ms.
