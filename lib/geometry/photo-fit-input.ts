@@ -1,11 +1,16 @@
 import { z } from "zod";
+import { numeric } from "@/lib/schemas/common";
+
+const pixel = numeric(z.number({ error: "A photo position must be a number of pixels." }).finite("A photo position must be a number of pixels."));
+const gridMetres = (error: string) =>
+  numeric(z.number({ error }).finite("Enter a finite number of metres.").refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."));
 
 /** A control point as the plan sends it: a pixel of the display photo and its site-grid position. */
 export const controlPointSchema = z.object({
-  px: z.coerce.number().finite("A photo position must be a number of pixels."),
-  py: z.coerce.number().finite("A photo position must be a number of pixels."),
-  x: z.coerce.number({ error: "Enter the grid easting in metres." }).finite("Enter a finite number of metres.").refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."),
-  y: z.coerce.number({ error: "Enter the grid northing in metres." }).finite("Enter a finite number of metres.").refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."),
+  px: pixel,
+  py: pixel,
+  x: gridMetres("Enter the grid easting in metres."),
+  y: gridMetres("Enter the grid northing in metres."),
 });
 
 export const photoFitInputSchema = z.object({

@@ -4,16 +4,29 @@ export const uuid = z.string().uuid("Not a valid record id.");
 export const roles = ["digger", "specialist", "director"] as const;
 export const roleSchema = z.enum(roles);
 
-/** A finite number of site-grid metres; strings from forms and CSV are accepted when numeric. */
-export const metres = z.coerce
-  .number({ error: "Enter a number of metres." })
-  .refine(Number.isFinite, "Enter a finite number of metres.")
-  .refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin.");
+/** A decimal as a form field holds it: an optional sign, digits, an optional fraction. No exponent, hex or blank. */
+const plainDecimal = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)$/;
+
+/**
+ * A number as JSON sends it, or a plain decimal string (forms post text); nothing else is read as a number.
+ * `z.coerce.number()` read `true` as 1, `[3]` as 3, `"0x3"` as 3 and `null` or `""` as 0: those are refused.
+ */
+export function numeric<T extends z.ZodType<number>>(inner: T) {
+  return z.preprocess((v) => (typeof v === "string" && plainDecimal.test(v.trim()) ? Number(v.trim()) : v), inner);
+}
+
+/** A finite number of site-grid metres (a plain decimal string from a form is read as one). */
+export const metres = numeric(
+  z
+    .number({ error: "Enter a number of metres." })
+    .refine(Number.isFinite, "Enter a finite number of metres.")
+    .refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."),
+);
 
 /** Paging for every list: 1-based page, at most 500 rows a page. */
 export const pageQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  page: numeric(z.number().int().min(1)).default(1),
+  pageSize: numeric(z.number().int().min(1).max(500)).default(50),
 });
 
 export const emptyQuery = z.object({}).passthrough();

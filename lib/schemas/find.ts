@@ -1,22 +1,29 @@
 import { z } from "zod";
-import { metres, pageQuery, uuid } from "./common";
+import { metres, numeric, pageQuery, uuid } from "./common";
 
 const optionalNumber = <T extends z.ZodTypeAny>(inner: T) =>
   z.preprocess((v) => (v === "" || v === undefined ? null : v), inner.nullable()).optional();
 
-export const findCreateSchema = z.object({
+/** The fields a find's sheet holds, without defaults: an update names only what it changes. */
+const findFields = {
   contextId: uuid,
   classId: uuid,
   x: metres,
   y: metres,
   z: optionalNumber(metres),
-  count: optionalNumber(z.coerce.number().int().min(1, "A count is at least 1.").max(1_000_000)),
-  weightG: optionalNumber(z.coerce.number().min(0, "A weight cannot be negative.").max(10_000_000)),
-  description: z.string().trim().max(4000).default(""),
+  count: optionalNumber(numeric(z.number({ error: "Enter a count." }).int("A count is a whole number.").min(1, "A count is at least 1.").max(1_000_000))),
+  weightG: optionalNumber(numeric(z.number({ error: "Enter a weight in grams." }).min(0, "A weight cannot be negative.").max(10_000_000))),
+  description: z.string().trim().max(4000),
+};
+
+export const findCreateSchema = z.object({
+  ...findFields,
+  description: findFields.description.default(""),
   method: z.enum(["plan", "typed", "imported"]).default("typed"),
 });
 
-export const findUpdateSchema = findCreateSchema.omit({ method: true }).partial();
+/** No defaults here: a field left out stays as it is. */
+export const findUpdateSchema = z.object(findFields).partial();
 
 export const findSortKeys = ["number", "recordedAt", "trench", "context", "class", "recorder", "x", "y", "z"] as const;
 

@@ -1,6 +1,6 @@
 import proj4 from "proj4";
 import { z } from "zod";
-import { roleSchema } from "./common";
+import { numeric, roleSchema } from "./common";
 
 /** True when proj4 can read the definition and it is a projection in metres (not longitude/latitude). */
 function isProjectedDefinition(def: string): boolean {
@@ -12,7 +12,7 @@ function isProjectedDefinition(def: string): boolean {
   }
 }
 
-export const siteCreateSchema = z.object({
+const siteFields = {
   code: z
     .string()
     .trim()
@@ -20,9 +20,9 @@ export const siteCreateSchema = z.object({
     .max(20)
     .regex(/^[A-Za-z0-9-]+$/, "Use letters, digits and hyphens only."),
   name: z.string().trim().min(1, "Give the site a name.").max(200),
-  gridDescription: z.string().trim().max(2000).default(""),
-  gridOriginX: z.coerce.number().finite().default(0),
-  gridOriginY: z.coerce.number().finite().default(0),
+  gridDescription: z.string().trim().max(2000),
+  gridOriginX: numeric(z.number({ error: "Enter the origin's easting in metres." }).finite()),
+  gridOriginY: numeric(z.number({ error: "Enter the origin's northing in metres." }).finite()),
   crs: z
     .string()
     .trim()
@@ -30,9 +30,17 @@ export const siteCreateSchema = z.object({
     .transform((v) => (v === "" ? null : v))
     .nullish()
     .refine((v) => !v || isProjectedDefinition(v), "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m)."),
+};
+
+export const siteCreateSchema = z.object({
+  ...siteFields,
+  gridDescription: siteFields.gridDescription.default(""),
+  gridOriginX: siteFields.gridOriginX.default(0),
+  gridOriginY: siteFields.gridOriginY.default(0),
 });
 
-export const siteUpdateSchema = siteCreateSchema.omit({ code: true }).partial();
+/** No defaults here: a field left out stays as it is. The code never changes. */
+export const siteUpdateSchema = z.object(siteFields).omit({ code: true }).partial();
 
 export const memberRoleSchema = z.object({ role: roleSchema });
 

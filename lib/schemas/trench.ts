@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { metres } from "./common";
+import { metres, numeric } from "./common";
 
 const position = z.tuple([metres, metres]);
 const ring = z.array(position).min(3, "A ring needs at least 3 vertices.");
@@ -10,14 +10,17 @@ export const polygonSchema = z.object({
   coordinates: z.array(ring).min(1, "An outline needs its outer ring."),
 });
 
-export const trenchCreateSchema = z.object({
+const trenchFields = {
   code: z.string().trim().min(1, "Give the trench a code.").max(20),
-  name: z.string().trim().max(200).default(""),
+  name: z.string().trim().max(200),
   outline: polygonSchema,
-  maxDepth: z.coerce.number().min(0).max(100).nullish(),
-});
+  maxDepth: numeric(z.number({ error: "Enter a depth in metres." }).min(0).max(100)).nullish(),
+};
 
-export const trenchUpdateSchema = trenchCreateSchema.partial();
+export const trenchCreateSchema = z.object({ ...trenchFields, name: trenchFields.name.default("") });
+
+/** No defaults here: a field left out stays as it is. */
+export const trenchUpdateSchema = z.object(trenchFields).partial();
 
 export type TrenchCreate = z.infer<typeof trenchCreateSchema>;
 export type TrenchUpdate = z.infer<typeof trenchUpdateSchema>;

@@ -1,0 +1,160 @@
+import fc from "fast-check";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import { contextTypes } from "@/lib/schemas/context";
+import { symbolShapes } from "@/lib/schemas/artefact-class";
+import { roles } from "@/lib/schemas/common";
+import * as siteRoute from "@/app/api/sites/[siteId]/route";
+import * as memberRoute from "@/app/api/sites/[siteId]/members/[userId]/route";
+import * as classRoute from "@/app/api/sites/[siteId]/classes/[classId]/route";
+import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
+import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
+import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
+import { makeSite, makeUser, type SiteFixture } from "./fixtures";
+
+export type UpdateFixture = SiteFixture & { alt: { contextId: string; classId: string } };
+
+let counter = 0;
+const unique = () => ++counter;
+
+/** A record ready to change: its route's path parameters and a way to read its stored row back. */
+export type Target = { params: Record<string, string>; read: () => Promise<Record<string, unknown>> };
+
+/**
+ * Every catalogued update (PATCH) as a test drives it: the route, a fresh record to change on a site, and
+ * for each field its schema names, generated valid values (already trimmed and in range, so the stored
+ * value equals the value sent).
+ */
+export type Updatable = {
+  mod: any;
+  target: (fx: SiteFixture) => Promise<Target>;
+  fields: (fx: UpdateFixture) => Record<string, fc.Arbitrary<unknown>>;
+};
+
+const text = (max = 40) => fc.string({ maxLength: max }).map((s) => s.trim());
+const label = fc.string({ minLength: 1, maxLength: 30 }).map((s) => s.trim()).filter((s) => s.length > 0);
+/** Decimals with three places, never -0 (JSON writes -0 as 0). */
+const decimal = (min: number, max: number) => fc.integer({ min: min * 1000, max: max * 1000 }).map((n) => n / 1000 + 0);
+const rectangle = (x0: number, y0: number) =>
+  fc.record({ x: decimal(x0, x0 + 5), y: decimal(y0, y0 + 5), w: decimal(1, 20), h: decimal(1, 20) }).map(({ x, y, w, h }) => ({
+    type: "Polygon" as const,
+    coordinates: [[[x, y], [x + w, y], [x + w, y + h], [x, y + h], [x, y]]],
+  }));
+const utm30 = "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs";
+
+async function rowOf(table: any, id: string) {
+  const db = await getDb();
+  const [row] = await db.select().from(table).where(eq(table.id, id));
+  return row as Record<string, unknown>;
+}
+
+export const updatables: Record<string, Updatable> = {
+  siteUpdate: {
+    mod: siteRoute,
+    target: async (fx) => ({ params: { siteId: fx.site.id }, read: () => rowOf(schema.sites, fx.site.id) }),
+    fields: () => ({
+      name: label,
+      gridDescription: text(),
+      gridOriginX: decimal(-1000, 1000),
+      gridOriginY: decimal(-1000, 1000),
+      crs: fc.constantFrom(null, utm30),
+    }),
+  },
+  memberUpdate: {
+    mod: memberRoute,
+    target: async (fx) => {
+      const u = await makeUser("Member");
+      const db = await getDb();
+      await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: u.id, role: "digger" });
+      return {
+        params: { siteId: fx.site.id, userId: u.id },
+        read: async () => {
+          const [row] = await db.select().from(schema.memberships).where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, u.id)));
+          return row as Record<string, unknown>;
+        },
+      };
+    },
+    fields: () => ({ role: fc.constantFrom(...roles) }),
+  },
+  classUpdate: {
+    mod: classRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [c] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `K${unique()}`, label: "Sherd", colour: "#009e73", symbol: "disc" }).returning();
+      return { params: { siteId: fx.site.id, classId: c.id }, read: () => rowOf(schema.artefactClasses, c.id) };
+    },
+    fields: () => ({
+      code: fc.integer({ min: 0, max: 99 }).map((k) => `K${unique()}_${k}`),
+      label,
+      material: text(),
+      colour: fc.integer({ min: 0, max: 0xffffff }).map((n) => `#${n.toString(16).padStart(6, "0")}`),
+      symbol: fc.constantFrom(...symbolShapes),
+      humanRemains: fc.boolean(),
+    }),
+  },
+  trenchUpdate: {
+    mod: trenchRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [t] = await db.insert(schema.trenches).values({ siteId: fx.site.id, code: `U${unique()}`, outline: { type: "Polygon", coordinates: [[[0, 0], [5, 0], [5, 5], [0, 5], [0, 0]]] } }).returning();
+      return { params: { siteId: fx.site.id, trenchId: t.id }, read: () => rowOf(schema.trenches, t.id) };
+    },
+    fields: () => ({
+      code: fc.integer({ min: 0, max: 99 }).map((k) => `U${unique()}-${k}`),
+      name: text(),
+      outline: rectangle(0, 0),
+      maxDepth: fc.option(decimal(0, 100), { nil: null }),
+    }),
+  },
+  contextUpdate: {
+    mod: contextRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [c] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 300_000 + unique(), type: "fill" }).returning();
+      return { params: { siteId: fx.site.id, contextId: c.id }, read: () => rowOf(schema.contexts, c.id) };
+    },
+    fields: () => ({
+      number: fc.integer({ min: 0, max: 999 }).map((k) => 1_000_000 + unique() * 1000 + k),
+      type: fc.constantFrom(...contextTypes),
+      colour: text(),
+      compaction: text(),
+      composition: text(),
+      inclusions: text(),
+      description: text(),
+      interpretation: text(),
+      extent: fc.option(rectangle(0, 0), { nil: null }),
+    }),
+  },
+  findUpdate: {
+    mod: findRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [f] = await db
+        .insert(schema.finds)
+        .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 500_000 + unique(), x: 1, y: 1, method: "typed" })
+        .returning();
+      return { params: { siteId: fx.site.id, findId: f.id }, read: () => rowOf(schema.finds, f.id) };
+    },
+    fields: (fx) => ({
+      contextId: fc.constantFrom(fx.context.id, fx.alt.contextId),
+      classId: fc.constantFrom(fx.cls.id, fx.alt.classId),
+      // Inside trench A (10 × 6 m) and clear of its baulk (x 4–6, y 2–3).
+      x: decimal(0.5, 3.5),
+      y: decimal(0.5, 5.5),
+      z: fc.option(decimal(-5, 50), { nil: null }),
+      count: fc.option(fc.integer({ min: 1, max: 1000 }), { nil: null }),
+      weightG: fc.option(decimal(0, 5000), { nil: null }),
+      description: text(),
+    }),
+  },
+};
+
+/** A site (makeSite) with a second context in trench A and a second class, so a find can move between them. */
+export async function makeUpdateSite(): Promise<UpdateFixture> {
+  const fx = await makeSite();
+  const db = await getDb();
+  const [ctx] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 400_000 + unique(), type: "deposit" }).returning();
+  const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `ALT${unique()}`, label: "Burnt bone", colour: "#d55e00", symbol: "square" }).returning();
+  return { ...fx, alt: { contextId: ctx.id, classId: cls.id } };
+}
