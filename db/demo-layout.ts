@@ -1,6 +1,4 @@
-import { createWindow } from "@/lib/spatial/window";
-import { createRandom, type Random } from "@/lib/spatial/random";
-import type { Window, WindowInput } from "@/lib/spatial/types";
+import { createWindow, createRandom, type Random, type Window, type WindowInput } from "@/lib/spatial";
 
 /**
  * Seeded layouts of the demo site's finds (invented data, for the demo only): a clustered class, one that

@@ -1,8 +1,7 @@
 import sharp from "sharp";
 import { fitPhoto, type ControlPoint } from "@/lib/geometry/photo-fit";
 import type { StoredFit } from "@/lib/geometry/photo-fit-input";
-import type { Ring } from "@/lib/spatial/types";
-import { createRandom } from "@/lib/spatial/random";
+import { type Ring, createRandom } from "@/lib/spatial";
 
 /**
  * A synthetic vertical photo of a trench for the demo (invented imagery, for the demo only): soil drawn

@@ -3,7 +3,7 @@ import type { Db } from "./client";
 import * as s from "./schema";
 import { hashPassword } from "@/lib/server/passwords";
 import { windowToPolygon } from "@/lib/geometry/outline";
-import { DEMO_TRENCH } from "@/lib/spatial/demo-window";
+import { DEMO_TRENCH } from "@/lib/spatial";
 import { clusteredLayout, createRandom, evenLayout, randomLayout, windowOf, type Pt } from "./demo-layout";
 
 /** The invented demo site. Every name here is made up. */

@@ -41,8 +41,7 @@ async function prepare(): Promise<void> {
   const { seedDemo } = await import("../db/seed-demo");
   const { eq, and } = await import("drizzle-orm");
   const { checkOutline } = await import("../lib/geometry/outline");
-  const { createWindowSampler } = await import("../lib/spatial/sample-window");
-  const { createRandom } = await import("../lib/spatial/random");
+  const { createWindowSampler, createRandom } = await import("../lib/spatial");
   const db = await getDb();
   const { siteId } = await seedDemo(db);
   const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));

@@ -38,8 +38,7 @@ async function main() {
   const { seedDemo, DEMO_USERS } = await import("../db/seed-demo");
   const { and, eq } = await import("drizzle-orm");
   const { checkOutline } = await import("../lib/geometry/outline");
-  const { createWindowSampler } = await import("../lib/spatial/sample-window");
-  const { createRandom } = await import("../lib/spatial/random");
+  const { createWindowSampler, createRandom } = await import("../lib/spatial");
   const findsRoute = await import("../app/api/sites/[siteId]/finds/route");
   const importRoute = await import("../app/api/sites/[siteId]/import/route");
   const previewRoute = await import("../app/api/sites/[siteId]/import/preview/route");

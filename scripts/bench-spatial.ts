@@ -14,16 +14,8 @@ import { execFileSync, spawnSync } from "node:child_process";
 import { mkdirSync, writeFileSync } from "node:fs";
 import { availableParallelism, cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
-import { DEMO_TRENCH } from "../lib/spatial/demo-window";
-import { kFunction } from "../lib/spatial/k-function";
-import { createIsotropicL } from "../lib/spatial/l-isotropic";
-import { createSimulationPool } from "../lib/spatial/pool";
-import { createRandom } from "../lib/spatial/random";
-import { defaultRGrid } from "../lib/spatial/r-grid";
-import { runDistributionTest } from "../lib/spatial/run-test";
-import { createWindowSampler } from "../lib/spatial/sample-window";
-import { ENGINE_VERSION } from "../lib/spatial/version";
-import { createWindow } from "../lib/spatial/window";
+import { DEMO_TRENCH, kFunction, createIsotropicL, createRandom, defaultRGrid, runDistributionTest, createWindowSampler, ENGINE_VERSION, createWindow } from "../lib/spatial";
+import { createSimulationPool } from "../lib/spatial/simulation/pool";
 
 const NSIM = 999;
 const quick = process.argv.includes("--quick");

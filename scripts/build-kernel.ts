@@ -1,4 +1,4 @@
-/** `npm run build:kernel`: rebuild lib/spatial/isotropic-scan-wasm.ts from the AssemblyScript source. */
+/** `npm run build:kernel`: rebuild lib/spatial/kernel/isotropic-scan-wasm.ts from the AssemblyScript source. */
 import { writeFileSync } from "node:fs";
 import { compileKernel, KERNEL_MODULE, renderKernelModule } from "./kernel-build";
 

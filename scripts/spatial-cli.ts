@@ -5,8 +5,7 @@
  * format is described in docs/spatial-cli.md.
  */
 import { readFileSync } from "node:fs";
-import { SpatialInputError } from "../lib/spatial/errors";
-import { runDistributionTest } from "../lib/spatial/run-test";
+import { SpatialInputError, runDistributionTest } from "../lib/spatial";
 
 async function readInput(path: string | undefined): Promise<string> {
   if (path && path !== "-") return readFileSync(path, "utf8");

@@ -3,7 +3,7 @@
  * is the trench edge, further rings are holes. Pure functions, so the canvas and the tests share them.
  */
 import Papa from "papaparse";
-import { firstSelfContact, insideRing, ringsTouch } from "@/lib/spatial/ring";
+import { firstSelfContact, insideRing, ringsTouch } from "@/lib/spatial";
 import type { OutlinePolygon } from "./outline";
 
 export type Pt = [number, number];

@@ -1,6 +1,4 @@
-import { createWindow } from "@/lib/spatial/window";
-import { SpatialInputError } from "@/lib/spatial/errors";
-import type { Window } from "@/lib/spatial/types";
+import { createWindow, SpatialInputError, type Window } from "@/lib/spatial";
 
 /** A GeoJSON Polygon in site-grid metres: first ring the trench edge, further rings holes. */
 export type OutlinePolygon = { type: "Polygon"; coordinates: [number, number][][] };

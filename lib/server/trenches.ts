@@ -4,7 +4,7 @@ import type { Db, Tx } from "@/db/client";
 import { contexts, finds, trenches, type Trench } from "@/db/schema";
 import { checkOutline, windowToPolygon, type OutlinePolygon } from "@/lib/geometry/outline";
 import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
-import type { Window } from "@/lib/spatial/types";
+import type { Window } from "@/lib/spatial";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
 import { assertContextsWritable, assertTrenchWritable } from "./locks";

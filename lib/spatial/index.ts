@@ -32,21 +32,27 @@
  *   translationPairWeights / translationWeight / setCovariance (Ohser 1983, exact polygon overlap)
  *   gaussianEdgeMass(window, x, y, σ) (kernel mass inside W)
  *
- * Simulation, envelopes and global tests (random.ts, sample-window.ts, simulate.ts, envelope.ts,
- * global-test.ts, rank-envelope.ts, l-isotropic.ts) are re-exported below as well.
+ * Simulation, envelopes and global tests (random/, simulation/, envelopes/, kernel/l-isotropic.ts) and the
+ * run (run/: spec, tests, verdicts, cautions) are re-exported below as well.
+ *
+ * Folders, one concept each, tests beside the code: geometry/ (window, rings, edge corrections, neighbours),
+ * random/ (seeded streams, sampling in a window), estimators/ (K, L, g, cross-K, K_inhom, intensity,
+ * Clark–Evans, quadrats, the r grid), envelopes/ (bands and global tests), simulation/ (null models as data,
+ * chunks of simulations), kernel/ (the cell grid and the isotropic scan with its WebAssembly build), run/
+ * (the run spec, its tests, verdicts and cautions). Code outside lib/spatial imports this file only.
  */
 export * from "./types";
 export * from "./errors";
-export { createWindow, rectangleWindow } from "./window";
-export { checkPattern, type PatternCheck } from "./pattern";
-export { pairsWithin, pairsBetween, nearestNeighbourDistances, type PairList } from "./neighbours";
-export { defaultRGrid, defaultRMax, checkRGrid, createBinning, isAxisRectangle, type Binning, type RGridOptions } from "./r-grid";
-export { isotropicPairWeights, isotropicCrossWeights, isotropicWeight, isotropicEdgeData, isotropicWeightAt } from "./edge-isotropic";
-export { translationPairWeights, translationWeight, setCovariance } from "./edge-translation";
-export { kFunction, lFunction, kToL, type KOptions, type KResult, type LResult } from "./k-function";
-export { crossK, dotK, kDifference, type CrossKOptions, type CrossKResult, type KDifferenceResult } from "./cross-k";
-export { pairCorrelation, type PairCorrelationOptions, type PairCorrelationResult } from "./pair-correlation";
-export { clarkEvans, meanNearestNeighbour, CLARK_EVANS_SE_CONSTANT, type Alternative, type ClarkEvansResult } from "./clark-evans";
+export { createWindow, rectangleWindow } from "./geometry/window";
+export { checkPattern, type PatternCheck } from "./geometry/pattern";
+export { pairsWithin, pairsBetween, nearestNeighbourDistances, type PairList } from "./geometry/neighbours";
+export { defaultRGrid, defaultRMax, checkRGrid, createBinning, isAxisRectangle, type Binning, type RGridOptions } from "./estimators/r-grid";
+export { isotropicPairWeights, isotropicCrossWeights, isotropicWeight, isotropicEdgeData, isotropicWeightAt } from "./geometry/edge-isotropic";
+export { translationPairWeights, translationWeight, setCovariance } from "./geometry/edge-translation";
+export { kFunction, lFunction, kToL, type KOptions, type KResult, type LResult } from "./estimators/k-function";
+export { crossK, dotK, kDifference, type CrossKOptions, type CrossKResult, type KDifferenceResult } from "./estimators/cross-k";
+export { pairCorrelation, type PairCorrelationOptions, type PairCorrelationResult } from "./estimators/pair-correlation";
+export { clarkEvans, meanNearestNeighbour, CLARK_EVANS_SE_CONSTANT, type Alternative, type ClarkEvansResult } from "./estimators/clark-evans";
 export {
   quadratTest,
   createQuadratLayout,
@@ -55,8 +61,8 @@ export {
   type QuadratCell,
   type QuadratLayout,
   type QuadratResult,
-} from "./quadrat";
-export { gaussianEdgeMass } from "./kernel-mass";
+} from "./estimators/quadrat";
+export { gaussianEdgeMass } from "./geometry/kernel-mass";
 export {
   intensityAtPoints,
   densityGrid,
@@ -65,14 +71,26 @@ export {
   type IntensityOptions,
   type KernelEdge,
   type PointIntensity,
-} from "./intensity";
-export { kInhom, type KInhomOptions, type KInhomResult } from "./k-inhom";
-export { diggleBandwidth, type DiggleBandwidth } from "./bandwidth";
+} from "./estimators/intensity";
+export { kInhom, type KInhomOptions, type KInhomResult } from "./estimators/k-inhom";
+export { diggleBandwidth, type DiggleBandwidth } from "./estimators/bandwidth";
 
-export * from "./random";
-export * from "./sample-window";
-export * from "./simulate";
-export * from "./envelope";
-export * from "./global-test";
-export * from "./rank-envelope";
-export * from "./l-isotropic";
+export * from "./random/random";
+export * from "./random/sample-window";
+export * from "./simulation/simulate";
+export * from "./envelopes/envelope";
+export * from "./envelopes/global-test";
+export * from "./envelopes/rank-envelope";
+export * from "./kernel/l-isotropic";
+
+// Simulation models as data, and the runs that the app, the command line and the workers start
+export { fixedACurve, labellingCurve } from "./simulation/sim-classes";
+export type { EdgeCorrection, PixelIntensity, SimChunk, SimModel, SimSetup } from "./simulation/sim-models";
+export { monteCarloRankPValue } from "./run/run-classic-tests";
+export { parseRunSpec, runSpecSchema, type RunSpec, type RunSpecInput, type TestSpec } from "./run/run-spec";
+export { runDistributionTest, SMALL_RUN, type RunOptions, type RunResult, type TestResult } from "./run/run-test";
+export { ENGINE_VERSION } from "./version";
+
+// Outline helpers shared with the plan editor, and the demo trench
+export { clippedRingArea, firstSelfContact, insideRing, ringsTouch } from "./geometry/ring";
+export { DEMO_TRENCH } from "./geometry/demo-window";

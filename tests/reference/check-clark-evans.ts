@@ -1,7 +1,5 @@
 /** Shared check of the engine's Clark–Evans test against a fixture (trench and dataset tests). */
-import { clarkEvans } from "@/lib/spatial/clark-evans";
-import { createWindow } from "@/lib/spatial/window";
-import type { Window } from "@/lib/spatial/types";
+import { clarkEvans, createWindow, type Window } from "@/lib/spatial";
 import { expectClose, source, type Fixture } from "./fixture";
 
 export function windowOf(fx: Fixture): Window {

@@ -6,11 +6,8 @@
  * of fixture.ts; with A fixed the observed MAD statistic is deterministic and checked to 1e-6.
  */
 import { describe, expect, it } from "vitest";
-import { runSimulations } from "@/lib/spatial/pool";
-import { globalTest, type GlobalStatistic } from "@/lib/spatial/global-test";
-import { createRandom } from "@/lib/spatial/random";
-import { fixedACurve, labellingCurve } from "@/lib/spatial/sim-classes";
-import type { SimModel } from "@/lib/spatial/sim-models";
+import { globalTest, type GlobalStatistic, createRandom, fixedACurve, labellingCurve, type SimModel } from "@/lib/spatial";
+import { runSimulations } from "@/lib/spatial/simulation/pool";
 import { classPoints, expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture } from "./fixture";
 import { windowOf } from "./check-clark-evans";
 

@@ -5,8 +5,7 @@
  * (Hughes' amacrine cells, Diggle 1986, J. Neurosci. Meth. 18:115–125).
  */
 import { describe, expect, it } from "vitest";
-import { createWindow } from "@/lib/spatial/window";
-import { crossK, dotK, kDifference } from "@/lib/spatial/cross-k";
+import { createWindow, crossK, dotK, kDifference } from "@/lib/spatial";
 import { classPoints, expectCurve, fixtureFiles, loadFixture, source, type Fixture } from "./fixture";
 
 const curve = (fx: Fixture, key: string) => fx.cross![key] as (number | null)[];

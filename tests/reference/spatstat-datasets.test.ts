@@ -8,9 +8,7 @@
  *   amacrine — Diggle (1986) J. Neurosci. Meth. 18:115–125: two types (on/off).
  */
 import { describe, expect, it } from "vitest";
-import { clarkEvans } from "@/lib/spatial/clark-evans";
-import { kFunction } from "@/lib/spatial/k-function";
-import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
+import { clarkEvans, kFunction, nearestNeighbourDistances } from "@/lib/spatial";
 import { expectCurve, fixtureFiles, loadFixture, source } from "./fixture";
 import { checkClarkEvans, windowOf } from "./check-clark-evans";
 

@@ -6,14 +6,8 @@
  * another generator's draws; they are checked within a binomial tolerance (argued at `pTolerance`).
  */
 import { describe, expect, it } from "vitest";
-import { createWindow } from "@/lib/spatial/window";
-import { lFunction } from "@/lib/spatial/k-function";
-import { runSimulations } from "@/lib/spatial/pool";
-import { globalTest, type GlobalStatistic } from "@/lib/spatial/global-test";
-import { createRandom } from "@/lib/spatial/random";
-import { meanNearestNeighbour } from "@/lib/spatial/clark-evans";
-import { monteCarloRankPValue } from "@/lib/spatial/run-classic-tests";
-import type { CsrCount } from "@/lib/spatial/simulate";
+import { createWindow, lFunction, globalTest, type GlobalStatistic, createRandom, meanNearestNeighbour, monteCarloRankPValue, type CsrCount } from "@/lib/spatial";
+import { runSimulations } from "@/lib/spatial/simulation/pool";
 import { expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture, type McBlock } from "./fixture";
 
 /** Simulations on the engine's side: more than spatstat's 199 so the engine's own noise is small. */

@@ -5,8 +5,7 @@
  * Fixtures: trench-*.json; relative 1e-6.
  */
 import { describe, it } from "vitest";
-import { createWindow } from "@/lib/spatial/window";
-import { pairCorrelation } from "@/lib/spatial/pair-correlation";
+import { createWindow, pairCorrelation } from "@/lib/spatial";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source } from "./fixture";
 
 describe.each(fixtureFiles("trench-"))("spatstat pair-correlation reference %s", (file) => {

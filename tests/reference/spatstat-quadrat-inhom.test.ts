@@ -8,10 +8,7 @@
  * can represent.
  */
 import { describe, expect, it } from "vitest";
-import { quadratTest } from "@/lib/spatial/quadrat";
-import { intensityAtPoints, scottBandwidth } from "@/lib/spatial/intensity";
-import { kInhom } from "@/lib/spatial/k-inhom";
-import { diggleBandwidth } from "@/lib/spatial/bandwidth";
+import { quadratTest, intensityAtPoints, scottBandwidth, kInhom, diggleBandwidth } from "@/lib/spatial";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source } from "./fixture";
 import { windowOf } from "./check-clark-evans";
 

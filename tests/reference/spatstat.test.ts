@@ -4,9 +4,7 @@
  * written by make-fixtures.R; each expectation's label names spatstat's version, the file and the call.
  */
 import { describe, expect, it } from "vitest";
-import { kFunction, lFunction } from "@/lib/spatial/k-function";
-import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
-import { defaultRGrid } from "@/lib/spatial/r-grid";
+import { kFunction, lFunction, nearestNeighbourDistances, defaultRGrid } from "@/lib/spatial";
 import { expectClose, expectCurve, fixtureFiles, loadFixture, source, type Fixture } from "./fixture";
 import { checkClarkEvans, windowOf } from "./check-clark-evans";
 

@@ -1,4 +1,4 @@
-import type { Window } from "@/lib/spatial/types";
+import type { Window } from "@/lib/spatial";
 
 /**
  * Default largest distance: a quarter of the trench's short side (of its bounding box). Ripley's (1988)

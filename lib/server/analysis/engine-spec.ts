@@ -1,10 +1,9 @@
 /**
  * From a Loamwork run (scope read from the database, tests, parameters) to the engine's JSON run spec
- * (lib/spatial/run-spec.ts; docs/spatial-cli.md). Classes are named by their site code in the spec.
+ * (lib/spatial/run/run-spec.ts; docs/spatial-cli.md). Classes are named by their site code in the spec.
  * Each engine test remembers which Loamwork test and class it came from, so results map back.
  */
-import type { RunSpecInput } from "@/lib/spatial/run-spec";
-import type { Window } from "@/lib/spatial/types";
+import type { RunSpecInput, Window } from "@/lib/spatial";
 import { R_COUNT } from "./defaults";
 import type { Correction, RunTest } from "./run-schema";
 

@@ -3,9 +3,7 @@
  * grid with counts (cells clipped to the trench, as the test uses them) and a kernel density for the heat
  * layer on the plan. Built from engine primitives; no database.
  */
-import { nearestNeighbourDistances } from "@/lib/spatial/neighbours";
-import { clippedRingArea } from "@/lib/spatial/ring";
-import type { Window } from "@/lib/spatial/types";
+import { nearestNeighbourDistances, clippedRingArea, type Window } from "@/lib/spatial";
 import type { DensityOut, QuadratCell } from "./result-types";
 
 export type Pts = { x: number[]; y: number[] };

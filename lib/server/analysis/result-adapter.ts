@@ -1,10 +1,9 @@
 /**
- * The engine's run result (lib/spatial/run-test.ts) turned into Loamwork's stored result: curves as
+ * The engine's run result (lib/spatial/run/run-test.ts) turned into Loamwork's stored result: curves as
  * L(r) − r (0 under CSR) ready to plot, verdict words, the sentence to quote, the question each test
  * answered, the cautions, and the pictures that are not tests (NN histogram, quadrat grid, heat layer).
  */
-import type { RunResult as EngineResult, TestResult as EngineTest } from "@/lib/spatial/run-test";
-import type { Window } from "@/lib/spatial/types";
+import type { RunResult as EngineResult, TestResult as EngineTest, Window } from "@/lib/spatial";
 import type { SpecClass, SpecEntry, SpecFind } from "./engine-spec";
 import { quadratGrid } from "./engine-spec";
 import { kernelDensity, nnHistogram, quadratCells, type Pts } from "./plot-data";

@@ -3,7 +3,7 @@ import { randomInt } from "node:crypto";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { analysisRuns, type AnalysisRun } from "@/db/schema";
-import { ENGINE_VERSION } from "@/lib/spatial/version";
+import { ENGINE_VERSION } from "@/lib/spatial";
 import { recordAudit } from "../audit";
 import { badInput, conflict, notFound } from "../errors";
 import type { SiteActor } from "../membership";

@@ -4,7 +4,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contextRelations, contexts, finds, trenches, type ArtefactClass, type Context, type Trench } from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
-import type { Window } from "@/lib/spatial/types";
+import type { Window } from "@/lib/spatial";
 import { badInput, notFound } from "../errors";
 import { canonicalJson } from "./canonical-json";
 import type { RunScope } from "./run-schema";

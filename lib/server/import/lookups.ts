@@ -4,7 +4,7 @@ import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
-import type { Window } from "@/lib/spatial/types";
+import type { Window } from "@/lib/spatial";
 
 export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null; submittedBy: string | null; submittedAt: Date | null };
 export type TrenchWindow = { code: string; window: Window | null; problem?: string };

@@ -1,7 +1,7 @@
 import "server-only";
 import { getDb } from "@/db/client";
 import { env } from "@/lib/env";
-import { createSimulationPool, type SimulationPool } from "@/lib/spatial/pool";
+import { createSimulationPool, type SimulationPool } from "@/lib/spatial/simulation/pool";
 import { executeRun } from "../analysis/execute-run";
 import { failStale } from "../analysis/run-rows";
 import { openBoss, RUN_EXPIRE_SECONDS, workRuns } from "./pg-queue";

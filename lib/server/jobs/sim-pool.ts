@@ -1,8 +1,7 @@
 import "server-only";
 import path from "node:path";
-import { createSimulationPool, type SimulationPool } from "@/lib/spatial/pool";
-import { createRandom } from "@/lib/spatial/random";
-import { runDistributionTest } from "@/lib/spatial/run-test";
+import { createRandom, runDistributionTest } from "@/lib/spatial";
+import { createSimulationPool, type SimulationPool } from "@/lib/spatial/simulation/pool";
 
 /**
  * The engine's worker-thread pool of this process, created once. The worker file is named by its path in
@@ -12,7 +11,7 @@ import { runDistributionTest } from "@/lib/spatial/run-test";
 const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool; warm?: Promise<void> };
 
 export function simulationPool(): SimulationPool {
-  holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "spatial", "worker-entry.mjs") });
+  holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "spatial", "simulation", "worker-entry.mjs") });
   return holder.pool;
 }
 

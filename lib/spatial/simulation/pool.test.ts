@@ -1,0 +1,59 @@
+import { afterAll, describe, expect, test } from "vitest";
+import { DEMO_TRENCH } from "../geometry/demo-window";
+import { createSimulationPool, runSimulations } from "./pool";
+import { defaultRGrid } from "../estimators/r-grid";
+import type { SimSetup } from "./sim-models";
+import { createWindow } from "../geometry/window";
+
+const r = Array.from(defaultRGrid(createWindow(DEMO_TRENCH), 200, { count: 65 }));
+const setup: SimSetup = { window: DEMO_TRENCH, r, model: { kind: "csr-l", n: 200, count: "poisson", correction: "isotropic" } };
+const one = createSimulationPool({ threads: 1 });
+const two = createSimulationPool({ threads: 2 });
+afterAll(async () => {
+  await Promise.all([one.destroy(), two.destroy()]);
+});
+
+describe("simulation pool", () => {
+  test("the same seed gives identical curves in this thread, on 1 worker and on 2 workers", async () => {
+    const opts = { seed: 99, streamBase: 1, nsim: 40 };
+    const local = await runSimulations(setup, { ...opts, pool: null });
+    const a = await runSimulations(setup, { ...opts, pool: one, chunks: 3 });
+    const b = await runSimulations(setup, { ...opts, pool: two, chunks: 7 });
+    expect(local.m).toBe(r.length);
+    expect(Array.from(a.sims)).toEqual(Array.from(local.sims));
+    expect(Array.from(b.sims)).toEqual(Array.from(local.sims));
+    const other = await runSimulations(setup, { ...opts, seed: 100, pool: two });
+    expect(Array.from(other.sims)).not.toEqual(Array.from(local.sims));
+  });
+
+  test("progress rises to exactly 1", async () => {
+    const seen: number[] = [];
+    await runSimulations(setup, { seed: 1, streamBase: 1, nsim: 30, pool: two, onProgress: (f) => seen.push(f) });
+    expect(seen.length).toBeGreaterThan(1);
+    expect(seen[seen.length - 1]).toBe(1);
+    for (let k = 1; k < seen.length; k++) expect(seen[k]).toBeGreaterThan(seen[k - 1]);
+  });
+
+  test("an abort stops the run and rejects with an AbortError, in a worker and in this thread", async () => {
+    // 4000 simulations of 1500 points would take minutes; the run is aborted at its first progress report
+    const big: SimSetup = { ...setup, model: { kind: "csr-l", n: 1500, count: "fixed", correction: "isotropic" } };
+    for (const pool of [two, null]) {
+      const controller = new AbortController();
+      let reports = 0;
+      const run = runSimulations(big, {
+        seed: 1, streamBase: 1, nsim: 4000, pool, chunks: 400, signal: controller.signal,
+        onProgress: () => { reports++; controller.abort(); },
+      });
+      await expect(run).rejects.toMatchObject({ name: "AbortError" });
+      expect(reports).toBeLessThan(10);
+    }
+    // the pool still works after a cancelled run (its threads were never stopped)
+    const after = await runSimulations(setup, { seed: 99, streamBase: 1, nsim: 4, pool: two });
+    expect(after.s).toBe(4);
+  }, 60_000);
+
+  test("an input error inside a worker comes back as a clear error", async () => {
+    const bad: SimSetup = { ...setup, model: { kind: "inhom-l", lambda: { nx: 1, ny: 1, minX: 0, minY: 0, dx: 20, dy: 20, values: [Number.NaN] } } };
+    await expect(runSimulations(bad, { seed: 1, streamBase: 1, nsim: 2, pool: two })).rejects.toThrow(/intensity value is NaN/);
+  });
+});
