@@ -15,7 +15,7 @@ import { mkdirSync, writeFileSync } from "node:fs";
 import { availableParallelism, cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { DEMO_TRENCH, kFunction, createIsotropicL, createRandom, defaultRGrid, runDistributionTest, createWindowSampler, ENGINE_VERSION, createWindow } from "../lib/spatial";
-import { createSimulationPool } from "../lib/spatial/simulation/pool";
+import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 const NSIM = 999;
 const quick = process.argv.includes("--quick");

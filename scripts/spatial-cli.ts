@@ -6,6 +6,7 @@
  */
 import { readFileSync } from "node:fs";
 import { SpatialInputError, runDistributionTest } from "../lib/spatial";
+import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 async function readInput(path: string | undefined): Promise<string> {
   if (path && path !== "-") return readFileSync(path, "utf8");
@@ -41,6 +42,7 @@ async function main(): Promise<void> {
   try {
     const result = await runDistributionTest(spec, {
       signal: controller.signal,
+      createPool: (threads) => createSimulationPool({ threads }),
       onProgress: progress ? (f) => process.stderr.write(`progress ${(100 * f).toFixed(0)} %\n`) : undefined,
     });
     process.stdout.write(`${JSON.stringify(result)}\n`);

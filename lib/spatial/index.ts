@@ -83,6 +83,9 @@ export * from "./envelopes/global-test";
 export * from "./envelopes/rank-envelope";
 export * from "./kernel/l-isotropic";
 
+export { runSimulations, type RunSimulationsOptions, type SimulationPool } from "./simulation/run-simulations";
+export { runSimChunk } from "./simulation/sim-chunk";
+
 // Simulation models as data, and the runs that the app, the command line and the workers start
 export { fixedACurve, labellingCurve } from "./simulation/sim-classes";
 export type { EdgeCorrection, PixelIntensity, SimChunk, SimModel, SimSetup } from "./simulation/sim-models";

@@ -6,8 +6,7 @@
  * of fixture.ts; with A fixed the observed MAD statistic is deterministic and checked to 1e-6.
  */
 import { describe, expect, it } from "vitest";
-import { globalTest, type GlobalStatistic, createRandom, fixedACurve, labellingCurve, type SimModel } from "@/lib/spatial";
-import { runSimulations } from "@/lib/spatial/simulation/pool";
+import { runSimulations, globalTest, type GlobalStatistic, createRandom, fixedACurve, labellingCurve, type SimModel } from "@/lib/spatial";
 import { classPoints, expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture } from "./fixture";
 import { windowOf } from "./check-clark-evans";
 

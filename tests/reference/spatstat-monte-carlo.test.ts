@@ -6,8 +6,7 @@
  * another generator's draws; they are checked within a binomial tolerance (argued at `pTolerance`).
  */
 import { describe, expect, it } from "vitest";
-import { createWindow, lFunction, globalTest, type GlobalStatistic, createRandom, meanNearestNeighbour, monteCarloRankPValue, type CsrCount } from "@/lib/spatial";
-import { runSimulations } from "@/lib/spatial/simulation/pool";
+import { runSimulations, createWindow, lFunction, globalTest, type GlobalStatistic, createRandom, meanNearestNeighbour, monteCarloRankPValue, type CsrCount } from "@/lib/spatial";
 import { expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture, type McBlock } from "./fixture";
 
 /** Simulations on the engine's side: more than spatstat's 199 so the engine's own noise is small. */

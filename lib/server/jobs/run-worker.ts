@@ -1,11 +1,12 @@
 import "server-only";
 import { getDb } from "@/db/client";
 import { env } from "@/lib/env";
-import { createSimulationPool, type SimulationPool } from "@/lib/spatial/simulation/pool";
+import type { SimulationPool } from "@/lib/spatial";
 import { executeRun } from "../analysis/execute-run";
 import { failStale } from "../analysis/run-rows";
 import { openBoss, RUN_EXPIRE_SECONDS, workRuns } from "./pg-queue";
 import { warmSimulationPool } from "./sim-pool";
+import { createSimulationPool } from "./thread-pool";
 
 export type RunWorker = { stop: () => Promise<void> };
 

@@ -1,17 +1,17 @@
 import "server-only";
 import path from "node:path";
-import { createRandom, runDistributionTest } from "@/lib/spatial";
-import { createSimulationPool, type SimulationPool } from "@/lib/spatial/simulation/pool";
+import { createRandom, runDistributionTest, type SimulationPool } from "@/lib/spatial";
+import { createSimulationPool } from "./thread-pool";
 
 /**
  * The engine's worker-thread pool of this process, created once. The worker file is named by its path in
- * the source tree: a Next.js server bundles this module, so the engine's own `import.meta.url` default
+ * the source tree: a Next.js server bundles this module, so the pool's own `import.meta.url` default
  * would point inside the bundle, where the worker entry does not exist.
  */
 const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool; warm?: Promise<void> };
 
 export function simulationPool(): SimulationPool {
-  holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "spatial", "simulation", "worker-entry.mjs") });
+  holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "server", "jobs", "sim-worker-entry.mjs") });
   return holder.pool;
 }
 

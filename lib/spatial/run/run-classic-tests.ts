@@ -8,7 +8,7 @@
  * χ² p-value and used as the verdict when some expected count is below 5 (Cochran 1954).
  */
 import { clarkEvans } from "../estimators/clark-evans";
-import { runSimulations } from "../simulation/pool";
+import { runSimulations } from "../simulation/run-simulations";
 import { createQuadratLayout, quadratChiSquare, quadratCounts, quadratTest } from "../estimators/quadrat";
 import { createRandom } from "../random/random";
 import { classPoints, STREAMS_PER_TEST, type RunContext } from "./run-context";

@@ -1,7 +1,7 @@
 /** What every test of a run shares: the window, the parsed spec, the pool, progress and cancellation. */
 import { SpatialInputError } from "../errors";
 import { checkPattern } from "../geometry/pattern";
-import type { SimulationPool } from "../simulation/pool";
+import type { SimulationPool } from "../simulation/run-simulations";
 import type { RunSpec } from "./run-spec";
 import type { Points, Window } from "../types";
 

@@ -4,7 +4,7 @@
  */
 import { pointwiseEnvelope, rankForLevel } from "../envelopes/envelope";
 import { globalTest, type GlobalStatistic } from "../envelopes/global-test";
-import { runSimulations } from "../simulation/pool";
+import { runSimulations } from "../simulation/run-simulations";
 import { createRandom } from "../random/random";
 import { rankEnvelope } from "../envelopes/rank-envelope";
 import { STREAMS_PER_TEST, type RunContext } from "./run-context";

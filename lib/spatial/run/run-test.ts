@@ -5,7 +5,7 @@
  * observed curve leaves the band, and the cautions of statistics.md.
  */
 import { SpatialInputError } from "../errors";
-import { createSimulationPool, defaultThreads, type SimulationPool } from "../simulation/pool";
+import type { SimulationPool } from "../simulation/run-simulations";
 import { GENERAL_CAUTIONS, testCautions } from "./run-cautions";
 import { classicTest } from "./run-classic-tests";
 import type { RunContext } from "./run-context";
@@ -50,8 +50,13 @@ export interface RunResult {
 export interface RunOptions {
   onProgress?: (fraction: number) => void;
   signal?: AbortSignal;
-  /** A long-lived pool to use; without it the run makes its own (spec.workers threads, 0 = this thread). */
+  /** A long-lived pool to use; without it the run makes its own with `createPool`, or runs in this thread. */
   pool?: SimulationPool | null;
+  /**
+   * Starts a pool of `threads` threads (undefined: the pool's default) for this run only, destroyed at its
+   * end; asked when the spec's `workers` is not 0 and the run is not small. The engine starts no threads itself.
+   */
+  createPool?: (threads: number | undefined) => SimulationPool;
 }
 
 /** Finds × simulations below which a run stays in the calling thread unless `workers` is given. */
@@ -76,8 +81,8 @@ export async function runDistributionTest(input: unknown, options: RunOptions = 
   const window = createWindow(spec.window);
   // Starting worker threads costs more than a small run itself; the numbers are the same either way.
   const small = spec.points.length * spec.nsim < SMALL_RUN;
-  const threads = spec.workers ?? (small ? 0 : defaultThreads());
-  const ownPool = options.pool === undefined && threads > 0 ? createSimulationPool({ threads }) : null;
+  const threads = spec.workers ?? (small ? 0 : undefined);
+  const ownPool = options.pool === undefined && threads !== 0 && options.createPool ? options.createPool(threads) : null;
   const pool = options.pool ?? ownPool;
   const results: TestResult[] = [];
   try {

@@ -1,16 +1,9 @@
 /**
- * Simulations over a worker-thread pool (piscina). A run is cut into chunks of consecutive simulation
- * indices; each chunk is one task, its curves come back by structured clone and are placed by index, so the
- * result is the same for any number of threads (and for no pool at all: `runSimulations` without a pool
- * runs the same chunks in this thread, yielding to the event loop between them).
- *
- * Worker threads do not inherit the parent's TypeScript loader, so the default worker file is
- * worker-entry.mjs, which registers tsx in the thread and imports worker.ts. That works under vitest, tsx
- * scripts and plain `node`; a bundled server (Next.js) should pass `workerFile` pointing at a copy of this
- * folder outside the bundle, or at a compiled worker.js.
+ * Simulations cut into chunks of consecutive simulation indices. Each chunk is one task for a pool of
+ * threads (the `SimulationPool` interface; the server's jobs provide one with worker threads) or runs in
+ * this thread, yielding to the event loop between chunks; its curves are placed by index, so the result is
+ * the same for any number of threads and for no pool at all. The engine itself starts no threads.
  */
-import { availableParallelism } from "node:os";
-import { Piscina } from "piscina";
 import type { CurveSet } from "../envelopes/envelope";
 import { SpatialInputError } from "../errors";
 import { runSimChunk } from "./sim-chunk";
@@ -22,35 +15,6 @@ export interface SimulationPool {
   runChunk(chunk: SimChunk): Promise<Float64Array>;
   /** Stop the threads once the chunks they hold are done. */
   destroy(): Promise<void>;
-}
-
-export interface PoolOptions {
-  /** Worker threads (default: min(2, available cores)). */
-  threads?: number;
-  /** Worker module (URL or path); default worker-entry.mjs beside this file. */
-  workerFile?: string | URL;
-}
-
-export function defaultThreads(): number {
-  return Math.max(1, Math.min(2, availableParallelism()));
-}
-
-export function createSimulationPool(options: PoolOptions = {}): SimulationPool {
-  const threads = options.threads ?? defaultThreads();
-  if (!Number.isInteger(threads) || threads < 1 || threads > 64) throw new SpatialInputError(`Worker threads must be 1 to 64; got ${threads}.`);
-  const file = options.workerFile ?? new URL("./worker-entry.mjs", import.meta.url);
-  const piscina = new Piscina({ filename: file instanceof URL ? file.href : file, minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
-  return {
-    threads,
-    async runChunk(chunk) {
-      const out = (await piscina.run(chunk)) as Float64Array | { inputError: string };
-      if (out instanceof Float64Array) return out;
-      throw new SpatialInputError(out.inputError);
-    },
-    // close, not destroy: chunks still in a thread (a cancelled or failed run's last ones) finish first, so
-    // no result arrives for a task the pool has already forgotten
-    destroy: () => piscina.close(),
-  };
 }
 
 export interface RunSimulationsOptions {

@@ -4,9 +4,7 @@
  * megabytes per run at most. An input error is returned as data, because an Error crossing the thread
  * boundary loses its class.
  */
-import { SpatialInputError } from "../errors";
-import { runSimChunk } from "./sim-chunk";
-import type { SimChunk } from "./sim-models";
+import { runSimChunk, SpatialInputError, type SimChunk } from "../../spatial";
 
 export default function simulateChunk(chunk: SimChunk): Float64Array | { inputError: string } {
   try {
