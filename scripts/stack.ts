@@ -16,6 +16,17 @@ export type Stack = { url: string; env: NodeJS.ProcessEnv; stop: () => Promise<v
 
 const root = path.resolve(import.meta.dirname, "..");
 
+/**
+ * The interface the app listens on: 127.0.0.1 unless LOAMWORK_HOST names another (0.0.0.0 for every
+ * interface), so a demo started on a laptop is not open to everyone on the same network by accident.
+ */
+export function listenHost(source: Record<string, string | undefined> = process.env): string {
+  const host = source.LOAMWORK_HOST?.trim();
+  if (!host) return "127.0.0.1";
+  if (!/^[A-Za-z0-9.:-]+$/.test(host)) throw new Error(`LOAMWORK_HOST must be a host name or address, not "${host}"`);
+  return host;
+}
+
 export function ensureBuilt(): void {
   if (existsSync(path.join(root, ".next", "BUILD_ID"))) return;
   const r = spawnSync(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "build"], { cwd: root, stdio: "inherit" });
@@ -85,7 +96,7 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   try {
     await startServices(opts, dataDir, url, env, stops);
     seedDemo(env, opts.quiet);
-    const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(opts.port)], {
+    const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", listenHost(env), "-p", String(opts.port)], {
       cwd: root,
       env,
       stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",

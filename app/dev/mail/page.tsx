@@ -3,17 +3,20 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { env } from "@/lib/env";
 import { readSinkMessages } from "@/lib/server/mail/sink-reader";
+import { pageUser } from "@/lib/server/page-access";
 
 export const metadata: Metadata = { title: "Caught mail (development)" };
 export const dynamic = "force-dynamic";
 
 /**
  * Development only: the messages the local SMTP sink caught (MAIL_SINK_DIR). A production build answers 404
- * unless LOAMWORK_DEV_MAIL=1 (the demo and the browser tests), because mail holds sign-in links.
+ * unless LOAMWORK_DEV_MAIL=1 (the demo and the browser tests), because mail holds sign-in links; and even
+ * then only people signed in to the demo see it, never a passer-by.
  */
 export default async function DevMailPage({ searchParams }: { searchParams: Promise<{ to?: string }> }) {
   const e = env();
   if (e.NODE_ENV === "production" && e.LOAMWORK_DEV_MAIL !== "1") notFound();
+  await pageUser();
   const { to } = await searchParams;
   const all = readSinkMessages(path.resolve(e.MAIL_SINK_DIR));
   const shown = to ? all.filter((m) => m.envelope.to.some((a) => a.toLowerCase() === to.toLowerCase())) : all;
