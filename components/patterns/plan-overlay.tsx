@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useState } from "react";
+import { useCallback, useMemo, useState } from "react";
 import type { RunResult } from "@/lib/server/analysis/result-types";
 import { AfterPaint } from "./after-paint";
 import { PlotFrame } from "./plot-frame";
@@ -36,7 +36,7 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
   const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
   const span = Math.max(maxX - minX, maxY - minY);
   const pad = span * 0.04;
-  const sy = (y: number) => maxY - y;
+  const sy = useCallback((y: number) => maxY - y, [maxY]);
   const path = result.outline.map((ring) => "M" + ring.map(([x, y]) => `${x - minX},${sy(y)}`).join("L") + "Z").join(" ");
   const density = result.density.find((d) => d.classId === classId);
   const peak = density ? Math.max(...density.values) : 1;
@@ -54,12 +54,12 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
       byShade[Math.min(SHADES - 1, Math.round((v / peak) * (SHADES - 1)))].push(`M${x} ${y}h${w}v${h}h${-w}z`);
     });
     return byShade.flatMap((cells, shade) => (cells.length ? [{ shade, d: cells.join(""), fill: ramp(shade / (SHADES - 1)) }] : []));
-  }, [density, peak, minX, maxY]); // eslint-disable-line react-hooks/exhaustive-deps -- sy() reads only maxY
+  }, [density, peak, minX, sy]);
   const finds = useMemo(() => {
     if (!pts) return "";
     const r = n4(span / 220);
     return pts.x.map((x, k) => `M${n4(x - minX - r)} ${n4(sy(pts.y[k]))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`).join("");
-  }, [pts, minX, maxY, span]); // eslint-disable-line react-hooks/exhaustive-deps -- sy() reads only maxY
+  }, [pts, minX, sy, span]);
   const csv = () => (density ? density.values.map((v, k) => ({ x: density.minX + ((k % density.nx) + 0.5) * density.dx, y: density.minY + (Math.floor(k / density.nx) + 0.5) * density.dy, intensity_per_m2: v })) : []);
   return (
     <PlotFrame title={`Plan: ${cls?.code ?? ""} density${quadrat ? " and quadrat counts" : ""}`} name={`plan-${runName}-${cls?.code ?? "class"}`} csv={csv} caption={density ? `Heat: finds per m², ${density.rule}, bandwidth ${density.bandwidth.toFixed(2)} m. Peak ${peak.toFixed(1)} per m².` : undefined}>

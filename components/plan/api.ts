@@ -1,9 +1,13 @@
 /** The plan's JSON calls: errors carry the server's message, field errors and details. */
 export class ApiError extends Error {
-  constructor(message: string, readonly status: number, readonly fieldErrors: Record<string, string[]> = {}, readonly details: any = undefined) {
+  constructor(message: string, readonly status: number, readonly fieldErrors: Record<string, string[]> = {}, readonly details: ErrorDetails | undefined = undefined) {
     super(message);
   }
 }
+
+/** What a refusal carries beside its message: how far outside the trench a find fell, which finds an outline leaves out. */
+type ErrorDetails = { distance?: number; outside?: number[] } & Record<string, unknown>;
+type ErrorBody = { error?: string; fieldErrors?: Record<string, string[]>; details?: ErrorDetails };
 
 export async function apiCall<T>(url: string, init?: { method?: string; body?: unknown }): Promise<T> {
   const res = await fetch(url, {
@@ -12,13 +16,16 @@ export async function apiCall<T>(url: string, init?: { method?: string; body?: u
     body: init?.body === undefined ? undefined : JSON.stringify(init.body),
   });
   const text = await res.text();
-  let json: any = null;
+  let json: unknown = null;
   try {
     json = text ? JSON.parse(text) : null;
   } catch {
     json = null;
   }
-  if (!res.ok) throw new ApiError(json?.error ?? `The server answered ${res.status}.`, res.status, json?.fieldErrors ?? {}, json?.details);
+  if (!res.ok) {
+    const body = json as ErrorBody | null;
+    throw new ApiError(body?.error ?? `The server answered ${res.status}.`, res.status, body?.fieldErrors ?? {}, body?.details);
+  }
   return json as T;
 }
 

@@ -18,9 +18,10 @@ export const FindsList = memo(function FindsList({ finds, classes, selected, onS
   const rest = sorted.filter((f) => !selected.has(f.id)).slice(0, Math.max(0, LIMIT - picked.length));
   const shown = [...picked, ...rest];
   const first = useRef<HTMLButtonElement>(null);
+  const firstPickedId = picked.length ? picked[0].id : null;
   useEffect(() => {
     first.current?.scrollIntoView({ block: "nearest" });
-  }, [picked.length ? picked[0].id : null]);
+  }, [firstPickedId]);
   return (
     <div>
       <p className="mb-2 text-sm text-ink-soft">

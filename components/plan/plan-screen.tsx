@@ -107,10 +107,15 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const [fitError, setFitError] = useState<string | null>(null);
   const [fitting, setFitting] = useState(false);
 
-  useEffect(() => {
+  // The draft points start again from the saved fit whenever another photo or a new fit is shown (state
+  // adjusted while rendering, as React's docs advise, rather than in an effect one render late).
+  const savedFitKey = `${photo?.id ?? ""} ${photo?.fit?.fittedAt ?? ""}`;
+  const [draftFromFit, setDraftFromFit] = useState<string | null>(null);
+  if (draftFromFit !== savedFitKey) {
+    setDraftFromFit(savedFitKey);
     setFitPoints(photo?.fit ? photo.fit.points.map((p) => ({ px: p.px, py: p.py, x: String(p.x), y: String(p.y) })) : []);
     setFitError(null);
-  }, [photo?.id, photo?.fit?.fittedAt]); // eslint-disable-line react-hooks/exhaustive-deps
+  }
 
   useEffect(() => {
     const el = box.current;

@@ -1,7 +1,7 @@
 "use client";
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { useCallback } from "react";
+import { useCallback, useMemo } from "react";
 import { nearestEdge, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import { ApiError, apiCall, fetchAllFinds, type ContextRow, type FindRow } from "./api";
 import type { Refused } from "./draw-marks";
@@ -23,15 +23,18 @@ const num = (s: string) => (s.trim() === "" ? null : Number(s));
 /** The trench's finds (all pages) and the plan's writes to them, each with its undo. */
 export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRings, pushUndo, say }: Deps) {
   const qc = useQueryClient();
-  const key = ["plan-finds", siteId, trenchId];
+  const key = useMemo(() => ["plan-finds", siteId, trenchId], [siteId, trenchId]);
   const query = useQuery({ queryKey: key, queryFn: () => fetchAllFinds(siteId, trenchId), initialData: initialFinds, staleTime: 60_000 });
   const finds = query.data ?? [];
-  const patch = useCallback((fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])), [qc, siteId, trenchId]); // eslint-disable-line react-hooks/exhaustive-deps
+  const patch = useCallback((fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])), [qc, key]);
 
-  const withContext = (row: Omit<FindRow, "contextNumber" | "contextState" | "classCode" | "classLabel" | "recordedBy"> & Partial<FindRow>, classCode: string, classLabel: string): FindRow => {
-    const ctx = contexts.find((c) => c.id === row.contextId);
-    return { recordedBy: null, ...row, contextNumber: ctx?.number ?? 0, contextState: ctx?.state ?? "open", classCode, classLabel } as FindRow;
-  };
+  const withContext = useCallback(
+    (row: Omit<FindRow, "contextNumber" | "contextState" | "classCode" | "classLabel" | "recordedBy"> & Partial<FindRow>, classCode: string, classLabel: string): FindRow => {
+      const ctx = contexts.find((c) => c.id === row.contextId);
+      return { recordedBy: null, ...row, contextNumber: ctx?.number ?? 0, contextState: ctx?.state ?? "open", classCode, classLabel } as FindRow;
+    },
+    [contexts],
+  );
 
   /** Records a find; an outside-trench refusal comes back as the refused mark to draw. */
   const record = useCallback(
@@ -59,7 +62,7 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
         return { ok: false, message: err.message, refused: distance !== null ? { at, nearest: near?.point ?? at, distance } : null };
       }
     },
-    [siteId, savedRings, patch, pushUndo, say], // eslint-disable-line react-hooks/exhaustive-deps
+    [siteId, savedRings, patch, pushUndo, say, withContext],
   );
 
   const move = useCallback(

@@ -53,7 +53,7 @@ function send(res: ServerResponse, status: number, body: unknown, headers: Recor
   res.end(JSON.stringify(body));
 }
 
-async function readJson(req: IncomingMessage): Promise<any> {
+async function readJson(req: IncomingMessage): Promise<Record<string, unknown>> {
   const chunks: Buffer[] = [];
   for await (const c of req) chunks.push(c as Buffer);
   const text = Buffer.concat(chunks).toString("utf8");
@@ -140,7 +140,7 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<{ url
     if (!Array.isArray(body.fileKeys) || typeof body.callbackSlug !== "string") return send(res, 400, { error: "route-metadata needs fileKeys and callbackSlug." });
     const reg: Registration = {
       keys: new Set(body.fileKeys.map(String)),
-      metadata: body.metadata ?? {},
+      metadata: (body.metadata ?? {}) as Record<string, unknown>,
       isDev: Boolean(body.isDev),
       callbackUrl: String(body.callbackUrl ?? ""),
       callbackSlug: body.callbackSlug,

@@ -39,7 +39,7 @@ async function viewAfter(page: Page, before: PlanView): Promise<PlanView> {
 
 describe("trench plan, two-finger gestures on a tablet", () => {
   it("pinches to zoom about the point between the fingers and pans with them", async () => {
-    const { page, t } = await openFreshPlan(browser, "tablet");
+    const { page } = await openFreshPlan(browser, "tablet");
     await page.evaluate(() => window.scrollTo(0, 0));
     const cdp = await page.context().newCDPSession(page);
     const box = (await page.getByTestId("plan-canvas").boundingBox())!;

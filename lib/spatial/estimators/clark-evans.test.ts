@@ -5,7 +5,12 @@ import { CLARK_EVANS_SE_CONSTANT, clarkEvans, meanNearestNeighbour } from "./cla
 // A 4 × 4 lattice of spacing 1 in [0,4]²: every nearest-neighbour distance is 1, λ = 1.
 const square = rectangleWindow(0, 0, 4, 4);
 const lattice = { x: [] as number[], y: [] as number[] };
-for (let i = 0; i < 4; i++) for (let j = 0; j < 4; j++) (lattice.x.push(i + 0.5), lattice.y.push(j + 0.5));
+for (let i = 0; i < 4; i++) {
+  for (let j = 0; j < 4; j++) {
+    lattice.x.push(i + 0.5);
+    lattice.y.push(j + 0.5);
+  }
+}
 
 describe("clarkEvans", () => {
   it("uses Clark & Evans' (1954) constant 0.26136 = √((4−π)/(4π))", () => {

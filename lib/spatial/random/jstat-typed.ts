@@ -2,7 +2,7 @@
  * The part of jstat (a well-known JavaScript statistics library, which ships no type declarations) that
  * the simulation side of the engine uses, with types.
  */
-// @ts-ignore -- jstat has no declarations; this module is the one typed doorway to it.
+// @ts-expect-error -- jstat has no declarations; this module is the one typed doorway to it.
 import jStatUntyped from "jstat";
 
 interface JStatSubset {
