@@ -1,9 +1,11 @@
 #!/usr/bin/env bash
-# The whole test suite (`npm test`): system packages, types, units and integration on PGlite, the same
-# integration suite on a real PostgreSQL server, a production build, and browser tests in Debian's chromium.
+# The whole test suite (`npm test`): system packages, lint (the import boundaries included), types, units and
+# integration on PGlite, the same integration suite on a real PostgreSQL server, a production build, and browser
+# tests in Debian's chromium.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-system.sh
+echo "== lint"; npx eslint --max-warnings 0 .
 echo "== types"; npx tsc --noEmit -p .
 echo "== units and integration (PGlite)"; npx vitest run
 echo "== integration (PostgreSQL)"; bash scripts/with-postgres.sh npx vitest run tests/integration
