@@ -59,6 +59,8 @@ async function startServices(opts: StackOptions, dataDir: string, url: string, e
     UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
     UPLOADTHING_INGEST_URL: uploads.url,
     UPLOADTHING_API_URL: uploads.url,
+    UPLOADTHING_UFS_HOST: uploads.ufs.ufsHost,
+    UPLOADTHING_UFS_APP_ID_LOCATION: uploads.ufs.ufsAppIdLocation,
     UPLOADTHING_IS_DEV: "false",
     UPLOADTHING_CALLBACK_URL: `${url}/api/uploadthing`,
     LOAMWORK_DEV_MAIL: "1",

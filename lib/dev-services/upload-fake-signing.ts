@@ -44,18 +44,39 @@ export type PresignedCheck =
  * raw request target. The signature is the last parameter; everything before it was signed.
  */
 export function checkPresigned(base: string, pathAndQuery: string, token: FakeToken, now = Date.now()): PresignedCheck {
-  const at = pathAndQuery.lastIndexOf("&signature=");
-  if (at < 0) return { ok: false, status: 403, error: "The upload URL carries no signature." };
-  const signed = base + pathAndQuery.slice(0, at);
-  const given = decodeURIComponent(pathAndQuery.slice(at + "&signature=".length));
-  if (!sameSignature(given, sign(signed, token.apiKey))) return { ok: false, status: 403, error: "The upload URL's signature does not match (tampered or signed with another key)." };
-  const url = new URL(signed);
-  const expires = Number(url.searchParams.get("expires"));
-  if (!Number.isFinite(expires) || expires < now) return { ok: false, status: 403, error: "The upload URL has expired." };
+  const checked = checkSignature(base, pathAndQuery, token, now, "upload URL");
+  if (!checked.ok) return checked;
+  const { url } = checked;
   if (url.searchParams.get("x-ut-identifier") !== token.appId) return { ok: false, status: 403, error: "The upload URL names another app." };
   const key = decodeURIComponent(url.pathname.slice(1));
   if (!key || key.includes("/")) return { ok: false, status: 400, error: "The upload URL names no file key." };
   return { ok: true, key, params: url.searchParams };
+}
+
+/**
+ * The signature and expiry of a URL signed with the apiKey (`expires=<ms>&…&signature=hmac-sha256=<hex>` as
+ * the SDK's generateSignedURL writes it); `what` names the URL in the refusal.
+ */
+export function checkSignature(base: string, pathAndQuery: string, token: FakeToken, now: number, what: string): { ok: true; url: URL } | { ok: false; status: 403; error: string } {
+  const at = pathAndQuery.lastIndexOf("&signature=");
+  if (at < 0) return { ok: false, status: 403, error: `The ${what} carries no signature.` };
+  const signed = base + pathAndQuery.slice(0, at);
+  const given = decodeURIComponent(pathAndQuery.slice(at + "&signature=".length));
+  if (!sameSignature(given, sign(signed, token.apiKey))) return { ok: false, status: 403, error: `The ${what}'s signature does not match (tampered or signed with another key).` };
+  const url = new URL(signed);
+  const expires = Number(url.searchParams.get("expires"));
+  if (!Number.isFinite(expires) || expires < now) return { ok: false, status: 403, error: `The ${what} has expired.` };
+  return { ok: true, url };
+}
+
+/**
+ * A stored file's key from a file URL: `/f/<key>` or, as generateSignedURL writes it with the app id in
+ * the path, `/a/<appId>/<key>`. Null for any other path or another app's id.
+ */
+export function fileKeyOf(pathname: string, token: FakeToken): string | null {
+  const m = /^\/(?:f|a\/([^/]+))\/([^/]+)$/.exec(pathname);
+  if (!m || (m[1] !== undefined && decodeURIComponent(m[1]) !== token.appId)) return null;
+  return decodeURIComponent(m[2]);
 }
 
 /** `x-ut-*` values are URI-encoded once by the SDK before URLSearchParams encodes them again. */

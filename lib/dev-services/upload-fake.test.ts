@@ -12,10 +12,13 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createRouteHandler, createUploadthing, type FileRouter } from "uploadthing/next";
 import { UTApi, UTFile } from "uploadthing/server";
-import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "./upload-fake";
+import { FAKE_UPLOADTHING_TOKEN, startUploadFake, type UploadFake } from "./upload-fake";
+import { parseToken } from "./upload-fake-signing";
 
 let dir: string;
-let fake: { url: string; stop(): Promise<void> };
+let fake: UploadFake;
+/** What only the app's server holds. */
+const serverKey = { "x-uploadthing-api-key": parseToken(FAKE_UPLOADTHING_TOKEN).apiKey };
 const completed: { metadata: unknown; name: string; size: number; ufsUrl: string }[] = [];
 
 const f = createUploadthing();
@@ -84,18 +87,40 @@ afterAll(async () => {
 
 describe("UTApi against the fake", () => {
   it("uploads, lists, serves and deletes a file", async () => {
-    const utapi = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, apiUrl: fake.url, logLevel: "Error" });
+    const utapi = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, apiUrl: fake.url, ...fake.ufs, logLevel: "Error" });
     const bytes = pngBytes(5000);
     const up = await utapi.uploadFiles(new UTFile([bytes], "peg-plan.png"));
     expect(up.error).toBeNull();
     expect(up.data!.size).toBe(5000);
-    const served = await fetch(up.data!.ufsUrl);
+    const served = await fetch((await utapi.generateSignedURL(up.data!.key)).ufsUrl);
     expect(served.headers.get("content-type")).toBe("image/png");
     expect(new Uint8Array(await served.arrayBuffer())).toEqual(bytes);
     const listed = await utapi.listFiles();
     expect(listed.files.map((x) => x.key)).toContain(up.data!.key);
     expect(await utapi.deleteFiles(up.data!.key)).toEqual({ success: true, deletedCount: 1 });
-    expect((await fetch(up.data!.ufsUrl)).status).toBe(404);
+    expect((await fetch(up.data!.ufsUrl, { headers: serverKey })).status).toBe(404);
+  });
+
+  it("keeps files private: served on a URL signed with the api key or to the key itself, refused to anyone else", async () => {
+    const utapi = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, apiUrl: fake.url, ...fake.ufs, logLevel: "Error" });
+    const up = await utapi.uploadFiles(new UTFile([pngBytes(3000)], "context-sheet.png"));
+    const key = up.data!.key;
+    // Signed out, with the key the upload reported: no.
+    expect((await fetch(up.data!.ufsUrl)).status).toBe(403);
+    expect((await fetch(`${fake.url}/a/loamwork-local/${encodeURIComponent(key)}`)).status).toBe(403);
+    expect((await fetch(up.data!.ufsUrl, { method: "HEAD" })).status).toBe(403);
+    expect((await fetch(up.data!.ufsUrl, { headers: { "x-uploadthing-api-key": "sk_guessed" } })).status).toBe(403);
+    // The app's own credentials: yes.
+    expect((await fetch(up.data!.ufsUrl, { headers: serverKey })).status).toBe(200);
+    const signed = (await utapi.generateSignedURL(key, { expiresIn: 60 })).ufsUrl;
+    expect((await fetch(signed)).status).toBe(200);
+    // A signed URL bent to another file, or out of date, is refused.
+    const other = (await utapi.uploadFiles(new UTFile([pngBytes(2000)], "other.png"))).data!.key;
+    expect((await fetch(signed.replace(encodeURIComponent(key), encodeURIComponent(other)))).status).toBe(403);
+    const stale = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ...fake.ufs, logLevel: "Error" });
+    const shortLived = (await stale.generateSignedURL(key, { expiresIn: 1 })).ufsUrl;
+    await new Promise((r) => setTimeout(r, 1100));
+    expect((await fetch(shortLived)).status).toBe(403);
   });
 
   it("refuses management calls without the api key", async () => {
@@ -126,7 +151,7 @@ for (const isDev of [false, true]) {
       expect(out.json.serverData).toEqual({ stored: "trench.png" });
       expect(completed.length).toBe(before + 1);
       expect(completed.at(-1)).toMatchObject({ metadata: { who: "tester" }, name: "trench.png", size: 20_000 });
-      const served = await fetch(completed.at(-1)!.ufsUrl);
+      const served = await fetch(completed.at(-1)!.ufsUrl, { headers: serverKey });
       expect(new Uint8Array(await served.arrayBuffer())).toEqual(bytes);
       expect(out.json.key ?? presigned.key).toBe(presigned.key);
     });
@@ -177,7 +202,7 @@ describe("presigned URL checks and resumable PUT", () => {
     expect(wrongStart.status).toBe(416);
     const rest = await putFrom(presigned.url, bytes, "trench.png");
     expect(rest.json.serverData).toEqual({ stored: "trench.png" });
-    expect(new Uint8Array(await (await fetch(rest.json.ufsUrl)).arrayBuffer())).toEqual(bytes);
+    expect(new Uint8Array(await (await fetch(rest.json.ufsUrl, { headers: serverKey })).arrayBuffer())).toEqual(bytes);
   });
 
   it("answers CORS preflights for the browser", async () => {

@@ -4,11 +4,15 @@
  * the upload-complete callback to the app in the development flow (streamed back over the metadata
  * request) or the production flow (POST to the callback URL); callback results; file serving; and the
  * `/v6/` file-management calls UTApi makes. Requests are handled concurrently.
+ *
+ * Files are private, as the real service's private files are: `/f/<key>` (and `/a/<appId>/<key>`) serve
+ * a file only on a URL signed with the apiKey (UTApi.generateSignedURL) or to a request carrying the
+ * apiKey itself. Anyone else gets 403, so an original never leaks past the app's member-checked route.
  */
 import http, { type IncomingMessage, type ServerResponse } from "node:http";
 import { Readable } from "node:stream";
 import type { AddressInfo } from "node:net";
-import { checkPresigned, FAKE_UPLOADTHING_TOKEN, parseToken, sameSignature, sign, utParam, type FakeToken } from "./upload-fake-signing";
+import { checkPresigned, checkSignature, FAKE_UPLOADTHING_TOKEN, fileKeyOf, parseToken, sameSignature, sign, utParam, type FakeToken } from "./upload-fake-signing";
 import { fakeStore, type FakeStore, type StoredMeta } from "./upload-fake-store";
 
 export { FAKE_UPLOADTHING_TOKEN } from "./upload-fake-signing";
@@ -77,7 +81,17 @@ function withTimeout<T>(p: Promise<T>, ms: number, fallback: T): Promise<T> {
   });
 }
 
-export async function startUploadFake(options: UploadFakeOptions): Promise<{ url: string; stop(): Promise<void> }> {
+export type UploadFake = {
+  url: string;
+  /**
+   * What the app's UTApi needs to sign file URLs for this stand-in: UPLOADTHING_UFS_HOST (a host with
+   * "local" in it, so the SDK writes http) and UPLOADTHING_UFS_APP_ID_LOCATION.
+   */
+  ufs: { ufsHost: string; ufsAppIdLocation: "path" };
+  stop(): Promise<void>;
+};
+
+export async function startUploadFake(options: UploadFakeOptions): Promise<UploadFake> {
   const token: FakeToken = parseToken(options.token ?? FAKE_UPLOADTHING_TOKEN);
   const store: FakeStore = fakeStore(options.dir);
   await store.init();
@@ -257,12 +271,17 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<{ url
     if (req.method === "POST" && pathname === "/route-metadata") return onRouteMetadata(req, res);
     if (req.method === "POST" && pathname === "/callback-result") return onCallbackResult(req, res);
     if (req.method === "POST" && pathname.startsWith("/v6/")) return onApi(req, res, pathname.slice(4));
-    if ((req.method === "GET" || req.method === "HEAD") && pathname.startsWith("/f/")) {
-      const key = decodeURIComponent(pathname.slice(3));
+    const fileKey = req.method === "GET" || req.method === "HEAD" ? fileKeyOf(pathname, token) : null;
+    if (fileKey !== null) {
+      if (!apiKeyOk(req)) {
+        const check = checkSignature(base, target, token, Date.now(), "file URL");
+        if (!check.ok) return send(res, check.status, { error: `${check.error} Files here are private: ask the app for them.` });
+      }
+      const key = fileKey;
       const m = await store.meta(key);
       if (!m?.uploadedAt) return send(res, 404, { error: "No such file." });
       const data = await store.read(key);
-      res.writeHead(200, { ...cors, "content-type": m.type, "content-length": String(data.length), "cache-control": "private, max-age=3600" });
+      res.writeHead(200, { ...cors, "content-type": m.type, "content-length": String(data.length), "cache-control": "private, no-store" });
       return res.end(req.method === "HEAD" ? undefined : data);
     }
     if (req.method === "HEAD") {
@@ -292,6 +311,7 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<{ url
   origin = `http://${options.host ?? "127.0.0.1"}:${port}`;
   return {
     url: origin,
+    ufs: { ufsHost: `localhost:${port}`, ufsAppIdLocation: "path" },
     stop: () =>
       new Promise<void>((resolve) => {
         for (const reg of registrations.values()) if (reg.stream && !reg.stream.writableEnded) reg.stream.end();

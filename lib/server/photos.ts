@@ -10,7 +10,8 @@ import type { SiteActor } from "./membership";
 import { getTrench } from "./trenches";
 import { makeDerivatives } from "./uploads/derivatives";
 import { loadFile, photoFolder, removeFolder, saveFile } from "./uploads/file-store";
-import { forgetUpload } from "./uploads/remote";
+import { PHOTO_MAX_BYTES } from "./uploads/photo-limits";
+import { fetchUpload, forgetUpload } from "./uploads/remote";
 import { warpProjective } from "./uploads/warp";
 
 /**
@@ -49,6 +50,15 @@ export async function getPhoto(db: Db, siteId: string, photoId: string): Promise
 
 export type UploadedPhoto = { siteId: string; trenchId: string; userId: string; fileKey: string; fileName: string; mimeType: string; bytes: Buffer };
 
+/**
+ * What the audit trail says of a photo: the file by name, size and type, and the photo's id — never the
+ * upload service's key, which is a capability for the original, not a description of it.
+ */
+function auditedPhoto(p: Photo, size?: number) {
+  const { fileKey: _key, ...rest } = p;
+  return size === undefined ? rest : { ...rest, size };
+}
+
 /** Runs in onUploadComplete: derivatives first (refusing non-images), then the record, audited. */
 export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<PhotoView> {
   await getTrench(db, up.siteId, up.trenchId);
@@ -62,7 +72,7 @@ export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<Pho
       .insert(photos)
       .values({ id, siteId: up.siteId, trenchId: up.trenchId, fileKey: up.fileKey, fileName: up.fileName, mimeType: up.mimeType, width: d.width, height: d.height, displayPath: `${folder}/display.jpg`, thumbPath: `${folder}/thumb.jpg`, uploadedBy: up.userId })
       .returning();
-    await recordAudit(tx, { siteId: up.siteId, actorId: up.userId, action: "create", recordType: "photo", recordId: id, after: row });
+    await recordAudit(tx, { siteId: up.siteId, actorId: up.userId, action: "create", recordType: "photo", recordId: id, after: auditedPhoto(row, up.bytes.length) });
     return row;
   });
   return toPhotoView(row);
@@ -104,7 +114,7 @@ export async function deleteSitePhoto(db: Db, actor: SiteActor, photoId: string)
   const before = await getPhoto(db, actor.site.id, photoId);
   await db.transaction(async (tx) => {
     await tx.delete(photos).where(eq(photos.id, photoId));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "photo", recordId: photoId, before });
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "photo", recordId: photoId, before: auditedPhoto(before) });
   });
   await removeFolder(photoFolder(actor.site.id, photoId));
   await forgetUpload(before.fileKey);
@@ -112,10 +122,27 @@ export async function deleteSitePhoto(db: Db, actor: SiteActor, photoId: string)
 }
 
 const variantTypes = { display: "image/jpeg", thumb: "image/jpeg", warp: "image/png" } as const;
+export type PhotoVariant = keyof typeof variantTypes | "original";
 
-/** A derivative's bytes for a member of the photo's site (the caller has checked membership). */
-export async function readPhotoFile(db: Db, siteId: string, photoId: string, variant: keyof typeof variantTypes) {
+/** The uploaded original, read from the upload service with the app's own credentials, as a download. */
+async function readOriginal(p: Photo): Promise<Response> {
+  let bytes: Buffer;
+  try {
+    bytes = await fetchUpload(p.fileKey, PHOTO_MAX_BYTES);
+  } catch (err) {
+    console.warn("[loamwork] original not available", p.id, err);
+    throw notFound("That photo's original");
+  }
+  const name = p.fileName.replace(/[^\w.-]+/g, "_");
+  return new Response(new Uint8Array(bytes), {
+    headers: { "content-type": p.mimeType, "content-disposition": `attachment; filename="${name}"`, "cache-control": "private, no-store", "content-length": String(bytes.length), "x-content-type-options": "nosniff" },
+  });
+}
+
+/** A derivative's or the original's bytes for a member of the photo's site (the caller has checked membership). */
+export async function readPhotoFile(db: Db, siteId: string, photoId: string, variant: PhotoVariant) {
   const p = await getPhoto(db, siteId, photoId);
+  if (variant === "original") return readOriginal(p);
   const rel = variant === "display" ? p.displayPath : variant === "thumb" ? p.thumbPath : p.fit && (p.fit as StoredFit).warp ? `${photoFolder(siteId, photoId)}/warp.png` : null;
   const bytes = rel ? await loadFile(rel) : null;
   if (!bytes) throw notFound("That photo file");

@@ -6,7 +6,9 @@ import sharp from "sharp";
 
 import { session, call } from "../support/harness";
 import { makeSite, type SiteFixture } from "../support/fixtures";
+import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
 import { storeUploadedPhoto } from "@/lib/server/photos";
 import { applyFit } from "@/lib/geometry/photo-fit";
 import * as photosRoute from "@/app/api/sites/[siteId]/photos/route";
@@ -31,6 +33,7 @@ async function orientedJpeg() {
 let fx: SiteFixture;
 let other: SiteFixture;
 let photoId: string;
+const fileKey = `k-${Date.now()}`;
 
 beforeAll(async () => {
   const dir = await mkdtemp(path.join(os.tmpdir(), "loamwork-files-"));
@@ -38,7 +41,7 @@ beforeAll(async () => {
   await getDb();
   fx = await makeSite();
   other = await makeSite();
-  const photo = await storeUploadedPhoto(await getDb(), { siteId: fx.site.id, trenchId: fx.trench.id, userId: fx.people.digger.id, fileKey: `k-${Date.now()}`, fileName: "trench-a.jpg", mimeType: "image/jpeg", bytes: await orientedJpeg() });
+  const photo = await storeUploadedPhoto(await getDb(), { siteId: fx.site.id, trenchId: fx.trench.id, userId: fx.people.digger.id, fileKey, fileName: "trench-a.jpg", mimeType: "image/jpeg", bytes: await orientedJpeg() });
   photoId = photo.id;
 });
 
@@ -134,5 +137,10 @@ describe("photo routes and file access", () => {
     expect((await call(photoRoute, "DELETE", { siteId: fx.site.id, photoId })).status).toBe(200);
     expect((await getFile({ siteId: fx.site.id, photoId, variant: "display" })).status).toBe(404);
     expect((await call(photoRoute, "GET", { siteId: fx.site.id, photoId })).status).toBe(404);
+    // The trail names the file and the photo, not the upload service's key (a capability for the original).
+    const trail = await (await getDb()).select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, photoId));
+    expect(trail.map((e) => e.action).sort()).toEqual(["create", "delete", "fit"]);
+    expect(trail.find((e) => e.action === "delete")!.before).toMatchObject({ id: photoId, fileName: "trench-a.jpg", mimeType: "image/jpeg" });
+    expect(JSON.stringify(trail)).not.toContain(fileKey);
   });
 });

@@ -10,9 +10,13 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import sharp from "sharp";
 import { createRouteHandler } from "uploadthing/next";
+import { eq } from "drizzle-orm";
+import { UTApi } from "uploadthing/server";
 import { session } from "../support/harness";
 import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import * as fileRoute from "@/app/api/files/[siteId]/[photoId]/[variant]/route";
 import { listPhotos } from "@/lib/server/photos";
 import { uploadRouter } from "@/lib/server/uploads/file-router";
 import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "@/lib/dev-services/upload-fake";
@@ -24,6 +28,8 @@ let app: { url: string; close(): Promise<void> };
 beforeAll(async () => {
   process.env.LOAMWORK_FILES_DIR = await mkdtemp(path.join(os.tmpdir(), "loamwork-files-"));
   fake = await startUploadFake({ port: 0, dir: await mkdtemp(path.join(os.tmpdir(), "loamwork-fake-")), callbackTimeoutMs: 20_000 });
+  // The app's server-side calls (reading an original, deleting a refused one) use UTApi, configured as in the stack.
+  Object.assign(process.env, { UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN, UPLOADTHING_API_URL: fake.url, UPLOADTHING_INGEST_URL: fake.url, UPLOADTHING_UFS_HOST: fake.ufs.ufsHost, UPLOADTHING_UFS_APP_ID_LOCATION: fake.ufs.ufsAppIdLocation });
   const handlers = createRouteHandler({ router: uploadRouter, config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" } });
   const server = http.createServer(async (req, res) => {
     const chunks: Buffer[] = [];
@@ -52,6 +58,17 @@ async function requestUpload(file: { name: string; size: number; type: string },
   return { status: res.status, json: (await res.json()) as any };
 }
 
+/** Whether the stand-in still holds a file under that key (asked with the app's own credentials). */
+async function heldAtService(key: string) {
+  const { files } = await new UTApi({ token: FAKE_UPLOADTHING_TOKEN, apiUrl: fake.url, logLevel: "Error" }).listFiles();
+  return files.some((f) => f.key === key);
+}
+
+async function getFile(params: Record<string, string>) {
+  const res = await fileRoute.GET(new Request("http://localhost/api/files"), { params: Promise.resolve(params) });
+  return { status: res.status, type: res.headers.get("content-type"), bytes: Buffer.from(await res.arrayBuffer()) };
+}
+
 async function put(url: string, bytes: Buffer, name: string, type: string) {
   const form = new FormData();
   form.append("file", new Blob([new Uint8Array(bytes)], { type }), name);
@@ -71,6 +88,40 @@ describe("photo upload through the uploadthing route and the fake", () => {
     const photos = await listPhotos(await getDb(), fx.site.id, fx.trench.id);
     expect(photos.map((p) => p.id)).toContain(out.serverData.photoId);
     expect(photos.find((p) => p.id === out.serverData.photoId)).toMatchObject({ fileName: "a-east.jpg", width: 640, height: 480 });
+  });
+
+  it("keeps the original private: not at the service's own URL, only through the member-checked route", async () => {
+    session.userId = fx.people.digger.id;
+    const bytes = await sharp({ create: { width: 320, height: 200, channels: 3, background: "#6a5a3a" } }).jpeg().toBuffer();
+    const presigned = await requestUpload({ name: "a-west.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const key: string = presigned.json[0].key;
+    const out = await put(presigned.json[0].url, bytes, "a-west.jpg", "image/jpeg");
+    const photoId: string = out.serverData.photoId;
+    expect(photoId).toBeTruthy();
+    // Signed out at the upload service, with the URL the upload reported: refused.
+    expect((await fetch(out.ufsUrl)).status).toBe(403);
+    expect((await fetch(`${fake.url}/f/${encodeURIComponent(key)}`)).status).toBe(403);
+    // A member gets the very bytes through the app; a stranger and a signed-out caller do not.
+    const original = await getFile({ siteId: fx.site.id, photoId, variant: "original" });
+    expect(original.status).toBe(200);
+    expect(original.type).toBe("image/jpeg");
+    expect(original.bytes.equals(bytes)).toBe(true);
+    session.userId = fx.people.stranger.id;
+    expect((await getFile({ siteId: fx.site.id, photoId, variant: "original" })).status).toBe(404);
+    session.userId = null;
+    expect((await getFile({ siteId: fx.site.id, photoId, variant: "original" })).status).toBe(401);
+  });
+
+  it("audits the file by name, size, type and photo id, never by the upload key", async () => {
+    session.userId = fx.people.digger.id;
+    const bytes = await sharp({ create: { width: 200, height: 100, channels: 3, background: "#4a3a2a" } }).jpeg().toBuffer();
+    const presigned = await requestUpload({ name: "a-north.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const key: string = presigned.json[0].key;
+    const out = await put(presigned.json[0].url, bytes, "a-north.jpg", "image/jpeg");
+    const [entry] = await (await getDb()).select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, out.serverData.photoId));
+    expect(entry.action).toBe("create");
+    expect(entry.after).toMatchObject({ id: out.serverData.photoId, fileName: "a-north.jpg", size: bytes.length, mimeType: "image/jpeg" });
+    expect(JSON.stringify(entry)).not.toContain(key);
   });
 
   it("refuses a file that is not an image, naming the type", async () => {
@@ -108,5 +159,7 @@ describe("photo upload through the uploadthing route and the fake", () => {
     const out = await put(presigned.json[0].url, bytes, "fake.jpg", "image/jpeg");
     expect(out.serverData.error).toMatch(/not an image/);
     expect((await listPhotos(await getDb(), fx.site.id)).length).toBe(before);
+    // Refused, so deleted at the upload service too.
+    expect(await heldAtService(presigned.json[0].key)).toBe(false);
   });
 });

@@ -13,7 +13,7 @@ export const planApi = {
   photoFile: {
     method: "GET",
     path: "/api/files/{siteId}/{photoId}/{variant}",
-    summary: "A photo derivative (display, thumb, warp), for members of its site only",
+    summary: "A photo derivative (display, thumb, warp) or the uploaded original, for members of its site only",
     roles: "member",
     from: "none",
   },

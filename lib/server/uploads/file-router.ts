@@ -9,11 +9,10 @@ import { assertRole, loadSiteActor } from "../membership";
 import { storeUploadedPhoto } from "../photos";
 import { currentUserId } from "../session";
 import { getTrench } from "../trenches";
-import { fetchUpload } from "./remote";
+import { PHOTO_MAX_BYTES, PHOTO_TYPES } from "./photo-limits";
+import { fetchUpload, forgetUpload } from "./remote";
 
-/** The upload limit for one site photo, and the types the plan accepts (checked again by sharp). */
-export const PHOTO_MAX_BYTES = 16 * 1024 * 1024;
-export const PHOTO_TYPES = ["image/jpeg", "image/png", "image/webp", "image/tiff", "image/heic", "image/heif", "image/avif"];
+export { PHOTO_MAX_BYTES, PHOTO_TYPES };
 
 const f = createUploadthing({ errorFormatter: (err) => ({ message: err.message }) });
 
@@ -49,10 +48,12 @@ export const uploadRouter = {
     })
     .onUploadComplete(async ({ metadata, file }) => {
       try {
-        const bytes = await fetchUpload(file.ufsUrl, PHOTO_MAX_BYTES);
+        const bytes = await fetchUpload(file.key, PHOTO_MAX_BYTES);
         const photo = await storeUploadedPhoto(await getDb(), { ...metadata, fileKey: file.key, fileName: file.name, mimeType: file.type, bytes });
         return { photoId: photo.id, error: null as string | null };
       } catch (err) {
+        // Nothing was recorded, so nothing may stay behind at the upload service either.
+        await forgetUpload(file.key);
         // The refusal travels back to the uploader as server data: onUploadComplete must not throw.
         if (isPublicError(err)) return { photoId: null, error: err.message };
         console.error("[loamwork] photo upload processing failed", err);

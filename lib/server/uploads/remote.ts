@@ -1,20 +1,31 @@
 import "server-only";
 import { UTApi } from "uploadthing/server";
 
-/** Fetches the original an upload left at the upload service (the fake locally). */
-export async function fetchUpload(url: string, maxBytes: number): Promise<Buffer> {
-  const res = await fetch(url);
+/**
+ * Originals stay private at the upload service: the app reads one through a short-lived URL signed with
+ * its own key (UTApi.generateSignedURL; locally UPLOADTHING_UFS_HOST points it at the stand-in), and
+ * members get it only through the member-checked file route.
+ */
+async function signedUrl(fileKey: string): Promise<string> {
+  const { ufsUrl } = await new UTApi({ logLevel: "Error" }).generateSignedURL(fileKey, { expiresIn: 60 });
+  return ufsUrl;
+}
+
+/** Fetches the original an upload left at the upload service (the stand-in locally). */
+export async function fetchUpload(fileKey: string, maxBytes: number): Promise<Buffer> {
+  const res = await fetch(await signedUrl(fileKey));
   if (!res.ok) throw new Error(`upload service answered ${res.status} for the stored file`);
   const bytes = Buffer.from(await res.arrayBuffer());
   if (bytes.length > maxBytes) throw new Error("the stored file is larger than the upload limit");
   return bytes;
 }
 
-/** Best effort: the original is not needed once the derivatives exist; a failure is logged, not shown. */
+/** Best effort: a refused upload, or the original of a deleted photo, goes; a failure is logged, not shown. */
 export async function forgetUpload(fileKey: string): Promise<void> {
   if (!process.env.UPLOADTHING_TOKEN) return;
   try {
-    await new UTApi({ logLevel: "Error" }).deleteFiles(fileKey);
+    const out = await new UTApi({ logLevel: "Error" }).deleteFiles(fileKey);
+    if (!out.success || out.deletedCount !== 1) console.warn("[loamwork] the upload service did not delete", fileKey, out);
   } catch (err) {
     console.warn("[loamwork] could not delete upload", fileKey, err);
   }
