@@ -34,6 +34,8 @@ export type ImportMapping = z.infer<typeof importMappingSchema>;
 
 /** About 30 MB of CSV: far beyond a day's total-station export (50,000 rows is about 3 MB). */
 export const MAX_IMPORT_CHARS = 30_000_000;
+/** The import request's body: the file travels as a JSON string, so leave room for its escaping. */
+export const MAX_IMPORT_BODY_BYTES = 48 * 1024 * 1024;
 
 export const importPreviewSchema = z.object({
   csv: z.string().min(1, "The file is empty.").max(MAX_IMPORT_CHARS, "That file is larger than 30 MB; split it."),

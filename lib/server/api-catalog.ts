@@ -10,7 +10,7 @@ import { planApi } from "./catalog/plan";
 import { publicApi } from "./catalog/public";
 import { recordingApi } from "./catalog/recording";
 import { signOffApi } from "./catalog/sign-off";
-import { classers, directorOnly, everyone, recorders, type ApiOperation } from "./catalog/types";
+import { GEOMETRY_BODY_LIMIT, classers, directorOnly, everyone, recorders, type ApiOperation } from "./catalog/types";
 
 export type { ApiOperation } from "./catalog/types";
 
@@ -31,14 +31,14 @@ const coreApi = {
   classesCreate: { method: "POST", path: "/api/sites/{siteId}/classes", summary: "Add an artefact class", roles: classers, doing: "maintain artefact classes", input: artefactClassCreateSchema, successStatus: 201 },
   classUpdate: { method: "PATCH", path: "/api/sites/{siteId}/classes/{classId}", summary: "Change an artefact class", roles: classers, doing: "maintain artefact classes", input: artefactClassUpdateSchema },
   trenchesList: { method: "GET", path: "/api/sites/{siteId}/trenches", summary: "Trenches with outlines", roles: "member", from: "none" },
-  trenchesCreate: { method: "POST", path: "/api/sites/{siteId}/trenches", summary: "Open a trench with its outline", roles: recorders, doing: "lay out trenches", input: trenchCreateSchema, successStatus: 201 },
+  trenchesCreate: { method: "POST", path: "/api/sites/{siteId}/trenches", summary: "Open a trench with its outline", roles: recorders, doing: "lay out trenches", input: trenchCreateSchema, successStatus: 201, maxBodyBytes: GEOMETRY_BODY_LIMIT },
   trenchRead: { method: "GET", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "One trench", roles: "member", from: "none" },
-  trenchUpdate: { method: "PATCH", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Change a trench or its outline", roles: recorders, doing: "edit trenches", input: trenchUpdateSchema },
+  trenchUpdate: { method: "PATCH", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Change a trench or its outline", roles: recorders, doing: "edit trenches", input: trenchUpdateSchema, maxBodyBytes: GEOMETRY_BODY_LIMIT },
   trenchDelete: { method: "DELETE", path: "/api/sites/{siteId}/trenches/{trenchId}", summary: "Delete an empty trench", roles: directorOnly, doing: "delete trenches", from: "none" },
   contextsList: { method: "GET", path: "/api/sites/{siteId}/contexts", summary: "Context sheets (optionally of one trench)", roles: "member", input: z.object({ trenchId: z.string().uuid().optional() }), from: "query" },
-  contextsCreate: { method: "POST", path: "/api/sites/{siteId}/contexts", summary: "Open a context sheet", roles: recorders, doing: "record contexts", input: contextCreateSchema, successStatus: 201 },
+  contextsCreate: { method: "POST", path: "/api/sites/{siteId}/contexts", summary: "Open a context sheet", roles: recorders, doing: "record contexts", input: contextCreateSchema, successStatus: 201, maxBodyBytes: GEOMETRY_BODY_LIMIT },
   contextRead: { method: "GET", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "One context sheet", roles: "member", from: "none" },
-  contextUpdate: { method: "PATCH", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "Change a context sheet", roles: recorders, doing: "record contexts", input: contextUpdateSchema },
+  contextUpdate: { method: "PATCH", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "Change a context sheet", roles: recorders, doing: "record contexts", input: contextUpdateSchema, maxBodyBytes: GEOMETRY_BODY_LIMIT },
   contextDelete: { method: "DELETE", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "Delete a context with no finds", roles: recorders, doing: "record contexts", from: "none" },
   findsList: { method: "GET", path: "/api/sites/{siteId}/finds", summary: "Finds register: filter, sort, page", roles: "member", input: findListQuery, from: "query" },
   findsCreate: { method: "POST", path: "/api/sites/{siteId}/finds", summary: "Record a find (its number is allocated by the server)", roles: recorders, doing: "record finds", input: findCreateSchema, successStatus: 201 },

@@ -59,7 +59,8 @@ export function toFailure(err: unknown): Extract<GuardOutcome<never>, { ok: fals
 export async function runGuarded<I, R>(
   spec: GuardSpec<I>,
   siteId: string | undefined,
-  rawInput: unknown,
+  /** Called only after the session and the role are checked, so a large body is never read for a stranger. */
+  readInput: () => unknown,
   fn: (ctx: GuardContext<I>) => Promise<R>,
 ): Promise<GuardOutcome<R>> {
   try {
@@ -72,7 +73,7 @@ export async function runGuarded<I, R>(
       actor = await loadSiteActor(db, userId, siteId);
       if (spec.roles !== "member") assertRole(actor, spec.roles, spec.doing);
     }
-    const input = parseInput(spec.input, rawInput);
+    const input = parseInput(spec.input, await readInput());
     return { ok: true, data: await fn({ db, userId, actor, input }) };
   } catch (err) {
     return toFailure(err);

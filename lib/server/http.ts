@@ -1,18 +1,60 @@
 import "server-only";
-import { NextResponse } from "next/server";
+import { NextRequest, NextResponse } from "next/server";
 import type { ZodType } from "zod";
 import type { Db } from "@/db/client";
-import { runGuarded, runPublic, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
+import { PublicError, badInput } from "./errors";
+import { runGuarded, runPublic, toFailure, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
 
 type RouteParams = Record<string, string | string[] | undefined>;
 type Handler = (req: Request, ctx: { params: Promise<RouteParams> }) => Promise<Response>;
+
+/** The largest JSON body an entry reads unless its catalogue entry names its own limit. */
+export const DEFAULT_BODY_LIMIT = 256 * 1024;
+/** The entries used before sign-in take an address, a token and a password: nothing near this. */
+export const PUBLIC_BODY_LIMIT = 16 * 1024;
 
 export type RouteSpec<I> = GuardSpec<I> & {
   /** Where the input comes from: the JSON body (writes) or the query string (lists). */
   from?: "body" | "query" | "none";
   /** Status of a successful answer (201 for creations). */
   successStatus?: number;
+  /** The largest body this entry reads, in bytes (DEFAULT_BODY_LIMIT when omitted). */
+  maxBodyBytes?: number;
 };
+
+/** "256 KB", "48 MB": the limit as the refusal states it. */
+export function formatByteLimit(bytes: number): string {
+  if (bytes >= 1024 * 1024) return `${+(bytes / (1024 * 1024)).toFixed(1)} MB`;
+  return `${+(bytes / 1024).toFixed(1)} KB`;
+}
+
+export const bodyTooLarge = (limit: number) =>
+  new PublicError(413, `The request body is too large: this entry accepts at most ${formatByteLimit(limit)}.`);
+
+/**
+ * Reads a request body, never more than `limit` bytes. A Content-Length above the limit is refused before
+ * anything is read; the header is only a hint, so the bytes are counted as they arrive and reading stops as
+ * soon as they pass the limit.
+ */
+export async function readBodyCapped(req: Request, limit: number): Promise<Uint8Array> {
+  const declared = Number(req.headers.get("content-length"));
+  if (Number.isFinite(declared) && declared > limit) throw bodyTooLarge(limit);
+  if (!req.body) return new Uint8Array(0);
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      reader.releaseLock();
+      throw bodyTooLarge(limit);
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks);
+}
 
 function respond<R>(outcome: GuardOutcome<R>, successStatus = 200): Response {
   if (!outcome.ok) {
@@ -23,21 +65,22 @@ function respond<R>(outcome: GuardOutcome<R>, successStatus = 200): Response {
   return NextResponse.json(outcome.data ?? null, { status: successStatus });
 }
 
-const invalidJson = () => NextResponse.json({ error: "The request body is not valid JSON." }, { status: 400 });
-
-async function readInput(req: Request, from: RouteSpec<unknown>["from"]): Promise<unknown> {
+async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: number): Promise<unknown> {
   if (from === "query") return Object.fromEntries(new URL(req.url).searchParams.entries());
   if (from === "none") return undefined;
-  const text = await req.text();
+  const text = new TextDecoder().decode(await readBodyCapped(req, limit));
   if (!text) return {};
   try {
     return JSON.parse(text);
   } catch {
-    return { __invalidJson: true };
+    throw badInput("The request body is not valid JSON.");
   }
 }
 
-/** A route handler behind the guarded entry. The site comes from the `siteId` path segment. */
+/**
+ * A route handler behind the guarded entry. The site comes from the `siteId` path segment. The body is read
+ * only after the session and the role on the site are checked, and never past the entry's limit.
+ */
 export function guardedRoute<I, R>(
   spec: RouteSpec<I>,
   fn: (ctx: GuardContext<I> & { params: Record<string, string>; req: Request }) => Promise<R>,
@@ -46,18 +89,41 @@ export function guardedRoute<I, R>(
     const raw = (await routeCtx.params) ?? {};
     const params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, String(v)]));
     const from = spec.from ?? (req.method === "GET" || req.method === "DELETE" ? "query" : "body");
-    const input = await readInput(req, from);
-    if (input && typeof input === "object" && "__invalidJson" in input) return invalidJson();
-    const outcome = await runGuarded(spec, params.siteId, input, (ctx) => fn({ ...ctx, params, req }));
+    const limit = spec.maxBodyBytes ?? DEFAULT_BODY_LIMIT;
+    const outcome = await runGuarded(spec, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params, req }));
     return respond(outcome, spec.successStatus);
   };
 }
 
 /** A route handler for the entries used before sign-in (see runPublic); the JSON body is the input. */
-export function publicRoute<I, R>(spec: { input: ZodType<I>; successStatus?: number }, fn: (ctx: { db: Db; input: I }) => Promise<R>) {
+export function publicRoute<I, R>(
+  spec: { input: ZodType<I>; successStatus?: number; maxBodyBytes?: number },
+  fn: (ctx: { db: Db; input: I }) => Promise<R>,
+) {
   return async (req: Request): Promise<Response> => {
-    const input = await readInput(req, "body");
-    if (input && typeof input === "object" && "__invalidJson" in input) return invalidJson();
+    let input: unknown;
+    try {
+      input = await readInput(req, "body", spec.maxBodyBytes ?? PUBLIC_BODY_LIMIT);
+    } catch (err) {
+      return respond(toFailure(err));
+    }
     return respond(await runPublic(spec.input, input, fn), spec.successStatus);
+  };
+}
+
+/**
+ * For handlers that read their own body (the sign-in callbacks, the upload route): the body is read here
+ * under `limit` and handed on in a fresh request, so an oversized body is refused before the handler runs.
+ */
+export function withBodyLimit<C>(limit: number, handler: (req: NextRequest, ctx: C) => Promise<Response>) {
+  return async (req: NextRequest, ctx: C): Promise<Response> => {
+    if (req.method === "GET" || req.method === "HEAD") return handler(req, ctx);
+    let body: Uint8Array;
+    try {
+      body = await readBodyCapped(req, limit);
+    } catch (err) {
+      return respond(toFailure(err));
+    }
+    return handler(new NextRequest(req.url, { method: req.method, headers: req.headers, body: body as BodyInit, signal: req.signal }), ctx);
   };
 }

@@ -1,4 +1,4 @@
-import { importCommitSchema, importPreviewSchema } from "@/lib/schemas/import";
+import { MAX_IMPORT_BODY_BYTES, importCommitSchema, importPreviewSchema } from "@/lib/schemas/import";
 import { relationCreateSchema, relationListQuery } from "@/lib/schemas/relation";
 import { exportContextsQuery, exportFindsQuery, exportTrenchesQuery, matrixImageQuery, matrixQuery } from "@/lib/server/export/queries";
 import { recorders, type ApiOperation } from "./types";
@@ -11,8 +11,8 @@ export const recordingApi = {
   matrixRead: { method: "GET", path: "/api/sites/{siteId}/matrix", summary: "Harris matrix: nodes, edges, redundant relations", roles: "member", input: matrixQuery, from: "query" },
   matrixImage: { method: "GET", path: "/api/sites/{siteId}/matrix/image", summary: "Harris matrix as SVG or PNG", roles: "member", input: matrixImageQuery, from: "query" },
   importMappingRead: { method: "GET", path: "/api/sites/{siteId}/import/mapping", summary: "The site's remembered total-station column mapping", roles: "member", from: "none" },
-  importPreview: { method: "POST", path: "/api/sites/{siteId}/import/preview", summary: "Check a total-station CSV row by row (imports nothing; remembers a given mapping)", roles: recorders, doing: "import finds", input: importPreviewSchema },
-  importCommit: { method: "POST", path: "/api/sites/{siteId}/import", summary: "Import every row of a total-station CSV, or none", roles: recorders, doing: "import finds", input: importCommitSchema, successStatus: 201 },
+  importPreview: { method: "POST", path: "/api/sites/{siteId}/import/preview", summary: "Check a total-station CSV row by row (imports nothing; remembers a given mapping)", roles: recorders, doing: "import finds", input: importPreviewSchema, maxBodyBytes: MAX_IMPORT_BODY_BYTES },
+  importCommit: { method: "POST", path: "/api/sites/{siteId}/import", summary: "Import every row of a total-station CSV, or none", roles: recorders, doing: "import finds", input: importCommitSchema, successStatus: 201, maxBodyBytes: MAX_IMPORT_BODY_BYTES },
   exportFinds: { method: "GET", path: "/api/sites/{siteId}/export/finds", summary: "Finds as CSV or GeoJSON, with the register's filters", roles: "member", input: exportFindsQuery, from: "query" },
   exportContexts: { method: "GET", path: "/api/sites/{siteId}/export/contexts", summary: "Context sheets as CSV, or their extents as GeoJSON", roles: "member", input: exportContextsQuery, from: "query" },
   exportTrenches: { method: "GET", path: "/api/sites/{siteId}/export/trenches", summary: "Trench outlines as GeoJSON", roles: "member", input: exportTrenchesQuery, from: "query" },

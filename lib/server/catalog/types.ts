@@ -12,6 +12,8 @@ export type ApiOperation = {
   input?: ZodType;
   from?: "body" | "query" | "none";
   successStatus?: number;
+  /** The largest request body read, in bytes; omitted = the JSON default (lib/server/http.ts). */
+  maxBodyBytes?: number;
   /** Used before sign-in (password reset, invitation): no session, no role; a single-use token instead. */
   public?: true;
 };
@@ -22,3 +24,6 @@ export const classers = ["specialist", "director"] as const;
 export const directorOnly = ["director"] as const;
 export const everyone = ["digger", "specialist", "director"] as const;
 export const analysts = ["specialist", "director"] as const;
+
+/** Entries that carry an outline or extent: up to 2,000 vertices a ring, a few holes, written in full precision. */
+export const GEOMETRY_BODY_LIMIT = 1024 * 1024;
