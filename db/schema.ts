@@ -2,6 +2,7 @@ import { sql } from "drizzle-orm";
 import {
   bigserial,
   boolean,
+  date,
   doublePrecision,
   index,
   integer,
@@ -24,6 +25,12 @@ export const contextTypeEnum = pgEnum("context_type", ["layer", "fill", "cut", "
 /** Stored once per pair; the reverse reading (below, cut by, filled by) is derived. */
 export const relationKindEnum = pgEnum("relation_kind", ["above", "cuts", "fills", "same_as"]);
 export const findMethodEnum = pgEnum("find_method", ["plan", "typed", "imported"]);
+/** A site's height reference: a named national datum, or a local site datum (field.md, "Levels"). */
+export const datumKindEnum = pgEnum("datum_kind", ["national", "local"]);
+/** How a context was dug (the sheet's method field); "sieved" carries a mesh size. */
+export const digMethodEnum = pgEnum("dig_method", ["trowel", "mattock", "machine", "sieved"]);
+/** What a staff reading in a level book was taken on. */
+export const levelTargetEnum = pgEnum("level_target", ["benchmark", "change_point", "find", "context_top", "context_base", "spit_top", "spit_base", "ground", "other"]);
 export const runStatusEnum = pgEnum("run_status", ["queued", "running", "done", "failed", "cancelled"]);
 
 const created = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
@@ -59,6 +66,11 @@ export const sites = pgTable("sites", {
   crs: text("crs"),
   /** Next find number to hand out; bumped under a row lock so numbers never repeat or skip. */
   nextFindNumber: integer("next_find_number").notNull().default(1),
+  /** Every z in Loamwork is a reduced level in metres against this datum. */
+  datumKind: datumKindEnum("datum_kind").notNull().default("local"),
+  datumName: text("datum_name").notNull().default("Site datum"),
+  /** Largest acceptable misclosure of a closed levelling run, metres (common practice: a few millimetres). */
+  levelTolerance: doublePrecision("level_tolerance").notNull().default(0.005),
   createdAt: created(),
 });
 
@@ -95,6 +107,8 @@ export const trenches = pgTable(
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
     /** Deepest recorded depth below the surface in metres, for the deep-trench caution. */
     maxDepth: doublePrecision("max_depth"),
+    /** Reduced level of the ground surface before digging; the deep-trench caution is measured from it. */
+    surfaceLevel: doublePrecision("surface_level"),
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     signedOffBy: uuid("signed_off_by").references(() => users.id),
     createdAt: created(),
@@ -136,6 +150,14 @@ export const contexts = pgTable(
     description: text("description").notNull().default(""),
     interpretation: text("interpretation").notNull().default(""),
     extent: jsonb("extent").$type<PolygonJson>(),
+    lengthM: doublePrecision("length_m"),
+    widthM: doublePrecision("width_m"),
+    thicknessM: doublePrecision("thickness_m"),
+    excavatedBy: text("excavated_by").notNull().default(""),
+    openedOn: date("opened_on"),
+    closedOn: date("closed_on"),
+    digMethod: digMethodEnum("dig_method"),
+    sieveMeshMm: doublePrecision("sieve_mesh_mm"),
     state: recordStateEnum("state").notNull().default("open"),
     recordedBy: uuid("recorded_by").references(() => users.id),
     submittedAt: timestamp("submitted_at", { withTimezone: true }),
@@ -187,9 +209,11 @@ export const finds = pgTable(
     trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
     contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
     classId: uuid("class_id").notNull().references(() => artefactClasses.id, { onDelete: "restrict" }),
+    spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
     x: doublePrecision("x").notNull(),
     y: doublePrecision("y").notNull(),
+    /** Reduced level in metres against the site's datum; null when no level was taken (never 0). */
     z: doublePrecision("z"),
     count: integer("count"),
     weightG: doublePrecision("weight_g"),
@@ -277,3 +301,89 @@ export const passwordResets = pgTable("password_resets", {
   usedAt: timestamp("used_at", { withTimezone: true }),
   createdAt: created(),
 });
+
+/** Temporary benchmarks: points of known reduced level that levelling runs start from and close on. */
+export const benchmarks = pgTable(
+  "benchmarks",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    code: text("code").notNull(),
+    description: text("description").notNull(),
+    x: doublePrecision("x").notNull(),
+    y: doublePrecision("y").notNull(),
+    /** Reduced level, metres against the site's datum. */
+    level: doublePrecision("level").notNull(),
+    createdBy: uuid("created_by").references(() => users.id),
+    createdAt: created(),
+  },
+  (t) => [uniqueIndex("benchmarks_site_code").on(t.siteId, t.code)],
+);
+
+/** Spits: horizontal slices of a context, numbered from the top, with their top and base reduced levels. */
+export const spits = pgTable(
+  "spits",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    number: integer("number").notNull(),
+    topLevel: doublePrecision("top_level"),
+    baseLevel: doublePrecision("base_level"),
+    createdBy: uuid("created_by").references(() => users.id),
+    createdAt: created(),
+  },
+  (t) => [uniqueIndex("spits_context_number").on(t.contextId, t.number)],
+);
+
+export type LevelBookLine = {
+  station: string;
+  target: (typeof levelTargetEnum.enumValues)[number];
+  targetId: string | null;
+  backsight: number | null;
+  intermediate: number | null;
+  foresight: number | null;
+};
+
+/** A levelling run as booked: the lines of the level book and what its reduction gave. */
+export const levelRuns = pgTable(
+  "level_runs",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
+    takenOn: date("taken_on").notNull(),
+    startBenchmarkId: uuid("start_benchmark_id").notNull().references(() => benchmarks.id, { onDelete: "restrict" }),
+    closingBenchmarkId: uuid("closing_benchmark_id").references(() => benchmarks.id, { onDelete: "restrict" }),
+    book: jsonb("book").$type<LevelBookLine[]>().notNull(),
+    tolerance: doublePrecision("tolerance").notNull(),
+    misclosure: doublePrecision("misclosure"),
+    withinTolerance: boolean("within_tolerance"),
+    recordedBy: uuid("recorded_by").references(() => users.id),
+    createdAt: created(),
+  },
+  (t) => [index("level_runs_site").on(t.siteId)],
+);
+
+/** One reduced level from a run, kept for what it was taken on (several spot levels per context top or base). */
+export const spotLevels = pgTable(
+  "spot_levels",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    runId: uuid("run_id").notNull().references(() => levelRuns.id, { onDelete: "cascade" }),
+    line: integer("line").notNull(),
+    target: levelTargetEnum("target").notNull(),
+    targetId: uuid("target_id"),
+    station: text("station").notNull(),
+    level: doublePrecision("level").notNull(),
+    /** Taken on a run that closed outside tolerance: shown with a flag, never hidden. */
+    flagged: boolean("flagged").notNull().default(false),
+  },
+  (t) => [index("spot_levels_target").on(t.target, t.targetId), index("spot_levels_run").on(t.runId)],
+);
+
+export type Benchmark = typeof benchmarks.$inferSelect;
+export type Spit = typeof spits.$inferSelect;
+export type LevelRun = typeof levelRuns.$inferSelect;
+export type SpotLevel = typeof spotLevels.$inferSelect;

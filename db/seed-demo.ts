@@ -4,6 +4,7 @@ import * as s from "./schema";
 import { hashPassword } from "@/lib/server/passwords";
 import { windowToPolygon } from "@/lib/geometry/outline";
 import { DEMO_TRENCH } from "@/lib/spatial";
+import { seedDemoLevels } from "./seed-demo-levels";
 import { clusteredLayout, createRandom, evenLayout, randomLayout, windowOf, type Pt } from "./demo-layout";
 
 /** The invented demo site. Every name here is made up. */
@@ -14,6 +15,8 @@ export const DEMO_USERS = [
   { email: "director@loamwork.test", name: "Imogen Carrow", role: "director", password: "matrix-director-3" },
 ] as const;
 export const DEMO_SEED = 20261201;
+/** Ground-surface reduced levels of the demo trenches (metres against the site datum; invented). */
+export const DEMO_SURFACE = { A: 49.62, B: 49.35, C: 49.81 } as const;
 
 /** Okabe & Ito (2008) colour-blind-safe palette, each class paired with its own symbol shape. */
 const CLASSES = [
@@ -59,7 +62,14 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
   return db.transaction(async (tx) => {
     const [site] = await tx
       .insert(s.sites)
-      .values({ code: DEMO_SITE_CODE, name: "Whinnydale Holm", gridDescription: "Site grid laid out from peg WH1 (0, 0), axes along the field boundary; metres. Invented demo site." })
+      .values({
+        code: DEMO_SITE_CODE,
+        name: "Whinnydale Holm",
+        gridDescription: "Site grid laid out from peg WH1 (0, 0), axes along the field boundary; metres. Invented demo site.",
+        datumKind: "local",
+        datumName: "Whinnydale site datum (TBM WH1 taken as 50.000 m)",
+        levelTolerance: 0.005,
+      })
       .returning();
     for (const [k, u] of DEMO_USERS.entries()) {
       const [user] = await tx
@@ -76,9 +86,9 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
     const trenchRows = await tx
       .insert(s.trenches)
       .values([
-        { siteId: site.id, code: "A", name: "Knapping floor", outline: windowToPolygon(windows.A), maxDepth: 0.85 },
-        { siteId: site.id, code: "B", name: "Burnt spread", outline: windowToPolygon(windows.B), maxDepth: 1.45 },
-        { siteId: site.id, code: "C", name: "Southern extension", outline: windowToPolygon(windows.C), maxDepth: 0.6 },
+        { siteId: site.id, code: "A", name: "Knapping floor", outline: windowToPolygon(windows.A), surfaceLevel: DEMO_SURFACE.A },
+        { siteId: site.id, code: "B", name: "Burnt spread", outline: windowToPolygon(windows.B), surfaceLevel: DEMO_SURFACE.B },
+        { siteId: site.id, code: "C", name: "Southern extension", outline: windowToPolygon(windows.C), surfaceLevel: DEMO_SURFACE.C },
       ])
       .returning();
     const trenchId = Object.fromEntries(trenchRows.map((t) => [t.code, t.id])) as Record<"A" | "B" | "C", string>;
@@ -116,7 +126,8 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
         number: number++,
         x: Math.round(x * 1000) / 1000,
         y: Math.round(y * 1000) / 1000,
-        z: Math.round((-0.3 - 0.1 * rng.next()) * 1000) / 1000,
+        // Reduced levels: 0.30–0.40 m below the trench's ground surface.
+        z: Math.round((DEMO_SURFACE[g.trench] - 0.3 - 0.1 * rng.next()) * 1000) / 1000,
         count: 1,
         weightG: Math.round((0.5 + 20 * rng.next()) * 10) / 10,
         description: "",
@@ -126,6 +137,7 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
       })),
     );
     for (let i = 0; i < rows.length; i += 500) await tx.insert(s.finds).values(rows.slice(i, i + 500));
+    await seedDemoLevels(tx, { siteId: site.id, trenchId, contextId: (n: number) => ctx[n]!.id, diggerId: digger.id });
     await tx.update(s.sites).set({ nextFindNumber: number }).where(eq(s.sites.id, site.id));
     await tx.insert(s.auditEntries).values({ siteId: site.id, actorId: director.id, action: "seed", recordType: "site", recordId: site.id, after: { finds: rows.length } });
     return { created: true, siteId: site.id };

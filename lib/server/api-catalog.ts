@@ -5,6 +5,7 @@ import { contextCreateSchema, contextUpdateSchema } from "@/lib/schemas/context"
 import { findCreateSchema, findListQuery, findUpdateSchema } from "@/lib/schemas/find";
 import { memberRoleSchema, siteCreateSchema, siteUpdateSchema } from "@/lib/schemas/site";
 import { trenchCreateSchema, trenchUpdateSchema } from "@/lib/schemas/trench";
+import { levelsApi } from "./catalog/levels";
 import { patternsApi } from "./catalog/patterns";
 import { planApi } from "./catalog/plan";
 import { publicApi } from "./catalog/public";
@@ -47,7 +48,7 @@ const coreApi = {
   findDelete: { method: "DELETE", path: "/api/sites/{siteId}/finds/{findId}", summary: "Delete a find (its number is never reused)", roles: recorders, doing: "delete finds", from: "none" },
 } satisfies Record<string, ApiOperation>;
 
-export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...publicApi };
+export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...publicApi };
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

@@ -13,6 +13,10 @@ import * as relationsRoute from "@/app/api/sites/[siteId]/relations/route";
 import * as relationRoute from "@/app/api/sites/[siteId]/relations/[relationId]/route";
 import * as importRoute from "@/app/api/sites/[siteId]/import/route";
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
+import * as spitsRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/route";
+import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
+import * as levelRunsRoute from "@/app/api/sites/[siteId]/level-runs/route";
+import { makeBenchmark, makeSpit } from "./role-cases/levels";
 
 /**
  * Issue 7 "Tests": every write path that can touch a context's sheet, finds or relations × (open, awaiting,
@@ -43,6 +47,15 @@ async function otherContext(fx: SiteFixture) {
   return c;
 }
 const site = (fx: SiteFixture) => ({ siteId: fx.site.id });
+async function levelRunOn(fx: SiteFixture, target: string, targetId: string): Promise<Prepared> {
+  const b = await makeBenchmark(fx);
+  const lines = [
+    { station: b.code, target: "benchmark", backsight: 1.3 },
+    { station: "level", target, targetId, intermediate: 1.6 },
+    { station: "CP", target: "change_point", foresight: 1.1 },
+  ];
+  return { mod: levelRunsRoute, params: site(fx), body: { takenOn: "2026-06-11", startBenchmarkId: b.id, lines } };
+}
 
 const cases: LockCase[] = [
   { op: "contextUpdate", title: "edit the sheet", prepare: async (fx) => ({ mod: contextRoute, params: { ...site(fx), contextId: fx.context.id }, body: { colour: "dark brown" } }) },
@@ -73,6 +86,12 @@ const cases: LockCase[] = [
       params: site(fx),
       body: { csv: `x,y,class,context\n1.5,1.5,${fx.cls.code},${fx.context.number}\n2.5,1.0,${fx.cls.code},${fx.context.number}\n`, fileName: "ts.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } },
     }) },
+  { op: "spitsCreate", title: "add a spit to T", prepare: async (fx) => ({ mod: spitsRoute, params: { ...site(fx), contextId: fx.context.id }, body: { number: nextCount(), topLevel: 49.3 } }) },
+  { op: "spitUpdate", title: "change a spit's levels in T", prepare: async (fx) => ({ mod: spitRoute, params: { ...site(fx), contextId: fx.context.id, spitId: (await makeSpit(fx)).id }, body: { topLevel: 49.31 } }) },
+  { op: "spitDelete", title: "delete a spit of T", prepare: async (fx) => ({ mod: spitRoute, params: { ...site(fx), contextId: fx.context.id, spitId: (await makeSpit(fx)).id } }) },
+  { op: "levelRunsCreate", title: "level the top of T", prepare: async (fx) => levelRunOn(fx, "context_top", fx.context.id) },
+  { op: "levelRunsCreate", title: "level a find of T", prepare: async (fx) => levelRunOn(fx, "find", (await findIn(fx, fx.context.id)).id) },
+  { op: "levelRunsCreate", title: "level a spit boundary of T", prepare: async (fx) => levelRunOn(fx, "spit_base", (await makeSpit(fx)).id) },
   { op: "trenchUpdate", title: "redraw the outline so a find of T falls outside", alwaysRefused: true, prepare: async (fx) => {
       await findIn(fx, fx.context.id, 9, 5);
       return { mod: trenchRoute, params: { ...site(fx), trenchId: fx.trench.id }, body: { outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [8, 6], [0, 6], [0, 0]]] } } };
@@ -101,11 +120,13 @@ const outsideTheLock: Record<string, string> = {
   photoDelete: "photo underlay only",
   runsCreate: "reads records, writes an analysis run",
   runCancel: "analysis run only",
+  datumUpdate: "the site's datum name and tolerance; no level changes",
+  benchmarksCreate: "a new benchmark", benchmarkUpdate: "a benchmark's level is fixed once a run used it", benchmarkDelete: "refused once a run used it",
 };
 
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings];
+  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings, schema.spits, schema.spotLevels, schema.levelRuns];
   const parts: string[] = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   parts.push(String((await db.select().from(schema.auditEntries)).length));

@@ -5,12 +5,13 @@ import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { coreCases } from "./role-cases/core";
+import { levelsCases } from "./role-cases/levels";
 import { patternsCases } from "./role-cases/patterns";
 import { planCases } from "./role-cases/plan";
 import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
 
-const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases };
+const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases };
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
 async function snapshot(): Promise<string> {
