@@ -11,6 +11,9 @@ import * as classRoute from "@/app/api/sites/[siteId]/classes/[classId]/route";
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
 import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
 import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
+import * as datumRoute from "@/app/api/sites/[siteId]/datum/route";
+import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkId]/route";
+import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import { makeSite, makeUser, type SiteFixture } from "./fixtures";
 
 export type UpdateFixture = SiteFixture & { alt: { contextId: string; classId: string } };
@@ -50,6 +53,30 @@ async function rowOf(table: any, id: string) {
 }
 
 export const updatables: Record<string, Updatable> = {
+  datumUpdate: {
+    mod: datumRoute,
+    target: async (fx) => ({ params: { siteId: fx.site.id }, read: () => rowOf(schema.sites, fx.site.id) }),
+    fields: () => ({ datumKind: fc.constantFrom("national", "local"), datumName: label, levelTolerance: decimal(0, 0.5) }),
+  },
+  benchmarkUpdate: {
+    mod: benchmarkRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [b] = await db.insert(schema.benchmarks).values({ siteId: fx.site.id, code: `TBM ${unique()}`, description: "", x: 0, y: 0, level: 50 }).returning();
+      return { params: { siteId: fx.site.id, benchmarkId: b!.id }, read: () => rowOf(schema.benchmarks, b!.id) };
+    },
+    fields: () => ({ code: label.map((c) => c.slice(0, 40)), description: text(), x: decimal(-1000, 1000), y: decimal(-1000, 1000), level: decimal(-100, 3000) }),
+  },
+  spitUpdate: {
+    mod: spitRoute,
+    target: async (fx) => {
+      const db = await getDb();
+      const [s] = await db.insert(schema.spits).values({ siteId: fx.site.id, contextId: fx.context.id, number: 1 }).returning();
+      return { params: { siteId: fx.site.id, contextId: fx.context.id, spitId: s!.id }, read: () => rowOf(schema.spits, s!.id) };
+    },
+    // Tops above bases whatever subset is sent, so every patch is valid.
+    fields: () => ({ number: fc.integer({ min: 1, max: 999 }), topLevel: fc.constantFrom(null, 45.5, 44.125), baseLevel: fc.constantFrom(null, 40.25, 39.5) }),
+  },
   siteUpdate: {
     mod: siteRoute,
     target: async (fx) => ({ params: { siteId: fx.site.id }, read: () => rowOf(schema.sites, fx.site.id) }),
