@@ -156,3 +156,25 @@ describe("site grid settings", () => {
     expect(cleared.json.crs).toBeNull();
   });
 });
+
+describe("run descriptions", () => {
+  it("refuses a misspelt option of a new run with the key named, and starts nothing", async () => {
+    const runsRoute = await import("@/app/api/sites/[siteId]/runs/route");
+    const fx = await makeSite();
+    session.userId = fx.people.specialist.id;
+    const scope = { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id] };
+    const cases: [unknown, string, RegExp][] = [
+      [{ scope, tests: [{ kind: "l-csr" }], params: { corection: "border" } }, "params", /Unrecognized key: "corection"/],
+      [{ scope, tests: [{ kind: "l-csr", statistc: "dclf" }] }, "tests.0", /Unrecognized key: "statistc"/],
+      [{ scope: { ...scope, contextId: fx.context.id }, tests: [{ kind: "l-csr" }] }, "scope", /Unrecognized key: "contextId"/],
+      [{ scope, tests: [{ kind: "l-csr" }], lable: "typo" }, "_", /Unrecognized key: "lable"/],
+    ];
+    for (const [body, field, message] of cases) {
+      const res = await call(runsRoute, "POST", { siteId: fx.site.id }, body);
+      expect(res.status, JSON.stringify(res.json)).toBe(400);
+      expect(res.json.fieldErrors[field].join(" ")).toMatch(message);
+    }
+    const db = await getDb();
+    expect(await db.select().from(schema.analysisRuns).where(eq(schema.analysisRuns.siteId, fx.site.id))).toHaveLength(0);
+  });
+});

@@ -70,7 +70,7 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     const { spec, entries } = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests: params.tests, params, seed: row.seed });
     try {
       const engineStart = Date.now();
-      const engine = await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool });
+      const engine = await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool, stored: true });
       const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;

@@ -3,7 +3,9 @@ import { z } from "zod";
 /**
  * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,
  * the classes), the tests, and the shared parameters. No `server-only` here: the workspace form builds the
- * same shape, and the route handler parses it with this schema.
+ * same shape, and the route handler parses it with this schema. Every object is strict: a misspelt option
+ * ("corection") is refused with the key named rather than dropped and replaced by its default. Stored runs
+ * are not parsed with these schemas; they are read as they were stored.
  */
 const id = z.string().uuid("Not a valid record id.");
 
@@ -11,35 +13,35 @@ export const correctionSchema = z.enum(["isotropic", "translation", "border"]);
 export type Correction = z.infer<typeof correctionSchema>;
 
 export const testSchema = z.discriminatedUnion("kind", [
-  z.object({
+  z.strictObject({
     kind: z.literal("clark-evans"),
     /** none: Clark & Evans 1954 as published; donnelly: Donnelly 1978 (rectangles, approximate); monte-carlo: exact in W. */
     correction: z.enum(["none", "donnelly", "monte-carlo"]).default("monte-carlo"),
     alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
   }),
-  z.object({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
-  z.object({
+  z.strictObject({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
+  z.strictObject({
     kind: z.literal("l-csr"),
     /** MAD by default, as the engine and spatstat's `mad.test`; DCLF integrates over r and is often more powerful. */
     statistic: z.enum(["mad", "dclf"]).default("mad"),
     /** fixed: the observed n in every simulation; poisson: a Poisson number with mean n (spatstat's default). */
     count: z.enum(["fixed", "poisson"]).default("fixed"),
   }),
-  z.object({ kind: z.literal("pcf") }),
-  z.object({
+  z.strictObject({ kind: z.literal("pcf") }),
+  z.strictObject({
     kind: z.literal("cross-l"),
     a: id,
     b: id,
     /** labelling: do A and B share locations more than labels shuffled among them? fixed-a: are B nearer A than CSR points? */
     null: z.enum(["labelling", "fixed-a"]).default("labelling"),
   }),
-  z.object({ kind: z.literal("k-diff"), a: id, b: id }),
-  z.object({ kind: z.literal("inhom-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
+  z.strictObject({ kind: z.literal("k-diff"), a: id, b: id }),
+  z.strictObject({ kind: z.literal("inhom-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
 ]);
 export type RunTest = z.infer<typeof testSchema>;
 export type TestKind = RunTest["kind"];
 
-export const runParamsSchema = z.object({
+export const runParamsSchema = z.strictObject({
   correction: correctionSchema.default("isotropic"),
   /** Largest distance studied (m); default a quarter of the trench's short side. */
   rmax: z.coerce.number().positive("The distance range must be larger than 0 m.").optional(),
@@ -49,14 +51,14 @@ export const runParamsSchema = z.object({
 });
 export type RunParamsInput = z.input<typeof runParamsSchema>;
 
-export const runScopeSchema = z.object({
+export const runScopeSchema = z.strictObject({
   trenchId: id,
   contextIds: z.array(id).min(1, "Choose at least one context.").max(50),
   classIds: z.array(id).min(1, "Choose at least one class.").max(12),
 });
 export type RunScope = z.infer<typeof runScopeSchema>;
 
-export const runCreateSchema = z.object({
+export const runCreateSchema = z.strictObject({
   scope: runScopeSchema,
   tests: z.array(testSchema).min(1, "Choose at least one test.").max(40),
   params: runParamsSchema.default({ correction: "isotropic", nsim: 999, level: 0.05 }),

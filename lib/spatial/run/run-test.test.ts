@@ -1,6 +1,7 @@
 import { describe, expect, test } from "vitest";
 import { DEMO_TRENCH } from "../geometry/demo-window";
 import { createRandom } from "../random/random";
+import { parseRunSpec } from "./run-spec";
 import { runDistributionTest } from "./run-test";
 import { createWindowSampler } from "../random/sample-window";
 import { createWindow } from "../geometry/window";
@@ -118,5 +119,21 @@ describe("bad input gives a clear error, never NaN", () => {
     ["too few simulations", { ...good, nsim: 3 }, /nsim/],
   ])("%s", async (_name, spec, message) => {
     await expect(runDistributionTest(spec)).rejects.toThrow(message);
+  });
+});
+
+describe("run descriptions are read strictly", () => {
+  const points = [{ x: 1, y: 1 }, { x: 2, y: 1.5 }, { x: 3, y: 2 }];
+  test("an unknown key is refused with its name and place, at the top and inside a test", () => {
+    expect(() => parseRunSpec({ window: DEMO_TRENCH, points, nsims: 99, tests: [{ type: "l-envelope" }] })).toThrow(/input: Unrecognized key: "nsims"/);
+    expect(() => parseRunSpec({ window: DEMO_TRENCH, points, tests: [{ type: "l-envelope", corection: "border" }] })).toThrow(/tests\.0: Unrecognized key: "corection"/);
+    expect(() => parseRunSpec({ window: { ...DEMO_TRENCH, hole: [] }, points, tests: [{ type: "quadrat" }] })).toThrow(/window: Unrecognized key: "hole"/);
+    expect(() => parseRunSpec({ window: DEMO_TRENCH, points: [{ x: 1, y: 1, class: "A" }], tests: [{ type: "quadrat" }] })).toThrow(/points\.0: Unrecognized key: "class"/);
+  });
+
+  test("a stored description is read as it was stored: unknown keys dropped, the rest as given", () => {
+    const spec = parseRunSpec({ window: DEMO_TRENCH, points, note: "old", tests: [{ type: "l-envelope", correction: "border", legacy: 1 }] }, { stored: true });
+    expect(spec.tests[0]).toEqual({ type: "l-envelope", correction: "border", count: "poisson", statistic: "mad" });
+    expect("note" in spec).toBe(false);
   });
 });

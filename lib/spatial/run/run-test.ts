@@ -57,6 +57,8 @@ export interface RunOptions {
    * end; asked when the spec's `workers` is not 0 and the run is not small. The engine starts no threads itself.
    */
   createPool?: (threads: number | undefined) => SimulationPool;
+  /** The description was read back from storage: unknown keys are dropped instead of refused. */
+  stored?: boolean;
 }
 
 /** Finds × simulations below which a run stays in the calling thread unless `workers` is given. */
@@ -77,7 +79,7 @@ async function runOne(ctx: RunContext, t: TestSpec): Promise<Omit<TestResult, "o
 }
 
 export async function runDistributionTest(input: unknown, options: RunOptions = {}): Promise<RunResult> {
-  const spec: RunSpec = parseRunSpec(input);
+  const spec: RunSpec = parseRunSpec(input, { stored: options.stored });
   const window = createWindow(spec.window);
   // Starting worker threads costs more than a small run itself; the numbers are the same either way.
   const small = spec.points.length * spec.nsim < SMALL_RUN;

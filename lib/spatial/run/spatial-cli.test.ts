@@ -22,6 +22,10 @@ describe("npm run spatial (JSON command line)", () => {
     const out = run(JSON.stringify({ window: DEMO_TRENCH, points: [{ x: 50, y: 50 }, { x: 1, y: 1 }], tests: [{ type: "l-envelope" }] }));
     expect(out.status).toBe(2);
     expect(JSON.parse(out.stdout).error).toEqual({ kind: "input", message: expect.stringMatching(/outside the trench/) });
+    // a misspelt option is refused with its name, not dropped in favour of the default
+    const misspelt = run(JSON.stringify({ window: DEMO_TRENCH, points: [{ x: 1, y: 1 }, { x: 2, y: 2 }], tests: [{ type: "l-envelope", corection: "border" }] }));
+    expect(misspelt.status).toBe(2);
+    expect(JSON.parse(misspelt.stdout).error.message).toMatch(/tests\.0: Unrecognized key: "corection"/);
     const broken = run("{ not json");
     expect(broken.status).toBe(2);
     expect(JSON.parse(broken.stdout).error.message).toMatch(/not valid JSON/);
