@@ -3,15 +3,14 @@ import Link from "next/link";
 import { AppHeader } from "@/components/app-header";
 import { NewSiteForm } from "@/components/sites/new-site-form";
 import { pageUser } from "@/lib/server/page-access";
-import { listMySites } from "@/lib/server/sites";
 
 export const metadata: Metadata = { title: "Your sites" };
 
 const roleNote = { digger: "You record on this site", specialist: "You study the finds", director: "You answer for the record" } as const;
 
 export default async function SitesPage() {
-  const { db, user } = await pageUser();
-  const mine = await listMySites(db, user.id);
+  const { user, read } = await pageUser();
+  const mine = await read.mySites();
   return (
     <>
       <AppHeader userName={user.name} />

@@ -1,6 +1,5 @@
 import Link from "next/link";
-import type { Db } from "@/db/client";
-import { listAudit } from "@/lib/server/audit-read";
+import type { listAudit } from "@/lib/server/audit-read";
 import { AuditChanges } from "./audit-changes";
 
 const stamp = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
@@ -8,9 +7,10 @@ const stamp = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
 /** Actions that change a record's standing rather than its content, drawn so they stand out in the trail. */
 const milestone: Record<string, string> = { submit: "submitted for sign-off", "sign-off": "signed off", reopen: "reopened", return: "returned to open" };
 
-/** The trace of one record: who changed what, when, and why (reasons of reopenings). Server component. */
-export async function AuditTrail({ db, siteId, recordType, recordId }: { db: Db; siteId: string; recordType: string; recordId: string }) {
-  const entries = await listAudit(db, siteId, { recordType, recordId });
+type AuditEntryView = Awaited<ReturnType<typeof listAudit>>[number];
+
+/** The trace of one record: who changed what, when, and why (reasons of reopenings); the page reads the entries. */
+export function AuditTrail({ entries, siteId, recordType, recordId }: { entries: AuditEntryView[]; siteId: string; recordType: string; recordId: string }) {
   return (
     <section aria-labelledby={`trail-${recordId}`} className="sheet">
       <h2 id={`trail-${recordId}`} className="text-lg font-bold">Record trail</h2>

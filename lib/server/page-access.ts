@@ -5,10 +5,10 @@ import { getDb } from "@/db/client";
 import { users } from "@/db/schema";
 import { isPublicError } from "./errors";
 import { loadSiteActor, type SiteActor } from "./membership";
+import { siteReads, userReads, type SiteReads } from "./reads/site-reads";
 import { currentUserId } from "./session";
 
-/** For server components: the signed-in user, or a redirect to sign-in. */
-export async function pageUser() {
+async function signedInUser() {
   const id = await currentUserId();
   if (!id) redirect("/sign-in");
   const db = await getDb();
@@ -17,11 +17,18 @@ export async function pageUser() {
   return { db, user };
 }
 
-/** For server components of a site: the caller's role there, or 404 for non-members. */
-export async function pageSiteActor(siteId: string): Promise<{ db: Awaited<ReturnType<typeof pageUser>>["db"]; actor: SiteActor; userName: string }> {
-  const { db, user } = await pageUser();
+/** For server components: the signed-in user and the reads of their own pages, or a redirect to sign-in. */
+export async function pageUser() {
+  const { db, user } = await signedInUser();
+  return { user, read: userReads(db, user.id) };
+}
+
+/** For server components of a site: the caller's role there and the site's reads, or 404 for non-members. */
+export async function pageSiteActor(siteId: string): Promise<{ actor: SiteActor; userName: string; read: SiteReads }> {
+  const { db, user } = await signedInUser();
   try {
-    return { db, actor: await loadSiteActor(db, user.id, siteId), userName: user.name };
+    const actor = await loadSiteActor(db, user.id, siteId);
+    return { actor, userName: user.name, read: siteReads(db, actor) };
   } catch (err) {
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;

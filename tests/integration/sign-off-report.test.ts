@@ -6,7 +6,7 @@ import { makeSite } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { canonicalJson, trenchFingerprint } from "@/lib/server/sign-off";
-import { loadTrenchReport } from "@/app/sites/[siteId]/reports/load-report";
+import { loadTrenchReport } from "@/lib/server/reads/trench-report";
 import * as submitRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/submit/route";
 import * as lockRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/lock/route";
 import * as reopenRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/reopen/route";

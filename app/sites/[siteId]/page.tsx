@@ -2,15 +2,12 @@ import Link from "next/link";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { OutlineSketch } from "@/components/outline-sketch";
 import { SiteNav } from "@/components/site-nav";
-import { countHumanRemains } from "@/lib/server/human-remains";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { siteOverview } from "@/lib/server/sites";
-import { listTrenches } from "@/lib/server/trenches";
 
 export default async function SiteOverviewPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const [overview, outlines, remains] = await Promise.all([siteOverview(db, actor), listTrenches(db, siteId), countHumanRemains(db, siteId)]);
+  const { actor, read } = await pageSiteActor(siteId);
+  const [overview, outlines, remains] = await Promise.all([read.overview(), read.trenches(), read.humanRemains()]);
   const outlineOf = new Map(outlines.map((t) => [t.id, t.outline]));
   const deepest = Math.max(0, ...overview.trenches.map((t) => t.maxDepth ?? 0));
   return (

@@ -2,10 +2,8 @@ import Link from "next/link";
 import type { Metadata } from "next";
 import { AuditChanges, recordLabel } from "@/components/audit/audit-changes";
 import { SiteNav } from "@/components/site-nav";
-import { listAudit } from "@/lib/server/audit-read";
 import { auditQuerySchema } from "@/lib/server/catalog/sign-off";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listMembers } from "@/lib/server/sites";
 
 export const metadata: Metadata = { title: "Record trail" };
 
@@ -21,11 +19,11 @@ function recordHref(siteId: string, type: string, id: string): string | null {
 
 export default async function AuditPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const { siteId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
+  const { actor, read } = await pageSiteActor(siteId);
   const raw = await searchParams;
   const parsed = auditQuerySchema.safeParse(Object.fromEntries(Object.entries(raw).filter(([, v]) => v)));
   const filter = parsed.success ? parsed.data : { limit: 200 };
-  const [entries, members] = await Promise.all([listAudit(db, siteId, filter), listMembers(db, siteId)]);
+  const [entries, members] = await Promise.all([read.audit(filter), read.members()]);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/audit`} />

@@ -1,17 +1,15 @@
 import Link from "next/link";
 import { SiteNav } from "@/components/site-nav";
 import { StateBadge } from "@/components/contexts/state-badge";
-import { contextSummaries } from "@/lib/server/contexts";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listTrenches } from "@/lib/server/trenches";
 
 export default async function ContextsPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<{ trench?: string }> }) {
   const { siteId } = await params;
   const { trench } = await searchParams;
-  const { db, actor } = await pageSiteActor(siteId);
-  const trenches = await listTrenches(db, siteId);
+  const { actor, read } = await pageSiteActor(siteId);
+  const trenches = await read.trenches();
   const chosen = trenches.find((t) => t.id === trench);
-  const rows = await contextSummaries(db, siteId, chosen?.id);
+  const rows = await read.contextSummaries(chosen?.id);
   const canRecord = actor.role !== "specialist";
   const base = `/sites/${siteId}/contexts`;
   // With a CRS the outlines go out as WGS 84 longitude/latitude (RFC 7946's own); without, in site-grid metres.

@@ -1,16 +1,12 @@
 import { Suspense } from "react";
 import { FindsRegister } from "@/components/register/finds-register";
 import { SiteNav } from "@/components/site-nav";
-import { listClasses } from "@/lib/server/artefact-classes";
-import { listContexts } from "@/lib/server/contexts";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listMembers } from "@/lib/server/sites";
-import { listTrenches } from "@/lib/server/trenches";
 
 export default async function FindsRegisterPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const [trenches, contexts, classes, members] = await Promise.all([listTrenches(db, siteId), listContexts(db, siteId), listClasses(db, siteId), listMembers(db, siteId)]);
+  const { actor, read } = await pageSiteActor(siteId);
+  const [trenches, contexts, classes, members] = await Promise.all([read.trenches(), read.contexts(), read.classes(), read.members()]);
   const options = {
     trenches: trenches.map((t) => ({ id: t.id, code: t.code })),
     contexts: contexts.map((c) => ({ id: c.id, number: c.number })),

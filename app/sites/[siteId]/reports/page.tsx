@@ -1,12 +1,11 @@
 import Link from "next/link";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { siteOverview } from "@/lib/server/sites";
 
 export default async function ReportsPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const { trenches } = await siteOverview(db, actor);
+  const { actor, read } = await pageSiteActor(siteId);
+  const { trenches } = await read.overview();
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current="" />

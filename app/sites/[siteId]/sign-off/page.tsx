@@ -5,7 +5,6 @@ import { SignOffNoticeProvider } from "@/components/sign-off/sign-off-notice";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listSignOffQueue } from "@/lib/server/sign-off";
 
 export const metadata: Metadata = { title: "Sign-off" };
 
@@ -13,8 +12,8 @@ const stamp = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace("T",
 
 export default async function SignOffPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const queue = await listSignOffQueue(db, siteId);
+  const { actor, read } = await pageSiteActor(siteId);
+  const queue = await read.signOffQueue();
   const director = actor.role === "director";
   const groups = [
     { key: "awaiting", title: director ? "Awaiting your sign-off" : "Awaiting sign-off", rows: queue.contexts.filter((c) => c.state === "awaiting") },

@@ -1,6 +1,5 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { inArray } from "drizzle-orm";
 import { AuditTrail } from "@/components/audit/audit-trail";
 import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
 import { LockNotice } from "@/components/contexts/lock-notice";
@@ -8,26 +7,26 @@ import { RelationsPanel } from "@/components/contexts/relations-panel";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { SiteNav } from "@/components/site-nav";
-import { users } from "@/db/schema";
-import { contextSummaries, getContext } from "@/lib/server/contexts";
 import { isPublicError } from "@/lib/server/errors";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { sheetProblems } from "@/lib/server/sign-off";
-import { listTrenches } from "@/lib/server/trenches";
 
 const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation"] as const;
 
 export default async function ContextSheetPage({ params }: { params: Promise<{ siteId: string; contextId: string }> }) {
   const { siteId, contextId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const c = await getContext(db, siteId, contextId).catch((err) => {
+  const { actor, read } = await pageSiteActor(siteId);
+  const c = await read.context(contextId).catch((err) => {
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [trenches, all, problems] = await Promise.all([listTrenches(db, siteId), contextSummaries(db, siteId), sheetProblems(db, c)]);
-  const ids = [c.recordedBy, c.signedOffBy, c.submittedBy].filter((x): x is string => !!x);
-  const names = new Map((ids.length ? await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : []).map((u) => [u.id, u.name]));
+  const [trenches, all, problems, names, trail] = await Promise.all([
+    read.trenches(),
+    read.contextSummaries(),
+    read.sheetProblems(c),
+    read.userNames([c.recordedBy, c.signedOffBy, c.submittedBy]),
+    read.audit({ recordType: "context", recordId: c.id }),
+  ]);
   const trench = trenches.find((t) => t.id === c.trenchId);
   const mine = all.find((x) => x.id === c.id);
   const writable = isContextWritable(c) && actor.role !== "specialist";
@@ -76,7 +75,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           </dl>
         )}
         <RelationsPanel siteId={siteId} contextId={c.id} number={c.number} canEdit={writable} others={all.filter((o) => o.id !== c.id).map((o) => ({ id: o.id, number: o.number }))} />
-        <AuditTrail db={db} siteId={siteId} recordType="context" recordId={c.id} />
+        <AuditTrail entries={trail} siteId={siteId} recordType="context" recordId={c.id} />
       </main>
     </>
   );

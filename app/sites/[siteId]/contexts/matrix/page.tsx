@@ -2,17 +2,15 @@ import Link from "next/link";
 import { MatrixView } from "@/components/matrix/matrix-view";
 import { SiteNav } from "@/components/site-nav";
 import { readingLabels } from "@/lib/schemas/relation";
-import { drawSiteMatrix } from "@/lib/server/export/matrix-image";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listTrenches } from "@/lib/server/trenches";
 
 export default async function MatrixPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<{ trench?: string }> }) {
   const { siteId } = await params;
   const { trench } = await searchParams;
-  const { db, actor } = await pageSiteActor(siteId);
-  const trenches = await listTrenches(db, siteId);
+  const { actor, read } = await pageSiteActor(siteId);
+  const trenches = await read.trenches();
   const chosen = trenches.find((t) => t.id === trench);
-  const { matrix, drawing } = await drawSiteMatrix(db, siteId, chosen?.id);
+  const { matrix, drawing } = await read.matrix(chosen?.id);
   const numberOf = new Map(matrix.contexts.map((c) => [c.id, c.number]));
   const redundant = matrix.edges.filter((e) => e.redundant);
   const base = `/sites/${siteId}/contexts`;

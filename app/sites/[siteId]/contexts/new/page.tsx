@@ -2,13 +2,12 @@ import Link from "next/link";
 import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listTrenches } from "@/lib/server/trenches";
 
 export default async function NewContextPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<{ trench?: string }> }) {
   const { siteId } = await params;
   const { trench } = await searchParams;
-  const { db, actor } = await pageSiteActor(siteId);
-  const trenches = (await listTrenches(db, siteId)).map((t) => ({ id: t.id, code: t.code }));
+  const { actor, read } = await pageSiteActor(siteId);
+  const trenches = (await read.trenches()).map((t) => ({ id: t.id, code: t.code }));
   const base = `/sites/${siteId}/contexts`;
   return (
     <>

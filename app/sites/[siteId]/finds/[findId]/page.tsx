@@ -5,27 +5,22 @@ import { HumanRemainsBanner } from "@/components/cautions";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { FindEditForm } from "@/components/register/find-edit-form";
 import { SiteNav } from "@/components/site-nav";
-import { users } from "@/db/schema";
-import { eq } from "drizzle-orm";
-import { listClasses } from "@/lib/server/artefact-classes";
-import { getContext, listContexts } from "@/lib/server/contexts";
 import { isPublicError } from "@/lib/server/errors";
-import { getFind } from "@/lib/server/finds";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
 
 export default async function FindPage({ params }: { params: Promise<{ siteId: string; findId: string }> }) {
   const { siteId, findId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const f = await getFind(db, siteId, findId).catch((err) => {
+  const { actor, read } = await pageSiteActor(siteId);
+  const f = await read.find(findId).catch((err) => {
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [ctx, contexts, classes] = await Promise.all([getContext(db, siteId, f.contextId), listContexts(db, siteId), listClasses(db, siteId)]);
+  const [ctx, contexts, classes] = await Promise.all([read.context(f.contextId), read.contexts(), read.classes()]);
   const cls = classes.find((c) => c.id === f.classId);
   const signed = ctx.state === "signed_off";
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
-  const [locker] = lockerId ? await db.select({ name: users.name }).from(users).where(eq(users.id, lockerId)) : [];
+  const [names, trail] = await Promise.all([read.userNames([lockerId]), read.audit({ recordType: "find", recordId: f.id })]);
   const writable = isContextWritable(ctx);
   return (
     <>
@@ -39,7 +34,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
           <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>Context {ctx.number}</Link>
         </div>
         {cls?.humanRemains && <HumanRemainsBanner count={1} />}
-        <LockNotice state={ctx.state} number={ctx.number} who={locker?.name ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt)} />
+        <LockNotice state={ctx.state} number={ctx.number} who={(lockerId ? names.get(lockerId) : undefined) ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt)} />
         {writable ? (
           <FindEditForm
             siteId={siteId}
@@ -55,7 +50,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             <dt className="text-ink-soft">Description</dt><dd>{f.description || "—"}</dd>
           </dl>
         )}
-        <AuditTrail db={db} siteId={siteId} recordType="find" recordId={f.id} />
+        <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} />
       </main>
     </>
   );

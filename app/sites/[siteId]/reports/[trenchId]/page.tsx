@@ -8,10 +8,7 @@ import { PrintButton } from "@/components/sign-off/print-button";
 import { StateBadge } from "@/components/contexts/state-badge";
 import type { RunResult } from "@/lib/server/analysis/result-types";
 import { isPublicError } from "@/lib/server/errors";
-import { countHumanRemains } from "@/lib/server/human-remains";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { getTrench } from "@/lib/server/trenches";
-import { loadTrenchReport } from "../load-report";
 import "./print.css";
 
 export const dynamic = "force-dynamic";
@@ -20,12 +17,12 @@ const num = (v: number | null, dp = 3) => (v === null || v === undefined ? "" : 
 
 export default async function TrenchReportPage({ params }: { params: Promise<{ siteId: string; trenchId: string }> }) {
   const { siteId, trenchId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const trench = await getTrench(db, siteId, trenchId).catch((err) => {
+  const { actor, read } = await pageSiteActor(siteId);
+  const trench = await read.trench(trenchId).catch((err) => {
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [r, remains] = await Promise.all([loadTrenchReport(db, trench), countHumanRemains(db, siteId, trenchId)]);
+  const [r, remains] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId)]);
   const signedCount = r.sheets.filter((s) => s.state === "signed_off").length;
   const matches = r.stampedFingerprint === r.fingerprint;
   return (

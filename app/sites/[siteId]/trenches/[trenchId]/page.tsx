@@ -2,31 +2,25 @@ import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { PlanLoader } from "@/components/plan/plan-loader";
 import { SiteNav } from "@/components/site-nav";
-import { listClasses } from "@/lib/server/artefact-classes";
 import { recorders } from "@/lib/server/catalog/types";
-import { listContexts } from "@/lib/server/contexts";
 import { isPublicError } from "@/lib/server/errors";
-import { countHumanRemains } from "@/lib/server/human-remains";
 import { isRole } from "@/lib/server/membership";
 import { pageSiteActor } from "@/lib/server/page-access";
-import { listPhotos } from "@/lib/server/photos";
-import { listPlanFinds } from "@/lib/server/plan-finds";
-import { getTrench } from "@/lib/server/trenches";
 
 /** The trench plan: a server-read seed (trench, contexts, classes, photos) for the client canvas. */
 export default async function TrenchPage({ params }: { params: Promise<{ siteId: string; trenchId: string }> }) {
   const { siteId, trenchId } = await params;
-  const { db, actor } = await pageSiteActor(siteId);
-  const trench = await getTrench(db, siteId, trenchId).catch((err) => {
+  const { actor, read } = await pageSiteActor(siteId);
+  const trench = await read.trench(trenchId).catch((err) => {
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
   const [contexts, classes, photos, remains, finds] = await Promise.all([
-    listContexts(db, siteId, trenchId),
-    listClasses(db, siteId),
-    listPhotos(db, siteId, trenchId),
-    countHumanRemains(db, siteId, trenchId),
-    listPlanFinds(db, siteId, trenchId),
+    read.contexts(trenchId),
+    read.classes(),
+    read.photos(trenchId),
+    read.humanRemains(trenchId),
+    read.planFinds(trenchId),
   ]);
   return (
     <>

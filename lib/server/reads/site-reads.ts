@@ -1,0 +1,55 @@
+import "server-only";
+import type { Db } from "@/db/client";
+import type { Context, Trench } from "@/db/schema";
+import { listClasses } from "../artefact-classes";
+import { listAudit } from "../audit-read";
+import { contextSummaries, getContext, listContexts } from "../contexts";
+import { drawSiteMatrix } from "../export/matrix-image";
+import { getFind } from "../finds";
+import { countHumanRemains } from "../human-remains";
+import type { SiteActor } from "../membership";
+import { listPhotos } from "../photos";
+import { listPlanFinds } from "../plan-finds";
+import { listSignOffQueue, sheetProblems } from "../sign-off";
+import { listMembers, listMySites, siteOverview } from "../sites";
+import { getTrench, listTrenches } from "../trenches";
+import { patternsChoices } from "./patterns-choices";
+import { loadTrenchReport } from "./trench-report";
+import { userNames } from "./user-names";
+
+/**
+ * The reads a site's pages make, bound to the database and to the one site whose membership was checked
+ * (pageSiteActor). Pages get these functions, never the database handle: they cannot query, write, or
+ * read another site.
+ */
+export function siteReads(db: Db, actor: SiteActor) {
+  const siteId = actor.site.id;
+  return {
+    overview: () => siteOverview(db, actor),
+    members: () => listMembers(db, siteId),
+    trenches: () => listTrenches(db, siteId),
+    trench: (trenchId: string) => getTrench(db, siteId, trenchId),
+    contexts: (trenchId?: string) => listContexts(db, siteId, trenchId),
+    contextSummaries: (trenchId?: string) => contextSummaries(db, siteId, trenchId),
+    context: (contextId: string) => getContext(db, siteId, contextId),
+    sheetProblems: (context: Context) => sheetProblems(db, context),
+    signOffQueue: () => listSignOffQueue(db, siteId),
+    matrix: (trenchId?: string) => drawSiteMatrix(db, siteId, trenchId),
+    classes: () => listClasses(db, siteId),
+    find: (findId: string) => getFind(db, siteId, findId),
+    planFinds: (trenchId: string) => listPlanFinds(db, siteId, trenchId),
+    photos: (trenchId: string) => listPhotos(db, siteId, trenchId),
+    humanRemains: (trenchId?: string) => countHumanRemains(db, siteId, trenchId),
+    audit: (filter: Parameters<typeof listAudit>[2]) => listAudit(db, siteId, filter),
+    trenchReport: (trench: Trench) => loadTrenchReport(db, trench),
+    patternsChoices: () => patternsChoices(db, siteId),
+    userNames: (ids: (string | null | undefined)[]) => userNames(db, ids),
+  };
+}
+
+export type SiteReads = ReturnType<typeof siteReads>;
+
+/** The reads of the signed-in person's own pages, outside any one site. */
+export function userReads(db: Db, userId: string) {
+  return { mySites: () => listMySites(db, userId) };
+}
