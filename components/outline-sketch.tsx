@@ -1,4 +1,4 @@
-import type { PolygonJson } from "@/db/schema";
+import type { PolygonJson } from "@/lib/server/reads/row-types";
 
 /** A small static drawing of a trench outline (holes shown as paper), for lists and the overview. */
 export function OutlineSketch({ outline, size = 120 }: { outline: PolygonJson; size?: number }) {

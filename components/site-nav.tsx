@@ -1,5 +1,5 @@
 import Link from "next/link";
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/server/reads/row-types";
 
 /** The sections of one site; every member can read every section, writes depend on the role. */
 export function siteSections(siteId: string) {

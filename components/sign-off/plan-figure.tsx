@@ -1,4 +1,4 @@
-import type { PolygonJson } from "@/db/schema";
+import type { PolygonJson } from "@/lib/server/reads/row-types";
 import { symbolPath, type SymbolShape } from "@/lib/geometry/symbol-paths";
 
 export type PlanPoint = { x: number; y: number; symbol: string; colour: string; label: string };

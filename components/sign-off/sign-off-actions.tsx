@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
-import type { Context, Role } from "@/db/schema";
+import type { Context, Role } from "@/lib/server/reads/row-types";
 import { fetchJson } from "@/components/ui/fetch-json";
 import { useSignOffNotice } from "./sign-off-notice";
 
