@@ -38,7 +38,7 @@ async function prepare(): Promise<void> {
   process.env.LOAMWORK_DATA_DIR = path.resolve(dataDir, "pglite");
   const { getDb, closeDb } = await import("../db/client");
   const s = await import("../db/schema");
-  const { seedDemo } = await import("../db/seed-demo");
+  const { seedDemo } = await import("./seed/seed-demo");
   const { eq, and } = await import("drizzle-orm");
   const { checkOutline } = await import("../lib/geometry/outline");
   const { createWindowSampler, createRandom } = await import("../lib/spatial");

@@ -35,7 +35,7 @@ const median = (xs: number[]) => {
 async function main() {
   const { getDb, closeDb } = await import("../db/client");
   const s = await import("../db/schema");
-  const { seedDemo, DEMO_USERS } = await import("../db/seed-demo");
+  const { seedDemo, DEMO_USERS } = await import("./seed/seed-demo");
   const { and, eq } = await import("drizzle-orm");
   const { checkOutline } = await import("../lib/geometry/outline");
   const { createWindowSampler, createRandom } = await import("../lib/spatial");

@@ -1,6 +1,6 @@
 import { closeDb, getDb } from "@/db/client";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
-import { seedDemoPhoto } from "@/db/seed-demo-photo";
+import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
+import { seedDemoPhoto } from "@/scripts/seed/seed-demo-photo";
 
 /**
  * `npm run seed`: creates the invented demo site and its fitted trench photo (once each) and prints the

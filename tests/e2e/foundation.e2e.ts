@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { DEMO_USERS } from "@/db/seed-demo";
+import { DEMO_USERS } from "@/scripts/seed/seed-demo";
 import { baseURL, newPage, openBrowser, shown, signIn } from "./support/browser";
 
 let browser: Browser;

@@ -2,7 +2,7 @@
  * A finds specialist in the Patterns workspace: picks a scope, runs, watches progress, reads the verdict
  * and sees the plot; the run survives a reload; a run can be cancelled; a digger reads but cannot run.
  * Fewer simulations than the default (99) keep the test short; FLK's clustering and SHD's randomness in
- * the demo (db/seed-demo.ts) are decided at that number too (see tests/integration/patterns-verdicts).
+ * the demo (scripts/seed/seed-demo.ts) are decided at that number too (see tests/integration/patterns-verdicts).
  */
 import { readFile } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";

@@ -2,7 +2,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { inject } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { DEMO_USERS } from "@/db/seed-demo";
+import { DEMO_USERS } from "@/scripts/seed/seed-demo";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
 

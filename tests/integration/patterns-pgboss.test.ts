@@ -61,7 +61,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
   const load = async () => ({
     client: await import("@/db/client"),
     s: await import("@/db/schema"),
-    seed: await import("@/db/seed-demo"),
+    seed: await import("@/scripts/seed/seed-demo"),
     runner: await import("@/lib/server/jobs/runner"),
     runsRoute: await import("@/app/api/sites/[siteId]/runs/route"),
     runRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/route"),

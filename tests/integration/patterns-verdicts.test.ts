@@ -1,5 +1,5 @@
 /**
- * Distribution tests on the demo site (db/seed-demo.ts): trench A, context 1005, where the seed lays out FLK
+ * Distribution tests on the demo site (scripts/seed/seed-demo.ts): trench A, context 1005, where the seed lays out FLK
  * clustered, CHP going with FLK, FCR evenly spread and SHD at random. The expected verdicts are the layouts
  * the seed draws them from (its own simulation design), not numbers from an outside source.
  * Fewer simulations than the workspace's default (199 instead of 999) keep the suite short; the verdicts
@@ -10,7 +10,7 @@ import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
+import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 import { runsIdle } from "@/lib/server/jobs/runner";
 import type { RunView } from "@/lib/server/analysis/run-view";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
@@ -60,7 +60,7 @@ describe("verdicts on the demo site, trench A context 1005", () => {
     expect(verdict("FLK", "clark-evans").verdict).toBe("clustered");
     expect(verdict("SHD", "clark-evans").verdict).toBe("no-evidence");
     expect(verdict("FCR", "clark-evans").verdict).toBe("regular");
-    // n per class as the seed lays them out in 1005 (db/seed-demo.ts)
+    // n per class as the seed lays them out in 1005 (scripts/seed/seed-demo.ts)
     expect(run.result!.classes.map((c) => [c.code, c.n]).sort()).toEqual([["FCR", 60], ["FLK", 150], ["SHD", 90]]);
     expect(verdict("FLK").verdict).toBe("clustered");
     expect(verdict("FLK").p).toBeLessThanOrEqual(0.05);

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { count, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
+import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 import { checkOutline } from "@/lib/geometry/outline";
 
 describe("demo site seed", () => {
@@ -42,7 +42,7 @@ describe("demo site seed", () => {
 
 describe("demo trench photo", () => {
   it("is added once, fitted to the grid through its four pegs with sub-centimetre residuals", async () => {
-    const { seedDemoPhoto } = await import("@/db/seed-demo-photo");
+    const { seedDemoPhoto } = await import("@/scripts/seed/seed-demo-photo");
     const { loadFile } = await import("@/lib/server/uploads/file-store");
     const db = await getDb();
     await seedDemo(db);

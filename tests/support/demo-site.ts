@@ -5,7 +5,7 @@
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/db/seed-demo";
+import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 
 export interface DemoSite {
   siteId: string;

@@ -1,6 +1,6 @@
 import { chromium, type Browser, type Page } from "playwright-core";
 import { inject } from "vitest";
-import { DEMO_USERS } from "@/db/seed-demo";
+import { DEMO_USERS } from "@/scripts/seed/seed-demo";
 
 export const baseURL = () => inject("baseURL");
 

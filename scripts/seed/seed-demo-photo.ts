@@ -1,6 +1,6 @@
 import { and, eq } from "drizzle-orm";
-import type { Db } from "./client";
-import * as s from "./schema";
+import type { Db } from "@/db/client";
+import * as s from "@/db/schema";
 import { makeDerivatives } from "@/lib/server/uploads/derivatives";
 import { photoFolder, saveFile } from "@/lib/server/uploads/file-store";
 import { DEMO_SEED, DEMO_SITE_CODE, DEMO_USERS } from "./seed-demo";

@@ -1,6 +1,6 @@
 import { and, eq, gt, lte, sql } from "drizzle-orm";
-import type { Tx } from "./client";
-import * as s from "./schema";
+import type { Tx } from "@/db/client";
+import * as s from "@/db/schema";
 import { reduceLevelRun } from "@/lib/levels/levelling";
 
 type Ids = { siteId: string; trenchId: Record<"A" | "B" | "C", string>; contextId: (n: number) => string; diggerId: string };

@@ -1,6 +1,6 @@
 import { eq } from "drizzle-orm";
-import type { Db } from "./client";
-import * as s from "./schema";
+import type { Db } from "@/db/client";
+import * as s from "@/db/schema";
 import { hashPassword } from "@/lib/server/passwords";
 import { windowToPolygon } from "@/lib/geometry/outline";
 import { DEMO_TRENCH } from "@/lib/spatial";
