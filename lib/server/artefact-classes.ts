@@ -1,7 +1,7 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
-import type { Db } from "@/db/client";
-import { artefactClasses } from "@/db/schema";
+import { and, asc, eq, sql } from "drizzle-orm";
+import type { Db, Tx } from "@/db/client";
+import { artefactClasses, contexts, finds, type ArtefactClass } from "@/db/schema";
 import type { z } from "zod";
 import type { artefactClassCreateSchema, artefactClassUpdateSchema } from "@/lib/schemas/artefact-class";
 import { recordAudit } from "./audit";
@@ -22,12 +22,32 @@ export async function createClass(db: Db, actor: SiteActor, input: z.infer<typeo
   });
 }
 
+/**
+ * When a change alters how signed-off records read (code, label or human-remains flag), the trail says
+ * which: those records keep the class as signed off and show the change (see class-history.ts).
+ */
+async function signedOffUse(tx: Tx, before: ArtefactClass, after: ArtefactClass): Promise<string | null> {
+  if (before.code === after.code && before.label === after.label && before.humanRemains === after.humanRemains) return null;
+  const rows = await tx
+    .select({ number: contexts.number, n: sql<number>`count(*)::int` })
+    .from(finds)
+    .innerJoin(contexts, eq(contexts.id, finds.contextId))
+    .where(and(eq(finds.classId, before.id), eq(contexts.state, "signed_off")))
+    .groupBy(contexts.number)
+    .orderBy(asc(contexts.number));
+  if (rows.length === 0) return null;
+  const total = rows.reduce((s, r) => s + r.n, 0);
+  const list = rows.map((r) => r.number).join(", ");
+  return `Changed after sign-off of ${total} find${total === 1 ? "" : "s"} of this class (context${rows.length === 1 ? "" : "s"} ${list}); those records keep the class as signed off and show this change.`;
+}
+
 export async function updateClass(db: Db, actor: SiteActor, classId: string, input: z.infer<typeof artefactClassUpdateSchema>) {
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, classId)));
     if (!before) throw notFound("That artefact class");
     const [after] = await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "class", recordId: classId, before, after });
+    const reason = await signedOffUse(tx, before, after);
+    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "class", recordId: classId, before, after, reason });
     return after;
   });
 }

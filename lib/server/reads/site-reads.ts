@@ -1,8 +1,9 @@
 import "server-only";
 import type { Db } from "@/db/client";
-import type { Context, Trench } from "@/db/schema";
+import type { ArtefactClass, Context, Trench } from "@/db/schema";
 import { listClasses } from "../artefact-classes";
 import { listAudit } from "../audit-read";
+import { contextClassNotes, signedOffClassNotes } from "../class-history";
 import { contextSummaries, getContext, listContexts } from "../contexts";
 import { drawSiteMatrix } from "../export/matrix-image";
 import { getFind } from "../finds";
@@ -36,6 +37,8 @@ export function siteReads(db: Db, actor: SiteActor) {
     signOffQueue: () => listSignOffQueue(db, siteId),
     matrix: (trenchId?: string) => drawSiteMatrix(db, siteId, trenchId),
     classes: () => listClasses(db, siteId),
+    contextClassNotes: (context: Context) => contextClassNotes(db, context),
+    classesAsSignedOff: (signedOffAt: Date, classes: ArtefactClass[]) => signedOffClassNotes(db, siteId, signedOffAt, classes),
     find: (findId: string) => getFind(db, siteId, findId),
     planFinds: (trenchId: string) => listPlanFinds(db, siteId, trenchId),
     photos: (trenchId: string) => listPhotos(db, siteId, trenchId),

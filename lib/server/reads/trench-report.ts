@@ -4,6 +4,7 @@ import type { Db } from "@/db/client";
 import { analysisRuns, artefactClasses, auditEntries, contexts, users, type Trench } from "@/db/schema";
 import { readingFrom, readingLabels } from "@/lib/schemas/relation";
 import { drawMatrix } from "@/lib/server/export/matrix-svg";
+import { classChangesSince, classesAsSignedOff, describeClassChange, type ClassFace } from "@/lib/server/class-history";
 import { buildMatrix } from "@/lib/server/matrix";
 import { trenchFingerprint, trenchRecordSet } from "@/lib/server/sign-off";
 
@@ -24,12 +25,23 @@ export async function loadTrenchReport(db: Db, trench: Trench) {
   if (otherIds.length) {
     for (const c of await db.select({ id: contexts.id, number: contexts.number }).from(contexts).where(inArray(contexts.id, otherIds))) numberOf.set(c.id, c.number);
   }
+  // Signed-off sheets read their finds' classes as they stood at sign-off, and say what changed since.
+  const signedAts = set.contexts.flatMap((c) => (c.signedOffAt ? [c.signedOffAt] : []));
+  const earliest = signedAts.length ? new Date(Math.min(...signedAts.map((d) => d.getTime()))) : null;
+  const classChanges = earliest ? await classChangesSince(db, trench.siteId, classes.map((c) => c.id), earliest) : [];
+  const asSignedOff = new Map(set.contexts.map((c) => [c.id, c.signedOffAt ? classesAsSignedOff(classes, classChanges, c.signedOffAt) : null]));
+  const classNotesOf = (c: (typeof set.contexts)[number]) => {
+    const used = new Set(set.finds.filter((f) => f.contextId === c.id).map((f) => f.classId));
+    const faces = asSignedOff.get(c.id);
+    return faces ? [...faces.values()].filter((x) => used.has(x.classId)).flatMap((x) => x.changes.map(describeClassChange)) : [];
+  };
   const sheets = set.contexts.map((c) => ({
     ...c,
     recordedByName: nameOf(c.recordedBy),
     submittedByName: nameOf(c.submittedBy),
     signedOffByName: nameOf(c.signedOffBy),
     finds: set.finds.filter((f) => f.contextId === c.id).length,
+    classNotes: classNotesOf(c),
     relations: set.relations
       .filter((r) => r.fromId === c.id || r.toId === c.id)
       .map((r) => {
@@ -41,7 +53,11 @@ export async function loadTrenchReport(db: Db, trench: Trench) {
   const inTrench = set.relations.filter((r) => here.has(r.fromId) && here.has(r.toId));
   const matrix = buildMatrix(set.contexts.map((c) => ({ id: c.id, number: c.number })), inTrench);
   const matrixSvg = set.contexts.length ? drawMatrix(matrix, new Map(set.contexts.map((c) => [c.id, { type: c.type, state: c.state }]))).svg : null;
-  const finds = set.finds.map((f) => ({ ...f, contextNumber: numberOf.get(f.contextId) ?? null, cls: classById.get(f.classId) ?? null, recordedByName: nameOf(f.recordedBy) }));
+  const faceOf = (contextId: string, classId: string): ClassFace | null => {
+    const cls = classById.get(classId);
+    return asSignedOff.get(contextId)?.get(classId)?.face ?? (cls ? { code: cls.code, label: cls.label, humanRemains: cls.humanRemains } : null);
+  };
+  const finds = set.finds.map((f) => ({ ...f, contextNumber: numberOf.get(f.contextId) ?? null, cls: classById.get(f.classId) ?? null, classFace: faceOf(f.contextId, f.classId), recordedByName: nameOf(f.recordedBy) }));
   const runs = await db.select().from(analysisRuns).where(and(eq(analysisRuns.trenchId, trench.id), eq(analysisRuns.status, "done"))).orderBy(desc(analysisRuns.finishedAt)).limit(20);
   // The fingerprint stamped when the trench was last signed off, to show whether the records still match it.
   const [stamp] = await db

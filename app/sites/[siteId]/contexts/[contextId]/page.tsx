@@ -20,12 +20,13 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [trenches, all, problems, names, trail] = await Promise.all([
+  const [trenches, all, problems, names, trail, classNotes] = await Promise.all([
     read.trenches(),
     read.contextSummaries(),
     read.sheetProblems(c),
     read.userNames([c.recordedBy, c.signedOffBy, c.submittedBy]),
     read.audit({ recordType: "context", recordId: c.id }),
+    read.contextClassNotes(c),
   ]);
   const trench = trenches.find((t) => t.id === c.trenchId);
   const mine = all.find((x) => x.id === c.id);
@@ -52,6 +53,11 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           {c.state !== "signed_off" && problems.length > 0 && (
             <ul className="mt-1 list-disc pl-5 text-sm text-warn" aria-label="What keeps this sheet from sign-off">
               {problems.map((p) => <li key={p.field + p.message}>{p.message}</li>)}
+            </ul>
+          )}
+          {classNotes.length > 0 && (
+            <ul className="mt-1 list-disc pl-5 text-sm text-warn" aria-label="Class changes after sign-off">
+              {classNotes.map((n) => <li key={n}>{n}</li>)}
             </ul>
           )}
           <div className="mt-2"><SignOffActions siteId={siteId} contextId={c.id} number={c.number} state={c.state} role={actor.role} ready={problems.length === 0} /></div>

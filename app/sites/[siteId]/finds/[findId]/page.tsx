@@ -22,6 +22,9 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
   const [names, trail] = await Promise.all([read.userNames([lockerId]), read.audit({ recordType: "find", recordId: f.id })]);
   const writable = isContextWritable(ctx);
+  // A signed-off find reads its class as it stood at sign-off; a later rename or flag is said, not silently shown.
+  const asSigned = signed && ctx.signedOffAt && cls ? await read.classesAsSignedOff(ctx.signedOffAt, [cls]) : null;
+  const face = (cls && asSigned?.faces.get(cls.id)?.face) ?? cls;
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/finds`} />
@@ -29,11 +32,16 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
         <p><Link className="underline" href={`/sites/${siteId}/finds`}>← Finds register</Link></p>
         <div className="flex flex-wrap items-baseline gap-3">
           <h1 className="text-3xl font-bold">Find <span className="num">{f.number}</span></h1>
-          <span className="text-xl text-ink-soft">{cls?.code} · {cls?.label}</span>
+          <span className="text-xl text-ink-soft">{face?.code} · {face?.label}</span>
           <Link className="btn ml-auto" href={`/sites/${siteId}/trenches/${f.trenchId}?find=${f.id}`}>See it on the plan</Link>
           <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>Context {ctx.number}</Link>
         </div>
         {cls?.humanRemains && <HumanRemainsBanner count={1} />}
+        {asSigned && asSigned.notes.length > 0 && (
+          <ul className="sheet list-disc pl-8 text-sm text-warn" aria-label="Class changes after sign-off">
+            {asSigned.notes.map((n) => <li key={n}>{n}</li>)}
+          </ul>
+        )}
         <LockNotice state={ctx.state} number={ctx.number} who={(lockerId ? names.get(lockerId) : undefined) ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt)} />
         {writable ? (
           <FindEditForm

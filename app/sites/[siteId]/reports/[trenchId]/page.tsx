@@ -82,6 +82,11 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
                 <dt className="text-ink-soft">submitted</dt><dd>{s.submittedByName ? <>{s.submittedByName} · <span className="num">{stamp(s.submittedAt)}</span></> : "—"}</dd>
                 <dt className="text-ink-soft">signed off</dt><dd>{s.signedOffByName ? <>{s.signedOffByName} · <span className="num">{stamp(s.signedOffAt)}</span></> : "—"}</dd>
               </dl>
+              {s.classNotes.length > 0 && (
+                <ul className="mt-2 list-disc pl-5 text-sm text-warn" aria-label={`Class changes after the sign-off of context ${s.number}`}>
+                  {s.classNotes.map((n) => <li key={n}>{n}</li>)}
+                </ul>
+              )}
             </article>
           ))}
         </section>
@@ -100,7 +105,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
               {r.finds.map((f) => (
                 <tr key={f.id}>
                   <td className="num">{f.number}</td><td className="num">{f.contextNumber}</td>
-                  <td>{f.cls && <ClassSymbol symbol={f.cls.symbol} colour={f.cls.colour} size={12} />} {f.cls?.code}</td>
+                  <td>{f.cls && <ClassSymbol symbol={f.cls.symbol} colour={f.cls.colour} size={12} />} {f.classFace?.code}</td>
                   <td className="num">{num(f.x)}</td><td className="num">{num(f.y)}</td><td className="num">{num(f.z)}</td>
                   <td className="num">{f.count ?? ""}</td><td className="num">{num(f.weightG, 1)}</td>
                   <td>{f.description}</td><td>{f.method}</td><td>{f.recordedByName}</td>
