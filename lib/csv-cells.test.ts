@@ -19,6 +19,7 @@ describe("inert CSV text", () => {
 
   it("the Patterns page's CSV keeps numbers and guards text", () => {
     const text = plotCsv([{ r: -0.5, label: "-1+1", class: "=cmd" }]);
+    expect(text.split("\r\n")[1]).toBe(`-0.5,"'-1+1","'=cmd"`);
     expect(Papa.parse<string[]>(text.trim()).data).toEqual([["r", "label", "class"], ["-0.5", "'-1+1", "'=cmd"]]);
   });
 });

@@ -3,7 +3,7 @@
  * and the numbers behind it as CSV (papaparse). Browser only.
  */
 import Papa from "papaparse";
-import { inertText } from "@/lib/csv-cells";
+import { inertText, quoteGuarded } from "@/lib/csv-cells";
 
 function download(blob: Blob, name: string): void {
   const url = URL.createObjectURL(blob);
@@ -64,7 +64,7 @@ export async function exportPng(container: HTMLElement, name: string): Promise<v
 /** Numbers stay numbers; every text cell is made inert against spreadsheet formulas. */
 export function plotCsv(rows: Record<string, number | string | null>[]): string {
   const safe = rows.map((r) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k, typeof v === "string" ? inertText(v) : v])));
-  return Papa.unparse(safe, { escapeFormulae: false, newline: "\r\n" });
+  return Papa.unparse(safe, { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" });
 }
 
 export function exportCsv(rows: Record<string, number | string | null>[], name: string): void {

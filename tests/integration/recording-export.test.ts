@@ -112,6 +112,9 @@ describe("CSV exports against spreadsheet formulas", () => {
     const col = (name: string) => head.indexOf(name);
     // OWASP, "CSV Injection": a cell starting with = + - @ tab or CR gets a leading single quote.
     expect(rows.map((r) => r[col("description")])).toEqual(Object.values(formulas).map((t) => `'${t}`));
+    // …and wraps it in double quotes; the numbers stay bare.
+    expect(csv).toContain(`,"'-2+3+cmd|' /C calc'!A0",`);
+    expect(csv).toContain(",-1.5,-0.25,-3,,12.5,");
     for (const r of rows) {
       expect([r[col("x")], r[col("y")], r[col("z")], r[col("weight_g")]]).toEqual(["-1.5", "-0.25", "-3", "12.5"]);
       expect(r[col("count")]).toBe("");

@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import type { Context } from "@/db/schema";
 import type { RegisterRow } from "@/lib/server/finds";
-import { inertText } from "@/lib/csv-cells";
+import { inertText, quoteGuarded } from "@/lib/csv-cells";
 
 type Kind = "number" | "text";
 export type CsvColumn = readonly [name: string, kind: Kind];
@@ -19,7 +19,7 @@ function numberCell(name: string, v: unknown): number | string {
  */
 export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string {
   const data = rows.map((r) => columns.map(([name, kind], i) => (kind === "number" ? numberCell(name, r[i]) : inertText(String(r[i] ?? "")))));
-  return Papa.unparse({ fields: columns.map(([name]) => name), data }, { escapeFormulae: false, newline: "\r\n" });
+  return Papa.unparse({ fields: columns.map(([name]) => name), data }, { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" });
 }
 
 /** The register's columns; the header names are ones the import recognises, so a file round-trips. */
