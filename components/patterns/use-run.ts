@@ -9,33 +9,27 @@ import type { RunView } from "@/lib/server/analysis/run-view";
 type Status = RunView["status"];
 /** A run still queued or simulating. */
 export const inProgress = (s: Status | undefined) => s === "queued" || s === "running";
-/** Poll interval when the event stream cannot be had (a proxy that refuses it, an old browser). */
-const FALLBACK_POLL_MS = 150;
+/** Wait before reading the run and opening its stream again after the server refused the stream. */
+const REOPEN_AFTER_MS = 3000;
 
 /**
- * A run. While it is queued or running the page follows its event stream (…/runs/{id}/events): progress
- * arrives as the server makes it and the finished run the moment it is stored, with no polling. If the
- * stream fails, the run is polled instead.
+ * A run. While it is queued or running the page follows its event stream (…/runs/{id}/events), the one
+ * way it learns of progress: it arrives as the server makes it and the finished run the moment it is
+ * stored. A dropped stream is reopened by the browser, and each stream starts with the whole run.
  */
 export function useRun(siteId: string, runId: string | null) {
   const qc = useQueryClient();
-  const [streamFailedFor, setStreamFailedFor] = useState<string | null>(null);
-  const polling = streamFailedFor !== null && streamFailedFor === runId;
+  const [attempt, setAttempt] = useState(0);
   const query = useQuery({
     queryKey: ["run", siteId, runId],
     queryFn: () => fetchJson<RunView>(`/api/sites/${siteId}/runs/${runId}`),
     enabled: !!runId,
     // The stream keeps a run in progress fresh; a finished run is read again when next opened (out of date?).
-    staleTime: (q) => (!polling && inProgress(q.state.data?.status) ? Infinity : 0),
-    refetchInterval: (q) => (polling && inProgress(q.state.data?.status) ? FALLBACK_POLL_MS : false),
+    staleTime: (q) => (inProgress(q.state.data?.status) ? Infinity : 0),
   });
-  const following = !!runId && !polling && inProgress(query.data?.status);
+  const following = !!runId && inProgress(query.data?.status);
   useEffect(() => {
     if (!following || !runId) return;
-    if (typeof EventSource === "undefined") {
-      setStreamFailedFor(runId);
-      return;
-    }
     const key = ["run", siteId, runId];
     const source = new EventSource(`/api/sites/${siteId}/runs/${runId}/events`);
     let ended = false;
@@ -51,13 +45,20 @@ export function useRun(siteId: string, runId: string | null) {
       const p = JSON.parse((e as MessageEvent<string>).data) as RunProgressEvent;
       qc.setQueryData(key, (old: RunView | undefined) => (old && inProgress(old.status) ? { ...old, ...p } : old));
     });
+    let reopen: ReturnType<typeof setTimeout> | undefined;
     source.onerror = () => {
-      if (ended) return;
-      source.close();
-      setStreamFailedFor(runId);
+      // A dropped connection is retried by the browser itself (readyState CONNECTING); a refusal is final.
+      if (ended || source.readyState !== EventSource.CLOSED) return;
+      reopen = setTimeout(() => {
+        void qc.invalidateQueries({ queryKey: key }); // it may have finished meanwhile: then nothing reopens
+        setAttempt((n) => n + 1);
+      }, REOPEN_AFTER_MS);
     };
-    return () => source.close();
-  }, [following, siteId, runId, qc]);
+    return () => {
+      clearTimeout(reopen);
+      source.close();
+    };
+  }, [following, siteId, runId, qc, attempt]);
   return query;
 }
 

@@ -8,7 +8,7 @@ import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { runsIdle } from "@/lib/server/jobs/runner";
+import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import * as eventsRoute from "@/app/api/sites/[siteId]/runs/[runId]/events/route";

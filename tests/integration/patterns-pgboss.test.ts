@@ -62,10 +62,11 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
     client: await import("@/db/client"),
     s: await import("@/db/schema"),
     seed: await import("@/scripts/seed/seed-demo"),
-    runner: await import("@/lib/server/jobs/runner"),
+    runner: await import("@/lib/server/jobs/run-queue"),
     runsRoute: await import("@/app/api/sites/[siteId]/runs/route"),
     runRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/route"),
     cancelRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/cancel/route"),
+    eventsRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/events/route"),
   });
 
   beforeAll(async () => {
@@ -99,7 +100,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
       worker.kill("SIGTERM");
       await gone;
     }
-    await mods?.runner.stopRunner();
+    await mods?.runner.stopRunQueue();
     await mods?.client.closeDb();
     setup.stop();
   }, 60_000);
@@ -143,5 +144,24 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
     const read = await call(mods.runRoute, "GET", { siteId: d.siteId, runId: res.json.id });
     expect(read.json.status).toBe("cancelled");
     expect(read.json.result).toBeNull();
+  }, 120_000);
+
+  it("the app's event stream follows the run the worker computes: progress as it rises, then the result", async () => {
+    session.userId = d.specialist;
+    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-csr" }], params: { nsim: 4999, seed: 5 } });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    const stream = await mods.eventsRoute.GET(new Request("http://localhost/api/test"), { params: Promise.resolve({ siteId: d.siteId, runId: res.json.id }) });
+    expect(stream.status).toBe(200);
+    // Server-sent events as an EventSource reads them: blocks apart by a blank line; keep-alive comments skipped.
+    const text = await stream.text();
+    const events = text.split("\n\n").filter((b) => b.startsWith("event: ")).map((b) => ({ event: /^event: (.*)$/m.exec(b)![1], data: JSON.parse(/^data: (.*)$/m.exec(b)![1]) }));
+    const progress = events.filter((e) => e.event === "progress").map((e) => e.data.progress as number);
+    expect(progress.length, workerLog).toBeGreaterThan(2);
+    expect(progress).toEqual([...progress].sort((a, b) => a - b));
+    expect(progress.at(-1)).toBeGreaterThan(0.5);
+    const last = events.at(-1)!;
+    expect(last.event).toBe("run");
+    expect(last.data.status).toBe("done");
+    expect(last.data.result.tests[0].verdict).toBe("clustered");
   }, 120_000);
 });

@@ -12,7 +12,7 @@ import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { executeRun } from "@/lib/server/analysis/execute-run";
 import { requeueOrphans } from "@/lib/server/analysis/run-rows";
-import { runsIdle } from "@/lib/server/jobs/runner";
+import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import * as cancelRoute from "@/app/api/sites/[siteId]/runs/[runId]/cancel/route";

@@ -2,14 +2,10 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { analysisRuns } from "@/db/schema";
-import { freshestProgress, isFinished, watchRun, type RunStatus } from "../jobs/run-events";
-import { runQueueKind } from "../jobs/runner";
+import { isFinished, watchRun, type RunEvent, type RunStatus } from "../jobs/run-events";
 import { readRun } from "./runs";
 
-/** How often the row is looked at besides the events: a run in another process is seen only this way. */
-const ROW_CHECK_MS = { local: 1000, remote: 200 };
 const KEEP_ALIVE_MS = 15_000;
-const PROGRESS_EVERY_MS = 100;
 
 /** The small part of a run that changes while it executes, as a watcher receives it. */
 export type RunProgressEvent = { status: RunStatus; progress: number; startedAt: string | null; now: string };
@@ -18,8 +14,8 @@ export type RunProgressEvent = { status: RunStatus; progress: number; startedAt:
  * A run as a stream of server-sent events (text/event-stream), for a page watching it: first `run` with
  * the whole run as GET …/runs/{runId} returns it, then `progress` at each step of the simulations, and at
  * the end `run` once more with the status it finished with and its result, after which the stream closes.
- * A run executing in this process is followed through its events; the row is checked as well, which is
- * how a run taken by a separate worker process (pg-boss) is followed.
+ * The run is followed through its row's change notifications (run-events.ts), whichever process executes
+ * it; progress arrives already thinned by the executing process (execute-run.ts).
  */
 export async function runEventStream(db: Db, siteId: string, runId: string, signal: AbortSignal): Promise<Response> {
   const first = await readRun(db, siteId, runId); // a run that does not exist (or is another site's) is a 404 here
@@ -32,16 +28,12 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
       let lastProgress = first.progress;
       let lastStatus = first.status;
       let unwatch = () => {};
-      let rowCheck: ReturnType<typeof setInterval> | undefined;
       let keepAlive: ReturnType<typeof setInterval> | undefined;
-      let later: ReturnType<typeof setTimeout> | undefined;
       const close = () => {
         if (closed) return;
         closed = true;
         unwatch();
-        clearInterval(rowCheck);
         clearInterval(keepAlive);
-        clearTimeout(later);
         signal.removeEventListener("abort", close);
         try {
           controller.close();
@@ -59,27 +51,11 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
         }
       };
       const send = (event: string, data: unknown) => write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
-      // At most one progress event per PROGRESS_EVERY_MS (the latest wins): the engine reports every chunk
-      // of simulations, far more often than a progress bar needs redrawing.
-      let lastSentAt = 0;
-      let pending: { status: RunStatus; value: number; startedAt: string | null } | null = null;
-      const flush = () => {
-        clearTimeout(later);
-        later = undefined;
-        if (!pending) return;
-        const { status, value, startedAt } = pending;
-        pending = null;
-        lastSentAt = Date.now();
-        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
-      };
       const progress = (status: RunStatus, value: number, startedAt: string | null) => {
-        if (status === lastStatus && value <= lastProgress) return;
+        if (status === lastStatus && value <= lastProgress) return; // a change already sent, seen again on a resync
         lastStatus = status;
         lastProgress = value;
-        pending = { status, value, startedAt };
-        const wait = lastSentAt + PROGRESS_EVERY_MS - Date.now();
-        if (wait <= 0) flush();
-        else later ??= setTimeout(flush, wait);
+        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
       };
       const finish = () => {
         if (finishing || closed) return;
@@ -98,17 +74,26 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
           .where(eq(analysisRuns.id, runId))
           .then(([row]) => {
             if (!row || isFinished(row.status)) return finish();
-            progress(row.status, freshestProgress(runId, row.progress), row.startedAt?.toISOString() ?? null);
+            progress(row.status, row.progress, row.startedAt?.toISOString() ?? null);
           })
           .catch(() => undefined);
       };
       send("run", first);
       if (isFinished(first.status) || signal.aborted) return close();
-      unwatch = watchRun(runId, (e) => (isFinished(e.status) ? finish() : progress(e.status, e.progress, e.startedAt)));
-      rowCheck = setInterval(checkRow, runQueueKind() === "local" ? ROW_CHECK_MS.local : ROW_CHECK_MS.remote);
       keepAlive = setInterval(() => write(": still watching\n\n"), KEEP_ALIVE_MS);
       signal.addEventListener("abort", close, { once: true });
-      checkRow(); // it may have moved on between the first read and the subscription
+      const onEvent = (e: RunEvent) => (isFinished(e.status) ? finish() : progress(e.status, e.progress, e.startedAt));
+      watchRun(runId, { onEvent, onResync: checkRow }).then(
+        (stopWatching) => {
+          if (closed) return stopWatching();
+          unwatch = stopWatching;
+          checkRow(); // it may have moved on between the first read and the subscription
+        },
+        (err) => {
+          console.error(`[loamwork] run ${runId}: its changes cannot be followed`, err);
+          close(); // the page reconnects, and reads the run afresh
+        },
+      );
     },
     cancel() {
       stop();

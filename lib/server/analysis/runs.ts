@@ -7,8 +7,7 @@ import { ENGINE_VERSION } from "@/lib/spatial";
 import { recordAudit } from "../audit";
 import { badInput, conflict, notFound } from "../errors";
 import type { SiteActor } from "../membership";
-import { freshestProgress, publishRun } from "../jobs/run-events";
-import { cancelRunJob, ensureRunner, submitRun } from "../jobs/runner";
+import { runQueue } from "../jobs/run-queue";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunResult } from "./result-types";
 import type { RunCreate, RunScope, RunTest } from "./run-schema";
@@ -42,7 +41,8 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
 }
 
 export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Promise<RunView> {
-  await ensureRunner();
+  // Got first, so that a queue starting now hands back older left-behind runs before this one.
+  const queue = await runQueue();
   const data = await loadScope(db, actor.site.id, input.scope);
   const refusals = testRefusals(data, input.tests);
   if (refusals.length) throw badInput(refusals.join(" "), { tests: refusals });
@@ -79,7 +79,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "run", recordId: run.id, after: { scope: run.scope, params, seed } });
     return run;
   });
-  await submitRun(row.id, data);
+  await queue.submit(row.id, data);
   return toView(row, false);
 }
 
@@ -112,24 +112,17 @@ async function getRow(db: Db, siteId: string, runId: string): Promise<AnalysisRu
   return row;
 }
 
-/** A running row's progress is written only now and then when the run executes here; its last event is fresher. */
-function withLiveProgress(row: AnalysisRun): AnalysisRun {
-  return row.status === "running" ? { ...row, progress: freshestProgress(row.id, row.progress) } : row;
-}
-
 /** One run; out of date when the records it read have changed since (compared on every read). */
 export async function readRun(db: Db, siteId: string, runId: string): Promise<RunView> {
-  await ensureRunner();
   const row = await getRow(db, siteId, runId);
   // Only a finished run can be out of date; while it runs it is watched closely, so skip the re-read.
-  if (row.status !== "done") return toView(withLiveProgress(row), false);
+  if (row.status !== "done") return toView(row, false);
   const now = await currentFingerprint(db, siteId, row.scope as RunScope);
   return toView(row, now !== row.fingerprint);
 }
 
 /** Saved runs, newest first, without their (large) results; scopes are fingerprinted once each. */
 export async function listRuns(db: Db, siteId: string, trenchId?: string): Promise<Omit<RunView, "result">[]> {
-  await ensureRunner();
   const where = trenchId ? and(eq(analysisRuns.siteId, siteId), eq(analysisRuns.trenchId, trenchId)) : eq(analysisRuns.siteId, siteId);
   const rows = await db.select().from(analysisRuns).where(where).orderBy(desc(analysisRuns.createdAt)).limit(200);
   const byScope = new Map<string, Promise<string | null>>();
@@ -156,7 +149,6 @@ export async function cancelRun(db: Db, actor: SiteActor, runId: string): Promis
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "cancel", recordType: "run", recordId: runId, before: { status: row.status, progress: row.progress }, after: { status: "cancelled" } });
     return cancelled;
   });
-  await cancelRunJob(runId);
-  publishRun({ runId, status: "cancelled", progress: after.progress, startedAt: after.startedAt?.toISOString() ?? null });
+  await (await runQueue()).cancel(runId);
   return toView(after, false);
 }

@@ -1,48 +1,69 @@
 import "server-only";
-import { EventEmitter } from "node:events";
+import { getDb, listen, type Db } from "@/db/client";
 import { runStatusEnum } from "@/db/schema";
 
 /**
- * What a run executing in this process tells anyone watching it, as it happens: its status and progress
- * on the server's clock. The run's row stays the truth (a reload reads it); these events let an open
- * Patterns page follow a local run without asking the database every few hundred milliseconds. Runs that
- * separate worker processes take (pg-boss) publish nothing here; their watchers read the row instead.
+ * What anyone watching a run learns as it happens: its status and progress, as committed to its row.
+ * The row is the one source; a trigger (drizzle/0005_run_notify.sql) announces each change on the
+ * channel below, whichever process wrote it — this one's in-process queue or a separate worker. This
+ * process listens once and hands each run's changes to that run's watchers.
  */
 export type RunStatus = (typeof runStatusEnum.enumValues)[number];
 export type RunEvent = { runId: string; status: RunStatus; progress: number; startedAt: string | null };
+export type RunWatcher = {
+  onEvent: (event: RunEvent) => void;
+  /** The listening connection was lost and is back: changes meanwhile went unheard; read the row again. */
+  onResync: () => void;
+};
 
-type Bus = { emitter: EventEmitter; latest: Map<string, RunEvent> };
-const bus = ((globalThis as Record<string, unknown>).__loamworkRunEvents ??= (() => {
-  const emitter = new EventEmitter();
-  emitter.setMaxListeners(0); // one listener per open page watching a run
-  return { emitter, latest: new Map<string, RunEvent>() };
-})()) as Bus;
+const CHANNEL = "loamwork_run";
+
+type Hub = { watchers: Map<string, Set<RunWatcher>>; listening?: Promise<unknown>; db?: Db };
+const hub = ((globalThis as Record<string, unknown>).__loamworkRunEvents ??= { watchers: new Map() }) as Hub;
 
 export const isFinished = (status: RunStatus) => status === "done" || status === "failed" || status === "cancelled";
 
-export function publishRun(event: RunEvent): void {
-  // Only a run still in progress needs remembering, for a watcher that arrives between two events.
-  if (isFinished(event.status)) bus.latest.delete(event.runId);
-  else bus.latest.set(event.runId, event);
-  bus.emitter.emit(event.runId, event);
+function deliver(payload: string): void {
+  let event: RunEvent;
+  try {
+    const raw = JSON.parse(payload) as RunEvent;
+    // Postgres writes timestamps as "…+00:00"; the API speaks ISO 8601 in UTC as toISOString() gives it.
+    event = { ...raw, startedAt: raw.startedAt ? new Date(raw.startedAt).toISOString() : null };
+  } catch {
+    console.error("[loamwork] a run notification could not be read", payload);
+    return;
+  }
+  for (const w of hub.watchers.get(event.runId) ?? []) w.onEvent(event);
+}
+
+function resyncAll(): void {
+  for (const set of hub.watchers.values()) for (const w of set) w.onResync();
+}
+
+/** Listens once per database handle (a closed and reopened database needs listening afresh). */
+async function startListening(): Promise<void> {
+  const db = await getDb();
+  if (hub.db !== db || !hub.listening) {
+    hub.db = db;
+    hub.listening = listen(CHANNEL, deliver, resyncAll).catch((err) => {
+      hub.listening = undefined;
+      throw err;
+    });
+  }
+  await hub.listening;
 }
 
 /**
- * Forget a run's last event once it has stopped in this process, however it stopped (a cancel or an
- * aborted write publishes no end event; watchers learn those from the row).
+ * Calls the watcher with each change of the run from the moment this resolves; returns the function that
+ * stops watching. Changes committed before it resolved are not replayed: read the row after it.
  */
-export function forgetRun(runId: string): void {
-  bus.latest.delete(runId);
-}
-
-/** A running run's progress: the row's, or the fresher one this process last published for it. */
-export function freshestProgress(runId: string, rowProgress: number): number {
-  const live = bus.latest.get(runId);
-  return live && live.status === "running" && live.progress > rowProgress ? live.progress : rowProgress;
-}
-
-/** Calls `listener` with each event of the run from now on; returns the unsubscribe function. */
-export function watchRun(runId: string, listener: (event: RunEvent) => void): () => void {
-  bus.emitter.on(runId, listener);
-  return () => bus.emitter.off(runId, listener);
+export async function watchRun(runId: string, watcher: RunWatcher): Promise<() => void> {
+  await startListening();
+  let set = hub.watchers.get(runId);
+  if (!set) hub.watchers.set(runId, (set = new Set()));
+  set.add(watcher);
+  return () => {
+    set.delete(watcher);
+    if (set.size === 0 && hub.watchers.get(runId) === set) hub.watchers.delete(runId);
+  };
 }

@@ -4,7 +4,7 @@ import { env } from "@/lib/env";
 import type { SimulationPool } from "@/lib/spatial";
 import { executeRun } from "../analysis/execute-run";
 import { failStale } from "../analysis/run-rows";
-import { openBoss, RUN_EXPIRE_SECONDS, workRuns } from "./pg-queue";
+import { RUN_EXPIRE_SECONDS, workRuns } from "./pg-boss-queue";
 import { warmSimulationPool } from "./sim-pool";
 import { createSimulationPool } from "./thread-pool";
 
@@ -23,12 +23,10 @@ export async function startRunWorker(options: { concurrency?: number; threads?: 
   if (stale) console.log(`[loamwork] marked ${stale} abandoned run(s) failed`);
   const pool: SimulationPool = createSimulationPool({ threads: options.threads });
   if (env().NODE_ENV !== "test") void warmSimulationPool(pool);
-  const boss = await openBoss(url);
-  const stopWork = await workRuns(boss, (runId, signal) => executeRun(db, runId, { signal, pool }), options.concurrency ?? 1);
+  const stopWork = await workRuns(url, (runId, signal) => executeRun(db, runId, { signal, pool }), options.concurrency ?? 1);
   return {
     stop: async () => {
       await stopWork();
-      await boss.stop({ graceful: false, wait: true });
       await pool.destroy();
     },
   };

@@ -1,7 +1,6 @@
 import { Suspense } from "react";
 import { SiteNav } from "@/components/site-nav";
 import { PatternsWorkspace } from "@/components/patterns/workspace";
-import { ensureRunner } from "@/lib/server/jobs/runner";
 import { pageSiteActor } from "@/lib/server/page-access";
 
 export const metadata = { title: "Patterns — Loamwork" };
@@ -9,8 +8,6 @@ export const metadata = { title: "Patterns — Loamwork" };
 export default async function PatternsPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  // Starting the runner here also hands back runs a stopped server left behind.
-  await ensureRunner();
   const choices = await read.patternsChoices();
   return (
     <>

@@ -1,13 +1,40 @@
+import "server-only";
+import type { Db } from "@/db/client";
+import { env } from "@/lib/env";
+import { executeRun } from "../analysis/execute-run";
+import { requeueOrphans } from "../analysis/run-rows";
+import type { ScopeData } from "../analysis/scope-data";
+import type { RunQueue } from "./run-queue";
+import { simulationPool, warmSimulationPool } from "./sim-pool";
+
 /**
- * The in-process run queue used with the embedded database: only the app process may open PGlite, so it
- * runs every job itself, one (or `concurrency`) at a time, each with an AbortController so a cancel stops
- * the simulations in the worker threads at once. Jobs are run ids; the work function is passed in.
+ * The in-process adapter, used with the embedded database: only the app process may open PGlite, so it
+ * executes every run itself, on the engine's worker-thread pool. Runs left 'running' or 'queued' by a
+ * process that stopped (a crash or a restart) are queued again as it starts.
+ */
+export async function startInProcessQueue(db: Db): Promise<RunQueue> {
+  const runs = new LocalRunQueue<ScopeData>((runId, signal, scope) => executeRun(db, runId, { signal, pool: simulationPool(), scope }));
+  // Warm the simulation threads now rather than on the first Run (tests start their own runs, cold or not).
+  if (env().NODE_ENV !== "test") void warmSimulationPool();
+  for (const id of await requeueOrphans(db)) runs.submit(id);
+  return {
+    kind: "local",
+    submit: async (runId, scope) => runs.submit(runId, scope),
+    cancel: async (runId) => runs.cancel(runId),
+    idle: () => runs.idle(),
+    close: async () => runs.cancelAll(),
+  };
+}
+
+/**
+ * Runs jobs one (or `concurrency`) at a time, each with an AbortController so a cancel stops the
+ * simulations in the worker threads at once. Jobs are run ids; the work function is passed in.
  * A submitter may hand over what it already holds for the run (`hint`); it reaches the work function
  * only when the run starts at once, never after waiting behind others, when it would be out of date.
  */
-export type RunWork<H = unknown> = (runId: string, signal: AbortSignal, hint?: H) => Promise<void>;
+type RunWork<H> = (runId: string, signal: AbortSignal, hint?: H) => Promise<void>;
 
-export class LocalRunQueue<H = unknown> {
+class LocalRunQueue<H = unknown> {
   private readonly waiting: string[] = [];
   private readonly active = new Map<string, AbortController>();
   private readonly hints = new Map<string, H>();

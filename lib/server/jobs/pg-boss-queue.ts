@@ -1,0 +1,67 @@
+import "server-only";
+import PgBoss from "pg-boss";
+import type { RunQueue } from "./run-queue";
+
+/**
+ * The pg-boss adapter (a PostgreSQL-backed job queue), for Loamwork on a PostgreSQL server: the app only
+ * sends the run id; separate worker processes (`npm run worker`, on this or other machines) take the jobs.
+ * Cancelling needs no queue call: the run's status in analysis_runs is the truth, and a worker checks it
+ * each time it writes progress.
+ */
+const JOB_NAME = "loamwork-analysis-run";
+/** A run longer than this is presumed lost with its worker; pg-boss then retries it once. */
+export const RUN_EXPIRE_SECONDS = 15 * 60;
+
+async function openBoss(connectionString: string): Promise<PgBoss> {
+  const boss = new PgBoss({ connectionString, max: 4, application_name: "loamwork-runs" });
+  boss.on("error", (err) => console.error("[loamwork] job queue error", err));
+  await boss.start();
+  await boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS });
+  return boss;
+}
+
+/** The app's side: sends runs to the workers. */
+export async function startPgBossQueue(connectionString: string): Promise<RunQueue> {
+  const boss = await openBoss(connectionString);
+  return {
+    kind: "pg-boss",
+    async submit(runId) {
+      const jobId = await boss.send(JOB_NAME, { runId }, { retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS, singletonKey: runId });
+      if (!jobId) throw new Error(`The job queue did not accept run ${runId}.`);
+    },
+    async cancel() {
+      // The worker executing it sees the cancelled status at its next progress write and stops.
+    },
+    async idle() {
+      // Nothing executes in this process.
+    },
+    close: () => boss.stop({ graceful: false, wait: true }),
+  };
+}
+
+export type RunExecutor = (runId: string, signal: AbortSignal) => Promise<void>;
+
+/** A worker process's side: takes runs, `concurrency` at a time; returns the function that stops. */
+export async function workRuns(connectionString: string, execute: RunExecutor, concurrency = 1): Promise<() => Promise<void>> {
+  const boss = await openBoss(connectionString);
+  const controllers = new Set<AbortController>();
+  const ids: string[] = [];
+  for (let k = 0; k < concurrency; k++) {
+    ids.push(
+      await boss.work<{ runId: string }>(JOB_NAME, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+        const controller = new AbortController();
+        controllers.add(controller);
+        try {
+          await execute(job.data.runId, controller.signal);
+        } finally {
+          controllers.delete(controller);
+        }
+      }),
+    );
+  }
+  return async () => {
+    for (const id of ids) await boss.offWork({ id });
+    for (const c of controllers) c.abort();
+    await boss.stop({ graceful: false, wait: true });
+  };
+}
