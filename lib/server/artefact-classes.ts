@@ -6,6 +6,7 @@ import type { z } from "zod";
 import type { artefactClassCreateSchema, artefactClassUpdateSchema } from "@/lib/schemas/artefact-class";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 
 export async function listClasses(db: Db, siteId: string) {
@@ -42,6 +43,7 @@ async function signedOffUse(tx: Tx, before: ArtefactClass, after: ArtefactClass)
 }
 
 export async function updateClass(db: Db, actor: SiteActor, classId: string, input: z.infer<typeof artefactClassUpdateSchema>) {
+  assertFieldRights("class", actor.role, input);
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, classId)));
     if (!before) throw notFound("That artefact class");

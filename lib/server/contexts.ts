@@ -6,6 +6,7 @@ import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
 import { assertContextWritable } from "./locks";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { assertOutline, getTrench } from "./trenches";
 
@@ -40,6 +41,7 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
 }
 
 export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate) {
+  assertFieldRights("context", actor.role, input);
   if (input.extent) assertOutline(input.extent, "extent");
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);

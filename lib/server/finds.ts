@@ -8,6 +8,7 @@ import { recordAudit } from "./audit";
 import { badInput, notFound } from "./errors";
 import { allocateFindNumbers } from "./find-numbers";
 import { assertContextWritable } from "./locks";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { getContext } from "./contexts";
 import { getTrench } from "./trenches";
@@ -54,6 +55,7 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
 }
 
 export async function updateFind(db: Db, actor: SiteActor, findId: string, input: FindUpdate) {
+  assertFieldRights("find", actor.role, input);
   return db.transaction(async (tx) => {
     const before = await getFind(tx, actor.site.id, findId);
     const from = await getContext(tx, actor.site.id, before.contextId);

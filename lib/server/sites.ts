@@ -5,6 +5,7 @@ import { contexts, finds, memberships, sites, trenches, users, analysisRuns, typ
 import type { SiteCreate, SiteUpdate } from "@/lib/schemas/site";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 
 /** The sites a user belongs to, with their role and what awaits them there. */
@@ -39,6 +40,7 @@ export async function createSite(db: Db, userId: string, input: SiteCreate) {
 }
 
 export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
+  assertFieldRights("site", actor.role, input);
   return db.transaction(async (tx) => {
     const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "site", recordId: actor.site.id, before: actor.site, after });
@@ -89,6 +91,7 @@ async function assertNotLastDirector(db: Db, siteId: string, userId: string) {
 }
 
 export async function changeMemberRole(db: Db, actor: SiteActor, userId: string, role: Role) {
+  assertFieldRights("member", actor.role, { role });
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
     if (!before) throw notFound("That member");

@@ -8,6 +8,7 @@ import type { Window } from "@/lib/spatial";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
 import { assertContextsWritable, assertTrenchWritable } from "./locks";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
@@ -46,6 +47,7 @@ export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate
 }
 
 export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate) {
+  assertFieldRights("trench", actor.role, input);
   const window = input.outline ? assertOutline(input.outline) : null;
   return db.transaction(async (tx) => {
     const before = await getTrench(tx, actor.site.id, trenchId, { forUpdate: true });

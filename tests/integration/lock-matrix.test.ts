@@ -34,7 +34,11 @@ type LockCase = {
    * back as a 400 row report, each row naming who submitted or signed it off and when, rather than as one 409.
    */
   rowReportWhenLocked?: boolean;
+  /** The roles the field rights let change the fields this case names, when narrower than the route's. */
+  fieldRoles?: readonly ("digger" | "specialist" | "director")[];
 };
+
+const recorderFields = ["digger", "director"] as const;
 
 async function findIn(fx: SiteFixture, contextId: string, x = 1, y = 1) {
   const db = await getDb();
@@ -61,18 +65,18 @@ const cases: LockCase[] = [
   { op: "contextUpdate", title: "edit the sheet", prepare: async (fx) => ({ mod: contextRoute, params: { ...site(fx), contextId: fx.context.id }, body: { colour: "dark brown" } }) },
   { op: "contextDelete", title: "delete the sheet", prepare: async (fx) => ({ mod: contextRoute, params: { ...site(fx), contextId: fx.context.id } }) },
   { op: "findsCreate", title: "record a find in T", prepare: async (fx) => ({ mod: findsRoute, params: site(fx), body: { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5, method: "plan" } }) },
-  { op: "findUpdate", title: "edit a find of T", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { description: "retouched" } }) },
-  { op: "findUpdate", title: "move a find of T on the plan (drag)", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { x: 2.5, y: 1.25 } }) },
+  { op: "findUpdate", title: "edit a find of T", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { description: "retouched" } }), fieldRoles: recorderFields },
+  { op: "findUpdate", title: "move a find of T on the plan (drag)", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { x: 2.5, y: 1.25 } }), fieldRoles: recorderFields },
   { op: "findUpdate", title: "re-class a find of T", prepare: async (fx) => {
       const db = await getDb();
       const [c2] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `K${nextCount()}`, label: "Chip", colour: "#56b4e9", symbol: "diamond" }).returning();
       return { mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { classId: c2.id } };
     } },
-  { op: "findUpdate", title: "move a find from T to another context", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { contextId: (await otherContext(fx)).id } }) },
+  { op: "findUpdate", title: "move a find from T to another context", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id }, body: { contextId: (await otherContext(fx)).id } }), fieldRoles: recorderFields },
   { op: "findUpdate", title: "move a find from another context into T", prepare: async (fx) => {
       const other = await otherContext(fx);
       return { mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, other.id)).id }, body: { contextId: fx.context.id } };
-    } },
+    }, fieldRoles: recorderFields },
   { op: "findDelete", title: "delete a find of T", prepare: async (fx) => ({ mod: findRoute, params: { ...site(fx), findId: (await findIn(fx, fx.context.id)).id } }) },
   { op: "relationsCreate", title: "relate another context to T (typed on the other sheet)", prepare: async (fx) => ({ mod: relationsRoute, params: site(fx), body: { contextId: (await otherContext(fx)).id, reading: "above", otherId: fx.context.id } }) },
   { op: "relationsCreate", title: "relate T to another context (typed on T's sheet)", prepare: async (fx) => ({ mod: relationsRoute, params: site(fx), body: { contextId: fx.context.id, reading: "below", otherId: (await otherContext(fx)).id } }) },
@@ -135,7 +139,8 @@ async function snapshot(): Promise<string> {
 
 const states = ["open", "awaiting", "signed_off"] as const;
 const roles = ["digger", "specialist", "director"] as const;
-const allowed = (op: ApiOperation, role: (typeof roles)[number]) => op.roles === "member" || (Array.isArray(op.roles) && op.roles.includes(role));
+const allowed = (op: ApiOperation, role: (typeof roles)[number], c?: LockCase) =>
+  (op.roles === "member" || (Array.isArray(op.roles) && op.roles.includes(role))) && (!c?.fieldRoles || c.fieldRoles.includes(role));
 
 describe("lock matrix: every write path × state × role", () => {
   it("classifies every mutating operation of the catalogue", () => {
@@ -149,8 +154,8 @@ describe("lock matrix: every write path × state × role", () => {
     const op = api[c.op] as ApiOperation;
     for (const state of states) {
       for (const role of roles) {
-        const rowReport = c.rowReportWhenLocked && state !== "open" && allowed(op, role);
-        const want = !allowed(op, role) ? 403 : state === "open" && !c.alwaysRefused ? (op.successStatus ?? 200) : rowReport ? 400 : 409;
+        const rowReport = c.rowReportWhenLocked && state !== "open" && allowed(op, role, c);
+        const want = !allowed(op, role, c) ? 403 : state === "open" && !c.alwaysRefused ? (op.successStatus ?? 200) : rowReport ? 400 : 409;
         it(`${c.title} [${op.method} ${op.path}] · ${state} · ${role} → ${want}`, async () => {
           const fx = await makeSite();
           await completeSheet(fx.context.id);

@@ -69,7 +69,7 @@ describe("finds register", () => {
     const [f] = await db.select().from(schema.finds).where(and(eq(schema.finds.siteId, fx.site.id), eq(schema.finds.number, 1)));
     await db.update(schema.contexts).set({ state: "signed_off", signedOffAt: new Date("2026-11-30T16:00:00Z"), signedOffBy: fx.people.director.id }).where(eq(schema.contexts.id, fx.context.id));
     session.userId = fx.people.specialist.id;
-    const res = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: f.id }, { description: "re-classed" });
+    const res = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: f.id }, { classId: fx.cls.id });
     expect(res.status).toBe(409);
     expect(res.json.error).toContain("signed off by Director on 2026-11-30 16:00 UTC");
   });

@@ -54,7 +54,10 @@ export const coreCases: RoleCases = {
   findsCreate: async (fx) => ({ mod: findsRoute, params: { siteId: fx.site.id }, body: { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5 } }),
   findUpdate: async (fx) => {
     const f = await insertFind(fx);
-    return { mod: findRoute, params: { siteId: fx.site.id, findId: f.id }, body: { description: "re-examined" } };
+    const db = await getDb();
+    const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `RC${nextCount()}`, label: "Retouched flake", colour: "#cc79a7", symbol: "star" }).returning();
+    // Re-classing: the one change every role on the route may make (field rights are tested in field-rights.test.ts).
+    return { mod: findRoute, params: { siteId: fx.site.id, findId: f.id }, body: { classId: cls.id } };
   },
   findDelete: async (fx) => {
     const f = await insertFind(fx);

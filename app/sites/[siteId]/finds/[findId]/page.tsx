@@ -6,6 +6,7 @@ import { LockNotice } from "@/components/contexts/lock-notice";
 import { FindEditForm } from "@/components/register/find-edit-form";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
+import { changeableFields } from "@/lib/server/field-rights";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
 
@@ -50,6 +51,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             initial={{ contextId: f.contextId, classId: f.classId, x: f.x, y: f.y, z: f.z, count: f.count, weightG: f.weightG, description: f.description }}
             contexts={contexts.filter((c) => isContextWritable(c) || c.id === f.contextId).map((c) => ({ id: c.id, number: c.number }))}
             classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label }))}
+            changeable={changeableFields("find", actor.role)}
           />
         ) : (
           <dl className="sheet grid grid-cols-[10rem_1fr] gap-y-1">
