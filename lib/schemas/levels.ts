@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { metres, uuid } from "./common";
+import { metres, numeric, uuid } from "./common";
 
 /**
  * Heights: every z, top, base and benchmark level in Loamwork is a reduced level (RL) in metres against the
@@ -14,10 +14,12 @@ export const datumUpdateSchema = z
   .object({
     datumKind: z.enum(["national", "local"], { error: "Choose a national datum or a local site datum." }),
     datumName: z.string().trim().min(1, "Name the datum heights are measured from.").max(200),
-    levelTolerance: z.coerce
-      .number({ error: "Give the closing tolerance in metres." })
-      .min(0, "The closing tolerance cannot be negative.")
-      .max(0.5, "A closing tolerance over 0.5 m would hide blunders; common practice is a few millimetres."),
+    levelTolerance: numeric(
+      z
+        .number({ error: "Give the closing tolerance in metres." })
+        .min(0, "The closing tolerance cannot be negative.")
+        .max(0.5, "A closing tolerance over 0.5 m would hide blunders; common practice is a few millimetres."),
+    ),
   })
   .partial()
   .strict();
@@ -35,10 +37,7 @@ export const benchmarkUpdateSchema = benchmarkCreateSchema.partial().strict();
 
 export const levelTargets = ["benchmark", "change_point", "find", "context_top", "context_base", "spit_top", "spit_base", "ground", "other"] as const;
 
-const reading = z.coerce
-  .number({ error: "A staff reading is a number of metres." })
-  .min(0, "A staff reading cannot be negative.")
-  .max(10, "A staff reading is at most 10 m.")
+const reading = numeric(z.number({ error: "A staff reading is a number of metres." }).min(0, "A staff reading cannot be negative.").max(10, "A staff reading is at most 10 m."))
   .nullable()
   .optional()
   .transform((v) => v ?? null);
@@ -66,7 +65,7 @@ export const levelRunCreateSchema = z
 
 export const spitCreateSchema = z
   .object({
-    number: z.coerce.number().int("A spit number is a whole number.").min(1, "Spits are numbered from 1 at the top.").max(999),
+    number: numeric(z.number({ error: "Enter a spit number." }).int("A spit number is a whole number.").min(1, "Spits are numbered from 1 at the top.").max(999)),
     topLevel: reducedLevel.nullable().optional(),
     baseLevel: reducedLevel.nullable().optional(),
   })

@@ -5,10 +5,12 @@ import { benchmarks, levelRuns, sites, type Benchmark } from "@/db/schema";
 import type { BenchmarkCreate, BenchmarkUpdate, DatumUpdate } from "@/lib/schemas/levels";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 
 /** The site's height reference: what every reduced level in Loamwork is measured from. */
 export async function updateDatum(db: Db, actor: SiteActor, input: DatumUpdate) {
+  assertFieldRights("datum", actor.role, input);
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(sites).where(eq(sites.id, actor.site.id)).for("update");
     if (!before) throw notFound("That site");
@@ -54,6 +56,7 @@ export async function createBenchmark(db: Db, actor: SiteActor, input: Benchmark
 }
 
 export async function updateBenchmark(db: Db, actor: SiteActor, benchmarkId: string, input: BenchmarkUpdate) {
+  assertFieldRights("benchmark", actor.role, input);
   return db.transaction(async (tx) => {
     const before = await getBenchmark(tx, actor.site.id, benchmarkId);
     if (input.level !== undefined && input.level !== before.level) await assertUnused(tx, before, "given a new level");

@@ -39,11 +39,24 @@ export const fieldRights = {
     weightG: recorders,
     description: recorders,
   },
+  datum: { datumKind: directorOnly, datumName: directorOnly, levelTolerance: directorOnly },
+  benchmark: { code: recorders, description: recorders, x: recorders, y: recorders, level: recorders },
+  spit: { number: recorders, topLevel: recorders, baseLevel: recorders },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
 
-const recordWords: Record<RightsRecord, string> = { site: "the site", member: "a membership", class: "an artefact class", trench: "a trench", context: "a context", find: "a find" };
+const recordWords: Record<RightsRecord, string> = {
+  site: "the site",
+  member: "a membership",
+  class: "an artefact class",
+  trench: "a trench",
+  context: "a context",
+  find: "a find",
+  datum: "the site's datum",
+  benchmark: "a benchmark",
+  spit: "a spit",
+};
 
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */
 export function changeableFields(record: RightsRecord, role: Role): string[] {

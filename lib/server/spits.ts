@@ -6,6 +6,7 @@ import type { SpitCreate, SpitUpdate } from "@/lib/schemas/levels";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
 import { assertContextWritable } from "./locks";
+import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { getContext } from "./contexts";
 
@@ -47,6 +48,7 @@ export async function createSpit(db: Db, actor: SiteActor, contextId: string, in
 }
 
 export async function updateSpit(db: Db, actor: SiteActor, contextId: string, spitId: string, input: SpitUpdate) {
+  assertFieldRights("spit", actor.role, input);
   return db.transaction(async (tx) => {
     const context = await getContext(tx, actor.site.id, contextId);
     const before = await getSpit(tx, actor.site.id, context.id, spitId);

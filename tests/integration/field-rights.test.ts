@@ -4,7 +4,7 @@ import type { Role } from "@/db/schema";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { fieldRights, type RightsRecord } from "@/lib/server/field-rights";
 import { session, call } from "../support/harness";
-import { makeUpdateSite, updatables, type UpdateFixture } from "../support/updatable";
+import { makeUpdateSite, updatables } from "../support/updatable";
 
 /** The record each catalogued update changes. */
 const recordOf: Record<string, RightsRecord> = {
@@ -14,6 +14,9 @@ const recordOf: Record<string, RightsRecord> = {
   trenchUpdate: "trench",
   contextUpdate: "context",
   findUpdate: "find",
+  datumUpdate: "datum",
+  benchmarkUpdate: "benchmark",
+  spitUpdate: "spit",
 };
 
 const roles = ["digger", "specialist", "director"] as const;
@@ -29,12 +32,6 @@ function mayChange(name: string, role: Role, field: string): boolean {
   if (name === "findUpdate" && role === "specialist") return field === "classId";
   return true;
 }
-
-const fixtures = new Map<string, Promise<UpdateFixture>>();
-const fixtureFor = (name: string) => {
-  if (!fixtures.has(name)) fixtures.set(name, makeUpdateSite());
-  return fixtures.get(name)!;
-};
 
 /** A valid value for the field that differs from what the record holds, so a change is visible. */
 function newValue(arb: fc.Arbitrary<unknown>, current: unknown, seed: number): unknown {
@@ -59,7 +56,7 @@ describe("field-level rights: every update × role × field", () => {
       for (const [i, field] of fields.entries()) {
         const allowed = mayChange(name, role, field);
         it(`${op.method} ${op.path} {${field}} as ${role} → ${allowed ? 200 : 403}`, async () => {
-          const fx = await fixtureFor(name);
+          const fx = await makeUpdateSite();
           const u = updatables[name];
           const target = await u.target(fx);
           const before = await target.read();
