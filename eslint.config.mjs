@@ -52,41 +52,14 @@ const policies = {
   },
 };
 
-/** Files that still break one policy, listed so the lint passes while they are fixed; the list only shrinks. */
-const knownBreaches = {
-  pagesReachNoDatabase: [
-    "app/reset-password/actions.ts",
-    "app/invite/[[]token]/actions.ts",
-    "app/invite/[[]token]/page.tsx",
-  ],
-  componentsRunNoServerCode: [],
-  engineStaysPure: [],
-  databaseKnowsNoUseCase: [],
-  useCasesKnowNoPage: [],
-};
-
-const dependencies = (except = []) => [
+const dependencies = [
   "error",
   {
     default: "allow",
     checkAllOrigins: true,
-    policies: Object.entries(policies)
-      .filter(([name]) => !except.includes(name))
-      .map(([, policy]) => policy),
+    policies: Object.values(policies),
   },
 ];
-
-/** One config block per file that breaches, with only its breached policies left out. */
-const breachBlocks = () => {
-  const byFile = new Map();
-  for (const [name, files] of Object.entries(knownBreaches)) {
-    for (const file of files) byFile.set(file, [...(byFile.get(file) ?? []), name]);
-  }
-  return [...byFile].map(([file, names]) => ({
-    files: [file],
-    rules: { "boundaries/dependencies": dependencies(names) },
-  }));
-};
 
 export default tseslint.config(
   {
@@ -143,7 +116,6 @@ export default tseslint.config(
       "boundaries/dependency-nodes": ["import", "export", "dynamic-import"],
       "import/resolver": { typescript: { alwaysTryTypes: true, project: "./tsconfig.json" } },
     },
-    rules: { "boundaries/dependencies": dependencies() },
+    rules: { "boundaries/dependencies": dependencies },
   },
-  ...breachBlocks(),
 );

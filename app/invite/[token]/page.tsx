@@ -1,14 +1,13 @@
 import Link from "next/link";
 import type { Metadata } from "next";
-import { getDb } from "@/db/client";
-import { readInvitation } from "@/lib/server/invitations";
+import { invitationByToken } from "@/lib/server/reads/invitation";
 import { AcceptForm } from "./accept-form";
 
 export const metadata: Metadata = { title: "Invitation" };
 
 export default async function InvitePage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
-  const inv = await readInvitation(await getDb(), token);
+  const inv = await invitationByToken(token);
   return (
     <main className="mx-auto mt-16 max-w-md px-4">
       <div className="sheet">
