@@ -22,7 +22,7 @@ export function CurvePlot({ title, name, curve, yLabel, theoLabel, colour, depar
   const rows = curve.r.map((r, k) => ({
     r: r3(r),
     obs: curve.obs[k],
-    band: curve.lo && curve.hi ? [curve.lo[k], curve.hi[k]] : undefined,
+    band: curve.lo && curve.hi && curve.lo[k] != null && curve.hi[k] != null ? [curve.lo[k], curve.hi[k]] : undefined,
     theo: curve.theo?.[k],
   }));
   const csv = () => curve.r.map((r, k) => ({ r, observed: curve.obs[k], band_lo: curve.lo?.[k] ?? null, band_hi: curve.hi?.[k] ?? null, null_curve: curve.theo?.[k] ?? null }));
@@ -39,7 +39,7 @@ export function CurvePlot({ title, name, curve, yLabel, theoLabel, colour, depar
           <Area dataKey="band" stroke="none" fill="#8a7660" fillOpacity={0.28} isAnimationActive={false} name="Simulation band" />
           <Line dataKey="theo" stroke="#2e2116" strokeDasharray="5 4" dot={false} isAnimationActive={false} name={theoLabel} strokeWidth={1.2} />
           <Line dataKey="obs" stroke={colour} dot={false} isAnimationActive={false} name="Observed" strokeWidth={2.2} />
-          <Tooltip formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" – ") : Number(v).toFixed(3))} labelFormatter={(r) => `r = ${r} m`} />
+          <Tooltip formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" – ") : v == null ? "undefined" : Number(v).toFixed(3))} labelFormatter={(r) => `r = ${r} m`} />
         </ComposedChart>
       </ResponsiveContainer>
     </PlotFrame>

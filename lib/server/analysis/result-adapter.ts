@@ -20,11 +20,11 @@ const VERDICTS: Record<string, VerdictWord> = {
 };
 
 const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
-const minus = (a: number[], r: number[]) => a.map((v, k) => Number((v - r[k]).toPrecision(8)));
+const minus = (a: (number | null)[], r: number[]) => a.map((v, k) => (v === null ? null : Number((v - r[k]).toPrecision(8))));
 
 function curveOf(t: EngineTest, subtractR: boolean): { curve: Curve; departures: Departure[] } {
   const c = t.curves!;
-  const f = (a: number[]) => (subtractR ? minus(a, c.r) : a);
+  const f = (a: (number | null)[]) => (subtractR ? minus(a, c.r) : a);
   return {
     curve: { r: c.r, obs: f(c.observed), lo: f(c.band.lo), hi: f(c.band.hi), theo: f(c.reference) },
     departures: c.excursions.map((e) => ({ side: e.side, from: e.from, to: e.to, rejoins: e.rejoins })),

@@ -11,7 +11,8 @@ export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated"
 /** A stretch of distances where the observed curve lies outside the pointwise band. */
 export type Departure = { side: "above" | "below"; from: number; to: number; rejoins: boolean };
 
-export type Curve = { r: number[]; obs: number[]; lo?: number[]; hi?: number[]; theo?: number[] };
+/** null where the curve is undefined (border correction beyond the deepest points): a gap in the plot. */
+export type Curve = { r: number[]; obs: (number | null)[]; lo?: (number | null)[]; hi?: (number | null)[]; theo?: (number | null)[] };
 
 export type ClassInScope = { id: string; code: string; label: string; colour: string; symbol: string; n: number };
 

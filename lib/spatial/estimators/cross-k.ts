@@ -46,7 +46,6 @@ function crossCore(
   pairs: PairList,
   r: Float64Array,
   wanted: KCorrection[],
-  labelA: string,
 ): CrossKResult {
   const m = r.length;
   const nA = a.x.length;
@@ -59,7 +58,7 @@ function crossCore(
       const num = new Float64Array(m);
       const den = new Float64Array(m);
       borderCounts(binning, m, pairs, boundaryDistances(window, a.x, a.y), null, false, num, den);
-      K.border = borderRatio(num, den, r, nB / window.area, labelA);
+      K.border = borderRatio(num, den, nB / window.area);
     } else {
       const w =
         c === "isotropic"
@@ -82,7 +81,7 @@ export function crossK(window: Window, classA: PointsInput, classB: PointsInput,
   if (a.x.length + b.x.length < 2) throw new SpatialInputError("Cross-K needs at least 2 finds in all.");
   const r = options.r ? checkRGrid(window, options.r) : defaultRGrid(window, b.x.length);
   const pairs = pairsBetween(a, b, r[r.length - 1]);
-  return crossCore(window, a, b, b.x.length, pairs, r, corrections(options.correction), labelA);
+  return crossCore(window, a, b, b.x.length, pairs, r, corrections(options.correction));
 }
 
 /**
@@ -119,7 +118,7 @@ export function dotK(window: Window, points: PointsInput, isA: ArrayLike<boolean
       pairs.d[pairs.count++] = within.d[p];
     }
   }
-  return crossCore(window, a, all, n, pairs, r, corrections(options.correction), labelA);
+  return crossCore(window, a, all, n, pairs, r, corrections(options.correction));
 }
 
 export interface KDifferenceResult {

@@ -126,16 +126,18 @@ describe("kFunction", () => {
     expect(() => kFunction(w, { x: [2, 5], y: [3, 4] }, { r: [0, 1, 20] })).toThrow(/beyond the trench window/);
     expect(() => kFunction(w, { x: [2, 5], y: [3, 4] }, { r: [0.5, 1] })).toThrow(/must start at 0/);
     expect(() => kFunction(w, { x: [2, 5], y: [3, 4] }, { r: [0, 2, 1] })).toThrow(/increase strictly/);
-    expect(() => kFunction(w, { x: [1, 2], y: [1, 2] }, { r: [0, 1, 2.5, 3], correction: "border" })).toThrow(
-      /Border correction: no point/,
-    );
     expect(() => kFunction(w, { x: [2, 5], y: [3, 4] }, { correction: "ripley" as never })).toThrow(SpatialInputError);
   });
 
-  it("caps the default grid at the deepest point when border is asked for, so no value is undefined", () => {
+  it("border: K is NaN (spatstat's NA) where no point is deep enough, on the default grid as on a given one", () => {
     const w = rectangleWindow(0, 0, 40, 40);
     const res = kFunction(w, { x: [1, 2, 3], y: [1, 2, 2] }, { correction: ["border", "isotropic"] });
-    expect(res.r[512]).toBeCloseTo(2, 6); // the deepest point, (2, 2) or (3, 2), is 2 from the edge
-    expect(res.K.border!.every(Number.isFinite)).toBe(true);
+    expect(res.r[512]).toBeCloseTo(10, 9); // spatstat's default r max (a quarter of the side), not capped
+    // rectangle rule (spatstat's Krect): a centre counts at r while r < b; the deepest point is 2 from the edge
+    expect(Array.from(res.K.border!, Number.isFinite)).toEqual(Array.from(res.r, (r) => r < 2));
+    expect(res.K.isotropic!.every(Number.isFinite)).toBe(true);
+    // generic rule (uneven grid): a centre counts at r_k while b ≥ r_(k−1); b = 1 and 2 here
+    const given = kFunction(rectangleWindow(0, 0, 10, 10), { x: [1, 2], y: [1, 2] }, { r: [0, 1, 2.5, 3], correction: "border" });
+    expect(Array.from(given.K.border!, Number.isFinite)).toEqual([true, true, true, false]);
   });
 });

@@ -2,7 +2,8 @@
  * Ripley's K function (Ripley 1976, J. Appl. Prob. 13:255–266; 1977, JRSS B 39:172–212) and Besag's
  * L = √(K/π) (Besag 1977, discussion of Ripley 1977), with spatstat 3.x conventions:
  *   K̂(r) = |W| / (n(n−1)) · Σ_{i≠j} w_ij · 1{d_ij < r}     (isotropic, translation)
- *   K̂(r) = Σ_{i≠j} 1{d_ij < r, d_ij ≤ b_i, b_i ≥ r⁻} / (λ · #{i: b_i ≥ r⁻})   (border, r⁻ the previous grid value)
+ *   K̂(r) = Σ_{i≠j} 1{d_ij < r, d_ij ≤ b_i, b_i ≥ r⁻} / (λ · #{i: b_i ≥ r⁻})   (border, r⁻ the previous grid value;
+ *          NaN where no i has b_i ≥ r⁻, as spatstat's NA)
  * with λ = n/|W| (in a rectangle on an even grid, spatstat's `Krect.engine` rule instead: see createBinning). Edge weights: isotropic (Ripley 1977) in edge-isotropic.ts, translation (Ohser 1983) in
  * edge-translation.ts.
  */
@@ -11,14 +12,14 @@ import { isotropicPairWeights } from "../geometry/edge-isotropic";
 import { translationPairWeights } from "../geometry/edge-translation";
 import { pairsWithin, type PairList } from "../geometry/neighbours";
 import { checkPattern } from "../geometry/pattern";
-import { checkRGrid, createBinning, defaultRGrid, defaultRMax } from "./r-grid";
+import { checkRGrid, createBinning, defaultRGrid } from "./r-grid";
 import { SpatialInputError } from "../errors";
 import type { KCorrection, PointsInput, Window } from "../types";
 
 export interface KOptions {
   /**
-   * Distances; default the spatstat grid of r-grid.ts, with r max also capped at the largest boundary
-   * distance of the points when the border correction is asked for.
+   * Distances; default the spatstat grid of r-grid.ts for every correction (the border estimate is NaN
+   * beyond the r where no point is deep enough, as spatstat's NA).
    */
   r?: ArrayLike<number>;
   /** Edge corrections to compute (default ["isotropic"]). */
@@ -54,18 +55,21 @@ export function corrections(c: KCorrection | KCorrection[] | undefined): KCorrec
   return [...new Set(list)] as KCorrection[];
 }
 
-/** Border-corrected ratio, refusing r values where no point is far enough from the edge. */
-export function borderRatio(numerator: Float64Array, denominator: Float64Array, r: Float64Array, lambda: number, label: string): Float64Array {
-  const out = new Float64Array(r.length);
-  for (let k = 0; k < r.length; k++) {
-    if (denominator[k] === 0) {
-      throw new SpatialInputError(
-        `Border correction: no point of ${label} lies ${r[k - 1].toPrecision(4)} m or more from the trench edge; use a smaller r max or another correction.`,
-      );
-    }
-    out[k] = numerator[k] / (lambda * denominator[k]);
-  }
+/**
+ * Border-corrected ratio. Where no point lies far enough from the edge to count as a centre, the estimate
+ * does not exist and the value is NaN (spatstat's NA): the curve is defined from r = 0 up to some r and
+ * undefined beyond (see `definedLength`).
+ */
+export function borderRatio(numerator: Float64Array, denominator: Float64Array, lambda: number): Float64Array {
+  const out = new Float64Array(numerator.length);
+  for (let k = 0; k < out.length; k++) out[k] = denominator[k] === 0 ? Number.NaN : numerator[k] / (lambda * denominator[k]);
   return out;
+}
+
+/** Number of leading values of a curve that are defined (finite): the curve is defined on r[0 .. length−1]. */
+export function definedLength(curve: ArrayLike<number>, offset = 0, m = curve.length - offset): number {
+  for (let k = 0; k < m; k++) if (!Number.isFinite(curve[offset + k])) return k;
+  return m;
 }
 
 /** Boundary distance of every point. */
@@ -75,21 +79,6 @@ export function boundaryDistances(window: Window, x: Float64Array, y: Float64Arr
   return b;
 }
 
-/**
- * The default grid, r max capped (when the border correction is asked for) at the largest boundary
- * distance of the points, beyond which the border estimate does not exist.
- */
-export function defaultKGrid(window: Window, x: Float64Array, y: Float64Array, wanted: KCorrection[]): Float64Array {
-  let rmax = defaultRMax(window, x.length);
-  if (wanted.includes("border")) {
-    let deepest = 0;
-    for (let k = 0; k < x.length; k++) deepest = Math.max(deepest, window.boundaryDistance(x[k], y[k]));
-    if (!(deepest > 0)) throw new SpatialInputError("Border correction: every point lies on the trench edge.");
-    // just below the deepest point, so that it still counts at r max under either binning rule
-    rmax = Math.min(rmax, deepest * (1 - 1e-9));
-  }
-  return defaultRGrid(window, x.length, { rmax });
-}
 
 /** K̂(r) of one pattern in W under the chosen edge corrections. */
 export function kFunction(window: Window, points: PointsInput, options: KOptions = {}): KResult {
@@ -97,7 +86,7 @@ export function kFunction(window: Window, points: PointsInput, options: KOptions
   const { x, y } = checkPattern(window, points, { label });
   const n = x.length;
   const wanted = corrections(options.correction);
-  const r = options.r ? checkRGrid(window, options.r) : defaultKGrid(window, x, y, wanted);
+  const r = options.r ? checkRGrid(window, options.r) : defaultRGrid(window, n);
   const m = r.length;
   const rmax = r[m - 1];
   const pairs = options.pairs ?? pairsWithin({ x, y }, rmax);
@@ -111,7 +100,7 @@ export function kFunction(window: Window, points: PointsInput, options: KOptions
       const num = new Float64Array(m);
       const den = new Float64Array(m);
       borderCounts(binning, m, pairs, b, null, true, num, den);
-      K.border = borderRatio(num, den, r, lambda, label);
+      K.border = borderRatio(num, den, lambda);
       continue;
     }
     const weights =

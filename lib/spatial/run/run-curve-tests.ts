@@ -4,7 +4,6 @@
  * observed curve with the same code the simulations use, and hands both to envelopeTest.
  */
 import { SpatialInputError } from "../errors";
-import { defaultKGrid } from "../estimators/k-function";
 import { checkRGrid, defaultRGrid } from "../estimators/r-grid";
 import { classPoints, type RunContext } from "./run-context";
 import { envelopeTest, type EnvelopeOutcome } from "./run-envelope";
@@ -26,8 +25,9 @@ const windowInput = (w: Window) => ({ outer: w.outer.map((v) => [v[0], v[1]] as 
 export async function lEnvelopeTest(ctx: RunContext, t: Extract<TestSpec, { type: "l-envelope" }>): Promise<EnvelopeOutcome> {
   const p = classPoints(ctx, t.class);
   const n = p.x.length;
-  // the border estimate does not exist beyond the deepest find: spatstat's default grid is capped there
-  const r = t.correction === "border" && ctx.spec.r === undefined ? defaultKGrid(ctx.window, p.x, p.y, ["border"]) : testGrid(ctx, n);
+  // with the border correction, L is undefined (NaN) beyond the r where no find is deep enough; the
+  // global test then runs where the observed and every simulated curve are defined (run-envelope.ts)
+  const r = testGrid(ctx, n);
   const observed = new Float64Array(r.length);
   csrLCurve(ctx.window, r, t.correction)(p.x, p.y, n, observed, 0);
   const model: SimModel = { kind: "csr-l", n, count: t.count, correction: t.correction };

@@ -2,7 +2,9 @@
  * One envelope test end to end: simulate, band, global p-value, verdict and the distance ranges where the
  * observed curve leaves the pointwise band. Shared by every curve-based test of run-test.ts.
  */
-import { pointwiseEnvelope, rankForLevel } from "../envelopes/envelope";
+import { SpatialInputError } from "../errors";
+import { definedLength } from "../estimators/k-function";
+import { pointwiseEnvelope, rankForLevel, type CurveSet } from "../envelopes/envelope";
 import { globalTest, type GlobalStatistic } from "../envelopes/global-test";
 import { runSimulations } from "../simulation/run-simulations";
 import { createRandom } from "../random/random";
@@ -19,17 +21,26 @@ export interface Excursion {
   rejoins: boolean;
 }
 
+/**
+ * Curves are given at every r of the grid; a value is null where it is undefined (the border-corrected
+ * estimate beyond the r where no point is deep enough: a gap in the plot).
+ */
 export interface EnvelopeOutcome {
   statistic: GlobalStatistic | "rank";
   pValue: number;
   /** +1 when the largest deviation from the reference is upwards, −1 downwards. */
   direction: 1 | -1 | 0;
   r: number[];
-  observed: number[];
-  reference: number[];
+  observed: (number | null)[];
+  reference: (number | null)[];
   referenceKind: "theoretical" | "mean of simulations";
-  band: { lo: number[]; hi: number[]; pointwiseLevel: number; rank: number };
-  globalBand?: { lo: number[]; hi: number[]; level: number };
+  band: { lo: (number | null)[]; hi: (number | null)[]; pointwiseLevel: number; rank: number };
+  globalBand?: { lo: (number | null)[]; hi: (number | null)[]; level: number };
+  /**
+   * The distances the global test, the band and the excursions used: every r where the observed curve and
+   * all simulated curves are defined (all of the grid unless the border correction cut it short).
+   */
+  range: { from: number; to: number; values: number; wholeGrid: boolean };
   excursions: Excursion[];
   nsim: number;
 }
@@ -51,7 +62,41 @@ export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array,
   return out;
 }
 
-const round = (a: ArrayLike<number>): number[] => Array.from(a, (v) => Number(v.toPrecision(10)));
+const round = (a: ArrayLike<number>, m = a.length): (number | null)[] =>
+  Array.from({ length: m }, (_, k) => (k < a.length && Number.isFinite(a[k]) ? Number(a[k].toPrecision(10)) : null));
+
+/** The first `end` values of every curve of a set. */
+function truncate(set: CurveSet, end: number): CurveSet {
+  if (end === set.m) return set;
+  const sims = new Float64Array(set.s * end);
+  for (let i = 0; i < set.s; i++) sims.set(set.sims.subarray(i * set.m, i * set.m + end), i * end);
+  return { m: end, s: set.s, sims };
+}
+
+/**
+ * Grid values usable by the test: the leading values where the observed curve and every simulated one are
+ * defined. Refused when that leaves fewer than two distances above 0, with a message saying whose curve
+ * (the observed finds' or a simulated pattern's) stops short.
+ */
+function usableLength(r: Float64Array, observed: Float64Array, set: CurveSet): number {
+  const first = r[0] === 0 ? 1 : 0;
+  const need = first + 2;
+  const refuse = (whose: string, k: number): never => {
+    const upTo = k > 0 ? `only up to r = ${Number(r[k - 1].toPrecision(4))} m` : "at no distance";
+    throw new SpatialInputError(
+      `Border correction: the curve of ${whose} is defined ${upTo}, because no point lies deeper inside the trench; the test needs at least 2 distances above 0. Use a smaller r max or another edge correction.`,
+    );
+  };
+  const obs = definedLength(observed);
+  if (obs < Math.min(need, r.length)) refuse("the observed finds", obs);
+  let end = obs;
+  for (let i = 0; i < set.s; i++) {
+    const len = definedLength(set.sims, i * set.m, set.m);
+    if (len < Math.min(need, r.length)) refuse(`simulated pattern ${i + 1}`, len);
+    end = Math.min(end, len);
+  }
+  return end;
+}
 
 export async function envelopeTest(
   ctx: RunContext,
@@ -62,7 +107,7 @@ export async function envelopeTest(
 ): Promise<EnvelopeOutcome> {
   const { spec } = ctx;
   const r = Float64Array.from(setup.r);
-  const set = await runSimulations(setup, {
+  const full = await runSimulations(setup, {
     seed: spec.seed,
     streamBase: ctx.testIndex * STREAMS_PER_TEST + 1,
     nsim: spec.nsim,
@@ -70,20 +115,24 @@ export async function envelopeTest(
     signal: ctx.signal,
     onProgress: (f) => ctx.progress(f),
   });
+  const m = r.length;
+  const end = usableLength(r, observed, full);
+  const set = truncate(full, end);
+  const rUsed = r.subarray(0, end), obsUsed = observed.subarray(0, end);
   const band = pointwiseEnvelope(set, rankForLevel(spec.nsim, spec.level));
-  const reference = theory ?? band.mean;
+  const reference = theory ? theory.subarray(0, end) : band.mean;
   let pValue: number;
   let globalBand: EnvelopeOutcome["globalBand"];
   if (statistic === "rank") {
-    const res = rankEnvelope(observed, set, spec.level, [r[0] === 0 ? 1 : 0, r.length]);
+    const res = rankEnvelope(obsUsed, set, spec.level, [r[0] === 0 ? 1 : 0, end]);
     pValue = res.pValue;
-    globalBand = { lo: round(res.lo), hi: round(res.hi), level: spec.level };
+    globalBand = { lo: round(res.lo, m), hi: round(res.hi, m), level: spec.level };
   } else {
     const tieBreak = createRandom(spec.seed, ctx.testIndex * STREAMS_PER_TEST);
-    pValue = globalTest(observed, set, r, { statistic, theory, rng: tieBreak }).pValue;
+    pValue = globalTest(obsUsed, set, rUsed, { statistic, theory: theory?.subarray(0, end), rng: tieBreak }).pValue;
   }
   let worst = 0, direction: 1 | -1 | 0 = 0;
-  for (let k = 0; k < r.length; k++) {
+  for (let k = 0; k < end; k++) {
     const e = observed[k] - reference[k];
     if (Math.abs(e) > worst) {
       worst = Math.abs(e);
@@ -96,11 +145,12 @@ export async function envelopeTest(
     direction,
     r: Array.from(r),
     observed: round(observed),
-    reference: round(reference),
+    reference: round(theory ?? reference, m),
     referenceKind: theory ? "theoretical" : "mean of simulations",
-    band: { lo: round(band.lo), hi: round(band.hi), pointwiseLevel: band.level, rank: band.rank },
+    band: { lo: round(band.lo, m), hi: round(band.hi, m), pointwiseLevel: band.level, rank: band.rank },
     globalBand,
-    excursions: excursions(r, observed, band.lo, band.hi),
+    range: { from: r[0], to: r[end - 1], values: end, wholeGrid: end === m },
+    excursions: excursions(rUsed, obsUsed, band.lo, band.hi),
     nsim: spec.nsim,
   };
 }

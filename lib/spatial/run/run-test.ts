@@ -100,7 +100,12 @@ export async function runDistributionTest(input: unknown, options: RunOptions = 
       };
       const done = await runOne(ctx, t);
       if (!Number.isFinite(done.pValue)) throw new SpatialInputError(`Test ${i + 1} (${t.type}) gave no finite p-value.`);
-      results.push({ ...done, options: t, level: spec.level, seed: spec.seed, cautions: testCautions(t, done.n) });
+      const cautions = testCautions(t, done.n);
+      const range = done.curves?.range;
+      if (range && !range.wholeGrid) {
+        cautions.push(`Border correction: the curve is undefined beyond the r where no point lies deep enough inside the trench, so the test used r from ${range.from} to ${Number(range.to.toPrecision(4))} m only (${range.values} of ${done.curves!.r.length} grid values), where the observed and every simulated curve are defined.`);
+      }
+      results.push({ ...done, options: t, level: spec.level, seed: spec.seed, cautions });
       ctx.progress(1);
     }
   } finally {
