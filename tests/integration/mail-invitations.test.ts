@@ -10,6 +10,7 @@ import { hashPassword, checkPassword } from "@/lib/server/passwords";
 import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
 import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
+import { buildOpenApiDocument } from "@/lib/server/openapi";
 import * as acceptRoute from "@/app/api/auth-extra/invitations/accept/route";
 import * as resetRequestRoute from "@/app/api/auth-extra/password-reset/request/route";
 import * as resetConfirmRoute from "@/app/api/auth-extra/password-reset/confirm/route";
@@ -86,6 +87,7 @@ describe("invitations by e-mail", () => {
     expect("POST" in membersRoute).toBe(false);
     const adds = (Object.values(api) as ApiOperation[]).filter((op) => op.method === "POST" && op.path.endsWith("/members"));
     expect(adds).toEqual([]);
+    expect(buildOpenApiDocument().paths?.["/api/sites/{siteId}/members"]).not.toHaveProperty("post");
 
     session.userId = fx.people.director.id;
     const a = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "has.account@example.org", role: "digger" });
