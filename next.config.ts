@@ -1,4 +1,5 @@
 import type { NextConfig } from "next";
+import { API_CONTENT_SECURITY_POLICY, securityHeaders } from "./lib/security-headers";
 
 const config: NextConfig = {
   // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
@@ -12,6 +13,11 @@ const config: NextConfig = {
     proxyClientMaxBodySize: "128kb",
   },
   poweredByHeader: false,
+  // Pages get their headers, with a per-request nonce, from proxy.ts; the API's answers get them here.
+  async headers() {
+    const headers = Object.entries(securityHeaders(API_CONTENT_SECURITY_POLICY)).map(([key, value]) => ({ key, value }));
+    return [{ source: "/api/:path*", headers }];
+  },
   // Types are checked by `npm run typecheck` in the test command, once for the whole tree.
   typescript: { ignoreBuildErrors: true },
 };

@@ -7,6 +7,7 @@ export default defineConfig({
   test: {
     include: ["tests/e2e/**/*.e2e.ts"],
     globalSetup: ["tests/e2e/support/global-setup.ts"],
+    setupFiles: ["tests/e2e/support/csp-setup.ts"],
     fileParallelism: false,
     testTimeout: 90_000,
     hookTimeout: 180_000,

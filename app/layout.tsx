@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { connection } from "next/server";
 import type { ReactNode } from "react";
 import { Providers } from "@/components/providers";
 import { mono, serif } from "./fonts";
@@ -9,7 +10,9 @@ export const metadata: Metadata = {
   description: "Record where finds come out of the ground, and test honestly how they are spread.",
 };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  // Every page is rendered per request: its scripts must carry this request's CSP nonce (see proxy.ts).
+  await connection();
   return (
     <html lang="en" className={`${serif.variable} ${mono.variable}`}>
       <body className="min-h-screen">

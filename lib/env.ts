@@ -18,6 +18,8 @@ const schema = z.object({
   LOAMWORK_DEV_MAIL: z.enum(["0", "1"]).default("0"),
   APP_URL: z.string().url().default("http://localhost:3000"),
   /** Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database. */
+  /** The upload service's ingest URL (the local stand-in's, in development and tests); browsers upload there. */
+  UPLOADTHING_INGEST_URL: z.string().url().optional(),
   LOAMWORK_RUN_QUEUE: z.enum(["local", "pg-boss"]).optional(),
 });
 

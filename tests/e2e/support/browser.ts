@@ -1,15 +1,17 @@
 import { chromium, type Browser, type Page } from "playwright-core";
 import { inject } from "vitest";
 import { DEMO_USERS } from "@/scripts/seed/seed-demo";
+import { watchCsp } from "./csp-watch";
 
 export const baseURL = () => inject("baseURL");
 
 /**
  * Debian's chromium, never a downloaded browser (local-services.md lists the flags this machine needs).
- * playwright gives every launch a fresh, empty profile of its own.
+ * playwright gives every launch a fresh, empty profile of its own. Every context it opens is watched for
+ * Content Security Policy violations (csp-watch.ts), which fail the test.
  */
 export async function openBrowser(): Promise<Browser> {
-  return chromium.launch({
+  const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
     headless: true,
     args: [
@@ -22,6 +24,13 @@ export async function openBrowser(): Promise<Browser> {
       "--disable-sync",
     ],
   });
+  const newContext = browser.newContext.bind(browser);
+  browser.newContext = async (options) => {
+    const context = await newContext(options);
+    await watchCsp(context);
+    return context;
+  };
+  return browser;
 }
 
 export const viewports = { desktop: { width: 1366, height: 900 }, tablet: { width: 820, height: 1180 } } as const;
