@@ -4,6 +4,7 @@ import Credentials from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
 import { verifySignIn } from "@/lib/server/sign-in";
 import { endSessions, sessionIsCurrent } from "@/lib/server/session-version";
+import { forgetSignInTries } from "@/lib/server/sign-in-limit";
 import { getDb } from "@/db/client";
 
 declare module "next-auth" {
@@ -28,7 +29,12 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
   providers: [
     Credentials({
       credentials: { email: { label: "E-mail" }, password: { label: "Password", type: "password" } },
-      authorize: (credentials) => verifySignIn(credentials),
+      // Tries are counted and limited before this runs (admitSignIn, at the sign-in route and form).
+      authorize: async (credentials, request) => {
+        const user = await verifySignIn(credentials);
+        if (user) await forgetSignInTries(user.email, request.headers);
+        return user;
+      },
     }),
   ],
   callbacks: {

@@ -1,9 +1,12 @@
 /**
- * Runs once when the server process starts: open the database and start the analysis-run queue, which
- * re-queues runs a stopped process left behind, so they finish without anyone having to start a new one.
+ * Runs once when the server process starts: note each request's client address, and start the analysis-run
+ * queue, which re-queues runs a stopped process left behind, so they finish without anyone having to start a new one.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  // Before the first request: sign-in limits need the address each request connected from.
+  const { stampPeerAddresses } = await import("@/lib/server/peer-stamp");
+  stampPeerAddresses();
   const { runQueue } = await import("@/lib/server/jobs/run-queue");
   try {
     await runQueue();

@@ -49,10 +49,11 @@ export const users = pgTable("users", {
   createdAt: created(),
 });
 
-export const signInFailures = pgTable("sign_in_failures", {
-  email: text("email").primaryKey(),
-  failures: integer("failures").notNull().default(0),
-  lastFailureAt: timestamp("last_failure_at", { withTimezone: true }).notNull().defaultNow(),
+/** Counters of rate-limiter-flexible's Drizzle store (sign-in tries, lib/server/sign-in-limit.ts), in its own shape. */
+export const rateLimits = pgTable("rate_limits", {
+  key: text("key").primaryKey(),
+  points: integer("points").notNull().default(0),
+  expire: timestamp("expire", { withTimezone: true }),
 });
 
 export const sites = pgTable("sites", {

@@ -17,6 +17,11 @@ const schema = z.object({
   /** "1" shows the caught-mail page (/dev/mail) in a production build too (demo, browser tests). */
   LOAMWORK_DEV_MAIL: z.enum(["0", "1"]).default("0"),
   APP_URL: z.string().url().default("http://localhost:3000"),
+  /**
+   * How many proxies of your own stand in front of Loamwork, each adding the address it was reached from to
+   * X-Forwarded-For. 0 (the default): the header is ignored and the client is the address that connected.
+   */
+  LOAMWORK_TRUSTED_PROXIES: z.coerce.number().int("Give a whole number of proxies.").min(0).max(10).default(0),
   /** Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database. */
   /** The upload service's ingest URL (the local stand-in's, in development and tests); browsers upload there. */
   UPLOADTHING_INGEST_URL: z.string().url().optional(),

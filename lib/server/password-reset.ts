@@ -2,7 +2,7 @@ import "server-only";
 import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "@/db/client";
-import { passwordResets, signInFailures, users } from "@/db/schema";
+import { passwordResets, users } from "@/db/schema";
 import { env } from "@/lib/env";
 import { conflict } from "./errors";
 import { hashToken, newPasswordSchema, newToken } from "./invitations";
@@ -10,6 +10,7 @@ import { passwordResetMail } from "./mail/templates/password-reset";
 import { deliver } from "./mail/transport";
 import { hashPassword } from "./passwords";
 import { endSessions } from "./session-version";
+import { clearSignInLimits } from "./sign-in-limit";
 
 /** A reset link works for an hour (common practice for password-reset links). */
 export const RESET_MINUTES = 60;
@@ -42,7 +43,7 @@ export async function requestPasswordReset(db: Db, email: string): Promise<{ acc
 
 /**
  * Sets the new password, uses up the link and every other open link of the account, ends every session the
- * account had (whoever knew the old password may hold one), and clears sign-in slow-downs.
+ * account had (whoever knew the old password may hold one), and clears the sign-in limits of the account.
  */
 export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetConfirmSchema>): Promise<{ email: string }> {
   return db.transaction(async (tx) => {
@@ -55,7 +56,7 @@ export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetCo
     const [user] = await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, reset.userId)).returning();
     await endSessions(tx, user.id);
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
-    await tx.delete(signInFailures).where(eq(signInFailures.email, user.email));
+    await clearSignInLimits(tx, user.email);
     return { email: user.email };
   });
 }

@@ -75,12 +75,14 @@ export async function sessionUserId(cookie: string): Promise<string | null> {
   return body?.user?.id ?? null;
 }
 
-/** Runs `fn` as a request carrying this cookie header (what auth() and currentUserId() read). */
-export async function asRequest<T>(cookie: string, fn: () => Promise<T>): Promise<T> {
+/** Runs `fn` as a request carrying this cookie header (what auth() and currentUserId() read), and these headers. */
+export async function asRequest<T>(cookie: string, fn: () => Promise<T>, headers: Record<string, string> = {}): Promise<T> {
   current.cookie = cookie;
+  current.headers = headers;
   try {
     return await fn();
   } finally {
     current.cookie = "";
+    current.headers = {};
   }
 }
