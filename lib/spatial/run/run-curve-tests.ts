@@ -32,7 +32,7 @@ export async function lEnvelopeTest(ctx: RunContext, t: Extract<TestSpec, { type
   csrLCurve(ctx.window, r, t.correction)(p.x, p.y, n, observed, 0);
   const model: SimModel = { kind: "csr-l", n, count: t.count, correction: t.correction };
   const setup: SimSetup = { window: windowInput(ctx.window), r: Array.from(r), model };
-  return envelopeTest(ctx, setup, observed, Float64Array.from(r), t.statistic);
+  return envelopeTest(ctx, setup, observed, Float64Array.from(r), t.statistic, "L");
 }
 
 /** Labels 0 = class a, 1 = class b, 2 = any other class, over all finds in scope. */
@@ -51,18 +51,20 @@ export async function crossLTest(ctx: RunContext, t: Extract<TestSpec, { type: "
     const A = classPoints(ctx, t.a, 1);
     const B = classPoints(ctx, t.b, 1);
     const r = testGrid(ctx, A.x.length + B.x.length);
-    const model: Extract<SimModel, { kind: "fixed-a" }> = { kind: "fixed-a", ax: Array.from(A.x), ay: Array.from(A.y), nB: B.x.length, count: t.count, correction: t.correction };
+    const model: Extract<SimModel, { kind: "fixed-a" }> = { kind: "fixed-a", ax: Array.from(A.x), ay: Array.from(A.y), nB: B.x.length, count: t.count, correction: t.correction, ...(t.fun === "K" && { fun: "K" }) };
     const observed = new Float64Array(r.length);
     fixedACurve(ctx.window, r, model)(B.x, B.y, B.x.length, observed, 0);
-    return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, Float64Array.from(r), t.statistic);
+    // under CSR for B: L(r) = r, K(r) = πr²
+    const theory = t.fun === "K" ? r.map((v) => Math.PI * v * v) : Float64Array.from(r);
+    return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, theory, t.statistic, t.fun === "K" ? "K" : "L");
   }
   const all = classPoints(ctx, undefined);
   const { labels } = labelsOf(ctx, t.a, t.b);
   const r = testGrid(ctx, all.x.length);
-  const model: Extract<SimModel, { kind: "labelling" }> = { kind: "labelling", x: Array.from(all.x), y: Array.from(all.y), labels, statistic: "cross-l", correction: t.correction };
+  const model: Extract<SimModel, { kind: "labelling" }> = { kind: "labelling", x: Array.from(all.x), y: Array.from(all.y), labels, statistic: t.fun === "K" ? "cross-k" : "cross-l", correction: t.correction };
   const observed = new Float64Array(r.length);
   labellingCurve(ctx.window, r, model)(Int32Array.from(labels), observed, 0);
-  return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, undefined, t.statistic);
+  return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, undefined, t.statistic, t.fun === "K" ? "K" : "L");
 }
 
 export async function kDifferenceTest(ctx: RunContext, t: Extract<TestSpec, { type: "k-difference" }>): Promise<EnvelopeOutcome> {
@@ -73,7 +75,7 @@ export async function kDifferenceTest(ctx: RunContext, t: Extract<TestSpec, { ty
   const model: Extract<SimModel, { kind: "labelling" }> = { kind: "labelling", x: Array.from(all.x), y: Array.from(all.y), labels, statistic: "k-diff", correction: t.correction };
   const observed = new Float64Array(r.length);
   labellingCurve(ctx.window, r, model)(Int32Array.from(labels), observed, 0);
-  return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, undefined, t.statistic);
+  return envelopeTest(ctx, { window: windowInput(ctx.window), r: Array.from(r), model }, observed, undefined, t.statistic, "K difference");
 }
 
 export { windowInput };

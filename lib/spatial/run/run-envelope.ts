@@ -43,7 +43,29 @@ export interface EnvelopeOutcome {
   range: { from: number; to: number; values: number; wholeGrid: boolean };
   excursions: Excursion[];
   nsim: number;
+  /** The summary function the curves and the test are of. */
+  fun: CurveFunction;
+  /** For an L curve, the K it comes from, K = πL² (null where undefined). */
+  observedK?: (number | null)[];
+  /** The global test's statistic on the observed curve, and a summary of its s simulated values (MAD, DCLF). */
+  global: GlobalSummary;
 }
+
+/** L: Besag's L (or cross-L); K: Ripley's K (cross-K); g: pair correlation; inhomogeneous L; K difference. */
+export type CurveFunction = "L" | "K" | "g" | "inhomogeneous L" | "K difference";
+
+export type GlobalSummary =
+  | {
+      statistic: GlobalStatistic;
+      observed: number;
+      simulated: { min: number; q1: number; median: number; mean: number; q3: number; max: number };
+      /** Simulated values larger than the observed one, and at least as large (ties included): p lies between
+       *  (1 + larger) / (s + 1) and (1 + atLeast) / (s + 1), ties being broken at random. */
+      largerThanObserved: number;
+      atLeastObserved: number;
+    }
+  /** The rank test has no single statistic: its p-value interval over ties of extreme rank lengths. */
+  | { statistic: "rank"; pInterval: [number, number] };
 
 export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array, hi: Float64Array): Excursion[] {
   const out: Excursion[] = [];
@@ -60,6 +82,30 @@ export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array,
   }
   if (open) out.push(open);
   return out;
+}
+
+/** Quantile of sorted values (type 7, linear interpolation between order statistics, R's default). */
+function quantile(sorted: Float64Array, q: number): number {
+  const h = (sorted.length - 1) * q, lo = Math.floor(h);
+  return lo + 1 < sorted.length ? sorted[lo] + (h - lo) * (sorted[lo + 1] - sorted[lo]) : sorted[lo];
+}
+
+function summarise(statistic: GlobalStatistic, observed: number, simulated: Float64Array): GlobalSummary {
+  const sorted = Float64Array.from(simulated).sort();
+  let sum = 0, atLeast = 0, larger = 0;
+  for (const v of simulated) {
+    sum += v;
+    if (v >= observed) atLeast++;
+    if (v > observed) larger++;
+  }
+  const p = (v: number) => Number(v.toPrecision(10));
+  return {
+    statistic,
+    observed: p(observed),
+    simulated: { min: p(sorted[0]), q1: p(quantile(sorted, 0.25)), median: p(quantile(sorted, 0.5)), mean: p(sum / sorted.length), q3: p(quantile(sorted, 0.75)), max: p(sorted[sorted.length - 1]) },
+    largerThanObserved: larger,
+    atLeastObserved: atLeast,
+  };
 }
 
 const round = (a: ArrayLike<number>, m = a.length): (number | null)[] =>
@@ -104,6 +150,7 @@ export async function envelopeTest(
   observed: Float64Array,
   theory: Float64Array | undefined,
   statistic: GlobalStatistic | "rank",
+  fun: CurveFunction,
 ): Promise<EnvelopeOutcome> {
   const { spec } = ctx;
   const r = Float64Array.from(setup.r);
@@ -123,13 +170,17 @@ export async function envelopeTest(
   const reference = theory ? theory.subarray(0, end) : band.mean;
   let pValue: number;
   let globalBand: EnvelopeOutcome["globalBand"];
+  let global: GlobalSummary;
   if (statistic === "rank") {
     const res = rankEnvelope(obsUsed, set, spec.level, [r[0] === 0 ? 1 : 0, end]);
     pValue = res.pValue;
     globalBand = { lo: round(res.lo, m), hi: round(res.hi, m), level: spec.level };
+    global = { statistic: "rank", pInterval: res.pInterval };
   } else {
     const tieBreak = createRandom(spec.seed, ctx.testIndex * STREAMS_PER_TEST);
-    pValue = globalTest(obsUsed, set, rUsed, { statistic, theory: theory?.subarray(0, end), rng: tieBreak }).pValue;
+    const res = globalTest(obsUsed, set, rUsed, { statistic, theory: theory?.subarray(0, end), rng: tieBreak });
+    pValue = res.pValue;
+    global = summarise(statistic, res.observed, res.simulated);
   }
   let worst = 0, direction: 1 | -1 | 0 = 0;
   for (let k = 0; k < end; k++) {
@@ -152,5 +203,8 @@ export async function envelopeTest(
     range: { from: r[0], to: r[end - 1], values: end, wholeGrid: end === m },
     excursions: excursions(rUsed, obsUsed, band.lo, band.hi),
     nsim: spec.nsim,
+    fun,
+    ...(fun === "L" || fun === "inhomogeneous L" ? { observedK: round(observed.map((v) => Math.PI * v * v)) } : {}),
+    global,
   };
 }

@@ -19,7 +19,7 @@ async function pcfTest(ctx: RunContext, t: Extract<TestSpec, { type: "pcf-envelo
   const obs = pairCorrelation(ctx.window, p, { r: full, correction: "isotropic" });
   const r = obs.r;
   const setup: SimSetup = { window: windowInput(ctx.window), r: Array.from(r), model: { kind: "csr-g", n, count: t.count, halfWidth: obs.halfWidth } };
-  return envelopeTest(ctx, setup, obs.g.isotropic!, new Float64Array(r.length).fill(1), t.statistic);
+  return envelopeTest(ctx, setup, obs.g.isotropic!, new Float64Array(r.length).fill(1), t.statistic, "g");
 }
 
 /**
@@ -64,7 +64,7 @@ async function inhomTest(ctx: RunContext, t: Extract<TestSpec, { type: "inhomoge
   const observed = new Float64Array(r.length);
   inhomLCurve(ctx.window, r, img)(p.x, p.y, n, observed, 0);
   const setup: SimSetup = { window: windowInput(ctx.window), r: Array.from(r), model: { kind: "inhom-l", lambda: img } };
-  return envelopeTest(ctx, setup, observed, Float64Array.from(r), t.statistic);
+  return envelopeTest(ctx, setup, observed, Float64Array.from(r), t.statistic, "inhomogeneous L");
 }
 
 export async function extraCurveTest(ctx: RunContext, t: Extract<TestSpec, { type: "pcf-envelope" | "inhomogeneous-l" }>): Promise<EnvelopeOutcome> {

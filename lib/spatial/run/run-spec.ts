@@ -36,7 +36,11 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
     }),
     object({ type: z.literal("l-envelope"), class: cls.optional(), count: z.enum(["fixed", "poisson"]).default("poisson"), correction, statistic }),
     object({ type: z.literal("pcf-envelope"), class: cls.optional(), count: z.enum(["fixed", "poisson"]).default("poisson"), statistic }),
-    object({ type: z.literal("cross-l"), a: cls, b: cls, null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"), count: z.enum(["fixed", "poisson"]).default("fixed"), correction: pairCorrection, statistic }),
+    object({
+      type: z.literal("cross-l"), a: cls, b: cls, null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"), count: z.enum(["fixed", "poisson"]).default("fixed"), correction: pairCorrection, statistic,
+      /** The summary function the envelope test runs on: cross-L (default) or cross-K, as spatstat's envelope of Kcross. */
+      fun: z.enum(["L", "K"]).default("L"),
+    }),
     object({ type: z.literal("k-difference"), a: cls, b: cls, correction: pairCorrection, statistic }),
     object({ type: z.literal("inhomogeneous-l"), class: cls, reference: cls.optional(), bandwidth: z.number().positive().optional(), statistic }),
   ]);

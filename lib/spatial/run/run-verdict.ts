@@ -19,7 +19,7 @@ export function verdictOf(t: TestSpec, p: number, level: number, direction: numb
   const at = `at the ${pct(level)} level (p = ${p.toPrecision(3)})`;
   if (t.type === "cross-l" || t.type === "k-difference") {
     const nullName = t.type === "k-difference" || t.null === "random-labelling" ? "random labelling" : `class ${t.a} fixed, class ${t.b} CSR`;
-    const test = t.type === "k-difference" ? `K difference K_${t.a}${t.a} − K_${t.b}${t.b}, ${statName} test` : `cross-L (${t.a}→${t.b}), ${statName} test`;
+    const test = t.type === "k-difference" ? `K difference K_${t.a}${t.a} − K_${t.b}${t.b}, ${statName} test` : `cross-${t.fun} (${t.a}→${t.b}), ${statName} test`;
     if (!reject) return { verdict: "no evidence against the null", test, nullName, summary: `No evidence against ${nullName} ${at}.` };
     if (t.type === "k-difference") {
       const more = direction > 0 ? t.a : t.b;

@@ -23,6 +23,10 @@ function toL(sums: Float64Array, scale: number, out: Float64Array, offset: numbe
   for (let k = 0; k < sums.length; k++) out[offset + k] = Math.sqrt(Math.max(0, sums[k] * scale) / Math.PI);
 }
 
+function toK(sums: Float64Array, scale: number, out: Float64Array, offset: number): void {
+  for (let k = 0; k < sums.length; k++) out[offset + k] = sums[k] * scale;
+}
+
 /** The statistic of a labelling of fixed locations (labels 0 = A, 1 = B, 2 = neither). */
 export function labellingCurve(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "labelling" }>) {
   const x = Float64Array.from(model.x), y = Float64Array.from(model.y);
@@ -46,7 +50,7 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
       if (k >= m) continue;
       const li = labels[pairs.i[p]], lj = labels[pairs.j[p]];
       const wij = iso ? w[2 * p] : w[p], wji = iso ? w[2 * p + 1] : w[p];
-      if (model.statistic === "cross-l") {
+      if (model.statistic !== "k-diff") {
         if (li === 0 && lj === 1) a[k] += wij;
         else if (li === 1 && lj === 0) a[k] += wji;
       } else if (li === lj) {
@@ -58,8 +62,8 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
       a[k] += a[k - 1];
       b[k] += b[k - 1];
     }
-    if (model.statistic === "cross-l") {
-      toL(a, window.area / (nA * nB), out, offset);
+    if (model.statistic !== "k-diff") {
+      (model.statistic === "cross-k" ? toK : toL)(a, window.area / (nA * nB), out, offset);
       return;
     }
     const sa = window.area / (nA * (nA - 1)), sb = window.area / (nB * (nB - 1));
@@ -67,7 +71,7 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
   };
 }
 
-/** Cross-L̂_AB with A fixed, as a function of the B pattern. */
+/** Cross-L̂_AB (or cross-K̂_AB) with A fixed, as a function of the B pattern. */
 export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "fixed-a" }>) {
   const ax = Float64Array.from(model.ax), ay = Float64Array.from(model.ay);
   const nA = ax.length, m = r.length;
@@ -84,7 +88,7 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
       sums[bin(d)] += w;
     }
     for (let k = 1; k < m; k++) sums[k] += sums[k - 1];
-    toL(sums.subarray(0, m), window.area / (nA * nB), out, offset);
+    (model.fun === "K" ? toK : toL)(sums.subarray(0, m), window.area / (nA * nB), out, offset);
   };
 }
 
