@@ -4,7 +4,8 @@ import { API_CONTENT_SECURITY_POLICY, securityHeaders } from "./lib/security-hea
 const config: NextConfig = {
   // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
   // rate-limiter-flexible loads its Drizzle helpers by a computed import that a bundle cannot follow.
-  serverExternalPackages: ["@electric-sql/pglite", "piscina", "sharp", "smtp-server", "mailparser", "nodemailer", "pg-boss", "rate-limiter-flexible"],
+  // pg-listen needs pg-format, which loads a file by a path computed at run time.
+  serverExternalPackages: ["@electric-sql/pglite", "piscina", "sharp", "smtp-server", "mailparser", "nodemailer", "pg-boss", "rate-limiter-flexible", "pg-listen"],
   experimental: {
     authInterrupts: true,
     // Loamwork's server actions post sign-in, reset and invitation forms: a few hundred bytes each.
