@@ -47,6 +47,8 @@ export async function updateClass(db: Db, actor: SiteActor, classId: string, inp
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, classId)));
     if (!before) throw notFound("That artefact class");
+    // An update that names no field changes nothing (and writes no audit entry).
+    if (!Object.keys(input).length) return before;
     const [after] = await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning();
     const reason = await signedOffUse(tx, before, after);
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "class", recordId: classId, before, after, reason });

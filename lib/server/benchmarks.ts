@@ -14,8 +14,10 @@ export async function updateDatum(db: Db, actor: SiteActor, input: DatumUpdate) 
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(sites).where(eq(sites.id, actor.site.id)).for("update");
     if (!before) throw notFound("That site");
-    const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
     const pick = (s: typeof before) => ({ datumKind: s.datumKind, datumName: s.datumName, levelTolerance: s.levelTolerance });
+    // An update that names no field changes nothing (and writes no audit entry).
+    if (!Object.keys(input).length) return pick(before);
+    const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "datum", recordId: actor.site.id, before: pick(before), after: pick(after!) });
     return pick(after!);
   });
@@ -59,6 +61,8 @@ export async function updateBenchmark(db: Db, actor: SiteActor, benchmarkId: str
   assertFieldRights("benchmark", actor.role, input);
   return db.transaction(async (tx) => {
     const before = await getBenchmark(tx, actor.site.id, benchmarkId);
+    // An update that names no field changes nothing (and writes no audit entry).
+    if (!Object.keys(input).length) return before;
     if (input.level !== undefined && input.level !== before.level) await assertUnused(tx, before, "given a new level");
     if (input.code !== undefined) await assertCodeFree(tx, actor.site.id, input.code, before.id);
     const [after] = await tx.update(benchmarks).set(input).where(eq(benchmarks.id, before.id)).returning();

@@ -80,7 +80,22 @@ export async function runGuarded<I, R>(
   }
 }
 
+/** The path of the first string (or key) holding a NUL character, which no text column can store. */
+function nulPath(value: unknown, path: string, depth = 0): string | null {
+  if (typeof value === "string") return value.includes("\u0000") ? path || "_" : null;
+  if (!value || typeof value !== "object" || depth > 64) return null;
+  for (const [key, inner] of Object.entries(value)) {
+    const at = path ? `${path}.${key}` : key;
+    if (key.includes("\u0000")) return at;
+    const found = nulPath(inner, at, depth + 1);
+    if (found) return found;
+  }
+  return null;
+}
+
 function parseInput<I>(schema: ZodType<I> | undefined, raw: unknown): I {
+  const nul = nulPath(raw, "");
+  if (nul) throw badInput(`Check the input — ${nul}: text cannot contain a NUL character (\\u0000).`, { [nul]: ["Text cannot contain a NUL character (\\u0000)."] });
   if (!schema) return raw as I;
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {

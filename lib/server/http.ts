@@ -2,7 +2,7 @@ import "server-only";
 import { NextRequest, NextResponse } from "next/server";
 import type { ZodType } from "zod";
 import type { Db } from "@/db/client";
-import { PublicError, badInput } from "./errors";
+import { PublicError, badInput, notFound } from "./errors";
 import { runGuarded, runPublic, toFailure, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
 
 type RouteParams = Record<string, string | string[] | undefined>;
@@ -77,6 +77,16 @@ async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: 
   }
 }
 
+const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** A path segment named `…Id` that is not a UUID names no record: 404 before anything is looked up. */
+function malformedId(params: Record<string, string>): PublicError | null {
+  const bad = Object.entries(params).find(([name, value]) => name.endsWith("Id") && !uuidPattern.test(value));
+  if (!bad) return null;
+  const what = bad[0] === "userId" ? "member" : bad[0].slice(0, -2).replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`);
+  return notFound(`That ${what}`);
+}
+
 /**
  * A route handler behind the guarded entry. The site comes from the `siteId` path segment. The body is read
  * only after the session and the role on the site are checked, and never past the entry's limit.
@@ -88,6 +98,8 @@ export function guardedRoute<I, R>(
   return async (req, routeCtx) => {
     const raw = (await routeCtx.params) ?? {};
     const params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, String(v)]));
+    const malformed = malformedId(params);
+    if (malformed) return respond(toFailure(malformed));
     const from = spec.from ?? (req.method === "GET" || req.method === "DELETE" ? "query" : "body");
     const limit = spec.maxBodyBytes ?? DEFAULT_BODY_LIMIT;
     const outcome = await runGuarded(spec, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params, req }));

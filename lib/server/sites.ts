@@ -41,6 +41,8 @@ export async function createSite(db: Db, userId: string, input: SiteCreate) {
 
 export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
   assertFieldRights("site", actor.role, input);
+  // An update that names no field changes nothing (and writes no audit entry).
+  if (!Object.keys(input).length) return actor.site;
   return db.transaction(async (tx) => {
     const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "site", recordId: actor.site.id, before: actor.site, after });

@@ -53,6 +53,8 @@ export async function updateSpit(db: Db, actor: SiteActor, contextId: string, sp
     const context = await getContext(tx, actor.site.id, contextId);
     const before = await getSpit(tx, actor.site.id, context.id, spitId);
     await assertContextWritable(tx, context, "given changed spits");
+    // An update that names no field changes nothing (and writes no audit entry).
+    if (!Object.keys(input).length) return before;
     assertOrder(input.topLevel === undefined ? before.topLevel : input.topLevel, input.baseLevel === undefined ? before.baseLevel : input.baseLevel);
     if (input.number !== undefined) await assertNumberFree(tx, context.id, input.number, before.id);
     const [after] = await tx.update(spits).set(input).where(eq(spits.id, before.id)).returning();

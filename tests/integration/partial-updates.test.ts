@@ -30,6 +30,20 @@ describe("a partial update changes only what it names", () => {
       expect(Object.keys(updatables[name].fields(fx)).sort()).toEqual(Object.keys(shape).sort());
     });
 
+    it(`${name}: an update naming no field changes nothing`, async () => {
+      const u = updatables[name];
+      const fx = await makeUpdateSite();
+      const target = await u.target(fx);
+      const before = await target.read();
+      session.userId = fx.people.director.id;
+      const res = await call(u.mod, "PATCH", target.params, {});
+      expect(res.status, JSON.stringify(res.json)).toBe(op.input!.safeParse({}).success ? 200 : 400);
+      // Only the time of the last edit may move.
+      const { updatedAt: _b, ...was } = before;
+      const { updatedAt: _a, ...now } = await target.read();
+      expect(now).toEqual(was);
+    });
+
     it(`${name}: patching a random subset of fields leaves every other field as it was`, async () => {
       const u = updatables[name];
       const fx = await makeUpdateSite();
