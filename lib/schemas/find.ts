@@ -4,6 +4,23 @@ import { metres, numeric, pageQuery, uuid } from "./common";
 const optionalNumber = <T extends z.ZodTypeAny>(inner: T) =>
   z.preprocess((v) => (v === "" || v === undefined ? null : v), inner.nullable()).optional();
 
+/**
+ * The highest find number Loamwork hands out or accepts: 99,999,999, eight digits, far beyond any
+ * excavation's finds (a busy site records a few hundred thousand) and well inside the database's 32-bit
+ * integer, so allocation can never overflow. Imported numbers above it are refused row by row; a site whose
+ * numbers are used up is told so instead of receiving a number.
+ */
+export const MAX_FIND_NUMBER = 99_999_999;
+
+/** A find number as a file or a form gives it: a whole number from 1 to MAX_FIND_NUMBER. */
+export const findNumberSchema = numeric(
+  z
+    .number({ error: "A find number is a whole number." })
+    .int("A find number is a whole number.")
+    .min(1, "Find numbers start at 1.")
+    .max(MAX_FIND_NUMBER, `Find numbers go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`),
+);
+
 /** The fields a find's sheet holds, without defaults: an update names only what it changes. */
 const findFields = {
   contextId: uuid,

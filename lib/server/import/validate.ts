@@ -1,3 +1,4 @@
+import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
 import type { ImportField, ImportMapping, ImportRowError } from "@/lib/schemas/import";
 import type { ImportLookups } from "./lookups";
 import type { ParsedCsv } from "./parse";
@@ -87,6 +88,7 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     if (numRaw) {
       const n = readNumber(numRaw);
       if (n === null || !Number.isInteger(n) || n < 1) reasons.push(`find number "${numRaw}" is not a whole number of 1 or more`);
+      else if (n > MAX_FIND_NUMBER) reasons.push(`find number ${numRaw} is above ${maxNumberWords}, the highest find number Loamwork keeps`);
       else if (lk.usedNumbers.has(n)) reasons.push(`find number ${n} is already in use on this site`);
       else if (n < lk.nextNumber) reasons.push(`find number ${n} was handed out before (deleted finds keep their numbers); leave it blank to get a new one`);
       else if (inFile.has(n)) reasons.push(`find number ${n} is also on row ${inFile.get(n)}`);
@@ -106,7 +108,27 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     contextIds.add(ctx!.id);
     valid.push({ row, number, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: x!, y: y!, z, count, weightG, description: cell(r, "description").slice(0, 4000) });
   });
-  return { valid, errors, contextIds };
+  return { ...refuseBeyondLastNumber(valid, errors, lk.nextNumber), contextIds };
+}
+
+const maxNumberWords = MAX_FIND_NUMBER.toLocaleString("en-GB");
+
+/**
+ * Rows without a number get the numbers after the site's next one and after the file's highest, in file
+ * order. A row whose number would pass MAX_FIND_NUMBER is refused here, by row, rather than at allocation.
+ */
+function refuseBeyondLastNumber(valid: ValidRow[], errors: ImportRowError[], nextNumber: number) {
+  let next = nextNumber;
+  for (const r of valid) if (r.number !== null && r.number >= next) next = r.number + 1;
+  const refused = new Set<ValidRow>();
+  for (const r of valid) {
+    if (r.number !== null) continue;
+    if (next > MAX_FIND_NUMBER) refused.add(r);
+    next++;
+  }
+  if (!refused.size) return { valid, errors };
+  const more = [...refused].map((r) => ({ row: r.row, reasons: [`no find number is left for this row: this site's find numbers go up to ${maxNumberWords}`] }));
+  return { valid: valid.filter((r) => !refused.has(r)), errors: [...errors, ...more].sort((a, b) => a.row - b.row) };
 }
 
 function optionalWhole(raw: string, name: string, reasons: string[]): number | null {
@@ -114,6 +136,11 @@ function optionalWhole(raw: string, name: string, reasons: string[]): number | n
   const v = readNumber(raw);
   if (v === null || !Number.isInteger(v) || v < 1) {
     reasons.push(`${name} "${raw}" is not a whole number of 1 or more`);
+    return null;
+  }
+  // The same bound as a count typed on the find's form (and inside the column's 32-bit integer).
+  if (v > 1_000_000) {
+    reasons.push(`${name} "${raw}" is above 1,000,000`);
     return null;
   }
   return v;
