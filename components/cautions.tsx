@@ -4,7 +4,7 @@ export const DEEP_TRENCH_M = 1.2;
 export function DeepTrenchCaution({ depth }: { depth: number }) {
   return (
     <div role="alert" className="rounded border-2 border-warn bg-warn-light p-3 text-warn">
-      <p className="font-bold">Deep trench: {depth.toFixed(2)} m recorded</p>
+      <p className="font-bold">Deep trench: {depth.toFixed(2)} m below the ground surface, from the reduced levels recorded</p>
       <p className="text-sm">
         Beyond about {DEEP_TRENCH_M} m the sides need support, battering or stepping before anyone works in the trench. Follow the
         local regulations and the site&apos;s risk assessment; this figure is common practice, not a rule.

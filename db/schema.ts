@@ -106,8 +106,6 @@ export const trenches = pgTable(
     code: text("code").notNull(),
     name: text("name").notNull().default(""),
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
-    /** Deepest recorded depth below the surface in metres, for the deep-trench caution. */
-    maxDepth: doublePrecision("max_depth"),
     /** Reduced level of the ground surface before digging; the deep-trench caution is measured from it. */
     surfaceLevel: doublePrecision("surface_level"),
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),

@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { contextCreateSchema, contextTypes } from "@/lib/schemas/context";
+import { contextCreateSchema, contextTypes, digMethods } from "@/lib/schemas/context";
 import { ApiError, fetchJson } from "@/components/ui/fetch-json";
 import { applyFieldErrors, FormField } from "./form-field";
 
@@ -19,6 +19,12 @@ const textFields = [
   { name: "inclusions", label: "Inclusions", rows: 2 },
   { name: "description", label: "Description", rows: 4 },
   { name: "interpretation", label: "Interpretation", rows: 3 },
+] as const;
+
+const measureFields = [
+  { name: "lengthM", label: "Length (m)" },
+  { name: "widthM", label: "Width (m)" },
+  { name: "thicknessM", label: "Thickness (m)" },
 ] as const;
 
 /** The context sheet, checked in the browser by the very schema the server checks it with. */
@@ -76,6 +82,32 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
           </FormField>
         ))}
       </div>
+      <fieldset className="grid gap-3 sm:grid-cols-4">
+        <legend className="label">Dimensions and digging</legend>
+        {measureFields.map((f) => (
+          <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
+            <input id={`ctx-${f.name}`} className="field num" inputMode="decimal" aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+          </FormField>
+        ))}
+        <FormField id="ctx-excavatedBy" label="Excavated by" error={e.excavatedBy?.message}>
+          <input id="ctx-excavatedBy" className="field" aria-describedby="ctx-excavatedBy-error" {...register("excavatedBy")} />
+        </FormField>
+        <FormField id="ctx-openedOn" label="Opened" error={e.openedOn?.message}>
+          <input id="ctx-openedOn" type="date" className="field num" aria-describedby="ctx-openedOn-error" {...register("openedOn")} />
+        </FormField>
+        <FormField id="ctx-closedOn" label="Closed" error={e.closedOn?.message}>
+          <input id="ctx-closedOn" type="date" className="field num" aria-describedby="ctx-closedOn-error" {...register("closedOn")} />
+        </FormField>
+        <FormField id="ctx-digMethod" label="Dug by" error={e.digMethod?.message}>
+          <select id="ctx-digMethod" className="field" aria-describedby="ctx-digMethod-error" {...register("digMethod")}>
+            <option value="">not recorded</option>
+            {digMethods.map((m) => <option key={m} value={m}>{m}</option>)}
+          </select>
+        </FormField>
+        <FormField id="ctx-sieveMeshMm" label="Sieve mesh (mm)" error={e.sieveMeshMm?.message}>
+          <input id="ctx-sieveMeshMm" className="field num" inputMode="decimal" aria-describedby="ctx-sieveMeshMm-error" {...register("sieveMeshMm")} />
+        </FormField>
+      </fieldset>
       <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
       <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
         {contextId ? "Save the sheet" : "Open the sheet"}

@@ -14,7 +14,8 @@ const trenchFields = {
   code: z.string().trim().min(1, "Give the trench a code.").max(20),
   name: z.string().trim().max(200),
   outline: polygonSchema,
-  maxDepth: numeric(z.number({ error: "Enter a depth in metres." }).min(0).max(100)).nullish(),
+  /** Ground-surface reduced level before digging (metres against the site's datum); depths are measured from it. */
+  surfaceLevel: numeric(z.number({ error: "Enter the ground-surface level in metres." }).refine(Number.isFinite).refine((v) => Math.abs(v) < 10_000, "A reduced level beyond ±10 km is not on this planet's surface.")).nullish(),
 };
 
 export const trenchCreateSchema = z.object({ ...trenchFields, name: trenchFields.name.default("") });

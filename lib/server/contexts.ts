@@ -4,7 +4,7 @@ import type { Db, Tx } from "@/db/client";
 import { contexts, finds, trenches, type Context } from "@/db/schema";
 import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
 import { recordAudit } from "./audit";
-import { conflict, notFound } from "./errors";
+import { badInput, conflict, notFound } from "./errors";
 import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
@@ -26,8 +26,19 @@ async function assertNumberFree(tx: Db | Tx, siteId: string, number: number) {
   if (taken) throw conflict(`Context ${number} already exists on this site; context numbers are unique per site.`);
 }
 
+/** The sheet's dates in order, and a mesh size only on a sieved context. */
+function assertSheetConsistent(sheet: Pick<Context, "openedOn" | "closedOn" | "digMethod" | "sieveMeshMm">) {
+  if (sheet.openedOn && sheet.closedOn && sheet.closedOn < sheet.openedOn) {
+    throw badInput("The context was closed before it was opened.", { closedOn: ["The closing date is before the opening date."] });
+  }
+  if (sheet.sieveMeshMm != null && sheet.digMethod && sheet.digMethod !== "sieved") {
+    throw badInput("A mesh size belongs to a sieved context.", { sieveMeshMm: [`A mesh size is given but the method is ${sheet.digMethod}.`] });
+  }
+}
+
 export async function createContext(db: Db, actor: SiteActor, input: ContextCreate) {
   if (input.extent) assertOutline(input.extent, "extent");
+  assertSheetConsistent({ openedOn: input.openedOn ?? null, closedOn: input.closedOn ?? null, digMethod: input.digMethod ?? null, sieveMeshMm: input.sieveMeshMm ?? null });
   return db.transaction(async (tx) => {
     await getTrench(tx, actor.site.id, input.trenchId);
     await assertNumberFree(tx, actor.site.id, input.number);
@@ -46,6 +57,7 @@ export async function updateContext(db: Db, actor: SiteActor, contextId: string,
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);
     await assertContextWritable(tx, before);
+    assertSheetConsistent({ ...before, ...input });
     if (input.number !== undefined && input.number !== before.number) await assertNumberFree(tx, actor.site.id, input.number);
     const [after] = await tx
       .update(contexts)

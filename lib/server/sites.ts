@@ -1,4 +1,5 @@
 import "server-only";
+import { trenchDepths } from "./trench-depth";
 import { and, asc, count, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { contexts, finds, memberships, sites, trenches, users, analysisRuns, type Role } from "@/db/schema";
@@ -60,16 +61,17 @@ async function countsByTrench(db: Db, siteId: string) {
 }
 
 export async function siteOverview(db: Db, actor: SiteActor) {
-  const [rows, counts, awaiting] = await Promise.all([
+  const [rows, counts, awaiting, depths] = await Promise.all([
     db
-      .select({ id: trenches.id, code: trenches.code, name: trenches.name, maxDepth: trenches.maxDepth, signedOffAt: trenches.signedOffAt })
+      .select({ id: trenches.id, code: trenches.code, name: trenches.name, signedOffAt: trenches.signedOffAt })
       .from(trenches)
       .where(eq(trenches.siteId, actor.site.id))
       .orderBy(asc(trenches.code)),
     countsByTrench(db, actor.site.id),
     db.select({ n: count() }).from(contexts).where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting"))),
+    trenchDepths(db, actor.site.id),
   ]);
-  const trenchRows = rows.map((t) => ({ ...t, contexts: counts.contexts.get(t.id) ?? 0, finds: counts.finds.get(t.id) ?? 0 }));
+  const trenchRows = rows.map((t) => ({ ...t, depth: depths.get(t.id)?.depth ?? null, contexts: counts.contexts.get(t.id) ?? 0, finds: counts.finds.get(t.id) ?? 0 }));
   return { site: actor.site, role: actor.role, trenches: trenchRows, awaitingSignOff: awaiting[0]?.n ?? 0 };
 }
 

@@ -39,7 +39,7 @@ export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate
     if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
     const [row] = await tx
       .insert(trenches)
-      .values({ siteId: actor.site.id, code: input.code, name: input.name, outline: windowToPolygon(window), maxDepth: input.maxDepth ?? null })
+      .values({ siteId: actor.site.id, code: input.code, name: input.name, outline: windowToPolygon(window), surfaceLevel: input.surfaceLevel ?? null })
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "trench", recordId: row.id, after: row });
     return row;
@@ -78,7 +78,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
       .set({
         ...(input.code !== undefined && { code: input.code }),
         ...(input.name !== undefined && { name: input.name }),
-        ...(input.maxDepth !== undefined && { maxDepth: input.maxDepth }),
+        ...(input.surfaceLevel !== undefined && { surfaceLevel: input.surfaceLevel }),
         ...(window && { outline: windowToPolygon(window) }),
         updatedAt: new Date(),
       })

@@ -133,3 +133,52 @@ describe("levels: datum, benchmarks, levelling runs, spits", () => {
     expect(unknown.status).toBe(400);
   });
 });
+
+describe("context sheets: dimensions, dates and method", () => {
+  it("keeps blank measures as not recorded (null), refuses closing before opening and a mesh on a trowelled context", async () => {
+    const contextRoute = await import("@/app/api/sites/[siteId]/contexts/[contextId]/route");
+    const fx = await makeSite();
+    session.userId = fx.people.digger.id;
+    const params = { siteId: fx.site.id, contextId: fx.context.id };
+    const ok = await call(contextRoute, "PATCH", params, { lengthM: "2.40", widthM: "", thicknessM: 0.12, openedOn: "2026-06-01", digMethod: "sieved", sieveMeshMm: "4", excavatedBy: "N. Ashgrove" });
+    expect(ok.status, JSON.stringify(ok.json)).toBe(200);
+    expect(ok.json).toMatchObject({ lengthM: 2.4, widthM: null, thicknessM: 0.12, openedOn: "2026-06-01", digMethod: "sieved", sieveMeshMm: 4, excavatedBy: "N. Ashgrove" });
+    const early = await call(contextRoute, "PATCH", params, { closedOn: "2026-05-30" });
+    expect(early.status).toBe(400);
+    expect(early.json.fieldErrors).toHaveProperty("closedOn");
+    const mesh = await call(contextRoute, "PATCH", params, { digMethod: "trowel" });
+    expect(mesh.status).toBe(400);
+    expect(mesh.json.fieldErrors).toHaveProperty("sieveMeshMm");
+    const db = await getDb();
+    const [row] = await db.select().from(schema.contexts).where(eq(schema.contexts.id, fx.context.id));
+    expect(row).toMatchObject({ closedOn: null, digMethod: "sieved" });
+  });
+});
+
+describe("deep-trench caution from reduced levels", () => {
+  it("measures a trench's depth as its surface level minus the lowest level recorded in it; no surface, no depth", async () => {
+    const { trenchDepth } = await import("@/lib/server/trench-depth");
+    const fx = await makeSite();
+    const db = await getDb();
+    expect((await trenchDepth(db, fx.site.id, fx.trench.id)).depth).toBeNull();
+    const find = await findOf(fx);
+    const spit = await call(spitsRoute, "POST", { siteId: fx.site.id, contextId: fx.context.id }, { number: 1 });
+    await bookRun(fx, 48.13, { findId: find.id, spitId: spit.json.id });
+    // Levels in the trench: find 49.655, spit top 49.385, context top 48.890 — but no ground level yet.
+    expect((await trenchDepth(db, fx.site.id, fx.trench.id)).depth).toBeNull();
+    await db.update(schema.trenches).set({ surfaceLevel: 50.4 }).where(eq(schema.trenches.id, fx.trench.id));
+    expect(await trenchDepth(db, fx.site.id, fx.trench.id)).toEqual({ surfaceLevel: 50.4, lowestLevel: 48.89, depth: 1.51 });
+  });
+
+  it("the demo site's trench B is deeper than 1.2 m from its levels, trench A is not", async () => {
+    const { seedDemo } = await import("@/db/seed-demo");
+    const { trenchDepths } = await import("@/lib/server/trench-depth");
+    const db = await getDb();
+    const { siteId } = await seedDemo(db);
+    const trenches = await db.select().from(schema.trenches).where(eq(schema.trenches.siteId, siteId));
+    const depths = await trenchDepths(db, siteId);
+    const byCode = Object.fromEntries(trenches.map((t) => [t.code, depths.get(t.id)?.depth]));
+    expect(byCode.B).toBe(1.45);
+    expect(byCode.A).toBeLessThan(1.2);
+  });
+});

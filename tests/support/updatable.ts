@@ -131,7 +131,7 @@ export const updatables: Record<string, Updatable> = {
       code: fc.integer({ min: 0, max: 99 }).map((k) => `U${unique()}-${k}`),
       name: text(),
       outline: rectangle(0, 0),
-      maxDepth: fc.option(decimal(0, 100), { nil: null }),
+      surfaceLevel: fc.option(decimal(-100, 3000), { nil: null }),
     }),
   },
   contextUpdate: {
@@ -151,6 +151,15 @@ export const updatables: Record<string, Updatable> = {
       description: text(),
       interpretation: text(),
       extent: fc.option(rectangle(0, 0), { nil: null }),
+      lengthM: fc.option(decimal(0, 50), { nil: null }),
+      widthM: fc.option(decimal(0, 50), { nil: null }),
+      thicknessM: fc.option(decimal(0, 3), { nil: null }),
+      excavatedBy: text(),
+      // Opened in May, closed in June: any subset keeps the dates in order.
+      openedOn: fc.option(fc.integer({ min: 1, max: 31 }).map((d) => `2026-05-${String(d).padStart(2, "0")}`), { nil: null }),
+      closedOn: fc.option(fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`), { nil: null }),
+      digMethod: fc.constantFrom(null, "sieved"),
+      sieveMeshMm: fc.option(fc.constantFrom(2, 4, 10), { nil: null }),
     }),
   },
   findUpdate: {

@@ -9,7 +9,7 @@ export default async function SiteOverviewPage({ params }: { params: Promise<{ s
   const { actor, read } = await pageSiteActor(siteId);
   const [overview, outlines, remains] = await Promise.all([read.overview(), read.trenches(), read.humanRemains()]);
   const outlineOf = new Map(outlines.map((t) => [t.id, t.outline]));
-  const deepest = Math.max(0, ...overview.trenches.map((t) => t.maxDepth ?? 0));
+  const deepest = Math.max(0, ...overview.trenches.map((t) => t.depth ?? 0));
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}`} />

@@ -14,6 +14,9 @@ import { listPlanFinds } from "../plan-finds";
 import { listSignOffQueue, sheetProblems } from "../sign-off";
 import { listMembers, listMySites, siteOverview } from "../sites";
 import { getTrench, listTrenches } from "../trenches";
+import { contextSpotLevels } from "../level-runs";
+import { listSpits } from "../spits";
+import { trenchDepth } from "../trench-depth";
 import { patternsChoices } from "./patterns-choices";
 import { loadTrenchReport } from "./trench-report";
 import { userNames } from "./user-names";
@@ -47,6 +50,9 @@ export function siteReads(db: Db, actor: SiteActor) {
     trenchReport: (trench: Trench) => loadTrenchReport(db, trench),
     patternsChoices: () => patternsChoices(db, siteId),
     userNames: (ids: (string | null | undefined)[]) => userNames(db, ids),
+    spits: (contextId: string) => listSpits(db, siteId, contextId),
+    contextSpotLevels: (contextId: string) => contextSpotLevels(db, siteId, contextId),
+    trenchDepth: (trenchId: string) => trenchDepth(db, siteId, trenchId),
   };
 }
 

@@ -2,6 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { AuditTrail } from "@/components/audit/audit-trail";
 import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
+import { LevelsPanel } from "@/components/contexts/levels-panel";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { RelationsPanel } from "@/components/contexts/relations-panel";
 import { StateBadge } from "@/components/contexts/state-badge";
@@ -11,7 +12,8 @@ import { isPublicError } from "@/lib/server/errors";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
 
-const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation"] as const;
+const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation", "excavatedBy", "openedOn", "closedOn", "digMethod"] as const;
+const sheetLabels: Record<string, string> = { excavatedBy: "excavated by", openedOn: "opened", closedOn: "closed", digMethod: "dug by" };
 
 export default async function ContextSheetPage({ params }: { params: Promise<{ siteId: string; contextId: string }> }) {
   const { siteId, contextId } = await params;
@@ -20,13 +22,15 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [trenches, all, problems, names, trail, classNotes] = await Promise.all([
+  const [trenches, all, problems, names, trail, classNotes, spits, spots] = await Promise.all([
     read.trenches(),
     read.contextSummaries(),
     read.sheetProblems(c),
     read.userNames([c.recordedBy, c.signedOffBy, c.submittedBy]),
     read.audit({ recordType: "context", recordId: c.id }),
     read.contextClassNotes(c),
+    read.spits(c.id),
+    read.contextSpotLevels(c.id),
   ]);
   const trench = trenches.find((t) => t.id === c.trenchId);
   const mine = all.find((x) => x.id === c.id);
@@ -68,18 +72,22 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
             siteId={siteId}
             contextId={c.id}
             trenches={trenches.map((t) => ({ id: t.id, code: t.code }))}
-            initial={{ trenchId: c.trenchId, number: c.number, type: c.type, colour: c.colour, compaction: c.compaction, composition: c.composition, inclusions: c.inclusions, description: c.description, interpretation: c.interpretation }}
+            initial={{
+              trenchId: c.trenchId, number: c.number, type: c.type, colour: c.colour, compaction: c.compaction, composition: c.composition, inclusions: c.inclusions, description: c.description, interpretation: c.interpretation,
+              lengthM: c.lengthM ?? "", widthM: c.widthM ?? "", thicknessM: c.thicknessM ?? "", excavatedBy: c.excavatedBy, openedOn: c.openedOn ?? "", closedOn: c.closedOn ?? "", digMethod: c.digMethod ?? "", sieveMeshMm: c.sieveMeshMm ?? "",
+            }}
           />
         ) : (
           <dl className="sheet grid gap-x-6 gap-y-2 sm:grid-cols-[10rem_1fr]">
             {sheetFields.map((f) => (
               <div key={f} className="contents">
-                <dt className="font-semibold capitalize text-ink-soft">{f}</dt>
+                <dt className="font-semibold capitalize text-ink-soft">{sheetLabels[f] ?? f}</dt>
                 <dd className="whitespace-pre-wrap">{c[f] || "—"}</dd>
               </div>
             ))}
           </dl>
         )}
+        <LevelsPanel siteId={siteId} contextId={c.id} datumName={actor.site.datumName} spits={spits} spots={spots} canEdit={writable} />
         <RelationsPanel siteId={siteId} contextId={c.id} number={c.number} canEdit={writable} others={all.filter((o) => o.id !== c.id).map((o) => ({ id: o.id, number: o.number }))} />
         <AuditTrail entries={trail} siteId={siteId} recordType="context" recordId={c.id} />
       </main>

@@ -22,7 +22,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [r, remains] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId)]);
+  const [r, remains, depth] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId), read.trenchDepth(trenchId)]);
   const signedCount = r.sheets.filter((s) => s.state === "signed_off").length;
   const matches = r.stampedFingerprint === r.fingerprint;
   return (
@@ -58,7 +58,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
         </header>
 
         {remains > 0 && <HumanRemainsBanner count={remains} />}
-        {(trench.maxDepth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={trench.maxDepth!} />}
+        {(depth.depth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={depth.depth!} />}
         <section aria-labelledby="plan-h">
           <h2 id="plan-h" className="text-2xl font-bold">Plan</h2>
           <PlanFigure outline={trench.outline} points={r.finds.map((f) => ({ x: f.x, y: f.y, symbol: f.cls?.symbol ?? "disc", colour: f.cls?.colour ?? "#000", label: `Find ${f.number}` }))} />

@@ -15,12 +15,13 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [contexts, classes, photos, remains, finds] = await Promise.all([
+  const [contexts, classes, photos, remains, finds, depth] = await Promise.all([
     read.contexts(trenchId),
     read.classes(),
     read.photos(trenchId),
     read.humanRemains(trenchId),
     read.planFinds(trenchId),
+    read.trenchDepth(trenchId),
   ]);
   return (
     <>
@@ -30,7 +31,7 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
           Trench {trench.code} <span className="text-lg font-normal text-ink-soft">{trench.name} · plan</span>
         </h1>
         {remains > 0 && <HumanRemainsBanner count={remains} />}
-        {(trench.maxDepth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={trench.maxDepth!} />}
+        {(depth.depth ?? 0) > DEEP_TRENCH_M && <DeepTrenchCaution depth={depth.depth!} />}
         <div className="overflow-hidden rounded border border-paper-edge bg-white/60">
           <PlanLoader
             siteId={siteId}

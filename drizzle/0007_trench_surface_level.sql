@@ -1,0 +1,1 @@
+ALTER TABLE "trenches" DROP COLUMN "max_depth";
