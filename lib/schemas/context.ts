@@ -6,7 +6,7 @@ export const contextTypes = ["layer", "fill", "cut", "structure", "deposit"] as 
 
 const sheetText = (max = 2000) => z.string().trim().max(max);
 /** A field a form may leave blank: blank is "not recorded" (null), never 0. */
-const blankIsNull = <T extends z.ZodType>(inner: T) => z.preprocess((v) => (v === "" ? null : v), inner.nullable());
+const blankIsNull = <T extends z.ZodType>(inner: T) => z.preprocess((v) => (v === "" ? null : v), inner.nullish());
 const measure = (what: string) =>
   blankIsNull(numeric(z.number({ error: `Enter the ${what} in metres.` }).min(0, `The ${what} cannot be negative.`).max(1000, `A ${what} over 1000 m is not a context.`)));
 const day = blankIsNull(z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD."));
