@@ -17,7 +17,7 @@ export const fieldRights = {
   site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly },
   member: { role: directorOnly },
   class: { code: classers, label: classers, material: classers, colour: classers, symbol: classers, humanRemains: classers },
-  trench: { code: recorders, name: recorders, outline: recorders, maxDepth: recorders },
+  trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders },
   context: {
     number: recorders,
     type: recorders,
@@ -28,6 +28,14 @@ export const fieldRights = {
     description: recorders,
     interpretation: recorders,
     extent: recorders,
+    lengthM: recorders,
+    widthM: recorders,
+    thicknessM: recorders,
+    excavatedBy: recorders,
+    openedOn: recorders,
+    closedOn: recorders,
+    digMethod: recorders,
+    sieveMeshMm: recorders,
   },
   find: {
     contextId: recorders,

@@ -171,7 +171,7 @@ describe("deep-trench caution from reduced levels", () => {
   });
 
   it("the demo site's trench B is deeper than 1.2 m from its levels, trench A is not", async () => {
-    const { seedDemo } = await import("@/db/seed-demo");
+    const { seedDemo } = await import("@/scripts/seed/seed-demo");
     const { trenchDepths } = await import("@/lib/server/trench-depth");
     const db = await getDb();
     const { siteId } = await seedDemo(db);
