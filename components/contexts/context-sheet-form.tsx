@@ -6,7 +6,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { contextCreateSchema, contextTypes, digMethods } from "@/lib/schemas/context";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 import { applyFieldErrors, FormField } from "./form-field";
 
 type Input = z.input<typeof contextCreateSchema>;
@@ -42,10 +42,10 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
     try {
       if (contextId) {
         const { trenchId: _fixed, ...changes } = values;
-        await fetchJson(`/api/sites/${siteId}/contexts/${contextId}`, { method: "PATCH", body: changes });
+        await apiClient.call("contextUpdate", { siteId, contextId }, changes);
         router.refresh();
       } else {
-        const made = await fetchJson<{ id: string }>(`/api/sites/${siteId}/contexts`, { method: "POST", body: values });
+        const made = await apiClient.call("contextsCreate", { siteId }, values);
         router.push(`/sites/${siteId}/contexts/${made.id}`);
       }
     } catch (err) {

@@ -6,28 +6,29 @@ import Link from "next/link";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { readingLabels, relationCreateSchema, relationReadings } from "@/lib/schemas/relation";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
+import type { RelationReadingRow } from "@/lib/api/responses";
 import { applyFieldErrors, FormField } from "./form-field";
 
-type Reading = { relationId: string; reading: string; label: string; otherId: string; otherNumber: number; redundant: boolean };
 type Input = z.input<typeof relationCreateSchema>;
 
 /** The sheet's relations, each stored once and read here from this context's side. */
 export function RelationsPanel({ siteId, contextId, number, others, canEdit }: { siteId: string; contextId: string; number: number; others: { id: string; number: number }[]; canEdit: boolean }) {
   const qc = useQueryClient();
   const key = ["relations", siteId, contextId];
-  const list = useQuery({ queryKey: key, queryFn: () => fetchJson<Reading[]>(`/api/sites/${siteId}/relations?contextId=${contextId}`) });
+  const list = useQuery({ queryKey: key, queryFn: () => apiClient.call("relationsList", { siteId }, { contextId }),
+    select: (rows) => rows.filter((r): r is RelationReadingRow => "relationId" in r) });
   const { register, handleSubmit, setError, reset, formState } = useForm<Input>({ resolver: zodResolver(relationCreateSchema), defaultValues: { contextId, reading: "above", otherId: "" } });
   const refresh = () => qc.invalidateQueries({ queryKey: ["relations", siteId] });
   const add = useMutation({
-    mutationFn: (v: Input) => fetchJson(`/api/sites/${siteId}/relations`, { method: "POST", body: v }),
+    mutationFn: (v: Input) => apiClient.call("relationsCreate", { siteId }, v),
     onSuccess: () => { reset({ contextId, reading: "above", otherId: "" }); refresh(); },
     onError: (err) => {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setError("root", { message: err.message });
     },
   });
-  const remove = useMutation({ mutationFn: (id: string) => fetchJson(`/api/sites/${siteId}/relations/${id}`, { method: "DELETE" }), onSuccess: refresh });
+  const remove = useMutation({ mutationFn: (id: string) => apiClient.call("relationDelete", { siteId, relationId: id }), onSuccess: refresh });
   const e = formState.errors;
 
   return (

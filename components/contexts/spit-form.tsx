@@ -6,7 +6,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { spitCreateSchema } from "@/lib/schemas/levels";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 import { applyFieldErrors, FormField } from "./form-field";
 
 type Input = z.input<typeof spitCreateSchema>;
@@ -24,7 +24,7 @@ export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; co
   const submit = handleSubmit(async (values) => {
     setFailure(null);
     try {
-      await fetchJson(`/api/sites/${siteId}/contexts/${contextId}/spits`, { method: "POST", body: values });
+      await apiClient.call("spitsCreate", { siteId, contextId }, values);
       reset({ number: nextNumber + 1 });
       router.refresh();
     } catch (err) {

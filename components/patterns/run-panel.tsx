@@ -2,7 +2,7 @@
 
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useEffect, type ReactNode } from "react";
-import { fetchJson } from "@/components/ui/fetch-json";
+import { apiClient } from "@/lib/api/client";
 import type { RunView } from "@/lib/server/analysis/run-view";
 import { RunProgress } from "./run-progress";
 import { RunResultView } from "./run-result";
@@ -28,7 +28,7 @@ export function RunPanel({ siteId, runId, canRun, onUseSettings, fallback }: Pro
     } else void qc.invalidateQueries({ queryKey: ["runs", siteId] });
   }, [status, runId, qc, siteId]);
   const cancel = useMutation({
-    mutationFn: (id: string) => fetchJson<RunView>(`/api/sites/${siteId}/runs/${id}/cancel`, { method: "POST", body: {} }),
+    mutationFn: (id: string) => apiClient.call("runCancel", { siteId, runId: id }),
     onSuccess: (v) => {
       qc.setQueryData(["run", siteId, v.id], (old: RunView | undefined) => ({ ...(old ?? v), ...v, result: old?.result ?? null }));
       void qc.invalidateQueries({ queryKey: ["runs", siteId] });

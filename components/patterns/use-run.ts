@@ -2,7 +2,7 @@
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useEffect, useState } from "react";
-import { fetchJson } from "@/components/ui/fetch-json";
+import { apiClient } from "@/lib/api/client";
 import type { RunProgressEvent } from "@/lib/server/analysis/run-watch";
 import type { RunView } from "@/lib/server/analysis/run-view";
 
@@ -22,7 +22,7 @@ export function useRun(siteId: string, runId: string | null) {
   const [attempt, setAttempt] = useState(0);
   const query = useQuery({
     queryKey: ["run", siteId, runId],
-    queryFn: () => fetchJson<RunView>(`/api/sites/${siteId}/runs/${runId}`),
+    queryFn: () => apiClient.call("runRead", { siteId, runId: runId ?? "" }),
     enabled: !!runId,
     // The stream keeps a run in progress fresh; a finished run is read again when next opened (out of date?).
     staleTime: (q) => (inProgress(q.state.data?.status) ? Infinity : 0),
@@ -31,7 +31,7 @@ export function useRun(siteId: string, runId: string | null) {
   useEffect(() => {
     if (!following || !runId) return;
     const key = ["run", siteId, runId];
-    const source = new EventSource(`/api/sites/${siteId}/runs/${runId}/events`);
+    const source = new EventSource(apiClient.url("runEvents", { siteId, runId }));
     let ended = false;
     source.addEventListener("run", (e) => {
       const view = JSON.parse((e as MessageEvent<string>).data) as RunView;
@@ -65,7 +65,7 @@ export function useRun(siteId: string, runId: string | null) {
 export function useRuns(siteId: string) {
   return useQuery({
     queryKey: ["runs", siteId],
-    queryFn: () => fetchJson<Omit<RunView, "result">[]>(`/api/sites/${siteId}/runs`),
+    queryFn: () => apiClient.call("runsList", { siteId }),
     staleTime: 0,
   });
 }

@@ -3,9 +3,8 @@
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { usePathname, useSearchParams } from "next/navigation";
 import { useState } from "react";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 import type { RunView } from "@/lib/server/analysis/run-view";
-import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
 import { CompareView } from "./compare-view";
 import { formFromRun, initialForm, toRequest, type FormState } from "./form-state";
 import { RunPanel } from "./run-panel";
@@ -38,12 +37,12 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
 
   const summary = useQuery({
     queryKey: ["scope", siteId, form.trenchId, form.contextIds],
-    queryFn: () => fetchJson<ScopeSummary>(`/api/sites/${siteId}/runs/scope?trenchId=${form.trenchId}&contextIds=${form.contextIds.join(",")}&classIds=${classes.map((c) => c.id).join(",")}`),
+    queryFn: () => apiClient.call("runScope", { siteId }, { trenchId: form.trenchId, contextIds: form.contextIds.join(","), classIds: classes.map((c) => c.id).join(",") }),
     enabled: !!form.trenchId && form.contextIds.length > 0 && classes.length > 0,
   });
   const runs = useRuns(siteId);
   const start = useMutation({
-    mutationFn: () => fetchJson<RunView>(`/api/sites/${siteId}/runs`, { body: toRequest(form) }),
+    mutationFn: () => apiClient.call("runsCreate", { siteId }, toRequest(form)),
     onSuccess: (created) => {
       qc.setQueryData(["run", siteId, created.id], created);
       setUrl({ run: created.id });

@@ -1,7 +1,7 @@
 /** Canvas drawing for the plan layers, in screen pixels (the Konva layer has already applied the pixel ratio). */
 import { gridLines, labelDecimals, toScreen, type View } from "@/lib/geometry/plan-view";
 import type { Problem, Pt, Rings } from "@/lib/geometry/outline-edit";
-import type { ClassRow, FindRow } from "./api";
+import type { ClassRow, FindRow } from "./rows";
 import { openSymbols, traceSymbol } from "./symbols";
 import { pixelRatioOf, type Area } from "./view-cache";
 

@@ -1,7 +1,7 @@
 "use client";
 
 import { stateWords } from "@/components/contexts/state-badge";
-import type { ContextRow } from "./api";
+import type { ContextRow } from "./rows";
 
 /**
  * Why a context's extent cannot change now, or null when it is open. Worded as the server's refusal

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import type { Pt } from "@/lib/geometry/outline-edit";
-import type { ClassRow, ContextRow } from "./api";
+import type { ClassRow, ContextRow } from "./rows";
 
 const optionalNumber = (msg: string, check: (n: number) => boolean) =>
   z.string().trim().refine((s) => s === "" || (Number.isFinite(Number(s)) && check(Number(s))), msg);

@@ -1,7 +1,7 @@
 "use client";
 
 import { memo, useEffect, useMemo, useRef } from "react";
-import type { ClassRow, FindRow } from "./api";
+import type { ClassRow, FindRow } from "./rows";
 import { SymbolIcon } from "./symbols";
 
 const LIMIT = 300;

@@ -1,7 +1,7 @@
 "use client";
 
 import { memo } from "react";
-import type { ClassRow, ContextRow, FindRow } from "./api";
+import type { ClassRow, ContextRow, FindRow } from "./rows";
 import { SymbolIcon } from "./symbols";
 
 /** Per-class and per-context visibility of finds on the plan, with counts. */

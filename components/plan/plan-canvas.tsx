@@ -7,7 +7,7 @@ import type { Context } from "konva/lib/Context";
 import type { Layer as KonvaLayer } from "konva/lib/Layer";
 import { nearestEdge, type EdgeHit, type Problem, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import { toScreen, toWorld, zoomAt, type View } from "@/lib/geometry/plan-view";
-import type { ClassRow, FindRow } from "./api";
+import type { ClassRow, FindRow } from "./rows";
 import { drawDrawing, drawExtents, drawFinds, drawGrid, drawOutline, drawVertices } from "./draw";
 import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type FitMark, type Photo, type Refused } from "./draw-marks";
 import { ViewCache } from "./view-cache";

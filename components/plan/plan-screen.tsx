@@ -7,7 +7,8 @@ import { deleteVertex, insertVertex, locateProblem, moveVertex, polygonToRings, 
 import type { FitModel } from "@/lib/geometry/photo-fit";
 import type { PhotoView } from "@/lib/geometry/photo-fit-input";
 import { fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view";
-import { ApiError, apiCall, type ClassRow, type ContextRow, type FindRow } from "./api";
+import { ApiError, apiClient } from "@/lib/api/client";
+import type { ClassRow, ContextRow, FindRow } from "./rows";
 import type { Refused } from "./draw-marks";
 import { FindForm, type QuickFind } from "./find-form";
 import { ExtentPanel, extentLockedMessage } from "./extent-panel";
@@ -95,7 +96,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const { finds, loading, error, record, move } = usePlanFinds({ siteId, trenchId: trench.id, initialFinds, contexts, savedRings, pushUndo: push, say });
   const visible = useMemo(() => finds.filter((f) => !hiddenClasses.has(f.classId) && !hiddenContexts.has(f.contextId)), [finds, hiddenClasses, hiddenContexts]);
 
-  const photosQuery = useQuery({ queryKey: ["plan-photos", siteId, trench.id], queryFn: () => apiCall<PhotoView[]>(`/api/sites/${siteId}/photos?trenchId=${trench.id}`), initialData: initialPhotos });
+  const photosQuery = useQuery({ queryKey: ["plan-photos", siteId, trench.id], queryFn: () => apiClient.call("photosList", { siteId }, { trenchId: trench.id }), initialData: initialPhotos });
   const photos = photosQuery.data;
   const [photoId, setPhotoId] = useState<string | null>(initialPhotos[0]?.id ?? null);
   const photo = photos.find((p) => p.id === photoId) ?? null;
@@ -170,7 +171,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     setSavingOutline(true);
     const prev = savedRings;
     try {
-      await apiCall(`/api/sites/${siteId}/trenches/${trench.id}`, { method: "PATCH", body: { outline: ringsToPolygon(rings) } });
+      await apiClient.call("trenchUpdate", { siteId, trenchId: trench.id }, { outline: ringsToPolygon(rings) });
       const now = rings;
       setSavedRings(now);
       setOutlineError(null);
@@ -178,16 +179,16 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       push({
         label: "save the outline",
         run: async () => {
-          await apiCall(`/api/sites/${siteId}/trenches/${trench.id}`, { method: "PATCH", body: { outline: ringsToPolygon(prev) } });
+          await apiClient.call("trenchUpdate", { siteId, trenchId: trench.id }, { outline: ringsToPolygon(prev) });
           setSavedRings(prev);
           setRings(prev);
         },
       });
     } catch (err) {
-      const e = err as ApiError;
-      setOutlineError(e.fieldErrors?.outline?.[0] ? `Refused: ${e.fieldErrors.outline[0]}` : `Refused: ${e.message}`);
-      const outside: number[] = e.details?.outside ?? [];
-      if (outside.length) setSelected(new Set(finds.filter((f) => outside.includes(f.number)).map((f) => f.id)));
+      const field = err instanceof ApiError ? err.fieldErrors.outline?.[0] : undefined;
+      setOutlineError(`Refused: ${field ?? (err as Error).message}`);
+      const outside = err instanceof ApiError ? err.detail("outside") : undefined;
+      if (Array.isArray(outside) && outside.length) setSelected(new Set(finds.filter((f) => outside.includes(f.number)).map((f) => f.id)));
     } finally {
       setSavingOutline(false);
     }
@@ -207,11 +208,10 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       if (!c.ok) return setExtentError(`Not saved: ${c.reason}`);
     }
     const prev = extents.get(ctx.id) ?? null;
-    const url = `/api/sites/${siteId}/contexts/${ctx.id}`;
     savingExtentNow.current = true;
     setSavingExtent(true);
     try {
-      await apiCall(url, { method: "PATCH", body: { extent } });
+      await apiClient.call("contextUpdate", { siteId, contextId: ctx.id }, { extent });
       setExtents((m) => new Map(m).set(ctx.id, extent));
       setDrawing([]);
       setExtentError(null);
@@ -219,7 +219,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       push({
         label: `${extent ? "save" : "clear"} the extent of context ${ctx.number}`,
         run: async () => {
-          await apiCall(url, { method: "PATCH", body: { extent: prev } });
+          await apiClient.call("contextUpdate", { siteId, contextId: ctx.id }, { extent: prev });
           setExtents((m) => new Map(m).set(ctx.id, prev));
         },
       });
@@ -301,7 +301,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
     setFitError(null);
     try {
       const body = { points: fitPoints.map((p) => ({ px: p.px, py: p.py, x: Number(p.x), y: Number(p.y) })), ...(fitModel === "auto" ? {} : { model: fitModel }) };
-      const out = await apiCall<PhotoView>(`/api/sites/${siteId}/photos/${photo.id}/fit`, { method: "POST", body });
+      const out = await apiClient.call("photoFit", { siteId, photoId: photo.id }, body);
       qc.setQueryData<PhotoView[]>(["plan-photos", siteId, trench.id], (list) => (list ?? []).map((p) => (p.id === out.id ? out : p)));
       say("ok", `Photo fitted: RMS ${(out.fit!.rms * 1000).toFixed(1)} mm over ${out.fit!.points.length} points.`);
     } catch (err) {
@@ -450,7 +450,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
               onUploaded={async (id) => { await photosQuery.refetch(); setPhotoId(id); chooseTool("fit"); }}
               onDelete={async (id) => {
                 try {
-                  await apiCall(`/api/sites/${siteId}/photos/${id}`, { method: "DELETE" });
+                  await apiClient.call("photoDelete", { siteId, photoId: id });
                   const left = (await photosQuery.refetch()).data ?? [];
                   // Skip the deleted photo even if the refetch failed and returned the old list.
                   setPhotoId(left.filter((p) => p.id !== id)[0]?.id ?? null);

@@ -3,7 +3,8 @@
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useMemo } from "react";
 import { nearestEdge, type Pt, type Rings } from "@/lib/geometry/outline-edit";
-import { ApiError, apiCall, fetchAllFinds, type ContextRow, type FindRow } from "./api";
+import { ApiError, apiClient } from "@/lib/api/client";
+import type { ContextRow, FindRow } from "./rows";
 import type { Refused } from "./draw-marks";
 import type { QuickFind } from "./find-form";
 import type { UndoEntry } from "./use-undo";
@@ -19,6 +20,16 @@ type Deps = {
 };
 
 const num = (s: string) => (s.trim() === "" ? null : Number(s));
+const pageSize = 500;
+
+/** Every find of a trench, 500 a page, pages after the first fetched together. */
+async function fetchAllFinds(siteId: string, trenchId: string): Promise<FindRow[]> {
+  const page = (n: number) => apiClient.call("findsList", { siteId }, { trenchId, pageSize, page: n });
+  const first = await page(1);
+  const pages = Math.ceil(first.total / pageSize);
+  const rest = await Promise.all(Array.from({ length: Math.max(0, pages - 1) }, (_, i) => page(i + 2)));
+  return [first, ...rest].flatMap((p) => p.rows);
+}
 
 /** The trench's finds (all pages) and the plan's writes to them, each with its undo. */
 export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRings, pushUndo, say }: Deps) {
@@ -40,16 +51,15 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
   const record = useCallback(
     async (at: Pt, v: QuickFind, cls: { code: string; label: string }): Promise<{ ok: true; row: FindRow } | { ok: false; message: string; refused: Refused | null }> => {
       try {
-        const created = await apiCall<FindRow>(`/api/sites/${siteId}/finds`, {
-          method: "POST",
-          body: { contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: num(v.z), count: num(v.count), weightG: num(v.weightG), description: v.description, method: "plan" },
+        const created = await apiClient.call("findsCreate", { siteId }, {
+          contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: num(v.z), count: num(v.count), weightG: num(v.weightG), description: v.description, method: "plan",
         });
-        const row = withContext({ ...created, recordedAt: String(created.recordedAt) }, cls.code, cls.label);
+        const row = withContext(created, cls.code, cls.label);
         patch((rows) => [...rows, row]);
         pushUndo({
           label: `record find #${row.number}`,
           run: async () => {
-            await apiCall(`/api/sites/${siteId}/finds/${row.id}`, { method: "DELETE" });
+            await apiClient.call("findDelete", { siteId, findId: row.id });
             patch((rows) => rows.filter((r) => r.id !== row.id));
           },
         });
@@ -57,7 +67,8 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
         return { ok: true, row };
       } catch (err) {
         if (!(err instanceof ApiError)) throw err;
-        const distance = typeof err.details?.distance === "number" ? err.details.distance : null;
+        const given = err.detail("distance");
+        const distance = typeof given === "number" ? given : null;
         const near = distance !== null ? nearestEdge(savedRings, at[0], at[1]) : null;
         return { ok: false, message: err.message, refused: distance !== null ? { at, nearest: near?.point ?? at, distance } : null };
       }
@@ -69,7 +80,7 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
     async (f: FindRow, to: Pt) => {
       const from: Pt = [f.x, f.y];
       const send = async (p: Pt) => {
-        await apiCall(`/api/sites/${siteId}/finds/${f.id}`, { method: "PATCH", body: { x: p[0], y: p[1] } });
+        await apiClient.call("findUpdate", { siteId, findId: f.id }, { x: p[0], y: p[1] });
         patch((rows) => rows.map((r) => (r.id === f.id ? { ...r, x: p[0], y: p[1] } : r)));
       };
       try {

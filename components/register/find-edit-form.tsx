@@ -7,7 +7,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { findUpdateSchema } from "@/lib/schemas/find";
 import { applyFieldErrors, FormField } from "@/components/contexts/form-field";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 
 type Input = z.input<typeof findUpdateSchema>;
 type Output = z.output<typeof findUpdateSchema>;
@@ -31,7 +31,7 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes, chang
     const dirty = formState.dirtyFields as Partial<Record<keyof Output, boolean>>;
     const changes = Object.fromEntries(Object.entries(values).filter(([k]) => dirty[k as keyof Output] && !locked(k as keyof Output)));
     try {
-      await fetchJson(`/api/sites/${siteId}/finds/${findId}`, { method: "PATCH", body: changes });
+      await apiClient.call("findUpdate", { siteId, findId }, changes);
       setNote({ ok: true, text: "Saved." });
       router.refresh();
     } catch (err) {

@@ -5,14 +5,13 @@ import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type Sortin
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
-import { fetchJson } from "@/components/ui/fetch-json";
+import { apiClient } from "@/lib/api/client";
 import { ClassMark } from "./class-mark";
 import { Fragment } from "react";
 import { FindPanel, type RegisterRow } from "./find-panel";
 import { RegisterFilters, type RegisterOptions } from "./register-filters";
 import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
 
-type Page = { page: number; pageSize: number; total: number; rows: RegisterRow[] };
 const sortable = new Set(["number", "trench", "context", "class", "recorder", "x", "y", "z", "recordedAt"]);
 const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
 
@@ -39,7 +38,7 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
   const [openId, setOpenId] = useState<string | null>(null);
   const go = (change: RegisterView) => router.replace(`${pathname}?${viewQuery(withChange(view, change))}`, { scroll: false });
   const qs = viewQuery(view);
-  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => fetchJson<Page>(`/api/sites/${siteId}/finds?${qs}`), placeholderData: keepPreviousData });
+  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => apiClient.call("findsList", { siteId }, view), placeholderData: keepPreviousData });
   const pageSize = Number(view.pageSize ?? 50);
   const page = Number(view.page ?? 1);
   const total = data.data?.total ?? 0;

@@ -6,13 +6,11 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { importFieldLabels, importFields, importMappingSchema, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
 import { FormField } from "@/components/contexts/form-field";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
+import type { ApiAnswer } from "@/lib/api/client";
 import { ImportReport } from "./import-report";
 
-export type Preview = {
-  headers: string[]; mapping: Partial<ImportMapping>; mappingSource: "given" | "remembered" | "guessed"; rowCount: number;
-  sample: string[][]; mappingProblems: Record<string, string[]>; errors: ImportRowError[]; validCount: number;
-};
+export type Preview = ApiAnswer<"importPreview">;
 const required = new Set(["x", "y", "classCode", "contextNumber"]);
 const sourceWords = { given: "as you mapped it", remembered: "as this site mapped its last file", guessed: "guessed from the headers; check it" };
 
@@ -30,7 +28,7 @@ export function ImportWizard({ siteId }: { siteId: string }) {
     setFailure(null);
     setDone(null);
     try {
-      const p = await fetchJson<Preview>(`/api/sites/${siteId}/import/preview`, { method: "POST", body: { csv: text, fileName: name, mapping } });
+      const p = await apiClient.call("importPreview", { siteId }, { csv: text, fileName: name, mapping });
       setPreview(p);
       form.reset(p.mapping as ImportMapping);
       for (const [k, msgs] of Object.entries(p.mappingProblems)) form.setError(k.replace("mapping.", "") as keyof ImportMapping, { message: msgs.join(" ") });
@@ -46,11 +44,11 @@ export function ImportWizard({ siteId }: { siteId: string }) {
     setBusy("Importing…");
     setFailure(null);
     try {
-      setDone(await fetchJson(`/api/sites/${siteId}/import`, { method: "POST", body: { csv: file.text, fileName: file.name, mapping } }));
+      setDone(await apiClient.call("importCommit", { siteId }, { csv: file.text, fileName: file.name, mapping }));
       setPreview(null);
       setFile(null);
     } catch (err) {
-      const errors = err instanceof ApiError ? (err.details as { errors?: ImportRowError[] } | undefined)?.errors : undefined;
+      const errors = err instanceof ApiError ? (err.detail("errors") as ImportRowError[] | undefined) : undefined;
       if (errors && preview) setPreview({ ...preview, errors, validCount: preview.rowCount - errors.length });
       setFailure(err instanceof Error ? err.message : String(err));
     } finally {

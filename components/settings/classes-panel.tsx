@@ -6,10 +6,10 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { ClassSymbol } from "@/components/class-symbol";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
+import type { ClassRow } from "@/lib/api/responses";
 import { artefactClassCreateSchema, symbolShapes } from "@/lib/schemas/artefact-class";
 
-type ClassRow = { id: string; code: string; label: string; material: string; colour: string; symbol: string; humanRemains: boolean };
 type FormIn = z.input<typeof artefactClassCreateSchema>;
 type FormOut = z.output<typeof artefactClassCreateSchema>;
 
@@ -27,8 +27,8 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
   const save = useMutation({
     mutationFn: (values: FormOut) =>
       editing
-        ? fetchJson(`/api/sites/${siteId}/classes/${editing.id}`, { method: "PATCH", body: values })
-        : fetchJson(`/api/sites/${siteId}/classes`, { method: "POST", body: values }),
+        ? apiClient.call("classUpdate", { siteId, classId: editing.id }, values)
+        : apiClient.call("classesCreate", { siteId }, values),
     onSuccess: () => {
       setServerError(null);
       form.reset();
@@ -36,7 +36,7 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
     },
     onError: (err) => {
       setServerError(err.message);
-      if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors ?? {})) form.setError(k as keyof FormIn, { message: v.join(" ") });
+      if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors)) form.setError(k as keyof FormIn, { message: v.join(" ") });
     },
   });
   const e = form.formState.errors;
@@ -93,7 +93,7 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
 export function ClassesPanel({ siteId, canEdit }: { siteId: string; canEdit: boolean }) {
   const qc = useQueryClient();
   const key = ["classes", siteId];
-  const classes = useQuery({ queryKey: key, queryFn: () => fetchJson<ClassRow[]>(`/api/sites/${siteId}/classes`) });
+  const classes = useQuery({ queryKey: key, queryFn: () => apiClient.call("classesList", { siteId }) });
   const [editing, setEditing] = useState<ClassRow | null>(null);
   return (
     <div className="space-y-4">

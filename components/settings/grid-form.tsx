@@ -5,7 +5,7 @@ import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 import { siteUpdateSchema } from "@/lib/schemas/site";
 
 type In = z.input<typeof siteUpdateSchema>;
@@ -15,10 +15,10 @@ export function GridForm({ siteId, initial, canEdit }: { siteId: string; initial
   const router = useRouter();
   const form = useForm<In, unknown, Out>({ resolver: zodResolver(siteUpdateSchema), defaultValues: initial });
   const save = useMutation({
-    mutationFn: (v: Out) => fetchJson(`/api/sites/${siteId}`, { method: "PATCH", body: v }),
+    mutationFn: (v: Out) => apiClient.call("siteUpdate", { siteId }, v),
     onSuccess: () => router.refresh(),
     onError: (err) => {
-      if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors ?? {})) form.setError(k as keyof In, { message: v.join(" ") });
+      if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors)) form.setError(k as keyof In, { message: v.join(" ") });
     },
   });
   const e = form.formState.errors;
@@ -47,7 +47,7 @@ export function GridForm({ siteId, initial, canEdit }: { siteId: string; initial
       {canEdit && (
         <div className="sm:col-span-2 flex items-center gap-3">
           <button className="btn-primary" type="submit" disabled={save.isPending}>Save grid</button>
-          <span aria-live="polite" className="text-sm">{save.isSuccess ? "Saved." : save.error && !(save.error instanceof ApiError && save.error.fieldErrors) ? save.error.message : ""}</span>
+          <span aria-live="polite" className="text-sm">{save.isSuccess ? "Saved." : save.error && !(save.error instanceof ApiError && save.error.hasFieldErrors) ? save.error.message : ""}</span>
         </div>
       )}
     </form>

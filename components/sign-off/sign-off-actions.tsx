@@ -3,11 +3,10 @@
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import type { Context, Role } from "@/lib/server/reads/row-types";
-import { fetchJson } from "@/components/ui/fetch-json";
+import { apiClient } from "@/lib/api/client";
 import { useSignOffNotice } from "./sign-off-notice";
 
 type Props = { siteId: string; contextId: string; number: number; state: Context["state"]; role: Role; ready: boolean };
-type Outcome = { mail?: { sent: number; failed: number } };
 
 /** The buttons of one context in the sign-off flow, as the caller's role allows; the server checks again. */
 export function SignOffActions({ siteId, contextId, number, state, role, ready }: Props) {
@@ -19,13 +18,17 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
   const [note, setNote] = useState<string | null>(null);
   const [asking, setAsking] = useState(false);
   const [reason, setReason] = useState("");
-  const base = `/api/sites/${siteId}/sign-off/${contextId}`;
 
-  async function run(step: "submit" | "lock" | "reopen", body?: unknown) {
+  const send = (step: "submit" | "lock" | "reopen") =>
+    step === "submit" ? apiClient.call("contextSubmit", { siteId, contextId })
+      : step === "lock" ? apiClient.call("contextSignOff", { siteId, contextId })
+        : apiClient.call("contextReopen", { siteId, contextId }, { reason });
+
+  async function run(step: "submit" | "lock" | "reopen") {
     setBusy(true);
     setError(null);
     try {
-      const out = await fetchJson<Outcome>(`${base}/${step}`, { method: "POST", body: body ?? {} });
+      const out = await send(step);
       const m = out.mail;
       const what = { submit: `Context ${number} submitted for sign-off`, lock: `Context ${number} signed off`, reopen: `Context ${number} ${state === "signed_off" ? "reopened" : "returned to open"}` }[step];
       const text = `${what}; ${m ? (m.failed ? `${m.failed} e-mail(s) could not be sent.` : `${m.sent} e-mail(s) sent.`) : "done."}`;
@@ -59,7 +62,7 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
         )}
       </div>
       {asking && (
-        <form className="space-y-2" onSubmit={(e) => { e.preventDefault(); run("reopen", { reason }); }}>
+        <form className="space-y-2" onSubmit={(e) => { e.preventDefault(); run("reopen"); }}>
           <label className="label" htmlFor={reasonId}>Why {reopenWord.toLowerCase()} context {number}? Every member is told, and the reason stays in the record trail.</label>
           <textarea id={reasonId} className="field min-h-24" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={10} />
           <div className="flex gap-2">

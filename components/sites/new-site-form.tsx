@@ -6,7 +6,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { ApiError, fetchJson } from "@/components/ui/fetch-json";
+import { ApiError, apiClient } from "@/lib/api/client";
 import { siteCreateSchema } from "@/lib/schemas/site";
 
 type In = z.input<typeof siteCreateSchema>;
@@ -18,12 +18,12 @@ export function NewSiteForm() {
   const [open, setOpen] = useState(false);
   const form = useForm<In, unknown, Out>({ resolver: zodResolver(siteCreateSchema), defaultValues: { code: "", name: "", gridDescription: "" } });
   const create = useMutation({
-    mutationFn: (v: Out) => fetchJson<{ id: string }>("/api/sites", { body: v }),
+    mutationFn: (v: Out) => apiClient.call("sitesCreate", {}, v),
     onSuccess: (site) => router.push(`/sites/${site.id}`),
     onError: (err) => {
       if (err instanceof ApiError) {
-        for (const [k, v] of Object.entries(err.fieldErrors ?? {})) form.setError(k as keyof In, { message: v.join(" ") });
-        if (!err.fieldErrors) form.setError("code", { message: err.message });
+        for (const [k, v] of Object.entries(err.fieldErrors)) form.setError(k as keyof In, { message: v.join(" ") });
+        if (!err.hasFieldErrors) form.setError("code", { message: err.message });
       }
     },
   });

@@ -1,6 +1,6 @@
 import "server-only";
 import { NextRequest, NextResponse } from "next/server";
-import type { ZodType } from "zod";
+import type { z, ZodType } from "zod";
 import type { Db } from "@/db/client";
 import { PublicError, badInput, notFound } from "./errors";
 import { runGuarded, runPublic, toFailure, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
@@ -20,7 +20,12 @@ export type RouteSpec<I> = GuardSpec<I> & {
   successStatus?: number;
   /** The largest body this entry reads, in bytes (DEFAULT_BODY_LIMIT when omitted). */
   maxBodyBytes?: number;
+  /** The answer's schema in the catalogue: the handler must return what it accepts (or a Response). */
+  response?: ZodType;
 };
+
+type InputOf<S> = S extends { input: infer Z extends ZodType } ? z.output<Z> : unknown;
+type AnswerOf<S> = S extends { response: infer Z extends ZodType } ? z.input<Z> : unknown;
 
 /** "256 KB", "48 MB": the limit as the refusal states it. */
 export function formatByteLimit(bytes: number): string {
@@ -91,9 +96,9 @@ function malformedId(params: Record<string, string>): PublicError | null {
  * A route handler behind the guarded entry. The site comes from the `siteId` path segment. The body is read
  * only after the session and the role on the site are checked, and never past the entry's limit.
  */
-export function guardedRoute<I, R>(
-  spec: RouteSpec<I>,
-  fn: (ctx: GuardContext<I> & { params: Record<string, string>; req: Request }) => Promise<R>,
+export function guardedRoute<S extends RouteSpec<unknown>>(
+  spec: S,
+  fn: (ctx: GuardContext<InputOf<S>> & { params: Record<string, string>; req: Request }) => Promise<AnswerOf<S> | Response>,
 ): Handler {
   return async (req, routeCtx) => {
     const raw = (await routeCtx.params) ?? {};
@@ -102,7 +107,7 @@ export function guardedRoute<I, R>(
     if (malformed) return respond(toFailure(malformed));
     const from = spec.from ?? (req.method === "GET" || req.method === "DELETE" ? "query" : "body");
     const limit = spec.maxBodyBytes ?? DEFAULT_BODY_LIMIT;
-    const outcome = await runGuarded(spec, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params, req }));
+    const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params, req }));
     return respond(outcome, spec.successStatus);
   };
 }

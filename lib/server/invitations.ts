@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { and, desc, eq, gt, isNull } from "drizzle-orm";
-import { z } from "zod";
+import { invitationAcceptSchema, newPasswordSchema, type InvitationAccept } from "@/lib/schemas/account";
 import type { Db } from "@/db/client";
 import { invitations, memberships, sites, users, type Role } from "@/db/schema";
 import { env } from "@/lib/env";
@@ -12,21 +12,14 @@ import { deliver, type Delivery } from "./mail/transport";
 import type { SiteActor } from "./membership";
 import { checkPassword, hashPassword } from "./passwords";
 
+export { invitationAcceptSchema, newPasswordSchema, type InvitationAccept };
+
 /** How long an invitation link works (common practice: about a week, long enough for a field season's post). */
 export const INVITATION_DAYS = 7;
 
 export const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 export const newToken = () => randomBytes(32).toString("base64url");
 
-/** A new password: long enough to resist guessing, short enough to type with cold hands. */
-export const newPasswordSchema = z.string().min(10, "Choose a password of at least 10 characters.").max(200);
-
-export const invitationAcceptSchema = z.object({
-  token: z.string().min(20, "That invitation link is incomplete."),
-  name: z.string().trim().min(1, "Give your name as it should appear on the record.").max(200).optional(),
-  password: z.string().min(1, "Enter a password."),
-});
-export type InvitationAccept = z.infer<typeof invitationAcceptSchema>;
 
 export const inviteLink = (token: string) => `${env().APP_URL}/invite/${token}`;
 
@@ -74,7 +67,7 @@ export async function listInvitations(db: Db, siteId: string) {
   return rows.map(({ inv, invitedBy }) => ({
     ...publicInvitation(inv),
     invitedByName: invitedBy,
-    status: inv.acceptedAt ? "accepted" : inv.expiresAt.getTime() < now ? "expired" : "pending",
+    status: inv.acceptedAt ? ("accepted" as const) : inv.expiresAt.getTime() < now ? ("expired" as const) : ("pending" as const),
   }));
 }
 

@@ -4,8 +4,9 @@ import { z } from "zod";
 import type { Db } from "@/db/client";
 import { passwordResets, users } from "@/db/schema";
 import { env } from "@/lib/env";
+import { resetConfirmSchema, resetRequestSchema } from "@/lib/schemas/account";
 import { conflict } from "./errors";
-import { hashToken, newPasswordSchema, newToken } from "./invitations";
+import { hashToken, newToken } from "./invitations";
 import { passwordResetMail } from "./mail/templates/password-reset";
 import { deliver } from "./mail/transport";
 import { hashPassword } from "./passwords";
@@ -17,8 +18,7 @@ export const RESET_MINUTES = 60;
 /** At most this many unused links per account and hour, so the form cannot be used to flood someone's inbox. */
 export const RESETS_PER_HOUR = 3;
 
-export const resetRequestSchema = z.object({ email: z.string().trim().toLowerCase().email("Enter the e-mail address of your account.") });
-export const resetConfirmSchema = z.object({ token: z.string().min(20, "That reset link is incomplete."), password: newPasswordSchema });
+export { resetConfirmSchema, resetRequestSchema };
 
 export const resetLink = (token: string) => `${env().APP_URL}/reset-password/${token}`;
 

@@ -56,6 +56,8 @@ describe("every mutating route × every caller", () => {
           expect(await snapshot()).toBe(before);
         } else {
           expect(await snapshot()).not.toBe(before);
+          // The answer is what the catalogue tells the browser to expect.
+          if (op.response) expect(op.response.safeParse(res.json).error?.issues ?? []).toEqual([]);
         }
       });
     }

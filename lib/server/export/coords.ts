@@ -1,10 +1,8 @@
 import proj4 from "proj4";
 import type { Site } from "@/db/schema";
+import type { CoordSpace } from "@/lib/schemas/export";
 import { badInput } from "@/lib/server/errors";
 
-/** Where exported coordinates live: the site grid, the site's projected CRS, or WGS 84 longitude/latitude. */
-export const coordSpaces = ["grid", "crs", "lonlat"] as const;
-export type CoordSpace = (typeof coordSpaces)[number];
 export type Transform = (x: number, y: number) => [number, number];
 
 /**

@@ -7,7 +7,7 @@ import { listTrenches } from "@/lib/server/trenches";
 import { contextsForExport } from "./contexts-export";
 import { contextsCsv, findsCsv } from "./csv";
 import { findsGeoJson, outlinesGeoJson } from "./geojson";
-import type { exportContextsQuery, exportFindsQuery, exportTrenchesQuery } from "./queries";
+import type { exportContextsQuery, exportFindsQuery, exportTrenchesQuery } from "@/lib/schemas/export";
 
 const stamp = () => new Date().toISOString().slice(0, 10);
 

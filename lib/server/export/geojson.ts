@@ -1,6 +1,7 @@
 import type { PolygonJson, Site } from "@/db/schema";
 import { checkOutline, windowToPolygon } from "@/lib/geometry/outline";
-import { describeSpace, makeTransform, type CoordSpace } from "./coords";
+import type { CoordSpace } from "@/lib/schemas/export";
+import { describeSpace, makeTransform } from "./coords";
 
 type Position = [number, number] | [number, number, number];
 type Feature = { type: "Feature"; id?: string; geometry: { type: "Point"; coordinates: Position } | { type: "Polygon"; coordinates: Position[][] } | null; properties: Record<string, unknown> };

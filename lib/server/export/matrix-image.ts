@@ -6,7 +6,7 @@ import type { Site } from "@/db/schema";
 import { siteMatrix } from "@/lib/server/relations";
 import { download } from "./files";
 import { drawMatrix } from "./matrix-svg";
-import type { matrixImageQuery } from "./queries";
+import type { matrixImageQuery } from "@/lib/schemas/export";
 
 /** The drawn matrix of a site (or one trench), with a link on every context to its sheet. */
 export async function drawSiteMatrix(db: Db, siteId: string, trenchId?: string, links = true) {

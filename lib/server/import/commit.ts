@@ -34,7 +34,7 @@ export async function previewImport(db: Db, actor: SiteActor, input: ImportPrevi
   const csv = parseCsv(input.csv);
   const remembered = await getImportMapping(db, actor.site.id);
   const mapping: Partial<ImportMapping> = input.mapping ?? remembered ?? guessMapping(csv.headers);
-  const source = input.mapping ? "given" : remembered ? "remembered" : "guessed";
+  const source: "given" | "remembered" | "guessed" = input.mapping ? "given" : remembered ? "remembered" : "guessed";
   const problems = missingHeaders(csv, mapping);
   const base = { headers: csv.headers, mapping, mappingSource: source, rowCount: csv.rows.length, sample: csv.rows.slice(0, 10) };
   if (Object.keys(problems).length) return { ...base, mappingProblems: problems, errors: [], validCount: 0 };

@@ -3,7 +3,7 @@ import { createUploadthing, type FileRouter } from "uploadthing/next";
 import { UploadThingError } from "uploadthing/server";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { recorders } from "../catalog/types";
+import { recorders } from "@/lib/api/operation";
 import { isPublicError } from "../errors";
 import { assertRole, loadSiteActor } from "../membership";
 import { storeUploadedPhoto } from "../photos";

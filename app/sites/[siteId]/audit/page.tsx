@@ -2,7 +2,7 @@ import Link from "next/link";
 import type { Metadata } from "next";
 import { AuditChanges, recordLabel } from "@/components/audit/audit-changes";
 import { SiteNav } from "@/components/site-nav";
-import { auditQuerySchema } from "@/lib/server/catalog/sign-off";
+import { auditQuerySchema } from "@/lib/schemas/sign-off";
 import { pageSiteActor } from "@/lib/server/page-access";
 
 export const metadata: Metadata = { title: "Record trail" };

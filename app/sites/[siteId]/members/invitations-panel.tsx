@@ -2,11 +2,9 @@
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
-import { fetchJson } from "@/components/ui/fetch-json";
+import { apiClient } from "@/lib/api/client";
 import { roles } from "@/lib/schemas/common";
 
-type Invitation = { id: string; email: string; role: string; status: "pending" | "accepted" | "expired"; expiresAt: string; invitedByName: string | null; createdAt: string };
-type Sent = { invitation: Invitation; mail: { sent: number; failed: number; error?: string } };
 
 const day = (iso: string) => iso.slice(0, 16).replace("T", " ");
 
@@ -14,12 +12,12 @@ const day = (iso: string) => iso.slice(0, 16).replace("T", " ");
 export function InvitationsPanel({ siteId }: { siteId: string }) {
   const qc = useQueryClient();
   const key = ["invitations", siteId];
-  const list = useQuery({ queryKey: key, queryFn: () => fetchJson<Invitation[]>(`/api/sites/${siteId}/invitations`) });
+  const list = useQuery({ queryKey: key, queryFn: () => apiClient.call("invitationsList", { siteId }) });
   const [email, setEmail] = useState("");
   const [role, setRole] = useState<(typeof roles)[number]>("digger");
   const [note, setNote] = useState<string | null>(null);
   const send = useMutation({
-    mutationFn: () => fetchJson<Sent>(`/api/sites/${siteId}/invitations`, { method: "POST", body: { email, role } }),
+    mutationFn: () => apiClient.call("invitationsCreate", { siteId }, { email, role }),
     onSuccess: (r) => {
       setNote(r.mail.failed ? `The invitation was saved but the e-mail could not be sent (${r.mail.error ?? "mail relay refused"}). Try again later.` : `Invitation sent to ${r.invitation.email}.`);
       setEmail("");
@@ -27,7 +25,7 @@ export function InvitationsPanel({ siteId }: { siteId: string }) {
     },
   });
   const revoke = useMutation({
-    mutationFn: (id: string) => fetchJson(`/api/sites/${siteId}/invitations/${id}`, { method: "DELETE" }),
+    mutationFn: (id: string) => apiClient.call("invitationRevoke", { siteId, invitationId: id }),
     onSuccess: () => qc.invalidateQueries({ queryKey: key }),
   });
   const failure = send.error ?? revoke.error;

@@ -1,18 +1,18 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { fetchJson } from "@/components/ui/fetch-json";
-import { roles } from "@/lib/schemas/common";
+import { apiClient, type ApiAnswer } from "@/lib/api/client";
+import { roles, roleSchema } from "@/lib/schemas/common";
 
-type Member = { userId: string; name: string; email: string; role: (typeof roles)[number] };
+type Member = ApiAnswer<"membersList">[number];
 
 export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; canManage: boolean; selfId: string }) {
   const qc = useQueryClient();
   const key = ["members", siteId];
-  const members = useQuery({ queryKey: key, queryFn: () => fetchJson<Member[]>(`/api/sites/${siteId}/members`) });
+  const members = useQuery({ queryKey: key, queryFn: () => apiClient.call("membersList", { siteId }) });
   const done = () => qc.invalidateQueries({ queryKey: key });
-  const change = useMutation({ mutationFn: (m: { userId: string; role: string }) => fetchJson(`/api/sites/${siteId}/members/${m.userId}`, { method: "PATCH", body: { role: m.role } }), onSuccess: done });
-  const remove = useMutation({ mutationFn: (userId: string) => fetchJson(`/api/sites/${siteId}/members/${userId}`, { method: "DELETE" }), onSuccess: done });
+  const change = useMutation({ mutationFn: (m: Pick<Member, "userId" | "role">) => apiClient.call("memberUpdate", { siteId, userId: m.userId }, { role: m.role }), onSuccess: done });
+  const remove = useMutation({ mutationFn: (userId: string) => apiClient.call("memberRemove", { siteId, userId }), onSuccess: done });
   const failure = change.error ?? remove.error;
 
   return (
@@ -26,7 +26,7 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
               <td className="font-mono text-xs">{m.email}</td>
               <td>
                 {canManage ? (
-                  <select aria-label={`Role of ${m.name}`} className="field max-w-40" value={m.role} onChange={(e) => change.mutate({ userId: m.userId, role: e.target.value })}>
+                  <select aria-label={`Role of ${m.name}`} className="field max-w-40" value={m.role} onChange={(e) => change.mutate({ userId: m.userId, role: roleSchema.parse(e.target.value) })}>
                     {roles.map((r) => <option key={r} value={r}>{r}</option>)}
                   </select>
                 ) : m.role}

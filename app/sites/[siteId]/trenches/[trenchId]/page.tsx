@@ -2,7 +2,7 @@ import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { PlanLoader } from "@/components/plan/plan-loader";
 import { SiteNav } from "@/components/site-nav";
-import { recorders } from "@/lib/server/catalog/types";
+import { recorders } from "@/lib/api/operation";
 import { isPublicError } from "@/lib/server/errors";
 import { isRole } from "@/lib/server/membership";
 import { pageSiteActor } from "@/lib/server/page-access";

@@ -1,5 +1,5 @@
 import { benchmarkCreateSchema, benchmarkUpdateSchema, datumUpdateSchema, levelRunCreateSchema, spitCreateSchema, spitUpdateSchema } from "@/lib/schemas/levels";
-import { directorOnly, recorders, type ApiOperation } from "./types";
+import { directorOnly, recorders, type ApiOperation } from "../operation";
 
 /** API operations of levels: the site datum, benchmarks, levelling runs and spits. Every height is a reduced level. */
 export const levelsApi = {
@@ -15,4 +15,4 @@ export const levelsApi = {
   spitsCreate: { method: "POST", path: "/api/sites/{siteId}/contexts/{contextId}/spits", summary: "Add a spit to a context", roles: recorders, doing: "record spits", input: spitCreateSchema, successStatus: 201 },
   spitUpdate: { method: "PATCH", path: "/api/sites/{siteId}/contexts/{contextId}/spits/{spitId}", summary: "Change a spit's number or levels", roles: recorders, doing: "record spits", input: spitUpdateSchema },
   spitDelete: { method: "DELETE", path: "/api/sites/{siteId}/contexts/{contextId}/spits/{spitId}", summary: "Delete a spit that holds no finds", roles: recorders, doing: "record spits", from: "none" },
-} satisfies Record<string, ApiOperation>;
+} as const satisfies Record<string, ApiOperation>;

@@ -1,6 +1,5 @@
-import { invitationAcceptSchema } from "@/lib/server/invitations";
-import { resetConfirmSchema, resetRequestSchema } from "@/lib/server/password-reset";
-import type { ApiOperation } from "./types";
+import { invitationAcceptSchema, resetConfirmSchema, resetRequestSchema } from "@/lib/schemas/account";
+import type { ApiOperation } from "../operation";
 
 /**
  * The entries used before sign-in. They carry no site role: each proves its right with a single-use token
@@ -10,4 +9,4 @@ export const publicApi = {
   passwordResetRequest: { method: "POST", path: "/api/auth-extra/password-reset/request", summary: "Mail a password-reset link (same answer for unknown addresses)", public: true, input: resetRequestSchema },
   passwordResetConfirm: { method: "POST", path: "/api/auth-extra/password-reset/confirm", summary: "Set a new password with a mailed reset token", public: true, input: resetConfirmSchema },
   invitationAccept: { method: "POST", path: "/api/auth-extra/invitations/accept", summary: "Join a site with a mailed invitation token", public: true, input: invitationAcceptSchema },
-} satisfies Record<string, ApiOperation>;
+} as const satisfies Record<string, ApiOperation>;

@@ -1,7 +1,13 @@
-import type { ZodType } from "zod";
-import type { Role } from "@/db/schema";
+import { z, type ZodType } from "zod";
+import type { roleSchema } from "@/lib/schemas/common";
 
-/** One JSON API operation: its path, who may call it, and the zod schema of its input. */
+type Role = z.infer<typeof roleSchema>;
+
+/**
+ * One JSON API operation: its path, who may call it, the zod schema of its input and, where the client
+ * reads the answer, of its response. Pure data: the server's handlers and the browser's fetch layer both
+ * read it.
+ */
 export type ApiOperation = {
   method: "GET" | "POST" | "PATCH" | "DELETE";
   path: string;
@@ -11,6 +17,8 @@ export type ApiOperation = {
   doing?: string;
   input?: ZodType;
   from?: "body" | "query" | "none";
+  /** The answer as it travels (JSON): the handler must return its input type, the client reads its output. */
+  response?: ZodType;
   successStatus?: number;
   /** The largest request body read, in bytes; omitted = the JSON default (lib/server/http.ts). */
   maxBodyBytes?: number;
@@ -27,3 +35,6 @@ export const analysts = ["specialist", "director"] as const;
 
 /** Entries that carry an outline or extent: up to 2,000 vertices a ring, a few holes, written in full precision. */
 export const GEOMETRY_BODY_LIMIT = 1024 * 1024;
+
+/** A timestamp in a response: the server hands a Date or a string, JSON carries an ISO string. */
+export const wireDate = z.union([z.string(), z.date()]).transform((d) => (d instanceof Date ? d.toISOString() : d));

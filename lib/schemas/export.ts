@@ -1,7 +1,10 @@
 import { z } from "zod";
-import { uuid } from "@/lib/schemas/common";
-import { findListQuery } from "@/lib/schemas/find";
-import { coordSpaces } from "./coords";
+import { uuid } from "./common";
+import { findListQuery } from "./find";
+
+/** Where exported coordinates live: the site grid, the site's projected CRS, or WGS 84 longitude/latitude. */
+export const coordSpaces = ["grid", "crs", "lonlat"] as const;
+export type CoordSpace = (typeof coordSpaces)[number];
 
 const coords = z.enum(coordSpaces, { error: "Coordinates are grid, crs or lonlat." }).default("grid");
 

@@ -1,0 +1,105 @@
+import type { z, ZodType } from "zod";
+import { api, type ApiName } from "./catalog";
+
+/**
+ * The browser's one way to call Loamwork's JSON API: by operation name, with the path built from the
+ * catalogue and the input and answer typed by the catalogue's zod schemas. Every write goes through
+ * `sendWrite`, so a layer that must see each write (an outbox with idempotency keys) wraps one function.
+ */
+type Op<N extends ApiName> = (typeof api)[N];
+type PathNames<P extends string> = P extends `${string}{${infer K}}${infer Rest}` ? K | PathNames<Rest> : never;
+
+/** The path's {placeholders}, each a string. */
+export type ApiParams<N extends ApiName> = { [K in PathNames<Op<N>["path"]>]: string };
+/** A body as the schema accepts it; a query as a URL carries it (strings, the server coerces). */
+export type ApiInput<N extends ApiName> =
+  Op<N> extends { input: infer Z extends ZodType }
+    ? Op<N> extends { from: "query" }
+      ? { [K in keyof z.input<Z>]?: string | number | null }
+      : z.input<Z>
+    : undefined;
+/** The answer as the browser receives it (timestamps as ISO strings); unknown where no screen reads it. */
+export type ApiAnswer<N extends ApiName> = Op<N> extends { response: infer Z extends ZodType } ? z.output<Z> : unknown;
+
+/** A refused or failed call: the server's message, its status, and its messages per field. */
+export class ApiError extends Error {
+  override name = "ApiError";
+  constructor(
+    message: string,
+    readonly status: number,
+    readonly fieldErrors: Record<string, string[]> = {},
+    readonly details?: unknown,
+  ) {
+    super(message);
+  }
+
+  /** True when the server named the fields at fault (their messages go next to the fields). */
+  get hasFieldErrors(): boolean {
+    return Object.keys(this.fieldErrors).length > 0;
+  }
+
+  /** One named part of the refusal's details (a distance, the numbers of finds left outside). */
+  detail(key: string): unknown {
+    return this.details && typeof this.details === "object" ? (this.details as Record<string, unknown>)[key] : undefined;
+  }
+}
+
+/** One request, ready to send and plain enough to store (an outbox keeps these). */
+export type ApiRequest = { operation: ApiName; method: string; url: string; headers: Record<string, string>; body?: string };
+export type CallOptions = { signal?: AbortSignal; headers?: Record<string, string> };
+
+/** Builds the request of an operation: path from the catalogue, query or JSON body as it declares. */
+export function buildRequest<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>, headers: Record<string, string> = {}): ApiRequest {
+  const op = api[name] as { method: string; path: string; from?: string };
+  const values = params as Record<string, string>;
+  let url = op.path.replace(/\{(\w+)\}/g, (_, key: string) => {
+    const value = values[key];
+    if (!value) throw new Error(`${name}: the path needs ${key}`);
+    return encodeURIComponent(value);
+  });
+  const from = op.from ?? (op.method === "GET" || op.method === "DELETE" ? "query" : "body");
+  if (from === "query" && input) {
+    const query = new URLSearchParams();
+    for (const [k, v] of Object.entries(input as Record<string, unknown>)) if (v !== undefined && v !== null && v !== "") query.set(k, String(v));
+    const text = query.toString();
+    if (text) url += `?${text}`;
+  }
+  if (from !== "body") return { operation: name, method: op.method, url, headers };
+  return { operation: name, method: op.method, url, headers: { ...headers, "content-type": "application/json" }, body: JSON.stringify(input ?? {}) };
+}
+
+/** Sends one request; a refusal becomes an ApiError in the server's words. */
+export async function sendRequest(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
+  const res = await fetch(req.url, { method: req.method, headers: req.headers, body: req.body, signal });
+  const text = await res.text();
+  let body: unknown = null;
+  try {
+    body = text ? JSON.parse(text) : null;
+  } catch {
+    body = null;
+  }
+  if (!res.ok) {
+    const b = (body ?? {}) as { error?: unknown; fieldErrors?: Record<string, string[]>; details?: unknown };
+    throw new ApiError(typeof b.error === "string" ? b.error : `The server answered ${res.status}.`, res.status, b.fieldErrors ?? {}, b.details);
+  }
+  return body;
+}
+
+/** The one function every write (POST, PATCH, DELETE) passes through. */
+export function sendWrite(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
+  return sendRequest(req, signal);
+}
+
+/** Calls an operation by name: `apiClient.call("findsCreate", { siteId }, body)`. */
+async function call<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>, options: CallOptions = {}): Promise<ApiAnswer<N>> {
+  const req = buildRequest(name, params, input, options.headers);
+  const answer = req.method === "GET" ? await sendRequest(req, options.signal) : await sendWrite(req, options.signal);
+  return answer as ApiAnswer<N>;
+}
+
+/** The URL of a GET operation (links, downloads, event streams). */
+function url<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>): string {
+  return buildRequest(name, params, input).url;
+}
+
+export const apiClient = { call, url };
