@@ -1,6 +1,9 @@
 import { z } from "zod";
 
 export const uuid = z.string().uuid("Not a valid record id.");
+
+/** Any 8-4-4-4-12 hex id, as the database's uuid type reads it; anything else names no record. */
+export const isUuid = (value: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(value);
 export const roles = ["digger", "specialist", "director"] as const;
 export const roleSchema = z.enum(roles);
 

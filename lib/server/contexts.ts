@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { contexts, finds, trenches, type Context } from "@/db/schema";
+import { isUuid } from "@/lib/schemas/common";
 import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
@@ -16,6 +17,7 @@ export async function listContexts(db: Db, siteId: string, trenchId?: string) {
 }
 
 export async function getContext(db: Db | Tx, siteId: string, contextId: string): Promise<Context> {
+  if (!isUuid(contextId)) throw notFound("That context");
   const [row] = await db.select().from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
   if (!row) throw notFound("That context");
   return row;

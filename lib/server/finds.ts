@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, gte, ilike, inArray, lte, or, sql, type SQL } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, trenches, users, type Find } from "@/db/schema";
+import { isUuid } from "@/lib/schemas/common";
 import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
@@ -14,6 +15,7 @@ import { getContext } from "./contexts";
 import { getTrench } from "./trenches";
 
 export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
+  if (!isUuid(findId)) throw notFound("That find");
   const [row] = await db.select().from(finds).where(and(eq(finds.siteId, siteId), eq(finds.id, findId)));
   if (!row) throw notFound("That find");
   return row;

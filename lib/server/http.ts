@@ -2,6 +2,7 @@ import "server-only";
 import { NextRequest, NextResponse } from "next/server";
 import type { z, ZodType } from "zod";
 import type { Db } from "@/db/client";
+import { isUuid } from "@/lib/schemas/common";
 import { PublicError, badInput, notFound } from "./errors";
 import { runGuarded, runPublic, toFailure, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
 
@@ -82,11 +83,9 @@ async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: 
   }
 }
 
-const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /** A path segment named `…Id` that is not a UUID names no record: 404 before anything is looked up. */
 function malformedId(params: Record<string, string>): PublicError | null {
-  const bad = Object.entries(params).find(([name, value]) => name.endsWith("Id") && !uuidPattern.test(value));
+  const bad = Object.entries(params).find(([name, value]) => name.endsWith("Id") && !isUuid(value));
   if (!bad) return null;
   const what = bad[0] === "userId" ? "member" : bad[0].slice(0, -2).replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`);
   return notFound(`That ${what}`);

@@ -3,6 +3,7 @@ import { and, asc, eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { contexts, finds, trenches, type Trench } from "@/db/schema";
 import { checkOutline, windowToPolygon, type OutlinePolygon } from "@/lib/geometry/outline";
+import { isUuid } from "@/lib/schemas/common";
 import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
 import type { Window } from "@/lib/spatial";
 import { recordAudit } from "./audit";
@@ -26,6 +27,7 @@ export async function listTrenches(db: Db, siteId: string) {
 
 /** One trench of the site; `forUpdate` locks its row for the rest of the transaction (a sign-off committing at the same moment is waited for). */
 export async function getTrench(db: Db | Tx, siteId: string, trenchId: string, options: { forUpdate?: boolean } = {}): Promise<Trench> {
+  if (!isUuid(trenchId)) throw notFound("That trench");
   const query = db.select().from(trenches).where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
   const [row] = await (options.forUpdate ? query.for("update") : query);
   if (!row) throw notFound("That trench");

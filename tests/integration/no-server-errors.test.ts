@@ -9,6 +9,9 @@ import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/rou
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
 import * as relationRoute from "@/app/api/sites/[siteId]/relations/[relationId]/route";
 import * as contextsRoute from "@/app/api/sites/[siteId]/contexts/route";
+import { getFind } from "@/lib/server/finds";
+import { getContext } from "@/lib/server/contexts";
+import { getTrench } from "@/lib/server/trenches";
 import { makeSite, type SiteFixture } from "../support/fixtures";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { coreCases } from "./role-cases/core";
@@ -133,6 +136,14 @@ describe("malformed ids are 404, NUL characters 400", () => {
       expect(res.json.error).toMatch(/^That .+ was not found\.$/);
     });
   }
+
+  it("the reads behind the find, context and trench pages treat a malformed id as not found", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    await expect(getFind(db, fx.site.id, "abc")).rejects.toMatchObject({ status: 404, message: "That find was not found." });
+    await expect(getContext(db, fx.site.id, "abc")).rejects.toMatchObject({ status: 404, message: "That context was not found." });
+    await expect(getTrench(db, fx.site.id, "abc")).rejects.toMatchObject({ status: 404, message: "That trench was not found." });
+  });
 
   it("a site id that is not a UUID is 404 too", async () => {
     const fx = await makeSite();
