@@ -1,13 +1,21 @@
 import { z } from "zod";
+import { formatLimit, MAX_HOLES, MAX_RING_VERTICES } from "@/lib/spatial/geometry/limits";
 import { metres, numeric } from "./common";
 
 const position = z.tuple([metres, metres]);
-const ring = z.array(position).min(3, "A ring needs at least 3 vertices.");
+/** GeoJSON repeats the first vertex at the end of a ring; that closing vertex is not counted. */
+const ring = z
+  .array(position)
+  .min(3, "A ring needs at least 3 vertices.")
+  .max(MAX_RING_VERTICES + 1, `A ring may have at most ${formatLimit(MAX_RING_VERTICES)} vertices; draw it with fewer.`);
 
 /** A trench outline as a GeoJSON Polygon (RFC 7946 §3.1.6): first ring the edge, further rings holes. */
 export const polygonSchema = z.object({
   type: z.literal("Polygon"),
-  coordinates: z.array(ring).min(1, "An outline needs its outer ring."),
+  coordinates: z
+    .array(ring)
+    .min(1, "An outline needs its outer ring.")
+    .max(MAX_HOLES + 1, `An outline may have at most ${formatLimit(MAX_HOLES)} holes.`),
 });
 
 const trenchFields = {

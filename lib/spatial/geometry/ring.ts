@@ -1,4 +1,5 @@
 /** Plane geometry of single rings: cleaning, signed area (shoelace), segment crossing, clipping. */
+import Flatbush from "flatbush";
 import { SpatialInputError } from "../errors";
 import type { Ring } from "../types";
 
@@ -73,15 +74,40 @@ export function segmentsTouch(a: [number, number], b: [number, number], c: [numb
 }
 
 /**
- * First pair of edges of a ring that meet other than at their shared vertex, or null when the ring is
- * simple. O(m²), which is fine for trench outlines of tens to hundreds of vertices.
+ * Work counter for the ring checks: how many segment pairs were tested exactly. Tests read it to show the
+ * checks stay near-linear (no timed tests); callers may leave it out.
  */
-export function firstSelfContact(ring: Ring): [number, number] | null {
+export type RingWork = { segmentTests: number };
+
+/** A static R-tree (Flatbush, a packed Hilbert R-tree) of a ring's edge boxes: built in O(m log m). */
+function edgeIndex(ring: Ring): Flatbush {
   const m = ring.length;
+  const index = new Flatbush(m);
+  for (let k = 0; k < m; k++) {
+    const a = ring[k];
+    const b = ring[(k + 1) % m];
+    index.add(Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1]));
+  }
+  index.finish();
+  return index;
+}
+
+/**
+ * First pair of edges of a ring that meet other than at their shared vertex (by index, as a nested loop
+ * over i < j would find it), or null when the ring is simple. Only edges whose boxes meet are tested
+ * exactly, found through an R-tree: O(m log m) for outlines whose edges' boxes overlap few others, as any
+ * drawn or surveyed outline's do, instead of testing all m²/2 pairs.
+ */
+export function firstSelfContact(ring: Ring, work?: RingWork): [number, number] | null {
+  const m = ring.length;
+  const index = edgeIndex(ring);
   for (let i = 0; i < m; i++) {
     const a = ring[i];
     const b = ring[(i + 1) % m];
-    for (let j = i + 1; j < m; j++) {
+    const candidates = index.search(Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1]), (j) => j > i);
+    candidates.sort((x, y) => x - y);
+    for (const j of candidates) {
+      if (work) work.segmentTests++;
       const c = ring[j];
       const d = ring[(j + 1) % m];
       const adjacentNext = j === i + 1;
@@ -102,16 +128,69 @@ export function firstSelfContact(ring: Ring): [number, number] | null {
   return null;
 }
 
-/** True when some edge of ring p meets some edge of ring q. */
-export function ringsTouch(p: Ring, q: Ring): boolean {
+/** True when some edge of ring p meets some edge of ring q; only edges whose boxes meet are tested exactly. */
+export function ringsTouch(p: Ring, q: Ring, work?: RingWork): boolean {
+  const index = edgeIndex(q);
   for (let i = 0; i < p.length; i++) {
     const a = p[i];
     const b = p[(i + 1) % p.length];
-    for (let j = 0; j < q.length; j++) {
-      if (segmentsTouch(a, b, q[j], q[(j + 1) % q.length])) return true;
-    }
+    const hit = index.search(Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1]), (j) => {
+      if (work) work.segmentTests++;
+      return segmentsTouch(a, b, q[j], q[(j + 1) % q.length]);
+    });
+    if (hit.length > 0) return true;
   }
   return false;
+}
+
+/** Axis-aligned bounding box of a ring, as [minX, minY, maxX, maxY]. */
+export function ringBox(ring: Ring): [number, number, number, number] {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const [x, y] of ring) {
+    if (x < minX) minX = x;
+    if (y < minY) minY = y;
+    if (x > maxX) maxX = x;
+    if (y > maxY) maxY = y;
+  }
+  return [minX, minY, maxX, maxY];
+}
+
+/**
+ * Diameter of a point set (largest distance between two of its points): the convex hull by Andrew's
+ * monotone chain (1979), then rotating calipers over its antipodal pairs (Shamos 1978). O(m log m).
+ */
+export function ringDiameter(ring: Ring, work?: { distanceTests: number }): number {
+  const pts = ring.slice().sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+  const cross = (o: [number, number], a: [number, number], b: [number, number]) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const lower: [number, number][] = [];
+  for (const p of pts) {
+    while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], p) <= 0) lower.pop();
+    lower.push(p);
+  }
+  const upper: [number, number][] = [];
+  for (let k = pts.length - 1; k >= 0; k--) {
+    const p = pts[k];
+    while (upper.length >= 2 && cross(upper[upper.length - 2], upper[upper.length - 1], p) <= 0) upper.pop();
+    upper.push(p);
+  }
+  const hull = lower.slice(0, -1).concat(upper.slice(0, -1));
+  const n = hull.length;
+  const dist = (p: [number, number], q: [number, number]) => {
+    if (work) work.distanceTests++;
+    return Math.hypot(p[0] - q[0], p[1] - q[1]);
+  };
+  if (n < 2) return 0;
+  if (n === 2) return dist(hull[0], hull[1]);
+  let best = 0;
+  let j = 1;
+  for (let i = 0; i < n; i++) {
+    const a = hull[i];
+    const b = hull[(i + 1) % n];
+    // Advance j while the next hull vertex lies farther from the line through edge ab.
+    while (cross(a, b, hull[(j + 1) % n]) > cross(a, b, hull[j])) j = (j + 1) % n;
+    best = Math.max(best, dist(a, hull[j]), dist(b, hull[j]));
+  }
+  return best;
 }
 
 /** Even–odd point-in-ring test (Shimrat 1962 crossing rule); boundary points may fall either way. */

@@ -4,11 +4,25 @@
  *
  * Self-crossing is checked by hand-written segment tests rather than @turf/turf's `kinks`: importing the
  * turf bundle costs about 0.2 s per process, and every worker thread builds its own window. The tests use
- * turf's `kinks` as the outside check of this rule.
+ * turf's `kinks` as the outside check of this rule. Only edges whose boxes meet are tested (an R-tree), and
+ * rings and holes are bounded in size (./limits.ts), so building a window is bounded, near-linear work.
  */
 import { SpatialInputError } from "../errors";
-import { cleanRing, firstSelfContact, insideRing, ringLength, ringsTouch, signedArea } from "./ring";
+import { formatLimit, MAX_HOLES, MAX_RING_VERTICES } from "./limits";
+import { cleanRing, firstSelfContact, insideRing, ringBox, ringDiameter, ringLength, ringsTouch, signedArea } from "./ring";
 import type { BBox, Ring, Window, WindowInput } from "../types";
+
+/** Counts of the exact tests a window's checks made (see ring.ts); for the tests of its cost. */
+export type WindowWork = { segmentTests: number; distanceTests: number };
+
+function assertRingSize(ring: Ring, label: string): void {
+  if (!Array.isArray(ring)) return; // cleanRing names the problem
+  const closed = ring.length > 1 && ring[0]?.[0] === ring[ring.length - 1]?.[0] && ring[0]?.[1] === ring[ring.length - 1]?.[1];
+  const vertices = closed ? ring.length - 1 : ring.length;
+  if (vertices > MAX_RING_VERTICES) {
+    throw new SpatialInputError(`The ${label} has ${formatLimit(vertices)} vertices; at most ${formatLimit(MAX_RING_VERTICES)} are allowed. Draw it with fewer.`);
+  }
+}
 
 function orientRing(ring: Ring, counterClockwise: boolean): Ring {
   const ccw = signedArea(ring) > 0;
@@ -20,9 +34,9 @@ function allCollinear(ring: Ring): boolean {
   return ring.every((c) => (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]) === 0);
 }
 
-function validateRing(ring: Ring, label: string): void {
+function validateRing(ring: Ring, label: string, work?: WindowWork): void {
   if (allCollinear(ring)) throw new SpatialInputError(`The ${label} has zero area (its vertices are collinear).`);
-  const contact = firstSelfContact(ring);
+  const contact = firstSelfContact(ring, work);
   if (contact) {
     throw new SpatialInputError(
       `The ${label} crosses or touches itself (edges ${contact[0] + 1} and ${contact[1] + 1}); draw it as a simple outline.`,
@@ -31,22 +45,32 @@ function validateRing(ring: Ring, label: string): void {
 }
 
 /** Build a validated, frozen window from an outline and holes. Throws SpatialInputError on bad geometry. */
-export function createWindow(input: WindowInput): Window {
+export function createWindow(input: WindowInput, work?: WindowWork): Window {
   if (!input || typeof input !== "object") throw new SpatialInputError("The trench window is missing.");
+  const inputHoles = input.holes ?? [];
+  if (inputHoles.length > MAX_HOLES) {
+    throw new SpatialInputError(`The outline has ${formatLimit(inputHoles.length)} holes; at most ${formatLimit(MAX_HOLES)} are allowed.`);
+  }
+  assertRingSize(input.outer, "outer ring");
+  inputHoles.forEach((h, k) => assertRingSize(h, `hole ${k + 1}`));
   const outer = orientRing(cleanRing(input.outer, "outer ring"), true);
-  validateRing(outer, "outer ring");
-  const holes = (input.holes ?? []).map((h, k) => {
+  validateRing(outer, "outer ring", work);
+  const holes = inputHoles.map((h, k) => {
     const ring = orientRing(cleanRing(h, `hole ${k + 1}`), false);
-    validateRing(ring, `hole ${k + 1}`);
+    validateRing(ring, `hole ${k + 1}`, work);
     return ring;
   });
+  // Boxes first: two rings whose boxes are apart can neither touch nor nest, which spares the exact tests.
+  const boxes = holes.map(ringBox);
+  const apart = (p: number[], q: number[]) => p[2] < q[0] || q[2] < p[0] || p[3] < q[1] || q[3] < p[1];
   holes.forEach((h, k) => {
-    if (ringsTouch(h, outer) || !insideRing(outer, h[0][0], h[0][1])) {
+    if (ringsTouch(h, outer, work) || !insideRing(outer, h[0][0], h[0][1])) {
       throw new SpatialInputError(`Hole ${k + 1} is not strictly inside the outer ring.`);
     }
     for (let l = 0; l < k; l++) {
+      if (apart(boxes[k], boxes[l])) continue;
       const g = holes[l];
-      if (ringsTouch(h, g) || insideRing(g, h[0][0], h[0][1]) || insideRing(h, g[0][0], g[0][1])) {
+      if (ringsTouch(h, g, work) || insideRing(g, h[0][0], h[0][1]) || insideRing(h, g[0][0], g[0][1])) {
         throw new SpatialInputError(`Holes ${l + 1} and ${k + 1} overlap or touch; merge them into one hole.`);
       }
     }
@@ -80,12 +104,7 @@ export function createWindow(input: WindowInput): Window {
     bbox.maxY = Math.max(bbox.maxY, y);
   }
   // The diameter of a polygon is attained between two vertices of its convex hull.
-  let diameter = 0;
-  for (let i = 0; i < outer.length; i++) {
-    for (let j = i + 1; j < outer.length; j++) {
-      diameter = Math.max(diameter, Math.hypot(outer[i][0] - outer[j][0], outer[i][1] - outer[j][1]));
-    }
-  }
+  const diameter = ringDiameter(outer, work);
   const tolerance = 1e-9 * Math.max(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY);
 
   const boundaryDistance = (x: number, y: number): number => {
