@@ -61,7 +61,7 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes, chang
       <div className="grid gap-3 sm:grid-cols-5">
         {num("x", "x (m)")}
         {num("y", "y (m)")}
-        {num("z", "z (m)")}
+        {num("z", "Reduced level (m, site datum)")}
         {num("count", "Count")}
         {num("weightG", "Weight (g)")}
       </div>

@@ -22,7 +22,7 @@ const columns: ColumnDef<RegisterRow>[] = [
   { id: "class", header: "Class", cell: (c) => <span><ClassMark symbol={c.row.original.classSymbol} colour={c.row.original.classColour} />{c.row.original.classCode}</span> },
   { id: "x", header: "x (m)", cell: (c) => metres(c.row.original.x) },
   { id: "y", header: "y (m)", cell: (c) => metres(c.row.original.y) },
-  { id: "z", header: "z (m)", cell: (c) => metres(c.row.original.z) },
+  { id: "z", header: "RL (m)", cell: (c) => metres(c.row.original.z) },
   { id: "recorder", header: "Recorder", cell: (c) => c.row.original.recordedBy ?? "—" },
   { id: "recordedAt", header: "Recorded", cell: (c) => new Date(c.row.original.recordedAt).toISOString().slice(0, 10) },
   { id: "description", header: "Description", cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span> },

@@ -116,7 +116,7 @@ describe("CSV exports against spreadsheet formulas", () => {
     expect(csv).toContain(`,"'-2+3+cmd|' /C calc'!A0",`);
     expect(csv).toContain(",-1.5,-0.25,-3,,12.5,");
     for (const r of rows) {
-      expect([r[col("x")], r[col("y")], r[col("z")], r[col("weight_g")]]).toEqual(["-1.5", "-0.25", "-3", "12.5"]);
+      expect([r[col("x")], r[col("y")], r[col("z_rl_m")], r[col("weight_g")]]).toEqual(["-1.5", "-0.25", "-3", "12.5"]);
       expect(r[col("count")]).toBe("");
     }
   });

@@ -22,9 +22,12 @@ export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string 
   return Papa.unparse({ fields: columns.map(([name]) => name), data }, { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" });
 }
 
-/** The register's columns; the header names are ones the import recognises, so a file round-trips. */
+/**
+ * The register's columns; the header names are ones the import recognises, so a file round-trips. z_rl_m is the
+ * reduced level in metres against the site's datum (empty when no level was taken).
+ */
 export const findCsvColumns: readonly CsvColumn[] = [
-  ["number", "number"], ["trench", "text"], ["context", "number"], ["class", "text"], ["x", "number"], ["y", "number"], ["z", "number"],
+  ["number", "number"], ["trench", "text"], ["context", "number"], ["class", "text"], ["x", "number"], ["y", "number"], ["z_rl_m", "number"],
   ["count", "number"], ["weight_g", "number"], ["description", "text"], ["method", "text"], ["recorded_by", "text"], ["recorded_at", "text"],
 ];
 

@@ -5,7 +5,8 @@ const patterns: [ImportField, RegExp][] = [
   ["number", /^(number|find|find[ _-]?(no|number|id)|no|pt|pt[ _-]?(id|no)|point[ _-]?(id|no)?|id)$/i],
   ["x", /^(x|east|easting|e)$/i],
   ["y", /^(y|north|northing|n)$/i],
-  ["z", /^(z|level|elev|elevation|height|h|depth)$/i],
+  // A depth below a surface is not a reduced level: it is never taken for z without being mapped on purpose.
+  ["z", /^(z|z_rl_m|rl|reduced_level|level|elev|elevation|height|h)$/i],
   ["classCode", /^(class|class[ _-]?code|code|type)$/i],
   ["contextNumber", /^(context|ctx|context[ _-]?(no|number)|layer)$/i],
   ["count", /^(count|qty|quantity|n[ _-]?items)$/i],
