@@ -47,9 +47,9 @@ export function borderCounts(
 ): void {
   numerator.fill(0, 0, m);
   denominator.fill(0, 0, m);
-  const { bin, lastCentre, needsUncensored } = binning;
+  const { bin, lastCentre, needsUncensored, tol } = binning;
   const add = (d: number, b: number): void => {
-    if (needsUncensored && d > b) return; // censored: the circle of radius d leaves the window
+    if (needsUncensored && d > b + tol) return; // censored: the circle of radius d leaves the window
     const k = bin(d);
     const last = lastCentre(b);
     if (k >= m || last < k) return;

@@ -12,6 +12,7 @@ import { clippedRingArea } from "../geometry/ring";
 import { checkPattern } from "../geometry/pattern";
 import { SpatialInputError } from "../errors";
 import type { Alternative } from "./clark-evans";
+import { snapTolerance } from "./r-grid";
 import type { PointsInput, Window } from "../types";
 
 export interface QuadratCell {
@@ -38,6 +39,8 @@ export interface QuadratLayout {
   /** Index into `cells` of grid cell (ix, iy) counted from the bottom left, −1 if dropped. */
   lookup: Int32Array;
   area: number;
+  /** A find within this of a cell line counts as on it (rounding; see r-grid.ts snapTolerance). */
+  tol: number;
 }
 
 function breaks(lo: number, hi: number, k: number): Float64Array {
@@ -47,10 +50,10 @@ function breaks(lo: number, hi: number, k: number): Float64Array {
   return out;
 }
 
-/** Interval of v among breaks b: (b[i], b[i+1]], the first one closed. */
-function interval(b: Float64Array, v: number): number {
+/** Interval of v among breaks b: (b[i], b[i+1]], the first one closed; v within tol of a break is on it. */
+function interval(b: Float64Array, v: number, tol: number): number {
   let i = 0;
-  while (i < b.length - 2 && v > b[i + 1]) i++;
+  while (i < b.length - 2 && v > b[i + 1] + tol) i++;
   return i;
 }
 
@@ -76,14 +79,14 @@ export function createQuadratLayout(window: Window, nx = 5, ny = nx): QuadratLay
       cells.push({ row: ny - iy, col: ix + 1, x0, x1, y0, y1, area, whole: Math.abs(area - full) <= 1e-9 * full });
     }
   }
-  return { nx, ny, xbreaks, ybreaks, cells, lookup, area: window.area };
+  return { nx, ny, xbreaks, ybreaks, cells, lookup, area: window.area, tol: snapTolerance(window) };
 }
 
 /** Counts per kept cell of finds (x, y), assumed inside W. */
 export function quadratCounts(layout: QuadratLayout, x: ArrayLike<number>, y: ArrayLike<number>, n = x.length): Float64Array {
   const counts = new Float64Array(layout.cells.length);
   for (let k = 0; k < n; k++) {
-    const c = layout.lookup[interval(layout.ybreaks, y[k]) * layout.nx + interval(layout.xbreaks, x[k])];
+    const c = layout.lookup[interval(layout.ybreaks, y[k], layout.tol) * layout.nx + interval(layout.xbreaks, x[k], layout.tol)];
     if (c < 0) throw new SpatialInputError(`Find ${k + 1} falls in a quadrat with no area inside the trench.`);
     counts[c]++;
   }

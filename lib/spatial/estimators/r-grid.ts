@@ -56,37 +56,59 @@ export function checkRGrid(window: Window, input: ArrayLike<number>): Float64Arr
 }
 
 /**
- * Bin index of a distance on grid r, following spatstat's `whist` on breaks (−r₁, r₀ = 0, r₁, …): the
- * smallest k with d < r[k], except that d = r[last] falls in the last bin; r.length when d is beyond the grid.
- * The value at r[k] of a cumulative count is then #{d < r[k]}.
+ * Distances closer than this to a grid value are taken as equal to it (and boundary distances likewise):
+ * 64 units in the last place of the largest coordinate (plus the window's diameter), above the rounding a
+ * distance picks up from its coordinates (a few units) and far below any real difference between a distance
+ * and a grid value. Without it a distance that is exactly a grid value (points on a lattice, a pattern in a
+ * window not starting at the origin) is binned by rounding noise, and translating the window and its points
+ * together, or turning them by 90°, changes K.
  */
-export function createBinner(r: Float64Array): (d: number) => number {
+export function snapTolerance(window: Window): number {
+  const { minX, minY, maxX, maxY } = window.bbox;
+  const reach = Math.max(Math.abs(minX), Math.abs(minY), Math.abs(maxX), Math.abs(maxY)) + window.diameter;
+  return 64 * Number.EPSILON * reach;
+}
+
+/**
+ * The thresholds a distance is compared with: d counts at r[k] when d < edges[k], edges[k] = r[k] − tol,
+ * so that a distance equal to r[k] (within tol) does not count there (spatstat's `whist`: d < r[k]); at the
+ * last value r max + tol, so that a distance equal to r max counts there (whist's last bin is closed).
+ */
+export function binEdges(r: Float64Array, tol: number): Float64Array {
+  return r.map((v, k) => (k === r.length - 1 ? v + tol : v - tol));
+}
+
+/**
+ * Bin index of a distance on grid r, following spatstat's `whist` on breaks (−r₁, r₀ = 0, r₁, …): the
+ * smallest k with d < r[k] − tol, and the last bin for d up to r max (+ tol); r.length beyond. The value
+ * at r[k] of a cumulative count is then #{d < r[k]}, distances within tol of r[k] counting as equal to it.
+ */
+export function createBinner(r: Float64Array, tol = 0): (d: number) => number {
   const m = r.length;
   const step = r[m - 1] / (m - 1);
   let uniform = true;
   for (let k = 0; k < m; k++) {
     if (Math.abs(r[k] - k * step) > 1e-9 * r[m - 1]) uniform = false;
   }
-  const last = r[m - 1];
+  const e = binEdges(r, tol);
+  const last = e[m - 1];
   if (uniform) {
     return (d: number): number => {
-      if (d > last) return m;
-      if (d === last) return m - 1;
-      let k = Math.floor(d / step) + 1;
+      if (!(d < last)) return m;
+      let k = Math.floor((d + tol) / step) + 1;
       if (k > m - 1) k = m - 1;
-      while (k < m - 1 && r[k] <= d) k++;
-      while (k > 0 && r[k - 1] > d) k--;
+      while (k < m - 1 && e[k] <= d) k++;
+      while (k > 0 && e[k - 1] > d) k--;
       return k;
     };
   }
   return (d: number): number => {
-    if (d > last) return m;
-    if (d === last) return m - 1;
+    if (!(d < last)) return m;
     let lo = 0;
-    let hi = m - 1; // invariant: r[hi] > d
+    let hi = m - 1; // invariant: e[hi] > d
     while (lo < hi) {
       const mid = (lo + hi) >> 1;
-      if (r[mid] > d) hi = mid;
+      if (e[mid] > d) hi = mid;
       else lo = mid + 1;
     }
     return lo;
@@ -99,8 +121,12 @@ export interface Binning {
   bin(d: number): number;
   /** Last grid index at which a centre with boundary distance b counts in the border correction (−1: none). */
   lastCentre(b: number): number;
-  /** True when a pair also needs d ≤ b_i to count (the generic rule); the rectangle rule has it built in. */
+  /** True when a pair also needs d ≤ b_i (+ tol) to count (the generic rule); the rectangle rule has it built in. */
   needsUncensored: boolean;
+  /** Distances within tol of each other or of a grid value are taken as equal (snapTolerance). */
+  tol: number;
+  /** Thresholds for bin(d): d counts at r[k] when d < edges[k] (for kernels that bin on their own). */
+  edges: Float64Array;
 }
 
 /** True for an axis-aligned rectangle without holes (spatstat's window type "rectangle"). */
@@ -128,15 +154,19 @@ function isUniform(r: Float64Array): boolean {
  */
 export function createBinning(window: Window, r: Float64Array, rule: "auto" | "generic" = "auto"): Binning {
   const m = r.length;
+  const tol = snapTolerance(window);
   if (rule === "auto" && isAxisRectangle(window) && isUniform(r)) {
     const step = r[m - 1] / (m - 1);
     const rmax = r[m - 1];
+    // d counts at r[l] when d ≤ r[l] (+ tol) and d < r max (− tol); a centre at r[l] when r[l] < b (− tol)
     return {
-      bin: (d) => (d < rmax ? Math.ceil(d / step) : m),
-      lastCentre: (b) => Math.min(Math.ceil(b / step) - 1, m - 1),
+      bin: (d) => (d < rmax - tol ? Math.max(0, Math.ceil((d - tol) / step)) : m),
+      lastCentre: (b) => Math.min(Math.ceil((b - tol) / step) - 1, m - 1),
       needsUncensored: false,
+      tol,
+      edges: r.map((v, l) => (l === m - 1 ? rmax - tol : v + tol)),
     };
   }
-  const bin = createBinner(r);
-  return { bin, lastCentre: (b) => Math.min(bin(b), m - 1), needsUncensored: true };
+  const bin = createBinner(r, tol);
+  return { bin, lastCentre: (b) => Math.min(bin(b), m - 1), needsUncensored: true, tol, edges: binEdges(r, tol) };
 }

@@ -52,7 +52,11 @@ export interface WasmIsotropicScan {
   countPairs(grid: CellGrid, n: number): number;
 }
 
-export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: CellGrid, reach: number): WasmIsotropicScan | null {
+/**
+ * `r` sets r max (pairs within it are enumerated and weighed); `binEdges` (default r) are the thresholds a
+ * distance is binned on: d counts at r[k] when d < edges[k] (r-grid.ts createBinning).
+ */
+export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: CellGrid, reach: number, binEdges: Float64Array = r): WasmIsotropicScan | null {
   const mod = isotropicScanModule();
   if (!mod) return null;
   const instance = new WebAssembly.Instance(mod, {});
@@ -91,7 +95,7 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
     if (pages > 0) memory.grow(pages);
     f64 = new Float64Array(memory.buffer);
     i32 = new Int32Array(memory.buffer);
-    f64.set(r, at.r / 8);
+    f64.set(binEdges, at.r / 8);
     f64.set(edges.subarray(0, 4 * edgeCount), at.edges / 8);
     i32.set(ext, at.ext / 4);
   };

@@ -41,7 +41,11 @@ export interface IsotropicLOptions {
 }
 
 export function createIsotropicL(window: Window, r: Float64Array, options: IsotropicLOptions = {}): IsotropicLEstimator {
-  const bin = createBinning(window, r).bin;
+  const binning = createBinning(window, r);
+  const bin = binning.bin;
+  // thresholds d is compared with (d counts at r[k] when d < edges[k]; r-grid.ts): the WebAssembly scan and
+  // the guess below bin on these, so that a distance equal to a grid value is binned as in exact arithmetic
+  const edges = binning.edges;
   const m = r.length;
   const rmax = r[m - 1];
   // In a polygon window r-grid.ts bins by the generic rule (the smallest k with d < r[k]); on an even grid
@@ -56,7 +60,7 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
   // to the disc (isotropic-scan.ts), which checks fewer distances again.
   const REACH = useWasm ? REACH_WASM : 2;
   const grid = createCellGrid(window.bbox, rmax / REACH);
-  const wasm = useWasm ? createWasmIsotropicScan(window, r, grid, REACH) : null;
+  const wasm = useWasm ? createWasmIsotropicScan(window, r, grid, REACH, edges) : null;
   // the TypeScript loop's edge tables (the WebAssembly scan prepares its own in linear memory)
   const weights = wasm ? null : createIsotropicWeights(window, rmax);
   const hist = new Float64Array(m + 1);
@@ -101,7 +105,7 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
               const invD = 1 / d;
               const w = (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) + (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
               let b = guess ? Math.floor(d * inv) + 1 : 0;
-              if (!(b > 0 && b < m && r[b - 1] <= d && d < r[b])) b = bin(d);
+              if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
               hist[b] += u ? w * su[p] * su[q] : w;
             }
           }

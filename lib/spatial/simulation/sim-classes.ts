@@ -12,7 +12,7 @@ import { SpatialInputError } from "../errors";
 import { createIsotropicWeights, isotropicWeight } from "../kernel/isotropic-weights";
 import { pairsWithin } from "../geometry/neighbours";
 import { createPairScanner } from "../kernel/pair-grid";
-import { createBinner, createBinning } from "../estimators/r-grid";
+import { createBinning } from "../estimators/r-grid";
 import { createWindowSampler } from "../random/sample-window";
 import type { PreparedModel } from "./sim-csr";
 import type { SimModel } from "./sim-models";
@@ -33,7 +33,7 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
   const n = x.length, m = r.length;
   const pairs = pairsWithin({ x, y }, r[m - 1]);
   // each class's own K follows K's binning rule; cross-K always spatstat's generic one (r-grid.ts)
-  const bin = model.statistic === "k-diff" ? createBinning(window, r).bin : createBinner(r);
+  const bin = createBinning(window, r, model.statistic === "k-diff" ? "auto" : "generic").bin;
   const bins = new Int32Array(pairs.count);
   for (let p = 0; p < pairs.count; p++) bins[p] = bin(pairs.d[p]);
   const iso = model.correction === "isotropic";
@@ -77,7 +77,7 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
   const nA = ax.length, m = r.length;
   const scanner = createPairScanner(window.bbox, r[m - 1]);
   const tables = createIsotropicWeights(window, r[m - 1]).prepare(ax, ay, nA);
-  const bin = createBinner(r);
+  const bin = createBinning(window, r, "generic").bin;
   const sums = new Float64Array(m + 1);
   return (bx: Float64Array, by: Float64Array, nB: number, out: Float64Array, offset: number): void => {
     const pairs = scanner.between(ax, ay, nA, bx, by, nB);
