@@ -65,6 +65,7 @@ export default tseslint.config(
   {
     ignores: [
       ".next/**",
+      "dist/**",
       "node_modules/**",
       "drizzle/**",
       ".data/**",

@@ -3,8 +3,9 @@ import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 import { seedDemoPhoto } from "@/scripts/seed/seed-demo-photo";
 
 /**
- * `npm run seed`: creates the invented demo site and its fitted trench photo (once each) and prints the
- * demo sign-ins. Run with the react-server condition, under which the server modules it reuses load.
+ * `npm run seed` (after `npm run build`, which compiles it to dist/seed-demo.mjs): creates the invented demo
+ * site and its fitted trench photo (once each) and prints the demo sign-ins. From source it needs the
+ * react-server condition, under which the server modules it reuses load (scripts/stack.ts runs it so).
  */
 const db = await getDb();
 const { created } = await seedDemo(db);

@@ -27,10 +27,17 @@ export function listenHost(source: Record<string, string | undefined> = process.
   return host;
 }
 
+/** Builds as `npm run build` does when either half is missing: Next's app, and the compiled jobs in dist/. */
 export function ensureBuilt(): void {
-  if (existsSync(path.join(root, ".next", "BUILD_ID"))) return;
-  const r = spawnSync(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "build"], { cwd: root, stdio: "inherit" });
-  if (r.status !== 0) throw new Error("next build failed");
+  const next = path.join(root, "node_modules/next/dist/bin/next");
+  if (!existsSync(path.join(root, ".next", "BUILD_ID"))) {
+    const r = spawnSync(process.execPath, [next, "build"], { cwd: root, stdio: "inherit" });
+    if (r.status !== 0) throw new Error("next build failed");
+  }
+  if (!existsSync(path.join(root, "dist", "sim-worker-entry.mjs"))) {
+    const r = spawnSync(process.execPath, [path.join(root, "scripts/build-jobs.mjs")], { cwd: root, stdio: "inherit" });
+    if (r.status !== 0) throw new Error("compiling the jobs into dist/ failed");
+  }
 }
 
 async function waitForHealth(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {

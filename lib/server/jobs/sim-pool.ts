@@ -1,17 +1,28 @@
 import "server-only";
+import { existsSync } from "node:fs";
 import path from "node:path";
+import { env } from "@/lib/env";
 import { createRandom, runDistributionTest, type SimulationPool } from "@/lib/spatial";
 import { createSimulationPool } from "./thread-pool";
 
 /**
  * The engine's worker-thread pool of this process, created once. The worker file is named by its path in
- * the source tree: a Next.js server bundles this module, so the pool's own `import.meta.url` default
- * would point inside the bundle, where the worker entry does not exist.
+ * the project: a Next.js server bundles this module, so the pool's own `import.meta.url` default would point
+ * inside the bundle, where the worker entry does not exist. A production server (`next start`) runs the
+ * threads from the JavaScript `npm run build` compiled into dist/; development and tests run the
+ * TypeScript entry through tsx.
  */
 const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool; warm?: Promise<void> };
 
+function workerFile(): string {
+  if (env().NODE_ENV !== "production") return path.join(process.cwd(), "lib", "server", "jobs", "sim-worker-entry.mjs");
+  const compiled = path.join(process.cwd(), "dist", "sim-worker-entry.mjs");
+  if (!existsSync(compiled)) throw new Error(`The simulation worker ${compiled} is missing: build with \`npm run build\`.`);
+  return compiled;
+}
+
 export function simulationPool(): SimulationPool {
-  holder.pool ??= createSimulationPool({ workerFile: path.join(process.cwd(), "lib", "server", "jobs", "sim-worker-entry.mjs") });
+  holder.pool ??= createSimulationPool({ workerFile: workerFile() });
   return holder.pool;
 }
 
