@@ -1,13 +1,14 @@
 "use client";
 
 import { formatMetres, scaleBar } from "@/lib/geometry/plan-view";
-import { useSyncExternalStore, type RefObject } from "react";
+import { useCallback, useRef, useSyncExternalStore, type RefObject } from "react";
+import type { Pt } from "@/lib/geometry/outline-edit";
 import type { ViewStore } from "./view-store";
 
 /**
  * Scale bar, north arrow and the pointer's grid position, drawn over the canvas in HTML for crisp text.
  * Only the scale matters to the bar, so a pan does not re-render it; the pointer text is written by the
- * screen straight into `pointerRef`.
+ * screen straight into `pointerRef` (see usePointerReadout).
  */
 export function PlanOverlay({ viewStore, pointerRef }: { viewStore: ViewStore; pointerRef: RefObject<HTMLDivElement | null> }) {
   const scaleNow = () => viewStore.get()?.scale ?? 1;
@@ -33,4 +34,13 @@ export function PlanOverlay({ viewStore, pointerRef }: { viewStore: ViewStore; p
       </div>
     </>
   );
+}
+
+/** The pointer's grid position, written straight into the overlay: a state update per pointer move would re-render the whole screen. */
+export function usePointerReadout() {
+  const pointerRef = useRef<HTMLDivElement>(null);
+  const setPointer = useCallback((p: Pt | null) => {
+    if (pointerRef.current) pointerRef.current.textContent = p ? `x ${p[0].toFixed(3)} m · y ${p[1].toFixed(3)} m` : "x — · y —";
+  }, []);
+  return { pointerRef, setPointer };
 }

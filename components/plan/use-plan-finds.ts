@@ -94,5 +94,12 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
     [siteId, patch, pushUndo, say],
   );
 
-  return { finds, loading: query.isLoading, error: query.error as Error | null, record, move };
+  /** Why a find cannot be dragged (its context is signed off), or null when it can. */
+  const dragRefusal = (f: FindRow) => {
+    if (f.contextState !== "signed_off") return null;
+    const ctx = contexts.find((c) => c.id === f.contextId);
+    return `Find #${f.number} cannot be moved: context ${f.contextNumber} is signed off${ctx?.signedOffAt ? ` (since ${new Date(ctx.signedOffAt).toLocaleDateString()})` : ""}. A director must reopen it first.`;
+  };
+
+  return { finds, loading: query.isLoading, error: query.error as Error | null, record, move, dragRefusal };
 }
