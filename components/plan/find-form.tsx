@@ -2,37 +2,27 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import type { z } from "zod";
 import type { Pt } from "@/lib/geometry/outline-edit";
+import { findFormSchema } from "@/lib/schemas/find";
 import type { ClassRow, ContextRow } from "./rows";
 
-const optionalNumber = (msg: string, check: (n: number) => boolean) =>
-  z.string().trim().refine((s) => s === "" || (Number.isFinite(Number(s)) && check(Number(s))), msg);
-
-/** The quick form's own strings; the server parses the record again with the shared find schema. */
-const quickSchema = z.object({
-  classId: z.string().min(1, "Pick the find's class."),
-  contextId: z.string().min(1, "Pick the context it came from."),
-  z: optionalNumber("Level in metres, e.g. 42.315", () => true),
-  count: optionalNumber("A whole number of 1 or more", (n) => Number.isInteger(n) && n >= 1),
-  weightG: optionalNumber("Grams, 0 or more", (n) => n >= 0),
-  description: z.string().max(4000),
-});
-
-export type QuickFind = z.infer<typeof quickSchema>;
+/** The quick form checks with the find's own rules (lib/schemas/find.ts); the server checks them again. */
+export type QuickFind = z.output<typeof findFormSchema>;
+type QuickFindInput = z.input<typeof findFormSchema>;
 
 export function FindForm({ at, classes, contexts, defaults, busy, serverError, onSubmit, onCancel }: {
   at: Pt;
   classes: ClassRow[];
   contexts: ContextRow[];
-  defaults: Partial<QuickFind>;
+  defaults: Partial<Pick<QuickFindInput, "classId" | "contextId">>;
   busy: boolean;
   serverError: string | null;
   onSubmit: (v: QuickFind) => void;
   onCancel: () => void;
 }) {
-  const { register, handleSubmit, formState } = useForm<QuickFind>({
-    resolver: zodResolver(quickSchema),
+  const { register, handleSubmit, formState } = useForm<QuickFindInput, unknown, QuickFind>({
+    resolver: zodResolver(findFormSchema),
     defaultValues: { classId: "", contextId: "", z: "", count: "", weightG: "", description: "", ...defaults },
   });
   const err = formState.errors;

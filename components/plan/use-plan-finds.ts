@@ -19,7 +19,6 @@ type Deps = {
   say: (kind: "ok" | "warn", text: string) => void;
 };
 
-const num = (s: string) => (s.trim() === "" ? null : Number(s));
 const pageSize = 500;
 
 /** Every find of a trench, 500 a page, pages after the first fetched together. */
@@ -52,7 +51,7 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
     async (at: Pt, v: QuickFind, cls: { code: string; label: string }): Promise<{ ok: true; row: FindRow } | { ok: false; message: string; refused: Refused | null }> => {
       try {
         const created = await apiClient.call("findsCreate", { siteId }, {
-          contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: num(v.z), count: num(v.count), weightG: num(v.weightG), description: v.description, method: "plan",
+          contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: v.z ?? null, count: v.count ?? null, weightG: v.weightG ?? null, description: v.description, method: "plan",
         });
         const row = withContext(created, cls.code, cls.label);
         patch((rows) => [...rows, row]);

@@ -21,7 +21,7 @@ export function useRecording({ classMap, record, onRecorded }: Deps) {
   const [refused, setRefused] = useState<Refused | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
-  const [lastFind, setLastFind] = useState<Partial<QuickFind>>({});
+  const [lastFind, setLastFind] = useState<Partial<Pick<QuickFind, "classId" | "contextId">>>({});
 
   /** A tap with the place tool: the form opens for that point. */
   const place = (at: Pt) => {

@@ -21,17 +21,29 @@ export const findNumberSchema = numeric(
     .max(MAX_FIND_NUMBER, `Find numbers go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`),
 );
 
+/** A record picked from a list: an empty choice is named before the id's form is checked. */
+const picked = (message: string) => z.string().min(1, message).pipe(uuid);
+
 /** The fields a find's sheet holds, without defaults: an update names only what it changes. */
 const findFields = {
-  contextId: uuid,
-  classId: uuid,
+  contextId: picked("Pick the context it came from."),
+  classId: picked("Pick the find's class."),
   x: metres,
   y: metres,
   z: optionalNumber(metres),
-  count: optionalNumber(numeric(z.number({ error: "Enter a count." }).int("A count is a whole number.").min(1, "A count is at least 1.").max(1_000_000))),
-  weightG: optionalNumber(numeric(z.number({ error: "Enter a weight in grams." }).min(0, "A weight cannot be negative.").max(10_000_000))),
-  description: z.string().trim().max(4000),
+  count: optionalNumber(numeric(z.number({ error: "Enter a count." }).int("A count is a whole number.").min(1, "A count is at least 1.").max(1_000_000, "A count is at most 1,000,000."))),
+  weightG: optionalNumber(numeric(z.number({ error: "Enter a weight in grams." }).min(0, "A weight cannot be negative.").max(10_000_000, "A weight is at most 10,000,000 g."))),
+  description: z.string().trim().max(4000, "A description is at most 4,000 characters."),
 };
+
+/**
+ * A find's rules, written once: the API's create and update schemas, the plan's quick form and the import's
+ * row check all derive from these fields.
+ */
+export const findRules = z.object(findFields);
+
+/** The plan's quick form: the tap gives x and y, the form the rest (strings as typed; blank = none). */
+export const findFormSchema = findRules.pick({ classId: true, contextId: true, z: true, count: true, weightG: true, description: true });
 
 export const findCreateSchema = z.object({
   ...findFields,

@@ -86,7 +86,7 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
     const csv = ["Pt,E,N,Code,Ctx,Qty", `1,1.5,1.5,FL,${fx.context.number},3000000000`].join("\n");
     const res = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, fileName: "qty.csv", mapping: { ...mapping, count: "Qty" } });
     expect(res.status).toBe(400);
-    expect(res.json.details.errors).toEqual([{ row: 2, reasons: ['count "3000000000" is above 1,000,000'] }]);
+    expect(res.json.details.errors).toEqual([{ row: 2, reasons: ['count "3000000000": A count is at most 1,000,000.'] }]);
   });
 
   it("a site whose counter was pushed past the bound before it existed is refused cleanly, never 500", async () => {

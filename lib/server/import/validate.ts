@@ -1,4 +1,4 @@
-import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
+import { MAX_FIND_NUMBER, findRules } from "@/lib/schemas/find";
 import type { ImportField, ImportMapping, ImportRowError } from "@/lib/schemas/import";
 import type { ImportLookups } from "./lookups";
 import type { ParsedCsv } from "./parse";
@@ -30,6 +30,11 @@ function readNumber(raw: string): number | null {
 
 const when = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "earlier");
 
+/** The find's own rules (the API's and the plan form's) for what a row says of the find itself. */
+const rowRules = findRules.pick({ x: true, y: true, z: true, count: true, weightG: true, description: true });
+const ruleColumns = { x: "x", y: "y", z: "z", count: "count", weightG: "weightG", description: "description" } as const satisfies Record<keyof typeof rowRules.shape, ImportField>;
+const ruleLabels: Record<keyof typeof ruleColumns, string> = { x: "x", y: "y", z: "z", count: "count", weightG: "weight", description: "description" };
+
 /**
  * Checks every row against the site's classes, contexts, trench windows and used find numbers, in
  * memory, and lists every reason a row fails. Row numbers are as a spreadsheet shows them.
@@ -52,19 +57,28 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     const reasons: string[] = [];
     const problem = csv.rowProblems.get(i);
     if (problem) reasons.push(`the row ${problem}`);
-    const coord = (f: "x" | "y" | "z", required: boolean) => {
+    // The file's own notation first (decimal commas, exponents), then the find's rules on what was read.
+    const read = (f: "x" | "y" | "z" | "count" | "weightG", required: boolean) => {
       const raw = cell(r, f);
       if (!raw) {
         if (required) reasons.push(`${f} is empty`);
         return null;
       }
       const v = readNumber(raw);
-      if (v === null) reasons.push(`${f} "${raw}" is not a number`);
+      if (v === null) reasons.push(`${ruleLabels[f]} "${raw}" is not a number`);
       return v;
     };
-    const x = coord("x", true);
-    const y = coord("y", true);
-    const z = coord("z", false);
+    const values = { x: read("x", true), y: read("y", true), z: read("z", false), count: read("count", false), weightG: read("weightG", false), description: cell(r, "description") };
+    const checked = rowRules.safeParse(values);
+    const broken = new Set<string>();
+    for (const issue of checked.error?.issues ?? []) {
+      const field = issue.path[0] as keyof typeof ruleColumns;
+      broken.add(field);
+      const raw = cell(r, ruleColumns[field]);
+      if (values[field] === null && field !== "description") continue; // already named: empty or not a number
+      reasons.push(field === "description" ? `description: ${issue.message}` : `${ruleLabels[field]} "${raw}": ${issue.message}`);
+    }
+    const { x, y } = values;
     const code = cell(r, "classCode");
     const classId = lk.classes.get(code.toUpperCase());
     if (!code) reasons.push("class code is empty");
@@ -76,7 +90,7 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     else if (!ctx) reasons.push(`context "${ctxRaw}" does not exist on this site`);
     else if (ctx.state === "signed_off") reasons.push(`context ${ctx.number} was signed off by ${ctx.signedOffBy ?? "a director"} on ${when(ctx.signedOffAt)}; a director must reopen it first`);
     else if (ctx.state === "awaiting") reasons.push(`context ${ctx.number} awaits sign-off (submitted by ${ctx.submittedBy ?? "a recorder"} on ${when(ctx.submittedAt)}); a director must return it to open first`);
-    if (ctx && x !== null && y !== null) {
+    if (ctx && x !== null && y !== null && !broken.has("x") && !broken.has("y")) {
       const t = lk.trenches.get(ctx.trenchId);
       if (!t?.window) reasons.push(`trench ${t?.code ?? "?"} of context ${ctx.number} has no valid outline${t?.problem ? ` (${t.problem})` : ""}`);
       else if (!t.window.contains(x, y)) {
@@ -97,16 +111,13 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
         inFile.set(n, row);
       }
     }
-    const count = optionalWhole(cell(r, "count"), "count", reasons);
-    const weightRaw = cell(r, "weightG");
-    const weightG = weightRaw ? readNumber(weightRaw) : null;
-    if (weightRaw && (weightG === null || weightG < 0)) reasons.push(`weight "${weightRaw}" is not a weight in grams`);
-    if (reasons.length) {
+    if (reasons.length || !checked.success) {
       errors.push({ row, reasons });
       return;
     }
     contextIds.add(ctx!.id);
-    valid.push({ row, number, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: x!, y: y!, z, count, weightG, description: cell(r, "description").slice(0, 4000) });
+    const f = checked.data;
+    valid.push({ row, number, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: f.x, y: f.y, z: f.z ?? null, count: f.count ?? null, weightG: f.weightG ?? null, description: f.description });
   });
   return { ...refuseBeyondLastNumber(valid, errors, lk.nextNumber), contextIds };
 }
@@ -129,19 +140,4 @@ function refuseBeyondLastNumber(valid: ValidRow[], errors: ImportRowError[], nex
   if (!refused.size) return { valid, errors };
   const more = [...refused].map((r) => ({ row: r.row, reasons: [`no find number is left for this row: this site's find numbers go up to ${maxNumberWords}`] }));
   return { valid: valid.filter((r) => !refused.has(r)), errors: [...errors, ...more].sort((a, b) => a.row - b.row) };
-}
-
-function optionalWhole(raw: string, name: string, reasons: string[]): number | null {
-  if (!raw) return null;
-  const v = readNumber(raw);
-  if (v === null || !Number.isInteger(v) || v < 1) {
-    reasons.push(`${name} "${raw}" is not a whole number of 1 or more`);
-    return null;
-  }
-  // The same bound as a count typed on the find's form (and inside the column's 32-bit integer).
-  if (v > 1_000_000) {
-    reasons.push(`${name} "${raw}" is above 1,000,000`);
-    return null;
-  }
-  return v;
 }
