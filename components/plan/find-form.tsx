@@ -55,7 +55,7 @@ export function FindForm({ at, classes, contexts, defaults, busy, serverError, o
       </div>
       <div className="grid grid-cols-3 gap-2">
         <div>
-          <label className="label" htmlFor="ff-z">Level z (m)</label>
+          <label className="label" htmlFor="ff-z" title="Reduced level: metres above the site datum">RL (m, site datum)</label>
           <input id="ff-z" className="field num" inputMode="decimal" {...register("z")} />
           {err.z && <p className="field-error">{err.z.message}</p>}
         </div>
