@@ -1,5 +1,4 @@
-import { readdirSync } from "node:fs";
-import path from "node:path";
+import { appRoutes } from "../support/app-routes";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { APIResponse, Browser, Page } from "playwright-core";
 import { DEMO_SITE_CODE } from "@/scripts/seed/seed-demo";
@@ -12,19 +11,7 @@ const ids: Record<string, string> = {};
 
 /** Every route file of the app as a URL path, with the demo's ids (or a made-up one) in its segments. */
 function routesOf(file: "page.tsx" | "route.ts"): string[] {
-  const root = path.resolve(import.meta.dirname, "../../app");
-  const out: string[] = [];
-  const walk = (dir: string) => {
-    for (const entry of readdirSync(dir, { withFileTypes: true })) {
-      if (entry.isDirectory()) walk(path.join(dir, entry.name));
-      else if (entry.name === file) {
-        const segments = path.relative(root, dir).split(path.sep).filter(Boolean);
-        out.push("/" + segments.map((s) => (s.startsWith("[...") ? "session" : s.startsWith("[") ? (ids[s.slice(1, -1)] ?? "00000000-0000-4000-8000-000000000001") : s)).join("/"));
-      }
-    }
-  };
-  walk(root);
-  return out.sort();
+  return appRoutes(file, (s) => (s === "..." ? "session" : (ids[s] ?? "00000000-0000-4000-8000-000000000001")));
 }
 
 function expectSecurityHeaders(res: APIResponse, what: string) {

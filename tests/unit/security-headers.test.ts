@@ -1,5 +1,4 @@
-import { readdirSync } from "node:fs";
-import path from "node:path";
+import { appRoutes } from "../support/app-routes";
 import { describe, expect, it } from "vitest";
 import { NextRequest } from "next/server";
 import { unstable_doesMiddlewareMatch } from "next/experimental/testing/server";
@@ -18,19 +17,7 @@ function directive(policy: string, name: string): string[] | undefined {
 
 /** Every route file of the app, as a URL path with made-up ids in its dynamic segments. */
 function routesOf(file: "page.tsx" | "route.ts"): string[] {
-  const root = path.resolve(import.meta.dirname, "../../app");
-  const out: string[] = [];
-  const walk = (dir: string) => {
-    for (const entry of readdirSync(dir, { withFileTypes: true })) {
-      if (entry.isDirectory()) walk(path.join(dir, entry.name));
-      else if (entry.name === file) {
-        const rel = path.relative(root, dir).split(path.sep).filter(Boolean);
-        out.push("/" + rel.map((s) => (s.startsWith("[...") ? "a/b" : s.startsWith("[") ? "00000000-0000-4000-8000-000000000001" : s)).join("/"));
-      }
-    }
-  };
-  walk(root);
-  return out.sort();
+  return appRoutes(file, (s) => (s === "..." ? "a/b" : "00000000-0000-4000-8000-000000000001"));
 }
 
 describe("the page policy", () => {
