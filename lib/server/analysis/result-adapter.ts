@@ -6,7 +6,7 @@
 import type { RunResult as EngineResult, TestResult as EngineTest, Window } from "@/lib/spatial";
 import type { SpecClass, SpecEntry, SpecFind } from "./engine-spec";
 import { quadratGrid } from "./engine-spec";
-import { kernelDensity, nnHistogram, quadratCells, type Pts } from "./plot-data";
+import { kernelDensity, nnHistogram, quadratCellsOf, type Pts } from "./plot-data";
 import { questionOf } from "./questions";
 import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "./result-types";
 import type { Correction } from "./run-schema";
@@ -79,7 +79,9 @@ export function adaptResult(input: AdaptInput): RunResult {
       }
       case "quadrat": {
         const { nx, ny } = quadratGrid(window, entry.test.cellSize);
-        const cells = quadratCells(window, nx, ny, pts.get(classId)!);
+        const observed = Array.isArray(d.observed) ? (d.observed as number[]) : [];
+        const expected = Array.isArray(d.expected) ? (d.expected as number[]) : [];
+        const cells = quadratCellsOf(window, nx, ny, observed, expected);
         const mean = cells.reduce((s, c) => s + c.count, 0) / cells.length;
         const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
         return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: t.test.includes("Monte Carlo"), cells };
