@@ -50,7 +50,7 @@ const context = (await call("GET", `/api/sites/${id}/contexts?trenchId=${trench.
 const flk = (await call("GET", `/api/sites/${id}/classes`)).find((c) => c.code === "FLK");
 const run = await call("POST", `/api/sites/${id}/runs`, {
   scope: { trenchId: trench.id, contextIds: [context.id], classIds: [flk.id] },
-  tests: [{ kind: "l-csr" }],
+  tests: [{ kind: "l-envelope" }],
   params: { nsim: 199, seed: 3 },
 });
 const started = Date.now();

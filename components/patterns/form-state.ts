@@ -9,7 +9,7 @@ export type FormState = {
   quadrat: { on: boolean; cellSize: string };
   lcsr: { on: boolean; statistic: "mad" | "dclf"; count: "fixed" | "poisson" };
   pcf: { on: boolean };
-  cross: { on: boolean; a: string; b: string; null: "labelling" | "fixed-a" };
+  cross: { on: boolean; a: string; b: string; null: "random-labelling" | "a-fixed" };
   kdiff: { on: boolean; a: string; b: string };
   inhom: { on: boolean; classId: string; reference: string };
   correction: "isotropic" | "translation" | "border";
@@ -28,7 +28,7 @@ export function initialForm(trenchId: string): FormState {
     quadrat: { on: false, cellSize: "1" },
     lcsr: { on: true, statistic: "mad", count: "fixed" },
     pcf: { on: false },
-    cross: { on: false, a: "", b: "", null: "labelling" },
+    cross: { on: false, a: "", b: "", null: "random-labelling" },
     kdiff: { on: false, a: "", b: "" },
     inhom: { on: false, classId: "", reference: "all" },
     correction: "isotropic",
@@ -44,11 +44,11 @@ export function toRequest(f: FormState): RunCreateInput {
   const tests: RunTest[] = [];
   if (f.clarkEvans.on) tests.push({ kind: "clark-evans", correction: f.clarkEvans.correction, alternative: f.clarkEvans.alternative });
   if (f.quadrat.on) tests.push({ kind: "quadrat", cellSize: Number(f.quadrat.cellSize) });
-  if (f.lcsr.on) tests.push({ kind: "l-csr", statistic: f.lcsr.statistic, count: f.lcsr.count });
-  if (f.pcf.on) tests.push({ kind: "pcf" });
+  if (f.lcsr.on) tests.push({ kind: "l-envelope", statistic: f.lcsr.statistic, count: f.lcsr.count });
+  if (f.pcf.on) tests.push({ kind: "pcf-envelope" });
   if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null });
-  if (f.kdiff.on) tests.push({ kind: "k-diff", a: f.kdiff.a, b: f.kdiff.b });
-  if (f.inhom.on) tests.push({ kind: "inhom-l", classId: f.inhom.classId, reference: f.inhom.reference });
+  if (f.kdiff.on) tests.push({ kind: "k-difference", a: f.kdiff.a, b: f.kdiff.b });
+  if (f.inhom.on) tests.push({ kind: "inhomogeneous-l", classId: f.inhom.classId, reference: f.inhom.reference });
   return {
     scope: { trenchId: f.trenchId, contextIds: f.contextIds, classIds: f.classIds },
     tests,
@@ -71,11 +71,11 @@ export function formFromRun(run: { scope: { trenchId: string; contextIds: string
   for (const t of run.params.tests) {
     if (t.kind === "clark-evans") f.clarkEvans = { on: true, correction: t.correction, alternative: t.alternative };
     if (t.kind === "quadrat") f.quadrat = { on: true, cellSize: String(t.cellSize) };
-    if (t.kind === "l-csr") f.lcsr = { on: true, statistic: t.statistic, count: t.count };
-    if (t.kind === "pcf") f.pcf = { on: true };
+    if (t.kind === "l-envelope") f.lcsr = { on: true, statistic: t.statistic, count: t.count };
+    if (t.kind === "pcf-envelope") f.pcf = { on: true };
     if (t.kind === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null };
-    if (t.kind === "k-diff") f.kdiff = { on: true, a: t.a, b: t.b };
-    if (t.kind === "inhom-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
+    if (t.kind === "k-difference") f.kdiff = { on: true, a: t.a, b: t.b };
+    if (t.kind === "inhomogeneous-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
   }
   return { ...f, correction: run.params.correction, rmax: String(run.params.rmax), nsim: String(run.params.nsim), level: String(run.params.level), seed: String(run.seed) };
 }

@@ -14,7 +14,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
   const byId = new Map(result.classes.map((c) => [c.id, c]));
   const name = (id: string) => byId.get(id)?.code ?? "?";
   const perClass = result.classes.map((c) => ({ c, tests: result.tests.filter((t) => "classId" in t && t.classId === c.id) }));
-  const between = result.tests.filter((t) => t.kind === "cross-l" || t.kind === "k-diff");
+  const between = result.tests.filter((t) => t.kind === "cross-l" || t.kind === "k-difference");
   const p = run.params;
   return (
     <div className="space-y-4" data-testid="run-result">
@@ -57,7 +57,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
           <h3 className="text-lg font-bold">Between classes</h3>
           <div className={`grid gap-3 ${compact ? "" : "lg:grid-cols-2"}`}>
             {between.map((t, i) =>
-              t.kind === "cross-l" || t.kind === "k-diff" ? (
+              t.kind === "cross-l" || t.kind === "k-difference" ? (
                 <div key={i} className="space-y-3">
                   <VerdictCard t={t} rmax={result.rmax} subject={`${name(t.a)} and ${name(t.b)}`} />
                   <TestFigure t={t} result={result} cls={byId.get(t.b)} name={name} />

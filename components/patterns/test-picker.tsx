@@ -44,7 +44,7 @@ export function TestPicker({ form, set, summary }: Props) {
     <fieldset className="sheet">
       <legend className="px-1 text-lg font-bold">2 · Tests</legend>
       <p className="text-xs text-ink-soft">Per class: each chosen class is tested on its own.</p>
-      <Row title="Besag's L, global envelope test under CSR" source="Ripley 1977; Besag 1977; Baddeley et al. 2014" on={form.lcsr.on} onToggle={(on) => set({ lcsr: { ...form.lcsr, on } })} shortfall={short("l-csr")}>
+      <Row title="Besag's L, global envelope test under CSR" source="Ripley 1977; Besag 1977; Baddeley et al. 2014" on={form.lcsr.on} onToggle={(on) => set({ lcsr: { ...form.lcsr, on } })} shortfall={short("l-envelope")}>
         <Pick label="Global test" value={form.lcsr.statistic} options={[["mad", "MAD (largest deviation)"], ["dclf", "DCLF (integrated)"]]} onChange={(statistic) => set({ lcsr: { ...form.lcsr, statistic } })} />
         <Pick label="Simulated n" value={form.lcsr.count} options={[["fixed", "Fixed at the observed n"], ["poisson", "Poisson with mean n"]]} onChange={(count) => set({ lcsr: { ...form.lcsr, count } })} />
       </Row>
@@ -55,19 +55,19 @@ export function TestPicker({ form, set, summary }: Props) {
       <Row title="Quadrat counts" source="Greig-Smith 1952; Cochran 1954" on={form.quadrat.on} onToggle={(on) => set({ quadrat: { ...form.quadrat, on } })} shortfall={short("quadrat")}>
         <label className="flex flex-col"><span className="label">Cell size (m)</span><input className="field w-28" inputMode="decimal" value={form.quadrat.cellSize} onChange={(e) => set({ quadrat: { ...form.quadrat, cellSize: e.target.value } })} /></label>
       </Row>
-      <Row title="Pair correlation g(r)" source="Stoyan & Stoyan 1994" on={form.pcf.on} onToggle={(on) => set({ pcf: { on } })} shortfall={short("pcf")} />
+      <Row title="Pair correlation g(r)" source="Stoyan & Stoyan 1994" on={form.pcf.on} onToggle={(on) => set({ pcf: { on } })} shortfall={short("pcf-envelope")} />
       <p className="mt-3 text-xs text-ink-soft">Between two classes:</p>
       <Row title="Cross-L" source="Lotwick & Silverman 1982" on={form.cross.on} onToggle={(on) => set({ cross: { ...form.cross, on, a: form.cross.a || chosen[0]?.id || "", b: form.cross.b || chosen[1]?.id || "" } })} shortfall={short("cross-l", [form.cross.a, form.cross.b])}>
         <Pick label="Class A" value={form.cross.a} options={classOpts} onChange={(a) => set({ cross: { ...form.cross, a } })} />
         <Pick label="Class B" value={form.cross.b} options={classOpts} onChange={(b) => set({ cross: { ...form.cross, b } })} />
-        <Pick label="Null hypothesis" value={form.cross.null} options={[["labelling", "Random labelling (same spread?)"], ["fixed-a", "A fixed, B at random (B near A?)"]]} onChange={(n) => set({ cross: { ...form.cross, null: n } })} />
+        <Pick label="Null hypothesis" value={form.cross.null} options={[["random-labelling", "Random labelling (same spread?)"], ["a-fixed", "A fixed, B at random (B near A?)"]]} onChange={(n) => set({ cross: { ...form.cross, null: n } })} />
       </Row>
-      <Row title="K difference (segregation)" source="Diggle & Chetwynd 1991" on={form.kdiff.on} onToggle={(on) => set({ kdiff: { on, a: form.kdiff.a || chosen[0]?.id || "", b: form.kdiff.b || chosen[1]?.id || "" } })} shortfall={short("k-diff", [form.kdiff.a, form.kdiff.b])}>
+      <Row title="K difference (segregation)" source="Diggle & Chetwynd 1991" on={form.kdiff.on} onToggle={(on) => set({ kdiff: { on, a: form.kdiff.a || chosen[0]?.id || "", b: form.kdiff.b || chosen[1]?.id || "" } })} shortfall={short("k-difference", [form.kdiff.a, form.kdiff.b])}>
         <Pick label="Class A" value={form.kdiff.a} options={classOpts} onChange={(a) => set({ kdiff: { ...form.kdiff, a } })} />
         <Pick label="Class B" value={form.kdiff.b} options={classOpts} onChange={(b) => set({ kdiff: { ...form.kdiff, b } })} />
       </Row>
       <p className="mt-3 text-xs text-ink-soft">Against an uneven background:</p>
-      <Row title="Inhomogeneous L" source="Baddeley, Møller & Waagepetersen 2000" on={form.inhom.on} onToggle={(on) => set({ inhom: { ...form.inhom, on, classId: form.inhom.classId || chosen[0]?.id || "" } })} shortfall={short("inhom-l", [form.inhom.classId])}>
+      <Row title="Inhomogeneous L" source="Baddeley, Møller & Waagepetersen 2000" on={form.inhom.on} onToggle={(on) => set({ inhom: { ...form.inhom, on, classId: form.inhom.classId || chosen[0]?.id || "" } })} shortfall={short("inhomogeneous-l", [form.inhom.classId])}>
         <Pick label="Class" value={form.inhom.classId} options={classOpts} onChange={(classId) => set({ inhom: { ...form.inhom, classId } })} />
         <Pick label="Background density from" value={form.inhom.reference} options={[["all", "All finds in scope"], ...classOpts]} onChange={(reference) => set({ inhom: { ...form.inhom, reference } })} />
       </Row>

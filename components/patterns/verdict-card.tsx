@@ -4,7 +4,7 @@ import { fmtP, TEST_LABEL, VERDICT_LABEL, VERDICT_TONE } from "./words";
 
 /** One test's verdict: the words, p, the sentence to quote, what it asked, where the curve left the band. */
 export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; subject: string }) {
-  const deps = "departures" in t ? departureSentences(t.departures, rmax, t.kind === "l-csr" || t.kind === "inhom-l" ? "l" : "cross", t.verdict !== "no-evidence") : [];
+  const deps = "departures" in t ? departureSentences(t.departures, rmax, t.kind === "l-envelope" || t.kind === "inhomogeneous-l" ? "l" : "cross", t.verdict !== "no-evidence") : [];
   return (
     <article className="sheet space-y-2" aria-label={`${TEST_LABEL[t.kind]} for ${subject}`}>
       <header className="flex flex-wrap items-baseline gap-3">

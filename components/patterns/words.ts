@@ -36,9 +36,9 @@ export function fmtDuration(ms: number): string {
 export const TEST_LABEL: Record<string, string> = {
   "clark-evans": "Clark–Evans",
   quadrat: "Quadrat counts",
-  "l-csr": "Besag's L under CSR",
-  pcf: "Pair correlation",
+  "l-envelope": "Besag's L under CSR",
+  "pcf-envelope": "Pair correlation",
   "cross-l": "Cross-L",
-  "k-diff": "K difference",
-  "inhom-l": "Inhomogeneous L",
+  "k-difference": "K difference",
+  "inhomogeneous-l": "Inhomogeneous L",
 };

@@ -164,10 +164,10 @@ describe("run descriptions", () => {
     session.userId = fx.people.specialist.id;
     const scope = { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id] };
     const cases: [unknown, string, RegExp][] = [
-      [{ scope, tests: [{ kind: "l-csr" }], params: { corection: "border" } }, "params", /Unrecognized key: "corection"/],
-      [{ scope, tests: [{ kind: "l-csr", statistc: "dclf" }] }, "tests.0", /Unrecognized key: "statistc"/],
-      [{ scope: { ...scope, contextId: fx.context.id }, tests: [{ kind: "l-csr" }] }, "scope", /Unrecognized key: "contextId"/],
-      [{ scope, tests: [{ kind: "l-csr" }], lable: "typo" }, "_", /Unrecognized key: "lable"/],
+      [{ scope, tests: [{ kind: "l-envelope" }], params: { corection: "border" } }, "params", /Unrecognized key: "corection"/],
+      [{ scope, tests: [{ kind: "l-envelope", statistc: "dclf" }] }, "tests.0", /Unrecognized key: "statistc"/],
+      [{ scope: { ...scope, contextId: fx.context.id }, tests: [{ kind: "l-envelope" }] }, "scope", /Unrecognized key: "contextId"/],
+      [{ scope, tests: [{ kind: "l-envelope" }], lable: "typo" }, "_", /Unrecognized key: "lable"/],
     ];
     for (const [body, field, message] of cases) {
       const res = await call(runsRoute, "POST", { siteId: fx.site.id }, body);

@@ -23,7 +23,7 @@ beforeAll(async () => {
 /** Besag's L on the given classes of context 1005; four classes at 9999 simulations take a few seconds. */
 async function start(classCodes: string[], nsim: number, seed: number) {
   session.userId = d.people.specialist;
-  const res = await call(runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: classCodes.map((c) => d.cls[c]) }, tests: [{ kind: "l-csr" }], params: { nsim, seed } });
+  const res = await call(runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: classCodes.map((c) => d.cls[c]) }, tests: [{ kind: "l-envelope" }], params: { nsim, seed } });
   expect(res.status, JSON.stringify(res.json)).toBe(201);
   return res.json.id as string;
 }

@@ -118,7 +118,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("the app only queues the run; the worker process computes it (FLK clustered)", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-csr" }], params: { nsim: 99, seed: 3 } });
+    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 99, seed: 3 } });
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     expect(res.json.status).toBe("queued");
     await waitFor(res.json.id, (r) => r.status === "done");
@@ -130,7 +130,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("a cancel from the app stops the run in the worker", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-csr" }], params: { nsim: 9999, seed: 4 } });
+    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 9999, seed: 4 } });
     await waitFor(res.json.id, (r) => r.status === "running" && r.progress > 0);
     expect((await call(mods.cancelRoute, "POST", { siteId: d.siteId, runId: res.json.id })).status).toBe(200);
     // The worker's job ends (pg-boss marks it completed) without writing a result.
@@ -148,7 +148,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("the app's event stream follows the run the worker computes: progress as it rises, then the result", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-csr" }], params: { nsim: 4999, seed: 5 } });
+    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 4999, seed: 5 } });
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     const stream = await mods.eventsRoute.GET(new Request("http://localhost/api/test"), { params: Promise.resolve({ siteId: d.siteId, runId: res.json.id }) });
     expect(stream.status).toBe(200);

@@ -64,8 +64,8 @@ describe("putting a saved run back in the form", () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
     const tests = [
-      { kind: "l-csr", statistic: "dclf", count: "poisson" },
-      { kind: "cross-l", a: id(3), b: id(4), null: "fixed-a" },
+      { kind: "l-envelope", statistic: "dclf", count: "poisson" },
+      { kind: "cross-l", a: id(3), b: id(4), null: "a-fixed" },
       { kind: "quadrat", cellSize: 1.5 },
     ] as const;
     const run = { scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] }, seed: 77, params: { correction: "translation" as const, rmax: 1.75, nsim: 499, level: 0.01, tests: [...tests] } };

@@ -27,7 +27,7 @@ beforeAll(async () => {
 
 const body = (over: Record<string, unknown> = {}) => ({
   scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.SHD] },
-  tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }],
+  tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }],
   params: { nsim: 99, seed: 424242 },
   ...over,
 });
@@ -73,7 +73,7 @@ describe("runs", () => {
   it("cancels a running run: it stops before the end and keeps no result", async () => {
     // Four classes, L and Clark–Evans, 9999 simulations each: long enough to be caught running.
     const classIds = [d.cls.FLK, d.cls.SHD, d.cls.FCR, d.cls.CHP];
-    const id = await start(body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds }, tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }], params: { nsim: 9999, seed: 5 } }));
+    const id = await start(body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds }, tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }], params: { nsim: 9999, seed: 5 } }));
     for (;;) {
       const run = await read(id); // as a page reading it would see it, live progress included
       if (run.status === "running" && run.progress > 0) break;
@@ -106,7 +106,7 @@ describe("runs", () => {
     expect(one.json.warnings).toEqual([]);
     const flk = one.json.classes.find((c: { code: string }) => c.code === "FLK");
     expect(flk.n).toBe(150);
-    expect(one.json.classes.find((c: { code: string }) => c.code === "BBN").tooFewFor).toContain("l-csr");
+    expect(one.json.classes.find((c: { code: string }) => c.code === "BBN").tooFewFor).toContain("l-envelope");
     // The demo matrix: 1004 fills 1003, 1003 cuts 1005 — so 1004 is later than 1005.
     const two = await call(scopeRoute, "GET", { siteId: d.siteId }, undefined, { trenchId: d.trenchId, contextIds: [d.ctx[1004], d.ctx[1005]].join(","), classIds: d.cls.FLK });
     expect(two.json.warnings).toHaveLength(1);

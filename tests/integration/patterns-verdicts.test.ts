@@ -53,10 +53,10 @@ describe("verdicts on the demo site, trench A context 1005", () => {
   it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, MAD test under CSR; Clark–Evans in the window)", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD, demo.cls.FCR] },
-      tests: [{ kind: "l-csr" }, { kind: "clark-evans", correction: "monte-carlo" }],
+      tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }],
       params: { nsim: 199, seed: 7 },
     });
-    const verdict = (code: string, kind = "l-csr") => run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
+    const verdict = (code: string, kind = "l-envelope") => run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
     expect(verdict("FLK", "clark-evans").verdict).toBe("clustered");
     expect(verdict("SHD", "clark-evans").verdict).toBe("no-evidence");
     expect(verdict("FCR", "clark-evans").verdict).toBe("regular");
@@ -67,7 +67,7 @@ describe("verdicts on the demo site, trench A context 1005", () => {
     expect(verdict("SHD").verdict).toBe("no-evidence");
     expect(verdict("FCR").verdict).toBe("regular");
     const flk = verdict("FLK");
-    if (flk.kind !== "l-csr") throw new Error("wrong kind");
+    if (flk.kind !== "l-envelope") throw new Error("wrong kind");
     expect(flk.clusterScale).not.toBeNull();
     expect(run.progress).toBe(1);
   });
@@ -79,7 +79,7 @@ describe("verdicts on the demo site, trench A context 1005", () => {
  * bears this out, and the pool of locations matters: with other classes in scope, labelling detects it.
  */
 describe("FLK and CHP: which null detects that they go together", () => {
-  const cross = async (codes: string[], nul: "labelling" | "fixed-a") => {
+  const cross = async (codes: string[], nul: "random-labelling" | "a-fixed") => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: codes.map((c) => demo.cls[c]) },
       tests: [{ kind: "cross-l", a: demo.cls.FLK, b: demo.cls.CHP, null: nul }],
@@ -89,21 +89,21 @@ describe("FLK and CHP: which null detects that they go together", () => {
   };
 
   it("one class fixed (FLK stays, CHP at random): associated", async () => {
-    const t = await cross(["FLK", "CHP"], "fixed-a");
+    const t = await cross(["FLK", "CHP"], "a-fixed");
     expect(t.verdict).toBe("associated");
     expect(t.p).toBeLessThanOrEqual(0.05);
     expect(t.question).toContain("own clustering inflates");
   });
 
   it("random labelling among FLK and CHP alone: no evidence, as the null predicts for shared clusters", async () => {
-    const t = await cross(["FLK", "CHP"], "labelling");
+    const t = await cross(["FLK", "CHP"], "random-labelling");
     expect(t.verdict).toBe("no-evidence");
     expect(t.p).toBeGreaterThan(0.05);
     expect(t.question).toContain("rightly finds nothing");
   });
 
   it("random labelling over all four classes of 1005: associated (the pool includes FCR and SHD locations)", async () => {
-    const t = await cross(["FLK", "CHP", "FCR", "SHD"], "labelling");
+    const t = await cross(["FLK", "CHP", "FCR", "SHD"], "random-labelling");
     expect(t.verdict).toBe("associated");
     expect(t.question).toContain("CHP + FCR + FLK + SHD finds");
   });
@@ -113,11 +113,11 @@ describe("the other tests of the workspace run end to end and come back plottabl
   it("quadrat counts, pair correlation, K difference and inhomogeneous L on FLK and SHD", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD] },
-      tests: [{ kind: "quadrat", cellSize: 2 }, { kind: "pcf" }, { kind: "k-diff", a: demo.cls.FLK, b: demo.cls.SHD }, { kind: "inhom-l", classId: demo.cls.FLK, reference: "all" }],
+      tests: [{ kind: "quadrat", cellSize: 2 }, { kind: "pcf-envelope" }, { kind: "k-difference", a: demo.cls.FLK, b: demo.cls.SHD }, { kind: "inhomogeneous-l", classId: demo.cls.FLK, reference: "all" }],
       params: { nsim: 39, seed: 3 },
     });
     const tests = run.result!.tests;
-    expect(tests.map((t) => t.kind).sort()).toEqual(["inhom-l", "k-diff", "pcf", "pcf", "quadrat", "quadrat"]);
+    expect(tests.map((t) => t.kind).sort()).toEqual(["inhomogeneous-l", "k-difference", "pcf-envelope", "pcf-envelope", "quadrat", "quadrat"]);
     for (const t of tests) {
       expect(t.p).toBeGreaterThan(0);
       expect(t.p).toBeLessThanOrEqual(1);

@@ -49,19 +49,19 @@ export function buildEngineSpec(input: BuildInput): { spec: RunSpecInput; entrie
         for (const c of classes) push({ type: "quadrat", class: c.code, nx, ny }, { test: t, classId: c.id });
         break;
       }
-      case "l-csr":
+      case "l-envelope":
         for (const c of classes) push({ type: "l-envelope", class: c.code, count: t.count, correction: params.correction, statistic: t.statistic }, { test: t, classId: c.id });
         break;
-      case "pcf":
+      case "pcf-envelope":
         for (const c of classes) push({ type: "pcf-envelope", class: c.code, count: "fixed", statistic: "dclf" }, { test: t, classId: c.id });
         break;
       case "cross-l":
-        push({ type: "cross-l", a: code.get(t.a)!, b: code.get(t.b)!, null: t.null === "labelling" ? "random-labelling" : "a-fixed", count: "fixed", correction: pairCorrection, statistic: "dclf" }, { test: t });
+        push({ type: "cross-l", a: code.get(t.a)!, b: code.get(t.b)!, null: t.null, count: "fixed", correction: pairCorrection, statistic: "dclf" }, { test: t });
         break;
-      case "k-diff":
+      case "k-difference":
         push({ type: "k-difference", a: code.get(t.a)!, b: code.get(t.b)!, correction: pairCorrection, statistic: "dclf" }, { test: t });
         break;
-      case "inhom-l":
+      case "inhomogeneous-l":
         push({ type: "inhomogeneous-l", class: code.get(t.classId)!, reference: t.reference === "all" ? undefined : code.get(t.reference), statistic: "dclf" }, { test: t, classId: t.classId });
         break;
     }

@@ -7,17 +7,17 @@ export function questionOf(t: RunTest, name: (id: string) => string, pool: strin
       return "Are nearest neighbours closer (clustered) or farther apart (evenly spread) than for finds placed at random in the trench?";
     case "quadrat":
       return "Do counts per grid cell vary more (clustered) or less (evenly spread) than chance allows, each cell's share set by its area inside the trench?";
-    case "l-csr":
+    case "l-envelope":
       return "Compared with finds placed at random anywhere in the trench (CSR), are there more neighbours within r (clustered) or fewer (evenly spread)?";
-    case "pcf":
+    case "pcf-envelope":
       return "At which distances are pairs of finds more (g > 1) or less (g < 1) common than under CSR?";
     case "cross-l":
-      return t.null === "labelling"
+      return t.null === "random-labelling"
         ? `Random labelling: the locations of the ${pool} finds stay put and their class labels are shuffled. It asks whether ${name(t.a)} and ${name(t.b)} are spread over those locations alike; when both lie in the same clusters it rightly finds nothing.`
         : `One class fixed: ${name(t.a)} stays where it is and ${name(t.b)} is replaced by random positions in the trench. It asks whether ${name(t.b)} finds lie nearer to ${name(t.a)} finds than chance positions would (attraction or avoidance); ${name(t.b)}'s own clustering inflates this test.`;
-    case "k-diff":
+    case "k-difference":
       return `Under random labelling of the ${pool} finds, is ${name(t.a)} more (or less) clustered than ${name(t.b)} (segregation, Diggle & Chetwynd 1991)?`;
-    case "inhom-l":
+    case "inhomogeneous-l":
       return `Is ${name(t.classId)} clustered beyond the general density of ${t.reference === "all" ? "all finds in scope" : name(t.reference)}?`;
   }
 }

@@ -86,22 +86,22 @@ export function adaptResult(input: AdaptInput): RunResult {
         const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
         return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: t.test.includes("Monte Carlo"), cells };
       }
-      case "l-csr": {
+      case "l-envelope": {
         const { curve, departures } = curveOf(t, true);
         const above = departures.find((x) => x.side === "above");
-        return { ...base, kind: "l-csr", classId, n, statistic: entry.test.statistic, count: entry.test.count, curve, departures, clusterScale: above ? { from: above.from, to: above.to } : null };
+        return { ...base, kind: "l-envelope", classId, n, statistic: entry.test.statistic, count: entry.test.count, curve, departures, clusterScale: above ? { from: above.from, to: above.to } : null };
       }
-      case "pcf":
-        return { ...base, kind: "pcf", classId, n, curve: curveOf(t, false).curve, bandwidth: num(d.bandwidth) ?? 0 };
+      case "pcf-envelope":
+        return { ...base, kind: "pcf-envelope", classId, n, curve: curveOf(t, false).curve, bandwidth: num(d.bandwidth) ?? 0 };
       case "cross-l":
-      case "k-diff": {
+      case "k-difference": {
         const { curve, departures } = curveOf(t, entry.test.kind === "cross-l");
         const { a, b } = entry.test;
-        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "labelling", curve, departures };
+        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling", curve, departures };
       }
-      case "inhom-l": {
+      case "inhomogeneous-l": {
         const { curve, departures } = curveOf(t, true);
-        return { ...base, kind: "inhom-l", classId, n, reference: entry.test.reference, bandwidth: num(d.bandwidth) ?? 0, curve, departures };
+        return { ...base, kind: "inhomogeneous-l", classId, n, reference: entry.test.reference, bandwidth: num(d.bandwidth) ?? 0, curve, departures };
       }
     }
   });

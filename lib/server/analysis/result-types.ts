@@ -39,18 +39,18 @@ export type QuadratOut = Base & {
   monteCarlo: boolean; cells: QuadratCell[];
 };
 export type LOut = Base & {
-  kind: "l-csr"; classId: string; n: number; statistic: "mad" | "dclf"; count: "fixed" | "poisson";
+  kind: "l-envelope"; classId: string; n: number; statistic: "mad" | "dclf"; count: "fixed" | "poisson";
   /** L(r) − r and its band. */
   curve: Curve; departures: Departure[];
   /** Rough cluster diameter read from the first departure above (overstates, statistics.md). */
   clusterScale: { from: number; to: number } | null;
 };
-export type PcfOut = Base & { kind: "pcf"; classId: string; n: number; curve: Curve; bandwidth: number };
+export type PcfOut = Base & { kind: "pcf-envelope"; classId: string; n: number; curve: Curve; bandwidth: number };
 export type CrossOut = Base & {
-  kind: "cross-l" | "k-diff"; a: string; b: string; nA: number; nB: number; null: "labelling" | "fixed-a";
+  kind: "cross-l" | "k-difference"; a: string; b: string; nA: number; nB: number; null: "random-labelling" | "a-fixed";
   curve: Curve; departures: Departure[];
 };
-export type InhomOut = Base & { kind: "inhom-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };
+export type InhomOut = Base & { kind: "inhomogeneous-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };
 export type TestOut = ClarkEvansOut | QuadratOut | LOut | PcfOut | CrossOut | InhomOut;
 
 /** Kernel intensity on a pixel grid (row 0 at minY), for the heat layer on the plan. */

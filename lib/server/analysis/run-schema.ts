@@ -21,22 +21,22 @@ export const testSchema = z.discriminatedUnion("kind", [
   }),
   z.strictObject({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
   z.strictObject({
-    kind: z.literal("l-csr"),
+    kind: z.literal("l-envelope"),
     /** MAD by default, as the engine and spatstat's `mad.test`; DCLF integrates over r and is often more powerful. */
     statistic: z.enum(["mad", "dclf"]).default("mad"),
     /** fixed: the observed n in every simulation; poisson: a Poisson number with mean n (spatstat's default). */
     count: z.enum(["fixed", "poisson"]).default("fixed"),
   }),
-  z.strictObject({ kind: z.literal("pcf") }),
+  z.strictObject({ kind: z.literal("pcf-envelope") }),
   z.strictObject({
     kind: z.literal("cross-l"),
     a: id,
     b: id,
-    /** labelling: do A and B share locations more than labels shuffled among them? fixed-a: are B nearer A than CSR points? */
-    null: z.enum(["labelling", "fixed-a"]).default("labelling"),
+    /** random-labelling: do A and B share locations more than labels shuffled among them? a-fixed: are B nearer A than CSR points? */
+    null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"),
   }),
-  z.strictObject({ kind: z.literal("k-diff"), a: id, b: id }),
-  z.strictObject({ kind: z.literal("inhom-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
+  z.strictObject({ kind: z.literal("k-difference"), a: id, b: id }),
+  z.strictObject({ kind: z.literal("inhomogeneous-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
 ]);
 export type RunTest = z.infer<typeof testSchema>;
 export type TestKind = RunTest["kind"];

@@ -26,11 +26,11 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
     else if ((n.get(classId) ?? 0) < MIN_POINTS[kind]) out.push(tooFewMessage(kind, code.get(classId)!, n.get(classId) ?? 0));
   };
   for (const t of tests) {
-    if (t.kind === "cross-l" || t.kind === "k-diff") {
+    if (t.kind === "cross-l" || t.kind === "k-difference") {
       if (t.a === t.b) out.push("A test between two classes needs two different classes.");
       need(t.kind, t.a);
       need(t.kind, t.b);
-    } else if (t.kind === "inhom-l") {
+    } else if (t.kind === "inhomogeneous-l") {
       need(t.kind, t.classId);
       if (t.reference !== "all" && !code.has(t.reference)) out.push("The reference class of the inhomogeneous test is not in the chosen scope.");
     } else {

@@ -8,11 +8,11 @@ import type { TestKind } from "./run-schema";
 export const MIN_POINTS: Record<TestKind, number> = {
   "clark-evans": 5,
   quadrat: 10,
-  "l-csr": 10,
-  pcf: 10,
+  "l-envelope": 10,
+  "pcf-envelope": 10,
   "cross-l": 5,
-  "k-diff": 5,
-  "inhom-l": 10,
+  "k-difference": 5,
+  "inhomogeneous-l": 10,
 };
 
 /** Below this n, statistics.md's few-points caution applies. */
@@ -21,11 +21,11 @@ export const LOW_POWER_N = 20;
 export const TEST_NAMES: Record<TestKind, string> = {
   "clark-evans": "Clark–Evans nearest-neighbour test",
   quadrat: "Quadrat counts",
-  "l-csr": "Besag's L with a global envelope test under CSR",
-  pcf: "Pair correlation g(r)",
+  "l-envelope": "Besag's L with a global envelope test under CSR",
+  "pcf-envelope": "Pair correlation g(r)",
   "cross-l": "Cross-L between two classes",
-  "k-diff": "K difference (K_AA − K_BB) under random labelling",
-  "inhom-l": "Inhomogeneous L against the density of finds",
+  "k-difference": "K difference (K_AA − K_BB) under random labelling",
+  "inhomogeneous-l": "Inhomogeneous L against the density of finds",
 };
 
 /** The refusal sentence for a class with too few finds. */
