@@ -98,3 +98,12 @@ export { ENGINE_VERSION } from "./version";
 // Outline helpers shared with the plan editor, and the demo trench
 export { clippedRingArea, firstSelfContact, insideRing, ringsTouch } from "./geometry/ring";
 export { DEMO_TRENCH } from "./geometry/demo-window";
+
+// Counts by grid square (lattice data): units, neighbours, weights and the square-count tests
+export type * from "./lattice/types";
+export { buildLattice, describeRule, type LatticeOptions } from "./lattice/lattice";
+export { gridContiguity, shapeContiguity, distanceBand } from "./lattice/neighbours";
+export { latticeWeights, spatialLag } from "./lattice/weights";
+export { moranI, type GlobalTestOptions, type GlobalMoments, type MoranResult } from "./lattice/moran";
+export { gearyC, type GearyResult } from "./lattice/geary";
+export type { LatticeAlternative } from "./lattice/p-values";
