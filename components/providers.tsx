@@ -3,6 +3,7 @@
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useState, type ReactNode } from "react";
 import { z } from "zod";
+import { RecordRefresh } from "./record-refresh";
 
 // In the browser zod would probe `new Function` to speed up parsing; the page's Content-Security-Policy has
 // no 'unsafe-eval', and the caught probe is still reported as a violation. Parse without it.
@@ -10,5 +11,10 @@ z.config({ jitless: true });
 
 export function Providers({ children }: { children: ReactNode }) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 10_000, retry: 1 } } }));
-  return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
+  return (
+    <QueryClientProvider client={client}>
+      <RecordRefresh />
+      {children}
+    </QueryClientProvider>
+  );
 }

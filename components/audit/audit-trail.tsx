@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { listAudit } from "@/lib/server/audit-read";
-import { AuditChanges } from "./audit-changes";
+import { AuditChanges, recordLabel } from "./audit-changes";
 
 const stamp = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
 
@@ -20,6 +20,7 @@ export function AuditTrail({ entries, siteId, recordType, recordId }: { entries:
           <li key={e.id} className={`border-l-4 pl-3 text-sm ${milestone[e.action] ? "border-accent" : "border-ink/30"}`}>
             <p>
               <span className="num">{stamp(e.at)}</span> · <strong>{e.actor ?? "system"}</strong> · {milestone[e.action] ?? e.action}
+              {e.recordType !== recordType && <> · {recordLabel(e.recordType, e.before, e.after)}</>}
             </p>
             {e.reason && <p className="italic">Reason: {e.reason}</p>}
             <AuditChanges action={e.action} before={e.before} after={e.after} />

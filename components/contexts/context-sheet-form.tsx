@@ -43,7 +43,6 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
       if (contextId) {
         const { trenchId: _fixed, ...changes } = values;
         await apiClient.call("contextUpdate", { siteId, contextId }, changes);
-        router.refresh();
       } else {
         const made = await apiClient.call("contextsCreate", { siteId }, values);
         router.push(`/sites/${siteId}/contexts/${made.id}`);

@@ -1,7 +1,7 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
@@ -14,21 +14,19 @@ type Input = z.input<typeof relationCreateSchema>;
 
 /** The sheet's relations, each stored once and read here from this context's side. */
 export function RelationsPanel({ siteId, contextId, number, others, canEdit }: { siteId: string; contextId: string; number: number; others: { id: string; number: number }[]; canEdit: boolean }) {
-  const qc = useQueryClient();
   const key = ["relations", siteId, contextId];
   const list = useQuery({ queryKey: key, queryFn: () => apiClient.call("relationsList", { siteId }, { contextId }),
     select: (rows) => rows.filter((r): r is RelationReadingRow => "relationId" in r) });
   const { register, handleSubmit, setError, reset, formState } = useForm<Input>({ resolver: zodResolver(relationCreateSchema), defaultValues: { contextId, reading: "above", otherId: "" } });
-  const refresh = () => qc.invalidateQueries({ queryKey: ["relations", siteId] });
   const add = useMutation({
     mutationFn: (v: Input) => apiClient.call("relationsCreate", { siteId }, v),
-    onSuccess: () => { reset({ contextId, reading: "above", otherId: "" }); refresh(); },
+    onSuccess: () => reset({ contextId, reading: "above", otherId: "" }),
     onError: (err) => {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setError("root", { message: err.message });
     },
   });
-  const remove = useMutation({ mutationFn: (id: string) => apiClient.call("relationDelete", { siteId, relationId: id }), onSuccess: refresh });
+  const remove = useMutation({ mutationFn: (id: string) => apiClient.call("relationDelete", { siteId, relationId: id }) });
   const e = formState.errors;
 
   return (

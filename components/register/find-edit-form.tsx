@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
@@ -21,7 +20,6 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes, chang
   contexts: { id: string; number: number }[]; classes: { id: string; code: string; label: string }[];
   changeable: string[];
 }) {
-  const router = useRouter();
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({ resolver: zodResolver(findUpdateSchema), defaultValues: initial });
   const e = formState.errors;
@@ -33,7 +31,6 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes, chang
     try {
       await apiClient.call("findUpdate", { siteId, findId }, changes);
       setNote({ ok: true, text: "Saved." });
-      router.refresh();
     } catch (err) {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setNote({ ok: false, text: err instanceof Error ? err.message : String(err) });

@@ -2,7 +2,6 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation } from "@tanstack/react-query";
-import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { ApiError, apiClient } from "@/lib/api/client";
@@ -12,11 +11,9 @@ type In = z.input<typeof siteUpdateSchema>;
 type Out = z.output<typeof siteUpdateSchema>;
 
 export function GridForm({ siteId, initial, canEdit }: { siteId: string; initial: In; canEdit: boolean }) {
-  const router = useRouter();
   const form = useForm<In, unknown, Out>({ resolver: zodResolver(siteUpdateSchema), defaultValues: initial });
   const save = useMutation({
     mutationFn: (v: Out) => apiClient.call("siteUpdate", { siteId }, v),
-    onSuccess: () => router.refresh(),
     onError: (err) => {
       if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors)) form.setError(k as keyof In, { message: v.join(" ") });
     },

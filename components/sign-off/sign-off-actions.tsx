@@ -1,6 +1,5 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import type { Context, Role } from "@/lib/server/reads/row-types";
 import { apiClient } from "@/lib/api/client";
@@ -10,7 +9,6 @@ type Props = { siteId: string; contextId: string; number: number; state: Context
 
 /** The buttons of one context in the sign-off flow, as the caller's role allows; the server checks again. */
 export function SignOffActions({ siteId, contextId, number, state, role, ready }: Props) {
-  const router = useRouter();
   const announce = useSignOffNotice();
   const reasonId = useId();
   const [busy, setBusy] = useState(false);
@@ -36,7 +34,6 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
       else setNote(text);
       setAsking(false);
       setReason("");
-      router.refresh();
     } catch (err) {
       setError((err as Error).message);
     } finally {

@@ -1,5 +1,6 @@
 import type { z, ZodType } from "zod";
 import { api, type ApiName } from "./catalog";
+import { announceWrite } from "./record-changes";
 
 /**
  * The browser's one way to call Loamwork's JSON API: by operation name, with the path built from the
@@ -93,7 +94,9 @@ export function sendWrite(req: ApiRequest, signal?: AbortSignal): Promise<unknow
 /** Calls an operation by name: `apiClient.call("findsCreate", { siteId }, body)`. */
 async function call<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>, options: CallOptions = {}): Promise<ApiAnswer<N>> {
   const req = buildRequest(name, params, input, options.headers);
-  const answer = req.method === "GET" ? await sendRequest(req, options.signal) : await sendWrite(req, options.signal);
+  if (req.method === "GET") return (await sendRequest(req, options.signal)) as ApiAnswer<N>;
+  const answer = await sendWrite(req, options.signal);
+  announceWrite(req);
   return answer as ApiAnswer<N>;
 }
 

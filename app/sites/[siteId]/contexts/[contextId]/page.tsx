@@ -27,7 +27,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     read.contextSummaries(),
     read.sheetProblems(c),
     read.userNames([c.recordedBy, c.signedOffBy, c.submittedBy]),
-    read.audit({ recordType: "context", recordId: c.id }),
+    read.audit({ sheetOf: c.id }),
     read.contextClassNotes(c),
     read.spits(c.id),
     read.contextSpotLevels(c.id),
