@@ -1,5 +1,5 @@
 "use client";
 
-export function PrintButton() {
-  return <button className="btn-primary no-print" onClick={() => window.print()}>Print the trench record</button>;
+export function PrintButton({ label = "Print the trench record" }: { label?: string }) {
+  return <button className="btn-primary no-print" onClick={() => window.print()}>{label}</button>;
 }

@@ -58,7 +58,8 @@ function checkReading(value: number, row: number, what: string): void {
   }
 }
 
-function checkRow(row: LevelBookRow, index: number, last: boolean): void {
+/** Throws a LevelBookError naming the line when a line of the book cannot be reduced. */
+export function checkRow(row: LevelBookRow, index: number, last: boolean): void {
   const { backsight: bs, intermediate: is, foresight: fs } = row;
   if (!present(bs) && !present(is) && !present(fs)) {
     throw new LevelBookError(`Line ${index + 1} (${row.station}) has no reading.`, index);
@@ -81,7 +82,7 @@ function checkRow(row: LevelBookRow, index: number, last: boolean): void {
 }
 
 /** Rounds away binary noise below a micrometre, so booked millimetres come back as booked. */
-const tidy = (v: number) => Math.round(v * 1e6) / 1e6;
+export const tidy = (v: number) => Math.round(v * 1e6) / 1e6;
 
 export function reduceLevelRun(run: LevelRun): ReducedRun {
   if (!Number.isFinite(run.startLevel)) throw new LevelBookError("The starting benchmark has no reduced level.", null);

@@ -18,6 +18,7 @@ import { contextSpotLevels } from "../level-runs";
 import { listSpits } from "../spits";
 import { trenchDepth } from "../trench-depth";
 import { patternsChoices } from "./patterns-choices";
+import { loadLevelBook } from "./level-book";
 import { loadTrenchReport } from "./trench-report";
 import { userNames } from "./user-names";
 
@@ -53,6 +54,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     spits: (contextId: string) => listSpits(db, siteId, contextId),
     contextSpotLevels: (contextId: string) => contextSpotLevels(db, siteId, contextId),
     trenchDepth: (trenchId: string) => trenchDepth(db, siteId, trenchId),
+    levelBook: () => loadLevelBook(db, siteId),
   };
 }
 
