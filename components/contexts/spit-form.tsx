@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
@@ -14,7 +13,6 @@ type Output = z.output<typeof spitCreateSchema>;
 
 /** Adds a spit to the context: its number from the top and, when levelled, its top and base reduced levels. */
 export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; contextId: string; nextNumber: number }) {
-  const router = useRouter();
   const [failure, setFailure] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(spitCreateSchema),
@@ -26,7 +24,6 @@ export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; co
     try {
       await apiClient.call("spitsCreate", { siteId, contextId }, values);
       reset({ number: nextNumber + 1 });
-      router.refresh();
     } catch (err) {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setFailure(err instanceof Error ? err.message : String(err));

@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
@@ -14,7 +13,6 @@ type Output = z.output<typeof benchmarkCreateSchema>;
 
 /** Adds a temporary benchmark: its code, where it is on the site grid and its reduced level on the datum. */
 export function BenchmarkForm({ siteId }: { siteId: string }) {
-  const router = useRouter();
   const [failure, setFailure] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(benchmarkCreateSchema),
@@ -26,7 +24,6 @@ export function BenchmarkForm({ siteId }: { siteId: string }) {
     try {
       await apiClient.call("benchmarksCreate", { siteId }, values);
       reset({ code: "", description: "" });
-      router.refresh();
     } catch (err) {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setFailure(err instanceof Error ? err.message : String(err));

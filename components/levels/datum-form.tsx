@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
@@ -14,7 +13,6 @@ type Output = z.output<typeof datumUpdateSchema>;
 
 /** The director states what heights are measured from and how far a closed run may miss its benchmark. */
 export function DatumForm({ siteId, initial }: { siteId: string; initial: { datumKind: "national" | "local"; datumName: string; levelTolerance: number } }) {
-  const router = useRouter();
   const [note, setNote] = useState("");
   const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({ resolver: zodResolver(datumUpdateSchema), defaultValues: initial });
   const e = formState.errors;
@@ -23,7 +21,6 @@ export function DatumForm({ siteId, initial }: { siteId: string; initial: { datu
     try {
       await apiClient.call("datumUpdate", { siteId }, values);
       setNote("Saved.");
-      router.refresh();
     } catch (err) {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setNote(err instanceof Error ? err.message : String(err));

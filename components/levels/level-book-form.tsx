@@ -1,6 +1,5 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
 import { readReading, reduceAsBooked } from "@/lib/levels/level-book";
@@ -27,7 +26,6 @@ const reading = (text: string) => {
  * worked as it is typed, the closing error shown against the site's tolerance before the run is sent.
  */
 export function LevelBookForm({ siteId, tolerance, datumName, trenches, choices }: { siteId: string; tolerance: number; datumName: string; trenches: { id: string; code: string }[]; choices: Choices }) {
-  const router = useRouter();
   const [takenOn, setTakenOn] = useState(today);
   const [trenchId, setTrenchId] = useState("");
   const [startId, setStartId] = useState("");
@@ -112,7 +110,6 @@ export function LevelBookForm({ siteId, tolerance, datumName, trenches, choices 
       await apiClient.call("levelRunsCreate", { siteId }, body);
       setMessage(`Run booked: ${lines.length} levels from ${start?.code}${live.misclosure === null ? ", not closed on a benchmark" : `, closing error ${(live.misclosure * 1000).toFixed(0)} mm`}.`);
       setLines([blankLine("benchmark", startId), blankLine("find"), blankLine("benchmark", closingId)]);
-      router.refresh();
     } catch (err) {
       if (err instanceof ApiError) {
         setErrors(Object.fromEntries(Object.entries(err.fieldErrors).map(([k, v]) => [k, v.join(" ")])));
