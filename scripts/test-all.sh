@@ -7,6 +7,7 @@ cd "$(dirname "$0")/.."
 bash scripts/ensure-system.sh
 echo "== lint"; npx eslint --max-warnings 0 .
 echo "== types"; npx tsc --noEmit -p .
+echo "== index access"; node scripts/check-index-access.mjs
 echo "== units and integration (PGlite)"; npx vitest run
 echo "== integration (PostgreSQL)"; bash scripts/with-postgres.sh npx vitest run tests/integration
 echo "== build"; rm -rf .next dist && npm run build >/tmp/loamwork-build.log 2>&1 || { tail -50 /tmp/loamwork-build.log; exit 1; }

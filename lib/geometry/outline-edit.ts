@@ -9,10 +9,25 @@ import type { OutlinePolygon } from "./outline";
 export type Pt = [number, number];
 export type Rings = Pt[][];
 
+/** Vertex i of a ring, indices wrapping round; an empty ring has none, which the editor never makes. */
+function vertex(ring: readonly Pt[], i: number): Pt {
+  const p = ring[((i % ring.length) + ring.length) % ring.length];
+  if (!p) throw new Error("An outline ring has no vertices.");
+  return p;
+}
+
+/** Ring k of an outline; asking for a ring the outline does not have is a caller's mistake, said plainly. */
+function ringOf(rings: Rings, k: number): Pt[] {
+  const r = rings[k];
+  if (!r) throw new Error(`The outline has no ring ${k + 1}.`);
+  return r;
+}
+
 /** Drops a repeated closing vertex. */
 export function openRing(ring: readonly Pt[]): Pt[] {
   const r = ring.map((p) => [p[0], p[1]] as Pt);
-  if (r.length > 1 && r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1]) r.pop();
+  const first = r[0], last = r[r.length - 1];
+  if (r.length > 1 && first && last && first[0] === last[0] && first[1] === last[1]) r.pop();
   return r;
 }
 
@@ -21,25 +36,26 @@ export function polygonToRings(polygon: OutlinePolygon): Rings {
 }
 
 export function ringsToPolygon(rings: Rings): OutlinePolygon {
-  return { type: "Polygon", coordinates: rings.map((r) => [...r.map((p) => [p[0], p[1]] as Pt), [r[0][0], r[0][1]] as Pt]) };
+  return { type: "Polygon", coordinates: rings.map((r) => [...r.map((p) => [p[0], p[1]] as Pt), [...vertex(r, 0)] as Pt]) };
 }
 
 const replaceRing = (rings: Rings, k: number, ring: Pt[]) => rings.map((r, i) => (i === k ? ring : r));
 
 export function moveVertex(rings: Rings, k: number, v: number, to: Pt): Rings {
-  return replaceRing(rings, k, rings[k].map((p, i) => (i === v ? to : p)));
+  return replaceRing(rings, k, ringOf(rings, k).map((p, i) => (i === v ? to : p)));
 }
 
 /** Inserts `at` after vertex `edge` (on the edge from vertex edge to edge + 1). */
 export function insertVertex(rings: Rings, k: number, edge: number, at: Pt): Rings {
-  const r = rings[k].slice();
+  const r = ringOf(rings, k).slice();
   r.splice(edge + 1, 0, at);
   return replaceRing(rings, k, r);
 }
 
 /** Removes a vertex; a ring keeps at least three. Removing from a hole of three removes the hole. */
 export function deleteVertex(rings: Rings, k: number, v: number): Rings {
-  if (rings[k].length > 3) return replaceRing(rings, k, rings[k].filter((_, i) => i !== v));
+  const ring = ringOf(rings, k);
+  if (ring.length > 3) return replaceRing(rings, k, ring.filter((_, i) => i !== v));
   if (k === 0) throw new Error("The trench edge needs at least three vertices.");
   return rings.filter((_, i) => i !== k);
 }
@@ -50,9 +66,8 @@ export type EdgeHit = { ring: number; edge: number; point: Pt; distance: number 
 export function nearestEdge(rings: Rings, x: number, y: number): EdgeHit | null {
   let best: EdgeHit | null = null;
   rings.forEach((r, k) => {
-    for (let i = 0; i < r.length; i++) {
-      const a = r[i];
-      const b = r[(i + 1) % r.length];
+    r.forEach((a, i) => {
+      const b = vertex(r, i + 1);
       const dx = b[0] - a[0];
       const dy = b[1] - a[1];
       const len2 = dx * dx + dy * dy;
@@ -60,7 +75,7 @@ export function nearestEdge(rings: Rings, x: number, y: number): EdgeHit | null 
       const p: Pt = [a[0] + t * dx, a[1] + t * dy];
       const d = Math.hypot(p[0] - x, p[1] - y);
       if (!best || d < best.distance) best = { ring: k, edge: i, point: p, distance: d };
-    }
+    });
   });
   return best;
 }
@@ -69,17 +84,20 @@ export type Problem = { ring: number; edges: number[]; rings?: number[] };
 
 /** Where an outline is wrong, for drawing the refusal on the plan (the reason text comes from checkOutline). */
 export function locateProblem(rings: Rings): Problem | null {
-  for (let k = 0; k < rings.length; k++) {
-    if (rings[k].length < 3) return { ring: k, edges: [] };
-    const hit = firstSelfContact(rings[k]);
+  for (const [k, ring] of rings.entries()) {
+    if (ring.length < 3) return { ring: k, edges: [] };
+    const hit = firstSelfContact(ring);
     if (hit) return { ring: k, edges: hit };
   }
-  const outer = rings[0];
-  for (let k = 1; k < rings.length; k++) {
-    if (ringsTouch(rings[k], outer) || !insideRing(outer, rings[k][0][0], rings[k][0][1])) return { ring: k, edges: [], rings: [0, k] };
-    for (let l = 1; l < k; l++) {
-      const g = rings[l];
-      if (ringsTouch(rings[k], g) || insideRing(g, rings[k][0][0], rings[k][0][1]) || insideRing(rings[k], g[0][0], g[0][1])) return { ring: k, edges: [], rings: [l, k] };
+  const [outer, ...holes] = rings;
+  if (!outer) return null;
+  for (const [h, hole] of holes.entries()) {
+    const k = h + 1;
+    const [hx, hy] = vertex(hole, 0);
+    if (ringsTouch(hole, outer) || !insideRing(outer, hx, hy)) return { ring: k, edges: [], rings: [0, k] };
+    for (const [l, g] of holes.slice(0, h).entries()) {
+      const [gx, gy] = vertex(g, 0);
+      if (ringsTouch(hole, g) || insideRing(g, hx, hy) || insideRing(hole, gx, gy)) return { ring: k, edges: [], rings: [l + 1, k] };
     }
   }
   return null;
@@ -96,7 +114,7 @@ function ringsFromGeoJson(value: unknown): Rings {
   if (v?.type === "MultiPolygon") {
     const polys = v.coordinates as Pt[][][];
     if (polys.length !== 1) throw new Error(`The GeoJSON MultiPolygon has ${polys.length} parts; a trench outline is one polygon.`);
-    return ringsFromGeoJson({ type: "Polygon", coordinates: polys[0] });
+    return ringsFromGeoJson({ type: "Polygon", coordinates: polys[0] ?? [] });
   }
   if (v?.type !== "Polygon" || !Array.isArray(v.coordinates)) throw new Error(`GeoJSON of type ${v?.type ?? "unknown"} is not a Polygon.`);
   return (v.coordinates as unknown[][]).map((ring, k) =>
@@ -128,24 +146,25 @@ export function parseOutlineText(text: string): Rings {
     return ringsFromGeoJson(json);
   }
   const rows = Papa.parse<string[]>(trimmed, { skipEmptyLines: false, delimiter: "" }).data;
-  const rings: Rings = [[]];
+  let current: Pt[] = [];
+  const rings: Rings = [current];
   let byColumn = false;
   rows.forEach((row, i) => {
     const cells = row.map((c) => c.trim());
     if (cells.every((c) => c === "")) {
-      if (!byColumn && rings[rings.length - 1].length) rings.push([]);
+      if (!byColumn && current.length) rings.push((current = []));
       return;
     }
     if (i === 0 && cells.some((c) => c !== "" && !Number.isFinite(Number(c)))) return; // header
     const [x, y, ring] = cells.map(Number);
-    if (!Number.isFinite(x) || !Number.isFinite(y)) throw new Error(`Line ${i + 1} ("${row.join(",")}") is not two numbers x,y.`);
-    if (cells.length >= 3 && cells[2] !== "") {
+    if (x === undefined || y === undefined || !Number.isFinite(x) || !Number.isFinite(y)) throw new Error(`Line ${i + 1} ("${row.join(",")}") is not two numbers x,y.`);
+    if (ring !== undefined && cells[2] !== "") {
       byColumn = true;
       if (!Number.isInteger(ring) || ring < 0) throw new Error(`Line ${i + 1}: the ring column must be 0 for the edge, 1, 2… for holes.`);
       while (rings.length <= ring) rings.push([]);
-      rings[ring].push([x, y]);
+      ringOf(rings, ring).push([x, y]);
     } else {
-      rings[rings.length - 1].push([x, y]);
+      current.push([x, y]);
     }
   });
   const out = rings.filter((r) => r.length).map(openRing);

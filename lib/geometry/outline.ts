@@ -18,7 +18,11 @@ export function checkOutline(polygon: OutlinePolygon): OutlineCheck {
 
 /** Back to GeoJSON with RFC 7946 §3.1.6 orientation (outer ring counter-clockwise, holes clockwise) and closed rings. */
 export function windowToPolygon(window: Window): OutlinePolygon {
-  const close = (ring: readonly [number, number][]) => [...ring.map((p) => [p[0], p[1]] as [number, number]), [ring[0][0], ring[0][1]] as [number, number]];
+  const close = (ring: readonly [number, number][]) => {
+    const points = ring.map((p) => [p[0], p[1]] as [number, number]);
+    const first = points[0];
+    return first ? [...points, [first[0], first[1]] as [number, number]] : points;
+  };
   return { type: "Polygon", coordinates: [close(window.outer), ...window.holes.map(close)] };
 }
 

@@ -10,8 +10,14 @@ function through(matrix: number[], pixels: [number, number][]): ControlPoint[] {
 }
 
 function expectMatrix(got: number[], want: number[], tol = 1e-9) {
-  const w = want.map((m) => m / want[8]);
-  got.forEach((g, i) => expect(Math.abs(g - w[i]), `matrix[${i}] ${g} vs ${w[i]}`).toBeLessThan(tol * Math.max(1, Math.abs(w[i]))));
+  expect(got).toHaveLength(9);
+  expect(want).toHaveLength(9);
+  const scale = want[8] ?? NaN;
+  want.forEach((m, i) => {
+    const w = m / scale;
+    const g = got[i] ?? NaN;
+    expect(Math.abs(g - w), `matrix[${i}] ${g} vs ${w}`).toBeLessThan(tol * Math.max(1, Math.abs(w)));
+  });
 }
 
 // A camera 5 mm per pixel, turned 30°, photo y down → grid y up, shifted to a real-world-sized grid origin.
@@ -96,8 +102,7 @@ describe("projective fits are refined in metres after the DLT", () => {
       // A minimum: nudging any of the eight free entries either way (by 1e-5 of its size) does not lower the RMS.
       for (let k = 0; k < 8; k++) {
         for (const sign of [1, -1]) {
-          const nudged = [...fit.matrix];
-          nudged[k] += sign * 1e-5 * (Math.abs(nudged[k]) || 1e-9);
+          const nudged = fit.matrix.map((m, i) => (i === k ? m + sign * 1e-5 * (Math.abs(m) || 1e-9) : m));
           expect(rmsOf(nudged, pts)).toBeGreaterThanOrEqual(fit.rms * (1 - 1e-12));
         }
       }

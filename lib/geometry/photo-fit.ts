@@ -15,7 +15,8 @@
  * More points than a model needs make it over-determined; the residuals (metres on the grid) then say
  * how well the photo agrees with the pegs. A model may be chosen below the one the count suggests.
  */
-import { invert3, leastSquares, solveSquare, symmetricEigen } from "./small-linalg";
+import { Matrix } from "ml-matrix";
+import { invert3, leastSquares, ofLength, solveSquare, symmetricEigen, type Tuple } from "./small-linalg";
 
 export type ControlPoint = { px: number; py: number; x: number; y: number };
 export type FitModel = "similarity" | "affine" | "projective";
@@ -45,41 +46,61 @@ export function modelForCount(n: number): FitModel {
   return n >= 4 ? "projective" : n === 3 ? "affine" : "similarity";
 }
 
+type Mat3 = Tuple<9>;
+
+/** A stored fit matrix as nine numbers, or a clear refusal (a stored fit that lost entries is not drawn). */
+function mat3(matrix: readonly number[]): Mat3 {
+  const m = ofLength(matrix, 9);
+  if (!m) throw new PhotoFitError(`A photo fit matrix has nine entries; this one has ${matrix.length}.`);
+  return m;
+}
+
 /** Where the fit puts photo pixel (px, py) on the grid. */
 export function applyFit(matrix: readonly number[], px: number, py: number): [number, number] {
-  const w = matrix[6] * px + matrix[7] * py + matrix[8];
-  return [(matrix[0] * px + matrix[1] * py + matrix[2]) / w, (matrix[3] * px + matrix[4] * py + matrix[5]) / w];
+  const [a, b, c, d, e, f, g, h, i] = mat3(matrix);
+  const w = g * px + h * py + i;
+  return [(a * px + b * py + c) / w, (d * px + e * py + f) / w];
 }
 
 /** The grid → photo matrix. */
 export function invertFit(matrix: readonly number[]): number[] {
-  const inv = invert3(matrix);
+  const inv = invert3(mat3(matrix));
   if (!inv) throw new PhotoFitError("The fit cannot be inverted (it squashes the photo to a line).");
   return inv;
 }
 
 type Norm = { cx: number; cy: number; s: number };
+type XY = [number, number];
 
 /** Centroid to the origin, mean distance √2 (Hartley & Zisserman 2003, §4.4.4). */
-function normaliser(xs: number[], ys: number[]): Norm {
-  const n = xs.length;
-  const cx = xs.reduce((a, b) => a + b, 0) / n;
-  const cy = ys.reduce((a, b) => a + b, 0) / n;
-  const mean = xs.reduce((a, x, i) => a + Math.hypot(x - cx, ys[i] - cy), 0) / n;
+function normaliser(points: readonly XY[]): Norm {
+  const n = points.length;
+  const cx = points.reduce((a, p) => a + p[0], 0) / n;
+  const cy = points.reduce((a, p) => a + p[1], 0) / n;
+  const mean = points.reduce((a, p) => a + Math.hypot(p[0] - cx, p[1] - cy), 0) / n;
   return { cx, cy, s: Math.SQRT2 / mean };
 }
 
-const normMatrix = (t: Norm) => [t.s, 0, -t.s * t.cx, 0, t.s, -t.s * t.cy, 0, 0, 1];
-const normInverse = (t: Norm) => [1 / t.s, 0, t.cx, 0, 1 / t.s, t.cy, 0, 0, 1];
+const normMatrix = (t: Norm): Mat3 => [t.s, 0, -t.s * t.cx, 0, t.s, -t.s * t.cy, 0, 0, 1];
+const normInverse = (t: Norm): Mat3 => [1 / t.s, 0, t.cx, 0, 1 / t.s, t.cy, 0, 0, 1];
 
-function mul3(a: readonly number[], b: readonly number[]): number[] {
-  const out = new Array<number>(9).fill(0);
-  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) for (let k = 0; k < 3; k++) out[3 * i + j] += a[3 * i + k] * b[3 * k + j];
-  return out;
+function mul3(a: Mat3, b: Mat3): Mat3 {
+  const rows = (m: Mat3) => [m.slice(0, 3), m.slice(3, 6), m.slice(6, 9)];
+  return mat3(new Matrix(rows(a)).mmul(new Matrix(rows(b))).to1DArray());
+}
+
+/** Every pair (i < j) of a list, with the items. */
+function* pairs<T>(items: readonly T[]): Generator<[number, T, number, T]> {
+  for (const [i, a] of items.entries()) for (const [j, b] of items.entries()) if (j > i) yield [i, a, j, b];
+}
+
+/** Every triple (i < j < k) of a list, with the items. */
+function* triples<T>(items: readonly T[]): Generator<[[number, number, number], T, T, T]> {
+  for (const [i, a, j, b] of pairs(items)) for (const [k, c] of items.entries()) if (k > j) yield [[i, j, k], a, b, c];
 }
 
 /** Twice the triangle's area over its longest side squared: 0 for three points on a line. */
-function flatness(a: [number, number], b: [number, number], c: [number, number]): number {
+function flatness(a: XY, b: XY, c: XY): number {
   const cross = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
   const longest = Math.max((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2, (c[0] - a[0]) ** 2 + (c[1] - a[1]) ** 2, (c[0] - b[0]) ** 2 + (c[1] - b[1]) ** 2);
   return Math.abs(cross) / longest;
@@ -88,15 +109,13 @@ function flatness(a: [number, number], b: [number, number], c: [number, number])
 /** Below this flatness three points count as collinear (a 0.1 % bulge on the longest side). */
 const FLAT = 1e-3;
 
-function allCollinear(pts: [number, number][]): boolean {
-  for (let i = 0; i < pts.length; i++)
-    for (let j = i + 1; j < pts.length; j++) for (let k = j + 1; k < pts.length; k++) if (flatness(pts[i], pts[j], pts[k]) >= FLAT) return false;
+function allCollinear(pts: readonly XY[]): boolean {
+  for (const [, a, b, c] of triples(pts)) if (flatness(a, b, c) >= FLAT) return false;
   return true;
 }
 
-function firstCollinearTriple(pts: [number, number][]): [number, number, number] | null {
-  for (let i = 0; i < pts.length; i++)
-    for (let j = i + 1; j < pts.length; j++) for (let k = j + 1; k < pts.length; k++) if (flatness(pts[i], pts[j], pts[k]) < FLAT) return [i, j, k];
+function firstCollinearTriple(pts: readonly XY[]): [number, number, number] | null {
+  for (const [at, a, b, c] of triples(pts)) if (flatness(a, b, c) < FLAT) return at;
   return null;
 }
 
@@ -107,19 +126,17 @@ export function assertUsable(points: readonly ControlPoint[], model: FitModel): 
   for (const p of points) {
     if (![p.px, p.py, p.x, p.y].every(Number.isFinite)) throw new PhotoFitError("Every control point needs a photo position and finite grid coordinates.");
   }
-  const photo = points.map((p) => [p.px, p.py] as [number, number]);
-  const grid = points.map((p) => [p.x, p.y] as [number, number]);
-  for (let i = 0; i < points.length; i++) {
-    for (let j = i + 1; j < points.length; j++) {
-      if (Math.hypot(photo[i][0] - photo[j][0], photo[i][1] - photo[j][1]) < 0.5) {
-        throw new PhotoFitError(`Points ${i + 1} and ${j + 1} are on the same spot of the photo (duplicate points).`, [i, j]);
-      }
-      if (Math.hypot(grid[i][0] - grid[j][0], grid[i][1] - grid[j][1]) < 0.001) {
-        throw new PhotoFitError(`Points ${i + 1} and ${j + 1} have the same grid position (duplicate points).`, [i, j]);
-      }
+  for (const [i, p, j, q] of pairs(points)) {
+    if (Math.hypot(p.px - q.px, p.py - q.py) < 0.5) {
+      throw new PhotoFitError(`Points ${i + 1} and ${j + 1} are on the same spot of the photo (duplicate points).`, [i, j]);
+    }
+    if (Math.hypot(p.x - q.x, p.y - q.y) < 0.001) {
+      throw new PhotoFitError(`Points ${i + 1} and ${j + 1} have the same grid position (duplicate points).`, [i, j]);
     }
   }
   if (model === "similarity") return;
+  const photo = points.map((p): XY => [p.px, p.py]);
+  const grid = points.map((p): XY => [p.x, p.y]);
   for (const [set, where] of [[photo, "on the photo"], [grid, "on the grid"]] as const) {
     if (allCollinear(set)) throw new PhotoFitError(`All control points lie on one line ${where} (collinear); add a point off that line.`, points.map((_, i) => i));
     if (model === "projective" && points.length === 4) {
@@ -134,38 +151,37 @@ export function assertUsable(points: readonly ControlPoint[], model: FitModel): 
   }
 }
 
-function fitSimilarity(u: number[], v: number[], X: number[], Y: number[]): number[] | null {
+/** A control point normalised: photo (u, v), grid (X, Y). */
+type Pair = { u: number; v: number; X: number; Y: number };
+
+function fitSimilarity(pts: readonly Pair[]): Mat3 | null {
   // x = a·px + b·py + tx, y = b·px − a·py + ty: rotation and scale with the photo's y axis mirrored.
-  const rows: number[][] = [];
-  const rhs: number[] = [];
-  u.forEach((ui, i) => {
-    rows.push([ui, v[i], 1, 0], [-v[i], ui, 0, 1]);
-    rhs.push(X[i], Y[i]);
-  });
-  const s = leastSquares(rows, rhs);
+  const rows = pts.flatMap((p) => [[p.u, p.v, 1, 0], [-p.v, p.u, 0, 1]]);
+  const rhs = pts.flatMap((p) => [p.X, p.Y]);
+  const s = ofLength(leastSquares(rows, rhs), 4);
   return s && [s[0], s[1], s[2], s[1], -s[0], s[3], 0, 0, 1];
 }
 
-function fitAffine(u: number[], v: number[], X: number[], Y: number[]): number[] | null {
-  const rows = u.map((ui, i) => [ui, v[i], 1]);
-  const a = leastSquares(rows, X);
-  const b = leastSquares(rows, Y);
+function fitAffine(pts: readonly Pair[]): Mat3 | null {
+  const rows = pts.map((p) => [p.u, p.v, 1]);
+  const a = ofLength(leastSquares(rows, pts.map((p) => p.X)), 3);
+  const b = ofLength(leastSquares(rows, pts.map((p) => p.Y)), 3);
   return a && b && [...a, ...b, 0, 0, 1];
 }
 
-function fitProjective(u: number[], v: number[], X: number[], Y: number[]): number[] | null {
-  const ata = Array.from({ length: 9 }, () => new Array<number>(9).fill(0));
-  const add = (row: number[]) => {
-    for (let i = 0; i < 9; i++) for (let j = 0; j < 9; j++) ata[i][j] += row[i] * row[j];
-  };
-  u.forEach((ui, i) => {
-    add([-ui, -v[i], -1, 0, 0, 0, ui * X[i], v[i] * X[i], X[i]]);
-    add([0, 0, 0, -ui, -v[i], -1, ui * Y[i], v[i] * Y[i], Y[i]]);
-  });
-  const { values, vectors } = symmetricEigen(ata);
+function fitProjective(pts: readonly Pair[]): Mat3 | null {
+  const a = new Matrix(
+    pts.flatMap((p) => [
+      [-p.u, -p.v, -1, 0, 0, 0, p.u * p.X, p.v * p.X, p.X],
+      [0, 0, 0, -p.u, -p.v, -1, p.u * p.Y, p.v * p.Y, p.Y],
+    ]),
+  );
+  const { values, vectors } = symmetricEigen(a.transpose().mmul(a).to2DArray());
+  const ev = ofLength(values, 9);
+  if (!ev) return null;
   // A second near-zero eigenvalue means a family of solutions: the points do not fix the homography.
-  if (values[1] <= 1e-10 * Math.max(values[8], 1e-300)) return null;
-  return vectors[0];
+  if (ev[1] <= 1e-10 * Math.max(ev[8], 1e-300)) return null;
+  return ofLength(vectors[0] ?? [], 9);
 }
 
 /**
@@ -173,43 +189,39 @@ function fitProjective(u: number[], v: number[], X: number[], Y: number[]): numb
  * minimising Σ (X̂ − X)² + (Ŷ − Y)² with Marquardt's scaling of the damping by diag(JᵀJ). Every point
  * stays on the same side of the horizon as in the start (w > 0); a step that would cross it is refused.
  */
-function refineProjective(h0: number[], u: number[], v: number[], X: number[], Y: number[], maxIterations = 50): number[] {
-  const n = u.length;
-  const cost = (h: number[]): number => {
+function refineProjective(h0: Mat3, pts: readonly Pair[], maxIterations = 50): Mat3 {
+  const cost = (h: Mat3): number => {
     let sum = 0;
-    for (let i = 0; i < n; i++) {
-      const w = h[6] * u[i] + h[7] * v[i] + 1;
+    for (const p of pts) {
+      const w = h[6] * p.u + h[7] * p.v + 1;
       if (!(w > 0)) return Infinity;
-      sum += ((h[0] * u[i] + h[1] * v[i] + h[2]) / w - X[i]) ** 2 + ((h[3] * u[i] + h[4] * v[i] + h[5]) / w - Y[i]) ** 2;
+      sum += ((h[0] * p.u + h[1] * p.v + h[2]) / w - p.X) ** 2 + ((h[3] * p.u + h[4] * p.v + h[5]) / w - p.Y) ** 2;
     }
     return sum;
   };
-  let h = h0.map((x) => x / h0[8]);
+  let h = mat3(h0.map((x) => x / h0[8]));
   let c = cost(h);
   if (!Number.isFinite(c)) return h0;
   let lambda = 1e-3;
   for (let it = 0; it < maxIterations && c > 1e-30; it++) {
-    const jtj = Array.from({ length: 8 }, () => new Array<number>(8).fill(0));
-    const jtr = new Array<number>(8).fill(0);
-    const accumulate = (row: number[], r: number) => {
-      for (let a = 0; a < 8; a++) {
-        if (row[a] === 0) continue;
-        jtr[a] += row[a] * r;
-        for (let b = 0; b < 8; b++) jtj[a][b] += row[a] * row[b];
-      }
-    };
-    for (let i = 0; i < n; i++) {
-      const w = h[6] * u[i] + h[7] * v[i] + 1;
-      const xh = (h[0] * u[i] + h[1] * v[i] + h[2]) / w;
-      const yh = (h[3] * u[i] + h[4] * v[i] + h[5]) / w;
-      accumulate([u[i] / w, v[i] / w, 1 / w, 0, 0, 0, (-xh * u[i]) / w, (-xh * v[i]) / w], xh - X[i]);
-      accumulate([0, 0, 0, u[i] / w, v[i] / w, 1 / w, (-yh * u[i]) / w, (-yh * v[i]) / w], yh - Y[i]);
+    const jacobian: number[][] = [];
+    const residual: number[] = [];
+    for (const p of pts) {
+      const w = h[6] * p.u + h[7] * p.v + 1;
+      const xh = (h[0] * p.u + h[1] * p.v + h[2]) / w;
+      const yh = (h[3] * p.u + h[4] * p.v + h[5]) / w;
+      jacobian.push([p.u / w, p.v / w, 1 / w, 0, 0, 0, (-xh * p.u) / w, (-xh * p.v) / w]);
+      jacobian.push([0, 0, 0, p.u / w, p.v / w, 1 / w, (-yh * p.u) / w, (-yh * p.v) / w]);
+      residual.push(xh - p.X, yh - p.Y);
     }
+    const jt = new Matrix(jacobian).transpose();
+    const jtj = jt.mmul(jt.transpose());
+    const minusJtr = jt.mmul(Matrix.columnVector(residual)).mul(-1).getColumn(0);
     let improved = false;
     while (lambda < 1e12) {
-      const damped = jtj.map((row, a) => row.map((x, b) => (a === b ? x + lambda * Math.max(x, 1e-12) : x)));
-      const step = solveSquare(damped, jtr.map((g) => -g));
-      const next = step && [...h.slice(0, 8).map((x, k) => x + step[k]), 1];
+      const damped = jtj.to2DArray().map((row, a) => row.map((x, b) => (a === b ? x + lambda * Math.max(x, 1e-12) : x)));
+      const step = ofLength(solveSquare(damped, minusJtr), 8);
+      const next = step && mat3([...h.slice(0, 8).map((x, k) => x + (step[k] ?? NaN)), 1]);
       const cn = next ? cost(next) : Infinity;
       if (next && cn < c) {
         const gain = (c - cn) / c;
@@ -228,19 +240,16 @@ function refineProjective(h0: number[], u: number[], v: number[], X: number[], Y
 export function fitPhoto(points: readonly ControlPoint[], options: { model?: FitModel; /** Refine a projective fit in metres (default true); false keeps the DLT alone. */ refine?: boolean } = {}): PhotoFit {
   const model = options.model ?? modelForCount(points.length);
   assertUsable(points, model);
-  const np = normaliser(points.map((p) => p.px), points.map((p) => p.py));
-  const ng = normaliser(points.map((p) => p.x), points.map((p) => p.y));
-  const u = points.map((p) => np.s * (p.px - np.cx));
-  const v = points.map((p) => np.s * (p.py - np.cy));
-  const X = points.map((p) => ng.s * (p.x - ng.cx));
-  const Y = points.map((p) => ng.s * (p.y - ng.cy));
+  const np = normaliser(points.map((p): XY => [p.px, p.py]));
+  const ng = normaliser(points.map((p): XY => [p.x, p.y]));
+  const pts = points.map((p): Pair => ({ u: np.s * (p.px - np.cx), v: np.s * (p.py - np.cy), X: ng.s * (p.x - ng.cx), Y: ng.s * (p.y - ng.cy) }));
   const solve = model === "similarity" ? fitSimilarity : model === "affine" ? fitAffine : fitProjective;
-  let inner = solve(u, v, X, Y);
+  let inner = solve(pts);
   // The normalised grid is the metre grid scaled by ng.s, so least squares here is least squares in metres.
-  if (inner && model === "projective" && options.refine !== false) inner = refineProjective(inner, u, v, X, Y);
+  if (inner && model === "projective" && options.refine !== false) inner = refineProjective(inner, pts);
   if (!inner) throw new PhotoFitError("These control points do not fix the photo's position (too close to a line); spread them out.");
-  let matrix = mul3(normInverse(ng), mul3(inner, normMatrix(np)));
-  matrix = matrix.map((m) => m / matrix[8]);
+  const product = mul3(normInverse(ng), mul3(inner, normMatrix(np)));
+  const matrix = product.map((m) => m / product[8]);
   if (!matrix.every(Number.isFinite)) throw new PhotoFitError("The fit sends part of the photo to infinity; check the control points.");
   const residuals = points.map((p) => {
     const [x, y] = applyFit(matrix, p.px, p.py);

@@ -51,7 +51,7 @@ export function gridLines(v: View, width: number, height: number, minPx = 70) {
 export function scaleBar(v: View, targetPx = 120): { metres: number; px: number } {
   const metres = niceStep(targetPx / v.scale / 2.2);
   const options = [metres, metres * 2, metres * 5].filter((m) => m * v.scale <= targetPx * 1.05);
-  const best = options.length ? options[options.length - 1] : metres;
+  const best = options[options.length - 1] ?? metres;
   return { metres: best, px: best * v.scale };
 }
 
