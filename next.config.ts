@@ -1,5 +1,6 @@
 import type { NextConfig } from "next";
-import { API_CONTENT_SECURITY_POLICY, securityHeaders } from "./lib/security-headers";
+import { withSerwist } from "@serwist/turbopack";
+import { API_CONTENT_SECURITY_POLICY, SERVICE_WORKER_CONTENT_SECURITY_POLICY, securityHeaders } from "./lib/security-headers";
 
 const config: NextConfig = {
   // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
@@ -15,13 +16,18 @@ const config: NextConfig = {
     proxyClientMaxBodySize: "128kb",
   },
   poweredByHeader: false,
-  // Pages get their headers, with a per-request nonce, from proxy.ts; the API's answers get them here.
+  // Pages get their headers, with a per-request nonce, from proxy.ts; the API's answers and the service
+  // worker (which obeys its own script's policy) get them here.
   async headers() {
-    const headers = Object.entries(securityHeaders(API_CONTENT_SECURITY_POLICY)).map(([key, value]) => ({ key, value }));
-    return [{ source: "/api/:path*", headers }];
+    const list = (policy: string) => Object.entries(securityHeaders(policy)).map(([key, value]) => ({ key, value }));
+    return [
+      { source: "/api/:path*", headers: list(API_CONTENT_SECURITY_POLICY) },
+      { source: "/serwist/:path*", headers: [...list(SERVICE_WORKER_CONTENT_SECURITY_POLICY), { key: "Cache-Control", value: "no-cache" }] },
+    ];
   },
   // Types are checked by `npm run typecheck` in the test command, once for the whole tree.
   typescript: { ignoreBuildErrors: true },
 };
 
-export default config;
+// Serwist bundles the service worker with esbuild at build time: keep esbuild out of the server bundle.
+export default withSerwist(config);

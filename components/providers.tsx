@@ -4,6 +4,7 @@ import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useState, type ReactNode } from "react";
 import { z } from "zod";
 import { RecordRefresh } from "./record-refresh";
+import { ServiceWorker } from "./offline/service-worker";
 
 // In the browser zod would probe `new Function` to speed up parsing; the page's Content-Security-Policy has
 // no 'unsafe-eval', and the caught probe is still reported as a violation. Parse without it.
@@ -14,6 +15,7 @@ export function Providers({ children }: { children: ReactNode }) {
   return (
     <QueryClientProvider client={client}>
       <RecordRefresh />
+      <ServiceWorker />
       {children}
     </QueryClientProvider>
   );

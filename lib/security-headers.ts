@@ -50,6 +50,12 @@ export function pageContentSecurityPolicy({ nonce, connectOrigins = [], dev = fa
 /** JSON, CSV, GeoJSON, photos and server-sent events: nothing in them may run or be framed. */
 export const API_CONTENT_SECURITY_POLICY = "default-src 'none'; frame-ancestors 'none'";
 
+/**
+ * The service worker's own policy (a worker obeys the policy of its script's answer): it fetches and keeps
+ * this origin's pages, files and API answers, and nothing else.
+ */
+export const SERVICE_WORKER_CONTENT_SECURITY_POLICY = "default-src 'self'; object-src 'none'; frame-ancestors 'none'";
+
 /** Camera for photographing plans from this origin; every other powerful feature off. */
 export const PERMISSIONS_POLICY = [
   "camera=(self)",

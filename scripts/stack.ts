@@ -12,7 +12,15 @@ import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "../lib/dev-services/upl
 
 /** The app's port; the SMTP sink listens on port + 1525 and the upload fake on port + 210 unless given. */
 export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string>; smtpPort?: number; uploadPort?: number };
-export type Stack = { url: string; env: NodeJS.ProcessEnv; stop: () => Promise<void> };
+export type Stack = {
+  url: string;
+  env: NodeJS.ProcessEnv;
+  stop: () => Promise<void>;
+  /** Stops only the app server (services and data stay), as when the site's network is out of reach. */
+  stopApp: () => Promise<void>;
+  /** Starts the app server again on the same port and data. */
+  startApp: () => Promise<void>;
+};
 
 const root = path.resolve(import.meta.dirname, "..");
 
@@ -102,9 +110,9 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
     for (const stop of stops.splice(0).reverse()) await stop();
   };
   let log = "";
-  try {
-    await startServices(opts, dataDir, url, env, stops);
-    seedDemo(env, opts.quiet);
+  // The app alone can be stopped and started again on the same data (the offline browser test does it).
+  let stopApp: () => Promise<void> = async () => {};
+  const startApp = async () => {
     const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", listenHost(env), "-p", String(opts.port)], {
       cwd: root,
       env,
@@ -117,16 +125,20 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
     };
     app.stdout?.on("data", keep);
     app.stderr?.on("data", keep);
-    stops.push(
-      () =>
-        new Promise<void>((resolve) => {
-          if (app.exitCode !== null) return resolve();
-          app.once("exit", () => resolve());
-          app.kill("SIGTERM");
-          setTimeout(() => app.kill("SIGKILL"), 5000).unref();
-        }),
-    );
+    stopApp = () =>
+      new Promise<void>((resolve) => {
+        if (app.exitCode !== null || app.signalCode !== null) return resolve();
+        app.once("exit", () => resolve());
+        app.kill("SIGTERM");
+        setTimeout(() => app.kill("SIGKILL"), 5000).unref();
+      });
     await waitForHealth(url, app);
+  };
+  try {
+    await startServices(opts, dataDir, url, env, stops);
+    seedDemo(env, opts.quiet);
+    stops.push(() => stopApp());
+    await startApp();
   } catch (err) {
     // Whatever had started (services, the app) is stopped, so a failed start leaves no port taken.
     await stopAll();
@@ -136,5 +148,7 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
     url,
     env,
     stop: stopAll,
+    stopApp: () => stopApp(),
+    startApp,
   };
 }

@@ -75,13 +75,21 @@ describe("security headers on every page and API route of the built app", () => 
   });
 
   it("every API route answers with a policy that lets nothing run", async () => {
-    const routes = routesOf("route.ts");
+    const routes = routesOf("route.ts").filter((r) => r.startsWith("/api/"));
     expect(routes).toContain("/api/health");
     for (const url of routes) {
       const res = await page.request.get(url, { maxRedirects: 0 });
       expectSecurityHeaders(res, url);
       expect(res.headers()["content-security-policy"], url).toBe("default-src 'none'; frame-ancestors 'none'");
     }
+  });
+
+  it("the service worker answers with its own policy: this origin only, never framed", async () => {
+    const res = await page.request.get("/serwist/sw.js", { maxRedirects: 0 });
+    expect(res.status()).toBe(200);
+    expectSecurityHeaders(res, "/serwist/sw.js");
+    expect(res.headers()["content-security-policy"]).toBe("default-src 'self'; object-src 'none'; frame-ancestors 'none'");
+    expect(res.headers()["service-worker-allowed"]).toBe("/");
   });
 });
 

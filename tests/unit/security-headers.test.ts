@@ -4,7 +4,7 @@ import { NextRequest } from "next/server";
 import { unstable_doesMiddlewareMatch } from "next/experimental/testing/server";
 import nextConfig from "@/next.config";
 import { config as proxyConfig, proxy } from "@/proxy";
-import { API_CONTENT_SECURITY_POLICY, pageContentSecurityPolicy, securityHeaders, uploadOrigin } from "@/lib/security-headers";
+import { API_CONTENT_SECURITY_POLICY, SERVICE_WORKER_CONTENT_SECURITY_POLICY, pageContentSecurityPolicy, securityHeaders, uploadOrigin } from "@/lib/security-headers";
 
 const UPLOAD_STAND_IN = "http://127.0.0.1:4321";
 process.env.UPLOADTHING_INGEST_URL = `${UPLOAD_STAND_IN}/ingest`;
@@ -59,7 +59,8 @@ describe("the page policy", () => {
 
 describe("every page and every API route answers with the security headers", () => {
   const pages = routesOf("page.tsx");
-  const apiRoutes = routesOf("route.ts");
+  const routes = routesOf("route.ts");
+  const apiRoutes = routes.filter((r) => r.startsWith("/api/"));
 
   it("finds the app's pages and routes", () => {
     expect(pages).toContain("/sign-in");
@@ -105,5 +106,17 @@ describe("every page and every API route answers with the security headers", () 
       const headers = Object.fromEntries(matching.flatMap((r) => r.headers.map((h) => [h.key, h.value])));
       expect(headers, route).toEqual(securityHeaders(API_CONTENT_SECURITY_POLICY));
     }
+  });
+
+  it("the service worker, the one route outside the API, has its own policy from the config", async () => {
+    expect(routes.filter((r) => !r.startsWith("/api/"))).toEqual(["/serwist/00000000-0000-4000-8000-000000000001"]);
+    const rules = await nextConfig.headers!();
+    expect(unstable_doesMiddlewareMatch({ config: proxyConfig, url: "/serwist/sw.js" })).toBe(false);
+    const matching = rules.filter((r) => unstable_doesMiddlewareMatch({ config: { matcher: r.source }, url: "/serwist/sw.js" }));
+    const headers = Object.fromEntries(matching.flatMap((r) => r.headers.map((h) => [h.key, h.value])));
+    expect(headers).toMatchObject(securityHeaders(SERVICE_WORKER_CONTENT_SECURITY_POLICY));
+    // The worker fetches and keeps this origin's answers and nothing else.
+    expect(SERVICE_WORKER_CONTENT_SECURITY_POLICY).toMatch(/^default-src 'self';/);
+    expect(SERVICE_WORKER_CONTENT_SECURITY_POLICY).toMatch(/frame-ancestors 'none'/);
   });
 });
