@@ -26,6 +26,9 @@ export type RouteSpec<I> = GuardSpec<I> & {
 };
 
 type InputOf<S> = S extends { input: infer Z extends ZodType } ? z.output<Z> : unknown;
+/** The names in a catalogue path's braces: "/api/sites/{siteId}/finds/{findId}" → "siteId" | "findId". */
+type PathNames<P> = P extends `${string}{${infer K}}${infer Rest}` ? K | PathNames<Rest> : never;
+type ParamsOf<S> = S extends { path: infer P extends string } ? Record<PathNames<P>, string> : Record<string, string | undefined>;
 type AnswerOf<S> = S extends { response: infer Z extends ZodType } ? z.input<Z> : unknown;
 
 /** "256 KB", "48 MB": the limit as the refusal states it. */
@@ -97,16 +100,19 @@ function malformedId(params: Record<string, string>): PublicError | null {
  */
 export function guardedRoute<S extends RouteSpec<unknown>>(
   spec: S,
-  fn: (ctx: GuardContext<InputOf<S>> & { params: Record<string, string>; req: Request }) => Promise<AnswerOf<S> | Response>,
+  fn: (ctx: GuardContext<InputOf<S>> & { params: ParamsOf<S>; req: Request }) => Promise<AnswerOf<S> | Response>,
 ): Handler {
+  const named = "path" in spec && typeof spec.path === "string" ? [...spec.path.matchAll(/\{(\w+)\}/g)].map((m) => m[1] ?? "") : [];
   return async (req, routeCtx) => {
     const raw = (await routeCtx.params) ?? {};
-    const params = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, String(v)]));
+    const params: Record<string, string> = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, String(v)]));
+    // A path segment the catalogue names but the request lacks is a page that does not exist.
+    if (named.some((name) => params[name] === undefined)) return respond(toFailure(notFound("That page")));
     const malformed = malformedId(params);
     if (malformed) return respond(toFailure(malformed));
     const from = spec.from ?? (req.method === "GET" || req.method === "DELETE" ? "query" : "body");
     const limit = spec.maxBodyBytes ?? DEFAULT_BODY_LIMIT;
-    const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params, req }));
+    const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params: params as ParamsOf<S>, req }));
     return respond(outcome, spec.successStatus);
   };
 }
