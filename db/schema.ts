@@ -13,6 +13,7 @@ import {
   real,
   text,
   timestamp,
+  unique,
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
@@ -108,6 +109,10 @@ export const trenches = pgTable(
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
     /** Reduced level of the ground surface before digging; the deep-trench caution is measured from it. */
     surfaceLevel: doublePrecision("surface_level"),
+    /** The square grid bulk finds are counted in (side in metres, lines through the origin on the site grid); null = none yet. */
+    squareSize: doublePrecision("square_size"),
+    squareOriginX: doublePrecision("square_origin_x"),
+    squareOriginY: doublePrecision("square_origin_y"),
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     signedOffBy: uuid("signed_off_by").references(() => users.id),
     createdAt: created(),
@@ -386,3 +391,45 @@ export type Benchmark = typeof benchmarks.$inferSelect;
 export type Spit = typeof spits.$inferSelect;
 export type LevelRun = typeof levelRuns.$inferSelect;
 export type SpotLevel = typeof spotLevels.$inferSelect;
+
+/**
+ * One grid square dug in one context (and spit, when the context is dug in spits): the row says the square
+ * was excavated there. No row = not excavated, left out of every test. `excavatedArea` is the part of the
+ * square dug in this context or spit, m²; null = the whole of the square inside the trench. Squares are
+ * named by grid indices (lib/geometry/square-grid.ts) so a redrawn outline clips them again and keeps them.
+ */
+export const squareSamples = pgTable(
+  "square_samples",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
+    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
+    col: integer("col").notNull(),
+    row: integer("row").notNull(),
+    excavatedArea: doublePrecision("excavated_area"),
+    recordedBy: uuid("recorded_by").references(() => users.id),
+    createdAt: created(),
+    updatedAt: updated(),
+  },
+  (t) => [
+    unique("square_samples_unit").on(t.contextId, t.spitId, t.col, t.row).nullsNotDistinct(),
+    index("square_samples_trench").on(t.trenchId),
+  ],
+);
+
+/** Count (and weight) of one artefact class in one square sample; 0 is a count entered on purpose. */
+export const squareCounts = pgTable(
+  "square_counts",
+  {
+    sampleId: uuid("sample_id").notNull().references(() => squareSamples.id, { onDelete: "cascade" }),
+    classId: uuid("class_id").notNull().references(() => artefactClasses.id, { onDelete: "restrict" }),
+    count: integer("count").notNull(),
+    weightG: doublePrecision("weight_g"),
+  },
+  (t) => [primaryKey({ columns: [t.sampleId, t.classId] }), index("square_counts_class").on(t.classId)],
+);
+
+export type SquareSample = typeof squareSamples.$inferSelect;
+export type SquareCount = typeof squareCounts.$inferSelect;

@@ -6,6 +6,7 @@ import { planApi } from "./catalog/plan";
 import { publicApi } from "./catalog/public";
 import { recordingApi } from "./catalog/recording";
 import { signOffApi } from "./catalog/sign-off";
+import { squaresApi } from "./catalog/squares";
 
 export type { ApiOperation } from "./operation";
 
@@ -15,7 +16,7 @@ export type { ApiOperation } from "./operation";
  * fetch layer (lib/api/client.ts) all read this table, so a new route cannot skip any of them. Each feature
  * keeps its operations in lib/api/catalog/<feature>.ts. Pure data: no server code is imported here.
  */
-export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...publicApi };
+export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...squaresApi, ...publicApi };
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

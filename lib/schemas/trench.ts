@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { formatLimit, MAX_HOLES, MAX_RING_VERTICES } from "@/lib/spatial/geometry/limits";
 import { metres, numeric } from "./common";
+import { squareGridFields } from "./squares";
 
 const position = z.tuple([metres, metres]);
 /** GeoJSON repeats the first vertex at the end of a ring; that closing vertex is not counted. */
@@ -28,8 +29,8 @@ const trenchFields = {
 
 export const trenchCreateSchema = z.object({ ...trenchFields, name: trenchFields.name.default("") });
 
-/** No defaults here: a field left out stays as it is. */
-export const trenchUpdateSchema = z.object(trenchFields).partial();
+/** No defaults here: a field left out stays as it is. The square grid (issue 16) is set on an existing trench. */
+export const trenchUpdateSchema = z.object({ ...trenchFields, ...squareGridFields }).partial();
 
 export type TrenchCreate = z.infer<typeof trenchCreateSchema>;
 export type TrenchUpdate = z.infer<typeof trenchUpdateSchema>;

@@ -17,7 +17,7 @@ export const fieldRights = {
   site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly },
   member: { role: directorOnly },
   class: { code: classers, label: classers, material: classers, colour: classers, symbol: classers, humanRemains: classers },
-  trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders },
+  trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders, squareSize: directorOnly, squareOriginX: directorOnly, squareOriginY: directorOnly },
   context: {
     number: recorders,
     type: recorders,

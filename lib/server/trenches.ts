@@ -11,6 +11,7 @@ import { badInput, conflict, notFound } from "./errors";
 import { assertContextsWritable, assertTrenchWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
+import { assertGridChange } from "./squares";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
 /** A valid polygon as a window, or a 400 naming the field (`outline` of a trench, `extent` of a context) and why. */
@@ -71,6 +72,10 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
         );
       }
     }
+    // The grid's squares are cut again from the new outline; a grid change under recorded counts is refused.
+    const grid = { squareSize: input.squareSize, squareOriginX: input.squareOriginX, squareOriginY: input.squareOriginY };
+    const nextGrid = Object.fromEntries(Object.entries(grid).filter(([, v]) => v !== undefined));
+    await assertGridChange(tx, before, { ...before, ...nextGrid, outline: window ? windowToPolygon(window) : before.outline });
     if (input.code && input.code !== before.code) {
       const [taken] = await tx.select({ id: trenches.id }).from(trenches).where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
       if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
@@ -82,6 +87,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
         ...(input.name !== undefined && { name: input.name }),
         ...(input.surfaceLevel !== undefined && { surfaceLevel: input.surfaceLevel }),
         ...(window && { outline: windowToPolygon(window) }),
+        ...nextGrid,
         updatedAt: new Date(),
       })
       .where(eq(trenches.id, trenchId))

@@ -25,11 +25,13 @@ const routeAllows = (op: ApiOperation, role: Role) => op.roles === "member" || (
 
 /**
  * What must hold, written out here rather than read from the table under test: whoever the route lets in
- * may change every field, except that a specialist (who classes finds) may change only a find's class.
+ * may change every field, except that a specialist (who classes finds) may change only a find's class, and
+ * only a director sets a trench's square grid (the squares bulk finds are counted in).
  */
 function mayChange(name: string, role: Role, field: string): boolean {
   if (!routeAllows(api[name as keyof typeof api] as ApiOperation, role)) return false;
   if (name === "findUpdate" && role === "specialist") return field === "classId";
+  if (name === "trenchUpdate" && field.startsWith("square")) return role === "director";
   return true;
 }
 

@@ -17,6 +17,10 @@ import * as spitsRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import * as levelRunsRoute from "@/app/api/sites/[siteId]/level-runs/route";
 import { makeBenchmark, makeSpit } from "./role-cases/levels";
+import * as squaresRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/squares/route";
+import * as squareRecordRoute from "@/app/api/sites/[siteId]/square-records/[sampleId]/route";
+import * as squareImportRoute from "@/app/api/sites/[siteId]/square-import/route";
+import { gridTrench, makeSquareRecord, squareCsv } from "./role-cases/squares";
 
 /**
  * Issue 7 "Tests": every write path that can touch a context's sheet, finds or relations × (open, awaiting,
@@ -96,6 +100,19 @@ const cases: LockCase[] = [
   { op: "levelRunsCreate", title: "level the top of T", prepare: async (fx) => levelRunOn(fx, "context_top", fx.context.id) },
   { op: "levelRunsCreate", title: "level a find of T", prepare: async (fx) => levelRunOn(fx, "find", (await findIn(fx, fx.context.id)).id) },
   { op: "levelRunsCreate", title: "level a spit boundary of T", prepare: async (fx) => levelRunOn(fx, "spit_base", (await makeSpit(fx)).id) },
+  { op: "squareRecord", title: "record counts in a square of T", prepare: async (fx) => {
+      await gridTrench(fx);
+      return { mod: squaresRoute, params: { ...site(fx), trenchId: fx.trench.id }, body: { col: 1, row: 1, contextId: fx.context.id, counts: [{ classId: fx.cls.id, count: 4 }] } };
+    } },
+  { op: "squareRecord", title: "change the counts of a square of T", prepare: async (fx) => {
+      await makeSquareRecord(fx, 1, 1);
+      return { mod: squaresRoute, params: { ...site(fx), trenchId: fx.trench.id }, body: { col: 1, row: 1, contextId: fx.context.id, excavatedArea: 0.5, counts: [{ classId: fx.cls.id, count: 0 }] } };
+    } },
+  { op: "squareDelete", title: "delete a square record of T", prepare: async (fx) => ({ mod: squareRecordRoute, params: { ...site(fx), sampleId: (await makeSquareRecord(fx)).id } }) },
+  { op: "squareImport", title: "import counts by square into T", rowReportWhenLocked: true, prepare: async (fx) => {
+      await gridTrench(fx);
+      return { mod: squareImportRoute, params: site(fx), body: { trenchId: fx.trench.id, csv: squareCsv(fx) } };
+    } },
   { op: "trenchUpdate", title: "redraw the outline so a find of T falls outside", alwaysRefused: true, prepare: async (fx) => {
       await findIn(fx, fx.context.id, 9, 5);
       return { mod: trenchRoute, params: { ...site(fx), trenchId: fx.trench.id }, body: { outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [8, 6], [0, 6], [0, 0]]] } } };
@@ -130,7 +147,7 @@ const outsideTheLock: Record<string, string> = {
 
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings, schema.spits, schema.spotLevels, schema.levelRuns];
+  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings, schema.spits, schema.spotLevels, schema.levelRuns, schema.squareSamples, schema.squareCounts];
   const parts: string[] = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   parts.push(String((await db.select().from(schema.auditEntries)).length));

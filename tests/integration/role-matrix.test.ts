@@ -10,13 +10,14 @@ import { patternsCases } from "./role-cases/patterns";
 import { planCases } from "./role-cases/plan";
 import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
+import { squaresCases } from "./role-cases/squares";
 
-const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases };
+const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases };
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds];
+  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.squareSamples, schema.squareCounts];
   const parts = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   const audit = await db.select().from(schema.auditEntries);

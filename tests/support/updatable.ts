@@ -132,6 +132,10 @@ export const updatables: Record<string, Updatable> = {
       name: text(),
       outline: rectangle(0, 0),
       surfaceLevel: fc.option(decimal(-100, 3000), { nil: null }),
+      // Sizes that cut any generated outline (at most 25 m × 25 m) into well under the squares' limit.
+      squareSize: fc.option(fc.constantFrom(0.5, 1, 2), { nil: null }),
+      squareOriginX: fc.option(decimal(-10, 10), { nil: null }),
+      squareOriginY: fc.option(decimal(-10, 10), { nil: null }),
     }),
   },
   contextUpdate: {
