@@ -120,7 +120,8 @@ describe("recording counts by square", () => {
   ])("refuses %s, naming the field, writing nothing", async (_what, change, field, message) => {
     const fx = await makeSite();
     await gridTrench(fx);
-    const counts = change.counts === "negative" ? [{ classId: fx.cls.id, count: -1 }] : change.counts === "unknown" ? [{ classId: crypto.randomUUID(), count: 1 }] : [{ classId: fx.cls.id, count: 1 }];
+    const kind = (change as { counts?: string }).counts;
+    const counts = kind === "negative" ? [{ classId: fx.cls.id, count: -1 }] : kind === "unknown" ? [{ classId: crypto.randomUUID(), count: 1 }] : [{ classId: fx.cls.id, count: 1 }];
     const body = { col: 1, row: 1, contextId: fx.context.id, ...change, counts };
     const before = await tableCounts();
     session.userId = fx.people.digger.id;
