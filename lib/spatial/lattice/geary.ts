@@ -10,7 +10,7 @@
  *            + S0² (n² − 3 − (n − 1)² b2)] / (n (n − 2)(n − 3) S0²)
  */
 import { centred, checkAlternative, checkPermutations, normalP, rankP, tieTolerance } from "./p-values";
-import { checkGlobal, permuteInto, type GlobalMoments, type GlobalTestOptions } from "./moran";
+import { checkGlobal, pairForm, permuteInto, type GlobalMoments, type GlobalTestOptions, type PairForm } from "./moran";
 import type { LatticeAlternative } from "./p-values";
 import type { LatticeWeights } from "./types";
 
@@ -24,15 +24,12 @@ export interface GearyResult extends GlobalMoments {
 }
 
 /** Σ_ij w_ij (x_i − x_j)². */
-function squaredDifferences(w: LatticeWeights, x: Float64Array): number {
-  const { start, index, weight, n } = w;
+function squaredDifferences(f: PairForm, x: Float64Array): number {
+  const { i, j, w } = f;
   let s = 0;
-  for (let i = 0; i < n; i++) {
-    const xi = x[i];
-    for (let p = start[i]; p < start[i + 1]; p++) {
-      const d = xi - x[index[p]];
-      s += weight[p] * d * d;
-    }
+  for (let k = 0; k < w.length; k++) {
+    const d = x[i[k]] - x[j[k]];
+    s += w[k] * d * d;
   }
   return s;
 }
@@ -50,7 +47,8 @@ export function gearyC(values: ArrayLike<number>, w: LatticeWeights, options: Gl
   for (let i = 0; i < n; i++) z4 += z[i] ** 4;
   const K = (n * z4) / (m2sum * m2sum);
   const factor = (n - 1) / (2 * w.S0 * m2sum);
-  const C = factor * squaredDifferences(w, z);
+  const form = pairForm(w);
+  const C = factor * squaredDifferences(form, z);
   const { S0, S1, S2 } = w;
   const S02 = S0 * S0;
   const nn = n * n;
@@ -69,7 +67,7 @@ export function gearyC(values: ArrayLike<number>, w: LatticeWeights, options: Gl
     let below = 0;
     for (let s = 0; s < permutations; s++) {
       permuteInto(z, zp, seed, s);
-      const Cs = factor * squaredDifferences(w, zp);
+      const Cs = factor * squaredDifferences(form, zp);
       if (Cs >= C - eps) above++;
       if (Cs <= C + eps) below++;
     }

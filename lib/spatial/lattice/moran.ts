@@ -9,7 +9,8 @@
  *   Var_R = [n ((n² − 3n + 3) S1 − n S2 + 3 S0²) − b2 ((n² − n) S1 − 2n S2 + 6 S0²)]
  *           / ((n − 1)(n − 2)(n − 3) S0²) − E[I]²,  b2 = n Σz⁴ / (Σz²)²
  */
-import { createRandom } from "../random/random";
+import { createUint32Stream } from "../random/random";
+import { uniformIndex } from "./conditional";
 import { SpatialInputError } from "../errors";
 import { centred, checkAlternative, checkPermutations, normalP, rankP, tieTolerance, type LatticeAlternative } from "./p-values";
 import type { LatticeWeights } from "./types";
@@ -45,24 +46,52 @@ export function checkGlobal(values: ArrayLike<number>, w: LatticeWeights, test: 
   if (w.n < 4) throw new SpatialInputError(`${test} needs at least 4 squares with neighbours; there ${w.n === 1 ? "is" : "are"} ${w.n}.`);
 }
 
-/** Σ_i z_i Σ_j w_ij z_j. */
-function crossSum(w: LatticeWeights, z: Float64Array): number {
-  const { start, index, weight, n } = w;
-  let s = 0;
-  for (let i = 0; i < n; i++) {
-    let lag = 0;
-    for (let p = start[i]; p < start[i + 1]; p++) lag += weight[p] * z[index[p]];
-    s += z[i] * lag;
+/**
+ * The weights as unordered pairs i < j with weight w_ij + w_ji: a quadratic form Σ_ij w_ij a_i a_j (or
+ * Σ_ij w_ij (a_i − a_j)²) then takes half the terms, which is most of a permutation's cost.
+ */
+export interface PairForm {
+  i: Int32Array;
+  j: Int32Array;
+  w: Float64Array;
+}
+
+export function pairForm(w: LatticeWeights): PairForm {
+  const count = w.start[w.n];
+  const pi = new Int32Array(count);
+  const pj = new Int32Array(count);
+  const pw = new Float64Array(count);
+  let k = 0;
+  for (let i = 0; i < w.n; i++) {
+    for (let p = w.start[i]; p < w.start[i + 1]; p++) {
+      const j = w.index[p];
+      if (j <= i) continue;
+      // w_ji: row j's entry for i (the neighbour structure is symmetric)
+      let wji = 0;
+      for (let q = w.start[j]; q < w.start[j + 1]; q++) if (w.index[q] === i) wji = w.weight[q];
+      pi[k] = i;
+      pj[k] = j;
+      pw[k] = w.weight[p] + wji;
+      k++;
+    }
   }
+  return { i: pi.subarray(0, k), j: pj.subarray(0, k), w: pw.subarray(0, k) };
+}
+
+/** Σ_ij w_ij z_i z_j. */
+function crossSum(f: PairForm, z: Float64Array): number {
+  const { i, j, w } = f;
+  let s = 0;
+  for (let k = 0; k < w.length; k++) s += w[k] * z[i[k]] * z[j[k]];
   return s;
 }
 
 /** Shuffle `into` from `from` with a Fisher–Yates draw of stream `stream`. */
 export function permuteInto(from: Float64Array, into: Float64Array, seed: number, stream: number): void {
   into.set(from);
-  const rng = createRandom(seed, stream);
+  const u32 = createUint32Stream(seed, stream);
   for (let i = into.length - 1; i > 0; i--) {
-    const j = rng.int(i + 1);
+    const j = uniformIndex(u32, i + 1);
     const t = into[i];
     into[i] = into[j];
     into[j] = t;
@@ -82,7 +111,8 @@ export function moranI(values: ArrayLike<number>, w: LatticeWeights, options: Gl
   for (let i = 0; i < n; i++) z4 += z[i] ** 4;
   const kurtosis = (n * z4) / (m2sum * m2sum);
   const factor = n / (w.S0 * m2sum);
-  const I = factor * crossSum(w, z);
+  const form = pairForm(w);
+  const I = factor * crossSum(form, z);
   const { S0, S1, S2 } = w;
   const S02 = S0 * S0;
   const nn = n * n;
@@ -102,7 +132,7 @@ export function moranI(values: ArrayLike<number>, w: LatticeWeights, options: Gl
     let below = 0;
     for (let s = 0; s < permutations; s++) {
       permuteInto(z, zp, seed, s);
-      const Is = factor * crossSum(w, zp);
+      const Is = factor * crossSum(form, zp);
       if (Is >= I - eps) above++;
       if (Is <= I + eps) below++;
     }

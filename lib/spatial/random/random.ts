@@ -34,6 +34,28 @@ export function assertSeed(seed: unknown): asserts seed is number {
   }
 }
 
+/** The 128-bit generator state of stream `stream` of run `seed`: four words hashed from (seed, stream, word index). */
+function streamState(seed: number, stream: number): number[] {
+  const lo = stream % 0x100000000;
+  const hi = Math.floor(stream / 0x100000000);
+  const words = [0, 1, 2, 3].map((k) => fmix32(fmix32(fmix32(seed ^ Math.imul(k + 1, 0x9e3779b9)) ^ lo) ^ hi));
+  if (!words.some((w) => w !== 0)) words[0] = 1; // the all-zero state is a fixed point of xoroshiro
+  return words;
+}
+
+/**
+ * Raw 32-bit outputs of stream `stream` of run `seed` (the same generator and streams as createRandom), for
+ * hot loops that draw many small integers: see uniformIndex in lattice/conditional.ts.
+ */
+export function createUint32Stream(seed: number, stream = 0): () => number {
+  assertSeed(seed);
+  if (!Number.isSafeInteger(stream) || stream < 0) {
+    throw new SpatialInputError(`The random stream index must be a non-negative integer; got ${stream}.`);
+  }
+  const rng = xoroshiro128plusFromState(streamState(seed, stream));
+  return () => rng.next() >>> 0;
+}
+
 /**
  * The random stream number `stream` of run `seed`. The 128-bit generator state is four words hashed from
  * (seed, stream, word index), which keeps streams of neighbouring indices unrelated.
@@ -43,11 +65,7 @@ export function createRandom(seed: number, stream = 0): Random {
   if (!Number.isSafeInteger(stream) || stream < 0) {
     throw new SpatialInputError(`The random stream index must be a non-negative integer; got ${stream}.`);
   }
-  const lo = stream % 0x100000000;
-  const hi = Math.floor(stream / 0x100000000);
-  const words = [0, 1, 2, 3].map((k) => fmix32(fmix32(fmix32(seed ^ Math.imul(k + 1, 0x9e3779b9)) ^ lo) ^ hi));
-  if (!words.some((w) => w !== 0)) words[0] = 1; // the all-zero state is a fixed point of xoroshiro
-  const rng = xoroshiro128plusFromState(words);
+  const rng = xoroshiro128plusFromState(streamState(seed, stream));
   const next = (): number => {
     // 26 + 27 high bits of two outputs (as pure-rand's uniformFloat64, which takes low bits; the high
     // bits of xoroshiro128+ are the stronger ones).
