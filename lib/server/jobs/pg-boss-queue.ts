@@ -1,5 +1,6 @@
 import "server-only";
 import PgBoss from "pg-boss";
+import { CHUNK_JOB, chunkExpireSeconds, createChunkQueue } from "./chunk-queue";
 import type { RunQueue } from "./run-queue";
 
 /**
@@ -12,11 +13,17 @@ const JOB_NAME = "loamwork-analysis-run";
 /** A run longer than this is presumed lost with its worker; pg-boss then retries it once. */
 export const RUN_EXPIRE_SECONDS = 15 * 60;
 
-async function openBoss(connectionString: string): Promise<PgBoss> {
-  const boss = new PgBoss({ connectionString, max: 4, application_name: "loamwork-runs" });
+/**
+ * pg-boss looks for jobs whose time ran out (a worker gone mid-chunk) at its maintenance; half a chunk's
+ * time, so that a lost chunk is offered again within 1.5 times its allowance.
+ */
+export async function openBoss(connectionString: string): Promise<PgBoss> {
+  const maintenanceIntervalSeconds = Math.max(1, Math.min(60, Math.floor(chunkExpireSeconds() / 2)));
+  const boss = new PgBoss({ connectionString, max: 4, application_name: "loamwork-runs", maintenanceIntervalSeconds });
   boss.on("error", (err) => console.error("[loamwork] job queue error", err));
   await boss.start();
   await boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS });
+  await createChunkQueue(boss);
   return boss;
 }
 
@@ -41,9 +48,11 @@ export async function startPgBossQueue(connectionString: string): Promise<RunQue
 
 export type RunExecutor = (runId: string, signal: AbortSignal) => Promise<void>;
 
-/** A worker process's side: takes runs, `concurrency` at a time; returns the function that stops. */
-export async function workRuns(connectionString: string, execute: RunExecutor, concurrency = 1): Promise<() => Promise<void>> {
-  const boss = await openBoss(connectionString);
+/**
+ * A worker process's side: takes runs, `concurrency` at a time, on `boss` (opened by openBoss); returns
+ * the function that stops taking them and stops the queue.
+ */
+export async function workRuns(boss: PgBoss, execute: RunExecutor, concurrency = 1, log?: (line: string) => void): Promise<() => Promise<void>> {
   const controllers = new Set<AbortController>();
   const ids: string[] = [];
   for (let k = 0; k < concurrency; k++) {
@@ -51,6 +60,7 @@ export async function workRuns(connectionString: string, execute: RunExecutor, c
       await boss.work<{ runId: string }>(JOB_NAME, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
         const controller = new AbortController();
         controllers.add(controller);
+        log?.(`run ${job.data.runId} taken`);
         try {
           await execute(job.data.runId, controller.signal);
         } finally {
@@ -61,6 +71,7 @@ export async function workRuns(connectionString: string, execute: RunExecutor, c
   }
   return async () => {
     for (const id of ids) await boss.offWork({ id });
+    await boss.offWork(CHUNK_JOB).catch(() => undefined);
     for (const c of controllers) c.abort();
     await boss.stop({ graceful: false, wait: true });
   };

@@ -40,7 +40,7 @@ export function warmSimulationPool(pool: SimulationPool = simulationPool()): Pro
     window: { outer: [[0, 0], [10, 0], [10, 6], [0, 6]] as [number, number][] },
     points,
     seed: 1,
-    nsim: 8 * pool.threads * 2,
+    nsim: Math.max(19, 8 * pool.threads * 2),
     r: { max: 1.5, count: 33 },
     tests: [{ type: "l-envelope" as const, count: "fixed" as const, correction: "isotropic" as const, statistic: "mad" as const }],
   };

@@ -15,6 +15,11 @@ export interface SimulationPool {
   runChunk(chunk: SimChunk): Promise<Float64Array>;
   /** Stop the threads once the chunks they hold are done. */
   destroy(): Promise<void>;
+  /**
+   * Chunks to cut nsim simulations into, when the pool knows better than the default (a pool whose chunks
+   * travel through a job queue wants fewer, longer ones). The numbers do not depend on it.
+   */
+  chunksFor?(nsim: number): number;
 }
 
 export interface RunSimulationsOptions {
@@ -42,7 +47,7 @@ export async function runSimulations(setup: SimSetup, options: RunSimulationsOpt
   if (!Number.isInteger(nsim) || nsim < 1 || nsim > 100_000) throw new SpatialInputError(`The number of simulations must be 1 to 100000; got ${nsim}.`);
   if (signal?.aborted) throw abortError();
   const threads = pool ? pool.threads : 1;
-  const chunkCount = Math.min(nsim, options.chunks ?? 24 * threads);
+  const chunkCount = Math.max(1, Math.min(nsim, options.chunks ?? pool?.chunksFor?.(nsim) ?? 24 * threads));
   const key = `run-${process.pid}-${++keyCounter}`;
   const bounds = Array.from({ length: chunkCount + 1 }, (_, c) => Math.round((c * nsim) / chunkCount));
   let m = 0;

@@ -1,0 +1,180 @@
+/**
+ * Several worker processes share one run (issue 18, beyond one machine): the worker that takes a run cuts
+ * its simulations into chunk jobs, every worker takes chunks, and the merged numbers are those of a single
+ * process with the same seed. A worker killed in the middle of a chunk loses nothing: once the chunk's time
+ * runs out pg-boss offers it again and the other worker computes it. Two `npm run worker` processes against
+ * the PostgreSQL server the suite gives this file (or a throwaway cluster, as patterns-pgboss.test.ts).
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import type pg from "pg";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { session, call } from "../support/harness";
+
+/**
+ * Everything the environment needs is settled here, before any module reads it (lib/env caches it): the
+ * queue kind, and — when the suite does not already give this file a database (scripts/with-postgres.sh
+ * and tests/support/pg-per-file.ts) — a throwaway cluster on a free loopback port with a database.
+ */
+const setup = await vi.hoisted(async () => {
+  const { spawnSync } = await import("node:child_process");
+  const { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } = await import("node:fs");
+  const { tmpdir } = await import("node:os");
+  const path = await import("node:path");
+  process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
+  const root = "/usr/lib/postgresql";
+  const bin = existsSync(root) ? readdirSync(root).map((v) => path.join(root, v, "bin")).find((b) => existsSync(path.join(b, "initdb"))) : undefined;
+  if (process.env.DATABASE_URL || !bin) return { available: !!process.env.DATABASE_URL, stop: () => {} };
+  const dir = mkdtempSync(path.join(tmpdir(), "loamwork-workers-"));
+  const root0 = process.getuid?.() === 0;
+  // As root, the server must run as postgres, which must own the folder.
+  if (root0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
+  const run = (cmd: string[]) => {
+    const r = root0 ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" }) : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
+    if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
+  };
+  const port = Number(spawnSync(process.execPath, ["-e", "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"], { encoding: "utf8" }).stdout);
+  run([path.join(bin, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
+  run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-l", `${dir}/log`, "-o", `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`, "-w", "start"]);
+  run([path.join(bin, "createdb"), "-h", "127.0.0.1", "-p", String(port), "-U", "loamwork", "loamwork_workers"]);
+  process.env.DATABASE_URL = `postgres://loamwork@127.0.0.1:${port}/loamwork_workers`;
+  return {
+    available: true,
+    stop: () => {
+      try {
+        run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-m", "fast", "-w", "stop"]);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  };
+});
+if (!setup.available) console.warn("patterns-workers: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.");
+
+type Worker = { proc: ChildProcess; log: string };
+const workers: Worker[] = [];
+/** Chunk time before a silent worker's chunk is offered again: short, so the test waits little for it. */
+const EXPIRE_SECONDS = 8;
+
+function startWorker(): Worker {
+  const w: Worker = { log: "", proc: undefined as unknown as ChildProcess };
+  // node itself with tsx as its loader (not tsx's command line, which runs the script in a child process
+  // that a kill of the parent would leave behind)
+  w.proc = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], {
+    env: {
+      ...process.env, NODE_ENV: "production", DATABASE_URL: process.env.DATABASE_URL, LOAMWORK_DATA_DIR: "unused",
+      LOAMWORK_WORKER_THREADS: "1", LOAMWORK_WORKER_LOG: "1", LOAMWORK_RUN_CHUNKS: "8", LOAMWORK_CHUNK_EXPIRE_SECONDS: String(EXPIRE_SECONDS),
+    },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  w.proc.stdout!.on("data", (b) => (w.log += b));
+  w.proc.stderr!.on("data", (b) => (w.log += b));
+  workers.push(w);
+  return w;
+}
+
+const until = async (what: string, ok: () => boolean, tries = 1200) => {
+  for (let i = 0; i < tries; i++) {
+    if (ok()) return;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  throw new Error(`timed out waiting for ${what}\n${workers.map((w) => w.log).join("\n---\n")}`);
+};
+
+describe.skipIf(!setup.available)("one run shared by two worker processes", () => {
+  let d: { siteId: string; trenchId: string; ctx: string; classes: string[]; specialist: string };
+  let mods: Awaited<ReturnType<typeof load>>;
+  const load = async () => ({
+    client: await import("@/db/client"),
+    s: await import("@/db/schema"),
+    seed: await import("@/scripts/seed/seed-demo"),
+    runner: await import("@/lib/server/jobs/run-queue"),
+    execute: await import("@/lib/server/analysis/execute-run"),
+    runsRoute: await import("@/app/api/sites/[siteId]/runs/route"),
+    runRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/route"),
+  });
+
+  beforeAll(async () => {
+    mods = await load();
+    expect(mods.runner.runQueueKind()).toBe("pg-boss");
+    const db = await mods.client.getDb();
+    const { siteId } = await mods.seed.seedDemo(db);
+    const { s } = mods;
+    const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+    const [ctx] = await db.select().from(s.contexts).where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
+    const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
+    const wanted = classes.filter((c) => ["FLK", "CHP", "FCR"].includes(c.code)).map((c) => c.id);
+    const [spec] = await db.select().from(s.users).where(eq(s.users.email, "specialist@loamwork.test"));
+    d = { siteId, trenchId: trench.id, ctx: ctx.id, classes: wanted, specialist: spec.id };
+    const a = startWorker(), b = startWorker();
+    await until("two ready workers", () => [a, b].every((w) => w.log.includes("run worker ready") || w.proc.exitCode !== null));
+    for (const w of [a, b]) expect(w.log).toContain("run worker ready");
+  }, 180_000);
+
+  afterAll(async () => {
+    for (const w of workers) {
+      if (w.proc.exitCode === null && w.proc.signalCode === null) {
+        const gone = new Promise((r) => w.proc.once("exit", r));
+        w.proc.kill("SIGTERM");
+        await gone;
+      }
+    }
+    await mods?.runner.stopRunQueue();
+    await mods?.client.closeDb();
+    setup.stop();
+  }, 60_000);
+
+  it("shares the chunks, survives a worker killed mid-chunk, and gives one process's numbers", async () => {
+    session.userId = d.specialist;
+    const body = {
+      scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: d.classes },
+      tests: [{ kind: "l-csr", statistic: "dclf" }, { kind: "cross-l", a: d.classes[0], b: d.classes[1], null: "fixed-a" }],
+      params: { nsim: 1999, seed: 18, correction: "translation" },
+    };
+    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, body);
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    const runId = res.json.id as string;
+    await until("a worker to take the run", () => workers.some((w) => w.log.includes(`run ${runId} taken`)));
+    const coordinator = workers.find((w) => w.log.includes(`run ${runId} taken`))!;
+    const helper = workers.find((w) => w !== coordinator)!;
+    // the helper takes a chunk of the coordinator's run; it is killed while simulating it
+    await until("the other worker to take a chunk", () => /chunk \S+ taken/.test(helper.log));
+    const gone = new Promise((r) => helper.proc.once("exit", r));
+    helper.proc.kill("SIGKILL");
+    await gone;
+    const taken = [...helper.log.matchAll(/chunk (\S+) taken/g)].map((m) => m[1]);
+    const lost = taken.filter((id) => !helper.log.includes(`chunk ${id} done`));
+    expect(lost.length, helper.log).toBeGreaterThan(0);
+
+    const db = await mods.client.getDb();
+    const { analysisRuns } = mods.s;
+    let row = (await db.select().from(analysisRuns).where(eq(analysisRuns.id, runId)))[0];
+    for (let i = 0; i < 2400 && row.status !== "done"; i++) {
+      if (row.status === "failed") throw new Error(`run failed: ${row.error}\n${coordinator.log}`);
+      await new Promise((r) => setTimeout(r, 100));
+      row = (await db.select().from(analysisRuns).where(eq(analysisRuns.id, runId)))[0];
+    }
+    expect(row.status, coordinator.log).toBe("done");
+    // the chunk the killed worker held was computed again, by the coordinator
+    const client = (db as unknown as { $client: pg.Pool }).$client;
+    for (const id of lost) {
+      const { rows } = await client.query("select state, retry_count from pgboss.job where id = $1", [id]);
+      expect(rows[0]).toMatchObject({ state: "completed" });
+      expect(rows[0].retry_count).toBeGreaterThanOrEqual(1);
+      expect(coordinator.log).toContain(`chunk ${id} done`);
+    }
+
+    // The same run computed in one process (this one, no threads, no queue): the same numbers.
+    const [copy] = await db
+      .insert(analysisRuns)
+      .values({ siteId: row.siteId, trenchId: row.trenchId, scope: row.scope, method: row.method, params: row.params, seed: row.seed, engineVersion: row.engineVersion, fingerprint: row.fingerprint, createdBy: row.createdBy })
+      .returning();
+    await mods.execute.executeRun(db, copy.id, { signal: new AbortController().signal, pool: null });
+    const [single] = await db.select().from(analysisRuns).where(eq(analysisRuns.id, copy.id));
+    expect(single.status).toBe("done");
+    const shared = row.result as { tests: unknown[] };
+    const alone = single.result as { tests: { p: number }[] };
+    expect(alone.tests.length).toBe(4);
+    expect(shared.tests).toEqual(alone.tests);
+  }, 300_000);
+});
