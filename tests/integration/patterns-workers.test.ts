@@ -128,7 +128,7 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
     session.userId = d.specialist;
     const body = {
       scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: d.classes },
-      tests: [{ kind: "l-csr", statistic: "dclf" }, { kind: "cross-l", a: d.classes[0], b: d.classes[1], null: "fixed-a" }],
+      tests: [{ kind: "l-envelope", statistic: "dclf" }, { kind: "cross-l", a: d.classes[0], b: d.classes[1], null: "a-fixed" }],
       params: { nsim: 1999, seed: 18, correction: "translation" },
     };
     const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, body);

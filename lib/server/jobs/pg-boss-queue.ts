@@ -22,9 +22,25 @@ export async function openBoss(connectionString: string): Promise<PgBoss> {
   const boss = new PgBoss({ connectionString, max: 4, application_name: "loamwork-runs", maintenanceIntervalSeconds });
   boss.on("error", (err) => console.error("[loamwork] job queue error", err));
   await boss.start();
-  await boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS });
-  await createChunkQueue(boss);
+  await racing(() => boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS }));
+  await racing(() => createChunkQueue(boss));
   return boss;
+}
+
+/**
+ * Workers started together each create the queues; pg-boss's creation of one queue by two processes at
+ * once can end in a deadlock or a duplicate for one of them. Trying again finds the queue made.
+ */
+async function racing(create: () => Promise<void>): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await create();
+    } catch (err) {
+      const code = (err as { code?: string }).code;
+      if (attempt >= 5 || (code !== "40P01" && code !== "23505")) throw err;
+      await new Promise((r) => setTimeout(r, 50 + Math.random() * 200 * attempt));
+    }
+  }
 }
 
 /** The app's side: sends runs to the workers. */
