@@ -6,7 +6,30 @@
 import path from "node:path";
 import ts from "typescript";
 
-const CHECKED = ["lib/geometry/"];
+const CHECKED = ["lib/geometry/", "lib/server/"];
+
+/**
+ * Files inside CHECKED not cleaned yet: their errors are counted but do not fail the check. A listed file
+ * that has become clean fails it, so the list only shrinks. (Most are being changed by work in progress.)
+ */
+const PENDING = [
+  "lib/server/sign-off.ts",
+  "lib/server/matrix.ts",
+  "lib/server/analysis/result-adapter.ts",
+  "lib/server/analysis/runs.ts",
+  "lib/server/export/geojson.ts",
+  "lib/server/export/matrix-svg.ts",
+  "lib/server/uploads/warp.ts",
+  "lib/server/jobs/thread-pool.test.ts",
+  "lib/server/jobs/pg-boss-queue.ts",
+  "lib/server/photos.ts",
+  "lib/server/relations.ts",
+  "lib/server/import/commit.ts",
+  "lib/server/trenches.ts",
+  "lib/server/finds.ts",
+  "lib/server/field-rights.ts",
+  "lib/server/contexts.ts",
+];
 
 const root = process.cwd();
 const configPath = ts.findConfigFile(root, ts.sys.fileExists, "tsconfig.json");
@@ -17,12 +40,22 @@ const program = ts.createProgram({
   rootNames: parsed.fileNames,
   options: { ...parsed.options, noUncheckedIndexedAccess: true, noEmit: true, incremental: false },
 });
-const inScope = (file) => CHECKED.some((dir) => path.relative(root, file.fileName).split(path.sep).join("/").startsWith(dir));
-const diagnostics = program.getSourceFiles().filter(inScope).flatMap((f) => [...program.getSemanticDiagnostics(f), ...program.getSyntacticDiagnostics(f)]);
+const rel = (file) => path.relative(root, file.fileName).split(path.sep).join("/");
+const inScope = (file) => CHECKED.some((dir) => rel(file).startsWith(dir));
+const errorsOf = (f) => [...program.getSemanticDiagnostics(f), ...program.getSyntacticDiagnostics(f)];
+const files = program.getSourceFiles().filter(inScope);
+const diagnostics = files.filter((f) => !PENDING.includes(rel(f))).flatMap(errorsOf);
+const pending = files.filter((f) => PENDING.includes(rel(f))).map((f) => [rel(f), errorsOf(f).length]);
+const cleaned = pending.filter(([, n]) => n === 0).map(([f]) => f);
+if (cleaned.length > 0) {
+  process.stderr.write(`Now clean, take off PENDING in scripts/check-index-access.mjs: ${cleaned.join(", ")}\n`);
+  process.exit(1);
+}
 if (diagnostics.length > 0) {
   const host = { getCanonicalFileName: (f) => f, getCurrentDirectory: () => root, getNewLine: () => "\n" };
   process.stderr.write(ts.formatDiagnostics(diagnostics, host));
   process.stderr.write(`\n${diagnostics.length} unchecked index access error(s) in ${CHECKED.join(", ")}.\n`);
   process.exit(1);
 }
-console.log(`Index access checked in ${CHECKED.join(", ")}: no errors.`);
+const left = pending.reduce((sum, [, n]) => sum + n, 0);
+console.log(`Index access checked in ${CHECKED.join(", ")}: no errors; ${pending.length} file(s) pending with ${left} error(s).`);

@@ -8,6 +8,7 @@ import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
+import { written } from "./written";
 
 export async function listClasses(db: Db, siteId: string) {
   return db.select().from(artefactClasses).where(eq(artefactClasses.siteId, siteId)).orderBy(asc(artefactClasses.code));
@@ -17,7 +18,7 @@ export async function createClass(db: Db, actor: SiteActor, input: z.infer<typeo
   return db.transaction(async (tx) => {
     const [taken] = await tx.select({ id: artefactClasses.id }).from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.code, input.code)));
     if (taken) throw conflict(`The class code ${input.code} is already used on this site.`);
-    const [row] = await tx.insert(artefactClasses).values({ ...input, siteId: actor.site.id }).returning();
+    const row = written(await tx.insert(artefactClasses).values({ ...input, siteId: actor.site.id }).returning(), "The class");
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "class", recordId: row.id, after: row });
     return row;
   });
@@ -49,7 +50,7 @@ export async function updateClass(db: Db, actor: SiteActor, classId: string, inp
     if (!before) throw notFound("That artefact class");
     // An update that names no field changes nothing (and writes no audit entry).
     if (!Object.keys(input).length) return before;
-    const [after] = await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning();
+    const after = written(await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning(), "The class");
     const reason = await signedOffUse(tx, before, after);
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "class", recordId: classId, before, after, reason });
     return after;

@@ -11,6 +11,7 @@ import { invitationMail } from "./mail/templates/invitation";
 import { deliver, type Delivery } from "./mail/transport";
 import type { SiteActor } from "./membership";
 import { checkPassword, hashPassword } from "./passwords";
+import { written } from "./written";
 
 export { invitationAcceptSchema, newPasswordSchema, type InvitationAccept };
 
@@ -35,10 +36,13 @@ export async function createInvitation(db: Db, actor: SiteActor, input: { email:
       .where(and(eq(memberships.siteId, actor.site.id), eq(users.email, input.email)));
     if (member) throw conflict(`${member.name} (${input.email}) is already on this site as ${member.role}.`);
     await tx.delete(invitations).where(and(eq(invitations.siteId, actor.site.id), eq(invitations.email, input.email), isNull(invitations.acceptedAt)));
-    const [inv] = await tx
-      .insert(invitations)
-      .values({ siteId: actor.site.id, email: input.email, role: input.role, tokenHash: hashToken(token), invitedBy: actor.userId, expiresAt })
-      .returning();
+    const inv = written(
+      await tx
+        .insert(invitations)
+        .values({ siteId: actor.site.id, email: input.email, role: input.role, tokenHash: hashToken(token), invitedBy: actor.userId, expiresAt })
+        .returning(),
+      "The invitation",
+    );
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "invite", recordType: "member", recordId: inv.id, after: publicInvitation(inv) });
     return inv;
   });
@@ -108,14 +112,18 @@ export async function acceptInvitation(db: Db, input: InvitationAccept) {
       .where(and(eq(invitations.tokenHash, hashToken(input.token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
       .for("update");
     if (!inv) throw conflict("This invitation link has expired or has already been used; ask the site director for a new one.");
-    let [user] = await tx.select().from(users).where(eq(users.email, inv.email));
+    const [known] = await tx.select().from(users).where(eq(users.email, inv.email));
+    let user = known;
     if (user) {
       if (!(await checkPassword(input.password, user.passwordHash))) throw badInput("That is not the password of your Loamwork account.", { password: ["Wrong password."] });
     } else {
       if (!input.name) throw badInput("Give your name as it should appear on the record.", { name: ["Enter your name."] });
       const pw = newPasswordSchema.safeParse(input.password);
-      if (!pw.success) throw badInput(pw.error.issues[0].message, { password: [pw.error.issues[0].message] });
-      [user] = await tx.insert(users).values({ email: inv.email, name: input.name, passwordHash: await hashPassword(input.password) }).returning();
+      if (!pw.success) {
+        const message = pw.error.issues[0]?.message ?? "Choose another password.";
+        throw badInput(message, { password: [message] });
+      }
+      user = written(await tx.insert(users).values({ email: inv.email, name: input.name, passwordHash: await hashPassword(input.password) }).returning(), "The account");
     }
     const [already] = await tx.select().from(memberships).where(and(eq(memberships.siteId, inv.siteId), eq(memberships.userId, user.id)));
     if (!already) {

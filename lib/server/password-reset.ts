@@ -12,6 +12,7 @@ import { deliver } from "./mail/transport";
 import { hashPassword } from "./passwords";
 import { endSessions } from "./session-version";
 import { clearSignInLimits } from "./sign-in-limit";
+import { written } from "./written";
 
 /** A reset link works for an hour (common practice for password-reset links). */
 export const RESET_MINUTES = 60;
@@ -33,7 +34,7 @@ export async function requestPasswordReset(db: Db, email: string): Promise<{ acc
     .select({ n: sql<number>`count(*)::int` })
     .from(passwordResets)
     .where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt), gt(passwordResets.createdAt, new Date(Date.now() - 3600_000))));
-  if (recent.n >= RESETS_PER_HOUR) return { accepted: true };
+  if ((recent?.n ?? 0) >= RESETS_PER_HOUR) return { accepted: true };
   const token = newToken();
   const expiresAt = new Date(Date.now() + RESET_MINUTES * 60_000);
   await db.insert(passwordResets).values({ userId: user.id, tokenHash: hashToken(token), expiresAt });
@@ -53,7 +54,7 @@ export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetCo
       .where(and(eq(passwordResets.tokenHash, hashToken(input.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
       .for("update");
     if (!reset) throw conflict("This reset link has expired or has already been used; ask for a new one.");
-    const [user] = await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, reset.userId)).returning();
+    const user = written(await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, reset.userId)).returning(), "The new password");
     await endSessions(tx, user.id);
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
     await clearSignInLimits(tx, user.email);

@@ -8,6 +8,7 @@ import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
+import { written } from "./written";
 
 /** The sites a user belongs to, with their role and what awaits them there. */
 export async function listMySites(db: Db, userId: string) {
@@ -33,7 +34,7 @@ export async function createSite(db: Db, userId: string, input: SiteCreate) {
   return db.transaction(async (tx) => {
     const [taken] = await tx.select({ id: sites.id }).from(sites).where(sql`lower(${sites.code}) = lower(${input.code})`);
     if (taken) throw conflict(`The site code ${input.code} is already in use; choose another.`);
-    const [site] = await tx.insert(sites).values({ ...input, crs: input.crs ?? null }).returning();
+    const site = written(await tx.insert(sites).values({ ...input, crs: input.crs ?? null }).returning(), "The site");
     await tx.insert(memberships).values({ siteId: site.id, userId, role: "director" });
     await recordAudit(tx, { siteId: site.id, actorId: userId, action: "create", recordType: "site", recordId: site.id, after: site });
     return site;
@@ -89,7 +90,7 @@ async function assertNotLastDirector(db: Db, siteId: string, userId: string) {
     .select({ userId: memberships.userId })
     .from(memberships)
     .where(and(eq(memberships.siteId, siteId), eq(memberships.role, "director")));
-  if (rows.length === 1 && rows[0].userId === userId) {
+  if (rows.length === 1 && rows.every((r) => r.userId === userId)) {
     throw conflict("A site needs at least one director; make someone else director first.");
   }
 }

@@ -15,8 +15,8 @@ export function nnHistogram(p: Pts): { edges: number[]; counts: number[]; distan
   const bins = Math.ceil(Math.log2(d.length) + 1);
   const top = Math.max(...d) || 1;
   const width = top / bins;
-  const counts = new Array<number>(bins).fill(0);
-  for (const v of d) counts[Math.min(bins - 1, Math.floor(v / width))] += 1;
+  const binOf = (v: number) => Math.min(bins - 1, Math.floor(v / width));
+  const counts = Array.from({ length: bins }, (_, b) => d.filter((v) => binOf(v) === b).length);
   return { edges: Array.from({ length: bins + 1 }, (_, k) => k * width), counts, distances: d };
 }
 

@@ -44,9 +44,8 @@ export function stratigraphicWarnings(chosen: ContextLabel[], allContextIds: str
     return false;
   };
   const out: StratWarning[] = [];
-  for (let i = 0; i < chosen.length; i++) {
-    for (let j = i + 1; j < chosen.length; j++) {
-      const [p, q] = [chosen[i], chosen[j]];
+  for (const [i, p] of chosen.entries()) {
+    for (const q of chosen.slice(i + 1)) {
       const gp = uf.find(p.id), gq = uf.find(q.id);
       if (gp === gq) continue;
       if (reaches(gp, gq) || reaches(gq, gp)) {

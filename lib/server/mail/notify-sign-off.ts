@@ -41,7 +41,8 @@ export async function notifySubmitted(db: Db, actor: SiteActor, c: Context): Pro
     .from(memberships)
     .where(and(eq(memberships.siteId, c.siteId), eq(memberships.role, "director"), ne(memberships.userId, actor.userId)));
   const to = await emailsOf(db, directors.map((d) => d.id), actor.userId);
-  const [{ count }] = await db.select({ count: sql<number>`count(*)::int` }).from(finds).where(eq(finds.contextId, c.id));
+  const [counted] = await db.select({ count: sql<number>`count(*)::int` }).from(finds).where(eq(finds.contextId, c.id));
+  const count = counted?.count ?? 0;
   const mail = contextSubmittedMail({
     siteCode: actor.site.code,
     contextNumber: c.number,

@@ -16,7 +16,7 @@ export type ContextReopenedMail = {
 export function contextReopenedMail(m: ContextReopenedMail): MailContent {
   const verb = m.from === "signed_off" ? "reopened" : "returned";
   const what = m.from === "signed_off" ? "signed-off context" : "context submitted for sign-off";
-  const first = m.reason.split("\n")[0].trim();
+  const first = (m.reason.split("\n")[0] ?? "").trim();
   const gist = first.length > 60 ? `${first.slice(0, 59).trimEnd()}…` : first;
   return compose(`${m.siteCode}: context ${m.contextNumber} ${verb} — ${gist}`, "Hello,", [
     { p: `${m.reopenedBy} ${verb} the ${what} ${m.contextNumber} (trench ${m.trenchCode}) on ${mailDate(m.at)}, giving this reason:` },

@@ -1,11 +1,11 @@
 /** A message in both forms every mail program can show: plain text and HTML. */
 export type MailContent = { subject: string; text: string; html: string };
 
-const entities: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
+const entities = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" } as const;
 
 /** Escapes text for HTML; every value from a record or a person goes through it. */
 export function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => entities[c]);
+  return value.replace(/[&<>"']/g, (c) => entities[c as keyof typeof entities]);
 }
 
 /** One block of a message: a paragraph, a quoted passage (a reason) or a link to act on. */
