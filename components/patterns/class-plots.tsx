@@ -1,7 +1,8 @@
 "use client";
 
 import type { ClassInScope, RunResult, TestOut } from "@/lib/server/analysis/result-types";
-import { NnHistogram, QuadratChart } from "./bar-plots";
+import { NnHistogram } from "./bar-plots";
+import { QuadratMap } from "./quadrat-map";
 import { CurvePlot } from "./curve-plot";
 
 /** The figures of one test, if it has any. */
@@ -23,6 +24,6 @@ export function TestFigure({ t, result, cls, name }: { t: TestOut; result: RunRe
     case "clark-evans":
       return <NnHistogram t={t} code={code} colour={colour} />;
     case "quadrat":
-      return <QuadratChart t={t} code={code} colour={colour} />;
+      return <QuadratMap t={t} code={code} outline={result.outline} />;
   }
 }

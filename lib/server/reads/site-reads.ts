@@ -16,6 +16,7 @@ import { listMembers, listMySites, siteOverview } from "../sites";
 import { getTrench, listTrenches } from "../trenches";
 import { contextSpotLevels } from "../level-runs";
 import { listSpits } from "../spits";
+import { listTrenchSquares } from "../squares";
 import { trenchDepth } from "../trench-depth";
 import { patternsChoices } from "./patterns-choices";
 import { loadLevelBook } from "./level-book";
@@ -54,6 +55,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     spits: (contextId: string) => listSpits(db, siteId, contextId),
     contextSpotLevels: (contextId: string) => contextSpotLevels(db, siteId, contextId),
     trenchDepth: (trenchId: string) => trenchDepth(db, siteId, trenchId),
+    trenchSquares: (trenchId: string) => listTrenchSquares(db, siteId, trenchId),
     levelBook: () => loadLevelBook(db, siteId),
   };
 }

@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { PlanLoader } from "@/components/plan/plan-loader";
 import { SiteNav } from "@/components/site-nav";
+import { SquaresPanel } from "@/components/squares/squares-panel";
 import { recorders } from "@/lib/api/operation";
 import { isPublicError } from "@/lib/server/errors";
 import { isRole } from "@/lib/server/membership";
@@ -23,6 +24,7 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     read.planFinds(trenchId),
     read.trenchDepth(trenchId),
   ]);
+  const squares = await read.trenchSquares(trenchId);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current="" />
@@ -43,6 +45,16 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
             canEdit={isRole(actor, recorders)}
           />
         </div>
+        <SquaresPanel
+          siteId={siteId}
+          trench={{ id: trench.id, code: trench.code, outline: trench.outline }}
+          initial={JSON.parse(JSON.stringify(squares))}
+          classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label }))}
+          contexts={contexts.map((c) => ({ id: c.id, number: c.number, state: c.state }))}
+          finds={finds.map((f) => ({ x: f.x, y: f.y, classId: f.classId, contextId: f.contextId }))}
+          canEdit={isRole(actor, recorders)}
+          isDirector={actor.role === "director"}
+        />
       </main>
     </>
   );
