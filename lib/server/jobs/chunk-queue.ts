@@ -117,6 +117,8 @@ export async function workChunks(boss: PgBoss, pool: SimulationPool, count: numb
   for (let k = 0; k < count; k++) {
     ids.push(
       await boss.work<SimChunk>(CHUNK_JOB, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]): Promise<ChunkOutput> => {
+        // batchSize 1: pg-boss calls with exactly one job
+        if (!job) throw new Error("The queue called the chunk worker with no chunk.");
         log?.(`chunk ${job.id} taken`);
         try {
           const curves = await pool.runChunk(job.data);
