@@ -215,6 +215,8 @@ export const finds = pgTable(
     classId: uuid("class_id").notNull().references(() => artefactClasses.id, { onDelete: "restrict" }),
     spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
+    /** The total station's own point ID for an imported find (its shot label), kept apart from the find number. */
+    stationPoint: text("station_point"),
     x: doublePrecision("x").notNull(),
     y: doublePrecision("y").notNull(),
     /** Reduced level in metres against the site's datum; null when no level was taken (never 0). */

@@ -47,7 +47,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const classMap = useMemo(() => new Map(classes.map((c) => [c.id, c])), [classes]);
   const { finds, loading, error, record, move, dragRefusal } = usePlanFinds({ siteId, trenchId: trench.id, initialFinds, contexts, savedRings: outline.savedRings, pushUndo: push, say });
   const layers = useFindLayers(finds, bringIntoView);
-  const recording = useRecording({ classMap, record, onRecorded: (row) => { layers.setSelected(new Set([row.id])); setPanel("finds"); } });
+  const recording = useRecording({ classMap, record, onRecorded: (row) => { layers.setSelected(new Set([row.id])); setPanel("finds"); }, trenchCode: trench.code, savedRings: outline.savedRings, say });
   const photoFit = usePhotoFit({ siteId, trenchId: trench.id, initialPhotos, say });
 
   const chooseTool = (t: Tool) => {

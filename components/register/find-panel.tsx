@@ -4,7 +4,7 @@ import Link from "next/link";
 
 /** One register row as the API sends it (lib/server/finds.ts listFinds). */
 export type RegisterRow = {
-  id: string; number: number; x: number; y: number; z: number | null; count: number | null; weightG: number | null; description: string; method: string;
+  id: string; number: number; stationPoint?: string | null; x: number; y: number; z: number | null; count: number | null; weightG: number | null; description: string; method: string;
   recordedAt: string; recordedBy: string | null; trenchId: string; trenchCode: string; contextId: string; contextNumber: number; contextState: string;
   classId: string; classCode: string; classLabel: string; classColour: string; classSymbol: string;
 };
@@ -26,6 +26,7 @@ export function FindPanel({ siteId, find: f, onClose }: { siteId: string; find: 
         <dt className="text-ink-soft">Context</dt><dd className="num">{f.contextNumber} (trench {f.trenchCode})</dd>
         <dt className="text-ink-soft">Count · weight</dt><dd className="num">{f.count ?? "—"} · {f.weightG !== null ? `${f.weightG} g` : "—"}</dd>
         <dt className="text-ink-soft">Recorded</dt><dd>{f.recordedBy ?? "—"}, <span className="num">{f.recordedAt.slice(0, 16).replace("T", " ")}</span> ({f.method})</dd>
+        {f.stationPoint && <><dt className="text-ink-soft">Station point</dt><dd className="num">{f.stationPoint}</dd></>}
       </dl>
       {f.description && <p className="mt-2 whitespace-pre-wrap">{f.description}</p>}
       {locked && <p className="mt-2 font-semibold text-ok">Cannot be edited: {locked}.</p>}

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { importFieldLabels, importFields, importMappingSchema, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
+import { importColumnHints, importFieldLabels, importFields, importMappingSchema, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
 import { FormField } from "@/components/contexts/form-field";
 import { ApiError, apiClient } from "@/lib/api/client";
 import type { ApiAnswer } from "@/lib/api/client";
@@ -72,6 +72,20 @@ export function ImportWizard({ siteId }: { siteId: string }) {
           }}
         />
         <p className="text-xs text-ink-faint">Nothing is imported until every row passes. Row numbers below count the header as row 1, as a spreadsheet shows them.</p>
+        {!file && (
+          <details open className="text-sm" aria-label="Columns the import reads">
+            <summary className="cursor-pointer font-semibold">Columns the import reads</summary>
+            <p className="mt-1">One row per find, with a header row. Starred columns are needed; the rest are kept when present. You can change which column feeds which field once the file is read.</p>
+            <dl className="mt-1 grid gap-x-4 gap-y-1 sm:grid-cols-[14rem_1fr]">
+              {importFields.map((f) => (
+                <div key={f} className="contents">
+                  <dt className="font-semibold">{importFieldLabels[f]}{required.has(f) ? " *" : ""}</dt>
+                  <dd className="text-ink-soft">{importColumnHints[f]}</dd>
+                </div>
+              ))}
+            </dl>
+          </details>
+        )}
       </section>
       <p aria-live="polite" className="font-semibold">{busy ?? ""}</p>
       {done && (

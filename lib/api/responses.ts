@@ -18,6 +18,8 @@ export const contextStates = z.enum(["open", "awaiting", "signed_off"]);
 export const findRecord = z.object({
   id,
   number: z.number(),
+  /** The total station's point ID of an imported find; null for finds placed or typed. */
+  stationPoint: z.string().nullable().optional(),
   trenchId: id,
   contextId: id,
   classId: id,

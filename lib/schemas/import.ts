@@ -1,11 +1,15 @@
 import { z } from "zod";
 
-/** The find fields a total-station column can be mapped to. */
-export const importFields = ["number", "x", "y", "z", "classCode", "contextNumber", "count", "weightG", "description"] as const;
+/**
+ * The find fields a total-station column can be mapped to. The station's point ID is its own field; a
+ * file's column feeds the find number only when mapped to it on purpose, else the server allocates them.
+ */
+export const importFields = ["stationPoint", "x", "y", "z", "classCode", "contextNumber", "count", "weightG", "description", "number"] as const;
 export type ImportField = (typeof importFields)[number];
 
 export const importFieldLabels: Record<ImportField, string> = {
-  number: "Find number",
+  stationPoint: "Station point ID",
+  number: "Find number (only if the file carries them)",
   x: "x (easting, m)",
   y: "y (northing, m)",
   z: "z (level, m)",
@@ -20,6 +24,7 @@ const column = z.string().trim().min(1).max(200);
 
 /** Which header of the file feeds each field; x, y, class and context are needed, the rest optional. */
 export const importMappingSchema = z.object({
+  stationPoint: column.optional(),
   number: column.optional(),
   x: column,
   y: column,
@@ -31,6 +36,20 @@ export const importMappingSchema = z.object({
   description: column.optional(),
 });
 export type ImportMapping = z.infer<typeof importMappingSchema>;
+
+/** What the import page says it reads, before a file is chosen: each field and the headers it recognises. */
+export const importColumnHints: Record<ImportField, string> = {
+  stationPoint: "Pt, Point, Point ID, Station point — kept with the find, never used as its number",
+  x: "x, E, East, Easting",
+  y: "y, N, North, Northing",
+  z: "z, RL, Level, Elevation, Height — a reduced level on the site datum",
+  classCode: "Class, Class code, Code",
+  contextNumber: "Context, Ctx, Context no",
+  count: "Count, Qty",
+  weightG: "Weight, Wt, Grams",
+  description: "Description, Note, Remarks",
+  number: "Find no, Find number, number (as Loamwork exports it) — otherwise numbers are allocated",
+};
 
 /** About 30 MB of CSV: far beyond a day's total-station export (50,000 rows is about 3 MB). */
 export const MAX_IMPORT_CHARS = 30_000_000;

@@ -136,6 +136,7 @@ function registerQuery(db: Db, siteId: string, q: FindFilters) {
     .select({
       id: finds.id,
       number: finds.number,
+      stationPoint: finds.stationPoint,
       x: finds.x,
       y: finds.y,
       z: finds.z,

@@ -90,15 +90,13 @@ for (const size of ["desktop", "tablet"] as const) {
       await page.getByRole("tab", { name: "Finds" }).click();
       for (const n of recorded) await shown(page.getByRole("button", { name: new RegExp(`#${n}\\b`) }));
 
-      // 5. A find tapped outside the outline is refused, with the distance, on screen.
+      // 5. A find tapped outside the outline is refused at the tap, with the distance, before any form opens.
       await page.getByRole("button", { name: /Place find/ }).click();
       await tapPlan(page, touch, 8.3, 3);
-      await page.getByLabel("Class").selectOption({ index: 1 });
-      await page.getByLabel("Context").selectOption({ label: `${t.contextNumber} · deposit` });
-      await page.getByRole("button", { name: "Record find", exact: true }).click();
       const refusal = page.getByRole("alert").filter({ hasText: "outside its trench" });
       await shown(refusal);
       expect(await refusal.textContent()).toMatch(/0\.3\d\d m outside the outline of trench/);
+      expect(await page.getByRole("button", { name: "Record find", exact: true }).count()).toBe(0);
       const after = (await (await page.request.get(`/api/sites/${t.siteId}/finds?trenchId=${t.trenchId}`)).json()) as { total: number };
       expect(after.total).toBe(3);
       await page.screenshot({ path: `test-results/plan-${size}.png` });

@@ -28,13 +28,13 @@ export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string 
  */
 export const findCsvColumns: readonly CsvColumn[] = [
   ["number", "number"], ["trench", "text"], ["context", "number"], ["class", "text"], ["x", "number"], ["y", "number"], ["z_rl_m", "number"],
-  ["count", "number"], ["weight_g", "number"], ["description", "text"], ["method", "text"], ["recorded_by", "text"], ["recorded_at", "text"],
+  ["count", "number"], ["weight_g", "number"], ["description", "text"], ["method", "text"], ["recorded_by", "text"], ["recorded_at", "text"], ["station_point", "text"],
 ];
 
 export function findsCsv(rows: RegisterRow[]): string {
   return toCsv(
     findCsvColumns,
-    rows.map((f) => [f.number, f.trenchCode, f.contextNumber, f.classCode, f.x, f.y, f.z, f.count, f.weightG, f.description, f.method, f.recordedBy ?? "", f.recordedAt.toISOString()]),
+    rows.map((f) => [f.number, f.trenchCode, f.contextNumber, f.classCode, f.x, f.y, f.z, f.count, f.weightG, f.description, f.method, f.recordedBy ?? "", f.recordedAt.toISOString(), f.stationPoint ?? ""]),
   );
 }
 

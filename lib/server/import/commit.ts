@@ -94,18 +94,18 @@ async function numberRows(tx: Tx, siteId: string, rows: ValidRow[]): Promise<num
  */
 async function insertBatch(tx: Tx, actor: SiteActor, importId: string, rows: ValidRow[], numbers: number[]): Promise<void> {
   const records = rows.map((r, k) => ({
-    id: randomUUID(), site_id: actor.site.id, trench_id: r.trenchId, context_id: r.contextId, class_id: r.classId, number: numbers[k],
+    id: randomUUID(), site_id: actor.site.id, trench_id: r.trenchId, context_id: r.contextId, class_id: r.classId, number: numbers[k], station_point: r.stationPoint,
     x: r.x, y: r.y, z: r.z, count: r.count, weight_g: r.weightG, description: r.description, recorded_by: actor.userId,
   }));
   await tx.execute(sql`
-    insert into finds (id, site_id, trench_id, context_id, class_id, number, x, y, z, count, weight_g, description, method, recorded_by)
-    select id, site_id, trench_id, context_id, class_id, number, x, y, z, count, weight_g, description, 'imported', recorded_by
+    insert into finds (id, site_id, trench_id, context_id, class_id, number, station_point, x, y, z, count, weight_g, description, method, recorded_by)
+    select id, site_id, trench_id, context_id, class_id, number, station_point, x, y, z, count, weight_g, description, 'imported', recorded_by
     from jsonb_to_recordset(${JSON.stringify(records)}::jsonb) as r(id uuid, site_id uuid, trench_id uuid, context_id uuid, class_id uuid,
-      number integer, x double precision, y double precision, z double precision, count integer, weight_g double precision, description text, recorded_by uuid)`);
+      number integer, station_point text, x double precision, y double precision, z double precision, count integer, weight_g double precision, description text, recorded_by uuid)`);
   await tx.execute(sql`
     insert into audit_entries (site_id, actor_id, action, record_type, record_id, after)
     select f.site_id, ${actor.userId}::uuid, 'import', 'find', f.id::text, jsonb_build_object(
-      'id', f.id, 'siteId', f.site_id, 'trenchId', f.trench_id, 'contextId', f.context_id, 'classId', f.class_id, 'number', f.number,
+      'id', f.id, 'siteId', f.site_id, 'trenchId', f.trench_id, 'contextId', f.context_id, 'classId', f.class_id, 'number', f.number, 'stationPoint', f.station_point,
       'x', f.x, 'y', f.y, 'z', f.z, 'count', f.count, 'weightG', f.weight_g, 'description', f.description, 'method', f.method,
       'recordedBy', f.recorded_by, 'recordedAt', f.recorded_at, 'importId', ${importId}::text)
     from finds f where f.id in (select (e->>'id')::uuid from jsonb_array_elements(${JSON.stringify(records.map((r) => ({ id: r.id })))}::jsonb) as e)`);

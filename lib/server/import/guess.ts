@@ -2,7 +2,10 @@ import type { ImportField, ImportMapping } from "@/lib/schemas/import";
 
 /** Header spellings Loamwork recognises for each field, tried in order (its own export's names first). */
 const patterns: [ImportField, RegExp][] = [
-  ["number", /^(number|find|find[ _-]?(no|number|id)|no|pt|pt[ _-]?(id|no)|point[ _-]?(id|no)?|id)$/i],
+  // A station's point ID is not a find number: it is kept in its own field, and only a column that says it
+  // holds find numbers is taken for them.
+  ["stationPoint", /^(pt|pt[ _-]?(id|no|name)|point|point[ _-]?(id|no|name|number)|station[ _-]?point|shot|id|name)$/i],
+  ["number", /^(number|find|find[ _-]?(no|number)|small[ _-]?find([ _-]?(no|number))?)$/i],
   ["x", /^(x|east|easting|e)$/i],
   ["y", /^(y|north|northing|n)$/i],
   // A depth below a surface is not a reduced level: it is never taken for z without being mapped on purpose.

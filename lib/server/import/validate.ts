@@ -7,6 +7,7 @@ import type { ParsedCsv } from "./parse";
 export type ValidRow = {
   row: number;
   number: number | null;
+  stationPoint: string | null;
   contextId: string;
   trenchId: string;
   classId: string;
@@ -97,6 +98,8 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
         reasons.push(`(${x}, ${y}) lies ${t.window.boundaryDistance(x, y).toFixed(3)} m outside trench ${t.code}`);
       }
     }
+    const stationPoint = cell(r, "stationPoint") || null;
+    if (stationPoint && stationPoint.length > 60) reasons.push(`station point ID "${stationPoint.slice(0, 20)}…" is longer than 60 characters`);
     let number: number | null = null;
     const numRaw = cell(r, "number");
     if (numRaw) {
@@ -117,7 +120,7 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     }
     contextIds.add(ctx!.id);
     const f = checked.data;
-    valid.push({ row, number, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: f.x, y: f.y, z: f.z ?? null, count: f.count ?? null, weightG: f.weightG ?? null, description: f.description });
+    valid.push({ row, number, stationPoint, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: f.x, y: f.y, z: f.z ?? null, count: f.count ?? null, weightG: f.weightG ?? null, description: f.description });
   });
   return { ...refuseBeyondLastNumber(valid, errors, lk.nextNumber), contextIds };
 }

@@ -34,6 +34,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
         <div className="flex flex-wrap items-baseline gap-3">
           <h1 className="text-3xl font-bold">Find <span className="num">{f.number}</span></h1>
           <span className="text-xl text-ink-soft">{face?.code} · {face?.label}</span>
+          {f.stationPoint && <span className="text-ink-soft">station point <span className="num">{f.stationPoint}</span></span>}
           <Link className="btn ml-auto" href={`/sites/${siteId}/trenches/${f.trenchId}?find=${f.id}`}>See it on the plan</Link>
           <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>Context {ctx.number}</Link>
         </div>

@@ -1,0 +1,1 @@
+ALTER TABLE "finds" ADD COLUMN "station_point" text;
