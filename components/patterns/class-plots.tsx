@@ -18,6 +18,7 @@ export function TestFigure({ t, result, cls, name }: { t: TestOut; result: RunRe
     case "pcf-envelope":
       return <CurvePlot title={`Pair correlation g(r), ${code}`} name={`pcf-${code}`} curve={t.curve} yLabel="g(r)" theoLabel="CSR (1)" colour={colour} caption={`${band} g > 1: pairs at that distance more common than under CSR.`} />;
     case "cross-l":
+      if (t.fun === "K") return <CurvePlot title={`Cross-K(r), ${name(t.a)} → ${name(t.b)}`} name={`cross-k-${name(t.a)}-${name(t.b)}-${t.null}`} curve={t.curve} yLabel="K_AB(r) (m²)" theoLabel={t.null === "random-labelling" ? "Mean under random labelling" : "CSR for B (πr²)"} colour={colour} departures={t.departures} caption={band} />;
       return <CurvePlot title={`Cross-L(r) − r, ${name(t.a)} → ${name(t.b)}`} name={`cross-l-${name(t.a)}-${name(t.b)}-${t.null}`} curve={t.curve} yLabel="L_AB(r) − r (m)" theoLabel={t.null === "random-labelling" ? "Mean under random labelling" : "CSR for B (0)"} colour={colour} departures={t.departures} caption={band} />;
     case "k-difference":
       return <CurvePlot title={`K difference K_${name(t.a)} − K_${name(t.b)}`} name={`k-difference-${name(t.a)}-${name(t.b)}`} curve={t.curve} yLabel="K_AA − K_BB (m²)" theoLabel="Mean under random labelling" colour={colour} departures={t.departures} caption={band} />;

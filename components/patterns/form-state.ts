@@ -9,7 +9,7 @@ export type FormState = {
   quadrat: { on: boolean; cellSize: string };
   lcsr: { on: boolean; statistic: "mad" | "dclf"; count: "fixed" | "poisson" };
   pcf: { on: boolean };
-  cross: { on: boolean; a: string; b: string; null: "random-labelling" | "a-fixed" };
+  cross: { on: boolean; a: string; b: string; null: "random-labelling" | "a-fixed"; fun: "L" | "K" };
   kdiff: { on: boolean; a: string; b: string };
   inhom: { on: boolean; classId: string; reference: string };
   correction: "isotropic" | "translation" | "border";
@@ -28,7 +28,7 @@ export function initialForm(trenchId: string): FormState {
     quadrat: { on: false, cellSize: "1" },
     lcsr: { on: true, statistic: "mad", count: "fixed" },
     pcf: { on: false },
-    cross: { on: false, a: "", b: "", null: "random-labelling" },
+    cross: { on: false, a: "", b: "", null: "random-labelling", fun: "L" },
     kdiff: { on: false, a: "", b: "" },
     inhom: { on: false, classId: "", reference: "all" },
     correction: "isotropic",
@@ -46,7 +46,7 @@ export function toRequest(f: FormState): RunCreateInput {
   if (f.quadrat.on) tests.push({ kind: "quadrat", cellSize: Number(f.quadrat.cellSize) });
   if (f.lcsr.on) tests.push({ kind: "l-envelope", statistic: f.lcsr.statistic, count: f.lcsr.count });
   if (f.pcf.on) tests.push({ kind: "pcf-envelope" });
-  if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null });
+  if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null, ...(f.cross.fun === "K" && { fun: "K" as const }) });
   if (f.kdiff.on) tests.push({ kind: "k-difference", a: f.kdiff.a, b: f.kdiff.b });
   if (f.inhom.on) tests.push({ kind: "inhomogeneous-l", classId: f.inhom.classId, reference: f.inhom.reference });
   return {
@@ -73,7 +73,7 @@ export function formFromRun(run: { scope: { trenchId: string; contextIds: string
     if (t.kind === "quadrat") f.quadrat = { on: true, cellSize: String(t.cellSize) };
     if (t.kind === "l-envelope") f.lcsr = { on: true, statistic: t.statistic, count: t.count };
     if (t.kind === "pcf-envelope") f.pcf = { on: true };
-    if (t.kind === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null };
+    if (t.kind === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null, fun: t.fun === "K" ? "K" : "L" };
     if (t.kind === "k-difference") f.kdiff = { on: true, a: t.a, b: t.b };
     if (t.kind === "inhomogeneous-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
   }

@@ -61,6 +61,7 @@ export function TestPicker({ form, set, summary }: Props) {
         <Pick label="Class A" value={form.cross.a} options={classOpts} onChange={(a) => set({ cross: { ...form.cross, a } })} />
         <Pick label="Class B" value={form.cross.b} options={classOpts} onChange={(b) => set({ cross: { ...form.cross, b } })} />
         <Pick label="Null hypothesis" value={form.cross.null} options={[["random-labelling", "Random labelling (same spread?)"], ["a-fixed", "A fixed, B at random (B near A?)"]]} onChange={(n) => set({ cross: { ...form.cross, null: n } })} />
+        <Pick label="Function tested" value={form.cross.fun} options={[["L", "Besag's cross-L"], ["K", "Ripley's cross-K"]]} onChange={(fun) => set({ cross: { ...form.cross, fun } })} />
       </Row>
       <Row title="K difference (segregation)" source="Diggle & Chetwynd 1991" on={form.kdiff.on} onToggle={(on) => set({ kdiff: { on, a: form.kdiff.a || chosen[0]?.id || "", b: form.kdiff.b || chosen[1]?.id || "" } })} shortfall={short("k-difference", [form.kdiff.a, form.kdiff.b])}>
         <Pick label="Class A" value={form.kdiff.a} options={classOpts} onChange={(a) => set({ kdiff: { ...form.kdiff, a } })} />

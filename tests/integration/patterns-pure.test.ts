@@ -74,4 +74,14 @@ describe("putting a saved run back in the form", () => {
     expect(req.params).toEqual({ correction: "translation", rmax: 1.75, nsim: 499, level: 0.01, seed: 77 });
     expect([...req.tests].sort((a, b) => a.kind.localeCompare(b.kind))).toEqual([...tests].sort((a, b) => a.kind.localeCompare(b.kind)));
   });
+
+  it("keeps a cross-K test cross-K, and asks for cross-L without naming it", async () => {
+    const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
+    const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
+    const run = (fun?: "K") => ({ scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] }, seed: 5, params: { correction: "isotropic" as const, rmax: 1, nsim: 99, level: 0.05, tests: [{ kind: "cross-l" as const, a: id(3), b: id(4), null: "random-labelling" as const, ...(fun && { fun }) }] } });
+    expect(formFromRun(run("K")).cross.fun).toBe("K");
+    expect(toRequest(formFromRun(run("K"))).tests).toEqual(run("K").params.tests);
+    expect(formFromRun(run()).cross.fun).toBe("L");
+    expect(toRequest(formFromRun(run())).tests).toEqual(run().params.tests);
+  });
 });

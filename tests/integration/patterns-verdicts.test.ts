@@ -102,6 +102,27 @@ describe("FLK and CHP: which null detects that they go together", () => {
     expect(t.question).toContain("rightly finds nothing");
   });
 
+  it("cross-K instead of cross-L (one class fixed): the test runs on K, drawn as K itself, with the same seed's verdict", async () => {
+    const body = (fun?: "K") => ({
+      scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.CHP] },
+      tests: [{ kind: "cross-l", a: demo.cls.FLK, b: demo.cls.CHP, null: "a-fixed", ...(fun && { fun }) }],
+      params: { nsim: 199, seed: 11 },
+    });
+    const [l, k] = [(await runToEnd(body())).result!.tests[0], (await runToEnd(body("K"))).result!.tests[0]];
+    if (k.kind !== "cross-l" || l.kind !== "cross-l") throw new Error("wrong kind");
+    expect(k.fun).toBe("K");
+    expect(l.fun).toBeUndefined();
+    expect(k.sentence).toMatch(/cross-K/i);
+    expect(k.verdict).toBe("associated");
+    // K_AB is drawn as it is: under CSR for B its reference is πr² (not 0, as L − r's is)
+    const at = k.curve.r.length - 1;
+    expect(k.curve.theo![at]).toBeCloseTo(Math.PI * k.curve.r[at] ** 2, 6);
+    expect(l.curve.theo![at]).toBeCloseTo(0, 9);
+    // K = π·L² column by column (Besag 1977): the same observed pattern under both
+    const L = l.curve.obs[at]! + l.curve.r[at];
+    expect(k.curve.obs[at]).toBeCloseTo(Math.PI * L * L, 4);
+  });
+
   it("random labelling over all four classes of 1005: associated (the pool includes FCR and SHD locations)", async () => {
     const t = await cross(["FLK", "CHP", "FCR", "SHD"], "random-labelling");
     expect(t.verdict).toBe("associated");

@@ -56,7 +56,7 @@ export function buildEngineSpec(input: BuildInput): { spec: RunSpecInput; entrie
         for (const c of classes) push({ type: "pcf-envelope", class: c.code, count: "fixed", statistic: "dclf" }, { test: t, classId: c.id });
         break;
       case "cross-l":
-        push({ type: "cross-l", a: code.get(t.a)!, b: code.get(t.b)!, null: t.null, count: "fixed", correction: pairCorrection, statistic: "dclf" }, { test: t });
+        push({ type: "cross-l", a: code.get(t.a)!, b: code.get(t.b)!, null: t.null, count: "fixed", correction: pairCorrection, statistic: "dclf", ...(t.fun === "K" && { fun: "K" as const }) }, { test: t });
         break;
       case "k-difference":
         push({ type: "k-difference", a: code.get(t.a)!, b: code.get(t.b)!, correction: pairCorrection, statistic: "dclf" }, { test: t });

@@ -95,9 +95,11 @@ export function adaptResult(input: AdaptInput): RunResult {
         return { ...base, kind: "pcf-envelope", classId, n, curve: curveOf(t, false).curve, bandwidth: num(d.bandwidth) ?? 0 };
       case "cross-l":
       case "k-difference": {
-        const { curve, departures } = curveOf(t, entry.test.kind === "cross-l");
+        // cross-K is drawn as it is (πr² under CSR); L curves as L(r) − r
+        const funK = entry.test.kind === "cross-l" && entry.test.fun === "K";
+        const { curve, departures } = curveOf(t, entry.test.kind === "cross-l" && !funK);
         const { a, b } = entry.test;
-        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling", curve, departures };
+        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling", ...(funK && { fun: "K" as const }), curve, departures };
       }
       case "inhomogeneous-l": {
         const { curve, departures } = curveOf(t, true);

@@ -48,6 +48,8 @@ export type LOut = Base & {
 export type PcfOut = Base & { kind: "pcf-envelope"; classId: string; n: number; curve: Curve; bandwidth: number };
 export type CrossOut = Base & {
   kind: "cross-l" | "k-difference"; a: string; b: string; nA: number; nB: number; null: "random-labelling" | "a-fixed";
+  /** "K": the test ran on cross-K and the curve is K_AB(r) itself; absent: cross-L, drawn as L_AB(r) − r. */
+  fun?: "K";
   curve: Curve; departures: Departure[];
 };
 export type InhomOut = Base & { kind: "inhomogeneous-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };

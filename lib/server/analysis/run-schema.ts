@@ -34,6 +34,11 @@ export const testSchema = z.discriminatedUnion("kind", [
     b: id,
     /** random-labelling: do A and B share locations more than labels shuffled among them? a-fixed: are B nearer A than CSR points? */
     null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"),
+    /**
+     * The function the envelope test runs on: Besag's cross-L (absent or "L") or Ripley's cross-K, as
+     * spatstat's envelope of Kcross. No default written in, so runs asked for before it existed read the same.
+     */
+    fun: z.enum(["L", "K"]).optional(),
   }),
   z.strictObject({ kind: z.literal("k-difference"), a: id, b: id }),
   z.strictObject({ kind: z.literal("inhomogeneous-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
