@@ -435,3 +435,29 @@ export const squareCounts = pgTable(
 
 export type SquareSample = typeof squareSamples.$inferSelect;
 export type SquareCount = typeof squareCounts.$inferSelect;
+
+/**
+ * A section of finds drawn on a trench plan (field.md, "Sections of finds"): a line from start to end, the
+ * band either side of it whose finds are projected onto its vertical plane, and the vertical exaggeration
+ * the figure is drawn at. Every coordinate is on the site grid in metres.
+ */
+export const findSections = pgTable(
+  "find_sections",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    startX: doublePrecision("start_x").notNull(),
+    startY: doublePrecision("start_y").notNull(),
+    endX: doublePrecision("end_x").notNull(),
+    endY: doublePrecision("end_y").notNull(),
+    halfWidth: doublePrecision("half_width").notNull(),
+    exaggeration: doublePrecision("exaggeration").notNull(),
+    createdBy: uuid("created_by").references(() => users.id),
+    createdAt: created(),
+  },
+  (t) => [uniqueIndex("find_sections_trench_name").on(t.trenchId, t.name)],
+);
+
+export type FindSection = typeof findSections.$inferSelect;

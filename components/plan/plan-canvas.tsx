@@ -13,7 +13,7 @@ import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type 
 import { ViewCache } from "./view-cache";
 import type { ViewStore } from "./view-store";
 
-export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "extent" | "fit";
+export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "extent" | "fit" | "section";
 
 /** Tools that draw a ring corner by corner (the trench edge, a hole, a context's extent). */
 export const drawsRing = (t: Tool): boolean => t === "draw" || t === "hole" || t === "extent";

@@ -19,6 +19,8 @@ import { usePlanKeys } from "./use-plan-keys";
 import { usePlanView } from "./use-plan-view";
 import { useRecording } from "./use-recording";
 import { useUndo } from "./use-undo";
+import { sectionDraft } from "@/components/sections/section-draft";
+import { SectionOverlay } from "@/components/sections/section-overlay";
 
 export type PlanScreenProps = {
   siteId: string;
@@ -81,6 +83,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
       if (apart !== null && apart <= 22) return tool === "extent" ? void extents.save(drawing) : closeRing();
       setDrawing([...drawing, t.world]);
     } else if (tool === "fit") photoFit.placePoint(snapToGrid(t.world));
+    else if (tool === "section") sectionDraft.tap(t.world);
   };
 
   usePlanKeys({
@@ -117,6 +120,7 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
               onRefusedDrag={(reason) => say("warn", reason)} onPointer={setPointer}
             />
           )}
+          {hasView && <SectionOverlay viewStore={viewStore} />}
           {hasView && <PlanOverlay viewStore={viewStore} pointerRef={pointerRef} />}
           {message && <PlanMessage message={message} onDismiss={() => setMessage(null)} />}
           {loading && <p className="absolute left-3 top-3 rounded bg-paper px-2 py-1" role="status">Loading finds…</p>}

@@ -10,6 +10,7 @@ const tools: { id: Tool; label: string; key: string; hint: string }[] = [
   { id: "hole", label: "Add hole", key: "H", hint: "Tap each corner of a baulk or unexcavated block; tap the first to close." },
   { id: "extent", label: "Draw extent", key: "E", hint: "Pick the context in the Extent panel, tap each corner of its extent; tap the first to close and save." },
   { id: "fit", label: "Fit photo", key: "P", hint: "Tap a peg on the photo, then type or tap its grid position." },
+  { id: "section", label: "Section line", key: "S", hint: "Tap the section line's start, then its end; its band and figure are below the plan." },
 ];
 
 export function toolHint(tool: Tool) {
@@ -34,7 +35,7 @@ export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUnd
           type="button"
           className={`btn px-3 ${tool === t.id ? "border-ink bg-ink text-paper hover:bg-ink" : ""}`}
           aria-pressed={tool === t.id}
-          disabled={!canEdit && t.id !== "look"}
+          disabled={!canEdit && t.id !== "look" && t.id !== "section"}
           onClick={() => onTool(t.id)}
           title={`${t.hint} (${t.key})`}
         >
@@ -61,6 +62,7 @@ export const shortcuts: [string, string][] = [
   ["H", "Add a hole (baulk, intrusion)"],
   ["E", "Draw a context's extent"],
   ["P", "Fit the photo to the grid"],
+  ["S", "Draw a section line (its figure is below the plan)"],
   ["Z", "Zoom to the trench"],
   ["+ / −", "Zoom in / out"],
   ["Arrow keys", "Pan the plan"],

@@ -23,7 +23,7 @@ export type PlanKeyActions = {
   escape: () => void;
 };
 
-const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", e: "extent", p: "fit" };
+const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", e: "extent", p: "fit", s: "section" };
 const panStep = 60;
 
 /** The plan's keyboard shortcuts (the Shortcuts panel lists them); keys typed into a field are left alone. */
@@ -36,7 +36,7 @@ export function usePlanKeys(actions: PlanKeyActions) {
       if ((e.ctrlKey || e.metaKey) && k.toLowerCase() === "z") return (e.preventDefault(), void actions.undo());
       if (e.ctrlKey || e.metaKey || e.altKey) return;
       const tool = toolKeys[k.toLowerCase()];
-      if (tool && (actions.canEdit || k.toLowerCase() === "v")) return actions.chooseTool(tool);
+      if (tool && (actions.canEdit || tool === "look" || tool === "section")) return actions.chooseTool(tool);
       if (!actions.hasView()) return;
       if (k === "z" || k === "Z") actions.zoomToTrench();
       else if (k === "+" || k === "=") actions.zoomBy(1.5);

@@ -142,6 +142,7 @@ const outsideTheLock: Record<string, string> = {
   runsCreate: "reads records, writes an analysis run",
   runCancel: "analysis run only",
   datumUpdate: "the site's datum name and tolerance; no level changes",
+  sectionsCreate: "a drawing of finds already recorded; changes no find or context", sectionDelete: "a drawing only; no find or context changes",
   benchmarksCreate: "a new benchmark", benchmarkUpdate: "a benchmark's level is fixed once a run used it", benchmarkDelete: "refused once a run used it",
 };
 

@@ -15,6 +15,7 @@ import { listSignOffQueue, sheetProblems } from "../sign-off";
 import { listMembers, listMySites, siteOverview } from "../sites";
 import { getTrench, listTrenches } from "../trenches";
 import { contextSpotLevels } from "../level-runs";
+import { drawTrenchSections, listSections, sectionFinds, trenchContextLevels } from "../sections";
 import { listSpits } from "../spits";
 import { listTrenchSquares } from "../squares";
 import { trenchDepth } from "../trench-depth";
@@ -57,6 +58,10 @@ export function siteReads(db: Db, actor: SiteActor) {
     trenchDepth: (trenchId: string) => trenchDepth(db, siteId, trenchId),
     trenchSquares: (trenchId: string) => listTrenchSquares(db, siteId, trenchId),
     levelBook: () => loadLevelBook(db, siteId),
+    sections: (trenchId: string) => listSections(db, siteId, trenchId),
+    sectionFinds: (trenchId: string) => sectionFinds(db, siteId, trenchId),
+    trenchContextLevels: (trenchId: string) => trenchContextLevels(db, siteId, trenchId),
+    trenchSections: (trench: Trench) => drawTrenchSections(db, actor.site, trench),
   };
 }
 

@@ -8,6 +8,14 @@ import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkI
 import * as runsRoute from "@/app/api/sites/[siteId]/level-runs/route";
 import * as spitsRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
+import * as sectionsRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sections/route";
+import * as sectionRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sections/[sectionId]/route";
+
+export async function makeSection(fx: SiteFixture) {
+  const db = await getDb();
+  const [s] = await db.insert(schema.findSections).values({ siteId: fx.site.id, trenchId: fx.trench.id, name: `S${nextCount()}`, startX: 0, startY: 0, endX: 4, endY: 0, halfWidth: 0.5, exaggeration: 2 }).returning();
+  return s!;
+}
 
 export async function makeBenchmark(fx: SiteFixture, level = 50) {
   const db = await getDb();
@@ -21,8 +29,13 @@ export async function makeSpit(fx: SiteFixture) {
   return s!;
 }
 
-/** Mutating operations of levels: datum, benchmarks, levelling runs and spits. */
+/** Mutating operations of levels: datum, benchmarks, levelling runs, spits and sections of finds. */
 export const levelsCases: RoleCases = {
+  sectionsCreate: async (fx) => ({ mod: sectionsRoute, params: { siteId: fx.site.id, trenchId: fx.trench.id }, body: { name: `S${nextCount()}`, startX: 0, startY: 0, endX: 5, endY: 1, halfWidth: 0.4, exaggeration: 2 } }),
+  sectionDelete: async (fx) => {
+    const s = await makeSection(fx);
+    return { mod: sectionRoute, params: { siteId: fx.site.id, trenchId: fx.trench.id, sectionId: s.id } };
+  },
   datumUpdate: async (fx) => ({ mod: datumRoute, params: { siteId: fx.site.id }, body: { datumKind: "national", datumName: "National datum", levelTolerance: 0.004 } }),
   benchmarksCreate: async (fx) => ({ mod: benchmarksRoute, params: { siteId: fx.site.id }, body: { code: `TBM ${nextCount()}`, description: "nail", x: 1, y: 2, level: 49.5 } }),
   benchmarkUpdate: async (fx) => {

@@ -22,7 +22,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [r, remains, depth] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId), read.trenchDepth(trenchId)]);
+  const [r, remains, depth, sections] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId), read.trenchDepth(trenchId), read.trenchSections(trench)]);
   const signedCount = r.sheets.filter((s) => s.state === "signed_off").length;
   const matches = r.stampedFingerprint === r.fingerprint;
   return (
@@ -96,6 +96,18 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
           <p className="text-sm text-ink-soft">Contexts of this trench, latest at the top; dashed lines are relations implied by others.</p>
           {r.matrixSvg ? <div className="report-matrix mt-2 overflow-x-auto" dangerouslySetInnerHTML={{ __html: r.matrixSvg }} /> : <p>No contexts.</p>}
         </section>
+
+        {sections.length > 0 && (
+          <section className="report-section" aria-labelledby="sections-h">
+            <h2 id="sections-h" className="text-2xl font-bold">Sections of finds</h2>
+            {sections.map((s) => (
+              <figure key={s.id} className="report-sheet report-matrix mt-3" aria-label={`Section ${s.name}`}>
+                <div className="overflow-x-auto" dangerouslySetInnerHTML={{ __html: s.svg }} />
+                <figcaption className="text-sm"><span className="num">{s.drawn}</span> finds drawn{s.withoutLevel > 0 && <>; <span className="num">{s.withoutLevel}</span> in the band without a level</>}.</figcaption>
+              </figure>
+            ))}
+          </section>
+        )}
 
         <section className="report-section" aria-labelledby="finds-h">
           <h2 id="finds-h" className="text-2xl font-bold">Finds register</h2>

@@ -1,6 +1,7 @@
 import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { PlanLoader } from "@/components/plan/plan-loader";
+import { SectionWorkbench } from "@/components/sections/section-workbench";
 import { SiteNav } from "@/components/site-nav";
 import { SquaresPanel } from "@/components/squares/squares-panel";
 import { recorders } from "@/lib/api/operation";
@@ -16,13 +17,16 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [contexts, classes, photos, remains, finds, depth] = await Promise.all([
+  const [contexts, classes, photos, remains, finds, depth, sections, sectionFinds, contextLevels] = await Promise.all([
     read.contexts(trenchId),
     read.classes(),
     read.photos(trenchId),
     read.humanRemains(trenchId),
     read.planFinds(trenchId),
     read.trenchDepth(trenchId),
+    read.sections(trenchId),
+    read.sectionFinds(trenchId),
+    read.trenchContextLevels(trenchId),
   ]);
   const squares = await read.trenchSquares(trenchId);
   return (
@@ -55,6 +59,8 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
           canEdit={isRole(actor, recorders)}
           isDirector={actor.role === "director"}
         />
+        <SectionWorkbench siteId={siteId} trench={{ id: trench.id, code: trench.code }} datumName={actor.site.datumName} finds={sectionFinds} contextLevels={contextLevels}
+          sections={sections.map((s) => ({ id: s.id, name: s.name, startX: s.startX, startY: s.startY, endX: s.endX, endY: s.endY, halfWidth: s.halfWidth, exaggeration: s.exaggeration }))} />
       </main>
     </>
   );
