@@ -7,6 +7,7 @@ export function siteSections(siteId: string) {
   return [
     { href: base, label: "Overview" },
     { href: `${base}/finds`, label: "Finds register" },
+    { href: `${base}/samples`, label: "Samples" },
     { href: `${base}/contexts`, label: "Context sheets" },
     { href: `${base}/levels`, label: "Level book" },
     { href: `${base}/patterns`, label: "Patterns" },

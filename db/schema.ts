@@ -33,6 +33,10 @@ export const digMethodEnum = pgEnum("dig_method", ["trowel", "mattock", "machine
 /** What a staff reading in a level book was taken on. */
 export const levelTargetEnum = pgEnum("level_target", ["benchmark", "change_point", "find", "context_top", "context_base", "spit_top", "spit_base", "ground", "other"]);
 export const runStatusEnum = pgEnum("run_status", ["queued", "running", "done", "failed", "cancelled"]);
+/** The trade's kinds of sample (lib/schemas/sample.ts names each on screen). */
+export const sampleTypeEnum = pgEnum("sample_type", ["bulk", "spot", "charcoal", "monolith", "micromorphology", "pollen", "luminescence", "other"]);
+/** Where a sample stands after it left the ground. */
+export const sampleStatusEnum = pgEnum("sample_status", ["taken", "processing", "processed", "sent", "discarded"]);
 
 const created = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
 const updated = () => timestamp("updated_at", { withTimezone: true }).notNull().defaultNow();
@@ -73,6 +77,12 @@ export const sites = pgTable("sites", {
   datumName: text("datum_name").notNull().default("Site datum"),
   /** Largest acceptable misclosure of a closed levelling run, metres (common practice: a few millimetres). */
   levelTolerance: doublePrecision("level_tolerance").notNull().default(0.005),
+  /** Samples take their numbers from the finds' sequence (true) or from their own (false); fixed once a sample exists. */
+  samplesShareFindNumbers: boolean("samples_share_find_numbers").notNull().default(false),
+  /** Next sample number when samples have their own sequence; bumped under the site row's lock like finds. */
+  nextSampleNumber: integer("next_sample_number").notNull().default(1),
+  /** Address printed in front of label codes (https://…), so any phone camera opens the record; empty = code only. */
+  labelAddress: text("label_address"),
   createdAt: created(),
 });
 
@@ -341,6 +351,36 @@ export const spits = pgTable(
   },
   (t) => [uniqueIndex("spits_context_number").on(t.contextId, t.number)],
 );
+
+/** Samples taken from a context (bulk soil for flotation, charcoal for dating, a monolith …), locked with it. */
+export const samples = pgTable(
+  "samples",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
+    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
+    number: integer("number").notNull(),
+    type: sampleTypeEnum("type").notNull(),
+    /** Where it was taken, site-grid metres; null for a sample not plotted as a point. */
+    x: doublePrecision("x"),
+    y: doublePrecision("y"),
+    /** Reduced level where it was taken, metres against the site's datum. */
+    z: doublePrecision("z"),
+    volumeL: doublePrecision("volume_l"),
+    purpose: text("purpose").notNull().default(""),
+    takenBy: uuid("taken_by").references(() => users.id),
+    takenOn: date("taken_on").notNull(),
+    status: sampleStatusEnum("status").notNull().default("taken"),
+    recordedBy: uuid("recorded_by").references(() => users.id),
+    createdAt: created(),
+    updatedAt: updated(),
+  },
+  (t) => [uniqueIndex("samples_site_number").on(t.siteId, t.number), index("samples_context").on(t.contextId)],
+);
+
+export type Sample = typeof samples.$inferSelect;
 
 export type LevelBookLine = {
   station: string;

@@ -30,6 +30,15 @@ const siteFields = {
     .transform((v) => (v === "" ? null : v))
     .nullish()
     .refine((v) => !v || isProjectedDefinition(v), "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m)."),
+  samplesShareFindNumbers: z.boolean({ error: "Say whether samples share the finds' numbers (true or false)." }),
+  /** Printed in front of label codes so any phone camera opens the record; blank = the code alone. */
+  labelAddress: z
+    .string()
+    .trim()
+    .max(200, "The address is at most 200 characters.")
+    .transform((v) => (v === "" ? null : v.replace(/\/+$/, "")))
+    .nullish()
+    .refine((v) => !v || /^https?:\/\/[^\s/?#]+(\/[^\s?#]*)?$/i.test(v), "Give the address Loamwork is reached at, e.g. https://loamwork.example.org (no query or #)."),
 };
 
 export const siteCreateSchema = z.object({
@@ -37,6 +46,7 @@ export const siteCreateSchema = z.object({
   gridDescription: siteFields.gridDescription.default(""),
   gridOriginX: siteFields.gridOriginX.default(0),
   gridOriginY: siteFields.gridOriginY.default(0),
+  samplesShareFindNumbers: siteFields.samplesShareFindNumbers.default(false),
 });
 
 /** No defaults here: a field left out stays as it is. The code never changes. */

@@ -6,7 +6,7 @@ export type AuditInput = {
   siteId: string;
   actorId: string | null;
   action: string;
-  recordType: "site" | "member" | "trench" | "context" | "relation" | "find" | "class" | "photo" | "run" | "import" | "datum" | "benchmark" | "level_run" | "spit" | "square" | "section";
+  recordType: "site" | "member" | "trench" | "context" | "relation" | "find" | "class" | "photo" | "run" | "import" | "datum" | "benchmark" | "level_run" | "spit" | "square" | "section" | "sample";
   recordId: string;
   before?: unknown;
   after?: unknown;

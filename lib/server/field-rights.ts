@@ -14,7 +14,7 @@ const directorOnly = ["director"] as const;
  * refused to everyone. Specialists class finds, so on a find they may change the class and nothing else.
  */
 export const fieldRights = {
-  site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly },
+  site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly, samplesShareFindNumbers: directorOnly, labelAddress: directorOnly },
   member: { role: directorOnly },
   class: { code: classers, label: classers, material: classers, colour: classers, symbol: classers, humanRemains: classers },
   trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders, squareSize: directorOnly, squareOriginX: directorOnly, squareOriginY: directorOnly },
@@ -50,6 +50,7 @@ export const fieldRights = {
   datum: { datumKind: directorOnly, datumName: directorOnly, levelTolerance: directorOnly },
   benchmark: { code: recorders, description: recorders, x: recorders, y: recorders, level: recorders },
   spit: { number: recorders, topLevel: recorders, baseLevel: recorders },
+  sample: { contextId: recorders, spit: recorders, type: recorders, x: recorders, y: recorders, z: recorders, volumeL: recorders, purpose: recorders, takenBy: recorders, takenOn: recorders },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
@@ -64,6 +65,7 @@ const recordWords: Record<RightsRecord, string> = {
   datum: "the site's datum",
   benchmark: "a benchmark",
   spit: "a spit",
+  sample: "a sample",
 };
 
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */

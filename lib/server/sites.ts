@@ -9,6 +9,7 @@ import { conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { written } from "./written";
+import { countSamples } from "./samples";
 
 /** The sites a user belongs to, with their role and what awaits them there. */
 export async function listMySites(db: Db, userId: string) {
@@ -46,6 +47,11 @@ export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
   // An update that names no field changes nothing (and writes no audit entry).
   if (!Object.keys(input).length) return actor.site;
   return db.transaction(async (tx) => {
+    const [current] = await tx.select().from(sites).where(eq(sites.id, actor.site.id)).for("update");
+    if (input.samplesShareFindNumbers !== undefined && input.samplesShareFindNumbers !== current?.samplesShareFindNumbers) {
+      const n = await countSamples(tx, actor.site.id);
+      if (n > 0) throw conflict(`Sample numbering is fixed once samples are recorded: this site has ${n === 1 ? "1 sample" : `${n} samples`} numbered ${current?.samplesShareFindNumbers ? "in the finds' sequence" : "in their own sequence"}.`);
+    }
     const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "site", recordId: actor.site.id, before: actor.site, after });
     return after;

@@ -17,6 +17,7 @@ const recordOf: Record<string, RightsRecord> = {
   datumUpdate: "datum",
   benchmarkUpdate: "benchmark",
   spitUpdate: "spit",
+  sampleUpdate: "sample",
 };
 
 const roles = ["digger", "specialist", "director"] as const;

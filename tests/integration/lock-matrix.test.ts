@@ -21,6 +21,9 @@ import * as squaresRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/squa
 import * as squareRecordRoute from "@/app/api/sites/[siteId]/square-records/[sampleId]/route";
 import * as squareImportRoute from "@/app/api/sites/[siteId]/square-import/route";
 import { gridTrench, makeSquareRecord, squareCsv } from "./role-cases/squares";
+import { makeSample } from "./role-cases/archive";
+import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
+import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 
 /**
  * Issue 7 "Tests": every write path that can touch a context's sheet, finds or relations × (open, awaiting,
@@ -113,6 +116,10 @@ const cases: LockCase[] = [
       await gridTrench(fx);
       return { mod: squareImportRoute, params: site(fx), body: { trenchId: fx.trench.id, csv: squareCsv(fx) } };
     } },
+  { op: "samplesCreate", title: "take a sample from T", prepare: async (fx) => ({ mod: samplesRoute, params: site(fx), body: { contextId: fx.context.id, type: "bulk", volumeL: 40 } }) },
+  { op: "sampleUpdate", title: "change a sample of T", prepare: async (fx) => ({ mod: sampleRoute, params: { ...site(fx), sampleId: (await makeSample(fx)).id }, body: { volumeL: 20 } }) },
+  { op: "sampleUpdate", title: "move a sample from another context into T", prepare: async (fx) => ({ mod: sampleRoute, params: { ...site(fx), sampleId: (await makeSample(fx, (await otherContext(fx)).id)).id }, body: { contextId: fx.context.id } }) },
+  { op: "sampleDelete", title: "delete a sample of T", prepare: async (fx) => ({ mod: sampleRoute, params: { ...site(fx), sampleId: (await makeSample(fx)).id }, body: { reason: "entered twice" } }) },
   { op: "trenchUpdate", title: "redraw the outline so a find of T falls outside", alwaysRefused: true, prepare: async (fx) => {
       await findIn(fx, fx.context.id, 9, 5);
       return { mod: trenchRoute, params: { ...site(fx), trenchId: fx.trench.id }, body: { outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [8, 6], [0, 6], [0, 0]]] } } };
@@ -143,12 +150,13 @@ const outsideTheLock: Record<string, string> = {
   runCancel: "analysis run only",
   datumUpdate: "the site's datum name and tolerance; no level changes",
   sectionsCreate: "a drawing of finds already recorded; changes no find or context", sectionDelete: "a drawing only; no find or context changes",
+  samplesStatus: "post-excavation processing comes after the trench; the sample's sheet is unchanged (samples.test.ts)",
   benchmarksCreate: "a new benchmark", benchmarkUpdate: "a benchmark's level is fixed once a run used it", benchmarkDelete: "refused once a run used it",
 };
 
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings, schema.spits, schema.spotLevels, schema.levelRuns, schema.squareSamples, schema.squareCounts];
+  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.importMappings, schema.spits, schema.spotLevels, schema.levelRuns, schema.squareSamples, schema.squareCounts, schema.samples];
   const parts: string[] = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   parts.push(String((await db.select().from(schema.auditEntries)).length));

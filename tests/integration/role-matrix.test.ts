@@ -4,6 +4,7 @@ import { makeSite } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
+import { archiveCases } from "./role-cases/archive";
 import { coreCases } from "./role-cases/core";
 import { levelsCases } from "./role-cases/levels";
 import { patternsCases } from "./role-cases/patterns";
@@ -12,12 +13,12 @@ import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
 import { squaresCases } from "./role-cases/squares";
 
-const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases };
+const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases, ...archiveCases };
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.squareSamples, schema.squareCounts];
+  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.squareSamples, schema.squareCounts, schema.samples];
   const parts = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   const audit = await db.select().from(schema.auditEntries);

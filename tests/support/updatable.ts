@@ -13,6 +13,7 @@ import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/rou
 import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 import * as datumRoute from "@/app/api/sites/[siteId]/datum/route";
 import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkId]/route";
+import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import { makeSite, makeUser, type SiteFixture } from "./fixtures";
 
@@ -86,6 +87,9 @@ export const updatables: Record<string, Updatable> = {
       gridOriginX: decimal(-1000, 1000),
       gridOriginY: decimal(-1000, 1000),
       crs: fc.constantFrom(null, utm30),
+      // No sample exists on the fixture's site, so the numbering may still be chosen.
+      samplesShareFindNumbers: fc.boolean(),
+      labelAddress: fc.constantFrom(null, "https://loamwork.example.org", "http://10.0.0.2:3000/lw"),
     }),
   },
   memberUpdate: {
@@ -188,6 +192,40 @@ export const updatables: Record<string, Updatable> = {
       description: text(),
     }),
   },
+};
+
+const sampleTypes = ["bulk", "spot", "charcoal", "monolith", "micromorphology", "pollen", "luminescence", "other"] as const;
+
+updatables.sampleUpdate = {
+  mod: sampleRoute,
+  target: async (fx) => {
+    const db = await getDb();
+    const [s] = await db.insert(schema.samples).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, number: 600_000 + unique(), type: "bulk", takenOn: "2026-07-01", x: 1, y: 1 }).returning();
+    // Spit 1 in both contexts, so a sample taken from spit 1 may move between them.
+    const spitIds = new Map<string, number>();
+    for (const contextId of [fx.context.id, (fx as UpdateFixture).alt?.contextId].filter(Boolean) as string[]) {
+      const [sp] = await db.insert(schema.spits).values({ siteId: fx.site.id, contextId, number: 1 }).returning();
+      spitIds.set(sp!.id, 1);
+    }
+    const read = async () => {
+      const row = await rowOf(schema.samples, s!.id);
+      return { ...row, spit: row.spitId ? spitIds.get(row.spitId as string) ?? null : null };
+    };
+    return { params: { siteId: fx.site.id, sampleId: s!.id }, read };
+  },
+  fields: (fx) => ({
+    contextId: fc.constantFrom(fx.context.id, fx.alt.contextId),
+    spit: fc.constantFrom(null, 1),
+    type: fc.constantFrom(...sampleTypes),
+    // The sample is plotted, so x or y alone keeps a point; inside trench A and clear of its baulk.
+    x: decimal(0.5, 3.5),
+    y: decimal(0.5, 5.5),
+    z: fc.option(decimal(-5, 50), { nil: null }),
+    volumeL: fc.option(decimal(0.5, 200), { nil: null }),
+    purpose: text(),
+    takenBy: fc.constantFrom(null, fx.people.digger.id, fx.people.director.id),
+    takenOn: fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`),
+  }),
 };
 
 /** A site (makeSite) with a second context in trench A and a second class, so a find can move between them. */

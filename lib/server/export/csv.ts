@@ -1,6 +1,7 @@
 import Papa from "papaparse";
 import type { Context } from "@/db/schema";
 import type { RegisterRow } from "@/lib/server/finds";
+import type { SampleRegisterRow } from "@/lib/server/samples";
 import { inertText, quoteGuarded } from "@/lib/csv-cells";
 
 type Kind = "number" | "text";
@@ -49,5 +50,18 @@ export function contextsCsv(rows: ContextExportRow[]): string {
   return toCsv(
     contextCsvColumns,
     rows.map((c) => [c.number, c.trenchCode, c.type, c.state, c.colour, c.compaction, c.composition, c.inclusions, c.description, c.interpretation, c.relations, c.finds, c.extent ? "yes" : "no", c.signedOffAt?.toISOString() ?? ""]),
+  );
+}
+
+/** The samples register; z_rl_m and volume_l empty when not recorded. */
+export const sampleCsvColumns: readonly CsvColumn[] = [
+  ["number", "number"], ["trench", "text"], ["context", "number"], ["spit", "number"], ["type", "text"], ["x", "number"], ["y", "number"], ["z_rl_m", "number"],
+  ["volume_l", "number"], ["purpose", "text"], ["taken_by", "text"], ["taken_on", "text"], ["status", "text"], ["context_state", "text"],
+];
+
+export function samplesCsv(rows: SampleRegisterRow[]): string {
+  return toCsv(
+    sampleCsvColumns,
+    rows.map((s) => [s.number, s.trenchCode, s.contextNumber, s.spitNumber, s.type, s.x, s.y, s.z, s.volumeL, s.purpose, s.takenBy ?? "", s.takenOn, s.status, s.contextState]),
   );
 }

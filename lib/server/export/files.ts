@@ -5,7 +5,9 @@ import type { Site } from "@/db/schema";
 import { allFinds } from "@/lib/server/finds";
 import { listTrenches } from "@/lib/server/trenches";
 import { contextsForExport } from "./contexts-export";
-import { contextsCsv, findsCsv } from "./csv";
+import { contextsCsv, findsCsv, samplesCsv } from "./csv";
+import { allSamples } from "@/lib/server/samples";
+import type { exportSamplesQuery } from "@/lib/schemas/sample";
 import { findsGeoJson, outlinesGeoJson } from "./geojson";
 import type { exportContextsQuery, exportFindsQuery, exportTrenchesQuery } from "@/lib/schemas/export";
 
@@ -38,4 +40,9 @@ export async function exportTrenches(db: Db, site: Site, q: z.infer<typeof expor
   const rows = await listTrenches(db, site.id);
   const items = rows.map((t) => ({ id: t.id, polygon: t.outline, properties: { code: t.code, name: t.name, signedOff: t.signedOffAt !== null } }));
   return geo(outlinesGeoJson(site, q.coords, `${site.code} trench outlines`, items), `${site.code}-trenches-${q.coords}-${stamp()}.geojson`);
+}
+
+export async function exportSamples(db: Db, site: Site, q: z.infer<typeof exportSamplesQuery>): Promise<Response> {
+  const rows = await allSamples(db, site.id, q);
+  return download(samplesCsv(rows), `${site.code}-samples-${stamp()}.csv`, "text/csv; charset=utf-8");
 }

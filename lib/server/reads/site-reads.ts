@@ -18,6 +18,8 @@ import { contextSpotLevels } from "../level-runs";
 import { drawTrenchSections, listSections, sectionFinds, trenchContextLevels } from "../sections";
 import { listSpits } from "../spits";
 import { listTrenchSquares } from "../squares";
+import { listSamples, readSample } from "../samples";
+import type { SampleListQuery } from "@/lib/schemas/sample";
 import { trenchDepth } from "../trench-depth";
 import { patternsChoices } from "./patterns-choices";
 import { loadLevelBook } from "./level-book";
@@ -62,6 +64,8 @@ export function siteReads(db: Db, actor: SiteActor) {
     sectionFinds: (trenchId: string) => sectionFinds(db, siteId, trenchId),
     trenchContextLevels: (trenchId: string) => trenchContextLevels(db, siteId, trenchId),
     trenchSections: (trench: Trench) => drawTrenchSections(db, actor.site, trench),
+    samples: (q: SampleListQuery) => listSamples(db, siteId, q),
+    sample: (sampleId: string) => readSample(db, siteId, sampleId),
   };
 }
 

@@ -1,12 +1,14 @@
 import { SiteNav } from "@/components/site-nav";
 import { ClassesPanel } from "@/components/settings/classes-panel";
 import { GridForm } from "@/components/settings/grid-form";
+import { RecordsForm } from "@/components/settings/records-form";
 import { pageSiteActor } from "@/lib/server/page-access";
 
 export default async function SettingsPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
-  const { actor } = await pageSiteActor(siteId);
+  const { actor, read } = await pageSiteActor(siteId);
   const s = actor.site;
+  const samples = await read.samples({ page: 1, pageSize: 1 });
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/settings`} />
@@ -24,6 +26,12 @@ export default async function SettingsPage({ params }: { params: Promise<{ siteI
           {actor.role !== "director" && <p className="text-ink-soft">Only the site director changes these.</p>}
           <div className="mt-4">
             <GridForm siteId={siteId} canEdit={actor.role === "director"} initial={{ name: s.name, gridDescription: s.gridDescription, gridOriginX: s.gridOriginX, gridOriginY: s.gridOriginY, crs: s.crs ?? "" }} />
+          </div>
+        </section>
+        <section aria-labelledby="records-h">
+          <h2 id="records-h" className="text-2xl font-bold">Numbers and labels</h2>
+          <div className="mt-4">
+            <RecordsForm siteId={siteId} canEdit={actor.role === "director"} sampleCount={samples.total} initial={{ samplesShareFindNumbers: s.samplesShareFindNumbers, labelAddress: s.labelAddress ?? "" }} />
           </div>
         </section>
       </main>

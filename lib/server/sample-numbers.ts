@@ -1,0 +1,26 @@
+import "server-only";
+import { eq, sql } from "drizzle-orm";
+import type { Tx } from "@/db/client";
+import { sites } from "@/db/schema";
+import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
+import { conflict } from "./errors";
+import { allocateFindNumbers } from "./find-numbers";
+
+/**
+ * The next sample number of a site, inside the caller's transaction. A site chooses (field.md) whether
+ * samples share the finds' sequence — then the number comes from the finds' allocation, under its rules and
+ * its bound, so a number is a find or a sample, never both — or have their own, kept the same way: the
+ * UPDATE takes the site row's lock, a rolled-back transaction gives its number back, and a deleted sample's
+ * number is never handed out again.
+ */
+export async function allocateSampleNumber(tx: Tx, siteId: string): Promise<number> {
+  const [site] = await tx.select({ shared: sites.samplesShareFindNumbers }).from(sites).where(eq(sites.id, siteId)).for("update");
+  if (site?.shared) return allocateFindNumbers(tx, siteId, 1);
+  const [row] = await tx
+    .update(sites)
+    .set({ nextSampleNumber: sql`${sites.nextSampleNumber} + 1` })
+    .where(sql`${sites.id} = ${siteId} and ${sites.nextSampleNumber} <= ${MAX_FIND_NUMBER}`)
+    .returning({ next: sites.nextSampleNumber });
+  if (row) return row.next - 1;
+  throw conflict(`This site's sample numbers are used up: they go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`, { left: 0 });
+}

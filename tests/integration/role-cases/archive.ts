@@ -1,0 +1,34 @@
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import type { SiteFixture } from "../../support/fixtures";
+import { nextCount, type RoleCases } from "./types";
+import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
+import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
+import * as sampleStatusRoute from "@/app/api/sites/[siteId]/samples/status/route";
+
+/** A sample of the fixture's context (or another), inserted directly so only the call under test writes. */
+export async function makeSample(fx: SiteFixture, contextId = fx.context.id) {
+  const db = await getDb();
+  const [s] = await db
+    .insert(schema.samples)
+    .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId, number: 70_000 + nextCount(), type: "bulk", takenOn: "2026-07-01", volumeL: 40 })
+    .returning();
+  return s!;
+}
+
+/** Mutating operations of the archive registers. */
+export const archiveCases: RoleCases = {
+  samplesCreate: async (fx) => ({ mod: samplesRoute, params: { siteId: fx.site.id }, body: { contextId: fx.context.id, type: "charcoal", x: 1.5, y: 1.5, z: 49.2, purpose: "radiocarbon date of the hearth" } }),
+  sampleUpdate: async (fx) => {
+    const s = await makeSample(fx);
+    return { mod: sampleRoute, params: { siteId: fx.site.id, sampleId: s.id }, body: { volumeL: 30 + nextCount() } };
+  },
+  sampleDelete: async (fx) => {
+    const s = await makeSample(fx);
+    return { mod: sampleRoute, params: { siteId: fx.site.id, sampleId: s.id }, body: { reason: "entered twice" } };
+  },
+  samplesStatus: async (fx) => {
+    const s = await makeSample(fx);
+    return { mod: sampleStatusRoute, params: { siteId: fx.site.id }, body: { sampleIds: [s.id], status: "processed" } };
+  },
+};
