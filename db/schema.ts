@@ -83,6 +83,10 @@ export const sites = pgTable("sites", {
   nextSampleNumber: integer("next_sample_number").notNull().default(1),
   /** Address printed in front of label codes (https://…), so any phone camera opens the record; empty = code only. */
   labelAddress: text("label_address"),
+
+/**
+  /** How many numbers a device reserves at once for offline recording (set by the director). */
+  numberBlockSize: integer("number_block_size").notNull().default(50),
   createdAt: created(),
 });
 
@@ -125,6 +129,8 @@ export const trenches = pgTable(
     squareOriginY: doublePrecision("square_origin_y"),
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     signedOffBy: uuid("signed_off_by").references(() => users.id),
+    /** Raised by every change: an edit made on an older version is refused, never applied over this one. */
+    version: integer("version").notNull().default(1),
     createdAt: created(),
     updatedAt: updated(),
   },
@@ -178,6 +184,8 @@ export const contexts = pgTable(
     submittedBy: uuid("submitted_by").references(() => users.id),
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     signedOffBy: uuid("signed_off_by").references(() => users.id),
+    /** Raised by every change: an edit made on an older version is refused, never applied over this one. */
+    version: integer("version").notNull().default(1),
     createdAt: created(),
     updatedAt: updated(),
   },
@@ -237,6 +245,8 @@ export const finds = pgTable(
     method: findMethodEnum("method").notNull(),
     recordedBy: uuid("recorded_by").references(() => users.id),
     recordedAt: timestamp("recorded_at", { withTimezone: true }).notNull().defaultNow(),
+    /** Raised by every change: an edit made on an older version is refused, never applied over this one. */
+    version: integer("version").notNull().default(1),
     updatedAt: updated(),
   },
   (t) => [
@@ -501,3 +511,75 @@ export const findSections = pgTable(
 );
 
 export type FindSection = typeof findSections.$inferSelect;
+
+/**
+ * Idempotency keys (the IETF draft "The Idempotency-Key HTTP Header Field"): the first answer to a write sent
+ * with a key, kept per user so that a replay of the same request gets that answer without writing again.
+ */
+export const idempotencyKeys = pgTable(
+  "idempotency_keys",
+  {
+    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    key: uuid("key").notNull(),
+    /** SHA-256 of the method, the path with its query and the body, as sent the first time. */
+    fingerprint: text("fingerprint").notNull(),
+    method: text("method").notNull(),
+    path: text("path").notNull(),
+    status: integer("status").notNull(),
+    contentType: text("content_type").notNull(),
+    body: text("body").notNull(),
+    createdAt: created(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.key] }), index("idempotency_keys_created").on(t.createdAt)],
+);
+
+/** Which sequence of a site a block of numbers is taken from. */
+export const numberKindEnum = pgEnum("number_kind", ["find", "context"]);
+
+/**
+ * A block of a site's numbers reserved ahead of time by one user on one device, so that records made
+ * offline get their final numbers at once (field.md "Numbers"). Released blocks keep their row; their
+ * unused numbers become void (numberVoids).
+ */
+export const numberBlocks = pgTable(
+  "number_blocks",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    kind: numberKindEnum("kind").notNull(),
+    first: integer("first_number").notNull(),
+    last: integer("last_number").notNull(),
+    userId: uuid("user_id").notNull().references(() => users.id),
+    deviceId: uuid("device_id").notNull(),
+    deviceLabel: text("device_label").notNull().default(""),
+    createdAt: created(),
+    releasedAt: timestamp("released_at", { withTimezone: true }),
+    releasedBy: uuid("released_by").references(() => users.id),
+    releaseReason: text("release_reason"),
+  },
+  (t) => [index("number_blocks_site").on(t.siteId, t.kind, t.first), index("number_blocks_user").on(t.userId)],
+);
+
+/** Numbers of a site's sequence that will never be used, with why and who held them: a run first..last. */
+export const numberVoids = pgTable(
+  "number_voids",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    kind: numberKindEnum("kind").notNull(),
+    first: integer("first_number").notNull(),
+    last: integer("last_number").notNull(),
+    reason: text("reason").notNull(),
+    /** Who held the numbers (a released block's holder, a deleted record's recorder), when known. */
+    heldBy: uuid("held_by").references(() => users.id),
+    voidedBy: uuid("voided_by").references(() => users.id),
+    blockId: uuid("block_id").references(() => numberBlocks.id),
+    createdAt: created(),
+  },
+  (t) => [index("number_voids_site").on(t.siteId, t.kind, t.first)],
+);
+
+export type IdempotencyKey = typeof idempotencyKeys.$inferSelect;
+export type NumberBlock = typeof numberBlocks.$inferSelect;
+export type NumberVoid = typeof numberVoids.$inferSelect;
+export type NumberKind = (typeof numberKindEnum.enumValues)[number];

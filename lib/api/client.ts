@@ -30,6 +30,8 @@ export class ApiError extends Error {
     readonly status: number,
     readonly fieldErrors: Record<string, string[]> = {},
     readonly details?: unknown,
+    /** The server's reason code (lib/api/offline.ts `reasonCodes`): what a device may offer to resolve it. */
+    readonly code?: string,
   ) {
     super(message);
   }
@@ -80,8 +82,8 @@ export async function sendRequest(req: ApiRequest, signal?: AbortSignal): Promis
     body = null;
   }
   if (!res.ok) {
-    const b = (body ?? {}) as { error?: unknown; fieldErrors?: Record<string, string[]>; details?: unknown };
-    throw new ApiError(typeof b.error === "string" ? b.error : `The server answered ${res.status}.`, res.status, b.fieldErrors ?? {}, b.details);
+    const b = (body ?? {}) as { error?: unknown; code?: unknown; fieldErrors?: Record<string, string[]>; details?: unknown };
+    throw new ApiError(typeof b.error === "string" ? b.error : `The server answered ${res.status}.`, res.status, b.fieldErrors ?? {}, b.details, typeof b.code === "string" ? b.code : undefined);
   }
   return body;
 }

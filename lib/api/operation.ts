@@ -22,6 +22,12 @@ export type ApiOperation = {
   successStatus?: number;
   /** The largest request body read, in bytes; omitted = the JSON default (lib/server/http.ts). */
   maxBodyBytes?: number;
+  /**
+   * How a write sent with an Idempotency-Key keeps its answer: "atomic" (default) stores it in the write's
+   * own transaction; "claim" first claims the key on its own, for writes that start work outside the
+   * database after their commit (lib/server/idempotency.ts).
+   */
+  idempotency?: "atomic" | "claim";
   /** Used before sign-in (password reset, invitation): no session, no role; a single-use token instead. */
   public?: true;
 };

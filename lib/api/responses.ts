@@ -32,6 +32,8 @@ export const findRecord = z.object({
   method: z.string(),
   recordedAt: wireDate,
   recordedBy: id.nullable(),
+  /** Raised by every change; an edit sends the version it was made on as If-Match. */
+  version: z.number().int(),
 });
 
 /** One row of the finds register: the find with its trench, context and class, the recorder's name. */
@@ -54,9 +56,9 @@ export const classRow = z.object({ id, code: z.string(), label: z.string(), mate
 
 const polygon = z.object({ type: z.literal("Polygon"), coordinates: z.array(z.array(z.tuple([z.number(), z.number()]))) });
 
-export const contextRow = z.object({ id, trenchId: id, number: z.number(), type: z.string(), state: contextStates, signedOffAt: wireDate.nullable(), extent: polygon.nullable() });
+export const contextRow = z.object({ id, trenchId: id, number: z.number(), type: z.string(), state: contextStates, signedOffAt: wireDate.nullable(), extent: polygon.nullable(), version: z.number().int() });
 
-export const trenchRow = z.object({ id, code: z.string(), name: z.string(), outline: polygon.nullable() });
+export const trenchRow = z.object({ id, code: z.string(), name: z.string(), outline: polygon.nullable(), version: z.number().int() });
 
 export const createdSite = z.object({ id, code: z.string() });
 

@@ -10,6 +10,7 @@ import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { assertOutline, getTrench } from "./trenches";
+import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function listContexts(db: Db, siteId: string, trenchId?: string) {
   const where = trenchId ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)) : eq(contexts.siteId, siteId);
@@ -53,17 +54,18 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
   });
 }
 
-export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate) {
+export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate, expectedVersion: number | null = null) {
   assertFieldRights("context", actor.role, input);
   if (input.extent) assertOutline(input.extent, "extent");
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);
     await assertContextWritable(tx, before);
+    assertVersion(before, expectedVersion, `Context ${before.number}`);
     assertSheetConsistent({ ...before, ...input });
     if (input.number !== undefined && input.number !== before.number) await assertNumberFree(tx, actor.site.id, input.number);
     const [after] = await tx
       .update(contexts)
-      .set({ ...input, updatedAt: new Date() })
+      .set({ ...input, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(contexts.version) }) })
       .where(eq(contexts.id, contextId))
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "context", recordId: contextId, before, after });
@@ -71,10 +73,11 @@ export async function updateContext(db: Db, actor: SiteActor, contextId: string,
   });
 }
 
-export async function deleteContext(db: Db, actor: SiteActor, contextId: string) {
+export async function deleteContext(db: Db, actor: SiteActor, contextId: string, expectedVersion: number | null = null) {
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);
     await assertContextWritable(tx, before, "deleted");
+    assertVersion(before, expectedVersion, `Context ${before.number}`);
     const [hasFind] = await tx.select({ id: finds.id }).from(finds).where(eq(finds.contextId, contextId)).limit(1);
     if (hasFind) throw conflict(`Context ${before.number} still has finds; move or delete them first.`);
     await tx.delete(contexts).where(eq(contexts.id, contextId));

@@ -1,3 +1,5 @@
+import type { ReasonCode } from "@/lib/api/offline";
+
 /**
  * Deliberate failures whose message is meant for the person using Loamwork (style.md habit 2).
  * Anything else thrown inside a guarded entry is logged and shown as a generic failure.
@@ -8,6 +10,8 @@ export class PublicError extends Error {
     message: string,
     readonly fieldErrors?: Record<string, string[]>,
     readonly details?: unknown,
+    /** A stable reason code (lib/api/offline.ts) a device can act on; derived from the status when omitted. */
+    readonly code?: ReasonCode,
   ) {
     super(message);
     this.name = "PublicError";
@@ -21,7 +25,7 @@ export const forbidden = (message = "Your role on this site does not allow that.
   new PublicError(403, message);
 export const badInput = (message: string, fieldErrors?: Record<string, string[]>, details?: unknown) =>
   new PublicError(400, message, fieldErrors, details);
-export const conflict = (message: string, details?: unknown) => new PublicError(409, message, undefined, details);
+export const conflict = (message: string, details?: unknown, code?: ReasonCode) => new PublicError(409, message, undefined, details, code);
 
 export function isPublicError(err: unknown): err is PublicError {
   return err instanceof PublicError;

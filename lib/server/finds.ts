@@ -6,13 +6,14 @@ import { isUuid } from "@/lib/schemas/common";
 import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
-import { badInput, notFound } from "./errors";
+import { PublicError, badInput, notFound } from "./errors";
 import { allocateFindNumbers } from "./find-numbers";
 import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { getContext } from "./contexts";
 import { getTrench } from "./trenches";
+import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
   if (!isUuid(findId)) throw notFound("That find");
@@ -35,7 +36,7 @@ export async function assertInsideTrench(tx: Db | Tx, siteId: string, trenchId: 
   const d = distanceOutside(check.window, x, y);
   if (d > 0) {
     const msg = `(${x.toFixed(3)}, ${y.toFixed(3)}) lies ${d.toFixed(3)} m outside the outline of trench ${trench.code}.`;
-    throw badInput(`The find is outside its trench: ${msg}`, { x: [msg], y: [msg] }, { distance: d });
+    throw new PublicError(400, `The find is outside its trench: ${msg}`, { x: [msg], y: [msg] }, { distance: d }, "outside-trench");
   }
   return trench;
 }
@@ -56,12 +57,13 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
   });
 }
 
-export async function updateFind(db: Db, actor: SiteActor, findId: string, input: FindUpdate) {
+export async function updateFind(db: Db, actor: SiteActor, findId: string, input: FindUpdate, expectedVersion: number | null = null) {
   assertFieldRights("find", actor.role, input);
   return db.transaction(async (tx) => {
     const before = await getFind(tx, actor.site.id, findId);
     const from = await getContext(tx, actor.site.id, before.contextId);
     await assertContextWritable(tx, from, "changed (nor its finds)");
+    assertVersion(before, expectedVersion, `Find ${before.number}`);
     let trenchId = before.trenchId;
     if (input.contextId && input.contextId !== before.contextId) {
       const to = await getContext(tx, actor.site.id, input.contextId);
@@ -72,7 +74,7 @@ export async function updateFind(db: Db, actor: SiteActor, findId: string, input
     await assertInsideTrench(tx, actor.site.id, trenchId, input.x ?? before.x, input.y ?? before.y);
     const [after] = await tx
       .update(finds)
-      .set({ ...input, trenchId, updatedAt: new Date() })
+      .set({ ...input, trenchId, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(finds.version) }) })
       .where(eq(finds.id, findId))
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "find", recordId: findId, before, after });
@@ -80,11 +82,12 @@ export async function updateFind(db: Db, actor: SiteActor, findId: string, input
   });
 }
 
-export async function deleteFind(db: Db, actor: SiteActor, findId: string) {
+export async function deleteFind(db: Db, actor: SiteActor, findId: string, expectedVersion: number | null = null) {
   return db.transaction(async (tx) => {
     const before = await getFind(tx, actor.site.id, findId);
     const context = await getContext(tx, actor.site.id, before.contextId);
     await assertContextWritable(tx, context, "changed (nor its finds)");
+    assertVersion(before, expectedVersion, `Find ${before.number}`);
     await tx.delete(finds).where(eq(finds.id, findId));
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "find", recordId: findId, before });
     return { deleted: findId, number: before.number };
@@ -145,6 +148,7 @@ function registerQuery(db: Db, siteId: string, q: FindFilters) {
       description: finds.description,
       method: finds.method,
       recordedAt: finds.recordedAt,
+      version: finds.version,
       recordedBy: users.name,
       recordedById: finds.recordedBy,
       trenchId: finds.trenchId,

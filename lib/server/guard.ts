@@ -2,6 +2,7 @@ import "server-only";
 import { z, type ZodType } from "zod";
 import { getDb, type Db } from "@/db/client";
 import type { Role } from "@/db/schema";
+import { reasonForStatus, type ReasonCode } from "@/lib/api/offline";
 import { PublicError, badInput, isPublicError, pgErrorCode, unauthenticated } from "./errors";
 import { assertRole, loadSiteActor, type SiteActor } from "./membership";
 import { currentUserId } from "./session";
@@ -22,7 +23,7 @@ export type GuardContext<I> = { db: Db; userId: string; actor: SiteActor | null;
 
 export type GuardOutcome<R> =
   | { ok: true; data: R }
-  | { ok: false; status: number; error: string; fieldErrors?: Record<string, string[]>; details?: unknown };
+  | { ok: false; status: number; error: string; code: ReasonCode; fieldErrors?: Record<string, string[]>; details?: unknown };
 
 export function zodFieldErrors(error: z.ZodError): Record<string, string[]> {
   const out: Record<string, string[]> = {};
@@ -43,24 +44,24 @@ export function describeFieldErrors(fieldErrors: Record<string, string[]>): stri
 export function toFailure(err: unknown): Extract<GuardOutcome<never>, { ok: false }> {
   if (err instanceof z.ZodError) {
     const fieldErrors = zodFieldErrors(err);
-    return { ok: false, status: 400, error: `Check the input — ${describeFieldErrors(fieldErrors)}`, fieldErrors };
+    return { ok: false, status: 400, error: `Check the input — ${describeFieldErrors(fieldErrors)}`, code: "invalid", fieldErrors };
   }
   if (isPublicError(err)) {
-    return { ok: false, status: err.status, error: err.message, fieldErrors: err.fieldErrors, details: err.details };
+    return { ok: false, status: err.status, error: err.message, code: err.code ?? reasonForStatus(err.status), fieldErrors: err.fieldErrors, details: err.details };
   }
   const code = pgErrorCode(err);
-  if (code === "23505") return { ok: false, status: 409, error: "That number or code is already taken on this site." };
-  if (code === "23503") return { ok: false, status: 409, error: "Other records still refer to this one." };
-  if (code === "40001" || code === "40P01") return { ok: false, status: 409, error: "Someone else changed this at the same moment; try again." };
+  if (code === "23505") return { ok: false, status: 409, error: "That number or code is already taken on this site.", code: "duplicate" };
+  if (code === "23503") return { ok: false, status: 409, error: "Other records still refer to this one.", code: "conflict" };
+  if (code === "40001" || code === "40P01") return { ok: false, status: 409, error: "Someone else changed this at the same moment; try again.", code: "busy" };
   console.error("[loamwork] unexpected failure", err);
-  return { ok: false, status: 500, error: "Something went wrong on the server; nothing was changed." };
+  return { ok: false, status: 500, error: "Something went wrong on the server; nothing was changed.", code: "server" };
 }
 
 export async function runGuarded<I, R>(
   spec: GuardSpec<I>,
   siteId: string | undefined,
   /** Called only after the session and the role are checked, so a large body is never read for a stranger. */
-  readInput: () => unknown,
+  readInput: (userId: string, db: Db) => unknown,
   fn: (ctx: GuardContext<I>) => Promise<R>,
 ): Promise<GuardOutcome<R>> {
   try {
@@ -73,7 +74,7 @@ export async function runGuarded<I, R>(
       actor = await loadSiteActor(db, userId, siteId);
       if (spec.roles !== "member") assertRole(actor, spec.roles, spec.doing);
     }
-    const input = parseInput(spec.input, await readInput());
+    const input = parseInput(spec.input, await readInput(userId, db));
     return { ok: true, data: await fn({ db, userId, actor, input }) };
   } catch (err) {
     return toFailure(err);

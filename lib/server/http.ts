@@ -4,6 +4,7 @@ import type { z, ZodType } from "zod";
 import type { Db } from "@/db/client";
 import { isUuid } from "@/lib/schemas/common";
 import { PublicError, badInput, notFound } from "./errors";
+import { assertKeyFits, idempotencyKeyOf, requestFingerprint, runIdempotent } from "./idempotency";
 import { runGuarded, runPublic, toFailure, type GuardContext, type GuardOutcome, type GuardSpec } from "./guard";
 
 type RouteParams = Record<string, string | string[] | undefined>;
@@ -23,6 +24,8 @@ export type RouteSpec<I> = GuardSpec<I> & {
   maxBodyBytes?: number;
   /** The answer's schema in the catalogue: the handler must return what it accepts (or a Response). */
   response?: ZodType;
+  /** How a write sent with an Idempotency-Key keeps its answer (lib/server/idempotency.ts); "atomic" when omitted. */
+  idempotency?: "atomic" | "claim";
 };
 
 type InputOf<S> = S extends { input: infer Z extends ZodType } ? z.output<Z> : unknown;
@@ -67,17 +70,19 @@ export async function readBodyCapped(req: Request, limit: number): Promise<Uint8
 
 function respond<R>(outcome: GuardOutcome<R>, successStatus = 200): Response {
   if (!outcome.ok) {
-    const { status, error, fieldErrors, details } = outcome;
-    return NextResponse.json({ error, fieldErrors, details }, { status });
+    const { status, error, code, fieldErrors, details } = outcome;
+    return NextResponse.json({ error, code, fieldErrors, details }, { status });
   }
   if (outcome.data instanceof Response) return outcome.data;
   return NextResponse.json(outcome.data ?? null, { status: successStatus });
 }
 
-async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: number): Promise<unknown> {
+async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: number, seen?: { text: string }): Promise<unknown> {
   if (from === "query") return Object.fromEntries(new URL(req.url).searchParams.entries());
-  if (from === "none") return undefined;
+  if (from === "none" && !seen) return undefined;
   const text = new TextDecoder().decode(await readBodyCapped(req, limit));
+  if (seen) seen.text = text;
+  if (from === "none") return undefined;
   if (!text) return {};
   try {
     return JSON.parse(text);
@@ -96,7 +101,8 @@ function malformedId(params: Record<string, string>): PublicError | null {
 
 /**
  * A route handler behind the guarded entry. The site comes from the `siteId` path segment. The body is read
- * only after the session and the role on the site are checked, and never past the entry's limit.
+ * only after the session and the role on the site are checked, and never past the entry's limit. A write
+ * (POST, PATCH, DELETE) that carries an Idempotency-Key runs exactly once (lib/server/idempotency.ts).
  */
 export function guardedRoute<S extends RouteSpec<unknown>>(
   spec: S,
@@ -112,7 +118,26 @@ export function guardedRoute<S extends RouteSpec<unknown>>(
     if (malformed) return respond(toFailure(malformed));
     const from = spec.from ?? (req.method === "GET" || req.method === "DELETE" ? "query" : "body");
     const limit = spec.maxBodyBytes ?? DEFAULT_BODY_LIMIT;
-    const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params: params as ParamsOf<S>, req }));
+    let key: string | null = null;
+    try {
+      key = req.method === "GET" || req.method === "HEAD" ? null : idempotencyKeyOf(req);
+    } catch (err) {
+      return respond(toFailure(err));
+    }
+    if (!key) {
+      const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params: params as ParamsOf<S>, req }));
+      return respond(outcome, spec.successStatus);
+    }
+    const seen = { text: "" };
+    const request = (userId: string) => ({ userId, key: key as string, method: req.method, path: new URL(req.url).pathname, fingerprint: requestFingerprint(req.method, req.url, seen.text) });
+    const readKeyed = async (userId: string, db: Db) => {
+      const input = await readInput(req, from, limit, seen);
+      await assertKeyFits(db, request(userId));
+      return input;
+    };
+    const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, readKeyed, (ctx) =>
+      runIdempotent(ctx.db, request(ctx.userId), spec.idempotency ?? "atomic", spec.successStatus ?? 200, (db) => fn({ ...ctx, db, params: params as ParamsOf<S>, req })),
+    );
     return respond(outcome, spec.successStatus);
   };
 }

@@ -10,6 +10,7 @@ import { assertContextWritable } from "./locks";
 import type { SiteActor } from "./membership";
 import { getBenchmark } from "./benchmarks";
 import { getTrench } from "./trenches";
+import { nextVersion } from "./versions";
 
 type Line = LevelRunCreate["lines"][number];
 
@@ -101,7 +102,7 @@ export async function recordLevelRun(db: Db, actor: SiteActor, input: LevelRunCr
     for (const spot of spots) {
       if (spot.target === "find" && spot.targetId) {
         const [before] = await tx.select().from(finds).where(eq(finds.id, spot.targetId));
-        const [after] = await tx.update(finds).set({ z: spot.level, updatedAt: new Date() }).where(eq(finds.id, spot.targetId)).returning();
+        const [after] = await tx.update(finds).set({ z: spot.level, updatedAt: new Date(), version: nextVersion(finds.version) }).where(eq(finds.id, spot.targetId)).returning();
         await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "level", recordType: "find", recordId: spot.targetId, before: { z: before?.z ?? null }, after: { z: after?.z ?? null, runId: run!.id, flagged } });
       } else if ((spot.target === "spit_top" || spot.target === "spit_base") && spot.targetId) {
         const column = spot.target === "spit_top" ? { topLevel: spot.level } : { baseLevel: spot.level };

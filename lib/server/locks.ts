@@ -47,6 +47,7 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
     throw conflict(
       `Context ${context.number} was signed off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} until a director reopens it with a reason.`,
       details,
+      "locked",
     );
   }
   const who = await nameOf(tx, context.submittedBy, "a recorder");
@@ -55,6 +56,7 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
   throw conflict(
     `Context ${context.number} was submitted for sign-off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} while it awaits sign-off. A director can sign it off or return it to open with a reason.`,
     details,
+    "locked",
   );
 }
 
@@ -77,5 +79,5 @@ export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly s
 export async function assertTrenchWritable(tx: Db | Tx, trench: Pick<Trench, "code" | "signedOffAt" | "signedOffBy">, doing = "changed"): Promise<void> {
   if (!trench.signedOffAt) return;
   const who = await nameOf(tx, trench.signedOffBy, "a director");
-  throw conflict(`Trench ${trench.code} was signed off by ${who} on ${formatStamp(trench.signedOffAt)}; it cannot be ${doing} until a director reopens one of its contexts with a reason.`);
+  throw conflict(`Trench ${trench.code} was signed off by ${who} on ${formatStamp(trench.signedOffAt)}; it cannot be ${doing} until a director reopens one of its contexts with a reason.`, undefined, "trench-locked");
 }

@@ -11,6 +11,7 @@ import type { SiteActor } from "./membership";
 import { formatStamp } from "./locks";
 import { notifyReopened, notifySignedOff, notifySubmitted } from "./mail/notify-sign-off";
 import type { Delivery } from "./mail/transport";
+import { nextVersion } from "./versions";
 
 /**
  * Sign-off of context sheets (product.md "Record states"): a recorder submits a complete sheet, a director
@@ -93,7 +94,7 @@ export async function submitContext(db: Db, actor: SiteActor, contextId: string)
     if (problems.length) refuseIncomplete(before, problems);
     const [after] = await tx
       .update(contexts)
-      .set({ state: "awaiting", submittedAt: new Date(), submittedBy: actor.userId, updatedAt: new Date() })
+      .set({ state: "awaiting", submittedAt: new Date(), submittedBy: actor.userId, updatedAt: new Date(), version: nextVersion(contexts.version) })
       .where(eq(contexts.id, contextId))
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "submit", recordType: "context", recordId: contextId, before, after });
@@ -112,7 +113,7 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
     const now = new Date();
     const [after] = await tx
       .update(contexts)
-      .set({ state: "signed_off", signedOffAt: now, signedOffBy: actor.userId, updatedAt: now })
+      .set({ state: "signed_off", signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(contexts.version) })
       .where(eq(contexts.id, contextId))
       .returning();
     const fingerprint = await contextFingerprint(tx, after);
@@ -124,7 +125,7 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
     let trench: Trench | undefined;
     if (openLeft.n === 0) {
       const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
-      [trench] = await tx.update(trenches).set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now }).where(eq(trenches.id, t0.id)).returning();
+      [trench] = await tx.update(trenches).set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(trenches.version) }).where(eq(trenches.id, t0.id)).returning();
       const trenchPrint = await trenchFingerprint(tx, trench);
       await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "sign-off", recordType: "trench", recordId: trench.id, before: t0, after: { ...trench, fingerprint: trenchPrint } });
     }
@@ -143,14 +144,14 @@ export async function reopenContext(db: Db, actor: SiteActor, contextId: string,
     const now = new Date();
     const [after] = await tx
       .update(contexts)
-      .set({ state: "open", submittedAt: null, submittedBy: null, signedOffAt: null, signedOffBy: null, updatedAt: now })
+      .set({ state: "open", submittedAt: null, submittedBy: null, signedOffAt: null, signedOffBy: null, updatedAt: now, version: nextVersion(contexts.version) })
       .where(eq(contexts.id, contextId))
       .returning();
     const action = before.state === "signed_off" ? "reopen" : "return";
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action, recordType: "context", recordId: contextId, before, after, reason: text });
     const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
     if (t0.signedOffAt) {
-      const [t1] = await tx.update(trenches).set({ signedOffAt: null, signedOffBy: null, updatedAt: now }).where(eq(trenches.id, t0.id)).returning();
+      const [t1] = await tx.update(trenches).set({ signedOffAt: null, signedOffBy: null, updatedAt: now, version: nextVersion(trenches.version) }).where(eq(trenches.id, t0.id)).returning();
       await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "reopen", recordType: "trench", recordId: t0.id, before: t0, after: t1, reason: `Context ${after.number} reopened: ${text}` });
     }
     return { context: after, from: before.state as "awaiting" | "signed_off", at: now };

@@ -12,6 +12,7 @@ import { assertContextsWritable, assertTrenchWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { assertGridChange } from "./squares";
+import { assertVersion, namesAField, nextVersion } from "./versions";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
 /** A valid polygon as a window, or a 400 naming the field (`outline` of a trench, `extent` of a context) and why. */
@@ -49,12 +50,13 @@ export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate
   });
 }
 
-export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate) {
+export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate, expectedVersion: number | null = null) {
   assertFieldRights("trench", actor.role, input);
   const window = input.outline ? assertOutline(input.outline) : null;
   return db.transaction(async (tx) => {
     const before = await getTrench(tx, actor.site.id, trenchId, { forUpdate: true });
     await assertTrenchWritable(tx, before, "changed");
+    assertVersion(before, expectedVersion, `Trench ${before.code}`);
     if (window) {
       const placed = await tx
         .select({ number: finds.number, x: finds.x, y: finds.y, contextId: finds.contextId })
@@ -88,6 +90,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
         ...(input.surfaceLevel !== undefined && { surfaceLevel: input.surfaceLevel }),
         ...(window && { outline: windowToPolygon(window) }),
         ...nextGrid,
+        ...(namesAField(input) && { version: nextVersion(trenches.version) }),
         updatedAt: new Date(),
       })
       .where(eq(trenches.id, trenchId))
@@ -97,10 +100,11 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
   });
 }
 
-export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string) {
+export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string, expectedVersion: number | null = null) {
   return db.transaction(async (tx) => {
     const before = await getTrench(tx, actor.site.id, trenchId, { forUpdate: true });
     await assertTrenchWritable(tx, before, "deleted");
+    assertVersion(before, expectedVersion, `Trench ${before.code}`);
     const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
     if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);
     await tx.delete(trenches).where(eq(trenches.id, trenchId));
