@@ -11,15 +11,15 @@ import { purgeExpiredIdempotencyKeys } from "@/lib/server/idempotency";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
 import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
-import { coreCases } from "./role-cases/core";
-import { levelsCases } from "./role-cases/levels";
-import { patternsCases } from "./role-cases/patterns";
-import { planCases } from "./role-cases/plan";
-import { recordingCases } from "./role-cases/recording";
-import { signOffCases } from "./role-cases/sign-off";
-import type { Prepared } from "./role-cases/types";
+import type { Prepared, RoleCases } from "./role-cases/types";
 
-const writes: Record<string, (fx: SiteFixture) => Promise<Prepared>> = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases };
+/** Every role case of every feature (the role matrix's own list), so a new write is walked here too. */
+// Loaded after the harness has mocked the session (an eager glob would be hoisted above that).
+const caseModules = await Promise.all(Object.values(import.meta.glob<Record<string, unknown>>("./role-cases/*.ts")).map((load) => load()));
+const writes: Record<string, (fx: SiteFixture) => Promise<Prepared>> = Object.assign(
+  {},
+  ...caseModules.flatMap((m) => Object.entries(m).filter(([name]) => name.endsWith("Cases")).map(([, cases]) => cases as RoleCases)),
+);
 
 const tableNames = (Object.values(schema) as unknown[]).filter((t): t is PgTable => is(t, PgTable)).map(getTableName).filter((n) => n !== "idempotency_keys");
 
