@@ -7,7 +7,8 @@ export function ImportReport({ preview: p }: { preview: Preview }) {
     <div className="space-y-3">
       <p aria-live="polite">
         <span className="num">{p.rowCount}</span> rows · <span className="num font-semibold text-ok">{p.validCount}</span> pass ·{" "}
-        <span className={`num font-semibold ${p.errors.length ? "text-warn" : ""}`}>{p.errors.length}</span> refused
+        <span className={`num font-semibold ${p.errors.length ? "text-warn" : ""}`}>{p.errors.length}</span> refused ·{" "}
+        <span className="num font-semibold" data-level-warnings={p.warnings.length}>{p.warnings.length}</span> level warnings
       </p>
       <div className="overflow-x-auto">
         <table className="ledger text-xs" aria-label="First rows of the file">
@@ -24,6 +25,17 @@ export function ImportReport({ preview: p }: { preview: Preview }) {
             ))}
           </ul>
           {p.errors.length > shown.length && <p className="mt-2 text-sm">…and {p.errors.length - shown.length} more rows; the first {shown.length} are listed. A wrong column mapping is the usual cause of so many.</p>}
+        </section>
+      )}
+      {p.warnings.length > 0 && (
+        <section aria-labelledby="level-warnings-h" className="rounded border border-warn p-3">
+          <h3 id="level-warnings-h" className="font-bold">Levels outside their context ({p.warnings.length} rows; they will be imported)</h3>
+          <p className="text-sm text-ink-soft">The find&apos;s reduced level lies above its context&apos;s recorded top or below its recorded base by more than the site&apos;s levelling tolerance. Check the level or the context.</p>
+          <ul className="mt-2 max-h-64 space-y-1 overflow-y-auto" aria-label="Level warnings">
+            {p.warnings.slice(0, 500).map((w) => (
+              <li key={w.row}><span className="num font-bold">Row {w.row}</span>: {w.reasons.join("; ")}</li>
+            ))}
+          </ul>
         </section>
       )}
     </div>

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { importColumnHints, importFieldLabels, importFields, importMappingSchema, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
+import { importColumnHints, importFieldLabels, importFields, importMappingSchema, zReferenceLabels, zReferences, type ImportMapping, type ImportRowError } from "@/lib/schemas/import";
 import { FormField } from "@/components/contexts/form-field";
 import { ApiError, apiClient } from "@/lib/api/client";
 import type { ApiAnswer } from "@/lib/api/client";
@@ -20,15 +20,16 @@ export function ImportWizard({ siteId }: { siteId: string }) {
   const [preview, setPreview] = useState<Preview | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
-  const [done, setDone] = useState<{ imported: number; firstNumber: number; lastNumber: number } | null>(null);
+  const [done, setDone] = useState<{ imported: number; firstNumber: number; lastNumber: number; warnings: number } | null>(null);
+  const [zReference, setZReference] = useState<(typeof zReferences)[number]>("rl");
   const form = useForm<ImportMapping>({ resolver: zodResolver(importMappingSchema) });
 
-  async function check(text: string, name: string, mapping?: ImportMapping) {
+  async function check(text: string, name: string, mapping?: ImportMapping, zRef = zReference) {
     setBusy("Checking every row…");
     setFailure(null);
     setDone(null);
     try {
-      const p = await apiClient.call("importPreview", { siteId }, { csv: text, fileName: name, mapping });
+      const p = await apiClient.call("importPreview", { siteId }, { csv: text, fileName: name, mapping, zReference: zRef });
       setPreview(p);
       form.reset(p.mapping as ImportMapping);
       for (const [k, msgs] of Object.entries(p.mappingProblems)) form.setError(k.replace("mapping.", "") as keyof ImportMapping, { message: msgs.join(" ") });
@@ -44,7 +45,7 @@ export function ImportWizard({ siteId }: { siteId: string }) {
     setBusy("Importing…");
     setFailure(null);
     try {
-      setDone(await apiClient.call("importCommit", { siteId }, { csv: file.text, fileName: file.name, mapping }));
+      setDone(await apiClient.call("importCommit", { siteId }, { csv: file.text, fileName: file.name, mapping, zReference }));
       setPreview(null);
       setFile(null);
     } catch (err) {
@@ -91,6 +92,7 @@ export function ImportWizard({ siteId }: { siteId: string }) {
       {done && (
         <p role="status" className="rounded border-2 border-ok bg-ok-light p-3 font-semibold text-ok">
           Imported <span className="num">{done.imported}</span> finds, numbers <span className="num">{done.firstNumber}</span>–<span className="num">{done.lastNumber}</span>.{" "}
+          {done.warnings > 0 && <span className="text-warn"><span className="num">{done.warnings}</span> with a level outside their context&apos;s recorded top and base. </span>}
           <Link className="underline" href={`/sites/${siteId}/finds?sort=number&dir=desc`}>See them in the register</Link>
         </p>
       )}
@@ -106,6 +108,17 @@ export function ImportWizard({ siteId }: { siteId: string }) {
                 </select>
               </FormField>
             ))}
+          </div>
+          <div className="max-w-xl">
+            <label className="label" htmlFor="z-reference">The z column holds</label>
+            <select id="z-reference" className="field" value={zReference} onChange={(e) => {
+              const next = e.target.value as (typeof zReferences)[number];
+              setZReference(next);
+              void form.handleSubmit((m) => check(file.text, file.name, m, next))();
+            }}>
+              {zReferences.map((z) => <option key={z} value={z}>{zReferenceLabels[z]}</option>)}
+            </select>
+            <p className="text-xs text-ink-faint">Loamwork keeps every z as a reduced level. Depths are converted with the trench&apos;s surface level, and refused where the trench has none.</p>
           </div>
           <div className="flex flex-wrap gap-2">
             <button type="button" className="btn" disabled={!!busy} onClick={form.handleSubmit((m) => check(file.text, file.name, m))}>Remember this mapping and check again</button>

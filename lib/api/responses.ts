@@ -99,7 +99,9 @@ export const importPreview = z.object({
   sample: z.array(z.array(z.string())),
   mappingProblems: z.record(z.string(), z.array(z.string())),
   errors: z.array(rowError),
+  /** Rows that pass but whose level lies outside their context's recorded top and base: warned of, counted. */
+  warnings: z.array(rowError),
   validCount: z.number(),
 });
 
-export const importDone = z.object({ imported: z.number(), firstNumber: z.number(), lastNumber: z.number(), importId: id });
+export const importDone = z.object({ imported: z.number(), firstNumber: z.number(), lastNumber: z.number(), importId: id, warnings: z.number() });

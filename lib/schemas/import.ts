@@ -56,11 +56,19 @@ export const MAX_IMPORT_CHARS = 30_000_000;
 /** The import request's body: the file travels as a JSON string, so leave room for its escaping. */
 export const MAX_IMPORT_BODY_BYTES = 48 * 1024 * 1024;
 
+/** What the file's z column holds: reduced levels on the site datum, or depths below the trench's surface level. */
+export const zReferences = ["rl", "depth"] as const;
+export const zReferenceLabels: Record<(typeof zReferences)[number], string> = {
+  rl: "reduced levels (RL, m above the site datum)",
+  depth: "depths below the trench's surface level (m, converted to RL)",
+};
+
 export const importPreviewSchema = z.object({
   csv: z.string().min(1, "The file is empty.").max(MAX_IMPORT_CHARS, "That file is larger than 30 MB; split it."),
   fileName: z.string().trim().max(300).default("upload.csv"),
   /** Omit to use the site's remembered mapping (or a guess from the headers). */
   mapping: importMappingSchema.optional(),
+  zReference: z.enum(zReferences, { error: "Say whether z holds reduced levels (rl) or depths below the surface (depth)." }).default("rl"),
 });
 
 export const importCommitSchema = importPreviewSchema.extend({ mapping: importMappingSchema });

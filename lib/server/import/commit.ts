@@ -37,11 +37,11 @@ export async function previewImport(db: Db, actor: SiteActor, input: ImportPrevi
   const source: "given" | "remembered" | "guessed" = input.mapping ? "given" : remembered ? "remembered" : "guessed";
   const problems = missingHeaders(csv, mapping);
   const base = { headers: csv.headers, mapping, mappingSource: source, rowCount: csv.rows.length, sample: csv.rows.slice(0, 10) };
-  if (Object.keys(problems).length) return { ...base, mappingProblems: problems, errors: [], validCount: 0 };
+  if (Object.keys(problems).length) return { ...base, mappingProblems: problems, errors: [], warnings: [], validCount: 0 };
   const full = mapping as ImportMapping;
   if (input.mapping) await db.transaction((tx) => saveImportMapping(tx, actor, full));
-  const result = validateRows(csv, full, await loadImportLookups(db, actor.site.id));
-  return { ...base, mappingProblems: {}, errors: result.errors, validCount: result.valid.length };
+  const result = validateRows(csv, full, await loadImportLookups(db, actor.site.id), input.zReference);
+  return { ...base, mappingProblems: {}, errors: result.errors, warnings: result.warnings, validCount: result.valid.length };
 }
 
 /**
@@ -55,7 +55,7 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
   if (csv.rows.length === 0) throw badInput("The file has a header but no rows.");
   return db.transaction(async (tx) => {
     await lockSiteNumbers(tx, actor.site.id);
-    const result = validateRows(csv, input.mapping, await loadImportLookups(tx, actor.site.id));
+    const result = validateRows(csv, input.mapping, await loadImportLookups(tx, actor.site.id), input.zReference);
     if (result.errors.length) {
       const n = result.errors.length;
       throw badInput(`${n} of ${csv.rows.length} rows cannot be imported, so nothing was imported. Fix ${n === 1 ? "it" : "them"} and upload the file again.`, undefined, { errors: result.errors });
@@ -68,10 +68,10 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
     }
     const range = numbers.reduce((m, n) => [Math.min(m[0], n), Math.max(m[1], n)], [Infinity, -Infinity]);
     // One trail entry for the whole file; each find has its own (insertBatch), naming this import.
-    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: [...result.contextIds] };
+    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: [...result.contextIds], zReference: input.zReference, levelWarnings: result.warnings.length };
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "import", recordType: "import", recordId: importId, after: summary });
     await saveImportMapping(tx, actor, input.mapping);
-    return { imported: result.valid.length, firstNumber: range[0], lastNumber: range[1], importId };
+    return { imported: result.valid.length, firstNumber: range[0], lastNumber: range[1], importId, warnings: result.warnings.length };
   });
 }
 

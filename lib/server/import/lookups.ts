@@ -1,5 +1,5 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/schema";
@@ -7,7 +7,10 @@ import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial";
 
 export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null; submittedBy: string | null; submittedAt: Date | null };
-export type TrenchWindow = { code: string; window: Window | null; problem?: string };
+/** A trench's plan window and its ground-surface level (RL), from which depths in a file are converted. */
+export type TrenchWindow = { code: string; window: Window | null; problem?: string; surfaceLevel?: number | null };
+/** A context's recorded top and base (RL): highest top and lowest base among its spot levels and spits. */
+export type ContextRange = { top: number | null; base: number | null };
 
 /** Everything a row is checked against, read once per file so 50,000 rows cost one pass in memory. */
 export type ImportLookups = {
@@ -16,12 +19,15 @@ export type ImportLookups = {
   trenches: Map<string, TrenchWindow>;
   usedNumbers: Set<number>;
   nextNumber: number;
+  /** Recorded top and base per context id; a find outside them by more than `tolerance` is warned of. */
+  levels?: Map<string, ContextRange>;
+  tolerance?: number;
 };
 
 const submitter = alias(users, "submitter");
 
 export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<ImportLookups> {
-  const [site] = await db.select({ next: sites.nextFindNumber }).from(sites).where(eq(sites.id, siteId));
+  const [site] = await db.select({ next: sites.nextFindNumber, tolerance: sites.levelTolerance }).from(sites).where(eq(sites.id, siteId));
   // One query after another: inside a transaction they share one connection (node-postgres queues
   // concurrent queries on a client, and warns that it will stop doing so).
   const cls = await db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId));
@@ -31,13 +37,14 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
     .leftJoin(users, eq(users.id, contexts.signedOffBy))
     .leftJoin(submitter, eq(submitter.id, contexts.submittedBy))
     .where(eq(contexts.siteId, siteId));
-  const tr = await db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline }).from(trenches).where(eq(trenches.siteId, siteId));
+  const tr = await db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline, surfaceLevel: trenches.surfaceLevel }).from(trenches).where(eq(trenches.siteId, siteId));
+  const levels = await contextRanges(db, siteId);
   const nums = await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId));
   const windows = new Map<string, TrenchWindow>();
   for (const t of tr) {
     // Each trench window is built once here, not once per row.
     const check = checkOutline(t.outline);
-    windows.set(t.id, check.ok ? { code: t.code, window: check.window } : { code: t.code, window: null, problem: check.reason });
+    windows.set(t.id, check.ok ? { code: t.code, window: check.window, surfaceLevel: t.surfaceLevel } : { code: t.code, window: null, problem: check.reason, surfaceLevel: t.surfaceLevel });
   }
   return {
     classes: new Map(cls.map((c) => [c.code.toUpperCase(), c.id])),
@@ -45,5 +52,27 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
     trenches: windows,
     usedNumbers: new Set(nums.map((r) => r.n)),
     nextNumber: site?.next ?? 1,
+    levels,
+    tolerance: site?.tolerance ?? 0.005,
   };
+}
+
+/** Every context's recorded top and base on a site, from the spot levels taken on them and their spits. */
+export async function contextRanges(db: Db | Tx, siteId: string): Promise<Map<string, ContextRange>> {
+  type Row = { id: string; top: number | string | null; base: number | string | null };
+  const result = await db.execute(sql`
+    with tops as (
+      select s.target_id as context_id, s.level from spot_levels s where s.site_id = ${siteId} and s.target = 'context_top'
+      union all select p.context_id, p.top_level from spits p where p.site_id = ${siteId} and p.top_level is not null
+    ), bases as (
+      select s.target_id as context_id, s.level from spot_levels s where s.site_id = ${siteId} and s.target = 'context_base'
+      union all select p.context_id, p.base_level from spits p where p.site_id = ${siteId} and p.base_level is not null
+    ), ranges as (
+      select context_id, max(level) as top, null::double precision as base from tops group by context_id
+      union all select context_id, null, min(level) from bases group by context_id
+    )
+    select context_id as id, max(top) as top, min(base) as base from ranges group by context_id`);
+  const rows = (result as unknown as { rows: Row[] }).rows;
+  const num = (v: number | string | null) => (v === null ? null : Number(v));
+  return new Map(rows.map((r) => [r.id, { top: num(r.top), base: num(r.base) }]));
 }

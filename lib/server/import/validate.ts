@@ -1,4 +1,5 @@
 import { MAX_FIND_NUMBER, findRules } from "@/lib/schemas/find";
+import { depthToLevel, levelOutsideContext } from "@/lib/levels/context-range";
 import type { ImportField, ImportMapping, ImportRowError } from "@/lib/schemas/import";
 import type { ImportLookups } from "./lookups";
 import type { ParsedCsv } from "./parse";
@@ -19,7 +20,8 @@ export type ValidRow = {
   description: string;
 };
 
-export type Validation = { valid: ValidRow[]; errors: ImportRowError[]; contextIds: Set<string> };
+/** `warnings`: rows that pass but whose level lies outside their context's recorded top and base (counted, not refused). */
+export type Validation = { valid: ValidRow[]; errors: ImportRowError[]; warnings: ImportRowError[]; contextIds: Set<string> };
 
 /** Accepts "12.5" and "12,5" (a decimal comma, common in European instrument exports); nothing else. */
 function readNumber(raw: string): number | null {
@@ -40,7 +42,7 @@ const ruleLabels: Record<keyof typeof ruleColumns, string> = { x: "x", y: "y", z
  * Checks every row against the site's classes, contexts, trench windows and used find numbers, in
  * memory, and lists every reason a row fails. Row numbers are as a spreadsheet shows them.
  */
-export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportLookups): Validation {
+export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportLookups, zReference: "rl" | "depth" = "rl"): Validation {
   const col = new Map<ImportField, number>();
   for (const [field, header] of Object.entries(mapping) as [ImportField, string | undefined][]) {
     if (!header) continue;
@@ -51,6 +53,7 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
   const cell = (r: string[], f: ImportField) => (col.has(f) ? (r[col.get(f)!] ?? "").trim() : "");
   const valid: ValidRow[] = [];
   const errors: ImportRowError[] = [];
+  const warnings: ImportRowError[] = [];
   const contextIds = new Set<string>();
   const inFile = new Map<number, number>();
   csv.rows.forEach((r, i) => {
@@ -70,6 +73,15 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
       return v;
     };
     const values = { x: read("x", true), y: read("y", true), z: read("z", false), count: read("count", false), weightG: read("weightG", false), description: cell(r, "description") };
+    const ctxEarly = lk.contexts.get(readNumber(cell(r, "contextNumber")) ?? Number.NaN);
+    if (zReference === "depth" && values.z !== null) {
+      // A depth becomes a reduced level only against the trench's own surface level; without it, no guess.
+      const surface = ctxEarly ? lk.trenches.get(ctxEarly.trenchId)?.surfaceLevel : undefined;
+      const code = ctxEarly ? lk.trenches.get(ctxEarly.trenchId)?.code ?? "?" : null;
+      if (values.z < 0) reasons.push(`z "${cell(r, "z")}" is a depth below the surface, so it cannot be negative`);
+      else if (code !== null && (surface === null || surface === undefined)) reasons.push(`z is a depth below the surface, but trench ${code} has no surface level to convert it from: record the trench's surface level (RL) first, or import reduced levels`);
+      else if (surface !== null && surface !== undefined) values.z = depthToLevel(surface, values.z);
+    }
     const checked = rowRules.safeParse(values);
     const broken = new Set<string>();
     for (const issue of checked.error?.issues ?? []) {
@@ -120,9 +132,11 @@ export function validateRows(csv: ParsedCsv, mapping: ImportMapping, lk: ImportL
     }
     contextIds.add(ctx!.id);
     const f = checked.data;
+    const outside = levelOutsideContext(f.z ?? null, lk.levels?.get(ctx!.id), lk.tolerance ?? 0, ctx!.number);
+    if (outside) warnings.push({ row, reasons: [outside] });
     valid.push({ row, number, stationPoint, contextId: ctx!.id, trenchId: ctx!.trenchId, classId: classId!, x: f.x, y: f.y, z: f.z ?? null, count: f.count ?? null, weightG: f.weightG ?? null, description: f.description });
   });
-  return { ...refuseBeyondLastNumber(valid, errors, lk.nextNumber), contextIds };
+  return { ...refuseBeyondLastNumber(valid, errors, lk.nextNumber), warnings, contextIds };
 }
 
 const maxNumberWords = MAX_FIND_NUMBER.toLocaleString("en-GB");
