@@ -6,6 +6,7 @@ import { alias } from "drizzle-orm/pg-core";
 import { contextRelations, contexts, finds, trenches, users, type Context, type Find, type Trench } from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
+import { squareContent } from "./squares";
 import { badInput, conflict, notFound } from "./errors";
 import type { SiteActor } from "./membership";
 import { formatStamp } from "./locks";
@@ -191,12 +192,14 @@ export async function trenchRecordSet(tx: Db | Tx, trench: Trench) {
 
 export async function trenchFingerprint(tx: Db | Tx, trench: Trench): Promise<string> {
   const set = await trenchRecordSet(tx, trench);
+  const squares = await squareContent(tx, { trenchId: trench.id });
   return sha256Hex(
     canonicalJson({
       trench: { id: trench.id, code: trench.code, name: trench.name, outline: trench.outline },
       contexts: set.contexts.map(sheetContent),
       relations: set.relations.map((r) => ({ fromId: r.fromId, toId: r.toId, kind: r.kind })),
       finds: set.finds.map(findContent),
+      ...(squares.length && { squares }),
     }),
   );
 }
@@ -204,7 +207,8 @@ export async function trenchFingerprint(tx: Db | Tx, trench: Trench): Promise<st
 export async function contextFingerprint(tx: Db | Tx, context: Context): Promise<string> {
   const rels = await tx.select().from(contextRelations).where(or(eq(contextRelations.fromId, context.id), eq(contextRelations.toId, context.id))).orderBy(asc(contextRelations.id));
   const fs = await tx.select().from(finds).where(eq(finds.contextId, context.id)).orderBy(asc(finds.number));
-  return sha256Hex(canonicalJson({ context: sheetContent(context), relations: rels.map((r) => ({ fromId: r.fromId, toId: r.toId, kind: r.kind })), finds: fs.map(findContent) }));
+  const squares = await squareContent(tx, { contextId: context.id });
+  return sha256Hex(canonicalJson({ context: sheetContent(context), relations: rels.map((r) => ({ fromId: r.fromId, toId: r.toId, kind: r.kind })), finds: fs.map(findContent), ...(squares.length && { squares }) }));
 }
 
 // ——— The director's queue ———

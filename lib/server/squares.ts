@@ -168,3 +168,18 @@ export async function deleteSquareSample(db: Db, actor: SiteActor, sampleId: str
     return { deleted: before.id };
   });
 }
+
+/**
+ * The square records of a trench or a context as a sign-off fingerprint takes them (sorted, stable keys).
+ * Empty when there are none, so a trench without counts keeps the fingerprint it had before squares existed.
+ */
+export async function squareContent(tx: Db | Tx, where: { trenchId: string } | { contextId: string }) {
+  const cond = "trenchId" in where ? eq(squareSamples.trenchId, where.trenchId) : eq(squareSamples.contextId, where.contextId);
+  const rows = await tx
+    .select({ contextId: squareSamples.contextId, spitId: squareSamples.spitId, col: squareSamples.col, row: squareSamples.row, excavatedArea: squareSamples.excavatedArea, classId: squareCounts.classId, count: squareCounts.count, weightG: squareCounts.weightG })
+    .from(squareSamples)
+    .innerJoin(squareCounts, eq(squareCounts.sampleId, squareSamples.id))
+    .where(cond);
+  const key = (r: (typeof rows)[number]) => `${r.contextId}|${r.spitId ?? ""}|${r.row}|${r.col}|${r.classId}`;
+  return rows.sort((a, b) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0));
+}

@@ -5,6 +5,7 @@ import { hashPassword } from "@/lib/server/passwords";
 import { windowToPolygon } from "@/lib/geometry/outline";
 import { DEMO_TRENCH } from "@/lib/spatial";
 import { seedDemoLevels } from "./seed-demo-levels";
+import { seedDemoSquares } from "./seed-demo-squares";
 import { clusteredLayout, createRandom, evenLayout, randomLayout, windowOf, type Pt } from "./demo-layout";
 
 /** The invented demo site. Every name here is made up. */
@@ -138,6 +139,7 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
     );
     for (let i = 0; i < rows.length; i += 500) await tx.insert(s.finds).values(rows.slice(i, i + 500));
     await seedDemoLevels(tx, { siteId: site.id, trenchId, contextId: (n: number) => ctx[n]!.id, diggerId: digger.id });
+    await seedDemoSquares(tx, { siteId: site.id, trenchId: trenchId.A, contextId: ctx[1005]!.id, classId: (code) => cls[code], diggerId: digger.id });
     await tx.update(s.sites).set({ nextFindNumber: number }).where(eq(s.sites.id, site.id));
     await tx.insert(s.auditEntries).values({ siteId: site.id, actorId: director.id, action: "seed", recordType: "site", recordId: site.id, after: { finds: rows.length } });
     return { created: true, siteId: site.id };

@@ -10,6 +10,7 @@ import * as squareRecordRoute from "@/app/api/sites/[siteId]/square-records/[sam
 import * as squareImportRoute from "@/app/api/sites/[siteId]/square-import/route";
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
 import * as spitsRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/route";
+import { contextFingerprint, trenchFingerprint } from "@/lib/server/sign-off";
 
 const site = (fx: SiteFixture) => ({ siteId: fx.site.id });
 const trench = (fx: SiteFixture) => ({ siteId: fx.site.id, trenchId: fx.trench.id });
@@ -146,6 +147,23 @@ describe("recording counts by square", () => {
     session.userId = fx.people.digger.id;
     expect((await call(squareRecordRoute, "DELETE", { siteId: fx.site.id, sampleId: s.id })).status).toBe(200);
     expect((await readSquares(fx)).samples).toEqual([]);
+  });
+});
+
+describe("counts by square in what is signed off", () => {
+  it("a square count changes the context's and the trench's fingerprints", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const before = [await contextFingerprint(db, fx.context), await trenchFingerprint(db, fx.trench)];
+    const s = await makeSquareRecord(fx, 1, 1, 5);
+    const during = [await contextFingerprint(db, fx.context), await trenchFingerprint(db, fx.trench)];
+    expect(during[0]).not.toBe(before[0]);
+    expect(during[1]).not.toBe(before[1]);
+    await db.update(schema.squareCounts).set({ count: 6 }).where(eq(schema.squareCounts.sampleId, s.id));
+    expect(await contextFingerprint(db, fx.context)).not.toBe(during[0]);
+    // No records, the fingerprint it had before squares existed.
+    await db.delete(schema.squareSamples).where(eq(schema.squareSamples.id, s.id));
+    expect(await contextFingerprint(db, fx.context)).toBe(before[0]);
   });
 });
 

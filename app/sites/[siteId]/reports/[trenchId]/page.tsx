@@ -5,6 +5,7 @@ import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/componen
 import { SiteNav } from "@/components/site-nav";
 import { PlanFigure } from "@/components/sign-off/plan-figure";
 import { PrintButton } from "@/components/sign-off/print-button";
+import { SquareMapsPrint } from "@/components/squares/square-maps-print";
 import { StateBadge } from "@/components/contexts/state-badge";
 import type { RunResult } from "@/lib/server/analysis/result-types";
 import { isPublicError } from "@/lib/server/errors";
@@ -23,6 +24,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
     throw err;
   });
   const [r, remains, depth, sections] = await Promise.all([read.trenchReport(trench), read.humanRemains(trenchId), read.trenchDepth(trenchId), read.trenchSections(trench)]);
+  const [squares, classes] = await Promise.all([read.trenchSquares(trenchId), read.classes()]);
   const signedCount = r.sheets.filter((s) => s.state === "signed_off").length;
   const matches = r.stampedFingerprint === r.fingerprint;
   return (
@@ -66,6 +68,8 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
             {r.classes.map((c) => <li key={c.id}><ClassSymbol symbol={c.symbol} colour={c.colour} /> {c.code} {c.label} <span className="num">({r.finds.filter((f) => f.classId === c.id).length})</span></li>)}
           </ul>
         </section>
+
+        <SquareMapsPrint trenchCode={trench.code} outline={trench.outline.coordinates} data={squares} classes={classes} />
 
         <section className="report-section" aria-labelledby="sheets-h">
           <h2 id="sheets-h" className="text-2xl font-bold">Context sheets</h2>
