@@ -4,6 +4,7 @@ import { ClassSymbol } from "@/components/class-symbol";
 import type { RunView } from "@/lib/server/analysis/run-view";
 import { TestFigure } from "./class-plots";
 import { PlanOverlay } from "./plan-overlay";
+import { SquareResults } from "./square-results";
 import { VerdictCard } from "./verdict-card";
 import { fmtM } from "./words";
 
@@ -67,6 +68,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
           </div>
         </section>
       )}
+      {result.squareTests && result.squareTests.length > 0 && <SquareResults tests={result.squareTests} classes={result.classes} />}
       <PlanOverlay result={result} runName={run.id.slice(0, 8)} />
       <section className="sheet" aria-labelledby={`cautions-${run.id}`}>
         <h3 id={`cautions-${run.id}`} className="font-bold">Before you quote this</h3>

@@ -2,13 +2,14 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { analysisRuns } from "@/db/schema";
-import { SpatialInputError, runDistributionTest, type SimulationPool } from "@/lib/spatial";
+import { ENGINE_VERSION, SpatialInputError, runDistributionTest, type RunResult as EngineResult, type SimulationPool } from "@/lib/spatial";
 import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
 import type { RunScope } from "./run-schema";
 import type { RunParamsStored } from "./run-view";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
 import { loadScope, type ScopeData } from "./scope-data";
+import { runSquareTests } from "./square-tests";
 
 /**
  * Progress reaches the run's row at most this often (ms), and through the row's trigger every watcher
@@ -65,11 +66,16 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     const { spec, entries } = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests: params.tests, params, seed: row.seed });
     try {
       const engineStart = Date.now();
-      const engine = await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool, stored: true });
+      // A run of square-count tests alone has no point tests for the engine's simulation run.
+      const engine: EngineResult = spec.tests.length
+        ? await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool, stored: true })
+        : { engineVersion: ENGINE_VERSION, seed: row.seed, nsim: params.nsim, level: params.level, window: { area: data.window.area, perimeter: data.window.perimeter, holes: data.window.holes.length }, points: finds.length, results: [], cautions: [] };
+      const squareTests = runSquareTests(data, params.squareTests ?? [], params, row.seed, () => stop.signal.aborted);
       const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;
       const result = adaptResult({ engine, entries, window: data.window, classes: data.classes, finds, correction: params.correction, rmax: params.rmax, elapsedMs: Date.now() - started });
+      if (squareTests.length) result.squareTests = squareTests;
       result.timing = { engineStart, engineEnd };
       await markDone(db, runId, result);
     } finally {

@@ -4,7 +4,7 @@
  * Plain numbers and arrays only (it is stored as JSON in analysis_runs.result). Types only: safe to
  * import from client components.
  */
-import type { Correction } from "./run-schema";
+import type { Correction, SquareTestKind } from "./run-schema";
 
 export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated" | "segregated";
 
@@ -55,6 +55,50 @@ export type CrossOut = Base & {
 export type InhomOut = Base & { kind: "inhomogeneous-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };
 export type TestOut = ClarkEvansOut | QuadratOut | LOut | PcfOut | CrossOut | InhomOut;
 
+/** Verdict of a square-count test: like values together, high and low alternating, hot or cold spots found. */
+export type SquareVerdictWord = "clustered" | "dispersed" | "hot-spots" | "no-evidence" | "not-run";
+export type SquareClassWord = "hot spot" | "cold spot" | "high among low" | "low among high" | "none";
+
+/** One square of the grid in a square-count result, placed on the plan (its whole square, x0..x1, y0..y1). */
+export type SquareCellOut = {
+  label: string;
+  x0: number; y0: number; x1: number; y1: number;
+  /** Excavated m² used, and the variable tested (density per m² or count). */
+  area: number;
+  value: number;
+  /** Local tests: local I_i or Gi* (a z-score), the permutation p and the false-discovery-rate adjusted p. */
+  statistic: number | null;
+  p: number | null;
+  pAdjusted: number | null;
+  class: SquareClassWord;
+};
+
+/** A test on counts by grid square, for one class (lib/spatial/lattice, through runSquareTest). */
+export type SquareTestOut = {
+  kind: SquareTestKind;
+  classId: string;
+  verdict: SquareVerdictWord;
+  sentence: string;
+  p: number | null;
+  pFrom: "permutation" | "randomisation" | "normal" | null;
+  question: string;
+  notes: string[];
+  /** Squares tested, and those left out with the reason. */
+  n: number;
+  leftOut: { label: string; reason: string }[];
+  neighbours: string;
+  style: "row" | "binary";
+  variable: "density" | "count";
+  permutations: number;
+  seed: number;
+  /** Global tests: the statistic and its expectation under the null. */
+  statistic: number | null;
+  expected: number | null;
+  z: number | null;
+  gridSize: number;
+  cells: SquareCellOut[];
+};
+
 /** Kernel intensity on a pixel grid (row 0 at minY), for the heat layer on the plan. */
 export type DensityOut = { classId: string; nx: number; ny: number; minX: number; minY: number; dx: number; dy: number; values: number[]; bandwidth: number; rule: string };
 
@@ -72,6 +116,8 @@ export type RunResult = {
   density: DensityOut[];
   /** Where each class's finds lie, for the plan overlay. */
   points: { classId: string; x: number[]; y: number[] }[];
+  /** Tests on counts by grid square (absent in runs stored before they existed). */
+  squareTests?: SquareTestOut[];
   /** statistics.md's cautions, as the engine words them. */
   cautions: string[];
   elapsedMs: number;

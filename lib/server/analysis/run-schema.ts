@@ -46,6 +46,25 @@ export const testSchema = z.discriminatedUnion("kind", [
 export type RunTest = z.infer<typeof testSchema>;
 export type TestKind = RunTest["kind"];
 
+/**
+ * A test on counts by grid square (lib/spatial/lattice), run on each class in scope: its counts summed
+ * over the chosen contexts and their spits, per square of the trench's grid. Neighbours are rook or queen
+ * on the grid, or a distance band between square centres; the permutations, seed and level are the run's.
+ */
+export const squareTestSchema = z.strictObject({
+  kind: z.enum(["moran", "geary", "local-moran", "getis-ord"]),
+  neighbours: z.enum(["queen", "rook", "distance"]).default("queen"),
+  /** The distance band's upper limit (m), for neighbours "distance"; default 1.5 squares. */
+  band: z.coerce.number().positive("The distance band must be longer than 0 m.").max(1000).optional(),
+  style: z.enum(["row", "binary"]).default("row"),
+  /** density: count per excavated m² (the default); count: the raw count. */
+  variable: z.enum(["density", "count"]).default("density"),
+  /** Squares with less excavated area (m²) are left out. */
+  minArea: z.coerce.number().min(0).max(100).default(0),
+});
+export type SquareTest = z.infer<typeof squareTestSchema>;
+export type SquareTestKind = SquareTest["kind"];
+
 export const runParamsSchema = z.strictObject({
   correction: correctionSchema.default("isotropic"),
   /** Largest distance studied (m); default a quarter of the trench's short side. */
@@ -63,12 +82,16 @@ export const runScopeSchema = z.strictObject({
 });
 export type RunScope = z.infer<typeof runScopeSchema>;
 
-export const runCreateSchema = z.strictObject({
-  scope: runScopeSchema,
-  tests: z.array(testSchema).min(1, "Choose at least one test.").max(40),
-  params: runParamsSchema.default({ correction: "isotropic", nsim: 999, level: 0.05 }),
-  label: z.string().trim().max(120).optional(),
-});
+export const runCreateSchema = z
+  .strictObject({
+    scope: runScopeSchema,
+    tests: z.array(testSchema).max(40),
+    /** Tests on counts by grid square; a run may hold them beside point tests, or alone. */
+    squareTests: z.array(squareTestSchema).max(20).default([]),
+    params: runParamsSchema.default({ correction: "isotropic", nsim: 999, level: 0.05 }),
+    label: z.string().trim().max(120).optional(),
+  })
+  .refine((r) => r.tests.length + r.squareTests.length > 0, { message: "Choose at least one test.", path: ["tests"] });
 export type RunCreate = z.infer<typeof runCreateSchema>;
 export type RunCreateInput = z.input<typeof runCreateSchema>;
 

@@ -1,5 +1,5 @@
 import type { RunResult } from "./result-types";
-import type { RunScope, RunTest } from "./run-schema";
+import type { RunScope, RunTest, SquareTest } from "./run-schema";
 import type { StratWarning } from "./stratigraphy";
 
 /** A run as the API returns it. `outOfDate` is computed on read from the fingerprint. Types only. */
@@ -9,6 +9,8 @@ export type RunParamsStored = {
   nsim: number;
   level: number;
   tests: RunTest[];
+  /** Tests on counts by grid square (absent in runs stored before they existed). */
+  squareTests?: SquareTest[];
   label?: string;
   /** Names at the time of the run, for lists. */
   names: { trench: string; contexts: number[]; classes: string[] };

@@ -14,6 +14,7 @@ import type { RunCreate, RunScope, RunTest } from "./run-schema";
 import type { RunParamsStored, RunView } from "./run-view";
 import { countsByClass, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
+import { squareRefusals } from "./square-tests";
 import { MIN_POINTS, tooFewMessage } from "./thresholds";
 
 /** Every refusal of a test in this scope: a class it names is missing or has too few finds. */
@@ -44,7 +45,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
   // Got first, so that a queue starting now hands back older left-behind runs before this one.
   const queue = await runQueue();
   const data = await loadScope(db, actor.site.id, input.scope);
-  const refusals = testRefusals(data, input.tests);
+  const refusals = [...testRefusals(data, input.tests), ...squareRefusals(data, input.squareTests)];
   if (refusals.length) throw badInput(refusals.join(" "), { tests: refusals });
   const rmax = input.params.rmax ?? roundMetres(defaultRmax(data.window));
   if (rmax >= data.window.diameter) {
@@ -56,6 +57,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     nsim: input.params.nsim,
     level: input.params.level,
     tests: input.tests,
+    ...(input.squareTests.length ? { squareTests: input.squareTests } : {}),
     label: input.label,
     names: { trench: data.trench.code, contexts: data.contexts.map((c) => c.number), classes: data.classes.map((c) => c.code) },
     warnings: await stratWarningsFor(db, actor.site.id, data),
@@ -68,7 +70,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
         siteId: actor.site.id,
         trenchId: data.trench.id,
         scope: input.scope,
-        method: [...new Set(input.tests.map((t) => t.kind))].join(","),
+        method: [...new Set([...input.tests, ...input.squareTests].map((t) => t.kind))].join(","),
         params,
         seed,
         engineVersion: ENGINE_VERSION,

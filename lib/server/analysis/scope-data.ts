@@ -2,12 +2,24 @@ import "server-only";
 import { createHash } from "node:crypto";
 import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contextRelations, contexts, finds, trenches, type ArtefactClass, type Context, type Trench } from "@/db/schema";
+import { artefactClasses, contextRelations, contexts, finds, squareCounts, squareSamples, trenches, type ArtefactClass, type Context, type Trench } from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial";
 import { badInput, notFound } from "../errors";
 import { canonicalJson } from "./canonical-json";
 import type { RunScope } from "./run-schema";
+
+/** A square record of a chosen context (any spit), with its counts of the chosen classes. */
+export type ScopeSquareSample = {
+  id: string;
+  col: number;
+  row: number;
+  contextId: string;
+  spitId: string | null;
+  excavatedArea: number | null;
+  updatedAt: Date;
+  counts: { classId: string; count: number; weightG: number | null }[];
+};
 
 export type ScopeFind = { id: string; number: number; x: number; y: number; classId: string; contextId: string; updatedAt: Date };
 
@@ -19,6 +31,8 @@ export type ScopeData = {
   classes: ArtefactClass[];
   /** Every find of the chosen classes in the chosen contexts: the pattern, the labelling pool, the "all finds" background. */
   finds: ScopeFind[];
+  /** Counts by grid square in the chosen contexts, for the square-count tests. */
+  squareSamples: ScopeSquareSample[];
   fingerprint: string;
 };
 
@@ -26,15 +40,46 @@ export type ScopeData = {
  * SHA-256 (FIPS 180-4) over the canonical JSON of the records a run reads: each find's id, number, x, y,
  * class, context and last change; the trench outline; the chosen contexts' state. Same records ⇒ same hash.
  */
-export function fingerprintOf(trench: Pick<Trench, "id" | "outline">, ctxs: Pick<Context, "id" | "number" | "state">[], rows: ScopeFind[]): string {
-  const doc = {
+export function fingerprintOf(
+  trench: Pick<Trench, "id" | "outline"> & Partial<Pick<Trench, "squareSize" | "squareOriginX" | "squareOriginY">>,
+  ctxs: Pick<Context, "id" | "number" | "state">[],
+  rows: ScopeFind[],
+  samples: ScopeSquareSample[] = [],
+): string {
+  const doc: Record<string, unknown> = {
     trench: { id: trench.id, outline: trench.outline.coordinates },
     contexts: [...ctxs].sort((a, b) => a.number - b.number).map((c) => ({ id: c.id, number: c.number, state: c.state })),
     finds: [...rows]
       .sort((a, b) => a.number - b.number)
       .map((f) => ({ id: f.id, number: f.number, x: f.x, y: f.y, class: f.classId, context: f.contextId, updatedAt: f.updatedAt })),
   };
+  // Counts by square join the hash only where there are some, so that runs on scopes without them keep
+  // the fingerprint they were stored with.
+  if (samples.length) {
+    doc.squares = {
+      grid: [trench.squareSize ?? null, trench.squareOriginX ?? null, trench.squareOriginY ?? null],
+      samples: [...samples]
+        .sort((a, b) => a.id.localeCompare(b.id))
+        .map((q) => ({ id: q.id, col: q.col, row: q.row, context: q.contextId, spit: q.spitId, area: q.excavatedArea, updatedAt: q.updatedAt, counts: [...q.counts].sort((a, b) => a.classId.localeCompare(b.classId)) })),
+    };
+  }
   return createHash("sha256").update(canonicalJson(doc)).digest("hex");
+}
+
+async function loadSquareSamples(db: Db | Tx, trenchId: string, contextIds: string[], classIds: string[]): Promise<ScopeSquareSample[]> {
+  const rows = await db
+    .select({ id: squareSamples.id, col: squareSamples.col, row: squareSamples.row, contextId: squareSamples.contextId, spitId: squareSamples.spitId, excavatedArea: squareSamples.excavatedArea, updatedAt: squareSamples.updatedAt })
+    .from(squareSamples)
+    .where(and(eq(squareSamples.trenchId, trenchId), inArray(squareSamples.contextId, contextIds)))
+    .orderBy(asc(squareSamples.row), asc(squareSamples.col));
+  if (!rows.length) return [];
+  const counts = await db
+    .select()
+    .from(squareCounts)
+    .where(and(inArray(squareCounts.sampleId, rows.map((r) => r.id)), inArray(squareCounts.classId, classIds)));
+  const bySample = new Map<string, ScopeSquareSample["counts"]>();
+  for (const c of counts) (bySample.get(c.sampleId) ?? bySample.set(c.sampleId, []).get(c.sampleId)!).push({ classId: c.classId, count: c.count, weightG: c.weightG });
+  return rows.map((r) => ({ ...r, counts: bySample.get(r.id) ?? [] }));
 }
 
 export async function loadScope(db: Db | Tx, siteId: string, scope: RunScope): Promise<ScopeData> {
@@ -53,7 +98,8 @@ export async function loadScope(db: Db | Tx, siteId: string, scope: RunScope): P
     .from(finds)
     .where(and(eq(finds.trenchId, trench.id), inArray(finds.contextId, contextIds), inArray(finds.classId, classIds)))
     .orderBy(asc(finds.number));
-  return { trench, window: check.window, contexts: ctxs, classes, finds: rows, fingerprint: fingerprintOf(trench, ctxs, rows) };
+  const samples = await loadSquareSamples(db, trench.id, contextIds, classIds);
+  return { trench, window: check.window, contexts: ctxs, classes, finds: rows, squareSamples: samples, fingerprint: fingerprintOf(trench, ctxs, rows, samples) };
 }
 
 /** The current fingerprint of a stored scope, or null when its records are gone (deleted trench or context). */

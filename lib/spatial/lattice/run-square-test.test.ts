@@ -51,6 +51,14 @@ describe("runSquareTest", () => {
     expect(["no evidence against the null", "dispersed"]).toContain(res.verdict);
   });
 
+  it("warns when the permutations are too few for the adjustment to find anything", () => {
+    const few = runSquareTest({ squares: hotCorner() }, { type: "getis-ord", permutations: 199 });
+    // 120 squares, two-sided: the smallest p is 2/200 = 0.01, and a lone spot needs p ≤ 0.05/120.
+    expect(few.cautions.join(" ")).toContain("With 199 permutations the smallest p-value a square can reach is 0.010, too coarse for the adjustment across 120 squares to leave a lone hot or cold spot (it needs p ≤ 0.00042): use at least 4799 permutations.");
+    const enough = runSquareTest({ squares: hotCorner() }, { type: "getis-ord", permutations: 4799 });
+    expect(enough.cautions.join(" ")).not.toMatch(/too coarse/);
+  });
+
   it("says which squares were left out and why", () => {
     const squares = hotCorner();
     squares[0] = { ...squares[0], area: 0, value: 0 };

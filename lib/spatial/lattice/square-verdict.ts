@@ -43,6 +43,14 @@ export function squareCautions(spec: SquareTestSpec, lattice: Lattice, local: bo
   if (local) {
     out.push(`With ${n} squares, some local tests come out "significant" by chance: the hot and cold spots shown are those left after the Benjamini–Hochberg false-discovery-rate adjustment across squares; the unadjusted p-values are shown for reference only.`);
   }
+  if (local && spec.permutations > 0) {
+    const sides = spec.alternative === "two-sided" ? 2 : 1;
+    const floor = sides / (spec.permutations + 1);
+    if (floor * n > spec.level) {
+      const needed = Math.ceil((sides * n) / spec.level) - 1;
+      out.push(`With ${spec.permutations} permutations the smallest p-value a square can reach is ${floor.toPrecision(2)}, too coarse for the adjustment across ${n} squares to leave a lone hot or cold spot (it needs p ≤ ${(spec.level / n).toPrecision(2)}): use at least ${needed} permutations.`);
+    }
+  }
   if (n < 30) out.push(`Only ${n} squares: the test has little power, and 'no evidence' is not evidence of randomness.`);
   if (lattice.variable === "density") {
     out.push("Tested as density (count per excavated m²), so squares cut by the outline or only partly dug stand beside whole ones; a small square's density rests on few finds and varies more.");

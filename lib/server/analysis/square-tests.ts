@@ -1,0 +1,113 @@
+import "server-only";
+import { runSquareTest, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
+import { gridOf, trenchSquares } from "../squares";
+import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "./result-types";
+import type { SquareTest } from "./run-schema";
+import type { ScopeData } from "./scope-data";
+
+/**
+ * The square-count tests of a run (issue 16), on the records loadScope read. For each test and each class
+ * in scope, a square is a unit when it has a square record in one of the chosen contexts: its value is the
+ * class's count summed over those records (a record without a row for the class counts 0: the square was
+ * dug and sieved, and none was found), and its area the largest area dug in it among them (the plan area:
+ * counts through several spits of one square are finds per m² of plan, not per spit). Squares without a
+ * record are not excavated and are not units; records in squares the redrawn outline no longer holds are
+ * left out. The run's permutations and level serve every test; test k of the run uses seed + k.
+ */
+
+export const SQUARE_QUESTIONS: Record<SquareTest["kind"], string> = {
+  moran: "Do squares with similar counts lie next to each other more than if the counts were placed over the dug squares at random (Moran's I)?",
+  geary: "Do neighbouring squares differ less (or more) in their counts than if the counts were placed at random (Geary's C, which weighs differences between neighbours)?",
+  "local-moran": "Which squares sit among neighbours like themselves (high among high, low among low), or stand out from them, more than chance placement allows (local Moran's I)?",
+  "getis-ord": "Where are the hot and cold spots: squares whose neighbourhood, the square included, holds more or fewer finds than chance placement allows (Getis–Ord Gi*)?",
+};
+
+const VERDICT: Record<SquareTestResult["verdict"], SquareVerdictWord> = {
+  clustered: "clustered",
+  dispersed: "dispersed",
+  "hot or cold spots": "hot-spots",
+  "no evidence against the null": "no-evidence",
+};
+
+/** Why the square tests cannot run in this scope (no grid, no records). */
+export function squareRefusals(data: ScopeData, tests: SquareTest[]): string[] {
+  if (!tests.length) return [];
+  if (!gridOf(data.trench)) return [`Trench ${data.trench.code} has no square grid: a director sets its square size and origin before counts by square can be tested.`];
+  if (!data.squareSamples.length) return ["No counts by grid square are recorded in the chosen contexts."];
+  return [];
+}
+
+export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { nsim: number; level: number }, seed: number, aborted: () => boolean = () => false): SquareTestOut[] {
+  if (!tests.length) return [];
+  const grid = gridOf(data.trench);
+  if (!grid) throw new SpatialInputError(squareRefusals(data, tests)[0]!);
+  const bySquare = new Map(trenchSquares(data.trench, grid).map((s) => [`${s.col},${s.row}`, s]));
+  const out: SquareTestOut[] = [];
+  let k = 0;
+  for (const t of tests) {
+    for (const cls of data.classes) {
+      if (aborted()) return out;
+      const testSeed = (seed + k++) >>> 0;
+      // One unit per square with a record in scope.
+      const units = new Map<string, { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number }>();
+      for (const sample of data.squareSamples) {
+        const key = `${sample.col},${sample.row}`;
+        const sq = bySquare.get(key);
+        if (!sq) continue;
+        const u = units.get(key) ?? units.set(key, { sq, value: 0, area: 0 }).get(key)!;
+        u.value += sample.counts.find((c) => c.classId === cls.id)?.count ?? 0;
+        u.area = Math.max(u.area, Math.min(sample.excavatedArea ?? sq.area, sq.area));
+      }
+      const squares: LatticeSquare[] = [...units.values()].map((u) => ({
+        id: u.sq.label,
+        col: u.sq.col,
+        row: u.sq.row,
+        centre: [(u.sq.x0 + u.sq.x1) / 2, (u.sq.y0 + u.sq.y1) / 2],
+        area: u.area,
+        value: u.value,
+      }));
+      const spec = {
+        type: t.kind,
+        neighbours: t.neighbours === "distance" ? { type: "distance", upper: t.band ?? 1.5 * grid.size } : { type: t.neighbours, from: "grid" },
+        style: t.style,
+        variable: t.variable,
+        minArea: t.minArea,
+        isolated: "drop",
+        permutations: params.nsim,
+        seed: testSeed,
+        level: params.level,
+      };
+      const base = { kind: t.kind, classId: cls.id, question: SQUARE_QUESTIONS[t.kind], style: t.style, variable: t.variable, permutations: params.nsim, seed: testSeed, gridSize: grid.size };
+      const cellOf = (label: string, value: number, extra: Partial<SquareCellOut> = {}): SquareCellOut => {
+        const u = [...units.values()].find((v) => v.sq.label === label)!;
+        return { label, x0: u.sq.x0, y0: u.sq.y0, x1: u.sq.x1, y1: u.sq.y1, area: u.area, value, statistic: null, p: null, pAdjusted: null, class: "none", ...extra };
+      };
+      try {
+        const r = runSquareTest({ squares }, spec);
+        const cells = r.squares
+          ? r.squares.map((q) => cellOf(q.id, q.value, { statistic: q.statistic, p: q.p, pAdjusted: q.pAdjusted, class: q.class }))
+          : squares.filter((q) => !r.leftOut.some((l) => l.id === q.id)).map((q) => cellOf(q.id, t.variable === "density" ? q.value / q.area : q.value));
+        out.push({
+          ...base,
+          verdict: VERDICT[r.verdict],
+          sentence: `${r.summary} Null: ${r.nullName}; seed ${testSeed}.`,
+          p: r.p,
+          pFrom: r.pFrom,
+          notes: r.cautions,
+          n: r.n,
+          leftOut: r.leftOut.map((l) => ({ label: l.id, reason: l.reason })),
+          neighbours: r.neighbours,
+          statistic: r.global?.statistic ?? null,
+          expected: r.global?.expected ?? null,
+          z: r.global?.z.randomisation ?? null,
+          cells,
+        });
+      } catch (err) {
+        if (!(err instanceof SpatialInputError)) throw err;
+        // This class cannot be tested here (too few squares, all alike): said on the result, the run goes on.
+        out.push({ ...base, verdict: "not-run", sentence: `Not run for ${cls.code}: ${err.message}`, p: null, pFrom: null, notes: [err.message], n: squares.length, leftOut: [], neighbours: "", statistic: null, expected: null, z: null, cells: [] });
+      }
+    }
+  }
+  return out;
+}

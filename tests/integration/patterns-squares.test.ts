@@ -1,0 +1,94 @@
+/**
+ * Square-count tests in the Patterns run: started through the runs route like the point tests, run as a
+ * job, stored with the run, and marked out of date when a count they read changes. The fixture trench is
+ * 10 m × 6 m with a 2 m × 1 m baulk: 58 squares of 1 m, every one recorded, with a block of high counts.
+ */
+import { describe, expect, it } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import * as schema from "@/db/schema";
+import { session, call } from "../support/harness";
+import { makeSite, type SiteFixture } from "../support/fixtures";
+import { gridTrench } from "./role-cases/squares";
+import { runsIdle } from "@/lib/server/jobs/run-queue";
+import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
+import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+
+/** Counts: 30 in the 2 × 2 block at E8–9 N3–4, else 1–4 by a fixed rule; the baulk's squares have none. */
+async function recordEverySquare(fx: SiteFixture) {
+  await gridTrench(fx);
+  const db = await getDb();
+  for (let row = 0; row < 6; row++) {
+    for (let col = 0; col < 10; col++) {
+      if (row === 2 && (col === 4 || col === 5)) continue; // under the baulk
+      const [s] = await db.insert(schema.squareSamples).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, col, row }).returning();
+      const count = col >= 8 && row >= 3 && row <= 4 ? 30 : 1 + ((col * 5 + row * 3) % 4);
+      await db.insert(schema.squareCounts).values({ sampleId: s!.id, classId: fx.cls.id, count });
+    }
+  }
+}
+
+async function start(fx: SiteFixture, body: Record<string, unknown>) {
+  session.userId = fx.people.specialist.id;
+  return call(runsRoute, "POST", { siteId: fx.site.id }, { scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id] }, tests: [], params: { nsim: 199, seed: 11 }, ...body });
+}
+const read = async (fx: SiteFixture, runId: string) => (await call(runRoute, "GET", { siteId: fx.site.id, runId })).json;
+
+describe("square-count tests in a run", () => {
+  it("run as a job: Moran's I finds the block clustered, Gi* marks it as hot spots, and the run is stored", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    // 999 permutations: with fewer, the smallest p of a square could not survive the adjustment over 58.
+    const res = await start(fx, { squareTests: [{ kind: "moran" }, { kind: "getis-ord", style: "binary" }], params: { nsim: 999, seed: 11 } });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    await runsIdle();
+    const run = await read(fx, res.json.id);
+    expect(run.status, run.error).toBe("done");
+    expect(run.params.squareTests.map((t: { kind: string }) => t.kind)).toEqual(["moran", "getis-ord"]);
+    const [moran, gi] = run.result.squareTests;
+    expect(moran.kind).toBe("moran");
+    expect(moran.n).toBe(58);
+    expect(moran.verdict).toBe("clustered");
+    expect(moran.p).toBeCloseTo(2 / 1000, 12); // two-sided, no permutation of 999 reaching the observed I
+    expect(moran.sentence).toMatch(/999 permutations, seed 11/);
+    expect(moran.cells).toHaveLength(58);
+    expect(gi.verdict).toBe("hot-spots");
+    const hot = gi.cells.filter((c: { class: string }) => c.class === "hot spot").map((c: { label: string }) => c.label);
+    // At least three of the block's four squares, and nothing away from it (squares named "E/N" of their corner).
+    expect(hot.filter((l: string) => ["8/3", "9/3", "8/4", "9/4"].includes(l)).length).toBeGreaterThanOrEqual(3);
+    expect(hot.every((l: string) => { const [e, n] = l.split("/").map(Number); return e >= 7 && n >= 2 && n <= 5; })).toBe(true);
+    expect(gi.notes.join(" ")).toMatch(/a hot spot is a place, not a process/i);
+    expect(gi.seed).toBe(12); // the run's seed + 1 for the second test
+  });
+
+  it("marks the run out of date when a count it read changes", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    const res = await start(fx, { squareTests: [{ kind: "geary" }] });
+    await runsIdle();
+    expect((await read(fx, res.json.id)).outOfDate).toBe(false);
+    const db = await getDb();
+    const [sample] = await db.select().from(schema.squareSamples).where(and(eq(schema.squareSamples.trenchId, fx.trench.id), eq(schema.squareSamples.col, 0), eq(schema.squareSamples.row, 0)));
+    await db.update(schema.squareCounts).set({ count: 9 }).where(eq(schema.squareCounts.sampleId, sample!.id));
+    await db.update(schema.squareSamples).set({ updatedAt: new Date(Date.now() + 1000) }).where(eq(schema.squareSamples.id, sample!.id));
+    expect((await read(fx, res.json.id)).outOfDate).toBe(true);
+  });
+
+  it("refuses a run with no test, and square tests where the trench has no grid or no counts", async () => {
+    const fx = await makeSite();
+    const none = await start(fx, {});
+    expect(none.status).toBe(400);
+    expect(JSON.stringify(none.json)).toContain("Choose at least one test.");
+    const noGrid = await start(fx, { squareTests: [{ kind: "moran" }] });
+    expect(noGrid.status).toBe(400);
+    expect(noGrid.json.error).toMatch(/has no square grid/);
+    await gridTrench(fx);
+    const noCounts = await start(fx, { squareTests: [{ kind: "moran" }] });
+    expect(noCounts.status).toBe(400);
+    expect(noCounts.json.error).toMatch(/No counts by grid square are recorded in the chosen contexts/);
+    const bad = await start(fx, { squareTests: [{ kind: "moran", neighbours: "bishop" }] });
+    expect(bad.status).toBe(400);
+    const db = await getDb();
+    expect(await db.select().from(schema.analysisRuns).where(eq(schema.analysisRuns.siteId, fx.site.id))).toHaveLength(0);
+  });
+});
