@@ -1,4 +1,4 @@
-import type { RunCreateInput, RunTest } from "@/lib/server/analysis/run-schema";
+import type { RunCreateInput, RunTest, SquareTest, SquareTestKind } from "@/lib/server/analysis/run-schema";
 
 /** The workspace form: scope, tests with their options, shared parameters. Every default is changeable. */
 export type FormState = {
@@ -12,6 +12,8 @@ export type FormState = {
   cross: { on: boolean; a: string; b: string; null: "random-labelling" | "a-fixed"; fun: "L" | "K" };
   kdiff: { on: boolean; a: string; b: string };
   inhom: { on: boolean; classId: string; reference: string };
+  /** Tests on counts by grid square: which ones, and their neighbours, weights, variable and minimum area. */
+  squares: { kinds: SquareTestKind[]; neighbours: SquareTest["neighbours"]; style: SquareTest["style"]; variable: SquareTest["variable"]; minArea: string };
   correction: "isotropic" | "translation" | "border";
   rmax: string;
   nsim: string;
@@ -31,6 +33,7 @@ export function initialForm(trenchId: string): FormState {
     cross: { on: false, a: "", b: "", null: "random-labelling", fun: "L" },
     kdiff: { on: false, a: "", b: "" },
     inhom: { on: false, classId: "", reference: "all" },
+    squares: { kinds: [], neighbours: "queen", style: "row", variable: "density", minArea: "0" },
     correction: "isotropic",
     rmax: "",
     nsim: "999",
@@ -49,9 +52,12 @@ export function toRequest(f: FormState): RunCreateInput {
   if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null, ...(f.cross.fun === "K" && { fun: "K" as const }) });
   if (f.kdiff.on) tests.push({ kind: "k-difference", a: f.kdiff.a, b: f.kdiff.b });
   if (f.inhom.on) tests.push({ kind: "inhomogeneous-l", classId: f.inhom.classId, reference: f.inhom.reference });
+  const { kinds, neighbours, style, variable, minArea } = f.squares;
+  const squareTests = kinds.map((kind) => ({ kind, neighbours, style, variable, minArea: Number(minArea) || 0 }));
   return {
     scope: { trenchId: f.trenchId, contextIds: f.contextIds, classIds: f.classIds },
     tests,
+    ...(squareTests.length && { squareTests }),
     params: {
       correction: f.correction,
       nsim: Number(f.nsim),
@@ -63,7 +69,7 @@ export function toRequest(f: FormState): RunCreateInput {
 }
 
 /** A saved run's settings back in the form (same seed), to run it again on today's records. */
-export function formFromRun(run: { scope: { trenchId: string; contextIds: string[]; classIds: string[] }; seed: number; params: { correction: FormState["correction"]; rmax: number; nsim: number; level: number; tests: RunTest[] } }): FormState {
+export function formFromRun(run: { scope: { trenchId: string; contextIds: string[]; classIds: string[] }; seed: number; params: { correction: FormState["correction"]; rmax: number; nsim: number; level: number; tests: RunTest[]; squareTests?: SquareTest[] } }): FormState {
   const f = initialForm(run.scope.trenchId);
   f.contextIds = [...run.scope.contextIds];
   f.classIds = [...run.scope.classIds];
@@ -77,5 +83,7 @@ export function formFromRun(run: { scope: { trenchId: string; contextIds: string
     if (t.kind === "k-difference") f.kdiff = { on: true, a: t.a, b: t.b };
     if (t.kind === "inhomogeneous-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
   }
+  const sq = run.params.squareTests ?? [];
+  if (sq.length) f.squares = { kinds: sq.map((t) => t.kind), neighbours: sq[0]!.neighbours, style: sq[0]!.style, variable: sq[0]!.variable, minArea: String(sq[0]!.minArea) };
   return { ...f, correction: run.params.correction, rmax: String(run.params.rmax), nsim: String(run.params.nsim), level: String(run.params.level), seed: String(run.seed) };
 }

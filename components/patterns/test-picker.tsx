@@ -2,7 +2,7 @@
 
 import type { ReactNode } from "react";
 import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
-import type { TestKind } from "@/lib/server/analysis/run-schema";
+import type { SquareTestKind, TestKind } from "@/lib/server/analysis/run-schema";
 import type { FormState } from "./form-state";
 
 type Props = { form: FormState; set: (f: Partial<FormState>) => void; summary: ScopeSummary | undefined };
@@ -72,7 +72,37 @@ export function TestPicker({ form, set, summary }: Props) {
         <Pick label="Class" value={form.inhom.classId} options={classOpts} onChange={(classId) => set({ inhom: { ...form.inhom, classId } })} />
         <Pick label="Background density from" value={form.inhom.reference} options={[["all", "All finds in scope"], ...classOpts]} onChange={(reference) => set({ inhom: { ...form.inhom, reference } })} />
       </Row>
+      <SquareTestRows form={form} set={set} />
     </fieldset>
+  );
+}
+
+const SQUARE_TESTS: [SquareTestKind, string, string][] = [
+  ["moran", "Moran's I", "Moran 1950; Cliff & Ord 1981"],
+  ["geary", "Geary's C", "Geary 1954"],
+  ["local-moran", "Local Moran's I (hot spots and outliers)", "Anselin 1995"],
+  ["getis-ord", "Getis–Ord Gi* (hot and cold spots)", "Getis & Ord 1992; Ord & Getis 1995"],
+];
+
+/** Tests on the counts recorded by grid square (sieved finds), with the run's permutations, level and seed. */
+function SquareTestRows({ form, set }: Pick<Props, "form" | "set">) {
+  const sq = form.squares;
+  const toggle = (kind: SquareTestKind, on: boolean) => set({ squares: { ...sq, kinds: on ? [...sq.kinds, kind] : sq.kinds.filter((k) => k !== kind) } });
+  return (
+    <>
+      <p className="mt-3 text-xs text-ink-soft">Counts by grid square (squares with counts recorded in the chosen contexts; the simulations are permutations of the counts over the squares):</p>
+      {SQUARE_TESTS.map(([kind, title, source]) => (
+        <Row key={kind} title={title} source={source} on={sq.kinds.includes(kind)} onToggle={(on) => toggle(kind, on)} shortfall={[]} />
+      ))}
+      {sq.kinds.length > 0 && (
+        <div className="ml-7 flex flex-wrap gap-3 py-2 text-sm">
+          <Pick label="Neighbours" value={sq.neighbours} options={[["queen", "Queen (edge or corner)"], ["rook", "Rook (shared edge)"], ["distance", "Centres within 1.5 squares"]]} onChange={(neighbours) => set({ squares: { ...sq, neighbours } })} />
+          <Pick label="Weights" value={sq.style} options={[["row", "Row-standardised"], ["binary", "Binary"]]} onChange={(style) => set({ squares: { ...sq, style } })} />
+          <Pick label="Variable" value={sq.variable} options={[["density", "Density per excavated m²"], ["count", "Raw count"]]} onChange={(variable) => set({ squares: { ...sq, variable } })} />
+          <label className="flex flex-col"><span className="label">Leave out squares under (m²)</span><input className="field w-28" inputMode="decimal" value={sq.minArea} onChange={(e) => set({ squares: { ...sq, minArea: e.target.value } })} /></label>
+        </div>
+      )}
+    </>
   );
 }
 

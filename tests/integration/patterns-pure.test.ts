@@ -73,6 +73,20 @@ describe("putting a saved run back in the form", () => {
     expect(req.scope).toEqual(run.scope);
     expect(req.params).toEqual({ correction: "translation", rmax: 1.75, nsim: 499, level: 0.01, seed: 77 });
     expect([...req.tests].sort((a, b) => a.kind.localeCompare(b.kind))).toEqual([...tests].sort((a, b) => a.kind.localeCompare(b.kind)));
+    expect(req.squareTests).toBeUndefined();
+  });
+
+  it("keeps the square-count tests and their options", async () => {
+    const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
+    const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
+    const squareTests = [
+      { kind: "moran", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
+      { kind: "getis-ord", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
+    ] as const;
+    const run = { scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] }, seed: 5, params: { correction: "isotropic" as const, rmax: 1, nsim: 999, level: 0.05, tests: [], squareTests: [...squareTests] } };
+    const req = toRequest(formFromRun(run));
+    expect(req.tests).toEqual([]);
+    expect(req.squareTests).toEqual(squareTests);
   });
 
   it("keeps a cross-K test cross-K, and asks for cross-L without naming it", async () => {
