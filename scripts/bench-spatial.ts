@@ -6,12 +6,16 @@
  * - a 999-simulation global envelope test on L (isotropic, MAD, CSR) through runDistributionTest on a warm
  *   two-thread pool (pool start-up timed apart), the per-simulation cost, and the share of the kernel's
  *   time spent enumerating pairs (the floor: what is left if the weights were free);
+ * - where one simulation's time goes (CPU, one thread): drawing the points, sorting them into cells,
+ *   preparing each point's edge slots, enumerating pairs, distances and binning, and the edge weights;
+ * - the same test with the translation correction (999 simulations at n = 200; beyond, 99 or 19, scaled);
  * - when Rscript with spatstat is installed, the same work in spatstat with fewer simulations, scaled
  *   per simulation, and the ratio.
+ * `--big` adds n = 20,000 (a whole occupation floor): the isotropic test only, with its peak memory.
  * Writes the markdown table to stdout and to bench/results-spatial.md.
  */
 import { execFileSync, spawnSync } from "node:child_process";
-import { mkdirSync, writeFileSync } from "node:fs";
+import { appendFileSync, mkdirSync, writeFileSync } from "node:fs";
 import { availableParallelism, cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { DEMO_TRENCH, kFunction, createIsotropicL, createRandom, defaultRGrid, runDistributionTest, createWindowSampler, ENGINE_VERSION, createWindow } from "../lib/spatial";
@@ -19,6 +23,7 @@ import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 const NSIM = 999;
 const quick = process.argv.includes("--quick");
+const big = process.argv.includes("--big");
 
 /**
  * CPU milliseconds per call (user + system of this process, which has no other busy thread while it is
@@ -39,16 +44,35 @@ async function measure(n: number): Promise<void> {
   const x = new Float64Array(n), y = new Float64Array(n);
   createWindowSampler(win).fill(createRandom(2024), n, x, y);
   const r = defaultRGrid(win, n);
-  const reps = n >= 5000 ? 5 : n >= 1000 ? 40 : 200;
-  const kMs = timeIt(reps, () => kFunction(win, { x, y }, { r, correction: "isotropic" }));
+  const reps = n >= 20000 ? 2 : n >= 5000 ? 5 : n >= 1000 ? 40 : 200;
+  const kMs = n >= 20000 ? NaN : timeIt(reps, () => kFunction(win, { x, y }, { r, correction: "isotropic" }));
   const est = createIsotropicL(win, r);
-  if (est.kernel !== "wasm") throw new Error("the WebAssembly kernel did not load");
+  if (est.kernel !== "wasm" || !est.part) throw new Error("the WebAssembly kernel did not load");
   const estTs = createIsotropicL(win, r, { kernel: "typescript" });
   const out = new Float64Array(r.length);
   const kernelMs = timeIt(reps, () => est.l(x, y, n, out));
-  const kernelTsMs = timeIt(reps, () => estTs.l(x, y, n, out));
+  const kernelTsMs = n >= 20000 ? NaN : timeIt(reps, () => estTs.l(x, y, n, out));
   const pairMs = timeIt(reps, () => est.countPairs(x, y, n));
   const pairs = est.countPairs(x, y, n);
+  // where one simulation's time goes: each part timed with the parts before it, the differences reported
+  const part = est.part;
+  const sx = new Float64Array(n), sy = new Float64Array(n);
+  let stream = 0;
+  const sampler = createWindowSampler(win);
+  const profile = {
+    sample: timeIt(reps, () => sampler.fill(createRandom(5, stream++), n, sx, sy)),
+    bucket: timeIt(reps, () => part(x, y, n, "bucket")),
+    prepare: timeIt(reps, () => part(x, y, n, "prepare")),
+    bins: timeIt(reps, () => part(x, y, n, "bins")),
+  };
+  const breakdown = {
+    sample: profile.sample,
+    bucket: profile.bucket,
+    prepare: profile.prepare - profile.bucket,
+    enumerate: pairMs - profile.bucket,
+    bins: profile.bins - pairMs,
+    weights: kernelMs - profile.prepare - (profile.bins - profile.bucket),
+  };
   const t0 = performance.now();
   const pool = createSimulationPool({ threads: 2 });
   const points = Array.from(x, (v, k) => ({ x: v, y: y[k] }));
@@ -64,11 +88,21 @@ async function measure(n: number): Promise<void> {
   // user + system time of every thread of this process (main and workers)
   const cpu = process.cpuUsage(c1);
   const testCpuMs = (cpu.user + cpu.system) / 1000;
+  // the translation correction: the same test (fewer simulations beyond n = 1000, scaled per simulation)
+  let translation: { nsim: number; ms: number; cpuMs: number } | null = null;
+  if (n < 20000) {
+    const tNsim = n <= 200 && !quick ? NSIM : n <= 1000 ? 99 : 19;
+    const c2 = process.cpuUsage();
+    const t2 = performance.now();
+    await runDistributionTest({ ...spec, nsim: tNsim, tests: [{ type: "l-envelope", statistic: "mad", correction: "translation" }] }, { pool });
+    const cpu2 = process.cpuUsage(c2);
+    translation = { nsim: tNsim, ms: performance.now() - t2, cpuMs: (cpu2.user + cpu2.system) / 1000 };
+  }
   await pool.destroy();
   const csv = join(tmpdir(), `loamwork-bench-${n}.csv`);
   writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
-  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`);
+  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`);
 }
 
 function spatstat(csv: string, nsim: number): { k: number; test: number; nsim: number; spatstat: string; p: number } | null {
@@ -84,16 +118,20 @@ async function main(): Promise<void> {
   const child = process.argv.find((a) => a.startsWith("--n="));
   if (child) return measure(Number(child.slice(4)));
   const rows: string[] = [];
+  const profileRows: string[] = [];
   const notes: string[] = [];
   let spatstatVersion = "";
-  for (const n of [200, 1000, 5000]) {
-    const run = spawnSync(process.execPath, ["--import", "tsx", import.meta.filename, `--n=${n}`, ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
+  for (const n of big ? [200, 1000, 5000, 20000] : [200, 1000, 5000]) {
+    const run = spawnSync(process.execPath, ["--import", "tsx", import.meta.filename, `--n=${n}`, ...(quick ? ["--quick"] : [])], { encoding: "utf8", maxBuffer: 1 << 26 });
     if (run.status !== 0) throw new Error(`bench for n = ${n} failed: ${run.stderr}`);
     const m = JSON.parse(run.stdout.trim().split("\n").pop()!);
+    // kept as it comes, so that a long run stopped part-way still leaves its finished rows
+    mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });
+    appendFileSync(join(import.meta.dirname, "..", "bench", "results-spatial-raw.jsonl"), `${JSON.stringify({ at: new Date().toISOString(), ...m })}\n`);
     const perSim = m.testMs / m.nsim;
     const rNsim = n <= 200 ? 39 : n <= 1000 ? 19 : 4;
-    const R = spatstat(m.csv, rNsim);
-    let rCols = "not installed | – | –";
+    const R = n >= 20000 ? null : spatstat(m.csv, rNsim);
+    let rCols = n >= 20000 ? "not run | – | –" : "not installed | – | –";
     if (R) {
       spatstatVersion = R.spatstat;
       const rPerSim = R.test / R.nsim;
@@ -102,6 +140,12 @@ async function main(): Promise<void> {
     rows.push(
       `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${m.kernelTsMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${(m.testCpuMs / 1000).toFixed(2)} s | ${m.load.toFixed(1)} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
     );
+    const b = m.breakdown as Record<"sample" | "bucket" | "prepare" | "enumerate" | "bins" | "weights", number>;
+    const total = b.sample + m.kernelMs;
+    const pc = (v: number) => `${v.toFixed(2)} ms (${((100 * v) / total).toFixed(0)} %)`;
+    const tr = m.translation as { nsim: number; ms: number; cpuMs: number } | null;
+    const trCol = tr ? `${((tr.ms / tr.nsim) * NSIM / 1000).toFixed(1)} s${tr.nsim !== NSIM ? ` (${tr.nsim} sims, scaled)` : ""} · ${(tr.cpuMs / tr.nsim).toFixed(1)} ms CPU/sim` : "not run";
+    profileRows.push(`| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trCol} |`);
     process.stderr.write(`n = ${n} done\n`);
   }
   notes.push(
@@ -121,7 +165,16 @@ async function main(): Promise<void> {
     "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
     ...rows,
   ].join("\n");
-  const md = `# Spatial engine benchmark\n\n${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
+  const profile = [
+    "| n | draw points | sort into cells | edge slots | pair enumeration | distances + bins | edge weights | one simulation (CPU, one thread) | per simulation in the test (CPU, all threads) | translation correction: 999-sim test (wall) |",
+    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+    ...profileRows,
+  ].join("\n");
+  notes.push(
+    "Profile: one simulation of the isotropic L test taken apart (CPU per call, one thread, repeated calls): draw n uniform points in the trench; sort them into the cell grid; each point's edge slots (edges nearer than r max, their angles); enumerate pairs within r max; each pair's distance, bin and histogram entry at unit weight; the rest of the kernel — Ripley's isotropic weight of both ends of every pair whose circle leaves the trench. The parts are differences of cumulative timings, so small ones carry the timer's noise.",
+    "Translation: the same test with the translation correction (exact polygon overlap per pair, edge-translation.ts), on the same warm pool; 999 simulations at n = 200, 99 at n = 1000, 19 beyond, scaled per simulation.",
+  );
+  const md = `# Spatial engine benchmark\n\n${table}\n\n## Where one simulation's time goes\n\n${profile}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
   mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });
   writeFileSync(join(import.meta.dirname, "..", "bench", "results-spatial.md"), md);
   process.stdout.write(md);

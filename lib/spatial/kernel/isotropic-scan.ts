@@ -50,6 +50,11 @@ export interface WasmIsotropicScan {
   scan(grid: CellGrid, n: number, hist: Float64Array, u: Float64Array | null): number;
   /** The same enumeration without weights or bins: the number of pairs (the floor of the cost). */
   countPairs(grid: CellGrid, n: number): number;
+  /**
+   * Parts of `scan` on their own, for the benchmark's profile: "prepare" the edge slots only; "bins" the
+   * enumeration with distances and bins but unit weights (no edge slots).
+   */
+  part(grid: CellGrid, n: number, hist: Float64Array, which: "prepare" | "bins"): number;
 }
 
 /**
@@ -122,6 +127,20 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
       for (let i = 0; i < n; i++) if (f64[t0 + i] < 0) f64[t0 + i] = fanAngle(edges, edgeCount, g.sx[i], g.sy[i], tol);
       f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
       const pairs = runScan(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0, at.ext, 1);
+      hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
+      return pairs;
+    },
+    part(g, n, hist, which) {
+      load(g, n);
+      if (which === "prepare") {
+        while (runPrepare(n, edgeCount, rmax, tol, at.sx, at.sy, at.edges, at.bd, at.total, at.start, at.blocks, capBlocks, at.scratch) < 0) {
+          layout(capN, n * Math.ceil(edgeCount / 2));
+          load(g, n);
+        }
+        return 0;
+      }
+      f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
+      const pairs = runScan(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, 0, at.ext, 2);
       hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
       return pairs;
     },

@@ -28,6 +28,12 @@ export interface IsotropicLEstimator {
   l(x: Float64Array, y: Float64Array, n: number, out: Float64Array): number;
   /** The same pair enumeration without weights: the floor of the cost (for the benchmark). */
   countPairs(x: Float64Array, y: Float64Array, n: number): number;
+  /**
+   * One part of the WebAssembly kernel's work, for the benchmark's profile (absent with the TypeScript
+   * loop): "bucket" sorts the points into the cell grid; "prepare" that and the points' edge slots; "bins"
+   * that and the pair enumeration with distances and bins, at unit weights.
+   */
+  part?(x: Float64Array, y: Float64Array, n: number, which: "bucket" | "prepare" | "bins"): number;
   /** Which implementation of the weighted scan runs. */
   readonly kernel: "wasm" | "typescript";
 }
@@ -139,5 +145,9 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
     return pairs;
   };
 
-  return { r, k, l, sums, countPairs: (x, y, n) => scan(x, y, n, false), kernel: wasm ? "wasm" : "typescript" };
+  const part = (x: Float64Array, y: Float64Array, n: number, which: "bucket" | "prepare" | "bins"): number => {
+    grid.bucket(x, y, n);
+    return which === "bucket" || !wasm ? 0 : wasm.part(grid, n, hist, which);
+  };
+  return { r, k, l, sums, countPairs: (x, y, n) => scan(x, y, n, false), kernel: wasm ? "wasm" : "typescript", ...(wasm && { part }) };
 }

@@ -86,7 +86,8 @@ const BLOCK: usize = 80;
 /**
  * Add every unordered pair within r max (d² ≤ r2) to hist: w(p, d) + w(q, d), times u_p·u_q when pU ≠ 0.
  * `guessStep` = (m−1)/r max guesses the bin on an even grid (confirmed against r, else binary search).
- * Returns the number of pairs; with weigh = 0 it only counts them (the benchmark's floor).
+ * Returns the number of pairs; with weigh = 0 it only counts them (the benchmark's floor), with weigh = 2
+ * it bins them with weight 1 at each end (the benchmark's profile: what the edge weights add).
  */
 export function scan(
   n: i32, nx: i32, ny: i32, reach: i32, r2: f64, m: i32, guessStep: f64,
@@ -122,7 +123,8 @@ export function scan(
             if (!weigh) continue;
             const d = Math.sqrt(dd);
             const inv = 1 / d;
-            const w =
+            // weigh = 2 (the benchmark's profile): distances and bins with unit weights, no edge correction
+            const w = weigh == 2 ? 2.0 :
               (d <= bdp ? 1.0 : weightBeyond(p, d, inv, pStart, pBlocks, pTotal)) +
               (d <= load<f64>(pBd + ((<usize>q) << 3)) ? 1.0 : weightBeyond(q, d, inv, pStart, pBlocks, pTotal));
             let b = <i32>Math.floor(d * guessStep) + 1;
