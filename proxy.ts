@@ -24,7 +24,8 @@ export function proxy(req: NextRequest) {
 }
 
 function needsSignIn(req: NextRequest): boolean {
-  if (!req.nextUrl.pathname.startsWith("/sites")) return false;
+  const path = req.nextUrl.pathname;
+  if (!path.startsWith("/sites") && !path.startsWith("/l/") && path !== "/scan") return false;
   return !req.cookies.getAll().some((c) => c.name.includes("authjs.session-token"));
 }
 

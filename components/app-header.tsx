@@ -17,6 +17,7 @@ export function AppHeader({ userName, crumbs = [] }: { userName: string; crumbs?
           ))}
         </nav>
         <div className="ml-auto flex items-center gap-3">
+          <Link href="/scan" className="btn">Scan a label</Link>
           <span className="text-sm text-ink-soft">{userName}</span>
           <SignOutButton />
         </div>

@@ -19,6 +19,9 @@ import { drawTrenchSections, listSections, sectionFinds, trenchContextLevels } f
 import { listSpits } from "../spits";
 import { listTrenchSquares } from "../squares";
 import { listSamples, readSample } from "../samples";
+import { labelItems, resolveLabel } from "../labels";
+import type { LabelRef } from "@/lib/labels/code";
+import type { LabelSelection } from "@/lib/schemas/labels";
 import type { SampleListQuery } from "@/lib/schemas/sample";
 import { trenchDepth } from "../trench-depth";
 import { patternsChoices } from "./patterns-choices";
@@ -66,6 +69,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     trenchSections: (trench: Trench) => drawTrenchSections(db, actor.site, trench),
     samples: (q: SampleListQuery) => listSamples(db, siteId, q),
     sample: (sampleId: string) => readSample(db, siteId, sampleId),
+    labels: (q: LabelSelection) => labelItems(db, actor.site, q),
   };
 }
 
@@ -73,5 +77,5 @@ export type SiteReads = ReturnType<typeof siteReads>;
 
 /** The reads of the signed-in person's own pages, outside any one site. */
 export function userReads(db: Db, userId: string) {
-  return { mySites: () => listMySites(db, userId) };
+  return { mySites: () => listMySites(db, userId), resolveLabel: (ref: LabelRef) => resolveLabel(db, userId, ref) };
 }
