@@ -37,6 +37,7 @@ export function SquaresPanel({ siteId, trench, initial, classes, contexts, finds
   const [classing, setClassing] = useState<Classing>("quantile");
   const [source, setSource] = useState<"counts" | "finds">("counts");
   const [contextId, setContextId] = useState("");
+  const [spitId, setSpitId] = useState("");
   const [showValues, setShowValues] = useState(true);
   const [tapped, setTapped] = useState<string | null>(null);
   const [said, setSaid] = useState("");
@@ -45,10 +46,16 @@ export function SquaresPanel({ siteId, trench, initial, classes, contexts, finds
 
   const shaded = useMemo(() => {
     if (!data.grid || !cls) return null;
-    const scope = { classId, contextIds: contextId ? [contextId] : null };
+    const scope = { classId, contextIds: contextId ? [contextId] : null, spitIds: spitId && source === "counts" ? [spitId] : null };
     const cells = source === "finds" ? findCells(data.squares, data.grid, finds, scope) : squareCells(data.squares, data.samples, scope);
     return shadeCells(cells, { measure, classing, what: source === "finds" ? `${cls.code} piece-plotted finds` : `${cls.code} ${cls.label}`, showValues });
-  }, [data, cls, classId, contextId, source, finds, measure, classing, showValues]);
+  }, [data, cls, classId, contextId, spitId, source, finds, measure, classing, showValues]);
+  // The spits squares were recorded in, within the chosen context: a map per spit as well as per context.
+  const spitChoices = useMemo(() => {
+    const seen = new Map<string, string>();
+    for (const s of data.samples) if (s.spitId && (!contextId || s.contextId === contextId)) seen.set(s.spitId, `${s.contextNumber} spit ${s.spitNumber}`);
+    return [...seen.entries()].sort((a, b) => a[1].localeCompare(b[1], "en", { numeric: true }));
+  }, [data.samples, contextId]);
 
   const square = tapped ? data.squares.find((s) => `${s.col},${s.row}` === tapped) : undefined;
   const outside = data.samples.filter((s) => s.outside);
@@ -68,8 +75,13 @@ export function SquaresPanel({ siteId, trench, initial, classes, contexts, finds
               <select className="field w-auto" value={source} onChange={(e) => setSource(e.target.value as "counts" | "finds")}><option value="counts">counts by square</option><option value="finds">piece-plotted finds</option></select>
             </label>
             <label className="flex flex-col"><span className="label">Context</span>
-              <select className="field w-auto" value={contextId} onChange={(e) => setContextId(e.target.value)}><option value="">all</option>{contexts.map((c) => <option key={c.id} value={c.id}>{c.number}</option>)}</select>
+              <select className="field w-auto" value={contextId} onChange={(e) => { setContextId(e.target.value); setSpitId(""); }}><option value="">all</option>{contexts.map((c) => <option key={c.id} value={c.id}>{c.number}</option>)}</select>
             </label>
+            {source === "counts" && spitChoices.length > 0 && (
+              <label className="flex flex-col"><span className="label">Spit</span>
+                <select className="field w-auto" value={spitId} onChange={(e) => setSpitId(e.target.value)}><option value="">all</option>{spitChoices.map(([id, name]) => <option key={id} value={id}>{name}</option>)}</select>
+              </label>
+            )}
             <label className="flex flex-col"><span className="label">Show</span>
               <select className="field w-auto" value={measure} onChange={(e) => setMeasure(e.target.value as Measure)}><option value="count">count</option><option value="density">density per excavated m²</option></select>
             </label>
