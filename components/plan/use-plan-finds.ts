@@ -62,7 +62,7 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
             patch((rows) => rows.filter((r) => r.id !== row.id));
           },
         });
-        say("ok", `Find #${row.number} recorded (number allocated by the server).`);
+        say(created.levelWarning ? "warn" : "ok", `Find #${row.number} recorded (number allocated by the server).${created.levelWarning ? ` ${created.levelWarning}` : ""}`);
         return { ok: true, row };
       } catch (err) {
         if (!(err instanceof ApiError)) throw err;

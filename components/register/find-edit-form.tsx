@@ -29,8 +29,8 @@ export function FindEditForm({ siteId, findId, initial, contexts, classes, chang
     const dirty = formState.dirtyFields as Partial<Record<keyof Output, boolean>>;
     const changes = Object.fromEntries(Object.entries(values).filter(([k]) => dirty[k as keyof Output] && !locked(k as keyof Output)));
     try {
-      await apiClient.call("findUpdate", { siteId, findId }, changes);
-      setNote({ ok: true, text: "Saved." });
+      const saved = await apiClient.call("findUpdate", { siteId, findId }, changes);
+      setNote(saved.levelWarning ? { ok: false, text: saved.levelWarning } : { ok: true, text: "Saved." });
     } catch (err) {
       if (err instanceof ApiError && applyFieldErrors(err.fieldErrors, setError as never)) return;
       setNote({ ok: false, text: err instanceof Error ? err.message : String(err) });

@@ -36,6 +36,9 @@ export const findRecord = z.object({
   version: z.number().int(),
 });
 
+/** A find as saved, with a warning (not a refusal) when its level lies outside its context's recorded top and base. */
+export const findSaved = findRecord.extend({ levelWarning: z.string().nullable() });
+
 /** One row of the finds register: the find with its trench, context and class, the recorder's name. */
 export const registerRow = findRecord.extend({
   recordedBy: z.string().nullable(),

@@ -1,4 +1,6 @@
 import "server-only";
+import { levelOutsideContext } from "@/lib/levels/context-range";
+import { contextRanges } from "./import/lookups";
 import { and, asc, desc, eq, gte, ilike, inArray, lte, or, sql, type SQL } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, trenches, users, type Find } from "@/db/schema";
@@ -41,6 +43,14 @@ export async function assertInsideTrench(tx: Db | Tx, siteId: string, trenchId: 
   return trench;
 }
 
+/** A warning (never a refusal) when the find's level lies outside its context's recorded top and base. */
+async function levelWarning(tx: Tx, actor: SiteActor, context: { id: string; number: number }, z: number | null): Promise<string | null> {
+  if (z === null) return null;
+  const ranges = await contextRanges(tx, actor.site.id, context.id);
+  const outside = levelOutsideContext(z, ranges.get(context.id), actor.site.levelTolerance, context.number);
+  return outside ? `Find saved, but check its level: ${outside}.` : null;
+}
+
 export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
   return db.transaction(async (tx) => {
     const context = await getContext(tx, actor.site.id, input.contextId);
@@ -53,7 +63,7 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
       .values({ ...input, z: input.z ?? null, count: input.count ?? null, weightG: input.weightG ?? null, siteId: actor.site.id, trenchId: context.trenchId, number, recordedBy: actor.userId })
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "find", recordId: row.id, after: row });
-    return row;
+    return { ...row, levelWarning: await levelWarning(tx, actor, context, row.z) };
   });
 }
 
@@ -78,7 +88,8 @@ export async function updateFind(db: Db, actor: SiteActor, findId: string, input
       .where(eq(finds.id, findId))
       .returning();
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "find", recordId: findId, before, after });
-    return after;
+    const context = after!.contextId === from.id ? from : await getContext(tx, actor.site.id, after!.contextId);
+    return { ...after!, levelWarning: await levelWarning(tx, actor, context, after!.z) };
   });
 }
 

@@ -6,6 +6,8 @@ import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import * as importRoute from "@/app/api/sites/[siteId]/import/route";
 import * as previewRoute from "@/app/api/sites/[siteId]/import/preview/route";
+import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
+import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 
 const mapping = { x: "E", y: "N", z: "Z", classCode: "Code", contextNumber: "Ctx" };
 
@@ -73,5 +75,23 @@ describe("import: the z column's reference and levels outside their context", ()
     expect(done.status).toBe(201);
     expect(done.json.imported).toBe(5);
     expect(done.json.warnings).toBe(2);
+  });
+});
+
+describe("the find form's level warning", () => {
+  it("a find saved outside its context's recorded top and base is saved with a warning; inside, without", async () => {
+    const fx = await makeSite();
+    await levelled(fx);
+    session.userId = fx.people.digger.id;
+    const base = { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 };
+    const high = await call(findsRoute, "POST", { siteId: fx.site.id }, { ...base, z: 49.75 });
+    expect(high.status).toBe(201);
+    expect(high.json.levelWarning).toBe(`Find saved, but check its level: RL 49.750 lies 150 mm above the recorded top of context ${fx.context.number} (49.600).`);
+    const fine = await call(findsRoute, "POST", { siteId: fx.site.id }, { ...base, z: 49.3 });
+    expect(fine.json.levelWarning).toBeNull();
+    const moved = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: fine.json.id }, { z: 49.0 });
+    expect(moved.status).toBe(200);
+    expect(moved.json.levelWarning).toMatch(/RL 49.000 lies 200 mm below the recorded base/);
+    expect(moved.json.z).toBe(49);
   });
 });

@@ -5,7 +5,7 @@ import { findCreateSchema, findListQuery, findUpdateSchema } from "@/lib/schemas
 import { memberRoleSchema, siteCreateSchema, siteUpdateSchema } from "@/lib/schemas/site";
 import { trenchCreateSchema, trenchUpdateSchema } from "@/lib/schemas/trench";
 import { GEOMETRY_BODY_LIMIT, classers, directorOnly, everyone, recorders, type ApiOperation } from "../operation";
-import { classRow, contextRow, createdSite, deletedFind, findPage, findRecord, memberRow, trenchRow } from "../responses";
+import { classRow, contextRow, createdSite, deletedFind, findPage, findSaved, memberRow, trenchRow } from "../responses";
 
 /**
  * Sites, members, classes, trenches, contexts and finds. The whole table is assembled in lib/api/catalog.ts.
@@ -32,9 +32,9 @@ export const coreApi = {
   contextUpdate: { method: "PATCH", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "Change a context sheet", roles: recorders, doing: "record contexts", input: contextUpdateSchema, response: contextRow, maxBodyBytes: GEOMETRY_BODY_LIMIT },
   contextDelete: { method: "DELETE", path: "/api/sites/{siteId}/contexts/{contextId}", summary: "Delete a context with no finds", roles: recorders, doing: "record contexts", from: "none" },
   findsList: { method: "GET", path: "/api/sites/{siteId}/finds", summary: "Finds register: filter, sort, page", roles: "member", input: findListQuery, from: "query", response: findPage },
-  findsCreate: { method: "POST", path: "/api/sites/{siteId}/finds", summary: "Record a find (its number is allocated by the server)", roles: recorders, doing: "record finds", input: findCreateSchema, response: findRecord, successStatus: 201 },
+  findsCreate: { method: "POST", path: "/api/sites/{siteId}/finds", summary: "Record a find (its number is allocated by the server)", roles: recorders, doing: "record finds", input: findCreateSchema, response: findSaved, successStatus: 201 },
   findRead: { method: "GET", path: "/api/sites/{siteId}/finds/{findId}", summary: "One find", roles: "member", from: "none" },
-  findUpdate: { method: "PATCH", path: "/api/sites/{siteId}/finds/{findId}", summary: "Change a find (specialists may re-class)", roles: everyone, doing: "change finds", input: findUpdateSchema, response: findRecord },
+  findUpdate: { method: "PATCH", path: "/api/sites/{siteId}/finds/{findId}", summary: "Change a find (specialists may re-class)", roles: everyone, doing: "change finds", input: findUpdateSchema, response: findSaved },
   findDelete: { method: "DELETE", path: "/api/sites/{siteId}/finds/{findId}", summary: "Delete a find (its number is never reused)", roles: recorders, doing: "delete finds", from: "none", response: deletedFind },
 } as const satisfies Record<string, ApiOperation>;
 

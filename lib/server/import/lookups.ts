@@ -58,7 +58,7 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
 }
 
 /** Every context's recorded top and base on a site, from the spot levels taken on them and their spits. */
-export async function contextRanges(db: Db | Tx, siteId: string): Promise<Map<string, ContextRange>> {
+export async function contextRanges(db: Db | Tx, siteId: string, contextId?: string): Promise<Map<string, ContextRange>> {
   type Row = { id: string; top: number | string | null; base: number | string | null };
   const result = await db.execute(sql`
     with tops as (
@@ -71,7 +71,8 @@ export async function contextRanges(db: Db | Tx, siteId: string): Promise<Map<st
       select context_id, max(level) as top, null::double precision as base from tops group by context_id
       union all select context_id, null, min(level) from bases group by context_id
     )
-    select context_id as id, max(top) as top, min(base) as base from ranges group by context_id`);
+    select context_id as id, max(top) as top, min(base) as base from ranges
+    where ${contextId ?? null}::uuid is null or context_id = ${contextId ?? null}::uuid group by context_id`);
   const rows = (result as unknown as { rows: Row[] }).rows;
   const num = (v: number | string | null) => (v === null ? null : Number(v));
   return new Map(rows.map((r) => [r.id, { top: num(r.top), base: num(r.base) }]));
