@@ -36,11 +36,20 @@
  * Simulation, envelopes and global tests (random/, simulation/, envelopes/, kernel/l-isotropic.ts) and the
  * run (run/: spec, tests, verdicts, cautions) are re-exported below as well.
  *
+ * Counts by grid square (lattice/; statistics.md, "Counts by grid square")
+ *   buildLattice({ squares: LatticeSquare[] }, { neighbours: rook | queen (grid or shapes) | distance band,
+ *     variable: "density" | "count", minArea, isolated: "refuse" | "drop" }) → units and neighbours
+ *   latticeWeights(neighbours, "row" | "binary", self?) → weights with S0, S1, S2
+ *   moranI, gearyC (normality, randomisation, permutations); localMoran, getisOrdStar (conditional
+ *   permutations, Benjamini–Hochberg adjustment); runSquareTest(input, spec) → verdict, cautions, squares
+ *   Checked against spdep in lattice/spdep.test.ts (fixtures and the R script in lattice/fixtures/).
+ *
  * Folders, one concept each, tests beside the code: geometry/ (window, rings, edge corrections, neighbours),
  * random/ (seeded streams, sampling in a window), estimators/ (K, L, g, cross-K, K_inhom, intensity,
  * Clark–Evans, quadrats, the r grid), envelopes/ (bands and global tests), simulation/ (null models as data,
  * chunks of simulations), kernel/ (the cell grid and the isotropic scan with its WebAssembly build), run/
- * (the run spec, its tests, verdicts and cautions). Code outside lib/spatial imports this file only.
+ * (the run spec, its tests, verdicts and cautions), lattice/ (square counts: neighbours, weights, Moran, Geary,
+ * local tests, verdicts). Code outside lib/spatial imports this file only.
  */
 export * from "./types";
 export * from "./errors";

@@ -10,6 +10,7 @@ import * as schema from "@/db/schema";
 import { session, call } from "../support/harness";
 import { makeSite, type SiteFixture } from "../support/fixtures";
 import { gridTrench } from "./role-cases/squares";
+import { seedDemoSite } from "../support/demo-site";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
@@ -59,6 +60,32 @@ describe("square-count tests in a run", () => {
     expect(hot.every((l: string) => { const [e, n] = l.split("/").map(Number); return e >= 7 && n >= 2 && n <= 5; })).toBe(true);
     expect(gi.notes.join(" ")).toMatch(/a hot spot is a place, not a process/i);
     expect(gi.seed).toBe(12); // the run's seed + 1 for the second test
+  });
+
+  it("on the demo's sieved chips (context 1005): clustered round the knapping spots, hot spots there, spits uneven said", async () => {
+    const d = await seedDemoSite();
+    session.userId = d.people.specialist;
+    const res = await call(runsRoute, "POST", { siteId: d.siteId }, {
+      scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.CHP] },
+      tests: [],
+      squareTests: [{ kind: "moran" }, { kind: "getis-ord" }],
+      params: { nsim: 999, seed: 3 },
+    });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    await runsIdle();
+    const run = (await call(runRoute, "GET", { siteId: d.siteId, runId: res.json.id })).json;
+    expect(run.status, run.error).toBe("done");
+    const [moran, gi] = run.result.squareTests;
+    expect(moran.verdict).toBe("clustered");
+    // The demo's chips crowd round spots at (2.2, 2.0) and (2.6, 6.2) (scripts/seed/seed-demo-squares.ts).
+    const hot = gi.cells.filter((c: { class: string }) => c.class === "hot spot");
+    expect(hot.length).toBeGreaterThan(0);
+    for (const c of hot) {
+      const [cx, cy] = [(c.x0 + c.x1) / 2, (c.y0 + c.y1) / 2];
+      expect(Math.min(Math.hypot(cx - 2.2, cy - 2.0), Math.hypot(cx - 2.6, cy - 6.2)), c.label).toBeLessThan(3);
+    }
+    // Spit 2 is dug only in the northern squares so far: the run says so.
+    expect(moran.notes[0]).toMatch(/different numbers of spits or contexts in this scope \(1 to 2\)/);
   });
 
   it("marks the run out of date when a count it read changes", async () => {

@@ -49,15 +49,20 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
       if (aborted()) return out;
       const testSeed = (seed + k++) >>> 0;
       // One unit per square with a record in scope.
-      const units = new Map<string, { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number }>();
+      const units = new Map<string, { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number; records: number }>();
       for (const sample of data.squareSamples) {
         const key = `${sample.col},${sample.row}`;
         const sq = bySquare.get(key);
         if (!sq) continue;
-        const u = units.get(key) ?? units.set(key, { sq, value: 0, area: 0 }).get(key)!;
+        const u = units.get(key) ?? units.set(key, { sq, value: 0, area: 0, records: 0 }).get(key)!;
         u.value += sample.counts.find((c) => c.classId === cls.id)?.count ?? 0;
         u.area = Math.max(u.area, Math.min(sample.excavatedArea ?? sq.area, sq.area));
+        u.records++;
       }
+      const depth = [...units.values()].map((u) => u.records);
+      const uneven = Math.min(...depth) !== Math.max(...depth)
+        ? [`Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds per m² of plan whatever their spread. Read the pattern with that in mind, or test contexts dug evenly.`]
+        : [];
       const squares: LatticeSquare[] = [...units.values()].map((u) => ({
         id: u.sq.label,
         col: u.sq.col,
@@ -93,7 +98,7 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
           sentence: `${r.summary} Null: ${r.nullName}; seed ${testSeed}.`,
           p: r.p,
           pFrom: r.pFrom,
-          notes: r.cautions,
+          notes: [...uneven, ...r.cautions],
           n: r.n,
           leftOut: r.leftOut.map((l) => ({ label: l.id, reason: l.reason })),
           neighbours: r.neighbours,
