@@ -43,3 +43,6 @@ export const sampleStatusDone = z.object({ changed: z.number(), status: z.enum(s
 
 export type SampleRecord = z.output<typeof sampleRecord>;
 export type SampleRow = z.output<typeof sampleRow>;
+
+/** What a bulk edit of finds did: how many changed, and their numbers. */
+export const bulkDone = z.object({ action: z.enum(["move", "reclass", "delete"]), changed: z.number(), numbers: z.array(z.number()) });

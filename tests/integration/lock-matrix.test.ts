@@ -24,6 +24,7 @@ import { gridTrench, makeSquareRecord, squareCsv } from "./role-cases/squares";
 import { makeSample } from "./role-cases/archive";
 import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
+import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 
 /**
  * Issue 7 "Tests": every write path that can touch a context's sheet, finds or relations × (open, awaiting,
@@ -116,6 +117,17 @@ const cases: LockCase[] = [
       await gridTrench(fx);
       return { mod: squareImportRoute, params: site(fx), body: { trenchId: fx.trench.id, csv: squareCsv(fx) } };
     } },
+  { op: "findsBulk", title: "re-class finds of T in bulk", prepare: async (fx) => {
+      const db = await getDb();
+      const [c2] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `KB${nextCount()}`, label: "Chip", colour: "#56b4e9", symbol: "diamond" }).returning();
+      return { mod: findsBulkRoute, params: site(fx), body: { action: "reclass", findIds: [(await findIn(fx, fx.context.id)).id, (await findIn(fx, fx.context.id)).id], classId: c2!.id } };
+    } },
+  { op: "findsBulk", title: "move finds of another context into T in bulk", fieldRoles: recorderFields, prepare: async (fx) => {
+      const other = await otherContext(fx);
+      return { mod: findsBulkRoute, params: site(fx), body: { action: "move", findIds: [(await findIn(fx, other.id)).id], contextId: fx.context.id } };
+    } },
+  { op: "findsBulk", title: "move finds of T to another context in bulk", fieldRoles: recorderFields, prepare: async (fx) => ({ mod: findsBulkRoute, params: site(fx), body: { action: "move", findIds: [(await findIn(fx, fx.context.id)).id], contextId: (await otherContext(fx)).id } }) },
+  { op: "findsBulk", title: "delete finds of T in bulk, with a reason", fieldRoles: recorderFields, prepare: async (fx) => ({ mod: findsBulkRoute, params: site(fx), body: { action: "delete", findIds: [(await findIn(fx, fx.context.id)).id], reason: "entered twice" } }) },
   { op: "samplesCreate", title: "take a sample from T", prepare: async (fx) => ({ mod: samplesRoute, params: site(fx), body: { contextId: fx.context.id, type: "bulk", volumeL: 40 } }) },
   { op: "sampleUpdate", title: "change a sample of T", prepare: async (fx) => ({ mod: sampleRoute, params: { ...site(fx), sampleId: (await makeSample(fx)).id }, body: { volumeL: 20 } }) },
   { op: "sampleUpdate", title: "move a sample from another context into T", prepare: async (fx) => ({ mod: sampleRoute, params: { ...site(fx), sampleId: (await makeSample(fx, (await otherContext(fx)).id)).id }, body: { contextId: fx.context.id } }) },

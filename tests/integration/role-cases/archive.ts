@@ -5,6 +5,8 @@ import { nextCount, type RoleCases } from "./types";
 import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as sampleStatusRoute from "@/app/api/sites/[siteId]/samples/status/route";
+import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
+import { insertFind } from "./core";
 
 /** A sample of the fixture's context (or another), inserted directly so only the call under test writes. */
 export async function makeSample(fx: SiteFixture, contextId = fx.context.id) {
@@ -30,5 +32,12 @@ export const archiveCases: RoleCases = {
   samplesStatus: async (fx) => {
     const s = await makeSample(fx);
     return { mod: sampleStatusRoute, params: { siteId: fx.site.id }, body: { sampleIds: [s.id], status: "processed" } };
+  },
+  // Re-classing: the one bulk change every role may make (moving and deleting are tested in finds-bulk.test.ts).
+  findsBulk: async (fx) => {
+    const [a, b] = [await insertFind(fx), await insertFind(fx)];
+    const db = await getDb();
+    const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `BK${nextCount()}`, label: "Burnt flint", colour: "#e69f00", symbol: "cross" }).returning();
+    return { mod: findsBulkRoute, params: { siteId: fx.site.id }, body: { action: "reclass", findIds: [a.id, b.id], classId: cls!.id } };
   },
 };
