@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { connection } from "next/server";
 import type { ReactNode } from "react";
 import { Providers } from "@/components/providers";
+import { requestLocale } from "@/lib/server/request-locale";
 import { mono, serif } from "./fonts";
 import "./globals.css";
 
@@ -13,10 +14,11 @@ export const metadata: Metadata = {
 export default async function RootLayout({ children }: { children: ReactNode }) {
   // Every page is rendered per request: its scripts must carry this request's CSP nonce (see proxy.ts).
   await connection();
+  const locale = await requestLocale();
   return (
     <html lang="en" className={`${serif.variable} ${mono.variable}`}>
       <body className="min-h-screen">
-        <Providers>{children}</Providers>
+        <Providers locale={locale}>{children}</Providers>
       </body>
     </html>
   );

@@ -3,6 +3,7 @@
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { useState, type ReactNode } from "react";
 import { z } from "zod";
+import { LocaleProvider } from "./locale";
 import { RecordRefresh } from "./record-refresh";
 import { ServiceWorker } from "./offline/service-worker";
 
@@ -10,13 +11,13 @@ import { ServiceWorker } from "./offline/service-worker";
 // no 'unsafe-eval', and the caught probe is still reported as a violation. Parse without it.
 z.config({ jitless: true });
 
-export function Providers({ children }: { children: ReactNode }) {
+export function Providers({ children, locale }: { children: ReactNode; locale: string }) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 10_000, retry: 1 } } }));
   return (
     <QueryClientProvider client={client}>
       <RecordRefresh />
       <ServiceWorker />
-      {children}
+      <LocaleProvider locale={locale}>{children}</LocaleProvider>
     </QueryClientProvider>
   );
 }

@@ -16,6 +16,8 @@ const schema = z.object({
   MAIL_SINK_DIR: z.string().default(".data/mail"),
   /** "1" shows the caught-mail page (/dev/mail) in a production build too (demo, browser tests). */
   LOAMWORK_DEV_MAIL: z.enum(["0", "1"]).default("0"),
+  /** "1" marks a demo server (npm run demo, browser tests): the sign-in page lists the demo site's accounts. */
+  LOAMWORK_DEMO: z.enum(["0", "1"]).default("0"),
   APP_URL: z.string().url().default("http://localhost:3000"),
   /**
    * How many proxies of your own stand in front of Loamwork, each adding the address it was reached from to

@@ -79,6 +79,7 @@ async function startServices(opts: StackOptions, dataDir: string, url: string, e
     UPLOADTHING_IS_DEV: "false",
     UPLOADTHING_CALLBACK_URL: `${url}/api/uploadthing`,
     LOAMWORK_DEV_MAIL: "1",
+    LOAMWORK_DEMO: "1",
   });
 }
 

@@ -19,7 +19,7 @@ export function SignInForm({ next }: { next?: string }) {
         <p id="password-error" className="field-error" aria-live="polite">{state.fieldErrors?.password?.join(" ")}</p>
       </div>
       <p className="field-error" role="alert" aria-live="assertive">{state.error}</p>
-      <button className="btn-primary w-full" type="submit" disabled={pending}>{pending ? "Checking…" : "Open my notebook"}</button>
+      <button className="btn-primary w-full" type="submit" disabled={pending}>{pending ? "Checking…" : "Sign in"}</button>
     </form>
   );
 }

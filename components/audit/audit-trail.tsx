@@ -1,8 +1,8 @@
 import Link from "next/link";
 import type { listAudit } from "@/lib/server/audit-read";
+import { formatWhen } from "@/lib/words/when";
 import { AuditChanges, recordLabel } from "./audit-changes";
 
-const stamp = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
 
 /** Actions that change a record's standing rather than its content, drawn so they stand out in the trail. */
 const milestone: Record<string, string> = { submit: "submitted for sign-off", "sign-off": "signed off", reopen: "reopened", return: "returned to open" };
@@ -10,7 +10,7 @@ const milestone: Record<string, string> = { submit: "submitted for sign-off", "s
 type AuditEntryView = Awaited<ReturnType<typeof listAudit>>[number];
 
 /** The trace of one record: who changed what, when, and why (reasons of reopenings); the page reads the entries. */
-export function AuditTrail({ entries, siteId, recordType, recordId }: { entries: AuditEntryView[]; siteId: string; recordType: string; recordId: string }) {
+export function AuditTrail({ entries, siteId, recordType, recordId, locale }: { entries: AuditEntryView[]; siteId: string; recordType: string; recordId: string; locale: string }) {
   return (
     <section aria-labelledby={`trail-${recordId}`} className="sheet">
       <h2 id={`trail-${recordId}`} className="text-lg font-bold">Record trail</h2>
@@ -19,7 +19,7 @@ export function AuditTrail({ entries, siteId, recordType, recordId }: { entries:
         {entries.map((e) => (
           <li key={e.id} className={`border-l-4 pl-3 text-sm ${milestone[e.action] ? "border-accent" : "border-ink/30"}`}>
             <p>
-              <span className="num">{stamp(e.at)}</span> · <strong>{e.actor ?? "system"}</strong> · {milestone[e.action] ?? e.action}
+              <span className="num">{formatWhen(e.at, locale)}</span> · <strong>{e.actor ?? "system"}</strong> · {milestone[e.action] ?? e.action}
               {e.recordType !== recordType && <> · {recordLabel(e.recordType, e.before, e.after)}</>}
             </p>
             {e.reason && <p className="italic">Reason: {e.reason}</p>}

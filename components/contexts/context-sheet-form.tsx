@@ -65,9 +65,14 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
           </select>
         </FormField>
         <FormField id="ctx-trench" label="Trench" error={e.trenchId?.message} hint={contextId ? "A context stays in the trench it was opened in." : undefined}>
-          <select id="ctx-trench" className="field" disabled={!!contextId} aria-describedby="ctx-trench-error" {...register("trenchId")}>
-            {trenches.map((t) => <option key={t.id} value={t.id}>Trench {t.code}</option>)}
-          </select>
+          {contextId ? (
+            // A saved sheet's trench is shown, not offered: a context stays in the trench it was opened in.
+            <output id="ctx-trench" className="field block bg-paper-deep" aria-describedby="ctx-trench-hint">Trench {trenches.find((t) => t.id === initial?.trenchId)?.code ?? "?"}</output>
+          ) : (
+            <select id="ctx-trench" className="field" aria-describedby="ctx-trench-error" {...register("trenchId")}>
+              {trenches.map((t) => <option key={t.id} value={t.id}>Trench {t.code}</option>)}
+            </select>
+          )}
         </FormField>
       </div>
       <div className="grid gap-3 sm:grid-cols-2">

@@ -1,5 +1,6 @@
 "use client";
 
+import { useDates } from "@/components/locale";
 import type { RunView } from "@/lib/server/analysis/run-view";
 
 type Props = {
@@ -14,6 +15,7 @@ const STATUS: Record<RunView["status"], string> = { queued: "queued", running: "
 
 /** Saved runs, newest first, with the out-of-date mark; pick one to read or two to compare. */
 export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Props) {
+  const { when } = useDates();
   if (!runs.length) return <p className="text-sm text-ink-soft">No runs saved on this site yet.</p>;
   return (
     <table className="ledger" aria-label="Saved runs">
@@ -23,7 +25,7 @@ export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Pr
       <tbody>
         {runs.map((r) => (
           <tr key={r.id} aria-current={r.id === current ? "true" : undefined} className={r.id === current ? "bg-accent-light" : ""}>
-            <td className="num whitespace-nowrap">{new Date(r.createdAt).toLocaleString()}</td>
+            <td className="num whitespace-nowrap">{when(r.createdAt)}</td>
             <td>Trench {r.params.names.trench} · {r.params.names.contexts.join(", ")} · {r.params.names.classes.join(" ")}</td>
             <td className="text-xs">{[...new Set(r.params.tests.map((t) => t.kind))].join(", ")} · {r.params.nsim} sims</td>
             <td className="num">{r.seed}</td>
@@ -33,7 +35,7 @@ export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Pr
             </td>
             <td>
               <label className="flex min-h-11 items-center gap-1 text-sm">
-                <input type="checkbox" className="size-5" checked={compare.includes(r.id)} disabled={r.status !== "done" || (compare.length >= 2 && !compare.includes(r.id))} onChange={() => onToggleCompare(r.id)} aria-label={`Compare run of ${new Date(r.createdAt).toLocaleString()}`} />
+                <input type="checkbox" className="size-5" checked={compare.includes(r.id)} disabled={r.status !== "done" || (compare.length >= 2 && !compare.includes(r.id))} onChange={() => onToggleCompare(r.id)} aria-label={`Compare run of ${when(r.createdAt)}`} />
               </label>
             </td>
             <td><button type="button" className="btn min-h-11 px-3 text-sm" onClick={() => onOpen(r.id)}>Open</button></td>

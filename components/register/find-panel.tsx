@@ -1,6 +1,7 @@
 "use client";
 
 import Link from "next/link";
+import { useDates } from "@/components/locale";
 
 /** One register row as the API sends it (lib/server/finds.ts listFinds). */
 export type RegisterRow = {
@@ -14,6 +15,7 @@ const lockWords: Record<string, string> = { signed_off: "its context is signed o
 /** The inline view of one find, with the ways on: its page (to edit), its context, the plan. */
 export function FindPanel({ siteId, find: f, onClose }: { siteId: string; find: RegisterRow; onClose: () => void }) {
   const locked = lockWords[f.contextState];
+  const { when } = useDates();
   return (
     <section className="sheet" aria-labelledby="find-panel-h">
       <div className="flex flex-wrap items-baseline gap-3">
@@ -25,7 +27,7 @@ export function FindPanel({ siteId, find: f, onClose }: { siteId: string; find: 
         <dt className="text-ink-soft">Position (m)</dt><dd className="num">{f.x.toFixed(3)}, {f.y.toFixed(3)}{f.z !== null ? `, ${f.z.toFixed(3)}` : ""}</dd>
         <dt className="text-ink-soft">Context</dt><dd className="num">{f.contextNumber} (trench {f.trenchCode})</dd>
         <dt className="text-ink-soft">Count · weight</dt><dd className="num">{f.count ?? "—"} · {f.weightG !== null ? `${f.weightG} g` : "—"}</dd>
-        <dt className="text-ink-soft">Recorded</dt><dd>{f.recordedBy ?? "—"}, <span className="num">{f.recordedAt.slice(0, 16).replace("T", " ")}</span> ({f.method})</dd>
+        <dt className="text-ink-soft">Recorded</dt><dd>{f.recordedBy ?? "—"}, <span className="num">{when(f.recordedAt)}</span> ({f.method})</dd>
         {f.stationPoint && <><dt className="text-ink-soft">Station point</dt><dd className="num">{f.stationPoint}</dd></>}
       </dl>
       {f.description && <p className="mt-2 whitespace-pre-wrap">{f.description}</p>}

@@ -11,6 +11,8 @@ import { Fragment } from "react";
 import { FindPanel, type RegisterRow } from "./find-panel";
 import { RegisterFilters, type RegisterOptions } from "./register-filters";
 import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
+import { countOf } from "@/lib/words/count";
+import { useDates } from "@/components/locale";
 
 const sortable = new Set(["number", "trench", "context", "class", "recorder", "x", "y", "z", "recordedAt"]);
 const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
@@ -24,7 +26,7 @@ const columns: ColumnDef<RegisterRow>[] = [
   { id: "y", header: "y (m)", cell: (c) => metres(c.row.original.y) },
   { id: "z", header: "RL (m)", cell: (c) => metres(c.row.original.z) },
   { id: "recorder", header: "Recorder", cell: (c) => c.row.original.recordedBy ?? "—" },
-  { id: "recordedAt", header: "Recorded", cell: (c) => new Date(c.row.original.recordedAt).toISOString().slice(0, 10) },
+  { id: "recordedAt", header: "Recorded", cell: (c) => <RecordedDay at={c.row.original.recordedAt} /> },
   { id: "description", header: "Description", cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span> },
 ];
 const numeric = new Set(["number", "context", "x", "y", "z", "recordedAt"]);
@@ -71,7 +73,7 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
       </div>
       <RegisterFilters view={view} options={options} onChange={go} />
       <p aria-live="polite" className="text-sm text-ink-soft">
-        {data.isFetching ? "Reading the register…" : <><span className="num">{total}</span> finds match · page <span className="num">{page}</span> of <span className="num">{pages}</span></>}
+        {data.isFetching ? "Reading the register…" : <><span className="num">{countOf(total, "find")}</span> {total === 1 ? "matches" : "match"} · page <span className="num">{page}</span> of <span className="num">{pages}</span></>}
       </p>
       {data.error && <p role="alert" className="field-error">{data.error.message}</p>}
       <div className="overflow-x-auto">
@@ -131,4 +133,10 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
       </nav>
     </div>
   );
+}
+
+/** The day a find was recorded, in the reader's one date format. */
+function RecordedDay({ at }: { at: string }) {
+  const { day } = useDates();
+  return <>{day(at)}</>;
 }

@@ -4,6 +4,7 @@ import { useId, useState } from "react";
 import type { Context, Role } from "@/lib/server/reads/row-types";
 import { apiClient } from "@/lib/api/client";
 import { useSignOffNotice } from "./sign-off-notice";
+import { countOf } from "@/lib/words/count";
 
 type Props = { siteId: string; contextId: string; number: number; state: Context["state"]; role: Role; ready: boolean };
 
@@ -15,6 +16,7 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
   const [error, setError] = useState<string | null>(null);
   const [note, setNote] = useState<string | null>(null);
   const [asking, setAsking] = useState(false);
+  const [confirming, setConfirming] = useState(false);
   const [reason, setReason] = useState("");
 
   const send = (step: "submit" | "lock" | "reopen") =>
@@ -29,10 +31,11 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
       const out = await send(step);
       const m = out.mail;
       const what = { submit: `Context ${number} submitted for sign-off`, lock: `Context ${number} signed off`, reopen: `Context ${number} ${state === "signed_off" ? "reopened" : "returned to open"}` }[step];
-      const text = `${what}; ${m ? (m.failed ? `${m.failed} e-mail(s) could not be sent.` : `${m.sent} e-mail(s) sent.`) : "done."}`;
+      const text = `${what}; ${m ? (m.failed ? `${countOf(m.failed, "e-mail")} could not be sent.` : `${countOf(m.sent, "e-mail")} sent.`) : "done."}`;
       if (announce) announce({ text, tone: m?.failed ? "error" : "ok" });
       else setNote(text);
       setAsking(false);
+      setConfirming(false);
       setReason("");
     } catch (err) {
       setError((err as Error).message);
@@ -51,13 +54,25 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
             Submit {number} for sign-off
           </button>
         )}
-        {state === "awaiting" && director && (
-          <button className="btn-primary" disabled={busy || !ready} onClick={() => run("lock")}>Sign off {number}</button>
+        {state === "awaiting" && director && !confirming && (
+          <button className="btn-primary" disabled={busy || !ready} onClick={() => setConfirming(true)}>Sign off {number}</button>
         )}
         {state !== "open" && director && !asking && (
           <button className="btn" disabled={busy} onClick={() => setAsking(true)}>{reopenWord} {number}…</button>
         )}
       </div>
+      {confirming && (
+        <div role="alertdialog" aria-labelledby={`${reasonId}-lock`} className="space-y-2 rounded border-2 border-accent p-3">
+          <p id={`${reasonId}-lock`}>
+            Sign off context <span className="num">{number}</span>? Its sheet, its finds and its relations will be locked: nobody can change them,
+            on any screen or by import, until a director reopens the context with a reason.
+          </p>
+          <div className="flex gap-2">
+            <button className="btn-primary" type="button" disabled={busy} onClick={() => run("lock")} autoFocus>Lock context {number}</button>
+            <button className="btn" type="button" onClick={() => setConfirming(false)}>Cancel</button>
+          </div>
+        </div>
+      )}
       {asking && (
         <form className="space-y-2" onSubmit={(e) => { e.preventDefault(); run("reopen"); }}>
           <label className="label" htmlFor={reasonId}>Why {reopenWord.toLowerCase()} context {number}? Every member is told, and the reason stays in the record trail.</label>

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 
 /** A new password: long enough to resist guessing, short enough to type with cold hands. */
 export const newPasswordSchema = z.string().min(10, "Choose a password of at least 10 characters.").max(200);

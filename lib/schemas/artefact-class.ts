@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 
 /** Symbol shapes Loamwork draws on the plan; each class pairs a colour with one of them. */
 export const symbolShapes = ["disc", "square", "triangle", "diamond", "cross", "star", "ring", "bar"] as const;

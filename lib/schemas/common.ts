@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 
 export const uuid = z.string().uuid("Not a valid record id.");
 

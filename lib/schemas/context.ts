@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { numeric, uuid } from "./common";
 import { polygonSchema } from "./trench";
 
@@ -14,7 +15,7 @@ export const digMethods = ["trowel", "mattock", "machine", "sieved"] as const;
 
 /** The sheet's fields without defaults: an update names only what it changes. */
 const sheetFields = {
-  number: numeric(z.number({ error: "Enter a context number." }).int("A context number is a whole number.").min(1).max(9_999_999)),
+  number: numeric(z.number({ error: "Enter a context number." }).int("A context number is a whole number.").min(1, "A context number starts at 1.").max(9_999_999, "A context number goes up to 9,999,999.")),
   type: z.enum(contextTypes, { error: "Pick layer, fill, cut, structure or deposit." }),
   colour: sheetText(200),
   compaction: sheetText(200),

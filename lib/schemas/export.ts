@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { uuid } from "./common";
 import { findListQuery } from "./find";
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { metres, numeric, pageQuery, uuid } from "./common";
 
 const optionalNumber = <T extends z.ZodTypeAny>(inner: T) =>

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 
 /**
  * The find fields a total-station column can be mapped to. The station's point ID is its own field; a

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { metres, numeric, uuid } from "./common";
 
 /**

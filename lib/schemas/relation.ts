@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { uuid } from "./common";
 
 /** The stored kinds: one row per pair, read "from <kind> to" (1005 cuts 1004). */

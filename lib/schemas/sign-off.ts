@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { roleSchema, uuid } from "./common";
 
 /** A reopening or return needs a reason someone can read later in the record trail. */

@@ -1,5 +1,6 @@
 import proj4 from "proj4";
 import { z } from "zod";
+import "./messages";
 import { numeric, roleSchema } from "./common";
 
 /** True when proj4 can read the definition and it is a projection in metres (not longitude/latitude). */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "./messages";
 import { formatLimit, MAX_HOLES, MAX_RING_VERTICES } from "@/lib/spatial/geometry/limits";
 import { metres, numeric } from "./common";
 import { squareGridFields } from "./squares";

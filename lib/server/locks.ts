@@ -3,6 +3,7 @@ import { eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { contexts, users, type Context, type Trench } from "@/db/schema";
 import { conflict } from "./errors";
+import { formatWhen } from "@/lib/words/when";
 
 /**
  * The lock rule of product.md "Record states", applied by every write to a context, its finds and its relations.
@@ -17,9 +18,9 @@ import { conflict } from "./errors";
  */
 export type LockDetails = { contextId: string; contextNumber: number; state: "awaiting" | "signed_off"; by: string; at: string | null };
 
-/** "2026-07-14 09:30 UTC", the form every refusal and stamp uses. */
-export function formatStamp(at: Date | null | undefined): string | null {
-  return at ? at.toISOString().slice(0, 16).replace("T", " ") + " UTC" : null;
+/** "14 Jul 2026, 09:30 UTC": the one date format (lib/words/when.ts), in the reader's language when known. */
+export function formatStamp(at: Date | null | undefined, locale?: string): string | null {
+  return at ? formatWhen(at, locale) : null;
 }
 
 async function nameOf(tx: Db | Tx, userId: string | null, fallback: string): Promise<string> {

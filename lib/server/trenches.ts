@@ -13,6 +13,7 @@ import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { assertGridChange } from "./squares";
 import { assertVersion, namesAField, nextVersion } from "./versions";
+import { countOf } from "@/lib/words/count";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
 /** A valid polygon as a window, or a 400 naming the field (`outline` of a trench, `extent` of a context) and why. */
@@ -68,7 +69,7 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
         await assertContextsWritable(tx, outside.map((f) => f.contextId), "changed by moving the trench outline past its finds");
         const names = outside.slice(0, 5).map((f) => f.number).join(", ");
         throw conflict(
-          `The new outline would leave ${outside.length} find(s) outside the trench (find ${names}${outside.length > 5 ? ", …" : ""}). ` +
+          `The new outline would leave ${countOf(outside.length, "find")} outside the trench (find ${names}${outside.length > 5 ? ", …" : ""}). ` +
             "Move those finds first or draw the outline around them.",
           { outside: outside.map((f) => f.number) },
         );

@@ -10,11 +10,8 @@ import { clusteredLayout, createRandom, evenLayout, randomLayout, windowOf, type
 
 /** The invented demo site. Every name here is made up. */
 export const DEMO_SITE_CODE = "WHD26";
-export const DEMO_USERS = [
-  { email: "digger@loamwork.test", name: "Nell Ashgrove", role: "digger", password: "trowel-digger-1" },
-  { email: "specialist@loamwork.test", name: "Oskar Brandling", role: "specialist", password: "sieve-specialist-2" },
-  { email: "director@loamwork.test", name: "Imogen Carrow", role: "director", password: "matrix-director-3" },
-] as const;
+import { DEMO_USERS } from "@/lib/demo-users";
+export { DEMO_USERS };
 export const DEMO_SEED = 20261201;
 /** Ground-surface reduced levels of the demo trenches (metres against the site datum; invented). */
 export const DEMO_SURFACE = { A: 49.62, B: 49.35, C: 49.81 } as const;

@@ -32,7 +32,7 @@ describe("signing in to the demo site", () => {
     await page.goto("/sign-in");
     await page.getByLabel("E-mail").fill(DEMO_USERS[0].email);
     await page.getByLabel("Password").fill("not-the-password");
-    await page.getByRole("button", { name: "Open my notebook" }).click();
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
     await shown(page.getByRole("alert").filter({ hasText: "do not match" }));
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     await page.context().close();

@@ -64,7 +64,7 @@ describe("invitations and password reset in the browser", () => {
     await forgetful.goto("/sign-in");
     await forgetful.getByLabel("E-mail").fill(email);
     await forgetful.getByLabel("Password").fill("second-password-2");
-    await forgetful.getByRole("button", { name: "Open my notebook" }).click();
+    await forgetful.getByRole("button", { name: "Sign in", exact: true }).click();
     await forgetful.waitForURL("**/sites");
     await shown(forgetful.getByText("Whinnydale Holm"));
     expect(new URL(forgetful.url()).pathname).toBe("/sites");

@@ -54,15 +54,23 @@ describe("sign-off in the browser", () => {
 
     await d.goto(`/sites/${siteId}/sign-off`);
     await d.getByRole("button", { name: `Submit ${number} for sign-off` }).click();
-    await shown(d.getByText(/e-mail\(s\) sent/));
+    await shown(d.getByText(/\d e-mails? sent/));
+    expect(await d.getByText(/e-mail\(s\)/).count()).toBe(0);
     await shown(d.locator(`tr[data-context="${number}"]`).getByText("awaiting sign-off"));
     expect((await mailTo(director.email, `context ${number} awaits your sign-off`)).text).toContain(`/sites/${siteId}/sign-off`);
 
     const boss = await newPage(browser);
     await signIn(boss, "director");
     await boss.goto(`/sites/${siteId}/sign-off`);
+    // Signing off asks first, saying what will be locked; nothing is locked until the director confirms.
     await boss.getByRole("button", { name: `Sign off ${number}` }).click();
-    await shown(boss.getByText(/e-mail\(s\) sent/));
+    const ask = boss.getByRole("alertdialog");
+    await shown(ask);
+    expect(await ask.textContent()).toContain(`Sign off context ${number}? Its sheet, its finds and its relations will be locked`);
+    const still = await (await boss.request.get(`/api/sites/${siteId}/contexts/${contextId}`)).json();
+    expect(still.state).toBe("awaiting");
+    await ask.getByRole("button", { name: `Lock context ${number}` }).click();
+    await shown(boss.getByText(/e-mails? sent/));
     await mailTo(digger.email, `context ${number} signed off`);
 
     // The sheet is shown read-only with who signed it off, and the server refuses an edit all the same.
@@ -80,7 +88,7 @@ describe("sign-off in the browser", () => {
     await boss.getByRole("button", { name: `Reopen ${number}…` }).click();
     await boss.getByLabel(`Why reopen context ${number}?`, { exact: false }).fill(reason);
     await boss.getByRole("button", { name: "Reopen with this reason" }).click();
-    await shown(boss.getByText(/e-mail\(s\) sent/));
+    await shown(boss.getByText(/e-mails? sent/));
 
     const told = await mailTo(digger.email, `context ${number} reopened`);
     expect(told.text).toContain(`> ${reason}`);

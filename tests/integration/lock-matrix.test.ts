@@ -215,9 +215,9 @@ describe("lock matrix: every write path × state × role", () => {
             for (const r of reasons) expect(r).toContain(`context ${fx.context.number} ${holder}`);
           }
           if (want === 409 && state !== "open") {
-            // The refusal says who holds the sheet and since when (putInState stamps 2026-07-14 09:30 UTC).
+            // The refusal says who holds the sheet and since when (putInState stamps 14 Jul 2026, 09:30 UTC).
             const who = state === "signed_off" ? "signed off by Director" : "submitted for sign-off by Digger";
-            expect(res.json.error).toContain(`Context ${fx.context.number} was ${who} on 2026-07-14 09:30 UTC`);
+            expect(res.json.error).toContain(`Context ${fx.context.number} was ${who} on 14 Jul 2026, 09:30 UTC`);
           }
         });
       }

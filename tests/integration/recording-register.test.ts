@@ -71,6 +71,6 @@ describe("finds register", () => {
     session.userId = fx.people.specialist.id;
     const res = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: f.id }, { classId: fx.cls.id });
     expect(res.status).toBe(409);
-    expect(res.json.error).toContain("signed off by Director on 2026-11-30 16:00 UTC");
+    expect(res.json.error).toContain("signed off by Director on 30 Nov 2026, 16:00 UTC");
   });
 });

@@ -3,13 +3,14 @@ import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/componen
 import { OutlineSketch } from "@/components/outline-sketch";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { countOf } from "@/lib/words/count";
 
 export default async function SiteOverviewPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const [overview, outlines, remains] = await Promise.all([read.overview(), read.trenches(), read.humanRemains()]);
+  const [overview, outlines, remains, remainsFinds] = await Promise.all([read.overview(), read.trenches(), read.humanRemains(), read.humanRemainsFinds()]);
   const outlineOf = new Map(outlines.map((t) => [t.id, t.outline]));
-  const deepest = Math.max(0, ...overview.trenches.map((t) => t.depth ?? 0));
+  const deep = overview.trenches.filter((t) => (t.depth ?? 0) > DEEP_TRENCH_M);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}`} />
@@ -19,13 +20,13 @@ export default async function SiteOverviewPage({ params }: { params: Promise<{ s
           <h1 className="text-3xl font-bold">{actor.site.name}</h1>
           {actor.site.gridDescription && <p className="mt-1 max-w-3xl text-ink-soft">{actor.site.gridDescription}</p>}
         </div>
-        {remains > 0 && <HumanRemainsBanner count={remains} />}
-        {deepest > DEEP_TRENCH_M && <DeepTrenchCaution depth={deepest} />}
+        {remains > 0 && <HumanRemainsBanner count={remains} finds={remainsFinds.map((f) => ({ label: `Find ${f.number}, trench ${f.trenchCode}`, href: `/sites/${siteId}/finds/${f.id}` }))} />}
+        {deep.map((t) => <DeepTrenchCaution key={t.id} depth={t.depth!} trench={{ label: `Trench ${t.code}`, href: `/sites/${siteId}/trenches/${t.id}` }} />)}
         <section className="sheet" aria-labelledby="awaiting">
           <h2 id="awaiting" className="text-lg font-bold">What awaits you</h2>
           <p className="mt-1">
             {actor.role === "director"
-              ? `${overview.awaitingSignOff} context sheet(s) submitted for your sign-off.`
+              ? `${countOf(overview.awaitingSignOff, "context sheet")} submitted for your sign-off.`
               : actor.role === "digger"
                 ? "Record finds on the trench plans and submit finished contexts for sign-off."
                 : "Run distribution tests on the finds in Patterns."}

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import "@/lib/schemas/messages";
 
 /**
  * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,

@@ -7,7 +7,7 @@ import { contextClassNotes, signedOffClassNotes } from "../class-history";
 import { contextSummaries, getContext, listContexts } from "../contexts";
 import { drawSiteMatrix } from "../export/matrix-image";
 import { getFind } from "../finds";
-import { countHumanRemains } from "../human-remains";
+import { countHumanRemains, listHumanRemains } from "../human-remains";
 import type { SiteActor } from "../membership";
 import { listPhotos } from "../photos";
 import { listPlanFinds } from "../plan-finds";
@@ -54,6 +54,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     planFinds: (trenchId: string) => listPlanFinds(db, siteId, trenchId),
     photos: (trenchId: string) => listPhotos(db, siteId, trenchId),
     humanRemains: (trenchId?: string) => countHumanRemains(db, siteId, trenchId),
+    humanRemainsFinds: (trenchId?: string) => listHumanRemains(db, siteId, trenchId),
     audit: (filter: Parameters<typeof listAudit>[2]) => listAudit(db, siteId, filter),
     trenchReport: (trench: Trench) => loadTrenchReport(db, trench),
     patternsChoices: () => patternsChoices(db, siteId),

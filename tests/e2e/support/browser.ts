@@ -46,7 +46,7 @@ export async function signIn(page: Page, role: (typeof DEMO_USERS)[number]["role
   await page.goto("/sign-in");
   await page.getByLabel("E-mail").fill(user.email);
   await page.getByLabel("Password").fill(user.password);
-  await page.getByRole("button", { name: "Open my notebook" }).click();
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
   await page.waitForURL("**/sites");
 }
 

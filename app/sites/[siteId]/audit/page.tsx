@@ -4,6 +4,8 @@ import { AuditChanges, recordLabel } from "@/components/audit/audit-changes";
 import { SiteNav } from "@/components/site-nav";
 import { auditQuerySchema } from "@/lib/schemas/sign-off";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { requestLocale } from "@/lib/server/request-locale";
+import { formatWhen } from "@/lib/words/when";
 
 export const metadata: Metadata = { title: "Record trail" };
 
@@ -18,6 +20,7 @@ function recordHref(siteId: string, type: string, id: string): string | null {
 }
 
 export default async function AuditPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const locale = await requestLocale();
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
   const raw = await searchParams;
@@ -61,7 +64,7 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
               const label = recordLabel(e.recordType, e.before, e.after);
               return (
                 <tr key={e.id}>
-                  <td className="num whitespace-nowrap">{e.at.toISOString().slice(0, 16).replace("T", " ")}</td>
+                  <td className="num whitespace-nowrap">{formatWhen(e.at, locale)}</td>
                   <td>{e.actor ?? "system"}</td>
                   <td>{e.action}{e.reason && <p className="italic">Reason: {e.reason}</p>}</td>
                   <td>

@@ -1,15 +1,16 @@
 "use client";
 
+import { useDates } from "@/components/locale";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { apiClient } from "@/lib/api/client";
 import { roles } from "@/lib/schemas/common";
 
 
-const day = (iso: string) => iso.slice(0, 16).replace("T", " ");
 
 /** Invite people by e-mail (director); the link in the message expires after 7 days and works once. */
 export function InvitationsPanel({ siteId }: { siteId: string }) {
+  const { when: day } = useDates();
   const qc = useQueryClient();
   const key = ["invitations", siteId];
   const list = useQuery({ queryKey: key, queryFn: () => apiClient.call("invitationsList", { siteId }) });

@@ -5,12 +5,15 @@ import { SignOffNoticeProvider } from "@/components/sign-off/sign-off-notice";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { requestLocale } from "@/lib/server/request-locale";
+import { formatWhen } from "@/lib/words/when";
 
 export const metadata: Metadata = { title: "Sign-off" };
 
-const stamp = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace("T", " ") : "—");
 
 export default async function SignOffPage({ params }: { params: Promise<{ siteId: string }> }) {
+  const locale = await requestLocale();
+  const stamp = (d: Date | null) => (d ? formatWhen(d, locale) : "—");
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
   const queue = await read.signOffQueue();

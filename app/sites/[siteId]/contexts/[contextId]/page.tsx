@@ -11,11 +11,13 @@ import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { requestLocale } from "@/lib/server/request-locale";
 
 const sheetFields = ["colour", "compaction", "composition", "inclusions", "description", "interpretation", "excavatedBy", "openedOn", "closedOn", "digMethod"] as const;
 const sheetLabels: Record<string, string> = { excavatedBy: "excavated by", openedOn: "opened", closedOn: "closed", digMethod: "dug by" };
 
 export default async function ContextSheetPage({ params }: { params: Promise<{ siteId: string; contextId: string }> }) {
+  const locale = await requestLocale();
   const { siteId, contextId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
   const c = await read.context(contextId).catch((err) => {
@@ -48,7 +50,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           <StateBadge state={c.state} />
         </div>
         <p className="text-sm text-ink-soft">
-          Recorded by {c.recordedBy ? names.get(c.recordedBy) ?? "—" : "—"} on <span className="num">{formatStamp(c.createdAt)}</span> ·{" "}
+          Recorded by {c.recordedBy ? names.get(c.recordedBy) ?? "—" : "—"} on <span className="num">{formatStamp(c.createdAt, locale)}</span> ·{" "}
           <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}><span className="num">{mine?.finds ?? 0}</span> finds</Link> ·{" "}
           <Link className="underline" href={`/sites/${siteId}/trenches/${c.trenchId}`}>plan of trench {trench?.code}</Link>
         </p>
@@ -66,7 +68,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           )}
           <div className="mt-2"><SignOffActions siteId={siteId} contextId={c.id} number={c.number} state={c.state} role={actor.role} ready={problems.length === 0} /></div>
         </section>
-        <LockNotice state={c.state} number={c.number} who={names.get((signed ? c.signedOffBy : c.submittedBy) ?? "") ?? null} at={formatStamp(signed ? c.signedOffAt : c.submittedAt)} />
+        <LockNotice state={c.state} number={c.number} who={names.get((signed ? c.signedOffBy : c.submittedBy) ?? "") ?? null} at={formatStamp(signed ? c.signedOffAt : c.submittedAt, locale)} />
         {writable ? (
           <ContextSheetForm
             siteId={siteId}
@@ -89,7 +91,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
         )}
         <LevelsPanel siteId={siteId} contextId={c.id} datumName={actor.site.datumName} spits={spits} spots={spots} canEdit={writable} />
         <RelationsPanel siteId={siteId} contextId={c.id} number={c.number} canEdit={writable} others={all.filter((o) => o.id !== c.id).map((o) => ({ id: o.id, number: o.number }))} />
-        <AuditTrail entries={trail} siteId={siteId} recordType="context" recordId={c.id} />
+        <AuditTrail entries={trail} siteId={siteId} recordType="context" recordId={c.id} locale={locale} />
       </main>
     </>
   );

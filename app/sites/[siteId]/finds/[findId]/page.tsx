@@ -9,8 +9,10 @@ import { isPublicError } from "@/lib/server/errors";
 import { changeableFields } from "@/lib/server/field-rights";
 import { formatStamp, isContextWritable } from "@/lib/server/locks";
 import { pageSiteActor } from "@/lib/server/page-access";
+import { requestLocale } from "@/lib/server/request-locale";
 
 export default async function FindPage({ params }: { params: Promise<{ siteId: string; findId: string }> }) {
+  const locale = await requestLocale();
   const { siteId, findId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
   const f = await read.find(findId).catch((err) => {
@@ -44,7 +46,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             {asSigned.notes.map((n) => <li key={n}>{n}</li>)}
           </ul>
         )}
-        <LockNotice state={ctx.state} number={ctx.number} who={(lockerId ? names.get(lockerId) : undefined) ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt)} />
+        <LockNotice state={ctx.state} number={ctx.number} who={(lockerId ? names.get(lockerId) : undefined) ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt, locale)} />
         {writable ? (
           <FindEditForm
             siteId={siteId}
@@ -61,7 +63,7 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             <dt className="text-ink-soft">Description</dt><dd>{f.description || "—"}</dd>
           </dl>
         )}
-        <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} />
+        <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} locale={locale} />
       </main>
     </>
   );
