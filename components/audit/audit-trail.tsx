@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { listAudit } from "@/lib/server/audit-read";
-import { formatWhen } from "@/lib/words/when";
+import { DEFAULT_LOCALE, formatWhen } from "@/lib/words/when";
 import { AuditChanges, recordLabel } from "./audit-changes";
 
 
@@ -10,7 +10,7 @@ const milestone: Record<string, string> = { submit: "submitted for sign-off", "s
 type AuditEntryView = Awaited<ReturnType<typeof listAudit>>[number];
 
 /** The trace of one record: who changed what, when, and why (reasons of reopenings); the page reads the entries. */
-export function AuditTrail({ entries, siteId, recordType, recordId, locale }: { entries: AuditEntryView[]; siteId: string; recordType: string; recordId: string; locale: string }) {
+export function AuditTrail({ entries, siteId, recordType, recordId, locale = DEFAULT_LOCALE }: { entries: AuditEntryView[]; siteId: string; recordType: string; recordId: string; locale?: string }) {
   return (
     <section aria-labelledby={`trail-${recordId}`} className="sheet">
       <h2 id={`trail-${recordId}`} className="text-lg font-bold">Record trail</h2>
