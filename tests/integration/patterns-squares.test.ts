@@ -36,6 +36,25 @@ async function start(fx: SiteFixture, body: Record<string, unknown>) {
 const read = async (fx: SiteFixture, runId: string) => (await call(runRoute, "GET", { siteId: fx.site.id, runId })).json;
 
 describe("square-count tests in a run", () => {
+  it("leave out a square whose record did not count the class, rather than take it as zero", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    const db = await getDb();
+    const [burnt] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BST", label: "Burnt stone", material: "stone", colour: "#7a3b12", symbol: "square" }).returning();
+    // Burnt stone counted in the squares of the first four columns only; elsewhere the class was not counted.
+    const samples = await db.select().from(schema.squareSamples).where(eq(schema.squareSamples.trenchId, fx.trench.id));
+    const counted = samples.filter((s) => s.col < 4);
+    for (const s of counted) await db.insert(schema.squareCounts).values({ sampleId: s.id, classId: burnt!.id, count: s.row % 3 });
+    session.userId = fx.people.specialist.id;
+    const res = await call(runsRoute, "POST", { siteId: fx.site.id }, { scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [burnt!.id] }, tests: [], squareTests: [{ kind: "moran" }], params: { nsim: 99, seed: 5 } });
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    await runsIdle();
+    const run = await read(fx, res.json.id);
+    expect(run.status, run.error).toBe("done");
+    expect(run.result.squareTests[0].n).toBe(counted.length);
+    expect(counted.length).toBeLessThan(samples.length);
+  });
+
   it("run as a job: Moran's I finds the block clustered, Gi* marks it as hot spots, and the run is stored", async () => {
     const fx = await makeSite();
     await recordEverySquare(fx);

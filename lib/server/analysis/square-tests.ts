@@ -53,9 +53,11 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
       for (const sample of data.squareSamples) {
         const key = `${sample.col},${sample.row}`;
         const sq = bySquare.get(key);
-        if (!sq) continue;
+        // A record that did not count this class says nothing of it: not counted is not zero.
+        const counted = sample.counts.find((c) => c.classId === cls.id);
+        if (!sq || !counted) continue;
         const u = units.get(key) ?? units.set(key, { sq, value: 0, area: 0, records: 0 }).get(key)!;
-        u.value += sample.counts.find((c) => c.classId === cls.id)?.count ?? 0;
+        u.value += counted.count;
         u.area = Math.max(u.area, Math.min(sample.excavatedArea ?? sq.area, sq.area));
         u.records++;
       }
