@@ -1,14 +1,13 @@
 import { signOut } from "@/auth";
+import { SignOutForm } from "./offline/sign-out-form";
 
 export function SignOutButton() {
   return (
-    <form
+    <SignOutForm
       action={async () => {
         "use server";
         await signOut({ redirectTo: "/sign-in" });
       }}
-    >
-      <button className="btn" type="submit">Sign out</button>
-    </form>
+    />
   );
 }

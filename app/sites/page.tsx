@@ -13,7 +13,7 @@ export default async function SitesPage() {
   const mine = await read.mySites();
   return (
     <>
-      <AppHeader userName={user.name} />
+      <AppHeader userName={user.name} device={{ userId: user.id }} />
       <main className="mx-auto max-w-5xl px-4 py-6">
         <h1 className="text-3xl font-bold">Your sites</h1>
         {mine.length === 0 && <p className="mt-4 text-ink-soft">You are not on any site yet. A site director can add you.</p>}

@@ -21,6 +21,7 @@ import { useRecording } from "./use-recording";
 import { useUndo } from "./use-undo";
 import { sectionDraft } from "@/components/sections/section-draft";
 import { SectionOverlay } from "@/components/sections/section-overlay";
+import { usePendingRecords } from "@/components/offline/use-pending-records";
 
 export type PlanScreenProps = {
   siteId: string;
@@ -34,7 +35,9 @@ export type PlanScreenProps = {
 };
 
 /** The trench plan: the canvas with its tools, and the panels beside it. Each concern lives in its own hook. */
-export default function PlanScreen({ siteId, trench, classes, contexts, photos: initialPhotos, finds: initialFinds, canEdit }: PlanScreenProps) {
+export default function PlanScreen({ siteId, trench, classes, contexts: readContexts, photos: initialPhotos, finds: initialFinds, canEdit }: PlanScreenProps) {
+  // Contexts and finds made on this device and not yet sent join the server's (components/offline).
+  const { contexts, addPendingFinds } = usePendingRecords(trench.id, readContexts);
   const [tool, setTool] = useState<Tool>("look");
   const [panel, setPanel] = useState<Panel>("finds");
   const [drawing, setDrawing] = useState<Pt[]>([]);
@@ -47,7 +50,8 @@ export default function PlanScreen({ siteId, trench, classes, contexts, photos: 
   const extents = useExtents({ siteId, contexts, pushUndo: push, say, onSaved: () => setDrawing([]) });
   const { box, size, viewStore, hasView, zoomToTrench, zoomBy, pan, snapToGrid, screenDistance, bringIntoView } = usePlanView(outline.rings, outline.savedRings);
   const classMap = useMemo(() => new Map(classes.map((c) => [c.id, c])), [classes]);
-  const { finds, loading, error, record, move, dragRefusal } = usePlanFinds({ siteId, trenchId: trench.id, initialFinds, contexts, savedRings: outline.savedRings, pushUndo: push, say });
+  const { finds: readFinds, loading, error, record, move, dragRefusal } = usePlanFinds({ siteId, trenchId: trench.id, initialFinds, contexts, savedRings: outline.savedRings, pushUndo: push, say });
+  const finds = useMemo(() => addPendingFinds(readFinds), [addPendingFinds, readFinds]);
   const layers = useFindLayers(finds, bringIntoView);
   const recording = useRecording({ classMap, record, onRecorded: (row) => { layers.setSelected(new Set([row.id])); setPanel("finds"); }, trenchCode: trench.code, savedRings: outline.savedRings, say });
   const photoFit = usePhotoFit({ siteId, trenchId: trench.id, initialPhotos, say });

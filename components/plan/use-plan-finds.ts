@@ -62,7 +62,8 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
             patch((rows) => rows.filter((r) => r.id !== row.id));
           },
         });
-        say(created.levelWarning ? "warn" : "ok", `Find #${row.number} recorded (number allocated by the server).${created.levelWarning ? ` ${created.levelWarning}` : ""}`);
+        const kept = (created as { pending?: boolean }).pending;
+        say(created.levelWarning ? "warn" : "ok", `${kept ? `Find #${row.number} kept on this device (number from its block); it is sent when the server can be reached.` : `Find #${row.number} recorded (number allocated by the server).`}${created.levelWarning ? ` ${created.levelWarning}` : ""}`);
         return { ok: true, row };
       } catch (err) {
         if (!(err instanceof ApiError)) throw err;

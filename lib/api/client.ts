@@ -88,9 +88,18 @@ export async function sendRequest(req: ApiRequest, signal?: AbortSignal): Promis
   return body;
 }
 
+/** What handles writes on a device that may be offline (lib/offline/write-path.ts); null = straight to the server. */
+export type WriteHandler = (req: ApiRequest, signal?: AbortSignal) => Promise<unknown>;
+let writeHandler: WriteHandler | null = null;
+
+/** The signed-in user's outbox takes every write from here on (null hands them back to the network). */
+export function handleWrites(handler: WriteHandler | null): void {
+  writeHandler = handler;
+}
+
 /** The one function every write (POST, PATCH, DELETE) passes through. */
 export function sendWrite(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
-  return sendRequest(req, signal);
+  return writeHandler ? writeHandler(req, signal) : sendRequest(req, signal);
 }
 
 /** Calls an operation by name: `apiClient.call("findsCreate", { siteId }, body)`. */

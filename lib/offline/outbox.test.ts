@@ -1,0 +1,189 @@
+import "fake-indexeddb/auto";
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { ApiError, buildRequest, type ApiRequest } from "@/lib/api/client";
+import { Outbox } from "./outbox";
+import { closeOutboxDb } from "./outbox-db";
+import { backoffSeconds, damaged, syncOutbox } from "./sync";
+import { createWritePath } from "./write-path";
+
+const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
+const contextId = "0b7d1f7e-1c2a-4e0b-8f9a-6c5d4e3f2a1b";
+const classId = "9c1d2e3f-4a5b-4c6d-8e7f-0a1b2c3d4e5f";
+const trenchId = "1a2b3c4d-5e6f-4a7b-8c9d-0e1f2a3b4c5d";
+let userN = 0;
+let userId = "";
+let outbox: Outbox;
+
+beforeEach(async () => {
+  userId = `u-${++userN}`;
+  outbox = await Outbox.open(userId);
+  await outbox.putBlock({ id: "b1", siteId, kind: "find", first: 501, last: 550, used: [] });
+  await outbox.putBlock({ id: "b2", siteId, kind: "context", first: 9001, last: 9010, used: [] });
+});
+afterEach(() => closeOutboxDb(userId));
+
+const find = (x: number) => buildRequest("findsCreate", { siteId }, { contextId, classId, x, y: 1, method: "plan" });
+
+/** A server stand-in: records what reached it, gives ids, refuses by a rule. */
+function server(refuse: (req: ApiRequest) => ApiError | null = () => null) {
+  const seen: ApiRequest[] = [];
+  const byKey = new Map<string, unknown>();
+  return {
+    seen,
+    send: async (req: ApiRequest) => {
+      const key = req.headers["idempotency-key"];
+      if (byKey.has(key)) return byKey.get(key);
+      const refusal = refuse(req);
+      if (refusal) throw refusal;
+      seen.push(req);
+      const answer = { id: crypto.randomUUID(), ...(req.body ? JSON.parse(req.body) : {}) };
+      byKey.set(key, answer);
+      return answer;
+    },
+  };
+}
+
+describe("the write path on a device", () => {
+  it("offline, a find is queued with its own key and takes the lowest free number of the block", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const a = (await write(find(1))) as { id: string; number: number; pending: boolean };
+    const b = (await write(find(2))) as { number: number };
+    expect([a.number, b.number]).toEqual([501, 502]);
+    expect(a.pending).toBe(true);
+    const entries = await outbox.all();
+    expect(entries.map((e) => e.label)).toEqual(["find #501", "find #502"]);
+    expect(new Set(entries.map((e) => e.key)).size).toBe(2);
+    expect(entries[0].key).toMatch(/^[0-9a-f-]{36}$/);
+    expect(entries[0].localId).toBe(a.id);
+  });
+
+  it("editing or deleting a find not yet sent changes its queued create instead of queueing more", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const a = (await write(find(1))) as { id: string };
+    const b = (await write(find(2))) as { id: string };
+    await write(buildRequest("findUpdate", { siteId, findId: a.id }, { x: 3.25, description: "blade" }));
+    const gone = (await write(buildRequest("findDelete", { siteId, findId: b.id }))) as { deleted: string; number: number };
+    expect(gone).toMatchObject({ deleted: b.id, number: 502 });
+    const entries = await outbox.all();
+    expect(entries).toHaveLength(1);
+    expect(JSON.parse(entries[0].body!)).toMatchObject({ x: 3.25, description: "blade", number: 501 });
+  });
+
+  it("with no numbers held it refuses to record rather than invent one", async () => {
+    await outbox.removeBlock("b1");
+    const write = createWritePath({ outbox, online: () => false });
+    await expect(write(find(1))).rejects.toThrow(/holds no find numbers/);
+    expect(await outbox.all()).toHaveLength(0);
+  });
+
+  it("online with nothing waiting, a write goes straight to the server with an idempotency key", async () => {
+    const s = server();
+    const write = createWritePath({ outbox, online: () => true, send: s.send });
+    await write(find(1));
+    expect(s.seen).toHaveLength(1);
+    expect(s.seen[0].headers["idempotency-key"]).toMatch(/^[0-9a-f-]{36}$/);
+    expect(await outbox.all()).toHaveLength(0);
+  });
+
+  it("a connection lost on the way queues the write with the same key", async () => {
+    let key = "";
+    const write = createWritePath({ outbox, online: () => true, send: async (req) => { key = req.headers["idempotency-key"]; throw new TypeError("Failed to fetch"); } });
+    await write(find(1));
+    const [entry] = await outbox.all();
+    expect(entry.key).toBe(key);
+  });
+
+  it("a write that cannot wait says it needs a connection and queues nothing", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await expect(write(buildRequest("siteUpdate", { siteId }, { name: "x" }))).rejects.toThrow(/needs a connection/);
+    expect(await outbox.all()).toHaveLength(0);
+  });
+
+  it("runs the loop check on the device before a relation is queued", async () => {
+    const write = createWritePath({ outbox, online: () => false, loopCheck: async () => "1 above 2 above 1" });
+    await expect(write(buildRequest("relationsCreate", { siteId }, { contextId, reading: "above", otherId: classId }))).rejects.toThrow(/loop/);
+    expect(await outbox.all()).toHaveLength(0);
+  });
+});
+
+describe("sync", () => {
+  it("sends in order, links a context made on the device to the server's id for the finds and relation that name it", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const ctx = (await write(buildRequest("contextsCreate", { siteId }, { trenchId, type: "deposit" } as never))) as { id: string; number: number };
+    expect(ctx.number).toBe(9001);
+    await write(buildRequest("findsCreate", { siteId }, { contextId: ctx.id, classId, x: 1, y: 1, method: "plan" }));
+    await write(buildRequest("relationsCreate", { siteId }, { contextId: ctx.id, reading: "above", otherId: contextId }));
+    const s = server();
+    const waiting: number[] = [];
+    const out = await syncOutbox({ outbox, send: s.send, progress: (n) => waiting.push(n) });
+    expect(out).toEqual({ sent: 3, refused: 0, stopped: "done" });
+    expect(waiting).toEqual([2, 1, 0]);
+    expect(s.seen.map((r) => r.operation)).toEqual(["contextsCreate", "findsCreate", "relationsCreate"]);
+    const serverCtxId = (await s.send(s.seen[0])) as { id: string };
+    expect(JSON.parse(s.seen[1].body!).contextId).toBe(serverCtxId.id);
+    expect(JSON.parse(s.seen[2].body!).contextId).toBe(serverCtxId.id);
+    expect(s.seen.some((r) => r.body?.includes(ctx.id))).toBe(false);
+  });
+
+  it("a replay of the same outbox creates nothing: the server answers each key with its first answer", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    for (let i = 0; i < 5; i++) await write(find(i));
+    const copy = await outbox.all();
+    const s = server();
+    await syncOutbox({ outbox, send: s.send });
+    for (const e of copy) await outbox.put(e);
+    const again = await syncOutbox({ outbox, send: s.send });
+    expect(again.sent).toBe(5);
+    expect(s.seen).toHaveLength(5);
+  });
+
+  it("a refusal moves that entry to needs attention with the server's reason; the rest still go", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(find(1));
+    await write(find(2));
+    await write(find(3));
+    const s = server((req) => (JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, { reason: "locked" }) : null));
+    const out = await syncOutbox({ outbox, send: s.send });
+    expect(out).toEqual({ sent: 2, refused: 1, stopped: "done" });
+    const [left] = await outbox.all();
+    expect(left).toMatchObject({ state: "attention", label: "find #502", refusal: { code: "locked", status: 409, message: "Context 1005 is signed off." } });
+  });
+
+  it("a 401 pauses the sync and keeps everything waiting, never in needs attention", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(find(1));
+    const out = await syncOutbox({ outbox, send: async () => { throw new ApiError("Sign in first.", 401); } });
+    expect(out.stopped).toBe("sign-in");
+    expect(await outbox.count()).toEqual({ waiting: 1, attention: 0 });
+  });
+
+  it("no connection stops the sync with nothing lost; a busy server counts a try", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(find(1));
+    expect((await syncOutbox({ outbox, send: async () => { throw new TypeError("Failed to fetch"); } })).stopped).toBe("offline");
+    expect((await syncOutbox({ outbox, send: async () => { throw new ApiError("Busy", 503); } })).stopped).toBe("server-busy");
+    expect((await outbox.all())[0]).toMatchObject({ state: "waiting", attempts: 1 });
+    expect([1, 2, 3, 9].map(backoffSeconds)).toEqual([2, 4, 8, 300]);
+  });
+
+  it("a damaged entry goes to needs attention instead of stopping the sync", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(find(1));
+    await write(find(2));
+    const [first] = await outbox.all();
+    await outbox.put({ ...first, body: "{not json" });
+    const s = server();
+    const out = await syncOutbox({ outbox, send: s.send });
+    expect(out).toEqual({ sent: 1, refused: 1, stopped: "done" });
+    expect((await outbox.all())[0]).toMatchObject({ state: "attention", refusal: { code: "damaged" } });
+    expect(damaged({ key: "k", url: "/api/x", method: "POST" })).toMatch(/idempotency key/);
+  });
+
+  it("each user on a shared tablet has an outbox of their own", async () => {
+    const other = await Outbox.open(`${userId}-other`);
+    const write = createWritePath({ outbox, online: () => false });
+    await write(find(1));
+    expect(await other.all()).toHaveLength(0);
+    await closeOutboxDb(`${userId}-other`);
+  });
+});

@@ -1,0 +1,132 @@
+import { ApiError, sendRequest, type ApiRequest } from "@/lib/api/client";
+import type { ApiName } from "@/lib/api/catalog";
+import { toStored, type RelationKind, type RelationReading } from "@/lib/schemas/relation";
+import type { Outbox } from "./outbox";
+import type { OutboxEntry } from "./outbox-db";
+
+/**
+ * Where a write goes on a device that may have no connection. Online with nothing waiting, it is sent at
+ * once with an idempotency key made here; if the connection drops on the way it is queued with that same
+ * key (the server answers a replay with its first answer, so it is never written twice). Offline, or with
+ * writes still waiting (order is kept), recording writes go into the outbox and the caller gets the answer
+ * the server would give, marked `pending`: a find or context takes its final number from the device's block.
+ * Writes that cannot wait (settings, sign-off, uploads) say plainly that they need a connection.
+ */
+export type WritePathDeps = {
+  outbox: Outbox;
+  online: () => boolean;
+  send?: (req: ApiRequest, signal?: AbortSignal) => Promise<unknown>;
+  /** A write was queued: the sync may start. */
+  queued?: () => void;
+  /** Relations of the site as last read plus those queued, for the loop check (lib/offline/relations.ts). */
+  loopCheck?: (siteId: string, relation: { fromId: string; toId: string; kind: RelationKind }) => Promise<string | null>;
+  /** Called after a number was taken from a block: a new block may be due. */
+  numberTaken?: (siteId: string, kind: "find" | "context") => void;
+};
+
+/** Operations a digger can make offline, and what each does to the outbox. */
+const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
+  findsCreate: "create",
+  findUpdate: "edit",
+  findDelete: "delete",
+  contextsCreate: "create",
+  contextUpdate: "edit",
+  relationsCreate: "create",
+  relationDelete: "delete",
+};
+
+export const IDEMPOTENCY_HEADER = "idempotency-key";
+
+/** A fetch that never reached an answer (no network, server down: a TypeError in every browser; or our own timeout). */
+export function isNetworkFailure(err: unknown): boolean {
+  return err instanceof TypeError || (err instanceof ApiError && err.status === 0) || (err instanceof DOMException && err.name === "TimeoutError");
+}
+
+/** True for the writes a digger can make offline (they are queued when the server cannot be reached). */
+export function worksOffline(operation: ApiName): boolean {
+  return Boolean(offlineOps[operation]);
+}
+
+/** /api/sites/{siteId}/… → siteId; the last path segment → the record's id. */
+function pathIds(url: string): { siteId: string; recordId: string } {
+  const parts = new URL(url, "http://device").pathname.split("/");
+  return { siteId: parts[3] ?? "", recordId: parts[parts.length - 1] ?? "" };
+}
+
+const needsConnection = (req: ApiRequest) =>
+  new ApiError(`This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets and relations works offline.`, 0);
+
+export function createWritePath(deps: WritePathDeps) {
+  const send = deps.send ?? sendRequest;
+
+  return async function write(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
+    const withKey: ApiRequest = { ...req, headers: { ...req.headers, [IDEMPOTENCY_HEADER]: req.headers[IDEMPOTENCY_HEADER] ?? crypto.randomUUID() } };
+    const kind = offlineOps[req.operation];
+    const nothingWaiting = (await deps.outbox.count()).waiting === 0;
+    if (deps.online() && (nothingWaiting || !kind)) {
+      try {
+        return await send(withKey, signal);
+      } catch (err) {
+        if (!kind || !isNetworkFailure(err)) throw err;
+        // The connection dropped on the way: queue it with the same key (a replay writes nothing twice).
+      }
+    }
+    if (!kind) throw needsConnection(req);
+    const answer = await queue(deps, withKey, kind);
+    deps.queued?.();
+    return answer;
+  };
+}
+
+async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edit" | "delete"): Promise<unknown> {
+  const { outbox } = deps;
+  const { siteId, recordId } = pathIds(req.url);
+  const body = req.body ? (JSON.parse(req.body) as Record<string, unknown>) : {};
+  const base = { key: req.headers[IDEMPOTENCY_HEADER], siteId, operation: req.operation, method: req.method, url: req.url, headers: req.headers };
+
+  if (kind === "create") {
+    const localId = crypto.randomUUID();
+    if (req.operation === "relationsCreate") {
+      const stored = toStored(String(body.contextId), body.reading as RelationReading, String(body.otherId));
+      const loop = await deps.loopCheck?.(siteId, stored);
+      if (loop) throw new ApiError(`That relation would make the matrix loop back on itself: ${loop}.`, 400, { otherId: [`That would make a loop: ${loop}.`] });
+      await outbox.add({ ...base, localId, body: JSON.stringify(body), label: "relation" });
+      return { id: localId, ...stored, pending: true };
+    }
+    const numberKind = req.operation === "findsCreate" ? "find" : "context";
+    if (body.number === undefined || body.number === null || body.number === "") {
+      const n = await outbox.takeNumber(siteId, numberKind);
+      if (n === null)
+        throw new ApiError(`This device holds no ${numberKind} numbers for this site: connect once so it can reserve a block, then record offline.`, 0);
+      body.number = n;
+      deps.numberTaken?.(siteId, numberKind);
+    }
+    const label = numberKind === "find" ? `find #${body.number}` : `context ${body.number}`;
+    await outbox.add({ ...base, localId, body: JSON.stringify(body), label });
+    const now = new Date().toISOString();
+    return numberKind === "find"
+      ? { id: localId, trenchId: "", z: null, count: null, weightG: null, description: "", method: "plan", ...body, recordedAt: now, recordedBy: null, pending: true }
+      : { id: localId, state: "open", signedOffAt: null, extent: null, ...body, pending: true };
+  }
+
+  // An edit or delete of a record made on this device and not yet sent changes its queued create.
+  const create = await outbox.createOf(recordId);
+  if (create) return kind === "edit" ? mergeIntoCreate(outbox, create, body) : dropCreate(outbox, create);
+
+  const baseVersion = typeof body.version === "number" ? body.version : null;
+  await outbox.add({ ...base, body: req.body, baseVersion, label: `${kind === "edit" ? "change" : "delete"} ${req.operation.startsWith("find") ? "find" : req.operation.startsWith("context") ? "context" : "relation"}` });
+  return kind === "edit" ? { id: recordId, ...body, pending: true } : { deleted: recordId, pending: true };
+}
+
+async function mergeIntoCreate(outbox: Outbox, create: OutboxEntry, patch: Record<string, unknown>) {
+  const merged = { ...(JSON.parse(create.body ?? "{}") as Record<string, unknown>), ...patch };
+  delete merged.version;
+  await outbox.put({ ...create, body: JSON.stringify(merged) });
+  return { id: create.localId, ...merged, pending: true };
+}
+
+async function dropCreate(outbox: Outbox, create: OutboxEntry) {
+  await outbox.remove(create.seq!);
+  const number = (JSON.parse(create.body ?? "{}") as { number?: number }).number;
+  return { deleted: create.localId, number, pending: true };
+}
