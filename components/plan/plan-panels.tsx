@@ -41,7 +41,8 @@ type Props = {
 export function PlanPanels({ panel, onPanel, plan, layers, recording, outline, extents, photoFit, act }: Props) {
   const { siteId, trench, classes, contexts, classMap, finds, canEdit, tool, drawing } = plan;
   return (
-    <aside className="flex flex-col border-t border-paper-edge bg-paper lg:w-[420px] lg:border-l lg:border-t-0" aria-label="Plan panels">
+    // On a phone the find form opens as a sheet over the plan, so the point just tapped stays in view above it.
+    <aside className={`flex flex-col border-t border-paper-edge bg-paper lg:w-[420px] lg:border-l lg:border-t-0 ${panel === "record" && recording.placing ? "max-sm:fixed max-sm:inset-x-0 max-sm:bottom-0 max-sm:z-40 max-sm:max-h-[62vh] max-sm:rounded-t-lg max-sm:border-2 max-sm:border-ink/40 max-sm:shadow-xl" : ""}`} aria-label="Plan panels">
       <div role="tablist" className="flex flex-wrap gap-1 border-b border-paper-edge p-1">
         {panels.map((t) => (
           <button key={t.id} role="tab" type="button" aria-selected={panel === t.id} className={`btn px-3 ${panel === t.id ? "border-ink bg-ink text-paper hover:bg-ink" : ""}`} onClick={() => onPanel(t.id)}>{t.label}</button>

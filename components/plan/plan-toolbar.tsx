@@ -1,5 +1,6 @@
 "use client";
 
+import { CompactToolMenu } from "./compact-tool-menu";
 import type { Tool } from "./plan-canvas";
 
 const tools: { id: Tool; label: string; key: string; hint: string }[] = [
@@ -29,11 +30,13 @@ export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUnd
 }) {
   return (
     <div role="toolbar" aria-label="Plan tools" className="flex flex-wrap items-center gap-1 border-b border-paper-edge bg-paper px-2 py-1">
+      {/* Phones: the tools fold into one menu, so the plan keeps the screen (components/plan/compact-tool-menu.tsx). */}
+      <CompactToolMenu tools={tools} tool={tool} onTool={onTool} canEdit={canEdit} />
       {tools.map((t) => (
         <button
           key={t.id}
           type="button"
-          className={`btn px-3 ${tool === t.id ? "border-ink bg-ink text-paper hover:bg-ink" : ""}`}
+          className={`btn px-3 max-sm:hidden ${tool === t.id ? "border-ink bg-ink text-paper hover:bg-ink" : ""}`}
           aria-pressed={tool === t.id}
           disabled={!canEdit && t.id !== "look" && t.id !== "section"}
           onClick={() => onTool(t.id)}
@@ -42,14 +45,14 @@ export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUnd
           {t.label} <kbd className="rounded border border-current/40 px-1 font-mono text-xs">{t.key}</kbd>
         </button>
       ))}
-      <span className="mx-1 h-8 w-px bg-paper-edge" aria-hidden="true" />
-      <button type="button" className="btn px-3" onClick={onZoomTrench}>Zoom to trench <kbd className="font-mono text-xs">Z</kbd></button>
+      <span className="mx-1 h-8 w-px bg-paper-edge max-sm:hidden" aria-hidden="true" />
+      <button type="button" className="btn px-3 max-sm:hidden" onClick={onZoomTrench}>Zoom to trench <kbd className="font-mono text-xs">Z</kbd></button>
       <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1.5)} aria-label="Zoom in">+</button>
       <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1 / 1.5)} aria-label="Zoom out">−</button>
       <button type="button" className="btn px-3" onClick={onUndo} disabled={!undoLabel} title={undoLabel ? `Undo: ${undoLabel}` : "Nothing to undo"}>
-        Undo{undoLabel ? `: ${undoLabel}` : ""} <kbd className="font-mono text-xs">U</kbd>
+        Undo<span className="max-sm:hidden">{undoLabel ? `: ${undoLabel}` : ""}</span> <kbd className="font-mono text-xs max-sm:hidden">U</kbd>
       </button>
-      <button type="button" className="btn ml-auto px-3" onClick={onHelp}>Shortcuts <kbd className="font-mono text-xs">?</kbd></button>
+      <button type="button" className="btn ml-auto px-3 max-sm:hidden" onClick={onHelp}>Shortcuts <kbd className="font-mono text-xs">?</kbd></button>
     </div>
   );
 }

@@ -29,8 +29,8 @@ async function networkOff(context: BrowserContext, page: Page, off: boolean) {
 
 /** Waits until the service worker controls the page and keeps its address in the pages cache. */
 async function keptOnDevice(page: Page, url: string) {
-  await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 20_000 });
-  await page.waitForFunction(async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })), new URL(url, stack.url).href, { timeout: 20_000 });
+  await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 45_000 });
+  await page.waitForFunction(async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })), new URL(url, stack.url).href, { timeout: 45_000 });
 }
 
 describe("the app on a device with no connection", () => {
