@@ -9,7 +9,7 @@ export default async function ScanPage() {
   const { user } = await pageUser();
   return (
     <>
-      <AppHeader userName={user.name} />
+      <AppHeader userName={user.name} device={{ userId: user.id }} />
       <main className="mx-auto max-w-3xl space-y-4 px-4 py-6">
         <h1 className="text-3xl font-bold">Scan a label</h1>
         <p className="text-ink-soft">Point the camera at a bag or box label&apos;s code; the find or sample opens.</p>

@@ -142,7 +142,7 @@ describe("sync", () => {
     await write(find(1));
     await write(find(2));
     await write(find(3));
-    const s = server((req) => (JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, { reason: "locked" }) : null));
+    const s = server((req) => (JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, {}, "locked") : null));
     const out = await syncOutbox({ outbox, send: s.send });
     expect(out).toEqual({ sent: 2, refused: 1, stopped: "done" });
     const [left] = await outbox.all();

@@ -60,9 +60,9 @@ export async function syncOutbox({ outbox, send = sendRequest, progress }: SyncD
   return { sent, refused, stopped: "done" };
 }
 
-/** The server's reason code and words (its details carry `reason` when it names one). */
+/** The server's reason code (lib/api/offline.ts `reasonCodes`) and its words. */
 export function refusalOf(err: ApiError): Refusal {
-  const reason = err.detail("reason") ?? err.detail("code");
+  const reason = err.code ?? err.detail("reason");
   return { code: typeof reason === "string" ? reason : null, message: err.message, status: err.status, details: err.details };
 }
 
