@@ -2,6 +2,7 @@ import { emptyQuery } from "@/lib/schemas/common";
 import { archiveApi } from "./catalog/archive";
 import { coreApi } from "./catalog/core";
 import { levelsApi } from "./catalog/levels";
+import { offlineApi } from "./catalog/offline";
 import { patternsApi } from "./catalog/patterns";
 import { planApi } from "./catalog/plan";
 import { publicApi } from "./catalog/public";
@@ -17,7 +18,7 @@ export type { ApiOperation } from "./operation";
  * fetch layer (lib/api/client.ts) all read this table, so a new route cannot skip any of them. Each feature
  * keeps its operations in lib/api/catalog/<feature>.ts. Pure data: no server code is imported here.
  */
-export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...squaresApi, ...archiveApi, ...publicApi };
+export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...squaresApi, ...archiveApi, ...offlineApi, ...publicApi };
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

@@ -48,6 +48,8 @@ export const findFormSchema = findRules.pick({ classId: true, contextId: true, z
 
 export const findCreateSchema = z.object({
   ...findFields,
+  /** Only for a find recorded from a block of numbers the sender holds (offline); otherwise the server numbers it. */
+  number: findNumberSchema.optional(),
   description: findFields.description.default(""),
   method: z.enum(["plan", "typed", "imported"]).default("typed"),
 });

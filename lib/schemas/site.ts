@@ -32,6 +32,8 @@ const siteFields = {
     .nullish()
     .refine((v) => !v || isProjectedDefinition(v), "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m)."),
   samplesShareFindNumbers: z.boolean({ error: "Say whether samples share the finds' numbers (true or false)." }),
+  /** How many find or context numbers a device reserves at once for recording offline. */
+  numberBlockSize: numeric(z.number({ error: "Enter how many numbers a device reserves at once." }).int("A block size is a whole number.").min(5, "A block holds at least 5 numbers.").max(1000, "A block holds at most 1,000 numbers.")),
   /** Printed in front of label codes so any phone camera opens the record; blank = the code alone. */
   labelAddress: z
     .string()
@@ -48,6 +50,7 @@ export const siteCreateSchema = z.object({
   gridOriginX: siteFields.gridOriginX.default(0),
   gridOriginY: siteFields.gridOriginY.default(0),
   samplesShareFindNumbers: siteFields.samplesShareFindNumbers.default(false),
+  numberBlockSize: siteFields.numberBlockSize.default(50),
 });
 
 /** No defaults here: a field left out stays as it is. The code never changes. */

@@ -10,6 +10,7 @@ import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { assertOutline, getTrench } from "./trenches";
+import { assertContextNumberAllowed } from "./number-blocks";
 import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function listContexts(db: Db, siteId: string, trenchId?: string) {
@@ -26,7 +27,7 @@ export async function getContext(db: Db | Tx, siteId: string, contextId: string)
 
 async function assertNumberFree(tx: Db | Tx, siteId: string, number: number) {
   const [taken] = await tx.select({ id: contexts.id }).from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.number, number)));
-  if (taken) throw conflict(`Context ${number} already exists on this site; context numbers are unique per site.`);
+  if (taken) throw conflict(`Context ${number} already exists on this site; context numbers are unique per site.`, { number }, "duplicate");
 }
 
 /** The sheet's dates in order, and a mesh size only on a sieved context. */
@@ -44,6 +45,7 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
   assertSheetConsistent({ openedOn: input.openedOn ?? null, closedOn: input.closedOn ?? null, digMethod: input.digMethod ?? null, sieveMeshMm: input.sieveMeshMm ?? null });
   return db.transaction(async (tx) => {
     await getTrench(tx, actor.site.id, input.trenchId);
+    await assertContextNumberAllowed(tx, actor, input.number);
     await assertNumberFree(tx, actor.site.id, input.number);
     const [row] = await tx
       .insert(contexts)
@@ -62,7 +64,10 @@ export async function updateContext(db: Db, actor: SiteActor, contextId: string,
     await assertContextWritable(tx, before);
     assertVersion(before, expectedVersion, `Context ${before.number}`);
     assertSheetConsistent({ ...before, ...input });
-    if (input.number !== undefined && input.number !== before.number) await assertNumberFree(tx, actor.site.id, input.number);
+    if (input.number !== undefined && input.number !== before.number) {
+      await assertContextNumberAllowed(tx, actor, input.number);
+      await assertNumberFree(tx, actor.site.id, input.number);
+    }
     const [after] = await tx
       .update(contexts)
       .set({ ...input, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(contexts.version) }) })

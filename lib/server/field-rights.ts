@@ -14,7 +14,7 @@ const directorOnly = ["director"] as const;
  * refused to everyone. Specialists class finds, so on a find they may change the class and nothing else.
  */
 export const fieldRights = {
-  site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly, samplesShareFindNumbers: directorOnly, labelAddress: directorOnly },
+  site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly, samplesShareFindNumbers: directorOnly, labelAddress: directorOnly, numberBlockSize: directorOnly },
   member: { role: directorOnly },
   class: { code: classers, label: classers, material: classers, colour: classers, symbol: classers, humanRemains: classers },
   trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders, squareSize: directorOnly, squareOriginX: directorOnly, squareOriginY: directorOnly },

@@ -15,6 +15,7 @@ import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { getContext } from "./contexts";
 import { getTrench } from "./trenches";
+import { assertFindNumberHeld, voidDeletedNumber } from "./number-blocks";
 import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
@@ -57,7 +58,9 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
     await assertContextWritable(tx, context, "given new finds");
     await assertClass(tx, actor.site.id, input.classId);
     await assertInsideTrench(tx, actor.site.id, context.trenchId, input.x, input.y);
-    const number = await allocateFindNumbers(tx, actor.site.id);
+    // A number sent with the find was taken from a block the sender holds (recorded offline); else the next one.
+    if (input.number !== undefined) await assertFindNumberHeld(tx, actor, input.number);
+    const number = input.number ?? (await allocateFindNumbers(tx, actor.site.id));
     const [row] = await tx
       .insert(finds)
       .values({ ...input, z: input.z ?? null, count: input.count ?? null, weightG: input.weightG ?? null, siteId: actor.site.id, trenchId: context.trenchId, number, recordedBy: actor.userId })
@@ -100,6 +103,7 @@ export async function deleteFind(db: Db, actor: SiteActor, findId: string, expec
     await assertContextWritable(tx, context, "changed (nor its finds)");
     assertVersion(before, expectedVersion, `Find ${before.number}`);
     await tx.delete(finds).where(eq(finds.id, findId));
+    await voidDeletedNumber(tx, actor.site.id, "find", before.number, before.recordedBy, actor.userId, "find deleted");
     await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "find", recordId: findId, before });
     return { deleted: findId, number: before.number };
   });

@@ -163,6 +163,8 @@ const outsideTheLock: Record<string, string> = {
   datumUpdate: "the site's datum name and tolerance; no level changes",
   sectionsCreate: "a drawing of finds already recorded; changes no find or context", sectionDelete: "a drawing only; no find or context changes",
   samplesStatus: "post-excavation processing comes after the trench; the sample's sheet is unchanged (samples.test.ts)",
+  numberBlocksCreate: "reserves numbers; records nothing in a context", numberBlockRelease: "numbers only; records keep theirs",
+  discardsCreate: "an audit entry only; changes no record",
   benchmarksCreate: "a new benchmark", benchmarkUpdate: "a benchmark's level is fixed once a run used it", benchmarkDelete: "refused once a run used it",
 };
 

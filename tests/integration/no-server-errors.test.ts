@@ -16,13 +16,14 @@ import { makeSite, type SiteFixture } from "../support/fixtures";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { coreCases } from "./role-cases/core";
 import { levelsCases } from "./role-cases/levels";
+import { offlineCases } from "./role-cases/offline";
 import { patternsCases } from "./role-cases/patterns";
 import { planCases } from "./role-cases/plan";
 import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
 import type { Prepared } from "./role-cases/types";
 
-const writes: Record<string, (fx: SiteFixture) => Promise<Prepared>> = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases };
+const writes: Record<string, (fx: SiteFixture) => Promise<Prepared>> = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...offlineCases };
 
 type RouteModule = Record<string, (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>>;
 const routeFiles = import.meta.glob<RouteModule>("/app/api/**/route.ts");

@@ -7,13 +7,14 @@ import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { archiveCases } from "./role-cases/archive";
 import { coreCases } from "./role-cases/core";
 import { levelsCases } from "./role-cases/levels";
+import { offlineCases } from "./role-cases/offline";
 import { patternsCases } from "./role-cases/patterns";
 import { planCases } from "./role-cases/plan";
 import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
 import { squaresCases } from "./role-cases/squares";
 
-const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases, ...archiveCases };
+const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases, ...archiveCases, ...offlineCases };
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
 async function snapshot(): Promise<string> {

@@ -89,6 +89,7 @@ export const updatables: Record<string, Updatable> = {
       crs: fc.constantFrom(null, utm30),
       // No sample exists on the fixture's site, so the numbering may still be chosen.
       samplesShareFindNumbers: fc.boolean(),
+      numberBlockSize: fc.integer({ min: 5, max: 1000 }),
       labelAddress: fc.constantFrom(null, "https://loamwork.example.org", "http://10.0.0.2:3000/lw"),
     }),
   },
