@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useState } from "react";
+import { useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
 import { readReading, reduceAsBooked } from "@/lib/levels/level-book";
 import type { LevelBookRow } from "@/lib/levels/levelling";
@@ -38,7 +38,8 @@ export function LevelBookForm({ siteId, tolerance, datumName, trenches, choices 
   const start = choices.benchmarks.find((b) => b.id === startId) ?? null;
   const closing = choices.benchmarks.find((b) => b.id === closingId) ?? null;
   const rows: LevelBookRow[] = lines.map((l, i) => ({ station: l.station || stationFor(l, choices) || `line ${i + 1}`, backsight: reading(l.bs), intermediate: reading(l.is), foresight: reading(l.fs) }));
-  const live = useMemo(() => reduceAsBooked(start?.level ?? null, rows, closing?.level ?? null, tolerance), [start, closing, tolerance, JSON.stringify(rows)]); // eslint-disable-line react-hooks/exhaustive-deps
+  // A book is a few dozen lines: reduced afresh on every keystroke.
+  const live = reduceAsBooked(start?.level ?? null, rows, closing?.level ?? null, tolerance);
 
   const change = (key: number, patch: Partial<BookLine>) => setLines((all) => all.map((l) => (l.key === key ? { ...l, ...patch } : l)));
   const addLine = (at: number) => setLines((all) => [...all.slice(0, at + 1), blankLine(), ...all.slice(at + 1)]);
