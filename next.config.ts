@@ -1,12 +1,26 @@
 import type { NextConfig } from "next";
 import { withSerwist } from "@serwist/turbopack";
-import { API_CONTENT_SECURITY_POLICY, SERVICE_WORKER_CONTENT_SECURITY_POLICY, securityHeaders } from "./lib/security-headers";
+import {
+  API_CONTENT_SECURITY_POLICY,
+  SERVICE_WORKER_CONTENT_SECURITY_POLICY,
+  securityHeaders,
+} from "./lib/security-headers";
 
 const config: NextConfig = {
   // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
   // rate-limiter-flexible loads its Drizzle helpers by a computed import that a bundle cannot follow.
   // pg-listen needs pg-format, which loads a file by a path computed at run time.
-  serverExternalPackages: ["@electric-sql/pglite", "piscina", "sharp", "smtp-server", "mailparser", "nodemailer", "pg-boss", "rate-limiter-flexible", "pg-listen"],
+  serverExternalPackages: [
+    "@electric-sql/pglite",
+    "piscina",
+    "sharp",
+    "smtp-server",
+    "mailparser",
+    "nodemailer",
+    "pg-boss",
+    "rate-limiter-flexible",
+    "pg-listen",
+  ],
   experimental: {
     authInterrupts: true,
     // Loamwork's server actions post sign-in, reset and invitation forms: a few hundred bytes each.
@@ -22,7 +36,10 @@ const config: NextConfig = {
     const list = (policy: string) => Object.entries(securityHeaders(policy)).map(([key, value]) => ({ key, value }));
     return [
       { source: "/api/:path*", headers: list(API_CONTENT_SECURITY_POLICY) },
-      { source: "/serwist/:path*", headers: [...list(SERVICE_WORKER_CONTENT_SECURITY_POLICY), { key: "Cache-Control", value: "no-cache" }] },
+      {
+        source: "/serwist/:path*",
+        headers: [...list(SERVICE_WORKER_CONTENT_SECURITY_POLICY), { key: "Cache-Control", value: "no-cache" }],
+      },
     ];
   },
   // Types are checked by `npm run typecheck` in the test command, once for the whole tree.

@@ -18,7 +18,9 @@ export function proxy(req: NextRequest) {
     connectOrigins: [uploadOrigin(config.UPLOADTHING_INGEST_URL)],
     dev: config.NODE_ENV === "development",
   });
-  const res = needsSignIn(req) ? signInRedirect(req) : NextResponse.next({ request: { headers: withPolicy(req.headers, nonce, policy) } });
+  const res = needsSignIn(req)
+    ? signInRedirect(req)
+    : NextResponse.next({ request: { headers: withPolicy(req.headers, nonce, policy) } });
   for (const [name, value] of Object.entries(securityHeaders(policy))) res.headers.set(name, value);
   return res;
 }

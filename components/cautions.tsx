@@ -10,11 +10,23 @@ export function DeepTrenchCaution({ depth, trench }: { depth: number; trench?: C
   return (
     <div role="alert" className="rounded border-2 border-warn bg-warn-light p-3 text-warn">
       <p className="font-bold">
-        Deep trench{trench ? <> — <Link className="underline" href={trench.href}>{trench.label}</Link></> : ""}: {depth.toFixed(2)} m below the ground surface, from the reduced levels recorded
+        Deep trench
+        {trench ? (
+          <>
+            {" "}
+            —{" "}
+            <Link className="underline" href={trench.href}>
+              {trench.label}
+            </Link>
+          </>
+        ) : (
+          ""
+        )}
+        : {depth.toFixed(2)} m below the ground surface, from the reduced levels recorded
       </p>
       <p className="text-sm">
-        Beyond about {DEEP_TRENCH_M} m the sides need support, battering or stepping before anyone works in the trench. Follow the
-        local regulations and the site&apos;s risk assessment; this figure is common practice, not a rule.
+        Beyond about {DEEP_TRENCH_M} m the sides need support, battering or stepping before anyone works in the trench.
+        Follow the local regulations and the site&apos;s risk assessment; this figure is common practice, not a rule.
       </p>
     </div>
   );
@@ -26,13 +38,19 @@ export function HumanRemainsBanner({ count, finds = [] }: { count: number; finds
       <p className="font-bold">Human remains recorded ({count})</p>
       {finds.length > 0 && (
         <ul className="my-1 flex flex-wrap gap-x-4 gap-y-1" aria-label="Where human remains were recorded">
-          {finds.map((f) => <li key={f.href}><Link className="font-semibold underline" href={f.href}>{f.label}</Link></li>)}
+          {finds.map((f) => (
+            <li key={f.href}>
+              <Link className="font-semibold underline" href={f.href}>
+                {f.label}
+              </Link>
+            </li>
+          ))}
           {count > finds.length && <li>and {count - finds.length} more</li>}
         </ul>
       )}
       <p className="text-sm">
-        Work on remains stops until they are reported as the law of this place requires. The excavation licence and the local
-        authority decide what happens next; record nothing further until they have.
+        Work on remains stops until they are reported as the law of this place requires. The excavation licence and the
+        local authority decide what happens next; record nothing further until they have.
       </p>
     </div>
   );

@@ -5,7 +5,10 @@ export function OutlineSketch({ outline, size = 120 }: { outline: PolygonJson; s
   const all = outline.coordinates.flat();
   const xs = all.map((p) => p[0]);
   const ys = all.map((p) => p[1]);
-  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const minX = Math.min(...xs),
+    maxX = Math.max(...xs),
+    minY = Math.min(...ys),
+    maxY = Math.max(...ys);
   const span = Math.max(maxX - minX, maxY - minY) || 1;
   const pad = span * 0.05;
   // Site grid north is up: flip y for the screen.
@@ -13,7 +16,13 @@ export function OutlineSketch({ outline, size = 120 }: { outline: PolygonJson; s
     .map((ring) => "M" + ring.map(([x, y]) => `${(x - minX).toFixed(3)},${(maxY - y).toFixed(3)}`).join("L") + "Z")
     .join(" ");
   return (
-    <svg viewBox={`${-pad} ${-pad} ${span + 2 * pad} ${span + 2 * pad}`} width={size} height={size} role="img" aria-label="Trench outline">
+    <svg
+      viewBox={`${-pad} ${-pad} ${span + 2 * pad} ${span + 2 * pad}`}
+      width={size}
+      height={size}
+      role="img"
+      aria-label="Trench outline"
+    >
       <path d={d} fill="#c9b28a" fillRule="evenodd" stroke="#2e2116" strokeWidth={span / 100} />
     </svg>
   );

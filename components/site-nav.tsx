@@ -20,7 +20,10 @@ export function siteSections(siteId: string) {
 
 export function SiteNav({ siteId, role, current }: { siteId: string; role: Role; current: string }) {
   return (
-    <nav aria-label="Site sections" className="no-print flex flex-wrap items-center gap-1 border-b border-paper-edge px-4 py-2">
+    <nav
+      aria-label="Site sections"
+      className="no-print flex flex-wrap items-center gap-1 border-b border-paper-edge px-4 py-2"
+    >
       {siteSections(siteId).map((s) => (
         <Link
           key={s.href}
@@ -31,7 +34,10 @@ export function SiteNav({ siteId, role, current }: { siteId: string; role: Role;
           {s.label}
         </Link>
       ))}
-      <span className="ml-auto rounded border border-ink/30 px-2 py-1 font-mono text-xs uppercase tracking-wider" title="Your role on this site">
+      <span
+        className="ml-auto rounded border border-ink/30 px-2 py-1 font-mono text-xs uppercase tracking-wider"
+        title="Your role on this site"
+      >
         {role}
       </span>
     </nav>

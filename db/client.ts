@@ -14,7 +14,11 @@ import * as schema from "./schema";
 export type Db = PgliteDatabase<typeof schema>;
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
-type Listen = (channel: string, onPayload: (payload: string) => void, onReconnect: () => void) => Promise<() => Promise<void>>;
+type Listen = (
+  channel: string,
+  onPayload: (payload: string) => void,
+  onReconnect: () => void,
+) => Promise<() => Promise<void>>;
 type Holder = { ready?: Promise<Db>; close?: () => Promise<void>; listen?: Listen };
 const holder: Holder = ((globalThis as Record<string, unknown>).__loamworkDb ??= {}) as Holder;
 
@@ -30,7 +34,14 @@ async function open(): Promise<Db> {
     // which reconnects and listens again after a dropped connection.
     const subscribers = new Set<ReturnType<typeof createSubscriber>>();
     holder.listen = async (channel, onPayload, onReconnect) => {
-      const subscriber = createSubscriber({ connectionString: DATABASE_URL }, { parse: (text) => text, retryTimeout: Number.MAX_SAFE_INTEGER, retryInterval: (n) => Math.min(5000, 250 * 2 ** n) });
+      const subscriber = createSubscriber(
+        { connectionString: DATABASE_URL },
+        {
+          parse: (text) => text,
+          retryTimeout: Number.MAX_SAFE_INTEGER,
+          retryInterval: (n) => Math.min(5000, 250 * 2 ** n),
+        },
+      );
       subscriber.notifications.on(channel, onPayload);
       subscriber.events.on("error", (err) => console.error(`[loamwork] listening on ${channel} failed`, err));
       try {
@@ -83,7 +94,11 @@ export function getDb(): Promise<Db> {
  * PostgreSQL server a dropped connection is reopened and `onReconnect` called: what was sent meanwhile is
  * lost, so the listener reads again whatever it follows.
  */
-export async function listen(channel: string, onPayload: (payload: string) => void, onReconnect: () => void = () => {}): Promise<() => Promise<void>> {
+export async function listen(
+  channel: string,
+  onPayload: (payload: string) => void,
+  onReconnect: () => void = () => {},
+): Promise<() => Promise<void>> {
   await getDb();
   if (!holder.listen) throw new Error("The database was closed while a listener was starting.");
   return holder.listen(channel, onPayload, onReconnect);

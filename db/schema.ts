@@ -31,10 +31,29 @@ export const datumKindEnum = pgEnum("datum_kind", ["national", "local"]);
 /** How a context was dug (the sheet's method field); "sieved" carries a mesh size. */
 export const digMethodEnum = pgEnum("dig_method", ["trowel", "mattock", "machine", "sieved"]);
 /** What a staff reading in a level book was taken on. */
-export const levelTargetEnum = pgEnum("level_target", ["benchmark", "change_point", "find", "context_top", "context_base", "spit_top", "spit_base", "ground", "other"]);
+export const levelTargetEnum = pgEnum("level_target", [
+  "benchmark",
+  "change_point",
+  "find",
+  "context_top",
+  "context_base",
+  "spit_top",
+  "spit_base",
+  "ground",
+  "other",
+]);
 export const runStatusEnum = pgEnum("run_status", ["queued", "running", "done", "failed", "cancelled"]);
 /** The trade's kinds of sample (lib/schemas/sample.ts names each on screen). */
-export const sampleTypeEnum = pgEnum("sample_type", ["bulk", "spot", "charcoal", "monolith", "micromorphology", "pollen", "luminescence", "other"]);
+export const sampleTypeEnum = pgEnum("sample_type", [
+  "bulk",
+  "spot",
+  "charcoal",
+  "monolith",
+  "micromorphology",
+  "pollen",
+  "luminescence",
+  "other",
+]);
 /** Where a sample stands after it left the ground. */
 export const sampleStatusEnum = pgEnum("sample_status", ["taken", "processing", "processed", "sent", "discarded"]);
 
@@ -84,7 +103,7 @@ export const sites = pgTable("sites", {
   /** Address printed in front of label codes (https://…), so any phone camera opens the record; empty = code only. */
   labelAddress: text("label_address"),
 
-/**
+  /**
   /** How many numbers a device reserves at once for offline recording (set by the director). */
   numberBlockSize: integer("number_block_size").notNull().default(50),
   createdAt: created(),
@@ -93,8 +112,12 @@ export const sites = pgTable("sites", {
 export const memberships = pgTable(
   "memberships",
   {
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
     role: roleEnum("role").notNull(),
     createdAt: created(),
   },
@@ -103,11 +126,15 @@ export const memberships = pgTable(
 
 export const invitations = pgTable("invitations", {
   id: uuid("id").primaryKey().defaultRandom(),
-  siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+  siteId: uuid("site_id")
+    .notNull()
+    .references(() => sites.id, { onDelete: "cascade" }),
   email: text("email").notNull(),
   role: roleEnum("role").notNull(),
   tokenHash: text("token_hash").notNull().unique(),
-  invitedBy: uuid("invited_by").notNull().references(() => users.id),
+  invitedBy: uuid("invited_by")
+    .notNull()
+    .references(() => users.id),
   expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
   acceptedAt: timestamp("accepted_at", { withTimezone: true }),
   createdAt: created(),
@@ -117,7 +144,9 @@ export const trenches = pgTable(
   "trenches",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     code: text("code").notNull(),
     name: text("name").notNull().default(""),
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
@@ -139,7 +168,9 @@ export const trenches = pgTable(
 
 export const photos = pgTable("photos", {
   id: uuid("id").primaryKey().defaultRandom(),
-  siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+  siteId: uuid("site_id")
+    .notNull()
+    .references(() => sites.id, { onDelete: "cascade" }),
   trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
   fileKey: text("file_key").notNull().unique(),
   fileName: text("file_name").notNull(),
@@ -159,8 +190,12 @@ export const contexts = pgTable(
   "contexts",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
     type: contextTypeEnum("type").notNull(),
     colour: text("colour").notNull().default(""),
@@ -196,10 +231,16 @@ export const contextRelations = pgTable(
   "context_relations",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     /** Reads "from <kind> to": 1004 above 1007, 1005 cuts 1004, 1006 fills 1005, 1008 same_as 1009. */
-    fromId: uuid("from_id").notNull().references(() => contexts.id, { onDelete: "cascade" }),
-    toId: uuid("to_id").notNull().references(() => contexts.id, { onDelete: "cascade" }),
+    fromId: uuid("from_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "cascade" }),
+    toId: uuid("to_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "cascade" }),
     kind: relationKindEnum("kind").notNull(),
     createdBy: uuid("created_by").references(() => users.id),
     createdAt: created(),
@@ -211,7 +252,9 @@ export const artefactClasses = pgTable(
   "artefact_classes",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     code: text("code").notNull(),
     label: text("label").notNull(),
     material: text("material").notNull().default(""),
@@ -227,10 +270,18 @@ export const finds = pgTable(
   "finds",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
-    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
-    classId: uuid("class_id").notNull().references(() => artefactClasses.id, { onDelete: "restrict" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "restrict" }),
+    contextId: uuid("context_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "restrict" }),
+    classId: uuid("class_id")
+      .notNull()
+      .references(() => artefactClasses.id, { onDelete: "restrict" }),
     spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
     /** The total station's own point ID for an imported find (its shot label), kept apart from the find number. */
@@ -259,7 +310,9 @@ export const finds = pgTable(
 
 /** The column mapping a site uses for its total-station exports, remembered between imports. */
 export const importMappings = pgTable("import_mappings", {
-  siteId: uuid("site_id").primaryKey().references(() => sites.id, { onDelete: "cascade" }),
+  siteId: uuid("site_id")
+    .primaryKey()
+    .references(() => sites.id, { onDelete: "cascade" }),
   mapping: jsonb("mapping").$type<Record<string, string>>().notNull(),
   updatedAt: updated(),
 });
@@ -268,8 +321,12 @@ export const analysisRuns = pgTable(
   "analysis_runs",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "cascade" }),
     scope: jsonb("scope").$type<Record<string, unknown>>().notNull(),
     method: text("method").notNull(),
     params: jsonb("params").$type<Record<string, unknown>>().notNull(),
@@ -301,7 +358,9 @@ export const auditEntries = pgTable(
     before: jsonb("before"),
     after: jsonb("after"),
     reason: text("reason"),
-    at: timestamp("at", { withTimezone: true }).notNull().default(sql`now()`),
+    at: timestamp("at", { withTimezone: true })
+      .notNull()
+      .default(sql`now()`),
   },
   (t) => [index("audit_record").on(t.recordType, t.recordId), index("audit_actor").on(t.actorId)],
 );
@@ -321,7 +380,9 @@ export type Photo = typeof photos.$inferSelect;
 
 export const passwordResets = pgTable("password_resets", {
   id: uuid("id").primaryKey().defaultRandom(),
-  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  userId: uuid("user_id")
+    .notNull()
+    .references(() => users.id, { onDelete: "cascade" }),
   tokenHash: text("token_hash").notNull().unique(),
   expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
   usedAt: timestamp("used_at", { withTimezone: true }),
@@ -333,7 +394,9 @@ export const benchmarks = pgTable(
   "benchmarks",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     code: text("code").notNull(),
     description: text("description").notNull(),
     x: doublePrecision("x").notNull(),
@@ -351,8 +414,12 @@ export const spits = pgTable(
   "spits",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    contextId: uuid("context_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
     topLevel: doublePrecision("top_level"),
     baseLevel: doublePrecision("base_level"),
@@ -367,9 +434,15 @@ export const samples = pgTable(
   "samples",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
-    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "restrict" }),
+    contextId: uuid("context_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "restrict" }),
     spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
     number: integer("number").notNull(),
     type: sampleTypeEnum("type").notNull(),
@@ -406,10 +479,14 @@ export const levelRuns = pgTable(
   "level_runs",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
     takenOn: date("taken_on").notNull(),
-    startBenchmarkId: uuid("start_benchmark_id").notNull().references(() => benchmarks.id, { onDelete: "restrict" }),
+    startBenchmarkId: uuid("start_benchmark_id")
+      .notNull()
+      .references(() => benchmarks.id, { onDelete: "restrict" }),
     closingBenchmarkId: uuid("closing_benchmark_id").references(() => benchmarks.id, { onDelete: "restrict" }),
     book: jsonb("book").$type<LevelBookLine[]>().notNull(),
     tolerance: doublePrecision("tolerance").notNull(),
@@ -426,8 +503,12 @@ export const spotLevels = pgTable(
   "spot_levels",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    runId: uuid("run_id").notNull().references(() => levelRuns.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    runId: uuid("run_id")
+      .notNull()
+      .references(() => levelRuns.id, { onDelete: "cascade" }),
     line: integer("line").notNull(),
     target: levelTargetEnum("target").notNull(),
     targetId: uuid("target_id"),
@@ -454,9 +535,15 @@ export const squareSamples = pgTable(
   "square_samples",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "restrict" }),
-    contextId: uuid("context_id").notNull().references(() => contexts.id, { onDelete: "restrict" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "restrict" }),
+    contextId: uuid("context_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "restrict" }),
     spitId: uuid("spit_id").references(() => spits.id, { onDelete: "restrict" }),
     col: integer("col").notNull(),
     row: integer("row").notNull(),
@@ -475,8 +562,12 @@ export const squareSamples = pgTable(
 export const squareCounts = pgTable(
   "square_counts",
   {
-    sampleId: uuid("sample_id").notNull().references(() => squareSamples.id, { onDelete: "cascade" }),
-    classId: uuid("class_id").notNull().references(() => artefactClasses.id, { onDelete: "restrict" }),
+    sampleId: uuid("sample_id")
+      .notNull()
+      .references(() => squareSamples.id, { onDelete: "cascade" }),
+    classId: uuid("class_id")
+      .notNull()
+      .references(() => artefactClasses.id, { onDelete: "restrict" }),
     count: integer("count").notNull(),
     weightG: doublePrecision("weight_g"),
   },
@@ -495,8 +586,12 @@ export const findSections = pgTable(
   "find_sections",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
-    trenchId: uuid("trench_id").notNull().references(() => trenches.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "cascade" }),
     name: text("name").notNull(),
     startX: doublePrecision("start_x").notNull(),
     startY: doublePrecision("start_y").notNull(),
@@ -519,7 +614,9 @@ export type FindSection = typeof findSections.$inferSelect;
 export const idempotencyKeys = pgTable(
   "idempotency_keys",
   {
-    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
     key: uuid("key").notNull(),
     /** SHA-256 of the method, the path with its query and the body, as sent the first time. */
     fingerprint: text("fingerprint").notNull(),
@@ -545,11 +642,15 @@ export const numberBlocks = pgTable(
   "number_blocks",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     kind: numberKindEnum("kind").notNull(),
     first: integer("first_number").notNull(),
     last: integer("last_number").notNull(),
-    userId: uuid("user_id").notNull().references(() => users.id),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id),
     deviceId: uuid("device_id").notNull(),
     deviceLabel: text("device_label").notNull().default(""),
     createdAt: created(),
@@ -565,7 +666,9 @@ export const numberVoids = pgTable(
   "number_voids",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id").notNull().references(() => sites.id, { onDelete: "cascade" }),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
     kind: numberKindEnum("kind").notNull(),
     first: integer("first_number").notNull(),
     last: integer("last_number").notNull(),

@@ -29,7 +29,12 @@ const schema = z.object({
   UPLOADTHING_INGEST_URL: z.string().url().optional(),
   LOAMWORK_RUN_QUEUE: z.enum(["local", "pg-boss"]).optional(),
   /** Seconds a chunk of simulations may take before pg-boss offers it to another worker (its worker presumed lost). */
-  LOAMWORK_CHUNK_EXPIRE_SECONDS: z.coerce.number().int("Give a whole number of seconds.").min(2).max(86_400).default(300),
+  LOAMWORK_CHUNK_EXPIRE_SECONDS: z.coerce
+    .number()
+    .int("Give a whole number of seconds.")
+    .min(2)
+    .max(86_400)
+    .default(300),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -23,7 +23,10 @@ const lattice = buildLattice({ squares }, { neighbours: { type: "queen" } });
 const w = latticeWeights(lattice.neighbours, "row");
 const wStar = latticeWeights(lattice.neighbours, "row", true);
 
-interface Timing { wall: number[]; cpu: number[] }
+interface Timing {
+  wall: number[];
+  cpu: number[];
+}
 
 /** Wall and CPU (user + system of this single-threaded process) milliseconds of 5 runs after a warm-up. */
 function time(f: () => void, runs = 5): Timing {
@@ -42,10 +45,13 @@ function time(f: () => void, runs = 5): Timing {
 
 const med = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)];
 const sec = (ms: number) => (ms / 1000).toFixed(2);
-const fmt = (t: Timing) => `${sec(med(t.cpu))} s (${sec(Math.min(...t.cpu))}–${sec(Math.max(...t.cpu))}) | ${sec(med(t.wall))} s`;
+const fmt = (t: Timing) =>
+  `${sec(med(t.cpu))} s (${sec(Math.min(...t.cpu))}–${sec(Math.max(...t.cpu))}) | ${sec(med(t.wall))} s`;
 const moran = time(() => moranI(lattice.values, w, { permutations: 9999, seed: 1 }));
 const gi = time(() => getisOrdStar(lattice.values, wStar, { permutations: 999, seed: 1 }));
-console.log(`Square-count tests, ${lattice.ids.length} squares, queen contiguity, row-standardised; ${cpus()[0].model}, Node ${process.version}, load average ${loadavg()[0].toFixed(1)}, ${new Date().toISOString()}`);
+console.log(
+  `Square-count tests, ${lattice.ids.length} squares, queen contiguity, row-standardised; ${cpus()[0].model}, Node ${process.version}, load average ${loadavg()[0].toFixed(1)}, ${new Date().toISOString()}`,
+);
 console.log("| test | CPU time, median of 5 (range) | wall time, median | target |");
 console.log("| --- | ---: | ---: | ---: |");
 console.log(`| Moran's I, 9,999 permutations | ${fmt(moran)} | under 1 s |`);

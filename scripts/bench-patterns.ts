@@ -25,12 +25,14 @@ import { cpus, loadavg } from "node:os";
 import { chromium, type Page } from "playwright-core";
 import { ensureBuilt, startStack } from "./stack";
 
-const arg = (name: string, fallback: string) => process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
+const arg = (name: string, fallback: string) =>
+  process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
 const runs = Number(arg("runs", "3"));
 const portArg = process.argv.find((a) => a.startsWith("--port="));
 const N = 1000;
 const withDefaults = arg("tests", "l") === "defaults";
-if (!["l", "defaults"].includes(arg("tests", "l"))) throw new Error("--tests is l (Besag's L alone) or defaults (L and Clark–Evans).");
+if (!["l", "defaults"].includes(arg("tests", "l")))
+  throw new Error("--tests is l (Besag's L alone) or defaults (L and Clark–Evans).");
 const dataDir = path.join(".tmp", `bench-patterns-${process.pid}`);
 
 /** Seeds the demo site, then adds class BNC with N uniform finds in trench A, context 1005 (this process only). */
@@ -44,25 +46,50 @@ async function prepare(): Promise<void> {
   const { createWindowSampler, createRandom } = await import("../lib/spatial");
   const db = await getDb();
   const { siteId } = await seedDemo(db);
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-  const [context] = await db.select().from(s.contexts).where(and(eq(s.contexts.siteId, siteId), eq(s.contexts.number, 1005)));
+  const [trench] = await db
+    .select()
+    .from(s.trenches)
+    .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+  const [context] = await db
+    .select()
+    .from(s.contexts)
+    .where(and(eq(s.contexts.siteId, siteId), eq(s.contexts.number, 1005)));
   const [site] = await db.select().from(s.sites).where(eq(s.sites.id, siteId));
   const check = checkOutline(trench.outline);
   if (!check.ok) throw new Error(check.reason);
-  const x = new Float64Array(N), y = new Float64Array(N);
+  const x = new Float64Array(N),
+    y = new Float64Array(N);
   createWindowSampler(check.window).fill(createRandom(99), N, x, y);
-  const [cls] = await db.insert(s.artefactClasses).values({ siteId, code: "BNC", label: "Bench flake", colour: "#e69f00", symbol: "disc" }).returning();
-  await db.insert(s.finds).values(Array.from({ length: N }, (_, i) => ({ siteId, trenchId: trench.id, contextId: context.id, classId: cls.id, number: site.nextFindNumber + i, x: x[i], y: y[i], method: "imported" as const })));
-  await db.update(s.sites).set({ nextFindNumber: site.nextFindNumber + N }).where(eq(s.sites.id, siteId));
+  const [cls] = await db
+    .insert(s.artefactClasses)
+    .values({ siteId, code: "BNC", label: "Bench flake", colour: "#e69f00", symbol: "disc" })
+    .returning();
+  await db.insert(s.finds).values(
+    Array.from({ length: N }, (_, i) => ({
+      siteId,
+      trenchId: trench.id,
+      contextId: context.id,
+      classId: cls.id,
+      number: site.nextFindNumber + i,
+      x: x[i],
+      y: y[i],
+      method: "imported" as const,
+    })),
+  );
+  await db
+    .update(s.sites)
+    .set({ nextFindNumber: site.nextFindNumber + N })
+    .where(eq(s.sites.id, siteId));
   await closeDb();
 }
 
-const freePort = () => new Promise<number>((resolve) => {
-  const srv = createServer().listen(0, "127.0.0.1", () => {
-    const p = (srv.address() as { port: number }).port;
-    srv.close(() => resolve(p));
+const freePort = () =>
+  new Promise<number>((resolve) => {
+    const srv = createServer().listen(0, "127.0.0.1", () => {
+      const p = (srv.address() as { port: number }).port;
+      srv.close(() => resolve(p));
+    });
   });
-});
 
 /** The run as the API gives it. Once more on a reset connection: the server may close an idle kept-alive socket just as it is reused. */
 async function readRun(page: Page, url: string) {
@@ -75,24 +102,60 @@ async function readRun(page: Page, url: string) {
 }
 
 /** What the page under test keeps for the bench (set up by the init script). */
-type Probe = { __lt: { start: number; dur: number }[]; __gaps: number[]; __marks: Record<string, number>; __clickAt: number | null; __whenPainted?: () => void };
+type Probe = {
+  __lt: { start: number; dur: number }[];
+  __gaps: number[];
+  __marks: Record<string, number>;
+  __clickAt: number | null;
+  __whenPainted?: () => void;
+};
 
-type Sample = { reads: { polls: number; streams: number }; wallMs: number; figureMs: number; serverMs: number; longest: number; blocking: number; longTasks: number; maxFrameGap: number; phases: Phases };
+type Sample = {
+  reads: { polls: number; streams: number };
+  wallMs: number;
+  figureMs: number;
+  serverMs: number;
+  longest: number;
+  blocking: number;
+  longTasks: number;
+  maxFrameGap: number;
+  phases: Phases;
+};
 /** Where the milliseconds of one run go, on the one clock of this machine (browser and server share it). */
-type Phases = { toRequest: number; toCreated: number; toEngine: number; engine: number; toStored: number; toReceived: number; toShown: number; toFigure: number };
+type Phases = {
+  toRequest: number;
+  toCreated: number;
+  toEngine: number;
+  engine: number;
+  toStored: number;
+  toReceived: number;
+  toShown: number;
+  toFigure: number;
+};
 
 async function main() {
   ensureBuilt();
   rmSync(dataDir, { recursive: true, force: true });
   await prepare();
   const port = portArg ? Number(portArg.split("=")[1]) : await freePort();
-  const stack = await startStack({ port, dataDir, quiet: true, smtpPort: await freePort(), uploadPort: await freePort() });
-  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium", args: ["--no-sandbox", "--disable-gpu"] });
+  const stack = await startStack({
+    port,
+    dataDir,
+    quiet: true,
+    smtpPort: await freePort(),
+    uploadPort: await freePort(),
+  });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    args: ["--no-sandbox", "--disable-gpu"],
+  });
   const samples: Sample[] = [];
   let failed = true;
   let firstMs = NaN;
   try {
-    const page = await (await browser.newContext({ baseURL: stack.url, viewport: { width: 1440, height: 1000 } })).newPage();
+    const page = await (
+      await browser.newContext({ baseURL: stack.url, viewport: { width: 1440, height: 1000 } })
+    ).newPage();
     await page.addInitScript(() => {
       const w = window as unknown as Probe;
       w.__lt = [];
@@ -100,13 +163,20 @@ async function main() {
       w.__marks = {};
       w.__clickAt = null;
       // The run starts at the click itself, not when the script starts looking for the button.
-      document.addEventListener("click", (e) => {
-        if (e.target instanceof Element && e.target.closest("button[type=submit]")) w.__clickAt = e.timeStamp;
-      }, true);
+      document.addEventListener(
+        "click",
+        (e) => {
+          if (e.target instanceof Element && e.target.closest("button[type=submit]")) w.__clickAt = e.timeStamp;
+        },
+        true,
+      );
       // When the verdict and the L figure are on screen: noted after the frame that paints them (a timer
       // queued from that frame's animation callback), not when the scripted browser next looks for them —
       // its own polling would add up to half a second.
-      const watched = { verdict: '[data-testid="run-result"] [data-verdict]', figure: '[data-testid="run-result"] svg.recharts-surface path.recharts-curve' };
+      const watched = {
+        verdict: '[data-testid="run-result"] [data-verdict]',
+        figure: '[data-testid="run-result"] svg.recharts-surface path.recharts-curve',
+      };
       new MutationObserver(() => {
         for (const [name, selector] of Object.entries(watched)) {
           if (name in w.__marks || !document.querySelector(selector)) continue;
@@ -114,12 +184,15 @@ async function main() {
           requestAnimationFrame(() =>
             setTimeout(() => {
               w.__marks[name] = performance.now();
-              if (Object.values(w.__marks).filter((t) => t > 0).length === Object.keys(watched).length) w.__whenPainted?.();
+              if (Object.values(w.__marks).filter((t) => t > 0).length === Object.keys(watched).length)
+                w.__whenPainted?.();
             }),
           );
         }
       }).observe(document, { childList: true, subtree: true });
-      new PerformanceObserver((list) => list.getEntries().forEach((e) => w.__lt.push({ start: e.startTime, dur: e.duration }))).observe({ type: "longtask", buffered: true });
+      new PerformanceObserver((list) =>
+        list.getEntries().forEach((e) => w.__lt.push({ start: e.startTime, dur: e.duration })),
+      ).observe({ type: "longtask", buffered: true });
       // Event-loop lag: a 20 ms timer that fires late shows the page could not respond for that long.
       let last = performance.now();
       setInterval(() => {
@@ -133,7 +206,12 @@ async function main() {
     await page.getByLabel("Password").fill("sieve-specialist-2");
     await page.getByRole("button", { name: "Sign in", exact: true }).click();
     await page.waitForURL("**/sites");
-    const siteHref = await page.getByRole("listitem").filter({ hasText: "Whinnydale Holm" }).getByRole("link").first().getAttribute("href");
+    const siteHref = await page
+      .getByRole("listitem")
+      .filter({ hasText: "Whinnydale Holm" })
+      .getByRole("link")
+      .first()
+      .getAttribute("href");
     for (let k = 0; k < runs + 1; k++) {
       await page.goto(`${siteHref}/patterns`);
       await page.getByLabel(/^1005/).check();
@@ -150,10 +228,15 @@ async function main() {
         return performance.now();
       });
       // Waiting costs the page nothing: it is told when both are painted (no polling while the server simulates).
-      const painted = page.evaluate(() => new Promise<void>((resolve) => ((window as unknown as Probe).__whenPainted = resolve)));
+      const painted = page.evaluate(
+        () => new Promise<void>((resolve) => ((window as unknown as Probe).__whenPainted = resolve)),
+      );
       await page.getByRole("button", { name: "Run tests" }).click();
       let timer: NodeJS.Timeout | undefined;
-      await Promise.race([painted, new Promise((_, reject) => (timer = setTimeout(() => reject(new Error("no verdict within 120 s")), 120_000)))]).finally(() => clearTimeout(timer));
+      await Promise.race([
+        painted,
+        new Promise((_, reject) => (timer = setTimeout(() => reject(new Error("no verdict within 120 s")), 120_000))),
+      ]).finally(() => clearTimeout(timer));
       const m = await page.evaluate((fallback) => {
         const w = window as unknown as Probe;
         const start = w.__clickAt ?? fallback;
@@ -165,7 +248,9 @@ async function main() {
         const answers = entries.filter((e) => runId && e.name.includes(`/runs/${runId}`) && e.responseEnd <= verdict);
         const last = answers.at(-1);
         const streams = answers.filter((e) => e.name.includes("/events")).length;
-        const post = entries.find((e) => e.startTime >= start && e.initiatorType === "fetch" && /\/runs$/.test(new URL(e.name).pathname));
+        const post = entries.find(
+          (e) => e.startTime >= start && e.initiatorType === "fetch" && /\/runs$/.test(new URL(e.name).pathname),
+        );
         return {
           clickEpoch: performance.timeOrigin + start,
           requestEpoch: post ? performance.timeOrigin + post.startTime : NaN,
@@ -182,9 +267,12 @@ async function main() {
       }, before);
       const runId = new URL(page.url()).searchParams.get("run");
       const run = await readRun(page, `${stack.url}/api/sites/${siteHref!.split("/").pop()}/runs/${runId}`);
-      const [created, startedAt, finished] = [run.createdAt, run.startedAt, run.finishedAt].map((v: string) => Date.parse(v));
+      const [created, startedAt, finished] = [run.createdAt, run.startedAt, run.finishedAt].map((v: string) =>
+        Date.parse(v),
+      );
       const timing = run.result?.timing as { engineStart: number; engineEnd: number } | undefined;
-      const engineStart = timing?.engineStart ?? startedAt, engineEnd = timing?.engineEnd ?? finished;
+      const engineStart = timing?.engineStart ?? startedAt,
+        engineEnd = timing?.engineEnd ?? finished;
       const phases: Phases = {
         toRequest: m.requestEpoch - m.clickEpoch,
         toCreated: created - m.requestEpoch,
@@ -208,21 +296,53 @@ async function main() {
     else if (!process.argv.includes("--keep")) rmSync(dataDir, { recursive: true, force: true });
   }
   const med = (f: (s: Sample) => number) => [...samples.map(f)].sort((a, b) => a - b)[Math.floor(samples.length / 2)];
-  const what = withDefaults ? "Besag's L and Clark–Evans (Monte Carlo edge correction), 999 simulations each" : "Besag's L alone (Clark–Evans unticked), 999 simulations";
-  console.log(`\nPatterns end to end in the browser: ${N} finds, ${what}, isotropic correction, MAD test, ${samples.length} runs after one warm-up`);
-  console.log(`Machine: ${cpus().length} cores, load average ${loadavg().map((v) => v.toFixed(1)).join(" / ")} (1 / 5 / 15 min) at the end\n`);
-  console.log("| run | click → verdict (ms) | click → L figure (ms) | server run (ms) | long tasks | longest task (ms) | total blocking (ms) | longest timer delay (ms) |");
+  const what = withDefaults
+    ? "Besag's L and Clark–Evans (Monte Carlo edge correction), 999 simulations each"
+    : "Besag's L alone (Clark–Evans unticked), 999 simulations";
+  console.log(
+    `\nPatterns end to end in the browser: ${N} finds, ${what}, isotropic correction, MAD test, ${samples.length} runs after one warm-up`,
+  );
+  console.log(
+    `Machine: ${cpus().length} cores, load average ${loadavg()
+      .map((v) => v.toFixed(1))
+      .join(" / ")} (1 / 5 / 15 min) at the end\n`,
+  );
+  console.log(
+    "| run | click → verdict (ms) | click → L figure (ms) | server run (ms) | long tasks | longest task (ms) | total blocking (ms) | longest timer delay (ms) |",
+  );
   console.log("| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: |");
-  const row = (s: Sample) => [s.wallMs.toFixed(0), s.figureMs.toFixed(0), s.serverMs, s.longTasks, s.longest.toFixed(0), s.blocking.toFixed(0), s.maxFrameGap.toFixed(0)];
+  const row = (s: Sample) => [
+    s.wallMs.toFixed(0),
+    s.figureMs.toFixed(0),
+    s.serverMs,
+    s.longTasks,
+    s.longest.toFixed(0),
+    s.blocking.toFixed(0),
+    s.maxFrameGap.toFixed(0),
+  ];
   samples.forEach((s, i) => console.log(`| ${i + 1} | ${row(s).join(" | ")} |`));
-  const medianRow = [med((s) => s.wallMs).toFixed(0), med((s) => s.figureMs).toFixed(0), med((s) => s.serverMs), med((s) => s.longTasks), med((s) => s.longest).toFixed(0), med((s) => s.blocking).toFixed(0), med((s) => s.maxFrameGap).toFixed(0)];
+  const medianRow = [
+    med((s) => s.wallMs).toFixed(0),
+    med((s) => s.figureMs).toFixed(0),
+    med((s) => s.serverMs),
+    med((s) => s.longTasks),
+    med((s) => s.longest).toFixed(0),
+    med((s) => s.blocking).toFixed(0),
+    med((s) => s.maxFrameGap).toFixed(0),
+  ];
   console.log(`| median | ${medianRow.join(" | ")} |`);
   const phase = (k: keyof Phases) => med((s) => s.phases[k]).toFixed(0);
   console.log("\nWhere the time goes (medians, ms; browser and server share this machine's clock):\n");
-  console.log("| click → request sent | → run stored (queued) | → engine starts | engine | → result stored | → result in the page | → verdict painted | → L figure painted |");
+  console.log(
+    "| click → request sent | → run stored (queued) | → engine starts | engine | → result stored | → result in the page | → verdict painted | → L figure painted |",
+  );
   console.log("| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |");
-  console.log(`| ${(["toRequest", "toCreated", "toEngine", "engine", "toStored", "toReceived", "toShown", "toFigure"] as const).map(phase).join(" | ")} |`);
-  const reads = [...new Set(samples.map((s) => `${s.reads.polls} JSON read(s) and ${s.reads.streams} event stream(s)`))];
+  console.log(
+    `| ${(["toRequest", "toCreated", "toEngine", "engine", "toStored", "toReceived", "toShown", "toFigure"] as const).map(phase).join(" | ")} |`,
+  );
+  const reads = [
+    ...new Set(samples.map((s) => `${s.reads.polls} JSON read(s) and ${s.reads.streams} event stream(s)`)),
+  ];
   console.log(`\nThe page learnt of each run's progress and end through ${reads.join("; or ")}.`);
   console.log(`\nThe first run after the server started (not in the table): ${firstMs.toFixed(0)} ms click → verdict.`);
   console.log(`\nTarget: click → verdict < 3000 ms: ${med((s) => s.wallMs) < 3000 ? "met" : "NOT met"}.`);

@@ -45,7 +45,17 @@ const stack = await startStack({ port, dataDir, quiet: true });
 const browser = await chromium.launch({
   executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
   headless: true,
-  args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-frame-rate-limit", "--disable-gpu-vsync"],
+  args: [
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-quic",
+    "--no-first-run",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+    "--disable-frame-rate-limit",
+    "--disable-gpu-vsync",
+  ],
 });
 try {
   const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
@@ -58,18 +68,51 @@ try {
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
   await page.waitForURL("**/sites");
   const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
-  const outline = { type: "Polygon", coordinates: [[[0, 0], [40, 0], [40, 30], [0, 30], [0, 0]], [[17, 13], [23, 13], [23, 17], [17, 17], [17, 13]]] };
-  const trench = await (await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code: "BENCH", name: "Benchmark", outline } })).json();
-  for (const n of [9001, 9002, 9003]) await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number: n, type: "deposit" } });
-  const classes = ((await (await page.request.get(`/api/sites/${site.id}/classes`)).json()) as { code: string }[]).map((c) => c.code);
-  const csv = ["x,y,class,context", ...points(N).map(([x, y], i) => `${x},${y},${classes[i % classes.length]},${9001 + (i % 3)}`)].join("\n");
-  const imported = await page.request.post(`/api/sites/${site.id}/import`, { data: { csv, fileName: "bench.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } }, timeout: 300_000 });
+  const outline = {
+    type: "Polygon",
+    coordinates: [
+      [
+        [0, 0],
+        [40, 0],
+        [40, 30],
+        [0, 30],
+        [0, 0],
+      ],
+      [
+        [17, 13],
+        [23, 13],
+        [23, 17],
+        [17, 17],
+        [17, 13],
+      ],
+    ],
+  };
+  const trench = await (
+    await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code: "BENCH", name: "Benchmark", outline } })
+  ).json();
+  for (const n of [9001, 9002, 9003])
+    await page.request.post(`/api/sites/${site.id}/contexts`, {
+      data: { trenchId: trench.id, number: n, type: "deposit" },
+    });
+  const classes = ((await (await page.request.get(`/api/sites/${site.id}/classes`)).json()) as { code: string }[]).map(
+    (c) => c.code,
+  );
+  const csv = [
+    "x,y,class,context",
+    ...points(N).map(([x, y], i) => `${x},${y},${classes[i % classes.length]},${9001 + (i % 3)}`),
+  ].join("\n");
+  const imported = await page.request.post(`/api/sites/${site.id}/import`, {
+    data: { csv, fileName: "bench.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } },
+    timeout: 300_000,
+  });
   if (imported.status() !== 201) throw new Error(`import failed: ${imported.status()} ${await imported.text()}`);
 
   const rows: string[][] = [];
   for (let run = 1; run <= RUNS; run++) {
     await page.goto(`/sites/${site.id}/trenches/${trench.id}`);
-    await page.waitForFunction(() => performance.getEntriesByName("loamwork-plan-finds").length > 0, undefined, { timeout: 60_000 });
+    await page.waitForFunction(() => performance.getEntriesByName("loamwork-plan-finds").length > 0, undefined, {
+      timeout: 60_000,
+    });
     const firstPaint = await page.evaluate(() => {
       const m = performance.getEntriesByName("loamwork-plan-finds")[0] as PerformanceMark;
       return { at: m.startTime, finds: m.detail as number };
@@ -79,7 +122,16 @@ try {
       const r = el.getBoundingClientRect();
       const cx = r.left + r.width / 2;
       const cy = r.top + r.height / 2;
-      const opts = (x: number, y: number) => ({ pointerId: 7, clientX: x, clientY: y, button: 0, buttons: 1, bubbles: true, pointerType: "mouse", isPrimary: true });
+      const opts = (x: number, y: number) => ({
+        pointerId: 7,
+        clientX: x,
+        clientY: y,
+        button: 0,
+        buttons: 1,
+        bubbles: true,
+        pointerType: "mouse",
+        isPrimary: true,
+      });
       const run = (steps: number, act: (i: number) => void) =>
         new Promise<number[]>((resolve) => {
           const times: number[] = [];
@@ -98,23 +150,55 @@ try {
       // Frames with nothing to do: the machine's own floor under the current load.
       const idle = await run(120, () => undefined);
       el.dispatchEvent(new PointerEvent("pointerdown", opts(cx, cy)));
-      const pan = await run(240, (i) => el.dispatchEvent(new PointerEvent("pointermove", opts(cx + 200 * Math.sin(i / 20), cy + 120 * Math.cos(i / 25)))));
+      const pan = await run(240, (i) =>
+        el.dispatchEvent(
+          new PointerEvent("pointermove", opts(cx + 200 * Math.sin(i / 20), cy + 120 * Math.cos(i / 25))),
+        ),
+      );
       el.dispatchEvent(new PointerEvent("pointerup", opts(cx, cy)));
       // The middle button pans wherever it starts (the sweep has moved the plan, so a find may be under cx).
       const middle = (x: number, y: number) => ({ ...opts(x, y), button: 1, buttons: 4 });
       el.dispatchEvent(new PointerEvent("pointerdown", middle(cx, cy)));
-      const sweep = (i: number): [number, number] => [cx + 380 * Math.sin((2 * Math.PI * i) / 120), cy + 300 * Math.sin((2 * Math.PI * i) / 80)];
+      const sweep = (i: number): [number, number] => [
+        cx + 380 * Math.sin((2 * Math.PI * i) / 120),
+        cy + 300 * Math.sin((2 * Math.PI * i) / 80),
+      ];
       const wide = await run(240, (i) => el.dispatchEvent(new PointerEvent("pointermove", middle(...sweep(i + 1)))));
       el.dispatchEvent(new PointerEvent("pointerup", middle(...sweep(240))));
-      const zoom = await run(240, (i) => el.dispatchEvent(new WheelEvent("wheel", { deltaY: i % 60 < 30 ? -40 : 40, clientX: cx, clientY: cy, bubbles: true, cancelable: true })));
+      const zoom = await run(240, (i) =>
+        el.dispatchEvent(
+          new WheelEvent("wheel", {
+            deltaY: i % 60 < 30 ? -40 : 40,
+            clientX: cx,
+            clientY: cy,
+            bubbles: true,
+            cancelable: true,
+          }),
+        ),
+      );
       return { idle, pan, wide, zoom };
     });
-    rows.push([String(run), String(firstPaint.finds), firstPaint.at.toFixed(0), median(frames.idle).toFixed(2), median(frames.pan).toFixed(2), p95(frames.pan).toFixed(2), median(frames.wide).toFixed(2), p95(frames.wide).toFixed(2), median(frames.zoom).toFixed(2), p95(frames.zoom).toFixed(2)]);
+    rows.push([
+      String(run),
+      String(firstPaint.finds),
+      firstPaint.at.toFixed(0),
+      median(frames.idle).toFixed(2),
+      median(frames.pan).toFixed(2),
+      p95(frames.pan).toFixed(2),
+      median(frames.wide).toFixed(2),
+      p95(frames.wide).toFixed(2),
+      median(frames.zoom).toFixed(2),
+      p95(frames.zoom).toFixed(2),
+    ]);
   }
   const version = browser.version();
   const load = (await import("node:os")).loadavg()[0].toFixed(1);
-  console.log(`\nTrench plan, ${N} finds, Chromium ${version}, 1366 × 900, ${RUNS} runs, load average ${load} on ${(await import("node:os")).cpus().length} CPUs\n`);
-  console.log("| run | finds drawn | first paint (ms) | idle frame median (ms) | pan median (ms) | pan p95 (ms) | wide pan median (ms) | wide pan p95 (ms) | zoom median (ms) | zoom p95 (ms) |");
+  console.log(
+    `\nTrench plan, ${N} finds, Chromium ${version}, 1366 × 900, ${RUNS} runs, load average ${load} on ${(await import("node:os")).cpus().length} CPUs\n`,
+  );
+  console.log(
+    "| run | finds drawn | first paint (ms) | idle frame median (ms) | pan median (ms) | pan p95 (ms) | wide pan median (ms) | wide pan p95 (ms) | zoom median (ms) | zoom p95 (ms) |",
+  );
   console.log("| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- |");
   for (const r of rows) console.log(`| ${r.join(" | ")} |`);
 } finally {

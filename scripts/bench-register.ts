@@ -10,7 +10,8 @@
  */
 import { register } from "node:module";
 
-const arg = (name: string, fallback: string) => process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
+const arg = (name: string, fallback: string) =>
+  process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
 const runs = Number(arg("runs", "25"));
 const N = 50_000;
 process.env.LOAMWORK_DATA_DIR ??= "memory";
@@ -47,8 +48,14 @@ async function main() {
   const { siteId } = await seedDemo(db);
   const [digger] = await db.select().from(s.users).where(eq(s.users.email, DEMO_USERS[0].email));
   (globalThis as Record<string, unknown>).__benchUserId = digger.id;
-  const people = await db.select({ id: s.memberships.userId }).from(s.memberships).where(eq(s.memberships.siteId, siteId));
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+  const people = await db
+    .select({ id: s.memberships.userId })
+    .from(s.memberships)
+    .where(eq(s.memberships.siteId, siteId));
+  const [trench] = await db
+    .select()
+    .from(s.trenches)
+    .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
   const ctxs = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
   const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
   const check = checkOutline(trench.outline);
@@ -56,7 +63,8 @@ async function main() {
   const sampler = createWindowSampler(check.window);
   const rnd = createRandom(20261202);
   const pts = (n: number) => {
-    const x = new Float64Array(n), y = new Float64Array(n);
+    const x = new Float64Array(n),
+      y = new Float64Array(n);
     sampler.fill(rnd, n, x, y);
     return { x, y };
   };
@@ -72,20 +80,35 @@ async function main() {
     const values = [];
     for (let k = i; k < Math.min(add, i + 2000); k++) {
       values.push({
-        siteId, trenchId: trench.id, contextId: ctxs[k % ctxs.length].id, classId: classes[(k * 7) % classes.length].id, number: site.nextFindNumber + k,
-        x: p.x[k], y: p.y[k], z: 10 - (k % 90) / 100, method: "imported" as const, description: `${words[k % words.length]} ${words[(k * 3) % words.length]}`,
-        recordedBy: people[k % people.length].id, recordedAt: new Date(t0 + (k % 60) * 86_400_000 + k * 1000),
+        siteId,
+        trenchId: trench.id,
+        contextId: ctxs[k % ctxs.length].id,
+        classId: classes[(k * 7) % classes.length].id,
+        number: site.nextFindNumber + k,
+        x: p.x[k],
+        y: p.y[k],
+        z: 10 - (k % 90) / 100,
+        method: "imported" as const,
+        description: `${words[k % words.length]} ${words[(k * 3) % words.length]}`,
+        recordedBy: people[k % people.length].id,
+        recordedAt: new Date(t0 + (k % 60) * 86_400_000 + k * 1000),
       });
     }
     await db.insert(s.finds).values(values);
   }
-  await db.update(s.sites).set({ nextFindNumber: site.nextFindNumber + add }).where(eq(s.sites.id, siteId));
+  await db
+    .update(s.sites)
+    .set({ nextFindNumber: site.nextFindNumber + add })
+    .where(eq(s.sites.id, siteId));
   await db.execute("analyze");
   const total = (await db.select({ id: s.finds.id }).from(s.finds).where(eq(s.finds.siteId, siteId))).length;
 
   const queries: [string, Record<string, string>][] = [
     ["class, sorted by x desc, page 3", { classId: classes[0].id, sort: "x", dir: "desc", page: "3" }],
-    ["context + date range, sorted by date", { contextId: ctxs[1].id, from: "2026-06-10", to: "2026-07-10", sort: "recordedAt", dir: "desc" }],
+    [
+      "context + date range, sorted by date",
+      { contextId: ctxs[1].id, from: "2026-06-10", to: "2026-07-10", sort: "recordedAt", dir: "desc" },
+    ],
     ["recorder + class, sorted by context", { recordedBy: people[1].id, classId: classes[1].id, sort: "context" }],
     ["free text 'retouched', sorted by class", { q: "retouched", sort: "class", page: "2" }],
     ["no filter, sorted by number desc, page 400", { sort: "number", dir: "desc", page: "400" }],
@@ -116,29 +139,47 @@ async function main() {
   for (let i = 0, j = 0; i < N; j++) {
     // Rounded to the millimetre as an instrument writes them; a point rounded across the edge is skipped.
     if (j >= q.x.length) Object.assign(q, pts(N));
-    const x = q.x[j % N].toFixed(3), y = q.y[j % N].toFixed(3);
+    const x = q.x[j % N].toFixed(3),
+      y = q.y[j % N].toFixed(3);
     if (!win.contains(Number(x), Number(y))) continue;
-    lines.push(`,${x},${y},${(9.5 - (i % 50) / 100).toFixed(3)},${classes[i % classes.length].code},${openCtx[i % openCtx.length].number}`);
+    lines.push(
+      `,${x},${y},${(9.5 - (i % 50) / 100).toFixed(3)},${classes[i % classes.length].code},${openCtx[i % openCtx.length].number}`,
+    );
     i++;
   }
   const csv = lines.join("\n");
   const mapping = { number: "PtID", x: "East", y: "North", z: "Elev", classCode: "Code", contextNumber: "Ctx" };
-  const post = (mod: { POST: Function }, body: unknown) => mod.POST(new Request("http://bench/x", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) }), { params: Promise.resolve({ siteId }) }) as Promise<Response>;
+  const post = (mod: { POST: Function }, body: unknown) =>
+    mod.POST(
+      new Request("http://bench/x", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(body),
+      }),
+      { params: Promise.resolve({ siteId }) },
+    ) as Promise<Response>;
   let start = performance.now();
   const pr = await post(previewRoute, { csv, fileName: "bench.csv", mapping });
   const prBody = await pr.json();
   const previewMs = performance.now() - start;
-  if (pr.status !== 200 || prBody.errors.length) throw new Error(`preview: ${pr.status} ${JSON.stringify(prBody).slice(0, 400)}`);
+  if (pr.status !== 200 || prBody.errors.length)
+    throw new Error(`preview: ${pr.status} ${JSON.stringify(prBody).slice(0, 400)}`);
   start = performance.now();
   const im = await post(importRoute, { csv, fileName: "bench.csv", mapping });
   const imBody = await im.json();
   const importMs = performance.now() - start;
   if (im.status !== 201) throw new Error(`import: ${im.status} ${JSON.stringify(imBody).slice(0, 400)}`);
-  rows.push(`| import preview (parse + validate ${N} rows) | ${prBody.validCount} valid | ${(previewMs / 1000).toFixed(2)} s | — |`);
-  rows.push(`| import (parse + validate + commit ${N} rows, one transaction) | ${imBody.imported} imported | ${(importMs / 1000).toFixed(2)} s | < 10 s |`);
+  rows.push(
+    `| import preview (parse + validate ${N} rows) | ${prBody.validCount} valid | ${(previewMs / 1000).toFixed(2)} s | — |`,
+  );
+  rows.push(
+    `| import (parse + validate + commit ${N} rows, one transaction) | ${imBody.imported} imported | ${(importMs / 1000).toFixed(2)} s | < 10 s |`,
+  );
 
   const where = process.env.DATABASE_URL ? "PostgreSQL (DATABASE_URL)" : "in-memory PGlite";
-  console.log(`\nLoamwork register and import benchmark — ${where}, Node ${process.version}, ${runs} runs per query (median)\n`);
+  console.log(
+    `\nLoamwork register and import benchmark — ${where}, Node ${process.version}, ${runs} runs per query (median)\n`,
+  );
   console.log("| case | rows | time | target |\n| --- | --- | --- | --- |");
   for (const r of rows) console.log(r);
   await closeDb();

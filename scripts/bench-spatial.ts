@@ -18,7 +18,17 @@ import { execFileSync, spawnSync } from "node:child_process";
 import { appendFileSync, mkdirSync, writeFileSync } from "node:fs";
 import { availableParallelism, cpus, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
-import { DEMO_TRENCH, kFunction, createIsotropicL, createRandom, defaultRGrid, runDistributionTest, createWindowSampler, ENGINE_VERSION, createWindow } from "../lib/spatial";
+import {
+  DEMO_TRENCH,
+  kFunction,
+  createIsotropicL,
+  createRandom,
+  defaultRGrid,
+  runDistributionTest,
+  createWindowSampler,
+  ENGINE_VERSION,
+  createWindow,
+} from "../lib/spatial";
 import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 const NSIM = 999;
@@ -41,7 +51,8 @@ function timeIt(reps: number, f: () => void): number {
 /** Child mode: measure one n and print a JSON line. */
 async function measure(n: number): Promise<void> {
   const win = createWindow(DEMO_TRENCH);
-  const x = new Float64Array(n), y = new Float64Array(n);
+  const x = new Float64Array(n),
+    y = new Float64Array(n);
   createWindowSampler(win).fill(createRandom(2024), n, x, y);
   const r = defaultRGrid(win, n);
   const reps = n >= 20000 ? 2 : n >= 5000 ? 5 : n >= 1000 ? 40 : 200;
@@ -56,7 +67,8 @@ async function measure(n: number): Promise<void> {
   const pairs = est.countPairs(x, y, n);
   // where one simulation's time goes: each part timed with the parts before it, the differences reported
   const part = est.part;
-  const sx = new Float64Array(n), sy = new Float64Array(n);
+  const sx = new Float64Array(n),
+    sy = new Float64Array(n);
   let stream = 0;
   const sampler = createWindowSampler(win);
   const profile = {
@@ -94,7 +106,10 @@ async function measure(n: number): Promise<void> {
     const tNsim = n <= 200 && !quick ? NSIM : n <= 1000 ? 99 : 19;
     const c2 = process.cpuUsage();
     const t2 = performance.now();
-    await runDistributionTest({ ...spec, nsim: tNsim, tests: [{ type: "l-envelope", statistic: "mad", correction: "translation" }] }, { pool });
+    await runDistributionTest(
+      { ...spec, nsim: tNsim, tests: [{ type: "l-envelope", statistic: "mad", correction: "translation" }] },
+      { pool },
+    );
     const cpu2 = process.cpuUsage(c2);
     translation = { nsim: tNsim, ms: performance.now() - t2, cpuMs: (cpu2.user + cpu2.system) / 1000 };
   }
@@ -102,12 +117,21 @@ async function measure(n: number): Promise<void> {
   const csv = join(tmpdir(), `loamwork-bench-${n}.csv`);
   writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
-  process.stdout.write(`${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`);
+  process.stdout.write(
+    `${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`,
+  );
 }
 
-function spatstat(csv: string, nsim: number): { k: number; test: number; nsim: number; spatstat: string; p: number } | null {
+function spatstat(
+  csv: string,
+  nsim: number,
+): { k: number; test: number; nsim: number; spatstat: string; p: number } | null {
   try {
-    const outText = execFileSync("Rscript", [join(import.meta.dirname, "bench-spatial-r.R"), csv, String(nsim)], { encoding: "utf8", stdio: ["ignore", "pipe", "ignore"], timeout: 900_000 });
+    const outText = execFileSync("Rscript", [join(import.meta.dirname, "bench-spatial-r.R"), csv, String(nsim)], {
+      encoding: "utf8",
+      stdio: ["ignore", "pipe", "ignore"],
+      timeout: 900_000,
+    });
     return JSON.parse(outText.trim().split("\n").pop()!);
   } catch {
     return null;
@@ -122,12 +146,19 @@ async function main(): Promise<void> {
   const notes: string[] = [];
   let spatstatVersion = "";
   for (const n of big ? [200, 1000, 5000, 20000] : [200, 1000, 5000]) {
-    const run = spawnSync(process.execPath, ["--import", "tsx", import.meta.filename, `--n=${n}`, ...(quick ? ["--quick"] : [])], { encoding: "utf8", maxBuffer: 1 << 26 });
+    const run = spawnSync(
+      process.execPath,
+      ["--import", "tsx", import.meta.filename, `--n=${n}`, ...(quick ? ["--quick"] : [])],
+      { encoding: "utf8", maxBuffer: 1 << 26 },
+    );
     if (run.status !== 0) throw new Error(`bench for n = ${n} failed: ${run.stderr}`);
     const m = JSON.parse(run.stdout.trim().split("\n").pop()!);
     // kept as it comes, so that a long run stopped part-way still leaves its finished rows
     mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });
-    appendFileSync(join(import.meta.dirname, "..", "bench", "results-spatial-raw.jsonl"), `${JSON.stringify({ at: new Date().toISOString(), ...m })}\n`);
+    appendFileSync(
+      join(import.meta.dirname, "..", "bench", "results-spatial-raw.jsonl"),
+      `${JSON.stringify({ at: new Date().toISOString(), ...m })}\n`,
+    );
     const perSim = m.testMs / m.nsim;
     const rNsim = n <= 200 ? 39 : n <= 1000 ? 19 : 4;
     const R = n >= 20000 ? null : spatstat(m.csv, rNsim);
@@ -135,7 +166,7 @@ async function main(): Promise<void> {
     if (R) {
       spatstatVersion = R.spatstat;
       const rPerSim = R.test / R.nsim;
-      rCols = `${R.k.toFixed(3)} s | ${(rPerSim * NSIM).toFixed(0)} s (${R.nsim} sims, scaled ×${(NSIM / R.nsim).toFixed(1)}) | ${((rPerSim * NSIM) / (perSim * NSIM / 1000)).toFixed(0)}×`;
+      rCols = `${R.k.toFixed(3)} s | ${(rPerSim * NSIM).toFixed(0)} s (${R.nsim} sims, scaled ×${(NSIM / R.nsim).toFixed(1)}) | ${((rPerSim * NSIM) / ((perSim * NSIM) / 1000)).toFixed(0)}×`;
     }
     rows.push(
       `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${m.kernelTsMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${(m.testCpuMs / 1000).toFixed(2)} s | ${m.load.toFixed(1)} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
@@ -144,8 +175,12 @@ async function main(): Promise<void> {
     const total = b.sample + m.kernelMs;
     const pc = (v: number) => `${v.toFixed(2)} ms (${((100 * v) / total).toFixed(0)} %)`;
     const tr = m.translation as { nsim: number; ms: number; cpuMs: number } | null;
-    const trCol = tr ? `${((tr.ms / tr.nsim) * NSIM / 1000).toFixed(1)} s${tr.nsim !== NSIM ? ` (${tr.nsim} sims, scaled)` : ""} · ${(tr.cpuMs / tr.nsim).toFixed(1)} ms CPU/sim` : "not run";
-    profileRows.push(`| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trCol} |`);
+    const trCol = tr
+      ? `${(((tr.ms / tr.nsim) * NSIM) / 1000).toFixed(1)} s${tr.nsim !== NSIM ? ` (${tr.nsim} sims, scaled)` : ""} · ${(tr.cpuMs / tr.nsim).toFixed(1)} ms CPU/sim`
+      : "not run";
+    profileRows.push(
+      `| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trCol} |`,
+    );
     process.stderr.write(`n = ${n} done\n`);
   }
   notes.push(

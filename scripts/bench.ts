@@ -13,7 +13,10 @@ import { fileURLToPath } from "node:url";
 /** `react-server`: "server-only" resolves to its empty module, as it does inside Next's server bundle. */
 const NODE_OPTIONS = ["--conditions=react-server", "--import", "tsx"];
 const here = dirname(fileURLToPath(import.meta.url));
-const available = readdirSync(here).filter((f) => /^bench-.+\.ts$/.test(f)).map((f) => f.slice(6, -3)).sort();
+const available = readdirSync(here)
+  .filter((f) => /^bench-.+\.ts$/.test(f))
+  .map((f) => f.slice(6, -3))
+  .sort();
 const args = process.argv.slice(2);
 const names = args.filter((a) => !a.startsWith("--"));
 const passThrough = args.filter((a) => a.startsWith("--"));

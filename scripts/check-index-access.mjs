@@ -58,4 +58,6 @@ if (diagnostics.length > 0) {
   process.exit(1);
 }
 const left = pending.reduce((sum, [, n]) => sum + n, 0);
-console.log(`Index access checked in ${CHECKED.join(", ")}: no errors; ${pending.length} file(s) pending with ${left} error(s).`);
+console.log(
+  `Index access checked in ${CHECKED.join(", ")}: no errors; ${pending.length} file(s) pending with ${left} error(s).`,
+);

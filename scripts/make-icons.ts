@@ -12,7 +12,10 @@ const svg = readFileSync(path.join(dir, "loamwork.svg"));
 
 async function main() {
   for (const size of [192, 512]) {
-    await sharp(svg, { density: 300 }).resize(size, size).png().toFile(path.join(dir, `icon-${size}.png`));
+    await sharp(svg, { density: 300 })
+      .resize(size, size)
+      .png()
+      .toFile(path.join(dir, `icon-${size}.png`));
     const inner = Math.round(size * 0.8);
     const mark = await sharp(svg, { density: 300 }).resize(inner, inner).png().toBuffer();
     await sharp({ create: { width: size, height: size, channels: 4, background: "#f7f2e8" } })
@@ -20,7 +23,11 @@ async function main() {
       .png()
       .toFile(path.join(dir, `maskable-${size}.png`));
   }
-  await sharp(svg, { density: 300 }).resize(180, 180).flatten({ background: "#f7f2e8" }).png().toFile(path.join(dir, "apple-touch-icon.png"));
+  await sharp(svg, { density: 300 })
+    .resize(180, 180)
+    .flatten({ background: "#f7f2e8" })
+    .png()
+    .toFile(path.join(dir, "apple-touch-icon.png"));
 }
 
 void main();

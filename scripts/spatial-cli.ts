@@ -10,7 +10,8 @@ import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 async function readInput(path: string | undefined): Promise<string> {
   if (path && path !== "-") return readFileSync(path, "utf8");
-  if (process.stdin.isTTY) throw new SpatialInputError("Give an input file (npm run spatial -- INPUT.json) or pipe JSON on stdin.");
+  if (process.stdin.isTTY)
+    throw new SpatialInputError("Give an input file (npm run spatial -- INPUT.json) or pipe JSON on stdin.");
   const chunks: Buffer[] = [];
   for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
   return Buffer.concat(chunks).toString("utf8");

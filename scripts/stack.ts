@@ -11,7 +11,14 @@ import { startMailSink } from "../lib/dev-services/mail-sink";
 import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "../lib/dev-services/upload-fake";
 
 /** The app's port; the SMTP sink listens on port + 1525 and the upload fake on port + 210 unless given. */
-export type StackOptions = { port: number; dataDir: string; quiet?: boolean; extraEnv?: Record<string, string>; smtpPort?: number; uploadPort?: number };
+export type StackOptions = {
+  port: number;
+  dataDir: string;
+  quiet?: boolean;
+  extraEnv?: Record<string, string>;
+  smtpPort?: number;
+  uploadPort?: number;
+};
 export type Stack = {
   url: string;
   env: NodeJS.ProcessEnv;
@@ -64,10 +71,20 @@ async function waitForHealth(url: string, child: ChildProcess, timeoutMs = 60_00
 }
 
 /** Local stand-ins for the hosted services, speaking their real protocols (local-services.md). */
-async function startServices(opts: StackOptions, dataDir: string, url: string, env: NodeJS.ProcessEnv, stops: (() => Promise<void>)[]) {
+async function startServices(
+  opts: StackOptions,
+  dataDir: string,
+  url: string,
+  env: NodeJS.ProcessEnv,
+  stops: (() => Promise<void>)[],
+) {
   const mail = await startMailSink({ port: opts.smtpPort ?? opts.port + 1525, dir: path.join(dataDir, "mail") });
   stops.push(() => mail.stop());
-  const uploads = await startUploadFake({ port: opts.uploadPort ?? opts.port + 210, dir: path.join(dataDir, "uploads"), appUrl: url });
+  const uploads = await startUploadFake({
+    port: opts.uploadPort ?? opts.port + 210,
+    dir: path.join(dataDir, "uploads"),
+    appUrl: url,
+  });
   stops.push(() => uploads.stop());
   Object.assign(env, {
     SMTP_URL: mail.url,
@@ -85,7 +102,11 @@ async function startServices(opts: StackOptions, dataDir: string, url: string, e
 
 /** Seeds in a child process that exits before the server opens the same PGlite folder. */
 function seedDemo(env: NodeJS.ProcessEnv, quiet?: boolean) {
-  const seed = spawnSync(process.execPath, ["--conditions=react-server", "--import", "tsx", path.join(root, "scripts/seed-demo.ts")], { cwd: root, env, encoding: "utf8" });
+  const seed = spawnSync(
+    process.execPath,
+    ["--conditions=react-server", "--import", "tsx", path.join(root, "scripts/seed-demo.ts")],
+    { cwd: root, env, encoding: "utf8" },
+  );
   if (seed.status !== 0) throw new Error(`seeding the demo site failed:\n${seed.stdout}\n${seed.stderr}`);
   if (!quiet) process.stdout.write(seed.stdout);
 }
@@ -114,11 +135,15 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   // The app alone can be stopped and started again on the same data (the offline browser test does it).
   let stopApp: () => Promise<void> = async () => {};
   const startApp = async () => {
-    const app = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", listenHost(env), "-p", String(opts.port)], {
-      cwd: root,
-      env,
-      stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
-    });
+    const app = spawn(
+      process.execPath,
+      [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", listenHost(env), "-p", String(opts.port)],
+      {
+        cwd: root,
+        env,
+        stdio: opts.quiet ? ["ignore", "pipe", "pipe"] : "inherit",
+      },
+    );
     // Quiet runs (browser tests) keep the server's output in <dataDir>/app.log for when a test fails.
     const keep = (d: Buffer) => {
       log = (log + d).slice(-20_000);

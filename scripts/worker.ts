@@ -14,10 +14,15 @@ import { startRunWorker } from "@/lib/server/jobs/run-worker";
 const concurrency = Number(process.env.LOAMWORK_WORKER_CONCURRENCY ?? 1);
 const threads = process.env.LOAMWORK_WORKER_THREADS ? Number(process.env.LOAMWORK_WORKER_THREADS) : undefined;
 const share = process.env.LOAMWORK_WORKER_SHARE === "local" ? "local" : "shared";
-const log = process.env.LOAMWORK_WORKER_LOG === "1" ? (line: string) => console.log(`[worker ${process.pid}] ${line}`) : undefined;
+const log =
+  process.env.LOAMWORK_WORKER_LOG === "1"
+    ? (line: string) => console.log(`[worker ${process.pid}] ${line}`)
+    : undefined;
 const chunks = process.env.LOAMWORK_RUN_CHUNKS ? Number(process.env.LOAMWORK_RUN_CHUNKS) : undefined;
 const worker = await startRunWorker({ concurrency, threads, share, chunks, log });
-console.log(`Loamwork run worker ready (${concurrency} at a time, simulations ${share === "shared" ? "shared with every worker" : "in this process"}); waiting for runs.`);
+console.log(
+  `Loamwork run worker ready (${concurrency} at a time, simulations ${share === "shared" ? "shared with every worker" : "in this process"}); waiting for runs.`,
+);
 const stop = async () => {
   await worker.stop();
   await closeDb();

@@ -16,9 +16,16 @@ export async function signInAction(_prev: SignInState, form: FormData): Promise<
   if (refused) return { error: refused.message };
   const next = String(form.get("next") ?? "");
   try {
-    await signIn("credentials", { ...parsed.data, redirectTo: next.startsWith("/") && !next.startsWith("//") ? next : "/sites" });
+    await signIn("credentials", {
+      ...parsed.data,
+      redirectTo: next.startsWith("/") && !next.startsWith("//") ? next : "/sites",
+    });
   } catch (err) {
-    if (err instanceof AuthError) return { error: "That e-mail and password do not match an account. After five wrong tries from one device, it must wait 15 minutes." };
+    if (err instanceof AuthError)
+      return {
+        error:
+          "That e-mail and password do not match an account. After five wrong tries from one device, it must wait 15 minutes.",
+      };
     throw err;
   }
   return {};

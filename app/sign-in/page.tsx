@@ -16,18 +16,34 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
         <p className="mt-2 text-ink-soft">Finds, contexts and plans of the sites you work on.</p>
         <SignInForm next={next} />
         <p className="mt-4 text-sm">
-          <Link className="underline underline-offset-4" href="/reset-password">Forgotten your password?</Link>
+          <Link className="underline underline-offset-4" href="/reset-password">
+            Forgotten your password?
+          </Link>
         </p>
       </div>
       {env().LOAMWORK_DEMO === "1" && (
         <section className="sheet mt-4" aria-labelledby="demo-accounts">
-          <h2 id="demo-accounts" className="font-bold">Demo accounts</h2>
-          <p className="text-sm text-ink-soft">This server holds the invented demo site. Sign in as any of its people:</p>
+          <h2 id="demo-accounts" className="font-bold">
+            Demo accounts
+          </h2>
+          <p className="text-sm text-ink-soft">
+            This server holds the invented demo site. Sign in as any of its people:
+          </p>
           <table className="mt-2 w-full text-sm">
-            <thead><tr className="text-left"><th scope="col">Role</th><th scope="col">E-mail</th><th scope="col">Password</th></tr></thead>
+            <thead>
+              <tr className="text-left">
+                <th scope="col">Role</th>
+                <th scope="col">E-mail</th>
+                <th scope="col">Password</th>
+              </tr>
+            </thead>
             <tbody>
               {DEMO_USERS.map((u) => (
-                <tr key={u.email}><td>{u.role}</td><td className="num">{u.email}</td><td className="num">{u.password}</td></tr>
+                <tr key={u.email}>
+                  <td>{u.role}</td>
+                  <td className="num">{u.email}</td>
+                  <td className="num">{u.password}</td>
+                </tr>
               ))}
             </tbody>
           </table>

@@ -36,12 +36,27 @@ export function AuditChanges({ action, before, after }: { action: string; before
   return (
     <details className="text-ink-soft">
       <summary className="cursor-pointer">
-        {created ? "Recorded with" : deleted ? "Removed, it held" : `Changed ${fields.length} field${fields.length > 1 ? "s" : ""}`}: {fields.slice(0, 4).join(", ")}{fields.length > 4 ? ", …" : ""}
+        {created
+          ? "Recorded with"
+          : deleted
+            ? "Removed, it held"
+            : `Changed ${fields.length} field${fields.length > 1 ? "s" : ""}`}
+        : {fields.slice(0, 4).join(", ")}
+        {fields.length > 4 ? ", …" : ""}
       </summary>
       <ul className="mt-1 space-y-0.5" data-action={action}>
         {fields.map((f) => (
           <li key={f} className="font-mono text-xs">
-            <span className="font-semibold">{f}</span>: {created ? show(a[f]) : deleted ? show(b[f]) : <>{show(b[f])} → {show(a[f])}</>}
+            <span className="font-semibold">{f}</span>:{" "}
+            {created ? (
+              show(a[f])
+            ) : deleted ? (
+              show(b[f])
+            ) : (
+              <>
+                {show(b[f])} → {show(a[f])}
+              </>
+            )}
           </li>
         ))}
       </ul>

@@ -28,7 +28,17 @@ const measureFields = [
 ] as const;
 
 /** The context sheet, checked in the browser by the very schema the server checks it with. */
-export function ContextSheetForm({ siteId, trenches, initial, contextId }: { siteId: string; trenches: { id: string; code: string }[]; initial?: Partial<Input>; contextId?: string }) {
+export function ContextSheetForm({
+  siteId,
+  trenches,
+  initial,
+  contextId,
+}: {
+  siteId: string;
+  trenches: { id: string; code: string }[];
+  initial?: Partial<Input>;
+  contextId?: string;
+}) {
   const router = useRouter();
   const [failure, setFailure] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({
@@ -57,20 +67,42 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
     <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Context sheet">
       <div className="grid gap-3 sm:grid-cols-3">
         <FormField id="ctx-number" label="Context number" error={e.number?.message}>
-          <input id="ctx-number" className="field num" inputMode="numeric" aria-invalid={!!e.number} aria-describedby="ctx-number-error" {...register("number")} />
+          <input
+            id="ctx-number"
+            className="field num"
+            inputMode="numeric"
+            aria-invalid={!!e.number}
+            aria-describedby="ctx-number-error"
+            {...register("number")}
+          />
         </FormField>
         <FormField id="ctx-type" label="Type" error={e.type?.message}>
           <select id="ctx-type" className="field" aria-describedby="ctx-type-error" {...register("type")}>
-            {contextTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+            {contextTypes.map((t) => (
+              <option key={t} value={t}>
+                {t}
+              </option>
+            ))}
           </select>
         </FormField>
-        <FormField id="ctx-trench" label="Trench" error={e.trenchId?.message} hint={contextId ? "A context stays in the trench it was opened in." : undefined}>
+        <FormField
+          id="ctx-trench"
+          label="Trench"
+          error={e.trenchId?.message}
+          hint={contextId ? "A context stays in the trench it was opened in." : undefined}
+        >
           {contextId ? (
             // A saved sheet's trench is shown, not offered: a context stays in the trench it was opened in.
-            <output id="ctx-trench" className="field block bg-paper-deep" aria-describedby="ctx-trench-hint">Trench {trenches.find((t) => t.id === initial?.trenchId)?.code ?? "?"}</output>
+            <output id="ctx-trench" className="field block bg-paper-deep" aria-describedby="ctx-trench-hint">
+              Trench {trenches.find((t) => t.id === initial?.trenchId)?.code ?? "?"}
+            </output>
           ) : (
             <select id="ctx-trench" className="field" aria-describedby="ctx-trench-error" {...register("trenchId")}>
-              {trenches.map((t) => <option key={t.id} value={t.id}>Trench {t.code}</option>)}
+              {trenches.map((t) => (
+                <option key={t.id} value={t.id}>
+                  Trench {t.code}
+                </option>
+              ))}
             </select>
           )}
         </FormField>
@@ -79,9 +111,20 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
         {textFields.map((f) => (
           <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
             {f.rows === 1 ? (
-              <input id={`ctx-${f.name}`} className="field" aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+              <input
+                id={`ctx-${f.name}`}
+                className="field"
+                aria-describedby={`ctx-${f.name}-error`}
+                {...register(f.name)}
+              />
             ) : (
-              <textarea id={`ctx-${f.name}`} className="field" rows={f.rows} aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+              <textarea
+                id={`ctx-${f.name}`}
+                className="field"
+                rows={f.rows}
+                aria-describedby={`ctx-${f.name}-error`}
+                {...register(f.name)}
+              />
             )}
           </FormField>
         ))}
@@ -90,29 +133,69 @@ export function ContextSheetForm({ siteId, trenches, initial, contextId }: { sit
         <legend className="label">Dimensions and digging</legend>
         {measureFields.map((f) => (
           <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
-            <input id={`ctx-${f.name}`} className="field num" inputMode="decimal" aria-describedby={`ctx-${f.name}-error`} {...register(f.name)} />
+            <input
+              id={`ctx-${f.name}`}
+              className="field num"
+              inputMode="decimal"
+              aria-describedby={`ctx-${f.name}-error`}
+              {...register(f.name)}
+            />
           </FormField>
         ))}
         <FormField id="ctx-excavatedBy" label="Excavated by" error={e.excavatedBy?.message}>
-          <input id="ctx-excavatedBy" className="field" aria-describedby="ctx-excavatedBy-error" {...register("excavatedBy")} />
+          <input
+            id="ctx-excavatedBy"
+            className="field"
+            aria-describedby="ctx-excavatedBy-error"
+            {...register("excavatedBy")}
+          />
         </FormField>
         <FormField id="ctx-openedOn" label="Opened" error={e.openedOn?.message}>
-          <input id="ctx-openedOn" type="date" className="field num" aria-describedby="ctx-openedOn-error" {...register("openedOn")} />
+          <input
+            id="ctx-openedOn"
+            type="date"
+            className="field num"
+            aria-describedby="ctx-openedOn-error"
+            {...register("openedOn")}
+          />
         </FormField>
         <FormField id="ctx-closedOn" label="Closed" error={e.closedOn?.message}>
-          <input id="ctx-closedOn" type="date" className="field num" aria-describedby="ctx-closedOn-error" {...register("closedOn")} />
+          <input
+            id="ctx-closedOn"
+            type="date"
+            className="field num"
+            aria-describedby="ctx-closedOn-error"
+            {...register("closedOn")}
+          />
         </FormField>
         <FormField id="ctx-digMethod" label="Dug by" error={e.digMethod?.message}>
-          <select id="ctx-digMethod" className="field" aria-describedby="ctx-digMethod-error" {...register("digMethod")}>
+          <select
+            id="ctx-digMethod"
+            className="field"
+            aria-describedby="ctx-digMethod-error"
+            {...register("digMethod")}
+          >
             <option value="">not recorded</option>
-            {digMethods.map((m) => <option key={m} value={m}>{m}</option>)}
+            {digMethods.map((m) => (
+              <option key={m} value={m}>
+                {m}
+              </option>
+            ))}
           </select>
         </FormField>
         <FormField id="ctx-sieveMeshMm" label="Sieve mesh (mm)" error={e.sieveMeshMm?.message}>
-          <input id="ctx-sieveMeshMm" className="field num" inputMode="decimal" aria-describedby="ctx-sieveMeshMm-error" {...register("sieveMeshMm")} />
+          <input
+            id="ctx-sieveMeshMm"
+            className="field num"
+            inputMode="decimal"
+            aria-describedby="ctx-sieveMeshMm-error"
+            {...register("sieveMeshMm")}
+          />
         </FormField>
       </fieldset>
-      <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
+      <p className="field-error" role="alert" aria-live="assertive">
+        {failure ?? ""}
+      </p>
       <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
         {contextId ? "Save the sheet" : "Open the sheet"}
       </button>

@@ -33,17 +33,39 @@ export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; co
   return (
     <form onSubmit={submit} noValidate className="grid items-end gap-3 sm:grid-cols-4" aria-label="Add a spit">
       <FormField id="spit-number" label="Spit number" error={e.number?.message}>
-        <input id="spit-number" className="field num" inputMode="numeric" aria-describedby="spit-number-error" {...register("number")} />
+        <input
+          id="spit-number"
+          className="field num"
+          inputMode="numeric"
+          aria-describedby="spit-number-error"
+          {...register("number")}
+        />
       </FormField>
       <FormField id="spit-top" label="Top RL (m)" error={e.topLevel?.message}>
-        <input id="spit-top" className="field num" inputMode="decimal" aria-describedby="spit-top-error" {...register("topLevel", blank)} />
+        <input
+          id="spit-top"
+          className="field num"
+          inputMode="decimal"
+          aria-describedby="spit-top-error"
+          {...register("topLevel", blank)}
+        />
       </FormField>
       <FormField id="spit-base" label="Base RL (m)" error={e.baseLevel?.message}>
-        <input id="spit-base" className="field num" inputMode="decimal" aria-describedby="spit-base-error" {...register("baseLevel", blank)} />
+        <input
+          id="spit-base"
+          className="field num"
+          inputMode="decimal"
+          aria-describedby="spit-base-error"
+          {...register("baseLevel", blank)}
+        />
       </FormField>
       <div>
-        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Add the spit</button>
-        <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
+        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+          Add the spit
+        </button>
+        <p className="field-error" role="alert" aria-live="assertive">
+          {failure ?? ""}
+        </p>
       </div>
     </form>
   );

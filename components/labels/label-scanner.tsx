@@ -10,7 +10,8 @@ type DetectorClass = new (options: { formats: string[] }) => Detector;
 
 /** The browser's own barcode detector where it has one for QR codes, else null (jsqr reads the pixels). */
 async function nativeDetector(): Promise<Detector | null> {
-  const Ctor = (globalThis as { BarcodeDetector?: DetectorClass & { getSupportedFormats?: () => Promise<string[]> } }).BarcodeDetector;
+  const Ctor = (globalThis as { BarcodeDetector?: DetectorClass & { getSupportedFormats?: () => Promise<string[]> } })
+    .BarcodeDetector;
   if (!Ctor) return null;
   try {
     const formats = (await Ctor.getSupportedFormats?.()) ?? ["qr_code"];
@@ -21,7 +22,13 @@ async function nativeDetector(): Promise<Detector | null> {
 }
 
 /** Reads the QR codes in one frame: the native detector first, jsqr on the canvas's pixels otherwise. */
-async function readFrame(source: CanvasImageSource, width: number, height: number, canvas: HTMLCanvasElement, detector: Detector | null): Promise<string[]> {
+async function readFrame(
+  source: CanvasImageSource,
+  width: number,
+  height: number,
+  canvas: HTMLCanvasElement,
+  detector: Detector | null,
+): Promise<string[]> {
   if (detector) {
     try {
       return (await detector.detect(source)).map((c) => c.rawValue);
@@ -103,7 +110,8 @@ export function LabelScanner() {
     const bitmap = await createImageBitmap(file);
     const found = await readFrame(bitmap, bitmap.width, bitmap.height, canvas.current, await nativeDetector());
     bitmap.close();
-    if (!open(found) && !found.length) setMessage("No code found in that photo; hold the label flat and fill the frame.");
+    if (!open(found) && !found.length)
+      setMessage("No code found in that photo; hold the label flat and fill the frame.");
   };
 
   return (
@@ -112,25 +120,60 @@ export function LabelScanner() {
         {camera === "on" ? (
           <>
             <video ref={video} className="w-full rounded bg-ink" muted playsInline aria-label="Camera view" />
-            <button type="button" className="btn" onClick={() => setCamera("off")}>Stop the camera</button>
+            <button type="button" className="btn" onClick={() => setCamera("off")}>
+              Stop the camera
+            </button>
           </>
         ) : (
-          <button type="button" className="btn-primary" onClick={() => setCamera("on")}>Scan with the camera</button>
+          <button type="button" className="btn-primary" onClick={() => setCamera("on")}>
+            Scan with the camera
+          </button>
         )}
-        {camera === "refused" && <p className="field-error">The camera could not be opened (no camera, or permission refused). Take a photo of the label below instead.</p>}
+        {camera === "refused" && (
+          <p className="field-error">
+            The camera could not be opened (no camera, or permission refused). Take a photo of the label below instead.
+          </p>
+        )}
       </div>
       <div className="sheet">
-        <label className="label" htmlFor="scan-photo">Or a photo of the label</label>
-        <input id="scan-photo" type="file" accept="image/*" capture="environment" className="field" onChange={(e) => void fromPhoto(e.target.files?.[0])} />
+        <label className="label" htmlFor="scan-photo">
+          Or a photo of the label
+        </label>
+        <input
+          id="scan-photo"
+          type="file"
+          accept="image/*"
+          capture="environment"
+          className="field"
+          onChange={(e) => void fromPhoto(e.target.files?.[0])}
+        />
       </div>
-      <form className="sheet flex flex-wrap items-end gap-2" onSubmit={(e) => { e.preventDefault(); open([typed]); }}>
+      <form
+        className="sheet flex flex-wrap items-end gap-2"
+        onSubmit={(e) => {
+          e.preventDefault();
+          open([typed]);
+        }}
+      >
         <div className="grow">
-          <label className="label" htmlFor="scan-typed">Or type the code</label>
-          <input id="scan-typed" className="field font-mono" placeholder="LW/WHD26/F/1234" value={typed} onChange={(e) => setTyped(e.target.value)} />
+          <label className="label" htmlFor="scan-typed">
+            Or type the code
+          </label>
+          <input
+            id="scan-typed"
+            className="field font-mono"
+            placeholder="LW/WHD26/F/1234"
+            value={typed}
+            onChange={(e) => setTyped(e.target.value)}
+          />
         </div>
-        <button type="submit" className="btn">Open</button>
+        <button type="submit" className="btn">
+          Open
+        </button>
       </form>
-      <p role="status" aria-live="polite" className="font-semibold">{message}</p>
+      <p role="status" aria-live="polite" className="font-semibold">
+        {message}
+      </p>
       <canvas ref={canvas} hidden />
     </div>
   );

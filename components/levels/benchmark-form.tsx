@@ -31,19 +31,34 @@ export function BenchmarkForm({ siteId }: { siteId: string }) {
   });
   const field = (name: keyof Input, label: string, numeric = false) => (
     <FormField id={`bm-${name}`} label={label} error={e[name]?.message}>
-      <input id={`bm-${name}`} className={numeric ? "field num" : "field"} inputMode={numeric ? "decimal" : undefined} aria-describedby={`bm-${name}-error`} {...register(name)} />
+      <input
+        id={`bm-${name}`}
+        className={numeric ? "field num" : "field"}
+        inputMode={numeric ? "decimal" : undefined}
+        aria-describedby={`bm-${name}-error`}
+        {...register(name)}
+      />
     </FormField>
   );
   return (
-    <form onSubmit={submit} noValidate className="no-print grid items-end gap-3 sm:grid-cols-6" aria-label="Add a benchmark">
+    <form
+      onSubmit={submit}
+      noValidate
+      className="no-print grid items-end gap-3 sm:grid-cols-6"
+      aria-label="Add a benchmark"
+    >
       {field("code", "Code")}
       <div className="sm:col-span-2">{field("description", "Description")}</div>
       {field("x", "Easting x (m)", true)}
       {field("y", "Northing y (m)", true)}
       {field("level", "RL (m)", true)}
       <div className="sm:col-span-6">
-        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Add the benchmark</button>
-        <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
+        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+          Add the benchmark
+        </button>
+        <p className="field-error" role="alert" aria-live="assertive">
+          {failure ?? ""}
+        </p>
       </div>
     </form>
   );

@@ -12,9 +12,18 @@ type Input = z.input<typeof datumUpdateSchema>;
 type Output = z.output<typeof datumUpdateSchema>;
 
 /** The director states what heights are measured from and how far a closed run may miss its benchmark. */
-export function DatumForm({ siteId, initial }: { siteId: string; initial: { datumKind: "national" | "local"; datumName: string; levelTolerance: number } }) {
+export function DatumForm({
+  siteId,
+  initial,
+}: {
+  siteId: string;
+  initial: { datumKind: "national" | "local"; datumName: string; levelTolerance: number };
+}) {
   const [note, setNote] = useState("");
-  const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({ resolver: zodResolver(datumUpdateSchema), defaultValues: initial });
+  const { register, handleSubmit, setError, formState } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(datumUpdateSchema),
+    defaultValues: initial,
+  });
   const e = formState.errors;
   const submit = handleSubmit(async (values) => {
     setNote("");
@@ -39,12 +48,27 @@ export function DatumForm({ siteId, initial }: { siteId: string; initial: { datu
           <input id="datum-name" className="field" aria-describedby="datum-name-error" {...register("datumName")} />
         </FormField>
       </div>
-      <FormField id="datum-tolerance" label="Closing tolerance (m)" error={e.levelTolerance?.message} hint="Common practice on a site: a few millimetres.">
-        <input id="datum-tolerance" className="field num" inputMode="decimal" aria-describedby="datum-tolerance-error datum-tolerance-hint" {...register("levelTolerance")} />
+      <FormField
+        id="datum-tolerance"
+        label="Closing tolerance (m)"
+        error={e.levelTolerance?.message}
+        hint="Common practice on a site: a few millimetres."
+      >
+        <input
+          id="datum-tolerance"
+          className="field num"
+          inputMode="decimal"
+          aria-describedby="datum-tolerance-error datum-tolerance-hint"
+          {...register("levelTolerance")}
+        />
       </FormField>
       <div className="sm:col-span-4">
-        <button type="submit" className="btn" disabled={formState.isSubmitting}>Save the datum</button>
-        <span className="ml-3 text-sm" role="status" aria-live="polite">{note}</span>
+        <button type="submit" className="btn" disabled={formState.isSubmitting}>
+          Save the datum
+        </button>
+        <span className="ml-3 text-sm" role="status" aria-live="polite">
+          {note}
+        </span>
       </div>
     </form>
   );

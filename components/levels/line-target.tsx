@@ -39,31 +39,85 @@ export function stationFor(line: Pick<BookLine, "target" | "ref">, choices: Choi
 }
 
 /** What one line's staff stood on: the kind, and the record where the kind is a record of the site. */
-export function LineTarget({ line, index, choices, onChange }: { line: BookLine; index: number; choices: Choices; onChange: (patch: Partial<BookLine>) => void }) {
+export function LineTarget({
+  line,
+  index,
+  choices,
+  onChange,
+}: {
+  line: BookLine;
+  index: number;
+  choices: Choices;
+  onChange: (patch: Partial<BookLine>) => void;
+}) {
   const n = index + 1;
   const kind = line.target;
   return (
     <div className="flex gap-1">
-      <select aria-label={`Line ${n} staff on`} className="field" value={kind} onChange={(e) => onChange({ target: e.target.value as BookLine["target"], ref: "" })}>
-        {Object.entries(targetLabels).map(([k, label]) => <option key={k} value={k}>{label}</option>)}
+      <select
+        aria-label={`Line ${n} staff on`}
+        className="field"
+        value={kind}
+        onChange={(e) => onChange({ target: e.target.value as BookLine["target"], ref: "" })}
+      >
+        {Object.entries(targetLabels).map(([k, label]) => (
+          <option key={k} value={k}>
+            {label}
+          </option>
+        ))}
       </select>
       {kind === "benchmark" && (
-        <select aria-label={`Line ${n} benchmark`} className="field" value={line.ref} onChange={(e) => onChange({ ref: e.target.value })}>
+        <select
+          aria-label={`Line ${n} benchmark`}
+          className="field"
+          value={line.ref}
+          onChange={(e) => onChange({ ref: e.target.value })}
+        >
           <option value="">choose…</option>
-          {choices.benchmarks.map((b) => <option key={b.id} value={b.id}>{b.code}</option>)}
+          {choices.benchmarks.map((b) => (
+            <option key={b.id} value={b.id}>
+              {b.code}
+            </option>
+          ))}
         </select>
       )}
-      {kind === "find" && <input aria-label={`Line ${n} find number`} className="field num w-24" inputMode="numeric" value={line.ref} onChange={(e) => onChange({ ref: e.target.value })} />}
+      {kind === "find" && (
+        <input
+          aria-label={`Line ${n} find number`}
+          className="field num w-24"
+          inputMode="numeric"
+          value={line.ref}
+          onChange={(e) => onChange({ ref: e.target.value })}
+        />
+      )}
       {(kind === "context_top" || kind === "context_base") && (
-        <select aria-label={`Line ${n} context`} className="field" value={line.ref} onChange={(e) => onChange({ ref: e.target.value })}>
+        <select
+          aria-label={`Line ${n} context`}
+          className="field"
+          value={line.ref}
+          onChange={(e) => onChange({ ref: e.target.value })}
+        >
           <option value="">choose…</option>
-          {choices.contexts.map((c) => <option key={c.id} value={c.id}>{c.number} ({c.trenchCode})</option>)}
+          {choices.contexts.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.number} ({c.trenchCode})
+            </option>
+          ))}
         </select>
       )}
       {(kind === "spit_top" || kind === "spit_base") && (
-        <select aria-label={`Line ${n} spit`} className="field" value={line.ref} onChange={(e) => onChange({ ref: e.target.value })}>
+        <select
+          aria-label={`Line ${n} spit`}
+          className="field"
+          value={line.ref}
+          onChange={(e) => onChange({ ref: e.target.value })}
+        >
           <option value="">choose…</option>
-          {choices.spits.map((s) => <option key={s.id} value={s.id}>{s.contextNumber} spit {s.number}</option>)}
+          {choices.spits.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.contextNumber} spit {s.number}
+            </option>
+          ))}
         </select>
       )}
     </div>

@@ -9,8 +9,8 @@ export function MatrixView({ drawing }: { drawing: MatrixDrawing }) {
     <figure className="sheet overflow-auto" aria-label="Harris matrix diagram">
       <div style={{ width: drawing.width, height: drawing.height }} dangerouslySetInnerHTML={{ __html: drawing.svg }} />
       <figcaption className="mt-2 text-sm text-ink-soft">
-        Latest at the top. Solid lines: relations the matrix needs; dashed: redundant relations, already implied by a longer chain.
-        Contexts joined by “same as” share one box. A thick border marks a signed-off group.
+        Latest at the top. Solid lines: relations the matrix needs; dashed: redundant relations, already implied by a
+        longer chain. Contexts joined by “same as” share one box. A thick border marks a signed-off group.
       </figcaption>
     </figure>
   );

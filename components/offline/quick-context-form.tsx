@@ -37,8 +37,18 @@ export function QuickContextForm({ siteId }: { siteId: string }) {
     setMessage(null);
     try {
       const number = await box.takeNumber(siteId, "context");
-      if (number === null) throw new Error("This device holds no context numbers for this site: connect once so it can reserve a block.");
-      const made = await apiClient.call("contextsCreate", { siteId }, { trenchId, number, type: String(f.get("type")) as (typeof contextTypes)[number], description: String(f.get("description") ?? "") });
+      if (number === null)
+        throw new Error("This device holds no context numbers for this site: connect once so it can reserve a block.");
+      const made = await apiClient.call(
+        "contextsCreate",
+        { siteId },
+        {
+          trenchId,
+          number,
+          type: String(f.get("type")) as (typeof contextTypes)[number],
+          description: String(f.get("description") ?? ""),
+        },
+      );
       const otherId = String(f.get("otherId") ?? "");
       let related = "";
       if (otherId) {
@@ -46,7 +56,10 @@ export function QuickContextForm({ siteId }: { siteId: string }) {
         await apiClient.call("relationsCreate", { siteId }, { contextId: made.id, reading, otherId });
         related = ` ${readingLabels[reading]} ${others.find((o) => o.id === otherId)?.number ?? ""}`;
       }
-      setMessage({ ok: true, text: `Context ${number}${related} ${(made as { pending?: boolean }).pending ? "kept on this device; it is sent when the server can be reached." : "opened."}` });
+      setMessage({
+        ok: true,
+        text: `Context ${number}${related} ${(made as { pending?: boolean }).pending ? "kept on this device; it is sent when the server can be reached." : "opened."}`,
+      });
       ev.currentTarget?.reset();
       await device.refresh();
     } catch (err) {
@@ -57,21 +70,35 @@ export function QuickContextForm({ siteId }: { siteId: string }) {
   };
 
   return (
-    <form onSubmit={(e) => void submit(e)} aria-label="Open a context sheet" className="mt-4 space-y-2 border-t border-paper-edge pt-3">
+    <form
+      onSubmit={(e) => void submit(e)}
+      aria-label="Open a context sheet"
+      className="mt-4 space-y-2 border-t border-paper-edge pt-3"
+    >
       <h3 className="font-bold">Open a context sheet</h3>
-      <p className="text-sm text-ink-soft">Its number comes from this device&apos;s block, so it can go on bag labels now.</p>
+      <p className="text-sm text-ink-soft">
+        Its number comes from this device&apos;s block, so it can go on bag labels now.
+      </p>
       <div className="grid grid-cols-2 gap-2">
         <label>
           <span className="label">Trench</span>
           <select name="trenchId" className="field" defaultValue="">
             <option value="">— pick —</option>
-            {trenches.map((t) => <option key={t.id} value={t.id}>{t.code}</option>)}
+            {trenches.map((t) => (
+              <option key={t.id} value={t.id}>
+                {t.code}
+              </option>
+            ))}
           </select>
         </label>
         <label>
           <span className="label">Type</span>
           <select name="type" className="field" defaultValue="deposit">
-            {contextTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+            {contextTypes.map((t) => (
+              <option key={t} value={t}>
+                {t}
+              </option>
+            ))}
           </select>
         </label>
       </div>
@@ -83,19 +110,33 @@ export function QuickContextForm({ siteId }: { siteId: string }) {
         <label>
           <span className="label">Relation</span>
           <select name="reading" className="field" defaultValue="above">
-            {relationReadings.map((r) => <option key={r} value={r}>{readingLabels[r]}</option>)}
+            {relationReadings.map((r) => (
+              <option key={r} value={r}>
+                {readingLabels[r]}
+              </option>
+            ))}
           </select>
         </label>
         <label>
           <span className="label">Other context</span>
           <select name="otherId" className="field num" defaultValue="">
             <option value="">— none —</option>
-            {others.map((o) => <option key={o.id} value={o.id}>{o.number}</option>)}
+            {others.map((o) => (
+              <option key={o.id} value={o.id}>
+                {o.number}
+              </option>
+            ))}
           </select>
         </label>
       </div>
-      <button type="submit" className="btn-primary" disabled={busy}>{busy ? "Opening…" : "Open context sheet"}</button>
-      {message && <p role={message.ok ? "status" : "alert"} className={message.ok ? "text-ok" : "field-error"}>{message.text}</p>}
+      <button type="submit" className="btn-primary" disabled={busy}>
+        {busy ? "Opening…" : "Open context sheet"}
+      </button>
+      {message && (
+        <p role={message.ok ? "status" : "alert"} className={message.ok ? "text-ok" : "field-error"}>
+          {message.text}
+        </p>
+      )}
     </form>
   );
 }

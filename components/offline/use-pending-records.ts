@@ -26,7 +26,14 @@ export function usePendingRecords(trenchId: string, contexts: ContextRow[]) {
       .filter((e) => e.operation === "contextsCreate" && e.localId)
       .map((e) => ({ e, b: bodyOf(e) }))
       .filter(({ b }) => b && b.trenchId === trenchId)
-      .map(({ e, b }): ContextRow => ({ id: e.localId!, number: Number(b!.number), type: String(b!.type ?? "deposit"), state: "open", signedOffAt: null, extent: null }));
+      .map(({ e, b }): ContextRow => ({
+        id: e.localId!,
+        number: Number(b!.number),
+        type: String(b!.type ?? "deposit"),
+        state: "open",
+        signedOffAt: null,
+        extent: null,
+      }));
     return made.length ? [...contexts, ...made.filter((m) => !contexts.some((c) => c.id === m.id))] : contexts;
   }, [s.entries, contexts, trenchId]);
 
@@ -40,10 +47,25 @@ export function usePendingRecords(trenchId: string, contexts: ContextRow[]) {
       .map(({ e, b }): FindRow => {
         const ctx = byId.get(String(b!.contextId))!;
         return {
-          id: e.localId!, number: Number(b!.number), trenchId, contextId: ctx.id, classId: String(b!.classId), x: Number(b!.x), y: Number(b!.y),
-          z: (b!.z as number | null) ?? null, count: (b!.count as number | null) ?? null, weightG: (b!.weightG as number | null) ?? null,
-          description: String(b!.description ?? ""), method: String(b!.method ?? "plan"), recordedAt: e.createdAt, recordedBy: null,
-          version: 0, contextNumber: ctx.number, contextState: ctx.state, classCode: "", classLabel: "",
+          id: e.localId!,
+          number: Number(b!.number),
+          trenchId,
+          contextId: ctx.id,
+          classId: String(b!.classId),
+          x: Number(b!.x),
+          y: Number(b!.y),
+          z: (b!.z as number | null) ?? null,
+          count: (b!.count as number | null) ?? null,
+          weightG: (b!.weightG as number | null) ?? null,
+          description: String(b!.description ?? ""),
+          method: String(b!.method ?? "plan"),
+          recordedAt: e.createdAt,
+          recordedBy: null,
+          version: 0,
+          contextNumber: ctx.number,
+          contextState: ctx.state,
+          classCode: "",
+          classLabel: "",
         } as FindRow;
       });
     return (rows: FindRow[]) => {

@@ -7,7 +7,11 @@ import { PlotFrame } from "./plot-frame";
 /** Nearest-neighbour distances of one class, binned. */
 export function NnHistogram({ t, code, colour }: { t: ClarkEvansOut; code: string; colour: string }) {
   const { edges, counts } = t.histogram;
-  const rows = counts.map((c, k) => ({ bin: `${edges[k].toFixed(2)}–${edges[k + 1].toFixed(2)}`, mid: (edges[k] + edges[k + 1]) / 2, count: c }));
+  const rows = counts.map((c, k) => ({
+    bin: `${edges[k].toFixed(2)}–${edges[k + 1].toFixed(2)}`,
+    mid: (edges[k] + edges[k + 1]) / 2,
+    count: c,
+  }));
   return (
     <PlotFrame
       title={`Nearest-neighbour distances, ${code}`}
@@ -19,7 +23,13 @@ export function NnHistogram({ t, code, colour }: { t: ClarkEvansOut; code: strin
       <ResponsiveContainer width="100%" height={220}>
         <BarChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
           <CartesianGrid stroke="#e6dcc8" />
-          <XAxis dataKey="bin" interval="preserveStartEnd" label={{ value: "distance to nearest find (m)", position: "insideBottom", offset: -10 }} stroke="#5a4632" tick={{ fontSize: 10 }} />
+          <XAxis
+            dataKey="bin"
+            interval="preserveStartEnd"
+            label={{ value: "distance to nearest find (m)", position: "insideBottom", offset: -10 }}
+            stroke="#5a4632"
+            tick={{ fontSize: 10 }}
+          />
           <YAxis allowDecimals={false} width={40} stroke="#5a4632" />
           <Bar dataKey="count" fill={colour} stroke="#2e2116" isAnimationActive={false} name="Finds" />
           <Tooltip />

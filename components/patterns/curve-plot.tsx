@@ -1,6 +1,16 @@
 "use client";
 
-import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import {
+  Area,
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from "recharts";
 import type { Curve, Departure } from "@/lib/server/analysis/result-types";
 import { PlotFrame } from "./plot-frame";
 
@@ -25,21 +35,70 @@ export function CurvePlot({ title, name, curve, yLabel, theoLabel, colour, depar
     band: curve.lo && curve.hi && curve.lo[k] != null && curve.hi[k] != null ? [curve.lo[k], curve.hi[k]] : undefined,
     theo: curve.theo?.[k],
   }));
-  const csv = () => curve.r.map((r, k) => ({ r, observed: curve.obs[k], band_lo: curve.lo?.[k] ?? null, band_hi: curve.hi?.[k] ?? null, null_curve: curve.theo?.[k] ?? null }));
+  const csv = () =>
+    curve.r.map((r, k) => ({
+      r,
+      observed: curve.obs[k],
+      band_lo: curve.lo?.[k] ?? null,
+      band_hi: curve.hi?.[k] ?? null,
+      null_curve: curve.theo?.[k] ?? null,
+    }));
   return (
     <PlotFrame title={title} name={name} csv={csv} caption={caption} height={250}>
       <ResponsiveContainer width="100%" height={250}>
         <ComposedChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
           <CartesianGrid stroke="#e6dcc8" />
-          <XAxis dataKey="r" type="number" domain={[0, "dataMax"]} tickFormatter={(v) => Number(v).toFixed(1)} label={{ value: "r (m)", position: "insideBottom", offset: -10 }} stroke="#5a4632" />
-          <YAxis tickFormatter={(v) => Number(v).toFixed(2)} width={54} label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4 }} stroke="#5a4632" />
+          <XAxis
+            dataKey="r"
+            type="number"
+            domain={[0, "dataMax"]}
+            tickFormatter={(v) => Number(v).toFixed(1)}
+            label={{ value: "r (m)", position: "insideBottom", offset: -10 }}
+            stroke="#5a4632"
+          />
+          <YAxis
+            tickFormatter={(v) => Number(v).toFixed(2)}
+            width={54}
+            label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4 }}
+            stroke="#5a4632"
+          />
           {departures.map((d, i) => (
-            <ReferenceArea key={i} x1={d.from} x2={d.to} fill={d.side === "above" ? "#1d5c8c" : "#9a3b12"} fillOpacity={0.07} />
+            <ReferenceArea
+              key={i}
+              x1={d.from}
+              x2={d.to}
+              fill={d.side === "above" ? "#1d5c8c" : "#9a3b12"}
+              fillOpacity={0.07}
+            />
           ))}
-          <Area dataKey="band" stroke="none" fill="#8a7660" fillOpacity={0.28} isAnimationActive={false} name="Simulation band" />
-          <Line dataKey="theo" stroke="#2e2116" strokeDasharray="5 4" dot={false} isAnimationActive={false} name={theoLabel} strokeWidth={1.2} />
+          <Area
+            dataKey="band"
+            stroke="none"
+            fill="#8a7660"
+            fillOpacity={0.28}
+            isAnimationActive={false}
+            name="Simulation band"
+          />
+          <Line
+            dataKey="theo"
+            stroke="#2e2116"
+            strokeDasharray="5 4"
+            dot={false}
+            isAnimationActive={false}
+            name={theoLabel}
+            strokeWidth={1.2}
+          />
           <Line dataKey="obs" stroke={colour} dot={false} isAnimationActive={false} name="Observed" strokeWidth={2.2} />
-          <Tooltip formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" – ") : v == null ? "undefined" : Number(v).toFixed(3))} labelFormatter={(r) => `r = ${r} m`} />
+          <Tooltip
+            formatter={(v) =>
+              Array.isArray(v)
+                ? v.map((x) => Number(x).toFixed(3)).join(" – ")
+                : v == null
+                  ? "undefined"
+                  : Number(v).toFixed(3)
+            }
+            labelFormatter={(r) => `r = ${r} m`}
+          />
         </ComposedChart>
       </ResponsiveContainer>
     </PlotFrame>

@@ -7,7 +7,10 @@ import { fmtM } from "./words";
  */
 export function mainDepartures(deps: Departure[], rmax: number): { shown: Departure[]; minor: number } {
   const wide = deps.filter((d) => d.to - d.from >= rmax / 20);
-  const shown = [...wide].sort((a, b) => b.to - b.from - (a.to - a.from)).slice(0, 3).sort((a, b) => a.from - b.from);
+  const shown = [...wide]
+    .sort((a, b) => b.to - b.from - (a.to - a.from))
+    .slice(0, 3)
+    .sort((a, b) => a.from - b.from);
   return { shown, minor: deps.length - shown.length };
 }
 
@@ -18,10 +21,14 @@ export function departureSentences(deps: Departure[], rmax: number, kind: "l" | 
   if (!significant) {
     // Without a global rejection a crossing of the pointwise band is expected somewhere; no size is read from it.
     const where = shown.map((d) => `${fmtM(d.from)}–${fmtM(d.to)}`).join(", ");
-    return [`The curve crosses the pointwise band ${deps.length === 1 ? "once" : `${deps.length} times`}${where ? ` (widest: ${where})` : ""}, but the global test finds no evidence: such crossings happen by chance, so no cluster size should be read from them.`];
+    return [
+      `The curve crosses the pointwise band ${deps.length === 1 ? "once" : `${deps.length} times`}${where ? ` (widest: ${where})` : ""}, but the global test finds no evidence: such crossings happen by chance, so no cluster size should be read from them.`,
+    ];
   }
   const lines = shown.map((d) => {
-    const span = d.rejoins ? `from r = ${fmtM(d.from)} and rejoins it at ${fmtM(d.to)}` : `from r = ${fmtM(d.from)} and does not rejoin it before r max (${fmtM(rmax)})`;
+    const span = d.rejoins
+      ? `from r = ${fmtM(d.from)} and rejoins it at ${fmtM(d.to)}`
+      : `from r = ${fmtM(d.from)} and does not rejoin it before r max (${fmtM(rmax)})`;
     if (d.side === "above") {
       const size = d.rejoins
         ? kind === "l"
@@ -32,6 +39,9 @@ export function departureSentences(deps: Departure[], rmax: number, kind: "l" | 
     }
     return `The curve leaves the band below ${span}: fewer neighbours than chance at these distances${kind === "l" ? ", as when finds keep a spacing from each other" : ", the classes keep apart"}.`;
   });
-  if (minor) lines.push(`${minor} brief crossing${minor > 1 ? "s" : ""} of the band elsewhere — pointwise noise of the kind the global test allows for.`);
+  if (minor)
+    lines.push(
+      `${minor} brief crossing${minor > 1 ? "s" : ""} of the band elsewhere — pointwise noise of the kind the global test allows for.`,
+    );
   return lines;
 }

@@ -63,7 +63,9 @@ export async function exportPng(container: HTMLElement, name: string): Promise<v
 
 /** Numbers stay numbers; every text cell is made inert against spreadsheet formulas. */
 export function plotCsv(rows: Record<string, number | string | null>[]): string {
-  const safe = rows.map((r) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k, typeof v === "string" ? inertText(v) : v])));
+  const safe = rows.map((r) =>
+    Object.fromEntries(Object.entries(r).map(([k, v]) => [k, typeof v === "string" ? inertText(v) : v])),
+  );
   return Papa.unparse(safe, { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" });
 }
 

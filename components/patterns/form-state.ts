@@ -5,7 +5,11 @@ export type FormState = {
   trenchId: string;
   contextIds: string[];
   classIds: string[];
-  clarkEvans: { on: boolean; correction: "none" | "donnelly" | "monte-carlo"; alternative: "two-sided" | "clustered" | "regular" };
+  clarkEvans: {
+    on: boolean;
+    correction: "none" | "donnelly" | "monte-carlo";
+    alternative: "two-sided" | "clustered" | "regular";
+  };
   quadrat: { on: boolean; cellSize: string };
   lcsr: { on: boolean; statistic: "mad" | "dclf"; count: "fixed" | "poisson" };
   pcf: { on: boolean };
@@ -13,7 +17,13 @@ export type FormState = {
   kdiff: { on: boolean; a: string; b: string };
   inhom: { on: boolean; classId: string; reference: string };
   /** Tests on counts by grid square: which ones, and their neighbours, weights, variable and minimum area. */
-  squares: { kinds: SquareTestKind[]; neighbours: SquareTest["neighbours"]; style: SquareTest["style"]; variable: SquareTest["variable"]; minArea: string };
+  squares: {
+    kinds: SquareTestKind[];
+    neighbours: SquareTest["neighbours"];
+    style: SquareTest["style"];
+    variable: SquareTest["variable"];
+    minArea: string;
+  };
   correction: "isotropic" | "translation" | "border";
   rmax: string;
   nsim: string;
@@ -45,11 +55,19 @@ export function initialForm(trenchId: string): FormState {
 /** The request body the run API takes (lib/server/analysis/run-schema.ts). */
 export function toRequest(f: FormState): RunCreateInput {
   const tests: RunTest[] = [];
-  if (f.clarkEvans.on) tests.push({ kind: "clark-evans", correction: f.clarkEvans.correction, alternative: f.clarkEvans.alternative });
+  if (f.clarkEvans.on)
+    tests.push({ kind: "clark-evans", correction: f.clarkEvans.correction, alternative: f.clarkEvans.alternative });
   if (f.quadrat.on) tests.push({ kind: "quadrat", cellSize: Number(f.quadrat.cellSize) });
   if (f.lcsr.on) tests.push({ kind: "l-envelope", statistic: f.lcsr.statistic, count: f.lcsr.count });
   if (f.pcf.on) tests.push({ kind: "pcf-envelope" });
-  if (f.cross.on) tests.push({ kind: "cross-l", a: f.cross.a, b: f.cross.b, null: f.cross.null, ...(f.cross.fun === "K" && { fun: "K" as const }) });
+  if (f.cross.on)
+    tests.push({
+      kind: "cross-l",
+      a: f.cross.a,
+      b: f.cross.b,
+      null: f.cross.null,
+      ...(f.cross.fun === "K" && { fun: "K" as const }),
+    });
   if (f.kdiff.on) tests.push({ kind: "k-difference", a: f.kdiff.a, b: f.kdiff.b });
   if (f.inhom.on) tests.push({ kind: "inhomogeneous-l", classId: f.inhom.classId, reference: f.inhom.reference });
   const { kinds, neighbours, style, variable, minArea } = f.squares;
@@ -69,7 +87,18 @@ export function toRequest(f: FormState): RunCreateInput {
 }
 
 /** A saved run's settings back in the form (same seed), to run it again on today's records. */
-export function formFromRun(run: { scope: { trenchId: string; contextIds: string[]; classIds: string[] }; seed: number; params: { correction: FormState["correction"]; rmax: number; nsim: number; level: number; tests: RunTest[]; squareTests?: SquareTest[] } }): FormState {
+export function formFromRun(run: {
+  scope: { trenchId: string; contextIds: string[]; classIds: string[] };
+  seed: number;
+  params: {
+    correction: FormState["correction"];
+    rmax: number;
+    nsim: number;
+    level: number;
+    tests: RunTest[];
+    squareTests?: SquareTest[];
+  };
+}): FormState {
   const f = initialForm(run.scope.trenchId);
   f.contextIds = [...run.scope.contextIds];
   f.classIds = [...run.scope.classIds];
@@ -84,6 +113,20 @@ export function formFromRun(run: { scope: { trenchId: string; contextIds: string
     if (t.kind === "inhomogeneous-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
   }
   const sq = run.params.squareTests ?? [];
-  if (sq.length) f.squares = { kinds: sq.map((t) => t.kind), neighbours: sq[0]!.neighbours, style: sq[0]!.style, variable: sq[0]!.variable, minArea: String(sq[0]!.minArea) };
-  return { ...f, correction: run.params.correction, rmax: String(run.params.rmax), nsim: String(run.params.nsim), level: String(run.params.level), seed: String(run.seed) };
+  if (sq.length)
+    f.squares = {
+      kinds: sq.map((t) => t.kind),
+      neighbours: sq[0]!.neighbours,
+      style: sq[0]!.style,
+      variable: sq[0]!.variable,
+      minArea: String(sq[0]!.minArea),
+    };
+  return {
+    ...f,
+    correction: run.params.correction,
+    rmax: String(run.params.rmax),
+    nsim: String(run.params.nsim),
+    level: String(run.params.level),
+    seed: String(run.seed),
+  };
 }

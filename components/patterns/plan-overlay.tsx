@@ -12,7 +12,10 @@ function ramp(t: number): string {
   const i = Math.min(RAMP.length - 2, Math.floor(x));
   const f = x - i;
   const hex = (s: string, k: number) => parseInt(s.slice(1 + 2 * k, 3 + 2 * k), 16);
-  const mix = (k: number) => Math.round(hex(RAMP[i], k) * (1 - f) + hex(RAMP[i + 1], k) * f).toString(16).padStart(2, "0");
+  const mix = (k: number) =>
+    Math.round(hex(RAMP[i], k) * (1 - f) + hex(RAMP[i + 1], k) * f)
+      .toString(16)
+      .padStart(2, "0");
   return `#${mix(0)}${mix(1)}${mix(2)}`;
 }
 
@@ -32,12 +35,18 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
   const [showHeat, setShowHeat] = useState(true);
   const [showGrid, setShowGrid] = useState(true);
   const all = result.outline.flat();
-  const xs = all.map((p) => p[0]), ys = all.map((p) => p[1]);
-  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const xs = all.map((p) => p[0]),
+    ys = all.map((p) => p[1]);
+  const minX = Math.min(...xs),
+    maxX = Math.max(...xs),
+    minY = Math.min(...ys),
+    maxY = Math.max(...ys);
   const span = Math.max(maxX - minX, maxY - minY);
   const pad = span * 0.04;
   const sy = useCallback((y: number) => maxY - y, [maxY]);
-  const path = result.outline.map((ring) => "M" + ring.map(([x, y]) => `${x - minX},${sy(y)}`).join("L") + "Z").join(" ");
+  const path = result.outline
+    .map((ring) => "M" + ring.map(([x, y]) => `${x - minX},${sy(y)}`).join("L") + "Z")
+    .join(" ");
   const density = result.density.find((d) => d.classId === classId);
   const peak = density ? Math.max(...density.values) : 1;
   const quadrat = result.tests.find((t) => t.kind === "quadrat" && t.classId === classId);
@@ -46,57 +55,123 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
   const heat = useMemo(() => {
     if (!density) return [];
     const byShade: string[][] = Array.from({ length: SHADES }, () => []);
-    const w = n4(density.dx * 1.02), h = n4(density.dy * 1.02);
+    const w = n4(density.dx * 1.02),
+      h = n4(density.dy * 1.02);
     density.values.forEach((v, k) => {
       if (!(v > 0)) return;
       const x = n4(density.minX - minX + (k % density.nx) * density.dx);
       const y = n4(sy(density.minY + (Math.floor(k / density.nx) + 1) * density.dy));
       byShade[Math.min(SHADES - 1, Math.round((v / peak) * (SHADES - 1)))].push(`M${x} ${y}h${w}v${h}h${-w}z`);
     });
-    return byShade.flatMap((cells, shade) => (cells.length ? [{ shade, d: cells.join(""), fill: ramp(shade / (SHADES - 1)) }] : []));
+    return byShade.flatMap((cells, shade) =>
+      cells.length ? [{ shade, d: cells.join(""), fill: ramp(shade / (SHADES - 1)) }] : [],
+    );
   }, [density, peak, minX, sy]);
   const finds = useMemo(() => {
     if (!pts) return "";
     const r = n4(span / 220);
-    return pts.x.map((x, k) => `M${n4(x - minX - r)} ${n4(sy(pts.y[k]))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`).join("");
+    return pts.x
+      .map((x, k) => `M${n4(x - minX - r)} ${n4(sy(pts.y[k]))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`)
+      .join("");
   }, [pts, minX, sy, span]);
-  const csv = () => (density ? density.values.map((v, k) => ({ x: density.minX + ((k % density.nx) + 0.5) * density.dx, y: density.minY + (Math.floor(k / density.nx) + 0.5) * density.dy, intensity_per_m2: v })) : []);
+  const csv = () =>
+    density
+      ? density.values.map((v, k) => ({
+          x: density.minX + ((k % density.nx) + 0.5) * density.dx,
+          y: density.minY + (Math.floor(k / density.nx) + 0.5) * density.dy,
+          intensity_per_m2: v,
+        }))
+      : [];
   return (
-    <PlotFrame title={`Plan: ${cls?.code ?? ""} density${quadrat ? " and quadrat counts" : ""}`} name={`plan-${runName}-${cls?.code ?? "class"}`} csv={csv} caption={density ? `Heat: finds per m², ${density.rule}, bandwidth ${density.bandwidth.toFixed(2)} m. Peak ${peak.toFixed(1)} per m².` : undefined}>
+    <PlotFrame
+      title={`Plan: ${cls?.code ?? ""} density${quadrat ? " and quadrat counts" : ""}`}
+      name={`plan-${runName}-${cls?.code ?? "class"}`}
+      csv={csv}
+      caption={
+        density
+          ? `Heat: finds per m², ${density.rule}, bandwidth ${density.bandwidth.toFixed(2)} m. Peak ${peak.toFixed(1)} per m².`
+          : undefined
+      }
+    >
       <div className="no-print mb-2 flex flex-wrap items-center gap-3 text-sm">
         <label className="flex items-center gap-2">
           <span className="label mb-0">Class</span>
           <select className="field w-auto" value={classId} onChange={(e) => setClassId(e.target.value)}>
-            {result.classes.map((c) => <option key={c.id} value={c.id}>{c.code} — {c.label}</option>)}
+            {result.classes.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.code} — {c.label}
+              </option>
+            ))}
           </select>
         </label>
-        <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showHeat} onChange={(e) => setShowHeat(e.target.checked)} /> Heat layer</label>
-        <label className="flex min-h-11 items-center gap-2"><input type="checkbox" checked={showGrid} onChange={(e) => setShowGrid(e.target.checked)} disabled={!quadrat} /> Quadrat grid</label>
+        <label className="flex min-h-11 items-center gap-2">
+          <input type="checkbox" checked={showHeat} onChange={(e) => setShowHeat(e.target.checked)} /> Heat layer
+        </label>
+        <label className="flex min-h-11 items-center gap-2">
+          <input
+            type="checkbox"
+            checked={showGrid}
+            onChange={(e) => setShowGrid(e.target.checked)}
+            disabled={!quadrat}
+          />{" "}
+          Quadrat grid
+        </label>
       </div>
-      <AfterPaint box={{ width: "100%", maxHeight: 420, aspectRatio: `${maxX - minX + 2 * pad} / ${maxY - minY + 2 * pad}` }}>
-      <svg viewBox={`${-pad} ${-pad} ${maxX - minX + 2 * pad} ${maxY - minY + 2 * pad}`} className="h-auto max-h-[420px] w-full" role="img" aria-label="Trench plan with the density of finds">
-        <defs>
-          <clipPath id={`clip-${runName}`}><path d={path} clipRule="evenodd" /></clipPath>
-        </defs>
-        <path d={path} fill="#efe6d3" fillRule="evenodd" />
-        {showHeat && density && (
-          <g clipPath={`url(#clip-${runName})`}>
-            {heat.map((p) => <path key={p.shade} d={p.d} fill={p.fill} />)}
-          </g>
-        )}
-        {showGrid && quadrat && quadrat.kind === "quadrat" && (
-          <g clipPath={`url(#clip-${runName})`}>
-            {quadrat.cells.map((c, k) => (
-              <g key={k}>
-                <rect x={c.x0 - minX} y={sy(c.y1)} width={c.x1 - c.x0} height={c.y1 - c.y0} fill="none" stroke="#ffffff" strokeWidth={span / 250} />
-                <text x={(c.x0 + c.x1) / 2 - minX} y={sy((c.y0 + c.y1) / 2)} fontSize={span / 32} textAnchor="middle" dominantBaseline="middle" fill="#ffffff" stroke="#2e2116" strokeWidth={span / 700} fontFamily="monospace">{c.count}</text>
-              </g>
-            ))}
-          </g>
-        )}
-        {finds && cls && <path d={finds} fill={cls.colour} stroke="#2e2116" strokeWidth={span / 1200} />}
-        <path d={path} fill="none" stroke="#2e2116" strokeWidth={span / 200} fillRule="evenodd" />
-      </svg>
+      <AfterPaint
+        box={{ width: "100%", maxHeight: 420, aspectRatio: `${maxX - minX + 2 * pad} / ${maxY - minY + 2 * pad}` }}
+      >
+        <svg
+          viewBox={`${-pad} ${-pad} ${maxX - minX + 2 * pad} ${maxY - minY + 2 * pad}`}
+          className="h-auto max-h-[420px] w-full"
+          role="img"
+          aria-label="Trench plan with the density of finds"
+        >
+          <defs>
+            <clipPath id={`clip-${runName}`}>
+              <path d={path} clipRule="evenodd" />
+            </clipPath>
+          </defs>
+          <path d={path} fill="#efe6d3" fillRule="evenodd" />
+          {showHeat && density && (
+            <g clipPath={`url(#clip-${runName})`}>
+              {heat.map((p) => (
+                <path key={p.shade} d={p.d} fill={p.fill} />
+              ))}
+            </g>
+          )}
+          {showGrid && quadrat && quadrat.kind === "quadrat" && (
+            <g clipPath={`url(#clip-${runName})`}>
+              {quadrat.cells.map((c, k) => (
+                <g key={k}>
+                  <rect
+                    x={c.x0 - minX}
+                    y={sy(c.y1)}
+                    width={c.x1 - c.x0}
+                    height={c.y1 - c.y0}
+                    fill="none"
+                    stroke="#ffffff"
+                    strokeWidth={span / 250}
+                  />
+                  <text
+                    x={(c.x0 + c.x1) / 2 - minX}
+                    y={sy((c.y0 + c.y1) / 2)}
+                    fontSize={span / 32}
+                    textAnchor="middle"
+                    dominantBaseline="middle"
+                    fill="#ffffff"
+                    stroke="#2e2116"
+                    strokeWidth={span / 700}
+                    fontFamily="monospace"
+                  >
+                    {c.count}
+                  </text>
+                </g>
+              ))}
+            </g>
+          )}
+          {finds && cls && <path d={finds} fill={cls.colour} stroke="#2e2116" strokeWidth={span / 1200} />}
+          <path d={path} fill="none" stroke="#2e2116" strokeWidth={span / 200} fillRule="evenodd" />
+        </svg>
       </AfterPaint>
     </PlotFrame>
   );

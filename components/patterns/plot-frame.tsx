@@ -6,7 +6,21 @@ import { exportCsv, exportPng, exportSvg } from "./export-plot";
 
 /** A figure with its title, caption and export buttons (SVG, PNG, CSV of the curves). Given the
  * drawing's `height`, the drawing comes a frame after the rest (after-paint.tsx). */
-export function PlotFrame({ title, name, csv, caption, height, children }: { title: string; name: string; csv: () => Record<string, number | string | null>[]; caption?: ReactNode; height?: number; children: ReactNode }) {
+export function PlotFrame({
+  title,
+  name,
+  csv,
+  caption,
+  height,
+  children,
+}: {
+  title: string;
+  name: string;
+  csv: () => Record<string, number | string | null>[];
+  caption?: ReactNode;
+  height?: number;
+  children: ReactNode;
+}) {
   const ref = useRef<HTMLDivElement>(null);
   const [error, setError] = useState<string | null>(null);
   const guard = (fn: () => void | Promise<void>) => async () => {
@@ -22,14 +36,34 @@ export function PlotFrame({ title, name, csv, caption, height, children }: { tit
       <div className="flex flex-wrap items-center justify-between gap-2">
         <figcaption className="font-bold">{title}</figcaption>
         <div className="no-print flex gap-1" role="group" aria-label={`Export ${title}`}>
-          <button type="button" className="btn min-h-11 px-2 text-xs" onClick={guard(() => exportSvg(ref.current!, name))}>SVG</button>
-          <button type="button" className="btn min-h-11 px-2 text-xs" onClick={guard(() => exportPng(ref.current!, name))}>PNG</button>
-          <button type="button" className="btn min-h-11 px-2 text-xs" onClick={guard(() => exportCsv(csv(), name))}>CSV</button>
+          <button
+            type="button"
+            className="btn min-h-11 px-2 text-xs"
+            onClick={guard(() => exportSvg(ref.current!, name))}
+          >
+            SVG
+          </button>
+          <button
+            type="button"
+            className="btn min-h-11 px-2 text-xs"
+            onClick={guard(() => exportPng(ref.current!, name))}
+          >
+            PNG
+          </button>
+          <button type="button" className="btn min-h-11 px-2 text-xs" onClick={guard(() => exportCsv(csv(), name))}>
+            CSV
+          </button>
         </div>
       </div>
-      <div ref={ref} className="mt-2">{height === undefined ? children : <AfterPaint box={{ height }}>{children}</AfterPaint>}</div>
+      <div ref={ref} className="mt-2">
+        {height === undefined ? children : <AfterPaint box={{ height }}>{children}</AfterPaint>}
+      </div>
       {caption && <p className="mt-1 text-xs text-ink-soft">{caption}</p>}
-      {error && <p className="field-error" aria-live="polite">{error}</p>}
+      {error && (
+        <p className="field-error" aria-live="polite">
+          {error}
+        </p>
+      )}
     </figure>
   );
 }

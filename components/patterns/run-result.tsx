@@ -14,32 +14,50 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
   if (!result) return null;
   const byId = new Map(result.classes.map((c) => [c.id, c]));
   const name = (id: string) => byId.get(id)?.code ?? "?";
-  const perClass = result.classes.map((c) => ({ c, tests: result.tests.filter((t) => "classId" in t && t.classId === c.id) }));
+  const perClass = result.classes.map((c) => ({
+    c,
+    tests: result.tests.filter((t) => "classId" in t && t.classId === c.id),
+  }));
   const between = result.tests.filter((t) => t.kind === "cross-l" || t.kind === "k-difference");
   const p = run.params;
   return (
     <div className="space-y-4" data-testid="run-result">
       <section className="sheet text-sm" aria-label="How this run was made">
         <p>
-          Trench <b>{p.names.trench}</b>, context{p.names.contexts.length > 1 ? "s" : ""} <b className="num">{p.names.contexts.join(", ")}</b>; level {result.level}, {result.nsim} simulations, seed <span className="num">{result.seed}</span>, {result.correction} edge correction, r up to {fmtM(result.rmax)}; engine {result.engineVersion}; records fingerprint <span className="num" title={run.fingerprint}>{run.fingerprint.slice(0, 12)}…</span>; computed in {(result.elapsedMs / 1000).toFixed(1)} s.
+          Trench <b>{p.names.trench}</b>, context{p.names.contexts.length > 1 ? "s" : ""}{" "}
+          <b className="num">{p.names.contexts.join(", ")}</b>; level {result.level}, {result.nsim} simulations, seed{" "}
+          <span className="num">{result.seed}</span>, {result.correction} edge correction, r up to {fmtM(result.rmax)};
+          engine {result.engineVersion}; records fingerprint{" "}
+          <span className="num" title={run.fingerprint}>
+            {run.fingerprint.slice(0, 12)}…
+          </span>
+          ; computed in {(result.elapsedMs / 1000).toFixed(1)} s.
         </p>
         {run.outOfDate && (
           <p role="status" className="mt-2 rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">
-            Out of date: finds, context states (e.g. a sign-off) or the outline this run read have changed since. Run it again with seed {result.seed} to compare.
+            Out of date: finds, context states (e.g. a sign-off) or the outline this run read have changed since. Run it
+            again with seed {result.seed} to compare.
           </p>
         )}
       </section>
       {p.warnings.length > 0 && (
         <section role="alert" className="rounded border-2 border-warn bg-warn-light p-3 text-warn">
           <p className="font-bold">Contexts mixed in this scope</p>
-          <ul className="list-disc pl-5 text-sm">{p.warnings.map((w, i) => <li key={i}>{w.message}</li>)}</ul>
+          <ul className="list-disc pl-5 text-sm">
+            {p.warnings.map((w, i) => (
+              <li key={i}>{w.message}</li>
+            ))}
+          </ul>
         </section>
       )}
       {perClass.map(({ c, tests }) =>
         tests.length ? (
           <section key={c.id} aria-labelledby={`cls-${run.id}-${c.id}`} className="space-y-3">
             <h3 id={`cls-${run.id}-${c.id}`} className="text-lg font-bold">
-              <ClassSymbol symbol={c.symbol} colour={c.colour} /> {c.code} <span className="font-normal text-ink-soft">{c.label}, n = <span className="num">{c.n}</span></span>
+              <ClassSymbol symbol={c.symbol} colour={c.colour} /> {c.code}{" "}
+              <span className="font-normal text-ink-soft">
+                {c.label}, n = <span className="num">{c.n}</span>
+              </span>
               {c.n < 20 && <span className="ml-2 text-sm font-semibold text-warn">few points: little power</span>}
             </h3>
             <div className={`grid gap-3 ${compact ? "" : "lg:grid-cols-2"}`}>
@@ -68,11 +86,19 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
           </div>
         </section>
       )}
-      {result.squareTests && result.squareTests.length > 0 && <SquareResults tests={result.squareTests} classes={result.classes} />}
+      {result.squareTests && result.squareTests.length > 0 && (
+        <SquareResults tests={result.squareTests} classes={result.classes} />
+      )}
       <PlanOverlay result={result} runName={run.id.slice(0, 8)} />
       <section className="sheet" aria-labelledby={`cautions-${run.id}`}>
-        <h3 id={`cautions-${run.id}`} className="font-bold">Before you quote this</h3>
-        <ul className="mt-1 list-disc pl-5 text-sm">{result.cautions.map((c, i) => <li key={i}>{c}</li>)}</ul>
+        <h3 id={`cautions-${run.id}`} className="font-bold">
+          Before you quote this
+        </h3>
+        <ul className="mt-1 list-disc pl-5 text-sm">
+          {result.cautions.map((c, i) => (
+            <li key={i}>{c}</li>
+          ))}
+        </ul>
       </section>
     </div>
   );

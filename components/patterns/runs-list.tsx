@@ -11,7 +11,13 @@ type Props = {
   onToggleCompare: (id: string) => void;
 };
 
-const STATUS: Record<RunView["status"], string> = { queued: "queued", running: "running", done: "done", failed: "failed", cancelled: "cancelled" };
+const STATUS: Record<RunView["status"], string> = {
+  queued: "queued",
+  running: "running",
+  done: "done",
+  failed: "failed",
+  cancelled: "cancelled",
+};
 
 /** Saved runs, newest first, with the out-of-date mark; pick one to read or two to compare. */
 export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Props) {
@@ -20,25 +26,59 @@ export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Pr
   return (
     <table className="ledger" aria-label="Saved runs">
       <thead>
-        <tr><th>When</th><th>Scope</th><th>Tests</th><th className="num">Seed</th><th>Status</th><th>Compare</th><th></th></tr>
+        <tr>
+          <th>When</th>
+          <th>Scope</th>
+          <th>Tests</th>
+          <th className="num">Seed</th>
+          <th>Status</th>
+          <th>Compare</th>
+          <th></th>
+        </tr>
       </thead>
       <tbody>
         {runs.map((r) => (
-          <tr key={r.id} aria-current={r.id === current ? "true" : undefined} className={r.id === current ? "bg-accent-light" : ""}>
+          <tr
+            key={r.id}
+            aria-current={r.id === current ? "true" : undefined}
+            className={r.id === current ? "bg-accent-light" : ""}
+          >
             <td className="num whitespace-nowrap">{when(r.createdAt)}</td>
-            <td>Trench {r.params.names.trench} · {r.params.names.contexts.join(", ")} · {r.params.names.classes.join(" ")}</td>
-            <td className="text-xs">{[...new Set(r.params.tests.map((t) => t.kind))].join(", ")} · {r.params.nsim} sims</td>
+            <td>
+              Trench {r.params.names.trench} · {r.params.names.contexts.join(", ")} · {r.params.names.classes.join(" ")}
+            </td>
+            <td className="text-xs">
+              {[...new Set(r.params.tests.map((t) => t.kind))].join(", ")} · {r.params.nsim} sims
+            </td>
             <td className="num">{r.seed}</td>
             <td>
               {STATUS[r.status]}
-              {r.outOfDate && <span className="ml-2 rounded border border-warn px-1 text-xs font-bold text-warn" title="Records read by this run have changed since">out of date</span>}
+              {r.outOfDate && (
+                <span
+                  className="ml-2 rounded border border-warn px-1 text-xs font-bold text-warn"
+                  title="Records read by this run have changed since"
+                >
+                  out of date
+                </span>
+              )}
             </td>
             <td>
               <label className="flex min-h-11 items-center gap-1 text-sm">
-                <input type="checkbox" className="size-5" checked={compare.includes(r.id)} disabled={r.status !== "done" || (compare.length >= 2 && !compare.includes(r.id))} onChange={() => onToggleCompare(r.id)} aria-label={`Compare run of ${when(r.createdAt)}`} />
+                <input
+                  type="checkbox"
+                  className="size-5"
+                  checked={compare.includes(r.id)}
+                  disabled={r.status !== "done" || (compare.length >= 2 && !compare.includes(r.id))}
+                  onChange={() => onToggleCompare(r.id)}
+                  aria-label={`Compare run of ${when(r.createdAt)}`}
+                />
               </label>
             </td>
-            <td><button type="button" className="btn min-h-11 px-3 text-sm" onClick={() => onOpen(r.id)}>Open</button></td>
+            <td>
+              <button type="button" className="btn min-h-11 px-3 text-sm" onClick={() => onOpen(r.id)}>
+                Open
+              </button>
+            </td>
           </tr>
         ))}
       </tbody>

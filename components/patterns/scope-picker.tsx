@@ -15,7 +15,8 @@ type Props = {
   loading: boolean;
 };
 
-const toggle = (list: string[], id: string, on: boolean) => (on ? [...new Set([...list, id])] : list.filter((x) => x !== id));
+const toggle = (list: string[], id: string, on: boolean) =>
+  on ? [...new Set([...list, id])] : list.filter((x) => x !== id);
 
 /** Step 1: one trench (the study area), the contexts that form one surface, the classes; n per class. */
 export function ScopePicker({ form, set, trenches, contexts, classes, summary, loading }: Props) {
@@ -26,8 +27,17 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
       <legend className="px-1 text-lg font-bold">1 · Scope</legend>
       <label className="block">
         <span className="label">Trench (its outline is the study area)</span>
-        <select className="field" value={form.trenchId} onChange={(e) => set({ trenchId: e.target.value, contextIds: [] })}>
-          {trenches.map((t) => <option key={t.id} value={t.id}>Trench {t.code}{t.name ? ` — ${t.name}` : ""}</option>)}
+        <select
+          className="field"
+          value={form.trenchId}
+          onChange={(e) => set({ trenchId: e.target.value, contextIds: [] })}
+        >
+          {trenches.map((t) => (
+            <option key={t.id} value={t.id}>
+              Trench {t.code}
+              {t.name ? ` — ${t.name}` : ""}
+            </option>
+          ))}
         </select>
       </label>
       <div>
@@ -37,9 +47,17 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
           {inTrench.map((c) => (
             <li key={c.id}>
               <label className="flex min-h-11 items-center gap-2 rounded px-2 hover:bg-paper-deep">
-                <input type="checkbox" className="size-5" checked={form.contextIds.includes(c.id)} onChange={(e) => set({ contextIds: toggle(form.contextIds, c.id, e.target.checked) })} />
+                <input
+                  type="checkbox"
+                  className="size-5"
+                  checked={form.contextIds.includes(c.id)}
+                  onChange={(e) => set({ contextIds: toggle(form.contextIds, c.id, e.target.checked) })}
+                />
                 <span className="num font-bold">{c.number}</span>
-                <span className="text-sm text-ink-soft">{c.type}{c.interpretation ? ` · ${c.interpretation}` : ""}</span>
+                <span className="text-sm text-ink-soft">
+                  {c.type}
+                  {c.interpretation ? ` · ${c.interpretation}` : ""}
+                </span>
               </label>
             </li>
           ))}
@@ -48,7 +66,11 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
       {summary && summary.warnings.length > 0 && (
         <div role="alert" className="rounded border-2 border-warn bg-warn-light p-2 text-sm text-warn">
           <p className="font-bold">These contexts may not be one surface</p>
-          <ul className="list-disc pl-5">{summary.warnings.map((w, i) => <li key={i}>{w.message}</li>)}</ul>
+          <ul className="list-disc pl-5">
+            {summary.warnings.map((w, i) => (
+              <li key={i}>{w.message}</li>
+            ))}
+          </ul>
           <p>Finds from several contexts projected onto one plan mix different moments in time.</p>
         </div>
       )}
@@ -60,11 +82,20 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
             return (
               <li key={c.id}>
                 <label className="flex min-h-11 items-center gap-2 rounded px-2 hover:bg-paper-deep">
-                  <input type="checkbox" className="size-5" checked={form.classIds.includes(c.id)} onChange={(e) => set({ classIds: toggle(form.classIds, c.id, e.target.checked) })} />
+                  <input
+                    type="checkbox"
+                    className="size-5"
+                    checked={form.classIds.includes(c.id)}
+                    onChange={(e) => set({ classIds: toggle(form.classIds, c.id, e.target.checked) })}
+                  />
                   <ClassSymbol symbol={c.symbol} colour={c.colour} />
                   <span className="font-bold">{c.code}</span>
                   <span className="text-sm text-ink-soft">{c.label}</span>
-                  <span className={`num ml-auto text-sm ${s && s.n < 20 ? "font-bold text-warn" : ""}`} title="Finds of this class in the chosen contexts" data-testid={`n-${c.code}`}>
+                  <span
+                    className={`num ml-auto text-sm ${s && s.n < 20 ? "font-bold text-warn" : ""}`}
+                    title="Finds of this class in the chosen contexts"
+                    data-testid={`n-${c.code}`}
+                  >
                     {s ? `n = ${s.n}` : form.contextIds.length ? "…" : ""}
                   </span>
                 </label>
@@ -72,7 +103,11 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
             );
           })}
         </ul>
-        {summary && <p className="mt-1 text-xs text-ink-soft">Below 20 finds a class gives little power; below the minimum a test needs, Loamwork refuses that test.</p>}
+        {summary && (
+          <p className="mt-1 text-xs text-ink-soft">
+            Below 20 finds a class gives little power; below the minimum a test needs, Loamwork refuses that test.
+          </p>
+        )}
       </div>
     </fieldset>
   );

@@ -3,7 +3,12 @@
 import type { ClassInScope, SquareTestOut } from "@/lib/server/analysis/result-types";
 import { fmtP } from "./words";
 
-const NAME: Record<SquareTestOut["kind"], string> = { moran: "Moran's I", geary: "Geary's C", "local-moran": "Local Moran's I", "getis-ord": "Getis–Ord Gi*" };
+const NAME: Record<SquareTestOut["kind"], string> = {
+  moran: "Moran's I",
+  geary: "Geary's C",
+  "local-moran": "Local Moran's I",
+  "getis-ord": "Getis–Ord Gi*",
+};
 const VERDICT: Record<SquareTestOut["verdict"], string> = {
   clustered: "Like values together",
   dispersed: "High and low alternate",
@@ -33,11 +38,26 @@ function SquareMap({ t, code }: { t: SquareTestOut; code: string }) {
   const unit = t.variable === "density" ? `${code} per m²` : `${code} count`;
   return (
     <figure className="space-y-1">
-      <svg role="img" aria-label={`${NAME[t.kind]} map of ${code} by square`} viewBox={`-4 -4 ${(maxX - minX) * scale + 8} ${(maxY - minY) * scale + 8}`} className="w-full max-w-md">
+      <svg
+        role="img"
+        aria-label={`${NAME[t.kind]} map of ${code} by square`}
+        viewBox={`-4 -4 ${(maxX - minX) * scale + 8} ${(maxY - minY) * scale + 8}`}
+        className="w-full max-w-md"
+      >
         {t.cells.map((c) => {
           const o = OUTLINE[c.class];
           return (
-            <rect key={c.label} x={(c.x0 - minX) * scale} y={(maxY - c.y1) * scale} width={(c.x1 - c.x0) * scale} height={(c.y1 - c.y0) * scale} fill={RAMP[klass(c.value)]} stroke={o?.stroke ?? "#ffffff"} strokeWidth={o ? 3 : 0.5} strokeDasharray={o?.dash}>
+            <rect
+              key={c.label}
+              x={(c.x0 - minX) * scale}
+              y={(maxY - c.y1) * scale}
+              width={(c.x1 - c.x0) * scale}
+              height={(c.y1 - c.y0) * scale}
+              fill={RAMP[klass(c.value)]}
+              stroke={o?.stroke ?? "#ffffff"}
+              strokeWidth={o ? 3 : 0.5}
+              strokeDasharray={o?.dash}
+            >
               <title>{`${c.label}: ${+c.value.toPrecision(4)} ${unit}${c.p !== null ? `, p = ${fmtP(c.p)}, adjusted ${fmtP(c.pAdjusted)}` : ""}${c.class !== "none" ? ` — ${c.class}` : ""}`}</title>
             </rect>
           );
@@ -45,7 +65,9 @@ function SquareMap({ t, code }: { t: SquareTestOut; code: string }) {
       </svg>
       <figcaption className="text-sm text-ink-soft">
         Squares shaded by quintile of {unit} (light: lowest fifth, dark: highest); squares not dug are not drawn.
-        {t.kind === "local-moran" || t.kind === "getis-ord" ? " Red outline: hot spot; blue dashed: cold spot; dotted: a high square among low ones or the reverse — after the false-discovery-rate adjustment." : ""}
+        {t.kind === "local-moran" || t.kind === "getis-ord"
+          ? " Red outline: hot spot; blue dashed: cold spot; dotted: a high square among low ones or the reverse — after the false-discovery-rate adjustment."
+          : ""}
       </figcaption>
     </figure>
   );
@@ -61,17 +83,30 @@ export function SquareResults({ tests, classes }: { tests: SquareTestOut[]; clas
         {tests.map((t, i) => (
           <article key={i} className="sheet space-y-2" aria-label={`${NAME[t.kind]} for ${code(t.classId)}`}>
             <header className="flex flex-wrap items-baseline gap-3">
-              <h4 className="font-bold">{NAME[t.kind]}, {code(t.classId)}</h4>
-              <span data-verdict={t.verdict} className="rounded border-2 border-ink/30 px-2 py-0.5 text-sm font-bold">{VERDICT[t.verdict]}</span>
+              <h4 className="font-bold">
+                {NAME[t.kind]}, {code(t.classId)}
+              </h4>
+              <span data-verdict={t.verdict} className="rounded border-2 border-ink/30 px-2 py-0.5 text-sm font-bold">
+                {VERDICT[t.verdict]}
+              </span>
               {t.p !== null && <span className="num text-sm">p = {fmtP(t.p)}</span>}
             </header>
             <p>{t.sentence}</p>
-            <p className="text-sm text-ink-soft"><span className="font-semibold">Question answered: </span>{t.question}</p>
+            <p className="text-sm text-ink-soft">
+              <span className="font-semibold">Question answered: </span>
+              {t.question}
+            </p>
             <SquareMap t={t} code={code(t.classId)} />
             {t.notes.length > 0 && (
               <details className="text-sm">
-                <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">Cautions on this test ({t.notes.length})</summary>
-                <ul className="list-disc pl-5">{t.notes.map((n, k) => <li key={k}>{n}</li>)}</ul>
+                <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">
+                  Cautions on this test ({t.notes.length})
+                </summary>
+                <ul className="list-disc pl-5">
+                  {t.notes.map((n, k) => (
+                    <li key={k}>{n}</li>
+                  ))}
+                </ul>
               </details>
             )}
           </article>

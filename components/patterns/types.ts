@@ -1,4 +1,11 @@
 /** What the Patterns page hands its client island: the site's trenches, contexts and classes. */
 export type TrenchOption = { id: string; code: string; name: string };
-export type ContextOption = { id: string; trenchId: string; number: number; type: string; state: string; interpretation: string };
+export type ContextOption = {
+  id: string;
+  trenchId: string;
+  number: number;
+  type: string;
+  state: string;
+  interpretation: string;
+};
 export type ClassOption = { id: string; code: string; label: string; colour: string; symbol: string };

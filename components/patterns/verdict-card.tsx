@@ -4,26 +4,51 @@ import { fmtP, TEST_LABEL, VERDICT_LABEL, VERDICT_TONE } from "./words";
 
 /** One test's verdict: the words, p, the sentence to quote, what it asked, where the curve left the band. */
 export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; subject: string }) {
-  const deps = "departures" in t ? departureSentences(t.departures, rmax, t.kind === "l-envelope" || t.kind === "inhomogeneous-l" ? "l" : "cross", t.verdict !== "no-evidence") : [];
+  const deps =
+    "departures" in t
+      ? departureSentences(
+          t.departures,
+          rmax,
+          t.kind === "l-envelope" || t.kind === "inhomogeneous-l" ? "l" : "cross",
+          t.verdict !== "no-evidence",
+        )
+      : [];
   return (
     <article className="sheet space-y-2" aria-label={`${TEST_LABEL[t.kind]} for ${subject}`}>
       <header className="flex flex-wrap items-baseline gap-3">
         <h4 className="font-bold">{TEST_LABEL[t.kind]}</h4>
-        <span data-verdict={t.verdict} className={`rounded border-2 px-2 py-0.5 text-sm font-bold ${VERDICT_TONE[t.verdict]}`}>{VERDICT_LABEL[t.verdict]}</span>
-        <span className="num text-sm">p {t.p !== null && t.p < 1e-12 ? "" : "= "}{fmtP(t.p)}</span>
+        <span
+          data-verdict={t.verdict}
+          className={`rounded border-2 px-2 py-0.5 text-sm font-bold ${VERDICT_TONE[t.verdict]}`}
+        >
+          {VERDICT_LABEL[t.verdict]}
+        </span>
+        <span className="num text-sm">
+          p {t.p !== null && t.p < 1e-12 ? "" : "= "}
+          {fmtP(t.p)}
+        </span>
       </header>
       <p>{t.sentence}</p>
-      <p className="text-sm text-ink-soft"><span className="font-semibold">Question answered: </span>{t.question}</p>
+      <p className="text-sm text-ink-soft">
+        <span className="font-semibold">Question answered: </span>
+        {t.question}
+      </p>
       {deps.length > 0 && (
         <ul className="list-disc pl-5 text-sm">
-          {deps.map((d, i) => <li key={i}>{d}</li>)}
+          {deps.map((d, i) => (
+            <li key={i}>{d}</li>
+          ))}
         </ul>
       )}
       {t.notes.length > 0 && (
         <details className="text-sm">
-          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">Notes on this test ({t.notes.length})</summary>
+          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">
+            Notes on this test ({t.notes.length})
+          </summary>
           <ul className="list-disc pl-5">
-            {t.notes.map((n, i) => <li key={i}>{n}</li>)}
+            {t.notes.map((n, i) => (
+              <li key={i}>{n}</li>
+            ))}
           </ul>
         </details>
       )}

@@ -21,7 +21,8 @@ export const VERDICT_TONE: Record<VerdictWord, string> = {
  * p as a reader needs it. Below 1e-12 the distribution tails (computed as 1 − cdf) carry no precision, so
  * such a p is shown as a bound, never as an exact 0.
  */
-export const fmtP = (p: number | null) => (p === null ? "—" : p < 1e-12 ? "< 1e-12" : p < 0.001 ? p.toExponential(1) : p.toFixed(3));
+export const fmtP = (p: number | null) =>
+  p === null ? "—" : p < 1e-12 ? "< 1e-12" : p < 0.001 ? p.toExponential(1) : p.toFixed(3);
 export const fmtM = (v: number) => `${v.toFixed(2)} m`;
 
 /** "about 12 s" from milliseconds, for the time-remaining line. */

@@ -14,7 +14,13 @@ import { ParamsFields, TestPicker } from "./test-picker";
 import type { ClassOption, ContextOption, TrenchOption } from "./types";
 import { useRuns } from "./use-run";
 
-type Props = { siteId: string; canRun: boolean; trenches: TrenchOption[]; contexts: ContextOption[]; classes: ClassOption[] };
+type Props = {
+  siteId: string;
+  canRun: boolean;
+  trenches: TrenchOption[];
+  contexts: ContextOption[];
+  classes: ClassOption[];
+};
 
 /** The Patterns workspace: scope → tests → parameters → run → progress → verdicts, figures, cautions. */
 export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes }: Props) {
@@ -23,21 +29,33 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
   const runId = search.get("run");
   const compare = (search.get("compare") ?? "").split(",").filter(Boolean);
   const qc = useQueryClient();
-  const [form, setForm] = useState<FormState>(() => initialForm(trenches.find((t) => contexts.some((c) => c.trenchId === t.id))?.id ?? trenches[0]?.id ?? ""));
+  const [form, setForm] = useState<FormState>(() =>
+    initialForm(trenches.find((t) => contexts.some((c) => c.trenchId === t.id))?.id ?? trenches[0]?.id ?? ""),
+  );
   const set = (f: Partial<FormState>) => setForm((old) => ({ ...old, ...f }));
 
   // The run and the comparison live in the address (reload, share), but nothing on the server depends on
   // them: the history API changes the address and useSearchParams without asking the server for the page.
   const setUrl = (params: { run?: string | null; compare?: string[] }) => {
     const next = new URLSearchParams(search.toString());
-    if (params.run !== undefined) (params.run ? next.set("run", params.run) : next.delete("run"));
-    if (params.compare !== undefined) (params.compare.length ? next.set("compare", params.compare.join(",")) : next.delete("compare"));
+    if (params.run !== undefined) params.run ? next.set("run", params.run) : next.delete("run");
+    if (params.compare !== undefined)
+      params.compare.length ? next.set("compare", params.compare.join(",")) : next.delete("compare");
     window.history.replaceState(null, "", `${pathname}?${next.toString()}`);
   };
 
   const summary = useQuery({
     queryKey: ["scope", siteId, form.trenchId, form.contextIds],
-    queryFn: () => apiClient.call("runScope", { siteId }, { trenchId: form.trenchId, contextIds: form.contextIds.join(","), classIds: classes.map((c) => c.id).join(",") }),
+    queryFn: () =>
+      apiClient.call(
+        "runScope",
+        { siteId },
+        {
+          trenchId: form.trenchId,
+          contextIds: form.contextIds.join(","),
+          classIds: classes.map((c) => c.id).join(","),
+        },
+      ),
     enabled: !!form.trenchId && form.contextIds.length > 0 && classes.length > 0,
   });
   const runs = useRuns(siteId);
@@ -47,14 +65,20 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
       qc.setQueryData(["run", siteId, created.id], created);
       setUrl({ run: created.id });
       const { result: _none, ...listed } = created;
-      qc.setQueryData(["runs", siteId], (old: Omit<RunView, "result">[] | undefined) => (old ? [listed, ...old.filter((r) => r.id !== created.id)] : old));
+      qc.setQueryData(["runs", siteId], (old: Omit<RunView, "result">[] | undefined) =>
+        old ? [listed, ...old.filter((r) => r.id !== created.id)] : old,
+      );
     },
   });
   const startError = start.error instanceof ApiError ? start.error : null;
   const help = (
     <section className="sheet text-ink-soft">
       <h2 className="text-lg font-bold text-ink">How to read a run here</h2>
-      <p className="mt-1">Choose the trench, the contexts that form one surface and the classes; keep the default tests or change them; run. Each class gets a verdict — clustered, evenly spread, or no evidence against the null — from a global Monte Carlo test, with its p-value, the simulations and the seed, so anyone can run it again and get the same numbers.</p>
+      <p className="mt-1">
+        Choose the trench, the contexts that form one surface and the classes; keep the default tests or change them;
+        run. Each class gets a verdict — clustered, evenly spread, or no evidence against the null — from a global Monte
+        Carlo test, with its p-value, the simulations and the seed, so anyone can run it again and get the same numbers.
+      </p>
     </section>
   );
   const ready = form.contextIds.length > 0 && form.classIds.length > 0;
@@ -69,30 +93,57 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
           start.mutate();
         }}
       >
-        <ScopePicker form={form} set={set} trenches={trenches} contexts={contexts} classes={classes} summary={summary.data} loading={summary.isFetching} />
+        <ScopePicker
+          form={form}
+          set={set}
+          trenches={trenches}
+          contexts={contexts}
+          classes={classes}
+          summary={summary.data}
+          loading={summary.isFetching}
+        />
         <TestPicker form={form} set={set} summary={summary.data} />
         <ParamsFields form={form} set={set} summary={summary.data} errors={startError?.fieldErrors ?? {}} />
-        {startError && <p className="field-error" role="alert">{startError.message}</p>}
-        {summary.error && <p className="field-error" role="alert">{(summary.error as Error).message}</p>}
+        {startError && (
+          <p className="field-error" role="alert">
+            {startError.message}
+          </p>
+        )}
+        {summary.error && (
+          <p className="field-error" role="alert">
+            {(summary.error as Error).message}
+          </p>
+        )}
         {canRun ? (
           <button type="submit" className="btn-primary w-full text-lg" disabled={!ready || start.isPending}>
             {start.isPending ? "Starting…" : "Run tests"}
           </button>
         ) : (
-          <p className="sheet text-sm">Your role can read every saved run; running tests needs the finds specialist or director role.</p>
+          <p className="sheet text-sm">
+            Your role can read every saved run; running tests needs the finds specialist or director role.
+          </p>
         )}
       </form>
       <div className={`min-w-0 space-y-4 ${runId || compare.length === 2 ? "order-first xl:order-none" : ""}`}>
         {compare.length === 2 ? (
           <CompareView siteId={siteId} ids={compare} onClose={() => setUrl({ compare: [] })} />
         ) : runId ? (
-          <RunPanel key={runId} siteId={siteId} runId={runId} canRun={canRun} onUseSettings={(r) => setForm(formFromRun(r))} fallback={help} />
+          <RunPanel
+            key={runId}
+            siteId={siteId}
+            runId={runId}
+            canRun={canRun}
+            onUseSettings={(r) => setForm(formFromRun(r))}
+            fallback={help}
+          />
         ) : (
           help
         )}
         <section className="sheet" aria-labelledby="saved-runs">
           <div className="flex items-center justify-between">
-            <h2 id="saved-runs" className="text-lg font-bold">Saved runs</h2>
+            <h2 id="saved-runs" className="text-lg font-bold">
+              Saved runs
+            </h2>
             {compare.length === 1 && <p className="text-sm text-ink-soft">Tick one more finished run to compare.</p>}
           </div>
           {runs.data && (
@@ -101,7 +152,9 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
               current={runId}
               compare={compare}
               onOpen={(id) => setUrl({ run: id, compare: [] })}
-              onToggleCompare={(id) => setUrl({ compare: compare.includes(id) ? compare.filter((x) => x !== id) : [...compare, id].slice(-2) })}
+              onToggleCompare={(id) =>
+                setUrl({ compare: compare.includes(id) ? compare.filter((x) => x !== id) : [...compare, id].slice(-2) })
+              }
             />
           )}
         </section>

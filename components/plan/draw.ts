@@ -57,7 +57,13 @@ function traceRing(c: CanvasRenderingContext2D, v: View, ring: readonly Pt[]) {
   ring.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
 }
 
-export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, hasPhoto: boolean, problem: Problem | null) {
+export function drawOutline(
+  c: CanvasRenderingContext2D,
+  v: View,
+  rings: Rings,
+  hasPhoto: boolean,
+  problem: Problem | null,
+) {
   if (!rings.length) return;
   c.save();
   c.beginPath();
@@ -87,8 +93,10 @@ export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, 
     c.lineWidth = 1.5;
     c.beginPath();
     const xs = r.map((p) => toScreen(v, p[0], p[1]));
-    const minX = Math.min(...xs.map((p) => p[0])), maxX = Math.max(...xs.map((p) => p[0]));
-    const minY = Math.min(...xs.map((p) => p[1])), maxY = Math.max(...xs.map((p) => p[1]));
+    const minX = Math.min(...xs.map((p) => p[0])),
+      maxX = Math.max(...xs.map((p) => p[0]));
+    const minY = Math.min(...xs.map((p) => p[1])),
+      maxY = Math.max(...xs.map((p) => p[1]));
     for (let t = minX - (maxY - minY); t < maxX; t += 9) {
       c.moveTo(t, maxY);
       c.lineTo(t + (maxY - minY), minY);
@@ -109,11 +117,13 @@ export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, 
       c.lineTo(...b);
     };
     if (problem.edges.length) problem.edges.forEach(edge);
-    else for (const k of problem.rings ?? [problem.ring]) rings[k]?.forEach((_, i) => {
-      const r = rings[k];
-      c.moveTo(...toScreen(v, ...r[i]));
-      c.lineTo(...toScreen(v, ...r[(i + 1) % r.length]));
-    });
+    else
+      for (const k of problem.rings ?? [problem.ring])
+        rings[k]?.forEach((_, i) => {
+          const r = rings[k];
+          c.moveTo(...toScreen(v, ...r[i]));
+          c.lineTo(...toScreen(v, ...r[(i + 1) % r.length]));
+        });
     c.stroke();
     c.setLineDash([]);
   }
@@ -121,7 +131,11 @@ export function drawOutline(c: CanvasRenderingContext2D, v: View, rings: Rings, 
 }
 
 /** Context extents: dashed outlines with the context number, under the finds. */
-export function drawExtents(c: CanvasRenderingContext2D, v: View, contexts: { number: number; extent?: { coordinates: [number, number][][] } | null }[]) {
+export function drawExtents(
+  c: CanvasRenderingContext2D,
+  v: View,
+  contexts: { number: number; extent?: { coordinates: [number, number][][] } | null }[],
+) {
   c.save();
   c.font = "700 12px var(--font-mono), ui-monospace, monospace";
   for (const ctx of contexts) {
@@ -149,7 +163,12 @@ export function drawExtents(c: CanvasRenderingContext2D, v: View, contexts: { nu
   c.restore();
 }
 
-export function drawVertices(c: CanvasRenderingContext2D, v: View, rings: Rings, selected: { ring: number; v: number } | null) {
+export function drawVertices(
+  c: CanvasRenderingContext2D,
+  v: View,
+  rings: Rings,
+  selected: { ring: number; v: number } | null,
+) {
   c.save();
   rings.forEach((r, k) => {
     r.forEach((p, i) => {
@@ -248,7 +267,14 @@ function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElemen
  * Finds in one pass, one cached sprite per class, skipping those outside `area` (the viewport, or the
  * larger bitmap of a view cache) and the one with id `skip` (being dragged, drawn on its own).
  */
-export function drawFinds(c: CanvasRenderingContext2D, v: View, finds: readonly FindRow[], classes: Map<string, ClassRow>, area: Area, skip?: string | null) {
+export function drawFinds(
+  c: CanvasRenderingContext2D,
+  v: View,
+  finds: readonly FindRow[],
+  classes: Map<string, ClassRow>,
+  area: Area,
+  skip?: string | null,
+) {
   const ratio = pixelRatioOf(c);
   const byClass = new Map<string, HTMLCanvasElement>();
   const half = SPRITE_CSS / 2;

@@ -7,7 +7,12 @@ import { SymbolIcon } from "./symbols";
 const LIMIT = 300;
 
 /** The side list of the finds shown on the plan; its selection is the plan's selection. */
-export const FindsList = memo(function FindsList({ finds, classes, selected, onSelect }: {
+export const FindsList = memo(function FindsList({
+  finds,
+  classes,
+  selected,
+  onSelect,
+}: {
   finds: FindRow[];
   classes: Map<string, ClassRow>;
   selected: ReadonlySet<string>;
@@ -25,7 +30,8 @@ export const FindsList = memo(function FindsList({ finds, classes, selected, onS
   return (
     <div>
       <p className="mb-2 text-sm text-ink-soft">
-        {finds.length} find{finds.length === 1 ? "" : "s"} shown{finds.length > shown.length ? `; the newest ${shown.length} listed` : ""}. Tap one to select it on the plan.
+        {finds.length} find{finds.length === 1 ? "" : "s"} shown
+        {finds.length > shown.length ? `; the newest ${shown.length} listed` : ""}. Tap one to select it on the plan.
       </p>
       <ul className="divide-y divide-paper-edge" aria-label="Finds on the plan">
         {shown.map((f, i) => {
@@ -43,8 +49,13 @@ export const FindsList = memo(function FindsList({ finds, classes, selected, onS
               >
                 <SymbolIcon symbol={cls?.symbol ?? "disc"} colour={cls?.colour ?? "#666"} />
                 <span className="num w-16 font-bold">#{f.number}</span>
-                <span className="flex-1 truncate">{f.classCode} · ctx {f.contextNumber}{f.contextState === "signed_off" ? " · signed off" : ""}</span>
-                <span className="num text-xs text-ink-soft">{f.x.toFixed(2)}, {f.y.toFixed(2)}</span>
+                <span className="flex-1 truncate">
+                  {f.classCode} · ctx {f.contextNumber}
+                  {f.contextState === "signed_off" ? " · signed off" : ""}
+                </span>
+                <span className="num text-xs text-ink-soft">
+                  {f.x.toFixed(2)}, {f.y.toFixed(2)}
+                </span>
               </button>
             </li>
           );

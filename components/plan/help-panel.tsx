@@ -15,8 +15,13 @@ export function HelpPanel({ onClose }: { onClose: () => void }) {
           ))}
         </tbody>
       </table>
-      <p className="text-sm text-ink-soft">Pan with one finger or the mouse, zoom with two fingers or the wheel. Every tool also has a button; nothing depends on hovering.</p>
-      <button type="button" className="btn" onClick={onClose}>Close</button>
+      <p className="text-sm text-ink-soft">
+        Pan with one finger or the mouse, zoom with two fingers or the wheel. Every tool also has a button; nothing
+        depends on hovering.
+      </p>
+      <button type="button" className="btn" onClick={onClose}>
+        Close
+      </button>
     </div>
   );
 }

@@ -5,7 +5,18 @@ import type { ClassRow, ContextRow, FindRow } from "./rows";
 import { SymbolIcon } from "./symbols";
 
 /** Per-class and per-context visibility of finds on the plan, with counts. */
-export const LayersPanel = memo(function LayersPanel({ classes, contexts, finds, hiddenClasses, hiddenContexts, onToggleClass, onToggleContext, photoOpacity, onPhotoOpacity, hasPhoto }: {
+export const LayersPanel = memo(function LayersPanel({
+  classes,
+  contexts,
+  finds,
+  hiddenClasses,
+  hiddenContexts,
+  onToggleClass,
+  onToggleContext,
+  photoOpacity,
+  onPhotoOpacity,
+  hasPhoto,
+}: {
   classes: ClassRow[];
   contexts: ContextRow[];
   finds: FindRow[];
@@ -24,9 +35,16 @@ export const LayersPanel = memo(function LayersPanel({ classes, contexts, finds,
         <legend className="label">Classes</legend>
         {classes.map((c) => (
           <label key={c.id} className="flex min-h-11 cursor-pointer items-center gap-3 px-1">
-            <input type="checkbox" className="h-6 w-6 accent-accent" checked={!hiddenClasses.has(c.id)} onChange={() => onToggleClass(c.id)} />
+            <input
+              type="checkbox"
+              className="h-6 w-6 accent-accent"
+              checked={!hiddenClasses.has(c.id)}
+              onChange={() => onToggleClass(c.id)}
+            />
             <SymbolIcon symbol={c.symbol} colour={c.colour} size={20} />
-            <span className="flex-1">{c.code} · {c.label}</span>
+            <span className="flex-1">
+              {c.code} · {c.label}
+            </span>
             <span className="num text-sm text-ink-soft">{countBy("classId", c.id)}</span>
           </label>
         ))}
@@ -35,9 +53,17 @@ export const LayersPanel = memo(function LayersPanel({ classes, contexts, finds,
         <legend className="label">Contexts</legend>
         {contexts.map((c) => (
           <label key={c.id} className="flex min-h-11 cursor-pointer items-center gap-3 px-1">
-            <input type="checkbox" className="h-6 w-6 accent-accent" checked={!hiddenContexts.has(c.id)} onChange={() => onToggleContext(c.id)} />
+            <input
+              type="checkbox"
+              className="h-6 w-6 accent-accent"
+              checked={!hiddenContexts.has(c.id)}
+              onChange={() => onToggleContext(c.id)}
+            />
             <span className="num font-bold">{c.number}</span>
-            <span className="flex-1">{c.type}{c.state === "signed_off" ? " · signed off" : c.state === "awaiting" ? " · awaiting sign-off" : ""}</span>
+            <span className="flex-1">
+              {c.type}
+              {c.state === "signed_off" ? " · signed off" : c.state === "awaiting" ? " · awaiting sign-off" : ""}
+            </span>
             <span className="num text-sm text-ink-soft">{countBy("contextId", c.id)}</span>
           </label>
         ))}
@@ -45,7 +71,15 @@ export const LayersPanel = memo(function LayersPanel({ classes, contexts, finds,
       {hasPhoto && (
         <label className="block">
           <span className="label">Photo strength</span>
-          <input type="range" min={0} max={1} step={0.05} value={photoOpacity} onChange={(e) => onPhotoOpacity(Number(e.target.value))} className="h-11 w-full accent-accent" />
+          <input
+            type="range"
+            min={0}
+            max={1}
+            step={0.05}
+            value={photoOpacity}
+            onChange={(e) => onPhotoOpacity(Number(e.target.value))}
+            className="h-11 w-full accent-accent"
+          />
         </label>
       )}
     </div>

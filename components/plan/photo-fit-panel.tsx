@@ -8,7 +8,19 @@ import { formatMetres } from "@/lib/geometry/plan-view";
 export type DraftPoint = { px: number; py: number; x: string; y: string };
 
 /** Control points: tap the photo here, then type (or tap on the plan) the peg's grid position. */
-export function PhotoFitPanel({ photo, points, active, model, onPoints, onActive, onModel, onFit, fitting, error, canEdit }: {
+export function PhotoFitPanel({
+  photo,
+  points,
+  active,
+  model,
+  onPoints,
+  onActive,
+  onModel,
+  onFit,
+  fitting,
+  error,
+  canEdit,
+}: {
   photo: PhotoView;
   points: DraftPoint[];
   active: number | null;
@@ -27,7 +39,8 @@ export function PhotoFitPanel({ photo, points, active, model, onPoints, onActive
   const fit = photo.fit;
   const chosen = model === "auto" ? modelForCount(points.length) : model;
   const ready = points.length >= minimumPoints[chosen] && points.every((p) => p.x.trim() !== "" && p.y.trim() !== "");
-  const set = (i: number, patch: Partial<DraftPoint>) => onPoints(points.map((p, k) => (k === i ? { ...p, ...patch } : p)));
+  const set = (i: number, patch: Partial<DraftPoint>) =>
+    onPoints(points.map((p, k) => (k === i ? { ...p, ...patch } : p)));
   const residualOf = (i: number) => (fit && fit.points.length === points.length ? fit.residuals[i] : undefined);
 
   return (
@@ -59,20 +72,61 @@ export function PhotoFitPanel({ photo, points, active, model, onPoints, onActive
           </span>
         ))}
       </div>
-      <p className="text-sm text-ink-soft">Tap a peg on the photo, then type its grid position or tap the peg's place on the plan (snaps to grid crossings). 2 points: similarity, 3: affine, 4 or more: projective.</p>
+      <p className="text-sm text-ink-soft">
+        Tap a peg on the photo, then type its grid position or tap the peg's place on the plan (snaps to grid
+        crossings). 2 points: similarity, 3: affine, 4 or more: projective.
+      </p>
       {points.length > 0 && (
         <table className="ledger">
           <thead>
-            <tr><th>#</th><th>x (m)</th><th>y (m)</th><th className="num">Residual</th><th /></tr>
+            <tr>
+              <th>#</th>
+              <th>x (m)</th>
+              <th>y (m)</th>
+              <th className="num">Residual</th>
+              <th />
+            </tr>
           </thead>
           <tbody>
             {points.map((p, i) => (
               <tr key={i} className={active === i ? "bg-accent-light" : ""} onClick={() => onActive(i)}>
                 <td className="num font-bold">{i + 1}</td>
-                <td><input aria-label={`Point ${i + 1} x`} className="field num w-24" inputMode="decimal" value={p.x} onFocus={() => onActive(i)} onChange={(e) => set(i, { x: e.target.value })} /></td>
-                <td><input aria-label={`Point ${i + 1} y`} className="field num w-24" inputMode="decimal" value={p.y} onFocus={() => onActive(i)} onChange={(e) => set(i, { y: e.target.value })} /></td>
-                <td className="num" data-testid={`residual-${i + 1}`}>{residualOf(i) === undefined ? "—" : formatMetres(residualOf(i)!)}</td>
-                <td><button type="button" className="btn min-w-11 px-2" aria-label={`Remove point ${i + 1}`} onClick={() => { onPoints(points.filter((_, k) => k !== i)); onActive(null); }}>✕</button></td>
+                <td>
+                  <input
+                    aria-label={`Point ${i + 1} x`}
+                    className="field num w-24"
+                    inputMode="decimal"
+                    value={p.x}
+                    onFocus={() => onActive(i)}
+                    onChange={(e) => set(i, { x: e.target.value })}
+                  />
+                </td>
+                <td>
+                  <input
+                    aria-label={`Point ${i + 1} y`}
+                    className="field num w-24"
+                    inputMode="decimal"
+                    value={p.y}
+                    onFocus={() => onActive(i)}
+                    onChange={(e) => set(i, { y: e.target.value })}
+                  />
+                </td>
+                <td className="num" data-testid={`residual-${i + 1}`}>
+                  {residualOf(i) === undefined ? "—" : formatMetres(residualOf(i)!)}
+                </td>
+                <td>
+                  <button
+                    type="button"
+                    className="btn min-w-11 px-2"
+                    aria-label={`Remove point ${i + 1}`}
+                    onClick={() => {
+                      onPoints(points.filter((_, k) => k !== i));
+                      onActive(null);
+                    }}
+                  >
+                    ✕
+                  </button>
+                </td>
               </tr>
             ))}
           </tbody>
@@ -88,12 +142,19 @@ export function PhotoFitPanel({ photo, points, active, model, onPoints, onActive
             <option value="projective">Projective (4+)</option>
           </select>
         </label>
-        <button type="button" className="btn-primary" onClick={onFit} disabled={!ready || fitting || !canEdit}>{fitting ? "Fitting…" : "Fit photo to grid"}</button>
+        <button type="button" className="btn-primary" onClick={onFit} disabled={!ready || fitting || !canEdit}>
+          {fitting ? "Fitting…" : "Fit photo to grid"}
+        </button>
       </div>
-      {error && <p role="alert" className="rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">{error}</p>}
+      {error && (
+        <p role="alert" className="rounded border-2 border-warn bg-warn-light p-2 font-semibold text-warn">
+          {error}
+        </p>
+      )}
       {fit && (
         <p role="status" className="rounded border-2 border-ok bg-ok-light p-2 text-ok" data-testid="fit-summary">
-          Fitted ({fit.model}, {fit.points.length} points): overall error (RMS) <span className="num font-bold">{formatMetres(fit.rms)}</span>
+          Fitted ({fit.model}, {fit.points.length} points): overall error (RMS){" "}
+          <span className="num font-bold">{formatMetres(fit.rms)}</span>
           {fit.redundancy === 0 ? " — exactly determined; add a point to check the fit." : ""}
           {fit.model === "projective" ? " Drawn as a raster warped on the server." : ""}
         </p>

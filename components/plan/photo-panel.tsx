@@ -5,7 +5,17 @@ import type { PhotoView } from "@/lib/geometry/photo-fit-input";
 import { PhotoFitPanel, type DraftPoint } from "./photo-fit-panel";
 import { PhotoUpload } from "./photo-upload";
 
-export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, onUploaded, onDelete, fit }: {
+export function PhotoPanel({
+  siteId,
+  trenchId,
+  photos,
+  photo,
+  canEdit,
+  onPhoto,
+  onUploaded,
+  onDelete,
+  fit,
+}: {
   siteId: string;
   trenchId: string;
   photos: PhotoView[];
@@ -32,7 +42,13 @@ export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, 
       {photos.length > 1 && (
         <div className="flex flex-wrap gap-2" aria-label="Photos of this trench">
           {photos.map((p) => (
-            <button key={p.id} type="button" onClick={() => onPhoto(p.id)} aria-pressed={p.id === photo?.id} className={`rounded border-2 p-1 ${p.id === photo?.id ? "border-accent" : "border-paper-edge"}`}>
+            <button
+              key={p.id}
+              type="button"
+              onClick={() => onPhoto(p.id)}
+              aria-pressed={p.id === photo?.id}
+              className={`rounded border-2 p-1 ${p.id === photo?.id ? "border-accent" : "border-paper-edge"}`}
+            >
               <img src={p.thumbUrl} alt={p.fileName} className="h-16 w-auto" />
               <span className="block text-xs">{p.fit ? "fitted" : "not fitted"}</span>
             </button>
@@ -43,7 +59,14 @@ export function PhotoPanel({ siteId, trenchId, photos, photo, canEdit, onPhoto, 
         <>
           <PhotoFitPanel photo={photo} canEdit={canEdit} {...fit} />
           {canEdit && (
-            <button type="button" className="btn-danger" onClick={() => window.confirm(`Delete the photo “${photo.fileName}” and its fit? Finds and the outline stay.`) && onDelete(photo.id)}>
+            <button
+              type="button"
+              className="btn-danger"
+              onClick={() =>
+                window.confirm(`Delete the photo “${photo.fileName}” and its fit? Finds and the outline stay.`) &&
+                onDelete(photo.id)
+              }
+            >
               Delete this photo
             </button>
           )}

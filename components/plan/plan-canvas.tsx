@@ -9,7 +9,16 @@ import { nearestEdge, type EdgeHit, type Problem, type Pt, type Rings } from "@/
 import { toScreen, toWorld, zoomAt, type View } from "@/lib/geometry/plan-view";
 import type { ClassRow, FindRow } from "./rows";
 import { drawDrawing, drawExtents, drawFinds, drawGrid, drawOutline, drawVertices } from "./draw";
-import { drawFitMarks, drawPhoto, drawPlacing, drawRefused, drawSelection, type FitMark, type Photo, type Refused } from "./draw-marks";
+import {
+  drawFitMarks,
+  drawPhoto,
+  drawPlacing,
+  drawRefused,
+  drawSelection,
+  type FitMark,
+  type Photo,
+  type Refused,
+} from "./draw-marks";
 import { ViewCache } from "./view-cache";
 import type { ViewStore } from "./view-store";
 
@@ -18,7 +27,13 @@ export type Tool = "look" | "place" | "outline" | "draw" | "hole" | "extent" | "
 /** Tools that draw a ring corner by corner (the trench edge, a hole, a context's extent). */
 export const drawsRing = (t: Tool): boolean => t === "draw" || t === "hole" || t === "extent";
 export type VertexRef = { ring: number; v: number };
-export type Tap = { world: Pt; find: FindRow | null; vertex: VertexRef | null; edge: EdgeHit | null; additive: boolean };
+export type Tap = {
+  world: Pt;
+  find: FindRow | null;
+  vertex: VertexRef | null;
+  edge: EdgeHit | null;
+  additive: boolean;
+};
 
 type Props = {
   width: number;
@@ -56,7 +71,15 @@ const native = (ctx: Context) => (ctx as unknown as { _context: CanvasRenderingC
 
 type Gesture =
   | { kind: "none" }
-  | { kind: "pending"; id: number; start: Pt; view: View; find: FindRow | null; vertex: VertexRef | null; additive: boolean }
+  | {
+      kind: "pending";
+      id: number;
+      start: Pt;
+      view: View;
+      find: FindRow | null;
+      vertex: VertexRef | null;
+      additive: boolean;
+    }
   | { kind: "pan"; id: number; start: Pt; view: View }
   | { kind: "find"; id: number; find: FindRow }
   | { kind: "vertex"; id: number; vertex: VertexRef }
@@ -149,7 +172,12 @@ export default function PlanCanvas(p: Props) {
 
   const startPinch = () => {
     const [a, b] = [...pointers.current.values()];
-    gesture.current = { kind: "pinch", dist: Math.hypot(a[0] - b[0], a[1] - b[1]) || 1, mid: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2], view: viewNow() };
+    gesture.current = {
+      kind: "pinch",
+      dist: Math.hypot(a[0] - b[0], a[1] - b[1]) || 1,
+      mid: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2],
+      view: viewNow(),
+    };
     setMoved(null);
   };
 
@@ -213,7 +241,8 @@ export default function PlanCanvas(p: Props) {
       }
     }
     const h = gesture.current;
-    if (h.kind === "pan" && h.id === e.pointerId) latest.current.viewStore.set({ ...h.view, ox: h.view.ox + s[0] - h.start[0], oy: h.view.oy + s[1] - h.start[1] });
+    if (h.kind === "pan" && h.id === e.pointerId)
+      latest.current.viewStore.set({ ...h.view, ox: h.view.ox + s[0] - h.start[0], oy: h.view.oy + s[1] - h.start[1] });
     if (h.kind === "find" && h.id === e.pointerId) setMoved({ id: h.find.id, at: world });
     if (h.kind === "vertex" && h.id === e.pointerId) latest.current.onVertexMove(h.vertex, world, false);
   };
@@ -232,7 +261,13 @@ export default function PlanCanvas(p: Props) {
       const { tool, rings } = latest.current;
       const view = viewNow();
       const edge = tool === "outline" && !g.vertex ? nearestEdge(rings, ...world) : null;
-      latest.current.onTap({ world, find: g.find, vertex: g.vertex, edge: edge && edge.distance * view.scale <= HIT_PX ? edge : null, additive: g.additive });
+      latest.current.onTap({
+        world,
+        find: g.find,
+        vertex: g.vertex,
+        edge: edge && edge.distance * view.scale <= HIT_PX ? edge : null,
+        additive: g.additive,
+      });
     }
     if (g.kind === "find" && g.id === e.pointerId) {
       latest.current.onFindMoved(g.find, world);
@@ -243,7 +278,10 @@ export default function PlanCanvas(p: Props) {
   };
 
   const { width, height } = p;
-  const selectedPts = useMemo(() => p.finds.filter((f) => p.selected.has(f.id)).map((f) => (moved?.id === f.id ? moved.at : ([f.x, f.y] as Pt))), [p.finds, p.selected, moved]);
+  const selectedPts = useMemo(
+    () => p.finds.filter((f) => p.selected.has(f.id)).map((f) => (moved?.id === f.id ? moved.at : ([f.x, f.y] as Pt))),
+    [p.finds, p.selected, moved],
+  );
   const movedFind = useMemo(() => {
     const f = moved && p.finds.find((g) => g.id === moved.id);
     return f ? [{ ...f, x: moved.at[0], y: moved.at[1] }] : [];
@@ -257,14 +295,21 @@ export default function PlanCanvas(p: Props) {
     const screen = { x0: 0, y0: 0, x1: width, y1: height };
     const { photo, finds, classes } = p;
     const hasPhoto = Boolean(photo?.img);
-    if (photo?.img) caches.photo.draw(c, view, width, height, [photo.img, photo.opacity, ...photo.matrix], live, (cc, v) => drawPhoto(cc, v, photo));
+    if (photo?.img)
+      caches.photo.draw(c, view, width, height, [photo.img, photo.opacity, ...photo.matrix], live, (cc, v) =>
+        drawPhoto(cc, v, photo),
+      );
     drawOutline(c, view, p.rings, hasPhoto, p.problem);
     drawExtents(c, view, p.extents);
     drawGrid(c, view, width, height, hasPhoto);
-    if (finds.length) caches.finds.draw(c, view, width, height, [finds, classes, moved?.id ?? null], live, (cc, v, area) => drawFinds(cc, v, finds, classes, area, moved?.id));
+    if (finds.length)
+      caches.finds.draw(c, view, width, height, [finds, classes, moved?.id ?? null], live, (cc, v, area) =>
+        drawFinds(cc, v, finds, classes, area, moved?.id),
+      );
     if (movedFind.length) drawFinds(c, view, movedFind, classes, screen);
     // For the benchmark (scripts/bench-plan.ts): the first frame with finds on the plan.
-    if (finds.length && !performance.getEntriesByName("loamwork-plan-finds").length) performance.mark("loamwork-plan-finds", { detail: finds.length });
+    if (finds.length && !performance.getEntriesByName("loamwork-plan-finds").length)
+      performance.mark("loamwork-plan-finds", { detail: finds.length });
     drawSelection(c, view, selectedPts);
     if (p.tool === "outline") drawVertices(c, view, p.rings, p.selectedVertex);
     if (drawsRing(p.tool)) drawDrawing(c, view, p.drawing, pointer);

@@ -4,21 +4,65 @@ import { CompactToolMenu } from "./compact-tool-menu";
 import type { Tool } from "./plan-canvas";
 
 const tools: { id: Tool; label: string; key: string; hint: string }[] = [
-  { id: "look", label: "Look & move", key: "V", hint: "Tap a find to select it, drag a find to move it, drag the plan to pan." },
-  { id: "place", label: "Place find", key: "F", hint: "Tap the plan where the find came out; a form opens for its record." },
-  { id: "outline", label: "Edit outline", key: "O", hint: "Drag a vertex, tap a + to add one, tap a vertex then Delete to remove it." },
-  { id: "draw", label: "Draw edge", key: "D", hint: "Tap each corner of the trench edge; tap the first corner to close it." },
-  { id: "hole", label: "Add hole", key: "H", hint: "Tap each corner of a baulk or unexcavated block; tap the first to close." },
-  { id: "extent", label: "Draw extent", key: "E", hint: "Pick the context in the Extent panel, tap each corner of its extent; tap the first to close and save." },
+  {
+    id: "look",
+    label: "Look & move",
+    key: "V",
+    hint: "Tap a find to select it, drag a find to move it, drag the plan to pan.",
+  },
+  {
+    id: "place",
+    label: "Place find",
+    key: "F",
+    hint: "Tap the plan where the find came out; a form opens for its record.",
+  },
+  {
+    id: "outline",
+    label: "Edit outline",
+    key: "O",
+    hint: "Drag a vertex, tap a + to add one, tap a vertex then Delete to remove it.",
+  },
+  {
+    id: "draw",
+    label: "Draw edge",
+    key: "D",
+    hint: "Tap each corner of the trench edge; tap the first corner to close it.",
+  },
+  {
+    id: "hole",
+    label: "Add hole",
+    key: "H",
+    hint: "Tap each corner of a baulk or unexcavated block; tap the first to close.",
+  },
+  {
+    id: "extent",
+    label: "Draw extent",
+    key: "E",
+    hint: "Pick the context in the Extent panel, tap each corner of its extent; tap the first to close and save.",
+  },
   { id: "fit", label: "Fit photo", key: "P", hint: "Tap a peg on the photo, then type or tap its grid position." },
-  { id: "section", label: "Section line", key: "S", hint: "Tap the section line's start, then its end; its band and figure are below the plan." },
+  {
+    id: "section",
+    label: "Section line",
+    key: "S",
+    hint: "Tap the section line's start, then its end; its band and figure are below the plan.",
+  },
 ];
 
 export function toolHint(tool: Tool) {
   return tools.find((t) => t.id === tool)?.hint ?? "";
 }
 
-export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUndo, undoLabel, onHelp }: {
+export function PlanToolbar({
+  tool,
+  onTool,
+  canEdit,
+  onZoomTrench,
+  onZoom,
+  onUndo,
+  undoLabel,
+  onHelp,
+}: {
   tool: Tool;
   onTool: (t: Tool) => void;
   canEdit: boolean;
@@ -29,7 +73,11 @@ export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUnd
   onHelp: () => void;
 }) {
   return (
-    <div role="toolbar" aria-label="Plan tools" className="flex flex-wrap items-center gap-1 border-b border-paper-edge bg-paper px-2 py-1">
+    <div
+      role="toolbar"
+      aria-label="Plan tools"
+      className="flex flex-wrap items-center gap-1 border-b border-paper-edge bg-paper px-2 py-1"
+    >
       {/* Phones: the tools fold into one menu, so the plan keeps the screen (components/plan/compact-tool-menu.tsx). */}
       <CompactToolMenu tools={tools} tool={tool} onTool={onTool} canEdit={canEdit} />
       {tools.map((t) => (
@@ -46,13 +94,28 @@ export function PlanToolbar({ tool, onTool, canEdit, onZoomTrench, onZoom, onUnd
         </button>
       ))}
       <span className="mx-1 h-8 w-px bg-paper-edge max-sm:hidden" aria-hidden="true" />
-      <button type="button" className="btn px-3 max-sm:hidden" onClick={onZoomTrench}>Zoom to trench <kbd className="font-mono text-xs">Z</kbd></button>
-      <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1.5)} aria-label="Zoom in">+</button>
-      <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1 / 1.5)} aria-label="Zoom out">−</button>
-      <button type="button" className="btn px-3" onClick={onUndo} disabled={!undoLabel} title={undoLabel ? `Undo: ${undoLabel}` : "Nothing to undo"}>
-        Undo<span className="max-sm:hidden">{undoLabel ? `: ${undoLabel}` : ""}</span> <kbd className="font-mono text-xs max-sm:hidden">U</kbd>
+      <button type="button" className="btn px-3 max-sm:hidden" onClick={onZoomTrench}>
+        Zoom to trench <kbd className="font-mono text-xs">Z</kbd>
       </button>
-      <button type="button" className="btn ml-auto px-3 max-sm:hidden" onClick={onHelp}>Shortcuts <kbd className="font-mono text-xs">?</kbd></button>
+      <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1.5)} aria-label="Zoom in">
+        +
+      </button>
+      <button type="button" className="btn min-w-11 px-2" onClick={() => onZoom(1 / 1.5)} aria-label="Zoom out">
+        −
+      </button>
+      <button
+        type="button"
+        className="btn px-3"
+        onClick={onUndo}
+        disabled={!undoLabel}
+        title={undoLabel ? `Undo: ${undoLabel}` : "Nothing to undo"}
+      >
+        Undo<span className="max-sm:hidden">{undoLabel ? `: ${undoLabel}` : ""}</span>{" "}
+        <kbd className="font-mono text-xs max-sm:hidden">U</kbd>
+      </button>
+      <button type="button" className="btn ml-auto px-3 max-sm:hidden" onClick={onHelp}>
+        Shortcuts <kbd className="font-mono text-xs">?</kbd>
+      </button>
     </div>
   );
 }

@@ -29,10 +29,19 @@ export function traceSymbol(ctx: CanvasRenderingContext2D | Path2D, symbol: stri
       ctx.rect(x - r * 0.85, y - r * 0.85, r * 1.7, r * 1.7);
       break;
     case "triangle":
-      poly(ctx, [[x, y - r * 1.1], [x + r, y + r * 0.75], [x - r, y + r * 0.75]]);
+      poly(ctx, [
+        [x, y - r * 1.1],
+        [x + r, y + r * 0.75],
+        [x - r, y + r * 0.75],
+      ]);
       break;
     case "diamond":
-      poly(ctx, [[x, y - r * 1.15], [x + r, y], [x, y + r * 1.15], [x - r, y]]);
+      poly(ctx, [
+        [x, y - r * 1.15],
+        [x + r, y],
+        [x, y + r * 1.15],
+        [x - r, y],
+      ]);
       break;
     case "star":
       poly(ctx, starPoints(x, y, r));
@@ -63,15 +72,34 @@ export function symbolSvgPath(symbol: string, r = 8): string {
   const P = (pts: [number, number][]) => "M" + pts.map(([x, y]) => `${f(x)},${f(y)}`).join("L") + "Z";
   switch (symbol) {
     case "square":
-      return P([[c - r * 0.85, c - r * 0.85], [c + r * 0.85, c - r * 0.85], [c + r * 0.85, c + r * 0.85], [c - r * 0.85, c + r * 0.85]]);
+      return P([
+        [c - r * 0.85, c - r * 0.85],
+        [c + r * 0.85, c - r * 0.85],
+        [c + r * 0.85, c + r * 0.85],
+        [c - r * 0.85, c + r * 0.85],
+      ]);
     case "triangle":
-      return P([[c, c - r * 1.0], [c + r, c + r * 0.75], [c - r, c + r * 0.75]]);
+      return P([
+        [c, c - r * 1.0],
+        [c + r, c + r * 0.75],
+        [c - r, c + r * 0.75],
+      ]);
     case "diamond":
-      return P([[c, c - r], [c + r * 0.9, c], [c, c + r], [c - r * 0.9, c]]);
+      return P([
+        [c, c - r],
+        [c + r * 0.9, c],
+        [c, c + r],
+        [c - r * 0.9, c],
+      ]);
     case "star":
       return P(starPoints(c, c, r * 0.85));
     case "bar":
-      return P([[c - r, c - r * 0.4], [c + r, c - r * 0.4], [c + r, c + r * 0.4], [c - r, c + r * 0.4]]);
+      return P([
+        [c - r, c - r * 0.4],
+        [c + r, c - r * 0.4],
+        [c + r, c + r * 0.4],
+        [c - r, c + r * 0.4],
+      ]);
     case "cross":
       return `M${f(c - r * 0.8)},${f(c - r * 0.8)}L${f(c + r * 0.8)},${f(c + r * 0.8)}M${f(c + r * 0.8)},${f(c - r * 0.8)}L${f(c - r * 0.8)},${f(c + r * 0.8)}`;
     case "ring":
@@ -85,7 +113,13 @@ export function SymbolIcon({ symbol, colour, size = 18 }: { symbol: string; colo
   const open = openSymbols.has(symbol);
   const r = size / 2;
   return (
-    <svg width={size} height={size} viewBox={`${-1} ${-1} ${size + 2} ${size + 2}`} aria-hidden="true" className="shrink-0">
+    <svg
+      width={size}
+      height={size}
+      viewBox={`${-1} ${-1} ${size + 2} ${size + 2}`}
+      aria-hidden="true"
+      className="shrink-0"
+    >
       {open ? (
         <>
           <path d={symbolSvgPath(symbol, r)} fill="none" stroke="#1b130c" strokeWidth={4} />

@@ -25,7 +25,7 @@ export function useExtents({ siteId, contexts, pushUndo, say, onSaved }: Deps) {
   const [saving, setSaving] = useState(false);
   const savingNow = useRef(false); // also catches two taps that land before React re-renders
   // The chosen context, or the first one when the chosen one is gone from the list.
-  const contextId = contexts.some((c) => c.id === chosen) ? chosen : contexts[0]?.id ?? "";
+  const contextId = contexts.some((c) => c.id === chosen) ? chosen : (contexts[0]?.id ?? "");
 
   const choose = (id: string) => {
     setChosen(id);

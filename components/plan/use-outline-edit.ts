@@ -2,7 +2,16 @@
 
 import { useMemo, useRef, useState } from "react";
 import { checkOutline, type OutlinePolygon } from "@/lib/geometry/outline";
-import { deleteVertex, insertVertex, locateProblem, moveVertex, polygonToRings, ringsToPolygon, type Pt, type Rings } from "@/lib/geometry/outline-edit";
+import {
+  deleteVertex,
+  insertVertex,
+  locateProblem,
+  moveVertex,
+  polygonToRings,
+  ringsToPolygon,
+  type Pt,
+  type Rings,
+} from "@/lib/geometry/outline-edit";
 import { ApiError, apiClient } from "@/lib/api/client";
 import type { Tap, VertexRef } from "./plan-canvas";
 import type { UndoEntry } from "./use-undo";
@@ -49,7 +58,10 @@ export function useOutlineEdit({ siteId, trenchId, outline, pushUndo, say, onFin
 
   /** A drawn ring becomes the trench edge (draw) or a hole in it (hole). */
   const closeRing = (drawing: Pt[], kind: "draw" | "hole") =>
-    editRings(kind === "draw" ? [drawing, ...rings.slice(1)] : [...rings, drawing], kind === "draw" ? "draw the trench edge" : "add a hole");
+    editRings(
+      kind === "draw" ? [drawing, ...rings.slice(1)] : [...rings, drawing],
+      kind === "draw" ? "draw the trench edge" : "add a hole",
+    );
 
   const save = async () => {
     setSaving(true);
@@ -102,5 +114,22 @@ export function useOutlineEdit({ siteId, trenchId, outline, pushUndo, say, onFin
     } else setSelectedVertex(null);
   };
 
-  return { rings, savedRings, selectedVertex, setSelectedVertex, error, saving, dirty, check, problem, editRings, onVertexMove, closeRing, save, discard, deleteSelectedVertex, tap };
+  return {
+    rings,
+    savedRings,
+    selectedVertex,
+    setSelectedVertex,
+    error,
+    saving,
+    dirty,
+    check,
+    problem,
+    editRings,
+    onVertexMove,
+    closeRing,
+    save,
+    discard,
+    deleteSelectedVertex,
+    tap,
+  };
 }

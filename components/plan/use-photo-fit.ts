@@ -20,7 +20,11 @@ type Deps = {
 export function usePhotoFit({ siteId, trenchId, initialPhotos, say }: Deps) {
   const qc = useQueryClient();
   const key = ["plan-photos", siteId, trenchId];
-  const photosQuery = useQuery({ queryKey: key, queryFn: () => apiClient.call("photosList", { siteId }, { trenchId }), initialData: initialPhotos });
+  const photosQuery = useQuery({
+    queryKey: key,
+    queryFn: () => apiClient.call("photosList", { siteId }, { trenchId }),
+    initialData: initialPhotos,
+  });
   const photos = photosQuery.data;
   const [photoId, setPhotoId] = useState<string | null>(initialPhotos[0]?.id ?? null);
   const photo = photos.find((p) => p.id === photoId) ?? null;
@@ -56,7 +60,10 @@ export function usePhotoFit({ siteId, trenchId, initialPhotos, say }: Deps) {
     setFitting(true);
     setError(null);
     try {
-      const body = { points: points.map((p) => ({ px: p.px, py: p.py, x: Number(p.x), y: Number(p.y) })), ...(model === "auto" ? {} : { model }) };
+      const body = {
+        points: points.map((p) => ({ px: p.px, py: p.py, x: Number(p.x), y: Number(p.y) })),
+        ...(model === "auto" ? {} : { model }),
+      };
       const out = await apiClient.call("photoFit", { siteId, photoId: photo.id }, body);
       qc.setQueryData<PhotoView[]>(key, (list) => (list ?? []).map((p) => (p.id === out.id ? out : p)));
       say("ok", `Photo fitted: RMS ${(out.fit!.rms * 1000).toFixed(1)} mm over ${out.fit!.points.length} points.`);
@@ -91,6 +98,16 @@ export function usePhotoFit({ siteId, trenchId, initialPhotos, say }: Deps) {
     .filter(({ p }) => p.x !== "" && p.y !== "" && Number.isFinite(Number(p.x)) && Number.isFinite(Number(p.y)))
     .map(({ p, i }) => ({ x: Number(p.x), y: Number(p.y), label: String(i + 1) }));
 
-  const panel = { points, active, model, onPoints: setPoints, onActive: setActive, onModel: setModel, onFit: () => void runFit(), fitting, error };
+  const panel = {
+    points,
+    active,
+    model,
+    onPoints: setPoints,
+    onActive: setActive,
+    onModel: setModel,
+    onFit: () => void runFit(),
+    fitting,
+    error,
+  };
   return { photos, photo, setPhotoId, opacity, setOpacity, layer, placePoint, uploaded, remove, marks, panel };
 }

@@ -25,7 +25,11 @@ export function usePhotoLayer(photo: PhotoView | null, opacity: number): Photo |
   if (!fit || !img) return null;
   if (fit.warp) {
     const w = fit.warp;
-    return { img, opacity, matrix: [(w.maxX - w.minX) / w.width, 0, w.minX, 0, -(w.maxY - w.minY) / w.height, w.maxY, 0, 0, 1] };
+    return {
+      img,
+      opacity,
+      matrix: [(w.maxX - w.minX) / w.width, 0, w.minX, 0, -(w.maxY - w.minY) / w.height, w.maxY, 0, 0, 1],
+    };
   }
   return { img, opacity, matrix: fit.matrix };
 }

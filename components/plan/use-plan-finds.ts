@@ -34,25 +34,61 @@ async function fetchAllFinds(siteId: string, trenchId: string): Promise<FindRow[
 export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRings, pushUndo, say }: Deps) {
   const qc = useQueryClient();
   const key = useMemo(() => ["plan-finds", siteId, trenchId], [siteId, trenchId]);
-  const query = useQuery({ queryKey: key, queryFn: () => fetchAllFinds(siteId, trenchId), initialData: initialFinds, staleTime: 60_000 });
+  const query = useQuery({
+    queryKey: key,
+    queryFn: () => fetchAllFinds(siteId, trenchId),
+    initialData: initialFinds,
+    staleTime: 60_000,
+  });
   const finds = query.data ?? [];
-  const patch = useCallback((fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])), [qc, key]);
+  const patch = useCallback(
+    (fn: (rows: FindRow[]) => FindRow[]) => qc.setQueryData<FindRow[]>(key, (rows) => fn(rows ?? [])),
+    [qc, key],
+  );
 
   const withContext = useCallback(
-    (row: Omit<FindRow, "contextNumber" | "contextState" | "classCode" | "classLabel" | "recordedBy"> & Partial<FindRow>, classCode: string, classLabel: string): FindRow => {
+    (
+      row: Omit<FindRow, "contextNumber" | "contextState" | "classCode" | "classLabel" | "recordedBy"> &
+        Partial<FindRow>,
+      classCode: string,
+      classLabel: string,
+    ): FindRow => {
       const ctx = contexts.find((c) => c.id === row.contextId);
-      return { recordedBy: null, ...row, contextNumber: ctx?.number ?? 0, contextState: ctx?.state ?? "open", classCode, classLabel } as FindRow;
+      return {
+        recordedBy: null,
+        ...row,
+        contextNumber: ctx?.number ?? 0,
+        contextState: ctx?.state ?? "open",
+        classCode,
+        classLabel,
+      } as FindRow;
     },
     [contexts],
   );
 
   /** Records a find; an outside-trench refusal comes back as the refused mark to draw. */
   const record = useCallback(
-    async (at: Pt, v: QuickFind, cls: { code: string; label: string }): Promise<{ ok: true; row: FindRow } | { ok: false; message: string; refused: Refused | null }> => {
+    async (
+      at: Pt,
+      v: QuickFind,
+      cls: { code: string; label: string },
+    ): Promise<{ ok: true; row: FindRow } | { ok: false; message: string; refused: Refused | null }> => {
       try {
-        const created = await apiClient.call("findsCreate", { siteId }, {
-          contextId: v.contextId, classId: v.classId, x: at[0], y: at[1], z: v.z ?? null, count: v.count ?? null, weightG: v.weightG ?? null, description: v.description, method: "plan",
-        });
+        const created = await apiClient.call(
+          "findsCreate",
+          { siteId },
+          {
+            contextId: v.contextId,
+            classId: v.classId,
+            x: at[0],
+            y: at[1],
+            z: v.z ?? null,
+            count: v.count ?? null,
+            weightG: v.weightG ?? null,
+            description: v.description,
+            method: "plan",
+          },
+        );
         const row = withContext(created, cls.code, cls.label);
         patch((rows) => [...rows, row]);
         pushUndo({
@@ -63,14 +99,21 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
           },
         });
         const kept = (created as { pending?: boolean }).pending;
-        say(created.levelWarning ? "warn" : "ok", `${kept ? `Find #${row.number} kept on this device (number from its block); it is sent when the server can be reached.` : `Find #${row.number} recorded (number allocated by the server).`}${created.levelWarning ? ` ${created.levelWarning}` : ""}`);
+        say(
+          created.levelWarning ? "warn" : "ok",
+          `${kept ? `Find #${row.number} kept on this device (number from its block); it is sent when the server can be reached.` : `Find #${row.number} recorded (number allocated by the server).`}${created.levelWarning ? ` ${created.levelWarning}` : ""}`,
+        );
         return { ok: true, row };
       } catch (err) {
         if (!(err instanceof ApiError)) throw err;
         const given = err.detail("distance");
         const distance = typeof given === "number" ? given : null;
         const near = distance !== null ? nearestEdge(savedRings, at[0], at[1]) : null;
-        return { ok: false, message: err.message, refused: distance !== null ? { at, nearest: near?.point ?? at, distance } : null };
+        return {
+          ok: false,
+          message: err.message,
+          refused: distance !== null ? { at, nearest: near?.point ?? at, distance } : null,
+        };
       }
     },
     [siteId, savedRings, patch, pushUndo, say, withContext],

@@ -23,7 +23,16 @@ export type PlanKeyActions = {
   escape: () => void;
 };
 
-const toolKeys: Record<string, Tool> = { v: "look", f: "place", o: "outline", d: "draw", h: "hole", e: "extent", p: "fit", s: "section" };
+const toolKeys: Record<string, Tool> = {
+  v: "look",
+  f: "place",
+  o: "outline",
+  d: "draw",
+  h: "hole",
+  e: "extent",
+  p: "fit",
+  s: "section",
+};
 const panStep = 60;
 
 /** The plan's keyboard shortcuts (the Shortcuts panel lists them); keys typed into a field are left alone. */
@@ -43,7 +52,10 @@ export function usePlanKeys(actions: PlanKeyActions) {
       else if (k === "-" || k === "_") actions.zoomBy(1 / 1.5);
       else if (k.startsWith("Arrow")) {
         e.preventDefault();
-        actions.pan(k === "ArrowLeft" ? panStep : k === "ArrowRight" ? -panStep : 0, k === "ArrowUp" ? panStep : k === "ArrowDown" ? -panStep : 0);
+        actions.pan(
+          k === "ArrowLeft" ? panStep : k === "ArrowRight" ? -panStep : 0,
+          k === "ArrowUp" ? panStep : k === "ArrowDown" ? -panStep : 0,
+        );
       } else if (k === "u" || k === "U") void actions.undo();
       else if (k === "?") actions.toggleHelp();
       else if (k === "Enter") actions.finishRing();

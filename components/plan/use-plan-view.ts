@@ -19,7 +19,9 @@ export function usePlanView(rings: Rings, savedRings: Rings) {
   useEffect(() => {
     const el = box.current;
     if (!el) return;
-    const ro = new ResizeObserver(([e]) => setSize({ width: Math.floor(e.contentRect.width), height: Math.floor(e.contentRect.height) }));
+    const ro = new ResizeObserver(([e]) =>
+      setSize({ width: Math.floor(e.contentRect.width), height: Math.floor(e.contentRect.height) }),
+    );
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
@@ -27,7 +29,12 @@ export function usePlanView(rings: Rings, savedRings: Rings) {
   const trenchBounds = useCallback(() => {
     const pts = (rings[0]?.length ? rings : savedRings).flat();
     if (!pts.length) return { minX: 0, minY: 0, maxX: 10, maxY: 10 };
-    return { minX: Math.min(...pts.map((p) => p[0])), minY: Math.min(...pts.map((p) => p[1])), maxX: Math.max(...pts.map((p) => p[0])), maxY: Math.max(...pts.map((p) => p[1])) };
+    return {
+      minX: Math.min(...pts.map((p) => p[0])),
+      minY: Math.min(...pts.map((p) => p[1])),
+      maxX: Math.max(...pts.map((p) => p[0])),
+      maxY: Math.max(...pts.map((p) => p[1])),
+    };
   }, [rings, savedRings]);
   const zoomToTrench = useCallback(() => {
     if (!size.width) return;
@@ -74,12 +81,16 @@ export function usePlanView(rings: Rings, savedRings: Rings) {
   const latestSize = useRef(size);
   latestSize.current = size;
   /** Brings a find into sight when it lies outside the plan. */
-  const bringIntoView = useCallback((f: FindRow) => {
-    const [v, sz] = [viewStore.get(), latestSize.current];
-    if (!v) return;
-    const [sx, sy] = toScreen(v, f.x, f.y);
-    if (sx < 0 || sy < 0 || sx > sz.width || sy > sz.height) viewStore.set({ ...v, ox: v.ox + sz.width / 2 - sx, oy: v.oy + sz.height / 2 - sy });
-  }, [viewStore]);
+  const bringIntoView = useCallback(
+    (f: FindRow) => {
+      const [v, sz] = [viewStore.get(), latestSize.current];
+      if (!v) return;
+      const [sx, sy] = toScreen(v, f.x, f.y);
+      if (sx < 0 || sy < 0 || sx > sz.width || sy > sz.height)
+        viewStore.set({ ...v, ox: v.ox + sz.width / 2 - sx, oy: v.oy + sz.height / 2 - sy });
+    },
+    [viewStore],
+  );
 
   return { box, size, viewStore, hasView, zoomToTrench, zoomBy, pan, snapToGrid, screenDistance, bringIntoView };
 }

@@ -41,7 +41,10 @@ export function useRecording({ classMap, record, onRecorded, trenchCode, savedRi
       setPlacing(null);
       setFormError(null);
       setRefused({ at, nearest: nearestEdge(savedRings, at[0], at[1])?.point ?? at, distance: d });
-      say("warn", `The find is outside its trench: (${at[0].toFixed(3)}, ${at[1].toFixed(3)}) lies ${d.toFixed(3)} m outside the outline of trench ${trenchCode}. No form opens: tap inside the outline.`);
+      say(
+        "warn",
+        `The find is outside its trench: (${at[0].toFixed(3)}, ${at[1].toFixed(3)}) lies ${d.toFixed(3)} m outside the outline of trench ${trenchCode}. No form opens: tap inside the outline.`,
+      );
       return;
     }
     setPlacing(at);

@@ -11,7 +11,8 @@ export function pixelRatioOf(c: CanvasRenderingContext2D): number {
 }
 
 const isWhole = (n: number) => Math.abs(n - Math.round(n)) < 1e-6;
-const sameKey = (a: readonly unknown[], b: readonly unknown[]) => a.length === b.length && a.every((x, i) => Object.is(x, b[i]));
+const sameKey = (a: readonly unknown[], b: readonly unknown[]) =>
+  a.length === b.length && a.every((x, i) => Object.is(x, b[i]));
 
 /**
  * One plan layer (the finds, the photo) painted once into an offscreen bitmap a margin larger than the
@@ -29,13 +30,24 @@ export class ViewCache {
   private lastScale = NaN;
   private settle: ReturnType<typeof setTimeout> | null = null;
 
-  constructor(private readonly onSettle: () => void, private readonly settleMs = 180) {}
+  constructor(
+    private readonly onSettle: () => void,
+    private readonly settleMs = 180,
+  ) {}
 
   /**
    * Paints the layer into `c` (whose transform is the device pixel ratio) for view `v` over a `w` × `h`
    * viewport. `key` lists everything the picture depends on besides the view.
    */
-  draw(c: CanvasRenderingContext2D, v: View, w: number, h: number, key: readonly unknown[], live: boolean, paint: Painter): CacheOutcome {
+  draw(
+    c: CanvasRenderingContext2D,
+    v: View,
+    w: number,
+    h: number,
+    key: readonly unknown[],
+    live: boolean,
+    paint: Painter,
+  ): CacheOutcome {
     const dpr = pixelRatioOf(c);
     const fullKey = [...key, v.scale, dpr];
     const steady = v.scale === this.lastScale;

@@ -17,7 +17,8 @@ export function createViewStore(): ViewStore {
   return {
     get: () => view,
     set: (v) => {
-      if (!Number.isFinite(v.scale) || !Number.isFinite(v.ox) || !Number.isFinite(v.oy) || v.scale <= 0) throw new Error(`not a plan view: ${JSON.stringify(v)}`);
+      if (!Number.isFinite(v.scale) || !Number.isFinite(v.ox) || !Number.isFinite(v.oy) || v.scale <= 0)
+        throw new Error(`not a plan view: ${JSON.stringify(v)}`);
       if (view && view.scale === v.scale && view.ox === v.ox && view.oy === v.oy) return;
       view = v;
       for (const l of listeners) l();

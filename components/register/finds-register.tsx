@@ -21,26 +21,54 @@ const columns: ColumnDef<RegisterRow>[] = [
   { id: "number", header: "Find", cell: (c) => <span className="font-bold">{c.row.original.number}</span> },
   { id: "trench", header: "Trench", cell: (c) => c.row.original.trenchCode },
   { id: "context", header: "Context", cell: (c) => c.row.original.contextNumber },
-  { id: "class", header: "Class", cell: (c) => <span><ClassMark symbol={c.row.original.classSymbol} colour={c.row.original.classColour} />{c.row.original.classCode}</span> },
+  {
+    id: "class",
+    header: "Class",
+    cell: (c) => (
+      <span>
+        <ClassMark symbol={c.row.original.classSymbol} colour={c.row.original.classColour} />
+        {c.row.original.classCode}
+      </span>
+    ),
+  },
   { id: "x", header: "x (m)", cell: (c) => metres(c.row.original.x) },
   { id: "y", header: "y (m)", cell: (c) => metres(c.row.original.y) },
   { id: "z", header: "RL (m)", cell: (c) => metres(c.row.original.z) },
   { id: "recorder", header: "Recorder", cell: (c) => c.row.original.recordedBy ?? "—" },
   { id: "recordedAt", header: "Recorded", cell: (c) => <RecordedDay at={c.row.original.recordedAt} /> },
-  { id: "description", header: "Description", cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span> },
+  {
+    id: "description",
+    header: "Description",
+    cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span>,
+  },
 ];
 const numeric = new Set(["number", "context", "x", "y", "z", "recordedAt"]);
 
 /** The finds register: server-side filters, sorting and paging, all held in the URL. */
-export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: string; options: RegisterOptions; canImport: boolean; hasCrs: boolean }) {
+export function FindsRegister({
+  siteId,
+  options,
+  canImport,
+  hasCrs,
+}: {
+  siteId: string;
+  options: RegisterOptions;
+  canImport: boolean;
+  hasCrs: boolean;
+}) {
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();
   const view = useMemo(() => readView(new URLSearchParams(params.toString())), [params]);
   const [openId, setOpenId] = useState<string | null>(null);
-  const go = (change: RegisterView) => router.replace(`${pathname}?${viewQuery(withChange(view, change))}`, { scroll: false });
+  const go = (change: RegisterView) =>
+    router.replace(`${pathname}?${viewQuery(withChange(view, change))}`, { scroll: false });
   const qs = viewQuery(view);
-  const data = useQuery({ queryKey: ["finds", siteId, qs], queryFn: () => apiClient.call("findsList", { siteId }, view), placeholderData: keepPreviousData });
+  const data = useQuery({
+    queryKey: ["finds", siteId, qs],
+    queryFn: () => apiClient.call("findsList", { siteId }, view),
+    placeholderData: keepPreviousData,
+  });
   const pageSize = Number(view.pageSize ?? 50);
   const page = Number(view.page ?? 1);
   const total = data.data?.total ?? 0;
@@ -58,24 +86,60 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
     enableSortingRemoval: false,
     getRowId: (r) => r.id,
   });
-  const sortBy = (id: string) => go({ sort: id, dir: view.sort === id && view.dir !== "desc" ? "desc" : "asc", page: "" });
+  const sortBy = (id: string) =>
+    go({ sort: id, dir: view.sort === id && view.dir !== "desc" ? "desc" : "asc", page: "" });
   const exportQs = viewQuery(view, ["page", "pageSize"]);
 
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-center gap-2">
-        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=csv&${exportQs}`} download>Export CSV</a>
-        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=grid&${exportQs}`} download>GeoJSON (site grid)</a>
-        {hasCrs && <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=lonlat&${exportQs}`} download>GeoJSON (WGS 84)</a>}
-        {hasCrs && <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=crs&${exportQs}`} download>GeoJSON (site CRS)</a>}
-        {canImport && <Link className="btn-primary" href={`/sites/${siteId}/finds/import`}>Import total-station CSV</Link>}
-        {Object.keys(view).some((k) => !["sort", "dir", "page", "pageSize"].includes(k)) && <button type="button" className="btn" onClick={() => router.replace(pathname)}>Clear filters</button>}
+        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=csv&${exportQs}`} download>
+          Export CSV
+        </a>
+        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=grid&${exportQs}`} download>
+          GeoJSON (site grid)
+        </a>
+        {hasCrs && (
+          <a
+            className="btn"
+            href={`/api/sites/${siteId}/export/finds?format=geojson&coords=lonlat&${exportQs}`}
+            download
+          >
+            GeoJSON (WGS 84)
+          </a>
+        )}
+        {hasCrs && (
+          <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=crs&${exportQs}`} download>
+            GeoJSON (site CRS)
+          </a>
+        )}
+        {canImport && (
+          <Link className="btn-primary" href={`/sites/${siteId}/finds/import`}>
+            Import total-station CSV
+          </Link>
+        )}
+        {Object.keys(view).some((k) => !["sort", "dir", "page", "pageSize"].includes(k)) && (
+          <button type="button" className="btn" onClick={() => router.replace(pathname)}>
+            Clear filters
+          </button>
+        )}
       </div>
       <RegisterFilters view={view} options={options} onChange={go} />
       <p aria-live="polite" className="text-sm text-ink-soft">
-        {data.isFetching ? "Reading the register…" : <><span className="num">{countOf(total, "find")}</span> {total === 1 ? "matches" : "match"} · page <span className="num">{page}</span> of <span className="num">{pages}</span></>}
+        {data.isFetching ? (
+          "Reading the register…"
+        ) : (
+          <>
+            <span className="num">{countOf(total, "find")}</span> {total === 1 ? "matches" : "match"} · page{" "}
+            <span className="num">{page}</span> of <span className="num">{pages}</span>
+          </>
+        )}
       </p>
-      {data.error && <p role="alert" className="field-error">{data.error.message}</p>}
+      {data.error && (
+        <p role="alert" className="field-error">
+          {data.error.message}
+        </p>
+      )}
       <div className="overflow-x-auto">
         <table className="ledger sheet" aria-label="Finds register">
           <thead>
@@ -84,13 +148,23 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
                 {hg.headers.map((h) => {
                   const active = sorting[0].id === h.id;
                   return (
-                    <th key={h.id} className={numeric.has(h.id) ? "num" : ""} aria-sort={active ? (sorting[0].desc ? "descending" : "ascending") : undefined}>
+                    <th
+                      key={h.id}
+                      className={numeric.has(h.id) ? "num" : ""}
+                      aria-sort={active ? (sorting[0].desc ? "descending" : "ascending") : undefined}
+                    >
                       {sortable.has(h.id) ? (
-                        <button type="button" className="inline-flex min-h-11 items-center gap-1 font-semibold" onClick={() => sortBy(h.id)}>
+                        <button
+                          type="button"
+                          className="inline-flex min-h-11 items-center gap-1 font-semibold"
+                          onClick={() => sortBy(h.id)}
+                        >
                           {flexRender(h.column.columnDef.header, h.getContext())}
                           <span aria-hidden>{active ? (sorting[0].desc ? "▼" : "▲") : "↕"}</span>
                         </button>
-                      ) : flexRender(h.column.columnDef.header, h.getContext())}
+                      ) : (
+                        flexRender(h.column.columnDef.header, h.getContext())
+                      )}
                     </th>
                   );
                 })}
@@ -100,14 +174,27 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <Fragment key={row.id}>
-                <tr className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`} onClick={() => setOpenId(row.id === openId ? null : row.id)}>
+                <tr
+                  className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`}
+                  onClick={() => setOpenId(row.id === openId ? null : row.id)}
+                >
                   {row.getVisibleCells().map((cell) => (
                     <td key={cell.id} className={numeric.has(cell.column.id) ? "num" : ""}>
                       {cell.column.id === "number" ? (
-                        <button type="button" className="min-h-11 font-bold underline" aria-expanded={row.id === openId} onClick={(e) => { e.stopPropagation(); setOpenId(row.id === openId ? null : row.id); }}>
+                        <button
+                          type="button"
+                          className="min-h-11 font-bold underline"
+                          aria-expanded={row.id === openId}
+                          onClick={(e) => {
+                            e.stopPropagation();
+                            setOpenId(row.id === openId ? null : row.id);
+                          }}
+                        >
                           {row.original.number}
                         </button>
-                      ) : flexRender(cell.column.columnDef.cell, cell.getContext())}
+                      ) : (
+                        flexRender(cell.column.columnDef.cell, cell.getContext())
+                      )}
                     </td>
                   ))}
                 </tr>
@@ -124,11 +211,21 @@ export function FindsRegister({ siteId, options, canImport, hasCrs }: { siteId: 
         </table>
       </div>
       <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
-        <button type="button" className="btn" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>← Previous</button>
-        <button type="button" className="btn" disabled={page >= pages} onClick={() => go({ page: String(page + 1) })}>Next →</button>
-        <label className="ml-auto text-sm" htmlFor="f-size">Rows a page</label>
+        <button type="button" className="btn" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>
+          ← Previous
+        </button>
+        <button type="button" className="btn" disabled={page >= pages} onClick={() => go({ page: String(page + 1) })}>
+          Next →
+        </button>
+        <label className="ml-auto text-sm" htmlFor="f-size">
+          Rows a page
+        </label>
         <select id="f-size" className="field w-24" value={pageSize} onChange={(e) => go({ pageSize: e.target.value })}>
-          {[25, 50, 100, 250, 500].map((n) => <option key={n} value={n}>{n}</option>)}
+          {[25, 50, 100, 250, 500].map((n) => (
+            <option key={n} value={n}>
+              {n}
+            </option>
+          ))}
         </select>
       </nav>
     </div>

@@ -1,5 +1,17 @@
 /** The register's view lives in the URL so a view can be shared: these keys, nothing else. */
-export const registerKeys = ["trenchId", "contextId", "classId", "recordedBy", "from", "to", "q", "sort", "dir", "page", "pageSize"] as const;
+export const registerKeys = [
+  "trenchId",
+  "contextId",
+  "classId",
+  "recordedBy",
+  "from",
+  "to",
+  "q",
+  "sort",
+  "dir",
+  "page",
+  "pageSize",
+] as const;
 export type RegisterKey = (typeof registerKeys)[number];
 export type RegisterView = Partial<Record<RegisterKey, string>>;
 

@@ -9,7 +9,17 @@ import { sampleStatusLabels, sampleStatuses, type SampleStatus } from "@/lib/sch
  * Processing status of the samples picked (one on the sample's page, many in the register): post-excavation
  * care, allowed to every role and after sign-off.
  */
-export function SampleStatusControl({ siteId, sampleIds, current, onDone }: { siteId: string; sampleIds: string[]; current?: SampleStatus; onDone?: () => void }) {
+export function SampleStatusControl({
+  siteId,
+  sampleIds,
+  current,
+  onDone,
+}: {
+  siteId: string;
+  sampleIds: string[];
+  current?: SampleStatus;
+  onDone?: () => void;
+}) {
   const router = useRouter();
   const [status, setStatus] = useState<SampleStatus>(current ?? "processed");
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
@@ -19,7 +29,10 @@ export function SampleStatusControl({ siteId, sampleIds, current, onDone }: { si
     setNote(null);
     try {
       const done = await apiClient.call("samplesStatus", { siteId }, { sampleIds, status });
-      setNote({ ok: true, text: `${done.changed} ${done.changed === 1 ? "sample" : "samples"} now “${sampleStatusLabels[status]}”.` });
+      setNote({
+        ok: true,
+        text: `${done.changed} ${done.changed === 1 ? "sample" : "samples"} now “${sampleStatusLabels[status]}”.`,
+      });
       onDone?.();
       router.refresh();
     } catch (err) {
@@ -31,15 +44,28 @@ export function SampleStatusControl({ siteId, sampleIds, current, onDone }: { si
   return (
     <div className="flex flex-wrap items-end gap-2">
       <div>
-        <label className="label" htmlFor="sample-status">Processing status</label>
-        <select id="sample-status" className="field" value={status} onChange={(e) => setStatus(e.target.value as SampleStatus)}>
-          {sampleStatuses.map((s) => <option key={s} value={s}>{sampleStatusLabels[s]}</option>)}
+        <label className="label" htmlFor="sample-status">
+          Processing status
+        </label>
+        <select
+          id="sample-status"
+          className="field"
+          value={status}
+          onChange={(e) => setStatus(e.target.value as SampleStatus)}
+        >
+          {sampleStatuses.map((s) => (
+            <option key={s} value={s}>
+              {sampleStatusLabels[s]}
+            </option>
+          ))}
         </select>
       </div>
       <button type="button" className="btn" disabled={busy || sampleIds.length === 0} onClick={apply}>
         Set for {sampleIds.length} {sampleIds.length === 1 ? "sample" : "samples"}
       </button>
-      <p role="status" aria-live="polite" className={note?.ok ? "font-semibold text-ok" : "field-error"}>{note?.text ?? ""}</p>
+      <p role="status" aria-live="polite" className={note?.ok ? "font-semibold text-ok" : "field-error"}>
+        {note?.text ?? ""}
+      </p>
     </div>
   );
 }
@@ -61,10 +87,16 @@ export function SampleDelete({ siteId, sampleId, number }: { siteId: string; sam
   return (
     <details className="sheet">
       <summary className="cursor-pointer font-semibold">Delete sample {number}</summary>
-      <label className="label mt-2" htmlFor="sample-delete-reason">Why is it deleted?</label>
+      <label className="label mt-2" htmlFor="sample-delete-reason">
+        Why is it deleted?
+      </label>
       <input id="sample-delete-reason" className="field" value={reason} onChange={(e) => setReason(e.target.value)} />
-      <p className="field-error" aria-live="polite">{error ?? ""}</p>
-      <button type="button" className="btn" onClick={remove}>Delete, with this reason</button>
+      <p className="field-error" aria-live="polite">
+        {error ?? ""}
+      </p>
+      <button type="button" className="btn" onClick={remove}>
+        Delete, with this reason
+      </button>
     </details>
   );
 }

@@ -20,7 +20,14 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(artefactClassCreateSchema),
     defaultValues: editing
-      ? { code: editing.code, label: editing.label, material: editing.material, colour: editing.colour, symbol: editing.symbol as FormIn["symbol"], humanRemains: editing.humanRemains }
+      ? {
+          code: editing.code,
+          label: editing.label,
+          material: editing.material,
+          colour: editing.colour,
+          symbol: editing.symbol as FormIn["symbol"],
+          humanRemains: editing.humanRemains,
+        }
       : { code: "", label: "", material: "", colour: palette[0], symbol: "disc", humanRemains: false },
   });
   const [serverError, setServerError] = useState<string | null>(null);
@@ -36,7 +43,9 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
     },
     onError: (err) => {
       setServerError(err.message);
-      if (err instanceof ApiError) for (const [k, v] of Object.entries(err.fieldErrors)) form.setError(k as keyof FormIn, { message: v.join(" ") });
+      if (err instanceof ApiError)
+        for (const [k, v] of Object.entries(err.fieldErrors))
+          form.setError(k as keyof FormIn, { message: v.join(" ") });
     },
   });
   const e = form.formState.errors;
@@ -44,47 +53,82 @@ function ClassForm({ siteId, editing, onDone }: { siteId: string; editing: Class
   const symbol = form.watch("symbol");
   return (
     <form className="sheet grid gap-3 sm:grid-cols-2" onSubmit={form.handleSubmit((v) => save.mutate(v))} noValidate>
-      <h3 className="text-lg font-bold sm:col-span-2">{editing ? `Change class ${editing.code}` : "New artefact class"}</h3>
+      <h3 className="text-lg font-bold sm:col-span-2">
+        {editing ? `Change class ${editing.code}` : "New artefact class"}
+      </h3>
       <div>
-        <label className="label" htmlFor="cls-code">Code</label>
+        <label className="label" htmlFor="cls-code">
+          Code
+        </label>
         <input id="cls-code" className="field font-mono" {...form.register("code")} aria-invalid={!!e.code} />
-        <p className="field-error" aria-live="polite">{e.code?.message}</p>
+        <p className="field-error" aria-live="polite">
+          {e.code?.message}
+        </p>
       </div>
       <div>
-        <label className="label" htmlFor="cls-label">Label</label>
+        <label className="label" htmlFor="cls-label">
+          Label
+        </label>
         <input id="cls-label" className="field" {...form.register("label")} aria-invalid={!!e.label} />
-        <p className="field-error" aria-live="polite">{e.label?.message}</p>
+        <p className="field-error" aria-live="polite">
+          {e.label?.message}
+        </p>
       </div>
       <div>
-        <label className="label" htmlFor="cls-material">Material</label>
+        <label className="label" htmlFor="cls-material">
+          Material
+        </label>
         <input id="cls-material" className="field" {...form.register("material")} />
       </div>
       <div>
-        <label className="label" htmlFor="cls-symbol">Symbol</label>
+        <label className="label" htmlFor="cls-symbol">
+          Symbol
+        </label>
         <select id="cls-symbol" className="field" {...form.register("symbol")}>
-          {symbolShapes.map((s) => <option key={s} value={s}>{s}</option>)}
+          {symbolShapes.map((s) => (
+            <option key={s} value={s}>
+              {s}
+            </option>
+          ))}
         </select>
       </div>
       <fieldset className="sm:col-span-2">
         <legend className="label">Colour</legend>
         <div className="flex flex-wrap items-center gap-2">
           {palette.map((c) => (
-            <button key={c} type="button" aria-label={`Colour ${c}`} aria-pressed={colour === c} onClick={() => form.setValue("colour", c, { shouldValidate: true })}
-              className={`h-11 w-11 rounded border-2 ${colour === c ? "border-ink ring-2 ring-accent" : "border-ink/30"}`} style={{ background: c }} />
+            <button
+              key={c}
+              type="button"
+              aria-label={`Colour ${c}`}
+              aria-pressed={colour === c}
+              onClick={() => form.setValue("colour", c, { shouldValidate: true })}
+              className={`h-11 w-11 rounded border-2 ${colour === c ? "border-ink ring-2 ring-accent" : "border-ink/30"}`}
+              style={{ background: c }}
+            />
           ))}
           <input aria-label="Colour as #rrggbb" className="field w-32 font-mono" {...form.register("colour")} />
           <ClassSymbol symbol={String(symbol)} colour={String(colour)} size={32} title="Preview" />
         </div>
-        <p className="field-error" aria-live="polite">{e.colour?.message}</p>
+        <p className="field-error" aria-live="polite">
+          {e.colour?.message}
+        </p>
       </fieldset>
       <label className="flex min-h-11 items-center gap-2 sm:col-span-2">
         <input type="checkbox" className="h-6 w-6" {...form.register("humanRemains")} />
         <span>Human remains — finds of this class raise the stop-work caution</span>
       </label>
-      <p className="field-error sm:col-span-2" role="alert">{serverError}</p>
+      <p className="field-error sm:col-span-2" role="alert">
+        {serverError}
+      </p>
       <div className="flex gap-2 sm:col-span-2">
-        <button className="btn-primary" type="submit" disabled={save.isPending}>{editing ? "Save class" : "Add class"}</button>
-        {editing && <button className="btn" type="button" onClick={onDone}>Cancel</button>}
+        <button className="btn-primary" type="submit" disabled={save.isPending}>
+          {editing ? "Save class" : "Add class"}
+        </button>
+        {editing && (
+          <button className="btn" type="button" onClick={onDone}>
+            Cancel
+          </button>
+        )}
       </div>
     </form>
   );
@@ -98,22 +142,47 @@ export function ClassesPanel({ siteId, canEdit }: { siteId: string; canEdit: boo
   return (
     <div className="space-y-4">
       <table className="ledger">
-        <thead><tr><th>Symbol</th><th>Code</th><th>Label</th><th>Material</th><th>Flag</th>{canEdit && <th />}</tr></thead>
+        <thead>
+          <tr>
+            <th>Symbol</th>
+            <th>Code</th>
+            <th>Label</th>
+            <th>Material</th>
+            <th>Flag</th>
+            {canEdit && <th />}
+          </tr>
+        </thead>
         <tbody>
           {classes.data?.map((c) => (
             <tr key={c.id}>
-              <td><ClassSymbol symbol={c.symbol} colour={c.colour} size={20} /></td>
+              <td>
+                <ClassSymbol symbol={c.symbol} colour={c.colour} size={20} />
+              </td>
               <td className="font-mono">{c.code}</td>
               <td>{c.label}</td>
               <td>{c.material}</td>
               <td>{c.humanRemains ? "human remains" : ""}</td>
-              {canEdit && <td><button className="btn" onClick={() => setEditing(c)}>Change</button></td>}
+              {canEdit && (
+                <td>
+                  <button className="btn" onClick={() => setEditing(c)}>
+                    Change
+                  </button>
+                </td>
+              )}
             </tr>
           ))}
         </tbody>
       </table>
       {canEdit && (
-        <ClassForm key={editing?.id ?? "new"} siteId={siteId} editing={editing} onDone={() => { setEditing(null); qc.invalidateQueries({ queryKey: key }); }} />
+        <ClassForm
+          key={editing?.id ?? "new"}
+          siteId={siteId}
+          editing={editing}
+          onDone={() => {
+            setEditing(null);
+            qc.invalidateQueries({ queryKey: key });
+          }}
+        />
       )}
     </div>
   );

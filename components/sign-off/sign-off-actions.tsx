@@ -20,8 +20,10 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
   const [reason, setReason] = useState("");
 
   const send = (step: "submit" | "lock" | "reopen") =>
-    step === "submit" ? apiClient.call("contextSubmit", { siteId, contextId })
-      : step === "lock" ? apiClient.call("contextSignOff", { siteId, contextId })
+    step === "submit"
+      ? apiClient.call("contextSubmit", { siteId, contextId })
+      : step === "lock"
+        ? apiClient.call("contextSignOff", { siteId, contextId })
         : apiClient.call("contextReopen", { siteId, contextId }, { reason });
 
   async function run(step: "submit" | "lock" | "reopen") {
@@ -30,7 +32,11 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
     try {
       const out = await send(step);
       const m = out.mail;
-      const what = { submit: `Context ${number} submitted for sign-off`, lock: `Context ${number} signed off`, reopen: `Context ${number} ${state === "signed_off" ? "reopened" : "returned to open"}` }[step];
+      const what = {
+        submit: `Context ${number} submitted for sign-off`,
+        lock: `Context ${number} signed off`,
+        reopen: `Context ${number} ${state === "signed_off" ? "reopened" : "returned to open"}`,
+      }[step];
       const text = `${what}; ${m ? (m.failed ? `${countOf(m.failed, "e-mail")} could not be sent.` : `${countOf(m.sent, "e-mail")} sent.`) : "done."}`;
       if (announce) announce({ text, tone: m?.failed ? "error" : "ok" });
       else setNote(text);
@@ -50,41 +56,85 @@ export function SignOffActions({ siteId, contextId, number, state, role, ready }
     <div className="space-y-2">
       <div className="flex flex-wrap gap-2">
         {state === "open" && role !== "specialist" && (
-          <button className="btn-primary" disabled={busy || !ready} onClick={() => run("submit")} title={ready ? undefined : "Complete the sheet first"}>
+          <button
+            className="btn-primary"
+            disabled={busy || !ready}
+            onClick={() => run("submit")}
+            title={ready ? undefined : "Complete the sheet first"}
+          >
             Submit {number} for sign-off
           </button>
         )}
         {state === "awaiting" && director && !confirming && (
-          <button className="btn-primary" disabled={busy || !ready} onClick={() => setConfirming(true)}>Sign off {number}</button>
+          <button className="btn-primary" disabled={busy || !ready} onClick={() => setConfirming(true)}>
+            Sign off {number}
+          </button>
         )}
         {state !== "open" && director && !asking && (
-          <button className="btn" disabled={busy} onClick={() => setAsking(true)}>{reopenWord} {number}…</button>
+          <button className="btn" disabled={busy} onClick={() => setAsking(true)}>
+            {reopenWord} {number}…
+          </button>
         )}
       </div>
       {confirming && (
-        <div role="alertdialog" aria-labelledby={`${reasonId}-lock`} className="space-y-2 rounded border-2 border-accent p-3">
+        <div
+          role="alertdialog"
+          aria-labelledby={`${reasonId}-lock`}
+          className="space-y-2 rounded border-2 border-accent p-3"
+        >
           <p id={`${reasonId}-lock`}>
-            Sign off context <span className="num">{number}</span>? Its sheet, its finds and its relations will be locked: nobody can change them,
-            on any screen or by import, until a director reopens the context with a reason.
+            Sign off context <span className="num">{number}</span>? Its sheet, its finds and its relations will be
+            locked: nobody can change them, on any screen or by import, until a director reopens the context with a
+            reason.
           </p>
           <div className="flex gap-2">
-            <button className="btn-primary" type="button" disabled={busy} onClick={() => run("lock")} autoFocus>Lock context {number}</button>
-            <button className="btn" type="button" onClick={() => setConfirming(false)}>Cancel</button>
+            <button className="btn-primary" type="button" disabled={busy} onClick={() => run("lock")} autoFocus>
+              Lock context {number}
+            </button>
+            <button className="btn" type="button" onClick={() => setConfirming(false)}>
+              Cancel
+            </button>
           </div>
         </div>
       )}
       {asking && (
-        <form className="space-y-2" onSubmit={(e) => { e.preventDefault(); run("reopen"); }}>
-          <label className="label" htmlFor={reasonId}>Why {reopenWord.toLowerCase()} context {number}? Every member is told, and the reason stays in the record trail.</label>
-          <textarea id={reasonId} className="field min-h-24" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={10} />
+        <form
+          className="space-y-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            run("reopen");
+          }}
+        >
+          <label className="label" htmlFor={reasonId}>
+            Why {reopenWord.toLowerCase()} context {number}? Every member is told, and the reason stays in the record
+            trail.
+          </label>
+          <textarea
+            id={reasonId}
+            className="field min-h-24"
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            required
+            minLength={10}
+          />
           <div className="flex gap-2">
-            <button className="btn-danger" type="submit" disabled={busy || reason.trim().length < 10}>{reopenWord} with this reason</button>
-            <button className="btn" type="button" onClick={() => setAsking(false)}>Cancel</button>
+            <button className="btn-danger" type="submit" disabled={busy || reason.trim().length < 10}>
+              {reopenWord} with this reason
+            </button>
+            <button className="btn" type="button" onClick={() => setAsking(false)}>
+              Cancel
+            </button>
           </div>
         </form>
       )}
-      <p className="field-error" role="alert" aria-live="polite">{error}</p>
-      {note && !error && <p className="text-sm text-ok" aria-live="polite">{note}</p>}
+      <p className="field-error" role="alert" aria-live="polite">
+        {error}
+      </p>
+      {note && !error && (
+        <p className="text-sm text-ok" aria-live="polite">
+          {note}
+        </p>
+      )}
     </div>
   );
 }

@@ -13,7 +13,11 @@ export function SignOffNoticeProvider({ children }: { children: ReactNode }) {
   const [notice, setNotice] = useState<Notice>(null);
   return (
     <NoticeContext.Provider value={setNotice}>
-      <div role="status" aria-live="polite" className={notice ? `sheet font-semibold ${notice.tone === "ok" ? "text-ok" : "text-warn"}` : "sr-only"}>
+      <div
+        role="status"
+        aria-live="polite"
+        className={notice ? `sheet font-semibold ${notice.tone === "ok" ? "text-ok" : "text-warn"}` : "sr-only"}
+      >
         {notice?.text}
       </div>
       {children}

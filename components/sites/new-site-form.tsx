@@ -16,7 +16,10 @@ type Out = z.output<typeof siteCreateSchema>;
 export function NewSiteForm() {
   const router = useRouter();
   const [open, setOpen] = useState(false);
-  const form = useForm<In, unknown, Out>({ resolver: zodResolver(siteCreateSchema), defaultValues: { code: "", name: "", gridDescription: "" } });
+  const form = useForm<In, unknown, Out>({
+    resolver: zodResolver(siteCreateSchema),
+    defaultValues: { code: "", name: "", gridDescription: "" },
+  });
   const create = useMutation({
     mutationFn: (v: Out) => apiClient.call("sitesCreate", {}, v),
     onSuccess: (site) => router.push(`/sites/${site.id}`),
@@ -28,28 +31,47 @@ export function NewSiteForm() {
     },
   });
   const e = form.formState.errors;
-  if (!open) return <button className="btn" onClick={() => setOpen(true)}>Open a new site</button>;
+  if (!open)
+    return (
+      <button className="btn" onClick={() => setOpen(true)}>
+        Open a new site
+      </button>
+    );
   return (
     <form className="sheet grid max-w-xl gap-3" onSubmit={form.handleSubmit((v) => create.mutate(v))} noValidate>
       <h2 className="text-lg font-bold">New site</h2>
       <div>
-        <label className="label" htmlFor="new-code">Site code</label>
+        <label className="label" htmlFor="new-code">
+          Site code
+        </label>
         <input id="new-code" className="field font-mono" {...form.register("code")} />
-        <p className="field-error" aria-live="polite">{e.code?.message}</p>
+        <p className="field-error" aria-live="polite">
+          {e.code?.message}
+        </p>
       </div>
       <div>
-        <label className="label" htmlFor="new-name">Name</label>
+        <label className="label" htmlFor="new-name">
+          Name
+        </label>
         <input id="new-name" className="field" {...form.register("name")} />
-        <p className="field-error" aria-live="polite">{e.name?.message}</p>
+        <p className="field-error" aria-live="polite">
+          {e.name?.message}
+        </p>
       </div>
       <div>
-        <label className="label" htmlFor="new-grid">Site grid (origin, axes, units are metres)</label>
+        <label className="label" htmlFor="new-grid">
+          Site grid (origin, axes, units are metres)
+        </label>
         <textarea id="new-grid" className="field min-h-20" {...form.register("gridDescription")} />
       </div>
       <p className="text-sm text-ink-soft">You will be the site&apos;s director and can add people afterwards.</p>
       <div className="flex gap-2">
-        <button className="btn-primary" type="submit" disabled={create.isPending}>Open site</button>
-        <button className="btn" type="button" onClick={() => setOpen(false)}>Cancel</button>
+        <button className="btn-primary" type="submit" disabled={create.isPending}>
+          Open site
+        </button>
+        <button className="btn" type="button" onClick={() => setOpen(false)}>
+          Cancel
+        </button>
       </div>
     </form>
   );

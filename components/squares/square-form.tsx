@@ -14,7 +14,15 @@ export type SquareFormContext = { id: string; number: number; state: string };
  * The compact form a tapped square opens: the context (and spit) dug, the area dug when not the whole
  * square, and a count (and weight) per class. A class left blank was not counted; 0 is a count.
  */
-export function SquareForm({ siteId, trenchId, square, samples, classes, contexts, onDone }: {
+export function SquareForm({
+  siteId,
+  trenchId,
+  square,
+  samples,
+  classes,
+  contexts,
+  onDone,
+}: {
   siteId: string;
   trenchId: string;
   square: Square;
@@ -31,7 +39,9 @@ export function SquareForm({ siteId, trenchId, square, samples, classes, context
     queryFn: () => apiClient.call("spitsList", { siteId, contextId }) as Promise<{ id: string; number: number }[]>,
     enabled: Boolean(contextId),
   });
-  const existing = samples.find((s) => s.col === square.col && s.row === square.row && s.contextId === contextId && (s.spitId ?? "") === spitId);
+  const existing = samples.find(
+    (s) => s.col === square.col && s.row === square.row && s.contextId === contextId && (s.spitId ?? "") === spitId,
+  );
   const [area, setArea] = useState("");
   const [counts, setCounts] = useState<Record<string, { count: string; weight: string }>>({});
   const [errors, setErrors] = useState<Record<string, string[]>>({});
@@ -41,7 +51,14 @@ export function SquareForm({ siteId, trenchId, square, samples, classes, context
   // Show what this square already holds in the chosen context and spit.
   useEffect(() => {
     setArea(existing?.excavatedArea != null ? String(existing.excavatedArea) : "");
-    setCounts(Object.fromEntries((existing?.counts ?? []).map((c) => [c.classId, { count: String(c.count), weight: c.weightG == null ? "" : String(c.weightG) }])));
+    setCounts(
+      Object.fromEntries(
+        (existing?.counts ?? []).map((c) => [
+          c.classId,
+          { count: String(c.count), weight: c.weightG == null ? "" : String(c.weightG) },
+        ]),
+      ),
+    );
     setErrors({});
     setFailure(null);
   }, [existing?.id, existing?.updatedAt]); // eslint-disable-line react-hooks/exhaustive-deps
@@ -58,7 +75,11 @@ export function SquareForm({ siteId, trenchId, square, samples, classes, context
         contextId,
         spitId: spitId || null,
         excavatedArea: area.trim() === "" ? null : area.trim(),
-        counts: entered.map((c) => ({ classId: c.id, count: counts[c.id]!.count.trim(), weightG: counts[c.id]!.weight.trim() === "" ? null : counts[c.id]!.weight.trim() })),
+        counts: entered.map((c) => ({
+          classId: c.id,
+          count: counts[c.id]!.count.trim(),
+          weightG: counts[c.id]!.weight.trim() === "" ? null : counts[c.id]!.weight.trim(),
+        })),
       } as never);
       onDone(`Square ${square.label} saved.`);
     } catch (err) {
@@ -91,39 +112,108 @@ export function SquareForm({ siteId, trenchId, square, samples, classes, context
 
   const fieldError = (key: string) => errors[key]?.join(" ") ?? "";
   return (
-    <form aria-label={`Counts in square ${square.label}`} className="space-y-2" onSubmit={(e) => { e.preventDefault(); void save(); }} noValidate>
-      <h3 className="font-bold">Square {square.label} <span className="font-normal text-ink-soft">({formatValue(square.area)} m² inside the trench)</span></h3>
-      {open.length === 0 && <p className="text-warn">Every context of this trench is submitted or signed off; counts cannot be entered.</p>}
+    <form
+      aria-label={`Counts in square ${square.label}`}
+      className="space-y-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        void save();
+      }}
+      noValidate
+    >
+      <h3 className="font-bold">
+        Square {square.label}{" "}
+        <span className="font-normal text-ink-soft">({formatValue(square.area)} m² inside the trench)</span>
+      </h3>
+      {open.length === 0 && (
+        <p className="text-warn">Every context of this trench is submitted or signed off; counts cannot be entered.</p>
+      )}
       <div className="grid gap-2 sm:grid-cols-3">
-        <label className="flex flex-col"><span className="label">Context</span>
-          <select className="field" value={contextId} onChange={(e) => { setContextId(e.target.value); setSpitId(""); }}>
-            {open.map((c) => <option key={c.id} value={c.id}>{c.number}</option>)}
+        <label className="flex flex-col">
+          <span className="label">Context</span>
+          <select
+            className="field"
+            value={contextId}
+            onChange={(e) => {
+              setContextId(e.target.value);
+              setSpitId("");
+            }}
+          >
+            {open.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.number}
+              </option>
+            ))}
           </select>
         </label>
-        <label className="flex flex-col"><span className="label">Spit</span>
+        <label className="flex flex-col">
+          <span className="label">Spit</span>
           <select className="field" value={spitId} onChange={(e) => setSpitId(e.target.value)}>
             <option value="">not dug in spits</option>
-            {(spits.data ?? []).map((s) => <option key={s.id} value={s.id}>{s.number}</option>)}
+            {(spits.data ?? []).map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.number}
+              </option>
+            ))}
           </select>
         </label>
-        <label className="flex flex-col"><span className="label">Area dug (m²)</span>
-          <input className="field num" inputMode="decimal" value={area} placeholder="whole square" onChange={(e) => setArea(e.target.value)} aria-describedby="sq-area-error" />
-          <span id="sq-area-error" className="field-error" aria-live="polite">{fieldError("excavatedArea")}</span>
+        <label className="flex flex-col">
+          <span className="label">Area dug (m²)</span>
+          <input
+            className="field num"
+            inputMode="decimal"
+            value={area}
+            placeholder="whole square"
+            onChange={(e) => setArea(e.target.value)}
+            aria-describedby="sq-area-error"
+          />
+          <span id="sq-area-error" className="field-error" aria-live="polite">
+            {fieldError("excavatedArea")}
+          </span>
         </label>
       </div>
       <table className="text-sm" aria-label="Counts by class">
-        <thead><tr><th className="pr-3 text-left">Class</th><th className="pr-3 text-left">Count</th><th className="text-left">Weight (g)</th></tr></thead>
+        <thead>
+          <tr>
+            <th className="pr-3 text-left">Class</th>
+            <th className="pr-3 text-left">Count</th>
+            <th className="text-left">Weight (g)</th>
+          </tr>
+        </thead>
         <tbody>
           {classes.map((c) => (
             <tr key={c.id}>
-              <td className="pr-3">{c.code} <span className="text-ink-soft">{c.label}</span></td>
               <td className="pr-3">
-                <input className="field num w-24" inputMode="numeric" aria-label={`Count of ${c.code}`} placeholder="not counted" value={counts[c.id]?.count ?? ""} onChange={(e) => setCounts({ ...counts, [c.id]: { count: e.target.value, weight: counts[c.id]?.weight ?? "" } })} />
-                <span className="field-error block" aria-live="polite">{fieldError(`${c.id}.count`)}</span>
+                {c.code} <span className="text-ink-soft">{c.label}</span>
+              </td>
+              <td className="pr-3">
+                <input
+                  className="field num w-24"
+                  inputMode="numeric"
+                  aria-label={`Count of ${c.code}`}
+                  placeholder="not counted"
+                  value={counts[c.id]?.count ?? ""}
+                  onChange={(e) =>
+                    setCounts({ ...counts, [c.id]: { count: e.target.value, weight: counts[c.id]?.weight ?? "" } })
+                  }
+                />
+                <span className="field-error block" aria-live="polite">
+                  {fieldError(`${c.id}.count`)}
+                </span>
               </td>
               <td>
-                <input className="field num w-24" inputMode="decimal" aria-label={`Weight of ${c.code} in grams`} value={counts[c.id]?.weight ?? ""} onChange={(e) => setCounts({ ...counts, [c.id]: { count: counts[c.id]?.count ?? "", weight: e.target.value } })} />
-                <span className="field-error block" aria-live="polite">{fieldError(`${c.id}.weightG`)}</span>
+                <input
+                  className="field num w-24"
+                  inputMode="decimal"
+                  aria-label={`Weight of ${c.code} in grams`}
+                  value={counts[c.id]?.weight ?? ""}
+                  onChange={(e) =>
+                    setCounts({ ...counts, [c.id]: { count: counts[c.id]?.count ?? "", weight: e.target.value } })
+                  }
+                />
+                <span className="field-error block" aria-live="polite">
+                  {fieldError(`${c.id}.weightG`)}
+                </span>
               </td>
             </tr>
           ))}
@@ -131,11 +221,21 @@ export function SquareForm({ siteId, trenchId, square, samples, classes, context
       </table>
       <p className="text-xs text-ink-soft">Leave a class blank if it was not counted; enter 0 when none were found.</p>
       <div className="flex flex-wrap gap-2">
-        <button type="submit" className="btn-primary" disabled={busy || !contextId}>Save the square</button>
-        {existing && <button type="button" className="btn-danger" disabled={busy} onClick={() => void remove()}>Not dug here</button>}
-        <button type="button" className="btn" onClick={() => onDone("")}>Close</button>
+        <button type="submit" className="btn-primary" disabled={busy || !contextId}>
+          Save the square
+        </button>
+        {existing && (
+          <button type="button" className="btn-danger" disabled={busy} onClick={() => void remove()}>
+            Not dug here
+          </button>
+        )}
+        <button type="button" className="btn" onClick={() => onDone("")}>
+          Close
+        </button>
       </div>
-      <p className="field-error" role="alert" aria-live="assertive">{failure ?? ""}</p>
+      <p className="field-error" role="alert" aria-live="assertive">
+        {failure ?? ""}
+      </p>
     </form>
   );
 }

@@ -17,7 +17,11 @@ export function SquareImport({ siteId, trenchId }: { siteId: string; trenchId: s
     if (!file) return;
     setMessage(null);
     try {
-      const r = await apiClient.call("squareImport", { siteId }, { trenchId, csv: file.text, fileName: file.name, dryRun });
+      const r = await apiClient.call(
+        "squareImport",
+        { siteId },
+        { trenchId, csv: file.text, fileName: file.name, dryRun },
+      );
       setReport(r);
       if (!dryRun) setMessage(`Imported ${r.rowCount} rows into ${r.squares} square records.`);
     } catch (err) {
@@ -28,19 +32,57 @@ export function SquareImport({ siteId, trenchId }: { siteId: string; trenchId: s
   };
   return (
     <div className="space-y-2">
-      <p className="text-sm text-ink-soft">One row per square, context, spit and class. Columns: <code>square</code> (south-west corner, easting/northing), <code>context</code>, <code>spit</code> (optional), <code>class</code>, <code>count</code>, <code>weight_g</code> and <code>excavated_m2</code> (optional).</p>
-      <input type="file" accept=".csv,text/csv" aria-label="Square-count CSV file" onChange={async (e) => { const f = e.target.files?.[0]; setReport(null); setMessage(null); setFile(f ? { name: f.name, text: await f.text() } : null); }} />
+      <p className="text-sm text-ink-soft">
+        One row per square, context, spit and class. Columns: <code>square</code> (south-west corner, easting/northing),{" "}
+        <code>context</code>, <code>spit</code> (optional), <code>class</code>, <code>count</code>,{" "}
+        <code>weight_g</code> and <code>excavated_m2</code> (optional).
+      </p>
+      <input
+        type="file"
+        accept=".csv,text/csv"
+        aria-label="Square-count CSV file"
+        onChange={async (e) => {
+          const f = e.target.files?.[0];
+          setReport(null);
+          setMessage(null);
+          setFile(f ? { name: f.name, text: await f.text() } : null);
+        }}
+      />
       <div className="flex gap-2">
-        <button type="button" className="btn" disabled={!file} onClick={() => void send(true)}>Check the rows</button>
-        <button type="button" className="btn-primary" disabled={!file || !report || report.errors.length > 0 || !report.dryRun} onClick={() => void send(false)}>Import</button>
+        <button type="button" className="btn" disabled={!file} onClick={() => void send(true)}>
+          Check the rows
+        </button>
+        <button
+          type="button"
+          className="btn-primary"
+          disabled={!file || !report || report.errors.length > 0 || !report.dryRun}
+          onClick={() => void send(false)}
+        >
+          Import
+        </button>
       </div>
-      {report && report.dryRun && <p aria-live="polite"><span className="num">{report.rowCount}</span> rows · <span className="num text-ok">{report.validCount}</span> pass · <span className={`num ${report.errors.length ? "text-warn" : ""}`}>{report.errors.length}</span> refused · {report.squares} square records</p>}
+      {report && report.dryRun && (
+        <p aria-live="polite">
+          <span className="num">{report.rowCount}</span> rows · <span className="num text-ok">{report.validCount}</span>{" "}
+          pass · <span className={`num ${report.errors.length ? "text-warn" : ""}`}>{report.errors.length}</span>{" "}
+          refused · {report.squares} square records
+        </p>
+      )}
       {report && report.errors.length > 0 && (
-        <ul className="max-h-64 overflow-y-auto rounded border-2 border-warn bg-warn-light p-2 text-sm" aria-label="Refused rows">
-          {report.errors.slice(0, 500).map((e) => <li key={e.row}><span className="num font-bold">Row {e.row}</span>: {e.reasons.join("; ")}</li>)}
+        <ul
+          className="max-h-64 overflow-y-auto rounded border-2 border-warn bg-warn-light p-2 text-sm"
+          aria-label="Refused rows"
+        >
+          {report.errors.slice(0, 500).map((e) => (
+            <li key={e.row}>
+              <span className="num font-bold">Row {e.row}</span>: {e.reasons.join("; ")}
+            </li>
+          ))}
         </ul>
       )}
-      <p role="status" aria-live="polite">{message ?? ""}</p>
+      <p role="status" aria-live="polite">
+        {message ?? ""}
+      </p>
     </div>
   );
 }

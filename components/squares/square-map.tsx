@@ -4,7 +4,21 @@ const PAPER = "#efe6d3";
 const INK = "#2e2116";
 const n4 = (v: number) => Number(v.toFixed(4));
 
-function Swatch({ kind, fill, x, y, s, hatch }: { kind: MapCell["kind"]; fill?: string; x: number; y: number; s: number; hatch: string }) {
+function Swatch({
+  kind,
+  fill,
+  x,
+  y,
+  s,
+  hatch,
+}: {
+  kind: MapCell["kind"];
+  fill?: string;
+  x: number;
+  y: number;
+  s: number;
+  hatch: string;
+}) {
   const common = { x, y, width: s, height: s, stroke: INK, strokeWidth: s / 30 };
   if (kind === "value") return <rect {...common} fill={fill} />;
   if (kind === "zero") return <rect {...common} fill="#ffffff" />;
@@ -18,7 +32,15 @@ function Swatch({ kind, fill, x, y, s, hatch }: { kind: MapCell["kind"]; fill?: 
  * exported SVG or PNG keeps it. No hooks: the trench record prints it from the server; the squares panel
  * passes `onCell` to make each square a button.
  */
-export function SquareMap({ id, outline, cells, legend, onCell, selected, ariaLabel }: {
+export function SquareMap({
+  id,
+  outline,
+  cells,
+  legend,
+  onCell,
+  selected,
+  ariaLabel,
+}: {
   id: string;
   outline: [number, number][][];
   cells: MapCell[];
@@ -30,13 +52,19 @@ export function SquareMap({ id, outline, cells, legend, onCell, selected, ariaLa
   const all = outline.flat();
   const xs = all.map((p) => p[0]).concat(cells.flatMap((c) => [c.x0, c.x1]));
   const ys = all.map((p) => p[1]).concat(cells.flatMap((c) => [c.y0, c.y1]));
-  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
-  const w = maxX - minX, h = maxY - minY;
+  const minX = Math.min(...xs),
+    maxX = Math.max(...xs),
+    minY = Math.min(...ys),
+    maxY = Math.max(...ys);
+  const w = maxX - minX,
+    h = maxY - minY;
   const span = Math.max(w, h, 1e-9);
   const pad = span * 0.04;
   const font = span / 34;
   const sy = (y: number) => maxY - y;
-  const path = outline.map((ring) => "M" + ring.map(([x, y]) => `${n4(x - minX)},${n4(sy(y))}`).join("L") + "Z").join(" ");
+  const path = outline
+    .map((ring) => "M" + ring.map(([x, y]) => `${n4(x - minX)},${n4(sy(y))}`).join("L") + "Z")
+    .join(" ");
   const legendTop = h + pad;
   const rowH = font * 1.6;
   const legendRows = 1 + (legend.note ? 1 : 0) + legend.items.length;
@@ -46,27 +74,79 @@ export function SquareMap({ id, outline, cells, legend, onCell, selected, ariaLa
   const smallest = Math.min(...cells.map((c) => Math.min(c.x1 - c.x0, c.y1 - c.y0)), span);
   const cellFont = Math.min(font, smallest / 2.6);
   return (
-    <svg viewBox={`${n4(-pad)} ${n4(-pad)} ${n4(w + 2 * pad)} ${n4(height)}`} className="h-auto w-full" role="img" aria-label={ariaLabel} data-testid={`${id}-svg`}>
+    <svg
+      viewBox={`${n4(-pad)} ${n4(-pad)} ${n4(w + 2 * pad)} ${n4(height)}`}
+      className="h-auto w-full"
+      role="img"
+      aria-label={ariaLabel}
+      data-testid={`${id}-svg`}
+    >
       <defs>
-        <pattern id={hatch} patternUnits="userSpaceOnUse" width={span / 60} height={span / 60} patternTransform="rotate(45)">
+        <pattern
+          id={hatch}
+          patternUnits="userSpaceOnUse"
+          width={span / 60}
+          height={span / 60}
+          patternTransform="rotate(45)"
+        >
           <rect width={span / 60} height={span / 60} fill={PAPER} />
           <line x1={0} y1={0} x2={0} y2={span / 60} stroke="#a89c86" strokeWidth={span / 300} />
         </pattern>
-        <clipPath id={clip}><path d={path} clipRule="evenodd" /></clipPath>
+        <clipPath id={clip}>
+          <path d={path} clipRule="evenodd" />
+        </clipPath>
       </defs>
       <path d={path} fill={PAPER} fillRule="evenodd" />
       <g clipPath={`url(#${clip})`}>
         {cells.map((c) => {
           const key = `${c.col},${c.row}`;
-          const x = n4(c.x0 - minX), y = n4(sy(c.y1)), cw = n4(c.x1 - c.x0), ch = n4(c.y1 - c.y0);
-          const fill = c.kind === "value" ? c.fill : c.kind === "zero" ? "#ffffff" : c.kind === "not-counted" ? "#c9c2b4" : `url(#${hatch})`;
-          const tap = onCell ? { onClick: () => onCell(c), role: "button", tabIndex: 0, "aria-label": `Square ${c.label}: ${c.title}`, onKeyDown: (e: { key: string }) => (e.key === "Enter" || e.key === " ") && onCell(c), style: { cursor: "pointer" } } : {};
+          const x = n4(c.x0 - minX),
+            y = n4(sy(c.y1)),
+            cw = n4(c.x1 - c.x0),
+            ch = n4(c.y1 - c.y0);
+          const fill =
+            c.kind === "value"
+              ? c.fill
+              : c.kind === "zero"
+                ? "#ffffff"
+                : c.kind === "not-counted"
+                  ? "#c9c2b4"
+                  : `url(#${hatch})`;
+          const tap = onCell
+            ? {
+                onClick: () => onCell(c),
+                role: "button",
+                tabIndex: 0,
+                "aria-label": `Square ${c.label}: ${c.title}`,
+                onKeyDown: (e: { key: string }) => (e.key === "Enter" || e.key === " ") && onCell(c),
+                style: { cursor: "pointer" },
+              }
+            : {};
           return (
             <g key={key} data-square={c.label} data-kind={c.kind} {...tap}>
               <title>{`Square ${c.label}: ${c.title}`}</title>
-              <rect x={x} y={y} width={cw} height={ch} fill={fill} stroke={selected === key ? "#d55e00" : "#ffffff"} strokeWidth={selected === key ? span / 120 : span / 500} />
+              <rect
+                x={x}
+                y={y}
+                width={cw}
+                height={ch}
+                fill={fill}
+                stroke={selected === key ? "#d55e00" : "#ffffff"}
+                strokeWidth={selected === key ? span / 120 : span / 500}
+              />
               {c.text && cellFont > span / 200 && (
-                <text x={n4(x + cw / 2)} y={n4(y + ch / 2)} fontSize={n4(cellFont)} textAnchor="middle" dominantBaseline="middle" fill={c.dark ? "#ffffff" : INK} fontFamily="monospace" pointerEvents="none">{c.text}</text>
+                <text
+                  x={n4(x + cw / 2)}
+                  y={n4(y + ch / 2)}
+                  fontSize={n4(cellFont)}
+                  textAnchor="middle"
+                  dominantBaseline="middle"
+                  fill={c.dark ? "#ffffff" : INK}
+                  fontFamily="monospace"
+                  pointerEvents="none"
+                >
+                  {c.text}
+                </text>
               )}
             </g>
           );
@@ -74,14 +154,22 @@ export function SquareMap({ id, outline, cells, legend, onCell, selected, ariaLa
       </g>
       <path d={path} fill="none" stroke={INK} strokeWidth={span / 250} fillRule="evenodd" pointerEvents="none" />
       <g fontSize={n4(font)} fill={INK} fontFamily="Georgia, serif">
-        <text x={0} y={n4(legendTop + font)} fontWeight="bold">{legend.title}</text>
-        {legend.note && <text x={0} y={n4(legendTop + rowH + font)}>{legend.note}</text>}
+        <text x={0} y={n4(legendTop + font)} fontWeight="bold">
+          {legend.title}
+        </text>
+        {legend.note && (
+          <text x={0} y={n4(legendTop + rowH + font)}>
+            {legend.note}
+          </text>
+        )}
         {legend.items.map((it, i) => {
           const top = legendTop + rowH * (i + 1 + (legend.note ? 1 : 0));
           return (
             <g key={i}>
               <Swatch kind={it.kind} fill={it.fill} x={0} y={n4(top + font * 0.15)} s={n4(font)} hatch={hatch} />
-              <text x={n4(font * 1.5)} y={n4(top + font)}>{it.label}</text>
+              <text x={n4(font * 1.5)} y={n4(top + font)}>
+                {it.label}
+              </text>
             </g>
           );
         })}

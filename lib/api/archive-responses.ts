@@ -37,7 +37,12 @@ export const sampleRow = sampleRecord.omit({ takenBy: true, updatedAt: true, spi
   spitNumber: z.number().nullable(),
 });
 
-export const samplePage = z.object({ page: z.number(), pageSize: z.number(), total: z.number(), rows: z.array(sampleRow) });
+export const samplePage = z.object({
+  page: z.number(),
+  pageSize: z.number(),
+  total: z.number(),
+  rows: z.array(sampleRow),
+});
 export const deletedSample = z.object({ deleted: id, number: z.number() });
 export const sampleStatusDone = z.object({ changed: z.number(), status: z.enum(sampleStatuses) });
 
@@ -45,4 +50,8 @@ export type SampleRecord = z.output<typeof sampleRecord>;
 export type SampleRow = z.output<typeof sampleRow>;
 
 /** What a bulk edit of finds did: how many changed, and their numbers. */
-export const bulkDone = z.object({ action: z.enum(["move", "reclass", "delete"]), changed: z.number(), numbers: z.array(z.number()) });
+export const bulkDone = z.object({
+  action: z.enum(["move", "reclass", "delete"]),
+  changed: z.number(),
+  numbers: z.array(z.number()),
+});

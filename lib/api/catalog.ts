@@ -18,7 +18,18 @@ export type { ApiOperation } from "./operation";
  * fetch layer (lib/api/client.ts) all read this table, so a new route cannot skip any of them. Each feature
  * keeps its operations in lib/api/catalog/<feature>.ts. Pure data: no server code is imported here.
  */
-export const api = { ...coreApi, ...planApi, ...recordingApi, ...signOffApi, ...patternsApi, ...levelsApi, ...squaresApi, ...archiveApi, ...offlineApi, ...publicApi };
+export const api = {
+  ...coreApi,
+  ...planApi,
+  ...recordingApi,
+  ...signOffApi,
+  ...patternsApi,
+  ...levelsApi,
+  ...squaresApi,
+  ...archiveApi,
+  ...offlineApi,
+  ...publicApi,
+};
 
 export type ApiName = keyof typeof api;
 export const noInput = emptyQuery;

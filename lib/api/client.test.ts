@@ -9,7 +9,10 @@ function answer(status: number, body: unknown): Sent[] {
   const sent: Sent[] = [];
   vi.stubGlobal("fetch", async (url: string, init: RequestInit) => {
     sent.push({ url, init });
-    return new Response(body === undefined ? "" : JSON.stringify(body), { status, headers: { "content-type": "application/json" } });
+    return new Response(body === undefined ? "" : JSON.stringify(body), {
+      status,
+      headers: { "content-type": "application/json" },
+    });
   });
   return sent;
 }
@@ -37,7 +40,12 @@ describe("buildRequest", () => {
 
   it("sends no body where the operation takes none", () => {
     const req = buildRequest("runCancel", { siteId, runId: findId });
-    expect(req).toEqual({ operation: "runCancel", method: "POST", url: `/api/sites/${siteId}/runs/${findId}/cancel`, headers: {} });
+    expect(req).toEqual({
+      operation: "runCancel",
+      method: "POST",
+      url: `/api/sites/${siteId}/runs/${findId}/cancel`,
+      headers: {},
+    });
   });
 
   it("refuses a path with a missing part instead of calling a wrong address", () => {
@@ -55,11 +63,23 @@ describe("apiClient.call", () => {
   });
 
   it("turns a refusal into one ApiError with status, message, field errors and details", async () => {
-    answer(400, { error: "The find is outside its trench.", fieldErrors: { x: ["0.4 m outside"] }, details: { distance: 0.4 } });
-    const err = await apiClient.call("findsCreate", { siteId }, { contextId: findId, classId: findId, x: 11, y: 2 }).catch((e: unknown) => e);
+    answer(400, {
+      error: "The find is outside its trench.",
+      fieldErrors: { x: ["0.4 m outside"] },
+      details: { distance: 0.4 },
+    });
+    const err = await apiClient
+      .call("findsCreate", { siteId }, { contextId: findId, classId: findId, x: 11, y: 2 })
+      .catch((e: unknown) => e);
     expect(err).toBeInstanceOf(ApiError);
     const e = err as ApiError;
-    expect([e.status, e.message, e.fieldErrors, e.hasFieldErrors, e.detail("distance")]).toEqual([400, "The find is outside its trench.", { x: ["0.4 m outside"] }, true, 0.4]);
+    expect([e.status, e.message, e.fieldErrors, e.hasFieldErrors, e.detail("distance")]).toEqual([
+      400,
+      "The find is outside its trench.",
+      { x: ["0.4 m outside"] },
+      true,
+      0.4,
+    ]);
   });
 
   it("names the status when the server's answer is not JSON", async () => {

@@ -43,16 +43,29 @@ export class ApiError extends Error {
 
   /** One named part of the refusal's details (a distance, the numbers of finds left outside). */
   detail(key: string): unknown {
-    return this.details && typeof this.details === "object" ? (this.details as Record<string, unknown>)[key] : undefined;
+    return this.details && typeof this.details === "object"
+      ? (this.details as Record<string, unknown>)[key]
+      : undefined;
   }
 }
 
 /** One request, ready to send and plain enough to store (an outbox keeps these). */
-export type ApiRequest = { operation: ApiName; method: string; url: string; headers: Record<string, string>; body?: string };
+export type ApiRequest = {
+  operation: ApiName;
+  method: string;
+  url: string;
+  headers: Record<string, string>;
+  body?: string;
+};
 export type CallOptions = { signal?: AbortSignal; headers?: Record<string, string> };
 
 /** Builds the request of an operation: path from the catalogue, query or JSON body as it declares. */
-export function buildRequest<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>, headers: Record<string, string> = {}): ApiRequest {
+export function buildRequest<N extends ApiName>(
+  name: N,
+  params: ApiParams<N>,
+  input?: ApiInput<N>,
+  headers: Record<string, string> = {},
+): ApiRequest {
   const op = api[name] as { method: string; path: string; from?: string };
   const values = params as Record<string, string>;
   let url = op.path.replace(/\{(\w+)\}/g, (_, key: string) => {
@@ -63,12 +76,19 @@ export function buildRequest<N extends ApiName>(name: N, params: ApiParams<N>, i
   const from = op.from ?? (op.method === "GET" || op.method === "DELETE" ? "query" : "body");
   if (from === "query" && input) {
     const query = new URLSearchParams();
-    for (const [k, v] of Object.entries(input as Record<string, unknown>)) if (v !== undefined && v !== null && v !== "") query.set(k, String(v));
+    for (const [k, v] of Object.entries(input as Record<string, unknown>))
+      if (v !== undefined && v !== null && v !== "") query.set(k, String(v));
     const text = query.toString();
     if (text) url += `?${text}`;
   }
   if (from !== "body") return { operation: name, method: op.method, url, headers };
-  return { operation: name, method: op.method, url, headers: { ...headers, "content-type": "application/json" }, body: JSON.stringify(input ?? {}) };
+  return {
+    operation: name,
+    method: op.method,
+    url,
+    headers: { ...headers, "content-type": "application/json" },
+    body: JSON.stringify(input ?? {}),
+  };
 }
 
 /** Sends one request; a refusal becomes an ApiError in the server's words. */
@@ -82,8 +102,19 @@ export async function sendRequest(req: ApiRequest, signal?: AbortSignal): Promis
     body = null;
   }
   if (!res.ok) {
-    const b = (body ?? {}) as { error?: unknown; code?: unknown; fieldErrors?: Record<string, string[]>; details?: unknown };
-    throw new ApiError(typeof b.error === "string" ? b.error : `The server answered ${res.status}.`, res.status, b.fieldErrors ?? {}, b.details, typeof b.code === "string" ? b.code : undefined);
+    const b = (body ?? {}) as {
+      error?: unknown;
+      code?: unknown;
+      fieldErrors?: Record<string, string[]>;
+      details?: unknown;
+    };
+    throw new ApiError(
+      typeof b.error === "string" ? b.error : `The server answered ${res.status}.`,
+      res.status,
+      b.fieldErrors ?? {},
+      b.details,
+      typeof b.code === "string" ? b.code : undefined,
+    );
   }
   return body;
 }
@@ -103,7 +134,12 @@ export function sendWrite(req: ApiRequest, signal?: AbortSignal): Promise<unknow
 }
 
 /** Calls an operation by name: `apiClient.call("findsCreate", { siteId }, body)`. */
-async function call<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<N>, options: CallOptions = {}): Promise<ApiAnswer<N>> {
+async function call<N extends ApiName>(
+  name: N,
+  params: ApiParams<N>,
+  input?: ApiInput<N>,
+  options: CallOptions = {},
+): Promise<ApiAnswer<N>> {
   const req = buildRequest(name, params, input, options.headers);
   if (req.method === "GET") return (await sendRequest(req, options.signal)) as ApiAnswer<N>;
   const answer = await sendWrite(req, options.signal);

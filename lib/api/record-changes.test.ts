@@ -7,7 +7,11 @@ const other = "0b7d7c1e-1d2f-4a3b-8c4d-5e6f7a8b9c0d";
 
 describe("record changes", () => {
   it("reads the site from a write's path, and nothing from a path outside a site", () => {
-    expect(siteOfWrite(buildRequest("relationsCreate", { siteId: site }, { contextId: other, reading: "above", otherId: other }).url)).toBe(site);
+    expect(
+      siteOfWrite(
+        buildRequest("relationsCreate", { siteId: site }, { contextId: other, reading: "above", otherId: other }).url,
+      ),
+    ).toBe(site);
     expect(siteOfWrite(`/api/sites/${site}?x=1`)).toBe(site);
     expect(siteOfWrite("/api/sites")).toBeNull();
   });

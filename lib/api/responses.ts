@@ -51,36 +51,88 @@ export const registerRow = findRecord.extend({
   classSymbol: z.string(),
 });
 
-export const findPage = z.object({ page: z.number(), pageSize: z.number(), total: z.number(), rows: z.array(registerRow) });
+export const findPage = z.object({
+  page: z.number(),
+  pageSize: z.number(),
+  total: z.number(),
+  rows: z.array(registerRow),
+});
 
 export const deletedFind = z.object({ deleted: id, number: z.number() });
 
-export const classRow = z.object({ id, code: z.string(), label: z.string(), material: z.string(), colour: z.string(), symbol: z.string(), humanRemains: z.boolean() });
+export const classRow = z.object({
+  id,
+  code: z.string(),
+  label: z.string(),
+  material: z.string(),
+  colour: z.string(),
+  symbol: z.string(),
+  humanRemains: z.boolean(),
+});
 
-const polygon = z.object({ type: z.literal("Polygon"), coordinates: z.array(z.array(z.tuple([z.number(), z.number()]))) });
+const polygon = z.object({
+  type: z.literal("Polygon"),
+  coordinates: z.array(z.array(z.tuple([z.number(), z.number()]))),
+});
 
-export const contextRow = z.object({ id, trenchId: id, number: z.number(), type: z.string(), state: contextStates, signedOffAt: wireDate.nullable(), extent: polygon.nullable(), version: z.number().int() });
+export const contextRow = z.object({
+  id,
+  trenchId: id,
+  number: z.number(),
+  type: z.string(),
+  state: contextStates,
+  signedOffAt: wireDate.nullable(),
+  extent: polygon.nullable(),
+  version: z.number().int(),
+});
 
-export const trenchRow = z.object({ id, code: z.string(), name: z.string(), outline: polygon.nullable(), version: z.number().int() });
+export const trenchRow = z.object({
+  id,
+  code: z.string(),
+  name: z.string(),
+  outline: polygon.nullable(),
+  version: z.number().int(),
+});
 
 export const createdSite = z.object({ id, code: z.string() });
 
 /** A relation read from one context's side. */
-export const relationReading = z.object({ relationId: id, reading: z.enum(relationReadings), label: z.string(), otherId: id, otherNumber: z.number(), redundant: z.boolean() });
+export const relationReading = z.object({
+  relationId: id,
+  reading: z.enum(relationReadings),
+  label: z.string(),
+  otherId: id,
+  otherNumber: z.number(),
+  redundant: z.boolean(),
+});
 export const relationRow = z.object({ id, fromId: id, toId: id, kind: z.enum(relationKinds) });
 /** With a context: its relations read from its side; without: every stored relation of the site. */
 export const relationsAnswer = z.union([z.array(relationReading), z.array(relationRow)]);
 
 export const memberRow = z.object({ userId: id, name: z.string(), email: z.string(), role: roleSchema });
 
-const invitation = z.object({ id, email: z.string(), role: roleSchema, expiresAt: wireDate, acceptedAt: wireDate.nullable(), createdAt: wireDate });
-export const invitationRow = invitation.extend({ status: z.enum(["pending", "accepted", "expired"]), invitedByName: z.string().nullable() });
+const invitation = z.object({
+  id,
+  email: z.string(),
+  role: roleSchema,
+  expiresAt: wireDate,
+  acceptedAt: wireDate.nullable(),
+  createdAt: wireDate,
+});
+export const invitationRow = invitation.extend({
+  status: z.enum(["pending", "accepted", "expired"]),
+  invitedByName: z.string().nullable(),
+});
 
 const delivery = z.object({ sent: z.number(), failed: z.number(), error: z.string().optional() });
 export const sentInvitation = z.object({ invitation, mail: delivery });
 
 /** What a step of the sign-off flow answers: the context, and the mail it sent. */
-export const signOffOutcome = z.object({ context: z.object({ id, state: contextStates }), trenchSignedOff: z.boolean().optional(), mail: delivery });
+export const signOffOutcome = z.object({
+  context: z.object({ id, state: contextStates }),
+  trenchSignedOff: z.boolean().optional(),
+  mail: delivery,
+});
 
 /** Typed, not checked field by field: the photo view is built by one function on the server (toPhotoView). */
 export const photoView = z.custom<PhotoView>();
@@ -107,4 +159,10 @@ export const importPreview = z.object({
   validCount: z.number(),
 });
 
-export const importDone = z.object({ imported: z.number(), firstNumber: z.number(), lastNumber: z.number(), importId: id, warnings: z.number() });
+export const importDone = z.object({
+  imported: z.number(),
+  firstNumber: z.number(),
+  lastNumber: z.number(),
+  importId: id,
+  warnings: z.number(),
+});

@@ -58,7 +58,10 @@ export async function startMailSink({ port, dir, host = "127.0.0.1" }: MailSinkO
           writeFileSync(`${file}.part`, JSON.stringify(message, null, 2));
           renameSync(`${file}.part`, file);
         })
-        .then(() => callback(), (err: Error) => callback(err));
+        .then(
+          () => callback(),
+          (err: Error) => callback(err),
+        );
     },
   });
   await new Promise<void>((resolve, reject) => {

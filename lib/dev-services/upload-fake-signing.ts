@@ -20,8 +20,10 @@ export function parseToken(token: string): FakeToken {
     throw new Error("upload fake: the token is not base64 of JSON");
   }
   const t = parsed as Partial<FakeToken>;
-  if (typeof t.apiKey !== "string" || !t.apiKey.startsWith("sk_")) throw new Error("upload fake: the token's apiKey must start with sk_");
-  if (typeof t.appId !== "string" || !Array.isArray(t.regions) || t.regions.length === 0) throw new Error("upload fake: the token needs appId and regions");
+  if (typeof t.apiKey !== "string" || !t.apiKey.startsWith("sk_"))
+    throw new Error("upload fake: the token's apiKey must start with sk_");
+  if (typeof t.appId !== "string" || !Array.isArray(t.regions) || t.regions.length === 0)
+    throw new Error("upload fake: the token needs appId and regions");
   return t as FakeToken;
 }
 
@@ -36,8 +38,7 @@ export function sameSignature(a: string, b: string): boolean {
 }
 
 export type PresignedCheck =
-  | { ok: true; key: string; params: URLSearchParams }
-  | { ok: false; status: 400 | 403; error: string };
+  { ok: true; key: string; params: URLSearchParams } | { ok: false; status: 400 | 403; error: string };
 
 /**
  * Verifies a presigned URL as received: `base` is scheme + host the client addressed, `pathAndQuery` the
@@ -47,7 +48,8 @@ export function checkPresigned(base: string, pathAndQuery: string, token: FakeTo
   const checked = checkSignature(base, pathAndQuery, token, now, "upload URL");
   if (!checked.ok) return checked;
   const { url } = checked;
-  if (url.searchParams.get("x-ut-identifier") !== token.appId) return { ok: false, status: 403, error: "The upload URL names another app." };
+  if (url.searchParams.get("x-ut-identifier") !== token.appId)
+    return { ok: false, status: 403, error: "The upload URL names another app." };
   const key = decodeURIComponent(url.pathname.slice(1));
   if (!key || key.includes("/")) return { ok: false, status: 400, error: "The upload URL names no file key." };
   return { ok: true, key, params: url.searchParams };
@@ -57,12 +59,23 @@ export function checkPresigned(base: string, pathAndQuery: string, token: FakeTo
  * The signature and expiry of a URL signed with the apiKey (`expires=<ms>&…&signature=hmac-sha256=<hex>` as
  * the SDK's generateSignedURL writes it); `what` names the URL in the refusal.
  */
-export function checkSignature(base: string, pathAndQuery: string, token: FakeToken, now: number, what: string): { ok: true; url: URL } | { ok: false; status: 403; error: string } {
+export function checkSignature(
+  base: string,
+  pathAndQuery: string,
+  token: FakeToken,
+  now: number,
+  what: string,
+): { ok: true; url: URL } | { ok: false; status: 403; error: string } {
   const at = pathAndQuery.lastIndexOf("&signature=");
   if (at < 0) return { ok: false, status: 403, error: `The ${what} carries no signature.` };
   const signed = base + pathAndQuery.slice(0, at);
   const given = decodeURIComponent(pathAndQuery.slice(at + "&signature=".length));
-  if (!sameSignature(given, sign(signed, token.apiKey))) return { ok: false, status: 403, error: `The ${what}'s signature does not match (tampered or signed with another key).` };
+  if (!sameSignature(given, sign(signed, token.apiKey)))
+    return {
+      ok: false,
+      status: 403,
+      error: `The ${what}'s signature does not match (tampered or signed with another key).`,
+    };
   const url = new URL(signed);
   const expires = Number(url.searchParams.get("expires"));
   if (!Number.isFinite(expires) || expires < now) return { ok: false, status: 403, error: `The ${what} has expired.` };

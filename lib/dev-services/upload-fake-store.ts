@@ -35,7 +35,11 @@ export function fakeStore(dir: string) {
       return (await meta(key))?.received ?? 0;
     },
     /** Writes `bytes` at `offset`; completes the file (hash, time) when every declared byte is in. */
-    async write(base: Omit<StoredMeta, "received" | "fileHash" | "uploadedAt">, offset: number, bytes: Uint8Array): Promise<StoredMeta> {
+    async write(
+      base: Omit<StoredMeta, "received" | "fileHash" | "uploadedAt">,
+      offset: number,
+      bytes: Uint8Array,
+    ): Promise<StoredMeta> {
       const prior = await meta(base.key);
       const fh = await open(dataPath(base.key), offset === 0 ? "w" : "r+");
       try {
@@ -68,7 +72,11 @@ export function fakeStore(dir: string) {
       const all = await Promise.all(names.map((n) => meta(decodeURIComponent(n.slice(0, -5)))));
       return all.filter((m): m is StoredMeta => m !== null).sort((a, b) => (a.uploadedAt ?? 0) - (b.uploadedAt ?? 0));
     },
-    exists: (key: string) => stat(dataPath(key)).then(() => true, () => false),
+    exists: (key: string) =>
+      stat(dataPath(key)).then(
+        () => true,
+        () => false,
+      ),
   };
 }
 

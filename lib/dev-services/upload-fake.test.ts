@@ -38,7 +38,11 @@ async function serveApp(handler: (req: Request) => Promise<Response>) {
     const chunks: Buffer[] = [];
     for await (const c of req) chunks.push(c as Buffer);
     const body = chunks.length ? Buffer.concat(chunks) : undefined;
-    const request = new Request(`http://${req.headers.host}${req.url}`, { method: req.method, headers: req.headers as Record<string, string>, body });
+    const request = new Request(`http://${req.headers.host}${req.url}`, {
+      method: req.method,
+      headers: req.headers as Record<string, string>,
+      body,
+    });
     const out = await handler(request);
     res.writeHead(out.status, Object.fromEntries(out.headers.entries()));
     res.end(Buffer.from(await out.arrayBuffer()));
@@ -87,7 +91,13 @@ afterAll(async () => {
 
 describe("UTApi against the fake", () => {
   it("uploads, lists, serves and deletes a file", async () => {
-    const utapi = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, apiUrl: fake.url, ...fake.ufs, logLevel: "Error" });
+    const utapi = new UTApi({
+      token: FAKE_UPLOADTHING_TOKEN,
+      ingestUrl: fake.url,
+      apiUrl: fake.url,
+      ...fake.ufs,
+      logLevel: "Error",
+    });
     const bytes = pngBytes(5000);
     const up = await utapi.uploadFiles(new UTFile([bytes], "peg-plan.png"));
     expect(up.error).toBeNull();
@@ -102,7 +112,13 @@ describe("UTApi against the fake", () => {
   });
 
   it("keeps files private: served on a URL signed with the api key or to the key itself, refused to anyone else", async () => {
-    const utapi = new UTApi({ token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, apiUrl: fake.url, ...fake.ufs, logLevel: "Error" });
+    const utapi = new UTApi({
+      token: FAKE_UPLOADTHING_TOKEN,
+      ingestUrl: fake.url,
+      apiUrl: fake.url,
+      ...fake.ufs,
+      logLevel: "Error",
+    });
     const up = await utapi.uploadFiles(new UTFile([pngBytes(3000)], "context-sheet.png"));
     const key = up.data!.key;
     // Signed out, with the key the upload reported: no.
@@ -135,7 +151,13 @@ for (const isDev of [false, true]) {
     beforeAll(async () => {
       const handlers = createRouteHandler({
         router,
-        config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev, logLevel: "Error", handleDaemonPromise: isDev ? "void" : "await" },
+        config: {
+          token: FAKE_UPLOADTHING_TOKEN,
+          ingestUrl: fake.url,
+          isDev,
+          logLevel: "Error",
+          handleDaemonPromise: isDev ? "void" : "await",
+        },
       });
       app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req as never) : handlers.GET(req as never)));
     });
@@ -157,8 +179,14 @@ for (const isDev of [false, true]) {
     });
 
     it("handles several uploads at once", async () => {
-      const runs = await Promise.all([1, 2, 3].map(async (i) => (await browserUpload(app.url, "photo", pngBytes(1000 * i), `p${i}.png`)).put()));
-      expect(runs.map((r) => r.json.serverData)).toEqual([{ stored: "p1.png" }, { stored: "p2.png" }, { stored: "p3.png" }]);
+      const runs = await Promise.all(
+        [1, 2, 3].map(async (i) => (await browserUpload(app.url, "photo", pngBytes(1000 * i), `p${i}.png`)).put()),
+      );
+      expect(runs.map((r) => r.json.serverData)).toEqual([
+        { stored: "p1.png" },
+        { stored: "p2.png" },
+        { stored: "p3.png" },
+      ]);
     });
   });
 }
@@ -166,7 +194,10 @@ for (const isDev of [false, true]) {
 describe("presigned URL checks and resumable PUT", () => {
   let app: Awaited<ReturnType<typeof serveApp>>;
   beforeAll(async () => {
-    const handlers = createRouteHandler({ router, config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" } });
+    const handlers = createRouteHandler({
+      router,
+      config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" },
+    });
     app = await serveApp((req) => (req.method === "POST" ? handlers.POST(req as never) : handlers.GET(req as never)));
   });
   afterAll(() => app.close());

@@ -12,7 +12,17 @@
 import http, { type IncomingMessage, type ServerResponse } from "node:http";
 import { Readable } from "node:stream";
 import type { AddressInfo } from "node:net";
-import { checkPresigned, checkSignature, FAKE_UPLOADTHING_TOKEN, fileKeyOf, parseToken, sameSignature, sign, utParam, type FakeToken } from "./upload-fake-signing";
+import {
+  checkPresigned,
+  checkSignature,
+  FAKE_UPLOADTHING_TOKEN,
+  fileKeyOf,
+  parseToken,
+  sameSignature,
+  sign,
+  utParam,
+  type FakeToken,
+} from "./upload-fake-signing";
 import { fakeStore, type FakeStore, type StoredMeta } from "./upload-fake-store";
 
 export { FAKE_UPLOADTHING_TOKEN } from "./upload-fake-signing";
@@ -116,7 +126,18 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
   };
   const fileData = (m: StoredMeta) => {
     const url = `${origin}/f/${encodeURIComponent(m.key)}`;
-    return { name: m.name, size: m.size, type: m.type, customId: m.customId, lastModified: m.lastModified, key: m.key, url, appUrl: url, ufsUrl: url, fileHash: m.fileHash ?? "" };
+    return {
+      name: m.name,
+      size: m.size,
+      type: m.type,
+      customId: m.customId,
+      lastModified: m.lastModified,
+      key: m.key,
+      url,
+      appUrl: url,
+      ufsUrl: url,
+      fileHash: m.fileHash ?? "",
+    };
   };
   const apiKeyOk = (req: IncomingMessage) => {
     const given = req.headers["x-uploadthing-api-key"];
@@ -124,7 +145,12 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
   };
 
   /** Delivers one hook to the app, by stream (dev) or POST (production). Resolves false if the app refused it. */
-  async function deliver(reg: Registration, key: string, hook: "callback" | "error", payload: string): Promise<boolean> {
+  async function deliver(
+    reg: Registration,
+    key: string,
+    hook: "callback" | "error",
+    payload: string,
+  ): Promise<boolean> {
     const signature = sign(payload, token.apiKey);
     reg.delivered.add(key);
     if (reg.isDev) {
@@ -151,7 +177,8 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
   async function onRouteMetadata(req: IncomingMessage, res: ServerResponse) {
     if (!apiKeyOk(req)) return send(res, 401, { error: "Invalid or missing x-uploadthing-api-key." });
     const body = await readJson(req);
-    if (!Array.isArray(body.fileKeys) || typeof body.callbackSlug !== "string") return send(res, 400, { error: "route-metadata needs fileKeys and callbackSlug." });
+    if (!Array.isArray(body.fileKeys) || typeof body.callbackSlug !== "string")
+      return send(res, 400, { error: "route-metadata needs fileKeys and callbackSlug." });
     const reg: Registration = {
       keys: new Set(body.fileKeys.map(String)),
       metadata: (body.metadata ?? {}) as Record<string, unknown>,
@@ -187,7 +214,8 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
     const start = Number(range[1]);
     const prior = await store.meta(key);
     if (prior?.uploadedAt) return send(res, 409, { error: "This file key is already uploaded." });
-    if (start !== (prior?.received ?? 0)) return send(res, 416, { error: `Resume from byte ${prior?.received ?? 0}, not ${start}.` });
+    if (start !== (prior?.received ?? 0))
+      return send(res, 416, { error: `Resume from byte ${prior?.received ?? 0}, not ${start}.` });
     let file: File | null = null;
     try {
       const form = await new Request(`http://fake${target}`, {
@@ -203,13 +231,24 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
     }
     if (!file) return send(res, 400, { error: "The upload has no file field." });
     const bytes = new Uint8Array(await file.arrayBuffer());
-    if (start + bytes.length > size) return send(res, 400, { error: `The file is larger than the ${size} bytes the URL was signed for.` });
+    if (start + bytes.length > size)
+      return send(res, 400, { error: `The file is larger than the ${size} bytes the URL was signed for.` });
     const stored = await store.write(
-      { key, name: utParam(params, "x-ut-file-name") ?? "file", size, type: utParam(params, "x-ut-file-type") ?? "application/octet-stream", customId: utParam(params, "x-ut-custom-id") ?? null, lastModified: Date.now() },
+      {
+        key,
+        name: utParam(params, "x-ut-file-name") ?? "file",
+        size,
+        type: utParam(params, "x-ut-file-type") ?? "application/octet-stream",
+        customId: utParam(params, "x-ut-custom-id") ?? null,
+        lastModified: Date.now(),
+      },
       start,
       bytes,
     );
-    if (!stored.uploadedAt) return send(res, 400, { error: `Incomplete upload: ${stored.received} of ${size} bytes received; resume from there.` });
+    if (!stored.uploadedAt)
+      return send(res, 400, {
+        error: `Incomplete upload: ${stored.received} of ${size} bytes received; resume from there.`,
+      });
     const data = fileData(stored);
     const slug = utParam(params, "x-ut-slug");
     if (!slug) return send(res, 200, data); // UTApi.uploadFiles: no route, no callback.
@@ -224,7 +263,9 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
     }
     const accepted = await delivering;
     if (!accepted) return send(res, 200, { ...data, error: "The app refused the upload-complete callback." });
-    const outcome = await withTimeout<CallbackResult>(result.promise, callbackTimeoutMs, { error: "The app did not confirm the upload in time." });
+    const outcome = await withTimeout<CallbackResult>(result.promise, callbackTimeoutMs, {
+      error: "The app did not confirm the upload in time.",
+    });
     results.delete(key);
     if (outcome.error) return send(res, 200, { ...data, error: outcome.error });
     send(res, 200, { ...data, serverData: outcome.callbackData ?? null });
@@ -234,7 +275,9 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
     if (!apiKeyOk(req)) return send(res, 401, { error: "Invalid or missing x-uploadthing-api-key." });
     const body = await readJson(req);
     if (typeof body.fileKey !== "string") return send(res, 400, { error: "callback-result needs fileKey." });
-    resultFor(body.fileKey).resolve(body.error ? { error: String(body.error) } : { callbackData: body.callbackData ?? null });
+    resultFor(body.fileKey).resolve(
+      body.error ? { error: String(body.error) } : { callbackData: body.callbackData ?? null },
+    );
     send(res, 200, { ok: true });
   }
 
@@ -247,13 +290,20 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
       for (const k of keys) if (await store.remove(k)) deletedCount++;
       return send(res, 200, { success: true, deletedCount });
     }
-    if (op === "getFileUrl") return send(res, 200, { data: keys.map((k) => ({ key: k, url: `${origin}/f/${encodeURIComponent(k)}` })) });
+    if (op === "getFileUrl")
+      return send(res, 200, { data: keys.map((k) => ({ key: k, url: `${origin}/f/${encodeURIComponent(k)}` })) });
     if (op === "listFiles") {
       const all = await store.list();
       const offset = Number(body.offset ?? 0);
       const limit = Number(body.limit ?? 500);
       const page = all.slice(offset, offset + limit).map((m) => ({
-        id: m.key, customId: m.customId, key: m.key, name: m.name, size: m.size, status: m.uploadedAt ? "Uploaded" : "Uploading", uploadedAt: m.uploadedAt ?? 0,
+        id: m.key,
+        customId: m.customId,
+        key: m.key,
+        name: m.name,
+        size: m.size,
+        status: m.uploadedAt ? "Uploaded" : "Uploading",
+        uploadedAt: m.uploadedAt ?? 0,
       }));
       return send(res, 200, { hasMore: offset + limit < all.length, files: page });
     }
@@ -275,13 +325,19 @@ export async function startUploadFake(options: UploadFakeOptions): Promise<Uploa
     if (fileKey !== null) {
       if (!apiKeyOk(req)) {
         const check = checkSignature(base, target, token, Date.now(), "file URL");
-        if (!check.ok) return send(res, check.status, { error: `${check.error} Files here are private: ask the app for them.` });
+        if (!check.ok)
+          return send(res, check.status, { error: `${check.error} Files here are private: ask the app for them.` });
       }
       const key = fileKey;
       const m = await store.meta(key);
       if (!m?.uploadedAt) return send(res, 404, { error: "No such file." });
       const data = await store.read(key);
-      res.writeHead(200, { ...cors, "content-type": m.type, "content-length": String(data.length), "cache-control": "private, no-store" });
+      res.writeHead(200, {
+        ...cors,
+        "content-type": m.type,
+        "content-length": String(data.length),
+        "cache-control": "private, no-store",
+      });
       return res.end(req.method === "HEAD" ? undefined : data);
     }
     if (req.method === "HEAD") {

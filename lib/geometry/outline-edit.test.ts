@@ -1,14 +1,36 @@
 import { describe, expect, it } from "vitest";
 import { checkOutline } from "./outline";
-import { deleteVertex, insertVertex, locateProblem, moveVertex, nearestEdge, parseOutlineText, ringsToPolygon, type Rings } from "./outline-edit";
+import {
+  deleteVertex,
+  insertVertex,
+  locateProblem,
+  moveVertex,
+  nearestEdge,
+  parseOutlineText,
+  ringsToPolygon,
+  type Rings,
+} from "./outline-edit";
 import { fitBounds, gridLines, niceStep, scaleBar, toScreen, toWorld, zoomAt } from "./plan-view";
 
-const square: Rings = [[[0, 0], [10, 0], [10, 6], [0, 6]]];
+const square: Rings = [
+  [
+    [0, 0],
+    [10, 0],
+    [10, 6],
+    [0, 6],
+  ],
+];
 
 describe("outline editing steps", () => {
   it("inserts, moves and deletes vertices, and the result validates with its area", () => {
     let r = insertVertex(square, 0, 0, [5, -1]);
-    expect(r[0]).toEqual([[0, 0], [5, -1], [10, 0], [10, 6], [0, 6]]);
+    expect(r[0]).toEqual([
+      [0, 0],
+      [5, -1],
+      [10, 0],
+      [10, 6],
+      [0, 6],
+    ]);
     r = moveVertex(r, 0, 1, [5, 0]);
     const check = checkOutline(ringsToPolygon(r));
     expect(check.ok && check.window.area).toBe(60); // 10 m × 6 m, the inserted vertex lies on the edge
@@ -17,7 +39,18 @@ describe("outline editing steps", () => {
   });
 
   it("refuses to leave the edge with fewer than three vertices; a hole of three goes altogether", () => {
-    const tri: Rings = [[[0, 0], [4, 0], [0, 4]], [[1, 1], [2, 1], [1, 2]]];
+    const tri: Rings = [
+      [
+        [0, 0],
+        [4, 0],
+        [0, 4],
+      ],
+      [
+        [1, 1],
+        [2, 1],
+        [1, 2],
+      ],
+    ];
     expect(() => deleteVertex(tri, 0, 0)).toThrow(/at least three/);
     expect(deleteVertex(tri, 1, 0)).toHaveLength(1);
   });
@@ -29,19 +62,56 @@ describe("outline editing steps", () => {
   });
 
   it("locates a self-crossing and a hole outside the edge", () => {
-    const bow: Rings = [[[0, 0], [4, 4], [4, 0], [0, 4]]];
+    const bow: Rings = [
+      [
+        [0, 0],
+        [4, 4],
+        [4, 0],
+        [0, 4],
+      ],
+    ];
     expect(locateProblem(bow)).toEqual({ ring: 0, edges: [0, 2] });
     expect(checkOutline(ringsToPolygon(bow)).ok).toBe(false);
-    const outside: Rings = [...square, [[11, 1], [12, 1], [12, 2]]];
+    const outside: Rings = [
+      ...square,
+      [
+        [11, 1],
+        [12, 1],
+        [12, 2],
+      ],
+    ];
     expect(locateProblem(outside)).toMatchObject({ ring: 1, rings: [0, 1] });
-    expect(locateProblem([...square, [[4, 2], [6, 2], [6, 3], [4, 3]]])).toBeNull();
+    expect(
+      locateProblem([
+        ...square,
+        [
+          [4, 2],
+          [6, 2],
+          [6, 3],
+          [4, 3],
+        ],
+      ]),
+    ).toBeNull();
   });
 });
 
 describe("pasted coordinates", () => {
   it("reads CSV with a header and a blank line before a hole", () => {
     const rings = parseOutlineText("x,y\n0,0\n10,0\n10,6\n0,6\n0,0\n\n4,2\n6,2\n6,3\n4,3\n");
-    expect(rings).toEqual([[[0, 0], [10, 0], [10, 6], [0, 6]], [[4, 2], [6, 2], [6, 3], [4, 3]]]);
+    expect(rings).toEqual([
+      [
+        [0, 0],
+        [10, 0],
+        [10, 6],
+        [0, 6],
+      ],
+      [
+        [4, 2],
+        [6, 2],
+        [6, 3],
+        [4, 3],
+      ],
+    ]);
     const check = checkOutline(ringsToPolygon(rings));
     expect(check.ok && check.window.area).toBe(58); // 60 m² less the 2 m² baulk
   });
@@ -51,9 +121,27 @@ describe("pasted coordinates", () => {
   });
 
   it("reads GeoJSON Feature and FeatureCollection", () => {
-    const poly = { type: "Polygon", coordinates: [[[0, 0], [2, 0], [2, 2], [0, 0]]] };
-    expect(parseOutlineText(JSON.stringify({ type: "Feature", geometry: poly, properties: {} }))).toEqual([[[0, 0], [2, 0], [2, 2]]]);
-    expect(parseOutlineText(JSON.stringify({ type: "FeatureCollection", features: [{ type: "Feature", geometry: poly }] }))).toHaveLength(1);
+    const poly = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [0, 0],
+          [2, 0],
+          [2, 2],
+          [0, 0],
+        ],
+      ],
+    };
+    expect(parseOutlineText(JSON.stringify({ type: "Feature", geometry: poly, properties: {} }))).toEqual([
+      [
+        [0, 0],
+        [2, 0],
+        [2, 2],
+      ],
+    ]);
+    expect(
+      parseOutlineText(JSON.stringify({ type: "FeatureCollection", features: [{ type: "Feature", geometry: poly }] })),
+    ).toHaveLength(1);
   });
 
   it("names the bad line or type", () => {

@@ -26,7 +26,8 @@ function ringOf(rings: Rings, k: number): Pt[] {
 /** Drops a repeated closing vertex. */
 export function openRing(ring: readonly Pt[]): Pt[] {
   const r = ring.map((p) => [p[0], p[1]] as Pt);
-  const first = r[0], last = r[r.length - 1];
+  const first = r[0],
+    last = r[r.length - 1];
   if (r.length > 1 && first && last && first[0] === last[0] && first[1] === last[1]) r.pop();
   return r;
 }
@@ -36,13 +37,20 @@ export function polygonToRings(polygon: OutlinePolygon): Rings {
 }
 
 export function ringsToPolygon(rings: Rings): OutlinePolygon {
-  return { type: "Polygon", coordinates: rings.map((r) => [...r.map((p) => [p[0], p[1]] as Pt), [...vertex(r, 0)] as Pt]) };
+  return {
+    type: "Polygon",
+    coordinates: rings.map((r) => [...r.map((p) => [p[0], p[1]] as Pt), [...vertex(r, 0)] as Pt]),
+  };
 }
 
 const replaceRing = (rings: Rings, k: number, ring: Pt[]) => rings.map((r, i) => (i === k ? ring : r));
 
 export function moveVertex(rings: Rings, k: number, v: number, to: Pt): Rings {
-  return replaceRing(rings, k, ringOf(rings, k).map((p, i) => (i === v ? to : p)));
+  return replaceRing(
+    rings,
+    k,
+    ringOf(rings, k).map((p, i) => (i === v ? to : p)),
+  );
 }
 
 /** Inserts `at` after vertex `edge` (on the edge from vertex edge to edge + 1). */
@@ -55,7 +63,12 @@ export function insertVertex(rings: Rings, k: number, edge: number, at: Pt): Rin
 /** Removes a vertex; a ring keeps at least three. Removing from a hole of three removes the hole. */
 export function deleteVertex(rings: Rings, k: number, v: number): Rings {
   const ring = ringOf(rings, k);
-  if (ring.length > 3) return replaceRing(rings, k, ring.filter((_, i) => i !== v));
+  if (ring.length > 3)
+    return replaceRing(
+      rings,
+      k,
+      ring.filter((_, i) => i !== v),
+    );
   if (k === 0) throw new Error("The trench edge needs at least three vertices.");
   return rings.filter((_, i) => i !== k);
 }
@@ -97,7 +110,8 @@ export function locateProblem(rings: Rings): Problem | null {
     if (ringsTouch(hole, outer) || !insideRing(outer, hx, hy)) return { ring: k, edges: [], rings: [0, k] };
     for (const [l, g] of holes.slice(0, h).entries()) {
       const [gx, gy] = vertex(g, 0);
-      if (ringsTouch(hole, g) || insideRing(g, hx, hy) || insideRing(hole, gx, gy)) return { ring: k, edges: [], rings: [l + 1, k] };
+      if (ringsTouch(hole, g) || insideRing(g, hx, hy) || insideRing(hole, gx, gy))
+        return { ring: k, edges: [], rings: [l + 1, k] };
     }
   }
   return null;
@@ -106,22 +120,27 @@ export function locateProblem(rings: Rings): Problem | null {
 function ringsFromGeoJson(value: unknown): Rings {
   const v = value as { type?: string; coordinates?: unknown; geometry?: unknown; features?: unknown[] };
   if (v?.type === "FeatureCollection") {
-    const first = (v.features ?? []).find((f) => ["Polygon", "MultiPolygon"].includes((f as { geometry?: { type?: string } })?.geometry?.type ?? ""));
+    const first = (v.features ?? []).find((f) =>
+      ["Polygon", "MultiPolygon"].includes((f as { geometry?: { type?: string } })?.geometry?.type ?? ""),
+    );
     if (!first) throw new Error("The GeoJSON holds no Polygon feature.");
     return ringsFromGeoJson((first as { geometry: unknown }).geometry);
   }
   if (v?.type === "Feature") return ringsFromGeoJson(v.geometry);
   if (v?.type === "MultiPolygon") {
     const polys = v.coordinates as Pt[][][];
-    if (polys.length !== 1) throw new Error(`The GeoJSON MultiPolygon has ${polys.length} parts; a trench outline is one polygon.`);
+    if (polys.length !== 1)
+      throw new Error(`The GeoJSON MultiPolygon has ${polys.length} parts; a trench outline is one polygon.`);
     return ringsFromGeoJson({ type: "Polygon", coordinates: polys[0] ?? [] });
   }
-  if (v?.type !== "Polygon" || !Array.isArray(v.coordinates)) throw new Error(`GeoJSON of type ${v?.type ?? "unknown"} is not a Polygon.`);
+  if (v?.type !== "Polygon" || !Array.isArray(v.coordinates))
+    throw new Error(`GeoJSON of type ${v?.type ?? "unknown"} is not a Polygon.`);
   return (v.coordinates as unknown[][]).map((ring, k) =>
     openRing(
       ring.map((p, i) => {
         const q = p as unknown[];
-        if (!Array.isArray(q) || !Number.isFinite(q[0]) || !Number.isFinite(q[1])) throw new Error(`Ring ${k + 1}, position ${i + 1} is not [x, y].`);
+        if (!Array.isArray(q) || !Number.isFinite(q[0]) || !Number.isFinite(q[1]))
+          throw new Error(`Ring ${k + 1}, position ${i + 1} is not [x, y].`);
         return [Number(q[0]), Number(q[1])] as Pt;
       }),
     ),
@@ -157,10 +176,12 @@ export function parseOutlineText(text: string): Rings {
     }
     if (i === 0 && cells.some((c) => c !== "" && !Number.isFinite(Number(c)))) return; // header
     const [x, y, ring] = cells.map(Number);
-    if (x === undefined || y === undefined || !Number.isFinite(x) || !Number.isFinite(y)) throw new Error(`Line ${i + 1} ("${row.join(",")}") is not two numbers x,y.`);
+    if (x === undefined || y === undefined || !Number.isFinite(x) || !Number.isFinite(y))
+      throw new Error(`Line ${i + 1} ("${row.join(",")}") is not two numbers x,y.`);
     if (ring !== undefined && cells[2] !== "") {
       byColumn = true;
-      if (!Number.isInteger(ring) || ring < 0) throw new Error(`Line ${i + 1}: the ring column must be 0 for the edge, 1, 2… for holes.`);
+      if (!Number.isInteger(ring) || ring < 0)
+        throw new Error(`Line ${i + 1}: the ring column must be 0 for the edge, 1, 2… for holes.`);
       while (rings.length <= ring) rings.push([]);
       ringOf(rings, ring).push([x, y]);
     } else {

@@ -1,9 +1,18 @@
 import { z } from "zod";
 import { numeric } from "@/lib/schemas/common";
 
-const pixel = numeric(z.number({ error: "A photo position must be a number of pixels." }).finite("A photo position must be a number of pixels."));
+const pixel = numeric(
+  z
+    .number({ error: "A photo position must be a number of pixels." })
+    .finite("A photo position must be a number of pixels."),
+);
 const gridMetres = (error: string) =>
-  numeric(z.number({ error }).finite("Enter a finite number of metres.").refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."));
+  numeric(
+    z
+      .number({ error })
+      .finite("Enter a finite number of metres.")
+      .refine((v) => Math.abs(v) < 1e7, "That coordinate is implausibly far from the site grid origin."),
+  );
 
 /** A control point as the plan sends it: a pixel of the display photo and its site-grid position. */
 export const controlPointSchema = z.object({
@@ -14,7 +23,10 @@ export const controlPointSchema = z.object({
 });
 
 export const photoFitInputSchema = z.object({
-  points: z.array(controlPointSchema).min(2, "A fit needs at least 2 control points.").max(50, "Use at most 50 control points."),
+  points: z
+    .array(controlPointSchema)
+    .min(2, "A fit needs at least 2 control points.")
+    .max(50, "Use at most 50 control points."),
   /** Leave out to let the number of points choose (2 similarity, 3 affine, 4+ projective). */
   model: z.enum(["similarity", "affine", "projective"]).optional(),
 });

@@ -31,7 +31,10 @@ const projective = [0.0041, 0.0009, 12.5, -0.0004, -0.0049, 30.25, 2e-6, -3e-6, 
 
 describe("fitPhoto recovers known transforms from synthetic control points", () => {
   it("similarity from two points, including the photo's y mirror", () => {
-    const pts = through(similarity, [[120, 80], [3900, 2700]]);
+    const pts = through(similarity, [
+      [120, 80],
+      [3900, 2700],
+    ]);
     const fit = fitPhoto(pts);
     expect(fit.model).toBe("similarity");
     expectMatrix(fit.matrix, similarity);
@@ -44,16 +47,39 @@ describe("fitPhoto recovers known transforms from synthetic control points", () 
   });
 
   it("affine from three points", () => {
-    const fit = fitPhoto(through(affine, [[0, 0], [4000, 300], [900, 3000]]));
+    const fit = fitPhoto(
+      through(affine, [
+        [0, 0],
+        [4000, 300],
+        [900, 3000],
+      ]),
+    );
     expect(fit.model).toBe("affine");
     expectMatrix(fit.matrix, affine);
   });
 
   it("projective from four points and from seven (over-determined, noise-free)", () => {
-    const four = fitPhoto(through(projective, [[0, 0], [4000, 0], [4000, 3000], [0, 3000]]));
+    const four = fitPhoto(
+      through(projective, [
+        [0, 0],
+        [4000, 0],
+        [4000, 3000],
+        [0, 3000],
+      ]),
+    );
     expect(four.model).toBe("projective");
     expectMatrix(four.matrix, projective, 1e-7);
-    const seven = fitPhoto(through(projective, [[10, 20], [3900, 40], [3950, 2950], [30, 2980], [2000, 1500], [1000, 2500], [3000, 700]]));
+    const seven = fitPhoto(
+      through(projective, [
+        [10, 20],
+        [3900, 40],
+        [3950, 2950],
+        [30, 2980],
+        [2000, 1500],
+        [1000, 2500],
+        [3000, 700],
+      ]),
+    );
     expectMatrix(seven.matrix, projective, 1e-7);
     expect(seven.rms).toBeLessThan(1e-6);
     expect(seven.redundancy).toBe(3);
@@ -68,7 +94,15 @@ describe("fitPhoto recovers known transforms from synthetic control points", () 
   });
 
   it("a lower model may be chosen when more points are given", () => {
-    const fit = fitPhoto(through(similarity, [[0, 0], [4000, 0], [0, 3000], [4000, 3000]]), { model: "similarity" });
+    const fit = fitPhoto(
+      through(similarity, [
+        [0, 0],
+        [4000, 0],
+        [0, 3000],
+        [4000, 3000],
+      ]),
+      { model: "similarity" },
+    );
     expect(fit.model).toBe("similarity");
     expect(fit.redundancy).toBe(2);
     expectMatrix(fit.matrix, similarity);
@@ -83,15 +117,39 @@ describe("projective fits are refined in metres after the DLT", () => {
     return () => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
   }
   // Twelve pegs across a 4000 × 3000 photo, their surveyed positions off by about 2 cm (σ per axis).
-  const pixels: [number, number][] = [[60, 40], [1400, 90], [2700, 30], [3950, 70], [3900, 1500], [3960, 2960], [2600, 2900], [1300, 2950], [40, 2980], [80, 1400], [1500, 1200], [2800, 1900]];
-  const rmsOf = (m: number[], pts: ControlPoint[]) => Math.sqrt(pts.reduce((a, p) => { const [x, y] = applyFit(m, p.px, p.py); return a + (x - p.x) ** 2 + (y - p.y) ** 2; }, 0) / pts.length);
+  const pixels: [number, number][] = [
+    [60, 40],
+    [1400, 90],
+    [2700, 30],
+    [3950, 70],
+    [3900, 1500],
+    [3960, 2960],
+    [2600, 2900],
+    [1300, 2950],
+    [40, 2980],
+    [80, 1400],
+    [1500, 1200],
+    [2800, 1900],
+  ];
+  const rmsOf = (m: number[], pts: ControlPoint[]) =>
+    Math.sqrt(
+      pts.reduce((a, p) => {
+        const [x, y] = applyFit(m, p.px, p.py);
+        return a + (x - p.x) ** 2 + (y - p.y) ** 2;
+      }, 0) / pts.length,
+    );
 
   // An oblique photo (w from 0.7 to 1.6 over the frame): the DLT's algebraic error weights each peg by
   // its w, so its answer is visibly off the least-squares answer in metres.
   const oblique = [0.0041, 0.0009, 12.5, -0.0004, -0.0049, 30.25, 1.5e-4, -1e-4, 1];
 
   it("noisy pegs: a smaller RMS in metres than the DLT alone, and a minimum of that RMS", () => {
-    for (const [truth, seed] of [[projective, 7], [oblique, 7], [oblique, 1234], [oblique, 99991]] as const) {
+    for (const [truth, seed] of [
+      [projective, 7],
+      [oblique, 7],
+      [oblique, 1234],
+      [oblique, 99991],
+    ] as const) {
       const noise = normals(seed);
       const pts = through(truth, pixels).map((p) => ({ ...p, x: p.x + 0.02 * noise(), y: p.y + 0.02 * noise() }));
       const dlt = fitPhoto(pts, { refine: false });
@@ -137,7 +195,9 @@ describe("projective fits are refined in metres after the DLT", () => {
     // rms ≈ σ·√2·√((2N − p)/(2N)) = 0.01·√(4/3) ≈ 0.0115 m. Its spread (χ² on 16 degrees of freedom) is about
     // 18 % of that, so the common ±50 % tolerance is near three spreads either way: far from fitting the noise
     // away, and far from a fit that wandered off.
-    const sigma = 0.01, n = pixels.length, params = 8;
+    const sigma = 0.01,
+      n = pixels.length,
+      params = 8;
     const expectedRms = sigma * Math.SQRT2 * Math.sqrt((2 * n - params) / (2 * n));
     expect(fit.rms).toBeGreaterThan(0.5 * expectedRms);
     expect(fit.rms).toBeLessThan(1.5 * expectedRms);
@@ -171,7 +231,10 @@ describe("residuals", () => {
   });
 
   it("a two-point similarity is exact: both residuals are zero whatever the points", () => {
-    const fit = fitPhoto([{ px: 10, py: 10, x: 3, y: 4 }, { px: 510, py: 10, x: 5.5, y: 4 }]);
+    const fit = fitPhoto([
+      { px: 10, py: 10, x: 3, y: 4 },
+      { px: 510, py: 10, x: 5.5, y: 4 },
+    ]);
     expect(Math.max(...fit.residuals)).toBeLessThan(1e-9);
     // 500 px over 2.5 m: 5 mm a pixel; pixel (10, 210) is 1 m south of the first peg (photo y runs down).
     const [x, y] = applyFit(fit.matrix, 10, 210);
@@ -193,16 +256,56 @@ describe("degenerate control points are refused with the reason", () => {
   };
 
   it("too few points", () => refuse([{ px: 0, py: 0, x: 0, y: 0 }], /at least 2/));
-  it("duplicate photo points", () => refuse([{ px: 5, py: 5, x: 0, y: 0 }, { px: 5.2, py: 5, x: 1, y: 1 }], /Points 1 and 2 .*same spot.*duplicate/));
-  it("duplicate grid points", () => refuse([{ px: 5, py: 5, x: 1, y: 1 }, { px: 50, py: 5, x: 1, y: 1 }], /same grid position/));
+  it("duplicate photo points", () =>
+    refuse(
+      [
+        { px: 5, py: 5, x: 0, y: 0 },
+        { px: 5.2, py: 5, x: 1, y: 1 },
+      ],
+      /Points 1 and 2 .*same spot.*duplicate/,
+    ));
+  it("duplicate grid points", () =>
+    refuse(
+      [
+        { px: 5, py: 5, x: 1, y: 1 },
+        { px: 50, py: 5, x: 1, y: 1 },
+      ],
+      /same grid position/,
+    ));
   it("three collinear points for an affine fit", () =>
-    refuse([{ px: 0, py: 0, x: 0, y: 0 }, { px: 100, py: 100, x: 1, y: 0 }, { px: 200, py: 200, x: 0, y: 1 }], /one line on the photo \(collinear\)/));
+    refuse(
+      [
+        { px: 0, py: 0, x: 0, y: 0 },
+        { px: 100, py: 100, x: 1, y: 0 },
+        { px: 200, py: 200, x: 0, y: 1 },
+      ],
+      /one line on the photo \(collinear\)/,
+    ));
   it("collinear grid positions", () =>
-    refuse([{ px: 0, py: 0, x: 0, y: 0 }, { px: 100, py: 0, x: 1, y: 1 }, { px: 0, py: 100, x: 2, y: 2 }], /one line on the grid/));
+    refuse(
+      [
+        { px: 0, py: 0, x: 0, y: 0 },
+        { px: 100, py: 0, x: 1, y: 1 },
+        { px: 0, py: 100, x: 2, y: 2 },
+      ],
+      /one line on the grid/,
+    ));
   it("four points with three in line for a projective fit", () =>
     refuse(
-      [{ px: 0, py: 0, x: 0, y: 0 }, { px: 100, py: 0, x: 1, y: 0 }, { px: 200, py: 0, x: 2, y: 0.001 }, { px: 0, py: 100, x: 0, y: -1 }],
+      [
+        { px: 0, py: 0, x: 0, y: 0 },
+        { px: 100, py: 0, x: 1, y: 0 },
+        { px: 200, py: 0, x: 2, y: 0.001 },
+        { px: 0, py: 100, x: 0, y: -1 },
+      ],
       /Points 1, 2, 3 lie on one line/,
     ));
-  it("non-finite grid coordinates", () => refuse([{ px: 0, py: 0, x: NaN, y: 0 }, { px: 1, py: 1, x: 1, y: 1 }], /finite/));
+  it("non-finite grid coordinates", () =>
+    refuse(
+      [
+        { px: 0, py: 0, x: NaN, y: 0 },
+        { px: 1, py: 1, x: 1, y: 1 },
+      ],
+      /finite/,
+    ));
 });

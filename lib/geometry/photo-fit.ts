@@ -34,7 +34,10 @@ export type PhotoFit = {
 };
 
 export class PhotoFitError extends Error {
-  constructor(message: string, readonly points: number[] = []) {
+  constructor(
+    message: string,
+    readonly points: number[] = [],
+  ) {
     super(message);
     this.name = "PhotoFitError";
   }
@@ -102,7 +105,11 @@ function* triples<T>(items: readonly T[]): Generator<[[number, number, number], 
 /** Twice the triangle's area over its longest side squared: 0 for three points on a line. */
 function flatness(a: XY, b: XY, c: XY): number {
   const cross = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
-  const longest = Math.max((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2, (c[0] - a[0]) ** 2 + (c[1] - a[1]) ** 2, (c[0] - b[0]) ** 2 + (c[1] - b[1]) ** 2);
+  const longest = Math.max(
+    (b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2,
+    (c[0] - a[0]) ** 2 + (c[1] - a[1]) ** 2,
+    (c[0] - b[0]) ** 2 + (c[1] - b[1]) ** 2,
+  );
   return Math.abs(cross) / longest;
 }
 
@@ -122,13 +129,18 @@ function firstCollinearTriple(pts: readonly XY[]): [number, number, number] | nu
 /** Refuses point sets that cannot fix the chosen model, naming the points (1-based). */
 export function assertUsable(points: readonly ControlPoint[], model: FitModel): void {
   const need = minimumPoints[model];
-  if (points.length < need) throw new PhotoFitError(`A ${model} fit needs at least ${need} control points; there are ${points.length}.`);
+  if (points.length < need)
+    throw new PhotoFitError(`A ${model} fit needs at least ${need} control points; there are ${points.length}.`);
   for (const p of points) {
-    if (![p.px, p.py, p.x, p.y].every(Number.isFinite)) throw new PhotoFitError("Every control point needs a photo position and finite grid coordinates.");
+    if (![p.px, p.py, p.x, p.y].every(Number.isFinite))
+      throw new PhotoFitError("Every control point needs a photo position and finite grid coordinates.");
   }
   for (const [i, p, j, q] of pairs(points)) {
     if (Math.hypot(p.px - q.px, p.py - q.py) < 0.5) {
-      throw new PhotoFitError(`Points ${i + 1} and ${j + 1} are on the same spot of the photo (duplicate points).`, [i, j]);
+      throw new PhotoFitError(`Points ${i + 1} and ${j + 1} are on the same spot of the photo (duplicate points).`, [
+        i,
+        j,
+      ]);
     }
     if (Math.hypot(p.x - q.x, p.y - q.y) < 0.001) {
       throw new PhotoFitError(`Points ${i + 1} and ${j + 1} have the same grid position (duplicate points).`, [i, j]);
@@ -137,8 +149,15 @@ export function assertUsable(points: readonly ControlPoint[], model: FitModel): 
   if (model === "similarity") return;
   const photo = points.map((p): XY => [p.px, p.py]);
   const grid = points.map((p): XY => [p.x, p.y]);
-  for (const [set, where] of [[photo, "on the photo"], [grid, "on the grid"]] as const) {
-    if (allCollinear(set)) throw new PhotoFitError(`All control points lie on one line ${where} (collinear); add a point off that line.`, points.map((_, i) => i));
+  for (const [set, where] of [
+    [photo, "on the photo"],
+    [grid, "on the grid"],
+  ] as const) {
+    if (allCollinear(set))
+      throw new PhotoFitError(
+        `All control points lie on one line ${where} (collinear); add a point off that line.`,
+        points.map((_, i) => i),
+      );
     if (model === "projective" && points.length === 4) {
       const t = firstCollinearTriple(set);
       if (t) {
@@ -156,7 +175,10 @@ type Pair = { u: number; v: number; X: number; Y: number };
 
 function fitSimilarity(pts: readonly Pair[]): Mat3 | null {
   // x = a·px + b·py + tx, y = b·px − a·py + ty: rotation and scale with the photo's y axis mirrored.
-  const rows = pts.flatMap((p) => [[p.u, p.v, 1, 0], [-p.v, p.u, 0, 1]]);
+  const rows = pts.flatMap((p) => [
+    [p.u, p.v, 1, 0],
+    [-p.v, p.u, 0, 1],
+  ]);
   const rhs = pts.flatMap((p) => [p.X, p.Y]);
   const s = ofLength(leastSquares(rows, rhs), 4);
   return s && [s[0], s[1], s[2], s[1], -s[0], s[3], 0, 0, 1];
@@ -164,8 +186,20 @@ function fitSimilarity(pts: readonly Pair[]): Mat3 | null {
 
 function fitAffine(pts: readonly Pair[]): Mat3 | null {
   const rows = pts.map((p) => [p.u, p.v, 1]);
-  const a = ofLength(leastSquares(rows, pts.map((p) => p.X)), 3);
-  const b = ofLength(leastSquares(rows, pts.map((p) => p.Y)), 3);
+  const a = ofLength(
+    leastSquares(
+      rows,
+      pts.map((p) => p.X),
+    ),
+    3,
+  );
+  const b = ofLength(
+    leastSquares(
+      rows,
+      pts.map((p) => p.Y),
+    ),
+    3,
+  );
   return a && b && [...a, ...b, 0, 0, 1];
 }
 
@@ -219,7 +253,9 @@ function refineProjective(h0: Mat3, pts: readonly Pair[], maxIterations = 50): M
     const minusJtr = jt.mmul(Matrix.columnVector(residual)).mul(-1).getColumn(0);
     let improved = false;
     while (lambda < 1e12) {
-      const damped = jtj.to2DArray().map((row, a) => row.map((x, b) => (a === b ? x + lambda * Math.max(x, 1e-12) : x)));
+      const damped = jtj
+        .to2DArray()
+        .map((row, a) => row.map((x, b) => (a === b ? x + lambda * Math.max(x, 1e-12) : x)));
       const step = ofLength(solveSquare(damped, minusJtr), 8);
       const next = step && mat3([...h.slice(0, 8).map((x, k) => x + (step[k] ?? NaN)), 1]);
       const cn = next ? cost(next) : Infinity;
@@ -237,20 +273,35 @@ function refineProjective(h0: Mat3, pts: readonly Pair[], maxIterations = 50): M
 }
 
 /** Fits photo pixels to grid metres. Throws PhotoFitError naming the reason for a degenerate set. */
-export function fitPhoto(points: readonly ControlPoint[], options: { model?: FitModel; /** Refine a projective fit in metres (default true); false keeps the DLT alone. */ refine?: boolean } = {}): PhotoFit {
+export function fitPhoto(
+  points: readonly ControlPoint[],
+  options: {
+    model?: FitModel;
+    /** Refine a projective fit in metres (default true); false keeps the DLT alone. */ refine?: boolean;
+  } = {},
+): PhotoFit {
   const model = options.model ?? modelForCount(points.length);
   assertUsable(points, model);
   const np = normaliser(points.map((p): XY => [p.px, p.py]));
   const ng = normaliser(points.map((p): XY => [p.x, p.y]));
-  const pts = points.map((p): Pair => ({ u: np.s * (p.px - np.cx), v: np.s * (p.py - np.cy), X: ng.s * (p.x - ng.cx), Y: ng.s * (p.y - ng.cy) }));
+  const pts = points.map((p): Pair => ({
+    u: np.s * (p.px - np.cx),
+    v: np.s * (p.py - np.cy),
+    X: ng.s * (p.x - ng.cx),
+    Y: ng.s * (p.y - ng.cy),
+  }));
   const solve = model === "similarity" ? fitSimilarity : model === "affine" ? fitAffine : fitProjective;
   let inner = solve(pts);
   // The normalised grid is the metre grid scaled by ng.s, so least squares here is least squares in metres.
   if (inner && model === "projective" && options.refine !== false) inner = refineProjective(inner, pts);
-  if (!inner) throw new PhotoFitError("These control points do not fix the photo's position (too close to a line); spread them out.");
+  if (!inner)
+    throw new PhotoFitError(
+      "These control points do not fix the photo's position (too close to a line); spread them out.",
+    );
   const product = mul3(normInverse(ng), mul3(inner, normMatrix(np)));
   const matrix = product.map((m) => m / product[8]);
-  if (!matrix.every(Number.isFinite)) throw new PhotoFitError("The fit sends part of the photo to infinity; check the control points.");
+  if (!matrix.every(Number.isFinite))
+    throw new PhotoFitError("The fit sends part of the photo to infinity; check the control points.");
   const residuals = points.map((p) => {
     const [x, y] = applyFit(matrix, p.px, p.py);
     return Math.hypot(x - p.x, y - p.y);

@@ -9,7 +9,10 @@ export const MIN_SCALE = 2;
 export const MAX_SCALE = 20_000;
 
 export const toScreen = (v: View, x: number, y: number): [number, number] => [v.ox + x * v.scale, v.oy - y * v.scale];
-export const toWorld = (v: View, sx: number, sy: number): [number, number] => [(sx - v.ox) / v.scale, (v.oy - sy) / v.scale];
+export const toWorld = (v: View, sx: number, sy: number): [number, number] => [
+  (sx - v.ox) / v.scale,
+  (v.oy - sy) / v.scale,
+];
 
 /** Zooms by `factor` keeping the grid point under screen (sx, sy) where it is. */
 export function zoomAt(v: View, factor: number, sx: number, sy: number): View {

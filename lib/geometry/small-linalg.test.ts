@@ -3,9 +3,33 @@ import { invert3, leastSquares, solveSquare, symmetricEigen } from "./small-lina
 
 describe("the photo fit's linear algebra", () => {
   test("solves a square system and refuses a singular one", () => {
-    expect(solveSquare([[2, 1], [1, 3]], [3, 5])).toEqual([expect.closeTo(0.8, 12), expect.closeTo(1.4, 12)]);
-    expect(solveSquare([[1, 2], [2, 4]], [1, 2])).toBeNull();
-    expect(solveSquare([[1, 2], [2, 4 + 1e-15]], [1, 2])).toBeNull();
+    expect(
+      solveSquare(
+        [
+          [2, 1],
+          [1, 3],
+        ],
+        [3, 5],
+      ),
+    ).toEqual([expect.closeTo(0.8, 12), expect.closeTo(1.4, 12)]);
+    expect(
+      solveSquare(
+        [
+          [1, 2],
+          [2, 4],
+        ],
+        [1, 2],
+      ),
+    ).toBeNull();
+    expect(
+      solveSquare(
+        [
+          [1, 2],
+          [2, 4 + 1e-15],
+        ],
+        [1, 2],
+      ),
+    ).toBeNull();
   });
 
   test("least squares recovers a line through noisy-free points", () => {
@@ -16,7 +40,10 @@ describe("the photo fit's linear algebra", () => {
   });
 
   test("symmetric eigenvalues come ascending with unit eigenvectors", () => {
-    const { values, vectors } = symmetricEigen([[2, 1], [1, 2]]);
+    const { values, vectors } = symmetricEigen([
+      [2, 1],
+      [1, 2],
+    ]);
     expect(values[0]).toBeCloseTo(1, 12);
     expect(values[1]).toBeCloseTo(3, 12);
     for (const v of vectors) expect(Math.hypot(...v)).toBeCloseTo(1, 12);
@@ -28,11 +55,12 @@ describe("the photo fit's linear algebra", () => {
     const inv = invert3(m);
     expect(inv).not.toBeNull();
     // m · inv = I
-    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
-      let s = 0;
-      for (let k = 0; k < 3; k++) s += (m[i * 3 + k] ?? NaN) * (inv?.[k * 3 + j] ?? NaN);
-      expect(s).toBeCloseTo(i === j ? 1 : 0, 12);
-    }
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) {
+        let s = 0;
+        for (let k = 0; k < 3; k++) s += (m[i * 3 + k] ?? NaN) * (inv?.[k * 3 + j] ?? NaN);
+        expect(s).toBeCloseTo(i === j ? 1 : 0, 12);
+      }
     expect(invert3([1, 2, 3, 2, 4, 6, 0, 0, 1])).toBeNull();
   });
 });

@@ -51,7 +51,11 @@ export function symmetricEigen(input: number[][]): { values: number[]; vectors: 
 export function invert3(m: readonly number[]): number[] | null {
   if (m.length !== 9) return null;
   const rows = [m.slice(0, 3), m.slice(3, 6), m.slice(6, 9)];
-  const identity = [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
+  const identity = [
+    [1, 0, 0],
+    [0, 1, 0],
+    [0, 0, 1],
+  ];
   const cols = identity.map((e) => solveSquare(rows, e));
   if (cols.some((c) => c === null || c.some((x) => !Number.isFinite(x)))) return null;
   const [c0, c1, c2] = cols.map((c) => ofLength(c, 3));

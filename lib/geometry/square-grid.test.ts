@@ -3,7 +3,22 @@ import { createWindow } from "@/lib/spatial";
 import { clipSquares, MAX_GRID_SQUARES, parseSquareLabel, squareAt, squareLabel, SquareGridError } from "./square-grid";
 
 /** The test fixtures' trench: 10 m × 6 m with a 2 m × 1 m baulk at x 4–6, y 2–3 (area 58 m²). */
-const baulked = createWindow({ outer: [[0, 0], [10, 0], [10, 6], [0, 6]], holes: [[[4, 2], [4, 3], [6, 3], [6, 2]]] });
+const baulked = createWindow({
+  outer: [
+    [0, 0],
+    [10, 0],
+    [10, 6],
+    [0, 6],
+  ],
+  holes: [
+    [
+      [4, 2],
+      [4, 3],
+      [6, 3],
+      [6, 2],
+    ],
+  ],
+});
 const areaOf = (squares: { area: number }[]) => squares.reduce((s, q) => s + q.area, 0);
 
 describe("square grid clipped to the trench", () => {
@@ -30,12 +45,27 @@ describe("square grid clipped to the trench", () => {
 
   it("gives a concave trench's squares their exact clipped area (triangle halves by hand)", () => {
     // Right triangle with legs 2 m: squares on the diagonal are half inside.
-    const tri = createWindow({ outer: [[0, 0], [2, 0], [0, 2]] });
+    const tri = createWindow({
+      outer: [
+        [0, 0],
+        [2, 0],
+        [0, 2],
+      ],
+    });
     const squares = clipSquares(tri, { size: 1, originX: 0, originY: 0 });
     const byLabel = Object.fromEntries(squares.map((s) => [s.label, s.area]));
     expect(byLabel).toEqual({ "0/0": 1, "1/0": 0.5, "0/1": 0.5 });
     // An L-shaped trench (5 m² in 0.5 m squares): 20 whole squares.
-    const ell = createWindow({ outer: [[0, 0], [3, 0], [3, 1], [1, 1], [1, 3], [0, 3]] });
+    const ell = createWindow({
+      outer: [
+        [0, 0],
+        [3, 0],
+        [3, 1],
+        [1, 1],
+        [1, 3],
+        [0, 3],
+      ],
+    });
     const half = clipSquares(ell, { size: 0.5, originX: 0, originY: 0 });
     expect(half).toHaveLength(20);
     expect(areaOf(half)).toBeCloseTo(5, 12);
@@ -43,7 +73,9 @@ describe("square grid clipped to the trench", () => {
 
   it("refuses a grid too fine for the trench, naming the count", () => {
     expect(() => clipSquares(baulked, { size: 0.01, originX: 0, originY: 0 })).toThrow(SquareGridError);
-    expect(() => clipSquares(baulked, { size: 0.01, originX: 0, originY: 0 })).toThrow(/600,000 squares; at most 20,000/);
+    expect(() => clipSquares(baulked, { size: 0.01, originX: 0, originY: 0 })).toThrow(
+      /600,000 squares; at most 20,000/,
+    );
     expect(MAX_GRID_SQUARES).toBe(20_000);
     expect(() => clipSquares(baulked, { size: 0, originX: 0, originY: 0 })).toThrow(/positive number/);
   });

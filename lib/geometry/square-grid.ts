@@ -72,8 +72,10 @@ export function parseSquareLabel(spec: SquareGridSpec, label: string): { col: nu
 
 /** Checks a grid's numbers, throwing a SquareGridError naming what is wrong. */
 export function checkGridSpec(spec: SquareGridSpec): void {
-  if (!(Number.isFinite(spec.size) && spec.size > 0)) throw new SquareGridError("The square size must be a positive number of metres.");
-  if (!Number.isFinite(spec.originX) || !Number.isFinite(spec.originY)) throw new SquareGridError("The grid origin must be two finite coordinates.");
+  if (!(Number.isFinite(spec.size) && spec.size > 0))
+    throw new SquareGridError("The square size must be a positive number of metres.");
+  if (!Number.isFinite(spec.originX) || !Number.isFinite(spec.originY))
+    throw new SquareGridError("The grid origin must be two finite coordinates.");
 }
 
 /**
@@ -106,7 +108,17 @@ export function clipSquares(window: Window, spec: SquareGridSpec): GridSquare[] 
       let area = 0;
       for (const ring of rings) area += clippedRingArea(ring as [number, number][], x0, y0, x1, y1);
       if (!(area > SLIVER * full)) continue;
-      out.push({ col, row, label: squareLabel(spec, col, row), x0, y0, x1, y1, area, whole: Math.abs(area - full) <= 1e-9 * full });
+      out.push({
+        col,
+        row,
+        label: squareLabel(spec, col, row),
+        x0,
+        y0,
+        x1,
+        y1,
+        area,
+        whole: Math.abs(area - full) <= 1e-9 * full,
+      });
     }
   }
   if (!out.length) throw new SquareGridError("This grid leaves no square inside the trench.");

@@ -21,7 +21,9 @@ export function labelCode(ref: LabelRef, address?: string | null): string {
 /** The label a scanned text names, or null when it is not one of Loamwork's codes. */
 export function parseLabelCode(text: string): LabelRef | null {
   const t = text.trim();
-  const m = /^LW\/([A-Za-z0-9-]{2,20})\/([FS])\/(\d{1,9})$/.exec(t) ?? /^https?:\/\/[^\s]*?\/l\/([A-Za-z0-9-]{2,20})\/([FS])\/(\d{1,9})\/?$/.exec(t);
+  const m =
+    /^LW\/([A-Za-z0-9-]{2,20})\/([FS])\/(\d{1,9})$/.exec(t) ??
+    /^https?:\/\/[^\s]*?\/l\/([A-Za-z0-9-]{2,20})\/([FS])\/(\d{1,9})\/?$/.exec(t);
   if (!m) return null;
   const number = Number(m[3]);
   if (number < 1) return null;

@@ -24,6 +24,8 @@ describe("label layouts", () => {
     expect(r.error!.issues[0]!.path).toEqual(["widthMm"]);
     // 7.25 mm margin + 4 × 63.5 mm labels + 3 × 2.5 mm gaps = 268.75 mm.
     expect(r.error!.issues[0]!.message).toBe("The labels reach 268.8 mm across; an A4 sheet is 210 mm wide.");
-    expect(layoutQuery.safeParse({ heightMm: "10" }).error!.issues[0]!.message).toBe("The label height is at least 15 mm.");
+    expect(layoutQuery.safeParse({ heightMm: "10" }).error!.issues[0]!.message).toBe(
+      "The label height is at least 15 mm.",
+    );
   });
 });

@@ -9,7 +9,8 @@ function raster(size: number, d: string, scale = 4): { data: Uint8ClampedArray; 
   for (const m of d.matchAll(/M(\d+) (\d+)h1v1h-1z/g)) {
     const mx = Number(m[1]);
     const my = Number(m[2]);
-    for (let y = my * scale; y < (my + 1) * scale; y++) for (let x = mx * scale; x < (mx + 1) * scale; x++) data.fill(0, (y * width + x) * 4, (y * width + x) * 4 + 3);
+    for (let y = my * scale; y < (my + 1) * scale; y++)
+      for (let x = mx * scale; x < (mx + 1) * scale; x++) data.fill(0, (y * width + x) * 4, (y * width + x) * 4 + 3);
   }
   return { data, width };
 }

@@ -12,8 +12,12 @@ describe("levelOutsideContext", () => {
     expect(levelOutsideContext(52, { top: null, base: 49.2 }, 0.005, 1005)).toBeNull();
   });
   it("names how far above the top or below the base a level lies", () => {
-    expect(levelOutsideContext(49.65, range, 0.005, 1005)).toBe("RL 49.650 lies 50 mm above the recorded top of context 1005 (49.600)");
-    expect(levelOutsideContext(49.1, range, 0.005, 1005)).toBe("RL 49.100 lies 100 mm below the recorded base of context 1005 (49.200)");
+    expect(levelOutsideContext(49.65, range, 0.005, 1005)).toBe(
+      "RL 49.650 lies 50 mm above the recorded top of context 1005 (49.600)",
+    );
+    expect(levelOutsideContext(49.1, range, 0.005, 1005)).toBe(
+      "RL 49.100 lies 100 mm below the recorded base of context 1005 (49.200)",
+    );
   });
   it("turns a depth below the surface into a reduced level", () => {
     expect(depthToLevel(50.12, 0.35)).toBe(49.77);

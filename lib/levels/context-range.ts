@@ -3,7 +3,12 @@
  * above the top or below the base by more than the tolerance gets a warning, never a refusal: the top and
  * base are spot levels, and a find can sit in a dip between them. Null when the level fits or is unknown.
  */
-export function levelOutsideContext(z: number | null, range: { top: number | null; base: number | null } | undefined, tolerance: number, contextNumber: number): string | null {
+export function levelOutsideContext(
+  z: number | null,
+  range: { top: number | null; base: number | null } | undefined,
+  tolerance: number,
+  contextNumber: number,
+): string | null {
   if (z === null || !range) return null;
   const mm = (v: number) => `${Math.round(v * 1000)} mm`;
   if (range.top !== null && z > range.top + tolerance) {

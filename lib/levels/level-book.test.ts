@@ -32,7 +32,11 @@ describe("reduceAsBooked", () => {
     expect(run.unfinished).toMatch(/ends on a backsight/);
     expect(run.misclosure).toBeNull();
     const blank = reduceAsBooked(50, [...book.slice(0, 2), { station: "find 19" }], null, 0.005);
-    expect(blank.lines[2]).toEqual({ heightOfInstrument: 51.525, level: null, problem: "Line 3 (find 19) has no reading." });
+    expect(blank.lines[2]).toEqual({
+      heightOfInstrument: 51.525,
+      level: null,
+      problem: "Line 3 (find 19) has no reading.",
+    });
     expect(blank.unfinished).toBe("1 line of the book cannot be reduced yet.");
     expect(reduceAsBooked(null, book, null, 0.005).unfinished).toMatch(/Choose the benchmark/);
   });
@@ -49,23 +53,33 @@ describe("reduceAsBooked", () => {
 
   it("gives the server's reduction (reduceLevelRun) on every complete book (seeded)", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 200_000 }), fc.array(setup, { minLength: 1, maxLength: 5 }), fc.integer({ min: -20, max: 20 }), (startMm, setups, offMm) => {
-        const rows: LevelBookRow[] = [];
-        setups.forEach((s, k) => {
-          if (k === 0) rows.push({ station: "BM", backsight: s.backsight });
-          else rows[rows.length - 1] = { ...rows[rows.length - 1]!, backsight: s.backsight };
-          s.sights.forEach((is, j) => rows.push({ station: `s${k}.${j}`, intermediate: is }));
-          rows.push({ station: `cp${k}`, foresight: s.foresight });
-        });
-        const start = startMm / 1000;
-        const server = reduceLevelRun({ startLevel: start, rows, tolerance: 0.005, closingLevel: start + offMm / 1000 });
-        const live = reduceAsBooked(start, rows, start + offMm / 1000, 0.005);
-        expect(live.unfinished).toBeNull();
-        expect(live.lines.map((l) => l.level)).toEqual(server.rows.map((r) => r.level));
-        expect(live.rise).toBe(server.rise);
-        expect(live.misclosure).toBe(server.misclosure);
-        expect(live.withinTolerance).toBe(server.withinTolerance);
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 200_000 }),
+        fc.array(setup, { minLength: 1, maxLength: 5 }),
+        fc.integer({ min: -20, max: 20 }),
+        (startMm, setups, offMm) => {
+          const rows: LevelBookRow[] = [];
+          setups.forEach((s, k) => {
+            if (k === 0) rows.push({ station: "BM", backsight: s.backsight });
+            else rows[rows.length - 1] = { ...rows[rows.length - 1]!, backsight: s.backsight };
+            s.sights.forEach((is, j) => rows.push({ station: `s${k}.${j}`, intermediate: is }));
+            rows.push({ station: `cp${k}`, foresight: s.foresight });
+          });
+          const start = startMm / 1000;
+          const server = reduceLevelRun({
+            startLevel: start,
+            rows,
+            tolerance: 0.005,
+            closingLevel: start + offMm / 1000,
+          });
+          const live = reduceAsBooked(start, rows, start + offMm / 1000, 0.005);
+          expect(live.unfinished).toBeNull();
+          expect(live.lines.map((l) => l.level)).toEqual(server.rows.map((r) => r.level));
+          expect(live.rise).toBe(server.rise);
+          expect(live.misclosure).toBe(server.misclosure);
+          expect(live.withinTolerance).toBe(server.withinTolerance);
+        },
+      ),
       { seed: 20261203, numRuns: 200 },
     );
   });

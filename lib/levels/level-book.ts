@@ -23,7 +23,12 @@ export type BookedRun = {
 
 const present = (v: number | null | undefined): v is number => typeof v === "number";
 
-export function reduceAsBooked(startLevel: number | null, rows: readonly LevelBookRow[], closingLevel: number | null, tolerance: number): BookedRun {
+export function reduceAsBooked(
+  startLevel: number | null,
+  rows: readonly LevelBookRow[],
+  closingLevel: number | null,
+  tolerance: number,
+): BookedRun {
   let hi: number | null = null;
   let sumBs = 0;
   let sumFs = 0;
@@ -57,8 +62,10 @@ export function reduceAsBooked(startLevel: number | null, rows: readonly LevelBo
   if (startLevel === null) unfinished = "Choose the benchmark the run starts from.";
   else if (rows.length < 2) unfinished = "A run needs a backsight and at least one more reading.";
   else if (problems > 0) unfinished = `${problems} line${problems === 1 ? "" : "s"} of the book cannot be reduced yet.`;
-  else if (last && present(last.backsight)) unfinished = "The book ends on a backsight: close the run with a foresight.";
-  const closes = present(closingLevel) && !unfinished && last !== undefined && present(last.foresight) && lastLevel !== null;
+  else if (last && present(last.backsight))
+    unfinished = "The book ends on a backsight: close the run with a foresight.";
+  const closes =
+    present(closingLevel) && !unfinished && last !== undefined && present(last.foresight) && lastLevel !== null;
   const misclosure = closes ? tidy(lastLevel - closingLevel) : null;
   return {
     lines,

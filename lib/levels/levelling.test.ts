@@ -49,13 +49,49 @@ describe("reduceLevelRun", () => {
 
   it("refuses books that cannot be reduced, naming the line", () => {
     const cases: [LevelBookRow[], RegExp][] = [
-      [[{ station: "BM A", foresight: 1 }, { station: "x", foresight: 1 }], /first line is the backsight/],
+      [
+        [
+          { station: "BM A", foresight: 1 },
+          { station: "x", foresight: 1 },
+        ],
+        /first line is the backsight/,
+      ],
       [[{ station: "BM A", backsight: 1 }, { station: "x" }], /Line 2 \(x\) has no reading/],
-      [[{ station: "BM A", backsight: 1 }, { station: "x", intermediate: 1, foresight: 1 }], /Line 2 .*stands alone/],
-      [[{ station: "BM A", backsight: 1 }, { station: "x", backsight: 1 }], /Line 2 .*change point first/],
-      [[{ station: "BM A", backsight: 1 }, { station: "CP", foresight: 1, backsight: 1 }], /last line \(CP\) ends on a backsight/],
-      [[{ station: "BM A", backsight: 1 }, { station: "x", foresight: -0.2 }], /Line 2: the foresight must be a staff reading/],
-      [[{ station: "BM A", backsight: Number.NaN }, { station: "x", foresight: 1 }], /Line 1: the backsight/],
+      [
+        [
+          { station: "BM A", backsight: 1 },
+          { station: "x", intermediate: 1, foresight: 1 },
+        ],
+        /Line 2 .*stands alone/,
+      ],
+      [
+        [
+          { station: "BM A", backsight: 1 },
+          { station: "x", backsight: 1 },
+        ],
+        /Line 2 .*change point first/,
+      ],
+      [
+        [
+          { station: "BM A", backsight: 1 },
+          { station: "CP", foresight: 1, backsight: 1 },
+        ],
+        /last line \(CP\) ends on a backsight/,
+      ],
+      [
+        [
+          { station: "BM A", backsight: 1 },
+          { station: "x", foresight: -0.2 },
+        ],
+        /Line 2: the foresight must be a staff reading/,
+      ],
+      [
+        [
+          { station: "BM A", backsight: Number.NaN },
+          { station: "x", foresight: 1 },
+        ],
+        /Line 1: the backsight/,
+      ],
     ];
     for (const [rows, message] of cases) {
       expect(() => reduceLevelRun({ startLevel: 10, rows, tolerance: 0.005 })).toThrow(message);
@@ -69,28 +105,32 @@ describe("reduceLevelRun", () => {
 
   it("ΣBS − ΣFS = last RL − first RL, and agrees with the rise-and-fall method, on any run (seeded)", () => {
     fc.assert(
-      fc.property(fc.integer({ min: -500_000, max: 500_000 }), fc.array(setup, { minLength: 1, maxLength: 6 }), (startMm, setups) => {
-        const rows: LevelBookRow[] = [];
-        setups.forEach((s, k) => {
-          if (k === 0) rows.push({ station: "BM", backsight: s.backsight });
-          else rows[rows.length - 1] = { ...rows[rows.length - 1]!, backsight: s.backsight };
-          s.sights.forEach((is, j) => rows.push({ station: `s${k}.${j}`, intermediate: is }));
-          rows.push({ station: `cp${k}`, foresight: s.foresight });
-        });
-        const start = startMm / 1000;
-        const run = reduceLevelRun({ startLevel: start, rows, tolerance: 0.005 });
-        const last = run.rows[run.rows.length - 1]!.level;
-        expect(Math.abs(run.rise - (last - start))).toBeLessThan(1e-6);
-        // Rise and fall: each reading after the previous one on the same set-up; a rise is previous − current.
-        let level = start;
-        let previous = rows[0]!.backsight!;
-        rows.slice(1).forEach((row, i) => {
-          const sight = row.foresight ?? row.intermediate!;
-          level += previous - sight;
-          expect(Math.abs(run.rows[i + 1]!.level - level)).toBeLessThan(1e-6);
-          previous = row.backsight ?? sight;
-        });
-      }),
+      fc.property(
+        fc.integer({ min: -500_000, max: 500_000 }),
+        fc.array(setup, { minLength: 1, maxLength: 6 }),
+        (startMm, setups) => {
+          const rows: LevelBookRow[] = [];
+          setups.forEach((s, k) => {
+            if (k === 0) rows.push({ station: "BM", backsight: s.backsight });
+            else rows[rows.length - 1] = { ...rows[rows.length - 1]!, backsight: s.backsight };
+            s.sights.forEach((is, j) => rows.push({ station: `s${k}.${j}`, intermediate: is }));
+            rows.push({ station: `cp${k}`, foresight: s.foresight });
+          });
+          const start = startMm / 1000;
+          const run = reduceLevelRun({ startLevel: start, rows, tolerance: 0.005 });
+          const last = run.rows[run.rows.length - 1]!.level;
+          expect(Math.abs(run.rise - (last - start))).toBeLessThan(1e-6);
+          // Rise and fall: each reading after the previous one on the same set-up; a rise is previous − current.
+          let level = start;
+          let previous = rows[0]!.backsight!;
+          rows.slice(1).forEach((row, i) => {
+            const sight = row.foresight ?? row.intermediate!;
+            level += previous - sight;
+            expect(Math.abs(run.rows[i + 1]!.level - level)).toBeLessThan(1e-6);
+            previous = row.backsight ?? sight;
+          });
+        },
+      ),
       { seed: 20261203, numRuns: 300 },
     );
   });

@@ -65,16 +65,25 @@ export function checkRow(row: LevelBookRow, index: number, last: boolean): void 
     throw new LevelBookError(`Line ${index + 1} (${row.station}) has no reading.`, index);
   }
   if (present(is) && (present(bs) || present(fs))) {
-    throw new LevelBookError(`Line ${index + 1} (${row.station}): an intermediate sight stands alone on its line.`, index);
+    throw new LevelBookError(
+      `Line ${index + 1} (${row.station}): an intermediate sight stands alone on its line.`,
+      index,
+    );
   }
   if (index === 0 && (!present(bs) || present(fs))) {
     throw new LevelBookError("The first line is the backsight on the starting benchmark.", 0);
   }
   if (index > 0 && present(bs) && !present(fs)) {
-    throw new LevelBookError(`Line ${index + 1} (${row.station}): a new backsight needs the foresight of its change point first.`, index);
+    throw new LevelBookError(
+      `Line ${index + 1} (${row.station}): a new backsight needs the foresight of its change point first.`,
+      index,
+    );
   }
   if (last && index > 0 && present(bs)) {
-    throw new LevelBookError(`The last line (${row.station}) ends on a backsight: close the run with a foresight.`, index);
+    throw new LevelBookError(
+      `The last line (${row.station}) ends on a backsight: close the run with a foresight.`,
+      index,
+    );
   }
   if (present(bs)) checkReading(bs, index, "backsight");
   if (present(is)) checkReading(is, index, "intermediate sight");

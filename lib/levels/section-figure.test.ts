@@ -1,12 +1,32 @@
 import { describe, expect, it } from "vitest";
 import { buildSectionFigure, niceStep, sectionCsvRows, sectionSvg, type SectionFind } from "./section-figure";
 
-const find = (number: number, x: number, y: number, z: number | null, contextNumber = 10): SectionFind => ({ number, x, y, z, contextNumber, classCode: "FL", colour: "#aa3300", symbol: "triangle" });
+const find = (number: number, x: number, y: number, z: number | null, contextNumber = 10): SectionFind => ({
+  number,
+  x,
+  y,
+  z,
+  contextNumber,
+  classCode: "FL",
+  colour: "#aa3300",
+  symbol: "triangle",
+});
 
 /** A line along the x axis, 10 m long, band 0.5 m either side; positions chosen so the answers are by eye. */
 const line = { start: [0, 0] as const, end: [10, 0] as const, halfWidth: 0.5 };
-const finds = [find(1, 2, 0.3, 49.5), find(2, 3, -0.6, 49.4), find(3, 11, 0, 49.3), find(4, 5, 0.2, null), find(5, 7, -0.5, 49.2), find(6, 4, 0.1, 49.35, 11)];
-const contexts = [{ number: 10, top: 49.6, base: 49.1 }, { number: 11, top: null, base: null }, { number: 12, top: 49.0, base: 48.0 }];
+const finds = [
+  find(1, 2, 0.3, 49.5),
+  find(2, 3, -0.6, 49.4),
+  find(3, 11, 0, 49.3),
+  find(4, 5, 0.2, null),
+  find(5, 7, -0.5, 49.2),
+  find(6, 4, 0.1, 49.35, 11),
+];
+const contexts = [
+  { number: 10, top: 49.6, base: 49.1 },
+  { number: 11, top: null, base: null },
+  { number: 12, top: 49.0, base: 48.0 },
+];
 
 const drawn = (svg: string) => [...svg.matchAll(/data-find="(\d+)"/g)].map((m) => Number(m[1]));
 const at = (svg: string, n: number) => {

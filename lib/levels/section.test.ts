@@ -2,7 +2,12 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { projectSection, type SectionInput } from "./section";
 
-const find = (n: number, x: number, y: number, level: number | null): SectionInput<number> => ({ x, y, level, item: n });
+const find = (n: number, x: number, y: number, level: number | null): SectionInput<number> => ({
+  x,
+  y,
+  level,
+  item: n,
+});
 
 describe("projectSection", () => {
   it("projects onto a line along the grid's x axis: distance = x − start, offset = y − line", () => {
@@ -24,7 +29,10 @@ describe("projectSection", () => {
   });
 
   it("measures along a diagonal line by Pythagoras (3-4-5)", () => {
-    const s = projectSection({ start: [0, 0], end: [6, 8], halfWidth: 1 }, [find(1, 3, 4, 10), find(2, 3 - 0.8, 4 + 0.6, 9)]);
+    const s = projectSection({ start: [0, 0], end: [6, 8], halfWidth: 1 }, [
+      find(1, 3, 4, 10),
+      find(2, 3 - 0.8, 4 + 0.6, 9),
+    ]);
     expect(s.length).toBe(10);
     expect(s.finds[0]!.along).toBeCloseTo(5, 12);
     expect(s.finds[0]!.offset).toBeCloseTo(0, 12);

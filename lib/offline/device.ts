@@ -26,7 +26,18 @@ export type DeviceSnapshot = {
   nextTry: number | null;
 };
 
-const empty: DeviceSnapshot = { ready: false, online: true, phase: "idle", waiting: 0, attention: 0, entries: [], lastSynced: null, numbers: { find: null, context: null }, storage: null, nextTry: null };
+const empty: DeviceSnapshot = {
+  ready: false,
+  online: true,
+  phase: "idle",
+  waiting: 0,
+  attention: 0,
+  entries: [],
+  lastSynced: null,
+  numbers: { find: null, context: null },
+  storage: null,
+  nextTry: null,
+};
 /** A write waits this long for the server before it is kept in the outbox instead. */
 const WRITE_TIMEOUT_MS = 10_000;
 
@@ -71,7 +82,15 @@ class Device {
           outbox: box,
           online: () => navigator.onLine && !this.unreachable,
           // A recording write that hangs is kept in the outbox; other writes (imports, fits) take their time.
-          send: (req, signal) => (worksOffline(req.operation) ? sendRequest(req, signal ? AbortSignal.any([signal, AbortSignal.timeout(WRITE_TIMEOUT_MS)]) : AbortSignal.timeout(WRITE_TIMEOUT_MS)) : sendRequest(req, signal)),
+          send: (req, signal) =>
+            worksOffline(req.operation)
+              ? sendRequest(
+                  req,
+                  signal
+                    ? AbortSignal.any([signal, AbortSignal.timeout(WRITE_TIMEOUT_MS)])
+                    : AbortSignal.timeout(WRITE_TIMEOUT_MS),
+                )
+              : sendRequest(req, signal),
           queued: () => void this.refresh().then(() => this.kick()),
           loopCheck: (site, relation) => deviceLoopCheck(box, site, relation),
           numberTaken: (site, kind) => void this.numbersFor(site, kind),
@@ -108,7 +127,10 @@ class Device {
     const entries = await box.all();
     const blocks = await box.blocks();
     const site = this.siteId;
-    const numbers = { find: site ? freeNumbers(blocks, site, "find") : null, context: site ? freeNumbers(blocks, site, "context") : null };
+    const numbers = {
+      find: site ? freeNumbers(blocks, site, "find") : null,
+      context: site ? freeNumbers(blocks, site, "context") : null,
+    };
     const est = await navigator.storage?.estimate?.().catch(() => null);
     this.set({
       entries,
@@ -217,7 +239,9 @@ export async function clearUserCaches(): Promise<void> {
 
 /** The outbox as a file a person can keep or send by other means. */
 export function exportOutbox(entries: OutboxEntry[]): Blob {
-  return new Blob([JSON.stringify({ exportedAt: new Date().toISOString(), entries }, null, 2)], { type: "application/json" });
+  return new Blob([JSON.stringify({ exportedAt: new Date().toISOString(), entries }, null, 2)], {
+    type: "application/json",
+  });
 }
 
 export type { ApiRequest };

@@ -42,7 +42,9 @@ function held(siteId: string, b: ServerBlock, usedHere: number[] = []): HeldBloc
 }
 
 export function freeNumbers(blocks: HeldBlock[], siteId: string, kind: NumberKind): number {
-  return blocks.filter((b) => b.siteId === siteId && b.kind === kind).reduce((sum, b) => sum + (b.last - b.first + 1 - new Set(b.used).size), 0);
+  return blocks
+    .filter((b) => b.siteId === siteId && b.kind === kind)
+    .reduce((sum, b) => sum + (b.last - b.first + 1 - new Set(b.used).size), 0);
 }
 
 /** The blocks the server says this user holds on the site, merged with what the device has used. */
@@ -56,17 +58,35 @@ export async function refreshBlocks(outbox: Outbox, siteId: string, send = sendR
 }
 
 /** Reserves another block when the free numbers of a kind are half a block or fewer. */
-export async function topUpBlocks(outbox: Outbox, siteId: string, kind: NumberKind, send = sendRequest): Promise<boolean> {
+export async function topUpBlocks(
+  outbox: Outbox,
+  siteId: string,
+  kind: NumberKind,
+  send = sendRequest,
+): Promise<boolean> {
   const blocks = (await outbox.blocks()).filter((b) => b.siteId === siteId && b.kind === kind);
   const size = blocks.length ? Math.max(...blocks.map((b) => b.last - b.first + 1)) : 0;
   if (blocks.length && freeNumbers(blocks, siteId, kind) > size / 2) return false;
-  const b = (await send(request("numberBlocksCreate", "POST", `/api/sites/${siteId}/number-blocks`, { kind, deviceId: deviceId(), deviceLabel: navigator.userAgent.slice(0, 80) }))) as ServerBlock;
+  const b = (await send(
+    request("numberBlocksCreate", "POST", `/api/sites/${siteId}/number-blocks`, {
+      kind,
+      deviceId: deviceId(),
+      deviceLabel: navigator.userAgent.slice(0, 80),
+    }),
+  )) as ServerBlock;
   await outbox.putBlock(held(siteId, b));
   return true;
 }
 
 /** Gives a block back: its unused numbers become void on the server, with the reason. */
-export async function releaseBlock(outbox: Outbox, block: HeldBlock, reason: string, send = sendRequest): Promise<void> {
-  await send(request("numberBlockRelease", "POST", `/api/sites/${block.siteId}/number-blocks/${block.id}/release`, { reason }));
+export async function releaseBlock(
+  outbox: Outbox,
+  block: HeldBlock,
+  reason: string,
+  send = sendRequest,
+): Promise<void> {
+  await send(
+    request("numberBlockRelease", "POST", `/api/sites/${block.siteId}/number-blocks/${block.id}/release`, { reason }),
+  );
   await outbox.removeBlock(block.id);
 }

@@ -62,7 +62,10 @@ describe("the write path on a device", () => {
     const a = (await write(find(1))) as { id: string };
     const b = (await write(find(2))) as { id: string };
     await write(buildRequest("findUpdate", { siteId, findId: a.id }, { x: 3.25, description: "blade" }));
-    const gone = (await write(buildRequest("findDelete", { siteId, findId: b.id }))) as { deleted: string; number: number };
+    const gone = (await write(buildRequest("findDelete", { siteId, findId: b.id }))) as {
+      deleted: string;
+      number: number;
+    };
     expect(gone).toMatchObject({ deleted: b.id, number: 502 });
     const entries = await outbox.all();
     expect(entries).toHaveLength(1);
@@ -87,7 +90,14 @@ describe("the write path on a device", () => {
 
   it("a connection lost on the way queues the write with the same key", async () => {
     let key = "";
-    const write = createWritePath({ outbox, online: () => true, send: async (req) => { key = req.headers["idempotency-key"]; throw new TypeError("Failed to fetch"); } });
+    const write = createWritePath({
+      outbox,
+      online: () => true,
+      send: async (req) => {
+        key = req.headers["idempotency-key"];
+        throw new TypeError("Failed to fetch");
+      },
+    });
     await write(find(1));
     const [entry] = await outbox.all();
     expect(entry.key).toBe(key);
@@ -101,7 +111,9 @@ describe("the write path on a device", () => {
 
   it("runs the loop check on the device before a relation is queued", async () => {
     const write = createWritePath({ outbox, online: () => false, loopCheck: async () => "1 above 2 above 1" });
-    await expect(write(buildRequest("relationsCreate", { siteId }, { contextId, reading: "above", otherId: classId }))).rejects.toThrow(/loop/);
+    await expect(
+      write(buildRequest("relationsCreate", { siteId }, { contextId, reading: "above", otherId: classId })),
+    ).rejects.toThrow(/loop/);
     expect(await outbox.all()).toHaveLength(0);
   });
 });
@@ -109,10 +121,15 @@ describe("the write path on a device", () => {
 describe("sync", () => {
   it("sends in order, links a context made on the device to the server's id for the finds and relation that name it", async () => {
     const write = createWritePath({ outbox, online: () => false });
-    const ctx = (await write(buildRequest("contextsCreate", { siteId }, { trenchId, type: "deposit" } as never))) as { id: string; number: number };
+    const ctx = (await write(buildRequest("contextsCreate", { siteId }, { trenchId, type: "deposit" } as never))) as {
+      id: string;
+      number: number;
+    };
     expect(ctx.number).toBe(9001);
     await write(buildRequest("findsCreate", { siteId }, { contextId: ctx.id, classId, x: 1, y: 1, method: "plan" }));
-    await write(buildRequest("relationsCreate", { siteId }, { contextId: ctx.id, reading: "above", otherId: contextId }));
+    await write(
+      buildRequest("relationsCreate", { siteId }, { contextId: ctx.id, reading: "above", otherId: contextId }),
+    );
     const s = server();
     const waiting: number[] = [];
     const out = await syncOutbox({ outbox, send: s.send, progress: (n) => waiting.push(n) });
@@ -142,17 +159,28 @@ describe("sync", () => {
     await write(find(1));
     await write(find(2));
     await write(find(3));
-    const s = server((req) => (JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, {}, "locked") : null));
+    const s = server((req) =>
+      JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, {}, "locked") : null,
+    );
     const out = await syncOutbox({ outbox, send: s.send });
     expect(out).toEqual({ sent: 2, refused: 1, stopped: "done" });
     const [left] = await outbox.all();
-    expect(left).toMatchObject({ state: "attention", label: "find #502", refusal: { code: "locked", status: 409, message: "Context 1005 is signed off." } });
+    expect(left).toMatchObject({
+      state: "attention",
+      label: "find #502",
+      refusal: { code: "locked", status: 409, message: "Context 1005 is signed off." },
+    });
   });
 
   it("a 401 pauses the sync and keeps everything waiting, never in needs attention", async () => {
     const write = createWritePath({ outbox, online: () => false });
     await write(find(1));
-    const out = await syncOutbox({ outbox, send: async () => { throw new ApiError("Sign in first.", 401); } });
+    const out = await syncOutbox({
+      outbox,
+      send: async () => {
+        throw new ApiError("Sign in first.", 401);
+      },
+    });
     expect(out.stopped).toBe("sign-in");
     expect(await outbox.count()).toEqual({ waiting: 1, attention: 0 });
   });
@@ -160,8 +188,26 @@ describe("sync", () => {
   it("no connection stops the sync with nothing lost; a busy server counts a try", async () => {
     const write = createWritePath({ outbox, online: () => false });
     await write(find(1));
-    expect((await syncOutbox({ outbox, send: async () => { throw new TypeError("Failed to fetch"); } })).stopped).toBe("offline");
-    expect((await syncOutbox({ outbox, send: async () => { throw new ApiError("Busy", 503); } })).stopped).toBe("server-busy");
+    expect(
+      (
+        await syncOutbox({
+          outbox,
+          send: async () => {
+            throw new TypeError("Failed to fetch");
+          },
+        })
+      ).stopped,
+    ).toBe("offline");
+    expect(
+      (
+        await syncOutbox({
+          outbox,
+          send: async () => {
+            throw new ApiError("Busy", 503);
+          },
+        })
+      ).stopped,
+    ).toBe("server-busy");
     expect((await outbox.all())[0]).toMatchObject({ state: "waiting", attempts: 1 });
     expect([1, 2, 3, 9].map(backoffSeconds)).toEqual([2, 4, 8, 300]);
   });

@@ -33,7 +33,10 @@ export class Outbox {
 
   async count(): Promise<{ waiting: number; attention: number }> {
     const all = await this.all();
-    return { waiting: all.filter((e) => e.state === "waiting").length, attention: all.filter((e) => e.state === "attention").length };
+    return {
+      waiting: all.filter((e) => e.state === "waiting").length,
+      attention: all.filter((e) => e.state === "attention").length,
+    };
   }
 
   get(seq: number): Promise<OutboxEntry | undefined> {
@@ -62,7 +65,8 @@ export class Outbox {
   async sent(entry: OutboxEntry, answer: unknown): Promise<void> {
     const tx = this.db.transaction(["entries", "ids"], "readwrite");
     const serverId = answer && typeof answer === "object" ? (answer as { id?: unknown }).id : undefined;
-    if (entry.localId && typeof serverId === "string") await tx.objectStore("ids").put({ localId: entry.localId, serverId });
+    if (entry.localId && typeof serverId === "string")
+      await tx.objectStore("ids").put({ localId: entry.localId, serverId });
     await tx.objectStore("entries").delete(entry.seq!);
     await tx.done;
   }
@@ -105,7 +109,9 @@ export class Outbox {
   /** Writes the lowest free number of the site's held blocks of this kind on a record, or null when none is left. */
   async takeNumber(siteId: string, kind: HeldBlock["kind"]): Promise<number | null> {
     const tx = this.db.transaction("blocks", "readwrite");
-    const held = (await tx.store.getAll()).filter((b) => b.siteId === siteId && b.kind === kind).sort((a, b) => a.first - b.first);
+    const held = (await tx.store.getAll())
+      .filter((b) => b.siteId === siteId && b.kind === kind)
+      .sort((a, b) => a.first - b.first);
     for (const b of held) {
       const used = new Set(b.used);
       for (let n = b.first; n <= b.last; n++) {

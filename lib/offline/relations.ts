@@ -15,9 +15,18 @@ export async function cacheSiteMatrix(outbox: Outbox, siteId: string, send = sen
     send(buildRequest("contextsList", { siteId }, {})) as Promise<CachedContext[]>,
     send(buildRequest("trenchesList", { siteId })) as Promise<{ id: string; code: string }[]>,
   ]);
-  await outbox.setFact(`trenches:${siteId}`, trenches.map(({ id, code }) => ({ id, code })));
-  await outbox.setFact(key("relations", siteId), relations.filter((r) => "fromId" in r).map(({ id, fromId, toId, kind }) => ({ id, fromId, toId, kind })));
-  await outbox.setFact(key("contexts", siteId), contexts.map(({ id, number, state, trenchId }) => ({ id, number, state, trenchId })));
+  await outbox.setFact(
+    `trenches:${siteId}`,
+    trenches.map(({ id, code }) => ({ id, code })),
+  );
+  await outbox.setFact(
+    key("relations", siteId),
+    relations.filter((r) => "fromId" in r).map(({ id, fromId, toId, kind }) => ({ id, fromId, toId, kind })),
+  );
+  await outbox.setFact(
+    key("contexts", siteId),
+    contexts.map(({ id, number, state, trenchId }) => ({ id, number, state, trenchId })),
+  );
 }
 
 /** A context as the device last read it: enough to offer "move to an open context". */
@@ -32,14 +41,22 @@ export async function cachedContexts(outbox: Outbox, siteId: string): Promise<Ca
 }
 
 /** The loop the candidate relation would close, named ("1004 above 1007 above 1004"), or null. */
-export async function deviceLoopCheck(outbox: Outbox, siteId: string, candidate: Omit<MatrixRelation, "id">): Promise<string | null> {
+export async function deviceLoopCheck(
+  outbox: Outbox,
+  siteId: string,
+  candidate: Omit<MatrixRelation, "id">,
+): Promise<string | null> {
   const relations = [...((await outbox.fact<MatrixRelation[]>(key("relations", siteId))) ?? [])];
   const contexts = [...((await outbox.fact<MatrixContext[]>(key("contexts", siteId))) ?? [])];
   for (const e of await outbox.all()) {
     if (e.siteId !== siteId || !e.body || !e.localId) continue;
     const body = JSON.parse(e.body) as Record<string, unknown>;
     if (e.operation === "contextsCreate") contexts.push({ id: e.localId, number: Number(body.number) });
-    if (e.operation === "relationsCreate") relations.push({ id: e.localId, ...toStored(String(body.contextId), body.reading as RelationReading, String(body.otherId)) });
+    if (e.operation === "relationsCreate")
+      relations.push({
+        id: e.localId,
+        ...toStored(String(body.contextId), body.reading as RelationReading, String(body.otherId)),
+      });
   }
   const known = new Set(contexts.map((c) => c.id));
   for (const id of [candidate.fromId, candidate.toId]) if (!known.has(id)) contexts.push({ id, number: NaN });

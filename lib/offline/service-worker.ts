@@ -4,7 +4,16 @@
  * device is what was last synced), and the plan photos within PHOTO_BUDGET. Writes are never cached or
  * replayed here: the page's outbox (lib/offline/outbox.ts) owns them, so a write is sent exactly once.
  */
-import { CacheableResponsePlugin, CacheFirst, ExpirationPlugin, NetworkFirst, NetworkOnly, Serwist, type PrecacheEntry, type RuntimeCaching } from "serwist";
+import {
+  CacheableResponsePlugin,
+  CacheFirst,
+  ExpirationPlugin,
+  NetworkFirst,
+  NetworkOnly,
+  Serwist,
+  type PrecacheEntry,
+  type RuntimeCaching,
+} from "serwist";
 import { CACHE, NETWORK_TIMEOUT_SECONDS, PHOTO_BUDGET } from "./cache-names";
 
 type WorkerScope = { __SW_MANIFEST: (PrecacheEntry | string)[] | undefined; location: Location };
@@ -20,7 +29,13 @@ const notOpenedYet = () =>
 <h1>Not on this device yet</h1><p>This page was not opened on this device while it had a connection, so there is no copy of it here.
 Pages you opened before (the site, a trench plan, its context sheets and register) still open, and what you record is kept until it can be sent.</p>
 <p><a href="/sites">Your sites</a></p></body></html>`,
-    { status: 503, headers: { "content-type": "text/html; charset=utf-8", "content-security-policy": "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'" } },
+    {
+      status: 503,
+      headers: {
+        "content-type": "text/html; charset=utf-8",
+        "content-security-policy": "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'",
+      },
+    },
   );
 
 const sameOrigin = (url: URL) => url.origin === self.location.origin;
@@ -30,16 +45,32 @@ const runtimeCaching: RuntimeCaching[] = [
   { matcher: ({ url }) => sameOrigin(url) && url.pathname.startsWith("/api/auth"), handler: new NetworkOnly() },
   // Plan photos: the image of a photo id never changes; kept within the budget, oldest dropped first.
   {
-    matcher: ({ url, request }) => sameOrigin(url) && request.method === "GET" && url.pathname.startsWith("/api/files/"),
+    matcher: ({ url, request }) =>
+      sameOrigin(url) && request.method === "GET" && url.pathname.startsWith("/api/files/"),
     handler: new CacheFirst({
       cacheName: CACHE.photos,
-      plugins: [only200(), new ExpirationPlugin({ maxEntries: PHOTO_BUDGET.maxEntries, maxAgeSeconds: PHOTO_BUDGET.maxAgeDays * 86_400, purgeOnQuotaError: true })],
+      plugins: [
+        only200(),
+        new ExpirationPlugin({
+          maxEntries: PHOTO_BUDGET.maxEntries,
+          maxAgeSeconds: PHOTO_BUDGET.maxAgeDays * 86_400,
+          purgeOnQuotaError: true,
+        }),
+      ],
     }),
   },
   // API reads behind the pages (finds of a plan, relations, photos list): the last answer when offline.
   {
-    matcher: ({ url, request }) => sameOrigin(url) && request.method === "GET" && url.pathname.startsWith("/api/") && request.headers.get("accept") !== "text/event-stream",
-    handler: new NetworkFirst({ cacheName: CACHE.data, networkTimeoutSeconds: NETWORK_TIMEOUT_SECONDS, plugins: [only200()] }),
+    matcher: ({ url, request }) =>
+      sameOrigin(url) &&
+      request.method === "GET" &&
+      url.pathname.startsWith("/api/") &&
+      request.headers.get("accept") !== "text/event-stream",
+    handler: new NetworkFirst({
+      cacheName: CACHE.data,
+      networkTimeoutSeconds: NETWORK_TIMEOUT_SECONDS,
+      plugins: [only200()],
+    }),
   },
   // Pages opened by the user: the page as last seen, with its own policy and nonce, when offline.
   {

@@ -41,7 +41,13 @@ export async function syncOutbox({ outbox, send = sendRequest, progress }: SyncD
       continue;
     }
     try {
-      const answer = await send({ operation: entry.operation, method: entry.method, url, headers: entry.headers, body });
+      const answer = await send({
+        operation: entry.operation,
+        method: entry.method,
+        url,
+        headers: entry.headers,
+        body,
+      });
       await outbox.sent(entry, answer);
       sent++;
     } catch (err) {
@@ -63,7 +69,12 @@ export async function syncOutbox({ outbox, send = sendRequest, progress }: SyncD
 /** The server's reason code (lib/api/offline.ts `reasonCodes`) and its words. */
 export function refusalOf(err: ApiError): Refusal {
   const reason = err.code ?? err.detail("reason");
-  return { code: typeof reason === "string" ? reason : null, message: err.message, status: err.status, details: err.details };
+  return {
+    code: typeof reason === "string" ? reason : null,
+    message: err.message,
+    status: err.status,
+    details: err.details,
+  };
 }
 
 /** Why an entry cannot be sent as it stands (damaged on the device), or null. */

@@ -19,7 +19,10 @@ export type WritePathDeps = {
   /** A write was queued: the sync may start. */
   queued?: () => void;
   /** Relations of the site as last read plus those queued, for the loop check (lib/offline/relations.ts). */
-  loopCheck?: (siteId: string, relation: { fromId: string; toId: string; kind: RelationKind }) => Promise<string | null>;
+  loopCheck?: (
+    siteId: string,
+    relation: { fromId: string; toId: string; kind: RelationKind },
+  ) => Promise<string | null>;
   /** Called after a number was taken from a block: a new block may be due. */
   numberTaken?: (siteId: string, kind: "find" | "context") => void;
 };
@@ -39,7 +42,11 @@ export const IDEMPOTENCY_HEADER = "idempotency-key";
 
 /** A fetch that never reached an answer (no network, server down: a TypeError in every browser; or our own timeout). */
 export function isNetworkFailure(err: unknown): boolean {
-  return err instanceof TypeError || (err instanceof ApiError && err.status === 0) || (err instanceof DOMException && err.name === "TimeoutError");
+  return (
+    err instanceof TypeError ||
+    (err instanceof ApiError && err.status === 0) ||
+    (err instanceof DOMException && err.name === "TimeoutError")
+  );
 }
 
 /** True for the writes a digger can make offline (they are queued when the server cannot be reached). */
@@ -54,13 +61,19 @@ function pathIds(url: string): { siteId: string; recordId: string } {
 }
 
 const needsConnection = (req: ApiRequest) =>
-  new ApiError(`This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets and relations works offline.`, 0);
+  new ApiError(
+    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets and relations works offline.`,
+    0,
+  );
 
 export function createWritePath(deps: WritePathDeps) {
   const send = deps.send ?? sendRequest;
 
   return async function write(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
-    const withKey: ApiRequest = { ...req, headers: { ...req.headers, [IDEMPOTENCY_HEADER]: req.headers[IDEMPOTENCY_HEADER] ?? crypto.randomUUID() } };
+    const withKey: ApiRequest = {
+      ...req,
+      headers: { ...req.headers, [IDEMPOTENCY_HEADER]: req.headers[IDEMPOTENCY_HEADER] ?? crypto.randomUUID() },
+    };
     const kind = offlineOps[req.operation];
     const nothingWaiting = (await deps.outbox.count()).waiting === 0;
     if (deps.online() && (nothingWaiting || !kind)) {
@@ -82,14 +95,24 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
   const { outbox } = deps;
   const { siteId, recordId } = pathIds(req.url);
   const body = req.body ? (JSON.parse(req.body) as Record<string, unknown>) : {};
-  const base = { key: req.headers[IDEMPOTENCY_HEADER], siteId, operation: req.operation, method: req.method, url: req.url, headers: req.headers };
+  const base = {
+    key: req.headers[IDEMPOTENCY_HEADER],
+    siteId,
+    operation: req.operation,
+    method: req.method,
+    url: req.url,
+    headers: req.headers,
+  };
 
   if (kind === "create") {
     const localId = crypto.randomUUID();
     if (req.operation === "relationsCreate") {
       const stored = toStored(String(body.contextId), body.reading as RelationReading, String(body.otherId));
       const loop = await deps.loopCheck?.(siteId, stored);
-      if (loop) throw new ApiError(`That relation would make the matrix loop back on itself: ${loop}.`, 400, { otherId: [`That would make a loop: ${loop}.`] });
+      if (loop)
+        throw new ApiError(`That relation would make the matrix loop back on itself: ${loop}.`, 400, {
+          otherId: [`That would make a loop: ${loop}.`],
+        });
       await outbox.add({ ...base, localId, body: JSON.stringify(body), label: "relation" });
       return { id: localId, ...stored, pending: true };
     }
@@ -97,7 +120,10 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
     if (body.number === undefined || body.number === null || body.number === "") {
       const n = await outbox.takeNumber(siteId, numberKind);
       if (n === null)
-        throw new ApiError(`This device holds no ${numberKind} numbers for this site: connect once so it can reserve a block, then record offline.`, 0);
+        throw new ApiError(
+          `This device holds no ${numberKind} numbers for this site: connect once so it can reserve a block, then record offline.`,
+          0,
+        );
       body.number = n;
       deps.numberTaken?.(siteId, numberKind);
     }
@@ -105,7 +131,19 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
     await outbox.add({ ...base, localId, body: JSON.stringify(body), label });
     const now = new Date().toISOString();
     return numberKind === "find"
-      ? { id: localId, trenchId: "", z: null, count: null, weightG: null, description: "", method: "plan", ...body, recordedAt: now, recordedBy: null, pending: true }
+      ? {
+          id: localId,
+          trenchId: "",
+          z: null,
+          count: null,
+          weightG: null,
+          description: "",
+          method: "plan",
+          ...body,
+          recordedAt: now,
+          recordedBy: null,
+          pending: true,
+        }
       : { id: localId, state: "open", signedOffAt: null, extent: null, ...body, pending: true };
   }
 
@@ -114,7 +152,12 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
   if (create) return kind === "edit" ? mergeIntoCreate(outbox, create, body) : dropCreate(outbox, create);
 
   const baseVersion = typeof body.version === "number" ? body.version : null;
-  await outbox.add({ ...base, body: req.body, baseVersion, label: `${kind === "edit" ? "change" : "delete"} ${req.operation.startsWith("find") ? "find" : req.operation.startsWith("context") ? "context" : "relation"}` });
+  await outbox.add({
+    ...base,
+    body: req.body,
+    baseVersion,
+    label: `${kind === "edit" ? "change" : "delete"} ${req.operation.startsWith("find") ? "find" : req.operation.startsWith("context") ? "context" : "relation"}`,
+  });
   return kind === "edit" ? { id: recordId, ...body, pending: true } : { deleted: recordId, pending: true };
 }
 

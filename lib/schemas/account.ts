@@ -11,5 +11,10 @@ export const invitationAcceptSchema = z.object({
 });
 export type InvitationAccept = z.infer<typeof invitationAcceptSchema>;
 
-export const resetRequestSchema = z.object({ email: z.string().trim().toLowerCase().email("Enter the e-mail address of your account.") });
-export const resetConfirmSchema = z.object({ token: z.string().min(20, "That reset link is incomplete."), password: newPasswordSchema });
+export const resetRequestSchema = z.object({
+  email: z.string().trim().toLowerCase().email("Enter the e-mail address of your account."),
+});
+export const resetConfirmSchema = z.object({
+  token: z.string().min(20, "That reset link is incomplete."),
+  password: newPasswordSchema,
+});

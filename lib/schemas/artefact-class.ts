@@ -5,7 +5,12 @@ import "./messages";
 export const symbolShapes = ["disc", "square", "triangle", "diamond", "cross", "star", "ring", "bar"] as const;
 
 const classFields = {
-  code: z.string().trim().min(1).max(20).regex(/^[A-Za-z0-9_-]+$/, "Use letters, digits, - and _ only."),
+  code: z
+    .string()
+    .trim()
+    .min(1)
+    .max(20)
+    .regex(/^[A-Za-z0-9_-]+$/, "Use letters, digits, - and _ only."),
   label: z.string().trim().min(1, "Give the class a label.").max(200),
   material: z.string().trim().max(200),
   colour: z.string().regex(/^#[0-9a-fA-F]{6}$/, "A colour is written #rrggbb."),

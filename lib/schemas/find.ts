@@ -32,8 +32,23 @@ const findFields = {
   x: metres,
   y: metres,
   z: optionalNumber(metres),
-  count: optionalNumber(numeric(z.number({ error: "Enter a count." }).int("A count is a whole number.").min(1, "A count is at least 1.").max(1_000_000, "A count is at most 1,000,000."))),
-  weightG: optionalNumber(numeric(z.number({ error: "Enter a weight in grams." }).min(0, "A weight cannot be negative.").max(10_000_000, "A weight is at most 10,000,000 g."))),
+  count: optionalNumber(
+    numeric(
+      z
+        .number({ error: "Enter a count." })
+        .int("A count is a whole number.")
+        .min(1, "A count is at least 1.")
+        .max(1_000_000, "A count is at most 1,000,000."),
+    ),
+  ),
+  weightG: optionalNumber(
+    numeric(
+      z
+        .number({ error: "Enter a weight in grams." })
+        .min(0, "A weight cannot be negative.")
+        .max(10_000_000, "A weight is at most 10,000,000 g."),
+    ),
+  ),
   description: z.string().trim().max(4000, "A description is at most 4,000 characters."),
 };
 
@@ -44,7 +59,14 @@ const findFields = {
 export const findRules = z.object(findFields);
 
 /** The plan's quick form: the tap gives x and y, the form the rest (strings as typed; blank = none). */
-export const findFormSchema = findRules.pick({ classId: true, contextId: true, z: true, count: true, weightG: true, description: true });
+export const findFormSchema = findRules.pick({
+  classId: true,
+  contextId: true,
+  z: true,
+  count: true,
+  weightG: true,
+  description: true,
+});
 
 export const findCreateSchema = z.object({
   ...findFields,

@@ -5,7 +5,18 @@ import "./messages";
  * The find fields a total-station column can be mapped to. The station's point ID is its own field; a
  * file's column feeds the find number only when mapped to it on purpose, else the server allocates them.
  */
-export const importFields = ["stationPoint", "x", "y", "z", "classCode", "contextNumber", "count", "weightG", "description", "number"] as const;
+export const importFields = [
+  "stationPoint",
+  "x",
+  "y",
+  "z",
+  "classCode",
+  "contextNumber",
+  "count",
+  "weightG",
+  "description",
+  "number",
+] as const;
 export type ImportField = (typeof importFields)[number];
 
 export const importFieldLabels: Record<ImportField, string> = {
@@ -69,7 +80,9 @@ export const importPreviewSchema = z.object({
   fileName: z.string().trim().max(300).default("upload.csv"),
   /** Omit to use the site's remembered mapping (or a guess from the headers). */
   mapping: importMappingSchema.optional(),
-  zReference: z.enum(zReferences, { error: "Say whether z holds reduced levels (rl) or depths below the surface (depth)." }).default("rl"),
+  zReference: z
+    .enum(zReferences, { error: "Say whether z holds reduced levels (rl) or depths below the surface (depth)." })
+    .default("rl"),
 });
 
 export const importCommitSchema = importPreviewSchema.extend({ mapping: importMappingSchema });

@@ -4,7 +4,13 @@ import { numeric, uuid } from "./common";
 /** The most labels one print holds (about a hundred sheets). */
 export const MAX_LABELS = 2000;
 
-const recordNumber = numeric(z.number({ error: "Give a record number." }).int("A record number is a whole number.").min(1, "Numbers start at 1.").max(99_999_999)).optional();
+const recordNumber = numeric(
+  z
+    .number({ error: "Give a record number." })
+    .int("A record number is a whole number.")
+    .min(1, "Numbers start at 1.")
+    .max(99_999_999),
+).optional();
 
 /** Which records a print of labels covers: finds or samples, narrowed by trench, context, numbers or a picked list. */
 export const labelSelection = z
@@ -18,9 +24,19 @@ export const labelSelection = z
     ids: z
       .string()
       .optional()
-      .transform((v) => (v ? v.split(",").map((s) => s.trim()).filter(Boolean) : undefined))
+      .transform((v) =>
+        v
+          ? v
+              .split(",")
+              .map((s) => s.trim())
+              .filter(Boolean)
+          : undefined,
+      )
       .pipe(z.array(uuid).max(MAX_LABELS, `At most ${MAX_LABELS} records at once.`).optional()),
   })
-  .refine((v) => v.fromNumber === undefined || v.toNumber === undefined || v.fromNumber <= v.toNumber, { path: ["toNumber"], message: "The last number comes after the first." });
+  .refine((v) => v.fromNumber === undefined || v.toNumber === undefined || v.fromNumber <= v.toNumber, {
+    path: ["toNumber"],
+    message: "The last number comes after the first.",
+  });
 
 export type LabelSelection = z.infer<typeof labelSelection>;

@@ -36,9 +36,24 @@ export const benchmarkCreateSchema = z
   .strict();
 export const benchmarkUpdateSchema = benchmarkCreateSchema.partial().strict();
 
-export const levelTargets = ["benchmark", "change_point", "find", "context_top", "context_base", "spit_top", "spit_base", "ground", "other"] as const;
+export const levelTargets = [
+  "benchmark",
+  "change_point",
+  "find",
+  "context_top",
+  "context_base",
+  "spit_top",
+  "spit_base",
+  "ground",
+  "other",
+] as const;
 
-const reading = numeric(z.number({ error: "A staff reading is a number of metres." }).min(0, "A staff reading cannot be negative.").max(10, "A staff reading is at most 10 m."))
+const reading = numeric(
+  z
+    .number({ error: "A staff reading is a number of metres." })
+    .min(0, "A staff reading cannot be negative.")
+    .max(10, "A staff reading is at most 10 m."),
+)
   .nullable()
   .optional()
   .transform((v) => v ?? null);
@@ -47,7 +62,10 @@ export const levelLineSchema = z
   .object({
     station: z.string().trim().min(1, "Say what the staff stood on.").max(120),
     target: z.enum(levelTargets),
-    targetId: uuid.nullable().optional().transform((v) => v ?? null),
+    targetId: uuid
+      .nullable()
+      .optional()
+      .transform((v) => v ?? null),
     backsight: reading,
     intermediate: reading,
     foresight: reading,
@@ -60,13 +78,22 @@ export const levelRunCreateSchema = z
     trenchId: uuid.nullable().optional(),
     startBenchmarkId: uuid,
     closingBenchmarkId: uuid.nullable().optional(),
-    lines: z.array(levelLineSchema).min(2, "A run needs a backsight and at least one more reading.").max(500, "A run holds at most 500 lines; start another."),
+    lines: z
+      .array(levelLineSchema)
+      .min(2, "A run needs a backsight and at least one more reading.")
+      .max(500, "A run holds at most 500 lines; start another."),
   })
   .strict();
 
 export const spitCreateSchema = z
   .object({
-    number: numeric(z.number({ error: "Enter a spit number." }).int("A spit number is a whole number.").min(1, "Spits are numbered from 1 at the top.").max(999)),
+    number: numeric(
+      z
+        .number({ error: "Enter a spit number." })
+        .int("A spit number is a whole number.")
+        .min(1, "Spits are numbered from 1 at the top.")
+        .max(999),
+    ),
     topLevel: reducedLevel.nullable().optional(),
     baseLevel: reducedLevel.nullable().optional(),
   })

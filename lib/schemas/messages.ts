@@ -145,7 +145,10 @@ export const fieldLabels: Record<string, string> = {
 
 /** "weightG" → "Weight g": a field with no label yet still reads as words. */
 function words(key: string): string {
-  const spaced = key.replace(/([a-z])([A-Z])/g, "$1 $2").replace(/[_-]+/g, " ").toLowerCase();
+  const spaced = key
+    .replace(/([a-z])([A-Z])/g, "$1 $2")
+    .replace(/[_-]+/g, " ")
+    .toLowerCase();
   return spaced.charAt(0).toUpperCase() + spaced.slice(1);
 }
 
@@ -156,7 +159,8 @@ export function fieldLabel(path: readonly PropertyKey[] | undefined): string {
   return fieldLabels[key] ?? words(key);
 }
 
-const amount = (n: number | bigint) => (typeof n === "bigint" ? n.toString() : n.toLocaleString("en-GB", { maximumFractionDigits: 6 }));
+const amount = (n: number | bigint) =>
+  typeof n === "bigint" ? n.toString() : n.toLocaleString("en-GB", { maximumFractionDigits: 6 });
 const typeWords: Record<string, string> = {
   number: "a number",
   int: "a whole number",
@@ -185,19 +189,30 @@ export function loamworkMessage(issue: z.core.$ZodRawIssue): string {
       if (issue.input === null && issue.expected !== "null") return `${label} is empty: fill it in.`;
       return `${label} must be ${typeWords[issue.expected] ?? "of another kind"}.`;
     case "too_small":
-      if (issue.origin === "string") return Number(issue.minimum) <= 1 ? `${label} is empty: fill it in.` : `${label} needs at least ${amount(issue.minimum)} characters.`;
-      if (issue.origin === "array" || issue.origin === "set") return `${label}: choose at least ${amount(issue.minimum)}.`;
-      return issue.inclusive ? `${label} must be ${amount(issue.minimum)} or more.` : `${label} must be more than ${amount(issue.minimum)}.`;
+      if (issue.origin === "string")
+        return Number(issue.minimum) <= 1
+          ? `${label} is empty: fill it in.`
+          : `${label} needs at least ${amount(issue.minimum)} characters.`;
+      if (issue.origin === "array" || issue.origin === "set")
+        return `${label}: choose at least ${amount(issue.minimum)}.`;
+      return issue.inclusive
+        ? `${label} must be ${amount(issue.minimum)} or more.`
+        : `${label} must be more than ${amount(issue.minimum)}.`;
     case "too_big":
       if (issue.origin === "string") return `${label} is longer than ${amount(issue.maximum)} characters; shorten it.`;
-      if (issue.origin === "array" || issue.origin === "set") return `${label}: choose at most ${amount(issue.maximum)}.`;
-      return issue.inclusive ? `${label} must be ${amount(issue.maximum)} or less.` : `${label} must be less than ${amount(issue.maximum)}.`;
+      if (issue.origin === "array" || issue.origin === "set")
+        return `${label}: choose at most ${amount(issue.maximum)}.`;
+      return issue.inclusive
+        ? `${label} must be ${amount(issue.maximum)} or less.`
+        : `${label} must be less than ${amount(issue.maximum)}.`;
     case "invalid_format":
       return `${label} ${formatWords[issue.format] ?? "is not written in the expected form"}.`;
     case "not_multiple_of":
       return `${label} must be a multiple of ${amount(issue.divisor)}.`;
     case "invalid_value":
-      return issue.values.length === 1 ? `${label} must be ${String(issue.values[0])}.` : `${label}: pick one of ${issue.values.map(String).join(", ")}.`;
+      return issue.values.length === 1
+        ? `${label} must be ${String(issue.values[0])}.`
+        : `${label}: pick one of ${issue.values.map(String).join(", ")}.`;
     case "unrecognized_keys":
       return `${issue.keys.map((k) => `"${k}"`).join(", ")} ${issue.keys.length > 1 ? "are not fields" : "is not a field"} Loamwork keeps here.`;
     case "invalid_union":

@@ -14,7 +14,11 @@ export const numberBlockCreateSchema = z.object({
 
 /** Giving a block back: its unused numbers become void, with this reason. */
 export const numberBlockReleaseSchema = z.object({
-  reason: z.string().trim().min(3, "Say why the numbers are given back (e.g. end of season, tablet lost).").max(500, "A reason is at most 500 characters."),
+  reason: z
+    .string()
+    .trim()
+    .min(3, "Say why the numbers are given back (e.g. end of season, tablet lost).")
+    .max(500, "A reason is at most 500 characters."),
 });
 
 export const numberBlockListQuery = z.object({ kind: kind.optional() });
@@ -26,7 +30,12 @@ export const discardSchema = z.object({
   idempotencyKey: uuid,
   operation: z.string().trim().min(1, "Name the operation.").max(100),
   method: z.enum(["POST", "PATCH", "DELETE"], { error: "The method of the discarded write: POST, PATCH or DELETE." }),
-  path: z.string().trim().min(1).max(500).regex(/^\/api\//, "The path of the discarded write, starting /api/."),
+  path: z
+    .string()
+    .trim()
+    .min(1)
+    .max(500)
+    .regex(/^\/api\//, "The path of the discarded write, starting /api/."),
   reasonCode: z.string().trim().max(50),
   reason: z.string().trim().max(2000),
   note: z.string().trim().max(2000).optional(),

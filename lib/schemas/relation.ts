@@ -33,16 +33,26 @@ const forward: Record<RelationReading, { kind: RelationKind; reversed: boolean }
   same_as: { kind: "same_as", reversed: false },
 };
 
-const backward: Record<RelationKind, RelationReading> = { above: "below", cuts: "cut_by", fills: "filled_by", same_as: "same_as" };
+const backward: Record<RelationKind, RelationReading> = {
+  above: "below",
+  cuts: "cut_by",
+  fills: "filled_by",
+  same_as: "same_as",
+};
 
 /** "1004 below 1002" as typed on 1004's sheet → the stored row "1002 above 1004". */
 export function toStored(contextId: string, reading: RelationReading, otherId: string) {
   const f = forward[reading];
-  return f.reversed ? { fromId: otherId, toId: contextId, kind: f.kind } : { fromId: contextId, toId: otherId, kind: f.kind };
+  return f.reversed
+    ? { fromId: otherId, toId: contextId, kind: f.kind }
+    : { fromId: contextId, toId: otherId, kind: f.kind };
 }
 
 /** The stored row as read from `viewpointId`'s sheet. */
-export function readingFrom(row: { fromId: string; toId: string; kind: RelationKind }, viewpointId: string): { reading: RelationReading; otherId: string } {
+export function readingFrom(
+  row: { fromId: string; toId: string; kind: RelationKind },
+  viewpointId: string,
+): { reading: RelationReading; otherId: string } {
   if (row.fromId === viewpointId) return { reading: row.kind, otherId: row.toId };
   return { reading: backward[row.kind], otherId: row.fromId };
 }

@@ -2,7 +2,16 @@ import { z } from "zod";
 import { metres, numeric, pageQuery, uuid } from "./common";
 
 /** The trade's kinds of sample, with the words the register shows. */
-export const sampleTypes = ["bulk", "spot", "charcoal", "monolith", "micromorphology", "pollen", "luminescence", "other"] as const;
+export const sampleTypes = [
+  "bulk",
+  "spot",
+  "charcoal",
+  "monolith",
+  "micromorphology",
+  "pollen",
+  "luminescence",
+  "other",
+] as const;
 export type SampleType = (typeof sampleTypes)[number];
 export const sampleTypeLabels: Record<SampleType, string> = {
   bulk: "Bulk soil (flotation, sieving)",
@@ -28,19 +37,35 @@ export const sampleStatusLabels: Record<SampleStatus, string> = {
 
 /** A field a form may leave blank: blank is "not recorded" (null), never 0. */
 const blankIsNull = <T extends z.ZodType>(inner: T) => z.preprocess((v) => (v === "" ? null : v), inner.nullish());
-const isoDay = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.").refine((v) => !Number.isNaN(Date.parse(v)), "That date does not exist.");
+const isoDay = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.")
+  .refine((v) => !Number.isNaN(Date.parse(v)), "That date does not exist.");
 
 /** The sample sheet's fields without defaults: an update names only what it changes. */
 const sampleFields = {
   contextId: z.string().min(1, "Pick the context it was taken from.").pipe(uuid),
   /** The spit's number within the context (spits are numbered from 1 at the top); blank = not taken by spit. */
-  spit: blankIsNull(numeric(z.number({ error: "Enter the spit number." }).int("A spit number is a whole number.").min(1, "Spits are numbered from 1 at the top.").max(999))),
+  spit: blankIsNull(
+    numeric(
+      z
+        .number({ error: "Enter the spit number." })
+        .int("A spit number is a whole number.")
+        .min(1, "Spits are numbered from 1 at the top.")
+        .max(999),
+    ),
+  ),
   type: z.enum(sampleTypes, { error: `Pick the kind of sample: ${sampleTypes.join(", ")}.` }),
   x: blankIsNull(metres),
   y: blankIsNull(metres),
   z: blankIsNull(metres),
   volumeL: blankIsNull(
-    numeric(z.number({ error: "Enter the volume in litres." }).positive("A volume is more than 0 litres.").max(2000, "A sample over 2,000 litres is a spoil heap, not a sample.")),
+    numeric(
+      z
+        .number({ error: "Enter the volume in litres." })
+        .positive("A volume is more than 0 litres.")
+        .max(2000, "A sample over 2,000 litres is a spoil heap, not a sample."),
+    ),
   ),
   purpose: z.string().trim().max(2000, "The purpose is at most 2,000 characters."),
   takenBy: blankIsNull(uuid),
@@ -51,7 +76,8 @@ const sampleFields = {
 const bothOrNeither = (v: { x?: number | null; y?: number | null }, ctx: z.RefinementCtx) => {
   const hasX = v.x !== undefined && v.x !== null;
   const hasY = v.y !== undefined && v.y !== null;
-  if (v.x !== undefined && v.y !== undefined && hasX !== hasY) ctx.addIssue({ code: "custom", path: [hasX ? "y" : "x"], message: "Give both x and y, or neither." });
+  if (v.x !== undefined && v.y !== undefined && hasX !== hasY)
+    ctx.addIssue({ code: "custom", path: [hasX ? "y" : "x"], message: "Give both x and y, or neither." });
 };
 
 export const sampleCreateSchema = z
@@ -63,7 +89,11 @@ export const sampleCreateSchema = z
 export const sampleUpdateSchema = z.object(sampleFields).partial().strict();
 
 /** Deleting a sample needs a reason: its number is never handed out again and the register says why it is gone. */
-export const sampleDeleteSchema = z.object({ reason: z.string().trim().min(3, "Say why the sample is deleted.").max(500, "A reason is at most 500 characters.") }).strict();
+export const sampleDeleteSchema = z
+  .object({
+    reason: z.string().trim().min(3, "Say why the sample is deleted.").max(500, "A reason is at most 500 characters."),
+  })
+  .strict();
 
 /** Post-excavation: a status for one or many samples at once, all or nothing. */
 export const sampleStatusSchema = z

@@ -14,7 +14,9 @@ export const invitationCreateSchema = z.object({
 
 /** Filters of the record trail; all optional, combined with "and". */
 export const auditQuerySchema = z.object({
-  recordType: z.enum(["site", "member", "trench", "context", "relation", "find", "class", "photo", "run", "import"]).optional(),
+  recordType: z
+    .enum(["site", "member", "trench", "context", "relation", "find", "class", "photo", "run", "import"])
+    .optional(),
   recordId: z.string().trim().min(1).max(100).optional(),
   actorId: uuid.optional(),
   limit: z.coerce.number().int().min(1).max(1000).default(200),

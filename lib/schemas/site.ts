@@ -30,10 +30,19 @@ const siteFields = {
     .max(2000)
     .transform((v) => (v === "" ? null : v))
     .nullish()
-    .refine((v) => !v || isProjectedDefinition(v), "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m)."),
+    .refine(
+      (v) => !v || isProjectedDefinition(v),
+      "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m).",
+    ),
   samplesShareFindNumbers: z.boolean({ error: "Say whether samples share the finds' numbers (true or false)." }),
   /** How many find or context numbers a device reserves at once for recording offline. */
-  numberBlockSize: numeric(z.number({ error: "Enter how many numbers a device reserves at once." }).int("A block size is a whole number.").min(5, "A block holds at least 5 numbers.").max(1000, "A block holds at most 1,000 numbers.")),
+  numberBlockSize: numeric(
+    z
+      .number({ error: "Enter how many numbers a device reserves at once." })
+      .int("A block size is a whole number.")
+      .min(5, "A block holds at least 5 numbers.")
+      .max(1000, "A block holds at most 1,000 numbers."),
+  ),
   /** Printed in front of label codes so any phone camera opens the record; blank = the code alone. */
   labelAddress: z
     .string()
@@ -41,7 +50,10 @@ const siteFields = {
     .max(200, "The address is at most 200 characters.")
     .transform((v) => (v === "" ? null : v.replace(/\/+$/, "")))
     .nullish()
-    .refine((v) => !v || /^https?:\/\/[^\s/?#]+(\/[^\s?#]*)?$/i.test(v), "Give the address Loamwork is reached at, e.g. https://loamwork.example.org (no query or #)."),
+    .refine(
+      (v) => !v || /^https?:\/\/[^\s/?#]+(\/[^\s?#]*)?$/i.test(v),
+      "Give the address Loamwork is reached at, e.g. https://loamwork.example.org (no query or #).",
+    ),
 };
 
 export const siteCreateSchema = z.object({

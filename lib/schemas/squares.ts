@@ -9,7 +9,11 @@ import { metres, numeric, uuid } from "./common";
 
 /** Square side: from 10 cm (a sieving sub-square) to 10 m. */
 export const squareSize = numeric(
-  z.number({ error: "Enter the square size in metres." }).refine(Number.isFinite, "Enter a finite size.").min(0.1, "Squares are at least 0.1 m.").max(10, "Squares are at most 10 m."),
+  z
+    .number({ error: "Enter the square size in metres." })
+    .refine(Number.isFinite, "Enter a finite size.")
+    .min(0.1, "Squares are at least 0.1 m.")
+    .max(10, "Squares are at most 10 m."),
 );
 
 /** A trench's grid, as the trench update names it (director only: field-rights.ts). Null clears it. */
@@ -19,15 +23,33 @@ export const squareGridFields = {
   squareOriginY: metres.nullable(),
 };
 
-const gridIndex = (what: string) => numeric(z.number({ error: `Give the square's ${what}.` }).int(`A square's ${what} is a whole number.`).min(-100_000).max(100_000));
+const gridIndex = (what: string) =>
+  numeric(
+    z
+      .number({ error: `Give the square's ${what}.` })
+      .int(`A square's ${what} is a whole number.`)
+      .min(-100_000)
+      .max(100_000),
+  );
 
 export const MAX_SQUARE_COUNT = 10_000_000;
 
 export const squareCountSchema = z
   .object({
     classId: z.string().min(1, "Pick the class counted.").pipe(uuid),
-    count: numeric(z.number({ error: "Enter a count (0 when none were found)." }).int("A count is a whole number.").min(0, "A count cannot be negative.").max(MAX_SQUARE_COUNT, "A count is at most 10,000,000.")),
-    weightG: numeric(z.number({ error: "Enter a weight in grams." }).min(0, "A weight cannot be negative.").max(10_000_000, "A weight is at most 10,000,000 g."))
+    count: numeric(
+      z
+        .number({ error: "Enter a count (0 when none were found)." })
+        .int("A count is a whole number.")
+        .min(0, "A count cannot be negative.")
+        .max(MAX_SQUARE_COUNT, "A count is at most 10,000,000."),
+    ),
+    weightG: numeric(
+      z
+        .number({ error: "Enter a weight in grams." })
+        .min(0, "A weight cannot be negative.")
+        .max(10_000_000, "A weight is at most 10,000,000 g."),
+    )
       .nullable()
       .optional()
       .transform((v) => v ?? null),
@@ -40,9 +62,17 @@ export const squareSampleSchema = z
     col: gridIndex("column"),
     row: gridIndex("row"),
     contextId: z.string().min(1, "Pick the context dug.").pipe(uuid),
-    spitId: uuid.nullable().optional().transform((v) => v ?? null),
+    spitId: uuid
+      .nullable()
+      .optional()
+      .transform((v) => v ?? null),
     /** m² of the square dug in this context or spit; omitted or null = the whole square inside the trench. */
-    excavatedArea: numeric(z.number({ error: "Enter the area dug in m²." }).refine(Number.isFinite).gt(0, "An excavated area is more than 0 m²; delete the square's record if it was not dug."))
+    excavatedArea: numeric(
+      z
+        .number({ error: "Enter the area dug in m²." })
+        .refine(Number.isFinite)
+        .gt(0, "An excavated area is more than 0 m²; delete the square's record if it was not dug."),
+    )
       .nullable()
       .optional()
       .transform((v) => v ?? null),
@@ -57,7 +87,15 @@ export const squareSampleSchema = z
 export type SquareSampleInput = z.infer<typeof squareSampleSchema>;
 
 /** The square-count CSV: one row per square × context × spit × class. */
-export const squareImportFields = ["square", "contextNumber", "spitNumber", "classCode", "count", "weightG", "excavatedArea"] as const;
+export const squareImportFields = [
+  "square",
+  "contextNumber",
+  "spitNumber",
+  "classCode",
+  "count",
+  "weightG",
+  "excavatedArea",
+] as const;
 export type SquareImportField = (typeof squareImportFields)[number];
 
 export const squareImportSchema = z

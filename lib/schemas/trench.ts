@@ -9,7 +9,10 @@ const position = z.tuple([metres, metres]);
 const ring = z
   .array(position)
   .min(3, "A ring needs at least 3 vertices.")
-  .max(MAX_RING_VERTICES + 1, `A ring may have at most ${formatLimit(MAX_RING_VERTICES)} vertices; draw it with fewer.`);
+  .max(
+    MAX_RING_VERTICES + 1,
+    `A ring may have at most ${formatLimit(MAX_RING_VERTICES)} vertices; draw it with fewer.`,
+  );
 
 /** A trench outline as a GeoJSON Polygon (RFC 7946 §3.1.6): first ring the edge, further rings holes. */
 export const polygonSchema = z.object({
@@ -25,7 +28,12 @@ const trenchFields = {
   name: z.string().trim().max(200),
   outline: polygonSchema,
   /** Ground-surface reduced level before digging (metres against the site's datum); depths are measured from it. */
-  surfaceLevel: numeric(z.number({ error: "Enter the ground-surface level in metres." }).refine(Number.isFinite).refine((v) => Math.abs(v) < 10_000, "A reduced level beyond ±10 km is not on this planet's surface.")).nullish(),
+  surfaceLevel: numeric(
+    z
+      .number({ error: "Enter the ground-surface level in metres." })
+      .refine(Number.isFinite)
+      .refine((v) => Math.abs(v) < 10_000, "A reduced level beyond ±10 km is not on this planet's surface."),
+  ).nullish(),
 };
 
 export const trenchCreateSchema = z.object({ ...trenchFields, name: trenchFields.name.default("") });

@@ -16,10 +16,26 @@ export async function listClasses(db: Db, siteId: string) {
 
 export async function createClass(db: Db, actor: SiteActor, input: z.infer<typeof artefactClassCreateSchema>) {
   return db.transaction(async (tx) => {
-    const [taken] = await tx.select({ id: artefactClasses.id }).from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.code, input.code)));
+    const [taken] = await tx
+      .select({ id: artefactClasses.id })
+      .from(artefactClasses)
+      .where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.code, input.code)));
     if (taken) throw conflict(`The class code ${input.code} is already used on this site.`);
-    const row = written(await tx.insert(artefactClasses).values({ ...input, siteId: actor.site.id }).returning(), "The class");
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "class", recordId: row.id, after: row });
+    const row = written(
+      await tx
+        .insert(artefactClasses)
+        .values({ ...input, siteId: actor.site.id })
+        .returning(),
+      "The class",
+    );
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "class",
+      recordId: row.id,
+      after: row,
+    });
     return row;
   });
 }
@@ -29,7 +45,8 @@ export async function createClass(db: Db, actor: SiteActor, input: z.infer<typeo
  * which: those records keep the class as signed off and show the change (see class-history.ts).
  */
 async function signedOffUse(tx: Tx, before: ArtefactClass, after: ArtefactClass): Promise<string | null> {
-  if (before.code === after.code && before.label === after.label && before.humanRemains === after.humanRemains) return null;
+  if (before.code === after.code && before.label === after.label && before.humanRemains === after.humanRemains)
+    return null;
   const rows = await tx
     .select({ number: contexts.number, n: sql<number>`count(*)::int` })
     .from(finds)
@@ -43,16 +60,36 @@ async function signedOffUse(tx: Tx, before: ArtefactClass, after: ArtefactClass)
   return `Changed after sign-off of ${total} find${total === 1 ? "" : "s"} of this class (context${rows.length === 1 ? "" : "s"} ${list}); those records keep the class as signed off and show this change.`;
 }
 
-export async function updateClass(db: Db, actor: SiteActor, classId: string, input: z.infer<typeof artefactClassUpdateSchema>) {
+export async function updateClass(
+  db: Db,
+  actor: SiteActor,
+  classId: string,
+  input: z.infer<typeof artefactClassUpdateSchema>,
+) {
   assertFieldRights("class", actor.role, input);
   return db.transaction(async (tx) => {
-    const [before] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, classId)));
+    const [before] = await tx
+      .select()
+      .from(artefactClasses)
+      .where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, classId)));
     if (!before) throw notFound("That artefact class");
     // An update that names no field changes nothing (and writes no audit entry).
     if (!Object.keys(input).length) return before;
-    const after = written(await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning(), "The class");
+    const after = written(
+      await tx.update(artefactClasses).set(input).where(eq(artefactClasses.id, classId)).returning(),
+      "The class",
+    );
     const reason = await signedOffUse(tx, before, after);
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "class", recordId: classId, before, after, reason });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "class",
+      recordId: classId,
+      before,
+      after,
+      reason,
+    });
     return after;
   });
 }

@@ -6,7 +6,26 @@ export type AuditInput = {
   siteId: string;
   actorId: string | null;
   action: string;
-  recordType: "site" | "member" | "trench" | "context" | "relation" | "find" | "class" | "photo" | "run" | "import" | "datum" | "benchmark" | "level_run" | "spit" | "square" | "section" | "sample" | "number_block" | "operation";
+  recordType:
+    | "site"
+    | "member"
+    | "trench"
+    | "context"
+    | "relation"
+    | "find"
+    | "class"
+    | "photo"
+    | "run"
+    | "import"
+    | "datum"
+    | "benchmark"
+    | "level_run"
+    | "spit"
+    | "square"
+    | "section"
+    | "sample"
+    | "number_block"
+    | "operation";
   recordId: string;
   before?: unknown;
   after?: unknown;

@@ -14,11 +14,23 @@ export async function updateDatum(db: Db, actor: SiteActor, input: DatumUpdate) 
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(sites).where(eq(sites.id, actor.site.id)).for("update");
     if (!before) throw notFound("That site");
-    const pick = (s: typeof before) => ({ datumKind: s.datumKind, datumName: s.datumName, levelTolerance: s.levelTolerance });
+    const pick = (s: typeof before) => ({
+      datumKind: s.datumKind,
+      datumName: s.datumName,
+      levelTolerance: s.levelTolerance,
+    });
     // An update that names no field changes nothing (and writes no audit entry).
     if (!Object.keys(input).length) return pick(before);
     const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "datum", recordId: actor.site.id, before: pick(before), after: pick(after!) });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "datum",
+      recordId: actor.site.id,
+      before: pick(before),
+      after: pick(after!),
+    });
     return pick(after!);
   });
 }
@@ -28,13 +40,19 @@ export async function listBenchmarks(db: Db | Tx, siteId: string): Promise<Bench
 }
 
 export async function getBenchmark(db: Db | Tx, siteId: string, benchmarkId: string): Promise<Benchmark> {
-  const [row] = await db.select().from(benchmarks).where(and(eq(benchmarks.siteId, siteId), eq(benchmarks.id, benchmarkId)));
+  const [row] = await db
+    .select()
+    .from(benchmarks)
+    .where(and(eq(benchmarks.siteId, siteId), eq(benchmarks.id, benchmarkId)));
   if (!row) throw notFound("That benchmark");
   return row;
 }
 
 async function assertCodeFree(tx: Tx, siteId: string, code: string, except?: string) {
-  const [taken] = await tx.select({ id: benchmarks.id }).from(benchmarks).where(and(eq(benchmarks.siteId, siteId), eq(benchmarks.code, code)));
+  const [taken] = await tx
+    .select({ id: benchmarks.id })
+    .from(benchmarks)
+    .where(and(eq(benchmarks.siteId, siteId), eq(benchmarks.code, code)));
   if (taken && taken.id !== except) throw conflict(`Benchmark ${code} already exists on this site.`);
 }
 
@@ -51,8 +69,18 @@ async function assertUnused(tx: Tx, benchmark: Benchmark, doing: string) {
 export async function createBenchmark(db: Db, actor: SiteActor, input: BenchmarkCreate) {
   return db.transaction(async (tx) => {
     await assertCodeFree(tx, actor.site.id, input.code);
-    const [row] = await tx.insert(benchmarks).values({ ...input, siteId: actor.site.id, createdBy: actor.userId }).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "benchmark", recordId: row!.id, after: row });
+    const [row] = await tx
+      .insert(benchmarks)
+      .values({ ...input, siteId: actor.site.id, createdBy: actor.userId })
+      .returning();
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "benchmark",
+      recordId: row!.id,
+      after: row,
+    });
     return row!;
   });
 }
@@ -66,7 +94,15 @@ export async function updateBenchmark(db: Db, actor: SiteActor, benchmarkId: str
     if (input.level !== undefined && input.level !== before.level) await assertUnused(tx, before, "given a new level");
     if (input.code !== undefined) await assertCodeFree(tx, actor.site.id, input.code, before.id);
     const [after] = await tx.update(benchmarks).set(input).where(eq(benchmarks.id, before.id)).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "benchmark", recordId: before.id, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "benchmark",
+      recordId: before.id,
+      before,
+      after,
+    });
     return after!;
   });
 }
@@ -76,7 +112,14 @@ export async function deleteBenchmark(db: Db, actor: SiteActor, benchmarkId: str
     const before = await getBenchmark(tx, actor.site.id, benchmarkId);
     await assertUnused(tx, before, "deleted");
     await tx.delete(benchmarks).where(eq(benchmarks.id, before.id));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "benchmark", recordId: before.id, before });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "benchmark",
+      recordId: before.id,
+      before,
+    });
     return { deleted: before.id };
   });
 }

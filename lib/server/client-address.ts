@@ -13,7 +13,10 @@ const stamping = () => (globalThis as { __loamworkPeerStamping?: boolean }).__lo
 export function clientAddress(headers: Headers, trustedProxies = env().LOAMWORK_TRUSTED_PROXIES): string {
   const peer = stamping() ? headers.get(PEER_HEADER)?.trim() || "unknown" : "unknown";
   if (trustedProxies === 0) return peer;
-  const forwarded = (headers.get("x-forwarded-for") ?? "").split(",").map((a) => a.trim()).filter(Boolean);
+  const forwarded = (headers.get("x-forwarded-for") ?? "")
+    .split(",")
+    .map((a) => a.trim())
+    .filter(Boolean);
   const chain = [...forwarded, peer];
   return chain[Math.max(0, chain.length - 1 - trustedProxies)] ?? peer;
 }

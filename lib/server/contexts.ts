@@ -14,35 +14,57 @@ import { assertContextNumberAllowed } from "./number-blocks";
 import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function listContexts(db: Db, siteId: string, trenchId?: string) {
-  const where = trenchId ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)) : eq(contexts.siteId, siteId);
+  const where = trenchId
+    ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId))
+    : eq(contexts.siteId, siteId);
   return db.select().from(contexts).where(where).orderBy(asc(contexts.number));
 }
 
 export async function getContext(db: Db | Tx, siteId: string, contextId: string): Promise<Context> {
   if (!isUuid(contextId)) throw notFound("That context");
-  const [row] = await db.select().from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
+  const [row] = await db
+    .select()
+    .from(contexts)
+    .where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
   if (!row) throw notFound("That context");
   return row;
 }
 
 async function assertNumberFree(tx: Db | Tx, siteId: string, number: number) {
-  const [taken] = await tx.select({ id: contexts.id }).from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.number, number)));
-  if (taken) throw conflict(`Context ${number} already exists on this site; context numbers are unique per site.`, { number }, "duplicate");
+  const [taken] = await tx
+    .select({ id: contexts.id })
+    .from(contexts)
+    .where(and(eq(contexts.siteId, siteId), eq(contexts.number, number)));
+  if (taken)
+    throw conflict(
+      `Context ${number} already exists on this site; context numbers are unique per site.`,
+      { number },
+      "duplicate",
+    );
 }
 
 /** The sheet's dates in order, and a mesh size only on a sieved context. */
 function assertSheetConsistent(sheet: Pick<Context, "openedOn" | "closedOn" | "digMethod" | "sieveMeshMm">) {
   if (sheet.openedOn && sheet.closedOn && sheet.closedOn < sheet.openedOn) {
-    throw badInput("The context was closed before it was opened.", { closedOn: ["The closing date is before the opening date."] });
+    throw badInput("The context was closed before it was opened.", {
+      closedOn: ["The closing date is before the opening date."],
+    });
   }
   if (sheet.sieveMeshMm != null && sheet.digMethod && sheet.digMethod !== "sieved") {
-    throw badInput("A mesh size belongs to a sieved context.", { sieveMeshMm: [`A mesh size is given but the method is ${sheet.digMethod}.`] });
+    throw badInput("A mesh size belongs to a sieved context.", {
+      sieveMeshMm: [`A mesh size is given but the method is ${sheet.digMethod}.`],
+    });
   }
 }
 
 export async function createContext(db: Db, actor: SiteActor, input: ContextCreate) {
   if (input.extent) assertOutline(input.extent, "extent");
-  assertSheetConsistent({ openedOn: input.openedOn ?? null, closedOn: input.closedOn ?? null, digMethod: input.digMethod ?? null, sieveMeshMm: input.sieveMeshMm ?? null });
+  assertSheetConsistent({
+    openedOn: input.openedOn ?? null,
+    closedOn: input.closedOn ?? null,
+    digMethod: input.digMethod ?? null,
+    sieveMeshMm: input.sieveMeshMm ?? null,
+  });
   return db.transaction(async (tx) => {
     await getTrench(tx, actor.site.id, input.trenchId);
     await assertContextNumberAllowed(tx, actor, input.number);
@@ -51,12 +73,25 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
       .insert(contexts)
       .values({ ...input, extent: input.extent ?? null, siteId: actor.site.id, recordedBy: actor.userId })
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "context", recordId: row.id, after: row });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "context",
+      recordId: row.id,
+      after: row,
+    });
     return row;
   });
 }
 
-export async function updateContext(db: Db, actor: SiteActor, contextId: string, input: ContextUpdate, expectedVersion: number | null = null) {
+export async function updateContext(
+  db: Db,
+  actor: SiteActor,
+  contextId: string,
+  input: ContextUpdate,
+  expectedVersion: number | null = null,
+) {
   assertFieldRights("context", actor.role, input);
   if (input.extent) assertOutline(input.extent, "extent");
   return db.transaction(async (tx) => {
@@ -73,12 +108,25 @@ export async function updateContext(db: Db, actor: SiteActor, contextId: string,
       .set({ ...input, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(contexts.version) }) })
       .where(eq(contexts.id, contextId))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "context", recordId: contextId, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "context",
+      recordId: contextId,
+      before,
+      after,
+    });
     return after;
   });
 }
 
-export async function deleteContext(db: Db, actor: SiteActor, contextId: string, expectedVersion: number | null = null) {
+export async function deleteContext(
+  db: Db,
+  actor: SiteActor,
+  contextId: string,
+  expectedVersion: number | null = null,
+) {
   return db.transaction(async (tx) => {
     const before = await getContext(tx, actor.site.id, contextId);
     await assertContextWritable(tx, before, "deleted");
@@ -86,14 +134,23 @@ export async function deleteContext(db: Db, actor: SiteActor, contextId: string,
     const [hasFind] = await tx.select({ id: finds.id }).from(finds).where(eq(finds.contextId, contextId)).limit(1);
     if (hasFind) throw conflict(`Context ${before.number} still has finds; move or delete them first.`);
     await tx.delete(contexts).where(eq(contexts.id, contextId));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "context", recordId: contextId, before });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "context",
+      recordId: contextId,
+      before,
+    });
     return { deleted: contextId };
   });
 }
 
 /** The context list: every sheet with its trench code and how many finds it holds. */
 export async function contextSummaries(db: Db, siteId: string, trenchId?: string) {
-  const where = trenchId ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)) : eq(contexts.siteId, siteId);
+  const where = trenchId
+    ? and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId))
+    : eq(contexts.siteId, siteId);
   return db
     .select({
       id: contexts.id,

@@ -18,9 +18,14 @@ export async function recordDiscard(db: Db, actor: SiteActor, input: Discard, de
     const [applied] = await tx
       .select({ status: idempotencyKeys.status })
       .from(idempotencyKeys)
-      .where(and(eq(idempotencyKeys.userId, actor.userId), eq(idempotencyKeys.key, input.idempotencyKey.toLowerCase())));
+      .where(
+        and(eq(idempotencyKeys.userId, actor.userId), eq(idempotencyKeys.key, input.idempotencyKey.toLowerCase())),
+      );
     if (applied && applied.status >= 200 && applied.status < 300) {
-      throw conflict("The server already accepted this operation; it cannot be discarded. Send it again to receive the server's answer.", { idempotencyKey: input.idempotencyKey });
+      throw conflict(
+        "The server already accepted this operation; it cannot be discarded. Send it again to receive the server's answer.",
+        { idempotencyKey: input.idempotencyKey },
+      );
     }
     await recordAudit(tx, {
       siteId: actor.site.id,
@@ -28,7 +33,15 @@ export async function recordDiscard(db: Db, actor: SiteActor, input: Discard, de
       action: "discard",
       recordType: "operation",
       recordId: input.idempotencyKey,
-      after: { operation: input.operation, method: input.method, path: input.path, reasonCode: input.reasonCode, refusal: input.reason, body: input.body ?? null, deviceId: input.deviceId ?? deviceId },
+      after: {
+        operation: input.operation,
+        method: input.method,
+        path: input.path,
+        reasonCode: input.reasonCode,
+        refusal: input.reason,
+        body: input.body ?? null,
+        deviceId: input.deviceId ?? deviceId,
+      },
       reason: input.note ?? null,
     });
     return { discarded: input.idempotencyKey };

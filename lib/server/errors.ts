@@ -21,11 +21,11 @@ export class PublicError extends Error {
 export const unauthenticated = () => new PublicError(401, "Sign in to continue.");
 /** Also used for sites the user is not a member of: their existence is not revealed. */
 export const notFound = (what = "That record") => new PublicError(404, `${what} was not found.`);
-export const forbidden = (message = "Your role on this site does not allow that.") =>
-  new PublicError(403, message);
+export const forbidden = (message = "Your role on this site does not allow that.") => new PublicError(403, message);
 export const badInput = (message: string, fieldErrors?: Record<string, string[]>, details?: unknown) =>
   new PublicError(400, message, fieldErrors, details);
-export const conflict = (message: string, details?: unknown, code?: ReasonCode) => new PublicError(409, message, undefined, details, code);
+export const conflict = (message: string, details?: unknown, code?: ReasonCode) =>
+  new PublicError(409, message, undefined, details, code);
 
 export function isPublicError(err: unknown): err is PublicError {
   return err instanceof PublicError;

@@ -14,10 +14,34 @@ const directorOnly = ["director"] as const;
  * refused to everyone. Specialists class finds, so on a find they may change the class and nothing else.
  */
 export const fieldRights = {
-  site: { name: directorOnly, gridDescription: directorOnly, gridOriginX: directorOnly, gridOriginY: directorOnly, crs: directorOnly, samplesShareFindNumbers: directorOnly, labelAddress: directorOnly, numberBlockSize: directorOnly },
+  site: {
+    name: directorOnly,
+    gridDescription: directorOnly,
+    gridOriginX: directorOnly,
+    gridOriginY: directorOnly,
+    crs: directorOnly,
+    samplesShareFindNumbers: directorOnly,
+    labelAddress: directorOnly,
+    numberBlockSize: directorOnly,
+  },
   member: { role: directorOnly },
-  class: { code: classers, label: classers, material: classers, colour: classers, symbol: classers, humanRemains: classers },
-  trench: { code: recorders, name: recorders, outline: recorders, surfaceLevel: recorders, squareSize: directorOnly, squareOriginX: directorOnly, squareOriginY: directorOnly },
+  class: {
+    code: classers,
+    label: classers,
+    material: classers,
+    colour: classers,
+    symbol: classers,
+    humanRemains: classers,
+  },
+  trench: {
+    code: recorders,
+    name: recorders,
+    outline: recorders,
+    surfaceLevel: recorders,
+    squareSize: directorOnly,
+    squareOriginX: directorOnly,
+    squareOriginY: directorOnly,
+  },
   context: {
     number: recorders,
     type: recorders,
@@ -50,7 +74,18 @@ export const fieldRights = {
   datum: { datumKind: directorOnly, datumName: directorOnly, levelTolerance: directorOnly },
   benchmark: { code: recorders, description: recorders, x: recorders, y: recorders, level: recorders },
   spit: { number: recorders, topLevel: recorders, baseLevel: recorders },
-  sample: { contextId: recorders, spit: recorders, type: recorders, x: recorders, y: recorders, z: recorders, volumeL: recorders, purpose: recorders, takenBy: recorders, takenOn: recorders },
+  sample: {
+    contextId: recorders,
+    spit: recorders,
+    type: recorders,
+    x: recorders,
+    y: recorders,
+    z: recorders,
+    volumeL: recorders,
+    purpose: recorders,
+    takenBy: recorders,
+    takenOn: recorders,
+  },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
@@ -87,5 +122,9 @@ export function assertFieldRights(record: RightsRecord, role: Role, input: objec
   const fieldErrors = Object.fromEntries(refused.map((f) => [f, [`A ${role} may not change this field.`]]));
   const allowed = changeableFields(record, role);
   const may = allowed.length ? ` (a ${role} may change ${allowed.join(", ")})` : "";
-  throw new PublicError(403, `A ${role} may not change ${refused.join(", ")} of ${recordWords[record]}${may}; nothing was changed.`, fieldErrors);
+  throw new PublicError(
+    403,
+    `A ${role} may not change ${refused.join(", ")} of ${recordWords[record]}${may}; nothing was changed.`,
+    fieldErrors,
+  );
 }

@@ -35,7 +35,8 @@ export async function allocateFindNumbers(tx: Tx, siteId: string, howMany = 1): 
  * most MAX_FIND_NUMBER (the import refuses larger ones), so the counter stays within its column.
  */
 export async function reserveFindNumbersThrough(tx: Tx, siteId: string, highest: number): Promise<void> {
-  if (!Number.isInteger(highest) || highest > MAX_FIND_NUMBER) throw new Error(`find number ${highest} is beyond ${MAX_FIND_NUMBER}`);
+  if (!Number.isInteger(highest) || highest > MAX_FIND_NUMBER)
+    throw new Error(`find number ${highest} is beyond ${MAX_FIND_NUMBER}`);
   await tx
     .update(sites)
     .set({ nextFindNumber: sql`greatest(${sites.nextFindNumber}, ${highest + 1})` })

@@ -19,7 +19,12 @@ const verbs = { move: "moved", reclass: "re-classed", delete: "deleted" } as con
 function refuseAll(action: FindsBulk["action"], refused: BulkRefusal[], status: 403 | 409 | 400 = 409): PublicError {
   const shown = refused.slice(0, 12).map((r) => `find ${r.number}: ${r.reason}`);
   const more = refused.length > shown.length ? ` … and ${refused.length - shown.length} more` : "";
-  return new PublicError(status, `No find was ${verbs[action]}: ${refused.length === 1 ? "1 find stops" : `${refused.length} finds stop`} it. ${shown.join(" · ")}${more}`, undefined, { refused });
+  return new PublicError(
+    status,
+    `No find was ${verbs[action]}: ${refused.length === 1 ? "1 find stops" : `${refused.length} finds stop`} it. ${shown.join(" · ")}${more}`,
+    undefined,
+    { refused },
+  );
 }
 
 /** The lock refusal of a context as one sentence, or null when it is open. */
@@ -40,15 +45,23 @@ async function lockReason(tx: Tx, context: Context): Promise<string | null> {
  */
 export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) {
   if (input.action !== "reclass" && actor.role === "specialist") {
-    throw forbidden(`A specialist may re-class finds but not ${input.action === "move" ? "move" : "delete"} them; it needs the role digger or director. Nothing was changed.`);
+    throw forbidden(
+      `A specialist may re-class finds but not ${input.action === "move" ? "move" : "delete"} them; it needs the role digger or director. Nothing was changed.`,
+    );
   }
   const ids = [...new Set(input.findIds)];
   return db.transaction(async (tx) => {
-    const rows = await tx.select().from(finds).where(and(eq(finds.siteId, actor.site.id), inArray(finds.id, ids))).for("update");
+    const rows = await tx
+      .select()
+      .from(finds)
+      .where(and(eq(finds.siteId, actor.site.id), inArray(finds.id, ids)))
+      .for("update");
     if (rows.length !== ids.length) {
       const found = new Set(rows.map((r) => r.id));
       const missing = ids.filter((id) => !found.has(id));
-      throw notFound(`${missing.length === 1 ? "One of the finds picked" : `${missing.length} of the finds picked`} (${missing.slice(0, 5).join(", ")}${missing.length > 5 ? " …" : ""})`);
+      throw notFound(
+        `${missing.length === 1 ? "One of the finds picked" : `${missing.length} of the finds picked`} (${missing.slice(0, 5).join(", ")}${missing.length > 5 ? " …" : ""})`,
+      );
     }
     rows.sort((a, b) => a.number - b.number);
     const refused: BulkRefusal[] = [];
@@ -63,15 +76,34 @@ export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) 
     if (input.action === "move") {
       const target = await getContext(tx, actor.site.id, input.contextId);
       const targetLock = await lockReason(tx, target);
-      if (targetLock) throw new PublicError(409, `No find was moved: ${targetLock.replace("changed (nor its finds)", "given new finds")}`, { contextId: [`Context ${target.number} is not open.`] });
+      if (targetLock)
+        throw new PublicError(
+          409,
+          `No find was moved: ${targetLock.replace("changed (nor its finds)", "given new finds")}`,
+          { contextId: [`Context ${target.number} is not open.`] },
+        );
       refused.push(...(await outsideTarget(tx, actor.site.id, target, rows)));
-      for (const f of rows) if (f.spitId && f.contextId !== target.id) refused.push({ findId: f.id, number: f.number, reason: "it was recorded in a spit of its context; move it on its own page and choose its spit there" });
+      for (const f of rows)
+        if (f.spitId && f.contextId !== target.id)
+          refused.push({
+            findId: f.id,
+            number: f.number,
+            reason: "it was recorded in a spit of its context; move it on its own page and choose its spit there",
+          });
     }
     if (input.action === "reclass") {
-      const [cls] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, input.classId)));
-      if (!cls) throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
+      const [cls] = await tx
+        .select()
+        .from(artefactClasses)
+        .where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, input.classId)));
+      if (!cls)
+        throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
     }
-    if (refused.length) throw refuseAll(input.action, refused.sort((a, b) => a.number - b.number));
+    if (refused.length)
+      throw refuseAll(
+        input.action,
+        refused.sort((a, b) => a.number - b.number),
+      );
     return apply(tx, actor, input, rows);
   });
 }
@@ -84,7 +116,12 @@ async function outsideTarget(tx: Tx, siteId: string, target: Context, rows: Find
   const out: BulkRefusal[] = [];
   for (const f of rows) {
     const d = distanceOutside(check.window, f.x, f.y);
-    if (d > 0) out.push({ findId: f.id, number: f.number, reason: `it lies ${d.toFixed(3)} m outside trench ${trench.code}, where context ${target.number} is` });
+    if (d > 0)
+      out.push({
+        findId: f.id,
+        number: f.number,
+        reason: `it lies ${d.toFixed(3)} m outside trench ${trench.code}, where context ${target.number} is`,
+      });
   }
   return out;
 }
@@ -92,7 +129,16 @@ async function outsideTarget(tx: Tx, siteId: string, target: Context, rows: Find
 async function apply(tx: Tx, actor: SiteActor, input: FindsBulk, rows: Find[]) {
   const ids = rows.map((r) => r.id);
   const audit = (recordId: string, action: string, before: unknown, after?: unknown, reason?: string) =>
-    recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action, recordType: "find", recordId, before, after, reason });
+    recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action,
+      recordType: "find",
+      recordId,
+      before,
+      after,
+      reason,
+    });
   if (input.action === "delete") {
     await tx.delete(finds).where(inArray(finds.id, ids));
     for (const f of rows) await audit(f.id, "delete", f, undefined, input.reason);
@@ -100,7 +146,11 @@ async function apply(tx: Tx, actor: SiteActor, input: FindsBulk, rows: Find[]) {
   }
   const set =
     input.action === "move"
-      ? { contextId: input.contextId, trenchId: (await getContext(tx, actor.site.id, input.contextId)).trenchId, updatedAt: new Date() }
+      ? {
+          contextId: input.contextId,
+          trenchId: (await getContext(tx, actor.site.id, input.contextId)).trenchId,
+          updatedAt: new Date(),
+        }
       : { classId: input.classId, updatedAt: new Date() };
   const after = await tx.update(finds).set(set).where(inArray(finds.id, ids)).returning();
   const byId = new Map(after.map((a) => [a.id, a]));

@@ -20,13 +20,19 @@ import { assertVersion, namesAField, nextVersion } from "./versions";
 
 export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
   if (!isUuid(findId)) throw notFound("That find");
-  const [row] = await db.select().from(finds).where(and(eq(finds.siteId, siteId), eq(finds.id, findId)));
+  const [row] = await db
+    .select()
+    .from(finds)
+    .where(and(eq(finds.siteId, siteId), eq(finds.id, findId)));
   if (!row) throw notFound("That find");
   return row;
 }
 
 async function assertClass(tx: Db | Tx, siteId: string, classId: string) {
-  const [row] = await tx.select().from(artefactClasses).where(and(eq(artefactClasses.siteId, siteId), eq(artefactClasses.id, classId)));
+  const [row] = await tx
+    .select()
+    .from(artefactClasses)
+    .where(and(eq(artefactClasses.siteId, siteId), eq(artefactClasses.id, classId)));
   if (!row) throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
   return row;
 }
@@ -39,13 +45,24 @@ export async function assertInsideTrench(tx: Db | Tx, siteId: string, trenchId: 
   const d = distanceOutside(check.window, x, y);
   if (d > 0) {
     const msg = `(${x.toFixed(3)}, ${y.toFixed(3)}) lies ${d.toFixed(3)} m outside the outline of trench ${trench.code}.`;
-    throw new PublicError(400, `The find is outside its trench: ${msg}`, { x: [msg], y: [msg] }, { distance: d }, "outside-trench");
+    throw new PublicError(
+      400,
+      `The find is outside its trench: ${msg}`,
+      { x: [msg], y: [msg] },
+      { distance: d },
+      "outside-trench",
+    );
   }
   return trench;
 }
 
 /** A warning (never a refusal) when the find's level lies outside its context's recorded top and base. */
-async function levelWarning(tx: Tx, actor: SiteActor, context: { id: string; number: number }, z: number | null): Promise<string | null> {
+async function levelWarning(
+  tx: Tx,
+  actor: SiteActor,
+  context: { id: string; number: number },
+  z: number | null,
+): Promise<string | null> {
   if (z === null) return null;
   const ranges = await contextRanges(tx, actor.site.id, context.id);
   const outside = levelOutsideContext(z, ranges.get(context.id), actor.site.levelTolerance, context.number);
@@ -63,14 +80,36 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
     const number = input.number ?? (await allocateFindNumbers(tx, actor.site.id));
     const [row] = await tx
       .insert(finds)
-      .values({ ...input, z: input.z ?? null, count: input.count ?? null, weightG: input.weightG ?? null, siteId: actor.site.id, trenchId: context.trenchId, number, recordedBy: actor.userId })
+      .values({
+        ...input,
+        z: input.z ?? null,
+        count: input.count ?? null,
+        weightG: input.weightG ?? null,
+        siteId: actor.site.id,
+        trenchId: context.trenchId,
+        number,
+        recordedBy: actor.userId,
+      })
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "find", recordId: row.id, after: row });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "find",
+      recordId: row.id,
+      after: row,
+    });
     return { ...row, levelWarning: await levelWarning(tx, actor, context, row.z) };
   });
 }
 
-export async function updateFind(db: Db, actor: SiteActor, findId: string, input: FindUpdate, expectedVersion: number | null = null) {
+export async function updateFind(
+  db: Db,
+  actor: SiteActor,
+  findId: string,
+  input: FindUpdate,
+  expectedVersion: number | null = null,
+) {
   assertFieldRights("find", actor.role, input);
   return db.transaction(async (tx) => {
     const before = await getFind(tx, actor.site.id, findId);
@@ -87,10 +126,23 @@ export async function updateFind(db: Db, actor: SiteActor, findId: string, input
     await assertInsideTrench(tx, actor.site.id, trenchId, input.x ?? before.x, input.y ?? before.y);
     const [after] = await tx
       .update(finds)
-      .set({ ...input, trenchId, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(finds.version) }) })
+      .set({
+        ...input,
+        trenchId,
+        updatedAt: new Date(),
+        ...(namesAField(input) && { version: nextVersion(finds.version) }),
+      })
       .where(eq(finds.id, findId))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "find", recordId: findId, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "find",
+      recordId: findId,
+      before,
+      after,
+    });
     const context = after!.contextId === from.id ? from : await getContext(tx, actor.site.id, after!.contextId);
     return { ...after!, levelWarning: await levelWarning(tx, actor, context, after!.z) };
   });
@@ -104,7 +156,14 @@ export async function deleteFind(db: Db, actor: SiteActor, findId: string, expec
     assertVersion(before, expectedVersion, `Find ${before.number}`);
     await tx.delete(finds).where(eq(finds.id, findId));
     await voidDeletedNumber(tx, actor.site.id, "find", before.number, before.recordedBy, actor.userId, "find deleted");
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "find", recordId: findId, before });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "find",
+      recordId: findId,
+      before,
+    });
     return { deleted: findId, number: before.number };
   });
 }
@@ -144,7 +203,8 @@ function registerFilter(siteId: string, q: FindFilters): SQL | undefined {
   return and(...where);
 }
 
-const endOfDay = (d: Date) => (d.getUTCHours() === 0 && d.getUTCMinutes() === 0 && d.getUTCSeconds() === 0 ? new Date(d.getTime() + 86_399_999) : d);
+const endOfDay = (d: Date) =>
+  d.getUTCHours() === 0 && d.getUTCMinutes() === 0 && d.getUTCSeconds() === 0 ? new Date(d.getTime() + 86_399_999) : d;
 
 const sortOrder = (q: FindFilters) => (q.dir === "desc" ? desc(sortColumns[q.sort]) : asc(sortColumns[q.sort]));
 
@@ -200,10 +260,21 @@ export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
   if (q.sort === "trench") ids = ids.innerJoin(trenches, eq(trenches.id, finds.trenchId));
   if (q.sort === "recorder") ids = ids.leftJoin(users, eq(users.id, finds.recordedBy));
   const [pageIds, total] = await Promise.all([
-    ids.where(filter).orderBy(sortOrder(q), asc(finds.number)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+    ids
+      .where(filter)
+      .orderBy(sortOrder(q), asc(finds.number))
+      .limit(q.pageSize)
+      .offset((q.page - 1) * q.pageSize),
     countFinds(db, filter),
   ]);
-  const rows = pageIds.length ? await registerQuery(db, siteId, q).where(inArray(finds.id, pageIds.map((r) => r.id))) : [];
+  const rows = pageIds.length
+    ? await registerQuery(db, siteId, q).where(
+        inArray(
+          finds.id,
+          pageIds.map((r) => r.id),
+        ),
+      )
+    : [];
   return { page: q.page, pageSize: q.pageSize, total, rows };
 }
 

@@ -23,7 +23,14 @@ export type GuardContext<I> = { db: Db; userId: string; actor: SiteActor | null;
 
 export type GuardOutcome<R> =
   | { ok: true; data: R }
-  | { ok: false; status: number; error: string; code: ReasonCode; fieldErrors?: Record<string, string[]>; details?: unknown };
+  | {
+      ok: false;
+      status: number;
+      error: string;
+      code: ReasonCode;
+      fieldErrors?: Record<string, string[]>;
+      details?: unknown;
+    };
 
 export function zodFieldErrors(error: z.ZodError): Record<string, string[]> {
   const out: Record<string, string[]> = {};
@@ -44,15 +51,31 @@ export function describeFieldErrors(fieldErrors: Record<string, string[]>): stri
 export function toFailure(err: unknown): Extract<GuardOutcome<never>, { ok: false }> {
   if (err instanceof z.ZodError) {
     const fieldErrors = zodFieldErrors(err);
-    return { ok: false, status: 400, error: `Check the input — ${describeFieldErrors(fieldErrors)}`, code: "invalid", fieldErrors };
+    return {
+      ok: false,
+      status: 400,
+      error: `Check the input — ${describeFieldErrors(fieldErrors)}`,
+      code: "invalid",
+      fieldErrors,
+    };
   }
   if (isPublicError(err)) {
-    return { ok: false, status: err.status, error: err.message, code: err.code ?? reasonForStatus(err.status), fieldErrors: err.fieldErrors, details: err.details };
+    return {
+      ok: false,
+      status: err.status,
+      error: err.message,
+      code: err.code ?? reasonForStatus(err.status),
+      fieldErrors: err.fieldErrors,
+      details: err.details,
+    };
   }
   const code = pgErrorCode(err);
-  if (code === "23505") return { ok: false, status: 409, error: "That number or code is already taken on this site.", code: "duplicate" };
-  if (code === "23503") return { ok: false, status: 409, error: "Other records still refer to this one.", code: "conflict" };
-  if (code === "40001" || code === "40P01") return { ok: false, status: 409, error: "Someone else changed this at the same moment; try again.", code: "busy" };
+  if (code === "23505")
+    return { ok: false, status: 409, error: "That number or code is already taken on this site.", code: "duplicate" };
+  if (code === "23503")
+    return { ok: false, status: 409, error: "Other records still refer to this one.", code: "conflict" };
+  if (code === "40001" || code === "40P01")
+    return { ok: false, status: 409, error: "Someone else changed this at the same moment; try again.", code: "busy" };
   console.error("[loamwork] unexpected failure", err);
   return { ok: false, status: 500, error: "Something went wrong on the server; nothing was changed.", code: "server" };
 }
@@ -96,7 +119,10 @@ function nulPath(value: unknown, path: string, depth = 0): string | null {
 
 function parseInput<I>(schema: ZodType<I> | undefined, raw: unknown): I {
   const nul = nulPath(raw, "");
-  if (nul) throw badInput(`Check the input — ${nul}: text cannot contain a NUL character (\\u0000).`, { [nul]: ["Text cannot contain a NUL character (\\u0000)."] });
+  if (nul)
+    throw badInput(`Check the input — ${nul}: text cannot contain a NUL character (\\u0000).`, {
+      [nul]: ["Text cannot contain a NUL character (\\u0000)."],
+    });
   if (!schema) return raw as I;
   const parsed = schema.safeParse(raw);
   if (!parsed.success) {
@@ -110,7 +136,11 @@ function parseInput<I>(schema: ZodType<I> | undefined, raw: unknown): I {
  * The entries a person uses before they can sign in (password reset, accepting an invitation): the same
  * parsing and error mapping, no session demanded; each proves its right with a single-use token instead.
  */
-export async function runPublic<I, R>(schema: ZodType<I>, rawInput: unknown, fn: (ctx: { db: Db; input: I }) => Promise<R>): Promise<GuardOutcome<R>> {
+export async function runPublic<I, R>(
+  schema: ZodType<I>,
+  rawInput: unknown,
+  fn: (ctx: { db: Db; input: I }) => Promise<R>,
+): Promise<GuardOutcome<R>> {
   try {
     const input = parseInput(schema, rawInput);
     return { ok: true, data: await fn({ db: await getDb(), input }) };

@@ -31,7 +31,9 @@ export type RouteSpec<I> = GuardSpec<I> & {
 type InputOf<S> = S extends { input: infer Z extends ZodType } ? z.output<Z> : unknown;
 /** The names in a catalogue path's braces: "/api/sites/{siteId}/finds/{findId}" → "siteId" | "findId". */
 type PathNames<P> = P extends `${string}{${infer K}}${infer Rest}` ? K | PathNames<Rest> : never;
-type ParamsOf<S> = S extends { path: infer P extends string } ? Record<PathNames<P>, string> : Record<string, string | undefined>;
+type ParamsOf<S> = S extends { path: infer P extends string }
+  ? Record<PathNames<P>, string>
+  : Record<string, string | undefined>;
 type AnswerOf<S> = S extends { response: infer Z extends ZodType } ? z.input<Z> : unknown;
 
 /** "256 KB", "48 MB": the limit as the refusal states it. */
@@ -77,7 +79,12 @@ function respond<R>(outcome: GuardOutcome<R>, successStatus = 200): Response {
   return NextResponse.json(outcome.data ?? null, { status: successStatus });
 }
 
-async function readInput(req: Request, from: RouteSpec<unknown>["from"], limit: number, seen?: { text: string }): Promise<unknown> {
+async function readInput(
+  req: Request,
+  from: RouteSpec<unknown>["from"],
+  limit: number,
+  seen?: { text: string },
+): Promise<unknown> {
   if (from === "query") return Object.fromEntries(new URL(req.url).searchParams.entries());
   if (from === "none" && !seen) return undefined;
   const text = new TextDecoder().decode(await readBodyCapped(req, limit));
@@ -108,7 +115,8 @@ export function guardedRoute<S extends RouteSpec<unknown>>(
   spec: S,
   fn: (ctx: GuardContext<InputOf<S>> & { params: ParamsOf<S>; req: Request }) => Promise<AnswerOf<S> | Response>,
 ): Handler {
-  const named = "path" in spec && typeof spec.path === "string" ? [...spec.path.matchAll(/\{(\w+)\}/g)].map((m) => m[1] ?? "") : [];
+  const named =
+    "path" in spec && typeof spec.path === "string" ? [...spec.path.matchAll(/\{(\w+)\}/g)].map((m) => m[1] ?? "") : [];
   return async (req, routeCtx) => {
     const raw = (await routeCtx.params) ?? {};
     const params: Record<string, string> = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, String(v)]));
@@ -125,18 +133,31 @@ export function guardedRoute<S extends RouteSpec<unknown>>(
       return respond(toFailure(err));
     }
     if (!key) {
-      const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, () => readInput(req, from, limit), (ctx) => fn({ ...ctx, params: params as ParamsOf<S>, req }));
+      const outcome = await runGuarded(
+        spec as GuardSpec<InputOf<S>>,
+        params.siteId,
+        () => readInput(req, from, limit),
+        (ctx) => fn({ ...ctx, params: params as ParamsOf<S>, req }),
+      );
       return respond(outcome, spec.successStatus);
     }
     const seen = { text: "" };
-    const request = (userId: string) => ({ userId, key: key as string, method: req.method, path: new URL(req.url).pathname, fingerprint: requestFingerprint(req.method, req.url, seen.text) });
+    const request = (userId: string) => ({
+      userId,
+      key: key as string,
+      method: req.method,
+      path: new URL(req.url).pathname,
+      fingerprint: requestFingerprint(req.method, req.url, seen.text),
+    });
     const readKeyed = async (userId: string, db: Db) => {
       const input = await readInput(req, from, limit, seen);
       await assertKeyFits(db, request(userId));
       return input;
     };
     const outcome = await runGuarded(spec as GuardSpec<InputOf<S>>, params.siteId, readKeyed, (ctx) =>
-      runIdempotent(ctx.db, request(ctx.userId), spec.idempotency ?? "atomic", spec.successStatus ?? 200, (db) => fn({ ...ctx, db, params: params as ParamsOf<S>, req })),
+      runIdempotent(ctx.db, request(ctx.userId), spec.idempotency ?? "atomic", spec.successStatus ?? 200, (db) =>
+        fn({ ...ctx, db, params: params as ParamsOf<S>, req }),
+      ),
     );
     return respond(outcome, spec.successStatus);
   };
@@ -171,6 +192,14 @@ export function withBodyLimit<C>(limit: number, handler: (req: NextRequest, ctx:
     } catch (err) {
       return respond(toFailure(err));
     }
-    return handler(new NextRequest(req.url, { method: req.method, headers: req.headers, body: body as BodyInit, signal: req.signal }), ctx);
+    return handler(
+      new NextRequest(req.url, {
+        method: req.method,
+        headers: req.headers,
+        body: body as BodyInit,
+        signal: req.signal,
+      }),
+      ctx,
+    );
   };
 }

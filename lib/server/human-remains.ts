@@ -10,7 +10,13 @@ export async function listHumanRemains(db: Db, siteId: string, trenchId?: string
     .from(finds)
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
     .innerJoin(trenches, eq(trenches.id, finds.trenchId))
-    .where(and(eq(finds.siteId, siteId), eq(artefactClasses.humanRemains, true), trenchId ? eq(finds.trenchId, trenchId) : undefined))
+    .where(
+      and(
+        eq(finds.siteId, siteId),
+        eq(artefactClasses.humanRemains, true),
+        trenchId ? eq(finds.trenchId, trenchId) : undefined,
+      ),
+    )
     .orderBy(finds.number)
     .limit(limit);
 }
@@ -21,6 +27,12 @@ export async function countHumanRemains(db: Db, siteId: string, trenchId?: strin
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(finds)
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
-    .where(and(eq(finds.siteId, siteId), eq(artefactClasses.humanRemains, true), trenchId ? eq(finds.trenchId, trenchId) : undefined));
+    .where(
+      and(
+        eq(finds.siteId, siteId),
+        eq(artefactClasses.humanRemains, true),
+        trenchId ? eq(finds.trenchId, trenchId) : undefined,
+      ),
+    );
   return row?.n ?? 0;
 }

@@ -42,7 +42,13 @@ export function idempotencyKeyOf(req: Request): string | null {
   if (raw === null) return null;
   const value = raw.trim().replace(/^"(.*)"$/, "$1");
   if (!isUuid(value)) {
-    throw new PublicError(400, `The ${IDEMPOTENCY_KEY_HEADER} header must be a UUID (made once per operation on the device).`, { [IDEMPOTENCY_KEY_HEADER]: ["Not a UUID."] }, undefined, "idempotency-key-invalid");
+    throw new PublicError(
+      400,
+      `The ${IDEMPOTENCY_KEY_HEADER} header must be a UUID (made once per operation on the device).`,
+      { [IDEMPOTENCY_KEY_HEADER]: ["Not a UUID."] },
+      undefined,
+      "idempotency-key-invalid",
+    );
   }
   return value.toLowerCase();
 }
@@ -53,7 +59,10 @@ export function requestFingerprint(method: string, url: string, body: string): s
 }
 
 function replay(row: Answer): Response {
-  return new Response(row.body, { status: row.status, headers: { "content-type": row.contentType, [IDEMPOTENT_REPLAYED_HEADER]: "true" } });
+  return new Response(row.body, {
+    status: row.status,
+    headers: { "content-type": row.contentType, [IDEMPOTENT_REPLAYED_HEADER]: "true" },
+  });
 }
 
 const reused = () =>
@@ -68,7 +77,11 @@ const reused = () =>
 /** Turns what a handler returned into the answer to send and to store. */
 async function answerOf(data: unknown, successStatus: number): Promise<Answer> {
   if (data instanceof Response) {
-    return { status: data.status, contentType: data.headers.get("content-type") ?? "application/octet-stream", body: await data.clone().text() };
+    return {
+      status: data.status,
+      contentType: data.headers.get("content-type") ?? "application/octet-stream",
+      body: await data.clone().text(),
+    };
   }
   return { status: successStatus, contentType: "application/json", body: JSON.stringify(data ?? null) };
 }
@@ -79,15 +92,36 @@ async function answerOf(data: unknown, successStatus: number): Promise<Answer> {
  * wait until that transaction ends.
  */
 async function claim(tx: Db | Tx, r: IdempotentRequest) {
-  await tx.delete(idempotencyKeys).where(and(eq(idempotencyKeys.userId, r.userId), lt(idempotencyKeys.createdAt, cutoff())));
+  await tx
+    .delete(idempotencyKeys)
+    .where(and(eq(idempotencyKeys.userId, r.userId), lt(idempotencyKeys.createdAt, cutoff())));
   const inserted = await tx
     .insert(idempotencyKeys)
-    .values({ userId: r.userId, key: r.key, fingerprint: r.fingerprint, method: r.method, path: r.path, status: PENDING, contentType: "", body: "" })
+    .values({
+      userId: r.userId,
+      key: r.key,
+      fingerprint: r.fingerprint,
+      method: r.method,
+      path: r.path,
+      status: PENDING,
+      contentType: "",
+      body: "",
+    })
     .onConflictDoNothing()
     .returning({ key: idempotencyKeys.key });
   if (inserted.length) return null;
-  const [row] = await tx.select().from(idempotencyKeys).where(and(eq(idempotencyKeys.userId, r.userId), eq(idempotencyKeys.key, r.key)));
-  if (!row) throw new PublicError(409, "This operation's key was released at this moment; send it again.", undefined, undefined, "busy");
+  const [row] = await tx
+    .select()
+    .from(idempotencyKeys)
+    .where(and(eq(idempotencyKeys.userId, r.userId), eq(idempotencyKeys.key, r.key)));
+  if (!row)
+    throw new PublicError(
+      409,
+      "This operation's key was released at this moment; send it again.",
+      undefined,
+      undefined,
+      "busy",
+    );
   if (row.fingerprint !== r.fingerprint) throw reused();
   return row;
 }
@@ -116,7 +150,13 @@ async function store(tx: Db | Tx, r: IdempotentRequest, answer: Answer) {
  * transaction (`write` gets that transaction as its db; its own transactions become savepoints).
  * "claim": the key is claimed and committed first, the write runs on `db`, the answer is stored after.
  */
-export async function runIdempotent(db: Db, r: IdempotentRequest, mode: "atomic" | "claim", successStatus: number, write: (db: Db) => Promise<unknown>): Promise<Response> {
+export async function runIdempotent(
+  db: Db,
+  r: IdempotentRequest,
+  mode: "atomic" | "claim",
+  successStatus: number,
+  write: (db: Db) => Promise<unknown>,
+): Promise<Response> {
   if (mode === "atomic") {
     return db.transaction(async (tx) => {
       const prior = await claim(tx, r);
@@ -129,7 +169,14 @@ export async function runIdempotent(db: Db, r: IdempotentRequest, mode: "atomic"
   }
   const prior = await db.transaction((tx) => claim(tx, r));
   if (prior) {
-    if (prior.status === PENDING) throw new PublicError(409, "This operation is being processed at this moment; send it again shortly for its answer.", undefined, undefined, "busy");
+    if (prior.status === PENDING)
+      throw new PublicError(
+        409,
+        "This operation is being processed at this moment; send it again shortly for its answer.",
+        undefined,
+        undefined,
+        "busy",
+      );
     return replay(prior);
   }
   let data: unknown;
@@ -152,6 +199,9 @@ function fresh(data: unknown, answer: Answer): Response {
 
 /** Deletes every key older than the kept period (a maintenance job; claims also purge their user's). */
 export async function purgeExpiredIdempotencyKeys(db: Db, now = new Date()): Promise<number> {
-  const gone = await db.delete(idempotencyKeys).where(lt(idempotencyKeys.createdAt, cutoff(now))).returning({ key: idempotencyKeys.key });
+  const gone = await db
+    .delete(idempotencyKeys)
+    .where(lt(idempotencyKeys.createdAt, cutoff(now)))
+    .returning({ key: idempotencyKeys.key });
   return gone.length;
 }

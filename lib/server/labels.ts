@@ -26,7 +26,11 @@ export type LabelItem = {
 const taker = alias(users, "label_taker");
 
 /** The labels a selection covers, in number order, with the site's address in front of each code when set. */
-export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise<{ items: LabelItem[]; truncated: boolean }> {
+export async function labelItems(
+  db: Db,
+  site: Site,
+  q: LabelSelection,
+): Promise<{ items: LabelItem[]; truncated: boolean }> {
   const address = site.labelAddress;
   const code = (kind: LabelKindLetter, number: number) => labelCode({ siteCode: site.code, kind, number }, address);
   if (q.kind === "finds") {
@@ -37,7 +41,16 @@ export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise
     if (q.toNumber) where.push(lte(finds.number, q.toNumber));
     if (q.ids) where.push(q.ids.length ? inArray(finds.id, q.ids) : sql`false`);
     const rows = await db
-      .select({ id: finds.id, number: finds.number, trenchCode: trenches.code, contextNumber: contexts.number, classCode: artefactClasses.code, classLabel: artefactClasses.label, at: finds.recordedAt, recorder: users.name })
+      .select({
+        id: finds.id,
+        number: finds.number,
+        trenchCode: trenches.code,
+        contextNumber: contexts.number,
+        classCode: artefactClasses.code,
+        classLabel: artefactClasses.label,
+        at: finds.recordedAt,
+        recorder: users.name,
+      })
       .from(finds)
       .innerJoin(contexts, eq(contexts.id, finds.contextId))
       .innerJoin(trenches, eq(trenches.id, finds.trenchId))
@@ -48,7 +61,17 @@ export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise
       .limit(MAX_LABELS + 1);
     return {
       truncated: rows.length > MAX_LABELS,
-      items: rows.slice(0, MAX_LABELS).map((r) => ({ key: r.id, kindWord: "Find", number: r.number, trenchCode: r.trenchCode, contextNumber: r.contextNumber, what: `${r.classCode} · ${r.classLabel}`, date: r.at.toISOString().slice(0, 10), recorder: r.recorder ?? "", code: code("F", r.number) })),
+      items: rows.slice(0, MAX_LABELS).map((r) => ({
+        key: r.id,
+        kindWord: "Find",
+        number: r.number,
+        trenchCode: r.trenchCode,
+        contextNumber: r.contextNumber,
+        what: `${r.classCode} · ${r.classLabel}`,
+        date: r.at.toISOString().slice(0, 10),
+        recorder: r.recorder ?? "",
+        code: code("F", r.number),
+      })),
     };
   }
   const where: SQL[] = [eq(samples.siteId, site.id)];
@@ -58,7 +81,16 @@ export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise
   if (q.toNumber) where.push(lte(samples.number, q.toNumber));
   if (q.ids) where.push(q.ids.length ? inArray(samples.id, q.ids) : sql`false`);
   const rows = await db
-    .select({ id: samples.id, number: samples.number, trenchCode: trenches.code, contextNumber: contexts.number, type: samples.type, volumeL: samples.volumeL, takenOn: samples.takenOn, taker: taker.name })
+    .select({
+      id: samples.id,
+      number: samples.number,
+      trenchCode: trenches.code,
+      contextNumber: contexts.number,
+      type: samples.type,
+      volumeL: samples.volumeL,
+      takenOn: samples.takenOn,
+      taker: taker.name,
+    })
     .from(samples)
     .innerJoin(contexts, eq(contexts.id, samples.contextId))
     .innerJoin(trenches, eq(trenches.id, samples.trenchId))
@@ -68,7 +100,17 @@ export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise
     .limit(MAX_LABELS + 1);
   return {
     truncated: rows.length > MAX_LABELS,
-    items: rows.slice(0, MAX_LABELS).map((r) => ({ key: r.id, kindWord: "Sample", number: r.number, trenchCode: r.trenchCode, contextNumber: r.contextNumber, what: `${sampleTypeLabels[r.type]}${r.volumeL ? ` · ${r.volumeL} l` : ""}`, date: r.takenOn, recorder: r.taker ?? "", code: code("S", r.number) })),
+    items: rows.slice(0, MAX_LABELS).map((r) => ({
+      key: r.id,
+      kindWord: "Sample",
+      number: r.number,
+      trenchCode: r.trenchCode,
+      contextNumber: r.contextNumber,
+      what: `${sampleTypeLabels[r.type]}${r.volumeL ? ` · ${r.volumeL} l` : ""}`,
+      date: r.takenOn,
+      recorder: r.taker ?? "",
+      code: code("S", r.number),
+    })),
   };
 }
 
@@ -77,13 +119,19 @@ export async function labelItems(db: Db, site: Site, q: LabelSelection): Promise
  * or a number with no record (deleted, or never used) all get the same "not found", revealing nothing.
  */
 export async function resolveLabel(db: Db, userId: string, ref: LabelRef): Promise<string> {
-  const [site] = await db.select({ id: sites.id }).from(sites).where(sql`lower(${sites.code}) = lower(${ref.siteCode})`);
+  const [site] = await db
+    .select({ id: sites.id })
+    .from(sites)
+    .where(sql`lower(${sites.code}) = lower(${ref.siteCode})`);
   if (!site) throw notFound("That label's record");
   await loadSiteActor(db, userId, site.id).catch(() => {
     throw notFound("That label's record");
   });
   const table = ref.kind === "F" ? finds : samples;
-  const [row] = await db.select({ id: table.id }).from(table).where(and(eq(table.siteId, site.id), eq(table.number, ref.number)));
+  const [row] = await db
+    .select({ id: table.id })
+    .from(table)
+    .where(and(eq(table.siteId, site.id), eq(table.number, ref.number)));
   if (!row || !isUuid(row.id)) throw notFound("That label's record");
   return `/sites/${site.id}/${ref.kind === "F" ? "finds" : "samples"}/${row.id}`;
 }

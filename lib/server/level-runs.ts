@@ -22,16 +22,24 @@ async function checkTargets(tx: Tx, actor: SiteActor, lines: readonly Line[]) {
   const siteId = actor.site.id;
   for (const [i, line] of lines.entries()) {
     const needsId = ["find", "context_top", "context_base", "spit_top", "spit_base", "benchmark"].includes(line.target);
-    if (needsId && !line.targetId) throw lineError(i, "targetId", `say which ${line.target.replace("_", " ")} the staff stood on.`);
-    if (!needsId && line.targetId) throw lineError(i, "targetId", `a ${line.target.replace("_", " ")} is not a record; leave the record empty.`);
+    if (needsId && !line.targetId)
+      throw lineError(i, "targetId", `say which ${line.target.replace("_", " ")} the staff stood on.`);
+    if (!needsId && line.targetId)
+      throw lineError(i, "targetId", `a ${line.target.replace("_", " ")} is not a record; leave the record empty.`);
     if (!line.targetId) continue;
     let contextId: string | null = null;
     if (line.target === "find") {
-      const [f] = await tx.select({ contextId: finds.contextId }).from(finds).where(and(eq(finds.siteId, siteId), eq(finds.id, line.targetId)));
+      const [f] = await tx
+        .select({ contextId: finds.contextId })
+        .from(finds)
+        .where(and(eq(finds.siteId, siteId), eq(finds.id, line.targetId)));
       if (!f) throw lineError(i, "targetId", "that find is not on this site.");
       contextId = f.contextId;
     } else if (line.target === "spit_top" || line.target === "spit_base") {
-      const [s] = await tx.select({ contextId: spits.contextId }).from(spits).where(and(eq(spits.siteId, siteId), eq(spits.id, line.targetId)));
+      const [s] = await tx
+        .select({ contextId: spits.contextId })
+        .from(spits)
+        .where(and(eq(spits.siteId, siteId), eq(spits.id, line.targetId)));
       if (!s) throw lineError(i, "targetId", "that spit is not on this site.");
       contextId = s.contextId;
     } else if (line.target === "context_top" || line.target === "context_base") {
@@ -42,7 +50,10 @@ async function checkTargets(tx: Tx, actor: SiteActor, lines: readonly Line[]) {
       });
     }
     if (contextId) {
-      const [c] = await tx.select().from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
+      const [c] = await tx
+        .select()
+        .from(contexts)
+        .where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)));
       if (!c) throw lineError(i, "targetId", "that context is not on this site.");
       await assertContextWritable(tx, c, "given new levels");
     }
@@ -75,12 +86,27 @@ export async function recordLevelRun(db: Db, actor: SiteActor, input: LevelRunCr
     await checkTargets(tx, actor, lines);
     let reduced;
     try {
-      reduced = reduceLevelRun({ startLevel: start.level, rows: lines, closingLevel: closing?.level ?? null, tolerance: actor.site.levelTolerance });
+      reduced = reduceLevelRun({
+        startLevel: start.level,
+        rows: lines,
+        closingLevel: closing?.level ?? null,
+        tolerance: actor.site.levelTolerance,
+      });
     } catch (err) {
-      if (err instanceof LevelBookError) throw err.row === null ? badInput(err.message) : lineError(err.row, "station", err.message.replace(/^Line \d+[^:]*: /, ""));
+      if (err instanceof LevelBookError)
+        throw err.row === null
+          ? badInput(err.message)
+          : lineError(err.row, "station", err.message.replace(/^Line \d+[^:]*: /, ""));
       throw err;
     }
-    const book: LevelBookLine[] = lines.map((l) => ({ station: l.station, target: l.target, targetId: l.targetId, backsight: l.backsight, intermediate: l.intermediate, foresight: l.foresight }));
+    const book: LevelBookLine[] = lines.map((l) => ({
+      station: l.station,
+      target: l.target,
+      targetId: l.targetId,
+      backsight: l.backsight,
+      intermediate: l.intermediate,
+      foresight: l.foresight,
+    }));
     const [run] = await tx
       .insert(levelRuns)
       .values({
@@ -97,29 +123,70 @@ export async function recordLevelRun(db: Db, actor: SiteActor, input: LevelRunCr
       })
       .returning();
     const flagged = reduced.withinTolerance === false;
-    const spots = reduced.rows.map((r, i) => ({ siteId: actor.site.id, runId: run!.id, line: i, target: lines[i]!.target, targetId: lines[i]!.targetId, station: r.station, level: r.level, flagged }));
+    const spots = reduced.rows.map((r, i) => ({
+      siteId: actor.site.id,
+      runId: run!.id,
+      line: i,
+      target: lines[i]!.target,
+      targetId: lines[i]!.targetId,
+      station: r.station,
+      level: r.level,
+      flagged,
+    }));
     await tx.insert(spotLevels).values(spots);
     for (const spot of spots) {
       if (spot.target === "find" && spot.targetId) {
         const [before] = await tx.select().from(finds).where(eq(finds.id, spot.targetId));
-        const [after] = await tx.update(finds).set({ z: spot.level, updatedAt: new Date(), version: nextVersion(finds.version) }).where(eq(finds.id, spot.targetId)).returning();
-        await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "level", recordType: "find", recordId: spot.targetId, before: { z: before?.z ?? null }, after: { z: after?.z ?? null, runId: run!.id, flagged } });
+        const [after] = await tx
+          .update(finds)
+          .set({ z: spot.level, updatedAt: new Date(), version: nextVersion(finds.version) })
+          .where(eq(finds.id, spot.targetId))
+          .returning();
+        await recordAudit(tx, {
+          siteId: actor.site.id,
+          actorId: actor.userId,
+          action: "level",
+          recordType: "find",
+          recordId: spot.targetId,
+          before: { z: before?.z ?? null },
+          after: { z: after?.z ?? null, runId: run!.id, flagged },
+        });
       } else if ((spot.target === "spit_top" || spot.target === "spit_base") && spot.targetId) {
         const column = spot.target === "spit_top" ? { topLevel: spot.level } : { baseLevel: spot.level };
         await tx.update(spits).set(column).where(eq(spits.id, spot.targetId));
       }
     }
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "level_run", recordId: run!.id, after: { ...run, levels: spots.length } });
-    return { ...run!, levels: reduced.rows, sumBacksights: reduced.sumBacksights, sumForesights: reduced.sumForesights, rise: reduced.rise };
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "level_run",
+      recordId: run!.id,
+      after: { ...run, levels: spots.length },
+    });
+    return {
+      ...run!,
+      levels: reduced.rows,
+      sumBacksights: reduced.sumBacksights,
+      sumForesights: reduced.sumForesights,
+      rise: reduced.rise,
+    };
   });
 }
 
 export async function listLevelRuns(db: Db, siteId: string) {
-  return db.select().from(levelRuns).where(eq(levelRuns.siteId, siteId)).orderBy(desc(levelRuns.takenOn), desc(levelRuns.createdAt));
+  return db
+    .select()
+    .from(levelRuns)
+    .where(eq(levelRuns.siteId, siteId))
+    .orderBy(desc(levelRuns.takenOn), desc(levelRuns.createdAt));
 }
 
 export async function getLevelRun(db: Db, siteId: string, runId: string) {
-  const [run] = await db.select().from(levelRuns).where(and(eq(levelRuns.siteId, siteId), eq(levelRuns.id, runId)));
+  const [run] = await db
+    .select()
+    .from(levelRuns)
+    .where(and(eq(levelRuns.siteId, siteId), eq(levelRuns.id, runId)));
   if (!run) throw notFound("That levelling run");
   const levels = await db.select().from(spotLevels).where(eq(spotLevels.runId, run.id)).orderBy(asc(spotLevels.line));
   return { ...run, levels };
@@ -130,6 +197,12 @@ export async function contextSpotLevels(db: Db | Tx, siteId: string, contextId: 
   return db
     .select()
     .from(spotLevels)
-    .where(and(eq(spotLevels.siteId, siteId), eq(spotLevels.targetId, contextId), inArray(spotLevels.target, ["context_top", "context_base"])))
+    .where(
+      and(
+        eq(spotLevels.siteId, siteId),
+        eq(spotLevels.targetId, contextId),
+        inArray(spotLevels.target, ["context_top", "context_base"]),
+      ),
+    )
     .orderBy(asc(spotLevels.level));
 }

@@ -16,7 +16,13 @@ import { formatWhen } from "@/lib/words/when";
  *
  * Refusals are 409 and name who submitted or signed off the sheet and when.
  */
-export type LockDetails = { contextId: string; contextNumber: number; state: "awaiting" | "signed_off"; by: string; at: string | null };
+export type LockDetails = {
+  contextId: string;
+  contextNumber: number;
+  state: "awaiting" | "signed_off";
+  by: string;
+  at: string | null;
+};
 
 /** "14 Jul 2026, 09:30 UTC": the one date format (lib/words/when.ts), in the reader's language when known. */
 export function formatStamp(at: Date | null | undefined, locale?: string): string | null {
@@ -44,7 +50,13 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
   if (context.state === "signed_off") {
     const who = await nameOf(tx, context.signedOffBy, "a director");
     const when = formatStamp(context.signedOffAt);
-    const details: LockDetails = { contextId: context.id, contextNumber: context.number, state: "signed_off", by: who, at: when };
+    const details: LockDetails = {
+      contextId: context.id,
+      contextNumber: context.number,
+      state: "signed_off",
+      by: who,
+      at: when,
+    };
     throw conflict(
       `Context ${context.number} was signed off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} until a director reopens it with a reason.`,
       details,
@@ -53,7 +65,13 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
   }
   const who = await nameOf(tx, context.submittedBy, "a recorder");
   const when = formatStamp(context.submittedAt);
-  const details: LockDetails = { contextId: context.id, contextNumber: context.number, state: "awaiting", by: who, at: when };
+  const details: LockDetails = {
+    contextId: context.id,
+    contextNumber: context.number,
+    state: "awaiting",
+    by: who,
+    at: when,
+  };
   throw conflict(
     `Context ${context.number} was submitted for sign-off by ${who} on ${when ?? "an earlier date"}; it cannot be ${doing} while it awaits sign-off. A director can sign it off or return it to open with a reason.`,
     details,
@@ -65,7 +83,11 @@ export async function assertContextWritable(tx: Db | Tx, given: Context, doing =
  * The same refusal for a write that touches several contexts at once (an outline edit that would leave finds
  * of these contexts outside, an import into several contexts): the first locked one is named.
  */
-export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly string[], doing = "changed"): Promise<void> {
+export async function assertContextsWritable(
+  tx: Db | Tx,
+  contextIds: readonly string[],
+  doing = "changed",
+): Promise<void> {
   for (const id of [...new Set(contextIds)]) {
     const [c] = await tx.select().from(contexts).where(eq(contexts.id, id));
     if (c) await assertContextWritable(tx, c, doing);
@@ -77,8 +99,16 @@ export async function assertContextsWritable(tx: Db | Tx, contextIds: readonly s
  * signed it off and when. A trench is signed off when all its contexts are (sign-off.ts); reopening any of
  * them reopens the trench. Callers read the trench row `for update` in the same transaction.
  */
-export async function assertTrenchWritable(tx: Db | Tx, trench: Pick<Trench, "code" | "signedOffAt" | "signedOffBy">, doing = "changed"): Promise<void> {
+export async function assertTrenchWritable(
+  tx: Db | Tx,
+  trench: Pick<Trench, "code" | "signedOffAt" | "signedOffBy">,
+  doing = "changed",
+): Promise<void> {
   if (!trench.signedOffAt) return;
   const who = await nameOf(tx, trench.signedOffBy, "a director");
-  throw conflict(`Trench ${trench.code} was signed off by ${who} on ${formatStamp(trench.signedOffAt)}; it cannot be ${doing} until a director reopens one of its contexts with a reason.`, undefined, "trench-locked");
+  throw conflict(
+    `Trench ${trench.code} was signed off by ${who} on ${formatStamp(trench.signedOffAt)}; it cannot be ${doing} until a director reopens one of its contexts with a reason.`,
+    undefined,
+    "trench-locked",
+  );
 }

@@ -2,7 +2,17 @@ import "server-only";
 import { and, asc, eq, isNull, max, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { auditEntries, contexts, finds, numberBlocks, numberVoids, samples, sites, users, type NumberKind } from "@/db/schema";
+import {
+  auditEntries,
+  contexts,
+  finds,
+  numberBlocks,
+  numberVoids,
+  samples,
+  sites,
+  users,
+  type NumberKind,
+} from "@/db/schema";
 import { runsOf } from "./number-blocks";
 
 /**
@@ -44,20 +54,38 @@ export type NumberAccounting = {
 };
 
 /** Numbers carried by records of the sequence, each with its status, lowest first. */
-async function recordNumbers(db: Db | Tx, siteId: string, kind: NumberKind): Promise<{ n: number; status: NumberStatus }[]> {
+async function recordNumbers(
+  db: Db | Tx,
+  siteId: string,
+  kind: NumberKind,
+): Promise<{ n: number; status: NumberStatus }[]> {
   if (kind === "context") {
-    const rows = await db.select({ n: contexts.number }).from(contexts).where(eq(contexts.siteId, siteId)).orderBy(asc(contexts.number));
+    const rows = await db
+      .select({ n: contexts.number })
+      .from(contexts)
+      .where(eq(contexts.siteId, siteId))
+      .orderBy(asc(contexts.number));
     return rows.map((r) => ({ n: r.n, status: "context" as const }));
   }
-  const out: { n: number; status: NumberStatus }[] = (await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId))).map((r) => ({ n: r.n, status: "find" as const }));
+  const out: { n: number; status: NumberStatus }[] = (
+    await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId))
+  ).map((r) => ({ n: r.n, status: "find" as const }));
   const [site] = await db.select({ shared: sites.samplesShareFindNumbers }).from(sites).where(eq(sites.id, siteId));
-  if (site?.shared) for (const r of await db.select({ n: samples.number }).from(samples).where(eq(samples.siteId, siteId))) out.push({ n: r.n, status: "sample" });
+  if (site?.shared)
+    for (const r of await db.select({ n: samples.number }).from(samples).where(eq(samples.siteId, siteId)))
+      out.push({ n: r.n, status: "sample" });
   return out.sort((a, b) => a.n - b.n);
 }
 
 async function highestOf(db: Db | Tx, siteId: string, kind: NumberKind, records: { n: number }[]): Promise<number> {
-  const [b] = await db.select({ n: max(numberBlocks.last) }).from(numberBlocks).where(and(eq(numberBlocks.siteId, siteId), eq(numberBlocks.kind, kind)));
-  const [v] = await db.select({ n: max(numberVoids.last) }).from(numberVoids).where(and(eq(numberVoids.siteId, siteId), eq(numberVoids.kind, kind)));
+  const [b] = await db
+    .select({ n: max(numberBlocks.last) })
+    .from(numberBlocks)
+    .where(and(eq(numberBlocks.siteId, siteId), eq(numberBlocks.kind, kind)));
+  const [v] = await db
+    .select({ n: max(numberVoids.last) })
+    .from(numberVoids)
+    .where(and(eq(numberVoids.siteId, siteId), eq(numberVoids.kind, kind)));
   let counter = 0;
   if (kind === "find") {
     const [s] = await db.select({ next: sites.nextFindNumber }).from(sites).where(eq(sites.id, siteId));
@@ -76,7 +104,8 @@ export async function accountNumbers(db: Db | Tx, siteId: string, kind: NumberKi
   while (i < records.length) {
     const start = records[i]!;
     let end = start.n;
-    while (i + 1 < records.length && records[i + 1]!.n === end + 1 && records[i + 1]!.status === start.status) end = records[++i]!.n;
+    while (i + 1 < records.length && records[i + 1]!.n === end + 1 && records[i + 1]!.status === start.status)
+      end = records[++i]!.n;
     ranges.push({ first: start.n, last: end, status: start.status });
     i++;
   }
@@ -86,7 +115,13 @@ export async function accountNumbers(db: Db | Tx, siteId: string, kind: NumberKi
   const holder = alias(users, "holder");
   const voider = alias(users, "voider");
   const voids = await db
-    .select({ first: numberVoids.first, last: numberVoids.last, reason: numberVoids.reason, heldBy: holder.name, by: voider.name })
+    .select({
+      first: numberVoids.first,
+      last: numberVoids.last,
+      reason: numberVoids.reason,
+      heldBy: holder.name,
+      by: voider.name,
+    })
     .from(numberVoids)
     .leftJoin(holder, eq(holder.id, numberVoids.heldBy))
     .leftJoin(voider, eq(voider.id, numberVoids.voidedBy))
@@ -98,14 +133,30 @@ export async function accountNumbers(db: Db | Tx, siteId: string, kind: NumberKi
 
   // Open blocks: their numbers not yet used are reserved for the holder's device.
   const blocks = await db
-    .select({ id: numberBlocks.id, first: numberBlocks.first, last: numberBlocks.last, deviceId: numberBlocks.deviceId, deviceLabel: numberBlocks.deviceLabel, holder: users.name })
+    .select({
+      id: numberBlocks.id,
+      first: numberBlocks.first,
+      last: numberBlocks.last,
+      deviceId: numberBlocks.deviceId,
+      deviceLabel: numberBlocks.deviceLabel,
+      holder: users.name,
+    })
     .from(numberBlocks)
     .leftJoin(users, eq(users.id, numberBlocks.userId))
     .where(and(eq(numberBlocks.siteId, siteId), eq(numberBlocks.kind, kind), isNull(numberBlocks.releasedAt)));
   for (const b of blocks) {
     const free: number[] = [];
     for (let n = b.first; n <= b.last; n++) if (!taken.has(n)) free.push(n);
-    for (const [first, last] of runsOf(free)) ranges.push({ first, last, status: "reserved", blockId: b.id, deviceId: b.deviceId, deviceLabel: b.deviceLabel, holder: b.holder });
+    for (const [first, last] of runsOf(free))
+      ranges.push({
+        first,
+        last,
+        status: "reserved",
+        blockId: b.id,
+        deviceId: b.deviceId,
+        deviceLabel: b.deviceLabel,
+        holder: b.holder,
+      });
     for (const n of free) taken.add(n);
   }
 
@@ -115,7 +166,9 @@ export async function accountNumbers(db: Db | Tx, siteId: string, kind: NumberKi
       .select({ n: sql<number>`(${auditEntries.before}->>'number')::int`, by: users.name })
       .from(auditEntries)
       .leftJoin(users, eq(users.id, auditEntries.actorId))
-      .where(and(eq(auditEntries.siteId, siteId), eq(auditEntries.recordType, "find"), eq(auditEntries.action, "delete")));
+      .where(
+        and(eq(auditEntries.siteId, siteId), eq(auditEntries.recordType, "find"), eq(auditEntries.action, "delete")),
+      );
     for (const d of deleted) {
       if (d.n == null || taken.has(d.n)) continue;
       ranges.push({ first: d.n, last: d.n, status: "void", reason: "find deleted", by: d.by });

@@ -35,7 +35,10 @@ export function buildOpenApiDocument() {
       },
       responses: {
         [op.successStatus ?? 200]: { description: "Done" },
-        400: { description: "Invalid input, with field errors", content: { "application/json": { schema: errorBody } } },
+        400: {
+          description: "Invalid input, with field errors",
+          content: { "application/json": { schema: errorBody } },
+        },
         401: { description: "Not signed in" },
         403: { description: "Your role on this site does not allow it" },
         404: { description: "Not found (or not a member of the site)" },
@@ -43,10 +46,19 @@ export function buildOpenApiDocument() {
       },
     });
   }
-  registry.registerPath({ method: "get", path: "/api/health", summary: "Liveness and database check", responses: { 200: { description: "Healthy" } } });
+  registry.registerPath({
+    method: "get",
+    path: "/api/health",
+    summary: "Liveness and database check",
+    responses: { 200: { description: "Healthy" } },
+  });
   const generator = new OpenApiGeneratorV31(registry.definitions);
   return generator.generateDocument({
     openapi: "3.1.0",
-    info: { title: "Loamwork API", version: "0.1.0", description: "Excavation finds recording and distribution tests." },
+    info: {
+      title: "Loamwork API",
+      version: "0.1.0",
+      description: "Excavation finds recording and distribution tests.",
+    },
   });
 }

@@ -12,7 +12,10 @@ async function signedInUser() {
   const id = await currentUserId();
   if (!id) redirect("/sign-in");
   const db = await getDb();
-  const [user] = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, id));
+  const [user] = await db
+    .select({ id: users.id, name: users.name, email: users.email })
+    .from(users)
+    .where(eq(users.id, id));
   if (!user) redirect("/sign-in");
   return { db, user };
 }

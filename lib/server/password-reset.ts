@@ -33,7 +33,13 @@ export async function requestPasswordReset(db: Db, email: string): Promise<{ acc
   const [recent] = await db
     .select({ n: sql<number>`count(*)::int` })
     .from(passwordResets)
-    .where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt), gt(passwordResets.createdAt, new Date(Date.now() - 3600_000))));
+    .where(
+      and(
+        eq(passwordResets.userId, user.id),
+        isNull(passwordResets.usedAt),
+        gt(passwordResets.createdAt, new Date(Date.now() - 3600_000)),
+      ),
+    );
   if ((recent?.n ?? 0) >= RESETS_PER_HOUR) return { accepted: true };
   const token = newToken();
   const expiresAt = new Date(Date.now() + RESET_MINUTES * 60_000);
@@ -46,17 +52,36 @@ export async function requestPasswordReset(db: Db, email: string): Promise<{ acc
  * Sets the new password, uses up the link and every other open link of the account, ends every session the
  * account had (whoever knew the old password may hold one), and clears the sign-in limits of the account.
  */
-export async function confirmPasswordReset(db: Db, input: z.infer<typeof resetConfirmSchema>): Promise<{ email: string }> {
+export async function confirmPasswordReset(
+  db: Db,
+  input: z.infer<typeof resetConfirmSchema>,
+): Promise<{ email: string }> {
   return db.transaction(async (tx) => {
     const [reset] = await tx
       .select()
       .from(passwordResets)
-      .where(and(eq(passwordResets.tokenHash, hashToken(input.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
+      .where(
+        and(
+          eq(passwordResets.tokenHash, hashToken(input.token)),
+          isNull(passwordResets.usedAt),
+          gt(passwordResets.expiresAt, new Date()),
+        ),
+      )
       .for("update");
     if (!reset) throw conflict("This reset link has expired or has already been used; ask for a new one.");
-    const user = written(await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, reset.userId)).returning(), "The new password");
+    const user = written(
+      await tx
+        .update(users)
+        .set({ passwordHash: await hashPassword(input.password) })
+        .where(eq(users.id, reset.userId))
+        .returning(),
+      "The new password",
+    );
     await endSessions(tx, user.id);
-    await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
+    await tx
+      .update(passwordResets)
+      .set({ usedAt: new Date() })
+      .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
     await clearSignInLimits(tx, user.email);
     return { email: user.email };
   });

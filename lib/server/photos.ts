@@ -43,12 +43,23 @@ export async function listPhotos(db: Db, siteId: string, trenchId?: string): Pro
 
 export async function getPhoto(db: Db, siteId: string, photoId: string): Promise<Photo> {
   if (!/^[0-9a-f-]{36}$/i.test(photoId)) throw notFound("That photo");
-  const [row] = await db.select().from(photos).where(and(eq(photos.siteId, siteId), eq(photos.id, photoId)));
+  const [row] = await db
+    .select()
+    .from(photos)
+    .where(and(eq(photos.siteId, siteId), eq(photos.id, photoId)));
   if (!row) throw notFound("That photo");
   return row;
 }
 
-export type UploadedPhoto = { siteId: string; trenchId: string; userId: string; fileKey: string; fileName: string; mimeType: string; bytes: Buffer };
+export type UploadedPhoto = {
+  siteId: string;
+  trenchId: string;
+  userId: string;
+  fileKey: string;
+  fileName: string;
+  mimeType: string;
+  bytes: Buffer;
+};
 
 /**
  * What the audit trail says of a photo: the file by name, size and type, and the photo's id — never the
@@ -70,41 +81,96 @@ export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<Pho
   const row = await db.transaction(async (tx) => {
     const [row] = await tx
       .insert(photos)
-      .values({ id, siteId: up.siteId, trenchId: up.trenchId, fileKey: up.fileKey, fileName: up.fileName, mimeType: up.mimeType, width: d.width, height: d.height, displayPath: `${folder}/display.jpg`, thumbPath: `${folder}/thumb.jpg`, uploadedBy: up.userId })
+      .values({
+        id,
+        siteId: up.siteId,
+        trenchId: up.trenchId,
+        fileKey: up.fileKey,
+        fileName: up.fileName,
+        mimeType: up.mimeType,
+        width: d.width,
+        height: d.height,
+        displayPath: `${folder}/display.jpg`,
+        thumbPath: `${folder}/thumb.jpg`,
+        uploadedBy: up.userId,
+      })
       .returning();
-    await recordAudit(tx, { siteId: up.siteId, actorId: up.userId, action: "create", recordType: "photo", recordId: id, after: auditedPhoto(row, up.bytes.length) });
+    await recordAudit(tx, {
+      siteId: up.siteId,
+      actorId: up.userId,
+      action: "create",
+      recordType: "photo",
+      recordId: id,
+      after: auditedPhoto(row, up.bytes.length),
+    });
     return row;
   });
   return toPhotoView(row);
 }
 
 /** Fits a photo to the grid; a projective fit also gets a warped raster for the plan. */
-export async function fitSitePhoto(db: Db, actor: SiteActor, photoId: string, input: PhotoFitInput): Promise<PhotoView> {
+export async function fitSitePhoto(
+  db: Db,
+  actor: SiteActor,
+  photoId: string,
+  input: PhotoFitInput,
+): Promise<PhotoView> {
   const before = await getPhoto(db, actor.site.id, photoId);
   const { width, height } = before;
   if (width && height) {
     const off = input.points.findIndex((p) => p.px < 0 || p.py < 0 || p.px > width || p.py > height);
-    if (off >= 0) throw badInput(`Point ${off + 1} is off the photo (${width} × ${height} px).`, { points: [`Point ${off + 1} is off the photo.`] }, { points: [off] });
+    if (off >= 0)
+      throw badInput(
+        `Point ${off + 1} is off the photo (${width} × ${height} px).`,
+        { points: [`Point ${off + 1} is off the photo.`] },
+        { points: [off] },
+      );
   }
   let fit;
   try {
     fit = fitPhoto(input.points, { model: input.model });
   } catch (err) {
-    if (err instanceof PhotoFitError) throw badInput(`The control points cannot fit this photo: ${err.message}`, { points: [err.message] }, { points: err.points });
+    if (err instanceof PhotoFitError)
+      throw badInput(
+        `The control points cannot fit this photo: ${err.message}`,
+        { points: [err.message] },
+        { points: err.points },
+      );
     throw err;
   }
-  const stored: StoredFit = { ...fit, points: input.points, fittedAt: new Date().toISOString(), fittedBy: actor.userId };
+  const stored: StoredFit = {
+    ...fit,
+    points: input.points,
+    fittedAt: new Date().toISOString(),
+    fittedBy: actor.userId,
+  };
   const folder = photoFolder(actor.site.id, photoId);
   if (fit.model === "projective") {
     const display = before.displayPath ? await loadFile(before.displayPath) : null;
     if (!display) throw badInput("This photo has no display image to warp; upload it again.");
     const warp = await warpProjective(display, fit.matrix);
     await saveFile(`${folder}/warp.png`, warp.png);
-    stored.warp = { url: "", minX: warp.minX, minY: warp.minY, maxX: warp.maxX, maxY: warp.maxY, width: warp.width, height: warp.height };
+    stored.warp = {
+      url: "",
+      minX: warp.minX,
+      minY: warp.minY,
+      maxX: warp.maxX,
+      maxY: warp.maxY,
+      width: warp.width,
+      height: warp.height,
+    };
   }
   const after = await db.transaction(async (tx) => {
     const [after] = await tx.update(photos).set({ fit: stored }).where(eq(photos.id, photoId)).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "fit", recordType: "photo", recordId: photoId, before: before.fit, after: stored });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "fit",
+      recordType: "photo",
+      recordId: photoId,
+      before: before.fit,
+      after: stored,
+    });
     return after;
   });
   return toPhotoView(after);
@@ -114,7 +180,14 @@ export async function deleteSitePhoto(db: Db, actor: SiteActor, photoId: string)
   const before = await getPhoto(db, actor.site.id, photoId);
   await db.transaction(async (tx) => {
     await tx.delete(photos).where(eq(photos.id, photoId));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "photo", recordId: photoId, before: auditedPhoto(before) });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "photo",
+      recordId: photoId,
+      before: auditedPhoto(before),
+    });
   });
   await removeFolder(photoFolder(actor.site.id, photoId));
   await forgetUpload(before.fileKey);
@@ -135,7 +208,13 @@ async function readOriginal(p: Photo): Promise<Response> {
   }
   const name = p.fileName.replace(/[^\w.-]+/g, "_");
   return new Response(new Uint8Array(bytes), {
-    headers: { "content-type": p.mimeType, "content-disposition": `attachment; filename="${name}"`, "cache-control": "private, no-store", "content-length": String(bytes.length), "x-content-type-options": "nosniff" },
+    headers: {
+      "content-type": p.mimeType,
+      "content-disposition": `attachment; filename="${name}"`,
+      "cache-control": "private, no-store",
+      "content-length": String(bytes.length),
+      "x-content-type-options": "nosniff",
+    },
   });
 }
 
@@ -143,10 +222,22 @@ async function readOriginal(p: Photo): Promise<Response> {
 export async function readPhotoFile(db: Db, siteId: string, photoId: string, variant: PhotoVariant) {
   const p = await getPhoto(db, siteId, photoId);
   if (variant === "original") return readOriginal(p);
-  const rel = variant === "display" ? p.displayPath : variant === "thumb" ? p.thumbPath : p.fit && (p.fit as StoredFit).warp ? `${photoFolder(siteId, photoId)}/warp.png` : null;
+  const rel =
+    variant === "display"
+      ? p.displayPath
+      : variant === "thumb"
+        ? p.thumbPath
+        : p.fit && (p.fit as StoredFit).warp
+          ? `${photoFolder(siteId, photoId)}/warp.png`
+          : null;
   const bytes = rel ? await loadFile(rel) : null;
   if (!bytes) throw notFound("That photo file");
   return new Response(new Uint8Array(bytes), {
-    headers: { "content-type": variantTypes[variant], "cache-control": "private, max-age=300", "content-length": String(bytes.length), "x-content-type-options": "nosniff" },
+    headers: {
+      "content-type": variantTypes[variant],
+      "cache-control": "private, max-age=300",
+      "content-length": String(bytes.length),
+      "x-content-type-options": "nosniff",
+    },
   });
 }

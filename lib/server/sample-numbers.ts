@@ -14,7 +14,11 @@ import { allocateFindNumbers } from "./find-numbers";
  * number is never handed out again.
  */
 export async function allocateSampleNumber(tx: Tx, siteId: string): Promise<number> {
-  const [site] = await tx.select({ shared: sites.samplesShareFindNumbers }).from(sites).where(eq(sites.id, siteId)).for("update");
+  const [site] = await tx
+    .select({ shared: sites.samplesShareFindNumbers })
+    .from(sites)
+    .where(eq(sites.id, siteId))
+    .for("update");
   if (site?.shared) return allocateFindNumbers(tx, siteId, 1);
   const [row] = await tx
     .update(sites)
@@ -22,5 +26,7 @@ export async function allocateSampleNumber(tx: Tx, siteId: string): Promise<numb
     .where(sql`${sites.id} = ${siteId} and ${sites.nextSampleNumber} <= ${MAX_FIND_NUMBER}`)
     .returning({ next: sites.nextSampleNumber });
   if (row) return row.next - 1;
-  throw conflict(`This site's sample numbers are used up: they go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`, { left: 0 });
+  throw conflict(`This site's sample numbers are used up: they go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`, {
+    left: 0,
+  });
 }

@@ -23,7 +23,10 @@ export async function readSample(db: Db | Tx, siteId: string, sampleId: string) 
 
 export async function getSample(db: Db | Tx, siteId: string, sampleId: string): Promise<Sample> {
   if (!isUuid(sampleId)) throw notFound("That sample");
-  const [row] = await db.select().from(samples).where(and(eq(samples.siteId, siteId), eq(samples.id, sampleId)));
+  const [row] = await db
+    .select()
+    .from(samples)
+    .where(and(eq(samples.siteId, siteId), eq(samples.id, sampleId)));
   if (!row) throw notFound("That sample");
   return row;
 }
@@ -31,8 +34,14 @@ export async function getSample(db: Db | Tx, siteId: string, sampleId: string): 
 /** The spit of that number in the sample's context (its id), or null when the sample was not taken by spit. */
 async function spitOf(tx: Tx, context: Context, spit: number | null | undefined): Promise<string | null> {
   if (spit === null || spit === undefined) return null;
-  const [row] = await tx.select({ id: spits.id }).from(spits).where(and(eq(spits.contextId, context.id), eq(spits.number, spit)));
-  if (!row) throw badInput(`Context ${context.number} has no spit ${spit}; add the spit on the context sheet first.`, { spit: [`Context ${context.number} has no spit ${spit}.`] });
+  const [row] = await tx
+    .select({ id: spits.id })
+    .from(spits)
+    .where(and(eq(spits.contextId, context.id), eq(spits.number, spit)));
+  if (!row)
+    throw badInput(`Context ${context.number} has no spit ${spit}; add the spit on the context sheet first.`, {
+      spit: [`Context ${context.number} has no spit ${spit}.`],
+    });
   return row.id;
 }
 
@@ -46,8 +55,14 @@ async function withSpitNumber(tx: Db | Tx, row: Sample) {
 /** Whoever took the sample is a member of the site. */
 async function assertMember(tx: Tx, siteId: string, userId: string | null | undefined) {
   if (!userId) return;
-  const [row] = await tx.select({ userId: memberships.userId }).from(memberships).where(and(eq(memberships.siteId, siteId), eq(memberships.userId, userId)));
-  if (!row) throw badInput("The person who took the sample is not a member of this site.", { takenBy: ["Pick a member of this site."] });
+  const [row] = await tx
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.siteId, siteId), eq(memberships.userId, userId)));
+  if (!row)
+    throw badInput("The person who took the sample is not a member of this site.", {
+      takenBy: ["Pick a member of this site."],
+    });
 }
 
 /** A plotted sample lies inside its trench's outline, like a find. */
@@ -92,7 +107,14 @@ export async function createSample(db: Db, actor: SiteActor, input: SampleCreate
         recordedBy: actor.userId,
       })
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "sample", recordId: row!.id, after: row });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "sample",
+      recordId: row!.id,
+      after: row,
+    });
     return withSpitNumber(tx, row!);
   });
 }
@@ -115,7 +137,10 @@ export async function updateSample(db: Db, actor: SiteActor, sampleId: string, i
     await assertMember(tx, actor.site.id, input.takenBy);
     const x = input.x === undefined ? before.x : input.x;
     const y = input.y === undefined ? before.y : input.y;
-    if ((x === null) !== (y === null)) throw badInput("Give both x and y, or neither.", { [x === null ? "x" : "y"]: ["Give both x and y, or neither."] });
+    if ((x === null) !== (y === null))
+      throw badInput("Give both x and y, or neither.", {
+        [x === null ? "x" : "y"]: ["Give both x and y, or neither."],
+      });
     await assertPositionInside(tx, actor.site.id, to.trenchId, x, y);
     const { spit: _spit, ...fields } = input;
     const [after] = await tx
@@ -123,7 +148,15 @@ export async function updateSample(db: Db, actor: SiteActor, sampleId: string, i
       .set({ ...fields, spitId, trenchId: to.trenchId, updatedAt: new Date() })
       .where(eq(samples.id, before.id))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "sample", recordId: before.id, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "sample",
+      recordId: before.id,
+      before,
+      after,
+    });
     return withSpitNumber(tx, after!);
   });
 }
@@ -135,7 +168,15 @@ export async function deleteSample(db: Db, actor: SiteActor, sampleId: string, r
     const context = await getContext(tx, actor.site.id, before.contextId);
     await assertContextWritable(tx, context, "changed (nor its samples)");
     await tx.delete(samples).where(eq(samples.id, before.id));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "sample", recordId: before.id, before, reason });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "sample",
+      recordId: before.id,
+      before,
+      reason,
+    });
     return { deleted: before.id, number: before.number };
   });
 }
@@ -148,17 +189,39 @@ export async function deleteSample(db: Db, actor: SiteActor, sampleId: string, r
 export async function setSampleStatus(db: Db, actor: SiteActor, sampleIds: string[], status: SampleStatus) {
   const ids = [...new Set(sampleIds)];
   return db.transaction(async (tx) => {
-    const rows = await tx.select().from(samples).where(and(eq(samples.siteId, actor.site.id), inArray(samples.id, ids))).for("update");
+    const rows = await tx
+      .select()
+      .from(samples)
+      .where(and(eq(samples.siteId, actor.site.id), inArray(samples.id, ids)))
+      .for("update");
     if (rows.length !== ids.length) {
       const found = new Set(rows.map((r) => r.id));
       const missing = ids.filter((id) => !found.has(id));
-      throw notFound(`${missing.length === 1 ? "One of the samples" : `${missing.length} of the samples`} (${missing.slice(0, 5).join(", ")}${missing.length > 5 ? " …" : ""})`);
+      throw notFound(
+        `${missing.length === 1 ? "One of the samples" : `${missing.length} of the samples`} (${missing.slice(0, 5).join(", ")}${missing.length > 5 ? " …" : ""})`,
+      );
     }
     const changed = rows.filter((r) => r.status !== status);
     if (changed.length) {
-      await tx.update(samples).set({ status, updatedAt: new Date() }).where(inArray(samples.id, changed.map((r) => r.id)));
+      await tx
+        .update(samples)
+        .set({ status, updatedAt: new Date() })
+        .where(
+          inArray(
+            samples.id,
+            changed.map((r) => r.id),
+          ),
+        );
       for (const r of changed) {
-        await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "status", recordType: "sample", recordId: r.id, before: { status: r.status }, after: { status } });
+        await recordAudit(tx, {
+          siteId: actor.site.id,
+          actorId: actor.userId,
+          action: "status",
+          recordType: "sample",
+          recordId: r.id,
+          before: { status: r.status },
+          after: { status },
+        });
       }
     }
     return { changed: changed.length, status };
@@ -214,14 +277,20 @@ export type SampleRegisterRow = Awaited<ReturnType<typeof registerQuery>>[number
 /** One page of the samples register, in number order. */
 export async function listSamples(db: Db, siteId: string, q: SampleListQuery) {
   const [rows, [total]] = await Promise.all([
-    registerQuery(db, siteId, q).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+    registerQuery(db, siteId, q)
+      .limit(q.pageSize)
+      .offset((q.page - 1) * q.pageSize),
     db.select({ n: count() }).from(samples).where(sampleFilter(siteId, q)),
   ]);
   return { page: q.page, pageSize: q.pageSize, total: total?.n ?? 0, rows };
 }
 
 /** Every sample the filters select (exports, labels). */
-export async function allSamples(db: Db, siteId: string, q: Omit<SampleListQuery, "page" | "pageSize">): Promise<SampleRegisterRow[]> {
+export async function allSamples(
+  db: Db,
+  siteId: string,
+  q: Omit<SampleListQuery, "page" | "pageSize">,
+): Promise<SampleRegisterRow[]> {
   return registerQuery(db, siteId, q);
 }
 

@@ -11,11 +11,23 @@ import type { SiteActor } from "./membership";
 import { getTrench } from "./trenches";
 
 export async function listSections(db: Db | Tx, siteId: string, trenchId: string): Promise<FindSection[]> {
-  return db.select().from(findSections).where(and(eq(findSections.siteId, siteId), eq(findSections.trenchId, trenchId))).orderBy(asc(findSections.name));
+  return db
+    .select()
+    .from(findSections)
+    .where(and(eq(findSections.siteId, siteId), eq(findSections.trenchId, trenchId)))
+    .orderBy(asc(findSections.name));
 }
 
-export async function getSection(db: Db | Tx, siteId: string, trenchId: string, sectionId: string): Promise<FindSection> {
-  const [row] = await db.select().from(findSections).where(and(eq(findSections.siteId, siteId), eq(findSections.trenchId, trenchId), eq(findSections.id, sectionId)));
+export async function getSection(
+  db: Db | Tx,
+  siteId: string,
+  trenchId: string,
+  sectionId: string,
+): Promise<FindSection> {
+  const [row] = await db
+    .select()
+    .from(findSections)
+    .where(and(eq(findSections.siteId, siteId), eq(findSections.trenchId, trenchId), eq(findSections.id, sectionId)));
   if (!row) throw notFound("That section");
   return row;
 }
@@ -24,10 +36,23 @@ export async function getSection(db: Db | Tx, siteId: string, trenchId: string, 
 export async function createSection(db: Db, actor: SiteActor, trenchId: string, input: SectionCreate) {
   return db.transaction(async (tx) => {
     const trench = await getTrench(tx, actor.site.id, trenchId);
-    const [taken] = await tx.select({ id: findSections.id }).from(findSections).where(and(eq(findSections.trenchId, trench.id), eq(findSections.name, input.name)));
+    const [taken] = await tx
+      .select({ id: findSections.id })
+      .from(findSections)
+      .where(and(eq(findSections.trenchId, trench.id), eq(findSections.name, input.name)));
     if (taken) throw conflict(`Trench ${trench.code} already has a section named ${input.name}.`);
-    const [row] = await tx.insert(findSections).values({ ...input, siteId: actor.site.id, trenchId: trench.id, createdBy: actor.userId }).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "section", recordId: row!.id, after: row });
+    const [row] = await tx
+      .insert(findSections)
+      .values({ ...input, siteId: actor.site.id, trenchId: trench.id, createdBy: actor.userId })
+      .returning();
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "section",
+      recordId: row!.id,
+      after: row,
+    });
     return row!;
   });
 }
@@ -37,7 +62,14 @@ export async function deleteSection(db: Db, actor: SiteActor, trenchId: string, 
   return db.transaction(async (tx) => {
     const row = await getSection(tx, actor.site.id, trenchId, sectionId);
     await tx.delete(findSections).where(eq(findSections.id, row.id));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "section", recordId: row.id, before: row });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "section",
+      recordId: row.id,
+      before: row,
+    });
     return { deleted: row.id, name: row.name };
   });
 }
@@ -68,14 +100,30 @@ export async function trenchContextLevels(db: Db | Tx, siteId: string, trenchId:
 /** The finds of a trench as a section reads them (position, level, context, class face). */
 export async function sectionFinds(db: Db, siteId: string, trenchId: string) {
   const rows = await allFinds(db, siteId, { trenchId, sort: "number", dir: "asc" });
-  return rows.map((r) => ({ number: r.number, x: r.x, y: r.y, z: r.z, contextNumber: r.contextNumber, classCode: r.classCode, colour: r.classColour, symbol: r.classSymbol }));
+  return rows.map((r) => ({
+    number: r.number,
+    x: r.x,
+    y: r.y,
+    z: r.z,
+    contextNumber: r.contextNumber,
+    classCode: r.classCode,
+    colour: r.classColour,
+    symbol: r.classSymbol,
+  }));
 }
 
-export const sectionLine = (s: FindSection) => ({ start: [s.startX, s.startY] as const, end: [s.endX, s.endY] as const, halfWidth: s.halfWidth });
+export const sectionLine = (s: FindSection) => ({
+  start: [s.startX, s.startY] as const,
+  end: [s.endX, s.endY] as const,
+  halfWidth: s.halfWidth,
+});
 
 /** A saved section drawn from the records as they are now. */
 export async function sectionFigure(db: Db, site: Site, trench: Trench, section: FindSection): Promise<SectionFigure> {
-  const [finds, levels] = await Promise.all([sectionFinds(db, site.id, trench.id), trenchContextLevels(db, site.id, trench.id)]);
+  const [finds, levels] = await Promise.all([
+    sectionFinds(db, site.id, trench.id),
+    trenchContextLevels(db, site.id, trench.id),
+  ]);
   return buildSectionFigure(section.name, sectionLine(section), section.exaggeration, finds, levels);
 }
 
@@ -83,9 +131,22 @@ export async function sectionFigure(db: Db, site: Site, trench: Trench, section:
 export async function drawTrenchSections(db: Db, site: Site, trench: Trench) {
   const saved = await listSections(db, site.id, trench.id);
   if (saved.length === 0) return [];
-  const [finds, levels] = await Promise.all([sectionFinds(db, site.id, trench.id), trenchContextLevels(db, site.id, trench.id)]);
+  const [finds, levels] = await Promise.all([
+    sectionFinds(db, site.id, trench.id),
+    trenchContextLevels(db, site.id, trench.id),
+  ]);
   return saved.map((s) => {
     const fig = buildSectionFigure(s.name, sectionLine(s), s.exaggeration, finds, levels);
-    return { id: s.id, name: s.name, drawn: fig.finds.length, withoutLevel: fig.withoutLevel.length, svg: sectionSvg(fig, { title: `Trench ${trench.code}, section ${s.name}`, datumName: site.datumName, width: 700 }) };
+    return {
+      id: s.id,
+      name: s.name,
+      drawn: fig.finds.length,
+      withoutLevel: fig.withoutLevel.length,
+      svg: sectionSvg(fig, {
+        title: `Trench ${trench.code}, section ${s.name}`,
+        datumName: site.datumName,
+        width: 700,
+      }),
+    };
   });
 }

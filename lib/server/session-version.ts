@@ -19,5 +19,8 @@ export async function sessionIsCurrent(userId: unknown, version: unknown): Promi
 
 /** Ends every session of the account (signing out, a password reset). */
 export async function endSessions(db: Db | Tx, userId: string): Promise<void> {
-  await db.update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, userId));
+  await db
+    .update(users)
+    .set({ sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId));
 }

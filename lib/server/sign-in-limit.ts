@@ -27,7 +27,12 @@ function limiters(db: Db): Limiters {
   if (!found) {
     found = {
       pair: new RateLimiterDrizzle({ storeClient: db, schema: rateLimits, keyPrefix: PAIR_PREFIX, ...PAIR_LIMIT }),
-      account: new RateLimiterDrizzle({ storeClient: db, schema: rateLimits, keyPrefix: ACCOUNT_PREFIX, ...ACCOUNT_LIMIT }),
+      account: new RateLimiterDrizzle({
+        storeClient: db,
+        schema: rateLimits,
+        keyPrefix: ACCOUNT_PREFIX,
+        ...ACCOUNT_LIMIT,
+      }),
     };
     byDb.set(db, found);
   }
@@ -79,5 +84,9 @@ export async function forgetSignInTries(email: string, headers: Headers): Promis
 
 /** After a password reset: every count for the account is cleared, so its owner can sign in at once. */
 export async function clearSignInLimits(db: Db | Tx, email: string): Promise<void> {
-  await db.delete(rateLimits).where(sql`starts_with(${rateLimits.key}, ${`${PAIR_PREFIX}:${email} `}) or ${rateLimits.key} = ${`${ACCOUNT_PREFIX}:${email}`}`);
+  await db
+    .delete(rateLimits)
+    .where(
+      sql`starts_with(${rateLimits.key}, ${`${PAIR_PREFIX}:${email} `}) or ${rateLimits.key} = ${`${ACCOUNT_PREFIX}:${email}`}`,
+    );
 }

@@ -14,7 +14,9 @@ export const signInSchema = z.object({
  * Checks e-mail and password; returns the user or null. Guessing is limited before this is reached, by the
  * sign-in limits (lib/server/sign-in-limit.ts) at every door that leads here.
  */
-export async function verifySignIn(raw: unknown): Promise<{ id: string; email: string; name: string; sessionVersion: number } | null> {
+export async function verifySignIn(
+  raw: unknown,
+): Promise<{ id: string; email: string; name: string; sessionVersion: number } | null> {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) return null;
   const { email, password } = parsed.data;

@@ -25,7 +25,9 @@ import { nextVersion } from "./versions";
  * sheets). A cut is an interface, not a material: it has no colour, compaction or composition to describe.
  */
 export function requiredSheetFields(type: Context["type"]) {
-  return type === "cut" ? (["description", "interpretation"] as const) : (["colour", "compaction", "composition", "description", "interpretation"] as const);
+  return type === "cut"
+    ? (["description", "interpretation"] as const)
+    : (["colour", "compaction", "composition", "description", "interpretation"] as const);
 }
 
 export type SheetProblem = { field: string; message: string };
@@ -46,18 +48,35 @@ export async function sheetProblems(tx: Db | Tx, context: Context): Promise<Shee
     const [earlier] = await tx
       .select({ id: contexts.id })
       .from(contexts)
-      .where(and(eq(contexts.siteId, context.siteId), ne(contexts.id, context.id), sql`(${contexts.createdAt}, ${contexts.number}) < (${context.createdAt.toISOString()}::timestamptz, ${context.number})`))
+      .where(
+        and(
+          eq(contexts.siteId, context.siteId),
+          ne(contexts.id, context.id),
+          sql`(${contexts.createdAt}, ${contexts.number}) < (${context.createdAt.toISOString()}::timestamptz, ${context.number})`,
+        ),
+      )
       .limit(1);
-    if (earlier) problems.push({ field: "relations", message: "The sheet has no stratigraphic relation to another context." });
+    if (earlier)
+      problems.push({ field: "relations", message: "The sheet has no stratigraphic relation to another context." });
   }
   const [trench] = await tx.select().from(trenches).where(eq(trenches.id, context.trenchId));
   const check = trench ? checkOutline(trench.outline) : null;
   if (!check?.ok) {
-    problems.push({ field: "finds", message: `Trench ${trench?.code ?? "?"} has no valid outline, so its finds cannot be checked.` });
+    problems.push({
+      field: "finds",
+      message: `Trench ${trench?.code ?? "?"} has no valid outline, so its finds cannot be checked.`,
+    });
   } else {
-    const placed = await tx.select({ number: finds.number, x: finds.x, y: finds.y }).from(finds).where(eq(finds.contextId, context.id));
+    const placed = await tx
+      .select({ number: finds.number, x: finds.x, y: finds.y })
+      .from(finds)
+      .where(eq(finds.contextId, context.id));
     const outside = placed.filter((f) => !check.window.contains(f.x, f.y)).map((f) => f.number);
-    if (outside.length) problems.push({ field: "finds", message: `Find${outside.length > 1 ? "s" : ""} ${outside.slice(0, 10).join(", ")}${outside.length > 10 ? ", …" : ""} lie outside trench ${trench.code}.` });
+    if (outside.length)
+      problems.push({
+        field: "finds",
+        message: `Find${outside.length > 1 ? "s" : ""} ${outside.slice(0, 10).join(", ")}${outside.length > 10 ? ", …" : ""} lie outside trench ${trench.code}.`,
+      });
   }
   return problems;
 }
@@ -65,14 +84,22 @@ export async function sheetProblems(tx: Db | Tx, context: Context): Promise<Shee
 function refuseIncomplete(context: Context, problems: SheetProblem[]): never {
   const fieldErrors: Record<string, string[]> = {};
   for (const p of problems) (fieldErrors[p.field] ??= []).push(p.message);
-  throw badInput(`Context ${context.number} is not complete yet: ${problems.map((p) => p.message).join(" ")}`, fieldErrors, { problems });
+  throw badInput(
+    `Context ${context.number} is not complete yet: ${problems.map((p) => p.message).join(" ")}`,
+    fieldErrors,
+    { problems },
+  );
 }
 
 const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 async function lockedContext(tx: Tx, siteId: string, contextId: string): Promise<Context> {
   if (!uuidPattern.test(contextId)) throw notFound("That context");
-  const [row] = await tx.select().from(contexts).where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId))).for("update");
+  const [row] = await tx
+    .select()
+    .from(contexts)
+    .where(and(eq(contexts.siteId, siteId), eq(contexts.id, contextId)))
+    .for("update");
   if (!row) throw notFound("That context");
   return row;
 }
@@ -80,7 +107,12 @@ async function lockedContext(tx: Tx, siteId: string, contextId: string): Promise
 const stateWords = { open: "open", awaiting: "awaiting sign-off", signed_off: "signed off" } as const;
 
 function wrongState(c: Context, doing: string): never {
-  const by = c.state === "signed_off" ? ` on ${formatStamp(c.signedOffAt)}` : c.state === "awaiting" ? ` since ${formatStamp(c.submittedAt)}` : "";
+  const by =
+    c.state === "signed_off"
+      ? ` on ${formatStamp(c.signedOffAt)}`
+      : c.state === "awaiting"
+        ? ` since ${formatStamp(c.submittedAt)}`
+        : "";
   throw conflict(`Context ${c.number} is ${stateWords[c.state]}${by}, so it cannot be ${doing}.`, { state: c.state });
 }
 
@@ -95,10 +127,24 @@ export async function submitContext(db: Db, actor: SiteActor, contextId: string)
     if (problems.length) refuseIncomplete(before, problems);
     const [after] = await tx
       .update(contexts)
-      .set({ state: "awaiting", submittedAt: new Date(), submittedBy: actor.userId, updatedAt: new Date(), version: nextVersion(contexts.version) })
+      .set({
+        state: "awaiting",
+        submittedAt: new Date(),
+        submittedBy: actor.userId,
+        updatedAt: new Date(),
+        version: nextVersion(contexts.version),
+      })
       .where(eq(contexts.id, contextId))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "submit", recordType: "context", recordId: contextId, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "submit",
+      recordType: "context",
+      recordId: contextId,
+      before,
+      after,
+    });
     return after;
   });
   return { context, mail: await notifySubmitted(db, actor, context) };
@@ -108,17 +154,32 @@ export async function submitContext(db: Db, actor: SiteActor, contextId: string)
 export async function signOffContext(db: Db, actor: SiteActor, contextId: string): Promise<SignOffOutcome> {
   const out = await db.transaction(async (tx) => {
     const before = await lockedContext(tx, actor.site.id, contextId);
-    if (before.state !== "awaiting") wrongState(before, before.state === "open" ? "signed off before it is submitted" : "signed off again");
+    if (before.state !== "awaiting")
+      wrongState(before, before.state === "open" ? "signed off before it is submitted" : "signed off again");
     const problems = await sheetProblems(tx, before);
     if (problems.length) refuseIncomplete(before, problems);
     const now = new Date();
     const [after] = await tx
       .update(contexts)
-      .set({ state: "signed_off", signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(contexts.version) })
+      .set({
+        state: "signed_off",
+        signedOffAt: now,
+        signedOffBy: actor.userId,
+        updatedAt: now,
+        version: nextVersion(contexts.version),
+      })
       .where(eq(contexts.id, contextId))
       .returning();
     const fingerprint = await contextFingerprint(tx, after);
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "sign-off", recordType: "context", recordId: contextId, before, after: { ...after, fingerprint } });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "sign-off",
+      recordType: "context",
+      recordId: contextId,
+      before,
+      after: { ...after, fingerprint },
+    });
     const [openLeft] = await tx
       .select({ n: sql<number>`count(*)::int` })
       .from(contexts)
@@ -126,9 +187,21 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
     let trench: Trench | undefined;
     if (openLeft.n === 0) {
       const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
-      [trench] = await tx.update(trenches).set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(trenches.version) }).where(eq(trenches.id, t0.id)).returning();
+      [trench] = await tx
+        .update(trenches)
+        .set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(trenches.version) })
+        .where(eq(trenches.id, t0.id))
+        .returning();
       const trenchPrint = await trenchFingerprint(tx, trench);
-      await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "sign-off", recordType: "trench", recordId: trench.id, before: t0, after: { ...trench, fingerprint: trenchPrint } });
+      await recordAudit(tx, {
+        siteId: actor.site.id,
+        actorId: actor.userId,
+        action: "sign-off",
+        recordType: "trench",
+        recordId: trench.id,
+        before: t0,
+        after: { ...trench, fingerprint: trenchPrint },
+      });
     }
     return { context: after, trench };
   });
@@ -136,28 +209,69 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
 }
 
 /** awaiting or signed off → open (director, with a written reason). A signed-off trench is reopened with it. */
-export async function reopenContext(db: Db, actor: SiteActor, contextId: string, reason: string): Promise<SignOffOutcome> {
+export async function reopenContext(
+  db: Db,
+  actor: SiteActor,
+  contextId: string,
+  reason: string,
+): Promise<SignOffOutcome> {
   const text = reason.trim();
-  if (text.length < 10) throw badInput("Give the reason for reopening in a sentence (at least 10 characters).", { reason: ["Write the reason for reopening."] });
+  if (text.length < 10)
+    throw badInput("Give the reason for reopening in a sentence (at least 10 characters).", {
+      reason: ["Write the reason for reopening."],
+    });
   const out = await db.transaction(async (tx) => {
     const before = await lockedContext(tx, actor.site.id, contextId);
     if (before.state === "open") wrongState(before, "reopened");
     const now = new Date();
     const [after] = await tx
       .update(contexts)
-      .set({ state: "open", submittedAt: null, submittedBy: null, signedOffAt: null, signedOffBy: null, updatedAt: now, version: nextVersion(contexts.version) })
+      .set({
+        state: "open",
+        submittedAt: null,
+        submittedBy: null,
+        signedOffAt: null,
+        signedOffBy: null,
+        updatedAt: now,
+        version: nextVersion(contexts.version),
+      })
       .where(eq(contexts.id, contextId))
       .returning();
     const action = before.state === "signed_off" ? "reopen" : "return";
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action, recordType: "context", recordId: contextId, before, after, reason: text });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action,
+      recordType: "context",
+      recordId: contextId,
+      before,
+      after,
+      reason: text,
+    });
     const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
     if (t0.signedOffAt) {
-      const [t1] = await tx.update(trenches).set({ signedOffAt: null, signedOffBy: null, updatedAt: now, version: nextVersion(trenches.version) }).where(eq(trenches.id, t0.id)).returning();
-      await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "reopen", recordType: "trench", recordId: t0.id, before: t0, after: t1, reason: `Context ${after.number} reopened: ${text}` });
+      const [t1] = await tx
+        .update(trenches)
+        .set({ signedOffAt: null, signedOffBy: null, updatedAt: now, version: nextVersion(trenches.version) })
+        .where(eq(trenches.id, t0.id))
+        .returning();
+      await recordAudit(tx, {
+        siteId: actor.site.id,
+        actorId: actor.userId,
+        action: "reopen",
+        recordType: "trench",
+        recordId: t0.id,
+        before: t0,
+        after: t1,
+        reason: `Context ${after.number} reopened: ${text}`,
+      });
     }
     return { context: after, from: before.state as "awaiting" | "signed_off", at: now };
   });
-  return { context: out.context, mail: await notifyReopened(db, actor, out.context, { from: out.from, reason: text, at: out.at }) };
+  return {
+    context: out.context,
+    mail: await notifyReopened(db, actor, out.context, { from: out.from, reason: text, at: out.at }),
+  };
 }
 
 // ——— Fingerprints: SHA-256 of the records' content, stable across sign-off (lifecycle fields left out). ———
@@ -168,7 +282,11 @@ export function canonicalJson(value: unknown): string {
   if (Array.isArray(value)) return `[${value.map(canonicalJson).join(",")}]`;
   if (value && typeof value === "object") {
     const o = value as Record<string, unknown>;
-    return `{${Object.keys(o).filter((k) => o[k] !== undefined).sort().map((k) => `${JSON.stringify(k)}:${canonicalJson(o[k])}`).join(",")}}`;
+    return `{${Object.keys(o)
+      .filter((k) => o[k] !== undefined)
+      .sort()
+      .map((k) => `${JSON.stringify(k)}:${canonicalJson(o[k])}`)
+      .join(",")}}`;
   }
   return JSON.stringify(value ?? null);
 }
@@ -177,15 +295,28 @@ export function sha256Hex(text: string): string {
   return createHash("sha256").update(text).digest("hex");
 }
 
-const sheetContent = ({ state: _s, submittedAt: _a, submittedBy: _b, signedOffAt: _c, signedOffBy: _d, updatedAt: _u, ...rest }: Context) => rest;
+const sheetContent = ({
+  state: _s,
+  submittedAt: _a,
+  submittedBy: _b,
+  signedOffAt: _c,
+  signedOffBy: _d,
+  updatedAt: _u,
+  ...rest
+}: Context) => rest;
 const findContent = ({ updatedAt: _u, ...rest }: Find) => rest;
 
 /** The records a trench's report shows, in a fixed order, with only the fields that carry content. */
 export async function trenchRecordSet(tx: Db | Tx, trench: Trench) {
   const cs = await tx.select().from(contexts).where(eq(contexts.trenchId, trench.id)).orderBy(asc(contexts.number));
   const ids = new Set(cs.map((c) => c.id));
-  const rels = (await tx.select().from(contextRelations).where(eq(contextRelations.siteId, trench.siteId)).orderBy(asc(contextRelations.id)))
-    .filter((r) => ids.has(r.fromId) || ids.has(r.toId));
+  const rels = (
+    await tx
+      .select()
+      .from(contextRelations)
+      .where(eq(contextRelations.siteId, trench.siteId))
+      .orderBy(asc(contextRelations.id))
+  ).filter((r) => ids.has(r.fromId) || ids.has(r.toId));
   const fs = await tx.select().from(finds).where(eq(finds.trenchId, trench.id)).orderBy(asc(finds.number));
   return { trench, contexts: cs, relations: rels, finds: fs };
 }
@@ -205,10 +336,21 @@ export async function trenchFingerprint(tx: Db | Tx, trench: Trench): Promise<st
 }
 
 export async function contextFingerprint(tx: Db | Tx, context: Context): Promise<string> {
-  const rels = await tx.select().from(contextRelations).where(or(eq(contextRelations.fromId, context.id), eq(contextRelations.toId, context.id))).orderBy(asc(contextRelations.id));
+  const rels = await tx
+    .select()
+    .from(contextRelations)
+    .where(or(eq(contextRelations.fromId, context.id), eq(contextRelations.toId, context.id)))
+    .orderBy(asc(contextRelations.id));
   const fs = await tx.select().from(finds).where(eq(finds.contextId, context.id)).orderBy(asc(finds.number));
   const squares = await squareContent(tx, { contextId: context.id });
-  return sha256Hex(canonicalJson({ context: sheetContent(context), relations: rels.map((r) => ({ fromId: r.fromId, toId: r.toId, kind: r.kind })), finds: fs.map(findContent), ...(squares.length && { squares }) }));
+  return sha256Hex(
+    canonicalJson({
+      context: sheetContent(context),
+      relations: rels.map((r) => ({ fromId: r.fromId, toId: r.toId, kind: r.kind })),
+      finds: fs.map(findContent),
+      ...(squares.length && { squares }),
+    }),
+  );
 }
 
 // ——— The director's queue ———

@@ -33,11 +33,27 @@ export async function listMySites(db: Db, userId: string) {
 
 export async function createSite(db: Db, userId: string, input: SiteCreate) {
   return db.transaction(async (tx) => {
-    const [taken] = await tx.select({ id: sites.id }).from(sites).where(sql`lower(${sites.code}) = lower(${input.code})`);
+    const [taken] = await tx
+      .select({ id: sites.id })
+      .from(sites)
+      .where(sql`lower(${sites.code}) = lower(${input.code})`);
     if (taken) throw conflict(`The site code ${input.code} is already in use; choose another.`);
-    const site = written(await tx.insert(sites).values({ ...input, crs: input.crs ?? null }).returning(), "The site");
+    const site = written(
+      await tx
+        .insert(sites)
+        .values({ ...input, crs: input.crs ?? null })
+        .returning(),
+      "The site",
+    );
     await tx.insert(memberships).values({ siteId: site.id, userId, role: "director" });
-    await recordAudit(tx, { siteId: site.id, actorId: userId, action: "create", recordType: "site", recordId: site.id, after: site });
+    await recordAudit(tx, {
+      siteId: site.id,
+      actorId: userId,
+      action: "create",
+      recordType: "site",
+      recordId: site.id,
+      after: site,
+    });
     return site;
   });
 }
@@ -48,12 +64,26 @@ export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
   if (!Object.keys(input).length) return actor.site;
   return db.transaction(async (tx) => {
     const [current] = await tx.select().from(sites).where(eq(sites.id, actor.site.id)).for("update");
-    if (input.samplesShareFindNumbers !== undefined && input.samplesShareFindNumbers !== current?.samplesShareFindNumbers) {
+    if (
+      input.samplesShareFindNumbers !== undefined &&
+      input.samplesShareFindNumbers !== current?.samplesShareFindNumbers
+    ) {
       const n = await countSamples(tx, actor.site.id);
-      if (n > 0) throw conflict(`Sample numbering is fixed once samples are recorded: this site has ${n === 1 ? "1 sample" : `${n} samples`} numbered ${current?.samplesShareFindNumbers ? "in the finds' sequence" : "in their own sequence"}.`);
+      if (n > 0)
+        throw conflict(
+          `Sample numbering is fixed once samples are recorded: this site has ${n === 1 ? "1 sample" : `${n} samples`} numbered ${current?.samplesShareFindNumbers ? "in the finds' sequence" : "in their own sequence"}.`,
+        );
     }
     const [after] = await tx.update(sites).set(input).where(eq(sites.id, actor.site.id)).returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "site", recordId: actor.site.id, before: actor.site, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "site",
+      recordId: actor.site.id,
+      before: actor.site,
+      after,
+    });
     return after;
   });
 }
@@ -61,10 +91,21 @@ export async function updateSite(db: Db, actor: SiteActor, input: SiteUpdate) {
 /** Per-trench counts, grouped in the database (one query each, not one per trench). */
 async function countsByTrench(db: Db, siteId: string) {
   const [ctxCounts, findCounts] = await Promise.all([
-    db.select({ trenchId: contexts.trenchId, n: count() }).from(contexts).where(eq(contexts.siteId, siteId)).groupBy(contexts.trenchId),
-    db.select({ trenchId: finds.trenchId, n: count() }).from(finds).where(eq(finds.siteId, siteId)).groupBy(finds.trenchId),
+    db
+      .select({ trenchId: contexts.trenchId, n: count() })
+      .from(contexts)
+      .where(eq(contexts.siteId, siteId))
+      .groupBy(contexts.trenchId),
+    db
+      .select({ trenchId: finds.trenchId, n: count() })
+      .from(finds)
+      .where(eq(finds.siteId, siteId))
+      .groupBy(finds.trenchId),
   ]);
-  return { contexts: new Map(ctxCounts.map((r) => [r.trenchId, r.n])), finds: new Map(findCounts.map((r) => [r.trenchId, r.n])) };
+  return {
+    contexts: new Map(ctxCounts.map((r) => [r.trenchId, r.n])),
+    finds: new Map(findCounts.map((r) => [r.trenchId, r.n])),
+  };
 }
 
 export async function siteOverview(db: Db, actor: SiteActor) {
@@ -75,16 +116,30 @@ export async function siteOverview(db: Db, actor: SiteActor) {
       .where(eq(trenches.siteId, actor.site.id))
       .orderBy(asc(trenches.code)),
     countsByTrench(db, actor.site.id),
-    db.select({ n: count() }).from(contexts).where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting"))),
+    db
+      .select({ n: count() })
+      .from(contexts)
+      .where(and(eq(contexts.siteId, actor.site.id), eq(contexts.state, "awaiting"))),
     trenchDepths(db, actor.site.id),
   ]);
-  const trenchRows = rows.map((t) => ({ ...t, depth: depths.get(t.id)?.depth ?? null, contexts: counts.contexts.get(t.id) ?? 0, finds: counts.finds.get(t.id) ?? 0 }));
+  const trenchRows = rows.map((t) => ({
+    ...t,
+    depth: depths.get(t.id)?.depth ?? null,
+    contexts: counts.contexts.get(t.id) ?? 0,
+    finds: counts.finds.get(t.id) ?? 0,
+  }));
   return { site: actor.site, role: actor.role, trenches: trenchRows, awaitingSignOff: awaiting[0]?.n ?? 0 };
 }
 
 export async function listMembers(db: Db, siteId: string) {
   return db
-    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, since: memberships.createdAt })
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      since: memberships.createdAt,
+    })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.siteId, siteId))
@@ -104,26 +159,48 @@ async function assertNotLastDirector(db: Db, siteId: string, userId: string) {
 export async function changeMemberRole(db: Db, actor: SiteActor, userId: string, role: Role) {
   assertFieldRights("member", actor.role, { role });
   return db.transaction(async (tx) => {
-    const [before] = await tx.select().from(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
+    const [before] = await tx
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
     if (!before) throw notFound("That member");
-    if (before.role === "director" && role !== "director") await assertNotLastDirector(tx as unknown as Db, actor.site.id, userId);
+    if (before.role === "director" && role !== "director")
+      await assertNotLastDirector(tx as unknown as Db, actor.site.id, userId);
     const [after] = await tx
       .update(memberships)
       .set({ role })
       .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "change-role", recordType: "member", recordId: userId, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "change-role",
+      recordType: "member",
+      recordId: userId,
+      before,
+      after,
+    });
     return after;
   });
 }
 
 export async function removeMember(db: Db, actor: SiteActor, userId: string) {
   return db.transaction(async (tx) => {
-    const [before] = await tx.select().from(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
+    const [before] = await tx
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
     if (!before) throw notFound("That member");
     if (before.role === "director") await assertNotLastDirector(tx as unknown as Db, actor.site.id, userId);
     await tx.delete(memberships).where(and(eq(memberships.siteId, actor.site.id), eq(memberships.userId, userId)));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "remove", recordType: "member", recordId: userId, before });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "remove",
+      recordType: "member",
+      recordId: userId,
+      before,
+    });
     return { removed: userId };
   });
 }

@@ -1,9 +1,24 @@
 import "server-only";
 import { and, asc, eq, inArray, isNull } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, spits, squareCounts, squareSamples, type SquareSample, type Trench } from "@/db/schema";
+import {
+  artefactClasses,
+  contexts,
+  spits,
+  squareCounts,
+  squareSamples,
+  type SquareSample,
+  type Trench,
+} from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
-import { clipSquares, squareIndex, squareLabel, SquareGridError, type GridSquare, type SquareGridSpec } from "@/lib/geometry/square-grid";
+import {
+  clipSquares,
+  squareIndex,
+  squareLabel,
+  SquareGridError,
+  type GridSquare,
+  type SquareGridSpec,
+} from "@/lib/geometry/square-grid";
 import { isUuid } from "@/lib/schemas/common";
 import type { SquareSampleInput } from "@/lib/schemas/squares";
 import { recordAudit } from "./audit";
@@ -23,9 +38,14 @@ export function gridOf(trench: Pick<Trench, "squareSize" | "squareOriginX" | "sq
 }
 
 /** The grid's squares clipped to the trench as it is drawn now; a grid that cannot be cut is refused on `field`. */
-export function trenchSquares(trench: Pick<Trench, "code" | "outline">, grid: SquareGridSpec, field = "squareSize"): GridSquare[] {
+export function trenchSquares(
+  trench: Pick<Trench, "code" | "outline">,
+  grid: SquareGridSpec,
+  field = "squareSize",
+): GridSquare[] {
   const check = checkOutline(trench.outline);
-  if (!check.ok) throw badInput(`Trench ${trench.code} has no valid outline (${check.reason}); its squares cannot be cut.`);
+  if (!check.ok)
+    throw badInput(`Trench ${trench.code} has no valid outline (${check.reason}); its squares cannot be cut.`);
   try {
     return clipSquares(check.window, grid);
   } catch (err) {
@@ -36,7 +56,8 @@ export function trenchSquares(trench: Pick<Trench, "code" | "outline">, grid: Sq
 
 function requireGrid(trench: Trench): SquareGridSpec {
   const grid = gridOf(trench);
-  if (!grid) throw conflict(`Trench ${trench.code} has no square grid yet; a director sets its square size and origin first.`);
+  if (!grid)
+    throw conflict(`Trench ${trench.code} has no square grid yet; a director sets its square size and origin first.`);
   return grid;
 }
 
@@ -44,14 +65,25 @@ function requireGrid(trench: Trench): SquareGridSpec {
  * A trench update that changes the square grid under recorded counts is refused: the counts were taken in
  * the old squares. Called by updateTrench inside its transaction; also checks the new grid cuts at all.
  */
-export async function assertGridChange(tx: Tx, before: Trench, after: Pick<Trench, "code" | "outline" | "squareSize" | "squareOriginX" | "squareOriginY">): Promise<void> {
+export async function assertGridChange(
+  tx: Tx,
+  before: Trench,
+  after: Pick<Trench, "code" | "outline" | "squareSize" | "squareOriginX" | "squareOriginY">,
+): Promise<void> {
   const old = gridOf(before);
   const next = gridOf(after);
-  const same = old && next ? old.size === next.size && old.originX === next.originX && old.originY === next.originY : old === next;
+  const same =
+    old && next ? old.size === next.size && old.originX === next.originX && old.originY === next.originY : old === next;
   if (!same) {
-    const [held] = await tx.select({ id: squareSamples.id }).from(squareSamples).where(eq(squareSamples.trenchId, before.id)).limit(1);
+    const [held] = await tx
+      .select({ id: squareSamples.id })
+      .from(squareSamples)
+      .where(eq(squareSamples.trenchId, before.id))
+      .limit(1);
     if (held) {
-      throw conflict(`Trench ${before.code} already has counts recorded by square; its grid cannot change under them. Delete those square records first.`);
+      throw conflict(
+        `Trench ${before.code} already has counts recorded by square; its grid cannot change under them. Delete those square records first.`,
+      );
     }
   }
   if (next) trenchSquares(after, next);
@@ -92,18 +124,34 @@ export async function listTrenchSquares(db: Db | Tx, siteId: string, trenchId: s
   const ids = rows.map((r) => r.sample.id);
   const counts = ids.length ? await db.select().from(squareCounts).where(inArray(squareCounts.sampleId, ids)) : [];
   const countsOf = new Map<string, SquareSampleView["counts"]>();
-  for (const c of counts) (countsOf.get(c.sampleId) ?? countsOf.set(c.sampleId, []).get(c.sampleId)!).push({ classId: c.classId, count: c.count, weightG: c.weightG });
+  for (const c of counts)
+    (countsOf.get(c.sampleId) ?? countsOf.set(c.sampleId, []).get(c.sampleId)!).push({
+      classId: c.classId,
+      count: c.count,
+      weightG: c.weightG,
+    });
   const samples = rows.map(({ sample, contextNumber, spitNumber }) => {
     const square = byIndex.get(`${sample.col},${sample.row}`);
     const area = square ? Math.min(sample.excavatedArea ?? square.area, square.area) : 0;
-    return { ...sample, label: squareLabel(grid, sample.col, sample.row), contextNumber, spitNumber, area, outside: !square, counts: countsOf.get(sample.id) ?? [] };
+    return {
+      ...sample,
+      label: squareLabel(grid, sample.col, sample.row),
+      contextNumber,
+      spitNumber,
+      area,
+      outside: !square,
+      counts: countsOf.get(sample.id) ?? [],
+    };
   });
   return { trenchId, grid, squares, samples };
 }
 
 async function getSample(tx: Db | Tx, siteId: string, sampleId: string): Promise<SquareSample> {
   if (!isUuid(sampleId)) throw notFound("That square record");
-  const [row] = await tx.select().from(squareSamples).where(and(eq(squareSamples.siteId, siteId), eq(squareSamples.id, sampleId)));
+  const [row] = await tx
+    .select()
+    .from(squareSamples)
+    .where(and(eq(squareSamples.siteId, siteId), eq(squareSamples.id, sampleId)));
   if (!row) throw notFound("That square record");
   return row;
 }
@@ -113,22 +161,40 @@ async function checkSample(tx: Tx, actor: SiteActor, trench: Trench, input: Squa
   const grid = requireGrid(trench);
   const square = squareIndex(trenchSquares(trench, grid)).get(`${input.col},${input.row}`);
   const label = squareLabel(grid, input.col, input.row);
-  if (!square) throw badInput(`Square ${label} lies outside trench ${trench.code}.`, { col: [`Square ${label} has no area inside the trench.`] });
+  if (!square)
+    throw badInput(`Square ${label} lies outside trench ${trench.code}.`, {
+      col: [`Square ${label} has no area inside the trench.`],
+    });
   if (input.excavatedArea != null && input.excavatedArea > square.area + AREA_TOLERANCE) {
     const msg = `Square ${label} has ${+square.area.toFixed(4)} m² inside the trench; ${input.excavatedArea} m² cannot have been dug there.`;
     throw badInput(msg, { excavatedArea: [msg] });
   }
   const context = await getContext(tx, actor.site.id, input.contextId);
-  if (context.trenchId !== trench.id) throw badInput(`Context ${context.number} is not in trench ${trench.code}.`, { contextId: ["That context is in another trench."] });
+  if (context.trenchId !== trench.id)
+    throw badInput(`Context ${context.number} is not in trench ${trench.code}.`, {
+      contextId: ["That context is in another trench."],
+    });
   if (input.spitId) {
-    const [spit] = await tx.select().from(spits).where(and(eq(spits.id, input.spitId), eq(spits.contextId, context.id)));
-    if (!spit) throw badInput(`That spit is not one of context ${context.number}'s.`, { spitId: ["Pick a spit of the chosen context."] });
+    const [spit] = await tx
+      .select()
+      .from(spits)
+      .where(and(eq(spits.id, input.spitId), eq(spits.contextId, context.id)));
+    if (!spit)
+      throw badInput(`That spit is not one of context ${context.number}'s.`, {
+        spitId: ["Pick a spit of the chosen context."],
+      });
   }
   const classIds = input.counts.map((c) => c.classId);
-  const known = await tx.select({ id: artefactClasses.id }).from(artefactClasses).where(and(eq(artefactClasses.siteId, actor.site.id), inArray(artefactClasses.id, classIds)));
+  const known = await tx
+    .select({ id: artefactClasses.id })
+    .from(artefactClasses)
+    .where(and(eq(artefactClasses.siteId, actor.site.id), inArray(artefactClasses.id, classIds)));
   const knownIds = new Set(known.map((k) => k.id));
   const unknown = input.counts.findIndex((c) => !knownIds.has(c.classId));
-  if (unknown >= 0) throw badInput("A class counted is not one of this site's classes.", { [`counts.${unknown}.classId`]: ["Not one of this site's classes."] });
+  if (unknown >= 0)
+    throw badInput("A class counted is not one of this site's classes.", {
+      [`counts.${unknown}.classId`]: ["Not one of this site's classes."],
+    });
   return { context, square, label };
 }
 
@@ -141,17 +207,48 @@ export async function recordSquareSample(db: Db, actor: SiteActor, trenchId: str
     const trench = await getTrench(tx, actor.site.id, trenchId);
     const { context, label } = await checkSample(tx, actor, trench, input);
     await assertContextWritable(tx, context, "given counts by square");
-    const key = and(eq(squareSamples.contextId, context.id), input.spitId ? eq(squareSamples.spitId, input.spitId) : isNull(squareSamples.spitId), eq(squareSamples.col, input.col), eq(squareSamples.row, input.row));
+    const key = and(
+      eq(squareSamples.contextId, context.id),
+      input.spitId ? eq(squareSamples.spitId, input.spitId) : isNull(squareSamples.spitId),
+      eq(squareSamples.col, input.col),
+      eq(squareSamples.row, input.row),
+    );
     const [old] = await tx.select().from(squareSamples).where(key);
-    const before = old ? { ...old, counts: await tx.select().from(squareCounts).where(eq(squareCounts.sampleId, old.id)) } : null;
+    const before = old
+      ? { ...old, counts: await tx.select().from(squareCounts).where(eq(squareCounts.sampleId, old.id)) }
+      : null;
     const values = { excavatedArea: input.excavatedArea, recordedBy: actor.userId, updatedAt: new Date() };
     const [sample] = old
       ? await tx.update(squareSamples).set(values).where(eq(squareSamples.id, old.id)).returning()
-      : await tx.insert(squareSamples).values({ ...values, siteId: actor.site.id, trenchId: trench.id, contextId: context.id, spitId: input.spitId, col: input.col, row: input.row }).returning();
+      : await tx
+          .insert(squareSamples)
+          .values({
+            ...values,
+            siteId: actor.site.id,
+            trenchId: trench.id,
+            contextId: context.id,
+            spitId: input.spitId,
+            col: input.col,
+            row: input.row,
+          })
+          .returning();
     if (old) await tx.delete(squareCounts).where(eq(squareCounts.sampleId, old.id));
-    const counts = await tx.insert(squareCounts).values(input.counts.map((c) => ({ sampleId: sample!.id, classId: c.classId, count: c.count, weightG: c.weightG }))).returning();
+    const counts = await tx
+      .insert(squareCounts)
+      .values(
+        input.counts.map((c) => ({ sampleId: sample!.id, classId: c.classId, count: c.count, weightG: c.weightG })),
+      )
+      .returning();
     const after = { ...sample!, label, counts };
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: old ? "update" : "create", recordType: "square", recordId: sample!.id, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: old ? "update" : "create",
+      recordType: "square",
+      recordId: sample!.id,
+      before,
+      after,
+    });
     return after;
   });
 }
@@ -164,7 +261,14 @@ export async function deleteSquareSample(db: Db, actor: SiteActor, sampleId: str
     await assertContextWritable(tx, context, "given changed counts by square");
     const counts = await tx.select().from(squareCounts).where(eq(squareCounts.sampleId, before.id));
     await tx.delete(squareSamples).where(eq(squareSamples.id, before.id));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "square", recordId: before.id, before: { ...before, counts } });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "square",
+      recordId: before.id,
+      before: { ...before, counts },
+    });
     return { deleted: before.id };
   });
 }
@@ -174,9 +278,19 @@ export async function deleteSquareSample(db: Db, actor: SiteActor, sampleId: str
  * Empty when there are none, so a trench without counts keeps the fingerprint it had before squares existed.
  */
 export async function squareContent(tx: Db | Tx, where: { trenchId: string } | { contextId: string }) {
-  const cond = "trenchId" in where ? eq(squareSamples.trenchId, where.trenchId) : eq(squareSamples.contextId, where.contextId);
+  const cond =
+    "trenchId" in where ? eq(squareSamples.trenchId, where.trenchId) : eq(squareSamples.contextId, where.contextId);
   const rows = await tx
-    .select({ contextId: squareSamples.contextId, spitId: squareSamples.spitId, col: squareSamples.col, row: squareSamples.row, excavatedArea: squareSamples.excavatedArea, classId: squareCounts.classId, count: squareCounts.count, weightG: squareCounts.weightG })
+    .select({
+      contextId: squareSamples.contextId,
+      spitId: squareSamples.spitId,
+      col: squareSamples.col,
+      row: squareSamples.row,
+      excavatedArea: squareSamples.excavatedArea,
+      classId: squareCounts.classId,
+      count: squareCounts.count,
+      weightG: squareCounts.weightG,
+    })
     .from(squareSamples)
     .innerJoin(squareCounts, eq(squareCounts.sampleId, squareSamples.id))
     .where(cond);

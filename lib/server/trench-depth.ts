@@ -37,7 +37,8 @@ export async function trenchDepths(db: Db | Tx, siteId: string): Promise<Map<str
     rows.map((r) => {
       const surface = r.surface === null ? null : Number(r.surface);
       const lowest = r.lowest === null ? null : Number(r.lowest);
-      const depth = surface !== null && lowest !== null ? Math.max(0, Math.round((surface - lowest) * 1000) / 1000) : null;
+      const depth =
+        surface !== null && lowest !== null ? Math.max(0, Math.round((surface - lowest) * 1000) / 1000) : null;
       return [r.id, { surfaceLevel: surface, lowestLevel: lowest, depth }];
     }),
   );

@@ -29,9 +29,17 @@ export async function listTrenches(db: Db, siteId: string) {
 }
 
 /** One trench of the site; `forUpdate` locks its row for the rest of the transaction (a sign-off committing at the same moment is waited for). */
-export async function getTrench(db: Db | Tx, siteId: string, trenchId: string, options: { forUpdate?: boolean } = {}): Promise<Trench> {
+export async function getTrench(
+  db: Db | Tx,
+  siteId: string,
+  trenchId: string,
+  options: { forUpdate?: boolean } = {},
+): Promise<Trench> {
   if (!isUuid(trenchId)) throw notFound("That trench");
-  const query = db.select().from(trenches).where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
+  const query = db
+    .select()
+    .from(trenches)
+    .where(and(eq(trenches.siteId, siteId), eq(trenches.id, trenchId)));
   const [row] = await (options.forUpdate ? query.for("update") : query);
   if (!row) throw notFound("That trench");
   return row;
@@ -40,18 +48,40 @@ export async function getTrench(db: Db | Tx, siteId: string, trenchId: string, o
 export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate) {
   const window = assertOutline(input.outline);
   return db.transaction(async (tx) => {
-    const [taken] = await tx.select({ id: trenches.id }).from(trenches).where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
+    const [taken] = await tx
+      .select({ id: trenches.id })
+      .from(trenches)
+      .where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
     if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
     const [row] = await tx
       .insert(trenches)
-      .values({ siteId: actor.site.id, code: input.code, name: input.name, outline: windowToPolygon(window), surfaceLevel: input.surfaceLevel ?? null })
+      .values({
+        siteId: actor.site.id,
+        code: input.code,
+        name: input.name,
+        outline: windowToPolygon(window),
+        surfaceLevel: input.surfaceLevel ?? null,
+      })
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "trench", recordId: row.id, after: row });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "trench",
+      recordId: row.id,
+      after: row,
+    });
     return row;
   });
 }
 
-export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, input: TrenchUpdate, expectedVersion: number | null = null) {
+export async function updateTrench(
+  db: Db,
+  actor: SiteActor,
+  trenchId: string,
+  input: TrenchUpdate,
+  expectedVersion: number | null = null,
+) {
   assertFieldRights("trench", actor.role, input);
   const window = input.outline ? assertOutline(input.outline) : null;
   return db.transaction(async (tx) => {
@@ -66,8 +96,15 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
       const outside = placed.filter((f) => !window.contains(f.x, f.y));
       if (outside.length) {
         // Finds of a locked context cannot be stranded at all: that refusal names who locked it and when.
-        await assertContextsWritable(tx, outside.map((f) => f.contextId), "changed by moving the trench outline past its finds");
-        const names = outside.slice(0, 5).map((f) => f.number).join(", ");
+        await assertContextsWritable(
+          tx,
+          outside.map((f) => f.contextId),
+          "changed by moving the trench outline past its finds",
+        );
+        const names = outside
+          .slice(0, 5)
+          .map((f) => f.number)
+          .join(", ");
         throw conflict(
           `The new outline would leave ${countOf(outside.length, "find")} outside the trench (find ${names}${outside.length > 5 ? ", …" : ""}). ` +
             "Move those finds first or draw the outline around them.",
@@ -76,11 +113,22 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
       }
     }
     // The grid's squares are cut again from the new outline; a grid change under recorded counts is refused.
-    const grid = { squareSize: input.squareSize, squareOriginX: input.squareOriginX, squareOriginY: input.squareOriginY };
+    const grid = {
+      squareSize: input.squareSize,
+      squareOriginX: input.squareOriginX,
+      squareOriginY: input.squareOriginY,
+    };
     const nextGrid = Object.fromEntries(Object.entries(grid).filter(([, v]) => v !== undefined));
-    await assertGridChange(tx, before, { ...before, ...nextGrid, outline: window ? windowToPolygon(window) : before.outline });
+    await assertGridChange(tx, before, {
+      ...before,
+      ...nextGrid,
+      outline: window ? windowToPolygon(window) : before.outline,
+    });
     if (input.code && input.code !== before.code) {
-      const [taken] = await tx.select({ id: trenches.id }).from(trenches).where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
+      const [taken] = await tx
+        .select({ id: trenches.id })
+        .from(trenches)
+        .where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
       if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
     }
     const [after] = await tx
@@ -96,7 +144,15 @@ export async function updateTrench(db: Db, actor: SiteActor, trenchId: string, i
       })
       .where(eq(trenches.id, trenchId))
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "update", recordType: "trench", recordId: trenchId, before, after });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "update",
+      recordType: "trench",
+      recordId: trenchId,
+      before,
+      after,
+    });
     return after;
   });
 }
@@ -109,7 +165,14 @@ export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string, e
     const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
     if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);
     await tx.delete(trenches).where(eq(trenches.id, trenchId));
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "delete", recordType: "trench", recordId: trenchId, before });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "trench",
+      recordId: trenchId,
+      before,
+    });
     return { deleted: trenchId };
   });
 }

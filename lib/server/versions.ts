@@ -15,7 +15,10 @@ export function expectedVersionOf(req: Request): number | null {
   const raw = req.headers.get("if-match");
   if (raw === null || raw.trim() === "*") return null;
   const m = /^\s*"?(\d{1,9})"?\s*$/.exec(raw);
-  if (!m) throw new PublicError(400, 'If-Match must name the record\'s version as an entity tag, e.g. If-Match: "3".', { "If-Match": ['Give the version as "3".'] });
+  if (!m)
+    throw new PublicError(400, 'If-Match must name the record\'s version as an entity tag, e.g. If-Match: "3".', {
+      "If-Match": ['Give the version as "3".'],
+    });
   return Number(m[1]);
 }
 

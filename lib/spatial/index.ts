@@ -56,13 +56,44 @@ export * from "./errors";
 export { createWindow, rectangleWindow } from "./geometry/window";
 export { checkPattern, type PatternCheck } from "./geometry/pattern";
 export { pairsWithin, pairsBetween, nearestNeighbourDistances, type PairList } from "./geometry/neighbours";
-export { defaultRGrid, defaultRMax, checkRGrid, createBinning, isAxisRectangle, type Binning, type RGridOptions } from "./estimators/r-grid";
-export { isotropicPairWeights, isotropicCrossWeights, isotropicWeight, isotropicEdgeData, isotropicWeightAt } from "./geometry/edge-isotropic";
+export {
+  defaultRGrid,
+  defaultRMax,
+  checkRGrid,
+  createBinning,
+  isAxisRectangle,
+  type Binning,
+  type RGridOptions,
+} from "./estimators/r-grid";
+export {
+  isotropicPairWeights,
+  isotropicCrossWeights,
+  isotropicWeight,
+  isotropicEdgeData,
+  isotropicWeightAt,
+} from "./geometry/edge-isotropic";
 export { translationPairWeights, translationWeight, setCovariance } from "./geometry/edge-translation";
 export { kFunction, lFunction, kToL, type KOptions, type KResult, type LResult } from "./estimators/k-function";
-export { crossK, dotK, kDifference, type CrossKOptions, type CrossKResult, type KDifferenceResult } from "./estimators/cross-k";
-export { pairCorrelation, type PairCorrelationOptions, type PairCorrelationResult } from "./estimators/pair-correlation";
-export { clarkEvans, meanNearestNeighbour, CLARK_EVANS_SE_CONSTANT, type Alternative, type ClarkEvansResult } from "./estimators/clark-evans";
+export {
+  crossK,
+  dotK,
+  kDifference,
+  type CrossKOptions,
+  type CrossKResult,
+  type KDifferenceResult,
+} from "./estimators/cross-k";
+export {
+  pairCorrelation,
+  type PairCorrelationOptions,
+  type PairCorrelationResult,
+} from "./estimators/pair-correlation";
+export {
+  clarkEvans,
+  meanNearestNeighbour,
+  CLARK_EVANS_SE_CONSTANT,
+  type Alternative,
+  type ClarkEvansResult,
+} from "./estimators/clark-evans";
 export {
   quadratTest,
   createQuadratLayout,
@@ -120,5 +151,10 @@ export { localMoran, type LocalTestOptions, type LocalMoranResult, type Quadrant
 export { getisOrdStar, type GetisOrdResult } from "./lattice/getis-ord";
 export { benjaminiHochberg } from "./lattice/fdr";
 export { runSquareTest, type SquareResult, type SquareTestResult } from "./lattice/run-square-test";
-export { parseSquareTestSpec, squareTestSpecSchema, type SquareTestSpec, type SquareTestSpecInput } from "./lattice/square-test-spec";
+export {
+  parseSquareTestSpec,
+  squareTestSpecSchema,
+  type SquareTestSpec,
+  type SquareTestSpecInput,
+} from "./lattice/square-test-spec";
 export { LATTICE_CAUTIONS, SQUARE_NULL, type SquareClass, type SquareVerdict } from "./lattice/square-verdict";

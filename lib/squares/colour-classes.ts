@@ -24,7 +24,10 @@ export function viridis(t: number): string {
   const f = x - i;
   const a = VIRIDIS_STOPS[i]!;
   const b = VIRIDIS_STOPS[i + 1]!;
-  const mix = (k: number) => Math.round(hex(a, k) * (1 - f) + hex(b, k) * f).toString(16).padStart(2, "0");
+  const mix = (k: number) =>
+    Math.round(hex(a, k) * (1 - f) + hex(b, k) * f)
+      .toString(16)
+      .padStart(2, "0");
   return `#${mix(0)}${mix(1)}${mix(2)}`;
 }
 
@@ -50,7 +53,8 @@ export function classBreaks(values: readonly number[], classing: Classing, k = 5
   const hi = sorted[sorted.length - 1]!;
   let breaks: number[];
   if (lo === hi) breaks = [lo, hi];
-  else if (classing === "equal") breaks = Array.from({ length: k + 1 }, (_, i) => (i === k ? hi : lo + ((hi - lo) * i) / k));
+  else if (classing === "equal")
+    breaks = Array.from({ length: k + 1 }, (_, i) => (i === k ? hi : lo + ((hi - lo) * i) / k));
   else breaks = [...new Set(Array.from({ length: k + 1 }, (_, i) => quantile(sorted, i / k)))];
   const n = breaks.length - 1;
   const colours = Array.from({ length: n }, (_, i) => viridis(n === 1 ? 1 : i / (n - 1)));
@@ -60,7 +64,8 @@ export function classBreaks(values: readonly number[], classing: Classing, k = 5
 /** The class of v: class i holds (b[i], b[i+1]], the first also its lower end. −1 for 0 or no value. */
 export function classOf(scale: ClassScale, v: number | null): number {
   if (v === null || !(v > 0) || !scale.colours.length) return -1;
-  for (let i = 0; i < scale.colours.length; i++) if (v <= scale.breaks[i + 1]! + 1e-12 * Math.abs(scale.breaks[i + 1]!)) return i;
+  for (let i = 0; i < scale.colours.length; i++)
+    if (v <= scale.breaks[i + 1]! + 1e-12 * Math.abs(scale.breaks[i + 1]!)) return i;
   return scale.colours.length - 1;
 }
 
@@ -73,5 +78,9 @@ export function formatValue(v: number): string {
 
 /** Legend lines, "1–4", "4–9.5", … */
 export function classLabels(scale: ClassScale): string[] {
-  return scale.colours.map((_, i) => (scale.breaks[i] === scale.breaks[i + 1] ? formatValue(scale.breaks[i]!) : `${formatValue(scale.breaks[i]!)}–${formatValue(scale.breaks[i + 1]!)}`));
+  return scale.colours.map((_, i) =>
+    scale.breaks[i] === scale.breaks[i + 1]
+      ? formatValue(scale.breaks[i]!)
+      : `${formatValue(scale.breaks[i]!)}–${formatValue(scale.breaks[i + 1]!)}`,
+  );
 }

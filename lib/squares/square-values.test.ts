@@ -6,8 +6,24 @@ import { classBreaks, classLabels, classOf, viridis, VIRIDIS_STOPS } from "./col
 
 const grid = { size: 1, originX: 0, originY: 0 };
 // 3 m × 1 m trench, the east square half cut away: squares 0/0, 1/0 (1 m²) and 2/0 (0.5 m²).
-const squares = clipSquares(createWindow({ outer: [[0, 0], [2.5, 0], [2.5, 1], [0, 1]] }), grid);
-const sample = (col: number, contextId: string, spitId: string | null, area: number, counts: SampleLike["counts"]): SampleLike => ({ col, row: 0, contextId, spitId, area, outside: false, counts });
+const squares = clipSquares(
+  createWindow({
+    outer: [
+      [0, 0],
+      [2.5, 0],
+      [2.5, 1],
+      [0, 1],
+    ],
+  }),
+  grid,
+);
+const sample = (
+  col: number,
+  contextId: string,
+  spitId: string | null,
+  area: number,
+  counts: SampleLike["counts"],
+): SampleLike => ({ col, row: 0, contextId, spitId, area, outside: false, counts });
 
 describe("squares by class", () => {
   const samples = [
@@ -36,7 +52,12 @@ describe("squares by class", () => {
     expect(cellValue(cells[0]!, "density")).toBe(4); // 2 flakes in 0.5 m²
   });
   it("counts piece-plotted finds in the same squares, a find on a grid line going east", () => {
-    const finds = [{ x: 0.2, y: 0.5, classId: "FL", contextId: "c1" }, { x: 1, y: 0.5, classId: "FL", contextId: "c1" }, { x: 2.2, y: 0.1, classId: "FL", contextId: "c1" }, { x: 2.2, y: 0.2, classId: "BB", contextId: "c1" }];
+    const finds = [
+      { x: 0.2, y: 0.5, classId: "FL", contextId: "c1" },
+      { x: 1, y: 0.5, classId: "FL", contextId: "c1" },
+      { x: 2.2, y: 0.1, classId: "FL", contextId: "c1" },
+      { x: 2.2, y: 0.2, classId: "BB", contextId: "c1" },
+    ];
     const cells = findCells(squares, grid, finds, { classId: "FL" });
     expect(cells.map((c) => c.count)).toEqual([1, 1, 1]);
     expect(cellValue(cells[2]!, "density")).toBe(2);

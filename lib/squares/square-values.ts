@@ -22,7 +22,12 @@ export type SampleLike = {
  */
 export type CellState = "counted" | "not-counted" | "not-excavated";
 
-export type SquareCell = GridSquare & { state: CellState; count: number | null; weightG: number | null; excavated: number };
+export type SquareCell = GridSquare & {
+  state: CellState;
+  count: number | null;
+  weightG: number | null;
+  excavated: number;
+};
 
 export type Measure = "count" | "density";
 
@@ -35,7 +40,11 @@ export type CellScope = { classId: string; contextIds?: readonly string[] | null
  * area is the largest area among those records (a square dug in two spits covers its plan area once, so
  * the areas are not added).
  */
-export function squareCells(squares: readonly GridSquare[], samples: readonly SampleLike[], scope: CellScope): SquareCell[] {
+export function squareCells(
+  squares: readonly GridSquare[],
+  samples: readonly SampleLike[],
+  scope: CellScope,
+): SquareCell[] {
   const ctx = scope.contextIds ? new Set(scope.contextIds) : null;
   const spit = scope.spitIds ? new Set(scope.spitIds) : null;
   const by = new Map<string, SampleLike[]>();
@@ -57,7 +66,14 @@ export function squareCells(squares: readonly GridSquare[], samples: readonly Sa
       if (c.weightG !== null) weightG = (weightG ?? 0) + c.weightG;
       excavated = Math.max(excavated, s.area);
     }
-    if (count === null) return { ...sq, state: "not-counted" as const, count: null, weightG: null, excavated: Math.max(...inScope.map((s) => s.area)) };
+    if (count === null)
+      return {
+        ...sq,
+        state: "not-counted" as const,
+        count: null,
+        weightG: null,
+        excavated: Math.max(...inScope.map((s) => s.area)),
+      };
     return { ...sq, state: "counted" as const, count, weightG, excavated };
   });
 }
@@ -66,7 +82,12 @@ export function squareCells(squares: readonly GridSquare[], samples: readonly Sa
  * Piece-plotted finds of one class counted in the same squares, for comparison: every square is taken as
  * dug over its whole area inside the trench (finds are recorded wherever they lie).
  */
-export function findCells(squares: readonly GridSquare[], grid: SquareGridSpec, finds: readonly { x: number; y: number; classId: string; contextId: string }[], scope: CellScope): SquareCell[] {
+export function findCells(
+  squares: readonly GridSquare[],
+  grid: SquareGridSpec,
+  finds: readonly { x: number; y: number; classId: string; contextId: string }[],
+  scope: CellScope,
+): SquareCell[] {
   const ctx = scope.contextIds ? new Set(scope.contextIds) : null;
   const index = squareIndex(squares);
   const counts = new Map<string, number>();
@@ -76,7 +97,13 @@ export function findCells(squares: readonly GridSquare[], grid: SquareGridSpec, 
     const key = `${col},${row}`;
     if (index.has(key)) counts.set(key, (counts.get(key) ?? 0) + 1);
   }
-  return squares.map((sq) => ({ ...sq, state: "counted" as const, count: counts.get(`${sq.col},${sq.row}`) ?? 0, weightG: null, excavated: sq.area }));
+  return squares.map((sq) => ({
+    ...sq,
+    state: "counted" as const,
+    count: counts.get(`${sq.col},${sq.row}`) ?? 0,
+    weightG: null,
+    excavated: sq.area,
+  }));
 }
 
 /** The value mapped: the count, or count per excavated m²; null where nothing was counted. */
@@ -90,5 +117,12 @@ export function cellValue(cell: SquareCell, measure: Measure): number | null {
 export function latticeSquares(cells: readonly SquareCell[]) {
   return cells
     .filter((c) => c.state === "counted" && c.count !== null)
-    .map((c) => ({ id: c.label, col: c.col, row: c.row, centre: [(c.x0 + c.x1) / 2, (c.y0 + c.y1) / 2] as [number, number], area: c.excavated, value: c.count! }));
+    .map((c) => ({
+      id: c.label,
+      col: c.col,
+      row: c.row,
+      centre: [(c.x0 + c.x1) / 2, (c.y0 + c.y1) / 2] as [number, number],
+      area: c.excavated,
+      value: c.count!,
+    }));
 }

@@ -99,7 +99,11 @@ function chain(g: Graph, start: string, goal: string): MatrixRelation[] | null {
  * If adding `candidate` to `relations` would make the matrix loop back on itself, names the loop
  * (starting with the candidate); otherwise null.
  */
-export function loopIfAdded(contexts: MatrixContext[], relations: MatrixRelation[], candidate: MatrixRelation): string | null {
+export function loopIfAdded(
+  contexts: MatrixContext[],
+  relations: MatrixRelation[],
+  candidate: MatrixRelation,
+): string | null {
   const numbers = new Map(contexts.map((c) => [c.id, c.number]));
   const numberOf = (id: string) => numbers.get(id) ?? NaN;
   const g = laterThanGraph(contexts, relations);
@@ -110,7 +114,9 @@ export function loopIfAdded(contexts: MatrixContext[], relations: MatrixRelation
     if (!back || back.length === 0) return null;
     // The chain runs between the two contexts the candidate joins; the candidate closes it.
     const startsAtFrom = g.group.get(back[0].fromId) === a;
-    const path = startsAtFrom ? [...back, { ...candidate, fromId: candidate.toId, toId: candidate.fromId }] : [...back, candidate];
+    const path = startsAtFrom
+      ? [...back, { ...candidate, fromId: candidate.toId, toId: candidate.fromId }]
+      : [...back, candidate];
     return nameLoop(path, numberOf);
   }
   const back = chain(g, b, a);
@@ -161,10 +167,15 @@ export function buildMatrix(contexts: MatrixContext[], relations: MatrixRelation
   nodes.sort((p, q) => p.members[0].number - q.members[0].number);
   const edges: MatrixEdge[] = [];
   for (const list of g.out.values()) {
-    for (const r of list) edges.push({ relation: r, from: g.group.get(r.fromId)!, to: g.group.get(r.toId)!, redundant: false });
+    for (const r of list)
+      edges.push({ relation: r, from: g.group.get(r.fromId)!, to: g.group.get(r.toId)!, redundant: false });
   }
   const loop = anyLoop(g, (id) => byId.get(id)?.number ?? NaN);
-  if (!loop) markRedundant(nodes.map((n) => n.key), edges);
+  if (!loop)
+    markRedundant(
+      nodes.map((n) => n.key),
+      edges,
+    );
   return { nodes, edges, loop };
 }
 

@@ -16,15 +16,31 @@ const ANGLE = (3.5 * Math.PI) / 180;
 
 /** grid (x, y) → photo pixel (px, py); y grows north on the grid and down in the photo. */
 function toPixel(x: number, y: number): [number, number] {
-  const c = Math.cos(ANGLE), s = Math.sin(ANGLE);
+  const c = Math.cos(ANGLE),
+    s = Math.sin(ANGLE);
   return [110 + SCALE * (c * (x + 0.8) - s * (y + 0.8)), HEIGHT - 90 - SCALE * (s * (x + 0.8) + c * (y + 0.8))];
 }
 
-const path = (ring: Ring) => "M" + ring.map(([x, y]) => toPixel(x, y).map((v) => v.toFixed(1)).join(",")).join("L") + "Z";
+const path = (ring: Ring) =>
+  "M" +
+  ring
+    .map(([x, y]) =>
+      toPixel(x, y)
+        .map((v) => v.toFixed(1))
+        .join(","),
+    )
+    .join("L") +
+  "Z";
 
 export type DemoPhoto = { jpeg: Buffer; fit: StoredFit; fileName: string };
 
-export async function demoTrenchPhoto(outer: Ring, holes: Ring[], pegs: [number, number][], seed: number, fittedBy: string): Promise<DemoPhoto> {
+export async function demoTrenchPhoto(
+  outer: Ring,
+  holes: Ring[],
+  pegs: [number, number][],
+  seed: number,
+  fittedBy: string,
+): Promise<DemoPhoto> {
   const rng = createRandom(seed, 7);
   const stones = Array.from({ length: 140 }, () => {
     const [px, py] = [rng.next() * WIDTH, rng.next() * HEIGHT];
@@ -54,5 +70,9 @@ export async function demoTrenchPhoto(outer: Ring, holes: Ring[], pegs: [number,
     return { px: Math.round(px), py: Math.round(py), x, y };
   });
   const fit = fitPhoto(points, { model: "similarity" });
-  return { jpeg, fileName: "trench-A-mast-photo.jpg", fit: { ...fit, points, fittedAt: new Date(Date.UTC(2026, 5, 8, 7, 30)).toISOString(), fittedBy } };
+  return {
+    jpeg,
+    fileName: "trench-A-mast-photo.jpg",
+    fit: { ...fit, points, fittedAt: new Date(Date.UTC(2026, 5, 8, 7, 30)).toISOString(), fittedBy },
+  };
 }

@@ -5,7 +5,13 @@ import { checkOutline } from "@/lib/geometry/outline";
 import { clipSquares } from "@/lib/geometry/square-grid";
 import { createRandom } from "@/lib/spatial";
 
-type Ids = { siteId: string; trenchId: string; contextId: string; classId: (code: "CHP" | "BBN" | "FCR") => string; diggerId: string };
+type Ids = {
+  siteId: string;
+  trenchId: string;
+  contextId: string;
+  classId: (code: "CHP" | "BBN" | "FCR") => string;
+  diggerId: string;
+};
 
 /** Poisson draw by inversion (Knuth); fine for the small means here. */
 function poisson(mean: number, next: () => number): number {
@@ -22,18 +28,30 @@ function poisson(mean: number, next: () => number): number {
  * the northern squares so far, and square 3/2 was half dug in spit 1 (a sondage took the rest).
  */
 export async function seedDemoSquares(tx: Tx, ids: Ids): Promise<void> {
-  const [trench] = await tx.update(s.trenches).set({ squareSize: 1, squareOriginX: 0, squareOriginY: 0 }).where(eq(s.trenches.id, ids.trenchId)).returning();
+  const [trench] = await tx
+    .update(s.trenches)
+    .set({ squareSize: 1, squareOriginX: 0, squareOriginY: 0 })
+    .where(eq(s.trenches.id, ids.trenchId))
+    .returning();
   const check = checkOutline(trench!.outline);
   if (!check.ok) throw new Error(check.reason);
   const squares = clipSquares(check.window, { size: 1, originX: 0, originY: 0 });
-  const spits = await tx.select().from(s.spits).where(and(eq(s.spits.contextId, ids.contextId))).orderBy(asc(s.spits.number));
+  const spits = await tx
+    .select()
+    .from(s.spits)
+    .where(and(eq(s.spits.contextId, ids.contextId)))
+    .orderBy(asc(s.spits.number));
   const rng = createRandom(20261216);
   const next = () => Math.max(rng.next(), 1e-12);
-  const spots: [number, number][] = [[2.2, 2.0], [2.6, 6.2]];
+  const spots: [number, number][] = [
+    [2.2, 2.0],
+    [2.6, 6.2],
+  ];
   for (const [k, spit] of spits.entries()) {
     for (const sq of squares) {
       if (k === 1 && sq.row < 4) continue;
-      const cx = (sq.x0 + sq.x1) / 2, cy = (sq.y0 + sq.y1) / 2;
+      const cx = (sq.x0 + sq.x1) / 2,
+        cy = (sq.y0 + sq.y1) / 2;
       const near = Math.max(...spots.map(([x, y]) => Math.exp(-((cx - x) ** 2 + (cy - y) ** 2) / (2 * 1.1 ** 2))));
       const half = k === 0 && sq.col === 3 && sq.row === 2;
       const area = half ? sq.area / 2 : sq.area;
@@ -42,7 +60,16 @@ export async function seedDemoSquares(tx: Tx, ids: Ids): Promise<void> {
       const stone = poisson(2 * area, next);
       const [sample] = await tx
         .insert(s.squareSamples)
-        .values({ siteId: ids.siteId, trenchId: ids.trenchId, contextId: ids.contextId, spitId: spit.id, col: sq.col, row: sq.row, excavatedArea: half ? area : null, recordedBy: ids.diggerId })
+        .values({
+          siteId: ids.siteId,
+          trenchId: ids.trenchId,
+          contextId: ids.contextId,
+          spitId: spit.id,
+          col: sq.col,
+          row: sq.row,
+          excavatedArea: half ? area : null,
+          recordedBy: ids.diggerId,
+        })
         .returning();
       await tx.insert(s.squareCounts).values([
         { sampleId: sample!.id, classId: ids.classId("CHP"), count: chips, weightG: Math.round(chips * 0.4 * 10) / 10 },

@@ -26,20 +26,131 @@ const CLASSES = [
   { code: "HUM", label: "Human bone", material: "bone", colour: "#000000", symbol: "star", humanRemains: true },
 ] as const;
 
-const TRENCH_B = { outer: [[20, 0], [27.5, 1], [28.5, 6.5], [24, 9], [19.5, 6]] as Pt[], holes: [] };
-const TRENCH_C = { outer: [[0, 14], [6, 14], [6, 18], [4, 18], [4, 16], [2, 16], [2, 19], [0, 19]] as Pt[], holes: [] };
+const TRENCH_B = {
+  outer: [
+    [20, 0],
+    [27.5, 1],
+    [28.5, 6.5],
+    [24, 9],
+    [19.5, 6],
+  ] as Pt[],
+  holes: [],
+};
+const TRENCH_C = {
+  outer: [
+    [0, 14],
+    [6, 14],
+    [6, 18],
+    [4, 18],
+    [4, 16],
+    [2, 16],
+    [2, 19],
+    [0, 19],
+  ] as Pt[],
+  holes: [],
+};
 
-type ContextSpec = { number: number; trench: "A" | "B" | "C"; type: (typeof s.contextTypeEnum.enumValues)[number]; colour: string; compaction: string; composition: string; description: string; interpretation: string };
+type ContextSpec = {
+  number: number;
+  trench: "A" | "B" | "C";
+  type: (typeof s.contextTypeEnum.enumValues)[number];
+  colour: string;
+  compaction: string;
+  composition: string;
+  description: string;
+  interpretation: string;
+};
 const CONTEXTS: ContextSpec[] = [
-  { number: 1001, trench: "A", type: "layer", colour: "dark greyish brown", compaction: "loose", composition: "silty loam", description: "Turf and topsoil over the whole trench.", interpretation: "Modern ploughsoil." },
-  { number: 1002, trench: "A", type: "layer", colour: "mid orange brown", compaction: "firm", composition: "sandy silt", description: "Subsoil with rare charcoal flecks.", interpretation: "Colluvium sealing the surface." },
-  { number: 1003, trench: "A", type: "cut", colour: "", compaction: "", composition: "", description: "Sub-circular cut, 0.9 m across, steep sides, concave base.", interpretation: "Pit." },
-  { number: 1004, trench: "A", type: "fill", colour: "black", compaction: "friable", composition: "charcoal-rich silt", description: "Single fill of pit 1003 with burnt stone.", interpretation: "Dump of hearth rake-out." },
-  { number: 1005, trench: "A", type: "deposit", colour: "pale grey", compaction: "compact", composition: "sand with flint debitage", description: "Thin trampled surface with knapping debris and burnt stone.", interpretation: "Occupation surface around a knapping area." },
-  { number: 2001, trench: "B", type: "layer", colour: "dark brown", compaction: "loose", composition: "loam", description: "Topsoil.", interpretation: "Ploughsoil." },
-  { number: 2002, trench: "B", type: "deposit", colour: "reddish brown", compaction: "firm", composition: "burnt sand", description: "Spread of burnt material.", interpretation: "Burning episode." },
-  { number: 3001, trench: "C", type: "layer", colour: "dark brown", compaction: "loose", composition: "loam", description: "Topsoil.", interpretation: "Ploughsoil." },
-  { number: 3002, trench: "C", type: "fill", colour: "mid grey", compaction: "soft", composition: "clayey silt", description: "Fill of a shallow grave-shaped cut; work stopped on exposure of bone.", interpretation: "Possible burial; reported." },
+  {
+    number: 1001,
+    trench: "A",
+    type: "layer",
+    colour: "dark greyish brown",
+    compaction: "loose",
+    composition: "silty loam",
+    description: "Turf and topsoil over the whole trench.",
+    interpretation: "Modern ploughsoil.",
+  },
+  {
+    number: 1002,
+    trench: "A",
+    type: "layer",
+    colour: "mid orange brown",
+    compaction: "firm",
+    composition: "sandy silt",
+    description: "Subsoil with rare charcoal flecks.",
+    interpretation: "Colluvium sealing the surface.",
+  },
+  {
+    number: 1003,
+    trench: "A",
+    type: "cut",
+    colour: "",
+    compaction: "",
+    composition: "",
+    description: "Sub-circular cut, 0.9 m across, steep sides, concave base.",
+    interpretation: "Pit.",
+  },
+  {
+    number: 1004,
+    trench: "A",
+    type: "fill",
+    colour: "black",
+    compaction: "friable",
+    composition: "charcoal-rich silt",
+    description: "Single fill of pit 1003 with burnt stone.",
+    interpretation: "Dump of hearth rake-out.",
+  },
+  {
+    number: 1005,
+    trench: "A",
+    type: "deposit",
+    colour: "pale grey",
+    compaction: "compact",
+    composition: "sand with flint debitage",
+    description: "Thin trampled surface with knapping debris and burnt stone.",
+    interpretation: "Occupation surface around a knapping area.",
+  },
+  {
+    number: 2001,
+    trench: "B",
+    type: "layer",
+    colour: "dark brown",
+    compaction: "loose",
+    composition: "loam",
+    description: "Topsoil.",
+    interpretation: "Ploughsoil.",
+  },
+  {
+    number: 2002,
+    trench: "B",
+    type: "deposit",
+    colour: "reddish brown",
+    compaction: "firm",
+    composition: "burnt sand",
+    description: "Spread of burnt material.",
+    interpretation: "Burning episode.",
+  },
+  {
+    number: 3001,
+    trench: "C",
+    type: "layer",
+    colour: "dark brown",
+    compaction: "loose",
+    composition: "loam",
+    description: "Topsoil.",
+    interpretation: "Ploughsoil.",
+  },
+  {
+    number: 3002,
+    trench: "C",
+    type: "fill",
+    colour: "mid grey",
+    compaction: "soft",
+    composition: "clayey silt",
+    description: "Fill of a shallow grave-shaped cut; work stopped on exposure of bone.",
+    interpretation: "Possible burial; reported.",
+  },
 ];
 /** from <kind> to — a valid matrix: no loops. */
 const RELATIONS: [number, s.ContextRelation["kind"], number][] = [
@@ -63,7 +174,8 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
       .values({
         code: DEMO_SITE_CODE,
         name: "Whinnydale Holm",
-        gridDescription: "Site grid laid out from peg WH1 (0, 0), axes along the field boundary; metres. Invented demo site.",
+        gridDescription:
+          "Site grid laid out from peg WH1 (0, 0), axes along the field boundary; metres. Invented demo site.",
         datumKind: "local",
         datumName: "Whinnydale site datum (TBM WH1 taken as 50.000 m)",
         levelTolerance: 0.005,
@@ -84,23 +196,66 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
     const trenchRows = await tx
       .insert(s.trenches)
       .values([
-        { siteId: site.id, code: "A", name: "Knapping floor", outline: windowToPolygon(windows.A), surfaceLevel: DEMO_SURFACE.A },
-        { siteId: site.id, code: "B", name: "Burnt spread", outline: windowToPolygon(windows.B), surfaceLevel: DEMO_SURFACE.B },
-        { siteId: site.id, code: "C", name: "Southern extension", outline: windowToPolygon(windows.C), surfaceLevel: DEMO_SURFACE.C },
+        {
+          siteId: site.id,
+          code: "A",
+          name: "Knapping floor",
+          outline: windowToPolygon(windows.A),
+          surfaceLevel: DEMO_SURFACE.A,
+        },
+        {
+          siteId: site.id,
+          code: "B",
+          name: "Burnt spread",
+          outline: windowToPolygon(windows.B),
+          surfaceLevel: DEMO_SURFACE.B,
+        },
+        {
+          siteId: site.id,
+          code: "C",
+          name: "Southern extension",
+          outline: windowToPolygon(windows.C),
+          surfaceLevel: DEMO_SURFACE.C,
+        },
       ])
       .returning();
     const trenchId = Object.fromEntries(trenchRows.map((t) => [t.code, t.id])) as Record<"A" | "B" | "C", string>;
     const ctxRows = await tx
       .insert(s.contexts)
-      .values(CONTEXTS.map(({ trench, ...c }) => ({ ...c, siteId: site.id, trenchId: trenchId[trench], recordedBy: digger.id })))
+      .values(
+        CONTEXTS.map(({ trench, ...c }) => ({
+          ...c,
+          siteId: site.id,
+          trenchId: trenchId[trench],
+          recordedBy: digger.id,
+        })),
+      )
       .returning();
     const ctx = Object.fromEntries(ctxRows.map((c) => [c.number, c])) as Record<number, s.Context>;
-    await tx.insert(s.contextRelations).values(RELATIONS.map(([a, kind, b]) => ({ siteId: site.id, fromId: ctx[a].id, toId: ctx[b].id, kind, createdBy: digger.id })));
-    const classRows = await tx.insert(s.artefactClasses).values(CLASSES.map((c) => ({ ...c, siteId: site.id }))).returning();
-    const cls = Object.fromEntries(classRows.map((c) => [c.code, c.id])) as Record<(typeof CLASSES)[number]["code"], string>;
+    await tx.insert(s.contextRelations).values(
+      RELATIONS.map(([a, kind, b]) => ({
+        siteId: site.id,
+        fromId: ctx[a].id,
+        toId: ctx[b].id,
+        kind,
+        createdBy: digger.id,
+      })),
+    );
+    const classRows = await tx
+      .insert(s.artefactClasses)
+      .values(CLASSES.map((c) => ({ ...c, siteId: site.id })))
+      .returning();
+    const cls = Object.fromEntries(classRows.map((c) => [c.code, c.id])) as Record<
+      (typeof CLASSES)[number]["code"],
+      string
+    >;
 
     const rng = createRandom(DEMO_SEED);
-    const centres: Pt[] = [[2.2, 2.0], [2.6, 6.2], [10.4, 2.8]];
+    const centres: Pt[] = [
+      [2.2, 2.0],
+      [2.6, 6.2],
+      [10.4, 2.8],
+    ];
     const groups: { cls: keyof typeof cls; context: number; trench: "A" | "B" | "C"; pts: Pt[] }[] = [
       { cls: "FLK", context: 1005, trench: "A", pts: clusteredLayout(windows.A, 150, centres, 0.45, rng) },
       { cls: "CHP", context: 1005, trench: "A", pts: clusteredLayout(windows.A, 110, centres, 0.55, rng) },
@@ -136,9 +291,22 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
     );
     for (let i = 0; i < rows.length; i += 500) await tx.insert(s.finds).values(rows.slice(i, i + 500));
     await seedDemoLevels(tx, { siteId: site.id, trenchId, contextId: (n: number) => ctx[n]!.id, diggerId: digger.id });
-    await seedDemoSquares(tx, { siteId: site.id, trenchId: trenchId.A, contextId: ctx[1005]!.id, classId: (code) => cls[code], diggerId: digger.id });
+    await seedDemoSquares(tx, {
+      siteId: site.id,
+      trenchId: trenchId.A,
+      contextId: ctx[1005]!.id,
+      classId: (code) => cls[code],
+      diggerId: digger.id,
+    });
     await tx.update(s.sites).set({ nextFindNumber: number }).where(eq(s.sites.id, site.id));
-    await tx.insert(s.auditEntries).values({ siteId: site.id, actorId: director.id, action: "seed", recordType: "site", recordId: site.id, after: { finds: rows.length } });
+    await tx.insert(s.auditEntries).values({
+      siteId: site.id,
+      actorId: director.id,
+      action: "seed",
+      recordType: "site",
+      recordId: site.id,
+      after: { finds: rows.length },
+    });
     return { created: true, siteId: site.id };
   });
 }

@@ -22,7 +22,9 @@ async function openSite(page: Page): Promise<string> {
 /** The QR codes in a PNG, read by jsqr from its pixels (what a phone's camera would see on paper). */
 async function decodeQr(png: Buffer): Promise<string | null> {
   const { data, info } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
-  return jsQR(new Uint8ClampedArray(data.buffer, data.byteOffset, data.byteLength), info.width, info.height)?.data ?? null;
+  return (
+    jsQR(new Uint8ClampedArray(data.buffer, data.byteOffset, data.byteLength), info.width, info.height)?.data ?? null
+  );
 }
 
 describe("the site archive: samples and labels", () => {
@@ -63,7 +65,9 @@ describe("the site archive: samples and labels", () => {
 
     // The scan action takes a photo of the label when no camera is at hand, and opens the sample too.
     await page.goto("/scan");
-    await page.getByLabel("Or a photo of the label").setInputFiles({ name: "label.png", mimeType: "image/png", buffer: png });
+    await page
+      .getByLabel("Or a photo of the label")
+      .setInputFiles({ name: "label.png", mimeType: "image/png", buffer: png });
     await page.waitForURL(`**${samplePath}`);
     await page.context().close();
   });

@@ -29,7 +29,9 @@ describe("total-station import in the browser", () => {
 
     // Point IDs 1 and 2 are also find numbers already on the site: before, every row clashed with them.
     const csv = ["Pt,E,N,Code,Ctx", `1,2.10,1.20,FLK,${open.number}`, `2,2.40,1.35,FLK,${open.number}`].join("\n");
-    await page.locator("#ts-file").setInputFiles({ name: "station-day.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+    await page
+      .locator("#ts-file")
+      .setInputFiles({ name: "station-day.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
     await shown(page.getByRole("form", { name: "Map the columns" }));
     expect(await page.locator("#map-stationPoint").inputValue()).toBe("Pt");
     expect(await page.locator("#map-number").inputValue()).toBe("");
@@ -41,7 +43,10 @@ describe("total-station import in the browser", () => {
     expect(first).toBeGreaterThan(2);
     const list = await (await page.request.get(`/api/sites/${site.id}/finds?sort=number&dir=desc&pageSize=5`)).json();
     const mine = list.rows.filter((r: { number: number }) => r.number >= first && r.number <= last);
-    expect(mine.map((r: { number: number; stationPoint: string }) => [r.number, r.stationPoint]).sort()).toEqual([[first, "1"], [last, "2"]]);
+    expect(mine.map((r: { number: number; stationPoint: string }) => [r.number, r.stationPoint]).sort()).toEqual([
+      [first, "1"],
+      [last, "2"],
+    ]);
     await page.context().close();
   });
 });

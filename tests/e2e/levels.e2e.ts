@@ -47,7 +47,9 @@ describe("the level book in the browser", () => {
     await shown(row(4).locator("[data-rl]").getByText("49.866"));
     await shown(page.locator("[data-closure]").getByText(/Closing error −8 mm .* OUTSIDE tolerance/));
     await page.getByLabel("Line 4 foresight").fill("1.209");
-    await shown(page.locator("[data-closure]").getByText(/Closing error \+2 mm against a tolerance of ±5 mm: within tolerance/));
+    await shown(
+      page.locator("[data-closure]").getByText(/Closing error \+2 mm against a tolerance of ±5 mm: within tolerance/),
+    );
     expect(await page.locator("[data-rise]").textContent()).toBe("-0.124");
 
     // A reading that is not a number is named on its line, and nothing is sent.
@@ -62,7 +64,10 @@ describe("the level book in the browser", () => {
     await shown(page.getByText(/Run booked: 4 levels from TBM WH1, closing error 2 mm/));
     const runs = await (await page.request.get(`/api/sites/${site.id}/level-runs`)).json();
     expect(runs.length).toBe(before + 1);
-    const mine = runs.find((r: { misclosure: number; book: { station: string }[] }) => r.book.length === 4 && Math.abs(r.misclosure - 0.002) < 1e-9 && r.book[1]!.station === "ground");
+    const mine = runs.find(
+      (r: { misclosure: number; book: { station: string }[] }) =>
+        r.book.length === 4 && Math.abs(r.misclosure - 0.002) < 1e-9 && r.book[1]!.station === "ground",
+    );
     expect(mine).toBeDefined();
     expect(mine.withinTolerance).toBe(true);
     const listed = page.locator(`article[data-run="${mine.id}"]`);

@@ -24,13 +24,22 @@ afterAll(async () => {
 async function networkOff(context: BrowserContext, page: Page, off: boolean) {
   await context.setOffline(off);
   const cdp = await context.newCDPSession(page);
-  await cdp.send("Network.emulateNetworkConditions", { offline: off, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+  await cdp.send("Network.emulateNetworkConditions", {
+    offline: off,
+    latency: 0,
+    downloadThroughput: -1,
+    uploadThroughput: -1,
+  });
 }
 
 /** Waits until the service worker controls the page and keeps its address in the pages cache. */
 async function keptOnDevice(page: Page, url: string) {
   await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 45_000 });
-  await page.waitForFunction(async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })), new URL(url, stack.url).href, { timeout: 45_000 });
+  await page.waitForFunction(
+    async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })),
+    new URL(url, stack.url).href,
+    { timeout: 45_000 },
+  );
 }
 
 describe("the app on a device with no connection", () => {
@@ -39,7 +48,15 @@ describe("the app on a device with no connection", () => {
     const page = await context.newPage();
     await signIn(page, "digger");
     const t = await freshTrench(page);
-    const made = await page.request.post(`/api/sites/${t.siteId}/finds`, { data: { contextId: await contextId(page, t), classId: await firstClass(page, t.siteId), x: 2, y: 1, method: "plan" } });
+    const made = await page.request.post(`/api/sites/${t.siteId}/finds`, {
+      data: {
+        contextId: await contextId(page, t),
+        classId: await firstClass(page, t.siteId),
+        x: 2,
+        y: 1,
+        method: "plan",
+      },
+    });
     expect(made.status()).toBe(201);
     const planUrl = `/sites/${t.siteId}/trenches/${t.trenchId}`;
     await page.goto(planUrl);
@@ -62,7 +79,9 @@ describe("the app on a device with no connection", () => {
 });
 
 async function contextId(page: Page, t: { siteId: string; trenchId: string }) {
-  const list = (await (await page.request.get(`/api/sites/${t.siteId}/contexts?trenchId=${t.trenchId}`)).json()) as { id: string }[];
+  const list = (await (await page.request.get(`/api/sites/${t.siteId}/contexts?trenchId=${t.trenchId}`)).json()) as {
+    id: string;
+  }[];
   return list[0].id;
 }
 async function firstClass(page: Page, siteId: string) {

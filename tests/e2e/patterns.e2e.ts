@@ -54,7 +54,10 @@ describe("Patterns workspace", () => {
     await shown(page.getByText(/Equifinality/));
     // The figure and its curves can be taken away: CSV of the curves, SVG of the drawing.
     const save = async (button: string) => {
-      const [download] = await Promise.all([page.waitForEvent("download"), plot.getByRole("button", { name: button }).click()]);
+      const [download] = await Promise.all([
+        page.waitForEvent("download"),
+        plot.getByRole("button", { name: button }).click(),
+      ]);
       return { name: download.suggestedFilename(), text: await readFile((await download.path())!, "utf8") };
     };
     const csv = await save("CSV");
@@ -82,13 +85,21 @@ describe("Patterns workspace", () => {
     await page.getByRole("button", { name: "Run tests" }).click();
     const bar = page.getByRole("progressbar", { name: "Simulations done" });
     const percent = async () => Number(await bar.getAttribute("aria-valuenow"));
-    await page.waitForFunction(() => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > 0, undefined, { timeout: 30_000 });
+    await page.waitForFunction(
+      () => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > 0,
+      undefined,
+      { timeout: 30_000 },
+    );
     await shown(page.getByText(/% · (about \d+ (s|min)|under a second) left/));
     const before = await percent();
     // The run goes on on the server; the page, reloaded, picks it up where it has got to.
     await page.reload();
     await shown(bar, 30_000);
-    await page.waitForFunction((p) => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > p, before, { timeout: 30_000 });
+    await page.waitForFunction(
+      (p) => Number(document.querySelector('[role="progressbar"]')?.getAttribute("aria-valuenow")) > p,
+      before,
+      { timeout: 30_000 },
+    );
     await page.getByRole("button", { name: "Cancel run" }).click();
     await shown(page.getByText("This run was cancelled"), 30_000);
     await shown(page.getByRole("table", { name: "Saved runs" }).getByText("cancelled"));

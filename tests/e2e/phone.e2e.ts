@@ -24,16 +24,22 @@ async function phonePage(role: "digger" | "specialist") {
   return page;
 }
 
-const sideways = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+const sideways = (page: Page) =>
+  page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
 
 /** Visible buttons, links-as-buttons and fields inside `selector` smaller than 44 px either way. */
 function smallTargets(page: Page, selector: string) {
   return page.evaluate((sel) => {
     const out: string[] = [];
-    for (const el of document.querySelectorAll<HTMLElement>(`${sel} button, ${sel} select, ${sel} input, ${sel} [role=tab]`)) {
+    for (const el of document.querySelectorAll<HTMLElement>(
+      `${sel} button, ${sel} select, ${sel} input, ${sel} [role=tab]`,
+    )) {
       const r = el.getBoundingClientRect();
       if (r.width === 0 || r.height === 0 || getComputedStyle(el).visibility === "hidden") continue;
-      if (r.height < 44 || r.width < 44) out.push(`${el.tagName} "${(el.textContent ?? el.getAttribute("aria-label") ?? "").trim().slice(0, 30)}" ${Math.round(r.width)}×${Math.round(r.height)}`);
+      if (r.height < 44 || r.width < 44)
+        out.push(
+          `${el.tagName} "${(el.textContent ?? el.getAttribute("aria-label") ?? "").trim().slice(0, 30)}" ${Math.round(r.width)}×${Math.round(r.height)}`,
+        );
     }
     return out;
   }, selector);

@@ -19,7 +19,10 @@ afterAll(async () => {
 type Extent = { type: "Polygon"; coordinates: [number, number][][] } | null;
 
 async function extentOf(page: Page, siteId: string, contextNumber: number): Promise<Extent> {
-  const list = (await (await page.request.get(`/api/sites/${siteId}/contexts`)).json()) as { number: number; extent: Extent }[];
+  const list = (await (await page.request.get(`/api/sites/${siteId}/contexts`)).json()) as {
+    number: number;
+    extent: Extent;
+  }[];
   return list.find((c) => c.number === contextNumber)!.extent;
 }
 
@@ -29,7 +32,12 @@ describe("trench plan, context extents", () => {
 
     await page.getByRole("button", { name: /Draw extent/ }).click();
     await expect.poll(() => page.getByLabel("Context").inputValue()).not.toBe("");
-    const corners: [number, number][] = [[2, 0.8], [5, 0.8], [4.6, 2.6], [3, 2.8]];
+    const corners: [number, number][] = [
+      [2, 0.8],
+      [5, 0.8],
+      [4.6, 2.6],
+      [3, 2.8],
+    ];
     for (const [x, y] of corners) await tapPlan(page, false, x, y);
     await shown(page.getByText("Extent of context " + t.contextNumber + ": 4 corners"));
     await tapPlan(page, false, 2, 0.8); // the first corner again closes and saves
@@ -41,7 +49,13 @@ describe("trench plan, context extents", () => {
     expect(Math.max(...xs)).toBeCloseTo(5, 1);
 
     // a bow tie: refused on the page with the reason, the saved extent untouched
-    for (const [x, y] of [[2, 0.8], [5, 2.6], [5, 0.8], [2, 2.6]] as [number, number][]) await tapPlan(page, false, x, y);
+    for (const [x, y] of [
+      [2, 0.8],
+      [5, 2.6],
+      [5, 0.8],
+      [2, 2.6],
+    ] as [number, number][])
+      await tapPlan(page, false, x, y);
     await page.keyboard.press("Enter");
     await shown(page.getByRole("alert").filter({ hasText: /Not saved: .*cross/i }));
     expect(await extentOf(page, t.siteId, t.contextNumber)).toEqual(saved);

@@ -22,18 +22,23 @@ const toWorld = (v: PlanView, sx: number, sy: number): Pt => [(sx - v.ox) / v.sc
 
 /** Puts two fingers down at `from`, slides them to `to` in steps, lifts them. */
 async function twoFingers(cdp: CDPSession, from: [Pt, Pt], to: [Pt, Pt], steps = 12) {
-  const points = (t: number) => [0, 1].map((id) => {
-    const [x, y] = lerp(from[id], to[id], t);
-    return { x, y, id, radiusX: 4, radiusY: 4, force: 1 };
-  });
+  const points = (t: number) =>
+    [0, 1].map((id) => {
+      const [x, y] = lerp(from[id], to[id], t);
+      return { x, y, id, radiusX: 4, radiusY: 4, force: 1 };
+    });
   await cdp.send("Input.dispatchTouchEvent", { type: "touchStart", touchPoints: points(0) });
-  for (let i = 1; i <= steps; i++) await cdp.send("Input.dispatchTouchEvent", { type: "touchMove", touchPoints: points(i / steps) });
+  for (let i = 1; i <= steps; i++)
+    await cdp.send("Input.dispatchTouchEvent", { type: "touchMove", touchPoints: points(i / steps) });
   await cdp.send("Input.dispatchTouchEvent", { type: "touchEnd", touchPoints: [] });
 }
 
 /** Waits for the published view to differ from `before`, and returns it. */
 async function viewAfter(page: Page, before: PlanView): Promise<PlanView> {
-  await page.waitForFunction((b) => document.querySelector("[data-testid=plan-canvas]")?.getAttribute("data-view") !== b, JSON.stringify(before));
+  await page.waitForFunction(
+    (b) => document.querySelector("[data-testid=plan-canvas]")?.getAttribute("data-view") !== b,
+    JSON.stringify(before),
+  );
   return planView(page);
 }
 
@@ -52,7 +57,17 @@ describe("trench plan, two-finger gestures on a tablet", () => {
     const bar0 = await scaleBar.textContent();
     const c1: Pt = [box.x + box.width * 0.4, box.y + box.height * 0.55];
     const under1 = toWorld(v0, ...local(c1));
-    await twoFingers(cdp, [[c1[0] - 40, c1[1]], [c1[0] + 40, c1[1]]], [[c1[0] - 120, c1[1]], [c1[0] + 120, c1[1]]]);
+    await twoFingers(
+      cdp,
+      [
+        [c1[0] - 40, c1[1]],
+        [c1[0] + 40, c1[1]],
+      ],
+      [
+        [c1[0] - 120, c1[1]],
+        [c1[0] + 120, c1[1]],
+      ],
+    );
     const v1 = await viewAfter(page, v0);
     expect(v1.scale / v0.scale).toBeCloseTo(3, 3);
     const still1 = toWorld(v1, ...local(c1));
@@ -62,7 +77,17 @@ describe("trench plan, two-finger gestures on a tablet", () => {
     // Pinch from 240 px to 60 px apart (a quarter) on a slant about another point.
     const c2: Pt = [box.x + box.width * 0.6, box.y + box.height * 0.4];
     const under2 = toWorld(v1, ...local(c2));
-    await twoFingers(cdp, [[c2[0] - 96, c2[1] - 72], [c2[0] + 96, c2[1] + 72]], [[c2[0] - 24, c2[1] - 18], [c2[0] + 24, c2[1] + 18]]);
+    await twoFingers(
+      cdp,
+      [
+        [c2[0] - 96, c2[1] - 72],
+        [c2[0] + 96, c2[1] + 72],
+      ],
+      [
+        [c2[0] - 24, c2[1] - 18],
+        [c2[0] + 24, c2[1] + 18],
+      ],
+    );
     const v2 = await viewAfter(page, v1);
     expect(v2.scale / v1.scale).toBeCloseTo(0.25, 3);
     const still2 = toWorld(v2, ...local(c2));
@@ -73,7 +98,17 @@ describe("trench plan, two-finger gestures on a tablet", () => {
     const a: Pt = [box.x + box.width * 0.45, box.y + box.height * 0.5];
     const b: Pt = [a[0] + 90, a[1] + 50];
     const grabbed = toWorld(v2, ...local(a));
-    await twoFingers(cdp, [[a[0] - 50, a[1]], [a[0] + 50, a[1]]], [[b[0] - 50, b[1]], [b[0] + 50, b[1]]]);
+    await twoFingers(
+      cdp,
+      [
+        [a[0] - 50, a[1]],
+        [a[0] + 50, a[1]],
+      ],
+      [
+        [b[0] - 50, b[1]],
+        [b[0] + 50, b[1]],
+      ],
+    );
     const v3 = await viewAfter(page, v2);
     expect(v3.scale / v2.scale).toBeCloseTo(1, 6);
     const carried = toWorld(v3, ...local(b));

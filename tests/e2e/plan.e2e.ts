@@ -25,7 +25,9 @@ const PEGS = [
   { px: 100, py: 800, x: 0, y: 0 },
 ];
 async function trenchPhoto(): Promise<Buffer> {
-  const dots = PEGS.map((p) => `<circle cx="${p.px}" cy="${p.py}" r="14" fill="#fff" stroke="#000" stroke-width="4"/>`).join("");
+  const dots = PEGS.map(
+    (p) => `<circle cx="${p.px}" cy="${p.py}" r="14" fill="#fff" stroke="#000" stroke-width="4"/>`,
+  ).join("");
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1200" height="900"><rect width="1200" height="900" fill="#7a5a3a"/><rect x="100" y="100" width="1000" height="700" fill="#9b7550"/>${dots}</svg>`;
   return sharp(Buffer.from(svg)).jpeg({ quality: 80 }).toBuffer();
 }
@@ -38,13 +40,17 @@ for (const size of ["desktop", "tablet"] as const) {
 
       // 1. Upload a photo through the uploadthing SDK and the local fake.
       await page.getByRole("tab", { name: "Photo" }).click();
-      await page.getByTestId("photo-input").setInputFiles({ name: "trench-vertical.jpg", mimeType: "image/jpeg", buffer: await trenchPhoto() });
+      await page
+        .getByTestId("photo-input")
+        .setInputFiles({ name: "trench-vertical.jpg", mimeType: "image/jpeg", buffer: await trenchPhoto() });
       await shown(page.getByRole("status").filter({ hasText: "trench-vertical.jpg” uploaded" }), 30_000);
 
       // 2. Fit it: tap the four pegs on the photo, type their grid positions.
       const img = page.getByTestId("fit-photo");
       await shown(img);
-      await page.waitForFunction(() => (document.querySelector("[data-testid=fit-photo]") as HTMLImageElement | null)?.naturalWidth === 1200);
+      await page.waitForFunction(
+        () => (document.querySelector("[data-testid=fit-photo]") as HTMLImageElement | null)?.naturalWidth === 1200,
+      );
       for (const [i, p] of PEGS.entries()) {
         await img.scrollIntoViewIfNeeded();
         const ib = (await img.boundingBox())!;
@@ -58,13 +64,27 @@ for (const size of ["desktop", "tablet"] as const) {
       const summary = page.getByTestId("fit-summary");
       await shown(summary, 20_000);
       expect(await summary.textContent()).toMatch(/projective, 4 points/);
-      for (let i = 1; i <= 4; i++) expect(await page.getByTestId(`residual-${i}`).textContent()).toMatch(/\d+(\.\d+)? (mm|cm)/);
+      for (let i = 1; i <= 4; i++)
+        expect(await page.getByTestId(`residual-${i}`).textContent()).toMatch(/\d+(\.\d+)? (mm|cm)/);
 
       // 3. Draw the trench edge, then a hole, and save.
       await page.getByRole("button", { name: /Draw edge/ }).click();
-      for (const [x, y] of [[0, 0], [8, 0], [8, 6], [0, 6], [0, 0]] as const) await tapPlan(page, touch, x, y);
+      for (const [x, y] of [
+        [0, 0],
+        [8, 0],
+        [8, 6],
+        [0, 6],
+        [0, 0],
+      ] as const)
+        await tapPlan(page, touch, x, y);
       await page.getByRole("button", { name: /Add hole/ }).click();
-      for (const [x, y] of [[3, 2], [5, 2], [5, 3], [3, 3]] as const) await tapPlan(page, touch, x, y);
+      for (const [x, y] of [
+        [3, 2],
+        [5, 2],
+        [5, 3],
+        [3, 3],
+      ] as const)
+        await tapPlan(page, touch, x, y);
       await page.getByRole("button", { name: "Close ring" }).click();
       expect(await page.getByTestId("outline-holes").textContent()).toBe("1");
       expect(await page.getByTestId("outline-area").textContent()).toBe("46.00 m²"); // 8 × 6 less the 2 × 1 hole
@@ -74,7 +94,11 @@ for (const size of ["desktop", "tablet"] as const) {
       // 4. Place three finds; each gets its number from the server.
       await page.getByRole("button", { name: /Place find/ }).click();
       const recorded: number[] = [];
-      for (const [x, y] of [[1, 1], [2, 4.5], [6.5, 5]] as const) {
+      for (const [x, y] of [
+        [1, 1],
+        [2, 4.5],
+        [6.5, 5],
+      ] as const) {
         await tapPlan(page, touch, x, y);
         await page.getByLabel("Class").selectOption({ index: 1 });
         await page.getByLabel("Context").selectOption({ label: `${t.contextNumber} · deposit` });
@@ -85,7 +109,9 @@ for (const size of ["desktop", "tablet"] as const) {
         await page.getByRole("button", { name: "Dismiss message" }).click();
         await page.getByRole("button", { name: /Place find/ }).click();
       }
-      const api = (await (await page.request.get(`/api/sites/${t.siteId}/finds?trenchId=${t.trenchId}`)).json()) as { rows: { number: number; x: number; y: number }[] };
+      const api = (await (await page.request.get(`/api/sites/${t.siteId}/finds?trenchId=${t.trenchId}`)).json()) as {
+        rows: { number: number; x: number; y: number }[];
+      };
       expect(api.rows.map((r) => r.number).sort()).toEqual([...recorded].sort());
       await page.getByRole("tab", { name: "Finds" }).click();
       for (const n of recorded) await shown(page.getByRole("button", { name: new RegExp(`#${n}\\b`) }));
@@ -97,7 +123,9 @@ for (const size of ["desktop", "tablet"] as const) {
       await shown(refusal);
       expect(await refusal.textContent()).toMatch(/0\.3\d\d m outside the outline of trench/);
       expect(await page.getByRole("button", { name: "Record find", exact: true }).count()).toBe(0);
-      const after = (await (await page.request.get(`/api/sites/${t.siteId}/finds?trenchId=${t.trenchId}`)).json()) as { total: number };
+      const after = (await (await page.request.get(`/api/sites/${t.siteId}/finds?trenchId=${t.trenchId}`)).json()) as {
+        total: number;
+      };
       expect(after.total).toBe(3);
       await page.screenshot({ path: `test-results/plan-${size}.png` });
       await page.context().close();

@@ -21,7 +21,16 @@ describe("panels that summarise a record stay true after a write", () => {
     let number = 3700;
     while (taken.has(number)) number++;
     const made = await page.request.post(`/api/sites/${site.id}/contexts`, {
-      data: { trenchId: trenches.find((t: { code: string }) => t.code === "C").id, number, type: "layer", colour: "mid brown", compaction: "firm", composition: "silty sand", description: "A layer.", interpretation: "Subsoil." },
+      data: {
+        trenchId: trenches.find((t: { code: string }) => t.code === "C").id,
+        number,
+        type: "layer",
+        colour: "mid brown",
+        compaction: "firm",
+        composition: "silty sand",
+        description: "A layer.",
+        interpretation: "Subsoil.",
+      },
     });
     expect(made.status()).toBe(201);
     const ctx = await made.json();

@@ -95,11 +95,18 @@ describe("recording: context sheets, the matrix and the register", () => {
     const second = await page.context().newPage();
     await second.goto(shared);
     await shown(second.getByText(`${matched} ${matched === 1 ? "find matches" : "finds match"}`));
-    expect(await second.getByLabel("Context", { exact: true }).inputValue()).toBe(new URL(shared).searchParams.get("contextId"));
+    expect(await second.getByLabel("Context", { exact: true }).inputValue()).toBe(
+      new URL(shared).searchParams.get("contextId"),
+    );
     await second.close();
 
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Export CSV" }).click()]);
-    const lines = readFileSync((await download.path())!, "utf8").trim().split(/\r?\n/);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("link", { name: "Export CSV" }).click(),
+    ]);
+    const lines = readFileSync((await download.path())!, "utf8")
+      .trim()
+      .split(/\r?\n/);
     expect(lines[0].split(",").slice(0, 4)).toEqual(["number", "trench", "context", "class"]);
     expect(lines.length - 1).toBe(matched);
     expect(new Set(lines.slice(1).map((l) => l.split(",")[2]))).toEqual(new Set(["1005"]));

@@ -71,7 +71,10 @@ describe("security headers on every page and API route of the built app", () => 
     const res = await fetch(`${baseURL()}/sites/${ids.siteId}`, { redirect: "manual" });
     expect(res.status).toBe(307);
     expect(new URL(res.headers.get("location")!, baseURL()).pathname).toBe("/sign-in");
-    expectSecurityHeaders({ status: () => res.status, headers: () => Object.fromEntries(res.headers) } as unknown as APIResponse, "redirect");
+    expectSecurityHeaders(
+      { status: () => res.status, headers: () => Object.fromEntries(res.headers) } as unknown as APIResponse,
+      "redirect",
+    );
   });
 
   it("every API route answers with a policy that lets nothing run", async () => {
@@ -88,7 +91,9 @@ describe("security headers on every page and API route of the built app", () => 
     const res = await page.request.get("/serwist/sw.js", { maxRedirects: 0 });
     expect(res.status()).toBe(200);
     expectSecurityHeaders(res, "/serwist/sw.js");
-    expect(res.headers()["content-security-policy"]).toBe("default-src 'self'; object-src 'none'; frame-ancestors 'none'");
+    expect(res.headers()["content-security-policy"]).toBe(
+      "default-src 'self'; object-src 'none'; frame-ancestors 'none'",
+    );
     expect(res.headers()["service-worker-allowed"]).toBe("/");
   });
 });

@@ -20,7 +20,12 @@ function cookiesOf(res: Response, jar: Map<string, string>): void {
 }
 const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
 
-async function authPost(jar: Map<string, string>, path: string, fields: Record<string, string>, headers: Record<string, string> = {}) {
+async function authPost(
+  jar: Map<string, string>,
+  path: string,
+  fields: Record<string, string>,
+  headers: Record<string, string> = {},
+) {
   const csrf = await fetch(`${base()}/api/auth/csrf`, { headers: { cookie: header(jar) } });
   cookiesOf(csrf, jar);
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
@@ -40,9 +45,16 @@ describe("sessions, sign-in limits and caught mail over plain HTTP", () => {
   it("refuses a session cookie saved before signing out", async () => {
     const user = DEMO_USERS.find((u) => u.role === "specialist")!;
     const jar = new Map<string, string>();
-    const signedIn = await authPost(jar, "callback/credentials", { email: user.email, password: user.password, callbackUrl: `${base()}/sites` });
+    const signedIn = await authPost(jar, "callback/credentials", {
+      email: user.email,
+      password: user.password,
+      callbackUrl: `${base()}/sites`,
+    });
     expect(signedIn.status).toBe(302);
-    const saved = [...jar].filter(([k]) => k.includes("session-token")).map(([k, v]) => `${k}=${v}`).join("; ");
+    const saved = [...jar]
+      .filter(([k]) => k.includes("session-token"))
+      .map(([k, v]) => `${k}=${v}`)
+      .join("; ");
     expect(saved).not.toBe("");
     expect((await get("/api/sites", saved)).status).toBe(200);
 
@@ -55,18 +67,36 @@ describe("sessions, sign-in limits and caught mail over plain HTTP", () => {
 
   it("answers guesses sent at once with 429 and Retry-After, and a forged address header gets no fresh tries", async () => {
     const email = `nobody.${Date.now()}@example.org`;
-    const answers = await Promise.all(Array.from({ length: 8 }, (_, k) => authPost(new Map(), "callback/credentials", { email, password: `guess-${k}` })));
+    const answers = await Promise.all(
+      Array.from({ length: 8 }, (_, k) =>
+        authPost(new Map(), "callback/credentials", { email, password: `guess-${k}` }),
+      ),
+    );
     const refused = answers.filter((r) => r.status === 429);
     expect(refused).toHaveLength(3);
     for (const r of refused) expect(Number(r.headers.get("retry-after"))).toBeGreaterThan(0);
-    const forged = await authPost(new Map(), "callback/credentials", { email, password: "guess-9" }, { "x-forwarded-for": "198.51.100.77", "x-loamwork-peer": "198.51.100.78" });
+    const forged = await authPost(
+      new Map(),
+      "callback/credentials",
+      { email, password: "guess-9" },
+      { "x-forwarded-for": "198.51.100.77", "x-loamwork-peer": "198.51.100.78" },
+    );
     expect(forged.status).toBe(429);
   });
 
   it("counts tries by the address that connected: another local address is not refused, a forged header is", async () => {
     const email = `target.${Date.now()}@example.org`;
     for (let k = 0; k < 6; k++) await authPost(new Map(), "callback/credentials", { email, password: `guess-${k}` });
-    expect((await authPost(new Map(), "callback/credentials", { email, password: "guess-6" }, { "x-loamwork-peer": "127.0.0.2" })).status).toBe(429);
+    expect(
+      (
+        await authPost(
+          new Map(),
+          "callback/credentials",
+          { email, password: "guess-6" },
+          { "x-loamwork-peer": "127.0.0.2" },
+        )
+      ).status,
+    ).toBe(429);
     // The same try from 127.0.0.2, another loopback address of this machine, is checked (a redirect, not 429).
     const jar = new Map<string, string>();
     const csrf = await fetch(`${base()}/api/auth/csrf`);
@@ -76,8 +106,19 @@ describe("sessions, sign-in limits and caught mail over plain HTTP", () => {
     const status = await new Promise<number>((resolve, reject) => {
       const body = new URLSearchParams({ csrfToken, email, password: "guess-7" }).toString();
       const req = http.request(
-        { host: "127.0.0.1", port, localAddress: "127.0.0.2", method: "POST", path: "/api/auth/callback/credentials",
-          headers: { host: `localhost:${port}`, "content-type": "application/x-www-form-urlencoded", cookie: header(jar), "content-length": Buffer.byteLength(body) } },
+        {
+          host: "127.0.0.1",
+          port,
+          localAddress: "127.0.0.2",
+          method: "POST",
+          path: "/api/auth/callback/credentials",
+          headers: {
+            host: `localhost:${port}`,
+            "content-type": "application/x-www-form-urlencoded",
+            cookie: header(jar),
+            "content-length": Buffer.byteLength(body),
+          },
+        },
         (res) => {
           res.resume();
           resolve(res.statusCode ?? 0);
@@ -91,7 +132,11 @@ describe("sessions, sign-in limits and caught mail over plain HTTP", () => {
 
   it("keeps the caught mail, with its reset links, from signed-out visitors and shows it to a signed-in one", async () => {
     const user = DEMO_USERS.find((u) => u.role === "digger")!;
-    const asked = await fetch(`${base()}/api/auth-extra/password-reset/request`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: user.email }) });
+    const asked = await fetch(`${base()}/api/auth-extra/password-reset/request`, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email: user.email }),
+    });
     expect(asked.status).toBe(200);
 
     const out = await get("/dev/mail", "");
@@ -100,7 +145,15 @@ describe("sessions, sign-in limits and caught mail over plain HTTP", () => {
     expect(await out.text()).not.toContain("/reset-password/");
 
     const jar = new Map<string, string>();
-    expect((await authPost(jar, "callback/credentials", { email: user.email, password: user.password, callbackUrl: `${base()}/sites` })).status).toBe(302);
+    expect(
+      (
+        await authPost(jar, "callback/credentials", {
+          email: user.email,
+          password: user.password,
+          callbackUrl: `${base()}/sites`,
+        })
+      ).status,
+    ).toBe(302);
     let body = "";
     for (let i = 0; i < 50 && !body.includes("/reset-password/"); i++) {
       const page = await get("/dev/mail", header(jar));

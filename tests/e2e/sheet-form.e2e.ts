@@ -22,12 +22,18 @@ describe("the context sheet form", () => {
     const form = page.getByRole("form", { name: "Context sheet" });
     await page.getByLabel("Context number").fill("0");
     await page.getByLabel("Length (m)").fill("-2");
-    await page.getByRole("button", { name: /Save|Open/ }).first().click();
+    await page
+      .getByRole("button", { name: /Save|Open/ })
+      .first()
+      .click();
     await shown(page.locator("#ctx-number-error").filter({ hasText: "A context number starts at 1." }));
     await shown(page.locator("#ctx-lengthM-error").filter({ hasText: "The length cannot be negative." }));
     await page.getByLabel("Context number").fill("");
     await page.getByLabel("Colour").fill("x".repeat(201));
-    await page.getByRole("button", { name: /Save|Open/ }).first().click();
+    await page
+      .getByRole("button", { name: /Save|Open/ })
+      .first()
+      .click();
     await shown(page.locator("#ctx-number-error").filter({ hasText: "Enter a context number." }));
     await shown(page.locator("#ctx-colour-error").filter({ hasText: "Colour is longer than 200 characters" }));
     expect(await form.innerText()).not.toMatch(libraryWords);

@@ -37,12 +37,27 @@ async function freshContext(page: Page) {
   let number = 3500;
   while (taken.has(number)) number++;
   const res = await page.request.post(`/api/sites/${site.id}/contexts`, {
-    data: { trenchId: trenches.find((t: { code: string }) => t.code === "C").id, number, type: "layer", colour: "mid brown", compaction: "firm", composition: "silty sand", description: "Layer under the topsoil.", interpretation: "Subsoil." },
+    data: {
+      trenchId: trenches.find((t: { code: string }) => t.code === "C").id,
+      number,
+      type: "layer",
+      colour: "mid brown",
+      compaction: "firm",
+      composition: "silty sand",
+      description: "Layer under the topsoil.",
+      interpretation: "Subsoil.",
+    },
   });
   expect(res.status()).toBe(201);
   const ctx = await res.json();
   const top = contexts.find((c: { number: number }) => c.number === 3001);
-  expect((await page.request.post(`/api/sites/${site.id}/relations`, { data: { contextId: ctx.id, reading: "below", otherId: top.id } })).status()).toBe(201);
+  expect(
+    (
+      await page.request.post(`/api/sites/${site.id}/relations`, {
+        data: { contextId: ctx.id, reading: "below", otherId: top.id },
+      })
+    ).status(),
+  ).toBe(201);
   return { siteId: site.id as string, contextId: ctx.id as string, number };
 }
 
@@ -57,7 +72,9 @@ describe("sign-off in the browser", () => {
     await shown(d.getByText(/\d e-mails? sent/));
     expect(await d.getByText(/e-mail\(s\)/).count()).toBe(0);
     await shown(d.locator(`tr[data-context="${number}"]`).getByText("awaiting sign-off"));
-    expect((await mailTo(director.email, `context ${number} awaits your sign-off`)).text).toContain(`/sites/${siteId}/sign-off`);
+    expect((await mailTo(director.email, `context ${number} awaits your sign-off`)).text).toContain(
+      `/sites/${siteId}/sign-off`,
+    );
 
     const boss = await newPage(browser);
     await signIn(boss, "director");
@@ -66,7 +83,9 @@ describe("sign-off in the browser", () => {
     await boss.getByRole("button", { name: `Sign off ${number}` }).click();
     const ask = boss.getByRole("alertdialog");
     await shown(ask);
-    expect(await ask.textContent()).toContain(`Sign off context ${number}? Its sheet, its finds and its relations will be locked`);
+    expect(await ask.textContent()).toContain(
+      `Sign off context ${number}? Its sheet, its finds and its relations will be locked`,
+    );
     const still = await (await boss.request.get(`/api/sites/${siteId}/contexts/${contextId}`)).json();
     expect(still.state).toBe("awaiting");
     await ask.getByRole("button", { name: `Lock context ${number}` }).click();
@@ -77,7 +96,9 @@ describe("sign-off in the browser", () => {
     await d.goto(`/sites/${siteId}/contexts/${contextId}`);
     await shown(d.getByText(`Signed off by ${director.name}`));
     expect(await d.getByLabel("Colour").count()).toBe(0);
-    const refused = await d.request.patch(`/api/sites/${siteId}/contexts/${contextId}`, { data: { colour: "dark brown" } });
+    const refused = await d.request.patch(`/api/sites/${siteId}/contexts/${contextId}`, {
+      data: { colour: "dark brown" },
+    });
     expect(refused.status()).toBe(409);
     expect((await refused.json()).error).toContain(`Context ${number} was signed off by ${director.name}`);
     await d.goto(`/sites/${siteId}/sign-off`);

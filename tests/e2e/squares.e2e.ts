@@ -44,7 +44,9 @@ describe("counts by grid square", () => {
     const zeroForm = page.getByRole("form", { name: "Counts in square 3/1" });
     await zeroForm.getByLabel("Count of FLK").fill("0");
     await zeroForm.getByRole("button", { name: "Save the square" }).click();
-    await expect.poll(() => panel.locator('[data-square="3/1"]').getAttribute("data-kind"), { timeout: 15_000 }).toBe("zero");
+    await expect
+      .poll(() => panel.locator('[data-square="3/1"]').getAttribute("data-kind"), { timeout: 15_000 })
+      .toBe("zero");
     expect(await panel.locator('[data-square="4/1"]').getAttribute("data-kind")).toBe("not-excavated");
 
     const legend = panel.getByTestId(`sq-${t.code}-svg`);
@@ -54,8 +56,13 @@ describe("counts by grid square", () => {
     await panel.getByRole("combobox", { name: /^Classes/ }).selectOption("equal");
     await expect.poll(() => legend.textContent()).toContain("equal-interval classes");
 
-    const stored = (await (await page.request.get(`/api/sites/${t.siteId}/trenches/${t.trenchId}/squares`)).json()) as { samples: { label: string; counts: { count: number }[] }[] };
-    expect(stored.samples.map((s) => [s.label, s.counts[0]!.count]).sort()).toEqual([["2/1", 7], ["3/1", 0]]);
+    const stored = (await (await page.request.get(`/api/sites/${t.siteId}/trenches/${t.trenchId}/squares`)).json()) as {
+      samples: { label: string; counts: { count: number }[] }[];
+    };
+    expect(stored.samples.map((s) => [s.label, s.counts[0]!.count]).sort()).toEqual([
+      ["2/1", 7],
+      ["3/1", 0],
+    ]);
     await page.context().close();
   });
 });

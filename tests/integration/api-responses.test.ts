@@ -24,18 +24,41 @@ describe("what the lists answer fits the catalogue's response schemas", () => {
     const fx = await makeSite();
     session.userId = fx.people.director.id;
     const siteId = fx.site.id;
-    const made = await call(findsRoute, "POST", { siteId }, { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5, z: 10.2 });
+    const made = await call(
+      findsRoute,
+      "POST",
+      { siteId },
+      { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5, z: 10.2 },
+    );
     expect(made.status).toBe(201);
-    const other = await call(contextsRoute, "POST", { siteId }, { trenchId: fx.trench.id, number: 9000 + (fx.context.number % 1000), type: "fill" });
+    const other = await call(
+      contextsRoute,
+      "POST",
+      { siteId },
+      { trenchId: fx.trench.id, number: 9000 + (fx.context.number % 1000), type: "fill" },
+    );
     expect(other.status, JSON.stringify(other.json)).toBe(201);
-    expect((await call(relationsRoute, "POST", { siteId }, { contextId: fx.context.id, reading: "above", otherId: other.json.id })).status).toBe(201);
-    expect((await call(invitationsRoute, "POST", { siteId }, { email: "new.digger@test.invalid", role: "digger" })).status).toBe(201);
+    expect(
+      (
+        await call(
+          relationsRoute,
+          "POST",
+          { siteId },
+          { contextId: fx.context.id, reading: "above", otherId: other.json.id },
+        )
+      ).status,
+    ).toBe(201);
+    expect(
+      (await call(invitationsRoute, "POST", { siteId }, { email: "new.digger@test.invalid", role: "digger" })).status,
+    ).toBe(201);
 
     expect((await readAs("classesList", classesRoute, siteId)).map((c: { code: string }) => c.code)).toEqual(["FL"]);
     expect((await readAs("membersList", membersRoute, siteId)).length).toBe(3);
     const page = await readAs("findsList", findsRoute, siteId, { trenchId: fx.trench.id });
     expect(page.rows.map((r: { number: number; z: number }) => [r.number, r.z])).toEqual([[made.json.number, 10.2]]);
-    expect((await readAs("relationsList", relationsRoute, siteId, { contextId: fx.context.id }))[0].otherId).toBe(other.json.id);
+    expect((await readAs("relationsList", relationsRoute, siteId, { contextId: fx.context.id }))[0].otherId).toBe(
+      other.json.id,
+    );
     expect((await readAs("relationsList", relationsRoute, siteId)).length).toBe(1);
     expect((await readAs("invitationsList", invitationsRoute, siteId))[0].status).toBe("pending");
   });

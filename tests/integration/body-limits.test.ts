@@ -40,7 +40,11 @@ function post(body: BodyInit, headers: Record<string, string> = {}) {
   } as RequestInit);
 }
 
-async function send(handler: (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>, req: Request, params: Record<string, string>) {
+async function send(
+  handler: (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>,
+  req: Request,
+  params: Record<string, string>,
+) {
   const res = await handler(req, { params: Promise.resolve(params) });
   return { status: res.status, json: await res.json() };
 }
@@ -49,7 +53,13 @@ describe("request bodies are limited per entry, and read only after the caller i
   it("refuses an oversized JSON body with 413 naming the limit, and records nothing", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const body = JSON.stringify({ contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, description: "x".repeat(DEFAULT_BODY_LIMIT) });
+    const body = JSON.stringify({
+      contextId: fx.context.id,
+      classId: fx.cls.id,
+      x: 1,
+      y: 1,
+      description: "x".repeat(DEFAULT_BODY_LIMIT),
+    });
     const res = await send(findsRoute.POST, post(body), { siteId: fx.site.id });
     expect(res.status).toBe(413);
     expect(res.json.error).toMatch(/at most 256 KB/);
@@ -90,7 +100,9 @@ describe("request bodies are limited per entry, and read only after the caller i
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const { stream, counter } = countingBody(1024);
-    const res = await send(findsRoute.POST, post(stream, { "content-length": String(10 * MB) }), { siteId: fx.site.id });
+    const res = await send(findsRoute.POST, post(stream, { "content-length": String(10 * MB) }), {
+      siteId: fx.site.id,
+    });
     expect(res.status).toBe(413);
     expect(counter.pulled).toBeLessThanOrEqual(CHUNK);
   });
@@ -98,7 +110,10 @@ describe("request bodies are limited per entry, and read only after the caller i
   it("lets an import carry a file beyond the JSON default, under its own larger limit", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const rows = Array.from({ length: 20_000 }, (_, i) => `${i + 1},${(i % 10) / 2},${(i % 6) / 2},FL,${fx.context.number}`);
+    const rows = Array.from(
+      { length: 20_000 },
+      (_, i) => `${i + 1},${(i % 10) / 2},${(i % 6) / 2},FL,${fx.context.number}`,
+    );
     const csv = ["n,x,y,class,context", ...rows].join("\n");
     const body = JSON.stringify({ csv, fileName: "big.csv" });
     expect(body.length).toBeGreaterThan(DEFAULT_BODY_LIMIT);
@@ -111,7 +126,11 @@ describe("request bodies are limited per entry, and read only after the caller i
   });
 
   it("holds the entries used before sign-in to a small body", async () => {
-    const res = await send(resetRequestRoute.POST as never, post(JSON.stringify({ email: `${"a".repeat(PUBLIC_BODY_LIMIT)}@test.invalid` })), {});
+    const res = await send(
+      resetRequestRoute.POST as never,
+      post(JSON.stringify({ email: `${"a".repeat(PUBLIC_BODY_LIMIT)}@test.invalid` })),
+      {},
+    );
     expect(res.status).toBe(413);
     expect(res.json.error).toMatch(/at most 16 KB/);
   });

@@ -18,7 +18,10 @@ describe("the caught-mail page (/dev/mail)", () => {
 
   it("shows the caught mail to a signed-in user of the demo", async () => {
     const db = await getDb();
-    const [u] = await db.insert(users).values({ email: "mail-reader@dig.test", name: "Reader", passwordHash: "x" }).returning();
+    const [u] = await db
+      .insert(users)
+      .values({ email: "mail-reader@dig.test", name: "Reader", passwordHash: "x" })
+      .returning();
     session.userId = u.id;
     const page = await open();
     expect(page).toBeTruthy();

@@ -22,7 +22,8 @@ const recordOf: Record<string, RightsRecord> = {
 
 const roles = ["digger", "specialist", "director"] as const;
 const updates = (Object.entries(api) as [string, ApiOperation][]).filter(([, op]) => op.method === "PATCH");
-const routeAllows = (op: ApiOperation, role: Role) => op.roles === "member" || (Array.isArray(op.roles) && op.roles.includes(role));
+const routeAllows = (op: ApiOperation, role: Role) =>
+  op.roles === "member" || (Array.isArray(op.roles) && op.roles.includes(role));
 
 /**
  * What must hold, written out here rather than read from the table under test: whoever the route lets in

@@ -25,7 +25,8 @@ async function setNext(fx: SiteFixture, next: number) {
   await db.update(schema.sites).set({ nextFindNumber: next }).where(eq(schema.sites.id, fx.site.id));
 }
 
-const newFind = (fx: SiteFixture) => call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 2, y: 2 });
+const newFind = (fx: SiteFixture) =>
+  call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 2, y: 2 });
 
 describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
   it("the schema's bound is 99,999,999 and it reads numbers strictly", () => {
@@ -42,7 +43,9 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
       const csv = file(fx, [7, n]);
       const preview = await call(previewRoute, "POST", { siteId: fx.site.id }, { csv, fileName: "tps.csv", mapping });
       expect(preview.status).toBe(200);
-      expect(preview.json.errors).toEqual([{ row: 3, reasons: [`find number ${n} is above 99,999,999, the highest find number Loamwork keeps`] }]);
+      expect(preview.json.errors).toEqual([
+        { row: 3, reasons: [`find number ${n} is above 99,999,999, the highest find number Loamwork keeps`] },
+      ]);
       const refused = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, fileName: "tps.csv", mapping });
       expect(refused.status).toBe(400);
       expect(refused.json.details.errors.map((e: { row: number }) => e.row)).toEqual([3]);
@@ -56,12 +59,19 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
   it("the last number can be imported; after it a new find is refused with 409 saying the numbers are used up", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const done = await call(importRoute, "POST", { siteId: fx.site.id }, { csv: file(fx, [MAX_FIND_NUMBER]), fileName: "last.csv", mapping });
+    const done = await call(
+      importRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { csv: file(fx, [MAX_FIND_NUMBER]), fileName: "last.csv", mapping },
+    );
     expect(done.status).toBe(201);
     expect(await siteState(fx)).toEqual({ next: MAX_FIND_NUMBER + 1, numbers: [MAX_FIND_NUMBER] });
     const typed = await newFind(fx);
     expect(typed.status).toBe(409);
-    expect(typed.json.error).toBe("This site's find numbers are used up: find numbers go up to 99,999,999, and none is left for a new find.");
+    expect(typed.json.error).toBe(
+      "This site's find numbers are used up: find numbers go up to 99,999,999, and none is left for a new find.",
+    );
     expect(await siteState(fx)).toEqual({ next: MAX_FIND_NUMBER + 1, numbers: [MAX_FIND_NUMBER] });
   });
 
@@ -73,9 +83,16 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
     const csv = file(fx, ["", "", ""]);
     const refused = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, fileName: "three.csv", mapping });
     expect(refused.status).toBe(400);
-    expect(refused.json.details.errors).toEqual([{ row: 4, reasons: ["no find number is left for this row: this site's find numbers go up to 99,999,999"] }]);
+    expect(refused.json.details.errors).toEqual([
+      { row: 4, reasons: ["no find number is left for this row: this site's find numbers go up to 99,999,999"] },
+    ]);
     expect(await siteState(fx)).toEqual({ next: MAX_FIND_NUMBER - 1, numbers: [] });
-    const two = await call(importRoute, "POST", { siteId: fx.site.id }, { csv: file(fx, ["", ""]), fileName: "two.csv", mapping });
+    const two = await call(
+      importRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { csv: file(fx, ["", ""]), fileName: "two.csv", mapping },
+    );
     expect(two.status).toBe(201);
     expect([two.json.firstNumber, two.json.lastNumber]).toEqual([MAX_FIND_NUMBER - 1, MAX_FIND_NUMBER]);
   });
@@ -84,9 +101,16 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const csv = ["Pt,E,N,Code,Ctx,Qty", `1,1.5,1.5,FL,${fx.context.number},3000000000`].join("\n");
-    const res = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, fileName: "qty.csv", mapping: { ...mapping, count: "Qty" } });
+    const res = await call(
+      importRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { csv, fileName: "qty.csv", mapping: { ...mapping, count: "Qty" } },
+    );
     expect(res.status).toBe(400);
-    expect(res.json.details.errors).toEqual([{ row: 2, reasons: ['count "3000000000": A count is at most 1,000,000.'] }]);
+    expect(res.json.details.errors).toEqual([
+      { row: 2, reasons: ['count "3000000000": A count is at most 1,000,000.'] },
+    ]);
   });
 
   it("a site whose counter was pushed past the bound before it existed is refused cleanly, never 500", async () => {
@@ -97,7 +121,12 @@ describe(`find numbers stop at ${MAX_FIND_NUMBER}`, () => {
     const typed = await newFind(fx);
     expect(typed.status).toBe(409);
     expect(typed.json.error).toContain("find numbers are used up");
-    const imported = await call(importRoute, "POST", { siteId: fx.site.id }, { csv: file(fx, [""]), fileName: "one.csv", mapping });
+    const imported = await call(
+      importRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { csv: file(fx, [""]), fileName: "one.csv", mapping },
+    );
     expect(imported.status).toBe(400);
     expect(imported.json.details.errors[0].row).toBe(2);
   });

@@ -8,12 +8,31 @@ import * as bulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 
 async function find(fx: SiteFixture, number: number, contextId = fx.context.id, x = 1, y = 1) {
   const db = await getDb();
-  const [f] = await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId, classId: fx.cls.id, number, x, y, method: "plan" }).returning();
+  const [f] = await db
+    .insert(schema.finds)
+    .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId, classId: fx.cls.id, number, x, y, method: "plan" })
+    .returning();
   return f!;
 }
-async function context(fx: SiteFixture, number: number, trenchId = fx.trench.id, state: "open" | "signed_off" = "open") {
+async function context(
+  fx: SiteFixture,
+  number: number,
+  trenchId = fx.trench.id,
+  state: "open" | "signed_off" = "open",
+) {
   const db = await getDb();
-  const [c] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId, number, type: "fill", state, signedOffBy: state === "signed_off" ? fx.people.director.id : null, signedOffAt: state === "signed_off" ? new Date("2026-07-14T09:30:00Z") : null }).returning();
+  const [c] = await db
+    .insert(schema.contexts)
+    .values({
+      siteId: fx.site.id,
+      trenchId,
+      number,
+      type: "fill",
+      state,
+      signedOffBy: state === "signed_off" ? fx.people.director.id : null,
+      signedOffAt: state === "signed_off" ? new Date("2026-07-14T09:30:00Z") : null,
+    })
+    .returning();
   return c!;
 }
 const rows = async (ids: string[]) => (await getDb()).select().from(schema.finds).where(inArray(schema.finds.id, ids));
@@ -26,9 +45,16 @@ describe("bulk edits of finds: all or nothing", () => {
     const picked = [await find(fx, 1), await find(fx, 2, locked.id), await find(fx, 3)];
     const before = await rows(picked.map((f) => f.id));
     session.userId = fx.people.digger.id;
-    const res = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "move", findIds: picked.map((f) => f.id), contextId: target.id });
+    const res = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "move", findIds: picked.map((f) => f.id), contextId: target.id },
+    );
     expect(res.status).toBe(409);
-    expect(res.json.error).toContain("No find was moved: 1 find stops it. find 2: Context 8801 was signed off by Director on 2026-07-14 09:30 UTC");
+    expect(res.json.error).toContain(
+      "No find was moved: 1 find stops it. find 2: Context 8801 was signed off by Director on 2026-07-14 09:30 UTC",
+    );
     expect(res.json.details.refused.map((r: { number: number }) => r.number)).toEqual([2]);
     expect(await rows(picked.map((f) => f.id))).toEqual(before);
   });
@@ -36,13 +62,42 @@ describe("bulk edits of finds: all or nothing", () => {
   it("refuses a move that would leave finds outside the target's trench, with each distance", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [small] = await db.insert(schema.trenches).values({ siteId: fx.site.id, code: "B", outline: { type: "Polygon", coordinates: [[[0, 0], [2, 0], [2, 2], [0, 2], [0, 0]]] } }).returning();
+    const [small] = await db
+      .insert(schema.trenches)
+      .values({
+        siteId: fx.site.id,
+        code: "B",
+        outline: {
+          type: "Polygon",
+          coordinates: [
+            [
+              [0, 0],
+              [2, 0],
+              [2, 2],
+              [0, 2],
+              [0, 0],
+            ],
+          ],
+        },
+      })
+      .returning();
     const target = await context(fx, 8803, small!.id);
-    const picked = [await find(fx, 11, fx.context.id, 1, 1), await find(fx, 12, fx.context.id, 5, 1), await find(fx, 13, fx.context.id, 1, 4)];
+    const picked = [
+      await find(fx, 11, fx.context.id, 1, 1),
+      await find(fx, 12, fx.context.id, 5, 1),
+      await find(fx, 13, fx.context.id, 1, 4),
+    ];
     session.userId = fx.people.director.id;
-    const res = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "move", findIds: picked.map((f) => f.id), contextId: target.id });
+    const res = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "move", findIds: picked.map((f) => f.id), contextId: target.id },
+    );
     expect(res.status).toBe(409);
-    expect(res.json.error).toContain("find 12: it lies 3.000 m outside trench B, where context 8803 is · find 13: it lies 2.000 m outside trench B");
+    expect(res.json.error).toContain(
+      "find 12: it lies 3.000 m outside trench B, where context 8803 is · find 13: it lies 2.000 m outside trench B",
+    );
     expect((await rows(picked.map((f) => f.id))).every((f) => f.contextId === fx.context.id)).toBe(true);
   });
 
@@ -52,27 +107,59 @@ describe("bulk edits of finds: all or nothing", () => {
     const picked = [await find(fx, 21), await find(fx, 22), await find(fx, 23)];
     const ids = picked.map((f) => f.id);
     session.userId = fx.people.digger.id;
-    const moved = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "move", findIds: ids, contextId: target.id });
+    const moved = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "move", findIds: ids, contextId: target.id },
+    );
     expect(moved.json).toEqual({ action: "move", changed: 3, numbers: [21, 22, 23] });
     expect((await rows(ids)).every((f) => f.contextId === target.id)).toBe(true);
     const db = await getDb();
-    const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#d55e00", symbol: "square" }).returning();
+    const [cls] = await db
+      .insert(schema.artefactClasses)
+      .values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#d55e00", symbol: "square" })
+      .returning();
     session.userId = fx.people.specialist.id;
-    const reclassed = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "reclass", findIds: ids, classId: cls!.id });
+    const reclassed = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "reclass", findIds: ids, classId: cls!.id },
+    );
     expect(reclassed.status).toBe(200);
     expect((await rows(ids)).every((f) => f.classId === cls!.id)).toBe(true);
     // A specialist classes finds; moving or deleting them is refused whole.
-    const notTheirs = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "delete", findIds: ids, reason: "wrong" });
+    const notTheirs = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "delete", findIds: ids, reason: "wrong" },
+    );
     expect(notTheirs.status).toBe(403);
     session.userId = fx.people.director.id;
-    const deleted = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "delete", findIds: ids, reason: "bag of modern glass, not finds" });
+    const deleted = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "delete", findIds: ids, reason: "bag of modern glass, not finds" },
+    );
     expect(deleted.json.changed).toBe(3);
     expect(await rows(ids)).toEqual([]);
-    const trail = await db.select().from(schema.auditEntries).where(and(eq(schema.auditEntries.siteId, fx.site.id), inArray(schema.auditEntries.recordId, ids)));
-    const byAction = (a: string) => trail.filter((e) => e.action === a).map((e) => e.recordId).sort();
+    const trail = await db
+      .select()
+      .from(schema.auditEntries)
+      .where(and(eq(schema.auditEntries.siteId, fx.site.id), inArray(schema.auditEntries.recordId, ids)));
+    const byAction = (a: string) =>
+      trail
+        .filter((e) => e.action === a)
+        .map((e) => e.recordId)
+        .sort();
     expect(byAction("update")).toEqual([...ids, ...ids].sort());
     expect(byAction("delete")).toEqual([...ids].sort());
-    expect(trail.filter((e) => e.action === "delete").every((e) => e.reason === "bag of modern glass, not finds")).toBe(true);
+    expect(trail.filter((e) => e.action === "delete").every((e) => e.reason === "bag of modern glass, not finds")).toBe(
+      true,
+    );
   });
 
   it("refuses finds of another site and bad input, naming the field", async () => {
@@ -81,10 +168,20 @@ describe("bulk edits of finds: all or nothing", () => {
     const mine = await find(fx, 31);
     const theirs = await find(other, 31);
     session.userId = fx.people.director.id;
-    const res = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "reclass", findIds: [mine.id, theirs.id], classId: fx.cls.id });
+    const res = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "reclass", findIds: [mine.id, theirs.id], classId: fx.cls.id },
+    );
     expect(res.status).toBe(404);
     expect(res.json.error).toContain(theirs.id);
-    const noReason = await call(bulkRoute, "POST", { siteId: fx.site.id }, { action: "delete", findIds: [mine.id], reason: "" });
+    const noReason = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "delete", findIds: [mine.id], reason: "" },
+    );
     expect(noReason.status).toBe(400);
     expect(noReason.json.fieldErrors.reason).toEqual(["Say why the finds are deleted."]);
     expect(await rows([mine.id])).toHaveLength(1);

@@ -15,26 +15,44 @@ import type { Prepared, RoleCases } from "./role-cases/types";
 
 /** Every role case of every feature (the role matrix's own list), so a new write is walked here too. */
 // Loaded after the harness has mocked the session (an eager glob would be hoisted above that).
-const caseModules = await Promise.all(Object.values(import.meta.glob<Record<string, unknown>>("./role-cases/*.ts")).map((load) => load()));
+const caseModules = await Promise.all(
+  Object.values(import.meta.glob<Record<string, unknown>>("./role-cases/*.ts")).map((load) => load()),
+);
 const writes: Record<string, (fx: SiteFixture) => Promise<Prepared>> = Object.assign(
   {},
-  ...caseModules.flatMap((m) => Object.entries(m).filter(([name]) => name.endsWith("Cases")).map(([, cases]) => cases as RoleCases)),
+  ...caseModules.flatMap((m) =>
+    Object.entries(m)
+      .filter(([name]) => name.endsWith("Cases"))
+      .map(([, cases]) => cases as RoleCases),
+  ),
 );
 
-const tableNames = (Object.values(schema) as unknown[]).filter((t): t is PgTable => is(t, PgTable)).map(getTableName).filter((n) => n !== "idempotency_keys");
+const tableNames = (Object.values(schema) as unknown[])
+  .filter((t): t is PgTable => is(t, PgTable))
+  .map(getTableName)
+  .filter((n) => n !== "idempotency_keys");
 
 /** A digest of every row of every table but the keys themselves: a replay must leave all of it as it was. */
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const parts = tableNames.map((n) => sql.raw(`(select count(*) || ':' || coalesce(md5(string_agg(t::text, '|' order by t::text)), '') from "${n}" t)`));
-  const { rows } = (await db.execute(sql`select concat_ws(' ', ${sql.join(parts, sql`, `)}) as digest`)) as unknown as { rows: { digest: string }[] };
+  const parts = tableNames.map((n) =>
+    sql.raw(`(select count(*) || ':' || coalesce(md5(string_agg(t::text, '|' order by t::text)), '') from "${n}" t)`),
+  );
+  const { rows } = (await db.execute(sql`select concat_ws(' ', ${sql.join(parts, sql`, `)}) as digest`)) as unknown as {
+    rows: { digest: string }[];
+  };
   return rows[0].digest;
 }
 
 type Sent = { status: number; text: string; replayed: string | null };
 
 /** Calls a route handler the way Next does, with the headers given. */
-async function send(prepared: Prepared, method: string, headers: Record<string, string>, body: string | undefined): Promise<Sent> {
+async function send(
+  prepared: Prepared,
+  method: string,
+  headers: Record<string, string>,
+  body: string | undefined,
+): Promise<Sent> {
   const url = new URL("http://localhost/api/test");
   for (const [k, v] of Object.entries(prepared.query ?? {})) url.searchParams.set(k, v);
   const req = new Request(url, { method, headers: { "content-type": "application/json", ...headers }, body });
@@ -52,7 +70,9 @@ function callerFor(op: ApiOperation, fx: SiteFixture): string {
 }
 
 describe("every mutating operation of the catalogue, sent twice with one Idempotency-Key", () => {
-  const mutating = (Object.entries(api) as [string, ApiOperation][]).filter(([, op]) => op.method !== "GET" && !op.public);
+  const mutating = (Object.entries(api) as [string, ApiOperation][]).filter(
+    ([, op]) => op.method !== "GET" && !op.public,
+  );
 
   it("walks every mutating operation", () => {
     expect(mutating.map(([name]) => name).sort()).toEqual(Object.keys(writes).sort());
@@ -75,7 +95,12 @@ describe("every mutating operation of the catalogue, sent twice with one Idempot
       expect(again).toEqual({ status: first.status, text: first.text, replayed: "true" });
       expect(await snapshot()).toBe(afterFirst);
 
-      const other = await send(prepared, op.method, { "Idempotency-Key": key }, JSON.stringify({ ...(prepared.body as object), somethingElse: 1 }));
+      const other = await send(
+        prepared,
+        op.method,
+        { "Idempotency-Key": key },
+        JSON.stringify({ ...(prepared.body as object), somethingElse: 1 }),
+      );
       expect(other.status, other.text).toBe(422);
       expect(JSON.parse(other.text).code).toBe("idempotency-key-reused");
       expect(await snapshot()).toBe(afterFirst);
@@ -85,14 +110,17 @@ describe("every mutating operation of the catalogue, sent twice with one Idempot
 
 describe("Idempotency-Key", () => {
   const findBody = (fx: SiteFixture) => JSON.stringify({ contextId: fx.context.id, classId: fx.cls.id, x: 2, y: 1 });
-  const findsOf = async (fx: SiteFixture) => (await getDb()).select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id));
+  const findsOf = async (fx: SiteFixture) =>
+    (await getDb()).select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id));
 
   it("the same key sent twice at once writes once; both get the first answer", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const key = randomUUID();
     const prepared = { mod: findsRoute, params: { siteId: fx.site.id } };
-    const answers = await Promise.all([1, 2, 3].map(() => send(prepared, "POST", { "Idempotency-Key": key }, findBody(fx))));
+    const answers = await Promise.all(
+      [1, 2, 3].map(() => send(prepared, "POST", { "Idempotency-Key": key }, findBody(fx))),
+    );
     expect(answers.map((a) => a.status)).toEqual([201, 201, 201]);
     expect(new Set(answers.map((a) => a.text)).size).toBe(1);
     expect(answers.filter((a) => a.replayed === "true")).toHaveLength(2);
@@ -114,7 +142,10 @@ describe("Idempotency-Key", () => {
   it("a refusal is not kept: once the context is reopened, the same key and body are accepted", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    await db.update(schema.contexts).set({ state: "signed_off", signedOffAt: new Date(), signedOffBy: fx.people.director.id }).where(eq(schema.contexts.id, fx.context.id));
+    await db
+      .update(schema.contexts)
+      .set({ state: "signed_off", signedOffAt: new Date(), signedOffBy: fx.people.director.id })
+      .where(eq(schema.contexts.id, fx.context.id));
     session.userId = fx.people.digger.id;
     const key = randomUUID();
     const prepared = { mod: findsRoute, params: { siteId: fx.site.id } };
@@ -131,9 +162,17 @@ describe("Idempotency-Key", () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const before = await snapshot();
-    const res = await send({ mod: findsRoute, params: { siteId: fx.site.id } }, "POST", { "Idempotency-Key": "find-1" }, findBody(fx));
+    const res = await send(
+      { mod: findsRoute, params: { siteId: fx.site.id } },
+      "POST",
+      { "Idempotency-Key": "find-1" },
+      findBody(fx),
+    );
     expect(res.status).toBe(400);
-    expect(JSON.parse(res.text)).toMatchObject({ code: "idempotency-key-invalid", fieldErrors: { "Idempotency-Key": ["Not a UUID."] } });
+    expect(JSON.parse(res.text)).toMatchObject({
+      code: "idempotency-key-invalid",
+      fieldErrors: { "Idempotency-Key": ["Not a UUID."] },
+    });
     expect(await snapshot()).toBe(before);
   });
 
@@ -157,9 +196,13 @@ describe("Idempotency-Key", () => {
     session.userId = fx.people.digger.id;
     const prepared = { mod: findsRoute, params: { siteId: fx.site.id } };
     const [oldKey, youngKey] = [randomUUID(), randomUUID()];
-    for (const key of [oldKey, youngKey]) expect((await send(prepared, "POST", { "Idempotency-Key": key }, findBody(fx))).status).toBe(201);
+    for (const key of [oldKey, youngKey])
+      expect((await send(prepared, "POST", { "Idempotency-Key": key }, findBody(fx))).status).toBe(201);
     const age = (days: number, key: string) =>
-      db.update(schema.idempotencyKeys).set({ createdAt: sql`now() - make_interval(days => ${days})` }).where(and(eq(schema.idempotencyKeys.userId, fx.people.digger.id), eq(schema.idempotencyKeys.key, key)));
+      db
+        .update(schema.idempotencyKeys)
+        .set({ createdAt: sql`now() - make_interval(days => ${days})` })
+        .where(and(eq(schema.idempotencyKeys.userId, fx.people.digger.id), eq(schema.idempotencyKeys.key, key)));
     await age(31, oldKey);
     await age(29, youngKey);
     expect((await send(prepared, "POST", { "Idempotency-Key": youngKey }, findBody(fx))).replayed).toBe("true");

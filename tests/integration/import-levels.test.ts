@@ -32,7 +32,14 @@ describe("import: the z column's reference and levels outside their context", ()
     session.userId = fx.people.digger.id;
     const csv = ["E,N,Z,Code,Ctx", `1,1,0.35,FL,${fx.context.number}`].join("\n");
     const preview = await call(previewRoute, "POST", { siteId: fx.site.id }, { csv, mapping, zReference: "depth" });
-    expect(preview.json.errors).toEqual([{ row: 2, reasons: ["z is a depth below the surface, but trench A has no surface level to convert it from: record the trench's surface level (RL) first, or import reduced levels"] }]);
+    expect(preview.json.errors).toEqual([
+      {
+        row: 2,
+        reasons: [
+          "z is a depth below the surface, but trench A has no surface level to convert it from: record the trench's surface level (RL) first, or import reduced levels",
+        ],
+      },
+    ]);
     const refused = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, mapping, zReference: "depth" });
     expect(refused.status).toBe(400);
     expect(await zOf(fx.site.id)).toEqual([]);
@@ -48,8 +55,15 @@ describe("import: the z column's reference and levels outside their context", ()
     session.userId = fx.people.digger.id;
     const c = fx.context.number;
     const bad = ["E,N,Z,Code,Ctx", `1,1,0.35,FL,${c}`, `2,1,-0.1,FL,${c}`].join("\n");
-    const preview = await call(previewRoute, "POST", { siteId: fx.site.id }, { csv: bad, mapping, zReference: "depth" });
-    expect(preview.json.errors).toEqual([{ row: 3, reasons: ['z "-0.1" is a depth below the surface, so it cannot be negative'] }]);
+    const preview = await call(
+      previewRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { csv: bad, mapping, zReference: "depth" },
+    );
+    expect(preview.json.errors).toEqual([
+      { row: 3, reasons: ['z "-0.1" is a depth below the surface, so it cannot be negative'] },
+    ]);
     const csv = ["E,N,Z,Code,Ctx", `1,1,0.35,FL,${c}`, `2,1,1.005,FL,${c}`, `3,1,,FL,${c}`].join("\n");
     const done = await call(importRoute, "POST", { siteId: fx.site.id }, { csv, mapping, zReference: "depth" });
     expect(done.status, JSON.stringify(done.json)).toBe(201);
@@ -63,7 +77,14 @@ describe("import: the z column's reference and levels outside their context", ()
     session.userId = fx.people.digger.id;
     const c = fx.context.number;
     // The site's tolerance is 5 mm: 49.604 is within it above the top; 49.65 and 49.10 are not.
-    const csv = ["E,N,Z,Code,Ctx", `1,1,49.5,FL,${c}`, `2,1,49.65,FL,${c}`, `3,1,49.604,FL,${c}`, `4,1,49.1,FL,${c}`, `5,1,,FL,${c}`].join("\n");
+    const csv = [
+      "E,N,Z,Code,Ctx",
+      `1,1,49.5,FL,${c}`,
+      `2,1,49.65,FL,${c}`,
+      `3,1,49.604,FL,${c}`,
+      `4,1,49.1,FL,${c}`,
+      `5,1,,FL,${c}`,
+    ].join("\n");
     const preview = await call(previewRoute, "POST", { siteId: fx.site.id }, { csv, mapping });
     expect(preview.json.errors).toEqual([]);
     expect(preview.json.validCount).toBe(5);
@@ -86,7 +107,9 @@ describe("the find form's level warning", () => {
     const base = { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 };
     const high = await call(findsRoute, "POST", { siteId: fx.site.id }, { ...base, z: 49.75 });
     expect(high.status).toBe(201);
-    expect(high.json.levelWarning).toBe(`Find saved, but check its level: RL 49.750 lies 150 mm above the recorded top of context ${fx.context.number} (49.600).`);
+    expect(high.json.levelWarning).toBe(
+      `Find saved, but check its level: RL 49.750 lies 150 mm above the recorded top of context ${fx.context.number} (49.600).`,
+    );
     const fine = await call(findsRoute, "POST", { siteId: fx.site.id }, { ...base, z: 49.3 });
     expect(fine.json.levelWarning).toBeNull();
     const moved = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: fine.json.id }, { z: 49.0 });

@@ -14,7 +14,12 @@ import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
 
 async function findOf(fx: SiteFixture) {
   session.userId = fx.people.digger.id;
-  const res = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5 });
+  const res = await call(
+    findsRoute,
+    "POST",
+    { siteId: fx.site.id },
+    { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5 },
+  );
   expect(res.status).toBe(201);
   return res.json;
 }
@@ -24,20 +29,25 @@ async function bookRun(fx: SiteFixture, closingLevel: number, targets: { findId:
   const start = await makeBenchmark(fx, 50);
   const close = await makeBenchmark(fx, closingLevel);
   session.userId = fx.people.digger.id;
-  return call(runsRoute, "POST", { siteId: fx.site.id }, {
-    takenOn: "2026-06-12",
-    trenchId: fx.trench.id,
-    startBenchmarkId: start.id,
-    closingBenchmarkId: close.id,
-    lines: [
-      { station: start.code, target: "benchmark", backsight: 1.525 },
-      { station: "find", target: "find", targetId: targets.findId, intermediate: 1.87 },
-      { station: "spit 1 top", target: "spit_top", targetId: targets.spitId, intermediate: 2.14 },
-      { station: "CP1", target: "change_point", foresight: 2.615, backsight: 0.985 },
-      { station: "top", target: "context_top", targetId: fx.context.id, intermediate: 1.005 },
-      { station: close.code, target: "benchmark", foresight: 1.76 },
-    ],
-  });
+  return call(
+    runsRoute,
+    "POST",
+    { siteId: fx.site.id },
+    {
+      takenOn: "2026-06-12",
+      trenchId: fx.trench.id,
+      startBenchmarkId: start.id,
+      closingBenchmarkId: close.id,
+      lines: [
+        { station: start.code, target: "benchmark", backsight: 1.525 },
+        { station: "find", target: "find", targetId: targets.findId, intermediate: 1.87 },
+        { station: "spit 1 top", target: "spit_top", targetId: targets.spitId, intermediate: 2.14 },
+        { station: "CP1", target: "change_point", foresight: 2.615, backsight: 0.985 },
+        { station: "top", target: "context_top", targetId: fx.context.id, intermediate: 1.005 },
+        { station: close.code, target: "benchmark", foresight: 1.76 },
+      ],
+    },
+  );
 }
 
 describe("levels: datum, benchmarks, levelling runs, spits", () => {
@@ -86,26 +96,36 @@ describe("levels: datum, benchmarks, levelling runs, spits", () => {
     session.userId = fx.people.digger.id;
     const db = await getDb();
     const runsBefore = (await db.select().from(schema.levelRuns)).length;
-    const res = await call(runsRoute, "POST", { siteId: fx.site.id }, {
-      takenOn: "2026-06-12",
-      startBenchmarkId: start.id,
-      lines: [
-        { station: start.code, target: "benchmark", backsight: 1.2 },
-        { station: "top", target: "context_top", targetId: fx.context.id, intermediate: 1.1, foresight: 1.0 },
-      ],
-    });
+    const res = await call(
+      runsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      {
+        takenOn: "2026-06-12",
+        startBenchmarkId: start.id,
+        lines: [
+          { station: start.code, target: "benchmark", backsight: 1.2 },
+          { station: "top", target: "context_top", targetId: fx.context.id, intermediate: 1.1, foresight: 1.0 },
+        ],
+      },
+    );
     expect(res.status).toBe(400);
     expect(res.json.error).toMatch(/Line 2 of the level book/);
     expect(Object.keys(res.json.fieldErrors)).toEqual(["lines.1.station"]);
     expect((await db.select().from(schema.levelRuns)).length).toBe(runsBefore);
-    const noTarget = await call(runsRoute, "POST", { siteId: fx.site.id }, {
-      takenOn: "2026-06-12",
-      startBenchmarkId: start.id,
-      lines: [
-        { station: start.code, target: "benchmark", backsight: 1.2 },
-        { station: "a find", target: "find", foresight: 1.0 },
-      ],
-    });
+    const noTarget = await call(
+      runsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      {
+        takenOn: "2026-06-12",
+        startBenchmarkId: start.id,
+        lines: [
+          { station: start.code, target: "benchmark", backsight: 1.2 },
+          { station: "a find", target: "find", foresight: 1.0 },
+        ],
+      },
+    );
     expect(noTarget.status).toBe(400);
     expect(noTarget.json.fieldErrors).toHaveProperty(["lines.1.targetId"]);
   });
@@ -116,7 +136,12 @@ describe("levels: datum, benchmarks, levelling runs, spits", () => {
     const spit = await call(spitsRoute, "POST", { siteId: fx.site.id, contextId: fx.context.id }, { number: 1 });
     const res = await bookRun(fx, 48.13, { findId: find.id, spitId: spit.json.id });
     session.userId = fx.people.director.id;
-    const change = await call(benchmarkRoute, "PATCH", { siteId: fx.site.id, benchmarkId: res.json.startBenchmarkId }, { level: 50.1 });
+    const change = await call(
+      benchmarkRoute,
+      "PATCH",
+      { siteId: fx.site.id, benchmarkId: res.json.startBenchmarkId },
+      { level: 50.1 },
+    );
     expect(change.status).toBe(409);
     expect(change.json.error).toMatch(/levelling runs were reduced from it/);
     const del = await call(benchmarkRoute, "DELETE", { siteId: fx.site.id, benchmarkId: res.json.startBenchmarkId });
@@ -126,10 +151,20 @@ describe("levels: datum, benchmarks, levelling runs, spits", () => {
   it("refuses a spit whose top lies below its base, and unknown fields", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const bad = await call(spitsRoute, "POST", { siteId: fx.site.id, contextId: fx.context.id }, { number: 1, topLevel: 49.2, baseLevel: 49.3 });
+    const bad = await call(
+      spitsRoute,
+      "POST",
+      { siteId: fx.site.id, contextId: fx.context.id },
+      { number: 1, topLevel: 49.2, baseLevel: 49.3 },
+    );
     expect(bad.status).toBe(400);
     expect(bad.json.fieldErrors).toHaveProperty("baseLevel");
-    const unknown = await call(spitsRoute, "POST", { siteId: fx.site.id, contextId: fx.context.id }, { number: 1, depth: 0.1 });
+    const unknown = await call(
+      spitsRoute,
+      "POST",
+      { siteId: fx.site.id, contextId: fx.context.id },
+      { number: 1, depth: 0.1 },
+    );
     expect(unknown.status).toBe(400);
   });
 });
@@ -140,9 +175,25 @@ describe("context sheets: dimensions, dates and method", () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const params = { siteId: fx.site.id, contextId: fx.context.id };
-    const ok = await call(contextRoute, "PATCH", params, { lengthM: "2.40", widthM: "", thicknessM: 0.12, openedOn: "2026-06-01", digMethod: "sieved", sieveMeshMm: "4", excavatedBy: "N. Ashgrove" });
+    const ok = await call(contextRoute, "PATCH", params, {
+      lengthM: "2.40",
+      widthM: "",
+      thicknessM: 0.12,
+      openedOn: "2026-06-01",
+      digMethod: "sieved",
+      sieveMeshMm: "4",
+      excavatedBy: "N. Ashgrove",
+    });
     expect(ok.status, JSON.stringify(ok.json)).toBe(200);
-    expect(ok.json).toMatchObject({ lengthM: 2.4, widthM: null, thicknessM: 0.12, openedOn: "2026-06-01", digMethod: "sieved", sieveMeshMm: 4, excavatedBy: "N. Ashgrove" });
+    expect(ok.json).toMatchObject({
+      lengthM: 2.4,
+      widthM: null,
+      thicknessM: 0.12,
+      openedOn: "2026-06-01",
+      digMethod: "sieved",
+      sieveMeshMm: 4,
+      excavatedBy: "N. Ashgrove",
+    });
     const early = await call(contextRoute, "PATCH", params, { closedOn: "2026-05-30" });
     expect(early.status).toBe(400);
     expect(early.json.fieldErrors).toHaveProperty("closedOn");
@@ -167,7 +218,11 @@ describe("deep-trench caution from reduced levels", () => {
     // Levels in the trench: find 49.655, spit top 49.385, context top 48.890 — but no ground level yet.
     expect((await trenchDepth(db, fx.site.id, fx.trench.id)).depth).toBeNull();
     await db.update(schema.trenches).set({ surfaceLevel: 50.4 }).where(eq(schema.trenches.id, fx.trench.id));
-    expect(await trenchDepth(db, fx.site.id, fx.trench.id)).toEqual({ surfaceLevel: 50.4, lowestLevel: 48.89, depth: 1.51 });
+    expect(await trenchDepth(db, fx.site.id, fx.trench.id)).toEqual({
+      surfaceLevel: 50.4,
+      lowestLevel: 48.89,
+      depth: 1.51,
+    });
   });
 
   it("the demo site's trench B is deeper than 1.2 m from its levels, trench A is not", async () => {

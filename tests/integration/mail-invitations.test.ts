@@ -29,7 +29,12 @@ describe("invitations by e-mail", () => {
   it("mails an expiring link; a new person accepts once and joins in the invited role", async () => {
     const fx = await makeSite();
     session.userId = fx.people.director.id;
-    const res = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "New.Digger@Example.org", role: "specialist" });
+    const res = await call(
+      invitationsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { email: "New.Digger@Example.org", role: "specialist" },
+    );
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     expect(res.json.mail).toEqual({ sent: 1, failed: 0 });
     expect(res.json.invitation.tokenHash).toBeUndefined();
@@ -50,7 +55,10 @@ describe("invitations by e-mail", () => {
     const db = await getDb();
     const [user] = await db.select().from(schema.users).where(eq(schema.users.email, "new.digger@example.org"));
     expect(await checkPassword("a-long-password-1", user.passwordHash)).toBe(true);
-    const [mem] = await db.select().from(schema.memberships).where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, user.id)));
+    const [mem] = await db
+      .select()
+      .from(schema.memberships)
+      .where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, user.id)));
     expect(mem.role).toBe("specialist");
     const again = await call(acceptRoute, "POST", {}, { token, name: "Ada", password: "a-long-password-1" });
     expect(again.status).toBe(409);
@@ -59,7 +67,14 @@ describe("invitations by e-mail", () => {
   it("an existing account proves itself with its password; an expired link is refused", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [known] = await db.insert(schema.users).values({ email: "known@example.org", name: "Known Person", passwordHash: await hashPassword("known-password-9") }).returning();
+    const [known] = await db
+      .insert(schema.users)
+      .values({
+        email: "known@example.org",
+        name: "Known Person",
+        passwordHash: await hashPassword("known-password-9"),
+      })
+      .returning();
     session.userId = fx.people.director.id;
     await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "known@example.org", role: "digger" });
     const token = tokenIn(messagesTo(mail.dir, "known@example.org")[0].text, "invite");
@@ -72,7 +87,10 @@ describe("invitations by e-mail", () => {
     session.userId = fx.people.director.id;
     await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "late@example.org", role: "digger" });
     const late = tokenIn(messagesTo(mail.dir, "late@example.org")[0].text, "invite");
-    await db.update(schema.invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(schema.invitations.email, "late@example.org"));
+    await db
+      .update(schema.invitations)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(schema.invitations.email, "late@example.org"));
     session.userId = null;
     const refused = await call(acceptRoute, "POST", {}, { token: late, name: "Late", password: "late-password-1" });
     expect(refused.status).toBe(409);
@@ -82,18 +100,41 @@ describe("invitations by e-mail", () => {
   it("adds no one without consent: a known and an unknown address get the same answer, and only acceptance joins", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [known] = await db.insert(schema.users).values({ email: "has.account@example.org", name: "Has Account", passwordHash: await hashPassword("known-password-9") }).returning();
+    const [known] = await db
+      .insert(schema.users)
+      .values({
+        email: "has.account@example.org",
+        name: "Has Account",
+        passwordHash: await hashPassword("known-password-9"),
+      })
+      .returning();
     // No route puts an account on a site at once: the members collection takes no POST.
     expect("POST" in membersRoute).toBe(false);
-    const adds = (Object.values(api) as ApiOperation[]).filter((op) => op.method === "POST" && op.path.endsWith("/members"));
+    const adds = (Object.values(api) as ApiOperation[]).filter(
+      (op) => op.method === "POST" && op.path.endsWith("/members"),
+    );
     expect(adds).toEqual([]);
     expect(buildOpenApiDocument().paths?.["/api/sites/{siteId}/members"]).not.toHaveProperty("post");
 
     session.userId = fx.people.director.id;
-    const a = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "has.account@example.org", role: "digger" });
-    const b = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "no.account@example.org", role: "digger" });
+    const a = await call(
+      invitationsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { email: "has.account@example.org", role: "digger" },
+    );
+    const b = await call(
+      invitationsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { email: "no.account@example.org", role: "digger" },
+    );
     // Same status, same body once the address, the ids and the times are taken out: nothing tells whether an account exists.
-    const blank = (r: typeof a, email: string) => JSON.stringify(r.json).replaceAll(email, "EMAIL").replace(/"[0-9a-f-]{36}"/g, '"ID"').replace(/"\d{4}-\d\d-\d\dT[\d:.]+Z"/g, '"TIME"');
+    const blank = (r: typeof a, email: string) =>
+      JSON.stringify(r.json)
+        .replaceAll(email, "EMAIL")
+        .replace(/"[0-9a-f-]{36}"/g, '"ID"')
+        .replace(/"\d{4}-\d\d-\d\dT[\d:.]+Z"/g, '"TIME"');
     expect(a.status).toBe(201);
     expect(b.status).toBe(a.status);
     expect(blank(a, "has.account@example.org")).toBe(blank(b, "no.account@example.org"));
@@ -102,11 +143,15 @@ describe("invitations by e-mail", () => {
     expect(toKnown.subject).toBe(toUnknown.subject);
 
     // Until she accepts, she is not on the site and the site does not show her name.
-    const listed = async () => (await call(membersRoute, "GET", { siteId: fx.site.id })).json.map((m: { email: string }) => m.email);
+    const listed = async () =>
+      (await call(membersRoute, "GET", { siteId: fx.site.id })).json.map((m: { email: string }) => m.email);
     expect(await listed()).not.toContain("has.account@example.org");
     expect(await db.select().from(schema.memberships).where(eq(schema.memberships.userId, known.id))).toEqual([]);
     session.userId = null;
-    expect((await call(acceptRoute, "POST", {}, { token: tokenIn(toKnown.text, "invite"), password: "known-password-9" })).status).toBe(200);
+    expect(
+      (await call(acceptRoute, "POST", {}, { token: tokenIn(toKnown.text, "invite"), password: "known-password-9" }))
+        .status,
+    ).toBe(200);
     session.userId = fx.people.director.id;
     expect(await listed()).toContain("has.account@example.org");
   });
@@ -114,7 +159,12 @@ describe("invitations by e-mail", () => {
   it("refuses to invite someone already on the site", async () => {
     const fx = await makeSite();
     session.userId = fx.people.director.id;
-    const res = await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: fx.people.digger.email, role: "director" });
+    const res = await call(
+      invitationsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { email: fx.people.digger.email, role: "director" },
+    );
     expect(res.status).toBe(409);
     expect(messagesTo(mail.dir, fx.people.digger.email)).toHaveLength(0);
   });
@@ -123,7 +173,14 @@ describe("invitations by e-mail", () => {
 describe("password reset by e-mail", () => {
   it("mails a one-hour link to an account, sets the new password once, and answers alike for unknown addresses", async () => {
     const db = await getDb();
-    const [u] = await db.insert(schema.users).values({ email: "forgetful@example.org", name: "Forgetful Digger", passwordHash: await hashPassword("old-password-1") }).returning();
+    const [u] = await db
+      .insert(schema.users)
+      .values({
+        email: "forgetful@example.org",
+        name: "Forgetful Digger",
+        passwordHash: await hashPassword("old-password-1"),
+      })
+      .returning();
     const unknown = await call(resetRequestRoute, "POST", {}, { email: "nobody@example.org" });
     const known = await call(resetRequestRoute, "POST", {}, { email: "Forgetful@example.org" });
     expect(unknown).toEqual(known);

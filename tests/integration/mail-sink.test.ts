@@ -21,8 +21,17 @@ describe("the local SMTP sink", () => {
   it("takes mail from nodemailer with or without a login and stores each message whole, Bcc included", async () => {
     expect(sink.url).toMatch(/^smtp:\/\/127\.0\.0\.1:\d+$/);
     const withLogin = nodemailer.createTransport(sink.url.replace("smtp://", "smtp://user:secret@"));
-    await withLogin.sendMail({ from: "Loamwork <a@loamwork.example>", to: "One <one@example.org>", bcc: "hidden@example.org", subject: "Plan 1 – ü", text: "plain body", html: "<p>html <b>body</b></p>" });
-    await nodemailer.createTransport(sink.url).sendMail({ from: "a@loamwork.example", to: "two@example.org", subject: "Second", text: "two" });
+    await withLogin.sendMail({
+      from: "Loamwork <a@loamwork.example>",
+      to: "One <one@example.org>",
+      bcc: "hidden@example.org",
+      subject: "Plan 1 – ü",
+      text: "plain body",
+      html: "<p>html <b>body</b></p>",
+    });
+    await nodemailer
+      .createTransport(sink.url)
+      .sendMail({ from: "a@loamwork.example", to: "two@example.org", subject: "Second", text: "two" });
 
     const all = readSinkMessages(dir);
     expect(all.map((m) => m.subject)).toEqual(["Second", "Plan 1 – ü"]);

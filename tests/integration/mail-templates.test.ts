@@ -23,10 +23,19 @@ describe("mail templates: the text and HTML forms say the same thing", () => {
 
   it("invitation: site, role, inviter, link and expiry in both forms", () => {
     const link = "https://loamwork.example/invite/tok_abc";
-    const m = invitationMail({ siteCode: "WHD26", siteName: "Whinnydale Holm", role: "digger", invitedBy: "Imogen Carrow", link, expiresAt: at });
+    const m = invitationMail({
+      siteCode: "WHD26",
+      siteName: "Whinnydale Holm",
+      role: "digger",
+      invitedBy: "Imogen Carrow",
+      link,
+      expiresAt: at,
+    });
     expect(m.subject).toBe("Invitation to WHD26 Whinnydale Holm on Loamwork");
     for (const body of [m.text, m.html]) {
-      expect(body).toContain("Imogen Carrow invites you to join the excavation record of WHD26 Whinnydale Holm as digger.");
+      expect(body).toContain(
+        "Imogen Carrow invites you to join the excavation record of WHD26 Whinnydale Holm as digger.",
+      );
       expect(body).toContain("expires on 14 July 2026, 09:05 UTC");
     }
     expect(m.text).toContain(`Accept the invitation: ${link}`);
@@ -42,19 +51,48 @@ describe("mail templates: the text and HTML forms say the same thing", () => {
   });
 
   it("submitted, signed off, reopened and returned", () => {
-    const s = contextSubmittedMail({ siteCode: "WHD26", contextNumber: 1005, trenchCode: "A", submittedBy: "Nell", finds: 1, link: "L" });
+    const s = contextSubmittedMail({
+      siteCode: "WHD26",
+      contextNumber: 1005,
+      trenchCode: "A",
+      submittedBy: "Nell",
+      finds: 1,
+      link: "L",
+    });
     expect(s.subject).toBe("WHD26: context 1005 awaits your sign-off");
     expect(s.text).toContain("(trench A, 1 find)");
-    const so = contextSignedOffMail({ siteCode: "WHD26", contextNumber: 1005, trenchCode: "A", signedOffBy: "Imogen", at, trenchSignedOff: false, link: "L" });
+    const so = contextSignedOffMail({
+      siteCode: "WHD26",
+      contextNumber: 1005,
+      trenchCode: "A",
+      signedOffBy: "Imogen",
+      at,
+      trenchSignedOff: false,
+      link: "L",
+    });
     expect(so.text).toContain("Imogen signed off context 1005 (trench A) on 14 July 2026, 09:05 UTC.");
     expect(so.text).not.toContain("trench is signed off");
-    const base = { siteCode: "WHD26", contextNumber: 1005, trenchCode: "A", reopenedBy: "Imogen", at, reason: "Two finds belong to 1004.\nSee the section drawing.", link: "L" };
+    const base = {
+      siteCode: "WHD26",
+      contextNumber: 1005,
+      trenchCode: "A",
+      reopenedBy: "Imogen",
+      at,
+      reason: "Two finds belong to 1004.\nSee the section drawing.",
+      link: "L",
+    };
     const re = contextReopenedMail({ ...base, from: "signed_off" });
     expect(re.subject).toBe("WHD26: context 1005 reopened — Two finds belong to 1004.");
     expect(re.text).toContain("Imogen reopened the signed-off context 1005");
     expect(re.html).toContain("See the section drawing.");
-    const long = contextReopenedMail({ ...base, from: "signed_off", reason: "The subsoil boundary was drawn ten centimetres too high; re-check the section." });
-    expect(long.subject).toBe("WHD26: context 1005 reopened — The subsoil boundary was drawn ten centimetres too high; re…");
+    const long = contextReopenedMail({
+      ...base,
+      from: "signed_off",
+      reason: "The subsoil boundary was drawn ten centimetres too high; re-check the section.",
+    });
+    expect(long.subject).toBe(
+      "WHD26: context 1005 reopened — The subsoil boundary was drawn ten centimetres too high; re…",
+    );
     const ret = contextReopenedMail({ ...base, from: "awaiting" });
     expect(ret.subject.startsWith("WHD26: context 1005 returned")).toBe(true);
     expect(ret.text).toContain("returned the context submitted for sign-off 1005");

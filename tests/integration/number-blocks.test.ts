@@ -16,19 +16,39 @@ import * as discardsRoute from "@/app/api/sites/[siteId]/discards/route";
 
 type Mod = Record<string, (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>>;
 
-async function send(mod: unknown, method: string, params: Record<string, string>, body?: unknown, headers: Record<string, string> = {}, query: Record<string, string> = {}) {
+async function send(
+  mod: unknown,
+  method: string,
+  params: Record<string, string>,
+  body?: unknown,
+  headers: Record<string, string> = {},
+  query: Record<string, string> = {},
+) {
   const url = new URL("http://localhost/api/test");
   for (const [k, v] of Object.entries(query)) url.searchParams.set(k, v);
-  const req = new Request(url, { method, headers: { "content-type": "application/json", ...headers }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const req = new Request(url, {
+    method,
+    headers: { "content-type": "application/json", ...headers },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
   const res = await (mod as Mod)[method]!(req, { params: Promise.resolve(params) });
   const text = await res.text();
   return { status: res.status, json: text ? JSON.parse(text) : null };
 }
 
-const reserve = (fx: SiteFixture, kind: "find" | "context", deviceId = randomUUID(), deviceLabel = "Tablet 1") => send(blocksRoute, "POST", { siteId: fx.site.id }, { kind, deviceId, deviceLabel });
-const recordFind = (fx: SiteFixture, extra: Record<string, unknown> = {}) => send(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, ...extra });
-const accounting = (fx: SiteFixture, kind = "find") => send(accountingRoute, "GET", { siteId: fx.site.id }, undefined, {}, { kind });
-const findCount = async (fx: SiteFixture) => (await (await getDb()).select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id))).length;
+const reserve = (fx: SiteFixture, kind: "find" | "context", deviceId = randomUUID(), deviceLabel = "Tablet 1") =>
+  send(blocksRoute, "POST", { siteId: fx.site.id }, { kind, deviceId, deviceLabel });
+const recordFind = (fx: SiteFixture, extra: Record<string, unknown> = {}) =>
+  send(
+    findsRoute,
+    "POST",
+    { siteId: fx.site.id },
+    { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, ...extra },
+  );
+const accounting = (fx: SiteFixture, kind = "find") =>
+  send(accountingRoute, "GET", { siteId: fx.site.id }, undefined, {}, { kind });
+const findCount = async (fx: SiteFixture) =>
+  (await (await getDb()).select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id))).length;
 
 describe("blocks of find numbers held by a device", () => {
   it("a block is the next 50 numbers; finds recorded online afterwards are numbered past it", async () => {
@@ -37,7 +57,15 @@ describe("blocks of find numbers held by a device", () => {
     expect((await recordFind(fx)).json.number).toBe(1);
     const block = await reserve(fx, "find");
     expect(block.status, JSON.stringify(block.json)).toBe(201);
-    expect(block.json).toMatchObject({ kind: "find", first: 2, last: 51, size: 50, left: 50, deviceLabel: "Tablet 1", userId: fx.people.digger.id });
+    expect(block.json).toMatchObject({
+      kind: "find",
+      first: 2,
+      last: 51,
+      size: 50,
+      left: 50,
+      deviceLabel: "Tablet 1",
+      userId: fx.people.digger.id,
+    });
     expect(block.json.free).toHaveLength(50);
     expect((await recordFind(fx)).json.number).toBe(52);
   });
@@ -48,7 +76,13 @@ describe("blocks of find numbers held by a device", () => {
     expect((await send(siteRoute, "PATCH", { siteId: fx.site.id }, { numberBlockSize: 20 })).status).toBe(200);
     session.userId = fx.people.digger.id;
     const device = randomUUID();
-    const res = await send(blocksRoute, "POST", { siteId: fx.site.id }, { kind: "find" }, { "Loamwork-Device": device });
+    const res = await send(
+      blocksRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { kind: "find" },
+      { "Loamwork-Device": device },
+    );
     expect(res.json).toMatchObject({ first: 1, last: 20, size: 20, deviceId: device });
     const none = await send(blocksRoute, "POST", { siteId: fx.site.id }, { kind: "find" });
     expect(none.status).toBe(400);
@@ -103,7 +137,12 @@ describe("blocks of find numbers held by a device", () => {
     await recordFind(fx, { number: block.first });
     await recordFind(fx, { number: block.first + 2 });
     session.userId = fx.people.director.id;
-    const released = await send(releaseRoute, "POST", { siteId: fx.site.id, blockId: block.id }, { reason: "Tablet dropped in the spoil heap" });
+    const released = await send(
+      releaseRoute,
+      "POST",
+      { siteId: fx.site.id, blockId: block.id },
+      { reason: "Tablet dropped in the spoil heap" },
+    );
     expect(released.status, JSON.stringify(released.json)).toBe(200);
     expect(released.json.voided).toBe(48);
     session.userId = fx.people.digger.id;
@@ -116,9 +155,23 @@ describe("blocks of find numbers held by a device", () => {
     const acc = (await accounting(fx)).json;
     expect(acc.ranges).toEqual([
       { first: 1, last: 1, status: "find" },
-      { first: 2, last: 2, status: "void", reason: "Block given back: Tablet dropped in the spoil heap", holder: "Digger", by: "Director" },
+      {
+        first: 2,
+        last: 2,
+        status: "void",
+        reason: "Block given back: Tablet dropped in the spoil heap",
+        holder: "Digger",
+        by: "Director",
+      },
       { first: 3, last: 3, status: "find" },
-      { first: 4, last: 50, status: "void", reason: "Block given back: Tablet dropped in the spoil heap", holder: "Digger", by: "Director" },
+      {
+        first: 4,
+        last: 50,
+        status: "void",
+        reason: "Block given back: Tablet dropped in the spoil heap",
+        holder: "Digger",
+        by: "Director",
+      },
     ]);
     expect(acc.totals).toMatchObject({ find: 2, void: 48, reserved: 0, unassigned: 0 });
   });
@@ -142,14 +195,26 @@ describe("blocks of find numbers held by a device", () => {
     const f = (await recordFind(fx)).json;
     expect((await send(findRoute, "DELETE", { siteId: fx.site.id, findId: f.id })).status).toBe(200);
     const acc = (await accounting(fx)).json;
-    expect(acc.ranges).toEqual([{ first: 1, last: 1, status: "void", reason: "find deleted", holder: "Digger", by: "Digger" }]);
+    expect(acc.ranges).toEqual([
+      { first: 1, last: 1, status: "void", reason: "find deleted", holder: "Digger", by: "Digger" },
+    ]);
   });
 
   it("samples sharing the finds' sequence are counted as samples", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    await db.update(schema.sites).set({ samplesShareFindNumbers: true, nextFindNumber: 3 }).where(eq(schema.sites.id, fx.site.id));
-    await db.insert(schema.samples).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, number: 2, type: "bulk", takenOn: "2026-07-01" });
+    await db
+      .update(schema.sites)
+      .set({ samplesShareFindNumbers: true, nextFindNumber: 3 })
+      .where(eq(schema.sites.id, fx.site.id));
+    await db.insert(schema.samples).values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId: fx.context.id,
+      number: 2,
+      type: "bulk",
+      takenOn: "2026-07-01",
+    });
     session.userId = fx.people.digger.id;
     await recordFind(fx);
     const acc = (await accounting(fx)).json;
@@ -167,12 +232,27 @@ describe("blocks of context numbers", () => {
     session.userId = fx.people.digger.id;
     const block = (await reserve(fx, "context")).json;
     expect(block).toMatchObject({ kind: "context", first: fx.context.number + 1, size: 50 });
-    const own = await send(contextsRoute, "POST", { siteId: fx.site.id }, { trenchId: fx.trench.id, number: block.first + 1, type: "fill" });
+    const own = await send(
+      contextsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { trenchId: fx.trench.id, number: block.first + 1, type: "fill" },
+    );
     expect(own.status, JSON.stringify(own.json)).toBe(201);
     session.userId = fx.people.director.id;
-    const other = await send(contextsRoute, "POST", { siteId: fx.site.id }, { trenchId: fx.trench.id, number: block.first, type: "fill" });
+    const other = await send(
+      contextsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { trenchId: fx.trench.id, number: block.first, type: "fill" },
+    );
     expect([other.status, other.json.code]).toEqual([409, "number-reserved"]);
-    const past = await send(contextsRoute, "POST", { siteId: fx.site.id }, { trenchId: fx.trench.id, number: block.last + 1, type: "cut" });
+    const past = await send(
+      contextsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { trenchId: fx.trench.id, number: block.last + 1, type: "cut" },
+    );
     expect(past.status).toBe(201);
     session.userId = fx.people.digger.id;
     const next = (await reserve(fx, "context")).json;
@@ -198,21 +278,28 @@ describe("several devices at once", () => {
     const work: Promise<{ status: number; json: any }>[] = [];
     for (const d of diggers) {
       for (let k = 0; k < 2; k++) {
-        work.push((async () => {
-          session.userId = d.id;
-          return reserve(fx, "find", randomUUID(), `${d.name} tablet ${k}`);
-        })());
+        work.push(
+          (async () => {
+            session.userId = d.id;
+            return reserve(fx, "find", randomUUID(), `${d.name} tablet ${k}`);
+          })(),
+        );
       }
-      work.push((async () => {
-        session.userId = d.id;
-        return recordFind(fx);
-      })());
+      work.push(
+        (async () => {
+          session.userId = d.id;
+          return recordFind(fx);
+        })(),
+      );
     }
     const answers = await Promise.all(work);
     expect(answers.map((a) => a.status).sort()).toEqual([...Array(12).fill(201), ...Array(6).fill(201)]);
     const blocks = await db.select().from(schema.numberBlocks).where(eq(schema.numberBlocks.siteId, fx.site.id));
     const found = await db.select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id));
-    const handedOut = [...blocks.flatMap((b) => Array.from({ length: b.last - b.first + 1 }, (_, i) => b.first + i)), ...found.map((f) => f.number)];
+    const handedOut = [
+      ...blocks.flatMap((b) => Array.from({ length: b.last - b.first + 1 }, (_, i) => b.first + i)),
+      ...found.map((f) => f.number),
+    ];
     expect(new Set(handedOut).size).toBe(handedOut.length);
     expect(handedOut.length).toBe(12 * 50 + 6);
     expect(new Set(blocks.map((b) => b.deviceId)).size).toBe(12);
@@ -243,16 +330,47 @@ describe("discarding a refused operation", () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     const key = randomUUID();
-    const body = { idempotencyKey: key, operation: "findsCreate", method: "POST", path: `/api/sites/${fx.site.id}/finds`, reasonCode: "locked", reason: "Context 1001 was signed off.", note: "Bagged again under the right context", body: { x: 1.5, y: 2 } };
-    const res = await send(discardsRoute, "POST", { siteId: fx.site.id }, body, { "Loamwork-Device": "0b7f3f8e-5d0a-4a43-9a4e-0c7c1f7b1c11" });
+    const body = {
+      idempotencyKey: key,
+      operation: "findsCreate",
+      method: "POST",
+      path: `/api/sites/${fx.site.id}/finds`,
+      reasonCode: "locked",
+      reason: "Context 1001 was signed off.",
+      note: "Bagged again under the right context",
+      body: { x: 1.5, y: 2 },
+    };
+    const res = await send(discardsRoute, "POST", { siteId: fx.site.id }, body, {
+      "Loamwork-Device": "0b7f3f8e-5d0a-4a43-9a4e-0c7c1f7b1c11",
+    });
     expect([res.status, res.json]).toEqual([201, { discarded: key }]);
     const db = await getDb();
     const [entry] = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, key));
-    expect(entry).toMatchObject({ action: "discard", recordType: "operation", actorId: fx.people.digger.id, reason: "Bagged again under the right context" });
-    expect(entry!.after).toMatchObject({ operation: "findsCreate", reasonCode: "locked", body: { x: 1.5, y: 2 }, deviceId: "0b7f3f8e-5d0a-4a43-9a4e-0c7c1f7b1c11" });
+    expect(entry).toMatchObject({
+      action: "discard",
+      recordType: "operation",
+      actorId: fx.people.digger.id,
+      reason: "Bagged again under the right context",
+    });
+    expect(entry!.after).toMatchObject({
+      operation: "findsCreate",
+      reasonCode: "locked",
+      body: { x: 1.5, y: 2 },
+      deviceId: "0b7f3f8e-5d0a-4a43-9a4e-0c7c1f7b1c11",
+    });
 
     const accepted = randomUUID();
-    expect((await send(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 }, { "Idempotency-Key": accepted })).status).toBe(201);
+    expect(
+      (
+        await send(
+          findsRoute,
+          "POST",
+          { siteId: fx.site.id },
+          { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1 },
+          { "Idempotency-Key": accepted },
+        )
+      ).status,
+    ).toBe(201);
     const refused = await send(discardsRoute, "POST", { siteId: fx.site.id }, { ...body, idempotencyKey: accepted });
     expect(refused.status).toBe(409);
     expect(refused.json.error).toMatch(/already accepted/);

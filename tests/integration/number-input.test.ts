@@ -24,7 +24,12 @@ describe("a coordinate is a finite number or a plain decimal string, nothing els
     it(`refuses x: ${what} when recording a find, naming x, and records nothing`, async () => {
       const fx = await makeSite();
       session.userId = fx.people.digger.id;
-      const res = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: value, y: 1 });
+      const res = await call(
+        findsRoute,
+        "POST",
+        { siteId: fx.site.id },
+        { contextId: fx.context.id, classId: fx.cls.id, x: value, y: 1 },
+      );
       expect(res.status).toBe(400);
       expect(Object.keys(res.json.fieldErrors)).toEqual(["x"]);
       const db = await getDb();
@@ -46,11 +51,21 @@ describe("a coordinate is a finite number or a plain decimal string, nothing els
     it(`refuses count, context number and grid origin given as ${what}`, async () => {
       const fx = await makeSite();
       session.userId = fx.people.director.id;
-      const find = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, count: value });
+      const find = await call(
+        findsRoute,
+        "POST",
+        { siteId: fx.site.id },
+        { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, count: value },
+      );
       // An empty count is "no count" on the form, so "" and null stay allowed there.
       if (value === "" || value === null) expect(find.status).toBe(201);
       else expect(Object.keys(find.json.fieldErrors ?? {})).toEqual(["count"]);
-      const ctx = await call(contextsRoute, "POST", { siteId: fx.site.id }, { trenchId: fx.trench.id, number: value, type: "fill" });
+      const ctx = await call(
+        contextsRoute,
+        "POST",
+        { siteId: fx.site.id },
+        { trenchId: fx.trench.id, number: value, type: "fill" },
+      );
       expect(ctx.status).toBe(400);
       expect(Object.keys(ctx.json.fieldErrors)).toEqual(["number"]);
       const site = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { gridOriginX: value });
@@ -62,7 +77,12 @@ describe("a coordinate is a finite number or a plain decimal string, nothing els
   it("still reads a form's decimal string and a JSON number", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const res = await call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x: " 2.25 ", y: 1.5, z: "", count: "3" });
+    const res = await call(
+      findsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { contextId: fx.context.id, classId: fx.cls.id, x: " 2.25 ", y: 1.5, z: "", count: "3" },
+    );
     expect(res.status).toBe(201);
     expect([res.json.x, res.json.y, res.json.z, res.json.count]).toEqual([2.25, 1.5, null, 3]);
   });

@@ -21,7 +21,12 @@ describe("outline and extent size limits", () => {
   it("refuses a trench outline of 2,001 vertices with the limit in the message, and opens no trench", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const res = await call(trenchesRoute, "POST", { siteId: fx.site.id }, { code: "BIG", outline: { type: "Polygon", coordinates: [wavy(2001, 50, 50, 20)] } });
+    const res = await call(
+      trenchesRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { code: "BIG", outline: { type: "Polygon", coordinates: [wavy(2001, 50, 50, 20)] } },
+    );
     expect(res.status).toBe(400);
     expect(res.json.error).toMatch(/outline\.coordinates\.0: A ring may have at most 2,000 vertices/);
     const db = await getDb();
@@ -31,7 +36,12 @@ describe("outline and extent size limits", () => {
   it("opens a trench with a 2,000-vertex outline", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const res = await call(trenchesRoute, "POST", { siteId: fx.site.id }, { code: "WIDE", outline: { type: "Polygon", coordinates: [wavy(2000, 50, 50, 20)] } });
+    const res = await call(
+      trenchesRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { code: "WIDE", outline: { type: "Polygon", coordinates: [wavy(2000, 50, 50, 20)] } },
+    );
     expect(res.status).toBe(201);
     expect(res.json.outline.coordinates[0]).toHaveLength(2001);
   });
@@ -40,12 +50,31 @@ describe("outline and extent size limits", () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
     // Trench A is 10 × 6 m from (0, 0) with a baulk at x 4–6, y 2–3; 21 small holes along y = 1.
-    const outer: [number, number][] = [[0.5, 0.5], [9.5, 0.5], [9.5, 1.8], [0.5, 1.8], [0.5, 0.5]];
+    const outer: [number, number][] = [
+      [0.5, 0.5],
+      [9.5, 0.5],
+      [9.5, 1.8],
+      [0.5, 1.8],
+      [0.5, 0.5],
+    ];
     const holes = Array.from({ length: 21 }, (_, k) => {
       const x = 0.6 + 0.4 * k;
-      return [[x, 1], [x + 0.2, 1], [x + 0.2, 1.2], [x, 1], [x, 1]].slice(0, 4).concat([[x, 1]]) as [number, number][];
+      return [
+        [x, 1],
+        [x + 0.2, 1],
+        [x + 0.2, 1.2],
+        [x, 1],
+        [x, 1],
+      ]
+        .slice(0, 4)
+        .concat([[x, 1]]) as [number, number][];
     });
-    const res = await call(contextRoute, "PATCH", { siteId: fx.site.id, contextId: fx.context.id }, { extent: { type: "Polygon", coordinates: [outer, ...holes] } });
+    const res = await call(
+      contextRoute,
+      "PATCH",
+      { siteId: fx.site.id, contextId: fx.context.id },
+      { extent: { type: "Polygon", coordinates: [outer, ...holes] } },
+    );
     expect(res.status).toBe(400);
     expect(res.json.error).toMatch(/extent\.coordinates: An outline may have at most 20 holes/);
     const db = await getDb();
@@ -58,7 +87,12 @@ describe("outline and extent size limits", () => {
     session.userId = fx.people.digger.id;
     const ring = wavy(2000, 50, 50, 20);
     [ring[700], ring[701]] = [ring[701], ring[700]];
-    const res = await call(trenchesRoute, "POST", { siteId: fx.site.id }, { code: "KNOT", outline: { type: "Polygon", coordinates: [ring] } });
+    const res = await call(
+      trenchesRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { code: "KNOT", outline: { type: "Polygon", coordinates: [ring] } },
+    );
     expect(res.status).toBe(400);
     expect(res.json.fieldErrors.outline[0]).toMatch(/crosses or touches itself \(edges 700 and 702\)/);
   });

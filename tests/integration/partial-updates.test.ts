@@ -17,7 +17,11 @@ describe("a partial update changes only what it names", () => {
       const parsed = op.input!.safeParse({});
       if (parsed.success) expect(parsed.data).toEqual({});
       // A field left out is either required (refused) or left out of the result, never filled in.
-      const shape = (op.input as unknown as { shape: Record<string, { safeParse: (v: unknown) => { success: boolean; data?: unknown } }> }).shape;
+      const shape = (
+        op.input as unknown as {
+          shape: Record<string, { safeParse: (v: unknown) => { success: boolean; data?: unknown } }>;
+        }
+      ).shape;
       for (const [field, fieldSchema] of Object.entries(shape)) {
         const alone = fieldSchema.safeParse(undefined);
         expect(alone.success ? alone.data : undefined, `${name}.${field} fills in a default`).toBeUndefined();
@@ -61,7 +65,8 @@ describe("a partial update changes only what it names", () => {
           expect(second.status, JSON.stringify(second.json)).toBe(emptyRefused ? 400 : 200);
           const row = await target.read();
           for (const field of Object.keys(fields)) {
-            const want = field in some ? (some as Record<string, unknown>)[field] : (everything as Record<string, unknown>)[field];
+            const want =
+              field in some ? (some as Record<string, unknown>)[field] : (everything as Record<string, unknown>)[field];
             expect(row[field], `${name}.${field} after patching ${JSON.stringify(Object.keys(some))}`).toEqual(want);
           }
         }),

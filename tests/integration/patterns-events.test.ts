@@ -23,7 +23,16 @@ beforeAll(async () => {
 /** Besag's L on the given classes of context 1005; four classes at 9999 simulations take a few seconds. */
 async function start(classCodes: string[], nsim: number, seed: number) {
   session.userId = d.people.specialist;
-  const res = await call(runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: classCodes.map((c) => d.cls[c]) }, tests: [{ kind: "l-envelope" }], params: { nsim, seed } });
+  const res = await call(
+    runsRoute,
+    "POST",
+    { siteId: d.siteId },
+    {
+      scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: classCodes.map((c) => d.cls[c]) },
+      tests: [{ kind: "l-envelope" }],
+      params: { nsim, seed },
+    },
+  );
   expect(res.status, JSON.stringify(res.json)).toBe(201);
   return res.json.id as string;
 }
@@ -31,7 +40,10 @@ async function start(classCodes: string[], nsim: number, seed: number) {
 type Sse = { event: string; data: any };
 
 /** Opens the stream and reads it as the browser's EventSource would; `onEvent` may act while it runs. */
-async function follow(runId: string, onEvent?: (e: Sse) => Promise<void> | void): Promise<{ status: number; events: Sse[] }> {
+async function follow(
+  runId: string,
+  onEvent?: (e: Sse) => Promise<void> | void,
+): Promise<{ status: number; events: Sse[] }> {
   const req = new Request("http://localhost/api/test", { method: "GET" });
   const res = await eventsRoute.GET(req, { params: Promise.resolve({ siteId: d.siteId, runId }) });
   if (res.status !== 200) return { status: res.status, events: [] };
@@ -126,7 +138,10 @@ describe("run events", () => {
     session.userId = null;
     expect((await follow(id)).status).toBe(401);
     const db = await getDb();
-    const [stranger] = await db.insert(s.users).values({ email: "events-stranger@loamwork.test", name: "Stranger", passwordHash: "x" }).returning();
+    const [stranger] = await db
+      .insert(s.users)
+      .values({ email: "events-stranger@loamwork.test", name: "Stranger", passwordHash: "x" })
+      .returning();
     session.userId = stranger.id;
     expect((await follow(id)).status).toBe(404);
     session.userId = d.people.specialist;

@@ -24,19 +24,44 @@ const setup = await vi.hoisted(async () => {
   const path = await import("node:path");
   process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
   const root = "/usr/lib/postgresql";
-  const bin = existsSync(root) ? readdirSync(root).map((v) => path.join(root, v, "bin")).find((b) => existsSync(path.join(b, "initdb"))) : undefined;
+  const bin = existsSync(root)
+    ? readdirSync(root)
+        .map((v) => path.join(root, v, "bin"))
+        .find((b) => existsSync(path.join(b, "initdb")))
+    : undefined;
   if (process.env.DATABASE_URL || !bin) return { available: !!process.env.DATABASE_URL, stop: () => {} };
   const dir = mkdtempSync(path.join(tmpdir(), "loamwork-pgboss-"));
   const root0 = process.getuid?.() === 0;
   // As root, the server must run as postgres, which must own the folder.
   if (root0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
   const run = (cmd: string[]) => {
-    const r = root0 ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" }) : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
+    const r = root0
+      ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" })
+      : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
     if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
   };
-  const port = Number(spawnSync(process.execPath, ["-e", "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"], { encoding: "utf8" }).stdout);
+  const port = Number(
+    spawnSync(
+      process.execPath,
+      [
+        "-e",
+        "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})",
+      ],
+      { encoding: "utf8" },
+    ).stdout,
+  );
   run([path.join(bin, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
-  run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-l", `${dir}/log`, "-o", `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`, "-w", "start"]);
+  run([
+    path.join(bin, "pg_ctl"),
+    "-D",
+    `${dir}/data`,
+    "-l",
+    `${dir}/log`,
+    "-o",
+    `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`,
+    "-w",
+    "start",
+  ]);
   run([path.join(bin, "createdb"), "-h", "127.0.0.1", "-p", String(port), "-U", "loamwork", "loamwork_runs"]);
   process.env.DATABASE_URL = `postgres://loamwork@127.0.0.1:${port}/loamwork_runs`;
   return {
@@ -50,7 +75,10 @@ const setup = await vi.hoisted(async () => {
     },
   };
 });
-if (!setup.available) console.warn("patterns-pgboss: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.");
+if (!setup.available)
+  console.warn(
+    "patterns-pgboss: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.",
+  );
 
 let worker: ChildProcess | undefined;
 let workerLog = "";
@@ -75,16 +103,34 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
     const db = await mods.client.getDb();
     const { siteId } = await mods.seed.seedDemo(db);
     const { s } = mods;
-    const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-    const [ctx] = await db.select().from(s.contexts).where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
-    const [flk] = await db.select().from(s.artefactClasses).where(and(eq(s.artefactClasses.siteId, siteId), eq(s.artefactClasses.code, "FLK")));
+    const [trench] = await db
+      .select()
+      .from(s.trenches)
+      .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+    const [ctx] = await db
+      .select()
+      .from(s.contexts)
+      .where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
+    const [flk] = await db
+      .select()
+      .from(s.artefactClasses)
+      .where(and(eq(s.artefactClasses.siteId, siteId), eq(s.artefactClasses.code, "FLK")));
     const [spec] = await db.select().from(s.users).where(eq(s.users.email, "specialist@loamwork.test"));
     d = { siteId, trenchId: trench.id, ctx: ctx.id, flk: flk.id, specialist: spec.id };
     // The worker is its own process, started as `npm run worker` starts it.
-    worker = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "scripts/worker.ts"], {
-      env: { ...process.env, NODE_ENV: "production", DATABASE_URL: process.env.DATABASE_URL, LOAMWORK_DATA_DIR: "unused" },
-      stdio: ["ignore", "pipe", "pipe"],
-    });
+    worker = spawn(
+      process.execPath,
+      [path.resolve("node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "scripts/worker.ts"],
+      {
+        env: {
+          ...process.env,
+          NODE_ENV: "production",
+          DATABASE_URL: process.env.DATABASE_URL,
+          LOAMWORK_DATA_DIR: "unused",
+        },
+        stdio: ["ignore", "pipe", "pipe"],
+      },
+    );
     worker.stdout!.on("data", (b) => (workerLog += b));
     worker.stderr!.on("data", (b) => (workerLog += b));
     for (let i = 0; i < 600 && !workerLog.includes("run worker ready"); i++) {
@@ -118,7 +164,16 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("the app only queues the run; the worker process computes it (FLK clustered)", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 99, seed: 3 } });
+    const res = await call(
+      mods.runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      {
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
+        tests: [{ kind: "l-envelope" }],
+        params: { nsim: 99, seed: 3 },
+      },
+    );
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     expect(res.json.status).toBe("queued");
     await waitFor(res.json.id, (r) => r.status === "done");
@@ -130,13 +185,25 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("a cancel from the app stops the run in the worker", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 9999, seed: 4 } });
+    const res = await call(
+      mods.runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      {
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
+        tests: [{ kind: "l-envelope" }],
+        params: { nsim: 9999, seed: 4 },
+      },
+    );
     await waitFor(res.json.id, (r) => r.status === "running" && r.progress > 0);
     expect((await call(mods.cancelRoute, "POST", { siteId: d.siteId, runId: res.json.id })).status).toBe(200);
     // The worker's job ends (pg-boss marks it completed) without writing a result.
     const db = await mods.client.getDb();
     for (let i = 0; ; i++) {
-      const { rows } = await (db as unknown as { $client: pg.Pool }).$client.query("select state from pgboss.job where data->>'runId' = $1", [res.json.id]);
+      const { rows } = await (db as unknown as { $client: pg.Pool }).$client.query(
+        "select state from pgboss.job where data->>'runId' = $1",
+        [res.json.id],
+      );
       if (rows[0]?.state === "completed") break;
       if (i > 600) throw new Error(`the worker did not stop the run\n${workerLog}`);
       await new Promise((r) => setTimeout(r, 100));
@@ -148,13 +215,27 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("the app's event stream follows the run the worker computes: progress as it rises, then the result", async () => {
     session.userId = d.specialist;
-    const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, { scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] }, tests: [{ kind: "l-envelope" }], params: { nsim: 4999, seed: 5 } });
+    const res = await call(
+      mods.runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      {
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
+        tests: [{ kind: "l-envelope" }],
+        params: { nsim: 4999, seed: 5 },
+      },
+    );
     expect(res.status, JSON.stringify(res.json)).toBe(201);
-    const stream = await mods.eventsRoute.GET(new Request("http://localhost/api/test"), { params: Promise.resolve({ siteId: d.siteId, runId: res.json.id }) });
+    const stream = await mods.eventsRoute.GET(new Request("http://localhost/api/test"), {
+      params: Promise.resolve({ siteId: d.siteId, runId: res.json.id }),
+    });
     expect(stream.status).toBe(200);
     // Server-sent events as an EventSource reads them: blocks apart by a blank line; keep-alive comments skipped.
     const text = await stream.text();
-    const events = text.split("\n\n").filter((b) => b.startsWith("event: ")).map((b) => ({ event: /^event: (.*)$/m.exec(b)![1], data: JSON.parse(/^data: (.*)$/m.exec(b)![1]) }));
+    const events = text
+      .split("\n\n")
+      .filter((b) => b.startsWith("event: "))
+      .map((b) => ({ event: /^event: (.*)$/m.exec(b)![1], data: JSON.parse(/^data: (.*)$/m.exec(b)![1]) }));
     const progress = events.filter((e) => e.event === "progress").map((e) => e.data.progress as number);
     expect(progress.length, workerLog).toBeGreaterThan(2);
     expect(progress).toEqual([...progress].sort((a, b) => a - b));

@@ -32,7 +32,11 @@ describe("stratigraphic equivalence of the chosen contexts", () => {
   });
   it("orders a context equivalent to a later one as later too", () => {
     const rels = [rel("e", "same_as", "a"), rel("a", "fills", "b")];
-    expect(stratigraphicWarnings([ctx("e", 5), ctx("b", 2)], ids, rels)[0]).toMatchObject({ kind: "ordered", a: 5, b: 2 });
+    expect(stratigraphicWarnings([ctx("e", 5), ctx("b", 2)], ids, rels)[0]).toMatchObject({
+      kind: "ordered",
+      a: 5,
+      b: 2,
+    });
   });
   it("says so when nothing in the record joins two contexts", () => {
     expect(stratigraphicWarnings([ctx("a", 1), ctx("b", 2)], ids, [])[0].kind).toBe("unrelated");
@@ -68,11 +72,17 @@ describe("putting a saved run back in the form", () => {
       { kind: "cross-l", a: id(3), b: id(4), null: "a-fixed" },
       { kind: "quadrat", cellSize: 1.5 },
     ] as const;
-    const run = { scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] }, seed: 77, params: { correction: "translation" as const, rmax: 1.75, nsim: 499, level: 0.01, tests: [...tests] } };
+    const run = {
+      scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] },
+      seed: 77,
+      params: { correction: "translation" as const, rmax: 1.75, nsim: 499, level: 0.01, tests: [...tests] },
+    };
     const req = toRequest(formFromRun(run));
     expect(req.scope).toEqual(run.scope);
     expect(req.params).toEqual({ correction: "translation", rmax: 1.75, nsim: 499, level: 0.01, seed: 77 });
-    expect([...req.tests].sort((a, b) => a.kind.localeCompare(b.kind))).toEqual([...tests].sort((a, b) => a.kind.localeCompare(b.kind)));
+    expect([...req.tests].sort((a, b) => a.kind.localeCompare(b.kind))).toEqual(
+      [...tests].sort((a, b) => a.kind.localeCompare(b.kind)),
+    );
     expect(req.squareTests).toBeUndefined();
   });
 
@@ -83,7 +93,18 @@ describe("putting a saved run back in the form", () => {
       { kind: "moran", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
       { kind: "getis-ord", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
     ] as const;
-    const run = { scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] }, seed: 5, params: { correction: "isotropic" as const, rmax: 1, nsim: 999, level: 0.05, tests: [], squareTests: [...squareTests] } };
+    const run = {
+      scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] },
+      seed: 5,
+      params: {
+        correction: "isotropic" as const,
+        rmax: 1,
+        nsim: 999,
+        level: 0.05,
+        tests: [],
+        squareTests: [...squareTests],
+      },
+    };
     const req = toRequest(formFromRun(run));
     expect(req.tests).toEqual([]);
     expect(req.squareTests).toEqual(squareTests);
@@ -92,7 +113,19 @@ describe("putting a saved run back in the form", () => {
   it("keeps a cross-K test cross-K, and asks for cross-L without naming it", async () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
-    const run = (fun?: "K") => ({ scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] }, seed: 5, params: { correction: "isotropic" as const, rmax: 1, nsim: 99, level: 0.05, tests: [{ kind: "cross-l" as const, a: id(3), b: id(4), null: "random-labelling" as const, ...(fun && { fun }) }] } });
+    const run = (fun?: "K") => ({
+      scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] },
+      seed: 5,
+      params: {
+        correction: "isotropic" as const,
+        rmax: 1,
+        nsim: 99,
+        level: 0.05,
+        tests: [
+          { kind: "cross-l" as const, a: id(3), b: id(4), null: "random-labelling" as const, ...(fun && { fun }) },
+        ],
+      },
+    });
     expect(formFromRun(run("K")).cross.fun).toBe("K");
     expect(toRequest(formFromRun(run("K"))).tests).toEqual(run("K").params.tests);
     expect(formFromRun(run()).cross.fun).toBe("L");

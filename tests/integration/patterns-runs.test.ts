@@ -54,7 +54,11 @@ describe("runs", () => {
 
     // A digger moves one SHD find of 1005 by 10 cm, through the ordinary route.
     const db = await getDb();
-    const [find] = await db.select().from(s.finds).where(and(eq(s.finds.contextId, d.ctx[1005]), eq(s.finds.classId, d.cls.SHD))).limit(1);
+    const [find] = await db
+      .select()
+      .from(s.finds)
+      .where(and(eq(s.finds.contextId, d.ctx[1005]), eq(s.finds.classId, d.cls.SHD)))
+      .limit(1);
     session.userId = d.people.digger;
     const moved = await call(findRoute, "PATCH", { siteId: d.siteId, findId: find.id }, { x: find.x + 0.1 });
     expect(moved.status, JSON.stringify(moved.json)).toBe(200);
@@ -73,7 +77,13 @@ describe("runs", () => {
   it("cancels a running run: it stops before the end and keeps no result", async () => {
     // Four classes, L and Clark–Evans, 9999 simulations each: long enough to be caught running.
     const classIds = [d.cls.FLK, d.cls.SHD, d.cls.FCR, d.cls.CHP];
-    const id = await start(body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds }, tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }], params: { nsim: 9999, seed: 5 } }));
+    const id = await start(
+      body({
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds },
+        tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }],
+        params: { nsim: 9999, seed: 5 },
+      }),
+    );
     for (;;) {
       const run = await read(id); // as a page reading it would see it, live progress included
       if (run.status === "running" && run.progress > 0) break;
@@ -93,7 +103,12 @@ describe("runs", () => {
 
   it("refuses a test for a class with too few finds, saying how many it needs", async () => {
     session.userId = d.people.specialist;
-    const res = await call(runsRoute, "POST", { siteId: d.siteId }, body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.SHD, d.cls.BBN] } }));
+    const res = await call(
+      runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      body({ scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.SHD, d.cls.BBN] } }),
+    );
     expect(res.status).toBe(400);
     expect(res.json.error).toContain("needs at least 10 finds of BBN");
     expect(res.json.error).toContain("there are 0");
@@ -101,14 +116,22 @@ describe("runs", () => {
 
   it("shows n per class and warns when the chosen contexts are not one surface", async () => {
     session.userId = d.people.digger;
-    const one = await call(scopeRoute, "GET", { siteId: d.siteId }, undefined, { trenchId: d.trenchId, contextIds: d.ctx[1005], classIds: [d.cls.FLK, d.cls.BBN].join(",") });
+    const one = await call(scopeRoute, "GET", { siteId: d.siteId }, undefined, {
+      trenchId: d.trenchId,
+      contextIds: d.ctx[1005],
+      classIds: [d.cls.FLK, d.cls.BBN].join(","),
+    });
     expect(one.status, JSON.stringify(one.json)).toBe(200);
     expect(one.json.warnings).toEqual([]);
     const flk = one.json.classes.find((c: { code: string }) => c.code === "FLK");
     expect(flk.n).toBe(150);
     expect(one.json.classes.find((c: { code: string }) => c.code === "BBN").tooFewFor).toContain("l-envelope");
     // The demo matrix: 1004 fills 1003, 1003 cuts 1005 — so 1004 is later than 1005.
-    const two = await call(scopeRoute, "GET", { siteId: d.siteId }, undefined, { trenchId: d.trenchId, contextIds: [d.ctx[1004], d.ctx[1005]].join(","), classIds: d.cls.FLK });
+    const two = await call(scopeRoute, "GET", { siteId: d.siteId }, undefined, {
+      trenchId: d.trenchId,
+      contextIds: [d.ctx[1004], d.ctx[1005]].join(","),
+      classIds: d.cls.FLK,
+    });
     expect(two.json.warnings).toHaveLength(1);
     expect(two.json.warnings[0]).toMatchObject({ kind: "ordered", a: 1004, b: 1005 });
     // a quarter of trench A's short side (bounding box), the workspace default for r max
@@ -125,7 +148,10 @@ describe("runs", () => {
     const db = await getDb();
     const id = await start(body());
     await runsIdle();
-    await db.update(s.analysisRuns).set({ status: "running", progress: 0.4, result: null }).where(eq(s.analysisRuns.id, id));
+    await db
+      .update(s.analysisRuns)
+      .set({ status: "running", progress: 0.4, result: null })
+      .where(eq(s.analysisRuns.id, id));
     expect(await requeueOrphans(db)).toContain(id);
     expect((await read(id)).status).toBe("queued");
     await executeRun(db, id, { signal: new AbortController().signal, pool: null });

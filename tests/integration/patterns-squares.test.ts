@@ -22,7 +22,10 @@ async function recordEverySquare(fx: SiteFixture) {
   for (let row = 0; row < 6; row++) {
     for (let col = 0; col < 10; col++) {
       if (row === 2 && (col === 4 || col === 5)) continue; // under the baulk
-      const [s] = await db.insert(schema.squareSamples).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, col, row }).returning();
+      const [s] = await db
+        .insert(schema.squareSamples)
+        .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, col, row })
+        .returning();
       const count = col >= 8 && row >= 3 && row <= 4 ? 30 : 1 + ((col * 5 + row * 3) % 4);
       await db.insert(schema.squareCounts).values({ sampleId: s!.id, classId: fx.cls.id, count });
     }
@@ -31,22 +34,54 @@ async function recordEverySquare(fx: SiteFixture) {
 
 async function start(fx: SiteFixture, body: Record<string, unknown>) {
   session.userId = fx.people.specialist.id;
-  return call(runsRoute, "POST", { siteId: fx.site.id }, { scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id] }, tests: [], params: { nsim: 199, seed: 11 }, ...body });
+  return call(
+    runsRoute,
+    "POST",
+    { siteId: fx.site.id },
+    {
+      scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id] },
+      tests: [],
+      params: { nsim: 199, seed: 11 },
+      ...body,
+    },
+  );
 }
-const read = async (fx: SiteFixture, runId: string) => (await call(runRoute, "GET", { siteId: fx.site.id, runId })).json;
+const read = async (fx: SiteFixture, runId: string) =>
+  (await call(runRoute, "GET", { siteId: fx.site.id, runId })).json;
 
 describe("square-count tests in a run", () => {
   it("leave out a square whose record did not count the class, rather than take it as zero", async () => {
     const fx = await makeSite();
     await recordEverySquare(fx);
     const db = await getDb();
-    const [burnt] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BST", label: "Burnt stone", material: "stone", colour: "#7a3b12", symbol: "square" }).returning();
+    const [burnt] = await db
+      .insert(schema.artefactClasses)
+      .values({
+        siteId: fx.site.id,
+        code: "BST",
+        label: "Burnt stone",
+        material: "stone",
+        colour: "#7a3b12",
+        symbol: "square",
+      })
+      .returning();
     // Burnt stone counted in the squares of the first four columns only; elsewhere the class was not counted.
     const samples = await db.select().from(schema.squareSamples).where(eq(schema.squareSamples.trenchId, fx.trench.id));
     const counted = samples.filter((s) => s.col < 4);
-    for (const s of counted) await db.insert(schema.squareCounts).values({ sampleId: s.id, classId: burnt!.id, count: s.row % 3 });
+    for (const s of counted)
+      await db.insert(schema.squareCounts).values({ sampleId: s.id, classId: burnt!.id, count: s.row % 3 });
     session.userId = fx.people.specialist.id;
-    const res = await call(runsRoute, "POST", { siteId: fx.site.id }, { scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [burnt!.id] }, tests: [], squareTests: [{ kind: "moran" }], params: { nsim: 99, seed: 5 } });
+    const res = await call(
+      runsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      {
+        scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [burnt!.id] },
+        tests: [],
+        squareTests: [{ kind: "moran" }],
+        params: { nsim: 99, seed: 5 },
+      },
+    );
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     await runsIdle();
     const run = await read(fx, res.json.id);
@@ -59,7 +94,10 @@ describe("square-count tests in a run", () => {
     const fx = await makeSite();
     await recordEverySquare(fx);
     // 999 permutations: with fewer, the smallest p of a square could not survive the adjustment over 58.
-    const res = await start(fx, { squareTests: [{ kind: "moran" }, { kind: "getis-ord", style: "binary" }], params: { nsim: 999, seed: 11 } });
+    const res = await start(fx, {
+      squareTests: [{ kind: "moran" }, { kind: "getis-ord", style: "binary" }],
+      params: { nsim: 999, seed: 11 },
+    });
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     await runsIdle();
     const run = await read(fx, res.json.id);
@@ -73,10 +111,17 @@ describe("square-count tests in a run", () => {
     expect(moran.sentence).toMatch(/999 permutations, seed 11/);
     expect(moran.cells).toHaveLength(58);
     expect(gi.verdict).toBe("hot-spots");
-    const hot = gi.cells.filter((c: { class: string }) => c.class === "hot spot").map((c: { label: string }) => c.label);
+    const hot = gi.cells
+      .filter((c: { class: string }) => c.class === "hot spot")
+      .map((c: { label: string }) => c.label);
     // At least three of the block's four squares, and nothing away from it (squares named "E/N" of their corner).
     expect(hot.filter((l: string) => ["8/3", "9/3", "8/4", "9/4"].includes(l)).length).toBeGreaterThanOrEqual(3);
-    expect(hot.every((l: string) => { const [e, n] = l.split("/").map(Number); return e >= 7 && n >= 2 && n <= 5; })).toBe(true);
+    expect(
+      hot.every((l: string) => {
+        const [e, n] = l.split("/").map(Number);
+        return e >= 7 && n >= 2 && n <= 5;
+      }),
+    ).toBe(true);
     expect(gi.notes.join(" ")).toMatch(/a hot spot is a place, not a process/i);
     expect(gi.seed).toBe(12); // the run's seed + 1 for the second test
   });
@@ -84,12 +129,17 @@ describe("square-count tests in a run", () => {
   it("on the demo's sieved chips (context 1005): clustered round the knapping spots, hot spots there, spits uneven said", async () => {
     const d = await seedDemoSite();
     session.userId = d.people.specialist;
-    const res = await call(runsRoute, "POST", { siteId: d.siteId }, {
-      scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.CHP] },
-      tests: [],
-      squareTests: [{ kind: "moran" }, { kind: "getis-ord" }],
-      params: { nsim: 999, seed: 3 },
-    });
+    const res = await call(
+      runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      {
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.CHP] },
+        tests: [],
+        squareTests: [{ kind: "moran" }, { kind: "getis-ord" }],
+        params: { nsim: 999, seed: 3 },
+      },
+    );
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     await runsIdle();
     const run = (await call(runRoute, "GET", { siteId: d.siteId, runId: res.json.id })).json;
@@ -114,9 +164,21 @@ describe("square-count tests in a run", () => {
     await runsIdle();
     expect((await read(fx, res.json.id)).outOfDate).toBe(false);
     const db = await getDb();
-    const [sample] = await db.select().from(schema.squareSamples).where(and(eq(schema.squareSamples.trenchId, fx.trench.id), eq(schema.squareSamples.col, 0), eq(schema.squareSamples.row, 0)));
+    const [sample] = await db
+      .select()
+      .from(schema.squareSamples)
+      .where(
+        and(
+          eq(schema.squareSamples.trenchId, fx.trench.id),
+          eq(schema.squareSamples.col, 0),
+          eq(schema.squareSamples.row, 0),
+        ),
+      );
     await db.update(schema.squareCounts).set({ count: 9 }).where(eq(schema.squareCounts.sampleId, sample!.id));
-    await db.update(schema.squareSamples).set({ updatedAt: new Date(Date.now() + 1000) }).where(eq(schema.squareSamples.id, sample!.id));
+    await db
+      .update(schema.squareSamples)
+      .set({ updatedAt: new Date(Date.now() + 1000) })
+      .where(eq(schema.squareSamples.id, sample!.id));
     expect((await read(fx, res.json.id)).outOfDate).toBe(true);
   });
 
@@ -135,6 +197,8 @@ describe("square-count tests in a run", () => {
     const bad = await start(fx, { squareTests: [{ kind: "moran", neighbours: "bishop" }] });
     expect(bad.status).toBe(400);
     const db = await getDb();
-    expect(await db.select().from(schema.analysisRuns).where(eq(schema.analysisRuns.siteId, fx.site.id))).toHaveLength(0);
+    expect(await db.select().from(schema.analysisRuns).where(eq(schema.analysisRuns.siteId, fx.site.id))).toHaveLength(
+      0,
+    );
   });
 });

@@ -21,12 +21,17 @@ let demo: Awaited<ReturnType<typeof demoScope>>;
 async function demoScope() {
   const db = await getDb();
   const { siteId } = await seedDemo(db);
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+  const [trench] = await db
+    .select()
+    .from(s.trenches)
+    .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
   const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
   const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
   const [specialist] = await db.select().from(s.users).where(eq(s.users.email, DEMO_USERS[1].email));
   return {
-    siteId, trenchId: trench.id, specialist: specialist.id,
+    siteId,
+    trenchId: trench.id,
+    specialist: specialist.id,
     ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])) as Record<number, string>,
     cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) as Record<string, string>,
   };
@@ -52,16 +57,25 @@ describe("verdicts on the demo site, trench A context 1005", () => {
   // the line (p ≈ 0.05–0.07 with 999 simulations, depending on the seed), so it is not asserted here.
   it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, MAD test under CSR; Clark–Evans in the window)", async () => {
     const run = await runToEnd({
-      scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD, demo.cls.FCR] },
+      scope: {
+        trenchId: demo.trenchId,
+        contextIds: [demo.ctx[1005]],
+        classIds: [demo.cls.FLK, demo.cls.SHD, demo.cls.FCR],
+      },
       tests: [{ kind: "l-envelope" }, { kind: "clark-evans", correction: "monte-carlo" }],
       params: { nsim: 199, seed: 7 },
     });
-    const verdict = (code: string, kind = "l-envelope") => run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
+    const verdict = (code: string, kind = "l-envelope") =>
+      run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
     expect(verdict("FLK", "clark-evans").verdict).toBe("clustered");
     expect(verdict("SHD", "clark-evans").verdict).toBe("no-evidence");
     expect(verdict("FCR", "clark-evans").verdict).toBe("regular");
     // n per class as the seed lays them out in 1005 (scripts/seed/seed-demo.ts)
-    expect(run.result!.classes.map((c) => [c.code, c.n]).sort()).toEqual([["FCR", 60], ["FLK", 150], ["SHD", 90]]);
+    expect(run.result!.classes.map((c) => [c.code, c.n]).sort()).toEqual([
+      ["FCR", 60],
+      ["FLK", 150],
+      ["SHD", 90],
+    ]);
     expect(verdict("FLK").verdict).toBe("clustered");
     expect(verdict("FLK").p).toBeLessThanOrEqual(0.05);
     expect(verdict("SHD").verdict).toBe("no-evidence");
@@ -134,11 +148,23 @@ describe("the other tests of the workspace run end to end and come back plottabl
   it("quadrat counts, pair correlation, K difference and inhomogeneous L on FLK and SHD", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD] },
-      tests: [{ kind: "quadrat", cellSize: 2 }, { kind: "pcf-envelope" }, { kind: "k-difference", a: demo.cls.FLK, b: demo.cls.SHD }, { kind: "inhomogeneous-l", classId: demo.cls.FLK, reference: "all" }],
+      tests: [
+        { kind: "quadrat", cellSize: 2 },
+        { kind: "pcf-envelope" },
+        { kind: "k-difference", a: demo.cls.FLK, b: demo.cls.SHD },
+        { kind: "inhomogeneous-l", classId: demo.cls.FLK, reference: "all" },
+      ],
       params: { nsim: 39, seed: 3 },
     });
     const tests = run.result!.tests;
-    expect(tests.map((t) => t.kind).sort()).toEqual(["inhomogeneous-l", "k-difference", "pcf-envelope", "pcf-envelope", "quadrat", "quadrat"]);
+    expect(tests.map((t) => t.kind).sort()).toEqual([
+      "inhomogeneous-l",
+      "k-difference",
+      "pcf-envelope",
+      "pcf-envelope",
+      "quadrat",
+      "quadrat",
+    ]);
     for (const t of tests) {
       expect(t.p).toBeGreaterThan(0);
       expect(t.p).toBeLessThanOrEqual(1);

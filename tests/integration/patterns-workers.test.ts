@@ -23,19 +23,44 @@ const setup = await vi.hoisted(async () => {
   const path = await import("node:path");
   process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
   const root = "/usr/lib/postgresql";
-  const bin = existsSync(root) ? readdirSync(root).map((v) => path.join(root, v, "bin")).find((b) => existsSync(path.join(b, "initdb"))) : undefined;
+  const bin = existsSync(root)
+    ? readdirSync(root)
+        .map((v) => path.join(root, v, "bin"))
+        .find((b) => existsSync(path.join(b, "initdb")))
+    : undefined;
   if (process.env.DATABASE_URL || !bin) return { available: !!process.env.DATABASE_URL, stop: () => {} };
   const dir = mkdtempSync(path.join(tmpdir(), "loamwork-workers-"));
   const root0 = process.getuid?.() === 0;
   // As root, the server must run as postgres, which must own the folder.
   if (root0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
   const run = (cmd: string[]) => {
-    const r = root0 ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" }) : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
+    const r = root0
+      ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" })
+      : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
     if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
   };
-  const port = Number(spawnSync(process.execPath, ["-e", "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"], { encoding: "utf8" }).stdout);
+  const port = Number(
+    spawnSync(
+      process.execPath,
+      [
+        "-e",
+        "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})",
+      ],
+      { encoding: "utf8" },
+    ).stdout,
+  );
   run([path.join(bin, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
-  run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-l", `${dir}/log`, "-o", `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`, "-w", "start"]);
+  run([
+    path.join(bin, "pg_ctl"),
+    "-D",
+    `${dir}/data`,
+    "-l",
+    `${dir}/log`,
+    "-o",
+    `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`,
+    "-w",
+    "start",
+  ]);
   run([path.join(bin, "createdb"), "-h", "127.0.0.1", "-p", String(port), "-U", "loamwork", "loamwork_workers"]);
   process.env.DATABASE_URL = `postgres://loamwork@127.0.0.1:${port}/loamwork_workers`;
   return {
@@ -49,7 +74,10 @@ const setup = await vi.hoisted(async () => {
     },
   };
 });
-if (!setup.available) console.warn("patterns-workers: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.");
+if (!setup.available)
+  console.warn(
+    "patterns-workers: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.",
+  );
 
 type Worker = { proc: ChildProcess; log: string };
 const workers: Worker[] = [];
@@ -62,8 +90,14 @@ function startWorker(): Worker {
   // that a kill of the parent would leave behind)
   w.proc = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], {
     env: {
-      ...process.env, NODE_ENV: "production", DATABASE_URL: process.env.DATABASE_URL, LOAMWORK_DATA_DIR: "unused",
-      LOAMWORK_WORKER_THREADS: "1", LOAMWORK_WORKER_LOG: "1", LOAMWORK_RUN_CHUNKS: "8", LOAMWORK_CHUNK_EXPIRE_SECONDS: String(EXPIRE_SECONDS),
+      ...process.env,
+      NODE_ENV: "production",
+      DATABASE_URL: process.env.DATABASE_URL,
+      LOAMWORK_DATA_DIR: "unused",
+      LOAMWORK_WORKER_THREADS: "1",
+      LOAMWORK_WORKER_LOG: "1",
+      LOAMWORK_RUN_CHUNKS: "8",
+      LOAMWORK_CHUNK_EXPIRE_SECONDS: String(EXPIRE_SECONDS),
     },
     stdio: ["ignore", "pipe", "pipe"],
   });
@@ -100,14 +134,23 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
     const db = await mods.client.getDb();
     const { siteId } = await mods.seed.seedDemo(db);
     const { s } = mods;
-    const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-    const [ctx] = await db.select().from(s.contexts).where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
+    const [trench] = await db
+      .select()
+      .from(s.trenches)
+      .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+    const [ctx] = await db
+      .select()
+      .from(s.contexts)
+      .where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
     const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
     const wanted = classes.filter((c) => ["FLK", "CHP", "FCR"].includes(c.code)).map((c) => c.id);
     const [spec] = await db.select().from(s.users).where(eq(s.users.email, "specialist@loamwork.test"));
     d = { siteId, trenchId: trench.id, ctx: ctx.id, classes: wanted, specialist: spec.id };
-    const a = startWorker(), b = startWorker();
-    await until("two ready workers", () => [a, b].every((w) => w.log.includes("run worker ready") || w.proc.exitCode !== null));
+    const a = startWorker(),
+      b = startWorker();
+    await until("two ready workers", () =>
+      [a, b].every((w) => w.log.includes("run worker ready") || w.proc.exitCode !== null),
+    );
     for (const w of [a, b]) expect(w.log).toContain("run worker ready");
   }, 180_000);
 
@@ -128,7 +171,10 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
     session.userId = d.specialist;
     const body = {
       scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: d.classes },
-      tests: [{ kind: "l-envelope", statistic: "dclf" }, { kind: "cross-l", a: d.classes[0], b: d.classes[1], null: "a-fixed" }],
+      tests: [
+        { kind: "l-envelope", statistic: "dclf" },
+        { kind: "cross-l", a: d.classes[0], b: d.classes[1], null: "a-fixed" },
+      ],
       params: { nsim: 1999, seed: 18, correction: "translation" },
     };
     const res = await call(mods.runsRoute, "POST", { siteId: d.siteId }, body);
@@ -167,7 +213,17 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
     // The same run computed in one process (this one, no threads, no queue): the same numbers.
     const [copy] = await db
       .insert(analysisRuns)
-      .values({ siteId: row.siteId, trenchId: row.trenchId, scope: row.scope, method: row.method, params: row.params, seed: row.seed, engineVersion: row.engineVersion, fingerprint: row.fingerprint, createdBy: row.createdBy })
+      .values({
+        siteId: row.siteId,
+        trenchId: row.trenchId,
+        scope: row.scope,
+        method: row.method,
+        params: row.params,
+        seed: row.seed,
+        engineVersion: row.engineVersion,
+        fingerprint: row.fingerprint,
+        createdBy: row.createdBy,
+      })
       .returning();
     await mods.execute.executeRun(db, copy.id, { signal: new AbortController().signal, pool: null });
     const [single] = await db.select().from(analysisRuns).where(eq(analysisRuns.id, copy.id));

@@ -41,7 +41,15 @@ beforeAll(async () => {
   await getDb();
   fx = await makeSite();
   other = await makeSite();
-  const photo = await storeUploadedPhoto(await getDb(), { siteId: fx.site.id, trenchId: fx.trench.id, userId: fx.people.digger.id, fileKey, fileName: "trench-a.jpg", mimeType: "image/jpeg", bytes: await orientedJpeg() });
+  const photo = await storeUploadedPhoto(await getDb(), {
+    siteId: fx.site.id,
+    trenchId: fx.trench.id,
+    userId: fx.people.digger.id,
+    fileKey,
+    fileName: "trench-a.jpg",
+    mimeType: "image/jpeg",
+    bytes: await orientedJpeg(),
+  });
   photoId = photo.id;
 });
 
@@ -61,7 +69,15 @@ describe("derivatives made when an upload completes", () => {
 
   it("refuses bytes that are not an image, saying why", async () => {
     await expect(
-      storeUploadedPhoto(await getDb(), { siteId: fx.site.id, trenchId: fx.trench.id, userId: fx.people.digger.id, fileKey: "k-text", fileName: "notes.jpg", mimeType: "image/jpeg", bytes: Buffer.from("context sheet notes, not a photo") }),
+      storeUploadedPhoto(await getDb(), {
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        userId: fx.people.digger.id,
+        fileKey: "k-text",
+        fileName: "notes.jpg",
+        mimeType: "image/jpeg",
+        bytes: Buffer.from("context sheet notes, not a photo"),
+      }),
     ).rejects.toThrow(/not an image Loamwork can read/);
   });
 });
@@ -118,7 +134,11 @@ describe("photo routes and file access", () => {
 
   it("refuses collinear control points with the reason as a field error", async () => {
     session.userId = fx.people.digger.id;
-    const points = [{ px: 0, py: 0, x: 0, y: 0 }, { px: 50, py: 50, x: 1, y: 0 }, { px: 100, py: 100, x: 0, y: 1 }];
+    const points = [
+      { px: 0, py: 0, x: 0, y: 0 },
+      { px: 50, py: 50, x: 1, y: 0 },
+      { px: 100, py: 100, x: 0, y: 1 },
+    ];
     const res = await call(fitRoute, "POST", { siteId: fx.site.id, photoId }, { points });
     expect(res.status).toBe(400);
     expect(res.json.fieldErrors.points[0]).toMatch(/collinear/);
@@ -127,7 +147,17 @@ describe("photo routes and file access", () => {
 
   it("refuses a point off the photo", async () => {
     session.userId = fx.people.digger.id;
-    const res = await call(fitRoute, "POST", { siteId: fx.site.id, photoId }, { points: [{ px: 0, py: 0, x: 0, y: 0 }, { px: 900, py: 10, x: 4, y: 0 }] });
+    const res = await call(
+      fitRoute,
+      "POST",
+      { siteId: fx.site.id, photoId },
+      {
+        points: [
+          { px: 0, py: 0, x: 0, y: 0 },
+          { px: 900, py: 10, x: 4, y: 0 },
+        ],
+      },
+    );
     expect(res.status).toBe(400);
     expect(res.json.error).toMatch(/Point 2 is off the photo/);
   });
@@ -138,9 +168,18 @@ describe("photo routes and file access", () => {
     expect((await getFile({ siteId: fx.site.id, photoId, variant: "display" })).status).toBe(404);
     expect((await call(photoRoute, "GET", { siteId: fx.site.id, photoId })).status).toBe(404);
     // The trail names the file and the photo, not the upload service's key (a capability for the original).
-    const trail = await (await getDb()).select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, photoId));
+    const trail = await (
+      await getDb()
+    )
+      .select()
+      .from(schema.auditEntries)
+      .where(eq(schema.auditEntries.recordId, photoId));
     expect(trail.map((e) => e.action).sort()).toEqual(["create", "delete", "fit"]);
-    expect(trail.find((e) => e.action === "delete")!.before).toMatchObject({ id: photoId, fileName: "trench-a.jpg", mimeType: "image/jpeg" });
+    expect(trail.find((e) => e.action === "delete")!.before).toMatchObject({
+      id: photoId,
+      fileName: "trench-a.jpg",
+      mimeType: "image/jpeg",
+    });
     expect(JSON.stringify(trail)).not.toContain(fileKey);
   });
 });

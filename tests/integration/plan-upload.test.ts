@@ -27,20 +27,40 @@ let app: { url: string; close(): Promise<void> };
 
 beforeAll(async () => {
   process.env.LOAMWORK_FILES_DIR = await mkdtemp(path.join(os.tmpdir(), "loamwork-files-"));
-  fake = await startUploadFake({ port: 0, dir: await mkdtemp(path.join(os.tmpdir(), "loamwork-fake-")), callbackTimeoutMs: 20_000 });
+  fake = await startUploadFake({
+    port: 0,
+    dir: await mkdtemp(path.join(os.tmpdir(), "loamwork-fake-")),
+    callbackTimeoutMs: 20_000,
+  });
   // The app's server-side calls (reading an original, deleting a refused one) use UTApi, configured as in the stack.
-  Object.assign(process.env, { UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN, UPLOADTHING_API_URL: fake.url, UPLOADTHING_INGEST_URL: fake.url, UPLOADTHING_UFS_HOST: fake.ufs.ufsHost, UPLOADTHING_UFS_APP_ID_LOCATION: fake.ufs.ufsAppIdLocation });
-  const handlers = createRouteHandler({ router: uploadRouter, config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" } });
+  Object.assign(process.env, {
+    UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
+    UPLOADTHING_API_URL: fake.url,
+    UPLOADTHING_INGEST_URL: fake.url,
+    UPLOADTHING_UFS_HOST: fake.ufs.ufsHost,
+    UPLOADTHING_UFS_APP_ID_LOCATION: fake.ufs.ufsAppIdLocation,
+  });
+  const handlers = createRouteHandler({
+    router: uploadRouter,
+    config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" },
+  });
   const server = http.createServer(async (req, res) => {
     const chunks: Buffer[] = [];
     for await (const c of req) chunks.push(c as Buffer);
-    const request = new Request(`http://${req.headers.host}${req.url}`, { method: req.method, headers: req.headers as Record<string, string>, body: chunks.length ? Buffer.concat(chunks) : undefined });
+    const request = new Request(`http://${req.headers.host}${req.url}`, {
+      method: req.method,
+      headers: req.headers as Record<string, string>,
+      body: chunks.length ? Buffer.concat(chunks) : undefined,
+    });
     const out = await (req.method === "POST" ? handlers.POST(request as never) : handlers.GET(request as never));
     res.writeHead(out.status, Object.fromEntries(out.headers.entries()));
     res.end(Buffer.from(await out.arrayBuffer()));
   });
   await new Promise<void>((r) => server.listen(0, "127.0.0.1", () => r()));
-  app = { url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`, close: () => new Promise((r) => server.close(() => r())) };
+  app = {
+    url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
+    close: () => new Promise((r) => server.close(() => r())),
+  };
   await getDb();
   fx = await makeSite();
 });
@@ -79,21 +99,35 @@ async function put(url: string, bytes: Buffer, name: string, type: string) {
 describe("photo upload through the uploadthing route and the fake", () => {
   it("a digger's JPEG becomes a photo record with derivatives", async () => {
     session.userId = fx.people.digger.id;
-    const bytes = await sharp({ create: { width: 640, height: 480, channels: 3, background: "#8a6a4a" } }).jpeg().toBuffer();
-    const presigned = await requestUpload({ name: "a-east.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const bytes = await sharp({ create: { width: 640, height: 480, channels: 3, background: "#8a6a4a" } })
+      .jpeg()
+      .toBuffer();
+    const presigned = await requestUpload(
+      { name: "a-east.jpg", size: bytes.length, type: "image/jpeg" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     expect(presigned.status, JSON.stringify(presigned.json)).toBe(200);
     const out = await put(presigned.json[0].url, bytes, "a-east.jpg", "image/jpeg");
     expect(out.error).toBeUndefined();
     expect(out.serverData.error).toBeNull();
     const photos = await listPhotos(await getDb(), fx.site.id, fx.trench.id);
     expect(photos.map((p) => p.id)).toContain(out.serverData.photoId);
-    expect(photos.find((p) => p.id === out.serverData.photoId)).toMatchObject({ fileName: "a-east.jpg", width: 640, height: 480 });
+    expect(photos.find((p) => p.id === out.serverData.photoId)).toMatchObject({
+      fileName: "a-east.jpg",
+      width: 640,
+      height: 480,
+    });
   });
 
   it("keeps the original private: not at the service's own URL, only through the member-checked route", async () => {
     session.userId = fx.people.digger.id;
-    const bytes = await sharp({ create: { width: 320, height: 200, channels: 3, background: "#6a5a3a" } }).jpeg().toBuffer();
-    const presigned = await requestUpload({ name: "a-west.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const bytes = await sharp({ create: { width: 320, height: 200, channels: 3, background: "#6a5a3a" } })
+      .jpeg()
+      .toBuffer();
+    const presigned = await requestUpload(
+      { name: "a-west.jpg", size: bytes.length, type: "image/jpeg" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     const key: string = presigned.json[0].key;
     const out = await put(presigned.json[0].url, bytes, "a-west.jpg", "image/jpeg");
     const photoId: string = out.serverData.photoId;
@@ -114,26 +148,47 @@ describe("photo upload through the uploadthing route and the fake", () => {
 
   it("audits the file by name, size, type and photo id, never by the upload key", async () => {
     session.userId = fx.people.digger.id;
-    const bytes = await sharp({ create: { width: 200, height: 100, channels: 3, background: "#4a3a2a" } }).jpeg().toBuffer();
-    const presigned = await requestUpload({ name: "a-north.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const bytes = await sharp({ create: { width: 200, height: 100, channels: 3, background: "#4a3a2a" } })
+      .jpeg()
+      .toBuffer();
+    const presigned = await requestUpload(
+      { name: "a-north.jpg", size: bytes.length, type: "image/jpeg" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     const key: string = presigned.json[0].key;
     const out = await put(presigned.json[0].url, bytes, "a-north.jpg", "image/jpeg");
-    const [entry] = await (await getDb()).select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, out.serverData.photoId));
+    const [entry] = await (
+      await getDb()
+    )
+      .select()
+      .from(schema.auditEntries)
+      .where(eq(schema.auditEntries.recordId, out.serverData.photoId));
     expect(entry.action).toBe("create");
-    expect(entry.after).toMatchObject({ id: out.serverData.photoId, fileName: "a-north.jpg", size: bytes.length, mimeType: "image/jpeg" });
+    expect(entry.after).toMatchObject({
+      id: out.serverData.photoId,
+      fileName: "a-north.jpg",
+      size: bytes.length,
+      mimeType: "image/jpeg",
+    });
     expect(JSON.stringify(entry)).not.toContain(key);
   });
 
   it("refuses a file that is not an image, naming the type", async () => {
     session.userId = fx.people.digger.id;
-    const res = await requestUpload({ name: "sheet.pdf", size: 1200, type: "application/pdf" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const res = await requestUpload(
+      { name: "sheet.pdf", size: 1200, type: "application/pdf" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     expect(res.status).toBe(400);
     expect(res.json.message).toMatch(/sheet\.pdf.*application\/pdf.*not a photo/);
   });
 
   it("refuses a photo over the size limit, with the size and the limit", async () => {
     session.userId = fx.people.digger.id;
-    const res = await requestUpload({ name: "huge.jpg", size: 40 * 1024 * 1024, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const res = await requestUpload(
+      { name: "huge.jpg", size: 40 * 1024 * 1024, type: "image/jpeg" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     expect(res.status).toBeGreaterThanOrEqual(400);
     expect(res.json.message).toMatch(/40\.0 MB.*limit.*16 MB/);
   });
@@ -155,7 +210,10 @@ describe("photo upload through the uploadthing route and the fake", () => {
     session.userId = fx.people.digger.id;
     const before = (await listPhotos(await getDb(), fx.site.id)).length;
     const bytes = Buffer.from("this is a context sheet, typed up");
-    const presigned = await requestUpload({ name: "fake.jpg", size: bytes.length, type: "image/jpeg" }, { siteId: fx.site.id, trenchId: fx.trench.id });
+    const presigned = await requestUpload(
+      { name: "fake.jpg", size: bytes.length, type: "image/jpeg" },
+      { siteId: fx.site.id, trenchId: fx.trench.id },
+    );
     const out = await put(presigned.json[0].url, bytes, "fake.jpg", "image/jpeg");
     expect(out.serverData.error).toMatch(/not an image/);
     expect((await listPhotos(await getDb(), fx.site.id)).length).toBe(before);

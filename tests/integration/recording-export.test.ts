@@ -12,12 +12,25 @@ import * as exportContextsRoute from "@/app/api/sites/[siteId]/export/contexts/r
 import * as matrixImageRoute from "@/app/api/sites/[siteId]/matrix/image/route";
 
 async function get(mod: { GET: Function }, siteId: string, query: string) {
-  const res: Response = await mod.GET(new Request(`http://localhost/x?${query}`), { params: Promise.resolve({ siteId }) });
+  const res: Response = await mod.GET(new Request(`http://localhost/x?${query}`), {
+    params: Promise.resolve({ siteId }),
+  });
   return res;
 }
 
 /** A ring drawn clockwise on purpose, to prove the export re-orients it. */
-const clockwiseExtent = { type: "Polygon" as const, coordinates: [[[1, 1], [1, 3], [3, 3], [3, 1], [1, 1]] as [number, number][]] };
+const clockwiseExtent = {
+  type: "Polygon" as const,
+  coordinates: [
+    [
+      [1, 1],
+      [1, 3],
+      [3, 3],
+      [3, 1],
+      [1, 1],
+    ] as [number, number][],
+  ],
+};
 
 describe("GeoJSON exports (RFC 7946)", () => {
   it("writes trench outlines and context extents with exterior rings counter-clockwise and holes clockwise", async () => {
@@ -44,7 +57,17 @@ describe("GeoJSON exports (RFC 7946)", () => {
   it("writes finds as x, y (, z) positions in the site grid, and in longitude, latitude through the site's CRS", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 7, x: 2.5, y: 4, z: 10.25, method: "typed" });
+    await db.insert(schema.finds).values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId: fx.context.id,
+      classId: fx.cls.id,
+      number: 7,
+      x: 2.5,
+      y: 4,
+      z: 10.25,
+      method: "typed",
+    });
     session.userId = fx.people.digger.id;
     const grid = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=grid")).json();
     // RFC 7946 §3.1.1: x (easting) first, then y (northing), then elevation.
@@ -53,7 +76,10 @@ describe("GeoJSON exports (RFC 7946)", () => {
     expect(refused.status).toBe(400);
     // Grid origin at UTM zone 30N (500000 m E, 0 m N): the zone's central meridian, 3° W, on the equator
     // (UTM definition: false easting 500 000 m on the central meridian, zone 30 centred on 3° W).
-    await db.update(schema.sites).set({ crs: "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs", gridOriginX: 500000 - 2.5, gridOriginY: -4 }).where(eq(schema.sites.id, fx.site.id));
+    await db
+      .update(schema.sites)
+      .set({ crs: "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs", gridOriginX: 500000 - 2.5, gridOriginY: -4 })
+      .where(eq(schema.sites.id, fx.site.id));
     const lonlat = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat")).json();
     const [lon, lat] = lonlat.features[0].geometry.coordinates;
     expect(lon).toBeCloseTo(-3, 9);
@@ -67,12 +93,19 @@ describe("CSV and matrix image exports", () => {
   it("writes the contexts CSV with relations read from each side, and the matrix as SVG and PNG", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [upper] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 1, type: "layer" }).returning();
-    await db.insert(schema.contextRelations).values({ siteId: fx.site.id, fromId: upper.id, toId: fx.context.id, kind: "above" });
+    const [upper] = await db
+      .insert(schema.contexts)
+      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 1, type: "layer" })
+      .returning();
+    await db
+      .insert(schema.contextRelations)
+      .values({ siteId: fx.site.id, fromId: upper.id, toId: fx.context.id, kind: "above" });
     session.userId = fx.people.digger.id;
     const csv = await (await get(exportContextsRoute, fx.site.id, "format=csv")).text();
     const lines = csv.trim().split("\r\n");
-    expect(lines[0]).toBe("number,trench,type,state,colour,compaction,composition,inclusions,description,interpretation,relations,finds,has_extent,signed_off_at");
+    expect(lines[0]).toBe(
+      "number,trench,type,state,colour,compaction,composition,inclusions,description,interpretation,relations,finds,has_extent,signed_off_at",
+    );
     expect(lines[1]).toContain(`1,A,layer,open,,,,,,,above ${fx.context.number},0,no,`);
     expect(lines[2]).toContain(`below 1`);
     const svg = await get(matrixImageRoute, fx.site.id, "format=svg");
@@ -89,7 +122,7 @@ describe("CSV and matrix image exports", () => {
 /** Text a spreadsheet would evaluate: OWASP's CSV-injection triggers, a full-width one, one after blanks. */
 const formulas = {
   minus: "-2+3+cmd|' /C calc'!A0",
-  equals: "=HYPERLINK(\"http://example.invalid\",\"x\")",
+  equals: '=HYPERLINK("http://example.invalid","x")',
   plus: "+1+1",
   at: "@SUM(1+1)",
   tab: "\t=1+1",
@@ -104,7 +137,19 @@ describe("CSV exports against spreadsheet formulas", () => {
     const db = await getDb();
     let number = 1;
     for (const text of Object.values(formulas)) {
-      await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: number++, x: -1.5, y: -0.25, z: -3, weightG: 12.5, description: text, method: "typed" });
+      await db.insert(schema.finds).values({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        contextId: fx.context.id,
+        classId: fx.cls.id,
+        number: number++,
+        x: -1.5,
+        y: -0.25,
+        z: -3,
+        weightG: 12.5,
+        description: text,
+        method: "typed",
+      });
     }
     session.userId = fx.people.digger.id;
     const csv = await (await get(exportFindsRoute, fx.site.id, "format=csv&sort=number&dir=asc")).text();
@@ -124,7 +169,14 @@ describe("CSV exports against spreadsheet formulas", () => {
   it("writes every formula-like text field of the contexts CSV inert and the numbers as numbers", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const fields = { colour: formulas.plus, compaction: formulas.blanks, composition: formulas.tab, inclusions: formulas.fullWidth, description: formulas.minus, interpretation: formulas.at };
+    const fields = {
+      colour: formulas.plus,
+      compaction: formulas.blanks,
+      composition: formulas.tab,
+      inclusions: formulas.fullWidth,
+      description: formulas.minus,
+      interpretation: formulas.at,
+    };
     await db.update(schema.contexts).set(fields).where(eq(schema.contexts.id, fx.context.id));
     session.userId = fx.people.digger.id;
     const csv = await (await get(exportContextsRoute, fx.site.id, "format=csv")).text();

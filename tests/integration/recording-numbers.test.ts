@@ -22,10 +22,19 @@ describe("find numbers under concurrent recording", () => {
     // A few of the calls are meant to fail (outside the trench) and must give their number back.
     const results = await Promise.allSettled(
       Array.from({ length: N }, (_, i) =>
-        createFind(db, actors[i % 2], { contextId: fx.context.id, classId: fx.cls.id, x: i % 10 === 9 ? 50 : 0.5 + (i % 9), y: 1, description: `find ${i}`, method: "typed" }),
+        createFind(db, actors[i % 2], {
+          contextId: fx.context.id,
+          classId: fx.cls.id,
+          x: i % 10 === 9 ? 50 : 0.5 + (i % 9),
+          y: 1,
+          description: `find ${i}`,
+          method: "typed",
+        }),
       ),
     );
-    const made = results.filter((r) => r.status === "fulfilled").map((r) => (r as PromiseFulfilledResult<schema.Find>).value);
+    const made = results
+      .filter((r) => r.status === "fulfilled")
+      .map((r) => (r as PromiseFulfilledResult<schema.Find>).value);
     const refused = results.filter((r) => r.status === "rejected");
     expect(refused).toHaveLength(6);
     const numbers = made.map((f) => f.number).sort((a, b) => a - b);
@@ -38,7 +47,14 @@ describe("find numbers under concurrent recording", () => {
     const fx = await makeSite();
     const db = await getDb();
     const actor = await loadSiteActor(db, fx.people.digger.id, fx.site.id);
-    const input = { contextId: fx.context.id, classId: fx.cls.id, x: 1, y: 1, description: "", method: "typed" as const };
+    const input = {
+      contextId: fx.context.id,
+      classId: fx.cls.id,
+      x: 1,
+      y: 1,
+      description: "",
+      method: "typed" as const,
+    };
     const a = await createFind(db, actor, input);
     const b = await createFind(db, actor, input);
     await deleteFind(db, actor, b.id);

@@ -12,15 +12,29 @@ import { and, eq } from "drizzle-orm";
 async function register() {
   const fx = await makeSite();
   const db = await getDb();
-  const [bone] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#cc79a7", symbol: "cross" }).returning();
-  const [ctxB] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 9001, type: "fill" }).returning();
+  const [bone] = await db
+    .insert(schema.artefactClasses)
+    .values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#cc79a7", symbol: "cross" })
+    .returning();
+  const [ctxB] = await db
+    .insert(schema.contexts)
+    .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 9001, type: "fill" })
+    .returning();
   await db.insert(schema.finds).values(
     Array.from({ length: 30 }, (_, i) => {
       const n = i + 1;
       return {
-        siteId: fx.site.id, trenchId: fx.trench.id, contextId: n % 2 === 0 ? ctxB.id : fx.context.id, classId: n % 3 === 0 ? bone.id : fx.cls.id,
-        number: n, x: (n * 0.3) % 9.5, y: 1 + (n % 5) * 0.9, method: "typed" as const, description: n === 17 ? "refitting flake near the hearth" : "",
-        recordedBy: n <= 10 ? fx.people.specialist.id : fx.people.digger.id, recordedAt: new Date(n <= 10 ? "2026-11-01T10:00:00Z" : "2026-11-15T10:00:00Z"),
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        contextId: n % 2 === 0 ? ctxB.id : fx.context.id,
+        classId: n % 3 === 0 ? bone.id : fx.cls.id,
+        number: n,
+        x: (n * 0.3) % 9.5,
+        y: 1 + (n % 5) * 0.9,
+        method: "typed" as const,
+        description: n === 17 ? "refitting flake near the hearth" : "",
+        recordedBy: n <= 10 ? fx.people.specialist.id : fx.people.digger.id,
+        recordedAt: new Date(n <= 10 ? "2026-11-01T10:00:00Z" : "2026-11-15T10:00:00Z"),
       };
     }),
   );
@@ -31,7 +45,8 @@ describe("finds register", () => {
   it("filters by context, class, recorder, date range and text; sorts and pages in the database", async () => {
     const { fx, bone, ctxB } = await register();
     session.userId = fx.people.digger.id;
-    const q = (query: Record<string, string>) => call(findsRoute, "GET", { siteId: fx.site.id }, undefined, query).then((r) => r.json);
+    const q = (query: Record<string, string>) =>
+      call(findsRoute, "GET", { siteId: fx.site.id }, undefined, query).then((r) => r.json);
     const nums = (page: any) => page.rows.map((r: any) => r.number);
     // Expected sets follow from the fixture's rules above.
     expect(nums(await q({ classId: bone.id, contextId: ctxB.id }))).toEqual([6, 12, 18, 24, 30]);
@@ -58,7 +73,10 @@ describe("finds register", () => {
   it("exports what the register shows: the same filters, in the same order", async () => {
     const { fx, bone } = await register();
     session.userId = fx.people.specialist.id;
-    const res = await exportFindsRoute.GET(new Request(`http://localhost/x?format=csv&classId=${bone.id}&sort=number&dir=desc`), { params: Promise.resolve({ siteId: fx.site.id }) });
+    const res = await exportFindsRoute.GET(
+      new Request(`http://localhost/x?format=csv&classId=${bone.id}&sort=number&dir=desc`),
+      { params: Promise.resolve({ siteId: fx.site.id }) },
+    );
     const lines = (await res.text()).trim().split("\r\n");
     expect(lines.slice(1).map((l) => Number(l.split(",")[0]))).toEqual([30, 27, 24, 21, 18, 15, 12, 9, 6, 3]);
   });
@@ -66,8 +84,14 @@ describe("finds register", () => {
   it("refuses to edit a find of a signed-off context, saying who signed it off", async () => {
     const { fx } = await register();
     const db = await getDb();
-    const [f] = await db.select().from(schema.finds).where(and(eq(schema.finds.siteId, fx.site.id), eq(schema.finds.number, 1)));
-    await db.update(schema.contexts).set({ state: "signed_off", signedOffAt: new Date("2026-11-30T16:00:00Z"), signedOffBy: fx.people.director.id }).where(eq(schema.contexts.id, fx.context.id));
+    const [f] = await db
+      .select()
+      .from(schema.finds)
+      .where(and(eq(schema.finds.siteId, fx.site.id), eq(schema.finds.number, 1)));
+    await db
+      .update(schema.contexts)
+      .set({ state: "signed_off", signedOffAt: new Date("2026-11-30T16:00:00Z"), signedOffBy: fx.people.director.id })
+      .where(eq(schema.contexts.id, fx.context.id));
     session.userId = fx.people.specialist.id;
     const res = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: f.id }, { classId: fx.cls.id });
     expect(res.status).toBe(409);

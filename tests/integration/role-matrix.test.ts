@@ -14,12 +14,34 @@ import { recordingCases } from "./role-cases/recording";
 import { signOffCases } from "./role-cases/sign-off";
 import { squaresCases } from "./role-cases/squares";
 
-const writes = { ...coreCases, ...planCases, ...recordingCases, ...signOffCases, ...patternsCases, ...levelsCases, ...squaresCases, ...archiveCases, ...offlineCases };
+const writes = {
+  ...coreCases,
+  ...planCases,
+  ...recordingCases,
+  ...signOffCases,
+  ...patternsCases,
+  ...levelsCases,
+  ...squaresCases,
+  ...archiveCases,
+  ...offlineCases,
+};
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
 async function snapshot(): Promise<string> {
   const db = await getDb();
-  const tables = [schema.sites, schema.memberships, schema.users, schema.trenches, schema.contexts, schema.contextRelations, schema.artefactClasses, schema.finds, schema.squareSamples, schema.squareCounts, schema.samples];
+  const tables = [
+    schema.sites,
+    schema.memberships,
+    schema.users,
+    schema.trenches,
+    schema.contexts,
+    schema.contextRelations,
+    schema.artefactClasses,
+    schema.finds,
+    schema.squareSamples,
+    schema.squareCounts,
+    schema.samples,
+  ];
   const parts = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
   const audit = await db.select().from(schema.auditEntries);
@@ -38,7 +60,9 @@ function expectedStatus(op: ApiOperation, who: (typeof callers)[number]): number
 }
 
 describe("every mutating route × every caller", () => {
-  const mutating = (Object.entries(api) as [string, ApiOperation][]).filter(([, op]) => op.method !== "GET" && !op.public);
+  const mutating = (Object.entries(api) as [string, ApiOperation][]).filter(
+    ([, op]) => op.method !== "GET" && !op.public,
+  );
 
   it("has a case for every mutating operation in the catalogue", () => {
     expect(mutating.map(([name]) => name).sort()).toEqual(Object.keys(writes).sort());

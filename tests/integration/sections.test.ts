@@ -12,17 +12,39 @@ import * as exportRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/secti
 async function arrange(fx: SiteFixture) {
   const db = await getDb();
   const at = [
-    [1, 1, 1.2, 49.5], [2, 2, 0.6, 49.42], [3, 2, 1.8, 49.4], [4, 4.5, 1, 49.3], [5, 3, 1, 49.25], [6, 1.5, 1, null],
+    [1, 1, 1.2, 49.5],
+    [2, 2, 0.6, 49.42],
+    [3, 2, 1.8, 49.4],
+    [4, 4.5, 1, 49.3],
+    [5, 3, 1, 49.25],
+    [6, 1.5, 1, null],
   ] as const;
-  await db.insert(schema.finds).values(at.map(([n, x, y, z]) => ({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: n, x, y, z, method: "plan" as const })));
-  await db.insert(schema.spits).values([{ siteId: fx.site.id, contextId: fx.context.id, number: 1, topLevel: 49.6, baseLevel: 49.4 }, { siteId: fx.site.id, contextId: fx.context.id, number: 2, topLevel: 49.4, baseLevel: 49.2 }]);
+  await db.insert(schema.finds).values(
+    at.map(([n, x, y, z]) => ({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId: fx.context.id,
+      classId: fx.cls.id,
+      number: n,
+      x,
+      y,
+      z,
+      method: "plan" as const,
+    })),
+  );
+  await db.insert(schema.spits).values([
+    { siteId: fx.site.id, contextId: fx.context.id, number: 1, topLevel: 49.6, baseLevel: 49.4 },
+    { siteId: fx.site.id, contextId: fx.context.id, number: 2, topLevel: 49.4, baseLevel: 49.2 },
+  ]);
 }
 
 const body = { name: "S1", startX: 0, startY: 1, endX: 4, endY: 1, halfWidth: 0.5, exaggeration: 2 };
 
 async function exportAs(fx: SiteFixture, sectionId: string, format: string) {
   const url = new URL(`http://localhost/api/test?format=${format}`);
-  return exportRoute.GET(new Request(url), { params: Promise.resolve({ siteId: fx.site.id, trenchId: fx.trench.id, sectionId }) });
+  return exportRoute.GET(new Request(url), {
+    params: Promise.resolve({ siteId: fx.site.id, trenchId: fx.trench.id, sectionId }),
+  });
 }
 
 describe("sections of finds", () => {
@@ -46,14 +68,22 @@ describe("sections of finds", () => {
     expect(svg).toContain(`${fx.context.number} base`);
 
     const csv = await (await exportAs(fx, res.json.id, "csv")).text();
-    expect(csv.split("\r\n")).toEqual(["number,context,class,along_m,offset_m,z_rl_m", `1,${fx.context.number},FL,1,0.2,49.5`, `2,${fx.context.number},FL,2,-0.4,49.42`, `5,${fx.context.number},FL,3,0,49.25`]);
+    expect(csv.split("\r\n")).toEqual([
+      "number,context,class,along_m,offset_m,z_rl_m",
+      `1,${fx.context.number},FL,1,0.2,49.5`,
+      `2,${fx.context.number},FL,2,-0.4,49.42`,
+      `5,${fx.context.number},FL,3,0,49.25`,
+    ]);
 
     const png = new Uint8Array(await (await exportAs(fx, res.json.id, "png")).arrayBuffer());
     expect([...png.slice(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
     expect((await exportAs(fx, res.json.id, "pdf")).status).toBe(400);
 
     const db = await getDb();
-    const audit = await db.select().from(schema.auditEntries).where(and(eq(schema.auditEntries.recordType, "section"), eq(schema.auditEntries.recordId, res.json.id)));
+    const audit = await db
+      .select()
+      .from(schema.auditEntries)
+      .where(and(eq(schema.auditEntries.recordType, "section"), eq(schema.auditEntries.recordId, res.json.id)));
     expect(audit.map((a) => a.action)).toEqual(["create"]);
   });
 
@@ -80,13 +110,22 @@ describe("sections of finds", () => {
     const fx = await makeSite();
     const other = await makeSite();
     session.userId = fx.people.digger.id;
-    expect((await call(sectionsRoute, "POST", { siteId: fx.site.id, trenchId: other.trench.id }, body)).status).toBe(404);
+    expect((await call(sectionsRoute, "POST", { siteId: fx.site.id, trenchId: other.trench.id }, body)).status).toBe(
+      404,
+    );
     const made = await call(sectionsRoute, "POST", { siteId: fx.site.id, trenchId: fx.trench.id }, body);
     expect((await exportAs(other, made.json.id, "svg")).status).toBe(404);
-    const gone = await call(sectionRoute, "DELETE", { siteId: fx.site.id, trenchId: fx.trench.id, sectionId: made.json.id });
+    const gone = await call(sectionRoute, "DELETE", {
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      sectionId: made.json.id,
+    });
     expect(gone.status).toBe(200);
     const db = await getDb();
-    const [entry] = await db.select().from(schema.auditEntries).where(and(eq(schema.auditEntries.recordId, made.json.id), eq(schema.auditEntries.action, "delete")));
+    const [entry] = await db
+      .select()
+      .from(schema.auditEntries)
+      .where(and(eq(schema.auditEntries.recordId, made.json.id), eq(schema.auditEntries.action, "delete")));
     expect((entry!.before as { halfWidth: number }).halfWidth).toBe(0.5);
   });
 });

@@ -10,7 +10,16 @@ describe("demo site seed", () => {
     const db = await getDb();
     const first = await seedDemo(db);
     expect(first.created).toBe(true);
-    const tables = [s.users, s.sites, s.memberships, s.trenches, s.contexts, s.contextRelations, s.artefactClasses, s.finds];
+    const tables = [
+      s.users,
+      s.sites,
+      s.memberships,
+      s.trenches,
+      s.contexts,
+      s.contextRelations,
+      s.artefactClasses,
+      s.finds,
+    ];
     const counts = async () => Promise.all(tables.map(async (t) => (await db.select({ n: count() }).from(t))[0].n));
     const before = await counts();
     const second = await seedDemo(db);
@@ -33,7 +42,10 @@ describe("demo site seed", () => {
       if (!check.ok) continue;
       for (const f of found.filter((f) => f.trenchId === t.id)) expect(check.window.contains(f.x, f.y)).toBe(true);
     }
-    const [{ top }] = await db.select({ top: max(s.finds.number) }).from(s.finds).where(eq(s.finds.siteId, siteId));
+    const [{ top }] = await db
+      .select({ top: max(s.finds.number) })
+      .from(s.finds)
+      .where(eq(s.finds.siteId, siteId));
     expect(top).toBe(found.length);
     const [site] = await db.select().from(s.sites).where(eq(s.sites.id, siteId));
     expect(site.nextFindNumber).toBe(found.length + 1);

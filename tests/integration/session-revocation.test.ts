@@ -11,7 +11,10 @@ import * as sitesRoute from "@/app/api/sites/route";
 
 async function makeUser(email: string, password: string) {
   const db = await getDb();
-  const [u] = await db.insert(users).values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) }).returning();
+  const [u] = await db
+    .insert(users)
+    .values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) })
+    .returning();
   return u;
 }
 
@@ -27,7 +30,14 @@ async function listSites(cookie: string): Promise<number> {
 async function createSite(cookie: string, code: string): Promise<number> {
   return asRequest(cookie, async () => {
     const body = JSON.stringify({ code, name: `Site ${code}` });
-    const res = await sitesRoute.POST(new Request("http://localhost:3000/api/sites", { method: "POST", body, headers: { "content-type": "application/json" } }), { params: Promise.resolve({}) });
+    const res = await sitesRoute.POST(
+      new Request("http://localhost:3000/api/sites", {
+        method: "POST",
+        body,
+        headers: { "content-type": "application/json" },
+      }),
+      { params: Promise.resolve({}) },
+    );
     return res.status;
   });
 }
@@ -71,7 +81,9 @@ describe("a saved session cookie after the session ends", () => {
 
     const db = await getDb();
     const token = "reset-token-for-dee-0123456789";
-    await db.insert(passwordResets).values({ userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 60_000) });
+    await db
+      .insert(passwordResets)
+      .values({ userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 60_000) });
     await confirmPasswordReset(db, { token, password: "dee-new-password-2" });
 
     for (const saved of [laptop.sessionCookie(), tablet.sessionCookie()]) {

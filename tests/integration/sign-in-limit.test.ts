@@ -18,7 +18,10 @@ beforeAll(async () => {
 
 async function makeUser(email: string, password: string) {
   const db = await getDb();
-  const [u] = await db.insert(users).values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) }).returning();
+  const [u] = await db
+    .insert(users)
+    .values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) })
+    .returning();
   return u;
 }
 
@@ -29,11 +32,14 @@ describe("sign-in limits", () => {
   it("counts guesses sent at once: of 8 parallel guesses from one address only 5 are checked, 3 get 429 with Retry-After", async () => {
     await makeUser("eve-target@dig.test", "owner-password-1");
     const answers = await Promise.all(
-      Array.from({ length: 8 }, (_, k) => signInOverHttp(new CookieJar(), "eve-target@dig.test", `guess-${k}`, from("203.0.113.7"))),
+      Array.from({ length: 8 }, (_, k) =>
+        signInOverHttp(new CookieJar(), "eve-target@dig.test", `guess-${k}`, from("203.0.113.7")),
+      ),
     );
     const refused = answers.filter((r) => r.status === 429);
     expect(refused).toHaveLength(8 - PAIR_LIMIT.points);
-    for (const r of answers.filter((a) => a.status !== 429)) expect(r.headers.get("location")).toMatch(/error=CredentialsSignin/);
+    for (const r of answers.filter((a) => a.status !== 429))
+      expect(r.headers.get("location")).toMatch(/error=CredentialsSignin/);
     for (const r of refused) {
       const wait = Number(r.headers.get("retry-after"));
       expect(wait).toBeGreaterThan(0);
@@ -42,25 +48,35 @@ describe("sign-in limits", () => {
     }
     // The right password from the guessing address is refused too, before it is checked.
     const jar = new CookieJar();
-    expect((await signInOverHttp(jar, "eve-target@dig.test", "owner-password-1", from("203.0.113.7"))).status).toBe(429);
+    expect((await signInOverHttp(jar, "eve-target@dig.test", "owner-password-1", from("203.0.113.7"))).status).toBe(
+      429,
+    );
   });
 
   it("lets the owner in at once from a fresh address while the guessing address is refused", async () => {
     const owner = await makeUser("owner@dig.test", "owner-password-2");
-    for (let k = 0; k < PAIR_LIMIT.points + 1; k++) await signInOverHttp(new CookieJar(), "owner@dig.test", `guess-${k}`, from("198.51.100.9"));
+    for (let k = 0; k < PAIR_LIMIT.points + 1; k++)
+      await signInOverHttp(new CookieJar(), "owner@dig.test", `guess-${k}`, from("198.51.100.9"));
     const jar = new CookieJar();
     const started = Date.now();
     const res = await signInOverHttp(jar, "owner@dig.test", "owner-password-2", from("192.0.2.44"));
     expect(signedIn(res, jar)).toBe(true);
     expect(Date.now() - started).toBeLessThan(5000);
-    expect(await asRequest(jar.sessionCookie(), async () => (await import("@/lib/server/session")).currentUserId())).toBe(owner.id);
+    expect(
+      await asRequest(jar.sessionCookie(), async () => (await import("@/lib/server/session")).currentUserId()),
+    ).toBe(owner.id);
   });
 
   it("ignores X-Forwarded-For unless proxies are configured: a guesser cannot claim a new address per try", async () => {
     await makeUser("xff@dig.test", "owner-password-3");
     const statuses: number[] = [];
     for (let k = 0; k < PAIR_LIMIT.points + 2; k++) {
-      const res = await signInOverHttp(new CookieJar(), "xff@dig.test", `guess-${k}`, from("203.0.113.50", { "x-forwarded-for": `10.9.8.${k}` }));
+      const res = await signInOverHttp(
+        new CookieJar(),
+        "xff@dig.test",
+        `guess-${k}`,
+        from("203.0.113.50", { "x-forwarded-for": `10.9.8.${k}` }),
+      );
       statuses.push(res.status);
     }
     expect(statuses.filter((s) => s === 429)).toHaveLength(2);
@@ -72,14 +88,17 @@ describe("sign-in limits", () => {
     expect(clientAddress(h, 1)).toBe("10.0.0.1");
     expect(clientAddress(h, 2)).toBe("198.51.100.20");
     // More proxies configured than the header names: the leftmost, never beyond it.
-    expect(clientAddress(new Headers({ [PEER_HEADER]: "10.0.0.2", "x-forwarded-for": "198.51.100.20" }), 3)).toBe("198.51.100.20");
+    expect(clientAddress(new Headers({ [PEER_HEADER]: "10.0.0.2", "x-forwarded-for": "198.51.100.20" }), 3)).toBe(
+      "198.51.100.20",
+    );
     expect(clientAddress(new Headers({ [PEER_HEADER]: "10.0.0.2" }), 1)).toBe("10.0.0.2");
   });
 
   it("stops guessing spread over many addresses at the account's ceiling", async () => {
     const addresses = Math.ceil(ACCOUNT_LIMIT.points / PAIR_LIMIT.points);
     for (let a = 0; a < addresses; a++) {
-      for (let k = 0; k < PAIR_LIMIT.points; k++) expect(await admitSignIn("spread@dig.test", new Headers(from(`203.0.113.${a}`)))).toBeNull();
+      for (let k = 0; k < PAIR_LIMIT.points; k++)
+        expect(await admitSignIn("spread@dig.test", new Headers(from(`203.0.113.${a}`)))).toBeNull();
     }
     const refused = await admitSignIn("spread@dig.test", new Headers(from("192.0.2.200")));
     expect(refused?.retryAfterSeconds).toBeGreaterThan(0);
@@ -100,7 +119,9 @@ describe("sign-in limits", () => {
 
     const db = await getDb();
     const token = "reset-token-for-form-0123456789";
-    await db.insert(passwordResets).values({ userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 60_000) });
+    await db
+      .insert(passwordResets)
+      .values({ userId: user.id, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + 60_000) });
     await confirmPasswordReset(db, { token, password: "owner-password-5" });
     const jar = new CookieJar();
     expect(signedIn(await signInOverHttp(jar, "form@dig.test", "owner-password-5", here), jar)).toBe(true);

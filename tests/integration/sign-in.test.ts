@@ -7,7 +7,9 @@ import { verifySignIn } from "@/lib/server/sign-in";
 describe("sign-in", () => {
   it("accepts the right password, case-insensitively on the e-mail, with the account's session version", async () => {
     const db = await getDb();
-    await db.insert(users).values({ email: "ana@dig.test", name: "Ana", passwordHash: await hashPassword("right-pass") });
+    await db
+      .insert(users)
+      .values({ email: "ana@dig.test", name: "Ana", passwordHash: await hashPassword("right-pass") });
     const user = await verifySignIn({ email: "  ANA@dig.test ", password: "right-pass" });
     expect(user?.email).toBe("ana@dig.test");
     expect(user?.sessionVersion).toBe(0);

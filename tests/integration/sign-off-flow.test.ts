@@ -24,7 +24,13 @@ describe("submit → sign off → reopen", () => {
     as(fx.people.digger.id);
     const res = await call(submitRoute, "POST", { siteId: fx.site.id, contextId: fx.context.id });
     expect(res.status).toBe(400);
-    expect(Object.keys(res.json.fieldErrors).sort()).toEqual(["colour", "compaction", "composition", "description", "interpretation"]);
+    expect(Object.keys(res.json.fieldErrors).sort()).toEqual([
+      "colour",
+      "compaction",
+      "composition",
+      "description",
+      "interpretation",
+    ]);
     const [c] = await (await getDb()).select().from(schema.contexts).where(eq(schema.contexts.id, fx.context.id));
     expect(c.state).toBe("open");
   });
@@ -34,17 +40,38 @@ describe("submit → sign off → reopen", () => {
     const db = await getDb();
     const [later] = await db
       .insert(schema.contexts)
-      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 9101, type: "fill", colour: "grey", compaction: "soft", composition: "silt", description: "Fill.", interpretation: "Backfill." })
+      .values({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        number: 9101,
+        type: "fill",
+        colour: "grey",
+        compaction: "soft",
+        composition: "silt",
+        description: "Fill.",
+        interpretation: "Backfill.",
+      })
       .returning();
     // Recorded before the outline was redrawn: now 2 m outside the 10 × 6 m trench.
-    await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: later.id, classId: fx.cls.id, number: 77, x: 12, y: 3, method: "typed" });
+    await db.insert(schema.finds).values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId: later.id,
+      classId: fx.cls.id,
+      number: 77,
+      x: 12,
+      y: 3,
+      method: "typed",
+    });
     as(fx.people.digger.id);
     const res = await call(submitRoute, "POST", { siteId: fx.site.id, contextId: later.id });
     expect(res.status).toBe(400);
     expect(res.json.fieldErrors.relations).toHaveLength(1);
     expect(res.json.fieldErrors.finds[0]).toContain("77");
     await db.update(schema.finds).set({ x: 8 }).where(eq(schema.finds.number, 77));
-    await db.insert(schema.contextRelations).values({ siteId: fx.site.id, fromId: later.id, toId: fx.context.id, kind: "above" });
+    await db
+      .insert(schema.contextRelations)
+      .values({ siteId: fx.site.id, fromId: later.id, toId: fx.context.id, kind: "above" });
     const ok = await call(submitRoute, "POST", { siteId: fx.site.id, contextId: later.id });
     expect(ok.status, JSON.stringify(ok.json)).toBe(200);
     expect(ok.json.context.state).toBe("awaiting");
@@ -56,7 +83,10 @@ describe("submit → sign off → reopen", () => {
     const second = await makeUser("Second Director");
     await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: second.id, role: "director" });
     await completeSheet(fx.context.id);
-    await db.update(schema.contexts).set({ recordedBy: fx.people.digger.id }).where(eq(schema.contexts.id, fx.context.id));
+    await db
+      .update(schema.contexts)
+      .set({ recordedBy: fx.people.digger.id })
+      .where(eq(schema.contexts.id, fx.context.id));
     const p = { siteId: fx.site.id, contextId: fx.context.id };
 
     as(fx.people.digger.id);
@@ -83,7 +113,9 @@ describe("submit → sign off → reopen", () => {
     expect(lock.json.trenchSignedOff).toBe(true);
     const [t] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
     expect(t.signedOffBy).toBe(fx.people.director.id);
-    await expect(assertTrenchWritable(db, t, "given new contexts")).rejects.toThrow(/^Trench A was signed off by Director on \d{4}-\d\d-\d\d \d\d:\d\d UTC; it cannot be given new contexts/);
+    await expect(assertTrenchWritable(db, t, "given new contexts")).rejects.toThrow(
+      /^Trench A was signed off by Director on \d{4}-\d\d-\d\d \d\d:\d\d UTC; it cannot be given new contexts/,
+    );
     const [signed] = messagesTo(mail.dir, fx.people.digger.email);
     expect(signed.subject).toBe(`${fx.site.code}: context ${fx.context.number} signed off`);
     expect(signed.text).toContain(`http://loamwork.example/sites/${fx.site.id}/contexts/${fx.context.id}`);
@@ -110,15 +142,23 @@ describe("submit → sign off → reopen", () => {
     expect(trail.map((e) => e.action)).toEqual(["submit", "sign-off", "reopen"]);
     expect(trail[2].reason).toBe(reason);
     expect((trail[1].after as { fingerprint: string }).fingerprint).toMatch(/^[0-9a-f]{64}$/);
-    const trenchTrail = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, fx.trench.id));
+    const trenchTrail = await db
+      .select()
+      .from(schema.auditEntries)
+      .where(eq(schema.auditEntries.recordId, fx.trench.id));
     expect(trenchTrail.map((e) => e.action)).toEqual(["sign-off", "reopen"]);
   });
 
   it("asks a cut only for description and interpretation (a cut is an interface, not a deposit)", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [cut] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 9201, type: "cut" }).returning();
-    await db.insert(schema.contextRelations).values({ siteId: fx.site.id, fromId: cut.id, toId: fx.context.id, kind: "cuts" });
+    const [cut] = await db
+      .insert(schema.contexts)
+      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 9201, type: "cut" })
+      .returning();
+    await db
+      .insert(schema.contextRelations)
+      .values({ siteId: fx.site.id, fromId: cut.id, toId: fx.context.id, kind: "cuts" });
     as(fx.people.digger.id);
     const res = await call(submitRoute, "POST", { siteId: fx.site.id, contextId: cut.id });
     expect(res.status).toBe(400);
@@ -138,7 +178,13 @@ describe("submit → sign off → reopen", () => {
     as(fx.people.specialist.id);
     const q = await call(queueRoute, "GET", { siteId: fx.site.id });
     expect(q.status).toBe(200);
-    expect(q.json.contexts.map((c: { number: number; state: string; submittedBy: string }) => [c.number, c.state, c.submittedBy])).toEqual([[fx.context.number, "awaiting", "Digger"]]);
+    expect(
+      q.json.contexts.map((c: { number: number; state: string; submittedBy: string }) => [
+        c.number,
+        c.state,
+        c.submittedBy,
+      ]),
+    ).toEqual([[fx.context.number, "awaiting", "Digger"]]);
     as(fx.people.director.id);
     expect((await call(lockRoute, "POST", { ...p, contextId: "not-a-uuid" })).status).toBe(404);
   });

@@ -26,13 +26,23 @@ describe("a find recorded while its sheet is being submitted", () => {
       const digger = await loadSiteActor(db, fx.people.digger.id, fx.site.id);
       const director = await loadSiteActor(db, fx.people.director.id, fx.site.id);
       const [find, submit] = await Promise.allSettled([
-        createFind(db, director, { contextId: fx.context.id, classId: fx.cls.id, x: 1 + round / 10, y: 1, method: "plan", description: "" }),
+        createFind(db, director, {
+          contextId: fx.context.id,
+          classId: fx.cls.id,
+          x: 1 + round / 10,
+          y: 1,
+          method: "plan",
+          description: "",
+        }),
         submitContext(db, digger, fx.context.id),
       ]);
       expect(submit.status).toBe("fulfilled");
       const trail = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.siteId, fx.site.id));
       const submitted = trail.find((e) => e.action === "submit")!;
-      const finds = await db.select().from(schema.finds).where(and(eq(schema.finds.contextId, fx.context.id)));
+      const finds = await db
+        .select()
+        .from(schema.finds)
+        .where(and(eq(schema.finds.contextId, fx.context.id)));
       if (find.status === "fulfilled") {
         landed++;
         expect(finds).toHaveLength(1);

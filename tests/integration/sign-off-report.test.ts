@@ -15,16 +15,32 @@ import { completeSheet } from "./role-cases/sign-off";
 
 describe("the trench record report", () => {
   it("canonical JSON sorts keys at every depth, so equal content hashes alike", () => {
-    expect(canonicalJson({ b: 1, a: { d: [2, { f: 1, e: 0 }], c: null } })).toBe('{"a":{"c":null,"d":[2,{"e":0,"f":1}]},"b":1}');
+    expect(canonicalJson({ b: 1, a: { d: [2, { f: 1, e: 0 }], c: null } })).toBe(
+      '{"a":{"c":null,"d":[2,{"e":0,"f":1}]},"b":1}',
+    );
     // SHA-256 of "abc" from FIPS 180-2, appendix B.1.
-    expect(createHash("sha256").update("abc").digest("hex")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+    expect(createHash("sha256").update("abc").digest("hex")).toBe(
+      "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad",
+    );
   });
 
   it("stamps the sign-off and a fingerprint that survives sign-off but not a change", async () => {
     const fx = await makeSite();
     const db = await getDb();
     await completeSheet(fx.context.id);
-    const [find] = await db.insert(schema.finds).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 1, x: 2, y: 1, method: "plan" }).returning();
+    const [find] = await db
+      .insert(schema.finds)
+      .values({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        contextId: fx.context.id,
+        classId: fx.cls.id,
+        number: 1,
+        x: 2,
+        y: 1,
+        method: "plan",
+      })
+      .returning();
     const p = { siteId: fx.site.id, contextId: fx.context.id };
     const before = await trenchFingerprint(db, fx.trench);
 
@@ -40,7 +56,9 @@ describe("the trench record report", () => {
     // Submitting and signing off change only the lifecycle fields, which the fingerprint leaves out.
     expect(report.fingerprint).toBe(before);
     expect(report.stampedFingerprint).toBe(report.fingerprint);
-    expect(report.sheets.map((s) => [s.number, s.state, s.signedOffByName, s.finds])).toEqual([[fx.context.number, "signed_off", "Director", 1]]);
+    expect(report.sheets.map((s) => [s.number, s.state, s.signedOffByName, s.finds])).toEqual([
+      [fx.context.number, "signed_off", "Director", 1],
+    ]);
     expect(report.finds.map((f) => [f.number, f.cls?.code])).toEqual([[1, "FL"]]);
     expect(report.matrixSvg).toContain(`>${fx.context.number}</text>`);
 

@@ -10,8 +10,36 @@ describe("site overview and the sites list", () => {
   it("counts contexts and finds per trench, and lists the caller's role", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [other] = await db.insert(schema.trenches).values({ siteId: fx.site.id, code: "Z", outline: { type: "Polygon", coordinates: [[[20, 0], [24, 0], [24, 3], [20, 0]]] } }).returning();
-    await db.insert(schema.finds).values([1, 2, 3].map((n) => ({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: n, x: n, y: 1, method: "typed" as const })));
+    const [other] = await db
+      .insert(schema.trenches)
+      .values({
+        siteId: fx.site.id,
+        code: "Z",
+        outline: {
+          type: "Polygon",
+          coordinates: [
+            [
+              [20, 0],
+              [24, 0],
+              [24, 3],
+              [20, 0],
+            ],
+          ],
+        },
+      })
+      .returning();
+    await db.insert(schema.finds).values(
+      [1, 2, 3].map((n) => ({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        contextId: fx.context.id,
+        classId: fx.cls.id,
+        number: n,
+        x: n,
+        y: 1,
+        method: "typed" as const,
+      })),
+    );
     session.userId = fx.people.specialist.id;
     const res = await call(siteRoute, "GET", { siteId: fx.site.id });
     expect(res.status).toBe(200);

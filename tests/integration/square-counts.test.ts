@@ -24,7 +24,11 @@ async function readSquares(fx: SiteFixture) {
 
 async function tableCounts() {
   const db = await getDb();
-  return [(await db.select().from(schema.squareSamples)).length, (await db.select().from(schema.squareCounts)).length, (await db.select().from(schema.auditEntries)).length];
+  return [
+    (await db.select().from(schema.squareSamples)).length,
+    (await db.select().from(schema.squareCounts)).length,
+    (await db.select().from(schema.auditEntries)).length,
+  ];
 }
 
 describe("the square grid of a trench", () => {
@@ -50,7 +54,18 @@ describe("the square grid of a trench", () => {
     expect(fine.status).toBe(200); // 100 × 60 = 6,000 squares: allowed
     const db = await getDb();
     await db.update(schema.trenches).set({ squareSize: null }).where(eq(schema.trenches.id, fx.trench.id));
-    const outline = { type: "Polygon", coordinates: [[[0, 0], [300, 0], [300, 100], [0, 100], [0, 0]]] };
+    const outline = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [0, 0],
+          [300, 0],
+          [300, 100],
+          [0, 100],
+          [0, 0],
+        ],
+      ],
+    };
     const tooMany = await call(trenchRoute, "PATCH", trench(fx), { outline, squareSize: 0.5 });
     expect(tooMany.status).toBe(400);
     expect(tooMany.json.fieldErrors.squareSize[0]).toContain("120,000 squares");
@@ -64,14 +79,41 @@ describe("the square grid of a trench", () => {
     expect(moved.status).toBe(409);
     expect(moved.json.error).toContain("grid cannot change under them");
     // Shrink the trench to 9.5 m: square 9/5 keeps half its area, counts unchanged.
-    const outline = { type: "Polygon", coordinates: [[[0, 0], [9.5, 0], [9.5, 6], [0, 6], [0, 0]]] };
+    const outline = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [0, 0],
+          [9.5, 0],
+          [9.5, 6],
+          [0, 6],
+          [0, 0],
+        ],
+      ],
+    };
     expect((await call(trenchRoute, "PATCH", trench(fx), { outline })).status).toBe(200);
     let view = await readSquares(fx);
     expect(view.samples).toHaveLength(1);
-    expect(view.samples[0]).toMatchObject({ label: "9/5", area: 0.5, outside: false, counts: [{ classId: fx.cls.id, count: 11, weightG: null }] });
+    expect(view.samples[0]).toMatchObject({
+      label: "9/5",
+      area: 0.5,
+      outside: false,
+      counts: [{ classId: fx.cls.id, count: 11, weightG: null }],
+    });
     // Shrink past it: the record is kept, marked outside, with no area.
     session.userId = fx.people.director.id;
-    const smaller = { type: "Polygon", coordinates: [[[0, 0], [8, 0], [8, 6], [0, 6], [0, 0]]] };
+    const smaller = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [0, 0],
+          [8, 0],
+          [8, 6],
+          [0, 6],
+          [0, 0],
+        ],
+      ],
+    };
     expect((await call(trenchRoute, "PATCH", trench(fx), { outline: smaller })).status).toBe(200);
     view = await readSquares(fx);
     expect(view.samples[0]).toMatchObject({ label: "9/5", area: 0, outside: true });
@@ -83,17 +125,38 @@ describe("recording counts by square", () => {
     const fx = await makeSite();
     await gridTrench(fx);
     const db = await getDb();
-    const [other] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#e69f00", symbol: "circle" }).returning();
+    const [other] = await db
+      .insert(schema.artefactClasses)
+      .values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#e69f00", symbol: "circle" })
+      .returning();
     session.userId = fx.people.digger.id;
-    const body = { col: 2, row: 4, contextId: fx.context.id, excavatedArea: 0.75, counts: [{ classId: fx.cls.id, count: 14, weightG: 21.5 }, { classId: other!.id, count: 0 }] };
+    const body = {
+      col: 2,
+      row: 4,
+      contextId: fx.context.id,
+      excavatedArea: 0.75,
+      counts: [
+        { classId: fx.cls.id, count: 14, weightG: 21.5 },
+        { classId: other!.id, count: 0 },
+      ],
+    };
     const first = await call(squaresRoute, "POST", trench(fx), body);
     expect(first.status, JSON.stringify(first.json)).toBe(200);
-    const again = await call(squaresRoute, "POST", trench(fx), { ...body, excavatedArea: null, counts: [{ classId: fx.cls.id, count: 15 }] });
+    const again = await call(squaresRoute, "POST", trench(fx), {
+      ...body,
+      excavatedArea: null,
+      counts: [{ classId: fx.cls.id, count: 15 }],
+    });
     expect(again.status).toBe(200);
     expect(again.json.id).toBe(first.json.id);
     const view = await readSquares(fx);
     expect(view.samples).toHaveLength(1);
-    expect(view.samples[0]).toMatchObject({ label: "2/4", excavatedArea: null, area: 1, counts: [{ classId: fx.cls.id, count: 15, weightG: null }] });
+    expect(view.samples[0]).toMatchObject({
+      label: "2/4",
+      excavatedArea: null,
+      area: 1,
+      counts: [{ classId: fx.cls.id, count: 15, weightG: null }],
+    });
     const trail = await db.select().from(schema.auditEntries).where(eq(schema.auditEntries.recordId, first.json.id));
     expect(trail.map((a) => a.action)).toEqual(["create", "update"]);
     expect((trail[1]!.before as { counts: { count: number }[] }).counts.map((c) => c.count).sort()).toEqual([0, 14]);
@@ -122,7 +185,12 @@ describe("recording counts by square", () => {
     const fx = await makeSite();
     await gridTrench(fx);
     const kind = (change as { counts?: string }).counts;
-    const counts = kind === "negative" ? [{ classId: fx.cls.id, count: -1 }] : kind === "unknown" ? [{ classId: crypto.randomUUID(), count: 1 }] : [{ classId: fx.cls.id, count: 1 }];
+    const counts =
+      kind === "negative"
+        ? [{ classId: fx.cls.id, count: -1 }]
+        : kind === "unknown"
+          ? [{ classId: crypto.randomUUID(), count: 1 }]
+          : [{ classId: fx.cls.id, count: 1 }];
     const body = { col: 1, row: 1, contextId: fx.context.id, ...change, counts };
     const before = await tableCounts();
     session.userId = fx.people.digger.id;
@@ -136,7 +204,12 @@ describe("recording counts by square", () => {
   it("refuses counts in a trench with no grid yet", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    const res = await call(squaresRoute, "POST", trench(fx), { col: 1, row: 1, contextId: fx.context.id, counts: [{ classId: fx.cls.id, count: 1 }] });
+    const res = await call(squaresRoute, "POST", trench(fx), {
+      col: 1,
+      row: 1,
+      contextId: fx.context.id,
+      counts: [{ classId: fx.cls.id, count: 1 }],
+    });
     expect(res.status).toBe(409);
     expect(res.json.error).toContain("has no square grid yet");
   });
@@ -179,14 +252,26 @@ describe("importing counts by square", () => {
     await gridTrench(fx);
     const db = await getDb();
     await db.insert(schema.spits).values({ siteId: fx.site.id, contextId: fx.context.id, number: 2 });
-    await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#e69f00", symbol: "circle" });
+    await db
+      .insert(schema.artefactClasses)
+      .values({ siteId: fx.site.id, code: "BB", label: "Burnt bone", colour: "#e69f00", symbol: "circle" });
     const n = fx.context.number;
-    const csv = [header, `0/0,${n},2,FL,12,40.2,0.5`, `0/0,${n},2,bb,0,,0.5`, `1/0,${n},,FL,3,,`, `1,0,${n},,BB,"1,5",,`].join("\n").replace('1,0,', '"1,0",');
+    const csv = [
+      header,
+      `0/0,${n},2,FL,12,40.2,0.5`,
+      `0/0,${n},2,bb,0,,0.5`,
+      `1/0,${n},,FL,3,,`,
+      `1,0,${n},,BB,"1,5",,`,
+    ]
+      .join("\n")
+      .replace("1,0,", '"1,0",');
     const dry = await importCsv(fx, csv, true);
     expect(dry.status, JSON.stringify(dry.json)).toBe(200);
     expect(dry.json).toMatchObject({ dryRun: true, rowCount: 4, squares: 2 });
     expect(dry.json.errors).toEqual([{ row: 5, reasons: ['count "1,5": A count is a whole number.'] }]);
-    expect((await db.select().from(schema.squareSamples).where(eq(schema.squareSamples.trenchId, fx.trench.id))).length).toBe(0);
+    expect(
+      (await db.select().from(schema.squareSamples).where(eq(schema.squareSamples.trenchId, fx.trench.id))).length,
+    ).toBe(0);
     const fixed = csv.replace('"1,5"', "1");
     const res = await importCsv(fx, fixed);
     expect(res.status, JSON.stringify(res.json)).toBe(200);
@@ -203,12 +288,28 @@ describe("importing counts by square", () => {
     const fx = await makeSite();
     await gridTrench(fx);
     const n = fx.context.number;
-    const csv = [header, `0/0,${n},,FL,2,,`, `12/0,${n},,FL,2,,`, `4/2,${n},,FL,2,,`, `1/1,${n},,FL,-3,,`, `1/1,${n},,XX,3,,`, `1/1,${n},7,FL,3,,`, `1.5/1,${n},,FL,3,,`, `2/2,${n},,FL,,,`, `2/3,${n},,FL,1,,1.2`, `0/0,${n},,FL,5,,`].join("\n");
+    const csv = [
+      header,
+      `0/0,${n},,FL,2,,`,
+      `12/0,${n},,FL,2,,`,
+      `4/2,${n},,FL,2,,`,
+      `1/1,${n},,FL,-3,,`,
+      `1/1,${n},,XX,3,,`,
+      `1/1,${n},7,FL,3,,`,
+      `1.5/1,${n},,FL,3,,`,
+      `2/2,${n},,FL,,,`,
+      `2/3,${n},,FL,1,,1.2`,
+      `0/0,${n},,FL,5,,`,
+    ].join("\n");
     const before = await tableCounts();
     const res = await importCsv(fx, csv);
     expect(res.status).toBe(400);
-    expect(res.json.error).toBe("9 of 10 rows cannot be imported, so nothing was imported. Fix them and upload the file again.");
-    const reasons = Object.fromEntries(res.json.details.errors.map((e: { row: number; reasons: string[] }) => [e.row, e.reasons.join("; ")]));
+    expect(res.json.error).toBe(
+      "9 of 10 rows cannot be imported, so nothing was imported. Fix them and upload the file again.",
+    );
+    const reasons = Object.fromEntries(
+      res.json.details.errors.map((e: { row: number; reasons: string[] }) => [e.row, e.reasons.join("; ")]),
+    );
     expect(reasons).toEqual({
       3: "square 12/0 lies outside trench A",
       4: "square 4/2 lies outside trench A",

@@ -29,7 +29,8 @@ const OLD: [string, string][] = [
   ['"null": "random-labelling"', '"null": "labelling"'],
   ['"null": "a-fixed"', '"null": "fixed-a"'],
 ];
-const toOld = (json: unknown) => OLD.reduce((t, [now, old]) => t.split(now).join(old), JSON.stringify(json).replace(/":/g, '": '));
+const toOld = (json: unknown) =>
+  OLD.reduce((t, [now, old]) => t.split(now).join(old), JSON.stringify(json).replace(/":/g, '": '));
 
 describe("saved runs with the app's former test names", () => {
   it("are renamed by the migration and open and run again as before", async () => {
@@ -55,8 +56,14 @@ describe("saved runs with the app's former test names", () => {
     if (!fresh) throw new Error("run not stored");
 
     // Written back as an older Loamwork stored it.
-    const oldMethod = fresh.method.replace("l-envelope", "l-csr").replace("pcf-envelope", "pcf").replace("k-difference", "k-diff").replace("inhomogeneous-l", "inhom-l");
-    await db.execute(sql`UPDATE analysis_runs SET params = ${toOld(fresh.params)}::jsonb, result = ${toOld(fresh.result)}::jsonb, method = ${oldMethod} WHERE id = ${runId}`);
+    const oldMethod = fresh.method
+      .replace("l-envelope", "l-csr")
+      .replace("pcf-envelope", "pcf")
+      .replace("k-difference", "k-diff")
+      .replace("inhomogeneous-l", "inhom-l");
+    await db.execute(
+      sql`UPDATE analysis_runs SET params = ${toOld(fresh.params)}::jsonb, result = ${toOld(fresh.result)}::jsonb, method = ${oldMethod} WHERE id = ${runId}`,
+    );
     const [stale] = await db.select().from(s.analysisRuns).where(eq(s.analysisRuns.id, runId));
     expect(JSON.stringify(stale?.params)).toContain('"kind":"l-csr"');
     expect(JSON.stringify(stale?.result)).toContain('"null":"fixed-a"');
@@ -72,8 +79,15 @@ describe("saved runs with the app's former test names", () => {
 
     // It opens, and its stored request is accepted again as it stands.
     const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
-    expect(view.result.tests.map((t: { kind: string }) => t.kind)).toEqual(expect.arrayContaining(["l-envelope", "pcf-envelope", "cross-l", "k-difference", "inhomogeneous-l"]));
-    const again = await call(runsRoute, "POST", { siteId: d.siteId }, { scope: view.scope, tests: view.params.tests, params: { nsim: 19, seed: view.seed } });
+    expect(view.result.tests.map((t: { kind: string }) => t.kind)).toEqual(
+      expect.arrayContaining(["l-envelope", "pcf-envelope", "cross-l", "k-difference", "inhomogeneous-l"]),
+    );
+    const again = await call(
+      runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      { scope: view.scope, tests: view.params.tests, params: { nsim: 19, seed: view.seed } },
+    );
     expect(again.status, JSON.stringify(again.json)).toBe(201);
     await runsIdle();
     const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;

@@ -17,7 +17,18 @@ export function checkClarkEvans(fx: Fixture, W: Window): void {
   expectClose(ce.R, ref.R, source(fx, ref.call));
   expectClose(ce.z, ref.z, source(fx, "z of " + ref.callTest + " (SE = sqrt((4 - pi) |W| / (4 pi)) / n)"));
   expectClose(ce.pTwoSided, ref.pTwoSided, source(fx, ref.callTest), 1e-6, 1e-12);
-  expectClose(ce.pClustered, ref.pClustered, source(fx, "clarkevans.test(X, correction = 'none', alternative = 'clustered')"), 1e-6, 1e-12);
-  expectClose(ce.pRegular, ref.pRegular, source(fx, "clarkevans.test(X, correction = 'none', alternative = 'regular')"), 1e-6, 1e-12);
+  expectClose(
+    ce.pClustered,
+    ref.pClustered,
+    source(fx, "clarkevans.test(X, correction = 'none', alternative = 'clustered')"),
+    1e-6,
+    1e-12,
+  );
+  expectClose(
+    ce.pRegular,
+    ref.pRegular,
+    source(fx, "clarkevans.test(X, correction = 'none', alternative = 'regular')"),
+    1e-6,
+    1e-12,
+  );
 }
-

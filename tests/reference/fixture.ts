@@ -47,26 +47,61 @@ export interface Fixture {
   area: number;
   perimeter: number;
   nndist: number[];
-  clarkEvans: { R: number; z: number; pTwoSided: number; pClustered: number; pRegular: number; call: string; callTest: string };
+  clarkEvans: {
+    R: number;
+    z: number;
+    pTwoSided: number;
+    pClustered: number;
+    pRegular: number;
+    call: string;
+    callTest: string;
+  };
   quadrat?: {
-    nx: number; ny: number; X2: number; df: number; p: number;
-    observed: number[]; expected: number[]; tileAreas: number[]; call: string;
+    nx: number;
+    ny: number;
+    X2: number;
+    df: number;
+    p: number;
+    observed: number[];
+    expected: number[];
+    tileAreas: number[];
+    call: string;
   };
   r: number[];
   K: {
-    iso: (number | null)[]; border: (number | null)[]; transExact?: number[];
+    iso: (number | null)[];
+    border: (number | null)[];
+    transExact?: number[];
     L: { iso: (number | null)[]; border: (number | null)[]; transExact?: number[] };
-    call: string; callTransExact?: string;
+    call: string;
+    callTransExact?: string;
   };
   pcf?: { h: number; isoExact: (number | null)[]; transExact: (number | null)[]; call: string; callExact: string };
   Kinhom?: {
-    sigma: number; lambda: number[]; lambdaNoEdge: number[]; lambdaNoEdgeCall: string;
-    edgeMassExact: number[]; lambdaEdgeExact: number[]; edgeMassCall: string; scott: number; scottCall: string;
-    diggle: number; diggleH: number[]; diggleCV: (number | null)[]; diggleCall: string;
-    iso: (number | null)[]; isoRenormalised: (number | null)[]; call: string; callRenormalised: string;
+    sigma: number;
+    lambda: number[];
+    lambdaNoEdge: number[];
+    lambdaNoEdgeCall: string;
+    edgeMassExact: number[];
+    lambdaEdgeExact: number[];
+    edgeMassCall: string;
+    scott: number;
+    scottCall: string;
+    diggle: number;
+    diggleH: number[];
+    diggleCV: (number | null)[];
+    diggleCall: string;
+    iso: (number | null)[];
+    isoRenormalised: (number | null)[];
+    call: string;
+    callRenormalised: string;
   };
   cross?: Record<string, (number | null)[] | string>;
-  monteCarlo?: { poissonN: McBlock; fixedN?: McBlock; clarkEvans?: { nsim: number; seed: number; R: number; p: number; call: string } };
+  monteCarlo?: {
+    poissonN: McBlock;
+    fixedN?: McBlock;
+    clarkEvans?: { nsim: number; seed: number; R: number; p: number; call: string };
+  };
   defaultR?: { rmax: number; count: number; call: string };
 }
 
@@ -78,7 +113,9 @@ export function loadFixture(file: string): Fixture {
 }
 
 export function fixtureFiles(prefix: string): string[] {
-  return readdirSync(DIR).filter((f) => f.startsWith(prefix) && f.endsWith(".json")).sort();
+  return readdirSync(DIR)
+    .filter((f) => f.startsWith(prefix) && f.endsWith(".json"))
+    .sort();
 }
 
 /** "spatstat 3.0.3 (R 4.2.2), trench-l-random.json, Kest(...)" — the source named beside an expectation. */
@@ -93,12 +130,20 @@ export const REL = 1e-6;
 export function expectClose(actual: number, expected: number, label: string, rel = REL, abs = 1e-12): void {
   const tol = rel * Math.abs(expected) + abs;
   if (!(Math.abs(actual - expected) <= tol)) {
-    expect.fail(`${label}: engine ${actual}, reference ${expected} (difference ${actual - expected}, tolerance ${tol})`);
+    expect.fail(
+      `${label}: engine ${actual}, reference ${expected} (difference ${actual - expected}, tolerance ${tol})`,
+    );
   }
 }
 
 /** Compare a curve value by value; null in the reference (undefined in spatstat) is skipped. */
-export function expectCurve(actual: ArrayLike<number>, expected: (number | null)[], label: string, rel = REL, abs = 1e-12): void {
+export function expectCurve(
+  actual: ArrayLike<number>,
+  expected: (number | null)[],
+  label: string,
+  rel = REL,
+  abs = 1e-12,
+): void {
   expect(actual.length, `${label}: length`).toBe(expected.length);
   for (let k = 0; k < expected.length; k++) {
     const e = expected[k];

@@ -26,7 +26,8 @@ const fx = JSON.parse(readFileSync(path.join(__dirname, "fixtures", file), "utf8
   meta: { R: string; packages: Record<string, string> };
   cases: Record<string, BorderCase>;
 };
-const label = (c: BorderCase) => `spatstat ${fx.meta.packages.spatstat} / spatstat.explore ${fx.meta.packages["spatstat.explore"]} (${fx.meta.R}), ${file}, ${c.call}`;
+const label = (c: BorderCase) =>
+  `spatstat ${fx.meta.packages.spatstat} / spatstat.explore ${fx.meta.packages["spatstat.explore"]} (${fx.meta.R}), ${file}, ${c.call}`;
 
 describe("border correction beyond the deepest point (spatstat's NA)", () => {
   for (const [name, c] of Object.entries(fx.cases)) {
@@ -36,8 +37,14 @@ describe("border correction beyond the deepest point (spatstat's NA)", () => {
       const L = lFunction(W, c.points, { r: c.r, correction: "border" }).L.border!;
       const definedInR = c.border.map((v) => v !== null);
       expect(definedInR.filter(Boolean).length, label(c)).toBeLessThan(c.r.length); // the grid does reach beyond
-      expect(Array.from(K, (v) => Number.isFinite(v)), label(c)).toEqual(definedInR);
-      expect(Array.from(L, (v) => Number.isFinite(v)), label(c)).toEqual(definedInR);
+      expect(
+        Array.from(K, (v) => Number.isFinite(v)),
+        label(c),
+      ).toEqual(definedInR);
+      expect(
+        Array.from(L, (v) => Number.isFinite(v)),
+        label(c),
+      ).toEqual(definedInR);
       for (let k = 0; k < c.r.length; k++) {
         const e = c.border[k];
         if (e === null) continue;

@@ -6,7 +6,15 @@
  * of fixture.ts; with A fixed the observed MAD statistic is deterministic and checked to 1e-6.
  */
 import { describe, expect, it } from "vitest";
-import { runSimulations, globalTest, type GlobalStatistic, createRandom, fixedACurve, labellingCurve, type SimModel } from "@/lib/spatial";
+import {
+  runSimulations,
+  globalTest,
+  type GlobalStatistic,
+  createRandom,
+  fixedACurve,
+  labellingCurve,
+  type SimModel,
+} from "@/lib/spatial";
 import { classPoints, expectClose, fixtureFiles, loadFixture, pTolerance, source, type Fixture } from "./fixture";
 import { windowOf } from "./check-clark-evans";
 
@@ -29,15 +37,26 @@ async function engineRun(fx: Fixture, which: Case, statistic: GlobalStatistic) {
   const observed = new Float64Array(r.length);
   let model: SimModel;
   if (which === "fixedACrossL") {
-    const A = classPoints(fx, "A"), B = classPoints(fx, "B");
+    const A = classPoints(fx, "A"),
+      B = classPoints(fx, "B");
     model = { kind: "fixed-a", ax: A.x, ay: A.y, nB: B.x.length, count: "fixed", correction: "isotropic" };
     fixedACurve(W, r, model)(Float64Array.from(B.x), Float64Array.from(B.y), B.x.length, observed, 0);
   } else {
     const labels = fx.points.marks!.map((m) => (m === "A" ? 0 : 1));
-    model = { kind: "labelling", x: fx.points.x, y: fx.points.y, labels, statistic: which === "labellingCrossL" ? "cross-l" : "k-diff", correction: "isotropic" };
+    model = {
+      kind: "labelling",
+      x: fx.points.x,
+      y: fx.points.y,
+      labels,
+      statistic: which === "labellingCrossL" ? "cross-l" : "k-diff",
+      correction: "isotropic",
+    };
     labellingCurve(W, r, model)(Int32Array.from(labels), observed, 0);
   }
-  const set = await runSimulations({ window: windowInput, r: fx.r, model }, { seed: SEED, streamBase: 0, nsim: ENGINE_NSIM });
+  const set = await runSimulations(
+    { window: windowInput, r: fx.r, model },
+    { seed: SEED, streamBase: 0, nsim: ENGINE_NSIM },
+  );
   const theory = which === "fixedACrossL" ? r : undefined;
   return globalTest(observed, set, r, { statistic, theory, rng: createRandom(SEED, 1_000_000) });
 }
@@ -53,9 +72,13 @@ describe.each(files)("spatstat between-class Monte Carlo reference %s", (file) =
         const ref = mc[which][statistic];
         const res = await engineRun(fx, which, statistic);
         const label = source(fx, `${mc[which].envelopeCall}; ${ref.call} (nsim = ${mc.nsim})`);
-        if (which === "fixedACrossL" && statistic === "mad") expectClose(res.observed, ref.statistic, `${label}: mad statistic`);
+        if (which === "fixedACrossL" && statistic === "mad")
+          expectClose(res.observed, ref.statistic, `${label}: mad statistic`);
         const tol = pTolerance(ref.p, mc.nsim, res.pValue, res.nsim);
-        expect(Math.abs(res.pValue - ref.p), `${label}: engine p ${res.pValue} vs spatstat p ${ref.p}, tolerance ${tol}`).toBeLessThanOrEqual(tol);
+        expect(
+          Math.abs(res.pValue - ref.p),
+          `${label}: engine p ${res.pValue} vs spatstat p ${ref.p}, tolerance ${tol}`,
+        ).toBeLessThanOrEqual(tol);
       });
     }
   }

@@ -39,7 +39,8 @@ describe.each(fixtureFiles("dataset-"))("spatstat.data reference %s", (file) => 
     let tiesAtRMax = 0;
     for (let i = 0; i < fx.points.x.length; i++) {
       for (let j = i + 1; j < fx.points.x.length; j++) {
-        if (Math.abs(Math.hypot(fx.points.x[i] - fx.points.x[j], fx.points.y[i] - fx.points.y[j]) - rmax) < 1e-12) tiesAtRMax++;
+        if (Math.abs(Math.hypot(fx.points.x[i] - fx.points.x[j], fx.points.y[i] - fx.points.y[j]) - rmax) < 1e-12)
+          tiesAtRMax++;
       }
     }
     const upTo = (a: (number | null)[]) => (tiesAtRMax > 0 ? [...a.slice(0, -1), null] : a);

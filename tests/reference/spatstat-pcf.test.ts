@@ -15,7 +15,11 @@ describe.each(fixtureFiles("trench-"))("spatstat pair-correlation reference %s",
 
   it("has the exact-kernel g with isotropic and translation weights", () => {
     // fx.r starts at 0, where g is undefined; the engine drops it and spatstat's value there is null.
-    const res = pairCorrelation(W, { x: fx.points.x, y: fx.points.y }, { r: fx.r, correction: ["isotropic", "translation"] });
+    const res = pairCorrelation(
+      W,
+      { x: fx.points.x, y: fx.points.y },
+      { r: fx.r, correction: ["isotropic", "translation"] },
+    );
     expectClose(res.halfWidth, pcf.h, source(fx, "h = 0.15 / sqrt(npoints(X) / area(Window(X)))"));
     expectCurve(res.g.isotropic!, pcf.isoExact.slice(1), source(fx, pcf.callExact + " [wIso]"));
     expectCurve(res.g.translation!, pcf.transExact.slice(1), source(fx, pcf.callExact + " [wTrans]"));

@@ -25,7 +25,11 @@ describe.each(fixtureFiles("trench-"))("spatstat quadrat and inhomogeneous refer
     expect(res.df, `${label}: df`).toBe(q.df);
     expect(Array.from(res.observed), `${label}: observed counts, top row first`).toEqual(q.observed);
     expectCurve(res.expected, q.expected, `${label}: expected counts`);
-    expectCurve(Float64Array.from(res.layout.cells, (c) => c.area), q.tileAreas, `${label}: clipped cell areas`);
+    expectCurve(
+      Float64Array.from(res.layout.cells, (c) => c.area),
+      q.tileAreas,
+      `${label}: clipped cell areas`,
+    );
     expectClose(res.X2, q.X2, `${label}: X2`);
     expectClose(res.p, q.p, `${label}: p`, 1e-6, 1e-12);
   });
@@ -43,14 +47,22 @@ describe.each(fixtureFiles("trench-"))("spatstat quadrat and inhomogeneous refer
   });
 
   it("has Scott's bandwidth as spatstat's bw.scott(isotropic = TRUE)", () => {
-    expectClose(scottBandwidth({ x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) }), ki.scott, source(fx, ki.scottCall));
+    expectClose(
+      scottBandwidth({ x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) }),
+      ki.scott,
+      source(fx, ki.scottCall),
+    );
   });
 
   it("has spatstat's Berman–Diggle bandwidth and its criterion", () => {
     const res = diggleBandwidth(W, { x: Float64Array.from(pts.x), y: Float64Array.from(pts.y) });
     const label = source(fx, ki.diggleCall);
     // spatstat's h attribute holds σ = r/2; the engine's h holds r.
-    expectCurve(res.h.map((h) => h / 2), ki.diggleH, `${label}: sigma grid`);
+    expectCurve(
+      res.h.map((h) => h / 2),
+      ki.diggleH,
+      `${label}: sigma grid`,
+    );
     expectCurve(res.M, ki.diggleCV, `${label}: criterion M`);
     expectClose(res.sigma, ki.diggle, `${label}: sigma`);
   });

@@ -66,6 +66,10 @@ describe.each(trenchFiles)("spatstat reference %s", (file) => {
     expectCurve(iso.L.translation!, fx.K.L.transExact!, source(fx, "sqrt(K transExact / pi)"));
     const { r } = borderGrid(fx);
     const border = lFunction(W, pts, { r, correction: "border" });
-    expectCurve(border.L.border!, fx.K.L.border.slice(0, r.length), source(fx, "sqrt(Kest(..., correction = 'border')$border / pi)"));
+    expectCurve(
+      border.L.border!,
+      fx.K.L.border.slice(0, r.length),
+      source(fx, "sqrt(Kest(..., correction = 'border')$border / pi)"),
+    );
   });
 });

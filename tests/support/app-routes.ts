@@ -13,7 +13,12 @@ export function appRoutes(file: "page.tsx" | "route.ts", fill: (segment: string)
       if (entry.isDirectory()) walk(path.join(dir, entry.name));
       else if (entry.name === file) {
         const segments = path.relative(root, dir).split(path.sep).filter(Boolean);
-        out.push("/" + segments.map((s) => (s.startsWith("[...") ? fill("...") : s.startsWith("[") ? fill(s.slice(1, -1)) : s)).join("/"));
+        out.push(
+          "/" +
+            segments
+              .map((s) => (s.startsWith("[...") ? fill("...") : s.startsWith("[") ? fill(s.slice(1, -1)) : s))
+              .join("/"),
+        );
       }
     }
   };

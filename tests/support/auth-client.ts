@@ -9,14 +9,16 @@ import { NextRequest } from "next/server";
 const current = { cookie: "", headers: {} as Record<string, string> };
 
 vi.mock("next/headers", () => ({
-  headers: async () => new Headers({ host: "localhost:3000", "x-forwarded-proto": "http", ...current.headers, cookie: current.cookie }),
+  headers: async () =>
+    new Headers({ host: "localhost:3000", "x-forwarded-proto": "http", ...current.headers, cookie: current.cookie }),
   cookies: async () => {
     throw new Error("tests drive next-auth through its HTTP routes, not its server actions");
   },
 }));
 
 type AuthRoute = { GET: (req: NextRequest) => Promise<Response>; POST: (req: NextRequest) => Promise<Response> };
-const route = async (): Promise<AuthRoute> => (await import("@/app/api/auth/[...nextauth]/route")) as unknown as AuthRoute;
+const route = async (): Promise<AuthRoute> =>
+  (await import("@/app/api/auth/[...nextauth]/route")) as unknown as AuthRoute;
 
 const base = "http://localhost:3000";
 
@@ -37,14 +39,27 @@ export class CookieJar {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join("; ");
   }
   sessionCookie(): string {
-    return [...this.cookies].filter(([k]) => k.includes("session-token")).map(([k, v]) => `${k}=${v}`).join("; ");
+    return [...this.cookies]
+      .filter(([k]) => k.includes("session-token"))
+      .map(([k, v]) => `${k}=${v}`)
+      .join("; ");
   }
 }
 
-async function authCall(method: "GET" | "POST", path: string, jar: CookieJar, form?: Record<string, string>, extraHeaders: Record<string, string> = {}) {
+async function authCall(
+  method: "GET" | "POST",
+  path: string,
+  jar: CookieJar,
+  form?: Record<string, string>,
+  extraHeaders: Record<string, string> = {},
+) {
   const headers: Record<string, string> = { cookie: jar.header(), ...extraHeaders };
   if (form) headers["content-type"] = "application/x-www-form-urlencoded";
-  const req = new NextRequest(`${base}/api/auth/${path}`, { method, headers, body: form ? new URLSearchParams(form).toString() : undefined });
+  const req = new NextRequest(`${base}/api/auth/${path}`, {
+    method,
+    headers,
+    body: form ? new URLSearchParams(form).toString() : undefined,
+  });
   const res = await (await route())[method](req);
   jar.take(res);
   return res;
@@ -56,9 +71,20 @@ async function csrf(jar: CookieJar): Promise<string> {
 }
 
 /** Signs in through POST /api/auth/callback/credentials; the jar then holds the session cookie if it worked. */
-export async function signInOverHttp(jar: CookieJar, email: string, password: string, extraHeaders: Record<string, string> = {}): Promise<Response> {
+export async function signInOverHttp(
+  jar: CookieJar,
+  email: string,
+  password: string,
+  extraHeaders: Record<string, string> = {},
+): Promise<Response> {
   const csrfToken = await csrf(jar);
-  return authCall("POST", "callback/credentials", jar, { csrfToken, email, password, callbackUrl: `${base}/sites` }, extraHeaders);
+  return authCall(
+    "POST",
+    "callback/credentials",
+    jar,
+    { csrfToken, email, password, callbackUrl: `${base}/sites` },
+    extraHeaders,
+  );
 }
 
 /** Signs out through POST /api/auth/signout, as the sign-out button's request does. */
@@ -76,7 +102,11 @@ export async function sessionUserId(cookie: string): Promise<string | null> {
 }
 
 /** Runs `fn` as a request carrying this cookie header (what auth() and currentUserId() read), and these headers. */
-export async function asRequest<T>(cookie: string, fn: () => Promise<T>, headers: Record<string, string> = {}): Promise<T> {
+export async function asRequest<T>(
+  cookie: string,
+  fn: () => Promise<T>,
+  headers: Record<string, string> = {},
+): Promise<T> {
   current.cookie = cookie;
   current.headers = headers;
   try {

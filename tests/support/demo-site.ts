@@ -18,10 +18,20 @@ export interface DemoSite {
 export async function seedDemoSite(): Promise<DemoSite> {
   const db = await getDb();
   const { siteId } = await seedDemo(db);
-  const [trench] = await db.select().from(s.trenches).where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
+  const [trench] = await db
+    .select()
+    .from(s.trenches)
+    .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
   const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
   const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
   const people: Record<string, string> = {};
-  for (const u of DEMO_USERS) people[u.role] = (await db.select().from(s.users).where(eq(s.users.email, u.email)))[0].id;
-  return { siteId, trenchId: trench.id, people, ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])), cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) };
+  for (const u of DEMO_USERS)
+    people[u.role] = (await db.select().from(s.users).where(eq(s.users.email, u.email)))[0].id;
+  return {
+    siteId,
+    trenchId: trench.id,
+    people,
+    ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])),
+    cls: Object.fromEntries(classes.map((c) => [c.code, c.id])),
+  };
 }

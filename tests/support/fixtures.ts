@@ -8,15 +8,30 @@ const next = () => ++seq;
 export const squareWithBaulk = {
   type: "Polygon" as const,
   coordinates: [
-    [[0, 0], [10, 0], [10, 6], [0, 6], [0, 0]] as [number, number][],
-    [[4, 2], [4, 3], [6, 3], [6, 2], [4, 2]] as [number, number][],
+    [
+      [0, 0],
+      [10, 0],
+      [10, 6],
+      [0, 6],
+      [0, 0],
+    ] as [number, number][],
+    [
+      [4, 2],
+      [4, 3],
+      [6, 3],
+      [6, 2],
+      [4, 2],
+    ] as [number, number][],
   ],
 };
 
 export async function makeUser(name = `Person ${next()}`) {
   const db = await getDb();
   // A fixed bcrypt-free hash: these users never sign in through the password check.
-  const [u] = await db.insert(users).values({ email: `${name.toLowerCase().replace(/\W+/g, ".")}.${next()}@test.invalid`, name, passwordHash: "x" }).returning();
+  const [u] = await db
+    .insert(users)
+    .values({ email: `${name.toLowerCase().replace(/\W+/g, ".")}.${next()}@test.invalid`, name, passwordHash: "x" })
+    .returning();
   return u;
 }
 
@@ -24,7 +39,10 @@ export async function makeUser(name = `Person ${next()}`) {
 export async function makeSite() {
   const db = await getDb();
   const n = next();
-  const [site] = await db.insert(sites).values({ code: `T${n}`, name: `Test site ${n}` }).returning();
+  const [site] = await db
+    .insert(sites)
+    .values({ code: `T${n}`, name: `Test site ${n}` })
+    .returning();
   const people: Record<Role | "stranger", Awaited<ReturnType<typeof makeUser>>> = {
     digger: await makeUser("Digger"),
     specialist: await makeUser("Specialist"),
@@ -34,9 +52,18 @@ export async function makeSite() {
   for (const role of ["digger", "specialist", "director"] as const) {
     await db.insert(memberships).values({ siteId: site.id, userId: people[role].id, role });
   }
-  const [trench] = await db.insert(trenches).values({ siteId: site.id, code: "A", outline: squareWithBaulk }).returning();
-  const [context] = await db.insert(contexts).values({ siteId: site.id, trenchId: trench.id, number: 1000 + n, type: "layer" }).returning();
-  const [cls] = await db.insert(artefactClasses).values({ siteId: site.id, code: "FL", label: "Flint flake", colour: "#0072b2", symbol: "triangle" }).returning();
+  const [trench] = await db
+    .insert(trenches)
+    .values({ siteId: site.id, code: "A", outline: squareWithBaulk })
+    .returning();
+  const [context] = await db
+    .insert(contexts)
+    .values({ siteId: site.id, trenchId: trench.id, number: 1000 + n, type: "layer" })
+    .returning();
+  const [cls] = await db
+    .insert(artefactClasses)
+    .values({ siteId: site.id, code: "FL", label: "Flint flake", colour: "#0072b2", symbol: "triangle" })
+    .returning();
   return { site, people, trench, context, cls };
 }
 

@@ -12,7 +12,10 @@ beforeAll(async () => {
   await getDb();
 }, 120_000);
 
-type RouteModule = Record<string, (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>>;
+type RouteModule = Record<
+  string,
+  (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>
+>;
 
 /** Calls a route handler the way Next does, as `userId`, and returns status and parsed JSON. */
 export async function call(

@@ -37,14 +37,27 @@ export type Updatable = {
 };
 
 const text = (max = 40) => fc.string({ maxLength: max }).map((s) => s.trim());
-const label = fc.string({ minLength: 1, maxLength: 30 }).map((s) => s.trim()).filter((s) => s.length > 0);
+const label = fc
+  .string({ minLength: 1, maxLength: 30 })
+  .map((s) => s.trim())
+  .filter((s) => s.length > 0);
 /** Decimals with three places, never -0 (JSON writes -0 as 0). */
 const decimal = (min: number, max: number) => fc.integer({ min: min * 1000, max: max * 1000 }).map((n) => n / 1000 + 0);
 const rectangle = (x0: number, y0: number) =>
-  fc.record({ x: decimal(x0, x0 + 5), y: decimal(y0, y0 + 5), w: decimal(1, 20), h: decimal(1, 20) }).map(({ x, y, w, h }) => ({
-    type: "Polygon" as const,
-    coordinates: [[[x, y], [x + w, y], [x + w, y + h], [x, y + h], [x, y]]],
-  }));
+  fc
+    .record({ x: decimal(x0, x0 + 5), y: decimal(y0, y0 + 5), w: decimal(1, 20), h: decimal(1, 20) })
+    .map(({ x, y, w, h }) => ({
+      type: "Polygon" as const,
+      coordinates: [
+        [
+          [x, y],
+          [x + w, y],
+          [x + w, y + h],
+          [x, y + h],
+          [x, y],
+        ],
+      ],
+    }));
 const utm30 = "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs";
 
 async function rowOf(table: any, id: string) {
@@ -57,26 +70,49 @@ export const updatables: Record<string, Updatable> = {
   datumUpdate: {
     mod: datumRoute,
     target: async (fx) => ({ params: { siteId: fx.site.id }, read: () => rowOf(schema.sites, fx.site.id) }),
-    fields: () => ({ datumKind: fc.constantFrom("national", "local"), datumName: label, levelTolerance: decimal(0, 0.5) }),
+    fields: () => ({
+      datumKind: fc.constantFrom("national", "local"),
+      datumName: label,
+      levelTolerance: decimal(0, 0.5),
+    }),
   },
   benchmarkUpdate: {
     mod: benchmarkRoute,
     target: async (fx) => {
       const db = await getDb();
-      const [b] = await db.insert(schema.benchmarks).values({ siteId: fx.site.id, code: `TBM ${unique()}`, description: "", x: 0, y: 0, level: 50 }).returning();
+      const [b] = await db
+        .insert(schema.benchmarks)
+        .values({ siteId: fx.site.id, code: `TBM ${unique()}`, description: "", x: 0, y: 0, level: 50 })
+        .returning();
       return { params: { siteId: fx.site.id, benchmarkId: b!.id }, read: () => rowOf(schema.benchmarks, b!.id) };
     },
-    fields: () => ({ code: label.map((c) => c.slice(0, 40)), description: text(), x: decimal(-1000, 1000), y: decimal(-1000, 1000), level: decimal(-100, 3000) }),
+    fields: () => ({
+      code: label.map((c) => c.slice(0, 40)),
+      description: text(),
+      x: decimal(-1000, 1000),
+      y: decimal(-1000, 1000),
+      level: decimal(-100, 3000),
+    }),
   },
   spitUpdate: {
     mod: spitRoute,
     target: async (fx) => {
       const db = await getDb();
-      const [s] = await db.insert(schema.spits).values({ siteId: fx.site.id, contextId: fx.context.id, number: 1 }).returning();
-      return { params: { siteId: fx.site.id, contextId: fx.context.id, spitId: s!.id }, read: () => rowOf(schema.spits, s!.id) };
+      const [s] = await db
+        .insert(schema.spits)
+        .values({ siteId: fx.site.id, contextId: fx.context.id, number: 1 })
+        .returning();
+      return {
+        params: { siteId: fx.site.id, contextId: fx.context.id, spitId: s!.id },
+        read: () => rowOf(schema.spits, s!.id),
+      };
     },
     // Tops above bases whatever subset is sent, so every patch is valid.
-    fields: () => ({ number: fc.integer({ min: 1, max: 999 }), topLevel: fc.constantFrom(null, 45.5, 44.125), baseLevel: fc.constantFrom(null, 40.25, 39.5) }),
+    fields: () => ({
+      number: fc.integer({ min: 1, max: 999 }),
+      topLevel: fc.constantFrom(null, 45.5, 44.125),
+      baseLevel: fc.constantFrom(null, 40.25, 39.5),
+    }),
   },
   siteUpdate: {
     mod: siteRoute,
@@ -102,7 +138,10 @@ export const updatables: Record<string, Updatable> = {
       return {
         params: { siteId: fx.site.id, userId: u.id },
         read: async () => {
-          const [row] = await db.select().from(schema.memberships).where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, u.id)));
+          const [row] = await db
+            .select()
+            .from(schema.memberships)
+            .where(and(eq(schema.memberships.siteId, fx.site.id), eq(schema.memberships.userId, u.id)));
           return row as Record<string, unknown>;
         },
       };
@@ -113,7 +152,10 @@ export const updatables: Record<string, Updatable> = {
     mod: classRoute,
     target: async (fx) => {
       const db = await getDb();
-      const [c] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `K${unique()}`, label: "Sherd", colour: "#009e73", symbol: "disc" }).returning();
+      const [c] = await db
+        .insert(schema.artefactClasses)
+        .values({ siteId: fx.site.id, code: `K${unique()}`, label: "Sherd", colour: "#009e73", symbol: "disc" })
+        .returning();
       return { params: { siteId: fx.site.id, classId: c.id }, read: () => rowOf(schema.artefactClasses, c.id) };
     },
     fields: () => ({
@@ -129,7 +171,25 @@ export const updatables: Record<string, Updatable> = {
     mod: trenchRoute,
     target: async (fx) => {
       const db = await getDb();
-      const [t] = await db.insert(schema.trenches).values({ siteId: fx.site.id, code: `U${unique()}`, outline: { type: "Polygon", coordinates: [[[0, 0], [5, 0], [5, 5], [0, 5], [0, 0]]] } }).returning();
+      const [t] = await db
+        .insert(schema.trenches)
+        .values({
+          siteId: fx.site.id,
+          code: `U${unique()}`,
+          outline: {
+            type: "Polygon",
+            coordinates: [
+              [
+                [0, 0],
+                [5, 0],
+                [5, 5],
+                [0, 5],
+                [0, 0],
+              ],
+            ],
+          },
+        })
+        .returning();
       return { params: { siteId: fx.site.id, trenchId: t.id }, read: () => rowOf(schema.trenches, t.id) };
     },
     fields: () => ({
@@ -147,7 +207,10 @@ export const updatables: Record<string, Updatable> = {
     mod: contextRoute,
     target: async (fx) => {
       const db = await getDb();
-      const [c] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 300_000 + unique(), type: "fill" }).returning();
+      const [c] = await db
+        .insert(schema.contexts)
+        .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 300_000 + unique(), type: "fill" })
+        .returning();
       return { params: { siteId: fx.site.id, contextId: c.id }, read: () => rowOf(schema.contexts, c.id) };
     },
     fields: () => ({
@@ -165,8 +228,14 @@ export const updatables: Record<string, Updatable> = {
       thicknessM: fc.option(decimal(0, 3), { nil: null }),
       excavatedBy: text(),
       // Opened in May, closed in June: any subset keeps the dates in order.
-      openedOn: fc.option(fc.integer({ min: 1, max: 31 }).map((d) => `2026-05-${String(d).padStart(2, "0")}`), { nil: null }),
-      closedOn: fc.option(fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`), { nil: null }),
+      openedOn: fc.option(
+        fc.integer({ min: 1, max: 31 }).map((d) => `2026-05-${String(d).padStart(2, "0")}`),
+        { nil: null },
+      ),
+      closedOn: fc.option(
+        fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`),
+        { nil: null },
+      ),
       digMethod: fc.constantFrom(null, "sieved"),
       sieveMeshMm: fc.option(fc.constantFrom(2, 4, 10), { nil: null }),
     }),
@@ -177,7 +246,16 @@ export const updatables: Record<string, Updatable> = {
       const db = await getDb();
       const [f] = await db
         .insert(schema.finds)
-        .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 500_000 + unique(), x: 1, y: 1, method: "typed" })
+        .values({
+          siteId: fx.site.id,
+          trenchId: fx.trench.id,
+          contextId: fx.context.id,
+          classId: fx.cls.id,
+          number: 500_000 + unique(),
+          x: 1,
+          y: 1,
+          method: "typed",
+        })
         .returning();
       return { params: { siteId: fx.site.id, findId: f.id }, read: () => rowOf(schema.finds, f.id) };
     },
@@ -195,13 +273,34 @@ export const updatables: Record<string, Updatable> = {
   },
 };
 
-const sampleTypes = ["bulk", "spot", "charcoal", "monolith", "micromorphology", "pollen", "luminescence", "other"] as const;
+const sampleTypes = [
+  "bulk",
+  "spot",
+  "charcoal",
+  "monolith",
+  "micromorphology",
+  "pollen",
+  "luminescence",
+  "other",
+] as const;
 
 updatables.sampleUpdate = {
   mod: sampleRoute,
   target: async (fx) => {
     const db = await getDb();
-    const [s] = await db.insert(schema.samples).values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, number: 600_000 + unique(), type: "bulk", takenOn: "2026-07-01", x: 1, y: 1 }).returning();
+    const [s] = await db
+      .insert(schema.samples)
+      .values({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        contextId: fx.context.id,
+        number: 600_000 + unique(),
+        type: "bulk",
+        takenOn: "2026-07-01",
+        x: 1,
+        y: 1,
+      })
+      .returning();
     // Spit 1 in both contexts, so a sample taken from spit 1 may move between them.
     const spitIds = new Map<string, number>();
     for (const contextId of [fx.context.id, (fx as UpdateFixture).alt?.contextId].filter(Boolean) as string[]) {
@@ -210,7 +309,7 @@ updatables.sampleUpdate = {
     }
     const read = async () => {
       const row = await rowOf(schema.samples, s!.id);
-      return { ...row, spit: row.spitId ? spitIds.get(row.spitId as string) ?? null : null };
+      return { ...row, spit: row.spitId ? (spitIds.get(row.spitId as string) ?? null) : null };
     };
     return { params: { siteId: fx.site.id, sampleId: s!.id }, read };
   },
@@ -233,7 +332,13 @@ updatables.sampleUpdate = {
 export async function makeUpdateSite(): Promise<UpdateFixture> {
   const fx = await makeSite();
   const db = await getDb();
-  const [ctx] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 400_000 + unique(), type: "deposit" }).returning();
-  const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `ALT${unique()}`, label: "Burnt bone", colour: "#d55e00", symbol: "square" }).returning();
+  const [ctx] = await db
+    .insert(schema.contexts)
+    .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 400_000 + unique(), type: "deposit" })
+    .returning();
+  const [cls] = await db
+    .insert(schema.artefactClasses)
+    .values({ siteId: fx.site.id, code: `ALT${unique()}`, label: "Burnt bone", colour: "#d55e00", symbol: "square" })
+    .returning();
   return { ...fx, alt: { contextId: ctx.id, classId: cls.id } };
 }

@@ -13,12 +13,51 @@ const trenchId = "9e8d7c6b-5a49-4382-9170-6f5e4d3c2b1a";
 /** One open context in a 10 m × 6 m trench, one class, no finds yet. */
 const lookups: ImportLookups = {
   classes: new Map([["FL", classId]]),
-  contexts: new Map([[1001, { id: contextId, number: 1001, trenchId, state: "open", signedOffBy: null, signedOffAt: null, submittedBy: null, submittedAt: null }]]),
-  trenches: new Map([[trenchId, { code: "A", window: createWindow({ outer: [[0, 0], [10, 0], [10, 6], [0, 6]], holes: [] }) }]]),
+  contexts: new Map([
+    [
+      1001,
+      {
+        id: contextId,
+        number: 1001,
+        trenchId,
+        state: "open",
+        signedOffBy: null,
+        signedOffAt: null,
+        submittedBy: null,
+        submittedAt: null,
+      },
+    ],
+  ]),
+  trenches: new Map([
+    [
+      trenchId,
+      {
+        code: "A",
+        window: createWindow({
+          outer: [
+            [0, 0],
+            [10, 0],
+            [10, 6],
+            [0, 6],
+          ],
+          holes: [],
+        }),
+      },
+    ],
+  ]),
   usedNumbers: new Set(),
   nextNumber: 1,
 };
-const mapping: ImportMapping = { x: "E", y: "N", z: "Z", classCode: "Class", contextNumber: "Ctx", count: "Count", weightG: "Weight", description: "Notes" };
+const mapping: ImportMapping = {
+  x: "E",
+  y: "N",
+  z: "Z",
+  classCode: "Class",
+  contextNumber: "Ctx",
+  count: "Count",
+  weightG: "Weight",
+  description: "Notes",
+};
 
 function check(row: string) {
   return validateRows(parseCsv(`E;N;Z;Class;Ctx;Count;Weight;Notes\n${row}`), mapping, lookups);
@@ -40,8 +79,12 @@ describe("a find's rules are written once: the import checks rows with the API's
   });
 
   it("refuses a count or a weight beyond what the API accepts, in the API's words", () => {
-    expect(check("2;3;;FL;1001;2000000;;").errors).toEqual([{ row: 2, reasons: [`count "2000000": ${apiMessage("count", 2_000_000)}`] }]);
-    expect(check("2;3;;FL;1001;;20000000;").errors).toEqual([{ row: 2, reasons: [`weight "20000000": ${apiMessage("weightG", 20_000_000)}`] }]);
+    expect(check("2;3;;FL;1001;2000000;;").errors).toEqual([
+      { row: 2, reasons: [`count "2000000": ${apiMessage("count", 2_000_000)}`] },
+    ]);
+    expect(check("2;3;;FL;1001;;20000000;").errors).toEqual([
+      { row: 2, reasons: [`weight "20000000": ${apiMessage("weightG", 20_000_000)}`] },
+    ]);
     expect(check("2;3;;FL;1001;1.5;;").errors[0]?.reasons).toEqual([`count "1.5": A count is a whole number.`]);
   });
 
@@ -60,13 +103,36 @@ describe("the plan's quick form checks with the same rules", () => {
   const form = { classId, contextId, z: "", count: "", weightG: "", description: "" };
 
   it("reads blank numbers as none and typed ones as numbers", () => {
-    expect(findFormSchema.parse({ ...form, z: "41.250", count: "3", weightG: "0" })).toEqual({ classId, contextId, z: 41.25, count: 3, weightG: 0, description: "" });
-    expect(findFormSchema.parse(form)).toEqual({ classId, contextId, z: null, count: null, weightG: null, description: "" });
+    expect(findFormSchema.parse({ ...form, z: "41.250", count: "3", weightG: "0" })).toEqual({
+      classId,
+      contextId,
+      z: 41.25,
+      count: 3,
+      weightG: 0,
+      description: "",
+    });
+    expect(findFormSchema.parse(form)).toEqual({
+      classId,
+      contextId,
+      z: null,
+      count: null,
+      weightG: null,
+      description: "",
+    });
   });
 
   it("names an empty choice and refuses what the API refuses, in the API's words", () => {
-    const messages = (v: Record<string, string>) => Object.fromEntries((findFormSchema.safeParse({ ...form, ...v }).error?.issues ?? []).map((i) => [i.path[0], i.message]));
-    expect(messages({ classId: "", contextId: "" })).toEqual({ classId: "Pick the find's class.", contextId: "Pick the context it came from." });
-    expect(messages({ count: "2000000", weightG: "-1" })).toEqual({ count: apiMessage("count", 2_000_000), weightG: apiMessage("weightG", -1) });
+    const messages = (v: Record<string, string>) =>
+      Object.fromEntries(
+        (findFormSchema.safeParse({ ...form, ...v }).error?.issues ?? []).map((i) => [i.path[0], i.message]),
+      );
+    expect(messages({ classId: "", contextId: "" })).toEqual({
+      classId: "Pick the find's class.",
+      contextId: "Pick the context it came from.",
+    });
+    expect(messages({ count: "2000000", weightG: "-1" })).toEqual({
+      count: apiMessage("count", 2_000_000),
+      weightG: apiMessage("weightG", -1),
+    });
   });
 });

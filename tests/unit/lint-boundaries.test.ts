@@ -27,7 +27,8 @@ async function refusals(fixture: string, lintedAs: string) {
 
 const noDatabase = "Pages and components get their data from a read function in lib/server, never from db/ or Drizzle.";
 const noServerCode = "Components are client code: they may import types from lib/server, never its code.";
-const pureEngine = "The engine is pure TypeScript: no app, components, db, lib/server, React, Next, node:os or piscina.";
+const pureEngine =
+  "The engine is pure TypeScript: no app, components, db, lib/server, React, Next, node:os or piscina.";
 
 describe("import boundaries", () => {
   it("refuses db/ and Drizzle in a page, by alias, by relative path and by package subpath", async () => {
@@ -57,7 +58,9 @@ describe("import boundaries", () => {
 
   it("refuses lib/server in db/", async () => {
     const found = await refusals("db-imports-server.ts", "db/example.ts");
-    expect(found).toEqual([{ line: 2, message: "db/ is the schema and the client only: it never imports lib/server." }]);
+    expect(found).toEqual([
+      { line: 2, message: "db/ is the schema and the client only: it never imports lib/server." },
+    ]);
   });
 
   it("refuses components in lib/server but allows db/", async () => {

@@ -4,14 +4,23 @@ import { NextRequest } from "next/server";
 import { unstable_doesMiddlewareMatch } from "next/experimental/testing/server";
 import nextConfig from "@/next.config";
 import { config as proxyConfig, proxy } from "@/proxy";
-import { API_CONTENT_SECURITY_POLICY, SERVICE_WORKER_CONTENT_SECURITY_POLICY, pageContentSecurityPolicy, securityHeaders, uploadOrigin } from "@/lib/security-headers";
+import {
+  API_CONTENT_SECURITY_POLICY,
+  SERVICE_WORKER_CONTENT_SECURITY_POLICY,
+  pageContentSecurityPolicy,
+  securityHeaders,
+  uploadOrigin,
+} from "@/lib/security-headers";
 
 const UPLOAD_STAND_IN = "http://127.0.0.1:4321";
 process.env.UPLOADTHING_INGEST_URL = `${UPLOAD_STAND_IN}/ingest`;
 
 /** One directive's sources, e.g. directive(policy, "script-src") → ["'self'", "'nonce-…'", …]. */
 function directive(policy: string, name: string): string[] | undefined {
-  const found = policy.split(";").map((d) => d.trim().split(/\s+/)).find(([n]) => n === name);
+  const found = policy
+    .split(";")
+    .map((d) => d.trim().split(/\s+/))
+    .find(([n]) => n === name);
   return found?.slice(1);
 }
 
@@ -21,7 +30,10 @@ function routesOf(file: "page.tsx" | "route.ts"): string[] {
 }
 
 describe("the page policy", () => {
-  const policy = pageContentSecurityPolicy({ nonce: "bm9uY2U=", connectOrigins: [uploadOrigin(`${UPLOAD_STAND_IN}/x`)] });
+  const policy = pageContentSecurityPolicy({
+    nonce: "bm9uY2U=",
+    connectOrigins: [uploadOrigin(`${UPLOAD_STAND_IN}/x`)],
+  });
 
   it("lets scripts run only with the request's nonce, never inline", () => {
     expect(directive(policy, "script-src")).toEqual(["'self'", "'nonce-bm9uY2U='", "'strict-dynamic'"]);
@@ -64,7 +76,9 @@ describe("every page and every API route answers with the security headers", () 
 
   it("finds the app's pages and routes", () => {
     expect(pages).toContain("/sign-in");
-    expect(pages).toContain("/sites/00000000-0000-4000-8000-000000000001/trenches/00000000-0000-4000-8000-000000000001");
+    expect(pages).toContain(
+      "/sites/00000000-0000-4000-8000-000000000001/trenches/00000000-0000-4000-8000-000000000001",
+    );
     expect(apiRoutes).toContain("/api/health");
   });
 
@@ -72,7 +86,9 @@ describe("every page and every API route answers with the security headers", () 
     it(`page ${page}: the proxy runs and sets a fresh nonce policy`, () => {
       expect(unstable_doesMiddlewareMatch({ config: proxyConfig, url: page })).toBe(true);
       const nonces = [0, 1].map(() => {
-        const res = proxy(new NextRequest(`http://localhost${page}`, { headers: { cookie: "authjs.session-token=x" } }));
+        const res = proxy(
+          new NextRequest(`http://localhost${page}`, { headers: { cookie: "authjs.session-token=x" } }),
+        );
         const policy = res.headers.get("content-security-policy") ?? "";
         const nonce = res.headers.get("x-middleware-request-x-nonce");
         expect(nonce).toBeTruthy();
@@ -112,7 +128,9 @@ describe("every page and every API route answers with the security headers", () 
     expect(routes.filter((r) => !r.startsWith("/api/"))).toEqual(["/serwist/00000000-0000-4000-8000-000000000001"]);
     const rules = await nextConfig.headers!();
     expect(unstable_doesMiddlewareMatch({ config: proxyConfig, url: "/serwist/sw.js" })).toBe(false);
-    const matching = rules.filter((r) => unstable_doesMiddlewareMatch({ config: { matcher: r.source }, url: "/serwist/sw.js" }));
+    const matching = rules.filter((r) =>
+      unstable_doesMiddlewareMatch({ config: { matcher: r.source }, url: "/serwist/sw.js" }),
+    );
     const headers = Object.fromEntries(matching.flatMap((r) => r.headers.map((h) => [h.key, h.value])));
     expect(headers).toMatchObject(securityHeaders(SERVICE_WORKER_CONTENT_SECURITY_POLICY));
     // The worker fetches and keeps this origin's answers and nothing else.

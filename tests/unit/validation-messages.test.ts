@@ -20,23 +20,80 @@ import { fieldLabel, fieldLabels } from "@/lib/schemas/messages";
  * spread of bad values, and checks that no message zod's own English locale would write comes back: each
  * refusal is worded by the schema or by Loamwork's one error map (lib/schemas/messages.ts).
  */
-const modules = { account, artefactClass, common, context, exportSchemas, find, importSchemas, levels, relation, signOff, site, trench, runSchemas };
-const probes: unknown[] = [undefined, null, "", "   ", "x", "not-a-uuid", -1, 0, 0.5, 1.5, -1e12, 1e12, "a".repeat(10_001), true, [], {}, ["x"], "2026-02-30x", "#zzzzzz"];
+const modules = {
+  account,
+  artefactClass,
+  common,
+  context,
+  exportSchemas,
+  find,
+  importSchemas,
+  levels,
+  relation,
+  signOff,
+  site,
+  trench,
+  runSchemas,
+};
+const probes: unknown[] = [
+  undefined,
+  null,
+  "",
+  "   ",
+  "x",
+  "not-a-uuid",
+  -1,
+  0,
+  0.5,
+  1.5,
+  -1e12,
+  1e12,
+  "a".repeat(10_001),
+  true,
+  [],
+  {},
+  ["x"],
+  "2026-02-30x",
+  "#zzzzzz",
+];
 const english = z.locales.en();
 /** The openings of zod's own English messages (zod 4's locales/en.ts). */
-const libraryWords = /^(Invalid (input|option|string|UUID|email|key|element|value|union|date|number|format)|Too (small|big)|Unrecognized key|Expected |Required$)/;
+const libraryWords =
+  /^(Invalid (input|option|string|UUID|email|key|element|value|union|date|number|format)|Too (small|big)|Unrecognized key|Expected |Required$)/;
 
-type Def = { type: string; shape?: Record<string, z.ZodType>; innerType?: z.ZodType; in?: z.ZodType; out?: z.ZodType; element?: z.ZodType; options?: z.ZodType[]; getter?: () => z.ZodType };
+type Def = {
+  type: string;
+  shape?: Record<string, z.ZodType>;
+  innerType?: z.ZodType;
+  in?: z.ZodType;
+  out?: z.ZodType;
+  element?: z.ZodType;
+  options?: z.ZodType[];
+  getter?: () => z.ZodType;
+};
 const def = (s: z.ZodType) => (s as unknown as { _zod: { def: Def } })._zod.def;
 
 /** The object shapes inside a schema (through defaults, optionals, pipes, lists and unions), each with how to wrap an input in it. */
-function objectsIn(s: z.ZodType, wrap: (v: unknown) => unknown, depth = 0): { shape: Record<string, z.ZodType>; wrap: (v: unknown) => unknown; base: Record<string, unknown> }[] {
+function objectsIn(
+  s: z.ZodType,
+  wrap: (v: unknown) => unknown,
+  depth = 0,
+): { shape: Record<string, z.ZodType>; wrap: (v: unknown) => unknown; base: Record<string, unknown> }[] {
   if (depth > 6) return [];
   const d = def(s);
   switch (d.type) {
     case "object":
-      return [{ shape: d.shape!, wrap, base: {} }, ...Object.entries(d.shape!).flatMap(([k, f]) => objectsIn(f, (v) => wrap({ [k]: v }), depth + 1))];
-    case "optional": case "nullable": case "default": case "prefault": case "catch": case "readonly": case "nonoptional":
+      return [
+        { shape: d.shape!, wrap, base: {} },
+        ...Object.entries(d.shape!).flatMap(([k, f]) => objectsIn(f, (v) => wrap({ [k]: v }), depth + 1)),
+      ];
+    case "optional":
+    case "nullable":
+    case "default":
+    case "prefault":
+    case "catch":
+    case "readonly":
+    case "nonoptional":
       return objectsIn(d.innerType!, wrap, depth + 1);
     case "pipe":
       return [...objectsIn(d.in!, wrap, depth + 1), ...objectsIn(d.out!, wrap, depth + 1)];
@@ -46,8 +103,13 @@ function objectsIn(s: z.ZodType, wrap: (v: unknown) => unknown, depth = 0): { sh
       return d.options!.flatMap((o) => {
         const inner = objectsIn(o, wrap, depth + 1);
         // A discriminated option is probed with its own tag, so its other fields are reached.
-        const tag = def(o).type === "object" ? Object.entries(def(o).shape!).find(([, f]) => def(f).type === "literal") : undefined;
-        const lit = tag ? (tag[1] as unknown as { _zod: { def: { values: unknown[] } } })._zod.def.values[0] : undefined;
+        const tag =
+          def(o).type === "object"
+            ? Object.entries(def(o).shape!).find(([, f]) => def(f).type === "literal")
+            : undefined;
+        const lit = tag
+          ? (tag[1] as unknown as { _zod: { def: { values: unknown[] } } })._zod.def.values[0]
+          : undefined;
         return inner.map((x, i) => (i === 0 && tag ? { ...x, base: { [tag[0]]: lit } } : x));
       });
     case "lazy":
@@ -58,13 +120,27 @@ function objectsIn(s: z.ZodType, wrap: (v: unknown) => unknown, depth = 0): { sh
 }
 
 const schemas = Object.entries(modules).flatMap(([m, mod]) =>
-  Object.entries(mod).filter(([, v]) => v instanceof z.ZodType).map(([name, v]) => [`${m}.${name}`, v as z.ZodType] as const),
+  Object.entries(mod)
+    .filter(([, v]) => v instanceof z.ZodType)
+    .map(([name, v]) => [`${m}.${name}`, v as z.ZodType] as const),
 );
 
 describe("validation messages", () => {
   it("walks the schemas of every form and import", () => {
     const names = schemas.map(([n]) => n);
-    for (const n of ["context.contextCreateSchema", "find.findFormSchema", "find.findUpdateSchema", "importSchemas.importMappingSchema", "relation.relationCreateSchema", "site.siteCreateSchema", "artefactClass.artefactClassCreateSchema", "levels.spitCreateSchema", "runSchemas.runCreateSchema", "signOff.reopenSchema", "account.invitationAcceptSchema"]) {
+    for (const n of [
+      "context.contextCreateSchema",
+      "find.findFormSchema",
+      "find.findUpdateSchema",
+      "importSchemas.importMappingSchema",
+      "relation.relationCreateSchema",
+      "site.siteCreateSchema",
+      "artefactClass.artefactClassCreateSchema",
+      "levels.spitCreateSchema",
+      "runSchemas.runCreateSchema",
+      "signOff.reopenSchema",
+      "account.invitationAcceptSchema",
+    ]) {
       expect(names).toContain(n);
     }
   });
@@ -74,14 +150,16 @@ describe("validation messages", () => {
     let seen = 0;
     for (const [name, schema] of schemas) {
       const inputs: unknown[] = [...probes];
-      for (const o of objectsIn(schema, (v) => v)) for (const key of Object.keys(o.shape)) for (const p of probes) inputs.push(o.wrap({ ...o.base, [key]: p }));
+      for (const o of objectsIn(schema, (v) => v))
+        for (const key of Object.keys(o.shape)) for (const p of probes) inputs.push(o.wrap({ ...o.base, [key]: p }));
       for (const input of inputs) {
         const out = schema.safeParse(input);
         for (const issue of out.error?.issues ?? []) {
           seen++;
           const raw = english.localeError(issue as never);
           const stock = typeof raw === "string" ? raw : raw?.message;
-          if (issue.message === stock || libraryWords.test(issue.message)) leaks.push(`${name} ${JSON.stringify(issue.path)}: ${issue.message}`);
+          if (issue.message === stock || libraryWords.test(issue.message))
+            leaks.push(`${name} ${JSON.stringify(issue.path)}: ${issue.message}`);
         }
       }
     }
@@ -91,15 +169,25 @@ describe("validation messages", () => {
 
   it("has a label for every field of those schemas", () => {
     const unlabelled = new Set<string>();
-    for (const [, schema] of schemas) for (const o of objectsIn(schema, (v) => v)) for (const key of Object.keys(o.shape)) if (!(key in fieldLabels)) unlabelled.add(key);
+    for (const [, schema] of schemas)
+      for (const o of objectsIn(schema, (v) => v))
+        for (const key of Object.keys(o.shape)) if (!(key in fieldLabels)) unlabelled.add(key);
     expect([...unlabelled]).toEqual([]);
   });
 
   it("names the field in the trade's words (examples from the context sheet and the import)", () => {
     // The sheet without a number: the message a user met was "Too small: expected number to be >=1".
-    const sheet = context.contextCreateSchema.safeParse({ trenchId: "6f1c2a8e-6a59-4a2b-9a57-6c1f3f0f9b21", number: 0, type: "layer" });
+    const sheet = context.contextCreateSchema.safeParse({
+      trenchId: "6f1c2a8e-6a59-4a2b-9a57-6c1f3f0f9b21",
+      number: 0,
+      type: "layer",
+    });
     expect(sheet.error?.issues.map((i) => i.message)).toEqual(["A context number starts at 1."]);
-    expect(importSchemas.importMappingSchema.safeParse({ x: "E", y: "N", classCode: "Code" }).error?.issues.map((i) => i.message)).toEqual(["Context is missing: fill it in."]);
+    expect(
+      importSchemas.importMappingSchema
+        .safeParse({ x: "E", y: "N", classCode: "Code" })
+        .error?.issues.map((i) => i.message),
+    ).toEqual(["Context is missing: fill it in."]);
     expect(fieldLabel(["scope", "contextIds", 0])).toBe("Contexts");
   });
 });

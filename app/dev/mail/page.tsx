@@ -24,13 +24,19 @@ export default async function DevMailPage({ searchParams }: { searchParams: Prom
     <main className="mx-auto max-w-5xl space-y-4 px-4 py-6">
       <p className="font-mono text-xs uppercase tracking-widest text-warn">Development only</p>
       <h1 className="text-3xl font-bold">Caught mail</h1>
-      <p className="text-ink-soft">Every message Loamwork sent to the local SMTP sink, newest first. Nothing here left this machine.</p>
+      <p className="text-ink-soft">
+        Every message Loamwork sent to the local SMTP sink, newest first. Nothing here left this machine.
+      </p>
       <form method="get" className="flex items-end gap-2">
         <div>
-          <label className="label" htmlFor="to">Only to</label>
+          <label className="label" htmlFor="to">
+            Only to
+          </label>
           <input id="to" name="to" className="field" defaultValue={to ?? ""} type="email" />
         </div>
-        <button className="btn" type="submit">Filter</button>
+        <button className="btn" type="submit">
+          Filter
+        </button>
       </form>
       {shown.length === 0 && <p>No mail yet.</p>}
       <ol className="space-y-3">
@@ -38,7 +44,8 @@ export default async function DevMailPage({ searchParams }: { searchParams: Prom
           <li key={m.id} className="sheet" data-mail-to={m.envelope.to.join(",")}>
             <p className="font-bold">{m.subject}</p>
             <p className="text-sm text-ink-soft">
-              <span className="num">{m.receivedAt.slice(0, 19).replace("T", " ")}</span> · from {m.from.join(", ")} · to {m.envelope.to.join(", ")}
+              <span className="num">{m.receivedAt.slice(0, 19).replace("T", " ")}</span> · from {m.from.join(", ")} · to{" "}
+              {m.envelope.to.join(", ")}
             </p>
             <details className="mt-2" open={shown.length === 1}>
               <summary className="cursor-pointer">Plain text</summary>
@@ -47,7 +54,12 @@ export default async function DevMailPage({ searchParams }: { searchParams: Prom
             {m.html && (
               <details className="mt-2">
                 <summary className="cursor-pointer">HTML</summary>
-                <iframe title={`HTML of ${m.subject}`} sandbox="" srcDoc={m.html} className="mt-1 h-72 w-full border border-paper-edge bg-white" />
+                <iframe
+                  title={`HTML of ${m.subject}`}
+                  sandbox=""
+                  srcDoc={m.html}
+                  className="mt-1 h-72 w-full border border-paper-edge bg-white"
+                />
               </details>
             )}
           </li>

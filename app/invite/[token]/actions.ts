@@ -11,13 +11,17 @@ export type AcceptState = { error?: string; fieldErrors?: Record<string, string[
 export async function acceptAction(_prev: AcceptState, form: FormData): Promise<AcceptState> {
   const raw = { token: form.get("token"), name: form.get("name") || undefined, password: form.get("password") };
   // Through the same public entry as the API route: parsed by the same schema, errors mapped the same way.
-  const out = await runPublic(invitationAcceptSchema, raw, async (ctx) => ({ joined: await acceptInvitation(ctx.db, ctx.input), password: ctx.input.password }));
+  const out = await runPublic(invitationAcceptSchema, raw, async (ctx) => ({
+    joined: await acceptInvitation(ctx.db, ctx.input),
+    password: ctx.input.password,
+  }));
   if (!out.ok) return { error: out.error, fieldErrors: out.fieldErrors };
   const { joined, password } = out.data;
   try {
     await signIn("credentials", { email: joined.email, password, redirectTo: `/sites/${joined.siteId}` });
   } catch (err) {
-    if (err instanceof AuthError) return { error: "You joined the site, but signing in failed; sign in with your e-mail and new password." };
+    if (err instanceof AuthError)
+      return { error: "You joined the site, but signing in failed; sign in with your e-mail and new password." };
     throw err;
   }
   return {};

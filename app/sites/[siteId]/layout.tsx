@@ -4,7 +4,13 @@ import { recorders } from "@/lib/api/operation";
 import { isRole } from "@/lib/server/membership";
 import { pageSiteActor } from "@/lib/server/page-access";
 
-export default async function SiteLayout({ children, params }: { children: ReactNode; params: Promise<{ siteId: string }> }) {
+export default async function SiteLayout({
+  children,
+  params,
+}: {
+  children: ReactNode;
+  params: Promise<{ siteId: string }>;
+}) {
   const { siteId } = await params;
   const { actor, userName } = await pageSiteActor(siteId);
   return (

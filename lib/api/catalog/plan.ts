@@ -8,10 +8,39 @@ import { photoView } from "../responses";
  * uploadthing route (/api/uploadthing), whose middleware applies the same role rule (recorders).
  */
 export const planApi = {
-  photosList: { method: "GET", path: "/api/sites/{siteId}/photos", summary: "Plan photos (optionally of one trench), with their fits", roles: "member", input: photoListQuery, from: "query", response: z.array(photoView) },
-  photoRead: { method: "GET", path: "/api/sites/{siteId}/photos/{photoId}", summary: "One plan photo with its fit", roles: "member", from: "none" },
-  photoFit: { method: "POST", path: "/api/sites/{siteId}/photos/{photoId}/fit", summary: "Fit a photo to the site grid from control points", roles: recorders, doing: "fit plan photos", input: photoFitInputSchema, response: photoView },
-  photoDelete: { method: "DELETE", path: "/api/sites/{siteId}/photos/{photoId}", summary: "Delete a plan photo and its derivatives", roles: recorders, doing: "delete plan photos", from: "none" },
+  photosList: {
+    method: "GET",
+    path: "/api/sites/{siteId}/photos",
+    summary: "Plan photos (optionally of one trench), with their fits",
+    roles: "member",
+    input: photoListQuery,
+    from: "query",
+    response: z.array(photoView),
+  },
+  photoRead: {
+    method: "GET",
+    path: "/api/sites/{siteId}/photos/{photoId}",
+    summary: "One plan photo with its fit",
+    roles: "member",
+    from: "none",
+  },
+  photoFit: {
+    method: "POST",
+    path: "/api/sites/{siteId}/photos/{photoId}/fit",
+    summary: "Fit a photo to the site grid from control points",
+    roles: recorders,
+    doing: "fit plan photos",
+    input: photoFitInputSchema,
+    response: photoView,
+  },
+  photoDelete: {
+    method: "DELETE",
+    path: "/api/sites/{siteId}/photos/{photoId}",
+    summary: "Delete a plan photo and its derivatives",
+    roles: recorders,
+    doing: "delete plan photos",
+    from: "none",
+  },
   photoFile: {
     method: "GET",
     path: "/api/files/{siteId}/{photoId}/{variant}",

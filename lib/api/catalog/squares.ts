@@ -3,7 +3,17 @@ import { squareImportSchema, squareSampleSchema } from "@/lib/schemas/squares";
 import { recorders, wireDate, type ApiOperation } from "../operation";
 
 const id = z.string();
-const gridSquare = z.object({ col: z.number(), row: z.number(), label: z.string(), x0: z.number(), y0: z.number(), x1: z.number(), y1: z.number(), area: z.number(), whole: z.boolean() });
+const gridSquare = z.object({
+  col: z.number(),
+  row: z.number(),
+  label: z.string(),
+  x0: z.number(),
+  y0: z.number(),
+  x1: z.number(),
+  y1: z.number(),
+  area: z.number(),
+  whole: z.boolean(),
+});
 const squareCount = z.object({ classId: id, count: z.number(), weightG: z.number().nullable() });
 
 /** One square dug in one context (and spit), with its counts per class. */
@@ -44,16 +54,31 @@ export const squareImportReport = z.object({
 
 /** API operations of bulk finds counted by grid square (issue 16). The grid itself is set on the trench (trenchUpdate). */
 export const squaresApi = {
-  trenchSquares: { method: "GET", path: "/api/sites/{siteId}/trenches/{trenchId}/squares", summary: "A trench's square grid, its squares clipped to the outline and the counts recorded in them", roles: "member", from: "none", response: trenchSquaresView },
+  trenchSquares: {
+    method: "GET",
+    path: "/api/sites/{siteId}/trenches/{trenchId}/squares",
+    summary: "A trench's square grid, its squares clipped to the outline and the counts recorded in them",
+    roles: "member",
+    from: "none",
+    response: trenchSquaresView,
+  },
   squareRecord: {
     method: "POST",
     path: "/api/sites/{siteId}/trenches/{trenchId}/squares",
-    summary: "Record a square dug in a context (and spit) with its counts per class; replaces that square's earlier counts there",
+    summary:
+      "Record a square dug in a context (and spit) with its counts per class; replaces that square's earlier counts there",
     roles: recorders,
     doing: "record counts by square",
     input: squareSampleSchema,
   },
-  squareDelete: { method: "DELETE", path: "/api/sites/{siteId}/square-records/{sampleId}", summary: "Delete a square record: the square goes back to not excavated there", roles: recorders, doing: "record counts by square", from: "none" },
+  squareDelete: {
+    method: "DELETE",
+    path: "/api/sites/{siteId}/square-records/{sampleId}",
+    summary: "Delete a square record: the square goes back to not excavated there",
+    roles: recorders,
+    doing: "record counts by square",
+    from: "none",
+  },
   squareImport: {
     method: "POST",
     path: "/api/sites/{siteId}/square-import",

@@ -42,7 +42,11 @@ export function buildEngineSpec(input: BuildInput): { spec: RunSpecInput; entrie
   for (const t of tests) {
     switch (t.kind) {
       case "clark-evans":
-        for (const c of classes) push({ type: "clark-evans", class: c.code, correction: t.correction, alternative: t.alternative }, { test: t, classId: c.id });
+        for (const c of classes)
+          push(
+            { type: "clark-evans", class: c.code, correction: t.correction, alternative: t.alternative },
+            { test: t, classId: c.id },
+          );
         break;
       case "quadrat": {
         const { nx, ny } = quadratGrid(window, t.cellSize);
@@ -50,23 +54,58 @@ export function buildEngineSpec(input: BuildInput): { spec: RunSpecInput; entrie
         break;
       }
       case "l-envelope":
-        for (const c of classes) push({ type: "l-envelope", class: c.code, count: t.count, correction: params.correction, statistic: t.statistic }, { test: t, classId: c.id });
+        for (const c of classes)
+          push(
+            {
+              type: "l-envelope",
+              class: c.code,
+              count: t.count,
+              correction: params.correction,
+              statistic: t.statistic,
+            },
+            { test: t, classId: c.id },
+          );
         break;
       case "pcf-envelope":
-        for (const c of classes) push({ type: "pcf-envelope", class: c.code, count: "fixed", statistic: "dclf" }, { test: t, classId: c.id });
+        for (const c of classes)
+          push({ type: "pcf-envelope", class: c.code, count: "fixed", statistic: "dclf" }, { test: t, classId: c.id });
         break;
       case "cross-l":
-        push({ type: "cross-l", a: code.get(t.a)!, b: code.get(t.b)!, null: t.null, count: "fixed", correction: pairCorrection, statistic: "dclf", ...(t.fun === "K" && { fun: "K" as const }) }, { test: t });
+        push(
+          {
+            type: "cross-l",
+            a: code.get(t.a)!,
+            b: code.get(t.b)!,
+            null: t.null,
+            count: "fixed",
+            correction: pairCorrection,
+            statistic: "dclf",
+            ...(t.fun === "K" && { fun: "K" as const }),
+          },
+          { test: t },
+        );
         break;
       case "k-difference":
-        push({ type: "k-difference", a: code.get(t.a)!, b: code.get(t.b)!, correction: pairCorrection, statistic: "dclf" }, { test: t });
+        push(
+          { type: "k-difference", a: code.get(t.a)!, b: code.get(t.b)!, correction: pairCorrection, statistic: "dclf" },
+          { test: t },
+        );
         break;
       case "inhomogeneous-l":
-        push({ type: "inhomogeneous-l", class: code.get(t.classId)!, reference: t.reference === "all" ? undefined : code.get(t.reference), statistic: "dclf" }, { test: t, classId: t.classId });
+        push(
+          {
+            type: "inhomogeneous-l",
+            class: code.get(t.classId)!,
+            reference: t.reference === "all" ? undefined : code.get(t.reference),
+            statistic: "dclf",
+          },
+          { test: t, classId: t.classId },
+        );
         break;
     }
   }
-  const ring = (r: readonly (readonly [number, number] | [number, number])[]) => r.map((v) => [v[0], v[1]] as [number, number]);
+  const ring = (r: readonly (readonly [number, number] | [number, number])[]) =>
+    r.map((v) => [v[0], v[1]] as [number, number]);
   const spec: RunSpecInput = {
     window: { outer: ring(window.outer), holes: window.holes.map(ring) },
     points: finds.map((f) => ({ x: f.x, y: f.y, cls: code.get(f.classId)! })),

@@ -2,7 +2,13 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { analysisRuns } from "@/db/schema";
-import { ENGINE_VERSION, SpatialInputError, runDistributionTest, type RunResult as EngineResult, type SimulationPool } from "@/lib/spatial";
+import {
+  ENGINE_VERSION,
+  SpatialInputError,
+  runDistributionTest,
+  type RunResult as EngineResult,
+  type SimulationPool,
+} from "@/lib/spatial";
 import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
 import type { RunScope } from "./run-schema";
@@ -55,26 +61,53 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
       const now = Date.now();
       if (fraction >= 1 || stop.signal.aborted || writing || now - lastWrite < PROGRESS_EVERY_MS) return;
       lastWrite = now;
-      writing = writeProgress(db, runId, fraction).then(
-        (stillRunning) => {
-          if (!stillRunning) stop.abort();
-        },
-        (err) => console.error(`[loamwork] run ${runId}: progress not written`, err),
-      ).finally(() => (writing = null));
+      writing = writeProgress(db, runId, fraction)
+        .then(
+          (stillRunning) => {
+            if (!stillRunning) stop.abort();
+          },
+          (err) => console.error(`[loamwork] run ${runId}: progress not written`, err),
+        )
+        .finally(() => (writing = null));
     };
     const finds = data.finds.map((f) => ({ x: f.x, y: f.y, classId: f.classId }));
-    const { spec, entries } = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests: params.tests, params, seed: row.seed });
+    const { spec, entries } = buildEngineSpec({
+      window: data.window,
+      classes: data.classes,
+      finds,
+      tests: params.tests,
+      params,
+      seed: row.seed,
+    });
     try {
       const engineStart = Date.now();
       // A run of square-count tests alone has no point tests for the engine's simulation run.
       const engine: EngineResult = spec.tests.length
         ? await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool, stored: true })
-        : { engineVersion: ENGINE_VERSION, seed: row.seed, nsim: params.nsim, level: params.level, window: { area: data.window.area, perimeter: data.window.perimeter, holes: data.window.holes.length }, points: finds.length, results: [], cautions: [] };
+        : {
+            engineVersion: ENGINE_VERSION,
+            seed: row.seed,
+            nsim: params.nsim,
+            level: params.level,
+            window: { area: data.window.area, perimeter: data.window.perimeter, holes: data.window.holes.length },
+            points: finds.length,
+            results: [],
+            cautions: [],
+          };
       const squareTests = runSquareTests(data, params.squareTests ?? [], params, row.seed, () => stop.signal.aborted);
       const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;
-      const result = adaptResult({ engine, entries, window: data.window, classes: data.classes, finds, correction: params.correction, rmax: params.rmax, elapsedMs: Date.now() - started });
+      const result = adaptResult({
+        engine,
+        entries,
+        window: data.window,
+        classes: data.classes,
+        finds,
+        correction: params.correction,
+        rmax: params.rmax,
+        elapsedMs: Date.now() - started,
+      });
       if (squareTests.length) result.squareTests = squareTests;
       result.timing = { engineStart, engineEnd };
       await markDone(db, runId, result);
@@ -84,7 +117,8 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     }
   } catch (err) {
     if (isAbort(err)) return; // the status already says cancelled (or the process is stopping)
-    const message = err instanceof SpatialInputError ? err.message : "The run failed on the server; see the server log.";
+    const message =
+      err instanceof SpatialInputError ? err.message : "The run failed on the server; see the server log.";
     if (!(err instanceof SpatialInputError)) console.error(`[loamwork] run ${runId} failed`, err);
     await markFailed(db, runId, message);
   }

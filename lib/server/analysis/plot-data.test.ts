@@ -4,21 +4,40 @@ import { kernelDensity, quadratCellsOf } from "./plot-data";
 
 // An L-shaped trench with a hole: the pictures must follow the clipped shape, not the bounding box.
 const window = createWindow({
-  outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 8], [0, 8]],
-  holes: [[[1, 1], [1, 2], [2, 2], [2, 1]]],
+  outer: [
+    [0, 0],
+    [10, 0],
+    [10, 4],
+    [4, 4],
+    [4, 8],
+    [0, 8],
+  ],
+  holes: [
+    [
+      [1, 1],
+      [1, 2],
+      [2, 2],
+      [2, 1],
+    ],
+  ],
 });
 
 function lcg(seed: number) {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32;
 }
 
 function pointsIn(n: number, seed: number) {
   const u = lcg(seed);
-  const x: number[] = [], y: number[] = [];
+  const x: number[] = [],
+    y: number[] = [];
   while (x.length < n) {
-    const px = u() * 10, py = u() * 8;
-    if (window.contains(px, py)) { x.push(px); y.push(py); }
+    const px = u() * 10,
+      py = u() * 8;
+    if (window.contains(px, py)) {
+      x.push(px);
+      y.push(py);
+    }
   }
   return { x, y };
 }
@@ -50,7 +69,8 @@ describe("pictures drawn from the engine's numbers", () => {
     expect(Math.max(d.nx, d.ny)).toBe(60);
     let total = 0;
     d.values.forEach((v, k) => {
-      const cx = d.minX + ((k % d.nx) + 0.5) * d.dx, cy = d.minY + (Math.floor(k / d.nx) + 0.5) * d.dy;
+      const cx = d.minX + ((k % d.nx) + 0.5) * d.dx,
+        cy = d.minY + (Math.floor(k / d.nx) + 0.5) * d.dy;
       if (!window.contains(cx, cy)) expect(v).toBe(0);
       total += v * d.dx * d.dy;
     });

@@ -24,12 +24,25 @@ export function nnHistogram(p: Pts): { edges: number[]; counts: number[]; distan
  * The quadrat test's own cells (clipped to the trench, top row first) paired with the observed and
  * expected counts the engine reported for them, in the same order.
  */
-export function quadratCellsOf(w: Window, nx: number, ny: number, observed: number[], expected: number[]): QuadratCell[] {
+export function quadratCellsOf(
+  w: Window,
+  nx: number,
+  ny: number,
+  observed: number[],
+  expected: number[],
+): QuadratCell[] {
   const { cells } = createQuadratLayout(w, nx, ny);
   if (cells.length !== observed.length || cells.length !== expected.length) {
     throw new Error(`The quadrat result has ${observed.length} counts for ${cells.length} cells.`);
   }
-  return cells.map((c, k) => ({ x0: c.x0, y0: c.y0, x1: c.x1, y1: c.y1, count: observed[k] ?? 0, expected: expected[k] ?? 0 }));
+  return cells.map((c, k) => ({
+    x0: c.x0,
+    y0: c.y0,
+    x1: c.x1,
+    y1: c.y1,
+    count: observed[k] ?? 0,
+    expected: expected[k] ?? 0,
+  }));
 }
 
 const DENSITY_PIXELS = 60;
@@ -46,7 +59,13 @@ export function kernelDensity(w: Window, p: Pts, classId: string): DensityOut {
   const ny = Math.max(1, Math.round((DENSITY_PIXELS * (maxY - minY)) / long));
   const g = densityGrid(w, { x: p.x, y: p.y }, { sigma: "scott", edge: "uniform", nx, ny });
   return {
-    classId, nx: g.nx, ny: g.ny, minX: g.x0, minY: g.y0, dx: g.dx, dy: g.dy,
+    classId,
+    nx: g.nx,
+    ny: g.ny,
+    minX: g.x0,
+    minY: g.y0,
+    dx: g.dx,
+    dy: g.dy,
     values: Array.from(g.values, (v) => Number(v.toPrecision(5))),
     bandwidth: g.sigma,
     rule: "Gaussian kernel, Scott's rule (√(σ̂x·σ̂y)·n^(−1/6)), edge-corrected by the kernel mass inside the trench",

@@ -20,7 +20,8 @@ const VERDICTS: Record<string, VerdictWord> = {
 };
 
 const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
-const minus = (a: (number | null)[], r: number[]) => a.map((v, k) => (v === null ? null : Number((v - r[k]).toPrecision(8))));
+const minus = (a: (number | null)[], r: number[]) =>
+  a.map((v, k) => (v === null ? null : Number((v - r[k]).toPrecision(8))));
 
 function curveOf(t: EngineTest, subtractR: boolean): { curve: Curve; departures: Departure[] } {
   const c = t.curves!;
@@ -54,7 +55,10 @@ export function adaptResult(input: AdaptInput): RunResult {
   const pts = new Map<string, Pts>(classes.map((c) => [c.id, { x: [], y: [] }]));
   for (const f of finds) {
     const p = pts.get(f.classId);
-    if (p) { p.x.push(f.x); p.y.push(f.y); }
+    if (p) {
+      p.x.push(f.x);
+      p.y.push(f.y);
+    }
   }
   const label = new Map(classes.map((c) => [c.id, `${c.code} (${c.label.toLowerCase()})`]));
   const name = (id: string) => label.get(id) ?? id;
@@ -74,8 +78,21 @@ export function adaptResult(input: AdaptInput): RunResult {
     switch (entry.test.kind) {
       case "clark-evans": {
         const h = nnHistogram(pts.get(classId)!);
-        const meanNN = num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
-        return { ...base, kind: "clark-evans", classId, n, R: num(d.R) ?? NaN, z: num(d.z), meanNN, expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedUnderCsr) ?? 0.5 / Math.sqrt(n / window.area), correction: entry.test.correction, alternative: entry.test.alternative, histogram: { edges: h.edges, counts: h.counts } };
+        const meanNN =
+          num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
+        return {
+          ...base,
+          kind: "clark-evans",
+          classId,
+          n,
+          R: num(d.R) ?? NaN,
+          z: num(d.z),
+          meanNN,
+          expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedUnderCsr) ?? 0.5 / Math.sqrt(n / window.area),
+          correction: entry.test.correction,
+          alternative: entry.test.alternative,
+          histogram: { edges: h.edges, counts: h.counts },
+        };
       }
       case "quadrat": {
         const { nx, ny } = quadratGrid(window, entry.test.cellSize);
@@ -84,30 +101,85 @@ export function adaptResult(input: AdaptInput): RunResult {
         const cells = quadratCellsOf(window, nx, ny, observed, expected);
         const mean = cells.reduce((s, c) => s + c.count, 0) / cells.length;
         const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
-        return { ...base, kind: "quadrat", classId, n, cellSize: entry.test.cellSize, X2: num(d.X2) ?? num(d.statistic) ?? NaN, df: num(d.df) ?? cells.length - 1, vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean, monteCarlo: t.test.includes("Monte Carlo"), cells };
+        return {
+          ...base,
+          kind: "quadrat",
+          classId,
+          n,
+          cellSize: entry.test.cellSize,
+          X2: num(d.X2) ?? num(d.statistic) ?? NaN,
+          df: num(d.df) ?? cells.length - 1,
+          vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean,
+          monteCarlo: t.test.includes("Monte Carlo"),
+          cells,
+        };
       }
       case "l-envelope": {
         const { curve, departures } = curveOf(t, true);
         const above = departures.find((x) => x.side === "above");
-        return { ...base, kind: "l-envelope", classId, n, statistic: entry.test.statistic, count: entry.test.count, curve, departures, clusterScale: above ? { from: above.from, to: above.to } : null };
+        return {
+          ...base,
+          kind: "l-envelope",
+          classId,
+          n,
+          statistic: entry.test.statistic,
+          count: entry.test.count,
+          curve,
+          departures,
+          clusterScale: above ? { from: above.from, to: above.to } : null,
+        };
       }
       case "pcf-envelope":
-        return { ...base, kind: "pcf-envelope", classId, n, curve: curveOf(t, false).curve, bandwidth: num(d.bandwidth) ?? 0 };
+        return {
+          ...base,
+          kind: "pcf-envelope",
+          classId,
+          n,
+          curve: curveOf(t, false).curve,
+          bandwidth: num(d.bandwidth) ?? 0,
+        };
       case "cross-l":
       case "k-difference": {
         // cross-K is drawn as it is (πr² under CSR); L curves as L(r) − r
         const funK = entry.test.kind === "cross-l" && entry.test.fun === "K";
         const { curve, departures } = curveOf(t, entry.test.kind === "cross-l" && !funK);
         const { a, b } = entry.test;
-        return { ...base, kind: entry.test.kind, a, b, nA: pts.get(a)?.x.length ?? 0, nB: pts.get(b)?.x.length ?? 0, null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling", ...(funK && { fun: "K" as const }), curve, departures };
+        return {
+          ...base,
+          kind: entry.test.kind,
+          a,
+          b,
+          nA: pts.get(a)?.x.length ?? 0,
+          nB: pts.get(b)?.x.length ?? 0,
+          null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling",
+          ...(funK && { fun: "K" as const }),
+          curve,
+          departures,
+        };
       }
       case "inhomogeneous-l": {
         const { curve, departures } = curveOf(t, true);
-        return { ...base, kind: "inhomogeneous-l", classId, n, reference: entry.test.reference, bandwidth: num(d.bandwidth) ?? 0, curve, departures };
+        return {
+          ...base,
+          kind: "inhomogeneous-l",
+          classId,
+          n,
+          reference: entry.test.reference,
+          bandwidth: num(d.bandwidth) ?? 0,
+          curve,
+          departures,
+        };
       }
     }
   });
-  const inScope: ClassInScope[] = classes.map((c) => ({ id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, n: pts.get(c.id)!.x.length }));
+  const inScope: ClassInScope[] = classes.map((c) => ({
+    id: c.id,
+    code: c.code,
+    label: c.label,
+    colour: c.colour,
+    symbol: c.symbol,
+    n: pts.get(c.id)!.x.length,
+  }));
   return {
     engineVersion: engine.engineVersion,
     seed: engine.seed,
@@ -119,7 +191,9 @@ export function adaptResult(input: AdaptInput): RunResult {
     area: window.area,
     classes: inScope,
     tests,
-    density: classes.filter((c) => pts.get(c.id)!.x.length >= 2).map((c) => kernelDensity(window, pts.get(c.id)!, c.id)),
+    density: classes
+      .filter((c) => pts.get(c.id)!.x.length >= 2)
+      .map((c) => kernelDensity(window, pts.get(c.id)!, c.id)),
     points: classes.map((c) => ({ classId: c.id, ...pts.get(c.id)! })),
     cautions: engine.cautions,
     elapsedMs: input.elapsedMs,

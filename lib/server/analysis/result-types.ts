@@ -12,7 +12,13 @@ export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated"
 export type Departure = { side: "above" | "below"; from: number; to: number; rejoins: boolean };
 
 /** null where the curve is undefined (border correction beyond the deepest points): a gap in the plot. */
-export type Curve = { r: number[]; obs: (number | null)[]; lo?: (number | null)[]; hi?: (number | null)[]; theo?: (number | null)[] };
+export type Curve = {
+  r: number[];
+  obs: (number | null)[];
+  lo?: (number | null)[];
+  hi?: (number | null)[];
+  theo?: (number | null)[];
+};
 
 export type ClassInScope = { id: string; code: string; label: string; colour: string; symbol: string; n: number };
 
@@ -28,31 +34,64 @@ type Base = {
 };
 
 export type ClarkEvansOut = Base & {
-  kind: "clark-evans"; classId: string; n: number; R: number; z: number | null; meanNN: number; expectedNN: number;
-  correction: "none" | "donnelly" | "monte-carlo"; alternative: string;
+  kind: "clark-evans";
+  classId: string;
+  n: number;
+  R: number;
+  z: number | null;
+  meanNN: number;
+  expectedNN: number;
+  correction: "none" | "donnelly" | "monte-carlo";
+  alternative: string;
   /** Nearest-neighbour distances histogram. */
   histogram: { edges: number[]; counts: number[] };
 };
 export type QuadratCell = { x0: number; y0: number; x1: number; y1: number; count: number; expected: number };
 export type QuadratOut = Base & {
-  kind: "quadrat"; classId: string; n: number; cellSize: number; X2: number; df: number; vmr: number;
-  monteCarlo: boolean; cells: QuadratCell[];
+  kind: "quadrat";
+  classId: string;
+  n: number;
+  cellSize: number;
+  X2: number;
+  df: number;
+  vmr: number;
+  monteCarlo: boolean;
+  cells: QuadratCell[];
 };
 export type LOut = Base & {
-  kind: "l-envelope"; classId: string; n: number; statistic: "mad" | "dclf"; count: "fixed" | "poisson";
+  kind: "l-envelope";
+  classId: string;
+  n: number;
+  statistic: "mad" | "dclf";
+  count: "fixed" | "poisson";
   /** L(r) − r and its band. */
-  curve: Curve; departures: Departure[];
+  curve: Curve;
+  departures: Departure[];
   /** Rough cluster diameter read from the first departure above (overstates, statistics.md). */
   clusterScale: { from: number; to: number } | null;
 };
 export type PcfOut = Base & { kind: "pcf-envelope"; classId: string; n: number; curve: Curve; bandwidth: number };
 export type CrossOut = Base & {
-  kind: "cross-l" | "k-difference"; a: string; b: string; nA: number; nB: number; null: "random-labelling" | "a-fixed";
+  kind: "cross-l" | "k-difference";
+  a: string;
+  b: string;
+  nA: number;
+  nB: number;
+  null: "random-labelling" | "a-fixed";
   /** "K": the test ran on cross-K and the curve is K_AB(r) itself; absent: cross-L, drawn as L_AB(r) − r. */
   fun?: "K";
-  curve: Curve; departures: Departure[];
+  curve: Curve;
+  departures: Departure[];
 };
-export type InhomOut = Base & { kind: "inhomogeneous-l"; classId: string; n: number; reference: string; bandwidth: number; curve: Curve; departures: Departure[] };
+export type InhomOut = Base & {
+  kind: "inhomogeneous-l";
+  classId: string;
+  n: number;
+  reference: string;
+  bandwidth: number;
+  curve: Curve;
+  departures: Departure[];
+};
 export type TestOut = ClarkEvansOut | QuadratOut | LOut | PcfOut | CrossOut | InhomOut;
 
 /** Verdict of a square-count test: like values together, high and low alternating, hot or cold spots found. */
@@ -62,7 +101,10 @@ export type SquareClassWord = "hot spot" | "cold spot" | "high among low" | "low
 /** One square of the grid in a square-count result, placed on the plan (its whole square, x0..x1, y0..y1). */
 export type SquareCellOut = {
   label: string;
-  x0: number; y0: number; x1: number; y1: number;
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
   /** Excavated m² used, and the variable tested (density per m² or count). */
   area: number;
   value: number;
@@ -100,7 +142,18 @@ export type SquareTestOut = {
 };
 
 /** Kernel intensity on a pixel grid (row 0 at minY), for the heat layer on the plan. */
-export type DensityOut = { classId: string; nx: number; ny: number; minX: number; minY: number; dx: number; dy: number; values: number[]; bandwidth: number; rule: string };
+export type DensityOut = {
+  classId: string;
+  nx: number;
+  ny: number;
+  minX: number;
+  minY: number;
+  dx: number;
+  dy: number;
+  values: number[];
+  bandwidth: number;
+  rule: string;
+};
 
 export type RunResult = {
   engineVersion: string;

@@ -8,7 +8,12 @@ import type { RunResult } from "./result-types";
  * Status writes of a run. Each transition names the status it expects, so a run cancelled meanwhile is
  * never flipped back to running or done (the update then matches no row and the caller learns it).
  */
-export async function markRunning(db: Db | Tx, runId: string, fingerprint: string, startedAt = new Date()): Promise<boolean> {
+export async function markRunning(
+  db: Db | Tx,
+  runId: string,
+  fingerprint: string,
+  startedAt = new Date(),
+): Promise<boolean> {
   const rows = await db
     .update(analysisRuns)
     .set({ status: "running", progress: 0, startedAt, error: null, fingerprint })
@@ -54,8 +59,15 @@ export async function markCancelled(db: Db | Tx, runId: string): Promise<Analysi
 
 /** Runs left 'running' by a process that stopped: back to the queue (the embedded database has one process). */
 export async function requeueOrphans(db: Db): Promise<string[]> {
-  await db.update(analysisRuns).set({ status: "queued", progress: 0, startedAt: null }).where(eq(analysisRuns.status, "running"));
-  const rows = await db.select({ id: analysisRuns.id }).from(analysisRuns).where(eq(analysisRuns.status, "queued")).orderBy(analysisRuns.createdAt);
+  await db
+    .update(analysisRuns)
+    .set({ status: "queued", progress: 0, startedAt: null })
+    .where(eq(analysisRuns.status, "running"));
+  const rows = await db
+    .select({ id: analysisRuns.id })
+    .from(analysisRuns)
+    .where(eq(analysisRuns.status, "queued"))
+    .orderBy(analysisRuns.createdAt);
   return rows.map((r) => r.id);
 }
 

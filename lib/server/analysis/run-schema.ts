@@ -20,7 +20,10 @@ export const testSchema = z.discriminatedUnion("kind", [
     correction: z.enum(["none", "donnelly", "monte-carlo"]).default("monte-carlo"),
     alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
   }),
-  z.strictObject({ kind: z.literal("quadrat"), cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1) }),
+  z.strictObject({
+    kind: z.literal("quadrat"),
+    cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1),
+  }),
   z.strictObject({
     kind: z.literal("l-envelope"),
     /** MAD by default, as the engine and spatstat's `mad.test`; DCLF integrates over r and is often more powerful. */
@@ -42,7 +45,11 @@ export const testSchema = z.discriminatedUnion("kind", [
     fun: z.enum(["L", "K"]).optional(),
   }),
   z.strictObject({ kind: z.literal("k-difference"), a: id, b: id }),
-  z.strictObject({ kind: z.literal("inhomogeneous-l"), classId: id, reference: z.union([z.literal("all"), id]).default("all") }),
+  z.strictObject({
+    kind: z.literal("inhomogeneous-l"),
+    classId: id,
+    reference: z.union([z.literal("all"), id]).default("all"),
+  }),
 ]);
 export type RunTest = z.infer<typeof testSchema>;
 export type TestKind = RunTest["kind"];
@@ -72,7 +79,12 @@ export const runParamsSchema = z.strictObject({
   rmax: z.coerce.number().positive("The distance range must be larger than 0 m.").optional(),
   nsim: z.coerce.number().int().min(19, "Use at least 19 simulations (p can then reach 0.05).").max(9999).default(999),
   level: z.coerce.number().gt(0).lt(0.5).default(0.05),
-  seed: z.coerce.number().int().min(0).max(2 ** 31 - 1).optional(),
+  seed: z.coerce
+    .number()
+    .int()
+    .min(0)
+    .max(2 ** 31 - 1)
+    .optional(),
 });
 export type RunParamsInput = z.input<typeof runParamsSchema>;
 
@@ -100,7 +112,12 @@ export type RunCreateInput = z.input<typeof runCreateSchema>;
 const idList = z
   .string()
   .default("")
-  .transform((s) => s.split(",").map((v) => v.trim()).filter(Boolean))
+  .transform((s) =>
+    s
+      .split(",")
+      .map((v) => v.trim())
+      .filter(Boolean),
+  )
   .pipe(z.array(id));
 export const scopeQuerySchema = z.object({ trenchId: id, contextIds: idList, classIds: idList });
 

@@ -55,7 +55,12 @@ export async function runEventStream(db: Db, siteId: string, runId: string, sign
         if (status === lastStatus && value <= lastProgress) return; // a change already sent, seen again on a resync
         lastStatus = status;
         lastProgress = value;
-        send("progress", { status, progress: value, startedAt, now: new Date().toISOString() } satisfies RunProgressEvent);
+        send("progress", {
+          status,
+          progress: value,
+          startedAt,
+          now: new Date().toISOString(),
+        } satisfies RunProgressEvent);
       };
       const finish = () => {
         if (finishing || closed) return;

@@ -24,7 +24,8 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
   const out: string[] = [];
   const need = (kind: RunTest["kind"], classId: string) => {
     if (!code.has(classId)) out.push(`A test names a class that is not in the chosen scope.`);
-    else if ((n.get(classId) ?? 0) < MIN_POINTS[kind]) out.push(tooFewMessage(kind, code.get(classId)!, n.get(classId) ?? 0));
+    else if ((n.get(classId) ?? 0) < MIN_POINTS[kind])
+      out.push(tooFewMessage(kind, code.get(classId)!, n.get(classId) ?? 0));
   };
   for (const t of tests) {
     if (t.kind === "cross-l" || t.kind === "k-difference") {
@@ -33,7 +34,8 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
       need(t.kind, t.b);
     } else if (t.kind === "inhomogeneous-l") {
       need(t.kind, t.classId);
-      if (t.reference !== "all" && !code.has(t.reference)) out.push("The reference class of the inhomogeneous test is not in the chosen scope.");
+      if (t.reference !== "all" && !code.has(t.reference))
+        out.push("The reference class of the inhomogeneous test is not in the chosen scope.");
     } else {
       for (const c of data.classes) need(t.kind, c.id);
     }
@@ -49,7 +51,10 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
   if (refusals.length) throw badInput(refusals.join(" "), { tests: refusals });
   const rmax = input.params.rmax ?? roundMetres(defaultRmax(data.window));
   if (rmax >= data.window.diameter) {
-    throw badInput(`The distance range must stay below the trench's largest extent (${data.window.diameter.toFixed(2)} m).`, { "params.rmax": ["Too large for this trench."] });
+    throw badInput(
+      `The distance range must stay below the trench's largest extent (${data.window.diameter.toFixed(2)} m).`,
+      { "params.rmax": ["Too large for this trench."] },
+    );
   }
   const params: RunParamsStored = {
     correction: input.params.correction,
@@ -59,7 +64,11 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     tests: input.tests,
     ...(input.squareTests.length ? { squareTests: input.squareTests } : {}),
     label: input.label,
-    names: { trench: data.trench.code, contexts: data.contexts.map((c) => c.number), classes: data.classes.map((c) => c.code) },
+    names: {
+      trench: data.trench.code,
+      contexts: data.contexts.map((c) => c.number),
+      classes: data.classes.map((c) => c.code),
+    },
     warnings: await stratWarningsFor(db, actor.site.id, data),
   };
   const seed = input.params.seed ?? randomInt(0, 2 ** 31 - 1);
@@ -78,7 +87,14 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
         createdBy: actor.userId,
       })
       .returning();
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "create", recordType: "run", recordId: run.id, after: { scope: run.scope, params, seed } });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "create",
+      recordType: "run",
+      recordId: run.id,
+      after: { scope: run.scope, params, seed },
+    });
     return run;
   });
   await queue.submit(row.id, data);
@@ -109,7 +125,10 @@ const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{1
 
 async function getRow(db: Db, siteId: string, runId: string): Promise<AnalysisRun> {
   if (!uuidPattern.test(runId)) throw notFound("That run");
-  const [row] = await db.select().from(analysisRuns).where(and(eq(analysisRuns.siteId, siteId), eq(analysisRuns.id, runId)));
+  const [row] = await db
+    .select()
+    .from(analysisRuns)
+    .where(and(eq(analysisRuns.siteId, siteId), eq(analysisRuns.id, runId)));
   if (!row) throw notFound("That run");
   return row;
 }
@@ -125,7 +144,9 @@ export async function readRun(db: Db, siteId: string, runId: string): Promise<Ru
 
 /** Saved runs, newest first, without their (large) results; scopes are fingerprinted once each. */
 export async function listRuns(db: Db, siteId: string, trenchId?: string): Promise<Omit<RunView, "result">[]> {
-  const where = trenchId ? and(eq(analysisRuns.siteId, siteId), eq(analysisRuns.trenchId, trenchId)) : eq(analysisRuns.siteId, siteId);
+  const where = trenchId
+    ? and(eq(analysisRuns.siteId, siteId), eq(analysisRuns.trenchId, trenchId))
+    : eq(analysisRuns.siteId, siteId);
   const rows = await db.select().from(analysisRuns).where(where).orderBy(desc(analysisRuns.createdAt)).limit(200);
   const byScope = new Map<string, Promise<string | null>>();
   const out = [];
@@ -140,7 +161,8 @@ export async function listRuns(db: Db, siteId: string, trenchId?: string): Promi
 
 export async function cancelRun(db: Db, actor: SiteActor, runId: string): Promise<RunView> {
   const row = await getRow(db, actor.site.id, runId);
-  if (row.status !== "queued" && row.status !== "running") throw conflict(`This run is already ${row.status}; only a queued or running run can be cancelled.`);
+  if (row.status !== "queued" && row.status !== "running")
+    throw conflict(`This run is already ${row.status}; only a queued or running run can be cancelled.`);
   const after = await db.transaction(async (tx) => {
     const [cancelled] = await tx
       .update(analysisRuns)
@@ -148,7 +170,15 @@ export async function cancelRun(db: Db, actor: SiteActor, runId: string): Promis
       .where(and(eq(analysisRuns.id, runId), inArray(analysisRuns.status, ["queued", "running"])))
       .returning();
     if (!cancelled) throw conflict("This run finished just now; there is nothing left to cancel.");
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "cancel", recordType: "run", recordId: runId, before: { status: row.status, progress: row.progress }, after: { status: "cancelled" } });
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "cancel",
+      recordType: "run",
+      recordId: runId,
+      before: { status: row.status, progress: row.progress },
+      after: { status: "cancelled" },
+    });
     return cancelled;
   });
   await (await runQueue()).cancel(runId);

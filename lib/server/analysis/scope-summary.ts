@@ -10,7 +10,16 @@ import { LOW_POWER_N, MIN_POINTS } from "./thresholds";
 
 export type ScopeSummary = {
   trench: { id: string; code: string; area: number; shortSide: number };
-  classes: { id: string; code: string; label: string; colour: string; symbol: string; n: number; lowPower: boolean; tooFewFor: TestKind[] }[];
+  classes: {
+    id: string;
+    code: string;
+    label: string;
+    colour: string;
+    symbol: string;
+    n: number;
+    lowPower: boolean;
+    tooFewFor: TestKind[];
+  }[];
   totalFinds: number;
   warnings: StratWarning[];
   defaults: { correction: string; rmax: number; nsim: number; level: number };
@@ -25,8 +34,15 @@ export function countsByClass(data: ScopeData): Map<string, number> {
 }
 
 export async function stratWarningsFor(db: Db, siteId: string, data: ScopeData): Promise<StratWarning[]> {
-  const [relations, all] = await Promise.all([siteRelations(db, siteId), db.select({ id: contexts.id }).from(contexts).where(eq(contexts.siteId, siteId))]);
-  return stratigraphicWarnings(data.contexts, all.map((c) => c.id), relations);
+  const [relations, all] = await Promise.all([
+    siteRelations(db, siteId),
+    db.select({ id: contexts.id }).from(contexts).where(eq(contexts.siteId, siteId)),
+  ]);
+  return stratigraphicWarnings(
+    data.contexts,
+    all.map((c) => c.id),
+    relations,
+  );
 }
 
 /** What the workspace shows before a run: n per class, which tests each class is too small for, warnings, defaults. */
@@ -35,11 +51,21 @@ export async function scopeSummary(db: Db, siteId: string, scope: RunScope): Pro
   const n = countsByClass(data);
   const { bbox } = data.window;
   return {
-    trench: { id: data.trench.id, code: data.trench.code, area: data.window.area, shortSide: Math.min(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY) },
+    trench: {
+      id: data.trench.id,
+      code: data.trench.code,
+      area: data.window.area,
+      shortSide: Math.min(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY),
+    },
     classes: data.classes.map((c) => {
       const count = n.get(c.id) ?? 0;
       return {
-        id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, n: count,
+        id: c.id,
+        code: c.code,
+        label: c.label,
+        colour: c.colour,
+        symbol: c.symbol,
+        n: count,
         lowPower: count < LOW_POWER_N,
         tooFewFor: (Object.keys(MIN_POINTS) as TestKind[]).filter((k) => count < MIN_POINTS[k]),
       };

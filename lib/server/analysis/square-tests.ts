@@ -16,10 +16,14 @@ import type { ScopeData } from "./scope-data";
  */
 
 export const SQUARE_QUESTIONS: Record<SquareTest["kind"], string> = {
-  moran: "Do squares with similar counts lie next to each other more than if the counts were placed over the dug squares at random (Moran's I)?",
-  geary: "Do neighbouring squares differ less (or more) in their counts than if the counts were placed at random (Geary's C, which weighs differences between neighbours)?",
-  "local-moran": "Which squares sit among neighbours like themselves (high among high, low among low), or stand out from them, more than chance placement allows (local Moran's I)?",
-  "getis-ord": "Where are the hot and cold spots: squares whose neighbourhood, the square included, holds more or fewer finds than chance placement allows (Getis–Ord Gi*)?",
+  moran:
+    "Do squares with similar counts lie next to each other more than if the counts were placed over the dug squares at random (Moran's I)?",
+  geary:
+    "Do neighbouring squares differ less (or more) in their counts than if the counts were placed at random (Geary's C, which weighs differences between neighbours)?",
+  "local-moran":
+    "Which squares sit among neighbours like themselves (high among high, low among low), or stand out from them, more than chance placement allows (local Moran's I)?",
+  "getis-ord":
+    "Where are the hot and cold spots: squares whose neighbourhood, the square included, holds more or fewer finds than chance placement allows (Getis–Ord Gi*)?",
 };
 
 const VERDICT: Record<SquareTestResult["verdict"], SquareVerdictWord> = {
@@ -32,12 +36,21 @@ const VERDICT: Record<SquareTestResult["verdict"], SquareVerdictWord> = {
 /** Why the square tests cannot run in this scope (no grid, no records). */
 export function squareRefusals(data: ScopeData, tests: SquareTest[]): string[] {
   if (!tests.length) return [];
-  if (!gridOf(data.trench)) return [`Trench ${data.trench.code} has no square grid: a director sets its square size and origin before counts by square can be tested.`];
+  if (!gridOf(data.trench))
+    return [
+      `Trench ${data.trench.code} has no square grid: a director sets its square size and origin before counts by square can be tested.`,
+    ];
   if (!data.squareSamples.length) return ["No counts by grid square are recorded in the chosen contexts."];
   return [];
 }
 
-export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { nsim: number; level: number }, seed: number, aborted: () => boolean = () => false): SquareTestOut[] {
+export function runSquareTests(
+  data: ScopeData,
+  tests: SquareTest[],
+  params: { nsim: number; level: number },
+  seed: number,
+  aborted: () => boolean = () => false,
+): SquareTestOut[] {
   if (!tests.length) return [];
   const grid = gridOf(data.trench);
   if (!grid) throw new SpatialInputError(squareRefusals(data, tests)[0]!);
@@ -49,7 +62,10 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
       if (aborted()) return out;
       const testSeed = (seed + k++) >>> 0;
       // One unit per square with a record in scope.
-      const units = new Map<string, { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number; records: number }>();
+      const units = new Map<
+        string,
+        { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number; records: number }
+      >();
       for (const sample of data.squareSamples) {
         const key = `${sample.col},${sample.row}`;
         const sq = bySquare.get(key);
@@ -62,9 +78,12 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
         u.records++;
       }
       const depth = [...units.values()].map((u) => u.records);
-      const uneven = Math.min(...depth) !== Math.max(...depth)
-        ? [`Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds per m² of plan whatever their spread. Read the pattern with that in mind, or test contexts dug evenly.`]
-        : [];
+      const uneven =
+        Math.min(...depth) !== Math.max(...depth)
+          ? [
+              `Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds per m² of plan whatever their spread. Read the pattern with that in mind, or test contexts dug evenly.`,
+            ]
+          : [];
       const squares: LatticeSquare[] = [...units.values()].map((u) => ({
         id: u.sq.label,
         col: u.sq.col,
@@ -75,7 +94,10 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
       }));
       const spec = {
         type: t.kind,
-        neighbours: t.neighbours === "distance" ? { type: "distance", upper: t.band ?? 1.5 * grid.size } : { type: t.neighbours, from: "grid" },
+        neighbours:
+          t.neighbours === "distance"
+            ? { type: "distance", upper: t.band ?? 1.5 * grid.size }
+            : { type: t.neighbours, from: "grid" },
         style: t.style,
         variable: t.variable,
         minArea: t.minArea,
@@ -84,16 +106,42 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
         seed: testSeed,
         level: params.level,
       };
-      const base = { kind: t.kind, classId: cls.id, question: SQUARE_QUESTIONS[t.kind], style: t.style, variable: t.variable, permutations: params.nsim, seed: testSeed, gridSize: grid.size };
+      const base = {
+        kind: t.kind,
+        classId: cls.id,
+        question: SQUARE_QUESTIONS[t.kind],
+        style: t.style,
+        variable: t.variable,
+        permutations: params.nsim,
+        seed: testSeed,
+        gridSize: grid.size,
+      };
       const cellOf = (label: string, value: number, extra: Partial<SquareCellOut> = {}): SquareCellOut => {
         const u = [...units.values()].find((v) => v.sq.label === label)!;
-        return { label, x0: u.sq.x0, y0: u.sq.y0, x1: u.sq.x1, y1: u.sq.y1, area: u.area, value, statistic: null, p: null, pAdjusted: null, class: "none", ...extra };
+        return {
+          label,
+          x0: u.sq.x0,
+          y0: u.sq.y0,
+          x1: u.sq.x1,
+          y1: u.sq.y1,
+          area: u.area,
+          value,
+          statistic: null,
+          p: null,
+          pAdjusted: null,
+          class: "none",
+          ...extra,
+        };
       };
       try {
         const r = runSquareTest({ squares }, spec);
         const cells = r.squares
-          ? r.squares.map((q) => cellOf(q.id, q.value, { statistic: q.statistic, p: q.p, pAdjusted: q.pAdjusted, class: q.class }))
-          : squares.filter((q) => !r.leftOut.some((l) => l.id === q.id)).map((q) => cellOf(q.id, t.variable === "density" ? q.value / q.area : q.value));
+          ? r.squares.map((q) =>
+              cellOf(q.id, q.value, { statistic: q.statistic, p: q.p, pAdjusted: q.pAdjusted, class: q.class }),
+            )
+          : squares
+              .filter((q) => !r.leftOut.some((l) => l.id === q.id))
+              .map((q) => cellOf(q.id, t.variable === "density" ? q.value / q.area : q.value));
         out.push({
           ...base,
           verdict: VERDICT[r.verdict],
@@ -112,7 +160,21 @@ export function runSquareTests(data: ScopeData, tests: SquareTest[], params: { n
       } catch (err) {
         if (!(err instanceof SpatialInputError)) throw err;
         // This class cannot be tested here (too few squares, all alike): said on the result, the run goes on.
-        out.push({ ...base, verdict: "not-run", sentence: `Not run for ${cls.code}: ${err.message}`, p: null, pFrom: null, notes: [err.message], n: squares.length, leftOut: [], neighbours: "", statistic: null, expected: null, z: null, cells: [] });
+        out.push({
+          ...base,
+          verdict: "not-run",
+          sentence: `Not run for ${cls.code}: ${err.message}`,
+          p: null,
+          pFrom: null,
+          notes: [err.message],
+          n: squares.length,
+          leftOut: [],
+          neighbours: "",
+          statistic: null,
+          expected: null,
+          z: null,
+          cells: [],
+        });
       }
     }
   }

@@ -20,7 +20,11 @@ function unionFind(ids: string[]) {
   return { find, union: (a: string, b: string) => parent.set(find(a), find(b)) };
 }
 
-export function stratigraphicWarnings(chosen: ContextLabel[], allContextIds: string[], relations: RelationRow[]): StratWarning[] {
+export function stratigraphicWarnings(
+  chosen: ContextLabel[],
+  allContextIds: string[],
+  relations: RelationRow[],
+): StratWarning[] {
   if (chosen.length < 2) return [];
   const uf = unionFind([...new Set([...allContextIds, ...relations.flatMap((r) => [r.fromId, r.toId])])]);
   for (const r of relations) if (r.kind === "same_as") uf.union(r.fromId, r.toId);
@@ -28,7 +32,8 @@ export function stratigraphicWarnings(chosen: ContextLabel[], allContextIds: str
   const later = new Map<string, Set<string>>();
   for (const r of relations) {
     if (r.kind === "same_as") continue;
-    const a = uf.find(r.fromId), b = uf.find(r.toId);
+    const a = uf.find(r.fromId),
+      b = uf.find(r.toId);
     if (!later.has(a)) later.set(a, new Set());
     later.get(a)!.add(b);
   }
@@ -38,7 +43,10 @@ export function stratigraphicWarnings(chosen: ContextLabel[], allContextIds: str
     while (stack.length) {
       for (const next of later.get(stack.pop()!) ?? []) {
         if (next === to) return true;
-        if (!seen.has(next)) { seen.add(next); stack.push(next); }
+        if (!seen.has(next)) {
+          seen.add(next);
+          stack.push(next);
+        }
       }
     }
     return false;
@@ -46,13 +54,24 @@ export function stratigraphicWarnings(chosen: ContextLabel[], allContextIds: str
   const out: StratWarning[] = [];
   for (const [i, p] of chosen.entries()) {
     for (const q of chosen.slice(i + 1)) {
-      const gp = uf.find(p.id), gq = uf.find(q.id);
+      const gp = uf.find(p.id),
+        gq = uf.find(q.id);
       if (gp === gq) continue;
       if (reaches(gp, gq) || reaches(gq, gp)) {
         const [late, early] = reaches(gp, gq) ? [p, q] : [q, p];
-        out.push({ kind: "ordered", a: late.number, b: early.number, message: `Context ${late.number} is later than ${early.number} in the matrix: they are not one surface, and their finds were laid down at different moments.` });
+        out.push({
+          kind: "ordered",
+          a: late.number,
+          b: early.number,
+          message: `Context ${late.number} is later than ${early.number} in the matrix: they are not one surface, and their finds were laid down at different moments.`,
+        });
       } else {
-        out.push({ kind: "unrelated", a: p.number, b: q.number, message: `No "same as" relation joins contexts ${p.number} and ${q.number}; nothing in the record says they are one surface.` });
+        out.push({
+          kind: "unrelated",
+          a: p.number,
+          b: q.number,
+          message: `No "same as" relation joins contexts ${p.number} and ${q.number}; nothing in the record says they are one surface.`,
+        });
       }
     }
   }

@@ -9,7 +9,12 @@ import type { ContextExportRow } from "./csv";
 /** Every context of the site with its trench code, number of finds and relations read from its side. */
 export async function contextsForExport(db: Db, siteId: string): Promise<ContextExportRow[]> {
   const [rows, counts, rels] = await Promise.all([
-    db.select({ c: contexts, trenchCode: trenches.code }).from(contexts).innerJoin(trenches, eq(trenches.id, contexts.trenchId)).where(eq(contexts.siteId, siteId)).orderBy(asc(contexts.number)),
+    db
+      .select({ c: contexts, trenchCode: trenches.code })
+      .from(contexts)
+      .innerJoin(trenches, eq(trenches.id, contexts.trenchId))
+      .where(eq(contexts.siteId, siteId))
+      .orderBy(asc(contexts.number)),
     db.select({ id: finds.contextId, n: count() }).from(finds).where(eq(finds.siteId, siteId)).groupBy(finds.contextId),
     listRelations(db, siteId),
   ]);

@@ -12,7 +12,8 @@ export type Transform = (x: number, y: number) => [number, number];
  */
 function crsDefinition(site: Site): string {
   const raw = site.crs?.trim();
-  if (!raw) throw badInput(`Site ${site.code} has no CRS set; export in site-grid coordinates, or ask a director to set one.`);
+  if (!raw)
+    throw badInput(`Site ${site.code} has no CRS set; export in site-grid coordinates, or ask a director to set one.`);
   const at = raw.indexOf("+proj=");
   const def = at >= 0 ? raw.slice(at) : raw;
   try {

@@ -10,7 +10,8 @@ export type CsvColumn = readonly [name: string, kind: Kind];
 /** A number column's cell: the number itself, or empty when there is none. Anything else is a bug here. */
 function numberCell(name: string, v: unknown): number | string {
   if (v === null || v === undefined || v === "") return "";
-  if (typeof v !== "number" || !Number.isFinite(v)) throw new Error(`CSV column ${name} holds ${typeof v}, not a number`);
+  if (typeof v !== "number" || !Number.isFinite(v))
+    throw new Error(`CSV column ${name} holds ${typeof v}, not a number`);
   return v;
 }
 
@@ -19,8 +20,13 @@ function numberCell(name: string, v: unknown): number | string {
  * inert against spreadsheet formulas (see lib/csv-cells.ts).
  */
 export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string {
-  const data = rows.map((r) => columns.map(([name, kind], i) => (kind === "number" ? numberCell(name, r[i]) : inertText(String(r[i] ?? "")))));
-  return Papa.unparse({ fields: columns.map(([name]) => name), data }, { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" });
+  const data = rows.map((r) =>
+    columns.map(([name, kind], i) => (kind === "number" ? numberCell(name, r[i]) : inertText(String(r[i] ?? "")))),
+  );
+  return Papa.unparse(
+    { fields: columns.map(([name]) => name), data },
+    { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" },
+  );
 }
 
 /**
@@ -28,40 +34,121 @@ export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string 
  * reduced level in metres against the site's datum (empty when no level was taken).
  */
 export const findCsvColumns: readonly CsvColumn[] = [
-  ["number", "number"], ["trench", "text"], ["context", "number"], ["class", "text"], ["x", "number"], ["y", "number"], ["z_rl_m", "number"],
-  ["count", "number"], ["weight_g", "number"], ["description", "text"], ["method", "text"], ["recorded_by", "text"], ["recorded_at", "text"], ["station_point", "text"],
+  ["number", "number"],
+  ["trench", "text"],
+  ["context", "number"],
+  ["class", "text"],
+  ["x", "number"],
+  ["y", "number"],
+  ["z_rl_m", "number"],
+  ["count", "number"],
+  ["weight_g", "number"],
+  ["description", "text"],
+  ["method", "text"],
+  ["recorded_by", "text"],
+  ["recorded_at", "text"],
+  ["station_point", "text"],
 ];
 
 export function findsCsv(rows: RegisterRow[]): string {
   return toCsv(
     findCsvColumns,
-    rows.map((f) => [f.number, f.trenchCode, f.contextNumber, f.classCode, f.x, f.y, f.z, f.count, f.weightG, f.description, f.method, f.recordedBy ?? "", f.recordedAt.toISOString(), f.stationPoint ?? ""]),
+    rows.map((f) => [
+      f.number,
+      f.trenchCode,
+      f.contextNumber,
+      f.classCode,
+      f.x,
+      f.y,
+      f.z,
+      f.count,
+      f.weightG,
+      f.description,
+      f.method,
+      f.recordedBy ?? "",
+      f.recordedAt.toISOString(),
+      f.stationPoint ?? "",
+    ]),
   );
 }
 
 export type ContextExportRow = Context & { trenchCode: string; finds: number; relations: string };
 
 export const contextCsvColumns: readonly CsvColumn[] = [
-  ["number", "number"], ["trench", "text"], ["type", "text"], ["state", "text"], ["colour", "text"], ["compaction", "text"], ["composition", "text"],
-  ["inclusions", "text"], ["description", "text"], ["interpretation", "text"], ["relations", "text"], ["finds", "number"], ["has_extent", "text"], ["signed_off_at", "text"],
+  ["number", "number"],
+  ["trench", "text"],
+  ["type", "text"],
+  ["state", "text"],
+  ["colour", "text"],
+  ["compaction", "text"],
+  ["composition", "text"],
+  ["inclusions", "text"],
+  ["description", "text"],
+  ["interpretation", "text"],
+  ["relations", "text"],
+  ["finds", "number"],
+  ["has_extent", "text"],
+  ["signed_off_at", "text"],
 ];
 
 export function contextsCsv(rows: ContextExportRow[]): string {
   return toCsv(
     contextCsvColumns,
-    rows.map((c) => [c.number, c.trenchCode, c.type, c.state, c.colour, c.compaction, c.composition, c.inclusions, c.description, c.interpretation, c.relations, c.finds, c.extent ? "yes" : "no", c.signedOffAt?.toISOString() ?? ""]),
+    rows.map((c) => [
+      c.number,
+      c.trenchCode,
+      c.type,
+      c.state,
+      c.colour,
+      c.compaction,
+      c.composition,
+      c.inclusions,
+      c.description,
+      c.interpretation,
+      c.relations,
+      c.finds,
+      c.extent ? "yes" : "no",
+      c.signedOffAt?.toISOString() ?? "",
+    ]),
   );
 }
 
 /** The samples register; z_rl_m and volume_l empty when not recorded. */
 export const sampleCsvColumns: readonly CsvColumn[] = [
-  ["number", "number"], ["trench", "text"], ["context", "number"], ["spit", "number"], ["type", "text"], ["x", "number"], ["y", "number"], ["z_rl_m", "number"],
-  ["volume_l", "number"], ["purpose", "text"], ["taken_by", "text"], ["taken_on", "text"], ["status", "text"], ["context_state", "text"],
+  ["number", "number"],
+  ["trench", "text"],
+  ["context", "number"],
+  ["spit", "number"],
+  ["type", "text"],
+  ["x", "number"],
+  ["y", "number"],
+  ["z_rl_m", "number"],
+  ["volume_l", "number"],
+  ["purpose", "text"],
+  ["taken_by", "text"],
+  ["taken_on", "text"],
+  ["status", "text"],
+  ["context_state", "text"],
 ];
 
 export function samplesCsv(rows: SampleRegisterRow[]): string {
   return toCsv(
     sampleCsvColumns,
-    rows.map((s) => [s.number, s.trenchCode, s.contextNumber, s.spitNumber, s.type, s.x, s.y, s.z, s.volumeL, s.purpose, s.takenBy ?? "", s.takenOn, s.status, s.contextState]),
+    rows.map((s) => [
+      s.number,
+      s.trenchCode,
+      s.contextNumber,
+      s.spitNumber,
+      s.type,
+      s.x,
+      s.y,
+      s.z,
+      s.volumeL,
+      s.purpose,
+      s.takenBy ?? "",
+      s.takenOn,
+      s.status,
+      s.contextState,
+    ]),
   );
 }

@@ -16,7 +16,11 @@ const stamp = () => new Date().toISOString().slice(0, 10);
 /** A download: the browser saves it under `name` instead of showing it. */
 export function download(body: string | Uint8Array, name: string, type: string): Response {
   return new Response(body as BodyInit, {
-    headers: { "content-type": type, "content-disposition": `attachment; filename="${name.replace(/[^\w.-]+/g, "_")}"`, "cache-control": "no-store" },
+    headers: {
+      "content-type": type,
+      "content-disposition": `attachment; filename="${name.replace(/[^\w.-]+/g, "_")}"`,
+      "cache-control": "no-store",
+    },
   });
 }
 
@@ -31,15 +35,30 @@ export async function exportFinds(db: Db, site: Site, q: z.infer<typeof exportFi
 
 export async function exportContexts(db: Db, site: Site, q: z.infer<typeof exportContextsQuery>): Promise<Response> {
   const rows = await contextsForExport(db, site.id);
-  if (q.format === "csv") return download(contextsCsv(rows), `${site.code}-contexts-${stamp()}.csv`, "text/csv; charset=utf-8");
-  const items = rows.map((c) => ({ id: c.id, polygon: c.extent, properties: { number: c.number, trench: c.trenchCode, type: c.type, state: c.state, relations: c.relations } }));
-  return geo(outlinesGeoJson(site, q.coords, `${site.code} context extents`, items), `${site.code}-context-extents-${q.coords}-${stamp()}.geojson`);
+  if (q.format === "csv")
+    return download(contextsCsv(rows), `${site.code}-contexts-${stamp()}.csv`, "text/csv; charset=utf-8");
+  const items = rows.map((c) => ({
+    id: c.id,
+    polygon: c.extent,
+    properties: { number: c.number, trench: c.trenchCode, type: c.type, state: c.state, relations: c.relations },
+  }));
+  return geo(
+    outlinesGeoJson(site, q.coords, `${site.code} context extents`, items),
+    `${site.code}-context-extents-${q.coords}-${stamp()}.geojson`,
+  );
 }
 
 export async function exportTrenches(db: Db, site: Site, q: z.infer<typeof exportTrenchesQuery>): Promise<Response> {
   const rows = await listTrenches(db, site.id);
-  const items = rows.map((t) => ({ id: t.id, polygon: t.outline, properties: { code: t.code, name: t.name, signedOff: t.signedOffAt !== null } }));
-  return geo(outlinesGeoJson(site, q.coords, `${site.code} trench outlines`, items), `${site.code}-trenches-${q.coords}-${stamp()}.geojson`);
+  const items = rows.map((t) => ({
+    id: t.id,
+    polygon: t.outline,
+    properties: { code: t.code, name: t.name, signedOff: t.signedOffAt !== null },
+  }));
+  return geo(
+    outlinesGeoJson(site, q.coords, `${site.code} trench outlines`, items),
+    `${site.code}-trenches-${q.coords}-${stamp()}.geojson`,
+  );
 }
 
 export async function exportSamples(db: Db, site: Site, q: z.infer<typeof exportSamplesQuery>): Promise<Response> {

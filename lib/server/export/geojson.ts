@@ -4,7 +4,12 @@ import type { CoordSpace } from "@/lib/schemas/export";
 import { describeSpace, makeTransform } from "./coords";
 
 type Position = [number, number] | [number, number, number];
-type Feature = { type: "Feature"; id?: string; geometry: { type: "Point"; coordinates: Position } | { type: "Polygon"; coordinates: Position[][] } | null; properties: Record<string, unknown> };
+type Feature = {
+  type: "Feature";
+  id?: string;
+  geometry: { type: "Point"; coordinates: Position } | { type: "Polygon"; coordinates: Position[][] } | null;
+  properties: Record<string, unknown>;
+};
 
 /** Twice the signed area of a ring (shoelace formula); positive when counter-clockwise. */
 export function signedArea2(ring: readonly (readonly number[])[]): number {
@@ -18,7 +23,10 @@ export function signedArea2(ring: readonly (readonly number[])[]): number {
  * holes clockwise, every ring closed. Rings are re-oriented after transforming, since a projection may
  * in principle flip them. Returns null for an outline that is not a valid window.
  */
-export function exportPolygon(polygon: PolygonJson, t: (x: number, y: number) => [number, number]): Position[][] | null {
+export function exportPolygon(
+  polygon: PolygonJson,
+  t: (x: number, y: number) => [number, number],
+): Position[][] | null {
   const check = checkOutline(polygon);
   if (!check.ok) return null;
   return windowToPolygon(check.window).coordinates.map((ring, k) => {
@@ -34,7 +42,21 @@ export function featureCollection(site: Site, space: CoordSpace, name: string, f
   return { type: "FeatureCollection" as const, name, coordinateSpace: describeSpace(site, space), features };
 }
 
-export type ExportFind = { id: string; number: number; x: number; y: number; z: number | null; trenchCode: string; contextNumber: number; classCode: string; classLabel: string; count: number | null; weightG: number | null; description: string; recordedAt: Date };
+export type ExportFind = {
+  id: string;
+  number: number;
+  x: number;
+  y: number;
+  z: number | null;
+  trenchCode: string;
+  contextNumber: number;
+  classCode: string;
+  classLabel: string;
+  count: number | null;
+  weightG: number | null;
+  description: string;
+  recordedAt: Date;
+};
 
 export function findsGeoJson(site: Site, space: CoordSpace, rows: ExportFind[]) {
   const t = makeTransform(site, space);
@@ -46,17 +68,37 @@ export function findsGeoJson(site: Site, space: CoordSpace, rows: ExportFind[]) 
       type: "Feature",
       id: String(f.number),
       geometry: { type: "Point", coordinates },
-      properties: { number: f.number, trench: f.trenchCode, context: f.contextNumber, class: f.classCode, classLabel: f.classLabel, count: f.count, weightG: f.weightG, description: f.description, recordedAt: f.recordedAt.toISOString() },
+      properties: {
+        number: f.number,
+        trench: f.trenchCode,
+        context: f.contextNumber,
+        class: f.classCode,
+        classLabel: f.classLabel,
+        count: f.count,
+        weightG: f.weightG,
+        description: f.description,
+        recordedAt: f.recordedAt.toISOString(),
+      },
     };
   });
   return featureCollection(site, space, `${site.code} finds`, features);
 }
 
-export function outlinesGeoJson(site: Site, space: CoordSpace, name: string, items: { id: string; polygon: PolygonJson | null; properties: Record<string, unknown> }[]) {
+export function outlinesGeoJson(
+  site: Site,
+  space: CoordSpace,
+  name: string,
+  items: { id: string; polygon: PolygonJson | null; properties: Record<string, unknown> }[],
+) {
   const t = makeTransform(site, space);
   const features: Feature[] = items.map((it) => {
     const coordinates = it.polygon ? exportPolygon(it.polygon, t) : null;
-    return { type: "Feature", id: it.id, geometry: coordinates ? { type: "Polygon", coordinates } : null, properties: it.properties };
+    return {
+      type: "Feature",
+      id: it.id,
+      geometry: coordinates ? { type: "Polygon", coordinates } : null,
+      properties: it.properties,
+    };
   });
   return featureCollection(site, space, name, features);
 }

@@ -6,7 +6,8 @@ export type NodeInfo = { type: string; state: string };
 
 export type MatrixDrawing = { svg: string; width: number; height: number };
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+const esc = (s: string) =>
+  s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 
 const charW = 9.6;
 const boxH = 46;
@@ -21,7 +22,11 @@ const stateMarks: Record<string, string> = { open: "", awaiting: " · awaiting",
  * redundant relations are added afterwards as dashed curves, so they do not pull the layers about.
  * `linkOf` gives the sheet address of each context (omit for a downloaded file).
  */
-export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?: (contextId: string) => string): MatrixDrawing {
+export function drawMatrix(
+  matrix: Matrix,
+  info: Map<string, NodeInfo>,
+  linkOf?: (contextId: string) => string,
+): MatrixDrawing {
   const g = new dagre.graphlib.Graph({ multigraph: true });
   g.setGraph({ rankdir: "TB", nodesep: 28, ranksep: 44, marginx: pad, marginy: pad });
   g.setDefaultEdgeLabel(() => ({}));
@@ -49,7 +54,9 @@ export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?:
       d = pts.map((p, k) => `${k ? "L" : "M"}${p.x.toFixed(1)},${p.y.toFixed(1)}`).join(" ");
     }
     const style = e.redundant ? `stroke="${faint}" stroke-dasharray="5 4"` : `stroke="${ink}"`;
-    parts.push(`<path d="${d}" fill="none" stroke-width="1.5" ${style} marker-end="url(#${e.redundant ? "tip-faint" : "tip"})"><title>${e.redundant ? "redundant: " : ""}${esc(e.relation.kind)}</title></path>`);
+    parts.push(
+      `<path d="${d}" fill="none" stroke-width="1.5" ${style} marker-end="url(#${e.redundant ? "tip-faint" : "tip"})"><title>${e.redundant ? "redundant: " : ""}${esc(e.relation.kind)}</title></path>`,
+    );
   });
   for (const n of matrix.nodes) {
     const box = g.node(n.key);
@@ -58,7 +65,9 @@ export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?:
     const first = info.get(n.members[0].id);
     const locked = n.members.every((m) => info.get(m.id)?.state === "signed_off");
     parts.push(`<g class="ctx" data-node="${esc(n.label)}">`);
-    parts.push(`<rect x="${x.toFixed(1)}" y="${y.toFixed(1)}" width="${box.width.toFixed(1)}" height="${box.height}" rx="3" fill="#ffffff" stroke="${ink}" stroke-width="${locked ? 3 : 1.5}"/>`);
+    parts.push(
+      `<rect x="${x.toFixed(1)}" y="${y.toFixed(1)}" width="${box.width.toFixed(1)}" height="${box.height}" rx="3" fill="#ffffff" stroke="${ink}" stroke-width="${locked ? 3 : 1.5}"/>`,
+    );
     // Each member number is its own link, so a "same as" group still opens the right sheet.
     let cx = box.x - ((n.label.length - 1) * charW) / 2;
     n.members.forEach((m, k) => {
@@ -69,7 +78,9 @@ export function drawMatrix(matrix: Matrix, info: Map<string, NodeInfo>, linkOf?:
       cx += (text.length + 1) * charW;
     });
     const sub = `${first?.type ?? ""}${stateMarks[first?.state ?? "open"] ?? ""}`;
-    parts.push(`<text x="${box.x.toFixed(1)}" y="${(box.y + 15).toFixed(1)}" text-anchor="middle" font-family="Source Serif 4, Georgia, serif" font-size="11" fill="${faint}">${esc(sub)}</text>`);
+    parts.push(
+      `<text x="${box.x.toFixed(1)}" y="${(box.y + 15).toFixed(1)}" text-anchor="middle" font-family="Source Serif 4, Georgia, serif" font-size="11" fill="${faint}">${esc(sub)}</text>`,
+    );
     parts.push(`</g>`);
   }
   const marker = (id: string, colour: string) =>

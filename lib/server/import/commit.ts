@@ -2,7 +2,12 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Db, Tx } from "@/db/client";
 import { sql } from "drizzle-orm";
-import { importFields, type ImportCommitInput, type ImportMapping, type ImportPreviewInput } from "@/lib/schemas/import";
+import {
+  importFields,
+  type ImportCommitInput,
+  type ImportMapping,
+  type ImportPreviewInput,
+} from "@/lib/schemas/import";
 import { recordAudit } from "@/lib/server/audit";
 import { getContext } from "@/lib/server/contexts";
 import { badInput } from "@/lib/server/errors";
@@ -36,12 +41,25 @@ export async function previewImport(db: Db, actor: SiteActor, input: ImportPrevi
   const mapping: Partial<ImportMapping> = input.mapping ?? remembered ?? guessMapping(csv.headers);
   const source: "given" | "remembered" | "guessed" = input.mapping ? "given" : remembered ? "remembered" : "guessed";
   const problems = missingHeaders(csv, mapping);
-  const base = { headers: csv.headers, mapping, mappingSource: source, rowCount: csv.rows.length, sample: csv.rows.slice(0, 10) };
-  if (Object.keys(problems).length) return { ...base, mappingProblems: problems, errors: [], warnings: [], validCount: 0 };
+  const base = {
+    headers: csv.headers,
+    mapping,
+    mappingSource: source,
+    rowCount: csv.rows.length,
+    sample: csv.rows.slice(0, 10),
+  };
+  if (Object.keys(problems).length)
+    return { ...base, mappingProblems: problems, errors: [], warnings: [], validCount: 0 };
   const full = mapping as ImportMapping;
   if (input.mapping) await db.transaction((tx) => saveImportMapping(tx, actor, full));
   const result = validateRows(csv, full, await loadImportLookups(db, actor.site.id), input.zReference);
-  return { ...base, mappingProblems: {}, errors: result.errors, warnings: result.warnings, validCount: result.valid.length };
+  return {
+    ...base,
+    mappingProblems: {},
+    errors: result.errors,
+    warnings: result.warnings,
+    validCount: result.valid.length,
+  };
 }
 
 /**
@@ -58,9 +76,14 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
     const result = validateRows(csv, input.mapping, await loadImportLookups(tx, actor.site.id), input.zReference);
     if (result.errors.length) {
       const n = result.errors.length;
-      throw badInput(`${n} of ${csv.rows.length} rows cannot be imported, so nothing was imported. Fix ${n === 1 ? "it" : "them"} and upload the file again.`, undefined, { errors: result.errors });
+      throw badInput(
+        `${n} of ${csv.rows.length} rows cannot be imported, so nothing was imported. Fix ${n === 1 ? "it" : "them"} and upload the file again.`,
+        undefined,
+        { errors: result.errors },
+      );
     }
-    for (const id of result.contextIds) await assertContextWritable(tx, await getContext(tx, actor.site.id, id), "given new finds");
+    for (const id of result.contextIds)
+      await assertContextWritable(tx, await getContext(tx, actor.site.id, id), "given new finds");
     const numbers = await numberRows(tx, actor.site.id, result.valid);
     const importId = randomUUID();
     for (let i = 0; i < result.valid.length; i += BATCH) {
@@ -68,10 +91,30 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
     }
     const range = numbers.reduce((m, n) => [Math.min(m[0], n), Math.max(m[1], n)], [Infinity, -Infinity]);
     // One trail entry for the whole file; each find has its own (insertBatch), naming this import.
-    const summary = { fileName: input.fileName, rows: result.valid.length, numbers: range, contexts: [...result.contextIds], zReference: input.zReference, levelWarnings: result.warnings.length };
-    await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "import", recordType: "import", recordId: importId, after: summary });
+    const summary = {
+      fileName: input.fileName,
+      rows: result.valid.length,
+      numbers: range,
+      contexts: [...result.contextIds],
+      zReference: input.zReference,
+      levelWarnings: result.warnings.length,
+    };
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "import",
+      recordType: "import",
+      recordId: importId,
+      after: summary,
+    });
     await saveImportMapping(tx, actor, input.mapping);
-    return { imported: result.valid.length, firstNumber: range[0], lastNumber: range[1], importId, warnings: result.warnings.length };
+    return {
+      imported: result.valid.length,
+      firstNumber: range[0],
+      lastNumber: range[1],
+      importId,
+      warnings: result.warnings.length,
+    };
   });
 }
 
@@ -92,10 +135,28 @@ async function numberRows(tx: Tx, siteId: string, rows: ValidRow[]): Promise<num
  * set-based statement (keys as in every other find entry), so a find's own trail starts with the file it
  * came from.
  */
-async function insertBatch(tx: Tx, actor: SiteActor, importId: string, rows: ValidRow[], numbers: number[]): Promise<void> {
+async function insertBatch(
+  tx: Tx,
+  actor: SiteActor,
+  importId: string,
+  rows: ValidRow[],
+  numbers: number[],
+): Promise<void> {
   const records = rows.map((r, k) => ({
-    id: randomUUID(), site_id: actor.site.id, trench_id: r.trenchId, context_id: r.contextId, class_id: r.classId, number: numbers[k], station_point: r.stationPoint,
-    x: r.x, y: r.y, z: r.z, count: r.count, weight_g: r.weightG, description: r.description, recorded_by: actor.userId,
+    id: randomUUID(),
+    site_id: actor.site.id,
+    trench_id: r.trenchId,
+    context_id: r.contextId,
+    class_id: r.classId,
+    number: numbers[k],
+    station_point: r.stationPoint,
+    x: r.x,
+    y: r.y,
+    z: r.z,
+    count: r.count,
+    weight_g: r.weightG,
+    description: r.description,
+    recorded_by: actor.userId,
   }));
   await tx.execute(sql`
     insert into finds (id, site_id, trench_id, context_id, class_id, number, station_point, x, y, z, count, weight_g, description, method, recorded_by)

@@ -6,7 +6,16 @@ import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/s
 import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial";
 
-export type ImportContext = { id: string; number: number; trenchId: string; state: string; signedOffBy: string | null; signedOffAt: Date | null; submittedBy: string | null; submittedAt: Date | null };
+export type ImportContext = {
+  id: string;
+  number: number;
+  trenchId: string;
+  state: string;
+  signedOffBy: string | null;
+  signedOffAt: Date | null;
+  submittedBy: string | null;
+  submittedAt: Date | null;
+};
 /** A trench's plan window and its ground-surface level (RL), from which depths in a file are converted. */
 export type TrenchWindow = { code: string; window: Window | null; problem?: string; surfaceLevel?: number | null };
 /** A context's recorded top and base (RL): highest top and lowest base among its spot levels and spits. */
@@ -27,24 +36,47 @@ export type ImportLookups = {
 const submitter = alias(users, "submitter");
 
 export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<ImportLookups> {
-  const [site] = await db.select({ next: sites.nextFindNumber, tolerance: sites.levelTolerance }).from(sites).where(eq(sites.id, siteId));
+  const [site] = await db
+    .select({ next: sites.nextFindNumber, tolerance: sites.levelTolerance })
+    .from(sites)
+    .where(eq(sites.id, siteId));
   // One query after another: inside a transaction they share one connection (node-postgres queues
   // concurrent queries on a client, and warns that it will stop doing so).
-  const cls = await db.select({ id: artefactClasses.id, code: artefactClasses.code }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId));
+  const cls = await db
+    .select({ id: artefactClasses.id, code: artefactClasses.code })
+    .from(artefactClasses)
+    .where(eq(artefactClasses.siteId, siteId));
   const ctx = await db
-    .select({ id: contexts.id, number: contexts.number, trenchId: contexts.trenchId, state: contexts.state, signedOffBy: users.name, signedOffAt: contexts.signedOffAt, submittedBy: submitter.name, submittedAt: contexts.submittedAt })
+    .select({
+      id: contexts.id,
+      number: contexts.number,
+      trenchId: contexts.trenchId,
+      state: contexts.state,
+      signedOffBy: users.name,
+      signedOffAt: contexts.signedOffAt,
+      submittedBy: submitter.name,
+      submittedAt: contexts.submittedAt,
+    })
     .from(contexts)
     .leftJoin(users, eq(users.id, contexts.signedOffBy))
     .leftJoin(submitter, eq(submitter.id, contexts.submittedBy))
     .where(eq(contexts.siteId, siteId));
-  const tr = await db.select({ id: trenches.id, code: trenches.code, outline: trenches.outline, surfaceLevel: trenches.surfaceLevel }).from(trenches).where(eq(trenches.siteId, siteId));
+  const tr = await db
+    .select({ id: trenches.id, code: trenches.code, outline: trenches.outline, surfaceLevel: trenches.surfaceLevel })
+    .from(trenches)
+    .where(eq(trenches.siteId, siteId));
   const levels = await contextRanges(db, siteId);
   const nums = await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId));
   const windows = new Map<string, TrenchWindow>();
   for (const t of tr) {
     // Each trench window is built once here, not once per row.
     const check = checkOutline(t.outline);
-    windows.set(t.id, check.ok ? { code: t.code, window: check.window, surfaceLevel: t.surfaceLevel } : { code: t.code, window: null, problem: check.reason, surfaceLevel: t.surfaceLevel });
+    windows.set(
+      t.id,
+      check.ok
+        ? { code: t.code, window: check.window, surfaceLevel: t.surfaceLevel }
+        : { code: t.code, window: null, problem: check.reason, surfaceLevel: t.surfaceLevel },
+    );
   }
   return {
     classes: new Map(cls.map((c) => [c.code.toUpperCase(), c.id])),
@@ -58,7 +90,11 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
 }
 
 /** Every context's recorded top and base on a site, from the spot levels taken on them and their spits. */
-export async function contextRanges(db: Db | Tx, siteId: string, contextId?: string): Promise<Map<string, ContextRange>> {
+export async function contextRanges(
+  db: Db | Tx,
+  siteId: string,
+  contextId?: string,
+): Promise<Map<string, ContextRange>> {
   type Row = { id: string; top: number | string | null; base: number | string | null };
   const result = await db.execute(sql`
     with tops as (

@@ -23,8 +23,21 @@ export async function saveImportMapping(tx: Tx, actor: SiteActor, mapping: Impor
     .insert(importMappings)
     .values({ siteId: actor.site.id, mapping: clean })
     .onConflictDoUpdate({ target: importMappings.siteId, set: { mapping: clean, updatedAt: new Date() } });
-  await recordAudit(tx, { siteId: actor.site.id, actorId: actor.userId, action: "map-columns", recordType: "import", recordId: actor.site.id, before, after: clean });
+  await recordAudit(tx, {
+    siteId: actor.site.id,
+    actorId: actor.userId,
+    action: "map-columns",
+    recordType: "import",
+    recordId: actor.site.id,
+    before,
+    after: clean,
+  });
   return true;
 }
 
-const sorted = (m: Record<string, string | undefined>) => Object.fromEntries(Object.entries(m).filter(([, v]) => v).sort(([a], [b]) => a.localeCompare(b)));
+const sorted = (m: Record<string, string | undefined>) =>
+  Object.fromEntries(
+    Object.entries(m)
+      .filter(([, v]) => v)
+      .sort(([a], [b]) => a.localeCompare(b)),
+  );

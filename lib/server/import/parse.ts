@@ -15,10 +15,15 @@ export type ParsedCsv = {
  * The first row must be the header; a file without one cannot be mapped.
  */
 export function parseCsv(text: string): ParsedCsv {
-  const out = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { header: false, skipEmptyLines: "greedy", delimitersToGuess: [",", ";", "\t", "|"] });
+  const out = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), {
+    header: false,
+    skipEmptyLines: "greedy",
+    delimitersToGuess: [",", ";", "\t", "|"],
+  });
   // A Loamwork export guards formula-like text with a leading quote; reading it back undoes exactly that.
   const [head, ...rows] = out.data.map((r) => r.map(restoreText));
-  if (!head || head.every((h) => !h.trim())) throw badInput("The file has no header row; the first row must name the columns.");
+  if (!head || head.every((h) => !h.trim()))
+    throw badInput("The file has no header row; the first row must name the columns.");
   const headers = head.map((h) => h.trim());
   const seen = new Set<string>();
   for (const h of headers) {
@@ -29,10 +34,12 @@ export function parseCsv(text: string): ParsedCsv {
   const rowProblems = new Map<number, string>();
   for (const e of out.errors) {
     // papaparse counts the header as row 0 when header:false.
-    if (typeof e.row === "number" && e.row > 0 && e.code !== "UndetectableDelimiter") rowProblems.set(e.row - 1, e.message);
+    if (typeof e.row === "number" && e.row > 0 && e.code !== "UndetectableDelimiter")
+      rowProblems.set(e.row - 1, e.message);
   }
   rows.forEach((r, i) => {
-    if (r.length !== headers.length && !rowProblems.has(i)) rowProblems.set(i, `has ${r.length} cells where the header has ${headers.length}`);
+    if (r.length !== headers.length && !rowProblems.has(i))
+      rowProblems.set(i, `has ${r.length} cells where the header has ${headers.length}`);
   });
   return { headers, rows, rowProblems };
 }

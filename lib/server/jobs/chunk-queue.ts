@@ -36,7 +36,12 @@ export function decodeCurves(text: string): Float64Array {
 type ChunkOutput = { curves: string } | { inputError: string };
 
 export async function createChunkQueue(boss: PgBoss): Promise<void> {
-  await boss.createQueue(CHUNK_JOB, { name: CHUNK_JOB, retryLimit: CHUNK_RETRIES, retryDelay: 0, expireInSeconds: chunkExpireSeconds() });
+  await boss.createQueue(CHUNK_JOB, {
+    name: CHUNK_JOB,
+    retryLimit: CHUNK_RETRIES,
+    retryDelay: 0,
+    expireInSeconds: chunkExpireSeconds(),
+  });
 }
 
 export interface QueuedPoolOptions {
@@ -64,7 +69,12 @@ export function createQueuedPool(boss: PgBoss, options: QueuedPoolOptions = {}):
     timer = null;
     if (destroyed || waiting.size === 0) return;
     try {
-      const { rows } = await boss.getDb().executeSql("select id::text as id, state, output from pgboss.job where name = $1 and id = any($2::uuid[])", [CHUNK_JOB, [...waiting.keys()]]);
+      const { rows } = await boss
+        .getDb()
+        .executeSql("select id::text as id, state, output from pgboss.job where name = $1 and id = any($2::uuid[])", [
+          CHUNK_JOB,
+          [...waiting.keys()],
+        ]);
       for (const row of rows as { id: string; state: string; output: ChunkOutput | null }[]) {
         const w = waiting.get(row.id);
         if (!w) continue;
@@ -74,7 +84,11 @@ export function createQueuedPool(boss: PgBoss, options: QueuedPoolOptions = {}):
           else w.resolve(decodeCurves(row.output.curves));
         } else if (row.state === "failed" || row.state === "cancelled") {
           waiting.delete(row.id);
-          w.reject(new Error(`A chunk of simulations ${row.state === "failed" ? `failed in every worker that took it (${CHUNK_RETRIES + 1} tries)` : "was withdrawn"}.`));
+          w.reject(
+            new Error(
+              `A chunk of simulations ${row.state === "failed" ? `failed in every worker that took it (${CHUNK_RETRIES + 1} tries)` : "was withdrawn"}.`,
+            ),
+          );
         }
       }
     } catch (err) {
@@ -91,7 +105,11 @@ export function createQueuedPool(boss: PgBoss, options: QueuedPoolOptions = {}):
       if (destroyed) throw new DOMException("The simulation run was cancelled.", "AbortError");
       // a key unique across processes and machines: workers keep prepared tables per key
       const data: SimChunk = { ...chunk, key: `${prefix}:${chunk.key}` };
-      const id = await boss.send(CHUNK_JOB, data, { retryLimit: CHUNK_RETRIES, retryDelay: 0, expireInSeconds: chunkExpireSeconds() });
+      const id = await boss.send(CHUNK_JOB, data, {
+        retryLimit: CHUNK_RETRIES,
+        retryDelay: 0,
+        expireInSeconds: chunkExpireSeconds(),
+      });
       if (!id) throw new Error("The job queue did not accept a chunk of simulations.");
       const result = new Promise<Float64Array>((resolve, reject) => waiting.set(id, { resolve, reject }));
       timer ??= setTimeout(poll, pollMs);
@@ -112,23 +130,32 @@ export function createQueuedPool(boss: PgBoss, options: QueuedPoolOptions = {}):
  * A worker process's side: `count` loops (one per worker thread) each taking one chunk job at a time and
  * simulating it on `pool`. `log` hears of every chunk taken and finished (the workers' test follows them).
  */
-export async function workChunks(boss: PgBoss, pool: SimulationPool, count: number, log?: (line: string) => void): Promise<string[]> {
+export async function workChunks(
+  boss: PgBoss,
+  pool: SimulationPool,
+  count: number,
+  log?: (line: string) => void,
+): Promise<string[]> {
   const ids: string[] = [];
   for (let k = 0; k < count; k++) {
     ids.push(
-      await boss.work<SimChunk>(CHUNK_JOB, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]): Promise<ChunkOutput> => {
-        // batchSize 1: pg-boss calls with exactly one job
-        if (!job) throw new Error("The queue called the chunk worker with no chunk.");
-        log?.(`chunk ${job.id} taken`);
-        try {
-          const curves = await pool.runChunk(job.data);
-          log?.(`chunk ${job.id} done`);
-          return { curves: encodeCurves(curves) };
-        } catch (err) {
-          if (err instanceof SpatialInputError) return { inputError: err.message };
-          throw err;
-        }
-      }),
+      await boss.work<SimChunk>(
+        CHUNK_JOB,
+        { batchSize: 1, pollingIntervalSeconds: 0.5 },
+        async ([job]): Promise<ChunkOutput> => {
+          // batchSize 1: pg-boss calls with exactly one job
+          if (!job) throw new Error("The queue called the chunk worker with no chunk.");
+          log?.(`chunk ${job.id} taken`);
+          try {
+            const curves = await pool.runChunk(job.data);
+            log?.(`chunk ${job.id} done`);
+            return { curves: encodeCurves(curves) };
+          } catch (err) {
+            if (err instanceof SpatialInputError) return { inputError: err.message };
+            throw err;
+          }
+        },
+      ),
     );
   }
   return ids;

@@ -13,7 +13,9 @@ import { simulationPool, warmSimulationPool } from "./sim-pool";
  * process that stopped (a crash or a restart) are queued again as it starts.
  */
 export async function startInProcessQueue(db: Db): Promise<RunQueue> {
-  const runs = new LocalRunQueue<ScopeData>((runId, signal, scope) => executeRun(db, runId, { signal, pool: simulationPool(), scope }));
+  const runs = new LocalRunQueue<ScopeData>((runId, signal, scope) =>
+    executeRun(db, runId, { signal, pool: simulationPool(), scope }),
+  );
   // Warm the simulation threads now rather than on the first Run (tests start their own runs, cold or not).
   if (env().NODE_ENV !== "test") void warmSimulationPool();
   for (const id of await requeueOrphans(db)) runs.submit(id);
@@ -40,7 +42,10 @@ class LocalRunQueue<H = unknown> {
   private readonly hints = new Map<string, H>();
   private idleWaiters: (() => void)[] = [];
 
-  constructor(private readonly work: RunWork<H>, private readonly concurrency = 1) {}
+  constructor(
+    private readonly work: RunWork<H>,
+    private readonly concurrency = 1,
+  ) {}
 
   submit(runId: string, hint?: H): void {
     if (this.active.has(runId) || this.waiting.includes(runId)) return;

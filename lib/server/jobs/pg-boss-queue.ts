@@ -22,7 +22,9 @@ export async function openBoss(connectionString: string): Promise<PgBoss> {
   const boss = new PgBoss({ connectionString, max: 4, application_name: "loamwork-runs", maintenanceIntervalSeconds });
   boss.on("error", (err) => console.error("[loamwork] job queue error", err));
   await boss.start();
-  await racing(() => boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS }));
+  await racing(() =>
+    boss.createQueue(JOB_NAME, { name: JOB_NAME, retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS }),
+  );
   await racing(() => createChunkQueue(boss));
   return boss;
 }
@@ -49,7 +51,11 @@ export async function startPgBossQueue(connectionString: string): Promise<RunQue
   return {
     kind: "pg-boss",
     async submit(runId) {
-      const jobId = await boss.send(JOB_NAME, { runId }, { retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS, singletonKey: runId });
+      const jobId = await boss.send(
+        JOB_NAME,
+        { runId },
+        { retryLimit: 1, expireInSeconds: RUN_EXPIRE_SECONDS, singletonKey: runId },
+      );
       if (!jobId) throw new Error(`The job queue did not accept run ${runId}.`);
     },
     async cancel() {
@@ -68,7 +74,12 @@ export type RunExecutor = (runId: string, signal: AbortSignal) => Promise<void>;
  * A worker process's side: takes runs, `concurrency` at a time, on `boss` (opened by openBoss); returns
  * the function that stops taking them and stops the queue.
  */
-export async function workRuns(boss: PgBoss, execute: RunExecutor, concurrency = 1, log?: (line: string) => void): Promise<() => Promise<void>> {
+export async function workRuns(
+  boss: PgBoss,
+  execute: RunExecutor,
+  concurrency = 1,
+  log?: (line: string) => void,
+): Promise<() => Promise<void>> {
   const controllers = new Set<AbortController>();
   const ids: string[] = [];
   for (let k = 0; k < concurrency; k++) {

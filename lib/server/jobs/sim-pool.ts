@@ -12,12 +12,16 @@ import { createSimulationPool } from "./thread-pool";
  * threads from the JavaScript `npm run build` compiled into dist/; development and tests run the
  * TypeScript entry through tsx.
  */
-const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as { pool?: SimulationPool; warm?: Promise<void> };
+const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as {
+  pool?: SimulationPool;
+  warm?: Promise<void>;
+};
 
 function workerFile(): string {
   if (env().NODE_ENV !== "production") return path.join(process.cwd(), "lib", "server", "jobs", "sim-worker-entry.mjs");
   const compiled = path.join(process.cwd(), "dist", "sim-worker-entry.mjs");
-  if (!existsSync(compiled)) throw new Error(`The simulation worker ${compiled} is missing: build with \`npm run build\`.`);
+  if (!existsSync(compiled))
+    throw new Error(`The simulation worker ${compiled} is missing: build with \`npm run build\`.`);
   return compiled;
 }
 
@@ -37,12 +41,26 @@ export function warmSimulationPool(pool: SimulationPool = simulationPool()): Pro
   const rng = createRandom(7);
   const points = Array.from({ length: 200 }, () => ({ x: 10 * rng.next(), y: 6 * rng.next() }));
   const spec = {
-    window: { outer: [[0, 0], [10, 0], [10, 6], [0, 6]] as [number, number][] },
+    window: {
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 6],
+        [0, 6],
+      ] as [number, number][],
+    },
     points,
     seed: 1,
     nsim: Math.max(19, 8 * pool.threads * 2),
     r: { max: 1.5, count: 33 },
-    tests: [{ type: "l-envelope" as const, count: "fixed" as const, correction: "isotropic" as const, statistic: "mad" as const }],
+    tests: [
+      {
+        type: "l-envelope" as const,
+        count: "fixed" as const,
+        correction: "isotropic" as const,
+        statistic: "mad" as const,
+      },
+    ],
   };
   const warm = runDistributionTest(spec, { pool }).then(
     () => undefined,

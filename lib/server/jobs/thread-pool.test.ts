@@ -1,9 +1,20 @@
 import { afterAll, describe, expect, test } from "vitest";
-import { createWindow, DEMO_TRENCH, defaultRGrid, runDistributionTest, runSimulations, type SimSetup } from "@/lib/spatial";
+import {
+  createWindow,
+  DEMO_TRENCH,
+  defaultRGrid,
+  runDistributionTest,
+  runSimulations,
+  type SimSetup,
+} from "@/lib/spatial";
 import { createSimulationPool } from "./thread-pool";
 
 const r = Array.from(defaultRGrid(createWindow(DEMO_TRENCH), 200, { count: 65 }));
-const setup: SimSetup = { window: DEMO_TRENCH, r, model: { kind: "csr-l", n: 200, count: "poisson", correction: "isotropic" } };
+const setup: SimSetup = {
+  window: DEMO_TRENCH,
+  r,
+  model: { kind: "csr-l", n: 200, count: "poisson", correction: "isotropic" },
+};
 const one = createSimulationPool({ threads: 1 });
 const two = createSimulationPool({ threads: 2 });
 afterAll(async () => {
@@ -38,8 +49,16 @@ describe("simulation pool", () => {
       const controller = new AbortController();
       let reports = 0;
       const run = runSimulations(big, {
-        seed: 1, streamBase: 1, nsim: 4000, pool, chunks: 400, signal: controller.signal,
-        onProgress: () => { reports++; controller.abort(); },
+        seed: 1,
+        streamBase: 1,
+        nsim: 4000,
+        pool,
+        chunks: 400,
+        signal: controller.signal,
+        onProgress: () => {
+          reports++;
+          controller.abort();
+        },
       });
       await expect(run).rejects.toMatchObject({ name: "AbortError" });
       expect(reports).toBeLessThan(10);
@@ -51,23 +70,45 @@ describe("simulation pool", () => {
 
   test("a run given a pool factory starts its own threads and gives the numbers of a run in this thread", async () => {
     const points = Array.from({ length: 60 }, (_, k) => ({ x: 1 + (k % 10) * 1.1, y: 1 + Math.floor(k / 10) * 0.9 }));
-    const window = { outer: [[0, 0], [12, 0], [12, 7], [0, 7]] as [number, number][] };
+    const window = {
+      outer: [
+        [0, 0],
+        [12, 0],
+        [12, 7],
+        [0, 7],
+      ] as [number, number][],
+    };
     const spec = { window, points, nsim: 19, seed: 3, r: { count: 33 }, tests: [{ type: "l-envelope" as const }] };
     const asked: (number | undefined)[] = [];
-    const threaded = await runDistributionTest({ ...spec, workers: 2 }, {
-      createPool: (threads) => {
-        asked.push(threads);
-        return createSimulationPool({ threads });
+    const threaded = await runDistributionTest(
+      { ...spec, workers: 2 },
+      {
+        createPool: (threads) => {
+          asked.push(threads);
+          return createSimulationPool({ threads });
+        },
       },
-    });
-    const local = await runDistributionTest({ ...spec, workers: 0 }, { createPool: () => { throw new Error("no pool for workers: 0"); } });
+    );
+    const local = await runDistributionTest(
+      { ...spec, workers: 0 },
+      {
+        createPool: () => {
+          throw new Error("no pool for workers: 0");
+        },
+      },
+    );
     expect(asked).toEqual([2]);
     expect(threaded.results[0].pValue).toBe(local.results[0].pValue);
     expect(threaded.results[0].curves).toEqual(local.results[0].curves);
   });
 
   test("an input error inside a worker comes back as a clear error", async () => {
-    const bad: SimSetup = { ...setup, model: { kind: "inhom-l", lambda: { nx: 1, ny: 1, minX: 0, minY: 0, dx: 20, dy: 20, values: [Number.NaN] } } };
-    await expect(runSimulations(bad, { seed: 1, streamBase: 1, nsim: 2, pool: two })).rejects.toThrow(/intensity value is NaN/);
+    const bad: SimSetup = {
+      ...setup,
+      model: { kind: "inhom-l", lambda: { nx: 1, ny: 1, minX: 0, minY: 0, dx: 20, dy: 20, values: [Number.NaN] } },
+    };
+    await expect(runSimulations(bad, { seed: 1, streamBase: 1, nsim: 2, pool: two })).rejects.toThrow(
+      /intensity value is NaN/,
+    );
   });
 });

@@ -25,9 +25,15 @@ export function defaultThreads(): number {
 
 export function createSimulationPool(options: PoolOptions = {}): SimulationPool {
   const threads = options.threads ?? defaultThreads();
-  if (!Number.isInteger(threads) || threads < 1 || threads > 64) throw new SpatialInputError(`Worker threads must be 1 to 64; got ${threads}.`);
+  if (!Number.isInteger(threads) || threads < 1 || threads > 64)
+    throw new SpatialInputError(`Worker threads must be 1 to 64; got ${threads}.`);
   const file = options.workerFile ?? new URL("./sim-worker-entry.mjs", import.meta.url);
-  const piscina = new Piscina({ filename: file instanceof URL ? file.href : file, minThreads: threads, maxThreads: threads, idleTimeout: 60_000 });
+  const piscina = new Piscina({
+    filename: file instanceof URL ? file.href : file,
+    minThreads: threads,
+    maxThreads: threads,
+    idleTimeout: 60_000,
+  });
   return {
     threads,
     async runChunk(chunk) {

@@ -39,9 +39,18 @@ export async function notifySubmitted(db: Db, actor: SiteActor, c: Context): Pro
   const directors = await db
     .select({ id: memberships.userId })
     .from(memberships)
-    .where(and(eq(memberships.siteId, c.siteId), eq(memberships.role, "director"), ne(memberships.userId, actor.userId)));
-  const to = await emailsOf(db, directors.map((d) => d.id), actor.userId);
-  const [counted] = await db.select({ count: sql<number>`count(*)::int` }).from(finds).where(eq(finds.contextId, c.id));
+    .where(
+      and(eq(memberships.siteId, c.siteId), eq(memberships.role, "director"), ne(memberships.userId, actor.userId)),
+    );
+  const to = await emailsOf(
+    db,
+    directors.map((d) => d.id),
+    actor.userId,
+  );
+  const [counted] = await db
+    .select({ count: sql<number>`count(*)::int` })
+    .from(finds)
+    .where(eq(finds.contextId, c.id));
   const count = counted?.count ?? 0;
   const mail = contextSubmittedMail({
     siteCode: actor.site.code,
@@ -54,7 +63,12 @@ export async function notifySubmitted(db: Db, actor: SiteActor, c: Context): Pro
   return deliver(to, () => mail);
 }
 
-export async function notifySignedOff(db: Db, actor: SiteActor, c: Context, trenchSignedOff: boolean): Promise<Delivery> {
+export async function notifySignedOff(
+  db: Db,
+  actor: SiteActor,
+  c: Context,
+  trenchSignedOff: boolean,
+): Promise<Delivery> {
   const to = await emailsOf(db, await contextRecorderIds(db, c), actor.userId);
   const mail = contextSignedOffMail({
     siteCode: actor.site.code,
@@ -68,9 +82,18 @@ export async function notifySignedOff(db: Db, actor: SiteActor, c: Context, tren
   return deliver(to, () => mail);
 }
 
-export async function notifyReopened(db: Db, actor: SiteActor, c: Context, how: { from: "awaiting" | "signed_off"; reason: string; at: Date }): Promise<Delivery> {
+export async function notifyReopened(
+  db: Db,
+  actor: SiteActor,
+  c: Context,
+  how: { from: "awaiting" | "signed_off"; reason: string; at: Date },
+): Promise<Delivery> {
   const members = await db.select({ id: memberships.userId }).from(memberships).where(eq(memberships.siteId, c.siteId));
-  const to = await emailsOf(db, members.map((m) => m.id), actor.userId);
+  const to = await emailsOf(
+    db,
+    members.map((m) => m.id),
+    actor.userId,
+  );
   const mail = contextReopenedMail({
     siteCode: actor.site.code,
     contextNumber: c.number,

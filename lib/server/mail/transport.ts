@@ -9,7 +9,14 @@ function transporter(): Transporter {
   const url = env().SMTP_URL;
   if (!cached || cached.url !== url) {
     // Short timeouts: a missing relay must not hold a sign-off request for minutes.
-    cached = { url, transporter: nodemailer.createTransport(url, { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 }) };
+    cached = {
+      url,
+      transporter: nodemailer.createTransport(url, {
+        connectionTimeout: 10_000,
+        greetingTimeout: 10_000,
+        socketTimeout: 20_000,
+      }),
+    };
   }
   return cached.transporter;
 }

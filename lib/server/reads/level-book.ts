@@ -29,11 +29,22 @@ export async function loadLevelBook(db: Db, siteId: string) {
   ]);
   const ids = runs.map((r) => r.id);
   const levels = ids.length
-    ? await db.select().from(spotLevels).where(and(eq(spotLevels.siteId, siteId), inArray(spotLevels.runId, ids))).orderBy(asc(spotLevels.line))
+    ? await db
+        .select()
+        .from(spotLevels)
+        .where(and(eq(spotLevels.siteId, siteId), inArray(spotLevels.runId, ids)))
+        .orderBy(asc(spotLevels.line))
     : [];
-  const names = await userNames(db, runs.map((r) => r.recordedBy));
+  const names = await userNames(
+    db,
+    runs.map((r) => r.recordedBy),
+  );
   const code = new Map(marks.map((b) => [b.id, b.code]));
-  const trenchCodes = new Map((await db.select({ id: trenches.id, code: trenches.code }).from(trenches).where(eq(trenches.siteId, siteId))).map((t) => [t.id, t.code]));
+  const trenchCodes = new Map(
+    (await db.select({ id: trenches.id, code: trenches.code }).from(trenches).where(eq(trenches.siteId, siteId))).map(
+      (t) => [t.id, t.code],
+    ),
+  );
   return {
     benchmarks: marks,
     runs: runs.map((r) => ({

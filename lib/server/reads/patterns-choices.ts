@@ -6,9 +6,34 @@ import { artefactClasses, contexts, trenches } from "@/db/schema";
 /** What the Patterns workspace offers to choose from: the site's trenches, contexts and find classes. */
 export async function patternsChoices(db: Db, siteId: string) {
   const [trenchRows, contextRows, classRows] = await Promise.all([
-    db.select({ id: trenches.id, code: trenches.code, name: trenches.name }).from(trenches).where(eq(trenches.siteId, siteId)).orderBy(asc(trenches.code)),
-    db.select({ id: contexts.id, trenchId: contexts.trenchId, number: contexts.number, type: contexts.type, state: contexts.state, interpretation: contexts.interpretation }).from(contexts).where(eq(contexts.siteId, siteId)).orderBy(asc(contexts.number)),
-    db.select({ id: artefactClasses.id, code: artefactClasses.code, label: artefactClasses.label, colour: artefactClasses.colour, symbol: artefactClasses.symbol }).from(artefactClasses).where(eq(artefactClasses.siteId, siteId)).orderBy(asc(artefactClasses.code)),
+    db
+      .select({ id: trenches.id, code: trenches.code, name: trenches.name })
+      .from(trenches)
+      .where(eq(trenches.siteId, siteId))
+      .orderBy(asc(trenches.code)),
+    db
+      .select({
+        id: contexts.id,
+        trenchId: contexts.trenchId,
+        number: contexts.number,
+        type: contexts.type,
+        state: contexts.state,
+        interpretation: contexts.interpretation,
+      })
+      .from(contexts)
+      .where(eq(contexts.siteId, siteId))
+      .orderBy(asc(contexts.number)),
+    db
+      .select({
+        id: artefactClasses.id,
+        code: artefactClasses.code,
+        label: artefactClasses.label,
+        colour: artefactClasses.colour,
+        symbol: artefactClasses.symbol,
+      })
+      .from(artefactClasses)
+      .where(eq(artefactClasses.siteId, siteId))
+      .orderBy(asc(artefactClasses.code)),
   ]);
   return { trenches: trenchRows, contexts: contextRows, classes: classRows };
 }

@@ -49,7 +49,8 @@ export function siteReads(db: Db, actor: SiteActor) {
     matrix: (trenchId?: string) => drawSiteMatrix(db, siteId, trenchId),
     classes: () => listClasses(db, siteId),
     contextClassNotes: (context: Context) => contextClassNotes(db, context),
-    classesAsSignedOff: (signedOffAt: Date, classes: ArtefactClass[]) => signedOffClassNotes(db, siteId, signedOffAt, classes),
+    classesAsSignedOff: (signedOffAt: Date, classes: ArtefactClass[]) =>
+      signedOffClassNotes(db, siteId, signedOffAt, classes),
     find: (findId: string) => getFind(db, siteId, findId),
     planFinds: (trenchId: string) => listPlanFinds(db, siteId, trenchId),
     photos: (trenchId: string) => listPhotos(db, siteId, trenchId),

@@ -23,17 +23,32 @@ export async function loadTrenchReport(db: Db, trench: Trench) {
   // Relations may reach contexts of other trenches; their numbers are looked up for the sheets.
   const otherIds = set.relations.flatMap((r) => [r.fromId, r.toId]).filter((id) => !numberOf.has(id));
   if (otherIds.length) {
-    for (const c of await db.select({ id: contexts.id, number: contexts.number }).from(contexts).where(inArray(contexts.id, otherIds))) numberOf.set(c.id, c.number);
+    for (const c of await db
+      .select({ id: contexts.id, number: contexts.number })
+      .from(contexts)
+      .where(inArray(contexts.id, otherIds)))
+      numberOf.set(c.id, c.number);
   }
   // Signed-off sheets read their finds' classes as they stood at sign-off, and say what changed since.
   const signedAts = set.contexts.flatMap((c) => (c.signedOffAt ? [c.signedOffAt] : []));
   const earliest = signedAts.length ? new Date(Math.min(...signedAts.map((d) => d.getTime()))) : null;
-  const classChanges = earliest ? await classChangesSince(db, trench.siteId, classes.map((c) => c.id), earliest) : [];
-  const asSignedOff = new Map(set.contexts.map((c) => [c.id, c.signedOffAt ? classesAsSignedOff(classes, classChanges, c.signedOffAt) : null]));
+  const classChanges = earliest
+    ? await classChangesSince(
+        db,
+        trench.siteId,
+        classes.map((c) => c.id),
+        earliest,
+      )
+    : [];
+  const asSignedOff = new Map(
+    set.contexts.map((c) => [c.id, c.signedOffAt ? classesAsSignedOff(classes, classChanges, c.signedOffAt) : null]),
+  );
   const classNotesOf = (c: (typeof set.contexts)[number]) => {
     const used = new Set(set.finds.filter((f) => f.contextId === c.id).map((f) => f.classId));
     const faces = asSignedOff.get(c.id);
-    return faces ? [...faces.values()].filter((x) => used.has(x.classId)).flatMap((x) => x.changes.map(describeClassChange)) : [];
+    return faces
+      ? [...faces.values()].filter((x) => used.has(x.classId)).flatMap((x) => x.changes.map(describeClassChange))
+      : [];
   };
   const sheets = set.contexts.map((c) => ({
     ...c,
@@ -51,24 +66,59 @@ export async function loadTrenchReport(db: Db, trench: Trench) {
   }));
   const here = new Set(set.contexts.map((c) => c.id));
   const inTrench = set.relations.filter((r) => here.has(r.fromId) && here.has(r.toId));
-  const matrix = buildMatrix(set.contexts.map((c) => ({ id: c.id, number: c.number })), inTrench);
-  const matrixSvg = set.contexts.length ? drawMatrix(matrix, new Map(set.contexts.map((c) => [c.id, { type: c.type, state: c.state }]))).svg : null;
+  const matrix = buildMatrix(
+    set.contexts.map((c) => ({ id: c.id, number: c.number })),
+    inTrench,
+  );
+  const matrixSvg = set.contexts.length
+    ? drawMatrix(matrix, new Map(set.contexts.map((c) => [c.id, { type: c.type, state: c.state }]))).svg
+    : null;
   const faceOf = (contextId: string, classId: string): ClassFace | null => {
     const cls = classById.get(classId);
-    return asSignedOff.get(contextId)?.get(classId)?.face ?? (cls ? { code: cls.code, label: cls.label, humanRemains: cls.humanRemains } : null);
+    return (
+      asSignedOff.get(contextId)?.get(classId)?.face ??
+      (cls ? { code: cls.code, label: cls.label, humanRemains: cls.humanRemains } : null)
+    );
   };
-  const finds = set.finds.map((f) => ({ ...f, contextNumber: numberOf.get(f.contextId) ?? null, cls: classById.get(f.classId) ?? null, classFace: faceOf(f.contextId, f.classId), recordedByName: nameOf(f.recordedBy) }));
-  const runs = await db.select().from(analysisRuns).where(and(eq(analysisRuns.trenchId, trench.id), eq(analysisRuns.status, "done"))).orderBy(desc(analysisRuns.finishedAt)).limit(20);
+  const finds = set.finds.map((f) => ({
+    ...f,
+    contextNumber: numberOf.get(f.contextId) ?? null,
+    cls: classById.get(f.classId) ?? null,
+    classFace: faceOf(f.contextId, f.classId),
+    recordedByName: nameOf(f.recordedBy),
+  }));
+  const runs = await db
+    .select()
+    .from(analysisRuns)
+    .where(and(eq(analysisRuns.trenchId, trench.id), eq(analysisRuns.status, "done")))
+    .orderBy(desc(analysisRuns.finishedAt))
+    .limit(20);
   // The fingerprint stamped when the trench was last signed off, to show whether the records still match it.
   const [stamp] = await db
     .select({ after: auditEntries.after, at: auditEntries.at })
     .from(auditEntries)
-    .where(and(eq(auditEntries.recordType, "trench"), eq(auditEntries.recordId, trench.id), eq(auditEntries.action, "sign-off")))
+    .where(
+      and(
+        eq(auditEntries.recordType, "trench"),
+        eq(auditEntries.recordId, trench.id),
+        eq(auditEntries.action, "sign-off"),
+      ),
+    )
     .orderBy(desc(auditEntries.id))
     .limit(1);
   const stampedFingerprint = (stamp?.after as { fingerprint?: string } | null)?.fingerprint ?? null;
   const usedClasses = classes.filter((c) => set.finds.some((f) => f.classId === c.id));
-  return { trench, signedOffByName: nameOf(trench.signedOffBy), sheets, matrixSvg, finds, classes: usedClasses, runs, fingerprint, stampedFingerprint };
+  return {
+    trench,
+    signedOffByName: nameOf(trench.signedOffBy),
+    sheets,
+    matrixSvg,
+    finds,
+    classes: usedClasses,
+    runs,
+    fingerprint,
+    stampedFingerprint,
+  };
 }
 
 export type TrenchReport = Awaited<ReturnType<typeof loadTrenchReport>>;

@@ -22,7 +22,9 @@ export async function makeDerivatives(bytes: Buffer): Promise<Derivatives> {
     throw badInput("The uploaded file is not an image Loamwork can read (JPEG, PNG, WebP, TIFF, HEIF or AVIF).");
   }
   if (!format || !(PHOTO_FORMATS as readonly string[]).includes(format)) {
-    throw badInput(`The uploaded file is a ${format ?? "unknown"} image; Loamwork takes JPEG, PNG, WebP, TIFF, HEIF or AVIF photos.`);
+    throw badInput(
+      `The uploaded file is a ${format ?? "unknown"} image; Loamwork takes JPEG, PNG, WebP, TIFF, HEIF or AVIF photos.`,
+    );
   }
   const oriented = sharp(bytes, { failOn: "error" }).rotate();
   const display = await oriented
@@ -30,6 +32,10 @@ export async function makeDerivatives(bytes: Buffer): Promise<Derivatives> {
     .resize({ width: DISPLAY_PX, height: DISPLAY_PX, fit: "inside", withoutEnlargement: true })
     .jpeg({ quality: 85, mozjpeg: true })
     .toBuffer({ resolveWithObject: true });
-  const thumb = await oriented.clone().resize({ width: THUMB_PX, height: THUMB_PX, fit: "inside" }).jpeg({ quality: 75 }).toBuffer();
+  const thumb = await oriented
+    .clone()
+    .resize({ width: THUMB_PX, height: THUMB_PX, fit: "inside" })
+    .jpeg({ quality: 75 })
+    .toBuffer();
   return { display: display.data, thumb, width: display.info.width, height: display.info.height, format };
 }

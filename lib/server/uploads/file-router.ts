@@ -18,7 +18,18 @@ const f = createUploadthing({ errorFormatter: (err) => ({ message: err.message }
 
 /** Turns Loamwork's refusals into upload refusals the client shows as they are. */
 function refuse(err: unknown): never {
-  if (isPublicError(err)) throw new UploadThingError({ code: err.status === 401 ? "FORBIDDEN" : err.status === 404 ? "NOT_FOUND" : err.status === 403 ? "FORBIDDEN" : "BAD_REQUEST", message: err.message });
+  if (isPublicError(err))
+    throw new UploadThingError({
+      code:
+        err.status === 401
+          ? "FORBIDDEN"
+          : err.status === 404
+            ? "NOT_FOUND"
+            : err.status === 403
+              ? "FORBIDDEN"
+              : "BAD_REQUEST",
+      message: err.message,
+    });
   throw err;
 }
 
@@ -38,10 +49,16 @@ export const uploadRouter = {
       }
       for (const file of files) {
         if (!PHOTO_TYPES.includes(file.type)) {
-          throw new UploadThingError({ code: "BAD_REQUEST", message: `“${file.name}” is ${file.type || "of no known type"}, not a photo: upload a JPEG, PNG, WebP, TIFF, HEIF or AVIF image.` });
+          throw new UploadThingError({
+            code: "BAD_REQUEST",
+            message: `“${file.name}” is ${file.type || "of no known type"}, not a photo: upload a JPEG, PNG, WebP, TIFF, HEIF or AVIF image.`,
+          });
         }
         if (file.size > PHOTO_MAX_BYTES) {
-          throw new UploadThingError({ code: "TOO_LARGE", message: `“${file.name}” is ${(file.size / 1048576).toFixed(1)} MB; the limit for a plan photo is 16 MB.` });
+          throw new UploadThingError({
+            code: "TOO_LARGE",
+            message: `“${file.name}” is ${(file.size / 1048576).toFixed(1)} MB; the limit for a plan photo is 16 MB.`,
+          });
         }
       }
       return { siteId: input.siteId, trenchId: input.trenchId, userId };
@@ -49,7 +66,13 @@ export const uploadRouter = {
     .onUploadComplete(async ({ metadata, file }) => {
       try {
         const bytes = await fetchUpload(file.key, PHOTO_MAX_BYTES);
-        const photo = await storeUploadedPhoto(await getDb(), { ...metadata, fileKey: file.key, fileName: file.name, mimeType: file.type, bytes });
+        const photo = await storeUploadedPhoto(await getDb(), {
+          ...metadata,
+          fileKey: file.key,
+          fileName: file.name,
+          mimeType: file.type,
+          bytes,
+        });
         return { photoId: photo.id, error: null as string | null };
       } catch (err) {
         // Nothing was recorded, so nothing may stay behind at the upload service either.

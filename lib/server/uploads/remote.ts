@@ -25,7 +25,8 @@ export async function forgetUpload(fileKey: string): Promise<void> {
   if (!process.env.UPLOADTHING_TOKEN) return;
   try {
     const out = await new UTApi({ logLevel: "Error" }).deleteFiles(fileKey);
-    if (!out.success || out.deletedCount !== 1) console.warn("[loamwork] the upload service did not delete", fileKey, out);
+    if (!out.success || out.deletedCount !== 1)
+      console.warn("[loamwork] the upload service did not delete", fileKey, out);
   } catch (err) {
     console.warn("[loamwork] could not delete upload", fileKey, err);
   }

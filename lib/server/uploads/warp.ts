@@ -6,7 +6,15 @@ import { badInput } from "../errors";
 /** Longest side of the warped raster. */
 const WARP_PX = 2048;
 
-export type Warp = { png: Buffer; minX: number; minY: number; maxX: number; maxY: number; width: number; height: number };
+export type Warp = {
+  png: Buffer;
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+  width: number;
+  height: number;
+};
 
 /**
  * Resamples the display photo through a projective fit into a north-up raster on the site grid, so the
@@ -16,17 +24,27 @@ export type Warp = { png: Buffer; minX: number; minY: number; maxX: number; maxY
 export async function warpProjective(display: Buffer, matrix: number[]): Promise<Warp> {
   const { data, info } = await sharp(display).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
   const { width: w, height: h } = info;
-  const corners: [number, number][] = [[0, 0], [w, 0], [w, h], [0, h]];
+  const corners: [number, number][] = [
+    [0, 0],
+    [w, 0],
+    [w, h],
+    [0, h],
+  ];
   const denominators = corners.map(([px, py]) => matrix[6] * px + matrix[7] * py + matrix[8]);
   if (!denominators.every((d) => d > 0) && !denominators.every((d) => d < 0)) {
-    throw badInput("This projective fit folds the photo through its horizon; check the control points.", { points: ["The fit folds the photo."] });
+    throw badInput("This projective fit folds the photo through its horizon; check the control points.", {
+      points: ["The fit folds the photo."],
+    });
   }
   const grid = corners.map(([px, py]) => applyFit(matrix, px, py));
   const minX = Math.min(...grid.map((g) => g[0]));
   const maxX = Math.max(...grid.map((g) => g[0]));
   const minY = Math.min(...grid.map((g) => g[1]));
   const maxY = Math.max(...grid.map((g) => g[1]));
-  const ppm = Math.min(Math.sqrt((w * h) / ((maxX - minX) * (maxY - minY))), WARP_PX / Math.max(maxX - minX, maxY - minY));
+  const ppm = Math.min(
+    Math.sqrt((w * h) / ((maxX - minX) * (maxY - minY))),
+    WARP_PX / Math.max(maxX - minX, maxY - minY),
+  );
   const outW = Math.max(1, Math.round((maxX - minX) * ppm));
   const outH = Math.max(1, Math.round((maxY - minY) * ppm));
   const inv = invertFit(matrix);
@@ -53,6 +71,8 @@ export async function warpProjective(display: Buffer, matrix: number[]): Promise
       }
     }
   }
-  const png = await sharp(out, { raw: { width: outW, height: outH, channels: 4 } }).png({ compressionLevel: 6 }).toBuffer();
+  const png = await sharp(out, { raw: { width: outW, height: outH, channels: 4 } })
+    .png({ compressionLevel: 6 })
+    .toBuffer();
   return { png, minX, minY, maxX, maxY, width: outW, height: outH };
 }

@@ -5,13 +5,7 @@ import { createRandom } from "../random/random";
 import { rankEnvelope } from "./rank-envelope";
 
 // Five hand-made curves on three distances; column k of simulation i is sims[3i + k].
-const sims = Float64Array.from([
-  0, 1, 5,
-  0, 2, 4,
-  0, 3, 3,
-  0, 4, 2,
-  0, 5, 1,
-]);
+const sims = Float64Array.from([0, 1, 5, 0, 2, 4, 0, 3, 3, 0, 4, 2, 0, 5, 1]);
 const set = { m: 3, s: 5, sims };
 
 describe("pointwise envelopes", () => {
@@ -28,7 +22,12 @@ describe("pointwise envelopes", () => {
 
   test("the band by selection equals the k-th values of each fully sorted column, ties and all", () => {
     const rng = createRandom(31);
-    for (const [s, m, rank] of [[999, 40, 25], [99, 7, 2], [19, 5, 1], [40, 3, 20]]) {
+    for (const [s, m, rank] of [
+      [999, 40, 25],
+      [99, 7, 2],
+      [19, 5, 1],
+      [40, 3, 20],
+    ]) {
       // values on a coarse grid so that many are tied
       const set = { m, s, sims: Float64Array.from({ length: s * m }, () => Math.round(rng.next() * 50) / 10) };
       const band = pointwiseEnvelope(set, rank);
@@ -40,7 +39,9 @@ describe("pointwise envelopes", () => {
   });
 
   test("a simulated curve that is not a number is refused", () => {
-    expect(() => pointwiseEnvelope({ m: 2, s: 3, sims: Float64Array.from([0, 1, 0, NaN, 0, 2]) })).toThrow(/not a number at grid value 2/);
+    expect(() => pointwiseEnvelope({ m: 2, s: 3, sims: Float64Array.from([0, 1, 0, NaN, 0, 2]) })).toThrow(
+      /not a number at grid value 2/,
+    );
   });
 
   test("a rank beyond s/2 is refused; rankForLevel inverts 2k/(s+1)", () => {

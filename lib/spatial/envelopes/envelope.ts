@@ -27,7 +27,9 @@ export interface PointwiseEnvelope {
 
 export function assertCurveSet(set: CurveSet): void {
   if (!(set.s >= 1) || !(set.m >= 1) || set.sims.length < set.s * set.m) {
-    throw new SpatialInputError(`A set of ${set.s} curves of ${set.m} values needs ${set.s * set.m} numbers; got ${set.sims.length}.`);
+    throw new SpatialInputError(
+      `A set of ${set.s} curves of ${set.m} values needs ${set.s * set.m} numbers; got ${set.sims.length}.`,
+    );
   }
 }
 
@@ -38,9 +40,13 @@ export function pointwiseEnvelope(set: CurveSet, rank = 1): PointwiseEnvelope {
   assertCurveSet(set);
   const { m, s, sims } = set;
   if (!Number.isInteger(rank) || rank < 1 || 2 * rank > s) {
-    throw new SpatialInputError(`The envelope rank must be an integer from 1 to ${Math.floor(s / 2)} for ${s} simulations; got ${rank}.`);
+    throw new SpatialInputError(
+      `The envelope rank must be an integer from 1 to ${Math.floor(s / 2)} for ${s} simulations; got ${rank}.`,
+    );
   }
-  const lo = new Float64Array(m), hi = new Float64Array(m), mean = new Float64Array(m);
+  const lo = new Float64Array(m),
+    hi = new Float64Array(m),
+    mean = new Float64Array(m);
   const column = new Float64Array(s);
   // the k-th lowest and k-th highest by selection (Floyd & Rivest 1975, the quickselect package) rather
   // than a full sort of each column: the same two values, several times faster for 999 simulations

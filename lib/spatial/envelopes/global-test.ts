@@ -30,7 +30,8 @@ export interface GlobalTestResult {
 /** The p-value rule above, with `rng` breaking ties. */
 export function monteCarloPValue(observed: number, simulated: ArrayLike<number>, rng: Random): number {
   if (!Number.isFinite(observed)) throw new SpatialInputError(`The observed statistic is ${observed}; cannot rank it.`);
-  let above = 0, ties = 0;
+  let above = 0,
+    ties = 0;
   for (let i = 0; i < simulated.length; i++) {
     if (!Number.isFinite(simulated[i])) throw new SpatialInputError(`Simulated statistic ${i + 1} is ${simulated[i]}.`);
     if (simulated[i] > observed) above++;
@@ -44,7 +45,15 @@ export function monteCarloPValue(observed: number, simulated: ArrayLike<number>,
  * Deviation of a curve from a reference over grid indices [from, to): max |f − ref| (MAD), or the
  * Riemann sum Σ (f − ref)² Δr_k (DCLF, Δr_k = r_k − r_{k−1}).
  */
-function deviation(statistic: GlobalStatistic, f: ArrayLike<number>, offset: number, ref: ArrayLike<number>, r: Float64Array, from: number, to: number): number {
+function deviation(
+  statistic: GlobalStatistic,
+  f: ArrayLike<number>,
+  offset: number,
+  ref: ArrayLike<number>,
+  r: Float64Array,
+  from: number,
+  to: number,
+): number {
   let t = 0;
   for (let k = from; k < to; k++) {
     const e = f[offset + k] - ref[k];
@@ -64,14 +73,23 @@ export interface GlobalTestOptions {
   rng: Random;
 }
 
-export function globalTest(observed: Float64Array, set: CurveSet, r: Float64Array, options: GlobalTestOptions): GlobalTestResult {
+export function globalTest(
+  observed: Float64Array,
+  set: CurveSet,
+  r: Float64Array,
+  options: GlobalTestOptions,
+): GlobalTestResult {
   assertCurveSet(set);
   const { m, s, sims } = set;
   const { statistic, theory, rng } = options;
-  if (statistic !== "mad" && statistic !== "dclf") throw new SpatialInputError(`Unknown global statistic "${String(statistic)}"; use mad or dclf.`);
-  if (observed.length !== m || r.length !== m) throw new SpatialInputError(`The observed curve has ${observed.length} values for ${m} distances.`);
-  const from = options.from ?? 0, to = options.to ?? m;
-  if (!(from >= 0 && to <= m && to > from)) throw new SpatialInputError(`Bad range of distances for the global test: [${from}, ${to}).`);
+  if (statistic !== "mad" && statistic !== "dclf")
+    throw new SpatialInputError(`Unknown global statistic "${String(statistic)}"; use mad or dclf.`);
+  if (observed.length !== m || r.length !== m)
+    throw new SpatialInputError(`The observed curve has ${observed.length} values for ${m} distances.`);
+  const from = options.from ?? 0,
+    to = options.to ?? m;
+  if (!(from >= 0 && to <= m && to > from))
+    throw new SpatialInputError(`Bad range of distances for the global test: [${from}, ${to}).`);
   const simulated = new Float64Array(s);
   let obs: number;
   if (theory) {

@@ -20,14 +20,22 @@ export interface RankEnvelopeResult {
   level: number;
 }
 
-export function rankEnvelope(observed: Float64Array, set: CurveSet, level: number, range: [number, number] = [0, set.m]): RankEnvelopeResult {
+export function rankEnvelope(
+  observed: Float64Array,
+  set: CurveSet,
+  level: number,
+  range: [number, number] = [0, set.m],
+): RankEnvelopeResult {
   assertCurveSet(set);
   const { m, s, sims } = set;
-  if (!(level > 0 && level < 1)) throw new SpatialInputError(`The level must lie strictly between 0 and 1; got ${level}.`);
-  if (observed.length !== m) throw new SpatialInputError(`The observed curve has ${observed.length} values for ${m} distances.`);
+  if (!(level > 0 && level < 1))
+    throw new SpatialInputError(`The level must lie strictly between 0 and 1; got ${level}.`);
+  if (observed.length !== m)
+    throw new SpatialInputError(`The observed curve has ${observed.length} values for ${m} distances.`);
   const [from, to] = range;
   const width = to - from;
-  if (!(from >= 0 && to <= m && width > 0)) throw new SpatialInputError(`Bad range of distances for the rank envelope: [${from}, ${to}).`);
+  if (!(from >= 0 && to <= m && width > 0))
+    throw new SpatialInputError(`Bad range of distances for the rank envelope: [${from}, ${to}).`);
   const total = s + 1;
   const value = (c: number, k: number): number => (c === 0 ? observed[k] : sims[(c - 1) * m + k]);
   const ranks = new Float64Array(total * width); // curve c's pointwise ranks at row c
@@ -39,7 +47,7 @@ export function rankEnvelope(observed: Float64Array, set: CurveSet, level: numbe
       col[c] = value(c, k);
     }
     idx.sort((a, b) => col[a] - col[b]);
-    for (let a = 0; a < total; ) {
+    for (let a = 0; a < total;) {
       let b = a;
       while (b + 1 < total && col[idx[b + 1]] === col[idx[a]]) b++;
       const low = (a + b) / 2 + 1; // average rank from below, 1-based
@@ -56,7 +64,8 @@ export function rankEnvelope(observed: Float64Array, set: CurveSet, level: numbe
     }
     return 0;
   };
-  let moreExtreme = 0, tied = 0;
+  let moreExtreme = 0,
+    tied = 0;
   for (let c = 1; c < total; c++) {
     const d = compare(c, 0);
     if (d < 0) moreExtreme++;
@@ -66,7 +75,8 @@ export function rankEnvelope(observed: Float64Array, set: CurveSet, level: numbe
   const pHigh = (1 + moreExtreme + tied) / total;
   const order = Array.from({ length: total }, (_, c) => c).sort(compare);
   const drop = Math.floor(level * total);
-  const lo = new Float64Array(m).fill(Infinity), hi = new Float64Array(m).fill(-Infinity);
+  const lo = new Float64Array(m).fill(Infinity),
+    hi = new Float64Array(m).fill(-Infinity);
   for (let t = drop; t < total; t++) {
     const c = order[t];
     if (c === 0) continue;

@@ -48,6 +48,7 @@ export function diggleBandwidth(window: Window, p: Points, count = 512): DiggleB
     M[i] = (1 / lambda - 2 * K[i]) / area + J / (area * area);
     if (best < 0 || M[i] < M[best]) best = i;
   }
-  if (best < 0) throw new SpatialInputError("Diggle's bandwidth needs a longer distance grid; too few finds to choose σ.");
+  if (best < 0)
+    throw new SpatialInputError("Diggle's bandwidth needs a longer distance grid; too few finds to choose σ.");
   return { sigma: r[best] / 2, h: r.slice(0, usable), M, atEdge: best === usable - 1 };
 }

@@ -47,7 +47,7 @@ describe("clarkEvans", () => {
     expect(ce.pClustered).toBeCloseTo(0.5, 9);
     // Φ(−1.959964) = 0.025 (standard normal table)
     const w = rectangleWindow(0, 0, 100, 100);
-    const se = CLARK_EVANS_SE_CONSTANT * Math.sqrt(1e4) / 2;
+    const se = (CLARK_EVANS_SE_CONSTANT * Math.sqrt(1e4)) / 2;
     const d = 1 / (2 * Math.sqrt(2 / 1e4)) - 1.959964 * se;
     const res = clarkEvans(w, { x: [50, 50 + d], y: [50, 50] }, { alternative: "clustered" });
     expect(res.p).toBeCloseTo(0.025, 6);

@@ -72,7 +72,12 @@ export function clarkEvans(window: Window, points: PointsInput, options: ClarkEv
   const A = window.area;
   const P = window.perimeter;
   const lambda = n / A;
-  const plain = zTest(meanNN, 1 / (2 * Math.sqrt(lambda)), Math.sqrt(((4 - Math.PI) * A) / (4 * Math.PI)) / n, alternative);
+  const plain = zTest(
+    meanNN,
+    1 / (2 * Math.sqrt(lambda)),
+    Math.sqrt(((4 - Math.PI) * A) / (4 * Math.PI)) / n,
+    alternative,
+  );
   // Donnelly (1978): E ≈ 0.5√(A/n) + (0.0514 + 0.041/√n)·P/n, Var ≈ 0.070·A/n² + 0.037·P·√(A/n⁵)
   const eD = 0.5 * Math.sqrt(A / n) + ((0.0514 + 0.041 / Math.sqrt(n)) * P) / n;
   const varD = (0.07 * A) / (n * n) + 0.037 * P * Math.sqrt(A / n ** 5);

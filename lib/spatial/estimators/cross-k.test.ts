@@ -43,10 +43,24 @@ describe("dotK", () => {
   });
 
   it("with every find in class A equals K·(n−1)/n (the divisors n² and n(n−1))", () => {
-    const w = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] });
+    const w = createWindow({
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+    });
     const pts = { x: [1, 2.5, 3, 7, 9, 1.5, 3.2], y: [1, 2, 8, 3, 1, 6, 3.1] };
     const rr = Array.from({ length: 33 }, (_, k) => (k * 3) / 32);
-    const dot = dotK(w, pts, pts.x.map(() => true), { r: rr, correction: ["isotropic", "translation"] });
+    const dot = dotK(
+      w,
+      pts,
+      pts.x.map(() => true),
+      { r: rr, correction: ["isotropic", "translation"] },
+    );
     const k = kFunction(w, pts, { r: rr, correction: ["isotropic", "translation"] });
     for (const c of ["isotropic", "translation"] as const) {
       dot.K[c]!.forEach((v, i) => expect(v).toBeCloseTo((k.K[c]![i] * 6) / 7, 9));

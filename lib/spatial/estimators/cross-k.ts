@@ -74,7 +74,12 @@ function crossCore(
 }
 
 /** K_AB and L_AB between class A (centres) and class B. Default r grid from λ_B, as spatstat's Kcross. */
-export function crossK(window: Window, classA: PointsInput, classB: PointsInput, options: CrossKOptions = {}): CrossKResult {
+export function crossK(
+  window: Window,
+  classA: PointsInput,
+  classB: PointsInput,
+  options: CrossKOptions = {},
+): CrossKResult {
   const [labelA, labelB] = options.labels ?? ["class A", "class B"];
   const a = checkPattern(window, classA, { label: labelA, minPoints: 1 });
   const b = checkPattern(window, classB, { label: labelB, minPoints: 1 });
@@ -88,7 +93,12 @@ export function crossK(window: Window, classA: PointsInput, classB: PointsInput,
  * K_{A•}: class A against every find (A included, a find never paired with itself); divisor n_A·n/|W|
  * (spatstat's Kdot). `isA[k]` marks the finds of class A.
  */
-export function dotK(window: Window, points: PointsInput, isA: ArrayLike<boolean>, options: CrossKOptions = {}): CrossKResult {
+export function dotK(
+  window: Window,
+  points: PointsInput,
+  isA: ArrayLike<boolean>,
+  options: CrossKOptions = {},
+): CrossKResult {
   const [labelA] = options.labels ?? ["class A"];
   const all = checkPattern(window, points, { label: "the finds" });
   const n = all.x.length;
@@ -107,11 +117,19 @@ export function dotK(window: Window, points: PointsInput, isA: ArrayLike<boolean
   const r = options.r ? checkRGrid(window, options.r) : defaultRGrid(window, n);
   // Each unordered pair of finds gives an ordered pair for every end that is of class A.
   const within = pairsWithin(all, r[r.length - 1]);
-  const pairs: PairList = { count: 0, i: new Int32Array(2 * within.count), j: new Int32Array(2 * within.count), d: new Float64Array(2 * within.count) };
+  const pairs: PairList = {
+    count: 0,
+    i: new Int32Array(2 * within.count),
+    j: new Int32Array(2 * within.count),
+    d: new Float64Array(2 * within.count),
+  };
   for (let p = 0; p < within.count; p++) {
     const u = within.i[p];
     const v = within.j[p];
-    for (const [c, o] of [[u, v], [v, u]]) {
+    for (const [c, o] of [
+      [u, v],
+      [v, u],
+    ]) {
       if (index[c] < 0) continue;
       pairs.i[pairs.count] = index[c];
       pairs.j[pairs.count] = o;
@@ -130,12 +148,19 @@ export interface KDifferenceResult {
 }
 
 /** D(r) = K_AA(r) − K_BB(r), each class's own K in the whole window (Diggle & Chetwynd 1991). */
-export function kDifference(window: Window, classA: PointsInput, classB: PointsInput, options: CrossKOptions = {}): KDifferenceResult {
+export function kDifference(
+  window: Window,
+  classA: PointsInput,
+  classB: PointsInput,
+  options: CrossKOptions = {},
+): KDifferenceResult {
   const [labelA, labelB] = options.labels ?? ["class A", "class B"];
   const nAll = classA.x.length + classB.x.length;
   const wanted = corrections(options.correction);
   if (wanted.includes("border") && !options.r) {
-    throw new SpatialInputError("The K difference with the border correction needs an explicit r grid (both classes must share it).");
+    throw new SpatialInputError(
+      "The K difference with the border correction needs an explicit r grid (both classes must share it).",
+    );
   }
   const r = options.r ? checkRGrid(window, options.r) : defaultRGrid(window, Math.max(nAll, 1));
   const ka = kFunction(window, classA, { r, correction: wanted, label: labelA });

@@ -12,15 +12,42 @@ const boxMass = (ux: number, uy: number, s: number, x0: number, x1: number, y0: 
 describe("Gaussian edge mass e(u)", () => {
   it("in a rectangle equals the product of normal probabilities", () => {
     const w = rectangleWindow(0, 0, 4, 3);
-    for (const [x, y, s] of [[1, 1, 0.5], [0.1, 0.2, 1], [2, 1.5, 3], [0.001, 0.001, 0.2]]) {
+    for (const [x, y, s] of [
+      [1, 1, 0.5],
+      [0.1, 0.2, 1],
+      [2, 1.5, 3],
+      [0.001, 0.001, 0.2],
+    ]) {
       expect(gaussianEdgeMass(w, x, y, s)).toBeCloseTo(boxMass(x, y, s, 0, 4, 0, 3), 6); // jstat's Φ is good to ~1e-7
     }
   });
 
   it("in an L-shaped trench with a hole equals the sum over its rectangles", () => {
     // L = [0,10]×[0,4] ∪ [0,4]×[4,10] minus the hole [6,8]×[1,2]
-    const w = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]], holes: [[[6, 1], [8, 1], [8, 2], [6, 2]]] });
-    for (const [x, y, s] of [[3.5, 3.5, 1], [5, 3, 2], [2, 9, 0.7], [7, 2.5, 0.3]]) {
+    const w = createWindow({
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 2],
+          [6, 2],
+        ],
+      ],
+    });
+    for (const [x, y, s] of [
+      [3.5, 3.5, 1],
+      [5, 3, 2],
+      [2, 9, 0.7],
+      [7, 2.5, 0.3],
+    ]) {
       const expected = boxMass(x, y, s, 0, 10, 0, 4) + boxMass(x, y, s, 0, 4, 4, 10) - boxMass(x, y, s, 6, 8, 1, 2);
       expect(gaussianEdgeMass(w, x, y, s)).toBeCloseTo(expected, 6);
     }
@@ -34,7 +61,11 @@ describe("intensityAtPoints", () => {
     const k = Math.exp(-25 / 8) / (2 * Math.PI * 4); // φ_σ at distance 5
     expect(res.values[0]).toBeCloseTo(k, 15);
     expect(res.values[1]).toBeCloseTo(k, 15);
-    const withSelf = intensityAtPoints(big, { x: [50, 53], y: [50, 54] }, { sigma: 2, edge: "none", leaveOneOut: false });
+    const withSelf = intensityAtPoints(
+      big,
+      { x: [50, 53], y: [50, 54] },
+      { sigma: 2, edge: "none", leaveOneOut: false },
+    );
     expect(withSelf.values[0]).toBeCloseTo(k + 1 / (8 * Math.PI), 15);
   });
 
@@ -52,14 +83,25 @@ describe("intensityAtPoints", () => {
   });
 
   it("refuses a bandwidth that leaves a find with intensity 0, and a bad bandwidth", () => {
-    expect(() => intensityAtPoints(big, { x: [10, 90], y: [10, 90] }, { sigma: 1 })).toThrow(/intensity is 0 at find 1/);
+    expect(() => intensityAtPoints(big, { x: [10, 90], y: [10, 90] }, { sigma: 1 })).toThrow(
+      /intensity is 0 at find 1/,
+    );
     expect(() => intensityAtPoints(big, { x: [10, 90], y: [10, 90] }, { sigma: -1 })).toThrow(/positive distance/);
   });
 });
 
 describe("densityGrid", () => {
   it("integrates to n with Diggle's edge correction (Σ_j ∫_W k(u − x_j) du / e(x_j) = n)", () => {
-    const w = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] });
+    const w = createWindow({
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+    });
     const pts = { x: [0.5, 1, 3, 8, 9.5, 2, 3.9], y: [0.5, 3, 9.5, 2, 3.5, 6, 4.1] };
     const g = densityGrid(w, pts, { sigma: 0.8, edge: "diggle", nx: 400 });
     const integral = g.values.reduce((s, v) => s + v, 0) * g.dx * g.dy;

@@ -39,8 +39,14 @@ export function scottBandwidth(p: Points): number {
 }
 
 function resolveSigma(window: Window, p: Points, sigma: IntensityOptions["sigma"]): number {
-  const s = sigma === undefined || sigma === "scott" ? scottBandwidth(p) : sigma === "diggle" ? diggleBandwidth(window, p).sigma : sigma;
-  if (!(s > 0) || !Number.isFinite(s)) throw new SpatialInputError(`The kernel bandwidth must be a positive distance; got ${s}.`);
+  const s =
+    sigma === undefined || sigma === "scott"
+      ? scottBandwidth(p)
+      : sigma === "diggle"
+        ? diggleBandwidth(window, p).sigma
+        : sigma;
+  if (!(s > 0) || !Number.isFinite(s))
+    throw new SpatialInputError(`The kernel bandwidth must be a positive distance; got ${s}.`);
   return s;
 }
 
@@ -64,7 +70,11 @@ export interface PointIntensity {
 }
 
 /** λ̂ at each find. Refuses a result of 0 at some find (a lone find with leave-one-out and small σ). */
-export function intensityAtPoints(window: Window, points: PointsInput, options: PointIntensityOptions = {}): PointIntensity {
+export function intensityAtPoints(
+  window: Window,
+  points: PointsInput,
+  options: PointIntensityOptions = {},
+): PointIntensity {
   const p = checkPattern(window, points, { label: options.label });
   const n = p.x.length;
   const sigma = resolveSigma(window, p, options.sigma);
@@ -154,8 +164,12 @@ export function densityGrid(window: Window, points: PointsInput, options: Densit
   const height = bbox.maxY - bbox.minY;
   const nx = options.nx ?? 128;
   const ny = options.ny ?? Math.max(1, Math.round((nx * height) / width));
-  for (const [name, v] of [["nx", nx], ["ny", ny]] as const) {
-    if (!Number.isInteger(v) || v < 1 || v > 4096) throw new SpatialInputError(`The density grid needs 1–4096 pixels a side; ${name} = ${v}.`);
+  for (const [name, v] of [
+    ["nx", nx],
+    ["ny", ny],
+  ] as const) {
+    if (!Number.isInteger(v) || v < 1 || v > 4096)
+      throw new SpatialInputError(`The density grid needs 1–4096 pixels a side; ${name} = ${v}.`);
   }
   const dx = width / nx;
   const dy = height / ny;
@@ -167,7 +181,8 @@ export function densityGrid(window: Window, points: PointsInput, options: Densit
   );
   // The Gaussian kernel factorises, φ(u − x_j) = g(u_x − x_j)·g(u_y − y_j): one row of x-factors per find,
   // then a multiply-add per pixel in reach, so no exponential is taken per pixel and find.
-  const colLo = new Int32Array(n), colHi = new Int32Array(n);
+  const colLo = new Int32Array(n),
+    colHi = new Int32Array(n);
   const xFactor: Float64Array[] = [];
   for (let j = 0; j < n; j++) {
     colLo[j] = Math.max(0, Math.ceil((p.x[j] - reach - bbox.minX) / dx - 0.5));

@@ -21,9 +21,26 @@ import { pairCorrelation } from "./pair-correlation";
 import { quadratTest } from "./quadrat";
 
 type Pt = [number, number];
-const RECT: Pt[] = [[0, 0], [1, 0], [1, 0.8], [0, 0.8]];
-const ELL: Pt[] = [[0, 0], [1, 0], [1, 0.4], [0.5, 0.4], [0.5, 0.8], [0, 0.8]];
-const HOLE: Pt[] = [[0.6, 0.1], [0.8, 0.1], [0.8, 0.2], [0.6, 0.2]];
+const RECT: Pt[] = [
+  [0, 0],
+  [1, 0],
+  [1, 0.8],
+  [0, 0.8],
+];
+const ELL: Pt[] = [
+  [0, 0],
+  [1, 0],
+  [1, 0.4],
+  [0.5, 0.4],
+  [0.5, 0.8],
+  [0, 0.8],
+];
+const HOLE: Pt[] = [
+  [0.6, 0.1],
+  [0.8, 0.1],
+  [0.8, 0.2],
+  [0.6, 0.2],
+];
 const WINDOWS: { name: string; input: WindowInput }[] = [
   { name: "rectangle", input: { outer: RECT } },
   { name: "L-shaped trench", input: { outer: ELL } },
@@ -32,26 +49,35 @@ const WINDOWS: { name: string; input: WindowInput }[] = [
 const R = Array.from({ length: 26 }, (_, k) => k / 100);
 
 /** Turn by q·90° about the origin, then shift: exact for the turn, rounding for the shift. */
-const move = (q: number, dx: number, dy: number) => ([x, y]: Pt): Pt => {
-  let [u, v] = [x, y];
-  for (let i = 0; i < q; i++) [u, v] = [-v, u];
-  return [u + dx, v + dy];
-};
+const move =
+  (q: number, dx: number, dy: number) =>
+  ([x, y]: Pt): Pt => {
+    let [u, v] = [x, y];
+    for (let i = 0; i < q; i++) [u, v] = [-v, u];
+    return [u + dx, v + dy];
+  };
 
 function estimates(input: WindowInput, pts: Pt[]) {
   const W = createWindow(input);
-  const x = pts.map((p) => p[0]), y = pts.map((p) => p[1]);
+  const x = pts.map((p) => p[0]),
+    y = pts.map((p) => p[1]);
   const half = Math.floor(pts.length / 2);
-  const A = { x: x.slice(0, half), y: y.slice(0, half) }, B = { x: x.slice(half), y: y.slice(half) };
+  const A = { x: x.slice(0, half), y: y.slice(0, half) },
+    B = { x: x.slice(half), y: y.slice(half) };
   const K = kFunction(W, { x, y }, { r: R, correction: ["isotropic", "translation", "border"] }).K;
   const cross = crossK(W, A, B, { r: R, correction: ["isotropic", "translation", "border"] }).K;
   const ce = clarkEvans(W, { x, y });
   // 3 × 3 quadrats: the grid is the same after a turn, and no lattice point lies on a cell line, where a
   // turn would move it to the other cell (R's cut puts a find on a line in the cell below or to the left)
-  const nx = 3, ny = 3;
+  const nx = 3,
+    ny = 3;
   return {
-    Kiso: K.isotropic!, Ktrans: K.translation!, Kborder: K.border!,
-    crossIso: cross.isotropic!, crossTrans: cross.translation!, crossBorder: cross.border!,
+    Kiso: K.isotropic!,
+    Ktrans: K.translation!,
+    Kborder: K.border!,
+    crossIso: cross.isotropic!,
+    crossTrans: cross.translation!,
+    crossBorder: cross.border!,
     g: pairCorrelation(W, { x, y }, { r: R.slice(1), halfWidth: 0.05 }).g.isotropic!,
     kInhom: kInhom(W, { x, y }, { r: R, intensity: { sigma: 0.2 } }).K.isotropic!,
     intensity: intensityAtPoints(W, { x, y }, { sigma: 0.2 }).values,
@@ -62,7 +88,8 @@ function estimates(input: WindowInput, pts: Pt[]) {
 
 function expectSame(a: ReturnType<typeof estimates>, b: ReturnType<typeof estimates>, what: string) {
   for (const key of Object.keys(a) as (keyof typeof a)[]) {
-    const u = a[key], v = b[key];
+    const u = a[key],
+      v = b[key];
     for (let k = 0; k < u.length; k++) {
       const label = `${what}: ${key} at index ${k} (${u[k]} vs ${v[k]})`;
       if (Number.isNaN(u[k]) || Number.isNaN(v[k])) expect(Number.isNaN(u[k]) && Number.isNaN(v[k]), label).toBe(true);
@@ -74,7 +101,11 @@ function expectSame(a: ReturnType<typeof estimates>, b: ReturnType<typeof estima
 /** Distinct lattice points strictly inside the window (none on an edge). */
 const lattice = (input: WindowInput) =>
   fc
-    .uniqueArray(fc.tuple(fc.integer({ min: 1, max: 49 }), fc.integer({ min: 1, max: 39 })), { minLength: 8, maxLength: 24, selector: (p) => `${p[0]},${p[1]}` })
+    .uniqueArray(fc.tuple(fc.integer({ min: 1, max: 49 }), fc.integer({ min: 1, max: 39 })), {
+      minLength: 8,
+      maxLength: 24,
+      selector: (p) => `${p[0]},${p[1]}`,
+    })
     .map((cells) => cells.map(([i, j]): Pt => [i * 0.02, j * 0.02]))
     .filter((pts) => {
       const W = createWindow(input);
@@ -101,11 +132,26 @@ describe("estimators do not depend on where the trench lies on the site grid", (
     // exact arithmetic: one pair at distance 0.04, both points more than 0.04 from the edge (weights 1), and
     // in a rectangle on an even grid a pair counts at r when d ≤ r (spatstat's Krect rule):
     // K(0.04) = |W| / (n(n−1)) · 2 = 1/3
-    const pts: Pt[] = [[0.5, -0.5], [0.5, -0.46], [0.9, -0.9]];
+    const pts: Pt[] = [
+      [0.5, -0.5],
+      [0.5, -0.46],
+      [0.9, -0.9],
+    ];
     const r = Array.from({ length: 26 }, (_, k) => k / 100);
     for (const dy of [0, 1, 0.1, 1000.37]) {
-      const W = createWindow({ outer: [[0, -1 + dy], [1, -1 + dy], [1, dy], [0, dy]] });
-      const K = kFunction(W, { x: pts.map((p) => p[0]), y: pts.map((p) => p[1] + dy) }, { r, correction: ["isotropic", "translation"] }).K;
+      const W = createWindow({
+        outer: [
+          [0, -1 + dy],
+          [1, -1 + dy],
+          [1, dy],
+          [0, dy],
+        ],
+      });
+      const K = kFunction(
+        W,
+        { x: pts.map((p) => p[0]), y: pts.map((p) => p[1] + dy) },
+        { r, correction: ["isotropic", "translation"] },
+      ).K;
       expect(K.isotropic![4], `shifted by ${dy}`).toBeCloseTo(1 / 3, 12);
       expect(K.isotropic![3], `shifted by ${dy}`).toBe(0);
     }

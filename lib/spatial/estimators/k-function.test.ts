@@ -82,18 +82,36 @@ describe("kFunction", () => {
 
   it("K is non-decreasing in r for isotropic and translation corrections (property)", () => {
     const ell = createWindow({
-      outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]],
-      holes: [[[6, 1], [8, 1], [8, 2.5], [6, 2.5]]],
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 2.5],
+          [6, 2.5],
+        ],
+      ],
     });
     const coord = fc.tuple(fc.double({ min: 0, max: 10, noNaN: true }), fc.double({ min: 0, max: 10, noNaN: true }));
     fc.assert(
       fc.property(fc.array(coord, { minLength: 3, maxLength: 60 }), (raw) => {
         const inside = raw.filter(([x, y]) => ell.contains(x, y));
         fc.pre(inside.length >= 2 && new Set(inside.map((p) => p.join())).size > 1);
-        const res = kFunction(ell, { x: inside.map((p) => p[0]), y: inside.map((p) => p[1]) }, {
-          r: Array.from({ length: 65 }, (_, k) => (k * 5) / 64),
-          correction: ["isotropic", "translation"],
-        });
+        const res = kFunction(
+          ell,
+          { x: inside.map((p) => p[0]), y: inside.map((p) => p[1]) },
+          {
+            r: Array.from({ length: 65 }, (_, k) => (k * 5) / 64),
+            correction: ["isotropic", "translation"],
+          },
+        );
         for (const values of [res.K.isotropic!, res.K.translation!]) {
           for (let k = 1; k < values.length; k++) expect(values[k]).toBeGreaterThanOrEqual(values[k - 1]);
           expect(values.every(Number.isFinite)).toBe(true);
@@ -104,15 +122,31 @@ describe("kFunction", () => {
   });
 
   it("does not depend on where the site grid puts the trench (national-grid offsets)", () => {
-    const outer: [number, number][] = [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]];
-    const hole: [number, number][] = [[6, 1], [8, 1], [8, 2.5], [6, 2.5]];
+    const outer: [number, number][] = [
+      [0, 0],
+      [10, 0],
+      [10, 4],
+      [4, 4],
+      [4, 10],
+      [0, 10],
+    ];
+    const hole: [number, number][] = [
+      [6, 1],
+      [8, 1],
+      [8, 2.5],
+      [6, 2.5],
+    ];
     const pts = { x: [1, 2.5, 3, 7, 9, 1.5, 3.2, 5, 2, 0.4], y: [1, 2, 8, 3, 1, 6, 3.1, 0.5, 9.5, 4] };
     const [ex, ny] = [451234.5, 6123456.25];
     const shift = (r: [number, number][]) => r.map(([x, y]) => [x + ex, y + ny] as [number, number]);
     const rr = Array.from({ length: 17 }, (_, k) => (k * 2) / 16);
     const corr = ["isotropic", "translation", "border"] as const;
     const local = kFunction(createWindow({ outer, holes: [hole] }), pts, { r: rr, correction: [...corr] });
-    const far = kFunction(createWindow({ outer: shift(outer), holes: [shift(hole)] }), { x: pts.x.map((v) => v + ex), y: pts.y.map((v) => v + ny) }, { r: rr, correction: [...corr] });
+    const far = kFunction(
+      createWindow({ outer: shift(outer), holes: [shift(hole)] }),
+      { x: pts.x.map((v) => v + ex), y: pts.y.map((v) => v + ny) },
+      { r: rr, correction: [...corr] },
+    );
     for (const c of corr) local.K[c]!.forEach((v, k) => expect(far.K[c]![k]).toBeCloseTo(v, 6));
   });
 
@@ -137,7 +171,11 @@ describe("kFunction", () => {
     expect(Array.from(res.K.border!, Number.isFinite)).toEqual(Array.from(res.r, (r) => r < 2));
     expect(res.K.isotropic!.every(Number.isFinite)).toBe(true);
     // generic rule (uneven grid): a centre counts at r_k while b ≥ r_(k−1); b = 1 and 2 here
-    const given = kFunction(rectangleWindow(0, 0, 10, 10), { x: [1, 2], y: [1, 2] }, { r: [0, 1, 2.5, 3], correction: "border" });
+    const given = kFunction(
+      rectangleWindow(0, 0, 10, 10),
+      { x: [1, 2], y: [1, 2] },
+      { r: [0, 1, 2.5, 3], correction: "border" },
+    );
     expect(Array.from(given.K.border!, Number.isFinite)).toEqual([true, true, true, false]);
   });
 });

@@ -62,7 +62,8 @@ export function corrections(c: KCorrection | KCorrection[] | undefined): KCorrec
  */
 export function borderRatio(numerator: Float64Array, denominator: Float64Array, lambda: number): Float64Array {
   const out = new Float64Array(numerator.length);
-  for (let k = 0; k < out.length; k++) out[k] = denominator[k] === 0 ? Number.NaN : numerator[k] / (lambda * denominator[k]);
+  for (let k = 0; k < out.length; k++)
+    out[k] = denominator[k] === 0 ? Number.NaN : numerator[k] / (lambda * denominator[k]);
   return out;
 }
 
@@ -78,7 +79,6 @@ export function boundaryDistances(window: Window, x: Float64Array, y: Float64Arr
   for (let k = 0; k < x.length; k++) b[k] = window.boundaryDistance(x[k], y[k]);
   return b;
 }
-
 
 /** K̂(r) of one pattern in W under the chosen edge corrections. */
 export function kFunction(window: Window, points: PointsInput, options: KOptions = {}): KResult {

@@ -50,7 +50,8 @@ export function kInhom(window: Window, points: PointsInput, options: KInhomOptio
     lambda = Float64Array.from(options.lambda);
     if (lambda.length !== n) throw new SpatialInputError(`${n} finds but ${lambda.length} intensity values.`);
     lambda.forEach((v, k) => {
-      if (!(v > 0) || !Number.isFinite(v)) throw new SpatialInputError(`The intensity at find ${k + 1} must be positive; got ${v}.`);
+      if (!(v > 0) || !Number.isFinite(v))
+        throw new SpatialInputError(`The intensity at find ${k + 1} must be positive; got ${v}.`);
     });
   } else {
     const est = intensityAtPoints(window, p, { leaveOneOut: true, ...options.intensity, label });
@@ -58,7 +59,8 @@ export function kInhom(window: Window, points: PointsInput, options: KInhomOptio
     sigma = est.sigma;
   }
   const wanted = corrections(options.correction);
-  if (wanted.includes("border")) throw new SpatialInputError("Inhomogeneous K takes the isotropic or translation correction, not border.");
+  if (wanted.includes("border"))
+    throw new SpatialInputError("Inhomogeneous K takes the isotropic or translation correction, not border.");
   const r = options.r ? checkRGrid(window, options.r) : defaultRGrid(window, n);
   const m = r.length;
   const pairs = pairsWithin(p, r[m - 1]);
@@ -72,7 +74,9 @@ export function kInhom(window: Window, points: PointsInput, options: KInhomOptio
   const L: KInhomResult["L"] = {};
   for (const c of wanted) {
     const iso = c === "isotropic";
-    const w = iso ? isotropicPairWeights(window, p.x, p.y, n, pairs, r[m - 1]) : translationPairWeights(window, p.x, p.y, p.x, p.y, pairs);
+    const w = iso
+      ? isotropicPairWeights(window, p.x, p.y, n, pairs, r[m - 1])
+      : translationPairWeights(window, p.x, p.y, p.x, p.y, pairs);
     // fold 1/(λ_i λ_j) into the weights; translation weights count both orders
     const folded = new Float64Array(iso ? 2 * pairs.count : pairs.count);
     for (let q = 0; q < pairs.count; q++) {

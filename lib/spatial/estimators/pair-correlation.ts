@@ -35,7 +35,11 @@ export interface PairCorrelationResult {
   g: Partial<Record<KCorrection, Float64Array>>;
 }
 
-export function pairCorrelation(window: Window, points: PointsInput, options: PairCorrelationOptions = {}): PairCorrelationResult {
+export function pairCorrelation(
+  window: Window,
+  points: PointsInput,
+  options: PairCorrelationOptions = {},
+): PairCorrelationResult {
   const label = options.label ?? "the finds";
   const { x, y } = checkPattern(window, points, { label });
   const n = x.length;
@@ -44,15 +48,19 @@ export function pairCorrelation(window: Window, points: PointsInput, options: Pa
   const m = r.length;
   const lambda = n / window.area;
   const h = options.halfWidth ?? 0.15 / Math.sqrt(lambda);
-  if (!(h > 0) || !Number.isFinite(h)) throw new SpatialInputError(`The kernel half-width must be a positive distance; got ${h}.`);
+  if (!(h > 0) || !Number.isFinite(h))
+    throw new SpatialInputError(`The kernel half-width must be a positive distance; got ${h}.`);
   const wanted = corrections(options.correction);
-  if (wanted.includes("border")) throw new SpatialInputError("The pair correlation takes the isotropic or translation correction, not border.");
+  if (wanted.includes("border"))
+    throw new SpatialInputError("The pair correlation takes the isotropic or translation correction, not border.");
   const reach = Math.min(r[m - 1] + h, window.diameter);
   const pairs = pairsWithin({ x, y }, reach);
   const g: PairCorrelationResult["g"] = {};
   for (const c of wanted) {
     const iso = c === "isotropic";
-    const w = iso ? isotropicPairWeights(window, x, y, n, pairs, reach) : translationPairWeights(window, x, y, x, y, pairs);
+    const w = iso
+      ? isotropicPairWeights(window, x, y, n, pairs, reach)
+      : translationPairWeights(window, x, y, x, y, pairs);
     const sum = new Float64Array(m);
     for (let p = 0; p < pairs.count; p++) {
       const d = pairs.d[p];

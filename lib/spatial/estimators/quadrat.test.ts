@@ -2,7 +2,14 @@ import { describe, expect, it } from "vitest";
 import { createWindow, rectangleWindow } from "../geometry/window";
 import { createQuadratLayout, quadratTest } from "./quadrat";
 
-const ell = [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] as [number, number][];
+const ell = [
+  [0, 0],
+  [10, 0],
+  [10, 4],
+  [4, 4],
+  [4, 10],
+  [0, 10],
+] as [number, number][];
 
 describe("quadrat layout", () => {
   it("clips cells to the trench exactly and drops cells outside it (hand geometry)", () => {
@@ -18,7 +25,17 @@ describe("quadrat layout", () => {
   });
 
   it("subtracts holes from the cells they fall in", () => {
-    const w = createWindow({ outer: ell, holes: [[[6, 1], [8, 1], [8, 3], [6, 3]]] });
+    const w = createWindow({
+      outer: ell,
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 3],
+          [6, 3],
+        ],
+      ],
+    });
     const layout = createQuadratLayout(w, 2, 2);
     expect(layout.cells[2].area).toBeCloseTo(16, 12); // 20 − the 2 × 2 hole
   });

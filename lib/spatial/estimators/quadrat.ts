@@ -58,8 +58,12 @@ function interval(b: Float64Array, v: number, tol: number): number {
 }
 
 export function createQuadratLayout(window: Window, nx = 5, ny = nx): QuadratLayout {
-  for (const [name, k] of [["nx", nx], ["ny", ny]] as const) {
-    if (!Number.isInteger(k) || k < 1) throw new SpatialInputError(`The quadrat grid needs a whole number of cells ≥ 1; ${name} = ${k}.`);
+  for (const [name, k] of [
+    ["nx", nx],
+    ["ny", ny],
+  ] as const) {
+    if (!Number.isInteger(k) || k < 1)
+      throw new SpatialInputError(`The quadrat grid needs a whole number of cells ≥ 1; ${name} = ${k}.`);
   }
   const { bbox } = window;
   const xbreaks = breaks(bbox.minX, bbox.maxX, nx);
@@ -83,10 +87,18 @@ export function createQuadratLayout(window: Window, nx = 5, ny = nx): QuadratLay
 }
 
 /** Counts per kept cell of finds (x, y), assumed inside W. */
-export function quadratCounts(layout: QuadratLayout, x: ArrayLike<number>, y: ArrayLike<number>, n = x.length): Float64Array {
+export function quadratCounts(
+  layout: QuadratLayout,
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  n = x.length,
+): Float64Array {
   const counts = new Float64Array(layout.cells.length);
   for (let k = 0; k < n; k++) {
-    const c = layout.lookup[interval(layout.ybreaks, y[k], layout.tol) * layout.nx + interval(layout.xbreaks, x[k], layout.tol)];
+    const c =
+      layout.lookup[
+        interval(layout.ybreaks, y[k], layout.tol) * layout.nx + interval(layout.xbreaks, x[k], layout.tol)
+      ];
     if (c < 0) throw new SpatialInputError(`Find ${k + 1} falls in a quadrat with no area inside the trench.`);
     counts[c]++;
   }
@@ -145,7 +157,8 @@ export function quadratTest(window: Window, points: PointsInput, options: Quadra
   const n = p.x.length;
   const layout = createQuadratLayout(window, options.nx ?? 5, options.ny ?? options.nx ?? 5);
   const cellCount = layout.cells.length;
-  if (cellCount < 2) throw new SpatialInputError("The quadrat test needs at least 2 cells inside the trench; use a finer grid.");
+  if (cellCount < 2)
+    throw new SpatialInputError("The quadrat test needs at least 2 cells inside the trench; use a finer grid.");
   const observed = quadratCounts(layout, p.x, p.y);
   const expected = Float64Array.from(layout.cells, (c) => (n * c.area) / window.area);
   const X2 = quadratChiSquare(layout, observed, n);

@@ -25,7 +25,8 @@ export function defaultRMax(window: Window, n: number): number {
 /** The default r grid for a pattern of n points in `window`. */
 export function defaultRGrid(window: Window, n: number, options: RGridOptions = {}): Float64Array {
   const count = options.count ?? 513;
-  if (!Number.isInteger(count) || count < 2) throw new SpatialInputError(`An r grid needs at least 2 values; got ${count}.`);
+  if (!Number.isInteger(count) || count < 2)
+    throw new SpatialInputError(`An r grid needs at least 2 values; got ${count}.`);
   if (!(n >= 1)) throw new SpatialInputError("The default r grid needs at least one point to estimate the intensity.");
   const rmax = options.rmax ?? defaultRMax(window, n);
   const r = new Float64Array(count);

@@ -12,7 +12,11 @@ describe("isotropic edge weight", () => {
   });
 
   it("at a straight edge is 2π / (2π − 2·acos(d/r)) (Ripley 1977, circle cut by one line)", () => {
-    for (const [d, r] of [[1, 2], [0.5, 3], [2.9, 3]]) {
+    for (const [d, r] of [
+      [1, 2],
+      [0.5, 3],
+      [2.9, 3],
+    ]) {
       const expected = (2 * Math.PI) / (2 * Math.PI - 2 * Math.acos(d / r));
       expect(isotropicWeight(square, 5, d, r)).toBeCloseTo(expected, 12);
       expect(isotropicWeight(square, 10 - d, 5, r)).toBeCloseTo(expected, 12);
@@ -27,7 +31,22 @@ describe("isotropic edge weight", () => {
   it("counts the arc lost in a hole (hand geometry)", () => {
     // Hole [12,14]×[4,6] in [0,20]²; centre (10, 5), r = 4, every outer edge at least 5 away. The circle
     // point (10 + 4cosφ, 5 + 4sinφ) is in the hole when cosφ ≥ 1/2 and |sinφ| ≤ 1/4: |φ| ≤ asin(1/4).
-    const w = createWindow({ outer: [[0, 0], [20, 0], [20, 20], [0, 20]], holes: [[[12, 4], [14, 4], [14, 6], [12, 6]]] });
+    const w = createWindow({
+      outer: [
+        [0, 0],
+        [20, 0],
+        [20, 20],
+        [0, 20],
+      ],
+      holes: [
+        [
+          [12, 4],
+          [14, 4],
+          [14, 6],
+          [12, 6],
+        ],
+      ],
+    });
     const lost = 2 * Math.asin(0.25);
     expect(isotropicWeight(w, 10, 5, 4)).toBeCloseTo((2 * Math.PI) / (2 * Math.PI - lost), 12);
   });
@@ -35,7 +54,16 @@ describe("isotropic edge weight", () => {
   it("in a concave outline adds back the arc that re-enters W (L-shape, hand geometry)", () => {
     // L = [0,10]×[0,4] ∪ [0,4]×[4,10]. Centre (2, 2), r = 2.5: the bottom and left edges cut as in the
     // square's corner; the notch corner (4, 4) is √8 ≈ 2.83 away, out of reach: same weight as the square.
-    const ell = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] });
+    const ell = createWindow({
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+    });
     expect(isotropicWeight(ell, 2, 2, 2.5)).toBeCloseTo(isotropicWeight(square, 2, 2, 2.5), 12);
     // Centre (3, 3), r = 2: the outer edges are 3 away; the circle point (3 + 2cosφ, 3 + 2sinφ) is in the
     // notch (x > 4 and y > 4) when cosφ > 1/2 and sinφ > 1/2, i.e. 30° < φ < 60°: π/6 is lost.
@@ -45,7 +73,16 @@ describe("isotropic edge weight", () => {
   it("handles finds digitised on the trench edge: half the circle inside on an edge, a quarter at a corner", () => {
     expect(isotropicWeight(square, 5, 0, 1)).toBeCloseTo(2, 12); // θ = π
     expect(isotropicWeight(square, 0, 0, 1)).toBeCloseTo(4, 12); // θ = π/2
-    const ell = createWindow({ outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]] });
+    const ell = createWindow({
+      outer: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+    });
     expect(isotropicWeight(ell, 4, 4, 1)).toBeCloseTo(4 / 3, 12); // reflex corner: θ = 3π/2
     // at r larger than the distance to the far side of the notch the arc is still counted exactly:
     // centre (4, 4), r = 1.5 in L: the inside directions are 90°…360° (the notch is 0°…90°)
@@ -53,14 +90,21 @@ describe("isotropic edge weight", () => {
   });
 
   it("is clamped to 100 at a sharp corner and to at least 1", () => {
-    const thin = createWindow({ outer: [[0, 0], [100, 0], [0, 0.01]] });
+    const thin = createWindow({
+      outer: [
+        [0, 0],
+        [100, 0],
+        [0, 0.01],
+      ],
+    });
     expect(isotropicWeight(thin, 0.001, 0.001, 50)).toBe(100);
   });
 
   it("agrees with the closed-form rectangle weight for random centres and radii (property)", () => {
     // Independent formula for rectangles: each edge cuts the half-angle acos(d/r), limited on either side by
     // the direction to that edge's corners (Ripley 1977; the rectangle case as spatstat's Krect computes it).
-    const a = 6, b = 4;
+    const a = 6,
+      b = 4;
     const w = rectangleWindow(0, 0, a, b);
     const hang = (d: number, r: number) => (d < r ? Math.acos(d / r) : 0);
     const rect = (x: number, y: number, r: number) => {

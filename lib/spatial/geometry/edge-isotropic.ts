@@ -37,8 +37,10 @@ export interface IsotropicEdgeData {
 export function fanAngle(edges: Float64Array, edgeCount: number, cx: number, cy: number, tol: number): number {
   let sum = 0;
   for (let e = 0; e < edgeCount; e++) {
-    const ax = edges[4 * e] - cx, ay = edges[4 * e + 1] - cy;
-    const bx = edges[4 * e + 2] - cx, by = edges[4 * e + 3] - cy;
+    const ax = edges[4 * e] - cx,
+      ay = edges[4 * e + 1] - cy;
+    const bx = edges[4 * e + 2] - cx,
+      by = edges[4 * e + 3] - cy;
     const cross = ax * by - ay * bx;
     if (Math.abs(cross) <= tol * Math.hypot(bx - ax, by - ay)) continue;
     sum += Math.atan2(cross, ax * bx + ay * by);
@@ -47,12 +49,21 @@ export function fanAngle(edges: Float64Array, edgeCount: number, cx: number, cy:
 }
 
 /** Precompute, for n points, the edges of W within `rmax` of each point. */
-export function isotropicEdgeData(window: Window, x: ArrayLike<number>, y: ArrayLike<number>, n: number, rmax: number): IsotropicEdgeData {
+export function isotropicEdgeData(
+  window: Window,
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  n: number,
+  rmax: number,
+): IsotropicEdgeData {
   const { edges, edgeCount, bbox } = window;
   const tol = 1e-12 * Math.max(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY);
   const start = new Int32Array(n + 1);
   let cap = Math.max(16, n);
-  let h = new Float64Array(cap), reach = new Float64Array(cap), lo = new Float64Array(cap), hi = new Float64Array(cap);
+  let h = new Float64Array(cap),
+    reach = new Float64Array(cap),
+    lo = new Float64Array(cap),
+    hi = new Float64Array(cap);
   let sign = new Float64Array(cap);
   const total = new Float64Array(n);
   const bdist = new Float64Array(n);
@@ -64,13 +75,17 @@ export function isotropicEdgeData(window: Window, x: ArrayLike<number>, y: Array
     let onBoundary = false;
     let nearest = Infinity;
     for (let e = 0; e < edgeCount; e++) {
-      const ax = edges[4 * e] - cx, ay = edges[4 * e + 1] - cy;
-      const ex = edges[4 * e + 2] - cx - ax, ey = edges[4 * e + 3] - cy - ay;
+      const ax = edges[4 * e] - cx,
+        ay = edges[4 * e + 1] - cy;
+      const ex = edges[4 * e + 2] - cx - ax,
+        ey = edges[4 * e + 3] - cy - ay;
       const len = Math.sqrt(ex * ex + ey * ey);
-      const ux = ex / len, uy = ey / len;
+      const ux = ex / len,
+        uy = ey / len;
       const sa = ax * ux + ay * uy;
       const t = Math.max(0, Math.min(len, -sa));
-      const qx = ax + t * ux, qy = ay + t * uy;
+      const qx = ax + t * ux,
+        qy = ay + t * uy;
       const segDist = Math.sqrt(qx * qx + qy * qy);
       if (segDist <= tol) onBoundary = true;
       if (segDist < nearest) nearest = segDist;
@@ -151,7 +166,9 @@ export function isotropicPairWeights(
   const data = isotropicEdgeData(window, x, y, n, rmax);
   const w = out && out.length >= 2 * pairs.count ? out : new Float64Array(2 * pairs.count);
   const { bdist, total } = data;
-  const pi = pairs.i, pj = pairs.j, pd = pairs.d;
+  const pi = pairs.i,
+    pj = pairs.j,
+    pd = pairs.d;
   for (let p = 0; p < pairs.count; p++) {
     const d = pd[p];
     const i = pi[p];

@@ -5,8 +5,22 @@ import { translationWeight } from "./edge-translation";
 
 // L-shaped trench [0,10]×[0,4] ∪ [0,4]×[4,10] with the hole [6,8]×[1,2].
 const trench = createWindow({
-  outer: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]],
-  holes: [[[6, 1], [6, 2], [8, 2], [8, 1]]],
+  outer: [
+    [0, 0],
+    [10, 0],
+    [10, 4],
+    [4, 4],
+    [4, 10],
+    [0, 10],
+  ],
+  holes: [
+    [
+      [6, 1],
+      [6, 2],
+      [8, 2],
+      [8, 1],
+    ],
+  ],
 });
 
 describe("edge weights against spatstat", () => {

@@ -6,7 +6,14 @@ import { setCovariance, translationWeight } from "./edge-translation";
 import { signedArea } from "./ring";
 import type { Ring } from "../types";
 
-const ellOuter: Ring = [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]];
+const ellOuter: Ring = [
+  [0, 0],
+  [10, 0],
+  [10, 4],
+  [4, 4],
+  [4, 10],
+  [0, 10],
+];
 
 /** Planar area of a turf (polyclip-ts) intersection: the outside check of the trapezoid formula. */
 function turfOverlap(outer: Ring, holes: Ring[], dx: number, dy: number): number {
@@ -30,7 +37,12 @@ function turfOverlap(outer: Ring, holes: Ring[], dx: number, dy: number): number
 describe("translation edge weight", () => {
   it("in a rectangle is ab / ((a − |dx|)(b − |dy|)) (Ohser 1983)", () => {
     const w = rectangleWindow(0, 0, 6, 4);
-    for (const [dx, dy] of [[1, 0], [0, -2], [2.5, 1.5], [-3, -0.5]]) {
+    for (const [dx, dy] of [
+      [1, 0],
+      [0, -2],
+      [2.5, 1.5],
+      [-3, -0.5],
+    ]) {
       expect(translationWeight(w, dx, dy)).toBeCloseTo((6 * 4) / ((6 - Math.abs(dx)) * (4 - Math.abs(dy))), 12);
     }
   });
@@ -45,7 +57,19 @@ describe("translation edge weight", () => {
   });
 
   it("agrees with polygon clipping (@turf/turf intersect) in a concave trench with a hole", () => {
-    const holes: Ring[] = [[[6, 1], [8, 1], [8, 2.5], [6, 2.5]], [[1, 6], [2, 6], [1.5, 8]]];
+    const holes: Ring[] = [
+      [
+        [6, 1],
+        [8, 1],
+        [8, 2.5],
+        [6, 2.5],
+      ],
+      [
+        [1, 6],
+        [2, 6],
+        [1.5, 8],
+      ],
+    ];
     const win = createWindow({ outer: ellOuter, holes });
     const v = fc.double({ min: -6, max: 6, noNaN: true, noDefaultInfinity: true });
     fc.assert(

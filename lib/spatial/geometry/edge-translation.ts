@@ -37,8 +37,10 @@ export function trapezoidEdges(window: Window): TrapezoidEdges {
     sigma: new Float64Array(edgeCount),
   };
   for (let e = 0; e < edgeCount; e++) {
-    const ax = edges[4 * e] - bbox.minX, ay = edges[4 * e + 1] - bbox.minY;
-    const bx = edges[4 * e + 2] - bbox.minX, by = edges[4 * e + 3] - bbox.minY;
+    const ax = edges[4 * e] - bbox.minX,
+      ay = edges[4 * e + 1] - bbox.minY;
+    const bx = edges[4 * e + 2] - bbox.minX,
+      by = edges[4 * e + 3] - bbox.minY;
     if (ax === bx) continue; // a vertical edge spans no trapezoid
     const k = t.count++;
     const left = ax < bx;
@@ -65,7 +67,10 @@ export function setCovariance(window: Window, dx: number, dy: number): number {
   const base = dy < 0 ? dy : 0; // below both W and W + v
   let total = 0;
   for (let e = 0; e < count; e++) {
-    const ea = x0[e], eb = x1[e], ey = y0[e], es = slope[e];
+    const ea = x0[e],
+      eb = x1[e],
+      ey = y0[e],
+      es = slope[e];
     for (let f = 0; f < count; f++) {
       const fa = x0[f] + dx;
       if (fa >= eb) break; // this and every later edge of W + v starts right of e
@@ -73,10 +78,14 @@ export function setCovariance(window: Window, dx: number, dy: number): number {
       const xl = ea > fa ? ea : fa;
       const xr = eb < fb ? eb : fb;
       if (xr <= xl) continue;
-      const fy = y0[f] + dy, fs = slope[f];
-      const el = ey + es * (xl - ea), er = ey + es * (xr - ea);
-      const gl = fy + fs * (xl - fa), gr = fy + fs * (xr - fa);
-      const dl = el - gl, dr = er - gr;
+      const fy = y0[f] + dy,
+        fs = slope[f];
+      const el = ey + es * (xl - ea),
+        er = ey + es * (xr - ea);
+      const gl = fy + fs * (xl - fa),
+        gr = fy + fs * (xr - fa);
+      const dl = el - gl,
+        dr = er - gr;
       let area: number;
       if ((dl <= 0 && dr <= 0) || (dl >= 0 && dr >= 0)) {
         const lowL = dl <= 0 && dr <= 0 ? el : gl;

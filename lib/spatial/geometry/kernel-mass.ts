@@ -53,10 +53,13 @@ export function gaussianEdgeMass(window: Window, ux: number, uy: number, sigma: 
   const { edges, edgeCount } = window;
   let total = 0;
   for (let e = 0; e < edgeCount; e++) {
-    const ax = edges[4 * e] - ux, ay = edges[4 * e + 1] - uy;
-    const ex = edges[4 * e + 2] - ux - ax, ey = edges[4 * e + 3] - uy - ay;
+    const ax = edges[4 * e] - ux,
+      ay = edges[4 * e + 1] - uy;
+    const ex = edges[4 * e + 2] - ux - ax,
+      ey = edges[4 * e + 3] - uy - ay;
     const len = Math.sqrt(ex * ex + ey * ey);
-    const dirX = ex / len, dirY = ey / len;
+    const dirX = ex / len,
+      dirY = ey / len;
     const hs = dirY * ax - dirX * ay; // positive when u is on the interior side
     const h = Math.abs(hs);
     if (h <= 1e-14 * len) continue; // u on the edge's line: degenerate triangle

@@ -3,11 +3,18 @@ import fc from "fast-check";
 import { nearestNeighbourDistances, pairsBetween, pairsWithin } from "./neighbours";
 
 const pattern = fc
-  .array(fc.tuple(fc.integer({ min: 0, max: 2000 }), fc.integer({ min: 0, max: 1000 })), { minLength: 2, maxLength: 80 })
+  .array(fc.tuple(fc.integer({ min: 0, max: 2000 }), fc.integer({ min: 0, max: 1000 })), {
+    minLength: 2,
+    maxLength: 80,
+  })
   .map((pts) => ({ x: Float64Array.from(pts, (p) => p[0] / 100), y: Float64Array.from(pts, (p) => p[1] / 100) }));
 
 /** All-pairs enumeration: the obvious definition the fast search must agree with. */
-function brute(a: { x: Float64Array; y: Float64Array }, b: { x: Float64Array; y: Float64Array } | null, rmax: number): string[] {
+function brute(
+  a: { x: Float64Array; y: Float64Array },
+  b: { x: Float64Array; y: Float64Array } | null,
+  rmax: number,
+): string[] {
   const out: string[] = [];
   const other = b ?? a;
   for (let i = 0; i < a.x.length; i++) {
@@ -52,7 +59,8 @@ describe("neighbour search", () => {
         const nn = nearestNeighbourDistances(p);
         for (let i = 0; i < p.x.length; i++) {
           let best = Infinity;
-          for (let j = 0; j < p.x.length; j++) if (j !== i) best = Math.min(best, Math.hypot(p.x[j] - p.x[i], p.y[j] - p.y[i]));
+          for (let j = 0; j < p.x.length; j++)
+            if (j !== i) best = Math.min(best, Math.hypot(p.x[j] - p.x[i], p.y[j] - p.y[i]));
           expect(nn[i]).toBeCloseTo(best, 12);
         }
       }),

@@ -24,7 +24,8 @@ function buildIndex(p: Points): KDBush {
 }
 
 function assertRadius(rmax: number): void {
-  if (!(rmax > 0) || !Number.isFinite(rmax)) throw new SpatialInputError(`r max must be a positive distance; got ${rmax}.`);
+  if (!(rmax > 0) || !Number.isFinite(rmax))
+    throw new SpatialInputError(`r max must be a positive distance; got ${rmax}.`);
 }
 
 class PairBuilder {
@@ -68,7 +69,10 @@ interface CellSort {
 
 function sortIntoCells(p: Points, cell: number): CellSort {
   const n = p.x.length;
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (let k = 0; k < n; k++) {
     minX = Math.min(minX, p.x[k]);
     maxX = Math.max(maxX, p.x[k]);
@@ -110,11 +114,14 @@ export function pairsWithin(p: Points, rmax: number): PairList {
       const c = cy * nx + cx;
       for (let s = start[c]; s < start[c + 1]; s++) {
         const a = order[s];
-        const xa = x[a], ya = y[a];
+        const xa = x[a],
+          ya = y[a];
         // own cell (later entries only), then the forward half of the neighbours: E, NW, N, NE
         for (let t = s + 1; t < start[c + 1]; t++) {
           const b = order[t];
-          const dx = x[b] - xa, dy = y[b] - ya, d2 = dx * dx + dy * dy;
+          const dx = x[b] - xa,
+            dy = y[b] - ya,
+            d2 = dx * dx + dy * dy;
           if (d2 <= r2) out.push(a < b ? a : b, a < b ? b : a, Math.sqrt(d2));
         }
         for (let q = 0; q < 4; q++) {
@@ -124,7 +131,9 @@ export function pairsWithin(p: Points, rmax: number): PairList {
           const o = oy * nx + ox;
           for (let t = start[o]; t < start[o + 1]; t++) {
             const b = order[t];
-            const dx = x[b] - xa, dy = y[b] - ya, d2 = dx * dx + dy * dy;
+            const dx = x[b] - xa,
+              dy = y[b] - ya,
+              d2 = dx * dx + dy * dy;
             if (d2 <= r2) out.push(a < b ? a : b, a < b ? b : a, Math.sqrt(d2));
           }
         }
@@ -158,9 +167,13 @@ export function pairsBetween(a: Points, b: Points, rmax: number): PairList {
  */
 export function nearestNeighbourDistances(p: Points, to?: Points): Float64Array {
   const target = to ?? p;
-  if (target.x.length < (to ? 1 : 2)) throw new SpatialInputError("Nearest-neighbour distances need at least 2 points.");
+  if (target.x.length < (to ? 1 : 2))
+    throw new SpatialInputError("Nearest-neighbour distances need at least 2 points.");
   const index = buildIndex(target);
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const q of [p, target]) {
     for (let k = 0; k < q.x.length; k++) {
       minX = Math.min(minX, q.x[k]);

@@ -16,7 +16,8 @@ export interface PatternCheck {
 export function checkPattern(window: Window, input: PointsInput, options: PatternCheck = {}): Points {
   const label = options.label ?? "the finds";
   const minPoints = options.minPoints ?? 2;
-  if (!input || input.x == null || input.y == null) throw new SpatialInputError(`No coordinates were given for ${label}.`);
+  if (!input || input.x == null || input.y == null)
+    throw new SpatialInputError(`No coordinates were given for ${label}.`);
   const n = input.x.length;
   if (input.y.length !== n) {
     throw new SpatialInputError(`${label}: ${n} x coordinates but ${input.y.length} y coordinates.`);

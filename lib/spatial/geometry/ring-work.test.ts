@@ -55,7 +55,11 @@ describe("the ring checks stay near-linear", () => {
   });
 
   it("the whole window of a 2,000-vertex outline with 20 holes of 2,000 vertices is near-linear work", () => {
-    const holes = Array.from({ length: MAX_HOLES }, (_, k) => wavy(MAX_RING_VERTICES, 0, 0).map(([x, y]) => [x / 60 + 40 * (k % 5), y / 60 + 40 * Math.floor(k / 5)] as [number, number]));
+    const holes = Array.from({ length: MAX_HOLES }, (_, k) =>
+      wavy(MAX_RING_VERTICES, 0, 0).map(
+        ([x, y]) => [x / 60 + 40 * (k % 5), y / 60 + 40 * Math.floor(k / 5)] as [number, number],
+      ),
+    );
     const outer = wavy(MAX_RING_VERTICES).map(([x, y]) => [90 + 12 * x, 60 + 12 * y] as [number, number]);
     const work = { segmentTests: 0, distanceTests: 0 };
     const w = createWindow({ outer, holes }, work);
@@ -116,17 +120,40 @@ describe("the indexed checks give the nested loop's answers", () => {
 
 describe("outline size limits", () => {
   it("refuses a ring of more than 2,000 vertices, stating the limit", () => {
-    expect(() => createWindow({ outer: wavy(MAX_RING_VERTICES + 1) })).toThrow(/The outer ring has 2,001 vertices; at most 2,000 are allowed/);
-    expect(() => createWindow({ outer: [[-20, -20], [20, -20], [20, 20], [-20, 20]], holes: [wavy(MAX_RING_VERTICES + 1).map(([x, y]) => [x / 2, y / 2] as [number, number])] })).toThrow(/hole 1 has 2,001 vertices; at most 2,000/);
+    expect(() => createWindow({ outer: wavy(MAX_RING_VERTICES + 1) })).toThrow(
+      /The outer ring has 2,001 vertices; at most 2,000 are allowed/,
+    );
+    expect(() =>
+      createWindow({
+        outer: [
+          [-20, -20],
+          [20, -20],
+          [20, 20],
+          [-20, 20],
+        ],
+        holes: [wavy(MAX_RING_VERTICES + 1).map(([x, y]) => [x / 2, y / 2] as [number, number])],
+      }),
+    ).toThrow(/hole 1 has 2,001 vertices; at most 2,000/);
     // A closing vertex repeating the first is not counted.
     const closed = wavy(MAX_RING_VERTICES);
     expect(createWindow({ outer: [...closed, closed[0]] }).outer).toHaveLength(MAX_RING_VERTICES);
   });
 
   it("refuses more than 20 holes, stating the limit", () => {
-    const outer: Ring = [[0, 0], [100, 0], [100, 100], [0, 100]];
-    const hole = (k: number): Ring => [[1 + 4 * k, 1], [3 + 4 * k, 1], [3 + 4 * k, 3]];
+    const outer: Ring = [
+      [0, 0],
+      [100, 0],
+      [100, 100],
+      [0, 100],
+    ];
+    const hole = (k: number): Ring => [
+      [1 + 4 * k, 1],
+      [3 + 4 * k, 1],
+      [3 + 4 * k, 3],
+    ];
     expect(createWindow({ outer, holes: Array.from({ length: MAX_HOLES }, (_, k) => hole(k)) }).holes).toHaveLength(20);
-    expect(() => createWindow({ outer, holes: Array.from({ length: MAX_HOLES + 1 }, (_, k) => hole(k)) })).toThrow(/21 holes; at most 20 are allowed/);
+    expect(() => createWindow({ outer, holes: Array.from({ length: MAX_HOLES + 1 }, (_, k) => hole(k)) })).toThrow(
+      /21 holes; at most 20 are allowed/,
+    );
   });
 });

@@ -54,13 +54,16 @@ function orient(ax: number, ay: number, bx: number, by: number, cx: number, cy: 
 }
 
 function onSegment(ax: number, ay: number, bx: number, by: number, px: number, py: number): boolean {
-  return (
-    Math.min(ax, bx) <= px && px <= Math.max(ax, bx) && Math.min(ay, by) <= py && py <= Math.max(ay, by)
-  );
+  return Math.min(ax, bx) <= px && px <= Math.max(ax, bx) && Math.min(ay, by) <= py && py <= Math.max(ay, by);
 }
 
 /** True when closed segments ab and cd share at least one point (crossing, touching or overlapping). */
-export function segmentsTouch(a: [number, number], b: [number, number], c: [number, number], d: [number, number]): boolean {
+export function segmentsTouch(
+  a: [number, number],
+  b: [number, number],
+  c: [number, number],
+  d: [number, number],
+): boolean {
   const d1 = orient(c[0], c[1], d[0], d[1], a[0], a[1]);
   const d2 = orient(c[0], c[1], d[0], d[1], b[0], b[1]);
   const d3 = orient(a[0], a[1], b[0], b[1], c[0], c[1]);
@@ -104,7 +107,13 @@ export function firstSelfContact(ring: Ring, work?: RingWork): [number, number] 
   for (let i = 0; i < m; i++) {
     const a = ring[i];
     const b = ring[(i + 1) % m];
-    const candidates = index.search(Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1]), (j) => j > i);
+    const candidates = index.search(
+      Math.min(a[0], b[0]),
+      Math.min(a[1], b[1]),
+      Math.max(a[0], b[0]),
+      Math.max(a[1], b[1]),
+      (j) => j > i,
+    );
     candidates.sort((x, y) => x - y);
     for (const j of candidates) {
       if (work) work.segmentTests++;
@@ -134,10 +143,16 @@ export function ringsTouch(p: Ring, q: Ring, work?: RingWork): boolean {
   for (let i = 0; i < p.length; i++) {
     const a = p[i];
     const b = p[(i + 1) % p.length];
-    const hit = index.search(Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1]), (j) => {
-      if (work) work.segmentTests++;
-      return segmentsTouch(a, b, q[j], q[(j + 1) % q.length]);
-    });
+    const hit = index.search(
+      Math.min(a[0], b[0]),
+      Math.min(a[1], b[1]),
+      Math.max(a[0], b[0]),
+      Math.max(a[1], b[1]),
+      (j) => {
+        if (work) work.segmentTests++;
+        return segmentsTouch(a, b, q[j], q[(j + 1) % q.length]);
+      },
+    );
     if (hit.length > 0) return true;
   }
   return false;
@@ -145,7 +160,10 @@ export function ringsTouch(p: Ring, q: Ring, work?: RingWork): boolean {
 
 /** Axis-aligned bounding box of a ring, as [minX, minY, maxX, maxY]. */
 export function ringBox(ring: Ring): [number, number, number, number] {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const [x, y] of ring) {
     if (x < minX) minX = x;
     if (y < minY) minY = y;
@@ -161,7 +179,8 @@ export function ringBox(ring: Ring): [number, number, number, number] {
  */
 export function ringDiameter(ring: Ring, work?: { distanceTests: number }): number {
   const pts = ring.slice().sort((p, q) => p[0] - q[0] || p[1] - q[1]);
-  const cross = (o: [number, number], a: [number, number], b: [number, number]) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const cross = (o: [number, number], a: [number, number], b: [number, number]) =>
+    (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
   const lower: [number, number][] = [];
   for (const p of pts) {
     while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], p) <= 0) lower.pop();
@@ -227,7 +246,7 @@ export function clippedRingArea(ring: Ring, x0: number, y0: number, x1: number, 
       const fp = a * p[0] + b * p[1] + c;
       const fq = a * q[0] + b * q[1] + c;
       if (fp >= 0) next.push(p);
-      if ((fp >= 0) !== (fq >= 0)) {
+      if (fp >= 0 !== fq >= 0) {
         const t = fp / (fp - fq);
         next.push([p[0] + t * (q[0] - p[0]), p[1] + t * (q[1] - p[1])]);
       }

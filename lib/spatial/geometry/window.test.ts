@@ -8,7 +8,14 @@ import type { Ring } from "../types";
 
 // An L-shaped trench: 10 × 4 strip plus a 4 × 6 arm. Area 40 + 24 = 64, perimeter 10+10+6+6+4+4 = 40,
 // both by elementary geometry.
-const ell: Ring = [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]];
+const ell: Ring = [
+  [0, 0],
+  [10, 0],
+  [10, 4],
+  [4, 4],
+  [4, 10],
+  [0, 10],
+];
 
 describe("createWindow", () => {
   it("gives area and perimeter of a rectangle (a·b and 2(a+b))", () => {
@@ -21,7 +28,17 @@ describe("createWindow", () => {
 
   it("subtracts holes from area and adds them to perimeter", () => {
     // 2 × 1 hole inside the strip of the L: area 64 − 2 = 62, perimeter 40 + 6 = 46 (elementary geometry).
-    const w = createWindow({ outer: ell, holes: [[[6, 1], [8, 1], [8, 2], [6, 2]]] });
+    const w = createWindow({
+      outer: ell,
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 2],
+          [6, 2],
+        ],
+      ],
+    });
     expect(w.area).toBeCloseTo(62, 12);
     expect(w.perimeter).toBeCloseTo(46, 12);
     expect(w.edgeCount).toBe(10);
@@ -29,8 +46,19 @@ describe("createWindow", () => {
   });
 
   it("normalises orientation: outer counter-clockwise, holes clockwise, whatever was drawn", () => {
-    const w = createWindow({ outer: ell.slice().reverse(), holes: [[[6, 1], [6, 2], [8, 2], [8, 1]]] });
-    const signed = (r: Ring) => r.reduce((s, a, k) => s + a[0] * r[(k + 1) % r.length][1] - r[(k + 1) % r.length][0] * a[1], 0);
+    const w = createWindow({
+      outer: ell.slice().reverse(),
+      holes: [
+        [
+          [6, 1],
+          [6, 2],
+          [8, 2],
+          [8, 1],
+        ],
+      ],
+    });
+    const signed = (r: Ring) =>
+      r.reduce((s, a, k) => s + a[0] * r[(k + 1) % r.length][1] - r[(k + 1) % r.length][0] * a[1], 0);
     expect(signed(w.outer as Ring)).toBeGreaterThan(0);
     expect(signed(w.holes[0] as Ring)).toBeLessThan(0);
     expect(w.area).toBeCloseTo(62, 12);
@@ -49,7 +77,17 @@ describe("createWindow", () => {
   });
 
   it("tests containment in concave outlines and holes, boundary included", () => {
-    const w = createWindow({ outer: ell, holes: [[[6, 1], [8, 1], [8, 2], [6, 2]]] });
+    const w = createWindow({
+      outer: ell,
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 2],
+          [6, 2],
+        ],
+      ],
+    });
     expect(w.contains(2, 8)).toBe(true);
     expect(w.contains(8, 8)).toBe(false); // the notch of the L
     expect(w.contains(7, 1.5)).toBe(false); // inside the hole
@@ -60,43 +98,169 @@ describe("createWindow", () => {
   });
 
   it("measures distance to the nearest edge of any ring", () => {
-    const w = createWindow({ outer: ell, holes: [[[6, 1], [8, 1], [8, 2], [6, 2]]] });
+    const w = createWindow({
+      outer: ell,
+      holes: [
+        [
+          [6, 1],
+          [8, 1],
+          [8, 2],
+          [6, 2],
+        ],
+      ],
+    });
     expect(w.boundaryDistance(2, 7)).toBeCloseTo(2, 12);
     expect(w.boundaryDistance(7, 3)).toBeCloseTo(1, 12); // to the hole's top edge and the strip's top edge
     expect(w.boundaryDistance(3, 3)).toBeCloseTo(Math.SQRT2, 12); // to the inner corner (4, 4)
   });
 
   it("refuses fewer than 3 distinct vertices", () => {
-    expect(() => createWindow({ outer: [[0, 0], [1, 1], [1, 1], [0, 0]] })).toThrow(/at least 3 distinct/);
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [1, 1],
+          [1, 1],
+          [0, 0],
+        ],
+      }),
+    ).toThrow(/at least 3 distinct/);
   });
 
   it("refuses collinear and non-finite vertices", () => {
-    expect(() => createWindow({ outer: [[0, 0], [1, 1], [2, 2]] })).toThrow(/zero area/);
-    expect(() => createWindow({ outer: [[0, 0], [1, NaN], [2, 0]] })).toThrow(/Vertex 2 of the outer ring/);
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [1, 1],
+          [2, 2],
+        ],
+      }),
+    ).toThrow(/zero area/);
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [1, NaN],
+          [2, 0],
+        ],
+      }),
+    ).toThrow(/Vertex 2 of the outer ring/);
   });
 
   it("refuses a self-crossing outline (bow tie)", () => {
-    expect(() => createWindow({ outer: [[0, 0], [2, 2], [2, 0], [0, 2]] })).toThrow(SpatialInputError);
-    expect(() => createWindow({ outer: [[0, 0], [2, 2], [2, 0], [0, 2]] })).toThrow(/crosses or touches itself/);
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [2, 2],
+          [2, 0],
+          [0, 2],
+        ],
+      }),
+    ).toThrow(SpatialInputError);
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [2, 2],
+          [2, 0],
+          [0, 2],
+        ],
+      }),
+    ).toThrow(/crosses or touches itself/);
   });
 
   it("refuses an outline that touches itself at a vertex", () => {
     // Two squares meeting at (1, 1): the figure-of-eight
-    expect(() => createWindow({ outer: [[0, 0], [1, 0], [1, 1], [2, 1], [2, 2], [1, 2], [1, 1], [0, 1]] })).toThrow(
-      /crosses or touches itself/,
-    );
+    expect(() =>
+      createWindow({
+        outer: [
+          [0, 0],
+          [1, 0],
+          [1, 1],
+          [2, 1],
+          [2, 2],
+          [1, 2],
+          [1, 1],
+          [0, 1],
+        ],
+      }),
+    ).toThrow(/crosses or touches itself/);
   });
 
   it("refuses holes outside, crossing, or touching the outer ring", () => {
-    expect(() => createWindow({ outer: ell, holes: [[[7, 7], [8, 7], [8, 8]]] })).toThrow(/Hole 1 is not strictly inside/);
-    expect(() => createWindow({ outer: ell, holes: [[[9, 1], [11, 1], [11, 2]]] })).toThrow(/Hole 1 is not strictly inside/);
-    expect(() => createWindow({ outer: ell, holes: [[[9, 1], [10, 1], [10, 2]]] })).toThrow(/Hole 1 is not strictly inside/);
+    expect(() =>
+      createWindow({
+        outer: ell,
+        holes: [
+          [
+            [7, 7],
+            [8, 7],
+            [8, 8],
+          ],
+        ],
+      }),
+    ).toThrow(/Hole 1 is not strictly inside/);
+    expect(() =>
+      createWindow({
+        outer: ell,
+        holes: [
+          [
+            [9, 1],
+            [11, 1],
+            [11, 2],
+          ],
+        ],
+      }),
+    ).toThrow(/Hole 1 is not strictly inside/);
+    expect(() =>
+      createWindow({
+        outer: ell,
+        holes: [
+          [
+            [9, 1],
+            [10, 1],
+            [10, 2],
+          ],
+        ],
+      }),
+    ).toThrow(/Hole 1 is not strictly inside/);
   });
 
   it("refuses overlapping or nested holes", () => {
-    const h1: Ring = [[1, 1], [3, 1], [3, 3], [1, 3]];
-    expect(() => createWindow({ outer: ell, holes: [h1, [[2, 2], [3.5, 2], [3.5, 3.5]]] })).toThrow(/Holes 1 and 2/);
-    expect(() => createWindow({ outer: ell, holes: [h1, [[1.5, 1.5], [2, 1.5], [2, 2]]] })).toThrow(/Holes 1 and 2/);
+    const h1: Ring = [
+      [1, 1],
+      [3, 1],
+      [3, 3],
+      [1, 3],
+    ];
+    expect(() =>
+      createWindow({
+        outer: ell,
+        holes: [
+          h1,
+          [
+            [2, 2],
+            [3.5, 2],
+            [3.5, 3.5],
+          ],
+        ],
+      }),
+    ).toThrow(/Holes 1 and 2/);
+    expect(() =>
+      createWindow({
+        outer: ell,
+        holes: [
+          h1,
+          [
+            [1.5, 1.5],
+            [2, 1.5],
+            [2, 2],
+          ],
+        ],
+      }),
+    ).toThrow(/Holes 1 and 2/);
   });
 
   it("agrees with @turf/turf kinks on random quadrilaterals (outside check of the crossing rule)", () => {

@@ -9,7 +9,16 @@
  */
 import { SpatialInputError } from "../errors";
 import { formatLimit, MAX_HOLES, MAX_RING_VERTICES } from "./limits";
-import { cleanRing, firstSelfContact, insideRing, ringBox, ringDiameter, ringLength, ringsTouch, signedArea } from "./ring";
+import {
+  cleanRing,
+  firstSelfContact,
+  insideRing,
+  ringBox,
+  ringDiameter,
+  ringLength,
+  ringsTouch,
+  signedArea,
+} from "./ring";
 import type { BBox, Ring, Window, WindowInput } from "../types";
 
 /** Counts of the exact tests a window's checks made (see ring.ts); for the tests of its cost. */
@@ -17,10 +26,13 @@ export type WindowWork = { segmentTests: number; distanceTests: number };
 
 function assertRingSize(ring: Ring, label: string): void {
   if (!Array.isArray(ring)) return; // cleanRing names the problem
-  const closed = ring.length > 1 && ring[0]?.[0] === ring[ring.length - 1]?.[0] && ring[0]?.[1] === ring[ring.length - 1]?.[1];
+  const closed =
+    ring.length > 1 && ring[0]?.[0] === ring[ring.length - 1]?.[0] && ring[0]?.[1] === ring[ring.length - 1]?.[1];
   const vertices = closed ? ring.length - 1 : ring.length;
   if (vertices > MAX_RING_VERTICES) {
-    throw new SpatialInputError(`The ${label} has ${formatLimit(vertices)} vertices; at most ${formatLimit(MAX_RING_VERTICES)} are allowed. Draw it with fewer.`);
+    throw new SpatialInputError(
+      `The ${label} has ${formatLimit(vertices)} vertices; at most ${formatLimit(MAX_RING_VERTICES)} are allowed. Draw it with fewer.`,
+    );
   }
 }
 
@@ -49,7 +61,9 @@ export function createWindow(input: WindowInput, work?: WindowWork): Window {
   if (!input || typeof input !== "object") throw new SpatialInputError("The trench window is missing.");
   const inputHoles = input.holes ?? [];
   if (inputHoles.length > MAX_HOLES) {
-    throw new SpatialInputError(`The outline has ${formatLimit(inputHoles.length)} holes; at most ${formatLimit(MAX_HOLES)} are allowed.`);
+    throw new SpatialInputError(
+      `The outline has ${formatLimit(inputHoles.length)} holes; at most ${formatLimit(MAX_HOLES)} are allowed.`,
+    );
   }
   assertRingSize(input.outer, "outer ring");
   inputHoles.forEach((h, k) => assertRingSize(h, `hole ${k + 1}`));
@@ -125,7 +139,12 @@ export function createWindow(input: WindowInput, work?: WindowWork): Window {
   };
 
   const contains = (x: number, y: number): boolean => {
-    if (x < bbox.minX - tolerance || x > bbox.maxX + tolerance || y < bbox.minY - tolerance || y > bbox.maxY + tolerance) {
+    if (
+      x < bbox.minX - tolerance ||
+      x > bbox.maxX + tolerance ||
+      y < bbox.minY - tolerance ||
+      y > bbox.maxY + tolerance
+    ) {
       return false;
     }
     // Even–odd crossing count over all rings at once: holes flip the parity back.
@@ -158,5 +177,12 @@ export function createWindow(input: WindowInput, work?: WindowWork): Window {
 
 /** Convenience: an axis-aligned rectangular window [x0, x1] × [y0, y1]. */
 export function rectangleWindow(x0: number, y0: number, x1: number, y1: number): Window {
-  return createWindow({ outer: [[x0, y0], [x1, y0], [x1, y1], [x0, y1]] });
+  return createWindow({
+    outer: [
+      [x0, y0],
+      [x1, y0],
+      [x1, y1],
+      [x0, y1],
+    ],
+  });
 }

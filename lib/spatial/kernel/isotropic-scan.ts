@@ -17,14 +17,40 @@ const BLOCK = 10;
 const PAGE = 65536;
 
 type ScanExport = (
-  n: number, nx: number, ny: number, reach: number, r2: number, m: number, guessStep: number,
-  pSx: number, pSy: number, pCell: number, pBd: number, pTotal: number, pStart: number, pBlocks: number,
-  pR: number, pHist: number, pU: number, pExt: number, weigh: number,
+  n: number,
+  nx: number,
+  ny: number,
+  reach: number,
+  r2: number,
+  m: number,
+  guessStep: number,
+  pSx: number,
+  pSy: number,
+  pCell: number,
+  pBd: number,
+  pTotal: number,
+  pStart: number,
+  pBlocks: number,
+  pR: number,
+  pHist: number,
+  pU: number,
+  pExt: number,
+  weigh: number,
 ) => number;
 type PrepareExport = (
-  n: number, edgeCount: number, rmax: number, tol: number,
-  pSx: number, pSy: number, pEdges: number, pBd: number, pTotal: number, pStart: number, pBlocks: number,
-  blockCap: number, pScratch: number,
+  n: number,
+  edgeCount: number,
+  rmax: number,
+  tol: number,
+  pSx: number,
+  pSy: number,
+  pEdges: number,
+  pBd: number,
+  pTotal: number,
+  pStart: number,
+  pBlocks: number,
+  blockCap: number,
+  pScratch: number,
 ) => number;
 
 let compiled: WebAssembly.Module | null | undefined;
@@ -61,7 +87,13 @@ export interface WasmIsotropicScan {
  * `r` sets r max (pairs within it are enumerated and weighed); `binEdges` (default r) are the thresholds a
  * distance is binned on: d counts at r[k] when d < edges[k] (r-grid.ts createBinning).
  */
-export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: CellGrid, reach: number, binEdges: Float64Array = r): WasmIsotropicScan | null {
+export function createWasmIsotropicScan(
+  window: Window,
+  r: Float64Array,
+  grid: CellGrid,
+  reach: number,
+  binEdges: Float64Array = r,
+): WasmIsotropicScan | null {
   const mod = isotropicScanModule();
   if (!mod) return null;
   const instance = new WebAssembly.Instance(mod, {});
@@ -76,10 +108,28 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
   // Stencil of cells of side s = r max / reach: cells dx, dy apart hold points at least
   // ((dx−1)⁺² + (dy−1)⁺²)^½·s apart, so row dy needs |dx| ≤ ⌊√(reach² − (dy−1)²)⌋ + 1 (≤ keeps pairs at
   // exactly r max).
-  const ext = Int32Array.from({ length: reach + 1 }, (_, dy) => (dy === 0 ? reach : Math.min(reach, Math.floor(Math.sqrt(reach * reach - (dy - 1) * (dy - 1))) + 1)));
-  let capN = 0, capBlocks = 0;
-  let at = { r: 0, hist: 0, ext: 0, edges: 0, scratch: 0, cell: 0, sx: 0, sy: 0, bd: 0, total: 0, u: 0, start: 0, blocks: 0 };
-  let f64 = new Float64Array(0), i32 = new Int32Array(0);
+  const ext = Int32Array.from({ length: reach + 1 }, (_, dy) =>
+    dy === 0 ? reach : Math.min(reach, Math.floor(Math.sqrt(reach * reach - (dy - 1) * (dy - 1))) + 1),
+  );
+  let capN = 0,
+    capBlocks = 0;
+  let at = {
+    r: 0,
+    hist: 0,
+    ext: 0,
+    edges: 0,
+    scratch: 0,
+    cell: 0,
+    sx: 0,
+    sy: 0,
+    bd: 0,
+    total: 0,
+    u: 0,
+    start: 0,
+    blocks: 0,
+  };
+  let f64 = new Float64Array(0),
+    i32 = new Int32Array(0);
 
   /** Lay out every array for up to n points and b blocks (16-byte aligned, for the SIMD loads). */
   const layout = (n: number, b: number): void => {
@@ -92,9 +142,19 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
       return o;
     };
     at = {
-      r: take(8 * m), hist: take(8 * (m + 1)), ext: take(4 * (reach + 1)), edges: take(32 * edgeCount), scratch: take(40 * edgeCount),
-      cell: take(4 * (cells + 1)), sx: take(8 * capN), sy: take(8 * capN), bd: take(8 * capN), total: take(8 * capN), u: take(8 * capN),
-      start: take(4 * (capN + 1)), blocks: take(8 * BLOCK * capBlocks),
+      r: take(8 * m),
+      hist: take(8 * (m + 1)),
+      ext: take(4 * (reach + 1)),
+      edges: take(32 * edgeCount),
+      scratch: take(40 * edgeCount),
+      cell: take(4 * (cells + 1)),
+      sx: take(8 * capN),
+      sy: take(8 * capN),
+      bd: take(8 * capN),
+      total: take(8 * capN),
+      u: take(8 * capN),
+      start: take(4 * (capN + 1)),
+      blocks: take(8 * BLOCK * capBlocks),
     };
     const pages = Math.ceil(off / PAGE) - memory.buffer.byteLength / PAGE;
     if (pages > 0) memory.grow(pages);
@@ -116,7 +176,23 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
     scan(g, n, hist, u) {
       load(g, n);
       if (u) f64.set(u.subarray(0, n), at.u / 8);
-      while (runPrepare(n, edgeCount, rmax, tol, at.sx, at.sy, at.edges, at.bd, at.total, at.start, at.blocks, capBlocks, at.scratch) < 0) {
+      while (
+        runPrepare(
+          n,
+          edgeCount,
+          rmax,
+          tol,
+          at.sx,
+          at.sy,
+          at.edges,
+          at.bd,
+          at.total,
+          at.start,
+          at.blocks,
+          capBlocks,
+          at.scratch,
+        ) < 0
+      ) {
         // more edge slots than ever before: room for every point to have every edge within r max
         layout(capN, n * Math.ceil(edgeCount / 2));
         load(g, n);
@@ -126,27 +202,103 @@ export function createWasmIsotropicScan(window: Window, r: Float64Array, grid: C
       const t0 = at.total / 8;
       for (let i = 0; i < n; i++) if (f64[t0 + i] < 0) f64[t0 + i] = fanAngle(edges, edgeCount, g.sx[i], g.sy[i], tol);
       f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = runScan(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, u ? at.u : 0, at.ext, 1);
+      const pairs = runScan(
+        n,
+        g.nx,
+        g.ny,
+        reach,
+        rmax * rmax,
+        m,
+        (m - 1) / rmax,
+        at.sx,
+        at.sy,
+        at.cell,
+        at.bd,
+        at.total,
+        at.start,
+        at.blocks,
+        at.r,
+        at.hist,
+        u ? at.u : 0,
+        at.ext,
+        1,
+      );
       hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
       return pairs;
     },
     part(g, n, hist, which) {
       load(g, n);
       if (which === "prepare") {
-        while (runPrepare(n, edgeCount, rmax, tol, at.sx, at.sy, at.edges, at.bd, at.total, at.start, at.blocks, capBlocks, at.scratch) < 0) {
+        while (
+          runPrepare(
+            n,
+            edgeCount,
+            rmax,
+            tol,
+            at.sx,
+            at.sy,
+            at.edges,
+            at.bd,
+            at.total,
+            at.start,
+            at.blocks,
+            capBlocks,
+            at.scratch,
+          ) < 0
+        ) {
           layout(capN, n * Math.ceil(edgeCount / 2));
           load(g, n);
         }
         return 0;
       }
       f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = runScan(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, 0, at.ext, 2);
+      const pairs = runScan(
+        n,
+        g.nx,
+        g.ny,
+        reach,
+        rmax * rmax,
+        m,
+        (m - 1) / rmax,
+        at.sx,
+        at.sy,
+        at.cell,
+        at.bd,
+        at.total,
+        at.start,
+        at.blocks,
+        at.r,
+        at.hist,
+        0,
+        at.ext,
+        2,
+      );
       hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
       return pairs;
     },
     countPairs(g, n) {
       load(g, n);
-      return runScan(n, g.nx, g.ny, reach, rmax * rmax, m, (m - 1) / rmax, at.sx, at.sy, at.cell, at.bd, at.total, at.start, at.blocks, at.r, at.hist, 0, at.ext, 0);
+      return runScan(
+        n,
+        g.nx,
+        g.ny,
+        reach,
+        rmax * rmax,
+        m,
+        (m - 1) / rmax,
+        at.sx,
+        at.sy,
+        at.cell,
+        at.bd,
+        at.total,
+        at.start,
+        at.blocks,
+        at.r,
+        at.hist,
+        0,
+        at.ext,
+        0,
+      );
     },
   };
 }

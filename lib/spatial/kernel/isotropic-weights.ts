@@ -27,7 +27,11 @@ export function acosAS(x: number): number {
   return (
     Math.sqrt(1 - x) *
     (1.570796305 +
-      x * (-0.2145988016 + x * (0.0889789874 + x * (-0.0501743046 + x * (0.030891881 + x * (-0.0170881256 + x * (0.0066700901 + x * -0.0012624911)))))))
+      x *
+        (-0.2145988016 +
+          x *
+            (0.0889789874 +
+              x * (-0.0501743046 + x * (0.030891881 + x * (-0.0170881256 + x * (0.0066700901 + x * -0.0012624911)))))))
   );
 }
 
@@ -58,7 +62,14 @@ export function isotropicWeight(t: IsotropicTables, i: number, d: number): numbe
  * The same from the table arrays themselves: the form the hot loop calls, with the arrays held in locals
  * so that V8 inlines it without reloading object fields.
  */
-export function weightFrom(bdist: Float64Array, start: Int32Array, slots: Float64Array, total: Float64Array, i: number, d: number): number {
+export function weightFrom(
+  bdist: Float64Array,
+  start: Int32Array,
+  slots: Float64Array,
+  total: Float64Array,
+  i: number,
+  d: number,
+): number {
   if (d <= bdist[i]) return 1;
   return weightBeyond(start, slots, total, i, d, 1 / d);
 }
@@ -69,19 +80,31 @@ export function weightFrom(bdist: Float64Array, start: Int32Array, slots: Float6
  * polynomial of acosAS is evaluated in Estrin's form here (shorter dependency chain; it differs from
  * Horner's by rounding only).
  */
-export function weightBeyond(start: Int32Array, slots: Float64Array, total: Float64Array, i: number, d: number, inv: number): number {
+export function weightBeyond(
+  start: Int32Array,
+  slots: Float64Array,
+  total: Float64Array,
+  i: number,
+  d: number,
+  inv: number,
+): number {
   let lost = 0;
   for (let k = start[i] * SLOT, k1 = start[i + 1] * SLOT; k < k1; k += SLOT) {
     if (slots[k] >= d) break;
     const x = slots[k + 1] * inv;
-    const x2 = x * x, x4 = x2 * x2;
+    const x2 = x * x,
+      x4 = x2 * x2;
     const beta =
       Math.sqrt(1 - x) *
-      (1.570796305 + x * -0.2145988016 + x2 * (0.0889789874 + x * -0.0501743046) + x4 * (0.030891881 + x * -0.0170881256 + x2 * (0.0066700901 + x * -0.0012624911)));
+      (1.570796305 +
+        x * -0.2145988016 +
+        x2 * (0.0889789874 + x * -0.0501743046) +
+        x4 * (0.030891881 + x * -0.0170881256 + x2 * (0.0066700901 + x * -0.0012624911)));
     // |[t_a, t_b] ∩ [−β, β]| = max(0, min(t_b, β) − max(t_a, −β)) without branches (unpredictable ones
     // cost more than the arithmetic), by min(u, v) = (u + v − |u − v|)/2, max(u, v) = (u + v + |u − v|)/2:
     // z is twice the difference and z + |z| four times the overlap, hence the 1/4 below
-    const ta = slots[k + 2], tb = slots[k + 3];
+    const ta = slots[k + 2],
+      tb = slots[k + 3];
     const z = tb - ta + 2 * beta - Math.abs(tb - beta) - Math.abs(ta + beta);
     lost += slots[k + 4] * (z + Math.abs(z));
   }
@@ -91,7 +114,6 @@ export function weightBeyond(start: Int32Array, slots: Float64Array, total: Floa
   return w > 1 ? w : 1;
 }
 
-
 /** Distance below which a point counts as on an edge's line (relative to the window's extent). */
 export function edgeTolerance(window: Window): number {
   return 1e-12 * Math.max(window.bbox.maxX - window.bbox.minX, window.bbox.maxY - window.bbox.minY);
@@ -100,7 +122,12 @@ export function edgeTolerance(window: Window): number {
 export function createIsotropicWeights(window: Window, rmax: number): IsotropicWeights {
   const { edges, edgeCount } = window;
   const tol = edgeTolerance(window);
-  const tables: IsotropicTables = { bdist: new Float64Array(0), total: new Float64Array(0), start: new Int32Array(1), slots: new Float64Array(64 * SLOT) };
+  const tables: IsotropicTables = {
+    bdist: new Float64Array(0),
+    total: new Float64Array(0),
+    start: new Int32Array(1),
+    slots: new Float64Array(64 * SLOT),
+  };
 
   const prepare = (x: Float64Array, y: Float64Array, n: number): IsotropicTables => {
     if (tables.bdist.length < n) {
@@ -112,15 +139,19 @@ export function createIsotropicWeights(window: Window, rmax: number): IsotropicW
     let s = 0;
     for (let i = 0; i < n; i++) {
       start[i] = s;
-      const cx = x[i], cy = y[i];
+      const cx = x[i],
+        cy = y[i];
       let best = Infinity;
       for (let e = 0; e < edgeCount; e++) {
-        const ax = edges[4 * e] - cx, ay = edges[4 * e + 1] - cy;
-        const ex = edges[4 * e + 2] - cx - ax, ey = edges[4 * e + 3] - cy - ay;
+        const ax = edges[4 * e] - cx,
+          ay = edges[4 * e + 1] - cy;
+        const ex = edges[4 * e + 2] - cx - ax,
+          ey = edges[4 * e + 3] - cy - ay;
         const len2 = ex * ex + ey * ey;
         let t = -(ax * ex + ay * ey) / len2;
         t = t < 0 ? 0 : t > 1 ? 1 : t;
-        const px = ax + t * ex, py = ay + t * ey;
+        const px = ax + t * ex,
+          py = ay + t * ey;
         const seg = Math.sqrt(px * px + py * py);
         if (seg < best) best = seg;
         if (seg >= rmax) continue;

@@ -13,7 +13,8 @@ import { createWindow } from "../geometry/window";
 const win = createWindow(DEMO_TRENCH);
 
 function pattern(n: number, seed: number) {
-  const x = new Float64Array(n), y = new Float64Array(n);
+  const x = new Float64Array(n),
+    y = new Float64Array(n);
   createWindowSampler(win).fill(createRandom(seed), n, x, y);
   return { x, y };
 }
@@ -28,7 +29,12 @@ describe("simulation-loop K (isotropic)", () => {
   test("agrees with the estimator of k-function.ts (Math.acos) to 1e-6 relative, finds on the edge included", () => {
     const p = pattern(300, 4);
     // three finds digitised on the trench edge and one on the baulk
-    const extra = [[6, 0.3 * 6 / 12.1], [0.1, 3.9], [8, 1.5], [5.1, 6]];
+    const extra = [
+      [6, (0.3 * 6) / 12.1],
+      [0.1, 3.9],
+      [8, 1.5],
+      [5.1, 6],
+    ];
     const x = Float64Array.from([...p.x, ...extra.map((e) => e[0])]);
     const y = Float64Array.from([...p.y, ...extra.map((e) => e[1])]);
     const r = defaultRGrid(win, x.length);

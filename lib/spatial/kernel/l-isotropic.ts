@@ -46,7 +46,11 @@ export interface IsotropicLOptions {
   kernel?: "wasm" | "typescript";
 }
 
-export function createIsotropicL(window: Window, r: Float64Array, options: IsotropicLOptions = {}): IsotropicLEstimator {
+export function createIsotropicL(
+  window: Window,
+  r: Float64Array,
+  options: IsotropicLOptions = {},
+): IsotropicLEstimator {
   const binning = createBinning(window, r);
   const bin = binning.bin;
   // thresholds d is compared with (d counts at r[k] when d < edges[k]; r-grid.ts): the WebAssembly scan and
@@ -85,31 +89,41 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
     if (wasm) return wasm.scan(grid, n, hist, u ? su : null);
     // Prepared in sorted order so that the tables are read in memory order inside the loop.
     const tables = weigh && weights ? weights.prepare(sx, sy, n) : null;
-    const bd = tables ? tables.bdist : sx, st = tables ? tables.start : order, sl = tables ? tables.slots : sx, tot = tables ? tables.total : sx;
+    const bd = tables ? tables.bdist : sx,
+      st = tables ? tables.start : order,
+      sl = tables ? tables.slots : sx,
+      tot = tables ? tables.total : sx;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {
       for (let cx = 0; cx < nx; cx++) {
-        const s0 = cellStart[cy * nx + cx], s1 = cellStart[cy * nx + cx + 1];
+        const s0 = cellStart[cy * nx + cx],
+          s1 = cellStart[cy * nx + cx + 1];
         // half stencil: the rest of this cell and the next REACH cells of the row, then the next REACH
         // rows from cx − REACH to cx + REACH (each a contiguous run of sorted positions)
         const rowEnd = cellStart[cy * nx + Math.min(nx - 1, cx + REACH) + 1];
-        const lo = Math.max(0, cx - REACH), hi = Math.min(nx - 1, cx + REACH);
+        const lo = Math.max(0, cx - REACH),
+          hi = Math.min(nx - 1, cx + REACH);
         for (let p = s0; p < s1; p++) {
-          const xa = sx[p], ya = sy[p];
+          const xa = sx[p],
+            ya = sy[p];
           for (let pass = 0; pass <= REACH; pass++) {
             const row = cy + pass;
             if (row >= ny) break;
             const q0 = pass === 0 ? p + 1 : cellStart[row * nx + lo];
             const q1 = pass === 0 ? rowEnd : cellStart[row * nx + hi + 1];
             for (let q = q0; q < q1; q++) {
-              const dx = sx[q] - xa, dy = sy[q] - ya, dd = dx * dx + dy * dy;
+              const dx = sx[q] - xa,
+                dy = sy[q] - ya,
+                dd = dx * dx + dy * dy;
               if (dd > r2) continue;
               pairs++;
               if (tables === null) continue;
               const d = Math.sqrt(dd);
               // most circles of the pair lie wholly inside W (weight 1): test that here, without a call
               const invD = 1 / d;
-              const w = (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) + (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
+              const w =
+                (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) +
+                (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
               let b = guess ? Math.floor(d * inv) + 1 : 0;
               if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
               hist[b] += u ? w * su[p] * su[q] : w;
@@ -149,5 +163,13 @@ export function createIsotropicL(window: Window, r: Float64Array, options: Isotr
     grid.bucket(x, y, n);
     return which === "bucket" || !wasm ? 0 : wasm.part(grid, n, hist, which);
   };
-  return { r, k, l, sums, countPairs: (x, y, n) => scan(x, y, n, false), kernel: wasm ? "wasm" : "typescript", ...(wasm && { part }) };
+  return {
+    r,
+    k,
+    l,
+    sums,
+    countPairs: (x, y, n) => scan(x, y, n, false),
+    kernel: wasm ? "wasm" : "typescript",
+    ...(wasm && { part }),
+  };
 }

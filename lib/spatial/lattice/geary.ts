@@ -55,7 +55,9 @@ export function gearyC(values: ArrayLike<number>, w: LatticeWeights, options: Gl
   const n1 = n - 1;
   const varN = ((2 * S1 + S2) * n1 - 4 * S02) / (2 * (n + 1) * S02);
   const varR =
-    (n1 * S1 * (nn - 3 * n + 3 - K * n1) - 0.25 * n1 * S2 * (nn + 3 * n - 6 - K * (nn - n + 2)) + S02 * (nn - 3 - K * n1 * n1)) /
+    (n1 * S1 * (nn - 3 * n + 3 - K * n1) -
+      0.25 * n1 * S2 * (nn + 3 * n - 6 - K * (nn - n + 2)) +
+      S02 * (nn - 3 - K * n1 * n1)) /
     (n * (n - 2) * (n - 3) * S02);
   const zN = (1 - C) / Math.sqrt(varN);
   const zR = (1 - C) / Math.sqrt(varR);

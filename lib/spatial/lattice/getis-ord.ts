@@ -31,7 +31,11 @@ export interface GetisOrdResult {
   seed: number;
 }
 
-export function getisOrdStar(values: ArrayLike<number>, w: LatticeWeights, options: Omit<LocalTestOptions, "moments"> = {}): GetisOrdResult {
+export function getisOrdStar(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: Omit<LocalTestOptions, "moments"> = {},
+): GetisOrdResult {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;

@@ -10,7 +10,15 @@
  */
 import { SpatialInputError } from "../errors";
 import { distanceBand, gridContiguity, shapeContiguity, toNeighbourList } from "./neighbours";
-import type { Lattice, LatticeInput, LatticeSquare, LatticeVariable, LeftOutSquare, NeighbourList, NeighbourRule } from "./types";
+import type {
+  Lattice,
+  LatticeInput,
+  LatticeSquare,
+  LatticeVariable,
+  LeftOutSquare,
+  NeighbourList,
+  NeighbourRule,
+} from "./types";
 
 export interface LatticeOptions {
   /** The neighbour rule ["queen" from the grid]. */
@@ -39,16 +47,24 @@ function checkSquare(s: LatticeSquare, k: number, seen: Set<string>): void {
   if (seen.has(s.id)) throw new SpatialInputError(`Square ${s.id} appears twice.`);
   seen.add(s.id);
   if (typeof s.area !== "number" || !Number.isFinite(s.area) || s.area < 0) {
-    throw new SpatialInputError(`Square ${s.id}: the excavated area must be a number of m², 0 or more; got ${String(s.area)}.`);
+    throw new SpatialInputError(
+      `Square ${s.id}: the excavated area must be a number of m², 0 or more; got ${String(s.area)}.`,
+    );
   }
-  if (typeof s.value !== "number" || !Number.isFinite(s.value)) throw new SpatialInputError(`Square ${s.id}: the count is not a number (${String(s.value)}).`);
-  if (s.value < 0) throw new SpatialInputError(`Square ${s.id}: the count is negative (${s.value}); counts and weights are 0 or more.`);
-  if (s.area === 0 && s.value > 0) throw new SpatialInputError(`Square ${s.id} has ${s.value} counted but no excavated area.`);
+  if (typeof s.value !== "number" || !Number.isFinite(s.value))
+    throw new SpatialInputError(`Square ${s.id}: the count is not a number (${String(s.value)}).`);
+  if (s.value < 0)
+    throw new SpatialInputError(
+      `Square ${s.id}: the count is negative (${s.value}); counts and weights are 0 or more.`,
+    );
+  if (s.area === 0 && s.value > 0)
+    throw new SpatialInputError(`Square ${s.id} has ${s.value} counted but no excavated area.`);
 }
 
 function neighboursOf(squares: LatticeSquare[], rule: NeighbourRule, tolerance: number): NeighbourList {
   if (rule.type === "distance") return distanceBand(squares, rule.upper, rule.lower ?? 0);
-  if (rule.type !== "rook" && rule.type !== "queen") throw new SpatialInputError(`Unknown neighbour rule "${String((rule as { type: unknown }).type)}".`);
+  if (rule.type !== "rook" && rule.type !== "queen")
+    throw new SpatialInputError(`Unknown neighbour rule "${String((rule as { type: unknown }).type)}".`);
   return rule.from === "shapes" ? shapeContiguity(squares, rule.type, tolerance) : gridContiguity(squares, rule.type);
 }
 
@@ -70,11 +86,15 @@ export function buildLattice(input: LatticeInput, options: LatticeOptions = {}):
   const variable = options.variable ?? "density";
   const minArea = options.minArea ?? 0;
   const tolerance = options.tolerance ?? 1e-6;
-  if (variable !== "density" && variable !== "count") throw new SpatialInputError(`The variable must be "density" or "count"; got ${String(variable)}.`);
-  if (!(Number.isFinite(minArea) && minArea >= 0)) throw new SpatialInputError(`The minimum area must be 0 m² or more; got ${minArea}.`);
-  if (!(Number.isFinite(tolerance) && tolerance >= 0)) throw new SpatialInputError(`The tolerance must be 0 m or more; got ${tolerance}.`);
+  if (variable !== "density" && variable !== "count")
+    throw new SpatialInputError(`The variable must be "density" or "count"; got ${String(variable)}.`);
+  if (!(Number.isFinite(minArea) && minArea >= 0))
+    throw new SpatialInputError(`The minimum area must be 0 m² or more; got ${minArea}.`);
+  if (!(Number.isFinite(tolerance) && tolerance >= 0))
+    throw new SpatialInputError(`The tolerance must be 0 m or more; got ${tolerance}.`);
   const squares = input?.squares;
-  if (!Array.isArray(squares) || squares.length === 0) throw new SpatialInputError("The grid has no squares with counts: there is nothing to test.");
+  if (!Array.isArray(squares) || squares.length === 0)
+    throw new SpatialInputError("The grid has no squares with counts: there is nothing to test.");
   const seen = new Set<string>();
   squares.forEach((s, k) => checkSquare(s, k, seen));
   const leftOut: LeftOutSquare[] = [];
@@ -85,22 +105,33 @@ export function buildLattice(input: LatticeInput, options: LatticeOptions = {}):
     return false;
   });
   if (units.length === 0) {
-    throw new SpatialInputError(minArea > 0 ? `No square has at least ${minArea} m² excavated: the grid leaves no square to test.` : "No square has excavated area: the grid leaves no square to test.");
+    throw new SpatialInputError(
+      minArea > 0
+        ? `No square has at least ${minArea} m² excavated: the grid leaves no square to test.`
+        : "No square has excavated area: the grid leaves no square to test.",
+    );
   }
   let nb = neighboursOf(units, rule, tolerance);
   let kept = units;
   const lonely = units.filter((_, i) => nb.start[i + 1] === nb.start[i]);
   if (lonely.length > 0) {
     if ((options.isolated ?? "refuse") === "refuse") {
-      const names = lonely.slice(0, 5).map((s) => s.id).join(", ") + (lonely.length > 5 ? ` and ${lonely.length - 5} more` : "");
-      throw new SpatialInputError(`${lonely.length === 1 ? "Square" : "Squares"} ${names} ${lonely.length === 1 ? "has" : "have"} no neighbours under ${describeRule(rule)}: widen the neighbour rule, or leave such squares out.`);
+      const names =
+        lonely
+          .slice(0, 5)
+          .map((s) => s.id)
+          .join(", ") + (lonely.length > 5 ? ` and ${lonely.length - 5} more` : "");
+      throw new SpatialInputError(
+        `${lonely.length === 1 ? "Square" : "Squares"} ${names} ${lonely.length === 1 ? "has" : "have"} no neighbours under ${describeRule(rule)}: widen the neighbour rule, or leave such squares out.`,
+      );
     }
     const keep = units.map((_, i) => i).filter((i) => nb.start[i + 1] > nb.start[i]);
     lonely.forEach((s) => leftOut.push({ id: s.id, reason: "no neighbours" }));
     nb = subsetNeighbours(nb, keep);
     kept = keep.map((i) => units[i]);
   }
-  if (kept.length === 0) throw new SpatialInputError(`No square has a neighbour under ${describeRule(rule)}: widen the neighbour rule.`);
+  if (kept.length === 0)
+    throw new SpatialInputError(`No square has a neighbour under ${describeRule(rule)}: widen the neighbour rule.`);
   return {
     ids: kept.map((s) => s.id),
     values: Float64Array.from(kept, (s) => (variable === "density" ? s.value / s.area : s.value)),

@@ -52,12 +52,21 @@ export interface LocalMoranResult {
 export function checkLocal(values: ArrayLike<number>, w: LatticeWeights, test: string, wantSelf: boolean): void {
   if (values.length !== w.n) throw new SpatialInputError(`${values.length} values for ${w.n} squares.`);
   if (w.self !== wantSelf) {
-    throw new SpatialInputError(wantSelf ? `${test} takes weights with each square among its own neighbours (latticeWeights(…, true)).` : `${test} takes weights without the square itself among its neighbours.`);
+    throw new SpatialInputError(
+      wantSelf
+        ? `${test} takes weights with each square among its own neighbours (latticeWeights(…, true)).`
+        : `${test} takes weights without the square itself among its neighbours.`,
+    );
   }
-  if (w.n < 3) throw new SpatialInputError(`${test} needs at least 3 squares; there ${w.n === 1 ? "is" : "are"} ${w.n}.`);
+  if (w.n < 3)
+    throw new SpatialInputError(`${test} needs at least 3 squares; there ${w.n === 1 ? "is" : "are"} ${w.n}.`);
 }
 
-export function localMoran(values: ArrayLike<number>, w: LatticeWeights, options: LocalTestOptions = {}): LocalMoranResult {
+export function localMoran(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: LocalTestOptions = {},
+): LocalMoranResult {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;

@@ -12,7 +12,15 @@
 import { createUint32Stream } from "../random/random";
 import { uniformIndex } from "./conditional";
 import { SpatialInputError } from "../errors";
-import { centred, checkAlternative, checkPermutations, normalP, rankP, tieTolerance, type LatticeAlternative } from "./p-values";
+import {
+  centred,
+  checkAlternative,
+  checkPermutations,
+  normalP,
+  rankP,
+  tieTolerance,
+  type LatticeAlternative,
+} from "./p-values";
 import type { LatticeWeights } from "./types";
 
 export interface GlobalTestOptions {
@@ -43,7 +51,10 @@ export interface MoranResult extends GlobalMoments {
 export function checkGlobal(values: ArrayLike<number>, w: LatticeWeights, test: string): void {
   if (values.length !== w.n) throw new SpatialInputError(`${values.length} values for ${w.n} squares.`);
   if (w.self) throw new SpatialInputError(`${test} takes weights without the square itself among its neighbours.`);
-  if (w.n < 4) throw new SpatialInputError(`${test} needs at least 4 squares with neighbours; there ${w.n === 1 ? "is" : "are"} ${w.n}.`);
+  if (w.n < 4)
+    throw new SpatialInputError(
+      `${test} needs at least 4 squares with neighbours; there ${w.n === 1 ? "is" : "are"} ${w.n}.`,
+    );
 }
 
 /**

@@ -26,7 +26,13 @@ export function normalP(z: number, alternative: LatticeAlternative): number {
  * Cliff & Ord 1981), the two-sided one twice the smaller tail, capped at 1. `positiveIsLarge` says whether a
  * large statistic means positive autocorrelation (Moran's I, Gi*) or not (Geary's C).
  */
-export function rankP(above: number, below: number, s: number, alternative: LatticeAlternative, positiveIsLarge = true): number {
+export function rankP(
+  above: number,
+  below: number,
+  s: number,
+  alternative: LatticeAlternative,
+  positiveIsLarge = true,
+): number {
   const pHigh = (1 + above) / (s + 1);
   const pLow = (1 + below) / (s + 1);
   if (alternative === "two-sided") return Math.min(1, 2 * Math.min(pHigh, pLow));
@@ -43,7 +49,9 @@ export function tieTolerance(scale: number): number {
 
 export function checkPermutations(permutations: number): void {
   if (!Number.isInteger(permutations) || permutations < 0 || permutations > 1_000_000) {
-    throw new SpatialInputError(`The number of permutations must be a whole number from 0 to 1,000,000; got ${permutations}.`);
+    throw new SpatialInputError(
+      `The number of permutations must be a whole number from 0 to 1,000,000; got ${permutations}.`,
+    );
   }
 }
 
@@ -66,7 +74,9 @@ export function centred(values: ArrayLike<number>): { z: Float64Array; m2sum: nu
     m2sum += z[i] * z[i];
   }
   if (!(m2sum > 1e-24 * Math.max(1, mean * mean) * n)) {
-    throw new SpatialInputError("Every square has the same value: with no variation between squares there is nothing to test.");
+    throw new SpatialInputError(
+      "Every square has the same value: with no variation between squares there is nothing to test.",
+    );
   }
   return { z, m2sum, mean };
 }

@@ -9,7 +9,14 @@ function hotCorner(): LatticeSquare[] {
   for (let r = 0; r < 10; r++) {
     for (let c = 0; c < 12; c++) {
       const hot = c >= 8 && c <= 10 && r >= 6 && r <= 8;
-      out.push({ id: `E${c} N${r}`, col: c, row: r, centre: [c + 0.5, r + 0.5], area: 1, value: hot ? 40 : 1 + ((c * 7 + r * 3) % 3) });
+      out.push({
+        id: `E${c} N${r}`,
+        col: c,
+        row: r,
+        centre: [c + 0.5, r + 0.5],
+        area: 1,
+        value: hot ? 40 : 1 + ((c * 7 + r * 3) % 3),
+      });
     }
   }
   return out;
@@ -32,7 +39,12 @@ describe("runSquareTest", () => {
     expect(res.verdict).toBe("hot or cold spots");
     const hot = res.squares!.filter((s) => s.class === "hot spot").map((s) => s.id);
     expect(hot).toContain("E9 N7"); // the centre of the block: Gi* sums nine 40s
-    expect(hot.every((id) => { const [c, r] = id.slice(1).split(" N").map(Number); return c >= 7 && r >= 5; })).toBe(true);
+    expect(
+      hot.every((id) => {
+        const [c, r] = id.slice(1).split(" N").map(Number);
+        return c >= 7 && r >= 5;
+      }),
+    ).toBe(true);
     expect(res.squares!.every((s) => s.pAdjusted >= s.p)).toBe(true);
     expect(res.summary).toMatch(/after the false-discovery-rate adjustment at the 5 % level \(\d+ before it\)/);
     expect(res.cautions.join(" ")).toMatch(/Benjamini–Hochberg/);
@@ -54,7 +66,9 @@ describe("runSquareTest", () => {
   it("warns when the permutations are too few for the adjustment to find anything", () => {
     const few = runSquareTest({ squares: hotCorner() }, { type: "getis-ord", permutations: 199 });
     // 120 squares, two-sided: the smallest p is 2/200 = 0.01, and a lone spot needs p ≤ 0.05/120.
-    expect(few.cautions.join(" ")).toContain("With 199 permutations the smallest p-value a square can reach is 0.010, too coarse for the adjustment across 120 squares to leave a lone hot or cold spot (it needs p ≤ 0.00042): use at least 4799 permutations.");
+    expect(few.cautions.join(" ")).toContain(
+      "With 199 permutations the smallest p-value a square can reach is 0.010, too coarse for the adjustment across 120 squares to leave a lone hot or cold spot (it needs p ≤ 0.00042): use at least 4799 permutations.",
+    );
     const enough = runSquareTest({ squares: hotCorner() }, { type: "getis-ord", permutations: 4799 });
     expect(enough.cautions.join(" ")).not.toMatch(/too coarse/);
   });
@@ -64,16 +78,23 @@ describe("runSquareTest", () => {
     squares[0] = { ...squares[0], area: 0, value: 0 };
     squares[1] = { ...squares[1], area: 0.02 };
     const res = runSquareTest({ squares }, { type: "moran", minArea: 0.05, permutations: 0 });
-    expect(res.leftOut).toEqual([{ id: "E0 N0", reason: "not excavated" }, { id: "E1 N0", reason: "below the minimum area" }]);
+    expect(res.leftOut).toEqual([
+      { id: "E0 N0", reason: "not excavated" },
+      { id: "E1 N0", reason: "below the minimum area" },
+    ]);
     expect(res.cautions).toContain("2 squares were left out (not excavated, below the minimum area).");
     expect(res.pFrom).toBe("randomisation");
   });
 
   it("refuses a bad description or bad counts with a message naming the field", () => {
-    expect(() => runSquareTest({ squares: hotCorner() }, { type: "moran", permutatons: 99 })).toThrow(/Unrecognized key.*permutatons/);
+    expect(() => runSquareTest({ squares: hotCorner() }, { type: "moran", permutatons: 99 })).toThrow(
+      /Unrecognized key.*permutatons/,
+    );
     expect(() => runSquareTest({ squares: hotCorner() }, { type: "moran", permutations: -1 })).toThrow(/permutations/);
     expect(() => runSquareTest({ squares: hotCorner() }, { type: "kriging" })).toThrow(/type/);
-    expect(() => runSquareTest({ squares: hotCorner() }, { type: "moran", neighbours: { type: "distance", upper: 1, lower: 2 } })).toThrow(/lower limit/);
+    expect(() =>
+      runSquareTest({ squares: hotCorner() }, { type: "moran", neighbours: { type: "distance", upper: 1, lower: 2 } }),
+    ).toThrow(/lower limit/);
     const flat = hotCorner().map((s) => ({ ...s, value: 5 }));
     expect(() => runSquareTest({ squares: flat }, { type: "moran" })).toThrow(/Every square has the same value/);
   });

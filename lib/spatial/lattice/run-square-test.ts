@@ -9,7 +9,14 @@ import { getisOrdStar } from "./getis-ord";
 import { localMoran } from "./local-moran";
 import { moranI } from "./moran";
 import { parseSquareTestSpec, type SquareTestSpec } from "./square-test-spec";
-import { globalVerdict, localSummary, squareCautions, SQUARE_NULL, type SquareClass, type SquareVerdict } from "./square-verdict";
+import {
+  globalVerdict,
+  localSummary,
+  squareCautions,
+  SQUARE_NULL,
+  type SquareClass,
+  type SquareVerdict,
+} from "./square-verdict";
 import { latticeWeights } from "./weights";
 import type { LatticeInput, LeftOutSquare } from "./types";
 
@@ -51,14 +58,31 @@ export interface SquareTestResult {
   squares?: SquareResult[];
 }
 
-const NAMES = { moran: "Moran's I", geary: "Geary's C", "local-moran": "local Moran's I", "getis-ord": "Getis–Ord Gi*" } as const;
+const NAMES = {
+  moran: "Moran's I",
+  geary: "Geary's C",
+  "local-moran": "local Moran's I",
+  "getis-ord": "Getis–Ord Gi*",
+} as const;
 
 export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTestResult {
   const spec = parseSquareTestSpec(specInput);
-  const lattice = buildLattice(input, { neighbours: spec.neighbours, variable: spec.variable, minArea: spec.minArea, isolated: spec.isolated });
+  const lattice = buildLattice(input, {
+    neighbours: spec.neighbours,
+    variable: spec.variable,
+    minArea: spec.minArea,
+    isolated: spec.isolated,
+  });
   const test = NAMES[spec.type];
   const opts = { alternative: spec.alternative, permutations: spec.permutations, seed: spec.seed };
-  const common = { spec, test, nullName: SQUARE_NULL, n: lattice.ids.length, leftOut: lattice.leftOut, neighbours: lattice.describe };
+  const common = {
+    spec,
+    test,
+    nullName: SQUARE_NULL,
+    n: lattice.ids.length,
+    leftOut: lattice.leftOut,
+    neighbours: lattice.describe,
+  };
   const weightWords = spec.style === "row" ? "row-standardised weights" : "binary weights";
 
   if (spec.type === "moran" || spec.type === "geary") {
@@ -90,7 +114,14 @@ export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTe
     if (r.pAdjusted[i] <= spec.level) {
       if ("quadrant" in r) {
         const q = r.quadrant[i];
-        cls = q === "high-high" ? "hot spot" : q === "low-low" ? "cold spot" : q === "high-low" ? "high among low" : "low among high";
+        cls =
+          q === "high-high"
+            ? "hot spot"
+            : q === "low-low"
+              ? "cold spot"
+              : q === "high-low"
+                ? "high among low"
+                : "low among high";
       } else cls = r.z[i] > 0 ? "hot spot" : "cold spot";
     }
     return {
@@ -111,7 +142,9 @@ export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTe
   return {
     ...common,
     verdict: found > 0 ? "hot or cold spots" : "no evidence against the null",
-    summary: localSummary(test, classes, raw, spec.level) + ` ${lattice.describe}, ${weightWords}, ${r.pPermutation ? `${spec.permutations} conditional permutations per square, seed ${spec.seed}` : "normal approximation"}.`,
+    summary:
+      localSummary(test, classes, raw, spec.level) +
+      ` ${lattice.describe}, ${weightWords}, ${r.pPermutation ? `${spec.permutations} conditional permutations per square, seed ${spec.seed}` : "normal approximation"}.`,
     cautions: squareCautions(spec, lattice, true),
     p: minAdjusted,
     pFrom: r.pPermutation ? "permutation" : "normal",

@@ -15,15 +15,42 @@ import { localMoran } from "./local-moran";
 import { getisOrdStar } from "./getis-ord";
 import type { LatticeSquare, NeighbourList, NeighbourRule, WeightStyle } from "./types";
 
-interface HTest { statistic: number; p: number; estimate: number[]; call: string }
-interface Mc { nsim: number; statistic: number; p: number; call: string }
+interface HTest {
+  statistic: number;
+  p: number;
+  estimate: number[];
+  call: string;
+}
+interface Mc {
+  nsim: number;
+  statistic: number;
+  p: number;
+  call: string;
+}
 interface Block {
   weights: string;
-  S0: number; S1: number; S2: number;
+  S0: number;
+  S1: number;
+  S2: number;
   weightRows: number[][];
-  moranRandomisation: HTest; moranNormality: HTest; moranRandomisationGreater: HTest;
-  moranMc: Mc; moranMcLess: Mc; gearyRandomisation: HTest; gearyNormality: HTest; gearyMc: Mc;
-  localMoran: { Ii: number[]; E: number[]; Var: number[]; Z: number[]; p: number[]; pGreater: number[]; pBH: number[]; quadrant: string[] };
+  moranRandomisation: HTest;
+  moranNormality: HTest;
+  moranRandomisationGreater: HTest;
+  moranMc: Mc;
+  moranMcLess: Mc;
+  gearyRandomisation: HTest;
+  gearyNormality: HTest;
+  gearyMc: Mc;
+  localMoran: {
+    Ii: number[];
+    E: number[];
+    Var: number[];
+    Z: number[];
+    p: number[];
+    pGreater: number[];
+    pBH: number[];
+    quadrant: string[];
+  };
   localMoranTotal: { E: number[]; Var: number[]; Z: number[]; p: number[] };
   localGStar: { z: number[]; p: number[] };
   localGStarPermutationMoments: { mean: number[]; variance: number[] };
@@ -35,8 +62,10 @@ interface Fixture {
   tests: Record<string, Block>;
 }
 
-const load = (name: string): Fixture => JSON.parse(readFileSync(path.join(import.meta.dirname, "fixtures", `${name}.json`), "utf8"));
-const source = (f: Fixture, call: string) => `spdep ${f.meta.packages.spdep} (${f.meta.R.split(" (")[0]}), ${f.meta.fixture}.json: ${call}`;
+const load = (name: string): Fixture =>
+  JSON.parse(readFileSync(path.join(import.meta.dirname, "fixtures", `${name}.json`), "utf8"));
+const source = (f: Fixture, call: string) =>
+  `spdep ${f.meta.packages.spdep} (${f.meta.R.split(" (")[0]}), ${f.meta.fixture}.json: ${call}`;
 
 function closeRel(actual: number, expected: number, rel: number, label: string): void {
   const tol = rel * Math.max(Math.abs(expected), 1e-300);
@@ -76,7 +105,9 @@ function checkBlock(f: Fixture, b: Block, values: Float64Array, nb: NeighbourLis
   const wStar = latticeWeights(nb, style, true);
   const tag = `${f.meta.fixture} / ${b.weights}`;
   // weights and constants: spdep's nb2listw and spweights.constants
-  b.weightRows.forEach((row, i) => arrayRel(w.weight.subarray(w.start[i], w.start[i + 1]), row, 1e-12, `${tag} weights row ${i}`));
+  b.weightRows.forEach((row, i) =>
+    arrayRel(w.weight.subarray(w.start[i], w.start[i + 1]), row, 1e-12, `${tag} weights row ${i}`),
+  );
   closeRel(w.S0, b.S0, 1e-12, `${tag} S0`);
   closeRel(w.S1, b.S1, 1e-12, `${tag} S1`);
   closeRel(w.S2, b.S2, 1e-12, `${tag} S2`);
@@ -85,19 +116,38 @@ function checkBlock(f: Fixture, b: Block, values: Float64Array, nb: NeighbourLis
   const m = moranI(values, w, { permutations: 0 });
   closeRel(m.I, b.moranRandomisation.estimate[0], 1e-9, `${tag} I (${source(f, b.moranRandomisation.call)})`);
   closeRel(m.expected, b.moranRandomisation.estimate[1], 1e-12, `${tag} E[I]`);
-  closeRel(m.variance.randomisation, b.moranRandomisation.estimate[2], 1e-9, `${tag} Var_R[I] (${source(f, b.moranRandomisation.call)})`);
-  closeRel(m.variance.normality, b.moranNormality.estimate[2], 1e-9, `${tag} Var_N[I] (${source(f, b.moranNormality.call)})`);
+  closeRel(
+    m.variance.randomisation,
+    b.moranRandomisation.estimate[2],
+    1e-9,
+    `${tag} Var_R[I] (${source(f, b.moranRandomisation.call)})`,
+  );
+  closeRel(
+    m.variance.normality,
+    b.moranNormality.estimate[2],
+    1e-9,
+    `${tag} Var_N[I] (${source(f, b.moranNormality.call)})`,
+  );
   closeRel(m.z.randomisation, b.moranRandomisation.statistic, 1e-9, `${tag} z_R`);
   closeRel(m.z.normality, b.moranNormality.statistic, 1e-9, `${tag} z_N`);
   pClose(m.p.randomisation, b.moranRandomisation.p, `${tag} p_R two-sided`);
   pClose(m.p.normality, b.moranNormality.p, `${tag} p_N two-sided`);
-  pClose(moranI(values, w, { permutations: 0, alternative: "positive" }).p.randomisation, b.moranRandomisationGreater.p, `${tag} p_R greater`);
+  pClose(
+    moranI(values, w, { permutations: 0, alternative: "positive" }).p.randomisation,
+    b.moranRandomisationGreater.p,
+    `${tag} p_R greater`,
+  );
 
   // Geary's C: spdep geary.test (its deviate is (1 − C)/sd)
   const g = gearyC(values, w, { permutations: 0 });
   closeRel(g.C, b.gearyRandomisation.estimate[0], 1e-9, `${tag} C (${source(f, b.gearyRandomisation.call)})`);
   closeRel(g.variance.randomisation, b.gearyRandomisation.estimate[2], 1e-9, `${tag} Var_R[C]`);
-  closeRel(g.variance.normality, b.gearyNormality.estimate[2], 1e-9, `${tag} Var_N[C] (${source(f, b.gearyNormality.call)})`);
+  closeRel(
+    g.variance.normality,
+    b.gearyNormality.estimate[2],
+    1e-9,
+    `${tag} Var_N[C] (${source(f, b.gearyNormality.call)})`,
+  );
   closeRel(g.z.randomisation, b.gearyRandomisation.statistic, 1e-9, `${tag} Geary z_R`);
   pClose(g.p.randomisation, b.gearyRandomisation.p, `${tag} Geary p_R`);
   pClose(g.p.normality, b.gearyNormality.p, `${tag} Geary p_N`);
@@ -105,11 +155,18 @@ function checkBlock(f: Fixture, b: Block, values: Float64Array, nb: NeighbourLis
   // Permutation tests, 999 permutations each: spdep moran.mc and geary.mc within the binomial tolerance
   const s = b.moranMc.nsim;
   const mp = moranI(values, w, { permutations: s, alternative: "positive", seed: 7 }).p.permutation!;
-  expect(Math.abs(mp - b.moranMc.p), `${tag} Moran permutation p (${source(f, b.moranMc.call)})`).toBeLessThanOrEqual(mcTolerance(b.moranMc.p, s));
+  expect(Math.abs(mp - b.moranMc.p), `${tag} Moran permutation p (${source(f, b.moranMc.call)})`).toBeLessThanOrEqual(
+    mcTolerance(b.moranMc.p, s),
+  );
   const ml = moranI(values, w, { permutations: s, alternative: "negative", seed: 8 }).p.permutation!;
-  expect(Math.abs(ml - b.moranMcLess.p), `${tag} Moran permutation p, less (${source(f, b.moranMcLess.call)})`).toBeLessThanOrEqual(mcTolerance(b.moranMcLess.p, s));
+  expect(
+    Math.abs(ml - b.moranMcLess.p),
+    `${tag} Moran permutation p, less (${source(f, b.moranMcLess.call)})`,
+  ).toBeLessThanOrEqual(mcTolerance(b.moranMcLess.p, s));
   const gp = gearyC(values, w, { permutations: s, alternative: "positive", seed: 9 }).p.permutation!;
-  expect(Math.abs(gp - b.gearyMc.p), `${tag} Geary permutation p (${source(f, b.gearyMc.call)})`).toBeLessThanOrEqual(mcTolerance(b.gearyMc.p, s));
+  expect(Math.abs(gp - b.gearyMc.p), `${tag} Geary permutation p (${source(f, b.gearyMc.call)})`).toBeLessThanOrEqual(
+    mcTolerance(b.gearyMc.p, s),
+  );
 
   // Local Moran: spdep localmoran, conditional moments (its default) and total ones
   const lm = localMoran(values, w, { permutations: 0 });
@@ -120,7 +177,9 @@ function checkBlock(f: Fixture, b: Block, values: Float64Array, nb: NeighbourLis
   b.localMoran.p.forEach((p, k) => pClose(lm.pNormal[k], p, `${tag} local p [${k}]`));
   // Benjamini–Hochberg on spdep's normal p: R's p.adjust(p, "BH")
   arrayRel(lm.pAdjusted, b.localMoran.pBH, 1e-9, `${tag} BH-adjusted local p (R p.adjust)`, 1e-15);
-  expect(lm.quadrant, `${tag} quadrants (localmoran attr quadr$pysal)`).toEqual(b.localMoran.quadrant.map((q) => q.toLowerCase()));
+  expect(lm.quadrant, `${tag} quadrants (localmoran attr quadr$pysal)`).toEqual(
+    b.localMoran.quadrant.map((q) => q.toLowerCase()),
+  );
   const lmg = localMoran(values, w, { permutations: 0, alternative: "positive" });
   b.localMoran.pGreater.forEach((p, k) => pClose(lmg.pNormal[k], p, `${tag} local p greater [${k}]`));
   const lmt = localMoran(values, w, { permutations: 0, moments: "total" });
@@ -134,13 +193,49 @@ function checkBlock(f: Fixture, b: Block, values: Float64Array, nb: NeighbourLis
   b.localGStar.p.forEach((p, k) => pClose(gs.pNormal[k], p, `${tag} Gi* p [${k}]`));
 }
 
-const cases: { fixture: string; block: string; neighbours: NeighbourRule | "published"; style: WeightStyle; compareWith: string[] }[] = [
-  { fixture: "regular-grid", block: "rookBinary", neighbours: { type: "rook" }, style: "binary", compareWith: ["rook"] },
+const cases: {
+  fixture: string;
+  block: string;
+  neighbours: NeighbourRule | "published";
+  style: WeightStyle;
+  compareWith: string[];
+}[] = [
+  {
+    fixture: "regular-grid",
+    block: "rookBinary",
+    neighbours: { type: "rook" },
+    style: "binary",
+    compareWith: ["rook"],
+  },
   { fixture: "regular-grid", block: "queenRow", neighbours: { type: "queen" }, style: "row", compareWith: ["queen"] },
-  { fixture: "regular-grid", block: "band2Binary", neighbours: { type: "distance", upper: 2 }, style: "binary", compareWith: ["band2"] },
-  { fixture: "clipped-grid", block: "queenRow", neighbours: { type: "queen", from: "shapes" }, style: "row", compareWith: ["queenPoly2nb", "queenRelate"] },
-  { fixture: "clipped-grid", block: "rookBinary", neighbours: { type: "rook", from: "shapes" }, style: "binary", compareWith: ["rookRelate"] },
-  { fixture: "clipped-grid", block: "band15Binary", neighbours: { type: "distance", upper: 1.5 }, style: "binary", compareWith: ["band15"] },
+  {
+    fixture: "regular-grid",
+    block: "band2Binary",
+    neighbours: { type: "distance", upper: 2 },
+    style: "binary",
+    compareWith: ["band2"],
+  },
+  {
+    fixture: "clipped-grid",
+    block: "queenRow",
+    neighbours: { type: "queen", from: "shapes" },
+    style: "row",
+    compareWith: ["queenPoly2nb", "queenRelate"],
+  },
+  {
+    fixture: "clipped-grid",
+    block: "rookBinary",
+    neighbours: { type: "rook", from: "shapes" },
+    style: "binary",
+    compareWith: ["rookRelate"],
+  },
+  {
+    fixture: "clipped-grid",
+    block: "band15Binary",
+    neighbours: { type: "distance", upper: 1.5 },
+    style: "binary",
+    compareWith: ["band15"],
+  },
   { fixture: "columbus", block: "published", neighbours: "published", style: "row", compareWith: [] },
   { fixture: "columbus", block: "publishedBinary", neighbours: "published", style: "binary", compareWith: [] },
 ];
@@ -161,7 +256,8 @@ describe("square-count tests against spdep", () => {
         values = lat.values;
         nb = lat.neighbours;
         // neighbour lists: spdep dnearneigh on the centres, poly2nb and sf::st_relate on the clipped squares
-        for (const name of c.compareWith) expect(nbArrays(nb), `${c.fixture} neighbours vs ${name}`).toEqual(f.neighbours[name]);
+        for (const name of c.compareWith)
+          expect(nbArrays(nb), `${c.fixture} neighbours vs ${name}`).toEqual(f.neighbours[name]);
       }
       checkBlock(f, b, values, nb, c.style);
     });
@@ -201,7 +297,9 @@ describe("conditional permutation against spdep's analytical conditional moments
       b.localMoran.E.forEach((e, i) => {
         const v = b.localMoran.Var[i];
         if (!(v > 0)) return;
-        expect(Math.abs(lm.permutationMean[i] - e), `${fixture} square ${i} mean of permuted I_i`).toBeLessThanOrEqual(4.5 * Math.sqrt(v / S));
+        expect(Math.abs(lm.permutationMean[i] - e), `${fixture} square ${i} mean of permuted I_i`).toBeLessThanOrEqual(
+          4.5 * Math.sqrt(v / S),
+        );
         const r = lm.permutationVariance[i] / v;
         expect(Math.abs(r - 1), `${fixture} square ${i} variance ratio ${r}`).toBeLessThanOrEqual(0.12);
         ratios.push(r);
@@ -214,8 +312,12 @@ describe("conditional permutation against spdep's analytical conditional moments
       b.localGStarPermutationMoments.mean.forEach((m, i) => {
         const v = b.localGStarPermutationMoments.variance[i];
         let own = 0;
-        for (let p = wStar.start[i]; p < wStar.start[i + 1]; p++) if (wStar.index[p] === i) own = wStar.weight[p] * lat.values[i];
-        expect(Math.abs(gs.permutationMean[i] - own - m), `${fixture} square ${i} mean of permuted Gi* sum`).toBeLessThanOrEqual(4.5 * Math.sqrt(v / S));
+        for (let p = wStar.start[i]; p < wStar.start[i + 1]; p++)
+          if (wStar.index[p] === i) own = wStar.weight[p] * lat.values[i];
+        expect(
+          Math.abs(gs.permutationMean[i] - own - m),
+          `${fixture} square ${i} mean of permuted Gi* sum`,
+        ).toBeLessThanOrEqual(4.5 * Math.sqrt(v / S));
         const r = gs.permutationVariance[i] / v;
         expect(Math.abs(r - 1), `${fixture} square ${i} Gi* variance ratio ${r}`).toBeLessThanOrEqual(0.12);
         gRatios.push(r);

@@ -8,7 +8,11 @@ import { SpatialInputError } from "../errors";
 
 const neighbours = z.discriminatedUnion("type", [
   z.strictObject({ type: z.enum(["rook", "queen"]), from: z.enum(["grid", "shapes"]).default("grid") }),
-  z.strictObject({ type: z.literal("distance"), upper: z.number().positive().max(1000), lower: z.number().min(0).default(0) }),
+  z.strictObject({
+    type: z.literal("distance"),
+    upper: z.number().positive().max(1000),
+    lower: z.number().min(0).default(0),
+  }),
 ]);
 
 export const squareTestSpecSchema = z.strictObject({

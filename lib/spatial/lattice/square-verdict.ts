@@ -19,12 +19,28 @@ export const LATTICE_CAUTIONS = [
 
 const pct = (level: number) => `${Math.round(level * 1000) / 10} %`;
 
-export function globalVerdict(test: string, p: number, level: number, positive: boolean, statistic: string): { verdict: SquareVerdict; summary: string } {
+export function globalVerdict(
+  test: string,
+  p: number,
+  level: number,
+  positive: boolean,
+  statistic: string,
+): { verdict: SquareVerdict; summary: string } {
   const at = `at the ${pct(level)} level (p = ${p.toPrecision(3)})`;
-  if (p > level) return { verdict: "no evidence against the null", summary: `No evidence against ${SQUARE_NULL} ${at}; ${statistic}.` };
+  if (p > level)
+    return {
+      verdict: "no evidence against the null",
+      summary: `No evidence against ${SQUARE_NULL} ${at}; ${statistic}.`,
+    };
   return positive
-    ? { verdict: "clustered", summary: `Squares with similar values lie together (positive spatial autocorrelation) ${at}; ${statistic} (${test}).` }
-    : { verdict: "dispersed", summary: `High and low squares alternate more than chance would have it (negative spatial autocorrelation) ${at}; ${statistic} (${test}).` };
+    ? {
+        verdict: "clustered",
+        summary: `Squares with similar values lie together (positive spatial autocorrelation) ${at}; ${statistic} (${test}).`,
+      }
+    : {
+        verdict: "dispersed",
+        summary: `High and low squares alternate more than chance would have it (negative spatial autocorrelation) ${at}; ${statistic} (${test}).`,
+      };
 }
 
 export function localSummary(test: string, classes: SquareClass[], rawSignificant: number, level: number): string {
@@ -33,7 +49,8 @@ export function localSummary(test: string, classes: SquareClass[], rawSignifican
   const cold = count("cold spot");
   const outliers = count("high among low") + count("low among high");
   const parts = [`${hot} hot spot${hot === 1 ? "" : "s"}`, `${cold} cold spot${cold === 1 ? "" : "s"}`];
-  if (test === "local Moran's I") parts.push(`${outliers} outlier${outliers === 1 ? "" : "s"} (a high square among low ones or the reverse)`);
+  if (test === "local Moran's I")
+    parts.push(`${outliers} outlier${outliers === 1 ? "" : "s"} (a high square among low ones or the reverse)`);
   return `${test}: ${parts.join(", ")} among ${classes.length} squares after the false-discovery-rate adjustment at the ${pct(level)} level (${rawSignificant} before it).`;
 }
 
@@ -41,27 +58,37 @@ export function squareCautions(spec: SquareTestSpec, lattice: Lattice, local: bo
   const out = [...LATTICE_CAUTIONS];
   const n = lattice.ids.length;
   if (local) {
-    out.push(`With ${n} squares, some local tests come out "significant" by chance: the hot and cold spots shown are those left after the Benjamini–Hochberg false-discovery-rate adjustment across squares; the unadjusted p-values are shown for reference only.`);
+    out.push(
+      `With ${n} squares, some local tests come out "significant" by chance: the hot and cold spots shown are those left after the Benjamini–Hochberg false-discovery-rate adjustment across squares; the unadjusted p-values are shown for reference only.`,
+    );
   }
   if (local && spec.permutations > 0) {
     const sides = spec.alternative === "two-sided" ? 2 : 1;
     const floor = sides / (spec.permutations + 1);
     if (floor * n > spec.level) {
       const needed = Math.ceil((sides * n) / spec.level) - 1;
-      out.push(`With ${spec.permutations} permutations the smallest p-value a square can reach is ${floor.toPrecision(2)}, too coarse for the adjustment across ${n} squares to leave a lone hot or cold spot (it needs p ≤ ${(spec.level / n).toPrecision(2)}): use at least ${needed} permutations.`);
+      out.push(
+        `With ${spec.permutations} permutations the smallest p-value a square can reach is ${floor.toPrecision(2)}, too coarse for the adjustment across ${n} squares to leave a lone hot or cold spot (it needs p ≤ ${(spec.level / n).toPrecision(2)}): use at least ${needed} permutations.`,
+      );
     }
   }
-  if (n < 30) out.push(`Only ${n} squares: the test has little power, and 'no evidence' is not evidence of randomness.`);
+  if (n < 30)
+    out.push(`Only ${n} squares: the test has little power, and 'no evidence' is not evidence of randomness.`);
   if (lattice.variable === "density") {
-    out.push("Tested as density (count per excavated m²), so squares cut by the outline or only partly dug stand beside whole ones; a small square's density rests on few finds and varies more.");
+    out.push(
+      "Tested as density (count per excavated m²), so squares cut by the outline or only partly dug stand beside whole ones; a small square's density rests on few finds and varies more.",
+    );
   } else {
-    out.push("Tested as raw counts: where squares differ in excavated area, counts mix the finds' spread with the area dug — prefer density.");
+    out.push(
+      "Tested as raw counts: where squares differ in excavated area, counts mix the finds' spread with the area dug — prefer density.",
+    );
   }
   const lost = lattice.leftOut.length;
   if (lost > 0) {
     const why = [...new Set(lattice.leftOut.map((l) => l.reason))].join(", ");
     out.push(`${lost} square${lost === 1 ? " was" : "s were"} left out (${why}).`);
   }
-  if (spec.style === "row") out.push("Row-standardised weights: a square at the edge, with fewer neighbours, gives each of them more weight.");
+  if (spec.style === "row")
+    out.push("Row-standardised weights: a square at the edge, with fewer neighbours, gives each of them more weight.");
   return out;
 }

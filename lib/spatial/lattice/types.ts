@@ -47,8 +47,7 @@ export type LatticeVariable = "density" | "count";
  * `lower` to `upper` metres apart, both ends included (as spdep's dnearneigh).
  */
 export type NeighbourRule =
-  | { type: "rook" | "queen"; from?: "grid" | "shapes" }
-  | { type: "distance"; upper: number; lower?: number };
+  { type: "rook" | "queen"; from?: "grid" | "shapes" } | { type: "distance"; upper: number; lower?: number };
 
 /** Binary (w_ij = 1 for neighbours) or row-standardised (each row sums to 1: w_ij = 1 / number of neighbours). */
 export type WeightStyle = "binary" | "row";

@@ -20,7 +20,10 @@ const NY = 8;
 const cells = Array.from({ length: NX * NY }, (_, k) => ({ id: `s${k}`, col: k % NX, row: Math.floor(k / NX) }));
 const queen = gridContiguity(cells, "queen");
 // Invented counts: skewed, with zeros and many ties, as sieved debitage per square tends to be.
-const base = Float64Array.from({ length: NX * NY }, (_, k) => [0, 0, 1, 2, 2, 3, 5, 8, 13, 4][k % 10] + (k % 7 === 0 ? 20 : 0));
+const base = Float64Array.from(
+  { length: NX * NY },
+  (_, k) => [0, 0, 1, 2, 2, 3, 5, 8, 13, 4][k % 10] + (k % 7 === 0 ? 20 : 0),
+);
 
 function shuffled(rep: number): Float64Array {
   const v = base.slice();
@@ -55,7 +58,11 @@ describe("p-values under random placement of the counts", () => {
       pg.push(gearyC(x, w, { permutations: 199, seed: 10_000 + rep }).p.permutation!);
     }
     // Rejections at 0.05 within 8..33 of 400: false alarm 0.0027 each (Binomial(400, 0.05) tails).
-    for (const [name, ps] of [["Moran permutation", pm], ["Moran randomisation", pr], ["Geary permutation", pg]] as const) {
+    for (const [name, ps] of [
+      ["Moran permutation", pm],
+      ["Moran randomisation", pr],
+      ["Geary permutation", pg],
+    ] as const) {
       const rejections = ps.filter((p) => p <= 0.05).length;
       expect(rejections, `${name}: ${rejections} of ${R} at 0.05`).toBeGreaterThanOrEqual(8);
       expect(rejections, `${name}: ${rejections} of ${R} at 0.05`).toBeLessThanOrEqual(33);
@@ -72,7 +79,12 @@ describe("p-values under random placement of the counts", () => {
     const wStar = latticeWeights(queen, "binary", true);
     const corner = 0;
     const inner = 3 * NX + 4;
-    const got: Record<string, number[]> = { "local Moran, corner": [], "local Moran, inner": [], "Gi*, corner": [], "Gi*, inner": [] };
+    const got: Record<string, number[]> = {
+      "local Moran, corner": [],
+      "local Moran, inner": [],
+      "Gi*, corner": [],
+      "Gi*, inner": [],
+    };
     for (let rep = 0; rep < R; rep++) {
       const x = shuffled(50_000 + rep);
       const lm = localMoran(x, w, { permutations: 199, seed: rep });

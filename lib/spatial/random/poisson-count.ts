@@ -9,7 +9,8 @@ import { SpatialInputError } from "../errors";
 import type { Random } from "./random";
 
 export function poissonCount(rng: Random, mean: number): number {
-  if (!Number.isFinite(mean) || mean < 0) throw new SpatialInputError(`A Poisson mean must be finite and ≥ 0; got ${mean}.`);
+  if (!Number.isFinite(mean) || mean < 0)
+    throw new SpatialInputError(`A Poisson mean must be finite and ≥ 0; got ${mean}.`);
   if (mean === 0) return 0;
   if (mean < 10) {
     const limit = Math.exp(-mean);

@@ -5,7 +5,10 @@ import { createRandom } from "./random";
 
 describe("seeded streams", () => {
   test("same seed and stream give the same numbers, other streams differ", () => {
-    const a = createRandom(42, 7), b = createRandom(42, 7), c = createRandom(42, 8), d = createRandom(43, 7);
+    const a = createRandom(42, 7),
+      b = createRandom(42, 7),
+      c = createRandom(42, 8),
+      d = createRandom(43, 7);
     const xs = Array.from({ length: 5 }, () => a.next());
     expect(Array.from({ length: 5 }, () => b.next())).toEqual(xs);
     expect(Array.from({ length: 5 }, () => c.next())).not.toEqual(xs);
@@ -52,13 +55,15 @@ describe("Poisson counts", () => {
   test.each([3, 60])("mean %d: sample mean and variance both near the mean", (mean) => {
     const rng = createRandom(11);
     const n = 20_000;
-    let s = 0, s2 = 0;
+    let s = 0,
+      s2 = 0;
     for (let k = 0; k < n; k++) {
       const v = poissonCount(rng, mean);
       s += v;
       s2 += v * v;
     }
-    const m = s / n, v = s2 / n - m * m;
+    const m = s / n,
+      v = s2 / n - m * m;
     // sd of the sample mean is √(mean/n); 5 sd. Variance: sd ≈ mean·√(2/n) for large mean, 6 sd allowed.
     expect(Math.abs(m - mean)).toBeLessThan(5 * Math.sqrt(mean / n));
     expect(Math.abs(v - mean)).toBeLessThan(6 * mean * Math.sqrt(2 / n) + 0.1);

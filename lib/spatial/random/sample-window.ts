@@ -21,7 +21,16 @@ export interface WindowSampler {
 }
 
 /** True when segment (ax,ay)-(bx,by) meets the closed rectangle [x0,x1]×[y0,y1]. */
-function segmentMeetsRect(ax: number, ay: number, bx: number, by: number, x0: number, y0: number, x1: number, y1: number): boolean {
+function segmentMeetsRect(
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  x0: number,
+  y0: number,
+  x1: number,
+  y1: number,
+): boolean {
   if (Math.max(ax, bx) < x0 || Math.min(ax, bx) > x1 || Math.max(ay, by) < y0 || Math.min(ay, by) > y1) return false;
   const dx = bx - ax;
   const dy = by - ay;
@@ -45,14 +54,18 @@ export function createWindowSampler(window: Window, cells = 4096): WindowSampler
   const cut = new Uint8Array(nx * ny);
   const { edges, edgeCount } = window;
   for (let e = 0; e < edgeCount; e++) {
-    const ax = edges[4 * e], ay = edges[4 * e + 1], bx = edges[4 * e + 2], by = edges[4 * e + 3];
+    const ax = edges[4 * e],
+      ay = edges[4 * e + 1],
+      bx = edges[4 * e + 2],
+      by = edges[4 * e + 3];
     const i0 = Math.max(0, Math.floor((Math.min(ax, bx) - minX) / cw) - 1);
     const i1 = Math.min(nx - 1, Math.floor((Math.max(ax, bx) - minX) / cw) + 1);
     const j0 = Math.max(0, Math.floor((Math.min(ay, by) - minY) / ch) - 1);
     const j1 = Math.min(ny - 1, Math.floor((Math.max(ay, by) - minY) / ch) + 1);
     for (let j = j0; j <= j1; j++) {
       for (let i = i0; i <= i1; i++) {
-        const x0 = minX + i * cw, y0 = minY + j * ch;
+        const x0 = minX + i * cw,
+          y0 = minY + j * ch;
         if (segmentMeetsRect(ax, ay, bx, by, x0, y0, x0 + cw, y0 + ch)) cut[j * nx + i] = 1;
       }
     }
@@ -79,7 +92,7 @@ export function createWindowSampler(window: Window, cells = 4096): WindowSampler
 
   const fill = (rng: Random, n: number, x: Float64Array, y: Float64Array): void => {
     if (x.length < n || y.length < n) throw new SpatialInputError(`Point buffers hold fewer than ${n} points.`);
-    for (let k = 0; k < n; ) {
+    for (let k = 0; k < n;) {
       const pick = Math.floor(rng.next() * m);
       const c = cellIndex[pick];
       const px = minX + ((c % nx) + rng.next()) * cw;

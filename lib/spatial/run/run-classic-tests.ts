@@ -23,14 +23,21 @@ type Outcome = Omit<TestResult, "options" | "level" | "seed" | "cautions">;
 type Alternative = "two-sided" | "clustered" | "regular";
 
 /** Rank p-value; `smallMeansClustered` says which tail is the clustered one. */
-export function monteCarloRankPValue(observed: number, sims: ArrayLike<number>, alternative: Alternative, smallMeansClustered: boolean): number {
-  let below = 0, above = 0;
+export function monteCarloRankPValue(
+  observed: number,
+  sims: ArrayLike<number>,
+  alternative: Alternative,
+  smallMeansClustered: boolean,
+): number {
+  let below = 0,
+    above = 0;
   for (let i = 0; i < sims.length; i++) {
     if (sims[i] <= observed) below++;
     if (sims[i] >= observed) above++;
   }
   const s = sims.length;
-  const pLow = (1 + below) / (s + 1), pHigh = (1 + above) / (s + 1);
+  const pLow = (1 + below) / (s + 1),
+    pHigh = (1 + above) / (s + 1);
   if (alternative === "two-sided") return Math.min(1, 2 * Math.min(pLow, pHigh));
   return (alternative === "clustered") === smallMeansClustered ? pLow : pHigh;
 }
@@ -39,18 +46,37 @@ async function clarkEvansTest(ctx: RunContext, t: Extract<Classic, { type: "clar
   const p = classPoints(ctx, t.class);
   const n = p.x.length;
   const ce = clarkEvans(ctx.window, p, { alternative: t.alternative });
-  const details: Record<string, unknown> = { R: ce.R, z: ce.z, meanNNDistance: ce.meanNN, expectedUnderCsr: ce.expected, alternative: t.alternative };
-  let pValue = ce.p, direction = ce.R < 1 ? 1 : -1, nsim: number | null = null;
+  const details: Record<string, unknown> = {
+    R: ce.R,
+    z: ce.z,
+    meanNNDistance: ce.meanNN,
+    expectedUnderCsr: ce.expected,
+    alternative: t.alternative,
+  };
+  let pValue = ce.p,
+    direction = ce.R < 1 ? 1 : -1,
+    nsim: number | null = null;
   let test = "Clark–Evans R, z-test without edge correction (Clark & Evans 1954)";
   if (t.correction === "donnelly") {
     pValue = ce.donnelly.p;
     direction = ce.meanNN < ce.donnelly.expected ? 1 : -1;
     test = "Clark–Evans R with Donnelly's edge correction (Donnelly 1978), an approximation outside rectangles";
-    Object.assign(details, { zDonnelly: ce.donnelly.z, expectedDonnelly: ce.donnelly.expected, note: ce.donnelly.note });
+    Object.assign(details, {
+      zDonnelly: ce.donnelly.z,
+      expectedDonnelly: ce.donnelly.expected,
+      note: ce.donnelly.note,
+    });
   } else if (t.correction === "monte-carlo") {
     const set = await runSimulations(
       { window: windowInput(ctx.window), r: [0, 1], model: { kind: "csr-nn", n } },
-      { seed: ctx.spec.seed, streamBase: ctx.testIndex * STREAMS_PER_TEST + 1, nsim: ctx.spec.nsim, pool: ctx.pool, signal: ctx.signal, onProgress: ctx.progress },
+      {
+        seed: ctx.spec.seed,
+        streamBase: ctx.testIndex * STREAMS_PER_TEST + 1,
+        nsim: ctx.spec.nsim,
+        pool: ctx.pool,
+        signal: ctx.signal,
+        onProgress: ctx.progress,
+      },
     );
     const meanSim = set.sims.reduce((s, v) => s + v, 0) / set.s;
     pValue = monteCarloRankPValue(ce.meanNN, set.sims, t.alternative, true);
@@ -60,13 +86,24 @@ async function clarkEvansTest(ctx: RunContext, t: Extract<Classic, { type: "clar
     details.meanNNDistanceUnderCsr = meanSim;
   }
   const v = verdictOf(t, pValue, ctx.spec.level, direction, test);
-  return { type: t.type, test, null: t.correction === "monte-carlo" ? "CSR, n fixed" : "CSR", verdict: v.verdict, summary: v.summary, pValue, nsim, n, details };
+  return {
+    type: t.type,
+    test,
+    null: t.correction === "monte-carlo" ? "CSR, n fixed" : "CSR",
+    verdict: v.verdict,
+    summary: v.summary,
+    pValue,
+    nsim,
+    n,
+    details,
+  };
 }
 
 async function quadratMonteCarlo(ctx: RunContext, n: number, nx: number, ny: number): Promise<Float64Array> {
   const layout = createQuadratLayout(ctx.window, nx, ny);
   const sampler = createWindowSampler(ctx.window);
-  const x = new Float64Array(n), y = new Float64Array(n);
+  const x = new Float64Array(n),
+    y = new Float64Array(n);
   const out = new Float64Array(ctx.spec.nsim);
   for (let s = 0; s < out.length; s++) {
     if (s % 100 === 0) {
@@ -90,7 +127,9 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
   const pMonteCarlo = monteCarloRankPValue(q.X2, sims, t.alternative, false);
   const small = Math.min(...q.expected) < 5;
   const pValue = small ? pMonteCarlo : q.p;
-  const test = small ? "quadrat counts, Monte Carlo X² test (some expected counts < 5)" : "quadrat counts, Pearson X² test (Greig-Smith 1952)";
+  const test = small
+    ? "quadrat counts, Monte Carlo X² test (some expected counts < 5)"
+    : "quadrat counts, Pearson X² test (Greig-Smith 1952)";
   const v = verdictOf(t, pValue, ctx.spec.level, q.pClustered < q.pRegular ? 1 : -1, test);
   return {
     type: t.type,
@@ -102,9 +141,15 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
     nsim: ctx.spec.nsim,
     n,
     details: {
-      X2: q.X2, df: q.df, pChiSquare: q.p, pMonteCarlo, varianceMeanRatio: q.varianceMeanRatio,
-      wholeCellVarianceMeanRatio: q.wholeCellVarianceMeanRatio, cells: q.layout.cells.length,
-      observed: Array.from(q.observed), expected: Array.from(q.expected, (e) => Number(e.toPrecision(8))),
+      X2: q.X2,
+      df: q.df,
+      pChiSquare: q.p,
+      pMonteCarlo,
+      varianceMeanRatio: q.varianceMeanRatio,
+      wholeCellVarianceMeanRatio: q.wholeCellVarianceMeanRatio,
+      cells: q.layout.cells.length,
+      observed: Array.from(q.observed),
+      expected: Array.from(q.expected, (e) => Number(e.toPrecision(8))),
     },
   };
 }

@@ -86,13 +86,16 @@ export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array,
 
 /** Quantile of sorted values (type 7, linear interpolation between order statistics, R's default). */
 function quantile(sorted: Float64Array, q: number): number {
-  const h = (sorted.length - 1) * q, lo = Math.floor(h);
+  const h = (sorted.length - 1) * q,
+    lo = Math.floor(h);
   return lo + 1 < sorted.length ? sorted[lo] + (h - lo) * (sorted[lo + 1] - sorted[lo]) : sorted[lo];
 }
 
 function summarise(statistic: GlobalStatistic, observed: number, simulated: Float64Array): GlobalSummary {
   const sorted = Float64Array.from(simulated).sort();
-  let sum = 0, atLeast = 0, larger = 0;
+  let sum = 0,
+    atLeast = 0,
+    larger = 0;
   for (const v of simulated) {
     sum += v;
     if (v >= observed) atLeast++;
@@ -102,7 +105,14 @@ function summarise(statistic: GlobalStatistic, observed: number, simulated: Floa
   return {
     statistic,
     observed: p(observed),
-    simulated: { min: p(sorted[0]), q1: p(quantile(sorted, 0.25)), median: p(quantile(sorted, 0.5)), mean: p(sum / sorted.length), q3: p(quantile(sorted, 0.75)), max: p(sorted[sorted.length - 1]) },
+    simulated: {
+      min: p(sorted[0]),
+      q1: p(quantile(sorted, 0.25)),
+      median: p(quantile(sorted, 0.5)),
+      mean: p(sum / sorted.length),
+      q3: p(quantile(sorted, 0.75)),
+      max: p(sorted[sorted.length - 1]),
+    },
     largerThanObserved: larger,
     atLeastObserved: atLeast,
   };
@@ -165,7 +175,8 @@ export async function envelopeTest(
   const m = r.length;
   const end = usableLength(r, observed, full);
   const set = truncate(full, end);
-  const rUsed = r.subarray(0, end), obsUsed = observed.subarray(0, end);
+  const rUsed = r.subarray(0, end),
+    obsUsed = observed.subarray(0, end);
   const band = pointwiseEnvelope(set, rankForLevel(spec.nsim, spec.level));
   const reference = theory ? theory.subarray(0, end) : band.mean;
   let pValue: number;
@@ -182,7 +193,8 @@ export async function envelopeTest(
     pValue = res.pValue;
     global = summarise(statistic, res.observed, res.simulated);
   }
-  let worst = 0, direction: 1 | -1 | 0 = 0;
+  let worst = 0,
+    direction: 1 | -1 | 0 = 0;
   for (let k = 0; k < end; k++) {
     const e = observed[k] - reference[k];
     if (Math.abs(e) > worst) {

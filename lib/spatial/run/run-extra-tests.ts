@@ -18,7 +18,11 @@ async function pcfTest(ctx: RunContext, t: Extract<TestSpec, { type: "pcf-envelo
   const full = testGrid(ctx, n);
   const obs = pairCorrelation(ctx.window, p, { r: full, correction: "isotropic" });
   const r = obs.r;
-  const setup: SimSetup = { window: windowInput(ctx.window), r: Array.from(r), model: { kind: "csr-g", n, count: t.count, halfWidth: obs.halfWidth } };
+  const setup: SimSetup = {
+    window: windowInput(ctx.window),
+    r: Array.from(r),
+    model: { kind: "csr-g", n, count: t.count, halfWidth: obs.halfWidth },
+  };
   return envelopeTest(ctx, setup, obs.g.isotropic!, new Float64Array(r.length).fill(1), t.statistic, "g");
 }
 
@@ -28,7 +32,11 @@ async function pcfTest(ctx: RunContext, t: Extract<TestSpec, { type: "pcf-envelo
  * class's count over W. Pixels cut by the trench edge whose centre lies outside W get the mean of their
  * non-zero neighbours, so that a find near the edge never reads an intensity of 0.
  */
-function classIntensity(ctx: RunContext, t: Extract<TestSpec, { type: "inhomogeneous-l" }>, nClass: number): { img: PixelIntensity; sigma: number } {
+function classIntensity(
+  ctx: RunContext,
+  t: Extract<TestSpec, { type: "inhomogeneous-l" }>,
+  nClass: number,
+): { img: PixelIntensity; sigma: number } {
   const ref = classPoints(ctx, t.reference);
   const grid = densityGrid(ctx.window, ref, { sigma: t.bandwidth ?? "scott" });
   const { nx, ny } = grid;
@@ -36,7 +44,8 @@ function classIntensity(ctx: RunContext, t: Extract<TestSpec, { type: "inhomogen
   for (let iy = 0; iy < ny; iy++) {
     for (let ix = 0; ix < nx; ix++) {
       if (grid.values[iy * nx + ix] > 0) continue;
-      let sum = 0, count = 0;
+      let sum = 0,
+        count = 0;
       for (let oy = Math.max(0, iy - 1); oy <= Math.min(ny - 1, iy + 1); oy++) {
         for (let ox = Math.max(0, ix - 1); ox <= Math.min(nx - 1, ix + 1); ox++) {
           const w = grid.values[oy * nx + ox];
@@ -63,10 +72,17 @@ async function inhomTest(ctx: RunContext, t: Extract<TestSpec, { type: "inhomoge
   const { img } = classIntensity(ctx, t, n);
   const observed = new Float64Array(r.length);
   inhomLCurve(ctx.window, r, img)(p.x, p.y, n, observed, 0);
-  const setup: SimSetup = { window: windowInput(ctx.window), r: Array.from(r), model: { kind: "inhom-l", lambda: img } };
+  const setup: SimSetup = {
+    window: windowInput(ctx.window),
+    r: Array.from(r),
+    model: { kind: "inhom-l", lambda: img },
+  };
   return envelopeTest(ctx, setup, observed, Float64Array.from(r), t.statistic, "inhomogeneous L");
 }
 
-export async function extraCurveTest(ctx: RunContext, t: Extract<TestSpec, { type: "pcf-envelope" | "inhomogeneous-l" }>): Promise<EnvelopeOutcome> {
+export async function extraCurveTest(
+  ctx: RunContext,
+  t: Extract<TestSpec, { type: "pcf-envelope" | "inhomogeneous-l" }>,
+): Promise<EnvelopeOutcome> {
   return t.type === "pcf-envelope" ? pcfTest(ctx, t) : inhomTest(ctx, t);
 }

@@ -12,7 +12,8 @@ import { runDistributionTest } from "./run-test";
 
 const win = createWindow(DEMO_TRENCH);
 function uniform(seed: number, n: number) {
-  const x = new Float64Array(n), y = new Float64Array(n);
+  const x = new Float64Array(n),
+    y = new Float64Array(n);
   createWindowSampler(win).fill(createRandom(seed), n, x, y);
   return Array.from(x, (v, k) => ({ x: v, y: y[k] }));
 }
@@ -23,7 +24,8 @@ describe("curve test output", () => {
 
   for (const statistic of ["mad", "dclf"] as const) {
     test(`${statistic}: the observed statistic is recomputed from the curves, and the p-value from the simulated values`, async () => {
-      const res = (await runDistributionTest({ ...spec, tests: [{ type: "l-envelope", statistic, count: "fixed" }] })).results[0];
+      const res = (await runDistributionTest({ ...spec, tests: [{ type: "l-envelope", statistic, count: "fixed" }] }))
+        .results[0];
       const c = res.curves!;
       const g = c.global;
       if (g.statistic === "rank") throw new Error("not a rank test");
@@ -50,13 +52,24 @@ describe("curve test output", () => {
   }
 
   test("raw K beside L: the K of the same finds on the same grid", async () => {
-    const res = (await runDistributionTest({ ...spec, tests: [{ type: "l-envelope" }, { type: "l-envelope", correction: "translation" }] })).results;
-    for (const [i, correction] of [[0, "isotropic"], [1, "translation"]] as const) {
+    const res = (
+      await runDistributionTest({
+        ...spec,
+        tests: [{ type: "l-envelope" }, { type: "l-envelope", correction: "translation" }],
+      })
+    ).results;
+    for (const [i, correction] of [
+      [0, "isotropic"],
+      [1, "translation"],
+    ] as const) {
       const c = res[i].curves!;
-      const K = kFunction(win, { x: points.map((p) => p.x), y: points.map((p) => p.y) }, { r: c.r, correction }).K[correction]!;
+      const K = kFunction(win, { x: points.map((p) => p.x), y: points.map((p) => p.y) }, { r: c.r, correction }).K[
+        correction
+      ]!;
       // results carry 10 significant digits, and the simulation kernel sums its weights in its own order
       c.observedK!.forEach((v, k) => expect(Math.abs(v! - K[k])).toBeLessThanOrEqual(1e-8 * K[k] + 1e-12));
-      for (let k = 0; k < c.r.length; k++) expect(Math.abs(c.observed[k]! - Math.sqrt(c.observedK![k]! / Math.PI))).toBeLessThanOrEqual(1e-9);
+      for (let k = 0; k < c.r.length; k++)
+        expect(Math.abs(c.observed[k]! - Math.sqrt(c.observedK![k]! / Math.PI))).toBeLessThanOrEqual(1e-9);
     }
   });
 

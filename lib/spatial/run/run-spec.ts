@@ -34,15 +34,38 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
       ny: z.number().int().min(1).max(50).default(4),
       alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
     }),
-    object({ type: z.literal("l-envelope"), class: cls.optional(), count: z.enum(["fixed", "poisson"]).default("poisson"), correction, statistic }),
-    object({ type: z.literal("pcf-envelope"), class: cls.optional(), count: z.enum(["fixed", "poisson"]).default("poisson"), statistic }),
     object({
-      type: z.literal("cross-l"), a: cls, b: cls, null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"), count: z.enum(["fixed", "poisson"]).default("fixed"), correction: pairCorrection, statistic,
+      type: z.literal("l-envelope"),
+      class: cls.optional(),
+      count: z.enum(["fixed", "poisson"]).default("poisson"),
+      correction,
+      statistic,
+    }),
+    object({
+      type: z.literal("pcf-envelope"),
+      class: cls.optional(),
+      count: z.enum(["fixed", "poisson"]).default("poisson"),
+      statistic,
+    }),
+    object({
+      type: z.literal("cross-l"),
+      a: cls,
+      b: cls,
+      null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"),
+      count: z.enum(["fixed", "poisson"]).default("fixed"),
+      correction: pairCorrection,
+      statistic,
       /** The summary function the envelope test runs on: cross-L (default) or cross-K, as spatstat's envelope of Kcross. */
       fun: z.enum(["L", "K"]).default("L"),
     }),
     object({ type: z.literal("k-difference"), a: cls, b: cls, correction: pairCorrection, statistic }),
-    object({ type: z.literal("inhomogeneous-l"), class: cls, reference: cls.optional(), bandwidth: z.number().positive().optional(), statistic }),
+    object({
+      type: z.literal("inhomogeneous-l"),
+      class: cls,
+      reference: cls.optional(),
+      bandwidth: z.number().positive().optional(),
+      statistic,
+    }),
   ]);
 
   return object({
@@ -51,7 +74,12 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
     seed: z.number().int().min(0).max(0xffffffff).default(1),
     nsim: z.number().int().min(19).max(99_999).default(999),
     level: z.number().gt(0).lt(0.5).default(0.05),
-    r: z.union([z.array(z.number()), object({ max: z.number().positive().optional(), count: z.number().int().min(2).max(4097).optional() })]).optional(),
+    r: z
+      .union([
+        z.array(z.number()),
+        object({ max: z.number().positive().optional(), count: z.number().int().min(2).max(4097).optional() }),
+      ])
+      .optional(),
     workers: z.number().int().min(0).max(16).optional(),
     tests: z.array(test).min(1),
   });

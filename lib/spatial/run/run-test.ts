@@ -64,18 +64,33 @@ export interface RunOptions {
 /** Finds × simulations below which a run stays in the calling thread unless `workers` is given. */
 export const SMALL_RUN = 100_000;
 
-async function runOne(ctx: RunContext, t: TestSpec): Promise<Omit<TestResult, "options" | "level" | "seed" | "cautions">> {
+async function runOne(
+  ctx: RunContext,
+  t: TestSpec,
+): Promise<Omit<TestResult, "options" | "level" | "seed" | "cautions">> {
   if (t.type === "clark-evans" || t.type === "quadrat") return classicTest(ctx, t);
   let curves: EnvelopeOutcome;
   if (t.type === "l-envelope") curves = await lEnvelopeTest(ctx, t);
   else if (t.type === "cross-l") curves = await crossLTest(ctx, t);
   else if (t.type === "k-difference") curves = await kDifferenceTest(ctx, t);
   else curves = await extraCurveTest(ctx, t);
-  const n = t.type === "l-envelope" || t.type === "pcf-envelope" || t.type === "inhomogeneous-l"
-    ? ctx.spec.points.filter((p) => t.class === undefined || p.cls === t.class).length
-    : ctx.spec.points.filter((p) => p.cls === t.a || p.cls === t.b).length;
+  const n =
+    t.type === "l-envelope" || t.type === "pcf-envelope" || t.type === "inhomogeneous-l"
+      ? ctx.spec.points.filter((p) => t.class === undefined || p.cls === t.class).length
+      : ctx.spec.points.filter((p) => p.cls === t.a || p.cls === t.b).length;
   const v = verdictOf(t, curves.pValue, ctx.spec.level, curves.direction);
-  return { type: t.type, test: v.test, null: v.nullName, verdict: v.verdict, summary: v.summary, pValue: curves.pValue, nsim: curves.nsim, n, details: { statistic: curves.statistic }, curves };
+  return {
+    type: t.type,
+    test: v.test,
+    null: v.nullName,
+    verdict: v.verdict,
+    summary: v.summary,
+    pValue: curves.pValue,
+    nsim: curves.nsim,
+    n,
+    details: { statistic: curves.statistic },
+    curves,
+  };
 }
 
 export async function runDistributionTest(input: unknown, options: RunOptions = {}): Promise<RunResult> {
@@ -84,7 +99,8 @@ export async function runDistributionTest(input: unknown, options: RunOptions = 
   // Starting worker threads costs more than a small run itself; the numbers are the same either way.
   const small = spec.points.length * spec.nsim < SMALL_RUN;
   const threads = spec.workers ?? (small ? 0 : undefined);
-  const ownPool = options.pool === undefined && threads !== 0 && options.createPool ? options.createPool(threads) : null;
+  const ownPool =
+    options.pool === undefined && threads !== 0 && options.createPool ? options.createPool(threads) : null;
   const pool = options.pool ?? ownPool;
   const results: TestResult[] = [];
   try {
@@ -99,11 +115,14 @@ export async function runDistributionTest(input: unknown, options: RunOptions = 
         progress: (f) => options.onProgress?.((i + f) / spec.tests.length),
       };
       const done = await runOne(ctx, t);
-      if (!Number.isFinite(done.pValue)) throw new SpatialInputError(`Test ${i + 1} (${t.type}) gave no finite p-value.`);
+      if (!Number.isFinite(done.pValue))
+        throw new SpatialInputError(`Test ${i + 1} (${t.type}) gave no finite p-value.`);
       const cautions = testCautions(t, done.n);
       const range = done.curves?.range;
       if (range && !range.wholeGrid) {
-        cautions.push(`Border correction: the curve is undefined beyond the r where no point lies deep enough inside the trench, so the test used r from ${range.from} to ${Number(range.to.toPrecision(4))} m only (${range.values} of ${done.curves!.r.length} grid values), where the observed and every simulated curve are defined.`);
+        cautions.push(
+          `Border correction: the curve is undefined beyond the r where no point lies deep enough inside the trench, so the test used r from ${range.from} to ${Number(range.to.toPrecision(4))} m only (${range.values} of ${done.curves!.r.length} grid values), where the observed and every simulated curve are defined.`,
+        );
       }
       results.push({ ...done, options: t, level: spec.level, seed: spec.seed, cautions });
       ctx.progress(1);

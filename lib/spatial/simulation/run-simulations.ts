@@ -42,9 +42,13 @@ function abortError(): DOMException {
 }
 
 /** Run nsim simulations of `setup`; rows of the result are in simulation order. */
-export async function runSimulations(setup: SimSetup, options: RunSimulationsOptions): Promise<CurveSet & { sims: Float64Array }> {
+export async function runSimulations(
+  setup: SimSetup,
+  options: RunSimulationsOptions,
+): Promise<CurveSet & { sims: Float64Array }> {
   const { seed, streamBase, nsim, pool, signal, onProgress } = options;
-  if (!Number.isInteger(nsim) || nsim < 1 || nsim > 100_000) throw new SpatialInputError(`The number of simulations must be 1 to 100000; got ${nsim}.`);
+  if (!Number.isInteger(nsim) || nsim < 1 || nsim > 100_000)
+    throw new SpatialInputError(`The number of simulations must be 1 to 100000; got ${nsim}.`);
   if (signal?.aborted) throw abortError();
   const threads = pool ? pool.threads : 1;
   const chunkCount = Math.max(1, Math.min(nsim, options.chunks ?? pool?.chunksFor?.(nsim) ?? 24 * threads));

@@ -29,8 +29,10 @@ function toK(sums: Float64Array, scale: number, out: Float64Array, offset: numbe
 
 /** The statistic of a labelling of fixed locations (labels 0 = A, 1 = B, 2 = neither). */
 export function labellingCurve(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "labelling" }>) {
-  const x = Float64Array.from(model.x), y = Float64Array.from(model.y);
-  const n = x.length, m = r.length;
+  const x = Float64Array.from(model.x),
+    y = Float64Array.from(model.y);
+  const n = x.length,
+    m = r.length;
   const pairs = pairsWithin({ x, y }, r[m - 1]);
   // each class's own K follows K's binning rule; cross-K always spatstat's generic one (r-grid.ts)
   const bin = createBinning(window, r, model.statistic === "k-diff" ? "auto" : "generic").bin;
@@ -38,18 +40,24 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
   for (let p = 0; p < pairs.count; p++) bins[p] = bin(pairs.d[p]);
   const iso = model.correction === "isotropic";
   // w_ij (centre i) and w_ji (centre j) per pair; translation weights are symmetric
-  const w = iso ? isotropicPairWeights(window, x, y, n, pairs, r[m - 1]) : translationPairWeights(window, x, y, x, y, pairs);
+  const w = iso
+    ? isotropicPairWeights(window, x, y, n, pairs, r[m - 1])
+    : translationPairWeights(window, x, y, x, y, pairs);
   const count = (labels: Int32Array, cls: number) => labels.reduce((s, l) => s + (l === cls ? 1 : 0), 0);
-  const a = new Float64Array(m), b = new Float64Array(m);
+  const a = new Float64Array(m),
+    b = new Float64Array(m);
   return (labels: Int32Array, out: Float64Array, offset: number): void => {
-    const nA = count(labels, 0), nB = count(labels, 1);
+    const nA = count(labels, 0),
+      nB = count(labels, 1);
     a.fill(0);
     b.fill(0);
     for (let p = 0; p < pairs.count; p++) {
       const k = bins[p];
       if (k >= m) continue;
-      const li = labels[pairs.i[p]], lj = labels[pairs.j[p]];
-      const wij = iso ? w[2 * p] : w[p], wji = iso ? w[2 * p + 1] : w[p];
+      const li = labels[pairs.i[p]],
+        lj = labels[pairs.j[p]];
+      const wij = iso ? w[2 * p] : w[p],
+        wji = iso ? w[2 * p + 1] : w[p];
       if (model.statistic !== "k-diff") {
         if (li === 0 && lj === 1) a[k] += wij;
         else if (li === 1 && lj === 0) a[k] += wji;
@@ -66,15 +74,18 @@ export function labellingCurve(window: Window, r: Float64Array, model: Extract<S
       (model.statistic === "cross-k" ? toK : toL)(a, window.area / (nA * nB), out, offset);
       return;
     }
-    const sa = window.area / (nA * (nA - 1)), sb = window.area / (nB * (nB - 1));
+    const sa = window.area / (nA * (nA - 1)),
+      sb = window.area / (nB * (nB - 1));
     for (let k = 0; k < m; k++) out[offset + k] = a[k] * sa - b[k] * sb;
   };
 }
 
 /** Cross-L̂_AB (or cross-K̂_AB) with A fixed, as a function of the B pattern. */
 export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "fixed-a" }>) {
-  const ax = Float64Array.from(model.ax), ay = Float64Array.from(model.ay);
-  const nA = ax.length, m = r.length;
+  const ax = Float64Array.from(model.ax),
+    ay = Float64Array.from(model.ay);
+  const nA = ax.length,
+    m = r.length;
   const scanner = createPairScanner(window.bbox, r[m - 1]);
   const tables = createIsotropicWeights(window, r[m - 1]).prepare(ax, ay, nA);
   const bin = createBinning(window, r, "generic").bin;
@@ -83,8 +94,13 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
     const pairs = scanner.between(ax, ay, nA, bx, by, nB);
     sums.fill(0);
     for (let p = 0; p < pairs.count; p++) {
-      const i = pairs.i[p], j = pairs.j[p], d = pairs.d[p];
-      const w = model.correction === "isotropic" ? isotropicWeight(tables, i, d) : translationWeight(window, bx[j] - ax[i], by[j] - ay[i]);
+      const i = pairs.i[p],
+        j = pairs.j[p],
+        d = pairs.d[p];
+      const w =
+        model.correction === "isotropic"
+          ? isotropicWeight(tables, i, d)
+          : translationWeight(window, bx[j] - ax[i], by[j] - ay[i]);
       sums[bin(d)] += w;
     }
     for (let k = 1; k < m; k++) sums[k] += sums[k - 1];
@@ -92,7 +108,11 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
   };
 }
 
-export function prepareClasses(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "labelling" | "fixed-a" }>): PreparedModel {
+export function prepareClasses(
+  window: Window,
+  r: Float64Array,
+  model: Extract<SimModel, { kind: "labelling" | "fixed-a" }>,
+): PreparedModel {
   if (model.kind === "labelling") {
     const curve = labellingCurve(window, r, model);
     const labels = Int32Array.from(model.labels);

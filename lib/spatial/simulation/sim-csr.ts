@@ -27,9 +27,12 @@ export function csrLCurve(window: Window, r: Float64Array, correction: "isotropi
   }
   const scanner = createPairScanner(window.bbox, r[r.length - 1]);
   return (x: Float64Array, y: Float64Array, n: number, out: Float64Array, offset: number): void => {
-    const px = x.subarray(0, n), py = y.subarray(0, n);
+    const px = x.subarray(0, n),
+      py = y.subarray(0, n);
     const pairs = scanner.within(px, py, n);
-    const K = kFunction(window, { x: px, y: py }, { r, correction, pairs, label: "a simulated pattern" }).K[correction]!;
+    const K = kFunction(window, { x: px, y: py }, { r, correction, pairs, label: "a simulated pattern" }).K[
+      correction
+    ]!;
     out.set(kToL(K), offset);
   };
 }
@@ -37,12 +40,20 @@ export function csrLCurve(window: Window, r: Float64Array, correction: "isotropi
 /** ĝ of a pattern on the positive grid r, isotropic correction, with a fixed kernel half-width. */
 export function pcfCurve(window: Window, r: Float64Array, halfWidth: number) {
   return (x: Float64Array, y: Float64Array, n: number, out: Float64Array, offset: number): void => {
-    const g = pairCorrelation(window, { x: x.subarray(0, n), y: y.subarray(0, n) }, { r, halfWidth, label: "a simulated pattern" }).g.isotropic!;
+    const g = pairCorrelation(
+      window,
+      { x: x.subarray(0, n), y: y.subarray(0, n) },
+      { r, halfWidth, label: "a simulated pattern" },
+    ).g.isotropic!;
     out.set(g, offset);
   };
 }
 
-export function prepareCsr(window: Window, r: Float64Array, model: Extract<SimModel, { kind: "csr-l" | "csr-nn" | "csr-g" }>): PreparedModel {
+export function prepareCsr(
+  window: Window,
+  r: Float64Array,
+  model: Extract<SimModel, { kind: "csr-l" | "csr-nn" | "csr-g" }>,
+): PreparedModel {
   const sampler = createWindowSampler(window);
   const buffers = { x: new Float64Array(model.n), y: new Float64Array(model.n) };
   if (model.kind === "csr-nn") {

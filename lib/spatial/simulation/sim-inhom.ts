@@ -17,8 +17,11 @@ import type { Window } from "../types";
 /** λ at (x, y): the value of the pixel containing it (edges clamped). */
 export function pixelLookup(img: PixelIntensity): (x: number, y: number) => number {
   const { nx, ny, minX, minY, dx, dy, values } = img;
-  if (values.length !== nx * ny) throw new SpatialInputError(`The intensity image has ${values.length} values for ${nx} × ${ny} pixels.`);
-  for (const v of values) if (!(v >= 0) || !Number.isFinite(v)) throw new SpatialInputError(`An intensity value is ${v}; it must be finite and ≥ 0.`);
+  if (values.length !== nx * ny)
+    throw new SpatialInputError(`The intensity image has ${values.length} values for ${nx} × ${ny} pixels.`);
+  for (const v of values)
+    if (!(v >= 0) || !Number.isFinite(v))
+      throw new SpatialInputError(`An intensity value is ${v}; it must be finite and ≥ 0.`);
   return (x, y) => {
     const i = Math.min(nx - 1, Math.max(0, Math.floor((x - minX) / dx)));
     const j = Math.min(ny - 1, Math.max(0, Math.floor((y - minY) / dy)));
@@ -36,7 +39,10 @@ export function inhomLCurve(window: Window, r: Float64Array, img: PixelIntensity
     let total = 0;
     for (let k = 0; k < n; k++) {
       const lam = lambda(x[k], y[k]);
-      if (!(lam > 0)) throw new SpatialInputError(`The intensity is 0 at find (${x[k].toFixed(3)}, ${y[k].toFixed(3)}); widen the bandwidth.`);
+      if (!(lam > 0))
+        throw new SpatialInputError(
+          `The intensity is 0 at find (${x[k].toFixed(3)}, ${y[k].toFixed(3)}); widen the bandwidth.`,
+        );
       u[k] = 1 / lam;
       total += u[k];
     }

@@ -28,9 +28,24 @@ export type SimModel =
   /** Mean nearest-neighbour distance of CSR patterns of n points (one value per simulation). */
   | { kind: "csr-nn"; n: number }
   /** Random labelling of fixed locations; labels 0 = class A, 1 = class B, 2 = neither. */
-  | { kind: "labelling"; x: number[]; y: number[]; labels: number[]; statistic: "cross-l" | "cross-k" | "k-diff"; correction: "isotropic" | "translation" }
+  | {
+      kind: "labelling";
+      x: number[];
+      y: number[];
+      labels: number[];
+      statistic: "cross-l" | "cross-k" | "k-diff";
+      correction: "isotropic" | "translation";
+    }
   /** Class A fixed at ax, ay; class B replaced by nB (or Poisson(nB)) CSR points. Cross-L̂_AB (cross-K̂_AB with fun "K"), circles on A. */
-  | { kind: "fixed-a"; ax: number[]; ay: number[]; nB: number; count: CsrCount; correction: "isotropic" | "translation"; fun?: "L" | "K" }
+  | {
+      kind: "fixed-a";
+      ax: number[];
+      ay: number[];
+      nB: number;
+      count: CsrCount;
+      correction: "isotropic" | "translation";
+      fun?: "L" | "K";
+    }
   /** Inhomogeneous Poisson by thinning, summarised by the inhomogeneous L (isotropic correction). */
   | { kind: "inhom-l"; lambda: PixelIntensity };
 

@@ -36,7 +36,8 @@ describe("null models", () => {
     const sampler = createWindowSampler(win);
     const rng = createRandom(6);
     const buffers = { x: new Float64Array(0), y: new Float64Array(0) };
-    let total = 0, west = 0;
+    let total = 0,
+      west = 0;
     const runs = 300;
     for (let t = 0; t < runs; t++) {
       const n = simulateInhomogeneous(sampler, (x) => (2 * x) / 12.1, 2, rng, buffers);
@@ -44,7 +45,8 @@ describe("null models", () => {
       for (let k = 0; k < n; k++) if (buffers.x[k] < 3) west++;
     }
     // ∫λ by a fine midpoint sum over W (outside reference: plain quadrature)
-    let integral = 0, westIntegral = 0;
+    let integral = 0,
+      westIntegral = 0;
     const h = 0.02;
     for (let x = h / 2; x < 12.1; x += h) {
       for (let y = h / 2; y < 8; y += h) {

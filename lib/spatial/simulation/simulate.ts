@@ -21,7 +21,8 @@ export type CsrCount = "fixed" | "poisson";
  */
 export function csrCount(mode: CsrCount, n: number, rng: Random, minimum = 2): number {
   if (mode === "fixed") return n;
-  if (mode !== "poisson") throw new SpatialInputError(`Unknown CSR count rule "${String(mode)}"; use fixed or poisson.`);
+  if (mode !== "poisson")
+    throw new SpatialInputError(`Unknown CSR count rule "${String(mode)}"; use fixed or poisson.`);
   for (let tries = 0; tries < 10000; tries++) {
     const k = poissonCount(rng, n);
     if (k >= minimum) return k;
@@ -30,7 +31,12 @@ export function csrCount(mode: CsrCount, n: number, rng: Random, minimum = 2): n
 }
 
 /** Fill x, y (grown when too small) with n uniform points of the sampler's window. */
-export function simulateCsr(sampler: WindowSampler, n: number, rng: Random, buffers: { x: Float64Array; y: Float64Array }): void {
+export function simulateCsr(
+  sampler: WindowSampler,
+  n: number,
+  rng: Random,
+  buffers: { x: Float64Array; y: Float64Array },
+): void {
   if (buffers.x.length < n) {
     buffers.x = new Float64Array(Math.ceil(n * 1.25));
     buffers.y = new Float64Array(buffers.x.length);
@@ -59,7 +65,8 @@ export function simulateInhomogeneous(
   rng: Random,
   buffers: { x: Float64Array; y: Float64Array },
 ): number {
-  if (!(lambdaMax > 0) || !Number.isFinite(lambdaMax)) throw new SpatialInputError(`λ_max must be positive; got ${lambdaMax}.`);
+  if (!(lambdaMax > 0) || !Number.isFinite(lambdaMax))
+    throw new SpatialInputError(`λ_max must be positive; got ${lambdaMax}.`);
   const total = poissonCount(rng, lambdaMax * sampler.window.area);
   const cx = new Float64Array(total);
   const cy = new Float64Array(total);
@@ -72,7 +79,9 @@ export function simulateInhomogeneous(
   for (let k = 0; k < total; k++) {
     const lam = intensity(cx[k], cy[k]);
     if (!(lam >= 0) || lam > lambdaMax * (1 + 1e-9)) {
-      throw new SpatialInputError(`The intensity at (${cx[k].toFixed(3)}, ${cy[k].toFixed(3)}) is ${lam}, outside [0, λ_max].`);
+      throw new SpatialInputError(
+        `The intensity at (${cx[k].toFixed(3)}, ${cy[k].toFixed(3)}) is ${lam}, outside [0, λ_max].`,
+      );
     }
     if (rng.next() * lambdaMax < lam) {
       buffers.x[kept] = cx[k];

@@ -36,7 +36,11 @@ export async function openBrowser(): Promise<Browser> {
 export const viewports = { desktop: { width: 1366, height: 900 }, tablet: { width: 820, height: 1180 } } as const;
 
 export async function newPage(browser: Browser, size: keyof typeof viewports = "desktop"): Promise<Page> {
-  const context = await browser.newContext({ baseURL: baseURL(), viewport: viewports[size], hasTouch: size === "tablet" });
+  const context = await browser.newContext({
+    baseURL: baseURL(),
+    viewport: viewports[size],
+    hasTouch: size === "tablet",
+  });
   return context.newPage();
 }
 

@@ -18,7 +18,8 @@ export async function watchCsp(context: BrowserContext): Promise<void> {
     if (msg.type() !== "error") return;
     const text = msg.text();
     // Chromium also logs each refusal itself ("… violates the following Content Security Policy directive …").
-    if (text.startsWith(MARK) || /Content Security Policy/i.test(text)) violations.push(`${msg.location().url || "(page)"}: ${text}`);
+    if (text.startsWith(MARK) || /Content Security Policy/i.test(text))
+      violations.push(`${msg.location().url || "(page)"}: ${text}`);
   });
 }
 

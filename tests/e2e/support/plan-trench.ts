@@ -9,11 +9,29 @@ export async function freshTrench(page: Page) {
   const sites = (await (await page.request.get("/api/sites")).json()) as { id: string; code: string }[];
   const site = sites.find((s) => s.code === "WHD26") ?? sites[0];
   const code = `P${Date.now().toString(36).slice(-5).toUpperCase()}`;
-  const t = await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code, name: "Plan test", outline: { type: "Polygon", coordinates: [[[0, 0], [8, 0], [4, 6], [0, 0]]] } } });
+  const t = await page.request.post(`/api/sites/${site.id}/trenches`, {
+    data: {
+      code,
+      name: "Plan test",
+      outline: {
+        type: "Polygon",
+        coordinates: [
+          [
+            [0, 0],
+            [8, 0],
+            [4, 6],
+            [0, 0],
+          ],
+        ],
+      },
+    },
+  });
   expect(t.status()).toBe(201);
   const trench = await t.json();
   const number = 60000 + Math.floor(Math.random() * 30000);
-  const c = await page.request.post(`/api/sites/${site.id}/contexts`, { data: { trenchId: trench.id, number, type: "deposit" } });
+  const c = await page.request.post(`/api/sites/${site.id}/contexts`, {
+    data: { trenchId: trench.id, number, type: "deposit" },
+  });
   expect(c.status()).toBe(201);
   return { siteId: site.id as string, trenchId: trench.id as string, code, contextNumber: number };
 }

@@ -13,14 +13,33 @@ export async function makeSample(fx: SiteFixture, contextId = fx.context.id) {
   const db = await getDb();
   const [s] = await db
     .insert(schema.samples)
-    .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId, number: 70_000 + nextCount(), type: "bulk", takenOn: "2026-07-01", volumeL: 40 })
+    .values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId,
+      number: 70_000 + nextCount(),
+      type: "bulk",
+      takenOn: "2026-07-01",
+      volumeL: 40,
+    })
     .returning();
   return s!;
 }
 
 /** Mutating operations of the archive registers. */
 export const archiveCases: RoleCases = {
-  samplesCreate: async (fx) => ({ mod: samplesRoute, params: { siteId: fx.site.id }, body: { contextId: fx.context.id, type: "charcoal", x: 1.5, y: 1.5, z: 49.2, purpose: "radiocarbon date of the hearth" } }),
+  samplesCreate: async (fx) => ({
+    mod: samplesRoute,
+    params: { siteId: fx.site.id },
+    body: {
+      contextId: fx.context.id,
+      type: "charcoal",
+      x: 1.5,
+      y: 1.5,
+      z: 49.2,
+      purpose: "radiocarbon date of the hearth",
+    },
+  }),
   sampleUpdate: async (fx) => {
     const s = await makeSample(fx);
     return { mod: sampleRoute, params: { siteId: fx.site.id, sampleId: s.id }, body: { volumeL: 30 + nextCount() } };
@@ -37,7 +56,20 @@ export const archiveCases: RoleCases = {
   findsBulk: async (fx) => {
     const [a, b] = [await insertFind(fx), await insertFind(fx)];
     const db = await getDb();
-    const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `BK${nextCount()}`, label: "Burnt flint", colour: "#e69f00", symbol: "cross" }).returning();
-    return { mod: findsBulkRoute, params: { siteId: fx.site.id }, body: { action: "reclass", findIds: [a.id, b.id], classId: cls!.id } };
+    const [cls] = await db
+      .insert(schema.artefactClasses)
+      .values({
+        siteId: fx.site.id,
+        code: `BK${nextCount()}`,
+        label: "Burnt flint",
+        colour: "#e69f00",
+        symbol: "cross",
+      })
+      .returning();
+    return {
+      mod: findsBulkRoute,
+      params: { siteId: fx.site.id },
+      body: { action: "reclass", findIds: [a.id, b.id], classId: cls!.id },
+    };
   },
 };

@@ -18,7 +18,11 @@ import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 /** For each mutating operation: a fresh target and a valid input, so only the caller decides the outcome. */
 export const coreCases: RoleCases = {
   sitesCreate: async () => ({ mod: sitesRoute, params: {}, body: { code: `NEW-${nextCount()}`, name: "New site" } }),
-  siteUpdate: async (fx) => ({ mod: siteRoute, params: { siteId: fx.site.id }, body: { name: `Renamed ${nextCount()}` } }),
+  siteUpdate: async (fx) => ({
+    mod: siteRoute,
+    params: { siteId: fx.site.id },
+    body: { name: `Renamed ${nextCount()}` },
+  }),
   memberUpdate: async (fx) => {
     const u = await makeUser("Member");
     const db = await getDb();
@@ -31,31 +35,98 @@ export const coreCases: RoleCases = {
     await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: u.id, role: "digger" });
     return { mod: memberRoute, params: { siteId: fx.site.id, userId: u.id } };
   },
-  classesCreate: async (fx) => ({ mod: classesRoute, params: { siteId: fx.site.id }, body: { code: `C${nextCount()}`, label: "Burnt bone", colour: "#d55e00", symbol: "square" } }),
-  classUpdate: async (fx) => ({ mod: classRoute, params: { siteId: fx.site.id, classId: fx.cls.id }, body: { label: `Flint ${nextCount()}` } }),
+  classesCreate: async (fx) => ({
+    mod: classesRoute,
+    params: { siteId: fx.site.id },
+    body: { code: `C${nextCount()}`, label: "Burnt bone", colour: "#d55e00", symbol: "square" },
+  }),
+  classUpdate: async (fx) => ({
+    mod: classRoute,
+    params: { siteId: fx.site.id, classId: fx.cls.id },
+    body: { label: `Flint ${nextCount()}` },
+  }),
   trenchesCreate: async (fx) => ({
     mod: trenchesRoute,
     params: { siteId: fx.site.id },
-    body: { code: `B${nextCount()}`, outline: { type: "Polygon", coordinates: [[[0, 0], [4, 0], [4, 3], [0, 3], [0, 0]]] } },
+    body: {
+      code: `B${nextCount()}`,
+      outline: {
+        type: "Polygon",
+        coordinates: [
+          [
+            [0, 0],
+            [4, 0],
+            [4, 3],
+            [0, 3],
+            [0, 0],
+          ],
+        ],
+      },
+    },
   }),
-  trenchUpdate: async (fx) => ({ mod: trenchRoute, params: { siteId: fx.site.id, trenchId: fx.trench.id }, body: { name: `North ${nextCount()}` } }),
+  trenchUpdate: async (fx) => ({
+    mod: trenchRoute,
+    params: { siteId: fx.site.id, trenchId: fx.trench.id },
+    body: { name: `North ${nextCount()}` },
+  }),
   trenchDelete: async (fx) => {
     const db = await getDb();
-    const [t] = await db.insert(schema.trenches).values({ siteId: fx.site.id, code: `D${nextCount()}`, outline: { type: "Polygon", coordinates: [[[0, 0], [1, 0], [1, 1], [0, 0]]] } }).returning();
+    const [t] = await db
+      .insert(schema.trenches)
+      .values({
+        siteId: fx.site.id,
+        code: `D${nextCount()}`,
+        outline: {
+          type: "Polygon",
+          coordinates: [
+            [
+              [0, 0],
+              [1, 0],
+              [1, 1],
+              [0, 0],
+            ],
+          ],
+        },
+      })
+      .returning();
     return { mod: trenchRoute, params: { siteId: fx.site.id, trenchId: t.id } };
   },
-  contextsCreate: async (fx) => ({ mod: contextsRoute, params: { siteId: fx.site.id }, body: { trenchId: fx.trench.id, number: 5000 + nextCount(), type: "fill" } }),
-  contextUpdate: async (fx) => ({ mod: contextRoute, params: { siteId: fx.site.id, contextId: fx.context.id }, body: { colour: `mid brown ${nextCount()}` } }),
+  contextsCreate: async (fx) => ({
+    mod: contextsRoute,
+    params: { siteId: fx.site.id },
+    body: { trenchId: fx.trench.id, number: 5000 + nextCount(), type: "fill" },
+  }),
+  contextUpdate: async (fx) => ({
+    mod: contextRoute,
+    params: { siteId: fx.site.id, contextId: fx.context.id },
+    body: { colour: `mid brown ${nextCount()}` },
+  }),
   contextDelete: async (fx) => {
     const db = await getDb();
-    const [c] = await db.insert(schema.contexts).values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 7000 + nextCount(), type: "cut" }).returning();
+    const [c] = await db
+      .insert(schema.contexts)
+      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 7000 + nextCount(), type: "cut" })
+      .returning();
     return { mod: contextRoute, params: { siteId: fx.site.id, contextId: c.id } };
   },
-  findsCreate: async (fx) => ({ mod: findsRoute, params: { siteId: fx.site.id }, body: { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5 } }),
+  findsCreate: async (fx) => ({
+    mod: findsRoute,
+    params: { siteId: fx.site.id },
+    body: { contextId: fx.context.id, classId: fx.cls.id, x: 1.5, y: 1.5 },
+  }),
   findUpdate: async (fx) => {
     const f = await insertFind(fx);
     const db = await getDb();
-    const [cls] = await db.insert(schema.artefactClasses).values({ siteId: fx.site.id, code: `RC${nextCount()}`, label: "Retouched flake", colour: "#cc79a7", symbol: "star" }).returning();
+    const [cls] = await db
+      .insert(schema.artefactClasses)
+      .values({
+        siteId: fx.site.id,
+        code: `RC${nextCount()}`,
+        label: "Retouched flake",
+        colour: "#cc79a7",
+        symbol: "star",
+      })
+      .returning();
     // Re-classing: the one change every role on the route may make (field rights are tested in field-rights.test.ts).
     return { mod: findRoute, params: { siteId: fx.site.id, findId: f.id }, body: { classId: cls.id } };
   },
@@ -69,8 +140,16 @@ export async function insertFind(fx: SiteFixture) {
   const db = await getDb();
   const [f] = await db
     .insert(schema.finds)
-    .values({ siteId: fx.site.id, trenchId: fx.trench.id, contextId: fx.context.id, classId: fx.cls.id, number: 90000 + nextCount(), x: 1, y: 1, method: "typed" })
+    .values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      contextId: fx.context.id,
+      classId: fx.cls.id,
+      number: 90000 + nextCount(),
+      x: 1,
+      y: 1,
+      method: "typed",
+    })
     .returning();
   return f;
 }
-

@@ -13,34 +13,69 @@ import * as sectionRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sect
 
 export async function makeSection(fx: SiteFixture) {
   const db = await getDb();
-  const [s] = await db.insert(schema.findSections).values({ siteId: fx.site.id, trenchId: fx.trench.id, name: `S${nextCount()}`, startX: 0, startY: 0, endX: 4, endY: 0, halfWidth: 0.5, exaggeration: 2 }).returning();
+  const [s] = await db
+    .insert(schema.findSections)
+    .values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      name: `S${nextCount()}`,
+      startX: 0,
+      startY: 0,
+      endX: 4,
+      endY: 0,
+      halfWidth: 0.5,
+      exaggeration: 2,
+    })
+    .returning();
   return s!;
 }
 
 export async function makeBenchmark(fx: SiteFixture, level = 50) {
   const db = await getDb();
-  const [b] = await db.insert(schema.benchmarks).values({ siteId: fx.site.id, code: `TBM ${nextCount()}`, description: "pin", x: 0, y: 0, level }).returning();
+  const [b] = await db
+    .insert(schema.benchmarks)
+    .values({ siteId: fx.site.id, code: `TBM ${nextCount()}`, description: "pin", x: 0, y: 0, level })
+    .returning();
   return b!;
 }
 
 export async function makeSpit(fx: SiteFixture) {
   const db = await getDb();
-  const [s] = await db.insert(schema.spits).values({ siteId: fx.site.id, contextId: fx.context.id, number: nextCount() }).returning();
+  const [s] = await db
+    .insert(schema.spits)
+    .values({ siteId: fx.site.id, contextId: fx.context.id, number: nextCount() })
+    .returning();
   return s!;
 }
 
 /** Mutating operations of levels: datum, benchmarks, levelling runs, spits and sections of finds. */
 export const levelsCases: RoleCases = {
-  sectionsCreate: async (fx) => ({ mod: sectionsRoute, params: { siteId: fx.site.id, trenchId: fx.trench.id }, body: { name: `S${nextCount()}`, startX: 0, startY: 0, endX: 5, endY: 1, halfWidth: 0.4, exaggeration: 2 } }),
+  sectionsCreate: async (fx) => ({
+    mod: sectionsRoute,
+    params: { siteId: fx.site.id, trenchId: fx.trench.id },
+    body: { name: `S${nextCount()}`, startX: 0, startY: 0, endX: 5, endY: 1, halfWidth: 0.4, exaggeration: 2 },
+  }),
   sectionDelete: async (fx) => {
     const s = await makeSection(fx);
     return { mod: sectionRoute, params: { siteId: fx.site.id, trenchId: fx.trench.id, sectionId: s.id } };
   },
-  datumUpdate: async (fx) => ({ mod: datumRoute, params: { siteId: fx.site.id }, body: { datumKind: "national", datumName: "National datum", levelTolerance: 0.004 } }),
-  benchmarksCreate: async (fx) => ({ mod: benchmarksRoute, params: { siteId: fx.site.id }, body: { code: `TBM ${nextCount()}`, description: "nail", x: 1, y: 2, level: 49.5 } }),
+  datumUpdate: async (fx) => ({
+    mod: datumRoute,
+    params: { siteId: fx.site.id },
+    body: { datumKind: "national", datumName: "National datum", levelTolerance: 0.004 },
+  }),
+  benchmarksCreate: async (fx) => ({
+    mod: benchmarksRoute,
+    params: { siteId: fx.site.id },
+    body: { code: `TBM ${nextCount()}`, description: "nail", x: 1, y: 2, level: 49.5 },
+  }),
   benchmarkUpdate: async (fx) => {
     const b = await makeBenchmark(fx);
-    return { mod: benchmarkRoute, params: { siteId: fx.site.id, benchmarkId: b.id }, body: { description: "nail in post" } };
+    return {
+      mod: benchmarkRoute,
+      params: { siteId: fx.site.id, benchmarkId: b.id },
+      body: { description: "nail in post" },
+    };
   },
   benchmarkDelete: async (fx) => {
     const b = await makeBenchmark(fx);
@@ -62,10 +97,18 @@ export const levelsCases: RoleCases = {
       },
     };
   },
-  spitsCreate: async (fx) => ({ mod: spitsRoute, params: { siteId: fx.site.id, contextId: fx.context.id }, body: { number: nextCount(), topLevel: 49.3, baseLevel: 49.25 } }),
+  spitsCreate: async (fx) => ({
+    mod: spitsRoute,
+    params: { siteId: fx.site.id, contextId: fx.context.id },
+    body: { number: nextCount(), topLevel: 49.3, baseLevel: 49.25 },
+  }),
   spitUpdate: async (fx) => {
     const s = await makeSpit(fx);
-    return { mod: spitRoute, params: { siteId: fx.site.id, contextId: fx.context.id, spitId: s.id }, body: { baseLevel: 49.2 } };
+    return {
+      mod: spitRoute,
+      params: { siteId: fx.site.id, contextId: fx.context.id, spitId: s.id },
+      body: { baseLevel: 49.2 },
+    };
   },
   spitDelete: async (fx) => {
     const s = await makeSpit(fx);

@@ -14,14 +14,25 @@ export async function completeSheet(contextId: string) {
   const db = await getDb();
   const [c] = await db
     .update(schema.contexts)
-    .set({ colour: "mid brown", compaction: "firm", composition: "silty clay", description: "Layer across the trench.", interpretation: "Colluvium." })
+    .set({
+      colour: "mid brown",
+      compaction: "firm",
+      composition: "silty clay",
+      description: "Layer across the trench.",
+      interpretation: "Colluvium.",
+    })
     .where(eq(schema.contexts.id, contextId))
     .returning();
   return c;
 }
 
 /** Puts a context straight into a state, as if submitted/signed off by `by` at `at` (arranging a test, not the rule). */
-export async function putInState(contextId: string, state: schema.Context["state"], by: string | null, at = new Date("2026-07-14T09:30:00Z")) {
+export async function putInState(
+  contextId: string,
+  state: schema.Context["state"],
+  by: string | null,
+  at = new Date("2026-07-14T09:30:00Z"),
+) {
   const db = await getDb();
   const [c] = await db
     .update(schema.contexts)
@@ -50,14 +61,29 @@ export const signOffCases: RoleCases = {
   contextReopen: async (fx) => {
     await completeSheet(fx.context.id);
     await putInState(fx.context.id, "signed_off", fx.people.director.id);
-    return { mod: reopenRoute, params: { siteId: fx.site.id, contextId: fx.context.id }, body: { reason: "The finds of the north half were double-counted." } };
+    return {
+      mod: reopenRoute,
+      params: { siteId: fx.site.id, contextId: fx.context.id },
+      body: { reason: "The finds of the north half were double-counted." },
+    };
   },
-  invitationsCreate: async (fx) => ({ mod: invitationsRoute, params: { siteId: fx.site.id }, body: { email: `new.person.${nextCount()}@test.invalid`, role: "digger" } }),
+  invitationsCreate: async (fx) => ({
+    mod: invitationsRoute,
+    params: { siteId: fx.site.id },
+    body: { email: `new.person.${nextCount()}@test.invalid`, role: "digger" },
+  }),
   invitationRevoke: async (fx) => {
     const db = await getDb();
     const [inv] = await db
       .insert(schema.invitations)
-      .values({ siteId: fx.site.id, email: `pending.${nextCount()}@test.invalid`, role: "digger", tokenHash: `hash-${nextCount()}-${Math.random()}`, invitedBy: fx.people.director.id, expiresAt: new Date(Date.now() + 86400_000) })
+      .values({
+        siteId: fx.site.id,
+        email: `pending.${nextCount()}@test.invalid`,
+        role: "digger",
+        tokenHash: `hash-${nextCount()}-${Math.random()}`,
+        invitedBy: fx.people.director.id,
+        expiresAt: new Date(Date.now() + 86400_000),
+      })
       .returning();
     return { mod: invitationRoute, params: { siteId: fx.site.id, invitationId: inv.id } };
   },

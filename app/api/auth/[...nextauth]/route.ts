@@ -13,7 +13,8 @@ async function postedEmail(req: NextRequest): Promise<unknown> {
   const type = req.headers.get("content-type") ?? "";
   try {
     if (type.includes("application/json")) return ((await req.clone().json()) as { email?: unknown } | null)?.email;
-    if (type.includes("application/x-www-form-urlencoded")) return new URLSearchParams(await req.clone().text()).get("email");
+    if (type.includes("application/x-www-form-urlencoded"))
+      return new URLSearchParams(await req.clone().text()).get("email");
   } catch {
     // next-auth refuses a body it cannot read; nothing to count
   }
@@ -24,7 +25,11 @@ async function postedEmail(req: NextRequest): Promise<unknown> {
 async function limitedPost(req: NextRequest): Promise<Response> {
   if (req.nextUrl.pathname.endsWith("/callback/credentials")) {
     const refused = await admitSignIn(await postedEmail(req), req.headers);
-    if (refused) return NextResponse.json({ error: refused.message }, { status: 429, headers: { "Retry-After": String(refused.retryAfterSeconds) } });
+    if (refused)
+      return NextResponse.json(
+        { error: refused.message },
+        { status: 429, headers: { "Retry-After": String(refused.retryAfterSeconds) } },
+      );
   }
   return handlers.POST(req);
 }

@@ -9,7 +9,18 @@ import { formatWhen } from "@/lib/words/when";
 
 export const metadata: Metadata = { title: "Record trail" };
 
-const recordTypes = ["context", "find", "relation", "trench", "member", "class", "photo", "run", "import", "site"] as const;
+const recordTypes = [
+  "context",
+  "find",
+  "relation",
+  "trench",
+  "member",
+  "class",
+  "photo",
+  "run",
+  "import",
+  "site",
+] as const;
 
 /** Where each kind of record is read; others have no page of their own. */
 function recordHref(siteId: string, type: string, id: string): string | null {
@@ -19,7 +30,13 @@ function recordHref(siteId: string, type: string, id: string): string | null {
   return null;
 }
 
-export default async function AuditPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+export default async function AuditPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ siteId: string }>;
+  searchParams: Promise<Record<string, string | undefined>>;
+}) {
   const locale = await requestLocale();
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
@@ -32,32 +49,65 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/audit`} />
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
         <h1 className="text-3xl font-bold">Record trail</h1>
-        <p className="max-w-3xl text-ink-soft">Every change to the site&apos;s records, newest first, with the values before and after. Entries are never changed or removed.</p>
+        <p className="max-w-3xl text-ink-soft">
+          Every change to the site&apos;s records, newest first, with the values before and after. Entries are never
+          changed or removed.
+        </p>
         <form className="sheet flex flex-wrap items-end gap-3" method="get">
           <div>
-            <label className="label" htmlFor="recordType">Kind of record</label>
+            <label className="label" htmlFor="recordType">
+              Kind of record
+            </label>
             <select id="recordType" name="recordType" className="field" defaultValue={filter.recordType ?? ""}>
               <option value="">Any</option>
-              {recordTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+              {recordTypes.map((t) => (
+                <option key={t} value={t}>
+                  {t}
+                </option>
+              ))}
             </select>
           </div>
           <div>
-            <label className="label" htmlFor="recordId">Record id</label>
+            <label className="label" htmlFor="recordId">
+              Record id
+            </label>
             <input id="recordId" name="recordId" className="field font-mono" defaultValue={filter.recordId ?? ""} />
           </div>
           <div>
-            <label className="label" htmlFor="actorId">Person</label>
+            <label className="label" htmlFor="actorId">
+              Person
+            </label>
             <select id="actorId" name="actorId" className="field" defaultValue={filter.actorId ?? ""}>
               <option value="">Anyone</option>
-              {members.map((m) => <option key={m.userId} value={m.userId}>{m.name}</option>)}
+              {members.map((m) => (
+                <option key={m.userId} value={m.userId}>
+                  {m.name}
+                </option>
+              ))}
             </select>
           </div>
-          <button className="btn-primary" type="submit">Show</button>
-          <Link className="btn" href={`/sites/${siteId}/audit`}>Clear</Link>
+          <button className="btn-primary" type="submit">
+            Show
+          </button>
+          <Link className="btn" href={`/sites/${siteId}/audit`}>
+            Clear
+          </Link>
         </form>
-        {!parsed.success && <p className="field-error" role="alert">Those filters are not valid; showing everything.</p>}
+        {!parsed.success && (
+          <p className="field-error" role="alert">
+            Those filters are not valid; showing everything.
+          </p>
+        )}
         <table className="ledger">
-          <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>Record</th><th>Change</th></tr></thead>
+          <thead>
+            <tr>
+              <th>When (UTC)</th>
+              <th>Who</th>
+              <th>What</th>
+              <th>Record</th>
+              <th>Change</th>
+            </tr>
+          </thead>
           <tbody>
             {entries.map((e) => {
               const href = recordHref(siteId, e.recordType, e.recordId);
@@ -66,19 +116,40 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
                 <tr key={e.id}>
                   <td className="num whitespace-nowrap">{formatWhen(e.at, locale)}</td>
                   <td>{e.actor ?? "system"}</td>
-                  <td>{e.action}{e.reason && <p className="italic">Reason: {e.reason}</p>}</td>
                   <td>
-                    {href ? <Link className="underline" href={href}>{label}</Link> : label}{" "}
-                    <Link className="text-xs text-ink-faint underline" href={`/sites/${siteId}/audit?recordType=${e.recordType}&recordId=${e.recordId}`} title="Only this record">only this</Link>
+                    {e.action}
+                    {e.reason && <p className="italic">Reason: {e.reason}</p>}
                   </td>
-                  <td><AuditChanges action={e.action} before={e.before} after={e.after} /></td>
+                  <td>
+                    {href ? (
+                      <Link className="underline" href={href}>
+                        {label}
+                      </Link>
+                    ) : (
+                      label
+                    )}{" "}
+                    <Link
+                      className="text-xs text-ink-faint underline"
+                      href={`/sites/${siteId}/audit?recordType=${e.recordType}&recordId=${e.recordId}`}
+                      title="Only this record"
+                    >
+                      only this
+                    </Link>
+                  </td>
+                  <td>
+                    <AuditChanges action={e.action} before={e.before} after={e.after} />
+                  </td>
                 </tr>
               );
             })}
           </tbody>
         </table>
         {entries.length === 0 && <p className="text-ink-soft">No entries match.</p>}
-        {entries.length === filter.limit && <p className="text-sm text-ink-soft">Showing the newest {filter.limit}; narrow the filters to see older ones.</p>}
+        {entries.length === filter.limit && (
+          <p className="text-sm text-ink-soft">
+            Showing the newest {filter.limit}; narrow the filters to see older ones.
+          </p>
+        )}
       </main>
     </>
   );

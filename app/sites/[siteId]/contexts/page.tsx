@@ -3,7 +3,13 @@ import { SiteNav } from "@/components/site-nav";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
 
-export default async function ContextsPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<{ trench?: string }> }) {
+export default async function ContextsPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ siteId: string }>;
+  searchParams: Promise<{ trench?: string }>;
+}) {
   const { siteId } = await params;
   const { trench } = await searchParams;
   const { actor, read } = await pageSiteActor(siteId);
@@ -20,36 +26,75 @@ export default async function ContextsPage({ params, searchParams }: { params: P
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
         <div className="flex flex-wrap items-end gap-3">
           <h1 className="mr-auto text-3xl font-bold">Context sheets</h1>
-          <Link className="btn" href={`${base}/matrix${chosen ? `?trench=${chosen.id}` : ""}`}>Harris matrix</Link>
-          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=csv`} download>Contexts CSV</a>
-          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson${coords}`} download>Extents GeoJSON</a>
-          <a className="btn" href={`/api/sites/${siteId}/export/trenches?${coords.slice(1)}`} download>Trench outlines GeoJSON</a>
-          {canRecord && <Link className="btn-primary" href={`${base}/new`}>Open a new sheet</Link>}
+          <Link className="btn" href={`${base}/matrix${chosen ? `?trench=${chosen.id}` : ""}`}>
+            Harris matrix
+          </Link>
+          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=csv`} download>
+            Contexts CSV
+          </a>
+          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson${coords}`} download>
+            Extents GeoJSON
+          </a>
+          <a className="btn" href={`/api/sites/${siteId}/export/trenches?${coords.slice(1)}`} download>
+            Trench outlines GeoJSON
+          </a>
+          {canRecord && (
+            <Link className="btn-primary" href={`${base}/new`}>
+              Open a new sheet
+            </Link>
+          )}
         </div>
         <nav aria-label="Trenches" className="flex flex-wrap gap-2">
-          <Link className={`btn ${!chosen ? "bg-ink text-paper hover:bg-ink" : ""}`} href={base}>All trenches</Link>
+          <Link className={`btn ${!chosen ? "bg-ink text-paper hover:bg-ink" : ""}`} href={base}>
+            All trenches
+          </Link>
           {trenches.map((t) => (
-            <Link key={t.id} className={`btn ${chosen?.id === t.id ? "bg-ink text-paper hover:bg-ink" : ""}`} href={`${base}?trench=${t.id}`}>Trench {t.code}</Link>
+            <Link
+              key={t.id}
+              className={`btn ${chosen?.id === t.id ? "bg-ink text-paper hover:bg-ink" : ""}`}
+              href={`${base}?trench=${t.id}`}
+            >
+              Trench {t.code}
+            </Link>
           ))}
         </nav>
         <table className="ledger sheet">
           <thead>
-            <tr><th className="num">Context</th><th>Trench</th><th>Type</th><th>State</th><th className="num">Finds</th><th>Description</th></tr>
+            <tr>
+              <th className="num">Context</th>
+              <th>Trench</th>
+              <th>Type</th>
+              <th>State</th>
+              <th className="num">Finds</th>
+              <th>Description</th>
+            </tr>
           </thead>
           <tbody>
             {rows.map((c) => (
               <tr key={c.id}>
-                <td className="num"><Link className="inline-flex min-h-11 items-center font-bold underline" href={`${base}/${c.id}`}>{c.number}</Link></td>
+                <td className="num">
+                  <Link className="inline-flex min-h-11 items-center font-bold underline" href={`${base}/${c.id}`}>
+                    {c.number}
+                  </Link>
+                </td>
                 <td>{c.trenchCode}</td>
                 <td>{c.type}</td>
-                <td><StateBadge state={c.state} /></td>
-                <td className="num"><Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}>{c.finds}</Link></td>
+                <td>
+                  <StateBadge state={c.state} />
+                </td>
+                <td className="num">
+                  <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}>
+                    {c.finds}
+                  </Link>
+                </td>
                 <td className="max-w-md truncate text-ink-soft">{c.description}</td>
               </tr>
             ))}
           </tbody>
         </table>
-        {rows.length === 0 && <p className="text-ink-soft">No context sheets yet{chosen ? ` in trench ${chosen.code}` : ""}.</p>}
+        {rows.length === 0 && (
+          <p className="text-ink-soft">No context sheets yet{chosen ? ` in trench ${chosen.code}` : ""}.</p>
+        )}
       </main>
     </>
   );

@@ -6,7 +6,12 @@ import { pageSiteActor } from "@/lib/server/page-access";
 export default async function FindsRegisterPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const [trenches, contexts, classes, members] = await Promise.all([read.trenches(), read.contexts(), read.classes(), read.members()]);
+  const [trenches, contexts, classes, members] = await Promise.all([
+    read.trenches(),
+    read.contexts(),
+    read.classes(),
+    read.members(),
+  ]);
   const options = {
     trenches: trenches.map((t) => ({ id: t.id, code: t.code })),
     contexts: contexts.map((c) => ({ id: c.id, number: c.number })),
@@ -19,7 +24,12 @@ export default async function FindsRegisterPage({ params }: { params: Promise<{ 
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
         <h1 className="text-3xl font-bold">Finds register</h1>
         <Suspense fallback={<p>Reading the register…</p>}>
-          <FindsRegister siteId={siteId} options={options} canImport={actor.role !== "specialist"} hasCrs={!!actor.site.crs?.trim()} />
+          <FindsRegister
+            siteId={siteId}
+            options={options}
+            canImport={actor.role !== "specialist"}
+            hasCrs={!!actor.site.crs?.trim()}
+          />
         </Suspense>
       </main>
     </>

@@ -20,17 +20,30 @@ const measures = [
 ] as const;
 
 /** Bag labels for finds and samples, on the A4 sheet the user picks; printed from the browser as shown. */
-export default async function LabelsPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<Search> }) {
+export default async function LabelsPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ siteId: string }>;
+  searchParams: Promise<Search>;
+}) {
   const { siteId } = await params;
-  const search = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== ""));
+  const search = Object.fromEntries(
+    Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== ""),
+  );
   const { actor, read } = await pageSiteActor(siteId);
   const layoutParsed = layoutQuery.safeParse(search);
   const selectionParsed = labelSelection.safeParse(search);
-  const problems = [...(layoutParsed.error?.issues ?? []), ...(selectionParsed.error?.issues ?? [])].map((i) => `${i.path.join(".")}: ${i.message}`);
+  const problems = [...(layoutParsed.error?.issues ?? []), ...(selectionParsed.error?.issues ?? [])].map(
+    (i) => `${i.path.join(".")}: ${i.message}`,
+  );
   const layout = layoutParsed.success ? layoutParsed.data.layout : layoutQuery.parse({}).layout;
   const preset = layoutParsed.success ? layoutParsed.data.preset : "21";
   const selection = selectionParsed.success ? selectionParsed.data : null;
-  const [contexts, labels] = await Promise.all([read.contexts(), selection && problems.length === 0 ? read.labels(selection) : Promise.resolve(null)]);
+  const [contexts, labels] = await Promise.all([
+    read.contexts(),
+    selection && problems.length === 0 ? read.labels(selection) : Promise.resolve(null),
+  ]);
   const sheets = labels ? Math.ceil(labels.items.length / perSheet(layout)) : 0;
   return (
     <>
@@ -41,57 +54,114 @@ export default async function LabelsPage({ params, searchParams }: { params: Pro
           <form method="get" className="sheet space-y-3" aria-label="Labels to print">
             <div className="grid gap-3 sm:grid-cols-4">
               <div>
-                <label className="label" htmlFor="lb-kind">Records</label>
+                <label className="label" htmlFor="lb-kind">
+                  Records
+                </label>
                 <select id="lb-kind" name="kind" className="field" defaultValue={search.kind ?? "finds"}>
                   <option value="finds">Finds</option>
                   <option value="samples">Samples</option>
                 </select>
               </div>
               <div>
-                <label className="label" htmlFor="lb-context">Context</label>
+                <label className="label" htmlFor="lb-context">
+                  Context
+                </label>
                 <select id="lb-context" name="contextId" className="field num" defaultValue={search.contextId ?? ""}>
                   <option value="">Any</option>
-                  {contexts.map((c) => <option key={c.id} value={c.id}>{c.number}</option>)}
+                  {contexts.map((c) => (
+                    <option key={c.id} value={c.id}>
+                      {c.number}
+                    </option>
+                  ))}
                 </select>
               </div>
               <div>
-                <label className="label" htmlFor="lb-from">From number</label>
-                <input id="lb-from" name="fromNumber" className="field num" inputMode="numeric" defaultValue={search.fromNumber ?? ""} />
+                <label className="label" htmlFor="lb-from">
+                  From number
+                </label>
+                <input
+                  id="lb-from"
+                  name="fromNumber"
+                  className="field num"
+                  inputMode="numeric"
+                  defaultValue={search.fromNumber ?? ""}
+                />
               </div>
               <div>
-                <label className="label" htmlFor="lb-to">To number</label>
-                <input id="lb-to" name="toNumber" className="field num" inputMode="numeric" defaultValue={search.toNumber ?? ""} />
+                <label className="label" htmlFor="lb-to">
+                  To number
+                </label>
+                <input
+                  id="lb-to"
+                  name="toNumber"
+                  className="field num"
+                  inputMode="numeric"
+                  defaultValue={search.toNumber ?? ""}
+                />
               </div>
             </div>
             {search.ids && <input type="hidden" name="ids" value={search.ids} />}
             <div>
-              <label className="label" htmlFor="lb-preset">Sheet of labels</label>
+              <label className="label" htmlFor="lb-preset">
+                Sheet of labels
+              </label>
               <select id="lb-preset" name="preset" className="field" defaultValue={preset}>
-                {presetKeys.map((k) => <option key={k} value={k}>{labelPresets[k].name}</option>)}
+                {presetKeys.map((k) => (
+                  <option key={k} value={k}>
+                    {labelPresets[k].name}
+                  </option>
+                ))}
               </select>
             </div>
             <details open={measures.some(([k]) => search[k] !== undefined)}>
-              <summary className="cursor-pointer font-semibold">Another layout: columns, rows, label size, margins</summary>
+              <summary className="cursor-pointer font-semibold">
+                Another layout: columns, rows, label size, margins
+              </summary>
               <div className="mt-2 grid gap-3 sm:grid-cols-4">
                 {measures.map(([name, label, step]) => (
                   <div key={name}>
-                    <label className="label" htmlFor={`lb-${name}`}>{label}</label>
-                    <input id={`lb-${name}`} name={name} className="field num" type="number" step={step} placeholder={String(layout[name])} defaultValue={search[name] ?? ""} />
+                    <label className="label" htmlFor={`lb-${name}`}>
+                      {label}
+                    </label>
+                    <input
+                      id={`lb-${name}`}
+                      name={name}
+                      className="field num"
+                      type="number"
+                      step={step}
+                      placeholder={String(layout[name])}
+                      defaultValue={search[name] ?? ""}
+                    />
                   </div>
                 ))}
               </div>
             </details>
             <div className="flex flex-wrap items-center gap-3">
-              <button type="submit" className="btn">Show the labels</button>
-              {labels && labels.items.length > 0 && <PrintButton label={`Print ${labels.items.length} labels (${sheets} ${sheets === 1 ? "sheet" : "sheets"})`} />}
+              <button type="submit" className="btn">
+                Show the labels
+              </button>
+              {labels && labels.items.length > 0 && (
+                <PrintButton
+                  label={`Print ${labels.items.length} labels (${sheets} ${sheets === 1 ? "sheet" : "sheets"})`}
+                />
+              )}
             </div>
-            <p className="field-error" role="alert">{problems.join(" · ")}</p>
+            <p className="field-error" role="alert">
+              {problems.join(" · ")}
+            </p>
           </form>
-          {labels?.truncated && <p className="sheet text-warn">Only the first {MAX_LABELS} labels are shown; narrow the numbers to print the rest.</p>}
-          {labels && labels.items.length === 0 && <p className="sheet">No {search.kind === "samples" ? "samples" : "finds"} match.</p>}
+          {labels?.truncated && (
+            <p className="sheet text-warn">
+              Only the first {MAX_LABELS} labels are shown; narrow the numbers to print the rest.
+            </p>
+          )}
+          {labels && labels.items.length === 0 && (
+            <p className="sheet">No {search.kind === "samples" ? "samples" : "finds"} match.</p>
+          )}
           <p className="text-sm text-ink-soft">
-            Print at 100 % (no “fit to page”). Each code holds {actor.site.labelAddress ? `the site's address, ${actor.site.labelAddress}, then` : ""} the site code, the kind and the
-            number, so it still names the record if the server moves.
+            Print at 100 % (no “fit to page”). Each code holds{" "}
+            {actor.site.labelAddress ? `the site's address, ${actor.site.labelAddress}, then` : ""} the site code, the
+            kind and the number, so it still names the record if the server moves.
           </p>
         </div>
         {labels && <LabelSheets items={labels.items} layout={layout} siteCode={actor.site.code} />}

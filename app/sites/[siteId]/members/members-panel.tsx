@@ -11,14 +11,28 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
   const key = ["members", siteId];
   const members = useQuery({ queryKey: key, queryFn: () => apiClient.call("membersList", { siteId }) });
   const done = () => qc.invalidateQueries({ queryKey: key });
-  const change = useMutation({ mutationFn: (m: Pick<Member, "userId" | "role">) => apiClient.call("memberUpdate", { siteId, userId: m.userId }, { role: m.role }), onSuccess: done });
-  const remove = useMutation({ mutationFn: (userId: string) => apiClient.call("memberRemove", { siteId, userId }), onSuccess: done });
+  const change = useMutation({
+    mutationFn: (m: Pick<Member, "userId" | "role">) =>
+      apiClient.call("memberUpdate", { siteId, userId: m.userId }, { role: m.role }),
+    onSuccess: done,
+  });
+  const remove = useMutation({
+    mutationFn: (userId: string) => apiClient.call("memberRemove", { siteId, userId }),
+    onSuccess: done,
+  });
   const failure = change.error ?? remove.error;
 
   return (
     <div className="space-y-4">
       <table className="ledger">
-        <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{canManage && <th />}</tr></thead>
+        <thead>
+          <tr>
+            <th>Name</th>
+            <th>E-mail</th>
+            <th>Role</th>
+            {canManage && <th />}
+          </tr>
+        </thead>
         <tbody>
           {members.data?.map((m) => (
             <tr key={m.userId}>
@@ -26,20 +40,39 @@ export function MembersPanel({ siteId, canManage, selfId }: { siteId: string; ca
               <td className="font-mono text-xs">{m.email}</td>
               <td>
                 {canManage ? (
-                  <select aria-label={`Role of ${m.name}`} className="field max-w-40" value={m.role} onChange={(e) => change.mutate({ userId: m.userId, role: roleSchema.parse(e.target.value) })}>
-                    {roles.map((r) => <option key={r} value={r}>{r}</option>)}
+                  <select
+                    aria-label={`Role of ${m.name}`}
+                    className="field max-w-40"
+                    value={m.role}
+                    onChange={(e) => change.mutate({ userId: m.userId, role: roleSchema.parse(e.target.value) })}
+                  >
+                    {roles.map((r) => (
+                      <option key={r} value={r}>
+                        {r}
+                      </option>
+                    ))}
                   </select>
-                ) : m.role}
+                ) : (
+                  m.role
+                )}
               </td>
               {canManage && (
-                <td>{m.userId !== selfId && <button className="btn" onClick={() => remove.mutate(m.userId)}>Take off site</button>}</td>
+                <td>
+                  {m.userId !== selfId && (
+                    <button className="btn" onClick={() => remove.mutate(m.userId)}>
+                      Take off site
+                    </button>
+                  )}
+                </td>
               )}
             </tr>
           ))}
         </tbody>
       </table>
       {members.isLoading && <p>Loading members…</p>}
-      <p className="field-error" role="alert" aria-live="polite">{failure?.message}</p>
+      <p className="field-error" role="alert" aria-live="polite">
+        {failure?.message}
+      </p>
     </div>
   );
 }

@@ -15,10 +15,19 @@ export default async function PatternsPage({ params }: { params: Promise<{ siteI
       <main className="mx-auto max-w-[1600px] space-y-4 px-4 py-6">
         <div>
           <h1 className="text-3xl font-bold">Patterns</h1>
-          <p className="max-w-3xl text-ink-soft">Is a class of finds clustered, evenly spread or scattered at random inside its trench, and do two classes go together? Tests run in the trench&apos;s own outline, holes included.</p>
+          <p className="max-w-3xl text-ink-soft">
+            Is a class of finds clustered, evenly spread or scattered at random inside its trench, and do two classes go
+            together? Tests run in the trench&apos;s own outline, holes included.
+          </p>
         </div>
         <Suspense fallback={<p>Loading the workspace…</p>}>
-          <PatternsWorkspace siteId={siteId} canRun={actor.role === "specialist" || actor.role === "director"} trenches={choices.trenches} contexts={choices.contexts} classes={choices.classes} />
+          <PatternsWorkspace
+            siteId={siteId}
+            canRun={actor.role === "specialist" || actor.role === "director"}
+            trenches={choices.trenches}
+            contexts={choices.contexts}
+            classes={choices.classes}
+          />
         </Suspense>
       </main>
     </>

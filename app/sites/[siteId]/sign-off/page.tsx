@@ -10,7 +10,6 @@ import { formatWhen } from "@/lib/words/when";
 
 export const metadata: Metadata = { title: "Sign-off" };
 
-
 export default async function SignOffPage({ params }: { params: Promise<{ siteId: string }> }) {
   const locale = await requestLocale();
   const stamp = (d: Date | null) => (d ? formatWhen(d, locale) : "—");
@@ -19,7 +18,11 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
   const queue = await read.signOffQueue();
   const director = actor.role === "director";
   const groups = [
-    { key: "awaiting", title: director ? "Awaiting your sign-off" : "Awaiting sign-off", rows: queue.contexts.filter((c) => c.state === "awaiting") },
+    {
+      key: "awaiting",
+      title: director ? "Awaiting your sign-off" : "Awaiting sign-off",
+      rows: queue.contexts.filter((c) => c.state === "awaiting"),
+    },
     { key: "open", title: "Open sheets", rows: queue.contexts.filter((c) => c.state === "open") },
     { key: "signed_off", title: "Signed off", rows: queue.contexts.filter((c) => c.state === "signed_off") },
   ];
@@ -38,7 +41,9 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
           </p>
         </div>
         <section aria-labelledby="trenches-h" className="sheet">
-          <h2 id="trenches-h" className="text-lg font-bold">Trenches</h2>
+          <h2 id="trenches-h" className="text-lg font-bold">
+            Trenches
+          </h2>
           <ul className="mt-2 flex flex-wrap gap-3">
             {queue.trenches.map((t) => {
               const cs = queue.contexts.filter((c) => c.trenchId === t.id);
@@ -46,49 +51,124 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
               return (
                 <li key={t.id} className="rounded border border-paper-edge px-3 py-2">
                   <p className="font-bold">Trench {t.code}</p>
-                  <p className="text-sm"><span className="num">{done}/{cs.length}</span> contexts signed off</p>
-                  {t.signedOffAt ? <p className="text-sm font-semibold text-ok">Signed off by {t.signedOffBy} · <span className="num">{stamp(t.signedOffAt)}</span></p> : <p className="text-sm text-ink-soft">Not signed off</p>}
-                  <Link className="mt-1 inline-flex min-h-11 items-center underline" href={`/sites/${siteId}/reports/${t.id}`}>Trench record report</Link>
+                  <p className="text-sm">
+                    <span className="num">
+                      {done}/{cs.length}
+                    </span>{" "}
+                    contexts signed off
+                  </p>
+                  {t.signedOffAt ? (
+                    <p className="text-sm font-semibold text-ok">
+                      Signed off by {t.signedOffBy} · <span className="num">{stamp(t.signedOffAt)}</span>
+                    </p>
+                  ) : (
+                    <p className="text-sm text-ink-soft">Not signed off</p>
+                  )}
+                  <Link
+                    className="mt-1 inline-flex min-h-11 items-center underline"
+                    href={`/sites/${siteId}/reports/${t.id}`}
+                  >
+                    Trench record report
+                  </Link>
                 </li>
               );
             })}
           </ul>
         </section>
         <SignOffNoticeProvider>
-        {groups.map((g) => (
-          <section key={g.key} aria-labelledby={`${g.key}-h`}>
-            <h2 id={`${g.key}-h`} className="text-xl font-bold">{g.title} <span className="num text-base text-ink-soft">({g.rows.length})</span></h2>
-            {g.rows.length === 0 ? (
-              <p className="mt-1 text-ink-soft">None.</p>
-            ) : (
-              <table className="ledger mt-2">
-                <thead>
-                  <tr><th>Context</th><th>Trench</th><th>State</th><th className="num">Finds</th><th>Submitted</th><th>Signed off</th><th>Sheet check</th><th>Actions</th></tr>
-                </thead>
-                <tbody>
-                  {g.rows.map((c) => (
-                    <tr key={c.id} data-context={c.number}>
-                      <td><Link className="num font-semibold underline" href={`/sites/${siteId}/contexts/${c.id}`}>{c.number}</Link> <span className="text-ink-soft">{c.type}</span></td>
-                      <td>{c.trenchCode}</td>
-                      <td><StateBadge state={c.state} /></td>
-                      <td className="num">{c.finds}</td>
-                      <td className="text-xs">{c.submittedBy ? <>{c.submittedBy}<br /><span className="num">{stamp(c.submittedAt)}</span></> : "—"}</td>
-                      <td className="text-xs">{c.signedOffBy ? <>{c.signedOffBy}<br /><span className="num">{stamp(c.signedOffAt)}</span></> : "—"}</td>
-                      <td className="max-w-xs text-xs">
-                        {c.state === "signed_off" ? "Locked" : c.problems.length === 0 ? <span className="font-semibold text-ok">Complete</span> : (
-                          <ul className="list-disc pl-4 text-warn">{c.problems.map((p, i) => <li key={i}>{p.message}</li>)}</ul>
-                        )}
-                      </td>
-                      <td><SignOffActions siteId={siteId} contextId={c.id} number={c.number} state={c.state} role={actor.role} ready={c.problems.length === 0} /></td>
+          {groups.map((g) => (
+            <section key={g.key} aria-labelledby={`${g.key}-h`}>
+              <h2 id={`${g.key}-h`} className="text-xl font-bold">
+                {g.title} <span className="num text-base text-ink-soft">({g.rows.length})</span>
+              </h2>
+              {g.rows.length === 0 ? (
+                <p className="mt-1 text-ink-soft">None.</p>
+              ) : (
+                <table className="ledger mt-2">
+                  <thead>
+                    <tr>
+                      <th>Context</th>
+                      <th>Trench</th>
+                      <th>State</th>
+                      <th className="num">Finds</th>
+                      <th>Submitted</th>
+                      <th>Signed off</th>
+                      <th>Sheet check</th>
+                      <th>Actions</th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
-          </section>
-        ))}
+                  </thead>
+                  <tbody>
+                    {g.rows.map((c) => (
+                      <tr key={c.id} data-context={c.number}>
+                        <td>
+                          <Link className="num font-semibold underline" href={`/sites/${siteId}/contexts/${c.id}`}>
+                            {c.number}
+                          </Link>{" "}
+                          <span className="text-ink-soft">{c.type}</span>
+                        </td>
+                        <td>{c.trenchCode}</td>
+                        <td>
+                          <StateBadge state={c.state} />
+                        </td>
+                        <td className="num">{c.finds}</td>
+                        <td className="text-xs">
+                          {c.submittedBy ? (
+                            <>
+                              {c.submittedBy}
+                              <br />
+                              <span className="num">{stamp(c.submittedAt)}</span>
+                            </>
+                          ) : (
+                            "—"
+                          )}
+                        </td>
+                        <td className="text-xs">
+                          {c.signedOffBy ? (
+                            <>
+                              {c.signedOffBy}
+                              <br />
+                              <span className="num">{stamp(c.signedOffAt)}</span>
+                            </>
+                          ) : (
+                            "—"
+                          )}
+                        </td>
+                        <td className="max-w-xs text-xs">
+                          {c.state === "signed_off" ? (
+                            "Locked"
+                          ) : c.problems.length === 0 ? (
+                            <span className="font-semibold text-ok">Complete</span>
+                          ) : (
+                            <ul className="list-disc pl-4 text-warn">
+                              {c.problems.map((p, i) => (
+                                <li key={i}>{p.message}</li>
+                              ))}
+                            </ul>
+                          )}
+                        </td>
+                        <td>
+                          <SignOffActions
+                            siteId={siteId}
+                            contextId={c.id}
+                            number={c.number}
+                            state={c.state}
+                            role={actor.role}
+                            ready={c.problems.length === 0}
+                          />
+                        </td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              )}
+            </section>
+          ))}
         </SignOffNoticeProvider>
-        <p><Link className="underline" href={`/sites/${siteId}/audit`}>Record trail of the whole site</Link></p>
+        <p>
+          <Link className="underline" href={`/sites/${siteId}/audit`}>
+            Record trail of the whole site
+          </Link>
+        </p>
       </main>
     </>
   );

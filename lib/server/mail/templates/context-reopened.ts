@@ -19,9 +19,13 @@ export function contextReopenedMail(m: ContextReopenedMail): MailContent {
   const first = (m.reason.split("\n")[0] ?? "").trim();
   const gist = first.length > 60 ? `${first.slice(0, 59).trimEnd()}…` : first;
   return compose(`${m.siteCode}: context ${m.contextNumber} ${verb} — ${gist}`, "Hello,", [
-    { p: `${m.reopenedBy} ${verb} the ${what} ${m.contextNumber} (trench ${m.trenchCode}) on ${mailDate(m.at)}, giving this reason:` },
+    {
+      p: `${m.reopenedBy} ${verb} the ${what} ${m.contextNumber} (trench ${m.trenchCode}) on ${mailDate(m.at)}, giving this reason:`,
+    },
     { quote: m.reason },
-    { p: "The sheet, its finds and its relations can be changed again until it is submitted and signed off once more." },
+    {
+      p: "The sheet, its finds and its relations can be changed again until it is submitted and signed off once more.",
+    },
     { link: m.link, label: "Open the context sheet" },
   ]);
 }

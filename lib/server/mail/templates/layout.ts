@@ -24,10 +24,14 @@ export function compose(subject: string, greeting: string, blocks: Block[]): Mai
       html.push(`<p style="margin:0 0 12px">${escapeHtml(b.p)}</p>`);
     } else if ("quote" in b) {
       text.push(...b.quote.split("\n").map((l) => `> ${l}`), "");
-      html.push(`<blockquote style="margin:0 0 12px;padding:4px 12px;border-left:4px solid #8a7660;white-space:pre-wrap">${escapeHtml(b.quote)}</blockquote>`);
+      html.push(
+        `<blockquote style="margin:0 0 12px;padding:4px 12px;border-left:4px solid #8a7660;white-space:pre-wrap">${escapeHtml(b.quote)}</blockquote>`,
+      );
     } else {
       text.push(`${b.label}: ${b.link}`, "");
-      html.push(`<p style="margin:0 0 12px"><a href="${escapeHtml(b.link)}" style="color:#1d5c8c;font-weight:bold">${escapeHtml(b.label)}</a><br><span style="font-family:monospace;font-size:12px;color:#5a4632">${escapeHtml(b.link)}</span></p>`);
+      html.push(
+        `<p style="margin:0 0 12px"><a href="${escapeHtml(b.link)}" style="color:#1d5c8c;font-weight:bold">${escapeHtml(b.label)}</a><br><span style="font-family:monospace;font-size:12px;color:#5a4632">${escapeHtml(b.link)}</span></p>`,
+      );
     }
   }
   text.push("— Loamwork");

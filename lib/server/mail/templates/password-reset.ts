@@ -7,6 +7,8 @@ export function passwordResetMail(m: PasswordResetMail): MailContent {
   return compose("Choose a new Loamwork password", `Hello ${m.name},`, [
     { p: "Someone asked to reset the password of your Loamwork account." },
     { link: m.link, label: "Choose a new password" },
-    { p: `The link works once and expires on ${mailDate(m.expiresAt)}. If you did not ask, ignore this message: your password stays as it is.` },
+    {
+      p: `The link works once and expires on ${mailDate(m.expiresAt)}. If you did not ask, ignore this message: your password stays as it is.`,
+    },
   ]);
 }

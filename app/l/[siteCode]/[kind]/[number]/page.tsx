@@ -7,7 +7,11 @@ import { pageUser } from "@/lib/server/page-access";
  * Where a label's code leads (lib/labels/code.ts): the find or sample page, for a member of its site. A phone
  * camera opens this address directly when the site's address is printed in front of the code.
  */
-export default async function LabelPage({ params }: { params: Promise<{ siteCode: string; kind: string; number: string }> }) {
+export default async function LabelPage({
+  params,
+}: {
+  params: Promise<{ siteCode: string; kind: string; number: string }>;
+}) {
   const { siteCode, kind, number } = await params;
   const ref = parseLabelCode(`LW/${decodeURIComponent(siteCode)}/${kind}/${number}`);
   if (!ref) notFound();

@@ -3,7 +3,13 @@ import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
 
-export default async function NewContextPage({ params, searchParams }: { params: Promise<{ siteId: string }>; searchParams: Promise<{ trench?: string }> }) {
+export default async function NewContextPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ siteId: string }>;
+  searchParams: Promise<{ trench?: string }>;
+}) {
   const { siteId } = await params;
   const { trench } = await searchParams;
   const { actor, read } = await pageSiteActor(siteId);
@@ -13,7 +19,11 @@ export default async function NewContextPage({ params, searchParams }: { params:
     <>
       <SiteNav siteId={siteId} role={actor.role} current={base} />
       <main className="mx-auto max-w-4xl space-y-4 px-4 py-6">
-        <p><Link className="underline" href={base}>← Context sheets</Link></p>
+        <p>
+          <Link className="underline" href={base}>
+            ← Context sheets
+          </Link>
+        </p>
         <h1 className="text-3xl font-bold">New context sheet</h1>
         {actor.role === "specialist" ? (
           <p className="sheet">A finds specialist reads context sheets; diggers and directors open them.</p>

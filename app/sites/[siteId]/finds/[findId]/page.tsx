@@ -23,7 +23,10 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
   const cls = classes.find((c) => c.id === f.classId);
   const signed = ctx.state === "signed_off";
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
-  const [names, trail] = await Promise.all([read.userNames([lockerId]), read.audit({ recordType: "find", recordId: f.id })]);
+  const [names, trail] = await Promise.all([
+    read.userNames([lockerId]),
+    read.audit({ recordType: "find", recordId: f.id }),
+  ]);
   const writable = isContextWritable(ctx);
   // A signed-off find reads its class as it stood at sign-off; a later rename or flag is said, not silently shown.
   const asSigned = signed && ctx.signedOffAt && cls ? await read.classesAsSignedOff(ctx.signedOffAt, [cls]) : null;
@@ -32,35 +35,77 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/finds`} />
       <main className="mx-auto max-w-4xl space-y-4 px-4 py-6">
-        <p><Link className="underline" href={`/sites/${siteId}/finds`}>← Finds register</Link></p>
+        <p>
+          <Link className="underline" href={`/sites/${siteId}/finds`}>
+            ← Finds register
+          </Link>
+        </p>
         <div className="flex flex-wrap items-baseline gap-3">
-          <h1 className="text-3xl font-bold">Find <span className="num">{f.number}</span></h1>
-          <span className="text-xl text-ink-soft">{face?.code} · {face?.label}</span>
-          {f.stationPoint && <span className="text-ink-soft">station point <span className="num">{f.stationPoint}</span></span>}
-          <Link className="btn ml-auto" href={`/sites/${siteId}/trenches/${f.trenchId}?find=${f.id}`}>See it on the plan</Link>
-          <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>Context {ctx.number}</Link>
+          <h1 className="text-3xl font-bold">
+            Find <span className="num">{f.number}</span>
+          </h1>
+          <span className="text-xl text-ink-soft">
+            {face?.code} · {face?.label}
+          </span>
+          {f.stationPoint && (
+            <span className="text-ink-soft">
+              station point <span className="num">{f.stationPoint}</span>
+            </span>
+          )}
+          <Link className="btn ml-auto" href={`/sites/${siteId}/trenches/${f.trenchId}?find=${f.id}`}>
+            See it on the plan
+          </Link>
+          <Link className="btn" href={`/sites/${siteId}/contexts/${ctx.id}`}>
+            Context {ctx.number}
+          </Link>
         </div>
         {cls?.humanRemains && <HumanRemainsBanner count={1} />}
         {asSigned && asSigned.notes.length > 0 && (
           <ul className="sheet list-disc pl-8 text-sm text-warn" aria-label="Class changes after sign-off">
-            {asSigned.notes.map((n) => <li key={n}>{n}</li>)}
+            {asSigned.notes.map((n) => (
+              <li key={n}>{n}</li>
+            ))}
           </ul>
         )}
-        <LockNotice state={ctx.state} number={ctx.number} who={(lockerId ? names.get(lockerId) : undefined) ?? null} at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt, locale)} />
+        <LockNotice
+          state={ctx.state}
+          number={ctx.number}
+          who={(lockerId ? names.get(lockerId) : undefined) ?? null}
+          at={formatStamp(signed ? ctx.signedOffAt : ctx.submittedAt, locale)}
+        />
         {writable ? (
           <FindEditForm
             siteId={siteId}
             findId={f.id}
-            initial={{ contextId: f.contextId, classId: f.classId, x: f.x, y: f.y, z: f.z, count: f.count, weightG: f.weightG, description: f.description }}
-            contexts={contexts.filter((c) => isContextWritable(c) || c.id === f.contextId).map((c) => ({ id: c.id, number: c.number }))}
+            initial={{
+              contextId: f.contextId,
+              classId: f.classId,
+              x: f.x,
+              y: f.y,
+              z: f.z,
+              count: f.count,
+              weightG: f.weightG,
+              description: f.description,
+            }}
+            contexts={contexts
+              .filter((c) => isContextWritable(c) || c.id === f.contextId)
+              .map((c) => ({ id: c.id, number: c.number }))}
             classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label }))}
             changeable={changeableFields("find", actor.role)}
           />
         ) : (
           <dl className="sheet grid grid-cols-[10rem_1fr] gap-y-1">
-            <dt className="text-ink-soft">Position (m)</dt><dd className="num">{f.x.toFixed(3)}, {f.y.toFixed(3)}{f.z !== null ? `, ${f.z.toFixed(3)}` : ""}</dd>
-            <dt className="text-ink-soft">Count · weight</dt><dd className="num">{f.count ?? "—"} · {f.weightG ?? "—"} g</dd>
-            <dt className="text-ink-soft">Description</dt><dd>{f.description || "—"}</dd>
+            <dt className="text-ink-soft">Position (m)</dt>
+            <dd className="num">
+              {f.x.toFixed(3)}, {f.y.toFixed(3)}
+              {f.z !== null ? `, ${f.z.toFixed(3)}` : ""}
+            </dd>
+            <dt className="text-ink-soft">Count · weight</dt>
+            <dd className="num">
+              {f.count ?? "—"} · {f.weightG ?? "—"} g
+            </dd>
+            <dt className="text-ink-soft">Description</dt>
+            <dd>{f.description || "—"}</dd>
           </dl>
         )}
         <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} locale={locale} />

@@ -41,9 +41,28 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
         <div className="overflow-hidden rounded border border-paper-edge bg-white/60">
           <PlanLoader
             siteId={siteId}
-            trench={{ id: trench.id, code: trench.code, outline: trench.outline, signedOff: Boolean(trench.signedOffAt) }}
-            classes={classes.map((c) => ({ id: c.id, code: c.code, label: c.label, colour: c.colour, symbol: c.symbol, humanRemains: c.humanRemains }))}
-            contexts={contexts.map((c) => ({ id: c.id, number: c.number, type: c.type, state: c.state, signedOffAt: c.signedOffAt ? c.signedOffAt.toISOString() : null, extent: c.extent ?? null }))}
+            trench={{
+              id: trench.id,
+              code: trench.code,
+              outline: trench.outline,
+              signedOff: Boolean(trench.signedOffAt),
+            }}
+            classes={classes.map((c) => ({
+              id: c.id,
+              code: c.code,
+              label: c.label,
+              colour: c.colour,
+              symbol: c.symbol,
+              humanRemains: c.humanRemains,
+            }))}
+            contexts={contexts.map((c) => ({
+              id: c.id,
+              number: c.number,
+              type: c.type,
+              state: c.state,
+              signedOffAt: c.signedOffAt ? c.signedOffAt.toISOString() : null,
+              extent: c.extent ?? null,
+            }))}
             photos={photos}
             finds={finds}
             canEdit={isRole(actor, recorders)}
@@ -59,8 +78,23 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
           canEdit={isRole(actor, recorders)}
           isDirector={actor.role === "director"}
         />
-        <SectionWorkbench siteId={siteId} trench={{ id: trench.id, code: trench.code }} datumName={actor.site.datumName} finds={sectionFinds} contextLevels={contextLevels}
-          sections={sections.map((s) => ({ id: s.id, name: s.name, startX: s.startX, startY: s.startY, endX: s.endX, endY: s.endY, halfWidth: s.halfWidth, exaggeration: s.exaggeration }))} />
+        <SectionWorkbench
+          siteId={siteId}
+          trench={{ id: trench.id, code: trench.code }}
+          datumName={actor.site.datumName}
+          finds={sectionFinds}
+          contextLevels={contextLevels}
+          sections={sections.map((s) => ({
+            id: s.id,
+            name: s.name,
+            startX: s.startX,
+            startY: s.startY,
+            endX: s.endX,
+            endY: s.endY,
+            halfWidth: s.halfWidth,
+            exaggeration: s.exaggeration,
+          }))}
+        />
       </main>
     </>
   );

@@ -3,5 +3,9 @@ import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
 import { deleteSitePhoto, getPhoto, toPhotoView } from "@/lib/server/photos";
 
-export const GET = guardedRoute(api.photoRead, async (ctx) => toPhotoView(await getPhoto(ctx.db, siteActor(ctx).site.id, ctx.params.photoId)));
-export const DELETE = guardedRoute(api.photoDelete, (ctx) => deleteSitePhoto(ctx.db, siteActor(ctx), ctx.params.photoId));
+export const GET = guardedRoute(api.photoRead, async (ctx) =>
+  toPhotoView(await getPhoto(ctx.db, siteActor(ctx).site.id, ctx.params.photoId)),
+);
+export const DELETE = guardedRoute(api.photoDelete, (ctx) =>
+  deleteSitePhoto(ctx.db, siteActor(ctx), ctx.params.photoId),
+);

@@ -3,5 +3,9 @@ import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
 import { createSpit, listSpits } from "@/lib/server/spits";
 
-export const GET = guardedRoute(api.spitsList, (ctx) => listSpits(ctx.db, siteActor(ctx).site.id, ctx.params.contextId!));
-export const POST = guardedRoute(api.spitsCreate, (ctx) => createSpit(ctx.db, siteActor(ctx), ctx.params.contextId!, ctx.input));
+export const GET = guardedRoute(api.spitsList, (ctx) =>
+  listSpits(ctx.db, siteActor(ctx).site.id, ctx.params.contextId!),
+);
+export const POST = guardedRoute(api.spitsCreate, (ctx) =>
+  createSpit(ctx.db, siteActor(ctx), ctx.params.contextId!, ctx.input),
+);

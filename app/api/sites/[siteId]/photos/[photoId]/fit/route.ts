@@ -3,4 +3,6 @@ import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
 import { fitSitePhoto } from "@/lib/server/photos";
 
-export const POST = guardedRoute(api.photoFit, (ctx) => fitSitePhoto(ctx.db, siteActor(ctx), ctx.params.photoId, ctx.input));
+export const POST = guardedRoute(api.photoFit, (ctx) =>
+  fitSitePhoto(ctx.db, siteActor(ctx), ctx.params.photoId, ctx.input),
+);

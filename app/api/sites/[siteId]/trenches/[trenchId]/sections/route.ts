@@ -9,4 +9,6 @@ export const GET = guardedRoute(api.sectionsList, async (ctx) => {
   const trench = await getTrench(ctx.db, site.id, ctx.params.trenchId);
   return listSections(ctx.db, site.id, trench.id);
 });
-export const POST = guardedRoute(api.sectionsCreate, (ctx) => createSection(ctx.db, siteActor(ctx), ctx.params.trenchId, ctx.input));
+export const POST = guardedRoute(api.sectionsCreate, (ctx) =>
+  createSection(ctx.db, siteActor(ctx), ctx.params.trenchId, ctx.input),
+);
