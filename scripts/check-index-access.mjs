@@ -14,7 +14,6 @@ const CHECKED = ["lib/geometry/", "lib/server/"];
  */
 const PENDING = [
   "lib/server/sign-off.ts",
-  "lib/server/matrix.ts",
   "lib/server/analysis/result-adapter.ts",
   "lib/server/analysis/runs.ts",
   "lib/server/export/geojson.ts",

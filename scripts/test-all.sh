@@ -6,6 +6,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-system.sh
 echo "== lint"; npx eslint --max-warnings 0 .
+echo "== format"; npx prettier --check . > /dev/null || { npx prettier --list-different .; echo "Run npm run format."; exit 1; }
 echo "== types"; npx tsc --noEmit -p .
 echo "== index access"; node scripts/check-index-access.mjs
 echo "== units and integration (PGlite)"; npx vitest run
