@@ -115,6 +115,7 @@ export const fieldLabels: Record<string, string> = {
   zReference: "Levels given as",
   samplesShareFindNumbers: "Samples numbered with finds",
   labelAddress: "Label address",
+  numberBlockSize: "Numbers a device reserves at a time",
   // Patterns
   fun: "Function (K or L)",
   neighbours: "Neighbours",

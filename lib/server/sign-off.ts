@@ -302,9 +302,11 @@ const sheetContent = ({
   signedOffAt: _c,
   signedOffBy: _d,
   updatedAt: _u,
+  version: _v,
   ...rest
 }: Context) => rest;
-const findContent = ({ updatedAt: _u, ...rest }: Find) => rest;
+// The version counts edits (and sign-off); it is bookkeeping, not content.
+const findContent = ({ updatedAt: _u, version: _v, ...rest }: Find) => rest;
 
 /** The records a trench's report shows, in a fixed order, with only the fields that carry content. */
 export async function trenchRecordSet(tx: Db | Tx, trench: Trench) {

@@ -53,7 +53,7 @@ describe("bulk edits of finds: all or nothing", () => {
     );
     expect(res.status).toBe(409);
     expect(res.json.error).toContain(
-      "No find was moved: 1 find stops it. find 2: Context 8801 was signed off by Director on 2026-07-14 09:30 UTC",
+      "No find was moved: 1 find stops it. find 2: Context 8801 was signed off by Director on 14 Jul 2026, 09:30 UTC",
     );
     expect(res.json.details.refused.map((r: { number: number }) => r.number)).toEqual([2]);
     expect(await rows(picked.map((f) => f.id))).toEqual(before);

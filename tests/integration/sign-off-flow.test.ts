@@ -114,7 +114,7 @@ describe("submit → sign off → reopen", () => {
     const [t] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
     expect(t.signedOffBy).toBe(fx.people.director.id);
     await expect(assertTrenchWritable(db, t, "given new contexts")).rejects.toThrow(
-      /^Trench A was signed off by Director on \d{4}-\d\d-\d\d \d\d:\d\d UTC; it cannot be given new contexts/,
+      /^Trench A was signed off by Director on \d{1,2} \w{3} \d{4}, \d\d:\d\d UTC; it cannot be given new contexts/,
     );
     const [signed] = messagesTo(mail.dir, fx.people.digger.email);
     expect(signed.subject).toBe(`${fx.site.code}: context ${fx.context.number} signed off`);
