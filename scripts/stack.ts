@@ -137,7 +137,16 @@ export async function startStack(opts: StackOptions): Promise<Stack> {
   const startApp = async () => {
     const app = spawn(
       process.execPath,
-      [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", listenHost(env), "-p", String(opts.port)],
+      [
+        path.join(root, "node_modules/next/dist/bin/next"),
+        "start",
+        "-H",
+        listenHost(env),
+        "-p",
+        String(opts.port),
+        "--keepAliveTimeout",
+        "65000",
+      ],
       {
         cwd: root,
         env,

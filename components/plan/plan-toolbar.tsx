@@ -110,7 +110,10 @@ export function PlanToolbar({
         disabled={!undoLabel}
         title={undoLabel ? `Undo: ${undoLabel}` : "Nothing to undo"}
       >
-        Undo<span className="max-sm:hidden">{undoLabel ? `: ${undoLabel}` : ""}</span>{" "}
+        {/* One inline run of text: as separate flex items the name would read "Undo : …". */}
+        <span>
+          Undo<span className="max-sm:hidden">{undoLabel ? `: ${undoLabel}` : ""}</span>
+        </span>{" "}
         <kbd className="font-mono text-xs max-sm:hidden">U</kbd>
       </button>
       <button type="button" className="btn ml-auto px-3 max-sm:hidden" onClick={onHelp}>

@@ -23,6 +23,9 @@ export type ApiInput<N extends ApiName> =
 export type ApiAnswer<N extends ApiName> = Op<N> extends { response: infer Z extends ZodType } ? z.output<Z> : unknown;
 
 /** A refused or failed call: the server's message, its status, and its messages per field. */
+/** What a request that got no answer at all (no network, server down) says. */
+export const NO_ANSWER = "The server could not be reached.";
+
 export class ApiError extends Error {
   override name = "ApiError";
   constructor(
@@ -93,7 +96,14 @@ export function buildRequest<N extends ApiName>(
 
 /** Sends one request; a refusal becomes an ApiError in the server's words. */
 export async function sendRequest(req: ApiRequest, signal?: AbortSignal): Promise<unknown> {
-  const res = await fetch(req.url, { method: req.method, headers: req.headers, body: req.body, signal });
+  let res: Response;
+  try {
+    res = await fetch(req.url, { method: req.method, headers: req.headers, body: req.body, signal });
+  } catch (err) {
+    // An abort or our own timeout stays what it is; anything else fetch throws means no answer came back.
+    if (err instanceof DOMException) throw err;
+    throw new ApiError(NO_ANSWER, 0);
+  }
   const text = await res.text();
   let body: unknown = null;
   try {

@@ -197,7 +197,9 @@ class Device {
     } catch (err) {
       if (err instanceof ApiError && err.status === 401) this.set({ phase: "sign-in" });
       else if (isNetworkFailure(err)) this.retryLater(true);
-      // A specialist holds no blocks (403): recording is not theirs, nothing to do.
+      // A specialist holds no blocks (403): recording is not theirs, nothing to do. A fault in our own code
+      // is not a lost connection: it surfaces (the device stays online, writes still go to the server).
+      else if (!(err instanceof ApiError)) throw err;
     }
   }
 

@@ -1,4 +1,6 @@
+import type { z } from "zod";
 import { sendRequest, type ApiRequest } from "@/lib/api/client";
+import type { numberBlockView } from "@/lib/api/catalog/offline";
 import type { ApiName } from "@/lib/api/catalog";
 import type { Outbox } from "./outbox";
 import type { HeldBlock } from "./outbox-db";
@@ -10,7 +12,8 @@ import type { HeldBlock } from "./outbox-db";
  */
 export const LOW_NUMBERS = 10;
 export type NumberKind = HeldBlock["kind"];
-type ServerBlock = { id: string; kind: NumberKind; first: number; last: number; left: number[] };
+/** A block as the server lists it (lib/api/catalog/offline.ts `numberBlockView`). */
+type ServerBlock = Pick<z.infer<typeof numberBlockView>, "id" | "kind" | "first" | "last" | "free" | "deviceId">;
 
 const DEVICE_KEY = "loamwork-device-id";
 
@@ -33,9 +36,9 @@ const request = (operation: string, method: string, url: string, body?: unknown)
   body: body === undefined ? undefined : JSON.stringify(body),
 });
 
-/** The device's copy of a server block: numbers the server no longer lists as left are used. */
+/** The device's copy of a server block: numbers the server no longer lists as free are used. */
 function held(siteId: string, b: ServerBlock, usedHere: number[] = []): HeldBlock {
-  const left = new Set(b.left);
+  const left = new Set(b.free);
   const used = new Set(usedHere);
   for (let n = b.first; n <= b.last; n++) if (!left.has(n)) used.add(n);
   return { id: b.id, siteId, kind: b.kind, first: b.first, last: b.last, used: [...used].sort((a, c) => a - c) };
@@ -47,9 +50,18 @@ export function freeNumbers(blocks: HeldBlock[], siteId: string, kind: NumberKin
     .reduce((sum, b) => sum + (b.last - b.first + 1 - new Set(b.used).size), 0);
 }
 
-/** The blocks the server says this user holds on the site, merged with what the device has used. */
-export async function refreshBlocks(outbox: Outbox, siteId: string, send = sendRequest): Promise<void> {
-  const list = (await send(request("numberBlocksList", "GET", `/api/sites/${siteId}/number-blocks`))) as ServerBlock[];
+/**
+ * The blocks the server says this user holds on the site for this device, merged with what the device has
+ * used. A block the same user holds on another tablet is that tablet's: using it here would write a number twice.
+ */
+export async function refreshBlocks(
+  outbox: Outbox,
+  siteId: string,
+  send = sendRequest,
+  device = deviceId(),
+): Promise<void> {
+  const all = (await send(request("numberBlocksList", "GET", `/api/sites/${siteId}/number-blocks`))) as ServerBlock[];
+  const list = all.filter((b) => b.deviceId === device);
   const mine = new Map((await outbox.blocks()).filter((b) => b.siteId === siteId).map((b) => [b.id, b]));
   for (const b of list) await outbox.putBlock(held(siteId, b, mine.get(b.id)?.used));
   // A block the server no longer lists was released or used up: the device forgets it.

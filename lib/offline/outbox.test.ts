@@ -1,10 +1,11 @@
 import "fake-indexeddb/auto";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { ApiError, buildRequest, type ApiRequest } from "@/lib/api/client";
+import { ApiError, NO_ANSWER, buildRequest, type ApiRequest } from "@/lib/api/client";
+import { freeNumbers, refreshBlocks } from "./number-blocks";
 import { Outbox } from "./outbox";
 import { closeOutboxDb } from "./outbox-db";
 import { backoffSeconds, damaged, syncOutbox } from "./sync";
-import { createWritePath } from "./write-path";
+import { createWritePath, isNetworkFailure } from "./write-path";
 
 const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
 const contextId = "0b7d1f7e-1c2a-4e0b-8f9a-6c5d4e3f2a1b";
@@ -95,7 +96,7 @@ describe("the write path on a device", () => {
       online: () => true,
       send: async (req) => {
         key = req.headers["idempotency-key"];
-        throw new TypeError("Failed to fetch");
+        throw new ApiError(NO_ANSWER, 0);
       },
     });
     await write(find(1));
@@ -193,7 +194,7 @@ describe("sync", () => {
         await syncOutbox({
           outbox,
           send: async () => {
-            throw new TypeError("Failed to fetch");
+            throw new ApiError(NO_ANSWER, 0);
           },
         })
       ).stopped,
@@ -231,5 +232,48 @@ describe("sync", () => {
     await write(find(1));
     expect(await other.all()).toHaveLength(0);
     await closeOutboxDb(`${userId}-other`);
+  });
+});
+
+describe("the device's number blocks and what counts as no connection", () => {
+  /** Blocks as the server lists them (lib/api/catalog/offline.ts numberBlockView). */
+  const listed = (deviceId: string, id: string, first: number, last: number, free: number[]) => ({
+    id,
+    kind: "find" as const,
+    first,
+    last,
+    size: last - first + 1,
+    left: free.length,
+    free,
+    userId,
+    deviceId,
+    deviceLabel: "tablet",
+    createdAt: "2026-07-14T09:30:00.000Z",
+    releasedAt: null,
+  });
+
+  it("keeps this device's blocks with the numbers the server lists as free, never another tablet's", async () => {
+    const answer = [listed("this-tablet", "b1", 501, 550, [503, 504]), listed("other-tablet", "b9", 601, 650, [601])];
+    await refreshBlocks(outbox, siteId, async () => answer, "this-tablet");
+    const blocks = await outbox.blocks();
+    // b2 (a context block held before) is not listed any more: released or used up, so it is forgotten.
+    expect(blocks.map((b) => b.id)).toEqual(["b1"]);
+    const b1 = blocks.find((b) => b.id === "b1")!;
+    expect(b1.used).toHaveLength(48);
+    expect(b1.used).not.toContain(503);
+    expect(freeNumbers(blocks, siteId, "find")).toBe(2);
+  });
+
+  it("a block the server no longer lists for this device is forgotten", async () => {
+    await refreshBlocks(outbox, siteId, async () => [listed("other-tablet", "b1", 501, 550, [501])], "this-tablet");
+    expect((await outbox.blocks()).some((b) => b.id === "b1")).toBe(false);
+  });
+
+  it("only a request that got no answer is a lost connection; a fault in our code is not", () => {
+    expect(isNetworkFailure(new ApiError(NO_ANSWER, 0))).toBe(true);
+    expect(isNetworkFailure(new DOMException("timed out", "TimeoutError"))).toBe(true);
+    expect(isNetworkFailure(new TypeError("number 50 is not iterable"))).toBe(false);
+    expect(isNetworkFailure(new ApiError("This change needs a connection to the server.", 0))).toBe(false);
+    expect(isNetworkFailure(new ApiError("Refused.", 409))).toBe(false);
   });
 });

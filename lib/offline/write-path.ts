@@ -1,4 +1,4 @@
-import { ApiError, sendRequest, type ApiRequest } from "@/lib/api/client";
+import { ApiError, NO_ANSWER, sendRequest, type ApiRequest } from "@/lib/api/client";
 import type { ApiName } from "@/lib/api/catalog";
 import { toStored, type RelationKind, type RelationReading } from "@/lib/schemas/relation";
 import type { Outbox } from "./outbox";
@@ -40,11 +40,14 @@ const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
 
-/** A fetch that never reached an answer (no network, server down: a TypeError in every browser; or our own timeout). */
+/**
+ * A request that never reached an answer: sendRequest turns fetch's own failure (no network, server down)
+ * into ApiError status 0; or our own timeout. A programming error (a TypeError in our code) is not one: it
+ * must surface, never make the device believe it is offline.
+ */
 export function isNetworkFailure(err: unknown): boolean {
   return (
-    err instanceof TypeError ||
-    (err instanceof ApiError && err.status === 0) ||
+    (err instanceof ApiError && err.status === 0 && err.message === NO_ANSWER) ||
     (err instanceof DOMException && err.name === "TimeoutError")
   );
 }

@@ -18,13 +18,16 @@ function freePort(): Promise<number> {
   });
 }
 
-/** One built, seeded app for all browser tests; each test makes its own records so tests do not collide. */
+/**
+ * One built, seeded app for all browser tests; each test makes its own records so tests do not collide.
+ * E2E_VERBOSE=1 shows the app's own log (quiet otherwise).
+ */
 export default async function setup(project: TestProject) {
   ensureBuilt();
   const dataDir = path.join(".tmp", `e2e-${process.pid}`);
   rmSync(dataDir, { recursive: true, force: true });
   const port = process.env.E2E_PORT ? Number(process.env.E2E_PORT) : await freePort();
-  stack = await startStack({ port, dataDir, quiet: true, smtpPort: 0, uploadPort: 0 });
+  stack = await startStack({ port, dataDir, quiet: !process.env.E2E_VERBOSE, smtpPort: 0, uploadPort: 0 });
   project.provide("baseURL", stack.url);
   project.provide("dataDir", path.resolve(dataDir));
   return async () => {
