@@ -15,6 +15,7 @@ const elements = [
   { type: "server", pattern: "lib/server", partialMatch: false },
   { type: "spatial", pattern: "lib/spatial", partialMatch: false },
   { type: "db", pattern: "db", partialMatch: false },
+  { type: "shared", pattern: ["lib/api", "lib/schemas"], partialMatch: false },
 ];
 
 const packages = (...names) => ({ to: { module: { origin: ["external", "core"], source: names } } });
@@ -44,6 +45,12 @@ const policies = {
     from: { element: { type: "db" } },
     disallow: folders("server"),
     message: "db/ is the schema and the client only: it never imports lib/server.",
+  },
+  sharedKnowsNoServer: {
+    from: { element: { type: "shared" } },
+    disallow: [folders("server", "db", "app", "components")],
+    message:
+      "The API catalogue and the schemas are shared with the browser: they import nothing from lib/server, db/, app/ or components/.",
   },
   useCasesKnowNoPage: {
     from: { element: { type: "server" } },
@@ -118,5 +125,23 @@ export default tseslint.config(
       "import/resolver": { typescript: { alwaysTryTypes: true, project: "./tsconfig.json" } },
     },
     rules: { "boundaries/dependencies": dependencies },
+  },
+  {
+    // auth.ts sits outside the folders above, so this boundary is a plain restricted import.
+    files: ["components/**/*.{ts,tsx}"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["@/auth", "**/auth", "next-auth", "next-auth/*"],
+              message:
+                "Components sign in and out through the server actions in app/, never through auth.ts or next-auth.",
+            },
+          ],
+        },
+      ],
+    },
   },
 );

@@ -1,13 +1,7 @@
-import { signOut } from "@/auth";
+import { signOutAction } from "@/app/sign-in/actions";
 import { SignOutForm } from "./offline/sign-out-form";
 
+/** The session is ended by a server action in app/, so no component imports the auth module. */
 export function SignOutButton() {
-  return (
-    <SignOutForm
-      action={async () => {
-        "use server";
-        await signOut({ redirectTo: "/sign-in" });
-      }}
-    />
-  );
+  return <SignOutForm action={signOutAction} />;
 }

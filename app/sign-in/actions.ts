@@ -2,7 +2,7 @@
 
 import { AuthError } from "next-auth";
 import { headers } from "next/headers";
-import { signIn } from "@/auth";
+import { signIn, signOut } from "@/auth";
 import { signInSchema } from "@/lib/server/sign-in";
 import { admitSignIn } from "@/lib/server/sign-in-limit";
 import { zodFieldErrors } from "@/lib/server/guard";
@@ -29,4 +29,9 @@ export async function signInAction(_prev: SignInState, form: FormData): Promise<
     throw err;
   }
   return {};
+}
+
+/** Ends the session and opens the sign-in page (the header's Sign out button). */
+export async function signOutAction(): Promise<void> {
+  await signOut({ redirectTo: "/sign-in" });
 }

@@ -1,7 +1,7 @@
 "use client";
 
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { ClarkEvansOut } from "@/lib/server/analysis/result-types";
+import type { ClarkEvansOut } from "@/lib/api/run-result";
 import { PlotFrame } from "./plot-frame";
 
 /** Nearest-neighbour distances of one class, binned. */

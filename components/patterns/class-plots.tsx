@@ -1,6 +1,6 @@
 "use client";
 
-import type { ClassInScope, RunResult, TestOut } from "@/lib/server/analysis/result-types";
+import type { ClassInScope, RunResult, TestOut } from "@/lib/api/run-result";
 import { NnHistogram } from "./bar-plots";
 import { QuadratMap } from "./quadrat-map";
 import { CurvePlot } from "./curve-plot";

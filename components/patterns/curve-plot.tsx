@@ -11,7 +11,7 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
-import type { Curve, Departure } from "@/lib/server/analysis/result-types";
+import type { Curve, Departure } from "@/lib/api/run-result";
 import { PlotFrame } from "./plot-frame";
 
 type Props = {

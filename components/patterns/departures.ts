@@ -1,4 +1,4 @@
-import type { Departure } from "@/lib/server/analysis/result-types";
+import type { Departure } from "@/lib/api/run-result";
 import { fmtM } from "./words";
 
 /**

@@ -1,4 +1,4 @@
-import type { RunCreateInput, RunTest, SquareTest, SquareTestKind } from "@/lib/server/analysis/run-schema";
+import type { RunCreateInput, RunTest, SquareTest, SquareTestKind } from "@/lib/schemas/run";
 
 /** The workspace form: scope, tests with their options, shared parameters. Every default is changeable. */
 export type FormState = {
@@ -52,7 +52,7 @@ export function initialForm(trenchId: string): FormState {
   };
 }
 
-/** The request body the run API takes (lib/server/analysis/run-schema.ts). */
+/** The request body the run API takes (lib/schemas/run.ts). */
 export function toRequest(f: FormState): RunCreateInput {
   const tests: RunTest[] = [];
   if (f.clarkEvans.on)

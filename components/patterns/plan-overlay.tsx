@@ -1,7 +1,7 @@
 "use client";
 
 import { useCallback, useMemo, useState } from "react";
-import type { RunResult } from "@/lib/server/analysis/result-types";
+import type { RunResult } from "@/lib/api/run-result";
 import { AfterPaint } from "./after-paint";
 import { PlotFrame } from "./plot-frame";
 

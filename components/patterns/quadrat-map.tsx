@@ -1,6 +1,6 @@
 "use client";
 
-import type { QuadratOut } from "@/lib/server/analysis/result-types";
+import type { QuadratOut } from "@/lib/api/run-result";
 import { SquareMap } from "@/components/squares/square-map";
 import { classBreaks, classLabels, classOf, formatValue } from "@/lib/squares/colour-classes";
 import type { MapCell } from "@/lib/squares/map-cells";

@@ -3,7 +3,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useEffect, type ReactNode } from "react";
 import { apiClient } from "@/lib/api/client";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 import { RunProgress } from "./run-progress";
 import { RunResultView } from "./run-result";
 import { inProgress, useRun } from "./use-run";

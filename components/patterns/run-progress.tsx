@@ -1,6 +1,6 @@
 "use client";
 
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 import { fmtDuration } from "./words";
 
 /** Progress bar with time remaining (elapsed × (1 − p) / p on the server's clock) and a cancel button. */

@@ -1,7 +1,7 @@
 "use client";
 
 import { ClassSymbol } from "@/components/class-symbol";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 import { TestFigure } from "./class-plots";
 import { PlanOverlay } from "./plan-overlay";
 import { SquareResults } from "./square-results";

@@ -1,7 +1,7 @@
 "use client";
 
 import { useDates } from "@/components/locale";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 
 type Props = {
   runs: Omit<RunView, "result">[];

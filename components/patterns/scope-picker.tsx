@@ -1,7 +1,7 @@
 "use client";
 
 import { ClassSymbol } from "@/components/class-symbol";
-import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
+import type { ScopeSummary } from "@/lib/api/patterns-responses";
 import type { FormState } from "./form-state";
 import type { ClassOption, ContextOption, TrenchOption } from "./types";
 

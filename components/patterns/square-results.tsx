@@ -1,6 +1,6 @@
 "use client";
 
-import type { ClassInScope, SquareTestOut } from "@/lib/server/analysis/result-types";
+import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
 import { fmtP } from "./words";
 
 const NAME: Record<SquareTestOut["kind"], string> = {

@@ -1,8 +1,8 @@
 "use client";
 
 import type { ReactNode } from "react";
-import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
-import type { SquareTestKind, TestKind } from "@/lib/server/analysis/run-schema";
+import type { ScopeSummary } from "@/lib/api/patterns-responses";
+import type { SquareTestKind, TestKind } from "@/lib/schemas/run";
 import type { FormState } from "./form-state";
 
 type Props = { form: FormState; set: (f: Partial<FormState>) => void; summary: ScopeSummary | undefined };

@@ -4,7 +4,7 @@ import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useEffect, useState } from "react";
 import { apiClient } from "@/lib/api/client";
 import type { RunProgressEvent } from "@/lib/server/analysis/run-watch";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 
 type Status = RunView["status"];
 /** A run still queued or simulating. */

@@ -1,4 +1,4 @@
-import type { TestOut } from "@/lib/server/analysis/result-types";
+import type { TestOut } from "@/lib/api/run-result";
 import { departureSentences } from "./departures";
 import { fmtP, TEST_LABEL, VERDICT_LABEL, VERDICT_TONE } from "./words";
 

@@ -1,4 +1,4 @@
-import type { VerdictWord } from "@/lib/server/analysis/result-types";
+import type { VerdictWord } from "@/lib/api/run-result";
 
 /** Verdict words on screen (statistics.md: clustered / evenly spread / no evidence against the null). */
 export const VERDICT_LABEL: Record<VerdictWord, string> = {

@@ -4,7 +4,7 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { usePathname, useSearchParams } from "next/navigation";
 import { useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 import { CompareView } from "./compare-view";
 import { formFromRun, initialForm, toRequest, type FormState } from "./form-state";
 import { RunPanel } from "./run-panel";

@@ -1,7 +1,7 @@
 /** The pure parts of Patterns: canonical JSON for fingerprints, stratigraphic equivalence, departures. */
 import { describe, expect, it } from "vitest";
 import { canonicalJson } from "@/lib/server/analysis/canonical-json";
-import { stratigraphicWarnings, type RelationRow } from "@/lib/server/analysis/stratigraphy";
+import { stratigraphicWarnings, type RelationRow } from "@/lib/stratigraphy/one-surface";
 import { departureSentences, mainDepartures } from "@/components/patterns/departures";
 
 describe("canonical JSON", () => {

@@ -12,7 +12,7 @@ import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
-import type { RunView } from "@/lib/server/analysis/run-view";
+import type { RunView } from "@/lib/api/patterns-responses";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 

@@ -68,6 +68,27 @@ describe("import boundaries", () => {
     expect(found).toEqual([{ line: 2, message: "Use cases in lib/server never import pages or components." }]);
   });
 
+  it("refuses lib/server, even a type, in the API catalogue, but allows the shared schemas", async () => {
+    const found = await refusals("catalogue-imports-server.ts", "lib/api/catalog/example.ts");
+    expect(found).toEqual([
+      {
+        line: 2,
+        message:
+          "The API catalogue and the schemas are shared with the browser: they import nothing from lib/server, db/, app/ or components/.",
+      },
+    ]);
+  });
+
+  it("refuses the auth module and next-auth in a component, but allows the session's server action", async () => {
+    const code = readFileSync(path.join(fixtures, "component-imports-auth.tsx"), "utf8");
+    const [result] = await eslint.lintText(code, { filePath: path.join(root, "components/example/example.tsx") });
+    expect(result.messages.map((m) => [m.line, m.ruleId])).toEqual([
+      [2, "no-restricted-imports"],
+      [3, "no-restricted-imports"],
+    ]);
+    expect(result.messages[0]?.message).toContain("never through auth.ts or next-auth");
+  });
+
   it("the same imports pass where no boundary applies (a script)", async () => {
     const code = readFileSync(path.join(fixtures, "engine-imports-outside.ts"), "utf8");
     const [result] = await eslint.lintText(code, { filePath: path.join(root, "scripts/example.ts") });

@@ -12,7 +12,7 @@ import * as relation from "@/lib/schemas/relation";
 import * as signOff from "@/lib/schemas/sign-off";
 import * as site from "@/lib/schemas/site";
 import * as trench from "@/lib/schemas/trench";
-import * as runSchemas from "@/lib/server/analysis/run-schema";
+import * as runSchemas from "@/lib/schemas/run";
 import { fieldLabel, fieldLabels } from "@/lib/schemas/messages";
 
 /**

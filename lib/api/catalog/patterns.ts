@@ -1,7 +1,6 @@
-import { runCreateSchema, runListQuerySchema, scopeQuerySchema } from "@/lib/server/analysis/run-schema";
+import { runCreateSchema, runListQuerySchema, scopeQuerySchema } from "@/lib/schemas/run";
 import { z } from "zod";
-import type { RunView } from "@/lib/server/analysis/run-view";
-import type { ScopeSummary } from "@/lib/server/analysis/scope-summary";
+import type { RunView, ScopeSummary } from "../patterns-responses";
 import { analysts, type ApiOperation } from "../operation";
 
 /** Typed, not checked field by field: each view is built by one function on the server. */

@@ -5,7 +5,7 @@
  */
 import type { RunSpecInput, Window } from "@/lib/spatial";
 import { R_COUNT } from "./defaults";
-import type { Correction, RunTest } from "./run-schema";
+import type { Correction, RunTest } from "@/lib/schemas/run";
 
 export type SpecClass = { id: string; code: string };
 export type SpecFind = { x: number; y: number; classId: string };

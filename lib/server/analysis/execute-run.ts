@@ -11,8 +11,8 @@ import {
 } from "@/lib/spatial";
 import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
-import type { RunScope } from "./run-schema";
-import type { RunParamsStored } from "./run-view";
+import type { RunScope } from "@/lib/schemas/run";
+import type { RunParamsStored } from "@/lib/api/patterns-responses";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
 import { loadScope, type ScopeData } from "./scope-data";
 import { runSquareTests } from "./square-tests";

@@ -4,7 +4,7 @@
  * Every number comes from the engine (`lib/spatial`); this file only shapes it for storing and drawing.
  */
 import { createQuadratLayout, densityGrid, nearestNeighbourDistances, type Window } from "@/lib/spatial";
-import type { DensityOut, QuadratCell } from "./result-types";
+import type { DensityOut, QuadratCell } from "@/lib/api/run-result";
 
 export type Pts = { x: number[]; y: number[] };
 

@@ -1,4 +1,4 @@
-import type { RunTest } from "./run-schema";
+import type { RunTest } from "@/lib/schemas/run";
 
 /** What each test asks, in words a specialist can put in a report; cross tests say what inflates them. */
 export function questionOf(t: RunTest, name: (id: string) => string, pool: string): string {

@@ -8,8 +8,8 @@ import type { SpecClass, SpecEntry, SpecFind } from "./engine-spec";
 import { quadratGrid } from "./engine-spec";
 import { kernelDensity, nnHistogram, quadratCellsOf, type Pts } from "./plot-data";
 import { questionOf } from "./questions";
-import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "./result-types";
-import type { Correction } from "./run-schema";
+import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "@/lib/api/run-result";
+import type { Correction } from "@/lib/schemas/run";
 
 const VERDICTS: Record<string, VerdictWord> = {
   clustered: "clustered",

@@ -2,7 +2,7 @@ import "server-only";
 import { and, eq, inArray, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { analysisRuns, type AnalysisRun } from "@/db/schema";
-import type { RunResult } from "./result-types";
+import type { RunResult } from "@/lib/api/run-result";
 
 /**
  * Status writes of a run. Each transition names the status it expects, so a run cancelled meanwhile is

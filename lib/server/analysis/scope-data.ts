@@ -18,7 +18,7 @@ import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial";
 import { badInput, notFound } from "../errors";
 import { canonicalJson } from "./canonical-json";
-import type { RunScope } from "./run-schema";
+import type { RunScope } from "@/lib/schemas/run";
 
 /** A square record of a chosen context (any spit), with its counts of the chosen classes. */
 export type ScopeSquareSample = {

@@ -3,29 +3,11 @@ import type { Db } from "@/db/client";
 import { contexts } from "@/db/schema";
 import { eq } from "drizzle-orm";
 import { defaultRmax, roundMetres, DEFAULT_PARAMS } from "./defaults";
-import type { RunScope, TestKind } from "./run-schema";
+import type { ScopeSummary } from "@/lib/api/patterns-responses";
+import type { RunScope, TestKind } from "@/lib/schemas/run";
 import { loadScope, siteRelations, type ScopeData } from "./scope-data";
-import { stratigraphicWarnings, type StratWarning } from "./stratigraphy";
+import { stratigraphicWarnings, type StratWarning } from "@/lib/stratigraphy/one-surface";
 import { LOW_POWER_N, MIN_POINTS } from "./thresholds";
-
-export type ScopeSummary = {
-  trench: { id: string; code: string; area: number; shortSide: number };
-  classes: {
-    id: string;
-    code: string;
-    label: string;
-    colour: string;
-    symbol: string;
-    n: number;
-    lowPower: boolean;
-    tooFewFor: TestKind[];
-  }[];
-  totalFinds: number;
-  warnings: StratWarning[];
-  defaults: { correction: string; rmax: number; nsim: number; level: number };
-  minPoints: Record<TestKind, number>;
-  fingerprint: string;
-};
 
 export function countsByClass(data: ScopeData): Map<string, number> {
   const n = new Map<string, number>();

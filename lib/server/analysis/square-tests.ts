@@ -1,8 +1,8 @@
 import "server-only";
 import { runSquareTest, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
 import { gridOf, trenchSquares } from "../squares";
-import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "./result-types";
-import type { SquareTest } from "./run-schema";
+import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "@/lib/api/run-result";
+import type { SquareTest } from "@/lib/schemas/run";
 import type { ScopeData } from "./scope-data";
 
 /**

@@ -1,4 +1,4 @@
-import type { TestKind } from "./run-schema";
+import type { TestKind } from "@/lib/schemas/run";
 
 /**
  * Fewest finds per class a test accepts. Loamwork refuses below these (common practice: with so few points

@@ -7,7 +7,7 @@ import { PlanFigure } from "@/components/sign-off/plan-figure";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { SquareMapsPrint } from "@/components/squares/square-maps-print";
 import { StateBadge } from "@/components/contexts/state-badge";
-import type { RunResult } from "@/lib/server/analysis/result-types";
+import type { RunResult } from "@/lib/api/run-result";
 import { isPublicError } from "@/lib/server/errors";
 import { pageSiteActor } from "@/lib/server/page-access";
 import "./print.css";

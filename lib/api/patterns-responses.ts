@@ -1,6 +1,6 @@
-import type { RunResult } from "./result-types";
-import type { RunScope, RunTest, SquareTest } from "./run-schema";
-import type { StratWarning } from "./stratigraphy";
+import type { RunResult } from "./run-result";
+import type { RunScope, RunTest, SquareTest, TestKind } from "@/lib/schemas/run";
+import type { StratWarning } from "@/lib/stratigraphy/one-surface";
 
 /** A run as the API returns it. `outOfDate` is computed on read from the fingerprint. Types only. */
 export type RunParamsStored = {
@@ -34,4 +34,24 @@ export type RunView = {
   /** Server clock when this view was made, so the client can estimate time remaining without clock skew. */
   now: string;
   result: RunResult | null;
+};
+
+/** What the workspace shows before a run (lib/server/analysis/scope-summary.ts builds it). */
+export type ScopeSummary = {
+  trench: { id: string; code: string; area: number; shortSide: number };
+  classes: {
+    id: string;
+    code: string;
+    label: string;
+    colour: string;
+    symbol: string;
+    n: number;
+    lowPower: boolean;
+    tooFewFor: TestKind[];
+  }[];
+  totalFinds: number;
+  warnings: StratWarning[];
+  defaults: { correction: string; rmax: number; nsim: number; level: number };
+  minPoints: Record<TestKind, number>;
+  fingerprint: string;
 };

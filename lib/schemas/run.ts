@@ -3,10 +3,10 @@ import "@/lib/schemas/messages";
 
 /**
  * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,
- * the classes), the tests, and the shared parameters. No `server-only` here: the workspace form builds the
- * same shape, and the route handler parses it with this schema. Every object is strict: a misspelt option
- * ("corection") is refused with the key named rather than dropped and replaced by its default. Stored runs
- * are not parsed with these schemas; they are read as they were stored.
+ * the classes), the tests, and the shared parameters. Pure schemas, shared by the API catalogue, the
+ * workspace form (which builds the same shape) and the route handler (which parses it). Every object is
+ * strict: a misspelt option ("corection") is refused with the key named rather than dropped and replaced
+ * by its default. Stored runs are not parsed with these schemas; they are read as they were stored.
  */
 const id = z.string().uuid("Not a valid record id.");
 
