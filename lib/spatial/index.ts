@@ -150,7 +150,14 @@ export type { LatticeAlternative } from "./lattice/p-values";
 export { localMoran, type LocalTestOptions, type LocalMoranResult, type Quadrant } from "./lattice/local-moran";
 export { getisOrdStar, type GetisOrdResult } from "./lattice/getis-ord";
 export { benjaminiHochberg } from "./lattice/fdr";
-export { runSquareTest, type SquareResult, type SquareTestResult } from "./lattice/run-square-test";
+export {
+  runSquareTest,
+  runSquareTestAsync,
+  squareTestSteps,
+  type SquareResult,
+  type SquareTestResult,
+} from "./lattice/run-square-test";
+export { PROGRESS_STEPS, type StepOptions, type AsyncStepOptions } from "./lattice/steps";
 export {
   parseSquareTestSpec,
   squareTestSpecSchema,

@@ -104,6 +104,34 @@ describe("run events", () => {
     expect(timing.engineStart).toBeGreaterThanOrEqual(Date.parse(last.data.startedAt));
   });
 
+  it("streams the progress of a run of square-count tests alone as it rises to completion", async () => {
+    session.userId = d.people.specialist;
+    const res = await call(
+      runsRoute,
+      "POST",
+      { siteId: d.siteId },
+      {
+        scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: ["FLK", "CHP"].map((c) => d.cls[c]) },
+        tests: [],
+        squareTests: [{ kind: "moran" }, { kind: "getis-ord" }],
+        params: { nsim: 2999, seed: 21 },
+      },
+    );
+    expect(res.status, JSON.stringify(res.json)).toBe(201);
+    const { events } = await follow(res.json.id);
+    const values = events.filter((e) => e.event === "progress").map((e) => e.data.progress as number);
+    // The permutations report as they go: several values between 0 and 1, rising, past the first test's share.
+    expect(values.length).toBeGreaterThan(2);
+    expect(values).toEqual([...values].sort((a, b) => a - b));
+    expect(values[0]).toBeGreaterThan(0);
+    expect(values.at(-1)).toBeLessThan(1);
+    expect(values.at(-1)).toBeGreaterThan(0.5);
+    const last = events.at(-1)!;
+    expect(last.data.status).toBe("done");
+    expect(last.data.progress).toBe(1);
+    expect(last.data.result.squareTests).toHaveLength(4);
+  });
+
   it("gives a finished run as one event and ends", async () => {
     const id = await start(["SHD"], 99, 3);
     await runsIdle();

@@ -15,7 +15,7 @@ import type { RunScope } from "@/lib/schemas/run";
 import type { RunParamsStored } from "@/lib/api/patterns-responses";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
 import { loadScope, type ScopeData } from "./scope-data";
-import { runSquareTests } from "./square-tests";
+import { runSquareTests, squareTestCount } from "./square-tests";
 
 /**
  * Progress reaches the run's row at most this often (ms), and through the row's trigger every watcher
@@ -79,11 +79,20 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
       params,
       seed: row.seed,
     });
+    // One progress bar for the whole run: the point tests' share of it, then the square-count tests', in
+    // proportion to how many tests each holds.
+    const squareWork = squareTestCount(data, params.squareTests ?? []);
+    const pointShare = squareWork ? spec.tests.length / (spec.tests.length + squareWork) : 1;
     try {
       const engineStart = Date.now();
       // A run of square-count tests alone has no point tests for the engine's simulation run.
       const engine: EngineResult = spec.tests.length
-        ? await runDistributionTest(spec, { onProgress, signal: stop.signal, pool: options.pool, stored: true })
+        ? await runDistributionTest(spec, {
+            onProgress: (f) => onProgress(f * pointShare),
+            signal: stop.signal,
+            pool: options.pool,
+            stored: true,
+          })
         : {
             engineVersion: ENGINE_VERSION,
             seed: row.seed,
@@ -94,7 +103,10 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
             results: [],
             cautions: [],
           };
-      const squareTests = runSquareTests(data, params.squareTests ?? [], params, row.seed, () => stop.signal.aborted);
+      const squareTests = await runSquareTests(data, params.squareTests ?? [], params, row.seed, {
+        signal: stop.signal,
+        onProgress: (f) => onProgress(pointShare + f * (1 - pointShare)),
+      });
       const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;

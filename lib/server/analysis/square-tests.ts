@@ -1,5 +1,5 @@
 import "server-only";
-import { runSquareTest, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
+import { runSquareTestAsync, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
 import { gridOf, trenchSquares } from "../squares";
 import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "@/lib/api/run-result";
 import type { SquareTest } from "@/lib/schemas/run";
@@ -44,14 +44,25 @@ export function squareRefusals(data: ScopeData, tests: SquareTest[]): string[] {
   return [];
 }
 
-export function runSquareTests(
+/** How many square-count tests a run holds: one per test and class in scope (for the run's progress). */
+export const squareTestCount = (data: ScopeData, tests: SquareTest[]): number => tests.length * data.classes.length;
+
+export interface SquareTestsProgress {
+  /** Hears the fraction of the run's square-count tests done, 0..1, as their permutations go. */
+  onProgress?: (fraction: number) => void;
+  /** Stops at the next step of the permutations (an AbortError). */
+  signal?: AbortSignal;
+}
+
+export async function runSquareTests(
   data: ScopeData,
   tests: SquareTest[],
   params: { nsim: number; level: number },
   seed: number,
-  aborted: () => boolean = () => false,
-): SquareTestOut[] {
+  options: SquareTestsProgress = {},
+): Promise<SquareTestOut[]> {
   if (!tests.length) return [];
+  const total = squareTestCount(data, tests);
   const grid = gridOf(data.trench);
   if (!grid) throw new SpatialInputError(squareRefusals(data, tests)[0]!);
   const bySquare = new Map(trenchSquares(data.trench, grid).map((s) => [`${s.col},${s.row}`, s]));
@@ -59,7 +70,8 @@ export function runSquareTests(
   let k = 0;
   for (const t of tests) {
     for (const cls of data.classes) {
-      if (aborted()) return out;
+      if (options.signal?.aborted) return out;
+      const done = k;
       const testSeed = (seed + k++) >>> 0;
       // One unit per square with a record in scope.
       const units = new Map<
@@ -134,7 +146,10 @@ export function runSquareTests(
         };
       };
       try {
-        const r = runSquareTest({ squares }, spec);
+        const r = await runSquareTestAsync({ squares }, spec, {
+          signal: options.signal,
+          onProgress: (f) => options.onProgress?.((done + f) / total),
+        });
         const cells = r.squares
           ? r.squares.map((q) =>
               cellOf(q.id, q.value, { statistic: q.statistic, p: q.p, pAdjusted: q.pAdjusted, class: q.class }),
@@ -176,6 +191,7 @@ export function runSquareTests(
           cells: [],
         });
       }
+      options.onProgress?.(k / total);
     }
   }
   return out;

@@ -13,6 +13,7 @@ import { centred, checkAlternative, checkPermutations, normalP, rankP, tieTolera
 import { checkGlobal, pairForm, permuteInto, type GlobalMoments, type GlobalTestOptions, type PairForm } from "./moran";
 import type { LatticeAlternative } from "./p-values";
 import type { LatticeWeights } from "./types";
+import { runSteps, stepEvery, type Steps } from "./steps";
 
 export interface GearyResult extends GlobalMoments {
   C: number;
@@ -35,6 +36,15 @@ function squaredDifferences(f: PairForm, x: Float64Array): number {
 }
 
 export function gearyC(values: ArrayLike<number>, w: LatticeWeights, options: GlobalTestOptions = {}): GearyResult {
+  return runSteps(gearySteps(values, w, options), options.onProgress);
+}
+
+/** Geary's C as steps: yields the fraction of permutations done (steps.ts). */
+export function* gearySteps(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: GlobalTestOptions = {},
+): Steps<GearyResult> {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;
@@ -67,7 +77,9 @@ export function gearyC(values: ArrayLike<number>, w: LatticeWeights, options: Gl
     const eps = tieTolerance(C);
     let above = 0;
     let below = 0;
+    const every = stepEvery(permutations);
     for (let s = 0; s < permutations; s++) {
+      if (s > 0 && s % every === 0) yield s / permutations;
       permuteInto(z, zp, seed, s);
       const Cs = factor * squaredDifferences(form, zp);
       if (Cs >= C - eps) above++;

@@ -12,6 +12,7 @@ import { conditionalDraws } from "./conditional";
 import { benjaminiHochberg } from "./fdr";
 import { checkLocal, type LocalTestOptions } from "./local-moran";
 import { centred, checkAlternative, checkPermutations, normalP, rankP, type LatticeAlternative } from "./p-values";
+import { runSteps, stepEvery, type Steps } from "./steps";
 import type { LatticeWeights } from "./types";
 
 export interface GetisOrdResult {
@@ -36,6 +37,15 @@ export function getisOrdStar(
   w: LatticeWeights,
   options: Omit<LocalTestOptions, "moments"> = {},
 ): GetisOrdResult {
+  return runSteps(getisOrdSteps(values, w, options), options.onProgress);
+}
+
+/** Gi* as steps: yields the fraction of squares done (steps.ts). */
+export function* getisOrdSteps(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: Omit<LocalTestOptions, "moments"> = {},
+): Steps<GetisOrdResult> {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;
@@ -55,7 +65,9 @@ export function getisOrdStar(
   const permMean = new Float64Array(n).fill(NaN);
   const permVar = new Float64Array(n).fill(NaN);
   const pool = new Float64Array(n);
+  const every = stepEvery(n);
   for (let i = 0; i < n; i++) {
+    if (i > 0 && i % every === 0) yield i / n;
     let lag = 0;
     let Wi = 0;
     let S1i = 0;

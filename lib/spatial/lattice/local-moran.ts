@@ -15,9 +15,10 @@ import { SpatialInputError } from "../errors";
 import { conditionalDraws } from "./conditional";
 import { benjaminiHochberg } from "./fdr";
 import { centred, checkAlternative, checkPermutations, normalP, rankP, type LatticeAlternative } from "./p-values";
+import { runSteps, stepEvery, type StepOptions, type Steps } from "./steps";
 import type { LatticeWeights } from "./types";
 
-export interface LocalTestOptions {
+export interface LocalTestOptions extends StepOptions {
   alternative?: LatticeAlternative;
   /** Conditional permutations per square [999]; 0 for the normal approximation only. */
   permutations?: number;
@@ -67,6 +68,15 @@ export function localMoran(
   w: LatticeWeights,
   options: LocalTestOptions = {},
 ): LocalMoranResult {
+  return runSteps(localMoranSteps(values, w, options), options.onProgress);
+}
+
+/** Local Moran's I as steps: yields the fraction of squares done (steps.ts). */
+export function* localMoranSteps(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: LocalTestOptions = {},
+): Steps<LocalMoranResult> {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;
@@ -96,7 +106,9 @@ export function localMoran(
   const permVar = new Float64Array(n).fill(NaN);
   const quadrant: Quadrant[] = [];
   const pool = new Float64Array(n);
+  const every = stepEvery(n);
   for (let i = 0; i < n; i++) {
+    if (i > 0 && i % every === 0) yield i / n;
     let lag = 0;
     let Wi = 0;
     let Wi2 = 0;

@@ -21,9 +21,10 @@ import {
   tieTolerance,
   type LatticeAlternative,
 } from "./p-values";
+import { runSteps, stepEvery, type StepOptions, type Steps } from "./steps";
 import type { LatticeWeights } from "./types";
 
-export interface GlobalTestOptions {
+export interface GlobalTestOptions extends StepOptions {
   alternative?: LatticeAlternative;
   /** Permutations for the Monte Carlo p-value [999]; 0 for the analytical p-values only. */
   permutations?: number;
@@ -110,6 +111,15 @@ export function permuteInto(from: Float64Array, into: Float64Array, seed: number
 }
 
 export function moranI(values: ArrayLike<number>, w: LatticeWeights, options: GlobalTestOptions = {}): MoranResult {
+  return runSteps(moranSteps(values, w, options), options.onProgress);
+}
+
+/** Moran's I as steps: yields the fraction of permutations done (steps.ts). */
+export function* moranSteps(
+  values: ArrayLike<number>,
+  w: LatticeWeights,
+  options: GlobalTestOptions = {},
+): Steps<MoranResult> {
   const alternative = options.alternative ?? "two-sided";
   const permutations = options.permutations ?? 999;
   const seed = options.seed ?? 1;
@@ -141,7 +151,9 @@ export function moranI(values: ArrayLike<number>, w: LatticeWeights, options: Gl
     const eps = tieTolerance(I);
     let above = 0;
     let below = 0;
+    const every = stepEvery(permutations);
     for (let s = 0; s < permutations; s++) {
+      if (s > 0 && s % every === 0) yield s / permutations;
       permuteInto(z, zp, seed, s);
       const Is = factor * crossSum(form, zp);
       if (Is >= I - eps) above++;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { runSquareTest } from "./run-square-test";
+import { runSquareTest, runSquareTestAsync } from "./run-square-test";
+import { PROGRESS_STEPS } from "./steps";
 import { LATTICE_CAUTIONS } from "./square-verdict";
 import type { LatticeSquare } from "./types";
 
@@ -97,5 +98,44 @@ describe("runSquareTest", () => {
     ).toThrow(/lower limit/);
     const flat = hotCorner().map((s) => ({ ...s, value: 5 }));
     expect(() => runSquareTest({ squares: flat }, { type: "moran" })).toThrow(/Every square has the same value/);
+  });
+
+  describe("progress", () => {
+    for (const type of ["moran", "geary", "local-moran", "getis-ord"] as const) {
+      it(`${type}: reports its progress rising, a bounded number of times, and the same result as without`, () => {
+        const seen: number[] = [];
+        const spec = { type, permutations: 1999, seed: 8 };
+        const res = runSquareTest({ squares: hotCorner() }, spec, { onProgress: (f) => seen.push(f) });
+        expect(seen.length).toBeGreaterThan(10);
+        expect(seen.length).toBeLessThanOrEqual(PROGRESS_STEPS);
+        expect(seen).toEqual([...seen].sort((a, b) => a - b));
+        expect(seen[0]).toBeGreaterThan(0);
+        expect(seen.at(-1)).toBeLessThan(1);
+        expect(seen.at(-1)).toBeGreaterThan(0.9);
+        expect(res).toEqual(runSquareTest({ squares: hotCorner() }, spec));
+      });
+    }
+
+    it("run asynchronously: gives the same result, lets timers run between steps, and stops when aborted", async () => {
+      const spec = { type: "getis-ord", permutations: 4999, seed: 8 };
+      let ticks = 0;
+      const timer = setInterval(() => ticks++, 1);
+      const res = await runSquareTestAsync({ squares: hotCorner() }, spec);
+      clearInterval(timer);
+      expect(res).toEqual(runSquareTest({ squares: hotCorner() }, spec));
+      expect(ticks).toBeGreaterThan(0);
+      const stop = new AbortController();
+      let last = 0;
+      const run = runSquareTestAsync({ squares: hotCorner() }, spec, {
+        signal: stop.signal,
+        onProgress: (f) => {
+          last = f;
+          if (f > 0.3) stop.abort();
+        },
+      });
+      await expect(run).rejects.toMatchObject({ name: "AbortError" });
+      expect(last).toBeGreaterThan(0.3);
+      expect(last).toBeLessThan(0.5);
+    });
   });
 });

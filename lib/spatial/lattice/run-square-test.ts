@@ -4,10 +4,10 @@
  * command line call; the result is plain JSON.
  */
 import { buildLattice } from "./lattice";
-import { gearyC } from "./geary";
-import { getisOrdStar } from "./getis-ord";
-import { localMoran } from "./local-moran";
-import { moranI } from "./moran";
+import { gearySteps } from "./geary";
+import { getisOrdSteps } from "./getis-ord";
+import { localMoranSteps } from "./local-moran";
+import { moranSteps } from "./moran";
 import { parseSquareTestSpec, type SquareTestSpec } from "./square-test-spec";
 import {
   globalVerdict,
@@ -17,6 +17,7 @@ import {
   type SquareClass,
   type SquareVerdict,
 } from "./square-verdict";
+import { runSteps, runStepsAsync, type AsyncStepOptions, type StepOptions, type Steps } from "./steps";
 import { latticeWeights } from "./weights";
 import type { LatticeInput, LeftOutSquare } from "./types";
 
@@ -65,7 +66,24 @@ const NAMES = {
   "getis-ord": "Getis–Ord Gi*",
 } as const;
 
-export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTestResult {
+export function runSquareTest(input: LatticeInput, specInput: unknown, options: StepOptions = {}): SquareTestResult {
+  return runSteps(squareTestSteps(input, specInput), options.onProgress);
+}
+
+/**
+ * The same test, giving the event loop a turn between steps: what a run in the app's own process calls, so
+ * that its progress is written and a cancellation noticed while the permutations go on.
+ */
+export function runSquareTestAsync(
+  input: LatticeInput,
+  specInput: unknown,
+  options: AsyncStepOptions = {},
+): Promise<SquareTestResult> {
+  return runStepsAsync(squareTestSteps(input, specInput), options);
+}
+
+/** The test as steps: yields the fraction of its permutations (global) or squares (local) done. */
+export function* squareTestSteps(input: LatticeInput, specInput: unknown): Steps<SquareTestResult> {
   const spec = parseSquareTestSpec(specInput);
   const lattice = buildLattice(input, {
     neighbours: spec.neighbours,
@@ -87,7 +105,8 @@ export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTe
 
   if (spec.type === "moran" || spec.type === "geary") {
     const w = latticeWeights(lattice.neighbours, spec.style);
-    const r = spec.type === "moran" ? moranI(lattice.values, w, opts) : gearyC(lattice.values, w, opts);
+    const r =
+      spec.type === "moran" ? yield* moranSteps(lattice.values, w, opts) : yield* gearySteps(lattice.values, w, opts);
     const statistic = "I" in r ? r.I : r.C;
     const pFrom = r.p.permutation === null ? "randomisation" : "permutation";
     const p = r.p.permutation ?? r.p.randomisation;
@@ -107,7 +126,7 @@ export function runSquareTest(input: LatticeInput, specInput: unknown): SquareTe
 
   const star = spec.type === "getis-ord";
   const w = latticeWeights(lattice.neighbours, spec.style, star);
-  const r = star ? getisOrdStar(lattice.values, w, opts) : localMoran(lattice.values, w, opts);
+  const r = star ? yield* getisOrdSteps(lattice.values, w, opts) : yield* localMoranSteps(lattice.values, w, opts);
   const pRaw = r.pPermutation ?? r.pNormal;
   const squares: SquareResult[] = lattice.ids.map((id, i) => {
     let cls: SquareClass = "none";
