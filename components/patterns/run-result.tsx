@@ -87,7 +87,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
         </section>
       )}
       {result.squareTests && result.squareTests.length > 0 && (
-        <SquareResults tests={result.squareTests} classes={result.classes} />
+        <SquareResults tests={result.squareTests} classes={result.classes} outline={result.outline} />
       )}
       <PlanOverlay result={result} runName={run.id.slice(0, 8)} />
       <section className="sheet" aria-labelledby={`cautions-${run.id}`}>

@@ -1,6 +1,9 @@
 "use client";
 
 import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import { SquareMap } from "@/components/squares/square-map";
+import { testMapCells } from "@/lib/squares/test-map";
+import { PlotFrame } from "./plot-frame";
 import { fmtP } from "./words";
 
 const NAME: Record<SquareTestOut["kind"], string> = {
@@ -16,65 +19,54 @@ const VERDICT: Record<SquareTestOut["verdict"], string> = {
   "no-evidence": "No evidence against the null",
   "not-run": "Not run",
 };
-/** Viridis in five steps (van der Walt & Smith 2015): sequential, readable with the common colour-vision deficiencies. */
-const RAMP = ["#fde725", "#5ec962", "#21918c", "#3b528b", "#440154"];
-const OUTLINE: Record<string, { stroke: string; dash?: string }> = {
-  "hot spot": { stroke: "#b2182b" },
-  "cold spot": { stroke: "#2166ac", dash: "4 2" },
-  "high among low": { stroke: "#b2182b", dash: "1 2" },
-  "low among high": { stroke: "#2166ac", dash: "1 2" },
-};
-
-/** The squares of one result on the plan, shaded by quintile of the variable; local results outline their spots. */
-function SquareMap({ t, code }: { t: SquareTestOut; code: string }) {
+/** One result's squares on the plan, with its export buttons (SVG and PNG keep the legend; CSV the numbers). */
+function TestMap({ t, code, outline }: { t: SquareTestOut; code: string; outline: [number, number][][] }) {
   if (!t.cells.length) return null;
-  const xs = t.cells.flatMap((c) => [c.x0, c.x1]);
-  const ys = t.cells.flatMap((c) => [c.y0, c.y1]);
-  const [minX, maxX, minY, maxY] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
-  const scale = 360 / Math.max(maxX - minX, maxY - minY);
-  const sorted = t.cells.map((c) => c.value).sort((a, b) => a - b);
-  const breaks = [1, 2, 3, 4].map((k) => sorted[Math.floor((k * sorted.length) / 5)]!);
-  const klass = (v: number) => breaks.filter((b) => v >= b).length;
-  const unit = t.variable === "density" ? `${code} per m²` : `${code} count`;
+  const { cells, legend } = testMapCells(t, code);
+  const name = `${NAME[t.kind]} ${code}`;
   return (
-    <figure className="space-y-1">
-      <svg
-        role="img"
-        aria-label={`${NAME[t.kind]} map of ${code} by square`}
-        viewBox={`-4 -4 ${(maxX - minX) * scale + 8} ${(maxY - minY) * scale + 8}`}
-        className="w-full max-w-md"
-      >
-        {t.cells.map((c) => {
-          const o = OUTLINE[c.class];
-          return (
-            <rect
-              key={c.label}
-              x={(c.x0 - minX) * scale}
-              y={(maxY - c.y1) * scale}
-              width={(c.x1 - c.x0) * scale}
-              height={(c.y1 - c.y0) * scale}
-              fill={RAMP[klass(c.value)]}
-              stroke={o?.stroke ?? "#ffffff"}
-              strokeWidth={o ? 3 : 0.5}
-              strokeDasharray={o?.dash}
-            >
-              <title>{`${c.label}: ${+c.value.toPrecision(4)} ${unit}${c.p !== null ? `, p = ${fmtP(c.p)}, adjusted ${fmtP(c.pAdjusted)}` : ""}${c.class !== "none" ? ` — ${c.class}` : ""}`}</title>
-            </rect>
-          );
-        })}
-      </svg>
-      <figcaption className="text-sm text-ink-soft">
-        Squares shaded by quintile of {unit} (light: lowest fifth, dark: highest); squares not dug are not drawn.
-        {t.kind === "local-moran" || t.kind === "getis-ord"
-          ? " Red outline: hot spot; blue dashed: cold spot; dotted: a high square among low ones or the reverse — after the false-discovery-rate adjustment."
-          : ""}
-      </figcaption>
-    </figure>
+    <PlotFrame
+      title={`${name} on the plan`}
+      name={`squares-${t.kind}-${code}`}
+      csv={() =>
+        t.cells.map((c) => ({
+          square: c.label,
+          x0: c.x0,
+          y0: c.y0,
+          x1: c.x1,
+          y1: c.y1,
+          area_m2: c.area,
+          [t.variable === "density" ? "per_m2" : "count"]: c.value,
+          statistic: c.statistic,
+          p: c.p,
+          p_adjusted: c.pAdjusted,
+          finding: c.class === "none" ? "" : c.class,
+        }))
+      }
+    >
+      <div className="max-w-2xl">
+        <SquareMap
+          id={`sqtest-${t.kind}-${code}-${t.seed}`}
+          outline={outline}
+          cells={cells}
+          legend={legend}
+          ariaLabel={`${name} map of ${code} by square`}
+        />
+      </div>
+    </PlotFrame>
   );
 }
 
 /** The square-count tests of a run, one card per test and class. */
-export function SquareResults({ tests, classes }: { tests: SquareTestOut[]; classes: ClassInScope[] }) {
+export function SquareResults({
+  tests,
+  classes,
+  outline,
+}: {
+  tests: SquareTestOut[];
+  classes: ClassInScope[];
+  outline: [number, number][][];
+}) {
   const code = (id: string) => classes.find((c) => c.id === id)?.code ?? "?";
   return (
     <section aria-label="Counts by grid square" className="space-y-3">
@@ -96,7 +88,7 @@ export function SquareResults({ tests, classes }: { tests: SquareTestOut[]; clas
               <span className="font-semibold">Question answered: </span>
               {t.question}
             </p>
-            <SquareMap t={t} code={code(t.classId)} />
+            <TestMap t={t} code={code(t.classId)} outline={outline} />
             {t.notes.length > 0 && (
               <details className="text-sm">
                 <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">

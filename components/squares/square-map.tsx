@@ -1,8 +1,15 @@
-import type { MapCell, MapLegend } from "@/lib/squares/map-cells";
+import type { MapCell, MapLegend, SpotLine } from "@/lib/squares/map-cells";
+import { SPOT_LINES } from "@/lib/squares/test-map";
 
 const PAPER = "#efe6d3";
 const INK = "#2e2116";
 const n4 = (v: number) => Number(v.toFixed(4));
+/** A dash pattern given in line widths ("4 2"), scaled to the drawing's units. */
+const dashOf = (dash: string, width: number) =>
+  dash
+    .split(" ")
+    .map((d) => n4(Number(d) * width))
+    .join(" ");
 
 function Swatch({
   kind,
@@ -11,6 +18,7 @@ function Swatch({
   y,
   s,
   hatch,
+  line,
 }: {
   kind: MapCell["kind"];
   fill?: string;
@@ -18,7 +26,21 @@ function Swatch({
   y: number;
   s: number;
   hatch: string;
+  line?: SpotLine;
 }) {
+  if (line)
+    return (
+      <rect
+        x={x}
+        y={y}
+        width={s}
+        height={s}
+        fill="#ffffff"
+        stroke={line.stroke}
+        strokeWidth={s / 6}
+        strokeDasharray={line.dash ? dashOf(line.dash, s / 6) : undefined}
+      />
+    );
   const common = { x, y, width: s, height: s, stroke: INK, strokeWidth: s / 30 };
   if (kind === "value") return <rect {...common} fill={fill} />;
   if (kind === "zero") return <rect {...common} fill="#ffffff" />;
@@ -29,8 +51,10 @@ function Swatch({
 /**
  * A trench's squares on its plan, north up, in site-grid metres: shaded squares clipped to the outline and
  * holes, 0 white, not counted grey, not excavated hatched, and the legend drawn inside the figure so an
- * exported SVG or PNG keeps it. No hooks: the trench record prints it from the server; the squares panel
- * passes `onCell` to make each square a button.
+ * exported SVG or PNG keeps it. Each square's <g> carries what it shows (data-square, data-kind,
+ * data-value, data-shade: its class on the scale from 0, data-spot: a local test's finding, also drawn as
+ * an outline), so an exported file can be read back. No hooks: the trench record prints it from the
+ * server; the squares panel passes `onCell` to make each square a button.
  */
 export function SquareMap({
   id,
@@ -122,8 +146,17 @@ export function SquareMap({
                 style: { cursor: "pointer" },
               }
             : {};
+          const line: SpotLine | undefined = SPOT_LINES[c.spot as keyof typeof SPOT_LINES];
           return (
-            <g key={key} data-square={c.label} data-kind={c.kind} {...tap}>
+            <g
+              key={key}
+              data-square={c.label}
+              data-kind={c.kind}
+              data-value={c.value}
+              data-shade={c.shade}
+              data-spot={c.spot}
+              {...tap}
+            >
               <title>{`Square ${c.label}: ${c.title}`}</title>
               <rect
                 x={x}
@@ -134,6 +167,19 @@ export function SquareMap({
                 stroke={selected === key ? "#d55e00" : "#ffffff"}
                 strokeWidth={selected === key ? span / 120 : span / 500}
               />
+              {line && (
+                <rect
+                  x={n4(x + span / 240)}
+                  y={n4(y + span / 240)}
+                  width={n4(Math.max(cw - span / 120, 0))}
+                  height={n4(Math.max(ch - span / 120, 0))}
+                  fill="none"
+                  stroke={line.stroke}
+                  strokeWidth={n4(span / 120)}
+                  strokeDasharray={line.dash ? dashOf(line.dash, span / 120) : undefined}
+                  pointerEvents="none"
+                />
+              )}
               {c.text && cellFont > span / 200 && (
                 <text
                   x={n4(x + cw / 2)}
@@ -166,7 +212,15 @@ export function SquareMap({
           const top = legendTop + rowH * (i + 1 + (legend.note ? 1 : 0));
           return (
             <g key={i}>
-              <Swatch kind={it.kind} fill={it.fill} x={0} y={n4(top + font * 0.15)} s={n4(font)} hatch={hatch} />
+              <Swatch
+                kind={it.kind}
+                fill={it.fill}
+                x={0}
+                y={n4(top + font * 0.15)}
+                s={n4(font)}
+                hatch={hatch}
+                line={it.line}
+              />
               <text x={n4(font * 1.5)} y={n4(top + font)}>
                 {it.label}
               </text>

@@ -9,12 +9,20 @@ export type MapCell = Pick<SquareCell, "col" | "row" | "label" | "x0" | "y0" | "
   dark?: boolean;
   text?: string;
   title: string;
+  /** The number shaded (count, density, or a test's variable), and its class on the scale (0 = lowest). */
+  value?: number;
+  shade?: number;
+  /** A local test's finding in this square ("hot spot", "cold spot", …), drawn as an outline. */
+  spot?: string;
 };
+
+/** How a square marked by a local test is outlined. */
+export type SpotLine = { stroke: string; dash?: string };
 
 export type MapLegend = {
   title: string;
   note?: string;
-  items: { kind: MapCell["kind"]; fill?: string; label: string }[];
+  items: { kind: MapCell["kind"]; fill?: string; label: string; line?: SpotLine }[];
 };
 
 const unit: Record<Measure, string> = { count: "", density: " per m²" };
@@ -41,11 +49,13 @@ export function shadeCells(
     if (c.state === "not-counted" || v === null)
       return { ...base, kind: "not-counted", title: `dug, ${opts.what} not counted` };
     const title = `${c.count} ${opts.what}${opts.measure === "density" ? ` in ${formatValue(c.excavated)} m² (${formatValue(v)} per m²)` : ""}`;
-    if (v === 0) return { ...base, kind: "zero", title, text: opts.showValues ? "0" : undefined };
+    if (v === 0) return { ...base, kind: "zero", title, value: 0, text: opts.showValues ? "0" : undefined };
     const k = classOf(scale, v);
     return {
       ...base,
       kind: "value",
+      value: v,
+      shade: k,
       fill: scale.colours[k],
       dark: k < scale.colours.length / 2,
       title,
