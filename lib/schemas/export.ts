@@ -17,3 +17,5 @@ export const exportContextsQuery = z.object({ format: z.enum(["csv", "geojson"])
 export const exportTrenchesQuery = z.object({ coords });
 export const matrixQuery = z.object({ trenchId: uuid.optional() });
 export const matrixImageQuery = matrixQuery.extend({ format: z.enum(["svg", "png"]).default("svg") });
+/** The deposition package: the whole site, or one signed-off trench. */
+export const depositionQuery = z.object({ trenchId: uuid.optional() });

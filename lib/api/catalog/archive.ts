@@ -7,7 +7,8 @@ import {
   sampleUpdateSchema,
 } from "@/lib/schemas/sample";
 import { findsBulkSchema } from "@/lib/schemas/finds-bulk";
-import { everyone, recorders, type ApiOperation } from "../operation";
+import { depositionQuery } from "@/lib/schemas/export";
+import { directorOnly, everyone, recorders, type ApiOperation } from "../operation";
 import { bulkDone, deletedSample, samplePage, sampleRecord, sampleStatusDone } from "../archive-responses";
 
 /** API operations of the site archive's registers: samples (labels, bulk edits and the rest join here). */
@@ -73,6 +74,15 @@ export const archiveApi = {
     summary: "Samples register as CSV, with the register's filters",
     roles: "member",
     input: exportSamplesQuery,
+    from: "query",
+  },
+  exportPackage: {
+    method: "GET",
+    path: "/api/sites/{siteId}/export/package",
+    summary: "Deposition package: the site's (or a signed-off trench's) archive as a BagIt bag in one zip, streamed",
+    roles: directorOnly,
+    doing: "export the deposition package",
+    input: depositionQuery,
     from: "query",
   },
   findsBulk: {

@@ -51,25 +51,27 @@ export const findCsvColumns: readonly CsvColumn[] = [
 ];
 
 export function findsCsv(rows: RegisterRow[]): string {
-  return toCsv(
-    findCsvColumns,
-    rows.map((f) => [
-      f.number,
-      f.trenchCode,
-      f.contextNumber,
-      f.classCode,
-      f.x,
-      f.y,
-      f.z,
-      f.count,
-      f.weightG,
-      f.description,
-      f.method,
-      f.recordedBy ?? "",
-      f.recordedAt.toISOString(),
-      f.stationPoint ?? "",
-    ]),
-  );
+  return toCsv(findCsvColumns, rows.map(findCsvRow));
+}
+
+/** One find's cells, in findCsvColumns' order. */
+export function findCsvRow(f: RegisterRow): unknown[] {
+  return [
+    f.number,
+    f.trenchCode,
+    f.contextNumber,
+    f.classCode,
+    f.x,
+    f.y,
+    f.z,
+    f.count,
+    f.weightG,
+    f.description,
+    f.method,
+    f.recordedBy ?? "",
+    f.recordedAt.toISOString(),
+    f.stationPoint ?? "",
+  ];
 }
 
 export type ContextExportRow = Context & { trenchCode: string; finds: number; relations: string };

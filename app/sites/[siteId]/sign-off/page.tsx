@@ -70,11 +70,35 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
                   >
                     Trench record report
                   </Link>
+                  {director && t.signedOffAt && (
+                    <a
+                      className="mt-1 ml-3 inline-flex min-h-11 items-center underline"
+                      href={`/api/sites/${siteId}/export/package?trenchId=${t.id}`}
+                      download
+                    >
+                      Deposition package of trench {t.code}
+                    </a>
+                  )}
                 </li>
               );
             })}
           </ul>
         </section>
+        {director && (
+          <section aria-labelledby="package-h" className="sheet">
+            <h2 id="package-h" className="text-lg font-bold">
+              Deposition package
+            </h2>
+            <p className="mt-1 max-w-3xl text-sm text-ink-soft">
+              The archive for a repository: a BagIt bag in one zip with every register as CSV, the matrix, the photos
+              and the analysis runs, each file with its SHA-256. Records not yet signed off are marked so in every
+              register. Its fingerprint is written in bag-info.txt inside the zip.
+            </p>
+            <a className="btn mt-2" href={`/api/sites/${siteId}/export/package`} download>
+              Deposition package of the whole site
+            </a>
+          </section>
+        )}
         <SignOffNoticeProvider>
           {groups.map((g) => (
             <section key={g.key} aria-labelledby={`${g.key}-h`}>

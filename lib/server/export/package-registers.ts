@@ -1,0 +1,368 @@
+import "server-only";
+import { asc, eq } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import {
+  analysisRuns,
+  artefactClasses,
+  contextRelations,
+  contexts,
+  finds,
+  levelRuns,
+  photos,
+  spits,
+  spotLevels,
+  trenches,
+} from "@/db/schema";
+import { allFinds } from "@/lib/server/finds";
+import { listBenchmarks } from "@/lib/server/benchmarks";
+import { allSamples } from "@/lib/server/samples";
+import { userNames } from "@/lib/server/reads/user-names";
+import { contextsForExport } from "./contexts-export";
+import {
+  contextCsvColumns,
+  contextsCsv,
+  findCsvColumns,
+  findCsvRow,
+  sampleCsvColumns,
+  samplesCsv,
+  toCsv,
+  type CsvColumn,
+} from "./csv";
+
+/** One register of the package: its file under data/registers/, its columns, its rows as CSV text. */
+export type PackageRegister = { file: string; title: string; columns: readonly CsvColumn[]; rows: number; csv: string };
+
+/** Whole site, or one trench (a trench's package holds only its own records). */
+export type PackageScope = { siteId: string; trenchId?: string };
+
+const yesNo = (b: boolean) => (b ? "yes" : "no");
+const iso = (d: Date | null) => d?.toISOString() ?? "";
+
+function register(file: string, title: string, columns: readonly CsvColumn[], rows: unknown[][]): PackageRegister {
+  return { file, title, columns, rows: rows.length, csv: toCsv(columns, rows) };
+}
+
+export const findPackageColumns: readonly CsvColumn[] = [...findCsvColumns, ["context_state", "text"]];
+
+export async function findsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const rows = await allFinds(db, scope.siteId, { trenchId: scope.trenchId, sort: "number", dir: "asc" });
+  return register(
+    "finds.csv",
+    "Finds register",
+    findPackageColumns,
+    rows.map((f) => [...findCsvRow(f), f.contextState]),
+  );
+}
+
+export async function contextsRegister(db: Db, scope: PackageScope, trenchCode?: string): Promise<PackageRegister> {
+  const rows = (await contextsForExport(db, scope.siteId)).filter((c) => !trenchCode || c.trenchCode === trenchCode);
+  return {
+    file: "contexts.csv",
+    title: "Context register",
+    columns: contextCsvColumns,
+    rows: rows.length,
+    csv: contextsCsv(rows),
+  };
+}
+
+export const relationColumns: readonly CsvColumn[] = [
+  ["from_context", "number"],
+  ["relation", "text"],
+  ["to_context", "number"],
+  ["from_state", "text"],
+  ["to_state", "text"],
+];
+
+/** Each relation once, as stored ("1005 cuts 1004"); the reverse reading is implied. */
+export async function relationsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const sheets = await db
+    .select({ id: contexts.id, number: contexts.number, state: contexts.state, trenchId: contexts.trenchId })
+    .from(contexts)
+    .where(eq(contexts.siteId, scope.siteId));
+  const byId = new Map(sheets.map((c) => [c.id, c]));
+  const rels = await db
+    .select()
+    .from(contextRelations)
+    .where(eq(contextRelations.siteId, scope.siteId))
+    .orderBy(asc(contextRelations.createdAt));
+  const rows: unknown[][] = [];
+  for (const r of rels) {
+    const from = byId.get(r.fromId);
+    const to = byId.get(r.toId);
+    if (!from || !to) continue;
+    if (scope.trenchId && from.trenchId !== scope.trenchId && to.trenchId !== scope.trenchId) continue;
+    rows.push([from.number, r.kind, to.number, from.state, to.state]);
+  }
+  return register("relations.csv", "Stratigraphic relations", relationColumns, rows);
+}
+
+export async function samplesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const rows = await allSamples(db, scope.siteId, { trenchId: scope.trenchId });
+  return {
+    file: "samples.csv",
+    title: "Samples register",
+    columns: sampleCsvColumns,
+    rows: rows.length,
+    csv: samplesCsv(rows),
+  };
+}
+
+export const trenchColumns: readonly CsvColumn[] = [
+  ["code", "text"],
+  ["name", "text"],
+  ["state", "text"],
+  ["signed_off_at", "text"],
+  ["surface_rl_m", "number"],
+];
+
+export async function trenchesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const rows = await db.select().from(trenches).where(eq(trenches.siteId, scope.siteId)).orderBy(asc(trenches.code));
+  return register(
+    "trenches.csv",
+    "Trenches",
+    trenchColumns,
+    rows
+      .filter((t) => !scope.trenchId || t.id === scope.trenchId)
+      .map((t) => [t.code, t.name, t.signedOffAt ? "signed_off" : "open", iso(t.signedOffAt), t.surfaceLevel]),
+  );
+}
+
+export const classColumns: readonly CsvColumn[] = [
+  ["code", "text"],
+  ["label", "text"],
+  ["material", "text"],
+  ["human_remains", "text"],
+  ["finds", "number"],
+];
+
+export async function classesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const [rows, found] = await Promise.all([
+    db
+      .select()
+      .from(artefactClasses)
+      .where(eq(artefactClasses.siteId, scope.siteId))
+      .orderBy(asc(artefactClasses.code)),
+    db.select({ classId: finds.classId, trenchId: finds.trenchId }).from(finds).where(eq(finds.siteId, scope.siteId)),
+  ]);
+  const counts = new Map<string, number>();
+  for (const f of found)
+    if (!scope.trenchId || f.trenchId === scope.trenchId) counts.set(f.classId, (counts.get(f.classId) ?? 0) + 1);
+  return register(
+    "classes.csv",
+    "Artefact classes",
+    classColumns,
+    rows.map((c) => [c.code, c.label, c.material, yesNo(c.humanRemains), counts.get(c.id) ?? 0]),
+  );
+}
+
+export const levelColumns: readonly CsvColumn[] = [
+  ["run", "text"],
+  ["taken_on", "text"],
+  ["trench", "text"],
+  ["line", "number"],
+  ["station", "text"],
+  ["target", "text"],
+  ["target_record", "text"],
+  ["level_rl_m", "number"],
+  ["flagged", "text"],
+  ["run_misclosure_m", "number"],
+  ["run_within_tolerance", "text"],
+];
+
+/** Every reduced level the level book gave, with what it was taken on (a context or spit by number). */
+export async function levelsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const [runs, levels, sheets, slices, trenchRows, found, marks] = await Promise.all([
+    db.select().from(levelRuns).where(eq(levelRuns.siteId, scope.siteId)).orderBy(asc(levelRuns.takenOn)),
+    db.select().from(spotLevels).where(eq(spotLevels.siteId, scope.siteId)).orderBy(asc(spotLevels.line)),
+    db.select({ id: contexts.id, number: contexts.number }).from(contexts).where(eq(contexts.siteId, scope.siteId)),
+    db
+      .select({ id: spits.id, number: spits.number, contextNumber: contexts.number })
+      .from(spits)
+      .innerJoin(contexts, eq(contexts.id, spits.contextId))
+      .where(eq(spits.siteId, scope.siteId)),
+    db.select({ id: trenches.id, code: trenches.code }).from(trenches).where(eq(trenches.siteId, scope.siteId)),
+    db.select({ id: finds.id, number: finds.number }).from(finds).where(eq(finds.siteId, scope.siteId)),
+    listBenchmarks(db, scope.siteId),
+  ]);
+  const names = new Map<string, string>([
+    ...sheets.map((c): [string, string] => [c.id, `context ${c.number}`]),
+    ...slices.map((s): [string, string] => [s.id, `context ${s.contextNumber} spit ${s.number}`]),
+    ...found.map((f): [string, string] => [f.id, `find ${f.number}`]),
+    ...marks.map((b): [string, string] => [b.id, `benchmark ${b.code}`]),
+  ]);
+  const trenchCode = new Map(trenchRows.map((t) => [t.id, t.code]));
+  const runOrder = new Map(runs.map((r, i) => [r.id, i]));
+  const kept = runs.filter((r) => !scope.trenchId || r.trenchId === scope.trenchId);
+  const runById = new Map(kept.map((r) => [r.id, r]));
+  const rows = levels
+    .filter((l) => runById.has(l.runId))
+    .sort((a, b) => (runOrder.get(a.runId) ?? 0) - (runOrder.get(b.runId) ?? 0) || a.line - b.line)
+    .map((l) => {
+      const run = runById.get(l.runId)!;
+      return [
+        run.id,
+        run.takenOn,
+        run.trenchId ? (trenchCode.get(run.trenchId) ?? "") : "",
+        l.line + 1,
+        l.station,
+        l.target,
+        l.targetId ? (names.get(l.targetId) ?? "") : "",
+        l.level,
+        yesNo(l.flagged),
+        run.misclosure,
+        run.withinTolerance === null ? "" : yesNo(run.withinTolerance),
+      ];
+    });
+  return register("levels.csv", "Level book: reduced levels", levelColumns, rows);
+}
+
+export const benchmarkColumns: readonly CsvColumn[] = [
+  ["code", "text"],
+  ["description", "text"],
+  ["x", "number"],
+  ["y", "number"],
+  ["level_rl_m", "number"],
+];
+
+export async function benchmarksRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const marks = await listBenchmarks(db, scope.siteId);
+  return register(
+    "benchmarks.csv",
+    "Temporary benchmarks",
+    benchmarkColumns,
+    marks.map((b) => [b.code, b.description, b.x, b.y, b.level]),
+  );
+}
+
+export const photoColumns: readonly CsvColumn[] = [
+  ["file", "text"],
+  ["copy", "text"],
+  ["file_name", "text"],
+  ["trench", "text"],
+  ["trench_state", "text"],
+  ["width_px", "number"],
+  ["height_px", "number"],
+  ["fitted_to_grid", "text"],
+  ["uploaded_by", "text"],
+  ["uploaded_at", "text"],
+];
+
+export type PackagePhoto = {
+  id: string;
+  siteId: string;
+  fileKey: string;
+  fileName: string;
+  mimeType: string;
+  displayPath: string | null;
+  width: number | null;
+  height: number | null;
+  fitted: boolean;
+  trenchCode: string;
+  trenchSignedOff: boolean;
+  uploadedBy: string;
+  uploadedAt: Date;
+};
+
+/** The photos of the site (or trench), in upload order; their files follow the registers. */
+export async function packagePhotos(db: Db, scope: PackageScope): Promise<PackagePhoto[]> {
+  const rows = await db
+    .select({ p: photos, trenchCode: trenches.code, signedOffAt: trenches.signedOffAt })
+    .from(photos)
+    .leftJoin(trenches, eq(trenches.id, photos.trenchId))
+    .where(eq(photos.siteId, scope.siteId))
+    .orderBy(asc(photos.createdAt), asc(photos.id));
+  const kept = rows.filter((r) => !scope.trenchId || r.p.trenchId === scope.trenchId);
+  const names = await userNames(
+    db,
+    kept.map((r) => r.p.uploadedBy),
+  );
+  return kept.map(({ p, trenchCode, signedOffAt }) => ({
+    id: p.id,
+    siteId: p.siteId,
+    fileKey: p.fileKey,
+    fileName: p.fileName,
+    mimeType: p.mimeType,
+    displayPath: p.displayPath,
+    width: p.width,
+    height: p.height,
+    fitted: p.fit !== null,
+    trenchCode: trenchCode ?? "",
+    trenchSignedOff: signedOffAt !== null,
+    uploadedBy: p.uploadedBy ? (names.get(p.uploadedBy) ?? "") : "",
+    uploadedAt: p.createdAt,
+  }));
+}
+
+/** The photos register; `files` says which copy of each photo went into the package, and where. */
+export function photosRegister(list: PackagePhoto[], files: Map<string, { path: string; copy: string }>) {
+  return register(
+    "photos.csv",
+    "Photos",
+    photoColumns,
+    list.map((p) => [
+      files.get(p.id)?.path ?? "",
+      files.get(p.id)?.copy ?? "missing",
+      p.fileName,
+      p.trenchCode,
+      p.trenchSignedOff ? "signed_off" : "open",
+      p.width,
+      p.height,
+      yesNo(p.fitted),
+      p.uploadedBy,
+      iso(p.uploadedAt),
+    ]),
+  );
+}
+
+export const runColumns: readonly CsvColumn[] = [
+  ["run", "text"],
+  ["trench", "text"],
+  ["method", "text"],
+  ["status", "text"],
+  ["seed", "number"],
+  ["engine_version", "text"],
+  ["fingerprint", "text"],
+  ["created_at", "text"],
+  ["finished_at", "text"],
+  ["result_file", "text"],
+];
+
+/** The saved analysis runs with their fingerprints; each finished run's parameters and result as JSON. */
+export async function runsRegister(db: Db, scope: PackageScope) {
+  const rows = await db
+    .select({ r: analysisRuns, trenchCode: trenches.code })
+    .from(analysisRuns)
+    .innerJoin(trenches, eq(trenches.id, analysisRuns.trenchId))
+    .where(eq(analysisRuns.siteId, scope.siteId))
+    .orderBy(asc(analysisRuns.createdAt), asc(analysisRuns.id));
+  const kept = rows.filter(({ r }) => !scope.trenchId || r.trenchId === scope.trenchId);
+  const results = kept
+    .filter(({ r }) => r.status === "done")
+    .map(({ r }) => ({
+      path: `analysis/${r.id}.json`,
+      json: JSON.stringify(
+        { run: r.id, method: r.method, scope: r.scope, params: r.params, seed: r.seed, result: r.result },
+        null,
+        1,
+      ),
+    }));
+  const done = new Set(results.map((r) => r.path));
+  const table = register(
+    "analysis-runs.csv",
+    "Saved analysis runs",
+    runColumns,
+    kept.map(({ r, trenchCode }) => [
+      r.id,
+      trenchCode,
+      r.method,
+      r.status,
+      r.seed,
+      r.engineVersion,
+      r.fingerprint,
+      iso(r.createdAt),
+      iso(r.finishedAt),
+      done.has(`analysis/${r.id}.json`) ? `analysis/${r.id}.json` : "",
+    ]),
+  );
+  return { table, results };
+}
