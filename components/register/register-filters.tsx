@@ -110,8 +110,8 @@ export function RegisterFilters({
             onChange={(e) => setText(e.target.value)}
             onBlur={() => text.trim() !== (view.q ?? "") && onChange({ q: text.trim() })}
           />
-          <button type="submit" className="btn px-3" aria-label="Search">
-            Go
+          <button type="submit" className="btn px-3">
+            Search
           </button>
         </div>
       </div>

@@ -101,7 +101,8 @@ export function SquareMap({
     <svg
       viewBox={`${n4(-pad)} ${n4(-pad)} ${n4(w + 2 * pad)} ${n4(height)}`}
       className="h-auto w-full"
-      role="img"
+      // Squares that can be tapped are buttons; an image's children are hidden from assistive technology.
+      role={onCell ? "group" : "img"}
       aria-label={ariaLabel}
       data-testid={`${id}-svg`}
     >

@@ -87,8 +87,10 @@ export function drawMatrix(
     `<marker id="${id}" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" fill="${colour}"/></marker>`;
   const w = Math.ceil(width);
   const h = Math.ceil(height);
+  // With links inside, the drawing is a group of links (an image's children are hidden from assistive
+  // technology, so links inside one could not be reached); without, it is one image.
   const svg =
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}" viewBox="0 0 ${w} ${h}" role="img" aria-label="Harris matrix">` +
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}" viewBox="0 0 ${w} ${h}" role="${linkOf ? "group" : "img"}" aria-label="Harris matrix">` +
     `<defs>${marker("tip", ink)}${marker("tip-faint", faint)}</defs>` +
     `<rect width="100%" height="100%" fill="#f7f2e8"/>${parts.join("")}</svg>`;
   return { svg, width: w, height: h };
