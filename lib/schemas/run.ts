@@ -57,7 +57,8 @@ export type TestKind = RunTest["kind"];
 /**
  * A test on counts by grid square (lib/spatial/lattice), run on each class in scope: its counts summed
  * over the chosen contexts and their spits, per square of the trench's grid. Neighbours are rook or queen
- * on the grid, or a distance band between square centres; the permutations, seed and level are the run's.
+ * between the squares as the outline and holes cut them, or a distance band between the cut squares'
+ * centroids; the permutations, seed and level are the run's.
  */
 export const squareTestSchema = z.strictObject({
   kind: z.enum(["moran", "geary", "local-moran", "getis-ord"]),

@@ -32,17 +32,19 @@ describe("squares by class", () => {
     sample(1, "c1", "s1", 1, [{ classId: "BB", count: 3, weightG: null }]),
     sample(2, "c1", "s1", 0.5, [{ classId: "FL", count: 0, weightG: null }]),
   ];
-  it("sums a square's spits, takes the largest area dug, and tells 0 from not counted and not dug", () => {
+  it("sums a square's spits, counts and areas dug alike, and tells 0 from not counted and not dug", () => {
     const cells = squareCells(squares, samples, { classId: "FL" });
     expect(cells.map((c) => [c.label, c.state, c.count, c.excavated])).toEqual([
-      ["0/0", "counted", 6, 1],
+      ["0/0", "counted", 6, 1.5],
       ["1/0", "not-counted", null, 1],
       ["2/0", "counted", 0, 0.5],
     ]);
     expect(cells[0]!.weightG).toBe(10);
     expect(cellValue(cells[2]!, "density")).toBe(0);
+    // 4 flakes in spit 1's 1 m² and 2 in spit 2's 0.5 m²: 6 in 1.5 m² dug, 4 per m² (not 6, as if dug once).
+    expect(cellValue(cells[0]!, "density")).toBe(4);
     expect(latticeSquares(cells)).toEqual([
-      { id: "0/0", col: 0, row: 0, centre: [0.5, 0.5], area: 1, value: 6 },
+      { id: "0/0", col: 0, row: 0, centre: [0.5, 0.5], area: 1.5, value: 6 },
       { id: "2/0", col: 2, row: 0, centre: [2.5, 0.5], area: 0.5, value: 0 },
     ]);
   });

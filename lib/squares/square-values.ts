@@ -36,9 +36,12 @@ export const measureWords: Record<Measure, string> = { count: "count per square"
 export type CellScope = { classId: string; contextIds?: readonly string[] | null; spitIds?: readonly string[] | null };
 
 /**
- * One cell per square. A square's count sums the records in scope that counted the class; its excavated
- * area is the largest area among those records (a square dug in two spits covers its plan area once, so
- * the areas are not added).
+ * One cell per square. A square's count sums the records in scope that counted the class, and its
+ * excavated area sums the areas those same records dug: each record's count came from its own area, so a
+ * square dug through two spits has twice the area dug behind its finds. Density (count / excavated area)
+ * is then finds per m² dug, alike for a square dug through one spit or three, and for an edge square cut
+ * by the outline or a spit that covers only part of a square. Taking the plan area once instead would
+ * make a square look richer for being dug deeper.
  */
 export function squareCells(
   squares: readonly GridSquare[],
@@ -64,7 +67,7 @@ export function squareCells(
       if (!c) continue;
       count = (count ?? 0) + c.count;
       if (c.weightG !== null) weightG = (weightG ?? 0) + c.weightG;
-      excavated = Math.max(excavated, s.area);
+      excavated += s.area;
     }
     if (count === null)
       return {
@@ -72,7 +75,7 @@ export function squareCells(
         state: "not-counted" as const,
         count: null,
         weightG: null,
-        excavated: Math.max(...inScope.map((s) => s.area)),
+        excavated: inScope.reduce((sum, s) => sum + s.area, 0),
       };
     return { ...sq, state: "counted" as const, count, weightG, excavated };
   });
@@ -113,16 +116,29 @@ export function cellValue(cell: SquareCell, measure: Measure): number | null {
   return cell.excavated > 0 ? cell.count / cell.excavated : null;
 }
 
-/** The counted squares as the square-count tests take them (lib/spatial/lattice LatticeSquare). */
-export function latticeSquares(cells: readonly SquareCell[]) {
+/**
+ * The counted squares as the square-count tests take them (lib/spatial/lattice LatticeSquare): area is
+ * the excavated area (the test's density is count / that area). With `shapeOf`, each square carries its
+ * shape as the trench cuts it (lib/geometry/square-shape.ts): its rings, for contiguity from the clipped
+ * shapes, and its centroid as the centre a distance band measures from; without it, the grid square's
+ * centre.
+ */
+export function latticeSquares(
+  cells: readonly SquareCell[],
+  shapeOf?: (cell: SquareCell) => { rings: [number, number][][]; centroid: [number, number] },
+) {
   return cells
     .filter((c) => c.state === "counted" && c.count !== null)
-    .map((c) => ({
-      id: c.label,
-      col: c.col,
-      row: c.row,
-      centre: [(c.x0 + c.x1) / 2, (c.y0 + c.y1) / 2] as [number, number],
-      area: c.excavated,
-      value: c.count!,
-    }));
+    .map((c) => {
+      const shape = shapeOf?.(c);
+      return {
+        id: c.label,
+        col: c.col,
+        row: c.row,
+        centre: shape?.centroid ?? ([(c.x0 + c.x1) / 2, (c.y0 + c.y1) / 2] as [number, number]),
+        ...(shape ? { rings: shape.rings } : {}),
+        area: c.excavated,
+        value: c.count!,
+      };
+    });
 }

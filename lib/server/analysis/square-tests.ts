@@ -1,5 +1,7 @@
 import "server-only";
 import { runSquareTestAsync, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
+import { clippedSquareShape, type SquareShape } from "@/lib/geometry/square-shape";
+import { latticeSquares, squareCells, type SampleLike, type SquareCell } from "@/lib/squares/square-values";
 import { gridOf, trenchSquares } from "../squares";
 import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "@/lib/api/run-result";
 import type { SquareTest } from "@/lib/schemas/run";
@@ -7,12 +9,14 @@ import type { ScopeData } from "./scope-data";
 
 /**
  * The square-count tests of a run (issue 16), on the records loadScope read. For each test and each class
- * in scope, a square is a unit when it has a square record in one of the chosen contexts: its value is the
- * class's count summed over those records (a record without a row for the class counts 0: the square was
- * dug and sieved, and none was found), and its area the largest area dug in it among them (the plan area:
- * counts through several spits of one square are finds per m² of plan, not per spit). Squares without a
- * record are not excavated and are not units; records in squares the redrawn outline no longer holds are
- * left out. The run's permutations and level serve every test; test k of the run uses seed + k.
+ * in scope, a square is a unit when it has a square record in one of the chosen contexts that counted the
+ * class (a record that did not count it says nothing of it: not counted is not zero). Its value is the
+ * class's count summed over those records and its area the areas they dug, summed (squareCells: density is
+ * finds per m² dug, alike for squares dug through one spit or several, whole or cut by the outline).
+ * Neighbours by rook or queen come from the squares as the outline and holes cut them, and a distance band
+ * measures between the cut squares' centroids (lib/geometry/square-shape.ts). Squares without a record are
+ * not excavated and are not units; records in squares the redrawn outline no longer holds are left out.
+ * The run's permutations and level serve every test; test k of the run uses seed + k.
  */
 
 export const SQUARE_QUESTIONS: Record<SquareTest["kind"], string> = {
@@ -65,7 +69,31 @@ export async function runSquareTests(
   const total = squareTestCount(data, tests);
   const grid = gridOf(data.trench);
   if (!grid) throw new SpatialInputError(squareRefusals(data, tests)[0]!);
-  const bySquare = new Map(trenchSquares(data.trench, grid).map((s) => [`${s.col},${s.row}`, s]));
+  const gridSquares = trenchSquares(data.trench, grid);
+  const bySquare = new Map(gridSquares.map((s) => [`${s.col},${s.row}`, s]));
+  // Records in squares the redrawn outline no longer holds are left out; a record's area is at most its square's.
+  const samples: SampleLike[] = data.squareSamples.flatMap((s) => {
+    const sq = bySquare.get(`${s.col},${s.row}`);
+    if (!sq) return [];
+    const area = Math.min(s.excavatedArea ?? sq.area, sq.area);
+    return [
+      {
+        col: s.col,
+        row: s.row,
+        contextId: s.contextId,
+        spitId: s.spitId,
+        area,
+        outside: false,
+        counts: s.counts,
+      },
+    ];
+  });
+  // Each square cut once, for all tests and classes: contiguity from the clipped shapes, bands from their centroids.
+  const shapes = new Map<string, SquareShape>();
+  const shapeOf = (c: SquareCell) => {
+    const key = `${c.col},${c.row}`;
+    return shapes.get(key) ?? shapes.set(key, clippedSquareShape(data.window, c)).get(key)!;
+  };
   const out: SquareTestOut[] = [];
   let k = 0;
   for (const t of tests) {
@@ -73,43 +101,29 @@ export async function runSquareTests(
       if (options.signal?.aborted) return out;
       const done = k;
       const testSeed = (seed + k++) >>> 0;
-      // One unit per square with a record in scope.
-      const units = new Map<
-        string,
-        { sq: NonNullable<ReturnType<typeof bySquare.get>>; value: number; area: number; records: number }
-      >();
-      for (const sample of data.squareSamples) {
-        const key = `${sample.col},${sample.row}`;
-        const sq = bySquare.get(key);
-        // A record that did not count this class says nothing of it: not counted is not zero.
-        const counted = sample.counts.find((c) => c.classId === cls.id);
-        if (!sq || !counted) continue;
-        const u = units.get(key) ?? units.set(key, { sq, value: 0, area: 0, records: 0 }).get(key)!;
-        u.value += counted.count;
-        u.area = Math.max(u.area, Math.min(sample.excavatedArea ?? sq.area, sq.area));
-        u.records++;
-      }
-      const depth = [...units.values()].map((u) => u.records);
+      // One unit per square with a record in scope that counted the class: counts and areas dug summed.
+      const cells = squareCells(gridSquares, samples, { classId: cls.id });
+      const squares: LatticeSquare[] = latticeSquares(cells, shapeOf);
+      const byLabel = new Map(cells.map((c) => [c.label, c]));
+      const records = new Map<string, number>();
+      for (const s of samples)
+        if (s.counts.some((n) => n.classId === cls.id))
+          records.set(`${s.col},${s.row}`, (records.get(`${s.col},${s.row}`) ?? 0) + 1);
+      const depth = [...records.values()];
       const uneven =
         Math.min(...depth) !== Math.max(...depth)
           ? [
-              `Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds per m² of plan whatever their spread. Read the pattern with that in mind, or test contexts dug evenly.`,
+              t.variable === "density"
+                ? `Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): each square's density is its finds over the area dug summed over them, so depth alone does not make a square richer; spits of unequal thickness still differ.`
+                : `Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds whatever their spread. Test the density, or contexts dug evenly.`,
             ]
           : [];
-      const squares: LatticeSquare[] = [...units.values()].map((u) => ({
-        id: u.sq.label,
-        col: u.sq.col,
-        row: u.sq.row,
-        centre: [(u.sq.x0 + u.sq.x1) / 2, (u.sq.y0 + u.sq.y1) / 2],
-        area: u.area,
-        value: u.value,
-      }));
       const spec = {
         type: t.kind,
         neighbours:
           t.neighbours === "distance"
             ? { type: "distance", upper: t.band ?? 1.5 * grid.size }
-            : { type: t.neighbours, from: "grid" },
+            : { type: t.neighbours, from: "shapes" },
         style: t.style,
         variable: t.variable,
         minArea: t.minArea,
@@ -129,14 +143,14 @@ export async function runSquareTests(
         gridSize: grid.size,
       };
       const cellOf = (label: string, value: number, extra: Partial<SquareCellOut> = {}): SquareCellOut => {
-        const u = [...units.values()].find((v) => v.sq.label === label)!;
+        const c = byLabel.get(label)!;
         return {
           label,
-          x0: u.sq.x0,
-          y0: u.sq.y0,
-          x1: u.sq.x1,
-          y1: u.sq.y1,
-          area: u.area,
+          x0: c.x0,
+          y0: c.y0,
+          x1: c.x1,
+          y1: c.y1,
+          area: c.excavated,
           value,
           statistic: null,
           p: null,

@@ -3,10 +3,13 @@
  * (statistics.md: "Squares with no excavated area are not units"), nor those below `minArea` (counts of
  * tiny slivers at the edge are unstable). How edge squares are weighted by area: the Moran, Geary and
  * Getis–Ord formulas of Cliff & Ord and Ord & Getis treat every unit alike and have no place for an area
- * weight, so Loamwork tests the density (count per excavated m², the default variable), which puts a
- * square half cut away by the outline on the same footing as a whole one; the minimum area drops the
- * slivers whose density rests on a few cm². The weights themselves are binary or row-standardised, not
- * area-scaled.
+ * weight, so Loamwork tests the density (count per excavated m², the default variable: the count over
+ * the area dug, summed over the records in scope), which puts a square half cut away by the outline, or
+ * dug in more spits, on the same footing as a whole one; the minimum area drops the slivers whose density
+ * rests on a few cm². Where the neighbours allow it, the cut itself counts: contiguity "from the shapes"
+ * reads the squares as clipped (a square the outline separates from the next is not its neighbour) and a
+ * distance band measures from the centres given (the app passes the clipped squares' centroids). The
+ * weights themselves are binary or row-standardised, not area-scaled.
  */
 import { SpatialInputError } from "../errors";
 import { distanceBand, gridContiguity, shapeContiguity, toNeighbourList } from "./neighbours";

@@ -76,13 +76,22 @@ export function squareCautions(spec: SquareTestSpec, lattice: Lattice, local: bo
     out.push(`Only ${n} squares: the test has little power, and 'no evidence' is not evidence of randomness.`);
   if (lattice.variable === "density") {
     out.push(
-      "Tested as density (count per excavated m²), so squares cut by the outline or only partly dug stand beside whole ones; a small square's density rests on few finds and varies more.",
+      "Edge squares: tested as density (the count over the area dug inside the outline and holes, summed over the spits or contexts in scope), so squares cut by the outline or only partly dug stand beside whole ones; a small square's density rests on few finds and varies more. The weights are not scaled by area: Moran's I, Geary's C and Gi* give every square the same weight.",
     );
   } else {
     out.push(
       "Tested as raw counts: where squares differ in excavated area, counts mix the finds' spread with the area dug — prefer density.",
     );
   }
+  const rule = lattice.rule;
+  if (rule.type !== "distance" && rule.from === "shapes")
+    out.push(
+      "Neighbours from the squares as the outline and holes cut them: two squares that no longer share an edge (or, for queen, a corner) after the cut are not neighbours, even when they are next to each other on the grid.",
+    );
+  else if (rule.type === "distance")
+    out.push(
+      "Distances are measured between the squares' centres as given; for a square cut by the outline, the centroid of the part inside.",
+    );
   const lost = lattice.leftOut.length;
   if (lost > 0) {
     const why = [...new Set(lattice.leftOut.map((l) => l.reason))].join(", ");
