@@ -69,7 +69,7 @@ export function SquareForm({
     setErrors({});
     const entered = classes.filter((c) => (counts[c.id]?.count ?? "").trim() !== "");
     try {
-      await apiClient.call("squareRecord", { siteId, trenchId }, {
+      const made = await apiClient.call("squareRecord", { siteId, trenchId }, {
         col: square.col,
         row: square.row,
         contextId,
@@ -81,7 +81,11 @@ export function SquareForm({
           weightG: counts[c.id]!.weight.trim() === "" ? null : counts[c.id]!.weight.trim(),
         })),
       } as never);
-      onDone(`Square ${square.label} saved.`);
+      onDone(
+        (made as { pending?: boolean } | null)?.pending
+          ? `Square ${square.label} kept on this device; it is sent when the server can be reached.`
+          : `Square ${square.label} saved.`,
+      );
     } catch (err) {
       if (err instanceof ApiError) {
         const byClass: Record<string, string[]> = {};
@@ -101,8 +105,12 @@ export function SquareForm({
     if (!existing) return;
     setBusy(true);
     try {
-      await apiClient.call("squareDelete", { siteId, sampleId: existing.id });
-      onDone(`Square ${square.label} is no longer recorded as dug in that context.`);
+      const gone = await apiClient.call("squareDelete", { siteId, sampleId: existing.id });
+      onDone(
+        (gone as { pending?: boolean } | null)?.pending
+          ? `Square ${square.label}: the deletion is kept on this device; it is sent when the server can be reached.`
+          : `Square ${square.label} is no longer recorded as dug in that context.`,
+      );
     } catch (err) {
       setFailure(err instanceof Error ? err.message : String(err));
     } finally {

@@ -119,6 +119,65 @@ describe("the write path on a device", () => {
   });
 });
 
+describe("counts by square on a device", () => {
+  const square = (col: number, count: number) =>
+    buildRequest("squareRecord", { siteId, trenchId }, {
+      col,
+      row: 2,
+      contextId,
+      spitId: null,
+      excavatedArea: null,
+      counts: [{ classId, count, weightG: null }],
+    } as never);
+
+  it("offline, a square record is queued with its key and answered as pending; a delete too", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(square(3, 12))) as { id: string; col: number; pending: boolean };
+    expect(made).toMatchObject({ col: 3, row: 2, pending: true });
+    const sampleId = "7e57ab1e-0000-4000-8000-000000000001";
+    expect(await write(buildRequest("squareDelete", { siteId, sampleId }))).toEqual({
+      deleted: sampleId,
+      pending: true,
+    });
+    const entries = await outbox.all();
+    expect(entries.map((e) => [e.operation, e.label])).toEqual([
+      ["squareRecord", "counts in square column 3, row 2"],
+      ["squareDelete", "delete square record"],
+    ]);
+    expect(entries[0].localId).toBe(made.id);
+    expect(entries[0].key).toMatch(/^[0-9a-f-]{36}$/);
+    // Deleting the record made on this device drops its queued create instead of sending both.
+    await write(buildRequest("squareDelete", { siteId, sampleId: made.id }));
+    expect((await outbox.all()).map((e) => e.operation)).toEqual(["squareDelete"]);
+  });
+
+  it("sync sends the square records in the order entered, each once, the later one last", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(square(3, 12));
+    await write(square(4, 0));
+    await write(square(3, 14)); // the same square corrected: the server keeps the last
+    const s = server();
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 3, refused: 0, stopped: "done" });
+    expect(s.seen.map((r) => [r.method, JSON.parse(r.body!).col, JSON.parse(r.body!).counts[0].count])).toEqual([
+      ["POST", 3, 12],
+      ["POST", 4, 0],
+      ["POST", 3, 14],
+    ]);
+    expect(s.seen[0].url).toBe(`/api/sites/${siteId}/trenches/${trenchId}/squares`);
+    expect(await outbox.all()).toHaveLength(0);
+  });
+
+  it("a square record refused on sync (a locked context) waits in needs attention with the reason", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(square(3, 12));
+    const s = server(() => new ApiError("Context 1005 is locked.", 409, {}, undefined, "locked"));
+    expect(await syncOutbox({ outbox, send: s.send })).toMatchObject({ sent: 0, refused: 1 });
+    const [entry] = await outbox.all();
+    expect(entry.label).toBe("counts in square column 3, row 2");
+    expect(entry.refusal).toMatchObject({ code: "locked", message: "Context 1005 is locked.", status: 409 });
+  });
+});
+
 describe("sync", () => {
   it("sends in order, links a context made on the device to the server's id for the finds and relation that name it", async () => {
     const write = createWritePath({ outbox, online: () => false });

@@ -36,6 +36,10 @@ const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
   contextUpdate: "edit",
   relationsCreate: "create",
   relationDelete: "delete",
+  // Counts by square are recorded at the sieve like finds; a square record replaces that square's counts in
+  // its context and spit, so sending each in order leaves the last one entered.
+  squareRecord: "create",
+  squareDelete: "delete",
 };
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
@@ -65,7 +69,7 @@ function pathIds(url: string): { siteId: string; recordId: string } {
 
 const needsConnection = (req: ApiRequest) =>
   new ApiError(
-    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets and relations works offline.`,
+    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations and counts by square works offline.`,
     0,
   );
 
@@ -109,6 +113,11 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
 
   if (kind === "create") {
     const localId = crypto.randomUUID();
+    if (req.operation === "squareRecord") {
+      const label = `counts in square column ${String(body.col)}, row ${String(body.row)}`;
+      await outbox.add({ ...base, localId, body: JSON.stringify(body), label });
+      return { id: localId, ...body, pending: true };
+    }
     if (req.operation === "relationsCreate") {
       const stored = toStored(String(body.contextId), body.reading as RelationReading, String(body.otherId));
       const loop = await deps.loopCheck?.(siteId, stored);
@@ -159,9 +168,16 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
     ...base,
     body: req.body,
     baseVersion,
-    label: `${kind === "edit" ? "change" : "delete"} ${req.operation.startsWith("find") ? "find" : req.operation.startsWith("context") ? "context" : "relation"}`,
+    label: `${kind === "edit" ? "change" : "delete"} ${recordWord(req.operation)}`,
   });
   return kind === "edit" ? { id: recordId, ...body, pending: true } : { deleted: recordId, pending: true };
+}
+
+function recordWord(operation: string): string {
+  if (operation.startsWith("find")) return "find";
+  if (operation.startsWith("context")) return "context";
+  if (operation.startsWith("square")) return "square record";
+  return "relation";
 }
 
 async function mergeIntoCreate(outbox: Outbox, create: OutboxEntry, patch: Record<string, unknown>) {
