@@ -52,7 +52,7 @@ export function modelForCount(n: number): FitModel {
 type Mat3 = Tuple<9>;
 
 /** A stored fit matrix as nine numbers, or a clear refusal (a stored fit that lost entries is not drawn). */
-function mat3(matrix: readonly number[]): Mat3 {
+export function mat3(matrix: readonly number[]): Mat3 {
   const m = ofLength(matrix, 9);
   if (!m) throw new PhotoFitError(`A photo fit matrix has nine entries; this one has ${matrix.length}.`);
   return m;

@@ -12,6 +12,7 @@ import type { SiteActor } from "./membership";
 import { assertOutline, getTrench } from "./trenches";
 import { assertContextNumberAllowed } from "./number-blocks";
 import { assertVersion, namesAField, nextVersion } from "./versions";
+import { written } from "./written";
 
 export async function listContexts(db: Db, siteId: string, trenchId?: string) {
   const where = trenchId
@@ -69,10 +70,13 @@ export async function createContext(db: Db, actor: SiteActor, input: ContextCrea
     await getTrench(tx, actor.site.id, input.trenchId);
     await assertContextNumberAllowed(tx, actor, input.number);
     await assertNumberFree(tx, actor.site.id, input.number);
-    const [row] = await tx
-      .insert(contexts)
-      .values({ ...input, extent: input.extent ?? null, siteId: actor.site.id, recordedBy: actor.userId })
-      .returning();
+    const row = written(
+      await tx
+        .insert(contexts)
+        .values({ ...input, extent: input.extent ?? null, siteId: actor.site.id, recordedBy: actor.userId })
+        .returning(),
+      "The new context",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,
@@ -103,11 +107,14 @@ export async function updateContext(
       await assertContextNumberAllowed(tx, actor, input.number);
       await assertNumberFree(tx, actor.site.id, input.number);
     }
-    const [after] = await tx
-      .update(contexts)
-      .set({ ...input, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(contexts.version) }) })
-      .where(eq(contexts.id, contextId))
-      .returning();
+    const after = written(
+      await tx
+        .update(contexts)
+        .set({ ...input, updatedAt: new Date(), ...(namesAField(input) && { version: nextVersion(contexts.version) }) })
+        .where(eq(contexts.id, contextId))
+        .returning(),
+      "The changed context",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,

@@ -106,7 +106,9 @@ const recordWords: Record<RightsRecord, string> = {
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */
 export function changeableFields(record: RightsRecord, role: Role): string[] {
   const rights: Record<string, readonly Role[]> = fieldRights[record];
-  return Object.keys(rights).filter((field) => rights[field].includes(role));
+  return Object.entries(rights)
+    .filter(([, roles]) => roles.includes(role))
+    .map(([field]) => field);
 }
 
 /**

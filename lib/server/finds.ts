@@ -17,6 +17,7 @@ import { getContext } from "./contexts";
 import { getTrench } from "./trenches";
 import { assertFindNumberHeld, voidDeletedNumber } from "./number-blocks";
 import { assertVersion, namesAField, nextVersion } from "./versions";
+import { written } from "./written";
 
 export async function getFind(db: Db | Tx, siteId: string, findId: string): Promise<Find> {
   if (!isUuid(findId)) throw notFound("That find");
@@ -78,19 +79,22 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
     // A number sent with the find was taken from a block the sender holds (recorded offline); else the next one.
     if (input.number !== undefined) await assertFindNumberHeld(tx, actor, input.number);
     const number = input.number ?? (await allocateFindNumbers(tx, actor.site.id));
-    const [row] = await tx
-      .insert(finds)
-      .values({
-        ...input,
-        z: input.z ?? null,
-        count: input.count ?? null,
-        weightG: input.weightG ?? null,
-        siteId: actor.site.id,
-        trenchId: context.trenchId,
-        number,
-        recordedBy: actor.userId,
-      })
-      .returning();
+    const row = written(
+      await tx
+        .insert(finds)
+        .values({
+          ...input,
+          z: input.z ?? null,
+          count: input.count ?? null,
+          weightG: input.weightG ?? null,
+          siteId: actor.site.id,
+          trenchId: context.trenchId,
+          number,
+          recordedBy: actor.userId,
+        })
+        .returning(),
+      "The new find",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,

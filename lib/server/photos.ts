@@ -13,6 +13,7 @@ import { loadFile, photoFolder, removeFolder, saveFile } from "./uploads/file-st
 import { PHOTO_MAX_BYTES } from "./uploads/photo-limits";
 import { fetchUpload, forgetUpload } from "./uploads/remote";
 import { warpProjective } from "./uploads/warp";
+import { written } from "./written";
 
 /**
  * Photos of the trench plan. `width`/`height` are those of the display derivative (EXIF orientation
@@ -79,22 +80,25 @@ export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<Pho
   await saveFile(`${folder}/display.jpg`, d.display);
   await saveFile(`${folder}/thumb.jpg`, d.thumb);
   const row = await db.transaction(async (tx) => {
-    const [row] = await tx
-      .insert(photos)
-      .values({
-        id,
-        siteId: up.siteId,
-        trenchId: up.trenchId,
-        fileKey: up.fileKey,
-        fileName: up.fileName,
-        mimeType: up.mimeType,
-        width: d.width,
-        height: d.height,
-        displayPath: `${folder}/display.jpg`,
-        thumbPath: `${folder}/thumb.jpg`,
-        uploadedBy: up.userId,
-      })
-      .returning();
+    const row = written(
+      await tx
+        .insert(photos)
+        .values({
+          id,
+          siteId: up.siteId,
+          trenchId: up.trenchId,
+          fileKey: up.fileKey,
+          fileName: up.fileName,
+          mimeType: up.mimeType,
+          width: d.width,
+          height: d.height,
+          displayPath: `${folder}/display.jpg`,
+          thumbPath: `${folder}/thumb.jpg`,
+          uploadedBy: up.userId,
+        })
+        .returning(),
+      "The new photo",
+    );
     await recordAudit(tx, {
       siteId: up.siteId,
       actorId: up.userId,
@@ -161,7 +165,10 @@ export async function fitSitePhoto(
     };
   }
   const after = await db.transaction(async (tx) => {
-    const [after] = await tx.update(photos).set({ fit: stored }).where(eq(photos.id, photoId)).returning();
+    const after = written(
+      await tx.update(photos).set({ fit: stored }).where(eq(photos.id, photoId)).returning(),
+      "The photo's fit",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,

@@ -16,6 +16,7 @@ import { buildMatrix, loopIfAdded, type Matrix } from "./matrix";
 import type { SiteActor } from "./membership";
 import { getContext } from "./contexts";
 import { lockSiteNumbers } from "./find-numbers";
+import { written } from "./written";
 
 export async function listRelations(db: Db | Tx, siteId: string): Promise<ContextRelation[]> {
   return db
@@ -114,10 +115,13 @@ export async function addRelation(db: Db, actor: SiteActor, input: RelationCreat
         { loop },
       );
     }
-    const [row] = await tx
-      .insert(contextRelations)
-      .values({ ...stored, siteId: actor.site.id, createdBy: actor.userId })
-      .returning();
+    const row = written(
+      await tx
+        .insert(contextRelations)
+        .values({ ...stored, siteId: actor.site.id, createdBy: actor.userId })
+        .returning(),
+      "The new relation",
+    );
     const after = { ...row, reads: `${from.number} ${readingLabels[row.kind]} ${to.number}` };
     await recordAudit(tx, {
       siteId: actor.site.id,

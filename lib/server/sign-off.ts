@@ -12,7 +12,9 @@ import type { SiteActor } from "./membership";
 import { formatStamp } from "./locks";
 import { notifyReopened, notifySignedOff, notifySubmitted } from "./mail/notify-sign-off";
 import type { Delivery } from "./mail/transport";
+import { getTrench } from "./trenches";
 import { nextVersion } from "./versions";
+import { written } from "./written";
 
 /**
  * Sign-off of context sheets (product.md "Record states"): a recorder submits a complete sheet, a director
@@ -61,7 +63,7 @@ export async function sheetProblems(tx: Db | Tx, context: Context): Promise<Shee
   }
   const [trench] = await tx.select().from(trenches).where(eq(trenches.id, context.trenchId));
   const check = trench ? checkOutline(trench.outline) : null;
-  if (!check?.ok) {
+  if (!trench || !check?.ok) {
     problems.push({
       field: "finds",
       message: `Trench ${trench?.code ?? "?"} has no valid outline, so its finds cannot be checked.`,
@@ -125,17 +127,20 @@ export async function submitContext(db: Db, actor: SiteActor, contextId: string)
     if (before.state !== "open") wrongState(before, "submitted");
     const problems = await sheetProblems(tx, before);
     if (problems.length) refuseIncomplete(before, problems);
-    const [after] = await tx
-      .update(contexts)
-      .set({
-        state: "awaiting",
-        submittedAt: new Date(),
-        submittedBy: actor.userId,
-        updatedAt: new Date(),
-        version: nextVersion(contexts.version),
-      })
-      .where(eq(contexts.id, contextId))
-      .returning();
+    const after = written(
+      await tx
+        .update(contexts)
+        .set({
+          state: "awaiting",
+          submittedAt: new Date(),
+          submittedBy: actor.userId,
+          updatedAt: new Date(),
+          version: nextVersion(contexts.version),
+        })
+        .where(eq(contexts.id, contextId))
+        .returning(),
+      "The submitted context",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,
@@ -159,17 +164,20 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
     const problems = await sheetProblems(tx, before);
     if (problems.length) refuseIncomplete(before, problems);
     const now = new Date();
-    const [after] = await tx
-      .update(contexts)
-      .set({
-        state: "signed_off",
-        signedOffAt: now,
-        signedOffBy: actor.userId,
-        updatedAt: now,
-        version: nextVersion(contexts.version),
-      })
-      .where(eq(contexts.id, contextId))
-      .returning();
+    const after = written(
+      await tx
+        .update(contexts)
+        .set({
+          state: "signed_off",
+          signedOffAt: now,
+          signedOffBy: actor.userId,
+          updatedAt: now,
+          version: nextVersion(contexts.version),
+        })
+        .where(eq(contexts.id, contextId))
+        .returning(),
+      "The signed-off context",
+    );
     const fingerprint = await contextFingerprint(tx, after);
     await recordAudit(tx, {
       siteId: actor.site.id,
@@ -180,18 +188,22 @@ export async function signOffContext(db: Db, actor: SiteActor, contextId: string
       before,
       after: { ...after, fingerprint },
     });
-    const [openLeft] = await tx
-      .select({ n: sql<number>`count(*)::int` })
+    const [stillOpen] = await tx
+      .select({ id: contexts.id })
       .from(contexts)
-      .where(and(eq(contexts.trenchId, after.trenchId), ne(contexts.state, "signed_off")));
+      .where(and(eq(contexts.trenchId, after.trenchId), ne(contexts.state, "signed_off")))
+      .limit(1);
     let trench: Trench | undefined;
-    if (openLeft.n === 0) {
-      const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
-      [trench] = await tx
-        .update(trenches)
-        .set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(trenches.version) })
-        .where(eq(trenches.id, t0.id))
-        .returning();
+    if (!stillOpen) {
+      const t0 = await getTrench(tx, actor.site.id, after.trenchId, { forUpdate: true });
+      trench = written(
+        await tx
+          .update(trenches)
+          .set({ signedOffAt: now, signedOffBy: actor.userId, updatedAt: now, version: nextVersion(trenches.version) })
+          .where(eq(trenches.id, t0.id))
+          .returning(),
+        "The signed-off trench",
+      );
       const trenchPrint = await trenchFingerprint(tx, trench);
       await recordAudit(tx, {
         siteId: actor.site.id,
@@ -224,19 +236,22 @@ export async function reopenContext(
     const before = await lockedContext(tx, actor.site.id, contextId);
     if (before.state === "open") wrongState(before, "reopened");
     const now = new Date();
-    const [after] = await tx
-      .update(contexts)
-      .set({
-        state: "open",
-        submittedAt: null,
-        submittedBy: null,
-        signedOffAt: null,
-        signedOffBy: null,
-        updatedAt: now,
-        version: nextVersion(contexts.version),
-      })
-      .where(eq(contexts.id, contextId))
-      .returning();
+    const after = written(
+      await tx
+        .update(contexts)
+        .set({
+          state: "open",
+          submittedAt: null,
+          submittedBy: null,
+          signedOffAt: null,
+          signedOffBy: null,
+          updatedAt: now,
+          version: nextVersion(contexts.version),
+        })
+        .where(eq(contexts.id, contextId))
+        .returning(),
+      "The reopened context",
+    );
     const action = before.state === "signed_off" ? "reopen" : "return";
     await recordAudit(tx, {
       siteId: actor.site.id,
@@ -248,7 +263,7 @@ export async function reopenContext(
       after,
       reason: text,
     });
-    const [t0] = await tx.select().from(trenches).where(eq(trenches.id, after.trenchId)).for("update");
+    const t0 = await getTrench(tx, actor.site.id, after.trenchId, { forUpdate: true });
     if (t0.signedOffAt) {
       const [t1] = await tx
         .update(trenches)

@@ -14,6 +14,7 @@ import type { SiteActor } from "./membership";
 import { assertGridChange } from "./squares";
 import { assertVersion, namesAField, nextVersion } from "./versions";
 import { countOf } from "@/lib/words/count";
+import { written } from "./written";
 
 /** Validates an outline or refuses it with the reason, as a field error on `outline`. */
 /** A valid polygon as a window, or a 400 naming the field (`outline` of a trench, `extent` of a context) and why. */
@@ -53,16 +54,19 @@ export async function createTrench(db: Db, actor: SiteActor, input: TrenchCreate
       .from(trenches)
       .where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
     if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
-    const [row] = await tx
-      .insert(trenches)
-      .values({
-        siteId: actor.site.id,
-        code: input.code,
-        name: input.name,
-        outline: windowToPolygon(window),
-        surfaceLevel: input.surfaceLevel ?? null,
-      })
-      .returning();
+    const row = written(
+      await tx
+        .insert(trenches)
+        .values({
+          siteId: actor.site.id,
+          code: input.code,
+          name: input.name,
+          outline: windowToPolygon(window),
+          surfaceLevel: input.surfaceLevel ?? null,
+        })
+        .returning(),
+      "The new trench",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,
@@ -131,19 +135,22 @@ export async function updateTrench(
         .where(and(eq(trenches.siteId, actor.site.id), eq(trenches.code, input.code)));
       if (taken) throw conflict(`Trench ${input.code} already exists on this site.`);
     }
-    const [after] = await tx
-      .update(trenches)
-      .set({
-        ...(input.code !== undefined && { code: input.code }),
-        ...(input.name !== undefined && { name: input.name }),
-        ...(input.surfaceLevel !== undefined && { surfaceLevel: input.surfaceLevel }),
-        ...(window && { outline: windowToPolygon(window) }),
-        ...nextGrid,
-        ...(namesAField(input) && { version: nextVersion(trenches.version) }),
-        updatedAt: new Date(),
-      })
-      .where(eq(trenches.id, trenchId))
-      .returning();
+    const after = written(
+      await tx
+        .update(trenches)
+        .set({
+          ...(input.code !== undefined && { code: input.code }),
+          ...(input.name !== undefined && { name: input.name }),
+          ...(input.surfaceLevel !== undefined && { surfaceLevel: input.surfaceLevel }),
+          ...(window && { outline: windowToPolygon(window) }),
+          ...nextGrid,
+          ...(namesAField(input) && { version: nextVersion(trenches.version) }),
+          updatedAt: new Date(),
+        })
+        .where(eq(trenches.id, trenchId))
+        .returning(),
+      "The changed trench",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,

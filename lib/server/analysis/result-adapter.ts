@@ -21,10 +21,15 @@ const VERDICTS: Record<string, VerdictWord> = {
 
 const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
 const minus = (a: (number | null)[], r: number[]) =>
-  a.map((v, k) => (v === null ? null : Number((v - r[k]).toPrecision(8))));
+  a.map((v, k) => {
+    const rk = r[k];
+    // A value without its distance is not drawn: a gap, as where the curve is undefined.
+    return v === null || rk === undefined ? null : Number((v - rk).toPrecision(8));
+  });
 
 function curveOf(t: EngineTest, subtractR: boolean): { curve: Curve; departures: Departure[] } {
-  const c = t.curves!;
+  const c = t.curves;
+  if (!c) throw new Error(`The engine's ${t.type} result has no curves to plot.`);
   const f = (a: (number | null)[]) => (subtractR ? minus(a, c.r) : a);
   return {
     curve: { r: c.r, obs: f(c.observed), lo: f(c.band.lo), hi: f(c.band.hi), theo: f(c.reference) },
@@ -65,6 +70,7 @@ export function adaptResult(input: AdaptInput): RunResult {
   const pool = `${finds.length} ${classes.map((c) => c.code).join(" + ")}`;
   const tests: TestOut[] = engine.results.map((t, i) => {
     const entry = entries[i];
+    if (!entry) throw new Error(`The engine returned ${engine.results.length} results for ${entries.length} tests.`);
     const base = {
       verdict: VERDICTS[t.verdict] ?? "no-evidence",
       sentence: sentenceOf(t),

@@ -16,6 +16,7 @@ import { countsByClass, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
 import { squareRefusals } from "./square-tests";
 import { MIN_POINTS, tooFewMessage } from "./thresholds";
+import { written } from "../written";
 
 /** Every refusal of a test in this scope: a class it names is missing or has too few finds. */
 export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
@@ -73,20 +74,23 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
   };
   const seed = input.params.seed ?? randomInt(0, 2 ** 31 - 1);
   const row = await db.transaction(async (tx) => {
-    const [run] = await tx
-      .insert(analysisRuns)
-      .values({
-        siteId: actor.site.id,
-        trenchId: data.trench.id,
-        scope: input.scope,
-        method: [...new Set([...input.tests, ...input.squareTests].map((t) => t.kind))].join(","),
-        params,
-        seed,
-        engineVersion: ENGINE_VERSION,
-        fingerprint: data.fingerprint,
-        createdBy: actor.userId,
-      })
-      .returning();
+    const run = written(
+      await tx
+        .insert(analysisRuns)
+        .values({
+          siteId: actor.site.id,
+          trenchId: data.trench.id,
+          scope: input.scope,
+          method: [...new Set([...input.tests, ...input.squareTests].map((t) => t.kind))].join(","),
+          params,
+          seed,
+          engineVersion: ENGINE_VERSION,
+          fingerprint: data.fingerprint,
+          createdBy: actor.userId,
+        })
+        .returning(),
+      "The new run",
+    );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,

@@ -12,9 +12,13 @@ type Feature = {
 };
 
 /** Twice the signed area of a ring (shoelace formula); positive when counter-clockwise. */
-export function signedArea2(ring: readonly (readonly number[])[]): number {
+export function signedArea2(ring: readonly (readonly [number, number, ...number[]])[]): number {
   let s = 0;
-  for (let i = 0; i + 1 < ring.length; i++) s += ring[i][0] * ring[i + 1][1] - ring[i + 1][0] * ring[i][1];
+  let prev: (typeof ring)[number] | undefined;
+  for (const p of ring) {
+    if (prev) s += prev[0] * p[1] - p[0] * prev[1];
+    prev = p;
+  }
   return s;
 }
 

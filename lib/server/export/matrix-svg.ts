@@ -62,7 +62,8 @@ export function drawMatrix(
     const box = g.node(n.key);
     const x = box.x - box.width / 2;
     const y = box.y - box.height / 2;
-    const first = info.get(n.members[0].id);
+    const [lead] = n.members;
+    const first = lead && info.get(lead.id);
     const locked = n.members.every((m) => info.get(m.id)?.state === "signed_off");
     parts.push(`<g class="ctx" data-node="${esc(n.label)}">`);
     parts.push(

@@ -89,7 +89,10 @@ export async function commitImport(db: Db, actor: SiteActor, input: ImportCommit
     for (let i = 0; i < result.valid.length; i += BATCH) {
       await insertBatch(tx, actor, importId, result.valid.slice(i, i + BATCH), numbers.slice(i, i + BATCH));
     }
-    const range = numbers.reduce((m, n) => [Math.min(m[0], n), Math.max(m[1], n)], [Infinity, -Infinity]);
+    const range = numbers.reduce<[number, number]>(
+      (m, n) => [Math.min(m[0], n), Math.max(m[1], n)],
+      [Infinity, -Infinity],
+    );
     // One trail entry for the whole file; each find has its own (insertBatch), naming this import.
     const summary = {
       fileName: input.fileName,

@@ -84,14 +84,17 @@ export async function workRuns(
   const ids: string[] = [];
   for (let k = 0; k < concurrency; k++) {
     ids.push(
-      await boss.work<{ runId: string }>(JOB_NAME, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-        const controller = new AbortController();
-        controllers.add(controller);
-        log?.(`run ${job.data.runId} taken`);
-        try {
-          await execute(job.data.runId, controller.signal);
-        } finally {
-          controllers.delete(controller);
+      await boss.work<{ runId: string }>(JOB_NAME, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async (jobs) => {
+        // One job per batch (batchSize 1); an empty batch is nothing to do.
+        for (const job of jobs) {
+          const controller = new AbortController();
+          controllers.add(controller);
+          log?.(`run ${job.data.runId} taken`);
+          try {
+            await execute(job.data.runId, controller.signal);
+          } finally {
+            controllers.delete(controller);
+          }
         }
       }),
     );

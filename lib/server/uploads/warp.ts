@@ -1,6 +1,6 @@
 import "server-only";
 import sharp from "sharp";
-import { applyFit, invertFit } from "@/lib/geometry/photo-fit";
+import { applyFit, invertFit, mat3 } from "@/lib/geometry/photo-fit";
 import { badInput } from "../errors";
 
 /** Longest side of the warped raster. */
@@ -30,7 +30,8 @@ export async function warpProjective(display: Buffer, matrix: number[]): Promise
     [w, h],
     [0, h],
   ];
-  const denominators = corners.map(([px, py]) => matrix[6] * px + matrix[7] * py + matrix[8]);
+  const [, , , , , , wx, wy, w0] = mat3(matrix);
+  const denominators = corners.map(([px, py]) => wx * px + wy * py + w0);
   if (!denominators.every((d) => d > 0) && !denominators.every((d) => d < 0)) {
     throw badInput("This projective fit folds the photo through its horizon; check the control points.", {
       points: ["The fit folds the photo."],
@@ -49,6 +50,12 @@ export async function warpProjective(display: Buffer, matrix: number[]): Promise
   const outH = Math.max(1, Math.round((maxY - minY) * ppm));
   const inv = invertFit(matrix);
   const out = Buffer.alloc(outW * outH * 4);
+  // The corners below are clamped into the photo, so a missing byte means the decoder's raster is short.
+  const channel = (at: number): number => {
+    const v = data[at];
+    if (v === undefined) throw new Error(`The decoded photo has no byte ${at} (${w} × ${h} px, 4 channels).`);
+    return v;
+  };
   for (let j = 0; j < outH; j++) {
     const y = maxY - ((j + 0.5) / outH) * (maxY - minY);
     for (let i = 0; i < outW; i++) {
@@ -65,8 +72,8 @@ export async function warpProjective(display: Buffer, matrix: number[]): Promise
       const ay = sy - y0;
       const o = 4 * (j * outW + i);
       for (let ch = 0; ch < 4; ch++) {
-        const top = data[4 * (y0 * w + x0) + ch] * (1 - ax) + data[4 * (y0 * w + x1) + ch] * ax;
-        const bottom = data[4 * (y1 * w + x0) + ch] * (1 - ax) + data[4 * (y1 * w + x1) + ch] * ax;
+        const top = channel(4 * (y0 * w + x0) + ch) * (1 - ax) + channel(4 * (y0 * w + x1) + ch) * ax;
+        const bottom = channel(4 * (y1 * w + x0) + ch) * (1 - ax) + channel(4 * (y1 * w + x1) + ch) * ax;
         out[o + ch] = Math.round(top * (1 - ay) + bottom * ay);
       }
     }
