@@ -7,17 +7,22 @@ import { PlotFrame } from "./plot-frame";
 /** Nearest-neighbour distances of one class, binned. */
 export function NnHistogram({ t, code, colour }: { t: ClarkEvansOut; code: string; colour: string }) {
   const { edges, counts } = t.histogram;
-  const rows = counts.map((c, k) => ({
-    bin: `${edges[k].toFixed(2)}–${edges[k + 1].toFixed(2)}`,
-    mid: (edges[k] + edges[k + 1]) / 2,
-    count: c,
+  // Bin k runs from edge k to edge k + 1; a count without both edges has no place on the axis.
+  const bins = counts.flatMap((count, k) => {
+    const [from, to] = [edges[k], edges[k + 1]];
+    return from === undefined || to === undefined ? [] : [{ from, to, count }];
+  });
+  const rows = bins.map(({ from, to, count }) => ({
+    bin: `${from.toFixed(2)}–${to.toFixed(2)}`,
+    mid: (from + to) / 2,
+    count,
   }));
   return (
     <PlotFrame
       title={`Nearest-neighbour distances, ${code}`}
       name={`nn-histogram-${code}`}
       height={220}
-      csv={() => counts.map((c, k) => ({ from_m: edges[k], to_m: edges[k + 1], finds: c }))}
+      csv={() => bins.map(({ from, to, count }) => ({ from_m: from, to_m: to, finds: count }))}
       caption={`Mean ${t.meanNN.toFixed(3)} m; under CSR in this trench ${t.expectedNN.toFixed(3)} m; R = ${t.R.toFixed(3)}.`}
     >
       <ResponsiveContainer width="100%" height={220}>

@@ -7,8 +7,8 @@ import { useRun } from "./use-run";
 /** Two finished runs side by side (same scope with another seed, another context, another correction…). */
 export function CompareView({ siteId, ids, onClose }: { siteId: string; ids: string[]; onClose: () => void }) {
   const { when } = useDates();
-  const a = useRun(siteId, ids[0]);
-  const b = useRun(siteId, ids[1]);
+  const a = useRun(siteId, ids[0] ?? null);
+  const b = useRun(siteId, ids[1] ?? null);
   return (
     <section aria-label="Two runs side by side" className="space-y-3">
       <div className="flex items-center justify-between">

@@ -38,7 +38,7 @@ export function CurvePlot({ title, name, curve, yLabel, theoLabel, colour, depar
   const csv = () =>
     curve.r.map((r, k) => ({
       r,
-      observed: curve.obs[k],
+      observed: curve.obs[k] ?? null,
       band_lo: curve.lo?.[k] ?? null,
       band_hi: curve.hi?.[k] ?? null,
       null_curve: curve.theo?.[k] ?? null,

@@ -12,8 +12,10 @@ function ramp(t: number): string {
   const i = Math.min(RAMP.length - 2, Math.floor(x));
   const f = x - i;
   const hex = (s: string, k: number) => parseInt(s.slice(1 + 2 * k, 3 + 2 * k), 16);
+  // i is clamped to 0 … RAMP.length − 2 above, so both stops exist.
+  const [lo, hi] = [RAMP[i]!, RAMP[i + 1]!];
   const mix = (k: number) =>
-    Math.round(hex(RAMP[i], k) * (1 - f) + hex(RAMP[i + 1], k) * f)
+    Math.round(hex(lo, k) * (1 - f) + hex(hi, k) * f)
       .toString(16)
       .padStart(2, "0");
   return `#${mix(0)}${mix(1)}${mix(2)}`;
@@ -61,7 +63,8 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
       if (!(v > 0)) return;
       const x = n4(density.minX - minX + (k % density.nx) * density.dx);
       const y = n4(sy(density.minY + (Math.floor(k / density.nx) + 1) * density.dy));
-      byShade[Math.min(SHADES - 1, Math.round((v / peak) * (SHADES - 1)))].push(`M${x} ${y}h${w}v${h}h${-w}z`);
+      // A value off the scale (no finite peak) is left unshaded.
+      byShade[Math.min(SHADES - 1, Math.round((v / peak) * (SHADES - 1)))]?.push(`M${x} ${y}h${w}v${h}h${-w}z`);
     });
     return byShade.flatMap((cells, shade) =>
       cells.length ? [{ shade, d: cells.join(""), fill: ramp(shade / (SHADES - 1)) }] : [],
@@ -71,7 +74,12 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
     if (!pts) return "";
     const r = n4(span / 220);
     return pts.x
-      .map((x, k) => `M${n4(x - minX - r)} ${n4(sy(pts.y[k]))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`)
+      .map((x, k) => {
+        const y = pts.y[k];
+        return y === undefined
+          ? ""
+          : `M${n4(x - minX - r)} ${n4(sy(y))}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`;
+      })
       .join("");
   }, [pts, minX, sy, span]);
   const csv = () =>

@@ -1,6 +1,7 @@
 /** Marks over the finds: selection, the spot being recorded, a refused spot, photo-fit points. */
 import { formatMetres, toScreen, type View } from "@/lib/geometry/plan-view";
 import type { Pt } from "@/lib/geometry/outline-edit";
+import { ofLength } from "@/lib/geometry/small-linalg";
 import { ACCENT, INK, WARN } from "./draw";
 
 export type Refused = { at: Pt; nearest: Pt; distance: number };
@@ -98,7 +99,10 @@ export function drawFitMarks(c: CanvasRenderingContext2D, v: View, marks: FitMar
 /** The fitted photo, drawn with its affine transform composed with the view (exact for similarity and affine). */
 export function drawPhoto(c: CanvasRenderingContext2D, v: View, p: Photo) {
   if (!p.img || !p.img.complete || !p.img.naturalWidth) return;
-  const [a, b, cc, d, e, f] = p.matrix;
+  // A stored fit that lost entries is not drawn (as the server refuses to use one).
+  const m = ofLength(p.matrix, 9);
+  if (!m) return;
+  const [a, b, cc, d, e, f] = m;
   const s = v.scale;
   c.save();
   c.globalAlpha = p.opacity;

@@ -1,6 +1,6 @@
 /** Canvas drawing for the plan layers, in screen pixels (the Konva layer has already applied the pixel ratio). */
 import { gridLines, labelDecimals, toScreen, type View } from "@/lib/geometry/plan-view";
-import type { Problem, Pt, Rings } from "@/lib/geometry/outline-edit";
+import { vertex, type Problem, type Pt, type Rings } from "@/lib/geometry/outline-edit";
 import type { ClassRow, FindRow } from "./rows";
 import { openSymbols, traceSymbol } from "./symbols";
 import { pixelRatioOf, type Area } from "./view-cache";
@@ -110,20 +110,17 @@ export function drawOutline(
     c.setLineDash([10, 6]);
     c.beginPath();
     const ring = rings[problem.ring] ?? [];
-    const edge = (i: number) => {
-      const a = toScreen(v, ...ring[i]);
-      const b = toScreen(v, ...ring[(i + 1) % ring.length]);
-      c.moveTo(...a);
-      c.lineTo(...b);
+    const edge = (r: readonly Pt[], i: number) => {
+      c.moveTo(...toScreen(v, ...vertex(r, i)));
+      c.lineTo(...toScreen(v, ...vertex(r, i + 1)));
     };
-    if (problem.edges.length) problem.edges.forEach(edge);
-    else
-      for (const k of problem.rings ?? [problem.ring])
-        rings[k]?.forEach((_, i) => {
-          const r = rings[k];
-          c.moveTo(...toScreen(v, ...r[i]));
-          c.lineTo(...toScreen(v, ...r[(i + 1) % r.length]));
-        });
+    if (problem.edges.length) {
+      if (ring.length) problem.edges.forEach((i) => edge(ring, i));
+    } else
+      for (const k of problem.rings ?? [problem.ring]) {
+        const r = rings[k] ?? [];
+        r.forEach((_, i) => edge(r, i));
+      }
     c.stroke();
     c.setLineDash([]);
   }
@@ -151,7 +148,9 @@ export function drawExtents(
     c.lineWidth = 2;
     c.stroke();
     c.setLineDash([]);
-    const [lx, ly] = toScreen(v, ...rings[0][0]);
+    const corner = rings[0]?.[0];
+    if (!corner) continue;
+    const [lx, ly] = toScreen(v, ...corner);
     const label = String(ctx.number);
     const tw = c.measureText(label).width;
     c.fillStyle = EXTENT;
@@ -172,7 +171,7 @@ export function drawVertices(
   c.save();
   rings.forEach((r, k) => {
     r.forEach((p, i) => {
-      const q = r[(i + 1) % r.length];
+      const q = vertex(r, i + 1);
       const [mx, my] = toScreen(v, (p[0] + q[0]) / 2, (p[1] + q[1]) / 2);
       c.beginPath();
       c.arc(mx, my, 6, 0, Math.PI * 2);

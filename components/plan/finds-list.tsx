@@ -93,6 +93,8 @@ export const FindsList = memo(function FindsList({
         <ul aria-label="Finds on the plan" className="relative w-full" style={{ height: rows.getTotalSize() }}>
           {rows.getVirtualItems().map((item) => {
             const f = shown[item.index];
+            // The list may shrink under the virtualiser between its count and this render.
+            if (!f) return null;
             const cls = classes.get(f.classId);
             const on = selected.has(f.id);
             return (

@@ -172,6 +172,7 @@ export default function PlanCanvas(p: Props) {
 
   const startPinch = () => {
     const [a, b] = [...pointers.current.values()];
+    if (!a || !b) return;
     gesture.current = {
       kind: "pinch",
       dist: Math.hypot(a[0] - b[0], a[1] - b[1]) || 1,
@@ -218,6 +219,7 @@ export default function PlanCanvas(p: Props) {
     const g = gesture.current;
     if (g.kind === "pinch") {
       const [a, b] = [...pointers.current.values()];
+      if (!a || !b) return;
       const dist = Math.hypot(a[0] - b[0], a[1] - b[1]);
       const mid: Pt = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
       const shifted = { ...g.view, ox: g.view.ox + mid[0] - g.mid[0], oy: g.view.oy + mid[1] - g.mid[1] };

@@ -17,8 +17,7 @@ function starPoints(x: number, y: number, r: number): [number, number][] {
 }
 
 function poly(ctx: CanvasRenderingContext2D | Path2D, pts: [number, number][]) {
-  ctx.moveTo(pts[0][0], pts[0][1]);
-  for (let i = 1; i < pts.length; i++) ctx.lineTo(pts[i][0], pts[i][1]);
+  pts.forEach(([x, y], i) => (i === 0 ? ctx.moveTo(x, y) : ctx.lineTo(x, y)));
   ctx.closePath();
 }
 

@@ -19,9 +19,9 @@ export function usePlanView(rings: Rings, savedRings: Rings) {
   useEffect(() => {
     const el = box.current;
     if (!el) return;
-    const ro = new ResizeObserver(([e]) =>
-      setSize({ width: Math.floor(e.contentRect.width), height: Math.floor(e.contentRect.height) }),
-    );
+    const ro = new ResizeObserver(([e]) => {
+      if (e) setSize({ width: Math.floor(e.contentRect.width), height: Math.floor(e.contentRect.height) });
+    });
     ro.observe(el);
     return () => ro.disconnect();
   }, []);

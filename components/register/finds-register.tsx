@@ -146,12 +146,12 @@ export function FindsRegister({
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => {
-                  const active = sorting[0].id === h.id;
+                  const active = sorting[0]?.id === h.id;
                   return (
                     <th
                       key={h.id}
                       className={numeric.has(h.id) ? "num" : ""}
-                      aria-sort={active ? (sorting[0].desc ? "descending" : "ascending") : undefined}
+                      aria-sort={active ? (sorting[0]?.desc ? "descending" : "ascending") : undefined}
                     >
                       {sortable.has(h.id) ? (
                         <button
@@ -160,7 +160,7 @@ export function FindsRegister({
                           onClick={() => sortBy(h.id)}
                         >
                           {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden>{active ? (sorting[0].desc ? "▼" : "▲") : "↕"}</span>
+                          <span aria-hidden>{active ? (sorting[0]?.desc ? "▼" : "▲") : "↕"}</span>
                         </button>
                       ) : (
                         flexRender(h.column.columnDef.header, h.getContext())

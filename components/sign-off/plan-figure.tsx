@@ -39,7 +39,7 @@ export function PlanFigure({
     vw = maxX - minX + 2 * pad,
     vh = maxY - minY + 2 * pad;
   const step = gridStep(span);
-  const lines: number[][] = [];
+  const lines: [number, 0 | 1][] = [];
   for (let x = Math.ceil(vx / step) * step; x <= vx + vw; x += step) lines.push([x, 0]);
   for (let y = Math.ceil((minY - pad) / step) * step; y <= maxY + pad; y += step) lines.push([y, 1]);
   const d = outline.coordinates

@@ -10,7 +10,7 @@ export type Pt = [number, number];
 export type Rings = Pt[][];
 
 /** Vertex i of a ring, indices wrapping round; an empty ring has none, which the editor never makes. */
-function vertex(ring: readonly Pt[], i: number): Pt {
+export function vertex(ring: readonly Pt[], i: number): Pt {
   const p = ring[((i % ring.length) + ring.length) % ring.length];
   if (!p) throw new Error("An outline ring has no vertices.");
   return p;
