@@ -4,7 +4,7 @@
  * 10 m × 6 m with a 2 m × 1 m baulk: 58 squares of 1 m, every one recorded, with a block of high counts.
  */
 import { describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { session, call } from "../support/harness";
@@ -182,7 +182,7 @@ describe("square-count tests in a run", () => {
     expect((await read(fx, res.json.id)).outOfDate).toBe(true);
   });
 
-  it("refuses a run with no test, and square tests where the trench has no grid or no counts", async () => {
+  it("refuses a run with no test, and square tests with no grid, no counts or no square left to test, writing nothing", async () => {
     const fx = await makeSite();
     const none = await start(fx, {});
     expect(none.status).toBe(400);
@@ -194,6 +194,24 @@ describe("square-count tests in a run", () => {
     const noCounts = await start(fx, { squareTests: [{ kind: "moran" }] });
     expect(noCounts.status).toBe(400);
     expect(noCounts.json.error).toMatch(/No counts by grid square are recorded in the chosen contexts/);
+    // A grid that leaves no square: a minimum area above any square's, or every counted square now outside.
+    await recordEverySquare(fx);
+    const tooBig = await start(fx, { squareTests: [{ kind: "moran", minArea: 1.5 }] });
+    expect(tooBig.status).toBe(400);
+    expect(tooBig.json.error).toBe(
+      "A minimum area of 1.5 m² leaves no square to test: the most any square in scope was dug is 1 m².",
+    );
+    const db0 = await getDb();
+    // Every record moved off the trench, as a redrawn outline would leave them.
+    await db0
+      .update(schema.squareSamples)
+      .set({ col: sql`${schema.squareSamples.col} + 40` })
+      .where(eq(schema.squareSamples.trenchId, fx.trench.id));
+    const outside = await start(fx, { squareTests: [{ kind: "moran" }] });
+    expect(outside.status).toBe(400);
+    expect(outside.json.error).toMatch(
+      /^The grid leaves no square to test: every square counted in the chosen contexts lies outside trench/,
+    );
     const bad = await start(fx, { squareTests: [{ kind: "moran", neighbours: "bishop" }] });
     expect(bad.status).toBe(400);
     const db = await getDb();

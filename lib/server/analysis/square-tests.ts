@@ -45,7 +45,28 @@ export function squareRefusals(data: ScopeData, tests: SquareTest[]): string[] {
       `Trench ${data.trench.code} has no square grid: a director sets its square size and origin before counts by square can be tested.`,
     ];
   if (!data.squareSamples.length) return ["No counts by grid square are recorded in the chosen contexts."];
-  return [];
+  // A grid that leaves no square to test: every recorded square outside the outline as drawn now, or every
+  // one below a test's minimum area. Said before the run is stored, not found out when it runs.
+  const grid = gridOf(data.trench)!;
+  const bySquare = new Map(trenchSquares(data.trench, grid).map((s) => [`${s.col},${s.row}`, s]));
+  const dug = new Map<string, number>();
+  for (const s of data.squareSamples) {
+    const sq = bySquare.get(`${s.col},${s.row}`);
+    if (sq)
+      dug.set(`${s.col},${s.row}`, (dug.get(`${s.col},${s.row}`) ?? 0) + Math.min(s.excavatedArea ?? sq.area, sq.area));
+  }
+  if (!dug.size)
+    return [
+      `The grid leaves no square to test: every square counted in the chosen contexts lies outside trench ${data.trench.code}'s outline as drawn now.`,
+    ];
+  const largest = Math.max(...dug.values());
+  const out: string[] = [];
+  for (const t of tests)
+    if (t.minArea > largest)
+      out.push(
+        `A minimum area of ${t.minArea} m² leaves no square to test: the most any square in scope was dug is ${+largest.toFixed(4)} m².`,
+      );
+  return [...new Set(out)];
 }
 
 /** How many square-count tests a run holds: one per test and class in scope (for the run's progress). */
