@@ -18,62 +18,9 @@ import { session, call } from "../support/harness";
  * and tests/support/pg-per-file.ts) — a throwaway cluster on a free loopback port with a database.
  */
 const setup = await vi.hoisted(async () => {
-  const { spawnSync } = await import("node:child_process");
-  const { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } = await import("node:fs");
-  const { tmpdir } = await import("node:os");
-  const path = await import("node:path");
   process.env.LOAMWORK_RUN_QUEUE = "pg-boss";
-  const root = "/usr/lib/postgresql";
-  const bin = existsSync(root)
-    ? readdirSync(root)
-        .map((v) => path.join(root, v, "bin"))
-        .find((b) => existsSync(path.join(b, "initdb")))
-    : undefined;
-  if (process.env.DATABASE_URL || !bin) return { available: !!process.env.DATABASE_URL, stop: () => {} };
-  const dir = mkdtempSync(path.join(tmpdir(), "loamwork-pgboss-"));
-  const root0 = process.getuid?.() === 0;
-  // As root, the server must run as postgres, which must own the folder.
-  if (root0) chownSync(dir, Number(spawnSync("id", ["-u", "postgres"], { encoding: "utf8" }).stdout), 0);
-  const run = (cmd: string[]) => {
-    const r = root0
-      ? spawnSync("runuser", ["-u", "postgres", "--", ...cmd], { encoding: "utf8" })
-      : spawnSync(cmd[0], cmd.slice(1), { encoding: "utf8" });
-    if (r.status !== 0) throw new Error(`${cmd[0]} failed: ${r.stderr}`);
-  };
-  const port = Number(
-    spawnSync(
-      process.execPath,
-      [
-        "-e",
-        "const s=require('net').createServer().listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})",
-      ],
-      { encoding: "utf8" },
-    ).stdout,
-  );
-  run([path.join(bin, "initdb"), "-D", `${dir}/data`, "-U", "loamwork", "--auth=trust", "-E", "UTF8"]);
-  run([
-    path.join(bin, "pg_ctl"),
-    "-D",
-    `${dir}/data`,
-    "-l",
-    `${dir}/log`,
-    "-o",
-    `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c fsync=off`,
-    "-w",
-    "start",
-  ]);
-  run([path.join(bin, "createdb"), "-h", "127.0.0.1", "-p", String(port), "-U", "loamwork", "loamwork_runs"]);
-  process.env.DATABASE_URL = `postgres://loamwork@127.0.0.1:${port}/loamwork_runs`;
-  return {
-    available: true,
-    stop: () => {
-      try {
-        run([path.join(bin, "pg_ctl"), "-D", `${dir}/data`, "-m", "fast", "-w", "stop"]);
-      } finally {
-        rmSync(dir, { recursive: true, force: true });
-      }
-    },
-  };
+  const { throwawayPostgres } = await import("../support/throwaway-postgres");
+  return throwawayPostgres("runs");
 });
 if (!setup.available)
   console.warn(
