@@ -14,6 +14,7 @@ import { seedDemoSite } from "../support/demo-site";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
 
 /** Counts: 30 in the 2 × 2 block at E8–9 N3–4, else 1–4 by a fixed rule; the baulk's squares have none. */
 async function recordEverySquare(fx: SiteFixture) {
@@ -179,6 +180,21 @@ describe("square-count tests in a run", () => {
       .update(schema.squareSamples)
       .set({ updatedAt: new Date(Date.now() + 1000) })
       .where(eq(schema.squareSamples.id, sample!.id));
+    expect((await read(fx, res.json.id)).outOfDate).toBe(true);
+  });
+
+  it("marks the run out of date when the outline is redrawn: the squares are cut again, the counts kept", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    const res = await start(fx, { squareTests: [{ kind: "moran" }] });
+    await runsIdle();
+    expect((await read(fx, res.json.id)).outOfDate).toBe(false);
+    session.userId = fx.people.director.id;
+    const [t] = await (await getDb()).select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
+    const ring = t!.outline.coordinates[0]!.map(([x, y]) => [x === 10 ? 9.5 : x, y]);
+    const outline = { type: "Polygon", coordinates: [ring, ...t!.outline.coordinates.slice(1)] };
+    const moved = await call(trenchRoute, "PATCH", { siteId: fx.site.id, trenchId: fx.trench.id }, { outline });
+    expect(moved.status, JSON.stringify(moved.json)).toBe(200);
     expect((await read(fx, res.json.id)).outOfDate).toBe(true);
   });
 
