@@ -71,6 +71,35 @@ describe("the square grid of a trench", () => {
     expect(tooMany.json.fieldErrors.squareSize[0]).toContain("120,000 squares");
   });
 
+  it("refuses a grid that leaves no square inside the trench, on its field, writing nothing", async () => {
+    const fx = await makeSite();
+    session.userId = fx.people.director.id;
+    // A sliver of a trench (5e-11 m²): no 1 m square keeps more than a rounding error of it.
+    const sliver = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [0, 0],
+          [1e-5, 0],
+          [0, 1e-5],
+          [0, 0],
+        ],
+      ],
+    };
+    const db = await getDb();
+    await db
+      .update(schema.trenches)
+      .set({ outline: sliver as schema.Trench["outline"] })
+      .where(eq(schema.trenches.id, fx.trench.id));
+    const before = await tableCounts();
+    const res = await call(trenchRoute, "PATCH", trench(fx), { squareSize: 1, squareOriginX: 0, squareOriginY: 0 });
+    expect(res.status, JSON.stringify(res.json)).toBe(400);
+    expect(res.json.fieldErrors.squareSize).toEqual(["This grid leaves no square inside the trench."]);
+    expect(await tableCounts()).toEqual(before);
+    const [t] = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
+    expect(t!.squareSize).toBeNull();
+  });
+
   it("cannot change under recorded counts, but a redrawn outline clips the squares again and keeps the counts", async () => {
     const fx = await makeSite();
     await makeSquareRecord(fx, 9, 5, 11);
