@@ -52,7 +52,8 @@ beforeAll(async () => {
   demo = await demoScope();
 });
 
-describe("verdicts on the demo site, trench A context 1005", () => {
+// Each test waits for whole runs of 199 simulations: on a busy two-core machine that can pass a minute.
+describe("verdicts on the demo site, trench A context 1005", { timeout: 180_000 }, () => {
   // Besag's L with the workspace's default global test (MAD). Under DCLF, SHD's one seeded layout sits near
   // the line (p ≈ 0.05–0.07 with 999 simulations, depending on the seed), so it is not asserted here.
   it("FLK clustered, SHD no evidence, FCR evenly spread (Besag's L, MAD test under CSR; Clark–Evans in the window)", async () => {
@@ -92,7 +93,7 @@ describe("verdicts on the demo site, trench A context 1005", () => {
  * exchangeable); "one class fixed" asks whether B lies nearer A than chance positions would. The demo
  * bears this out, and the pool of locations matters: with other classes in scope, labelling detects it.
  */
-describe("FLK and CHP: which null detects that they go together", () => {
+describe("FLK and CHP: which null detects that they go together", { timeout: 180_000 }, () => {
   const cross = async (codes: string[], nul: "random-labelling" | "a-fixed") => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: codes.map((c) => demo.cls[c]) },
@@ -144,7 +145,7 @@ describe("FLK and CHP: which null detects that they go together", () => {
   });
 });
 
-describe("the other tests of the workspace run end to end and come back plottable", () => {
+describe("the other tests of the workspace run end to end and come back plottable", { timeout: 180_000 }, () => {
   it("quadrat counts, pair correlation, K difference and inhomogeneous L on FLK and SHD", async () => {
     const run = await runToEnd({
       scope: { trenchId: demo.trenchId, contextIds: [demo.ctx[1005]], classIds: [demo.cls.FLK, demo.cls.SHD] },
