@@ -130,3 +130,33 @@ export function formFromRun(run: {
     seed: String(run.seed),
   };
 }
+
+const TEST_WORDS: [keyof FormState, string][] = [
+  ["lcsr", "Besag's L"],
+  ["clarkEvans", "Clark–Evans"],
+  ["quadrat", "quadrat counts"],
+  ["pcf", "pair correlation"],
+  ["cross", "cross-L"],
+  ["kdiff", "K difference"],
+  ["inhom", "inhomogeneous L"],
+];
+
+/** What a run of the form as it stands will do, in one line, for the folded settings. */
+export function describeChoices(f: FormState): string {
+  const on = TEST_WORDS.filter(([k]) => (f[k] as { on: boolean }).on).map(([, w]) => w);
+  const squares = f.squares.kinds.length;
+  if (squares) on.push(`${squares} test${squares === 1 ? "" : "s"} by square`);
+  const tests = on.length ? on.join(", ") : "no test chosen";
+  const level = Number(f.level);
+  const at = Number.isFinite(level) && level > 0 ? `${Math.round(level * 1000) / 10} % level` : `level ${f.level}`;
+  const seed = f.seed.trim() ? `seed ${f.seed.trim()}` : "a new seed";
+  const rmax = f.rmax.trim() ? `r up to ${f.rmax.trim()} m` : "r up to a quarter of the short side";
+  return `${tests}; ${f.nsim} simulations, ${at}, ${f.correction} edge correction, ${rmax}, ${seed}.`;
+}
+
+/** Whether the tests and settings differ from the defaults (the folded part then opens, so nothing hides). */
+export function differsFromDefaults(f: FormState): boolean {
+  const d = initialForm(f.trenchId);
+  const strip = ({ trenchId: _t, contextIds: _c, classIds: _k, ...rest }: FormState) => JSON.stringify(rest);
+  return strip(f) !== strip(d);
+}

@@ -6,7 +6,14 @@ import { useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
 import type { RunView } from "@/lib/api/patterns-responses";
 import { CompareView } from "./compare-view";
-import { formFromRun, initialForm, toRequest, type FormState } from "./form-state";
+import {
+  describeChoices,
+  differsFromDefaults,
+  formFromRun,
+  initialForm,
+  toRequest,
+  type FormState,
+} from "./form-state";
 import { RunPanel } from "./run-panel";
 import { RunsList } from "./runs-list";
 import { ScopePicker } from "./scope-picker";
@@ -33,6 +40,8 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
     initialForm(trenches.find((t) => contexts.some((c) => c.trenchId === t.id))?.id ?? trenches[0]?.id ?? ""),
   );
   const set = (f: Partial<FormState>) => setForm((old) => ({ ...old, ...f }));
+  // Tests and settings fold away: the defaults run with one action once the scope is chosen.
+  const [unfolded, setUnfolded] = useState(false);
 
   // The run and the comparison live in the address (reload, share), but nothing on the server depends on
   // them: the history API changes the address and useSearchParams without asking the server for the page.
@@ -61,6 +70,14 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
   const runs = useRuns(siteId);
   const start = useMutation({
     mutationFn: () => apiClient.call("runsCreate", { siteId }, toRequest(form)),
+    // A refusal that names a setting opens the settings, so the message stands beside its field.
+    onError: (e) => {
+      if (
+        e instanceof ApiError &&
+        Object.keys(e.fieldErrors ?? {}).some((k) => k.startsWith("params") || k.startsWith("tests"))
+      )
+        setUnfolded(true);
+    },
     onSuccess: (created) => {
       qc.setQueryData(["run", siteId, created.id], created);
       setUrl({ run: created.id });
@@ -75,9 +92,10 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
     <section className="sheet text-ink-soft">
       <h2 className="text-lg font-bold text-ink">How to read a run here</h2>
       <p className="mt-1">
-        Choose the trench, the contexts that form one surface and the classes; keep the default tests or change them;
-        run. Each class gets a verdict — clustered, evenly spread, or no evidence against the null — from a global Monte
-        Carlo test, with its p-value, the simulations and the seed, so anyone can run it again and get the same numbers.
+        Choose the trench, the contexts that form one surface and the classes, then run: the default tests run as they
+        are, and “Tests and settings” unfolds to change them. A run opens with one plain sentence per class and pair —
+        grouped together, evenly spread, no clear pattern, or too few to tell — and then each test in its own terms,
+        with its p-value, the simulations and the seed, so anyone can run it again and get the same numbers.
       </p>
     </section>
   );
@@ -102,8 +120,21 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
           summary={summary.data}
           loading={summary.isFetching}
         />
-        <TestPicker form={form} set={set} summary={summary.data} />
-        <ParamsFields form={form} set={set} summary={summary.data} errors={startError?.fieldErrors ?? {}} />
+        <details
+          className="sheet p-0"
+          open={unfolded}
+          onToggle={(e) => setUnfolded(e.currentTarget.open)}
+          data-testid="run-settings"
+        >
+          <summary className="min-h-11 cursor-pointer p-3">
+            <span className="font-bold">Tests and settings</span>{" "}
+            <span className="text-sm text-ink-soft">{unfolded ? "" : `(${describeChoices(form)})`}</span>
+          </summary>
+          <div className="space-y-4 p-3 pt-0">
+            <TestPicker form={form} set={set} summary={summary.data} />
+            <ParamsFields form={form} set={set} summary={summary.data} errors={startError?.fieldErrors ?? {}} />
+          </div>
+        </details>
         {startError && (
           <p className="field-error" role="alert">
             {startError.message}
@@ -133,7 +164,11 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
             siteId={siteId}
             runId={runId}
             canRun={canRun}
-            onUseSettings={(r) => setForm(formFromRun(r))}
+            onUseSettings={(r) => {
+              const next = formFromRun(r);
+              setForm(next);
+              if (differsFromDefaults(next)) setUnfolded(true);
+            }}
             fallback={help}
           />
         ) : (
