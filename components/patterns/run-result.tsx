@@ -3,6 +3,7 @@
 import { ClassSymbol } from "@/components/class-symbol";
 import type { RunView } from "@/lib/api/patterns-responses";
 import { TestFigure } from "./class-plots";
+import { classSentence, LOW_POWER_N, pairSentence } from "./plain-words";
 import { PlanOverlay } from "./plan-overlay";
 import { SquareResults } from "./square-results";
 import { VerdictCard } from "./verdict-card";
@@ -14,6 +15,10 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
   if (!result) return null;
   const byId = new Map(result.classes.map((c) => [c.id, c]));
   const name = (id: string) => byId.get(id)?.code ?? "?";
+  const named = (id: string) => {
+    const c = byId.get(id);
+    return c ? `${c.label} (${c.code})` : "?";
+  };
   const perClass = result.classes.map((c) => ({
     c,
     tests: result.tests.filter((t) => "classId" in t && t.classId === c.id),
@@ -22,6 +27,19 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
   const p = run.params;
   return (
     <div className="space-y-4" data-testid="run-result">
+      <section className="sheet" aria-label="In plain words">
+        <h3 className="font-bold">In plain words</h3>
+        <ul className="mt-1 list-disc space-y-1 pl-5" data-testid="plain-sentences">
+          {perClass.map(({ c, tests }) =>
+            tests.length ? <li key={c.id}>{classSentence(c, tests, result.rmax)}</li> : null,
+          )}
+          {between.map((t, i) =>
+            t.kind === "cross-l" || t.kind === "k-difference" ? (
+              <li key={`pair-${i}`}>{pairSentence(t, named, result.rmax)}</li>
+            ) : null,
+          )}
+        </ul>
+      </section>
       <section className="sheet text-sm" aria-label="How this run was made">
         <p>
           Trench <b>{p.names.trench}</b>, context{p.names.contexts.length > 1 ? "s" : ""}{" "}
@@ -58,7 +76,9 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
               <span className="font-normal text-ink-soft">
                 {c.label}, n = <span className="num">{c.n}</span>
               </span>
-              {c.n < 20 && <span className="ml-2 text-sm font-semibold text-warn">few points: little power</span>}
+              {c.n < LOW_POWER_N && (
+                <span className="ml-2 text-sm font-semibold text-warn">few points: little power</span>
+              )}
             </h3>
             <div className={`grid gap-3 ${compact ? "" : "lg:grid-cols-2"}`}>
               {tests.map((t, i) => (

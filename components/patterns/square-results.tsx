@@ -4,6 +4,7 @@ import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
 import { SquareMap } from "@/components/squares/square-map";
 import { testMapCells } from "@/lib/squares/test-map";
 import { PlotFrame } from "./plot-frame";
+import { SQUARE_BADGE, squareSentence, withoutP } from "./plain-words";
 import { fmtP } from "./words";
 
 const NAME: Record<SquareTestOut["kind"], string> = {
@@ -11,13 +12,6 @@ const NAME: Record<SquareTestOut["kind"], string> = {
   geary: "Geary's C",
   "local-moran": "Local Moran's I",
   "getis-ord": "Getis–Ord Gi*",
-};
-const VERDICT: Record<SquareTestOut["verdict"], string> = {
-  clustered: "Like values together",
-  dispersed: "High and low alternate",
-  "hot-spots": "Hot or cold spots",
-  "no-evidence": "No evidence against the null",
-  "not-run": "Not run",
 };
 /** One result's squares on the plan, with its export buttons (SVG and PNG keep the legend; CSV the numbers). */
 function TestMap({ t, code, outline }: { t: SquareTestOut; code: string; outline: [number, number][][] }) {
@@ -68,6 +62,10 @@ export function SquareResults({
   outline: [number, number][][];
 }) {
   const code = (id: string) => classes.find((c) => c.id === id)?.code ?? "?";
+  const label = (id: string) => {
+    const c = classes.find((k) => k.id === id);
+    return c ? `${c.label} (${c.code}) finds` : "?";
+  };
   return (
     <section aria-label="Counts by grid square" className="space-y-3">
       <h3 className="text-lg font-bold">Counts by grid square</h3>
@@ -79,11 +77,15 @@ export function SquareResults({
                 {NAME[t.kind]}, {code(t.classId)}
               </h4>
               <span data-verdict={t.verdict} className="rounded border-2 border-ink/30 px-2 py-0.5 text-sm font-bold">
-                {VERDICT[t.verdict]}
+                {SQUARE_BADGE[t.verdict]}
               </span>
-              {t.p !== null && <span className="num text-sm">p = {fmtP(t.p)}</span>}
+              {t.p !== null && <span className="num text-sm" data-testid="p-value">{`p = ${fmtP(t.p)}`}</span>}
             </header>
-            <p>{t.sentence}</p>
+            <p>{squareSentence(t, label(t.classId))}</p>
+            <p className="text-sm">
+              <span className="font-semibold">In the test&apos;s terms: </span>
+              {withoutP(t.sentence)}
+            </p>
             <p className="text-sm text-ink-soft">
               <span className="font-semibold">Question answered: </span>
               {t.question}

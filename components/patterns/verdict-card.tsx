@@ -1,8 +1,12 @@
 import type { TestOut } from "@/lib/api/run-result";
 import { departureSentences } from "./departures";
-import { fmtP, TEST_LABEL, VERDICT_LABEL, VERDICT_TONE } from "./words";
+import { badgeWords, withoutP } from "./plain-words";
+import { fmtP, TEST_LABEL, VERDICT_TONE } from "./words";
 
-/** One test's verdict: the words, p, the sentence to quote, what it asked, where the curve left the band. */
+/**
+ * One test's verdict: the answer in plain words with p (once, in one format), then the detail line in the
+ * test's own terms, what it asked, where the curve left the band.
+ */
 export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; subject: string }) {
   const deps =
     "departures" in t
@@ -21,14 +25,17 @@ export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; su
           data-verdict={t.verdict}
           className={`rounded border-2 px-2 py-0.5 text-sm font-bold ${VERDICT_TONE[t.verdict]}`}
         >
-          {VERDICT_LABEL[t.verdict]}
+          {badgeWords(t)}
         </span>
-        <span className="num text-sm">
-          p {t.p !== null && t.p < 1e-12 ? "" : "= "}
-          {fmtP(t.p)}
-        </span>
+        <span
+          className="num text-sm"
+          data-testid="p-value"
+        >{`p ${t.p !== null && t.p < 1e-12 ? "" : "= "}${fmtP(t.p)}`}</span>
       </header>
-      <p>{t.sentence}</p>
+      <p className="text-sm">
+        <span className="font-semibold">In the test&apos;s terms: </span>
+        {withoutP(t.sentence)}
+      </p>
       <p className="text-sm text-ink-soft">
         <span className="font-semibold">Question answered: </span>
         {t.question}

@@ -1,14 +1,5 @@
 import type { VerdictWord } from "@/lib/api/run-result";
 
-/** Verdict words on screen (statistics.md: clustered / evenly spread / no evidence against the null). */
-export const VERDICT_LABEL: Record<VerdictWord, string> = {
-  clustered: "Clustered",
-  regular: "Evenly spread",
-  "no-evidence": "No evidence against the null",
-  associated: "Go together",
-  segregated: "Keep apart",
-};
-
 export const VERDICT_TONE: Record<VerdictWord, string> = {
   clustered: "border-accent bg-accent-light text-accent-dark",
   regular: "border-ok bg-ok-light text-ok",

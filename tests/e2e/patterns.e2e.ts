@@ -30,6 +30,12 @@ async function chooseScope(page: Page, classes: string[]) {
   await shown(page.getByTestId(`n-${classes[0]}`).filter({ hasText: "n =" }), 30_000);
 }
 
+/** Tests and settings are folded under the scope; a specialist unfolds them to change the defaults. */
+async function unfoldSettings(page: Page) {
+  await page.getByTestId("run-settings").locator("summary").click();
+  await shown(page.getByLabel("Simulations"));
+}
+
 describe("Patterns workspace", () => {
   it("a specialist runs Besag's L on FLK and SHD, watches progress, reads the verdicts and sees the plot", async () => {
     const page = await newPage(browser);
@@ -37,6 +43,7 @@ describe("Patterns workspace", () => {
     await openPatterns(page);
     await chooseScope(page, ["FLK", "SHD"]);
     await expect(page.getByTestId("n-FLK").textContent()).resolves.toBe("n = 150");
+    await unfoldSettings(page);
     await page.getByRole("checkbox", { name: /Clark–Evans/ }).uncheck();
     await page.getByLabel("Global test").selectOption("mad");
     await page.getByLabel("Simulations").fill("99");
@@ -48,8 +55,21 @@ describe("Patterns workspace", () => {
     await shown(page.getByRole("progressbar", { name: "Simulations done" }).or(result));
     await shown(result, 60_000);
     const card = (code: string) => page.getByRole("article", { name: `Besag's L under CSR for ${code}` });
-    await expect(card("FLK").locator("[data-verdict]").textContent()).resolves.toBe("Clustered");
-    await expect(card("SHD").locator("[data-verdict]").textContent()).resolves.toBe("No evidence against the null");
+    // The answer in plain words first; the test's own terms in the detail line; p once per result.
+    await expect(card("FLK").locator("[data-verdict]").textContent()).resolves.toBe("Grouped together");
+    await expect(card("SHD").locator("[data-verdict]").textContent()).resolves.toBe("No clear pattern");
+    const plain = result.getByTestId("plain-sentences").getByRole("listitem");
+    await expect(plain.allTextContents()).resolves.toEqual([
+      expect.stringMatching(
+        /^Flint flake \(FLK\) finds lie in groups, (roughly up to [\d.]+ m across|closer together than chance would give)\.$/,
+      ),
+      "Pottery sherd (SHD) finds show no clear pattern: chance alone could have laid them out like this.",
+    ]);
+    await expect(card("SHD").textContent()).resolves.toContain("No evidence against CSR at the 5 % level.");
+    for (const code of ["FLK", "SHD"]) {
+      const text = (await card(code).textContent())!;
+      expect(text.match(/p (=|<) ?[\d.e<-]+/g)).toHaveLength(1);
+    }
     await expect(card("FLK").textContent()).resolves.toContain("seed 2026");
     const plot = page.getByRole("figure", { name: "L(r) − r, FLK" });
     await shown(plot.locator("svg.recharts-surface path.recharts-curve").first());
@@ -72,7 +92,56 @@ describe("Patterns workspace", () => {
     // The run is saved: a reload of the same address shows it again.
     await page.reload();
     await shown(page.getByTestId("run-result"), 30_000);
-    await expect(card("FLK").locator("[data-verdict]").textContent()).resolves.toBe("Clustered");
+    await expect(card("FLK").locator("[data-verdict]").textContent()).resolves.toBe("Grouped together");
+    await page.context().close();
+  });
+
+  it("the default tests run with one action once the scope is chosen; the settings stay folded", async () => {
+    const page = await newPage(browser);
+    await signIn(page, "specialist");
+    await openPatterns(page);
+    await chooseScope(page, ["SHD"]);
+    const settings = page.getByTestId("run-settings");
+    await expect(settings.getAttribute("open")).resolves.toBeNull();
+    expect(await page.getByLabel("Simulations").isVisible()).toBe(false);
+    await shown(settings.getByText(/Besag's L, Clark–Evans; 999 simulations, 5 % level/));
+    await page.getByRole("button", { name: "Run tests" }).click();
+    const result = page.getByTestId("run-result");
+    await shown(result, 60_000);
+    await shown(page.getByRole("article", { name: "Besag's L under CSR for SHD" }));
+    await shown(page.getByRole("article", { name: "Clark–Evans for SHD" }));
+    await page.context().close();
+  });
+
+  it("quadrat counts are drawn where they were taken: each cell on the trench, observed and expected", async () => {
+    const page = await newPage(browser);
+    await signIn(page, "specialist");
+    await openPatterns(page);
+    await chooseScope(page, ["FLK"]);
+    await unfoldSettings(page);
+    await page.getByRole("checkbox", { name: /Besag's L/ }).uncheck();
+    await page.getByRole("checkbox", { name: /Clark–Evans/ }).uncheck();
+    await page.getByRole("checkbox", { name: /Quadrat counts/ }).check();
+    await page.getByLabel("Simulations").fill("99");
+    await page.getByRole("button", { name: "Run tests" }).click();
+    await shown(page.getByTestId("run-result"), 60_000);
+    const map = page.getByRole("img", {
+      name: "Quadrat counts of FLK on the trench plan, observed and expected per cell",
+    });
+    await shown(map);
+    // Every cell says what was observed and expected there; the observed counts add up to the class's finds
+    // in the scope, and so, near enough, do the expected ones.
+    const titles = await map.locator("g[data-square] > title").allTextContents();
+    expect(titles.length).toBeGreaterThan(4);
+    const pairs = titles.map((t) => {
+      const m = /observed (\d+), expected ([\d.]+)$/.exec(t);
+      expect(m, t).not.toBeNull();
+      return [Number(m![1]), Number(m![2])];
+    });
+    expect(pairs.reduce((s, [o]) => s + o!, 0)).toBe(150);
+    const expected = pairs.reduce((s, [, e]) => s + e!, 0);
+    expect(Math.abs(expected - 150)).toBeLessThan(titles.length * 0.05 + 0.5);
+    await map.screenshot({ path: "test-results/quadrat-on-plan.png" });
     await page.context().close();
   });
 
@@ -82,6 +151,7 @@ describe("Patterns workspace", () => {
     await openPatterns(page);
     // L, Clark–Evans and pair correlation on four classes, 9999 simulations each: several seconds.
     await chooseScope(page, ["FLK", "SHD", "FCR", "CHP"]);
+    await unfoldSettings(page);
     await page.getByRole("checkbox", { name: /Pair correlation/ }).check();
     await page.getByLabel("Simulations").fill("9999");
     await page.getByRole("button", { name: "Run tests" }).click();
