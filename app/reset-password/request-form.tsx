@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { AccountField, AccountSubmit } from "@/components/account/account-field";
 import { requestResetAction, type ResetState } from "./actions";
 
 export function RequestForm() {
@@ -13,29 +14,16 @@ export function RequestForm() {
     );
   return (
     <form action={action} className="mt-6 space-y-4" noValidate>
-      <div>
-        <label className="label" htmlFor="email">
-          E-mail of your account
-        </label>
-        <input
-          className="field"
-          id="email"
-          name="email"
-          type="email"
-          autoComplete="username"
-          required
-          aria-describedby="email-error"
-        />
-        <p id="email-error" className="field-error" aria-live="polite">
-          {state.fieldErrors?.email?.join(" ")}
-        </p>
-      </div>
-      <p className="field-error" role="alert" aria-live="assertive">
-        {state.error}
-      </p>
-      <button className="btn-primary w-full" type="submit" disabled={pending}>
-        {pending ? "Sending…" : "Send me a reset link"}
-      </button>
+      <AccountField
+        name="email"
+        label="E-mail of your account"
+        errors={state.fieldErrors}
+        type="email"
+        autoComplete="username"
+      />
+      <AccountSubmit error={state.error} pending={pending} busy="Sending…">
+        Send me a reset link
+      </AccountSubmit>
     </form>
   );
 }

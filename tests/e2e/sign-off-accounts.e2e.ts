@@ -68,6 +68,11 @@ describe("invitations and password reset in the browser", () => {
     await forgetful.waitForURL("**/sites");
     await shown(forgetful.getByText("Whinnydale Holm"));
     expect(new URL(forgetful.url()).pathname).toBe("/sites");
+    // Signing out (the header's button, a server action) ends the session: the sites page asks to sign in again.
+    await forgetful.getByRole("button", { name: "Sign out" }).click();
+    await forgetful.waitForURL("**/sign-in**");
+    await forgetful.goto("/sites");
+    await forgetful.waitForURL("**/sign-in**");
     await forgetful.context().close();
     await boss.context().close();
   });

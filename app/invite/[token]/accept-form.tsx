@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { AccountField, AccountSubmit } from "@/components/account/account-field";
 import { acceptAction, type AcceptState } from "./actions";
 
 export function AcceptForm({ token, email, hasAccount }: { token: string; email: string; hasAccount: boolean }) {
@@ -12,39 +13,23 @@ export function AcceptForm({ token, email, hasAccount }: { token: string; email:
         E-mail: <span className="font-mono">{email}</span>
       </p>
       {!hasAccount && (
-        <div>
-          <label className="label" htmlFor="name">
-            Your name, as it should appear on the record
-          </label>
-          <input className="field" id="name" name="name" autoComplete="name" required aria-describedby="name-error" />
-          <p id="name-error" className="field-error" aria-live="polite">
-            {state.fieldErrors?.name?.join(" ")}
-          </p>
-        </div>
-      )}
-      <div>
-        <label className="label" htmlFor="password">
-          {hasAccount ? "The password of your Loamwork account" : "Choose a password (at least 10 characters)"}
-        </label>
-        <input
-          className="field"
-          id="password"
-          name="password"
-          type="password"
-          autoComplete={hasAccount ? "current-password" : "new-password"}
-          required
-          aria-describedby="password-error"
+        <AccountField
+          name="name"
+          label="Your name, as it should appear on the record"
+          errors={state.fieldErrors}
+          autoComplete="name"
         />
-        <p id="password-error" className="field-error" aria-live="polite">
-          {state.fieldErrors?.password?.join(" ")}
-        </p>
-      </div>
-      <p className="field-error" role="alert" aria-live="assertive">
-        {state.error}
-      </p>
-      <button className="btn-primary w-full" type="submit" disabled={pending}>
-        {pending ? "Joining…" : "Join the site"}
-      </button>
+      )}
+      <AccountField
+        name="password"
+        label={hasAccount ? "The password of your Loamwork account" : "Choose a password (at least 10 characters)"}
+        errors={state.fieldErrors}
+        type="password"
+        autoComplete={hasAccount ? "current-password" : "new-password"}
+      />
+      <AccountSubmit error={state.error} pending={pending} busy="Joining…">
+        Join the site
+      </AccountSubmit>
     </form>
   );
 }

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useActionState } from "react";
+import { AccountField, AccountSubmit } from "@/components/account/account-field";
 import { confirmResetAction, type ResetState } from "../actions";
 
 export function ConfirmForm({ token }: { token: string }) {
@@ -19,46 +20,23 @@ export function ConfirmForm({ token }: { token: string }) {
   return (
     <form action={action} className="mt-6 space-y-4" noValidate>
       <input type="hidden" name="token" value={token} />
-      <div>
-        <label className="label" htmlFor="password">
-          New password (at least 10 characters)
-        </label>
-        <input
-          className="field"
-          id="password"
-          name="password"
-          type="password"
-          autoComplete="new-password"
-          required
-          aria-describedby="password-error"
-        />
-        <p id="password-error" className="field-error" aria-live="polite">
-          {state.fieldErrors?.password?.join(" ")}
-        </p>
-      </div>
-      <div>
-        <label className="label" htmlFor="again">
-          The same again
-        </label>
-        <input
-          className="field"
-          id="again"
-          name="again"
-          type="password"
-          autoComplete="new-password"
-          required
-          aria-describedby="again-error"
-        />
-        <p id="again-error" className="field-error" aria-live="polite">
-          {state.fieldErrors?.again?.join(" ")}
-        </p>
-      </div>
-      <p className="field-error" role="alert" aria-live="assertive">
-        {state.error}
-      </p>
-      <button className="btn-primary w-full" type="submit" disabled={pending}>
-        {pending ? "Saving…" : "Save the new password"}
-      </button>
+      <AccountField
+        name="password"
+        label="New password (at least 10 characters)"
+        errors={state.fieldErrors}
+        type="password"
+        autoComplete="new-password"
+      />
+      <AccountField
+        name="again"
+        label="The same again"
+        errors={state.fieldErrors}
+        type="password"
+        autoComplete="new-password"
+      />
+      <AccountSubmit error={state.error} pending={pending} busy="Saving…">
+        Save the new password
+      </AccountSubmit>
     </form>
   );
 }
