@@ -89,6 +89,14 @@ describe("import boundaries", () => {
     expect(result.messages[0]?.message).toContain("never through auth.ts or next-auth");
   });
 
+  it("refuses a disable comment that disables nothing", async () => {
+    const code = "export const n = 1; // eslint-disable-line no-console\n";
+    const [result] = await eslint.lintText(code, { filePath: path.join(root, "lib/example.ts") });
+    expect(result.messages.map((m) => [m.line, m.severity, m.message])).toEqual([
+      [1, 2, "Unused eslint-disable directive (no problems were reported from 'no-console')."],
+    ]);
+  });
+
   it("the same imports pass where no boundary applies (a script)", async () => {
     const code = readFileSync(path.join(fixtures, "engine-imports-outside.ts"), "utf8");
     const [result] = await eslint.lintText(code, { filePath: path.join(root, "scripts/example.ts") });
