@@ -104,6 +104,8 @@ export const sites = pgTable("sites", {
   labelAddress: text("label_address"),
 
   /**
+  /** Next drawing number of the drawing register (its own sequence), bumped under the site row's lock. */
+  nextDrawingNumber: integer("next_drawing_number").notNull().default(1),
   /** How many numbers a device reserves at once for offline recording (set by the director). */
   numberBlockSize: integer("number_block_size").notNull().default(50),
   createdAt: created(),
@@ -686,3 +688,50 @@ export type IdempotencyKey = typeof idempotencyKeys.$inferSelect;
 export type NumberBlock = typeof numberBlocks.$inferSelect;
 export type NumberVoid = typeof numberVoids.$inferSelect;
 export type NumberKind = (typeof numberKindEnum.enumValues)[number];
+
+/** Plans and sections drawn on film or paper in the field. */
+export const drawingKindEnum = pgEnum("drawing_kind", ["plan", "section"]);
+
+/**
+ * The drawing register: each plan or section drawn on film or paper, numbered per site without gaps, with
+ * the contexts it shows (all in one trench). Locked with those contexts.
+ */
+export const drawings = pgTable(
+  "drawings",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    trenchId: uuid("trench_id")
+      .notNull()
+      .references(() => trenches.id, { onDelete: "restrict" }),
+    number: integer("number").notNull(),
+    kind: drawingKindEnum("kind").notNull(),
+    /** The scale's denominator: 20 is 1:20. */
+    scale: integer("scale").notNull(),
+    title: text("title").notNull().default(""),
+    drawnBy: uuid("drawn_by").references(() => users.id),
+    drawnOn: date("drawn_on").notNull(),
+    recordedBy: uuid("recorded_by").references(() => users.id),
+    createdAt: created(),
+    updatedAt: updated(),
+  },
+  (t) => [uniqueIndex("drawings_site_number").on(t.siteId, t.number), index("drawings_trench").on(t.trenchId)],
+);
+
+/** Which contexts a drawing shows. */
+export const drawingContexts = pgTable(
+  "drawing_contexts",
+  {
+    drawingId: uuid("drawing_id")
+      .notNull()
+      .references(() => drawings.id, { onDelete: "cascade" }),
+    contextId: uuid("context_id")
+      .notNull()
+      .references(() => contexts.id, { onDelete: "restrict" }),
+  },
+  (t) => [primaryKey({ columns: [t.drawingId, t.contextId] }), index("drawing_contexts_context").on(t.contextId)],
+);
+
+export type Drawing = typeof drawings.$inferSelect;

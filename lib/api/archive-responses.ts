@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { drawingKinds } from "@/lib/schemas/drawing";
 import { sampleStatuses, sampleTypes } from "@/lib/schemas/sample";
 import { wireDate } from "./operation";
 
@@ -55,3 +56,43 @@ export const bulkDone = z.object({
   changed: z.number(),
   numbers: z.array(z.number()),
 });
+
+/** A drawing as stored, with the contexts it shows. */
+export const drawingRecord = z.object({
+  id,
+  number: z.number(),
+  trenchId: id,
+  kind: z.enum(drawingKinds),
+  scale: z.number(),
+  title: z.string(),
+  drawnBy: id.nullable(),
+  drawnOn: z.string(),
+  contextIds: z.array(id),
+  contextNumbers: z.array(z.number()),
+  updatedAt: wireDate,
+});
+
+/** One row of the drawing register; `state` is open until every context it shows is signed off. */
+export const drawingRow = z.object({
+  id,
+  number: z.number(),
+  kind: z.enum(drawingKinds),
+  scale: z.number(),
+  title: z.string(),
+  drawnOn: z.string(),
+  drawnById: id.nullable(),
+  drawnBy: z.string().nullable(),
+  trenchId: id,
+  trenchCode: z.string(),
+  contextNumbers: z.array(z.number()),
+  state: z.enum(["open", "awaiting", "signed_off"]),
+});
+
+export const drawingPage = z.object({
+  page: z.number(),
+  pageSize: z.number(),
+  total: z.number(),
+  rows: z.array(drawingRow),
+});
+export const deletedDrawing = z.object({ deleted: id, number: z.number() });
+export type DrawingRow = z.output<typeof drawingRow>;

@@ -97,6 +97,10 @@ export const fieldLabels: Record<string, string> = {
   topLevel: "Top level (RL)",
   baseLevel: "Base level (RL)",
   surfaceLevel: "Ground surface level (RL)",
+  scale: "Scale",
+  title: "Title",
+  drawnBy: "Drawn by",
+  drawnOn: "Date drawn",
   // lists, filters and exports
   page: "Page",
   pageSize: "Rows a page",

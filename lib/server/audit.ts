@@ -24,6 +24,7 @@ export type AuditInput = {
     | "square"
     | "section"
     | "sample"
+    | "drawing"
     | "number_block"
     | "operation";
   recordId: string;

@@ -86,6 +86,14 @@ export const fieldRights = {
     takenBy: recorders,
     takenOn: recorders,
   },
+  drawing: {
+    kind: recorders,
+    scale: recorders,
+    contextIds: recorders,
+    title: recorders,
+    drawnBy: recorders,
+    drawnOn: recorders,
+  },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
@@ -101,6 +109,7 @@ const recordWords: Record<RightsRecord, string> = {
   benchmark: "a benchmark",
   spit: "a spit",
   sample: "a sample",
+  drawing: "a drawing",
 };
 
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */

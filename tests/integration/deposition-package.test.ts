@@ -41,6 +41,11 @@ beforeAll(async () => {
       volumeL: n === 1 ? null : 20 * n,
       purpose: n === 1 ? "=radiocarbon" : "flotation",
     });
+  const [drawing] = await db
+    .insert(s.drawings)
+    .values({ siteId: demo.siteId, trenchId: ctx!.trenchId, number: 1, kind: "plan", scale: 20, drawnOn: "2026-07-02" })
+    .returning();
+  await db.insert(s.drawingContexts).values({ drawingId: drawing!.id, contextId: ctx!.id });
   await db.insert(s.analysisRuns).values({
     siteId: demo.siteId,
     trenchId: demo.trenchId,
@@ -93,6 +98,7 @@ describe("deposition package", () => {
       "classes.csv": await n(s.artefactClasses as never, s.artefactClasses.siteId),
       "finds.csv": await n(s.finds, s.finds.siteId),
       "samples.csv": 3,
+      "drawings.csv": 1,
       "levels.csv": await n(s.spotLevels as never, s.spotLevels.siteId),
       "benchmarks.csv": await n(s.benchmarks as never, s.benchmarks.siteId),
       "photos.csv": await n(s.photos as never, s.photos.siteId),

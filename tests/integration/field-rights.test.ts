@@ -18,6 +18,7 @@ const recordOf: Record<string, RightsRecord> = {
   benchmarkUpdate: "benchmark",
   spitUpdate: "spit",
   sampleUpdate: "sample",
+  drawingUpdate: "drawing",
 };
 
 const roles = ["digger", "specialist", "director"] as const;

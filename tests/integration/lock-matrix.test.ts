@@ -21,7 +21,9 @@ import * as squaresRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/squa
 import * as squareRecordRoute from "@/app/api/sites/[siteId]/square-records/[sampleId]/route";
 import * as squareImportRoute from "@/app/api/sites/[siteId]/square-import/route";
 import { gridTrench, makeSquareRecord, squareCsv } from "./role-cases/squares";
-import { makeSample } from "./role-cases/archive";
+import { makeDrawing, makeSample } from "./role-cases/archive";
+import * as drawingsRoute from "@/app/api/sites/[siteId]/drawings/route";
+import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
@@ -394,6 +396,42 @@ const cases: LockCase[] = [
     }),
   },
   {
+    op: "drawingsCreate",
+    title: "record a drawing showing T",
+    prepare: async (fx) => ({
+      mod: drawingsRoute,
+      params: site(fx),
+      body: { kind: "section", scale: 10, contextIds: [(await otherContext(fx)).id, fx.context.id] },
+    }),
+  },
+  {
+    op: "drawingUpdate",
+    title: "change a drawing showing T",
+    prepare: async (fx) => ({
+      mod: drawingRoute,
+      params: { ...site(fx), drawingId: (await makeDrawing(fx)).id },
+      body: { title: "Section through the ditch" },
+    }),
+  },
+  {
+    op: "drawingUpdate",
+    title: "add T to a drawing of another context",
+    prepare: async (fx) => ({
+      mod: drawingRoute,
+      params: { ...site(fx), drawingId: (await makeDrawing(fx, (await otherContext(fx)).id)).id },
+      body: { contextIds: [fx.context.id] },
+    }),
+  },
+  {
+    op: "drawingDelete",
+    title: "delete a drawing showing T",
+    prepare: async (fx) => ({
+      mod: drawingRoute,
+      params: { ...site(fx), drawingId: (await makeDrawing(fx)).id },
+      body: { reason: "entered twice" },
+    }),
+  },
+  {
     op: "trenchUpdate",
     title: "redraw the outline so a find of T falls outside",
     alwaysRefused: true,
@@ -475,6 +513,8 @@ async function snapshot(): Promise<string> {
     schema.squareSamples,
     schema.squareCounts,
     schema.samples,
+    schema.drawings,
+    schema.drawingContexts,
   ];
   const parts: string[] = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));

@@ -41,6 +41,8 @@ async function snapshot(): Promise<string> {
     schema.squareSamples,
     schema.squareCounts,
     schema.samples,
+    schema.drawings,
+    schema.drawingContexts,
   ];
   const parts = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));

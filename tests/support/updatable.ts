@@ -14,6 +14,7 @@ import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 import * as datumRoute from "@/app/api/sites/[siteId]/datum/route";
 import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkId]/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
+import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import { makeSite, makeUser, type SiteFixture } from "./fixtures";
 
@@ -325,6 +326,44 @@ updatables.sampleUpdate = {
     purpose: text(),
     takenBy: fc.constantFrom(null, fx.people.digger.id, fx.people.director.id),
     takenOn: fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`),
+  }),
+};
+
+updatables.drawingUpdate = {
+  mod: drawingRoute,
+  target: async (fx) => {
+    const db = await getDb();
+    const [d] = await db
+      .insert(schema.drawings)
+      .values({
+        siteId: fx.site.id,
+        trenchId: fx.trench.id,
+        number: 700_000 + unique(),
+        kind: "plan",
+        scale: 20,
+        drawnOn: "2026-07-01",
+      })
+      .returning();
+    await db.insert(schema.drawingContexts).values({ drawingId: d!.id, contextId: fx.context.id });
+    const read = async () => {
+      const row = await rowOf(schema.drawings, d!.id);
+      const shown = await db
+        .select({ id: schema.contexts.id, number: schema.contexts.number })
+        .from(schema.drawingContexts)
+        .innerJoin(schema.contexts, eq(schema.contexts.id, schema.drawingContexts.contextId))
+        .where(eq(schema.drawingContexts.drawingId, d!.id));
+      return { ...row, contextIds: shown.sort((a, b) => a.number - b.number).map((c) => c.id) };
+    };
+    return { params: { siteId: fx.site.id, drawingId: d!.id }, read };
+  },
+  fields: (fx) => ({
+    kind: fc.constantFrom("plan", "section"),
+    scale: fc.constantFrom(1, 10, 20, 50, 100, 1000),
+    // The alternative context's number is higher than the fixture's, so this order is the stored order.
+    contextIds: fc.constantFrom([fx.context.id], [fx.alt.contextId], [fx.context.id, fx.alt.contextId]),
+    title: text(),
+    drawnBy: fc.constantFrom(null, fx.people.digger.id, fx.people.director.id),
+    drawnOn: fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`),
   }),
 };
 

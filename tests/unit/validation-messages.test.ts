@@ -4,6 +4,7 @@ import * as account from "@/lib/schemas/account";
 import * as artefactClass from "@/lib/schemas/artefact-class";
 import * as common from "@/lib/schemas/common";
 import * as context from "@/lib/schemas/context";
+import * as drawing from "@/lib/schemas/drawing";
 import * as exportSchemas from "@/lib/schemas/export";
 import * as find from "@/lib/schemas/find";
 import * as importSchemas from "@/lib/schemas/import";
@@ -25,6 +26,7 @@ const modules = {
   artefactClass,
   common,
   context,
+  drawing,
   exportSchemas,
   find,
   importSchemas,

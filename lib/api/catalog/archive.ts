@@ -9,7 +9,23 @@ import {
 import { findsBulkSchema } from "@/lib/schemas/finds-bulk";
 import { depositionQuery } from "@/lib/schemas/export";
 import { directorOnly, everyone, recorders, type ApiOperation } from "../operation";
-import { bulkDone, deletedSample, samplePage, sampleRecord, sampleStatusDone } from "../archive-responses";
+import {
+  drawingCreateSchema,
+  drawingDeleteSchema,
+  drawingListQuery,
+  drawingUpdateSchema,
+  exportDrawingsQuery,
+} from "@/lib/schemas/drawing";
+import {
+  bulkDone,
+  deletedDrawing,
+  deletedSample,
+  drawingPage,
+  drawingRecord,
+  samplePage,
+  sampleRecord,
+  sampleStatusDone,
+} from "../archive-responses";
 
 /** API operations of the site archive's registers: samples (labels, bulk edits and the rest join here). */
 export const archiveApi = {
@@ -74,6 +90,52 @@ export const archiveApi = {
     summary: "Samples register as CSV, with the register's filters",
     roles: "member",
     input: exportSamplesQuery,
+    from: "query",
+  },
+  drawingsList: {
+    method: "GET",
+    path: "/api/sites/{siteId}/drawings",
+    summary: "Drawing register: filter by trench, context, kind; page",
+    roles: "member",
+    input: drawingListQuery,
+    from: "query",
+    response: drawingPage,
+  },
+  drawingsCreate: {
+    method: "POST",
+    path: "/api/sites/{siteId}/drawings",
+    summary: "Record a plan or section drawn on film or paper (its number is allocated by the server)",
+    roles: recorders,
+    doing: "record drawings",
+    input: drawingCreateSchema,
+    response: drawingRecord,
+    successStatus: 201,
+  },
+  drawingUpdate: {
+    method: "PATCH",
+    path: "/api/sites/{siteId}/drawings/{drawingId}",
+    summary: "Change a drawing's entry (locked with the contexts it shows)",
+    roles: recorders,
+    doing: "change drawings",
+    input: drawingUpdateSchema,
+    response: drawingRecord,
+  },
+  drawingDelete: {
+    method: "DELETE",
+    path: "/api/sites/{siteId}/drawings/{drawingId}",
+    summary: "Delete a drawing with a reason (its number is never reused)",
+    roles: recorders,
+    doing: "delete drawings",
+    input: drawingDeleteSchema,
+    from: "body",
+    response: deletedDrawing,
+  },
+  exportDrawings: {
+    method: "GET",
+    path: "/api/sites/{siteId}/export/drawings",
+    summary: "Drawing register as CSV, with the register's filters",
+    roles: "member",
+    input: exportDrawingsQuery,
     from: "query",
   },
   exportPackage: {

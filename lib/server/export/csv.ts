@@ -2,6 +2,7 @@ import Papa from "papaparse";
 import type { Context } from "@/db/schema";
 import type { RegisterRow } from "@/lib/server/finds";
 import type { SampleRegisterRow } from "@/lib/server/samples";
+import type { DrawingRegisterRow } from "@/lib/server/drawings";
 import { inertText, quoteGuarded } from "@/lib/csv-cells";
 
 type Kind = "number" | "text";
@@ -151,6 +152,36 @@ export function samplesCsv(rows: SampleRegisterRow[]): string {
       s.takenOn,
       s.status,
       s.contextState,
+    ]),
+  );
+}
+
+/** The drawing register; `contexts` lists the numbers of the contexts shown, `state` is open until all are signed off. */
+export const drawingCsvColumns: readonly CsvColumn[] = [
+  ["number", "number"],
+  ["kind", "text"],
+  ["scale", "text"],
+  ["trench", "text"],
+  ["contexts", "text"],
+  ["title", "text"],
+  ["drawn_by", "text"],
+  ["drawn_on", "text"],
+  ["state", "text"],
+];
+
+export function drawingsCsv(rows: DrawingRegisterRow[]): string {
+  return toCsv(
+    drawingCsvColumns,
+    rows.map((d) => [
+      d.number,
+      d.kind,
+      `1:${d.scale}`,
+      d.trenchCode,
+      d.contextNumbers.join(" "),
+      d.title,
+      d.drawnBy ?? "",
+      d.drawnOn,
+      d.state,
     ]),
   );
 }

@@ -19,6 +19,7 @@ import {
   benchmarksRegister,
   classesRegister,
   contextsRegister,
+  drawingsRegister,
   findsRegister,
   levelsRegister,
   packagePhotos,
@@ -75,6 +76,7 @@ async function* payload(
   yield csvFile(await classesRegister(db, scope));
   yield csvFile(await findsRegister(db, scope));
   yield csvFile(await samplesRegister(db, scope));
+  yield csvFile(await drawingsRegister(db, scope));
   yield csvFile(await levelsRegister(db, scope));
   yield csvFile(await benchmarksRegister(db, scope));
 

@@ -5,7 +5,9 @@ import type { Site } from "@/db/schema";
 import { allFinds } from "@/lib/server/finds";
 import { listTrenches } from "@/lib/server/trenches";
 import { contextsForExport } from "./contexts-export";
-import { contextsCsv, findsCsv, samplesCsv } from "./csv";
+import { contextsCsv, drawingsCsv, findsCsv, samplesCsv } from "./csv";
+import { allDrawings } from "@/lib/server/drawings";
+import type { exportDrawingsQuery } from "@/lib/schemas/drawing";
 import { allSamples } from "@/lib/server/samples";
 import type { exportSamplesQuery } from "@/lib/schemas/sample";
 import { findsGeoJson, outlinesGeoJson } from "./geojson";
@@ -64,4 +66,9 @@ export async function exportTrenches(db: Db, site: Site, q: z.infer<typeof expor
 export async function exportSamples(db: Db, site: Site, q: z.infer<typeof exportSamplesQuery>): Promise<Response> {
   const rows = await allSamples(db, site.id, q);
   return download(samplesCsv(rows), `${site.code}-samples-${stamp()}.csv`, "text/csv; charset=utf-8");
+}
+
+export async function exportDrawings(db: Db, site: Site, q: z.infer<typeof exportDrawingsQuery>): Promise<Response> {
+  const rows = await allDrawings(db, site.id, q);
+  return download(drawingsCsv(rows), `${site.code}-drawings-${stamp()}.csv`, "text/csv; charset=utf-8");
 }

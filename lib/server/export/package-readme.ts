@@ -18,6 +18,7 @@ export const columnMeanings: Record<string, string> = {
   recorded_at: "when it was recorded (ISO 8601, UTC)",
   station_point: "the total station's own point label, when imported",
   context_state: "state of the record's context: open, awaiting (submitted), signed_off; only signed_off is final",
+  kind: "plan or section",
   type: "kind of context (layer, fill, cut, structure, deposit) or of sample (bulk, spot, charcoal, …)",
   state: "open, awaiting (submitted for sign-off) or signed_off; only signed_off is final",
   colour: "colour as described",
@@ -70,6 +71,11 @@ export const columnMeanings: Record<string, string> = {
   fingerprint: "SHA-256 of the records the run read: a changed record gives another fingerprint",
   created_at: "when the run was asked for",
   finished_at: "when the run finished",
+  scale: "the drawing's scale, 1:n",
+  contexts: "numbers of the contexts the drawing shows, separated by spaces",
+  title: "what the drawing shows, as written on the sheet",
+  drawn_by: "who drew it",
+  drawn_on: "date drawn (YYYY-MM-DD)",
   result_file: "the run's parameters and result as JSON, under data/ (empty when not finished)",
 };
 

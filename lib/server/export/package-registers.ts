@@ -16,11 +16,14 @@ import {
 import { allFinds } from "@/lib/server/finds";
 import { listBenchmarks } from "@/lib/server/benchmarks";
 import { allSamples } from "@/lib/server/samples";
+import { allDrawings } from "@/lib/server/drawings";
 import { userNames } from "@/lib/server/reads/user-names";
 import { contextsForExport } from "./contexts-export";
 import {
   contextCsvColumns,
   contextsCsv,
+  drawingCsvColumns,
+  drawingsCsv,
   findCsvColumns,
   findCsvRow,
   sampleCsvColumns,
@@ -365,4 +368,15 @@ export async function runsRegister(db: Db, scope: PackageScope) {
     ]),
   );
   return { table, results };
+}
+
+export async function drawingsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const rows = await allDrawings(db, scope.siteId, { trenchId: scope.trenchId });
+  return {
+    file: "drawings.csv",
+    title: "Drawing register",
+    columns: drawingCsvColumns,
+    rows: rows.length,
+    csv: drawingsCsv(rows),
+  };
 }

@@ -1,4 +1,6 @@
 import "server-only";
+import { listDrawings } from "../drawings";
+import type { DrawingListQuery } from "@/lib/schemas/drawing";
 import type { Db } from "@/db/client";
 import type { ArtefactClass, Context, Trench } from "@/db/schema";
 import { listClasses } from "../artefact-classes";
@@ -71,6 +73,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     trenchSections: (trench: Trench) => drawTrenchSections(db, actor.site, trench),
     samples: (q: SampleListQuery) => listSamples(db, siteId, q),
     sample: (sampleId: string) => readSample(db, siteId, sampleId),
+    drawings: (q: DrawingListQuery) => listDrawings(db, siteId, q),
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
   };
 }

@@ -5,6 +5,8 @@ import { nextCount, type RoleCases } from "./types";
 import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as sampleStatusRoute from "@/app/api/sites/[siteId]/samples/status/route";
+import * as drawingsRoute from "@/app/api/sites/[siteId]/drawings/route";
+import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 import { insertFind } from "./core";
 
@@ -24,6 +26,24 @@ export async function makeSample(fx: SiteFixture, contextId = fx.context.id) {
     })
     .returning();
   return s!;
+}
+
+/** A drawing showing the fixture's context (or another), inserted directly so only the call under test writes. */
+export async function makeDrawing(fx: SiteFixture, contextId = fx.context.id) {
+  const db = await getDb();
+  const [d] = await db
+    .insert(schema.drawings)
+    .values({
+      siteId: fx.site.id,
+      trenchId: fx.trench.id,
+      number: 80_000 + nextCount(),
+      kind: "section",
+      scale: 10,
+      drawnOn: "2026-07-01",
+    })
+    .returning();
+  await db.insert(schema.drawingContexts).values({ drawingId: d!.id, contextId });
+  return d!;
 }
 
 /** Mutating operations of the archive registers. */
@@ -51,6 +71,19 @@ export const archiveCases: RoleCases = {
   samplesStatus: async (fx) => {
     const s = await makeSample(fx);
     return { mod: sampleStatusRoute, params: { siteId: fx.site.id }, body: { sampleIds: [s.id], status: "processed" } };
+  },
+  drawingsCreate: async (fx) => ({
+    mod: drawingsRoute,
+    params: { siteId: fx.site.id },
+    body: { kind: "plan", scale: 20, contextIds: [fx.context.id], title: "Plan of the hearth" },
+  }),
+  drawingUpdate: async (fx) => {
+    const d = await makeDrawing(fx);
+    return { mod: drawingRoute, params: { siteId: fx.site.id, drawingId: d.id }, body: { scale: 10 + nextCount() } };
+  },
+  drawingDelete: async (fx) => {
+    const d = await makeDrawing(fx);
+    return { mod: drawingRoute, params: { siteId: fx.site.id, drawingId: d.id }, body: { reason: "entered twice" } };
   },
   // Re-classing: the one bulk change every role may make (moving and deleting are tested in finds-bulk.test.ts).
   findsBulk: async (fx) => {
