@@ -30,6 +30,7 @@ async function mainScreens(page: Page): Promise<[string, string][]> {
     ["sheet", `${s}/contexts/${contexts[0].id}`],
     ["matrix", `${s}/contexts/matrix`],
     ["patterns", `${s}/patterns`],
+    ["drawings", `${s}/drawings`],
     ["sign-off", `${s}/sign-off`],
     ["people", `${s}/members`],
     ["settings", `${s}/settings`],
