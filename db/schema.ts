@@ -106,6 +106,11 @@ export const sites = pgTable("sites", {
   /**
   /** Next drawing number of the drawing register (its own sequence), bumped under the site row's lock. */
   nextDrawingNumber: integer("next_drawing_number").notNull().default(1),
+  /**
+   * Vertical spread (metres, highest minus lowest reduced level) above which the finds of one class in a
+   * Patterns scope are cautioned as possibly mixing several surfaces. Default 0.20 m: common practice.
+   */
+  levelSpreadCaution: doublePrecision("level_spread_caution").notNull().default(0.2),
   /** How many numbers a device reserves at once for offline recording (set by the director). */
   numberBlockSize: integer("number_block_size").notNull().default(50),
   createdAt: created(),

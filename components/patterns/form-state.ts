@@ -5,6 +5,10 @@ export type FormState = {
   trenchId: string;
   contextIds: string[];
   classIds: string[];
+  /** Depth limits: a range of reduced levels (m above the site datum, as typed) and chosen spits. */
+  levelFrom: string;
+  levelTo: string;
+  spitIds: string[];
   clarkEvans: {
     on: boolean;
     correction: "none" | "donnelly" | "monte-carlo";
@@ -36,6 +40,9 @@ export function initialForm(trenchId: string): FormState {
     trenchId,
     contextIds: [],
     classIds: [],
+    levelFrom: "",
+    levelTo: "",
+    spitIds: [],
     clarkEvans: { on: true, correction: "monte-carlo", alternative: "two-sided" },
     quadrat: { on: false, cellSize: "1" },
     lcsr: { on: true, statistic: "mad", count: "fixed" },
@@ -51,6 +58,9 @@ export function initialForm(trenchId: string): FormState {
     seed: "",
   };
 }
+
+/** A typed level as a number when it is a plain decimal; otherwise as typed, so the server names the field. */
+const typedLevel = (s: string): unknown => (/^-?\d+(\.\d+)?$/.test(s.trim()) ? Number(s.trim()) : s.trim());
 
 /** The request body the run API takes (lib/schemas/run.ts). */
 export function toRequest(f: FormState): RunCreateInput {
@@ -73,7 +83,14 @@ export function toRequest(f: FormState): RunCreateInput {
   const { kinds, neighbours, style, variable, minArea } = f.squares;
   const squareTests = kinds.map((kind) => ({ kind, neighbours, style, variable, minArea: Number(minArea) || 0 }));
   return {
-    scope: { trenchId: f.trenchId, contextIds: f.contextIds, classIds: f.classIds },
+    scope: {
+      trenchId: f.trenchId,
+      contextIds: f.contextIds,
+      classIds: f.classIds,
+      ...(f.levelFrom.trim() && { levelFrom: typedLevel(f.levelFrom) }),
+      ...(f.levelTo.trim() && { levelTo: typedLevel(f.levelTo) }),
+      ...(f.spitIds.length && { spitIds: f.spitIds }),
+    },
     tests,
     ...(squareTests.length && { squareTests }),
     params: {
@@ -88,7 +105,14 @@ export function toRequest(f: FormState): RunCreateInput {
 
 /** A saved run's settings back in the form (same seed), to run it again on today's records. */
 export function formFromRun(run: {
-  scope: { trenchId: string; contextIds: string[]; classIds: string[] };
+  scope: {
+    trenchId: string;
+    contextIds: string[];
+    classIds: string[];
+    levelFrom?: number;
+    levelTo?: number;
+    spitIds?: string[];
+  };
   seed: number;
   params: {
     correction: FormState["correction"];
@@ -102,6 +126,9 @@ export function formFromRun(run: {
   const f = initialForm(run.scope.trenchId);
   f.contextIds = [...run.scope.contextIds];
   f.classIds = [...run.scope.classIds];
+  f.levelFrom = run.scope.levelFrom === undefined ? "" : String(run.scope.levelFrom);
+  f.levelTo = run.scope.levelTo === undefined ? "" : String(run.scope.levelTo);
+  f.spitIds = [...(run.scope.spitIds ?? [])];
   f.clarkEvans.on = f.lcsr.on = false;
   for (const t of run.params.tests) {
     if (t.kind === "clark-evans") f.clarkEvans = { on: true, correction: t.correction, alternative: t.alternative };

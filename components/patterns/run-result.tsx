@@ -8,6 +8,7 @@ import { PlanOverlay } from "./plan-overlay";
 import { SquareResults } from "./square-results";
 import { VerdictCard } from "./verdict-card";
 import { fmtM } from "./words";
+import { depthWords, leftOutWords } from "@/lib/levels/depth-words";
 
 /** A finished run: header with everything needed to reproduce it, warnings, verdicts and figures, cautions. */
 export function RunResultView({ run, compact = false }: { run: RunView; compact?: boolean }) {
@@ -43,9 +44,15 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
       <section className="sheet text-sm" aria-label="How this run was made">
         <p>
           Trench <b>{p.names.trench}</b>, context{p.names.contexts.length > 1 ? "s" : ""}{" "}
-          <b className="num">{p.names.contexts.join(", ")}</b>; level {result.level}, {result.nsim} simulations, seed{" "}
-          <span className="num">{result.seed}</span>, {result.correction} edge correction, r up to {fmtM(result.rmax)};
-          engine {result.engineVersion}; records fingerprint{" "}
+          <b className="num">{p.names.contexts.join(", ")}</b>
+          {p.depth && (
+            <>
+              , limited to <b className="num">{depthWords(p.depth)}</b> (RL: metres above the site datum)
+            </>
+          )}
+          ; level {result.level}, {result.nsim} simulations, seed <span className="num">{result.seed}</span>,{" "}
+          {result.correction} edge correction, r up to {fmtM(result.rmax)}; engine {result.engineVersion}; records
+          fingerprint{" "}
           <span className="num" title={run.fingerprint}>
             {run.fingerprint.slice(0, 12)}…
           </span>
@@ -56,6 +63,12 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
             Out of date: finds, context states (e.g. a sign-off) or the outline this run read have changed since. Run it
             again with seed {result.seed} to compare.
           </p>
+        )}
+        {p.depth && p.depth.noLevel.count > 0 && (
+          <p className="mt-2 text-warn">{leftOutWords("with no level recorded", p.depth.noLevel.numbers)}.</p>
+        )}
+        {p.depth && p.depth.noSpit.count > 0 && (
+          <p className="mt-2 text-warn">{leftOutWords("recorded in no spit", p.depth.noSpit.numbers)}.</p>
         )}
       </section>
       {p.warnings.length > 0 && (

@@ -1,5 +1,6 @@
 "use client";
 
+import { depthWords } from "@/lib/levels/depth-words";
 import { useDates } from "@/components/locale";
 import type { RunView } from "@/lib/api/patterns-responses";
 
@@ -47,8 +48,8 @@ export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Pr
             >
               <td className="num whitespace-nowrap">{when(r.createdAt)}</td>
               <td>
-                Trench {r.params.names.trench} · {r.params.names.contexts.join(", ")} ·{" "}
-                {r.params.names.classes.join(" ")}
+                Trench {r.params.names.trench} · {r.params.names.contexts.join(", ")}
+                {r.params.depth ? ` (${depthWords(r.params.depth)})` : ""} · {r.params.names.classes.join(" ")}
               </td>
               <td className="text-xs">
                 {[...new Set(r.params.tests.map((t) => t.kind))].join(", ")} · {r.params.nsim} sims

@@ -2,8 +2,9 @@
 
 import { ClassSymbol } from "@/components/class-symbol";
 import type { ScopeSummary } from "@/lib/api/patterns-responses";
+import { DepthFields, SpreadSummary } from "./depth-fields";
 import type { FormState } from "./form-state";
-import type { ClassOption, ContextOption, TrenchOption } from "./types";
+import type { ClassOption, ContextOption, SpitOption, TrenchOption } from "./types";
 
 type Props = {
   form: FormState;
@@ -11,15 +12,18 @@ type Props = {
   trenches: TrenchOption[];
   contexts: ContextOption[];
   classes: ClassOption[];
+  spits: SpitOption[];
   summary: ScopeSummary | undefined;
   loading: boolean;
+  /** Field messages from the server, keyed by field ("levelFrom", "scope.levelFrom", …). */
+  errors: Record<string, string[]>;
 };
 
 const toggle = (list: string[], id: string, on: boolean) =>
   on ? [...new Set([...list, id])] : list.filter((x) => x !== id);
 
 /** Step 1: one trench (the study area), the contexts that form one surface, the classes; n per class. */
-export function ScopePicker({ form, set, trenches, contexts, classes, summary, loading }: Props) {
+export function ScopePicker({ form, set, trenches, contexts, classes, spits, summary, loading, errors }: Props) {
   const inTrench = contexts.filter((c) => c.trenchId === form.trenchId);
   const nOf = new Map(summary?.classes.map((c) => [c.id, c]) ?? []);
   return (
@@ -30,7 +34,7 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
         <select
           className="field"
           value={form.trenchId}
-          onChange={(e) => set({ trenchId: e.target.value, contextIds: [] })}
+          onChange={(e) => set({ trenchId: e.target.value, contextIds: [], spitIds: [] })}
         >
           {trenches.map((t) => (
             <option key={t.id} value={t.id}>
@@ -51,7 +55,15 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
                   type="checkbox"
                   className="size-5"
                   checked={form.contextIds.includes(c.id)}
-                  onChange={(e) => set({ contextIds: toggle(form.contextIds, c.id, e.target.checked) })}
+                  onChange={(e) =>
+                    set({
+                      contextIds: toggle(form.contextIds, c.id, e.target.checked),
+                      // A context taken out of the scope takes its spits with it.
+                      spitIds: e.target.checked
+                        ? form.spitIds
+                        : form.spitIds.filter((s) => spits.find((x) => x.id === s)?.contextId !== c.id),
+                    })
+                  }
                 />
                 <span className="num font-bold">{c.number}</span>
                 <span className="text-sm text-ink-soft">
@@ -74,6 +86,7 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
           <p>Finds from several contexts projected onto one plan mix different moments in time.</p>
         </div>
       )}
+      <DepthFields form={form} set={set} contexts={inTrench} spits={spits} summary={summary} errors={errors} />
       <div>
         <p className="label">Classes {loading && <span className="font-normal">(counting…)</span>}</p>
         <ul className="grid gap-1">
@@ -108,6 +121,7 @@ export function ScopePicker({ form, set, trenches, contexts, classes, summary, l
             Below 20 finds a class gives little power; below the minimum a test needs, Loamwork refuses that test.
           </p>
         )}
+        {summary && <SpreadSummary summary={summary} chosen={form.classIds} />}
       </div>
     </fieldset>
   );

@@ -18,7 +18,7 @@ import { RunPanel } from "./run-panel";
 import { RunsList } from "./runs-list";
 import { ScopePicker } from "./scope-picker";
 import { ParamsFields, TestPicker } from "./test-picker";
-import type { ClassOption, ContextOption, TrenchOption } from "./types";
+import type { ClassOption, ContextOption, SpitOption, TrenchOption } from "./types";
 import { useRuns } from "./use-run";
 
 type Props = {
@@ -27,10 +27,11 @@ type Props = {
   trenches: TrenchOption[];
   contexts: ContextOption[];
   classes: ClassOption[];
+  spits: SpitOption[];
 };
 
 /** The Patterns workspace: scope → tests → parameters → run → progress → verdicts, figures, cautions. */
-export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes }: Props) {
+export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes, spits }: Props) {
   const pathname = usePathname();
   const search = useSearchParams();
   const runId = search.get("run");
@@ -54,7 +55,7 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
   };
 
   const summary = useQuery({
-    queryKey: ["scope", siteId, form.trenchId, form.contextIds],
+    queryKey: ["scope", siteId, form.trenchId, form.contextIds, form.levelFrom, form.levelTo, form.spitIds],
     queryFn: () =>
       apiClient.call(
         "runScope",
@@ -63,8 +64,12 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
           trenchId: form.trenchId,
           contextIds: form.contextIds.join(","),
           classIds: classes.map((c) => c.id).join(","),
+          levelFrom: form.levelFrom.trim(),
+          levelTo: form.levelTo.trim(),
+          spitIds: form.spitIds.join(","),
         },
       ),
+    retry: false,
     enabled: !!form.trenchId && form.contextIds.length > 0 && classes.length > 0,
   });
   const runs = useRuns(siteId);
@@ -88,6 +93,7 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
     },
   });
   const startError = start.error instanceof ApiError ? start.error : null;
+  const summaryError = summary.error instanceof ApiError ? summary.error : null;
   const help = (
     <section className="sheet text-ink-soft">
       <h2 className="text-lg font-bold text-ink">How to read a run here</h2>
@@ -117,8 +123,10 @@ export function PatternsWorkspace({ siteId, canRun, trenches, contexts, classes 
           trenches={trenches}
           contexts={contexts}
           classes={classes}
+          spits={spits}
           summary={summary.data}
           loading={summary.isFetching}
+          errors={{ ...(summaryError?.fieldErrors ?? {}), ...(startError?.fieldErrors ?? {}) }}
         />
         <details
           className="sheet p-0"

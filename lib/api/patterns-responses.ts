@@ -1,6 +1,7 @@
 import type { RunResult } from "./run-result";
 import type { RunScope, RunTest, SquareTest, TestKind } from "@/lib/schemas/run";
 import type { StratWarning } from "@/lib/stratigraphy/one-surface";
+import type { VerticalSpread } from "@/lib/levels/vertical-spread";
 
 /** A run as the API returns it. `outOfDate` is computed on read from the fingerprint. Types only. */
 export type RunParamsStored = {
@@ -15,6 +16,8 @@ export type RunParamsStored = {
   /** Names at the time of the run, for lists. */
   names: { trench: string; contexts: number[]; classes: string[] };
   warnings: StratWarning[];
+  /** The scope's depth limits (level range, spits) and the finds they left out; absent for whole contexts. */
+  depth?: ScopeDepthSummary;
 };
 
 export type RunView = {
@@ -48,10 +51,28 @@ export type ScopeSummary = {
     n: number;
     lowPower: boolean;
     tooFewFor: TestKind[];
+    /** The reduced levels of its finds in scope (m above the site datum), summarised; null levels counted apart. */
+    vertical: VerticalSpread;
   }[];
   totalFinds: number;
+  /** The site's threshold for the vertical-spread caution (m), and whether it is the common-practice default. */
+  spreadCaution: { threshold: number; isDefault: boolean };
+  /** The depth limits and what they left out; null when the scope takes whole contexts. */
+  depth: ScopeDepthSummary | null;
   warnings: StratWarning[];
   defaults: { correction: string; rmax: number; nsim: number; level: number };
   minPoints: Record<TestKind, number>;
   fingerprint: string;
+};
+
+/** The depth limits of a scope (level range, spits) and the finds they left out. */
+export type ScopeDepthSummary = {
+  levelFrom: number | null;
+  levelTo: number | null;
+  /** Chosen spits named "context/spit", e.g. "1005/2", with their levels. */
+  spits: { id: string; label: string; topLevel: number | null; baseLevel: number | null }[];
+  /** Finds left out of a level range because they have no level: how many, and their numbers. */
+  noLevel: { count: number; numbers: number[] };
+  /** Finds left out of a choice of spits because they were recorded in no spit. */
+  noSpit: { count: number; numbers: number[] };
 };

@@ -120,6 +120,7 @@ export const fieldLabels: Record<string, string> = {
   samplesShareFindNumbers: "Samples numbered with finds",
   labelAddress: "Label address",
   numberBlockSize: "Numbers a device reserves at a time",
+  levelSpreadCaution: "Vertical spread that may mix surfaces",
   // Patterns
   fun: "Function (K or L)",
   neighbours: "Neighbours",
@@ -131,6 +132,9 @@ export const fieldLabels: Record<string, string> = {
   scope: "Scope",
   contextIds: "Contexts",
   classIds: "Classes",
+  levelFrom: "Lowest level (RL)",
+  levelTo: "Highest level (RL)",
+  spitIds: "Spits",
   tests: "Tests",
   params: "Settings",
   kind: "Test",

@@ -89,11 +89,38 @@ export const runParamsSchema = z.strictObject({
 });
 export type RunParamsInput = z.input<typeof runParamsSchema>;
 
-export const runScopeSchema = z.strictObject({
-  trenchId: id,
-  contextIds: z.array(id).min(1, "Choose at least one context.").max(50),
-  classIds: z.array(id).min(1, "Choose at least one class.").max(12),
-});
+/** A reduced level bounding the scope (m above the site datum); blank or absent = no bound on that side. */
+const boundLevel = z.preprocess(
+  (v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.trim())) : v === null ? undefined : v),
+  z
+    .number({ error: "Enter a reduced level in metres, e.g. 41.25." })
+    .refine(Number.isFinite, "Enter a reduced level in metres, e.g. 41.25.")
+    .refine((v) => Math.abs(v) < 10000, "A reduced level lies within 10 km of the datum.")
+    .optional(),
+);
+
+/** Lowest bound at or below the highest: a reversed range would silently hold no finds. */
+const levelOrder = {
+  check: (s: { levelFrom?: number; levelTo?: number }) =>
+    s.levelFrom === undefined || s.levelTo === undefined || s.levelFrom <= s.levelTo,
+  message: "The lower level (from) must not be higher than the upper level (to).",
+};
+
+/**
+ * The scope may be limited by depth: to finds whose reduced level lies in [levelFrom, levelTo] (inclusive,
+ * metres above the site datum; finds with no level are then left out and named), and/or to finds recorded
+ * in the chosen spits of the chosen contexts. Both absent = every find of the contexts, as before.
+ */
+export const runScopeSchema = z
+  .strictObject({
+    trenchId: id,
+    contextIds: z.array(id).min(1, "Choose at least one context.").max(50),
+    classIds: z.array(id).min(1, "Choose at least one class.").max(12),
+    levelFrom: boundLevel,
+    levelTo: boundLevel,
+    spitIds: z.array(id).max(200).optional(),
+  })
+  .refine(levelOrder.check, { message: levelOrder.message, path: ["levelFrom"] });
 export type RunScope = z.infer<typeof runScopeSchema>;
 
 export const runCreateSchema = z
@@ -120,6 +147,15 @@ const idList = z
       .filter(Boolean),
   )
   .pipe(z.array(id));
-export const scopeQuerySchema = z.object({ trenchId: id, contextIds: idList, classIds: idList });
+export const scopeQuerySchema = z
+  .object({
+    trenchId: id,
+    contextIds: idList,
+    classIds: idList,
+    levelFrom: boundLevel,
+    levelTo: boundLevel,
+    spitIds: idList,
+  })
+  .refine(levelOrder.check, { message: levelOrder.message, path: ["levelFrom"] });
 
 export const runListQuerySchema = z.object({ trenchId: id.optional() });

@@ -2,6 +2,7 @@ import proj4 from "proj4";
 import { z } from "zod";
 import "./messages";
 import { numeric, roleSchema } from "./common";
+import { DEFAULT_LEVEL_SPREAD_CAUTION } from "@/lib/levels/vertical-spread";
 
 /** True when proj4 can read the definition and it is a projection in metres (not longitude/latitude). */
 function isProjectedDefinition(def: string): boolean {
@@ -43,6 +44,13 @@ const siteFields = {
       .min(5, "A block holds at least 5 numbers.")
       .max(1000, "A block holds at most 1,000 numbers."),
   ),
+  /** Vertical spread (m) of one class's finds above which a Patterns scope is cautioned as mixing surfaces. */
+  levelSpreadCaution: numeric(
+    z
+      .number({ error: "Enter the vertical spread in metres, e.g. 0.20." })
+      .gt(0, "The spread must be more than 0 m.")
+      .max(10, "The spread is at most 10 m."),
+  ),
   /** Printed in front of label codes so any phone camera opens the record; blank = the code alone. */
   labelAddress: z
     .string()
@@ -63,6 +71,7 @@ export const siteCreateSchema = z.object({
   gridOriginY: siteFields.gridOriginY.default(0),
   samplesShareFindNumbers: siteFields.samplesShareFindNumbers.default(false),
   numberBlockSize: siteFields.numberBlockSize.default(50),
+  levelSpreadCaution: siteFields.levelSpreadCaution.default(DEFAULT_LEVEL_SPREAD_CAUTION),
 });
 
 /** No defaults here: a field left out stays as it is. The code never changes. */

@@ -23,6 +23,7 @@ export const fieldRights = {
     samplesShareFindNumbers: directorOnly,
     labelAddress: directorOnly,
     numberBlockSize: directorOnly,
+    levelSpreadCaution: directorOnly,
   },
   member: { role: directorOnly },
   class: {

@@ -145,6 +145,28 @@ describe("Patterns workspace", () => {
     await page.context().close();
   });
 
+  it("a specialist limits the scope by reduced level: the spread per class, the narrower n, a reversed range refused", async () => {
+    const page = await newPage(browser);
+    await signIn(page, "specialist");
+    await openPatterns(page);
+    await chooseScope(page, ["FLK"]);
+    await expect(page.getByTestId("n-FLK").textContent()).resolves.toBe("n = 150");
+    // The demo's trench A finds lie 0.30–0.40 m below its surface (RL 49.62): within the 0.20 m default.
+    await shown(page.getByTestId("vertical-spread").locator('[data-class="FLK"]'));
+    await shown(page.getByText(/No class spreads over more than 0\.20 m \(common practice\)/));
+    await page.getByLabel("Lowest level (RL, m)").fill("49.270");
+    await page.getByLabel("Highest level (RL, m)").fill("49.320");
+    await shown(page.getByTestId("depth-scope").getByText("RL 49.270 to 49.320 m"));
+    await expect
+      .poll(async () => Number((await page.getByTestId("n-FLK").textContent())?.replace("n = ", "")), {
+        timeout: 20_000,
+      })
+      .toBeLessThan(150);
+    await page.getByLabel("Lowest level (RL, m)").fill("49.400");
+    await shown(page.getByText("The lower level (from) must not be higher than the upper level (to)."));
+    await page.context().close();
+  });
+
   it("a specialist watches a long run's progress, reloads the page, finds it still running, and cancels it", async () => {
     const page = await newPage(browser);
     await signIn(page, "specialist");

@@ -465,7 +465,7 @@ const cases: LockCase[] = [
  */
 const outsideTheLock: Record<string, string> = {
   sitesCreate: "a new site has no contexts",
-  siteUpdate: "site name and grid description only",
+  siteUpdate: "site name, grid, numbering and analysis settings only",
   memberUpdate: "membership",
   memberRemove: "membership",
   classesCreate: "a new class has no finds",

@@ -86,6 +86,37 @@ describe("putting a saved run back in the form", () => {
     expect(req.squareTests).toBeUndefined();
   });
 
+  it("keeps the depth limits: the level range and the chosen spits", async () => {
+    const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
+    const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
+    const run = {
+      scope: {
+        trenchId: id(1),
+        contextIds: [id(2)],
+        classIds: [id(3)],
+        levelFrom: 41.2,
+        levelTo: 41.35,
+        spitIds: [id(5)],
+      },
+      seed: 9,
+      params: {
+        correction: "isotropic" as const,
+        rmax: 1,
+        nsim: 99,
+        level: 0.05,
+        tests: [{ kind: "pcf-envelope" as const }],
+      },
+    };
+    const form = formFromRun(run);
+    expect([form.levelFrom, form.levelTo, form.spitIds]).toEqual(["41.2", "41.35", [id(5)]]);
+    expect(toRequest(form).scope).toEqual(run.scope);
+    // A run with no depth limits reopens with none.
+    const whole = toRequest(
+      formFromRun({ ...run, scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] } }),
+    );
+    expect(whole.scope).toEqual({ trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] });
+  });
+
   it("keeps the square-count tests and their options", async () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;

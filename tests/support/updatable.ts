@@ -128,6 +128,7 @@ export const updatables: Record<string, Updatable> = {
       samplesShareFindNumbers: fc.boolean(),
       numberBlockSize: fc.integer({ min: 5, max: 1000 }),
       labelAddress: fc.constantFrom(null, "https://loamwork.example.org", "http://10.0.0.2:3000/lw"),
+      levelSpreadCaution: decimal(0.01, 10),
     }),
   },
   memberUpdate: {

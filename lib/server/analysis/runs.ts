@@ -12,7 +12,7 @@ import { defaultRmax, roundMetres } from "./defaults";
 import type { RunResult } from "@/lib/api/run-result";
 import type { RunCreate, RunScope, RunTest } from "@/lib/schemas/run";
 import type { RunParamsStored, RunView } from "@/lib/api/patterns-responses";
-import { countsByClass, stratWarningsFor } from "./scope-summary";
+import { countsByClass, depthSummary, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
 import { squareRefusals } from "./square-tests";
 import { MIN_POINTS, tooFewMessage } from "./thresholds";
@@ -72,6 +72,8 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     },
     warnings: await stratWarningsFor(db, actor.site.id, data),
   };
+  const depth = depthSummary(data);
+  if (depth) params.depth = depth;
   const seed = input.params.seed ?? randomInt(0, 2 ** 31 - 1);
   const row = await db.transaction(async (tx) => {
     const run = written(

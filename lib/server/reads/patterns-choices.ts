@@ -1,11 +1,11 @@
 import "server-only";
 import { asc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { artefactClasses, contexts, trenches } from "@/db/schema";
+import { artefactClasses, contexts, spits, trenches } from "@/db/schema";
 
-/** What the Patterns workspace offers to choose from: the site's trenches, contexts and find classes. */
+/** What the Patterns workspace offers to choose from: the site's trenches, contexts, their spits and find classes. */
 export async function patternsChoices(db: Db, siteId: string) {
-  const [trenchRows, contextRows, classRows] = await Promise.all([
+  const [trenchRows, contextRows, classRows, spitRows] = await Promise.all([
     db
       .select({ id: trenches.id, code: trenches.code, name: trenches.name })
       .from(trenches)
@@ -34,6 +34,17 @@ export async function patternsChoices(db: Db, siteId: string) {
       .from(artefactClasses)
       .where(eq(artefactClasses.siteId, siteId))
       .orderBy(asc(artefactClasses.code)),
+    db
+      .select({
+        id: spits.id,
+        contextId: spits.contextId,
+        number: spits.number,
+        topLevel: spits.topLevel,
+        baseLevel: spits.baseLevel,
+      })
+      .from(spits)
+      .where(eq(spits.siteId, siteId))
+      .orderBy(asc(spits.number)),
   ]);
-  return { trenches: trenchRows, contexts: contextRows, classes: classRows };
+  return { trenches: trenchRows, contexts: contextRows, classes: classRows, spits: spitRows };
 }

@@ -21,7 +21,8 @@ export const coreCases: RoleCases = {
   siteUpdate: async (fx) => ({
     mod: siteRoute,
     params: { siteId: fx.site.id },
-    body: { name: `Renamed ${nextCount()}` },
+    // The name and a setting of analyses by depth: both the director's alone.
+    body: { name: `Renamed ${nextCount()}`, levelSpreadCaution: 0.25 },
   }),
   memberUpdate: async (fx) => {
     const u = await makeUser("Member");

@@ -27,6 +27,7 @@ export default async function PatternsPage({ params }: { params: Promise<{ siteI
             trenches={choices.trenches}
             contexts={choices.contexts}
             classes={choices.classes}
+            spits={choices.spits}
           />
         </Suspense>
       </main>

@@ -2,6 +2,7 @@ import { SiteNav } from "@/components/site-nav";
 import { ClassesPanel } from "@/components/settings/classes-panel";
 import { GridForm } from "@/components/settings/grid-form";
 import { RecordsForm } from "@/components/settings/records-form";
+import { SpreadForm } from "@/components/settings/spread-form";
 import { pageSiteActor } from "@/lib/server/page-access";
 
 export default async function SettingsPage({ params }: { params: Promise<{ siteId: string }> }) {
@@ -56,6 +57,18 @@ export default async function SettingsPage({ params }: { params: Promise<{ siteI
               sampleCount={samples.total}
               initial={{ samplesShareFindNumbers: s.samplesShareFindNumbers, labelAddress: s.labelAddress ?? "" }}
             />
+          </div>
+        </section>
+        <section aria-labelledby="levels-h">
+          <h2 id="levels-h" className="text-2xl font-bold">
+            Levels in analyses
+          </h2>
+          <p className="text-ink-soft">
+            Every level in Loamwork is a reduced level (RL): metres above the site datum.
+            {actor.role !== "director" && " Only the site director changes this."}
+          </p>
+          <div className="mt-4">
+            <SpreadForm siteId={siteId} canEdit={actor.role === "director"} initial={s.levelSpreadCaution} />
           </div>
         </section>
       </main>

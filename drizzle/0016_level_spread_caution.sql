@@ -1,0 +1,1 @@
+ALTER TABLE "sites" ADD COLUMN "level_spread_caution" double precision DEFAULT 0.2 NOT NULL;
