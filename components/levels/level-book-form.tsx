@@ -146,9 +146,9 @@ export function LevelBookForm({
         setMessage("The book has mistakes: see the lines marked.");
         return;
       }
-      await apiClient.call("levelRunsCreate", { siteId }, body);
+      const answer = (await apiClient.call("levelRunsCreate", { siteId }, body)) as { pending?: boolean };
       setMessage(
-        `Run booked: ${lines.length} levels from ${start?.code}${live.misclosure === null ? ", not closed on a benchmark" : `, closing error ${(live.misclosure * 1000).toFixed(0)} mm`}.`,
+        `${answer.pending ? "Run kept on this device, to be booked when it is back online" : "Run booked"}: ${lines.length} levels from ${start?.code}${live.misclosure === null ? ", not closed on a benchmark" : `, closing error ${(live.misclosure * 1000).toFixed(0)} mm`}.`,
       );
       setLines([blankLine("benchmark", startId), blankLine("find"), blankLine("benchmark", closingId)]);
     } catch (err) {

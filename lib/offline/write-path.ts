@@ -40,6 +40,10 @@ const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
   // its context and spit, so sending each in order leaves the last one entered.
   squareRecord: "create",
   squareDelete: "delete",
+  // Levels are taken in the trench too: spits, and levelling runs booked against the site's benchmarks.
+  spitsCreate: "create",
+  spitUpdate: "edit",
+  levelRunsCreate: "create",
 };
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
@@ -69,7 +73,7 @@ function pathIds(url: string): { siteId: string; recordId: string } {
 
 const needsConnection = (req: ApiRequest) =>
   new ApiError(
-    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations and counts by square works offline.`,
+    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations, counts by square, spits and levelling runs works offline.`,
     0,
   );
 
@@ -128,6 +132,18 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
       await outbox.add({ ...base, localId, body: JSON.stringify(body), label: "relation" });
       return { id: localId, ...stored, pending: true };
     }
+    // Spits are numbered by the digger within their context and levelling runs carry no number: no block.
+    if (req.operation === "spitsCreate" || req.operation === "levelRunsCreate") {
+      const spit = req.operation === "spitsCreate";
+      await outbox.add({
+        ...base,
+        localId,
+        body: JSON.stringify(body),
+        label: spit ? `spit ${body.number}` : "levelling run",
+      });
+      const contextId = spit ? (new URL(req.url, "http://device").pathname.split("/")[5] ?? "") : undefined;
+      return { id: localId, ...(spit && { contextId, topLevel: null, baseLevel: null }), ...body, pending: true };
+    }
     const numberKind = req.operation === "findsCreate" ? "find" : "context";
     if (body.number === undefined || body.number === null || body.number === "") {
       const n = await outbox.takeNumber(siteId, numberKind);
@@ -177,6 +193,7 @@ function recordWord(operation: string): string {
   if (operation.startsWith("find")) return "find";
   if (operation.startsWith("context")) return "context";
   if (operation.startsWith("square")) return "square record";
+  if (operation.startsWith("spit")) return "spit";
   return "relation";
 }
 
