@@ -27,7 +27,7 @@ export function QuadratMap({ t, code, outline }: { t: QuadratOut; code: string; 
       y0: c.y0,
       x1: c.x1,
       y1: c.y1,
-      text: `${c.count}/${formatValue(c.expected)}`,
+      text: `${c.count}/${+c.expected.toFixed(1)}`,
       title: `observed ${c.count}, expected ${formatValue(c.expected)}`,
     };
     if (c.count === 0) return { ...base, kind: "zero" };
@@ -61,7 +61,7 @@ export function QuadratMap({ t, code, outline }: { t: QuadratOut; code: string; 
           ariaLabel={`Quadrat counts of ${code} on the trench plan, observed and expected per cell`}
           legend={{
             title: `${code}: finds per quadrat`,
-            note: `${scale.colours.length} quantile classes of the observed count; viridis scale; numbers are observed/expected`,
+            note: "in each cell: observed/expected",
             items,
           }}
         />

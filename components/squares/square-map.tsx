@@ -48,6 +48,10 @@ function Swatch({
   return <rect {...common} fill={`url(#${hatch})`} />;
 }
 
+/** A cell's label size: no larger than the map's, and small enough that the words fit inside the cell (monospace, 0.6 em a character). */
+const fitFont = (text: string, cellWidth: number, most: number) =>
+  Math.min(most, (cellWidth * 0.9) / (text.length * 0.6));
+
 /**
  * A trench's squares on its plan, north up, in site-grid metres: shaded squares clipped to the outline and
  * holes, 0 white, not counted grey, not excavated hatched, and the legend drawn inside the figure so an
@@ -181,11 +185,11 @@ export function SquareMap({
                   pointerEvents="none"
                 />
               )}
-              {c.text && cellFont > span / 200 && (
+              {c.text && fitFont(c.text, cw, cellFont) > span / 200 && (
                 <text
                   x={n4(x + cw / 2)}
                   y={n4(y + ch / 2)}
-                  fontSize={n4(cellFont)}
+                  fontSize={n4(fitFont(c.text, cw, cellFont))}
                   textAnchor="middle"
                   dominantBaseline="middle"
                   fill={c.dark ? "#ffffff" : INK}

@@ -141,6 +141,15 @@ describe("Patterns workspace", () => {
     expect(pairs.reduce((s, [o]) => s + o!, 0)).toBe(150);
     const expected = pairs.reduce((s, [, e]) => s + e!, 0);
     expect(Math.abs(expected - 150)).toBeLessThan(titles.length * 0.05 + 0.5);
+    // Each label fits inside its own cell, so neighbouring numbers do not run into each other.
+    const overflows = await map.evaluate((svg) =>
+      [...svg.querySelectorAll("g[data-square]")].flatMap((g) => {
+        const text = g.querySelector("text");
+        const cell = g.querySelector("rect")!.getBBox();
+        return text && text.getBBox().width > cell.width ? [text.textContent] : [];
+      }),
+    );
+    expect(overflows).toEqual([]);
     await map.screenshot({ path: "test-results/quadrat-on-plan.png" });
     await page.context().close();
   });
