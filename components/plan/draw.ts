@@ -4,19 +4,27 @@ import { vertex, type Problem, type Pt, type Rings } from "@/lib/geometry/outlin
 import type { ClassRow, FindRow } from "./rows";
 import { openSymbols, traceSymbol } from "./symbols";
 import { pixelRatioOf, type Area } from "./view-cache";
+import {
+  ACCENT,
+  EXTENT,
+  GRID_LINE,
+  GRID_LINE_PHOTO,
+  GRID_LINE_PHOTO_DARK,
+  haloFor,
+  INK,
+  LABEL_BACK,
+  TRENCH_FILL,
+  WARN,
+} from "./plan-colours";
 
-export const INK = "#1b130c";
-export const WARN = "#b8400f";
-export const ACCENT = "#1d5c8c";
-/** Context extents: their dashed outline and number label. */
-export const EXTENT = "#5a2d82";
+export { ACCENT, EXTENT, INK, WARN } from "./plan-colours";
 export const FIND_R = 8;
 
 export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: number, hasPhoto: boolean) {
   const g = gridLines(v, w, h);
   c.save();
   c.lineWidth = 1;
-  c.strokeStyle = hasPhoto ? "rgba(255,255,255,0.75)" : "rgba(46,33,22,0.22)";
+  c.strokeStyle = hasPhoto ? GRID_LINE_PHOTO : GRID_LINE;
   c.beginPath();
   for (const x of g.xs) {
     const sx = Math.round(toScreen(v, x, 0)[0]) + 0.5;
@@ -31,7 +39,7 @@ export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: num
   c.stroke();
   if (hasPhoto) {
     // A dark twin line keeps the grid visible over pale soil as well as dark.
-    c.strokeStyle = "rgba(27,19,12,0.45)";
+    c.strokeStyle = GRID_LINE_PHOTO_DARK;
     c.setLineDash([4, 4]);
     c.stroke();
     c.setLineDash([]);
@@ -41,7 +49,7 @@ export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: num
   c.textBaseline = "top";
   const label = (text: string, x: number, y: number) => {
     const tw = c.measureText(text).width;
-    c.fillStyle = "rgba(247,242,232,0.92)";
+    c.fillStyle = LABEL_BACK;
     c.fillRect(x - 2, y - 1, tw + 4, 16);
     c.fillStyle = INK;
     c.fillText(text, x, y + 1);
@@ -72,7 +80,7 @@ export function drawOutline(
     c.closePath();
   }
   if (!hasPhoto) {
-    c.fillStyle = "#eadcc0";
+    c.fillStyle = TRENCH_FILL;
     c.fill("evenodd");
   }
   c.lineJoin = "round";
@@ -245,7 +253,7 @@ function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElemen
   c.beginPath();
   traceSymbol(c, symbol, SPRITE_CSS / 2, SPRITE_CSS / 2, FIND_R);
   if (openSymbols.has(symbol)) {
-    c.strokeStyle = INK;
+    c.strokeStyle = haloFor(colour);
     c.lineWidth = 5;
     c.stroke();
     c.strokeStyle = colour;
@@ -254,7 +262,7 @@ function sprite(symbol: string, colour: string, ratio: number): HTMLCanvasElemen
   } else {
     c.fillStyle = colour;
     c.fill();
-    c.strokeStyle = INK;
+    c.strokeStyle = haloFor(colour);
     c.lineWidth = 1.4;
     c.stroke();
   }

@@ -1,7 +1,10 @@
 /**
  * The eight find symbols, drawn on the plan canvas (traceSymbol) and in legends (symbolSvgPath). Filled
- * shapes get a dark outline and open shapes a dark halo, so every colour stays readable on a sunlit photo.
+ * shapes get an outline and open shapes a halo (dark, or white round a dark colour: plan-colours.ts), so
+ * every colour stays readable on a sunlit photo.
  */
+import { haloFor } from "./plan-colours";
+
 export type SymbolShape = "disc" | "square" | "triangle" | "diamond" | "cross" | "star" | "ring" | "bar";
 
 export const openSymbols: ReadonlySet<string> = new Set(["ring", "cross"]);
@@ -121,11 +124,11 @@ export function SymbolIcon({ symbol, colour, size = 18 }: { symbol: string; colo
     >
       {open ? (
         <>
-          <path d={symbolSvgPath(symbol, r)} fill="none" stroke="#1b130c" strokeWidth={4} />
+          <path d={symbolSvgPath(symbol, r)} fill="none" stroke={haloFor(colour)} strokeWidth={4} />
           <path d={symbolSvgPath(symbol, r)} fill="none" stroke={colour} strokeWidth={2.2} />
         </>
       ) : (
-        <path d={symbolSvgPath(symbol, r)} fill={colour} stroke="#1b130c" strokeWidth={1.3} />
+        <path d={symbolSvgPath(symbol, r)} fill={colour} stroke={haloFor(colour)} strokeWidth={1.3} />
       )}
     </svg>
   );
