@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { FieldModeButton } from "./field-mode";
 import { DeviceStatus } from "./offline/device-status";
 import { SignOutButton } from "./sign-out-button";
 
@@ -42,6 +43,7 @@ export function AppHeader({
               renderedAt={new Date().toISOString()}
             />
           )}
+          <FieldModeButton />
           <span className="text-sm text-ink-soft">{userName}</span>
           <SignOutButton />
         </div>
