@@ -98,8 +98,9 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             <dt className="text-ink-soft">Position (m)</dt>
             <dd className="num">
               {f.x.toFixed(3)}, {f.y.toFixed(3)}
-              {f.z !== null ? `, ${f.z.toFixed(3)}` : ""}
             </dd>
+            <dt className="text-ink-soft">Reduced level</dt>
+            <dd className="num">{f.z !== null ? `RL ${f.z.toFixed(3)} m above the site datum` : "none recorded"}</dd>
             <dt className="text-ink-soft">Count · weight</dt>
             <dd className="num">
               {f.count ?? "—"} · {f.weightG ?? "—"} g

@@ -227,7 +227,9 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
                 <th>Class</th>
                 <th className="num">x</th>
                 <th className="num">y</th>
-                <th className="num">z</th>
+                <th className="num" title="Reduced level: metres above the site datum">
+                  RL (m)
+                </th>
                 <th className="num">Count</th>
                 <th className="num">g</th>
                 <th>Description</th>
