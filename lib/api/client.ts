@@ -153,8 +153,14 @@ async function call<N extends ApiName>(
   const req = buildRequest(name, params, input, options.headers);
   if (req.method === "GET") return (await sendRequest(req, options.signal)) as ApiAnswer<N>;
   const answer = await sendWrite(req, options.signal);
-  announceWrite(req);
+  // A write kept in the device's outbox changed nothing on the server yet: reading the server again (offline,
+  // a failed read makes the router load the whole page) would only lose what is on screen. The sync announces.
+  if (!isPending(answer)) announceWrite(req);
   return answer as ApiAnswer<N>;
+}
+
+function isPending(answer: unknown): boolean {
+  return typeof answer === "object" && answer !== null && (answer as { pending?: unknown }).pending === true;
 }
 
 /** The URL of a GET operation (links, downloads, event streams). */

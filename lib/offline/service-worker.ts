@@ -43,6 +43,11 @@ const sameOrigin = (url: URL) => url.origin === self.location.origin;
 const runtimeCaching: RuntimeCaching[] = [
   // Sign-in, sign-out and the session are never answered from a copy.
   { matcher: ({ url }) => sameOrigin(url) && url.pathname.startsWith("/api/auth"), handler: new NetworkOnly() },
+  // The device's number blocks: a copy of an older list would make it drop blocks it holds (never cached).
+  {
+    matcher: ({ url }) => sameOrigin(url) && /^\/api\/sites\/[^/]+\/number-blocks(\/|$)/.test(url.pathname),
+    handler: new NetworkOnly(),
+  },
   // Plan photos: the image of a photo id never changes; kept within the budget, oldest dropped first.
   {
     matcher: ({ url, request }) =>
