@@ -8,6 +8,7 @@ import type { ContextRow, FindRow } from "./rows";
 import type { Refused } from "./draw-marks";
 import type { QuickFind } from "./find-form";
 import type { UndoEntry } from "./use-undo";
+import { moveFind } from "./move-find";
 
 type Deps = {
   siteId: string;
@@ -122,19 +123,39 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
   const move = useCallback(
     async (f: FindRow, to: Pt) => {
       const from: Pt = [f.x, f.y];
-      const send = async (p: Pt) => {
-        await apiClient.call("findUpdate", { siteId, findId: f.id }, { x: p[0], y: p[1] });
-        patch((rows) => rows.map((r) => (r.id === f.id ? { ...r, x: p[0], y: p[1] } : r)));
-      };
-      try {
-        await send(to);
-        pushUndo({ label: `move find #${f.number}`, run: () => send(from) });
-        say("ok", `Find #${f.number} moved to ${to[0].toFixed(3)}, ${to[1].toFixed(3)}.`);
-      } catch (err) {
-        say("warn", `Find #${f.number} was not moved: ${(err as Error).message}`);
+      const place = (p: Pt, version: number | null) =>
+        patch((rows) =>
+          rows.map((r) => (r.id === f.id ? { ...r, x: p[0], y: p[1], ...(version !== null && { version }) } : r)),
+        );
+      const moved = await moveFind(siteId, f, to);
+      if (!moved.ok) {
+        const now = moved.current;
+        // Stale: the plan shows the find as the server has it now, and reads the trench again.
+        if (now) {
+          patch((rows) =>
+            rows.map((r) =>
+              r.id === f.id
+                ? withContext({ ...r, ...now, contextId: now.contextId || r.contextId }, r.classCode, r.classLabel)
+                : r,
+            ),
+          );
+          void qc.invalidateQueries({ queryKey: key });
+        }
+        say("warn", moved.message);
+        return;
       }
+      place(to, moved.version);
+      pushUndo({
+        label: `move find #${f.number}`,
+        run: async () => {
+          const back = await moveFind(siteId, { ...f, version: moved.version }, from);
+          if (!back.ok) throw new Error(back.message);
+          place(from, back.version);
+        },
+      });
+      say("ok", `Find #${f.number} moved to ${to[0].toFixed(3)}, ${to[1].toFixed(3)}.`);
     },
-    [siteId, patch, pushUndo, say],
+    [siteId, patch, pushUndo, say, withContext, qc, key],
   );
 
   /** Why a find cannot be dragged (its context is signed off), or null when it can. */

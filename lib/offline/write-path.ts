@@ -179,7 +179,8 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
   const create = await outbox.createOf(recordId);
   if (create) return kind === "edit" ? mergeIntoCreate(outbox, create, body) : dropCreate(outbox, create);
 
-  const baseVersion = typeof body.version === "number" ? body.version : null;
+  const tag = /^\s*"?(\d+)"?\s*$/.exec(req.headers["if-match"] ?? "");
+  const baseVersion = typeof body.version === "number" ? body.version : tag ? Number(tag[1]) : null;
   await outbox.add({
     ...base,
     body: req.body,
