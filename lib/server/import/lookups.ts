@@ -1,8 +1,18 @@
 import "server-only";
-import { eq, sql } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, finds, sites, trenches, users } from "@/db/schema";
+import {
+  artefactClasses,
+  contexts,
+  finds,
+  numberBlocks,
+  numberVoids,
+  samples,
+  sites,
+  trenches,
+  users,
+} from "@/db/schema";
 import { checkOutline } from "@/lib/geometry/outline";
 import type { Window } from "@/lib/spatial";
 
@@ -16,6 +26,14 @@ export type ImportContext = {
   submittedBy: string | null;
   submittedAt: Date | null;
 };
+/** A run of find numbers first..last, and the words that say whose or why. */
+export type NumberRange = { first: number; last: number; words: string };
+
+/** The range holding `n`, if any. */
+export function rangeHolding(ranges: readonly NumberRange[] | undefined, n: number): NumberRange | undefined {
+  return ranges?.find((r) => r.first <= n && n <= r.last);
+}
+
 /** A trench's plan window and its ground-surface level (RL), from which depths in a file are converted. */
 export type TrenchWindow = { code: string; window: Window | null; problem?: string; surfaceLevel?: number | null };
 /** A context's recorded top and base (RL): highest top and lowest base among its spot levels and spits. */
@@ -28,6 +46,13 @@ export type ImportLookups = {
   trenches: Map<string, TrenchWindow>;
   usedNumbers: Set<number>;
   nextNumber: number;
+  /**
+   * Find numbers a file may not bring, with why: blocks held by devices for recording offline (the number may
+   * already be on a bag), void numbers, and samples' numbers where samples share the finds' sequence.
+   */
+  reservedNumbers?: NumberRange[];
+  voidNumbers?: NumberRange[];
+  sampleNumbers?: Set<number>;
   /** Recorded top and base per context id; a find outside them by more than `tolerance` is warned of. */
   levels?: Map<string, ContextRange>;
   tolerance?: number;
@@ -67,6 +92,7 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
     .where(eq(trenches.siteId, siteId));
   const levels = await contextRanges(db, siteId);
   const nums = await db.select({ n: finds.number }).from(finds).where(eq(finds.siteId, siteId));
+  const held = await heldFindNumbers(db, siteId);
   const windows = new Map<string, TrenchWindow>();
   for (const t of tr) {
     // Each trench window is built once here, not once per row.
@@ -84,8 +110,35 @@ export async function loadImportLookups(db: Db | Tx, siteId: string): Promise<Im
     trenches: windows,
     usedNumbers: new Set(nums.map((r) => r.n)),
     nextNumber: site?.next ?? 1,
+    ...held,
     levels,
     tolerance: site?.tolerance ?? 0.005,
+  };
+}
+
+/** The site's open find-number blocks (holder and device), void find numbers (reason), and shared sample numbers. */
+async function heldFindNumbers(db: Db | Tx, siteId: string) {
+  const blocks = await db
+    .select({ first: numberBlocks.first, last: numberBlocks.last, name: users.name, device: numberBlocks.deviceLabel })
+    .from(numberBlocks)
+    .leftJoin(users, eq(users.id, numberBlocks.userId))
+    .where(and(eq(numberBlocks.siteId, siteId), eq(numberBlocks.kind, "find"), isNull(numberBlocks.releasedAt)));
+  const voids = await db
+    .select({ first: numberVoids.first, last: numberVoids.last, reason: numberVoids.reason })
+    .from(numberVoids)
+    .where(and(eq(numberVoids.siteId, siteId), eq(numberVoids.kind, "find")));
+  const [site] = await db.select({ shared: sites.samplesShareFindNumbers }).from(sites).where(eq(sites.id, siteId));
+  const sampled = site?.shared
+    ? await db.select({ n: samples.number }).from(samples).where(eq(samples.siteId, siteId))
+    : [];
+  return {
+    reservedNumbers: blocks.map((b) => ({
+      first: b.first,
+      last: b.last,
+      words: `${b.name ?? "another member"}${b.device ? ` on ${b.device}` : ""}`,
+    })),
+    voidNumbers: voids.map((v) => ({ first: v.first, last: v.last, words: v.reason })),
+    sampleNumbers: new Set(sampled.map((r) => r.n)),
   };
 }
 

@@ -1,7 +1,7 @@
 import { MAX_FIND_NUMBER, findRules } from "@/lib/schemas/find";
 import { depthToLevel, levelOutsideContext } from "@/lib/levels/context-range";
 import type { ImportField, ImportMapping, ImportRowError } from "@/lib/schemas/import";
-import type { ImportLookups } from "./lookups";
+import { rangeHolding, type ImportLookups } from "./lookups";
 import type { ParsedCsv } from "./parse";
 
 /** A row that passed every check, ready to insert. `number` null = the server allocates one. */
@@ -167,6 +167,17 @@ export function validateRows(
       else if (n > MAX_FIND_NUMBER)
         reasons.push(`find number ${numRaw} is above ${maxNumberWords}, the highest find number Loamwork keeps`);
       else if (lk.usedNumbers.has(n)) reasons.push(`find number ${n} is already in use on this site`);
+      else if (lk.sampleNumbers?.has(n))
+        reasons.push(`find number ${n} is sample ${n}'s number (samples share the finds' numbers on this site)`);
+      else if (rangeHolding(lk.reservedNumbers, n)) {
+        const b = rangeHolding(lk.reservedNumbers, n)!;
+        reasons.push(
+          `find number ${n} is reserved for ${b.words} (block ${b.first}–${b.last}, for recording offline; it may already be on a bag); leave it blank to get a new one`,
+        );
+      } else if (rangeHolding(lk.voidNumbers, n))
+        reasons.push(
+          `find number ${n} is void (${rangeHolding(lk.voidNumbers, n)!.words}) and is never used again; leave it blank to get a new one`,
+        );
       else if (n < lk.nextNumber)
         reasons.push(
           `find number ${n} was handed out before (deleted finds keep their numbers); leave it blank to get a new one`,
