@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, eq, inArray, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { contexts, memberships, samples, spits, trenches, users, type Context, type Sample } from "@/db/schema";
+import { contexts, memberships, samples, sites, spits, trenches, users, type Context, type Sample } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { isUuid } from "@/lib/schemas/common";
 import type { SampleCreate, SampleListQuery, SampleUpdate } from "@/lib/schemas/sample";
@@ -13,6 +13,7 @@ import { badInput, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import { assertContextWritable } from "./locks";
 import type { SiteActor } from "./membership";
+import { voidDeletedNumber } from "./number-blocks";
 import { allocateSampleNumber } from "./sample-numbers";
 import { getTrench } from "./trenches";
 
@@ -161,13 +162,31 @@ export async function updateSample(db: Db, actor: SiteActor, sampleId: string, i
   });
 }
 
-/** Deleted with a stated reason (kept in the audit trail); the number is never handed out again. */
+/**
+ * Deleted with a stated reason (kept in the audit trail); the number is never handed out again. Where samples
+ * share the finds' sequence the number is void in that sequence's accounting, as a deleted find's is: it was
+ * handed out, so it must not read as never handed out.
+ */
 export async function deleteSample(db: Db, actor: SiteActor, sampleId: string, reason: string) {
   return db.transaction(async (tx) => {
     const before = await getSample(tx, actor.site.id, sampleId);
     const context = await getContext(tx, actor.site.id, before.contextId);
     await assertContextWritable(tx, context, "changed (nor its samples)");
     await tx.delete(samples).where(eq(samples.id, before.id));
+    const [site] = await tx
+      .select({ shared: sites.samplesShareFindNumbers })
+      .from(sites)
+      .where(eq(sites.id, actor.site.id));
+    if (site?.shared)
+      await voidDeletedNumber(
+        tx,
+        actor.site.id,
+        "find",
+        before.number,
+        before.recordedBy,
+        actor.userId,
+        `sample deleted: ${reason}`,
+      );
     await recordAudit(tx, {
       siteId: actor.site.id,
       actorId: actor.userId,
