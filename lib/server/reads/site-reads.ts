@@ -30,6 +30,8 @@ import { patternsChoices } from "./patterns-choices";
 import { loadLevelBook } from "./level-book";
 import { loadTrenchReport } from "./trench-report";
 import { userNames } from "./user-names";
+import { accountNumbers } from "../number-accounting";
+import type { NumberKind } from "@/db/schema";
 
 /**
  * The reads a site's pages make, bound to the database and to the one site whose membership was checked
@@ -75,6 +77,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     sample: (sampleId: string) => readSample(db, siteId, sampleId),
     drawings: (q: DrawingListQuery) => listDrawings(db, siteId, q),
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
+    numberAccounting: (kind: NumberKind) => accountNumbers(db, siteId, kind),
   };
 }
 

@@ -15,6 +15,14 @@ export default async function ReportsPage({ params }: { params: Promise<{ siteId
           A printable record of each trench: plan, context sheets, matrix, finds register and saved analyses, stamped
           with its sign-off.
         </p>
+        <p>
+          <Link className="inline-flex min-h-11 items-center font-bold underline" href={`/sites/${siteId}/numbers`}>
+            Number accounting
+          </Link>{" "}
+          <span className="text-sm text-ink-soft">
+            every find and context number: recorded, reserved on a device, void with the reason, or not handed out
+          </span>
+        </p>
         <ul className="space-y-2">
           {trenches.map((t) => (
             <li key={t.id}>
