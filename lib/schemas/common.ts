@@ -34,3 +34,6 @@ export const pageQuery = z.object({
 });
 
 export const emptyQuery = z.object({}).passthrough();
+
+/** What every z, top, base and benchmark level in Loamwork is (README: "What z is"). */
+export const REDUCED_LEVEL_WORDS = "Reduced level (RL), metres against the site's datum";

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import "./messages";
-import { metres, numeric, pageQuery, uuid } from "./common";
+import { REDUCED_LEVEL_WORDS, metres, numeric, pageQuery, uuid } from "./common";
 
 const optionalNumber = <T extends z.ZodTypeAny>(inner: T) =>
   z.preprocess((v) => (v === "" || v === undefined ? null : v), inner.nullable()).optional();
@@ -31,7 +31,7 @@ const findFields = {
   classId: picked("Pick the find's class."),
   x: metres,
   y: metres,
-  z: optionalNumber(metres),
+  z: optionalNumber(metres).describe(REDUCED_LEVEL_WORDS),
   count: optionalNumber(
     numeric(
       z

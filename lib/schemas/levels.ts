@@ -1,12 +1,12 @@
 import { z } from "zod";
 import "./messages";
-import { metres, numeric, uuid } from "./common";
+import { REDUCED_LEVEL_WORDS, metres, numeric, uuid } from "./common";
 
 /**
  * Heights: every z, top, base and benchmark level in Loamwork is a reduced level (RL) in metres against the
  * site's datum. No update schema here carries a default: a field not sent is left as it is.
  */
-export const reducedLevel = metres.describe("Reduced level, metres against the site's datum");
+export const reducedLevel = metres.describe(REDUCED_LEVEL_WORDS);
 
 const code = z.string().trim().min(1, "Give the benchmark a code, e.g. TBM 2.").max(40);
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.");

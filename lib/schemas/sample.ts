@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { metres, numeric, pageQuery, uuid } from "./common";
+import { REDUCED_LEVEL_WORDS, metres, numeric, pageQuery, uuid } from "./common";
 
 /** The trade's kinds of sample, with the words the register shows. */
 export const sampleTypes = [
@@ -58,7 +58,7 @@ const sampleFields = {
   type: z.enum(sampleTypes, { error: `Pick the kind of sample: ${sampleTypes.join(", ")}.` }),
   x: blankIsNull(metres),
   y: blankIsNull(metres),
-  z: blankIsNull(metres),
+  z: blankIsNull(metres).describe(REDUCED_LEVEL_WORDS),
   volumeL: blankIsNull(
     numeric(
       z

@@ -5,6 +5,7 @@ import { session } from "../support/harness";
 import { makeSite } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
+import { REDUCED_LEVEL_WORDS } from "@/lib/schemas/common";
 import { signedArea2 } from "@/lib/server/export/geojson";
 import * as exportFindsRoute from "@/app/api/sites/[siteId]/export/finds/route";
 import * as exportTrenchesRoute from "@/app/api/sites/[siteId]/export/trenches/route";
@@ -72,6 +73,8 @@ describe("GeoJSON exports (RFC 7946)", () => {
     const grid = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=grid")).json();
     // RFC 7946 §3.1.1: x (easting) first, then y (northing), then elevation.
     expect(grid.features[0].geometry).toEqual({ type: "Point", coordinates: [2.5, 4, 10.25] });
+    // The file says what that third number is: a reduced level against the site's datum (a foreign member).
+    expect(grid.heights).toEqual({ z: REDUCED_LEVEL_WORDS, datum: fx.site.datumName, datumKind: fx.site.datumKind });
     const refused = await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat");
     expect(refused.status).toBe(400);
     // Grid origin at UTM zone 30N (500000 m E, 0 m N): the zone's central meridian, 3° W, on the equator

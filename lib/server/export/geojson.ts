@@ -1,5 +1,6 @@
 import type { PolygonJson, Site } from "@/db/schema";
 import { checkOutline, windowToPolygon } from "@/lib/geometry/outline";
+import { REDUCED_LEVEL_WORDS } from "@/lib/schemas/common";
 import type { CoordSpace } from "@/lib/schemas/export";
 import { describeSpace, makeTransform } from "./coords";
 
@@ -43,7 +44,14 @@ export function exportPolygon(
 export function featureCollection(site: Site, space: CoordSpace, name: string, features: Feature[]) {
   // "coordinateSpace" is a foreign member (RFC 7946 §6.1): files in site-grid or CRS coordinates are an
   // arrangement between the parties (§4), so the file says which numbers it holds.
-  return { type: "FeatureCollection" as const, name, coordinateSpace: describeSpace(site, space), features };
+  // "heights" (also a foreign member) says what a third coordinate is: a reduced level against the site's datum.
+  return {
+    type: "FeatureCollection" as const,
+    name,
+    coordinateSpace: describeSpace(site, space),
+    heights: { z: REDUCED_LEVEL_WORDS, datum: site.datumName, datumKind: site.datumKind },
+    features,
+  };
 }
 
 export type ExportFind = {
