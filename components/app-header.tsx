@@ -31,7 +31,8 @@ export function AppHeader({
             </span>
           ))}
         </nav>
-        <div className="ml-auto flex items-center gap-3">
+        {/* On a phone the header's buttons wrap onto a second row rather than push the page sideways. */}
+        <div className="ml-auto flex flex-wrap items-center justify-end gap-2 sm:gap-3">
           <Link href="/scan" className="btn">
             Scan a label
           </Link>

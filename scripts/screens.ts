@@ -1,0 +1,95 @@
+/**
+ * `npm run screens`: screenshots of Loamwork's main screens at desktop, tablet and phone sizes, taken from
+ * the built app on its own seeded demo data, for a person to look at after a change to the screens. Each
+ * screen is opened as the role that works there; the files go to test-results/screens/<size>-<screen>.png.
+ * Not a test: it asserts nothing beyond the page opening, and prints which files it wrote.
+ */
+import { mkdirSync, rmSync } from "node:fs";
+import path from "node:path";
+import { chromium, type Page } from "playwright-core";
+import { DEMO_USERS } from "@/lib/demo-users";
+import { ensureBuilt, startStack } from "./stack";
+
+const port = Number(process.env.SCREENS_PORT ?? 3392);
+const out = path.resolve("test-results/screens");
+const sizes = {
+  desktop: { width: 1366, height: 900, touch: false },
+  tablet: { width: 820, height: 1180, touch: true },
+  phone: { width: 390, height: 844, touch: true },
+} as const;
+type Role = (typeof DEMO_USERS)[number]["role"];
+
+/** Screen name → who opens it and where, given the demo site's and trench A's ids. */
+const screens: { name: string; role: Role; path: (site: string, trench: string) => string }[] = [
+  { name: "sites", role: "digger", path: () => "/sites" },
+  { name: "overview", role: "digger", path: (s) => `/sites/${s}` },
+  { name: "plan", role: "digger", path: (s, t) => `/sites/${s}/trenches/${t}` },
+  { name: "finds-register", role: "digger", path: (s) => `/sites/${s}/finds` },
+  { name: "context-sheets", role: "digger", path: (s) => `/sites/${s}/contexts` },
+  { name: "level-book", role: "digger", path: (s) => `/sites/${s}/levels` },
+  { name: "samples", role: "digger", path: (s) => `/sites/${s}/samples` },
+  { name: "patterns", role: "specialist", path: (s) => `/sites/${s}/patterns` },
+  { name: "sign-off", role: "director", path: (s) => `/sites/${s}/sign-off` },
+  { name: "settings", role: "director", path: (s) => `/sites/${s}/settings` },
+];
+
+async function signIn(page: Page, role: Role) {
+  const user = DEMO_USERS.find((u) => u.role === role)!;
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(user.email);
+  await page.getByLabel("Password").fill(user.password);
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  await page.waitForURL("**/sites");
+}
+
+async function main() {
+  ensureBuilt();
+  const dataDir = path.join(".tmp", "screens");
+  rmSync(dataDir, { recursive: true, force: true });
+  rmSync(out, { recursive: true, force: true });
+  mkdirSync(out, { recursive: true });
+  const stack = await startStack({ port, dataDir, quiet: true });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    headless: true,
+    args: ["--no-sandbox", "--disable-gpu"],
+  });
+  try {
+    for (const [size, v] of Object.entries(sizes)) {
+      for (const role of ["digger", "specialist", "director"] as const) {
+        const context = await browser.newContext({
+          baseURL: stack.url,
+          viewport: { width: v.width, height: v.height },
+          hasTouch: v.touch,
+          isMobile: size === "phone",
+        });
+        const page = await context.newPage();
+        await signIn(page, role);
+        const sites = (await (await page.request.get("/api/sites")).json()) as { id: string; code: string }[];
+        const site = sites.find((s) => s.code === "WHD26")!;
+        const trenches = (await (await page.request.get(`/api/sites/${site.id}/trenches`)).json()) as {
+          id: string;
+          code: string;
+        }[];
+        const trench = trenches.find((t) => t.code === "A")!;
+        for (const s of screens.filter((x) => x.role === role)) {
+          await page.goto(s.path(site.id, trench.id));
+          await page.waitForLoadState("networkidle");
+          await page.waitForTimeout(500);
+          const file = path.join(out, `${size}-${s.name}.png`);
+          await page.screenshot({ path: file, fullPage: true });
+          console.log(file);
+        }
+        await context.close();
+      }
+    }
+  } finally {
+    await browser.close();
+    await stack.stop();
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
