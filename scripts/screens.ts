@@ -2,7 +2,8 @@
  * `npm run screens`: screenshots of Loamwork's main screens at desktop, tablet and phone sizes, taken from
  * the built app on its own seeded demo data, for a person to look at after a change to the screens. Each
  * screen is opened as the role that works there; the files go to test-results/screens/<size>-<screen>.png.
- * Not a test: it asserts nothing beyond the page opening, and prints which files it wrote.
+ * Not a test: it asserts nothing beyond the page opening; it prints which files it wrote and, for a page
+ * wider than the screen, what sticks out.
  */
 import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
@@ -78,7 +79,28 @@ async function main() {
           await page.waitForTimeout(500);
           const file = path.join(out, `${size}-${s.name}.png`);
           await page.screenshot({ path: file, fullPage: true });
-          console.log(file);
+          // A page wider than the screen scrolls sideways: name the outermost elements that stick out.
+          const wide = await page.evaluate(() => {
+            const w = document.documentElement.clientWidth;
+            if (document.documentElement.scrollWidth <= w) return [];
+            // Inside a box that scrolls on its own, sticking out is fine: only the page must not scroll.
+            const clipped = (e: HTMLElement) => {
+              for (let p = e.parentElement; p; p = p.parentElement)
+                if (["auto", "scroll", "hidden"].includes(getComputedStyle(p).overflowX)) return true;
+              return false;
+            };
+            const over = [...document.querySelectorAll<HTMLElement>("body *")].filter(
+              (e) => e.getBoundingClientRect().right > w + 1 && !clipped(e),
+            );
+            const outer = over.filter((e) => !over.some((o) => o !== e && o.contains(e) && o.tagName !== "MAIN"));
+            return outer
+              .slice(0, 4)
+              .map(
+                (e) =>
+                  `${e.tagName.toLowerCase()}${e.getAttribute("aria-label") ? `[${e.getAttribute("aria-label")}]` : ""} to ${Math.round(e.getBoundingClientRect().right)} px`,
+              );
+          });
+          console.log(file, wide.length ? `scrolls sideways: ${wide.join(", ")}` : "");
         }
         await context.close();
       }

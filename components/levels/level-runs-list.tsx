@@ -38,38 +38,40 @@ export function LevelRunsList({ runs }: { runs: Run[] }) {
           <p className="text-sm">
             Closing error: {closure(run)} · booked by {run.recordedBy ?? "—"}
           </p>
-          <table className="ledger mt-2 text-sm">
-            <thead>
-              <tr>
-                <th className="num">Line</th>
-                <th>Station</th>
-                <th className="num">BS</th>
-                <th className="num">IS</th>
-                <th className="num">FS</th>
-                <th className="num">RL (m)</th>
-              </tr>
-            </thead>
-            <tbody>
-              {run.lines.map((l, i) => (
-                <tr key={i}>
-                  <td className="num">{i + 1}</td>
-                  <td>{l.station}</td>
-                  <td className="num">{reading(l.backsight)}</td>
-                  <td className="num">{reading(l.intermediate)}</td>
-                  <td className="num">{reading(l.foresight)}</td>
-                  <td className="num font-bold">
-                    {rl(l.level)}
-                    {l.flagged && (
-                      <span className="text-warn" title="From a run that closed outside tolerance">
-                        {" "}
-                        ⚑
-                      </span>
-                    )}
-                  </td>
+          <div className="overflow-x-auto">
+            <table className="ledger mt-2 text-sm">
+              <thead>
+                <tr>
+                  <th className="num">Line</th>
+                  <th>Station</th>
+                  <th className="num">BS</th>
+                  <th className="num">IS</th>
+                  <th className="num">FS</th>
+                  <th className="num">RL (m)</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {run.lines.map((l, i) => (
+                  <tr key={i}>
+                    <td className="num">{i + 1}</td>
+                    <td>{l.station}</td>
+                    <td className="num">{reading(l.backsight)}</td>
+                    <td className="num">{reading(l.intermediate)}</td>
+                    <td className="num">{reading(l.foresight)}</td>
+                    <td className="num font-bold">
+                      {rl(l.level)}
+                      {l.flagged && (
+                        <span className="text-warn" title="From a run that closed outside tolerance">
+                          {" "}
+                          ⚑
+                        </span>
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         </article>
       ))}
     </div>

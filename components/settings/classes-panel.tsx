@@ -141,38 +141,40 @@ export function ClassesPanel({ siteId, canEdit }: { siteId: string; canEdit: boo
   const [editing, setEditing] = useState<ClassRow | null>(null);
   return (
     <div className="space-y-4">
-      <table className="ledger">
-        <thead>
-          <tr>
-            <th>Symbol</th>
-            <th>Code</th>
-            <th>Label</th>
-            <th>Material</th>
-            <th>Flag</th>
-            {canEdit && <th />}
-          </tr>
-        </thead>
-        <tbody>
-          {classes.data?.map((c) => (
-            <tr key={c.id}>
-              <td>
-                <ClassSymbol symbol={c.symbol} colour={c.colour} size={20} />
-              </td>
-              <td className="font-mono">{c.code}</td>
-              <td>{c.label}</td>
-              <td>{c.material}</td>
-              <td>{c.humanRemains ? "human remains" : ""}</td>
-              {canEdit && (
-                <td>
-                  <button className="btn" onClick={() => setEditing(c)}>
-                    Change
-                  </button>
-                </td>
-              )}
+      <div className="overflow-x-auto">
+        <table className="ledger">
+          <thead>
+            <tr>
+              <th>Symbol</th>
+              <th>Code</th>
+              <th>Label</th>
+              <th>Material</th>
+              <th>Flag</th>
+              {canEdit && <th />}
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {classes.data?.map((c) => (
+              <tr key={c.id}>
+                <td>
+                  <ClassSymbol symbol={c.symbol} colour={c.colour} size={20} />
+                </td>
+                <td className="font-mono">{c.code}</td>
+                <td>{c.label}</td>
+                <td>{c.material}</td>
+                <td>{c.humanRemains ? "human remains" : ""}</td>
+                {canEdit && (
+                  <td>
+                    <button className="btn" onClick={() => setEditing(c)}>
+                      Change
+                    </button>
+                  </td>
+                )}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
       {canEdit && (
         <ClassForm
           key={editing?.id ?? "new"}

@@ -58,40 +58,42 @@ export default async function ContextsPage({
             </Link>
           ))}
         </nav>
-        <table className="ledger sheet">
-          <thead>
-            <tr>
-              <th className="num">Context</th>
-              <th>Trench</th>
-              <th>Type</th>
-              <th>State</th>
-              <th className="num">Finds</th>
-              <th>Description</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((c) => (
-              <tr key={c.id}>
-                <td className="num">
-                  <Link className="inline-flex min-h-11 items-center font-bold underline" href={`${base}/${c.id}`}>
-                    {c.number}
-                  </Link>
-                </td>
-                <td>{c.trenchCode}</td>
-                <td>{c.type}</td>
-                <td>
-                  <StateBadge state={c.state} />
-                </td>
-                <td className="num">
-                  <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}>
-                    {c.finds}
-                  </Link>
-                </td>
-                <td className="max-w-md truncate text-ink-soft">{c.description}</td>
+        <div className="overflow-x-auto">
+          <table className="ledger sheet">
+            <thead>
+              <tr>
+                <th className="num">Context</th>
+                <th>Trench</th>
+                <th>Type</th>
+                <th>State</th>
+                <th className="num">Finds</th>
+                <th>Description</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {rows.map((c) => (
+                <tr key={c.id}>
+                  <td className="num">
+                    <Link className="inline-flex min-h-11 items-center font-bold underline" href={`${base}/${c.id}`}>
+                      {c.number}
+                    </Link>
+                  </td>
+                  <td>{c.trenchCode}</td>
+                  <td>{c.type}</td>
+                  <td>
+                    <StateBadge state={c.state} />
+                  </td>
+                  <td className="num">
+                    <Link className="underline" href={`/sites/${siteId}/finds?contextId=${c.id}`}>
+                      {c.finds}
+                    </Link>
+                  </td>
+                  <td className="max-w-md truncate text-ink-soft">{c.description}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
         {rows.length === 0 && (
           <p className="text-ink-soft">No context sheets yet{chosen ? ` in trench ${chosen.code}` : ""}.</p>
         )}

@@ -108,82 +108,84 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
               {g.rows.length === 0 ? (
                 <p className="mt-1 text-ink-soft">None.</p>
               ) : (
-                <table className="ledger mt-2">
-                  <thead>
-                    <tr>
-                      <th>Context</th>
-                      <th>Trench</th>
-                      <th>State</th>
-                      <th className="num">Finds</th>
-                      <th>Submitted</th>
-                      <th>Signed off</th>
-                      <th>Sheet check</th>
-                      <th>Actions</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {g.rows.map((c) => (
-                      <tr key={c.id} data-context={c.number}>
-                        <td>
-                          <Link className="num font-semibold underline" href={`/sites/${siteId}/contexts/${c.id}`}>
-                            {c.number}
-                          </Link>{" "}
-                          <span className="text-ink-soft">{c.type}</span>
-                        </td>
-                        <td>{c.trenchCode}</td>
-                        <td>
-                          <StateBadge state={c.state} />
-                        </td>
-                        <td className="num">{c.finds}</td>
-                        <td className="text-xs">
-                          {c.submittedBy ? (
-                            <>
-                              {c.submittedBy}
-                              <br />
-                              <span className="num">{stamp(c.submittedAt)}</span>
-                            </>
-                          ) : (
-                            "—"
-                          )}
-                        </td>
-                        <td className="text-xs">
-                          {c.signedOffBy ? (
-                            <>
-                              {c.signedOffBy}
-                              <br />
-                              <span className="num">{stamp(c.signedOffAt)}</span>
-                            </>
-                          ) : (
-                            "—"
-                          )}
-                        </td>
-                        <td className="max-w-xs text-xs">
-                          {c.state === "signed_off" ? (
-                            "Locked"
-                          ) : c.problems.length === 0 ? (
-                            <span className="font-semibold text-ok">Complete</span>
-                          ) : (
-                            <ul className="list-disc pl-4 text-warn">
-                              {c.problems.map((p, i) => (
-                                <li key={i}>{p.message}</li>
-                              ))}
-                            </ul>
-                          )}
-                        </td>
-                        <td>
-                          <SignOffActions
-                            siteId={siteId}
-                            contextId={c.id}
-                            number={c.number}
-                            state={c.state}
-                            role={actor.role}
-                            ready={c.problems.length === 0}
-                          />
-                        </td>
+                <div className="overflow-x-auto">
+                  <table className="ledger mt-2">
+                    <thead>
+                      <tr>
+                        <th>Context</th>
+                        <th>Trench</th>
+                        <th>State</th>
+                        <th className="num">Finds</th>
+                        <th>Submitted</th>
+                        <th>Signed off</th>
+                        <th>Sheet check</th>
+                        <th>Actions</th>
                       </tr>
-                    ))}
-                  </tbody>
-                </table>
+                    </thead>
+                    <tbody>
+                      {g.rows.map((c) => (
+                        <tr key={c.id} data-context={c.number}>
+                          <td>
+                            <Link className="num font-semibold underline" href={`/sites/${siteId}/contexts/${c.id}`}>
+                              {c.number}
+                            </Link>{" "}
+                            <span className="text-ink-soft">{c.type}</span>
+                          </td>
+                          <td>{c.trenchCode}</td>
+                          <td>
+                            <StateBadge state={c.state} />
+                          </td>
+                          <td className="num">{c.finds}</td>
+                          <td className="text-xs">
+                            {c.submittedBy ? (
+                              <>
+                                {c.submittedBy}
+                                <br />
+                                <span className="num">{stamp(c.submittedAt)}</span>
+                              </>
+                            ) : (
+                              "—"
+                            )}
+                          </td>
+                          <td className="text-xs">
+                            {c.signedOffBy ? (
+                              <>
+                                {c.signedOffBy}
+                                <br />
+                                <span className="num">{stamp(c.signedOffAt)}</span>
+                              </>
+                            ) : (
+                              "—"
+                            )}
+                          </td>
+                          <td className="max-w-xs text-xs">
+                            {c.state === "signed_off" ? (
+                              "Locked"
+                            ) : c.problems.length === 0 ? (
+                              <span className="font-semibold text-ok">Complete</span>
+                            ) : (
+                              <ul className="list-disc pl-4 text-warn">
+                                {c.problems.map((p, i) => (
+                                  <li key={i}>{p.message}</li>
+                                ))}
+                              </ul>
+                            )}
+                          </td>
+                          <td>
+                            <SignOffActions
+                              siteId={siteId}
+                              contextId={c.id}
+                              number={c.number}
+                              state={c.state}
+                              role={actor.role}
+                              ready={c.problems.length === 0}
+                            />
+                          </td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </div>
               )}
             </section>
           ))}
