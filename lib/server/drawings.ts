@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { contexts, drawingContexts, drawings, memberships, sites, trenches, users, type Context } from "@/db/schema";
+import { contexts, drawingContexts, drawings, sites, trenches, users, type Context } from "@/db/schema";
 import { isUuid } from "@/lib/schemas/common";
 import type { DrawingCreate, DrawingListQuery, DrawingUpdate } from "@/lib/schemas/drawing";
 import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
@@ -10,7 +10,7 @@ import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import { assertContextWritable } from "./locks";
-import type { SiteActor } from "./membership";
+import { assertNamedMember, type SiteActor } from "./membership";
 
 /**
  * The drawing register (issue 15 item 3): plans and sections drawn on film or paper, numbered per site in
@@ -68,18 +68,6 @@ async function contextsNamed(tx: Tx, siteId: string, ids: string[]): Promise<Con
   return rows.sort((a, b) => a.number - b.number);
 }
 
-async function assertMember(tx: Tx, siteId: string, userId: string | null | undefined) {
-  if (!userId) return;
-  const [row] = await tx
-    .select({ userId: memberships.userId })
-    .from(memberships)
-    .where(and(eq(memberships.siteId, siteId), eq(memberships.userId, userId)));
-  if (!row)
-    throw badInput("The person who drew it is not a member of this site.", {
-      drawnBy: ["Pick a member of this site."],
-    });
-}
-
 /** A drawing as the API answers: the stored row with the numbers of the contexts it shows. */
 const withContexts = (row: typeof drawings.$inferSelect, shown: Context[]) => ({
   ...row,
@@ -93,7 +81,7 @@ export async function createDrawing(db: Db, actor: SiteActor, input: DrawingCrea
   return db.transaction(async (tx) => {
     const shown = await contextsNamed(tx, actor.site.id, input.contextIds);
     for (const c of shown) await assertContextWritable(tx, c, "given new drawings");
-    await assertMember(tx, actor.site.id, input.drawnBy);
+    await assertNamedMember(tx, actor.site.id, input.drawnBy, "drawnBy", "who drew it");
     const number = await allocateDrawingNumber(tx, actor.site.id);
     const [row] = await tx
       .insert(drawings)
@@ -139,7 +127,7 @@ export async function updateDrawing(db: Db, actor: SiteActor, drawingId: string,
       await tx.delete(drawingContexts).where(eq(drawingContexts.drawingId, row.id));
       await tx.insert(drawingContexts).values(shown.map((c) => ({ drawingId: row.id, contextId: c.id })));
     }
-    await assertMember(tx, actor.site.id, input.drawnBy);
+    await assertNamedMember(tx, actor.site.id, input.drawnBy, "drawnBy", "who drew it");
     const { contextIds: _ids, ...fields } = input;
     const [updated] = await tx
       .update(drawings)

@@ -2,7 +2,7 @@ import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { memberships, sites, type Role, type Site } from "@/db/schema";
-import { forbidden, notFound } from "./errors";
+import { badInput, forbidden, notFound } from "./errors";
 
 export type SiteActor = { userId: string; site: Site; role: Role };
 
@@ -30,4 +30,24 @@ export function assertRole(actor: SiteActor, roles: readonly Role[], doing = "do
   if (!isRole(actor, roles)) {
     throw forbidden(`A ${actor.role} cannot ${doing} on this site; it needs the role ${roles.join(" or ")}.`);
   }
+}
+
+/**
+ * A person named on a record (who drew it, who took the sample) is a member of the site; nobody named is
+ * fine. Refused on the field that named them, with `who` saying what they did ("who drew it").
+ */
+export async function assertNamedMember(
+  tx: Db | Tx,
+  siteId: string,
+  userId: string | null | undefined,
+  field: string,
+  who: string,
+): Promise<void> {
+  if (!userId) return;
+  const [row] = await tx
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.siteId, siteId), eq(memberships.userId, userId)));
+  if (!row)
+    throw badInput(`The person ${who} is not a member of this site.`, { [field]: ["Pick a member of this site."] });
 }

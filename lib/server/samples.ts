@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, eq, inArray, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { contexts, memberships, samples, sites, spits, trenches, users, type Context, type Sample } from "@/db/schema";
+import { contexts, samples, sites, spits, trenches, users, type Context, type Sample } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { isUuid } from "@/lib/schemas/common";
 import type { SampleCreate, SampleListQuery, SampleUpdate } from "@/lib/schemas/sample";
@@ -12,7 +12,7 @@ import { getContext } from "./contexts";
 import { badInput, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import { assertContextWritable } from "./locks";
-import type { SiteActor } from "./membership";
+import { assertNamedMember, type SiteActor } from "./membership";
 import { voidDeletedNumber } from "./number-blocks";
 import { allocateSampleNumber } from "./sample-numbers";
 import { getTrench } from "./trenches";
@@ -53,19 +53,6 @@ async function withSpitNumber(tx: Db | Tx, row: Sample) {
   return { ...row, spit: s?.number ?? null };
 }
 
-/** Whoever took the sample is a member of the site. */
-async function assertMember(tx: Tx, siteId: string, userId: string | null | undefined) {
-  if (!userId) return;
-  const [row] = await tx
-    .select({ userId: memberships.userId })
-    .from(memberships)
-    .where(and(eq(memberships.siteId, siteId), eq(memberships.userId, userId)));
-  if (!row)
-    throw badInput("The person who took the sample is not a member of this site.", {
-      takenBy: ["Pick a member of this site."],
-    });
-}
-
 /** A plotted sample lies inside its trench's outline, like a find. */
 async function assertPositionInside(tx: Tx, siteId: string, trenchId: string, x: number | null, y: number | null) {
   if (x === null || y === null) return;
@@ -86,7 +73,7 @@ export async function createSample(db: Db, actor: SiteActor, input: SampleCreate
     const context = await getContext(tx, actor.site.id, input.contextId);
     await assertContextWritable(tx, context, "given new samples");
     const spitId = await spitOf(tx, context, input.spit);
-    await assertMember(tx, actor.site.id, input.takenBy);
+    await assertNamedMember(tx, actor.site.id, input.takenBy, "takenBy", "who took the sample");
     await assertPositionInside(tx, actor.site.id, context.trenchId, input.x ?? null, input.y ?? null);
     const number = await allocateSampleNumber(tx, actor.site.id);
     const [row] = await tx
@@ -135,7 +122,7 @@ export async function updateSample(db: Db, actor: SiteActor, sampleId: string, i
     // The spit keeps its number when the sample moves: that spit must exist in the new context too.
     const { spit } = await withSpitNumber(tx, before);
     const spitId = await spitOf(tx, to, input.spit === undefined ? spit : input.spit);
-    await assertMember(tx, actor.site.id, input.takenBy);
+    await assertNamedMember(tx, actor.site.id, input.takenBy, "takenBy", "who took the sample");
     const x = input.x === undefined ? before.x : input.x;
     const y = input.y === undefined ? before.y : input.y;
     if ((x === null) !== (y === null))

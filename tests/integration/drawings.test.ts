@@ -67,6 +67,14 @@ describe("drawing register", () => {
     });
     expect(twoTrenches.status).toBe(400);
     expect(twoTrenches.json.fieldErrors.contextIds).toEqual(["Pick contexts of one trench."]);
+    const drawnByStranger = await call(drawingsRoute, "POST", p, {
+      kind: "plan",
+      scale: 20,
+      contextIds: [fx.context.id],
+      drawnBy: fx.people.stranger.id,
+    });
+    expect(drawnByStranger.status).toBe(400);
+    expect(drawnByStranger.json.fieldErrors.drawnBy).toEqual(["Pick a member of this site."]);
     expect(await db.select().from(schema.drawings).where(eq(schema.drawings.siteId, fx.site.id))).toEqual([]);
   });
 
