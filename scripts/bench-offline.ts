@@ -58,7 +58,7 @@ try {
   await page.goto("/sign-in");
   await page.getByLabel("E-mail").fill("director@loamwork.test");
   await page.getByLabel("Password").fill("matrix-director-3");
-  await page.getByRole("button", { name: "Open my notebook" }).click();
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
   await page.waitForURL("**/sites");
   const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
   const outline = {
