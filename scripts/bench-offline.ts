@@ -17,6 +17,7 @@ import { Outbox } from "../lib/offline/outbox";
 import { syncOutbox } from "../lib/offline/sync";
 import { createWritePath } from "../lib/offline/write-path";
 import { ensureBuilt, startStack } from "./stack";
+import { signInDemo } from "./sign-in-demo";
 
 const N = Number(process.env.BENCH_FINDS ?? 5000);
 const QUEUED = Number(process.env.BENCH_QUEUED ?? 500);
@@ -55,11 +56,7 @@ try {
   const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
   await context.addInitScript({ content: "window.__name = (f) => f;" });
   const page = await context.newPage();
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill("director@loamwork.test");
-  await page.getByLabel("Password").fill("matrix-director-3");
-  await page.getByRole("button", { name: "Sign in", exact: true }).click();
-  await page.waitForURL("**/sites");
+  await signInDemo(page, "director");
   const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
   const outline = {
     type: "Polygon",

@@ -24,6 +24,7 @@ import { createServer } from "node:net";
 import { cpus, loadavg } from "node:os";
 import { chromium, type Page } from "playwright-core";
 import { ensureBuilt, startStack } from "./stack";
+import { signInDemo } from "./sign-in-demo";
 
 const arg = (name: string, fallback: string) =>
   process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1] ?? fallback;
@@ -201,11 +202,7 @@ async function main() {
         last = now;
       }, 20);
     });
-    await page.goto("/sign-in");
-    await page.getByLabel("E-mail").fill("specialist@loamwork.test");
-    await page.getByLabel("Password").fill("sieve-specialist-2");
-    await page.getByRole("button", { name: "Sign in", exact: true }).click();
-    await page.waitForURL("**/sites");
+    await signInDemo(page, "specialist");
     const siteHref = await page
       .getByRole("listitem")
       .filter({ hasText: "Whinnydale Holm" })

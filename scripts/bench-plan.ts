@@ -16,6 +16,7 @@ import path from "node:path";
 import { rmSync } from "node:fs";
 import { chromium } from "playwright-core";
 import { ensureBuilt, startStack } from "./stack";
+import { signInDemo } from "./sign-in-demo";
 
 const N = Number(process.env.BENCH_FINDS ?? 5000);
 const RUNS = Number(process.env.BENCH_RUNS ?? 3);
@@ -62,11 +63,7 @@ try {
   // tsx keeps function names with a `__name` helper that does not exist inside the page.
   await context.addInitScript({ content: "window.__name = (f) => f;" });
   const page = await context.newPage();
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill("director@loamwork.test");
-  await page.getByLabel("Password").fill("matrix-director-3");
-  await page.getByRole("button", { name: "Sign in", exact: true }).click();
-  await page.waitForURL("**/sites");
+  await signInDemo(page, "director");
   const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
   const outline = {
     type: "Polygon",

@@ -7,8 +7,9 @@
  */
 import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
-import { chromium, type Page } from "playwright-core";
-import { DEMO_USERS } from "@/lib/demo-users";
+import { chromium } from "playwright-core";
+import type { DEMO_USERS } from "@/lib/demo-users";
+import { signInDemo } from "./sign-in-demo";
 import { ensureBuilt, startStack } from "./stack";
 
 const port = Number(process.env.SCREENS_PORT ?? 3392);
@@ -34,15 +35,6 @@ const screens: { name: string; role: Role; path: (site: string, trench: string) 
   { name: "settings", role: "director", path: (s) => `/sites/${s}/settings` },
 ];
 
-async function signIn(page: Page, role: Role) {
-  const user = DEMO_USERS.find((u) => u.role === role)!;
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(user.email);
-  await page.getByLabel("Password").fill(user.password);
-  await page.getByRole("button", { name: "Sign in", exact: true }).click();
-  await page.waitForURL("**/sites");
-}
-
 async function main() {
   ensureBuilt();
   const dataDir = path.join(".tmp", "screens");
@@ -65,7 +57,7 @@ async function main() {
           isMobile: size === "phone",
         });
         const page = await context.newPage();
-        await signIn(page, role);
+        await signInDemo(page, role);
         const sites = (await (await page.request.get("/api/sites")).json()) as { id: string; code: string }[];
         const site = sites.find((s) => s.code === "WHD26")!;
         const trenches = (await (await page.request.get(`/api/sites/${site.id}/trenches`)).json()) as {
