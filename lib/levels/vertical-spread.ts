@@ -4,6 +4,8 @@
  * Pure: no database, no React.
  */
 
+import { quantileSorted } from "d3-array";
+
 /**
  * Default spread (metres) above which a class's finds are cautioned as possibly mixing several surfaces.
  * Common practice (a rule of thumb, not a published value): finds lying on one occupation surface usually
@@ -30,13 +32,11 @@ export type VerticalSpread = {
   mixes: boolean;
 };
 
-/** Quantile of ascending values: R's default (type 7), linear between order statistics (Hyndman & Fan 1996). */
-function quantile(sorted: readonly number[], p: number): number {
-  const h = (sorted.length - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(sorted.length - 1, lo + 1);
-  return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
-}
+/**
+ * Quantile of ascending values (at least one): d3-array's quantileSorted, R's default type 7, linear between
+ * order statistics (Hyndman & Fan 1996).
+ */
+const quantile = (sorted: number[], p: number): number => quantileSorted(sorted, p) ?? Number.NaN;
 
 /** Rounded to the millimetre, so 41.3 − 41.1 reads 0.2 and compares equal to a threshold of 0.2. */
 const mm = (v: number) => Math.round(v * 1000) / 1000;

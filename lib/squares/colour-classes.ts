@@ -6,6 +6,8 @@
  * …, 1 are as d3-scale-chromatic 3.1 `interpolateViridis` gives them; between stops the colour is mixed
  * linearly in RGB, which is close to the map for so few classes.
  */
+
+import { quantileSorted } from "d3-array";
 export const VIRIDIS_STOPS = ["#440154", "#443983", "#31688e", "#21918c", "#35b779", "#90d743", "#fde725"] as const;
 
 export type Classing = "quantile" | "equal";
@@ -31,14 +33,6 @@ export function viridis(t: number): string {
   return `#${mix(0)}${mix(1)}${mix(2)}`;
 }
 
-/** Quantile of sorted values (R's type 7: linear between order statistics). */
-function quantile(sorted: number[], p: number): number {
-  const h = (sorted.length - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(sorted.length - 1, lo + 1);
-  return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
-}
-
 export type ClassScale = { classing: Classing; breaks: number[]; colours: string[] };
 
 /**
@@ -55,7 +49,8 @@ export function classBreaks(values: readonly number[], classing: Classing, k = 5
   if (lo === hi) breaks = [lo, hi];
   else if (classing === "equal")
     breaks = Array.from({ length: k + 1 }, (_, i) => (i === k ? hi : lo + ((hi - lo) * i) / k));
-  else breaks = [...new Set(Array.from({ length: k + 1 }, (_, i) => quantile(sorted, i / k)))];
+  // d3-array's quantileSorted is R's type 7 (linear between order statistics); `sorted` is not empty here.
+  else breaks = [...new Set(Array.from({ length: k + 1 }, (_, i) => quantileSorted(sorted, i / k)!))];
   const n = breaks.length - 1;
   const colours = Array.from({ length: n }, (_, i) => viridis(n === 1 ? 1 : i / (n - 1)));
   return { classing, breaks, colours };

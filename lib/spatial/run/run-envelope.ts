@@ -2,6 +2,7 @@
  * One envelope test end to end: simulate, band, global p-value, verdict and the distance ranges where the
  * observed curve leaves the pointwise band. Shared by every curve-based test of run-test.ts.
  */
+import { quantileSorted } from "d3-array";
 import { SpatialInputError } from "../errors";
 import { definedLength } from "../estimators/k-function";
 import { pointwiseEnvelope, rankForLevel, type CurveSet } from "../envelopes/envelope";
@@ -84,15 +85,11 @@ export function excursions(r: Float64Array, obs: Float64Array, lo: Float64Array,
   return out;
 }
 
-/** Quantile of sorted values (type 7, linear interpolation between order statistics, R's default). */
-function quantile(sorted: Float64Array, q: number): number {
-  const h = (sorted.length - 1) * q,
-    lo = Math.floor(h);
-  return lo + 1 < sorted.length ? sorted[lo] + (h - lo) * (sorted[lo + 1] - sorted[lo]) : sorted[lo];
-}
+/** Quantile of the sorted simulated values (never empty): d3-array's quantileSorted, R's default type 7. */
+const quantile = (sorted: number[], q: number): number => quantileSorted(sorted, q) ?? Number.NaN;
 
 function summarise(statistic: GlobalStatistic, observed: number, simulated: Float64Array): GlobalSummary {
-  const sorted = Float64Array.from(simulated).sort();
+  const sorted = Array.from(simulated).sort((a, b) => a - b);
   let sum = 0,
     atLeast = 0,
     larger = 0;
