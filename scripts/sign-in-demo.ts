@@ -3,7 +3,7 @@ import { DEMO_USERS } from "@/lib/demo-users";
 
 /**
  * Signs a benchmark's or a screenshot run's page in through the real form as one of the demo users and waits
- * for the sites list (the browser tests have their own in tests/e2e/support/browser.ts, bound to vitest).
+ * for the sites list (the browser tests use it too, through tests/e2e/support/browser.ts).
  */
 export async function signInDemo(page: Page, role: (typeof DEMO_USERS)[number]["role"]): Promise<void> {
   const user = DEMO_USERS.find((u) => u.role === role)!;

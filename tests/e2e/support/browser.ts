@@ -1,6 +1,5 @@
 import { chromium, type Browser, type Page } from "playwright-core";
 import { inject } from "vitest";
-import { DEMO_USERS } from "@/scripts/seed/seed-demo";
 import { watchCsp } from "./csp-watch";
 
 export const baseURL = () => inject("baseURL");
@@ -44,15 +43,8 @@ export async function newPage(browser: Browser, size: keyof typeof viewports = "
   return context.newPage();
 }
 
-/** Signs in through the real form as one of the demo users and waits for the sites list. */
-export async function signIn(page: Page, role: (typeof DEMO_USERS)[number]["role"]): Promise<void> {
-  const user = DEMO_USERS.find((u) => u.role === role)!;
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(user.email);
-  await page.getByLabel("Password").fill(user.password);
-  await page.getByRole("button", { name: "Sign in", exact: true }).click();
-  await page.waitForURL("**/sites");
-}
+/** Signs in through the real form as one of the demo users (the same steps the benchmarks take). */
+export { signInDemo as signIn } from "@/scripts/sign-in-demo";
 
 /** Waits up to `timeout` ms for the locator to show; fails the test naming what was missing. */
 export async function shown(locator: import("playwright-core").Locator, timeout = 10_000): Promise<void> {
