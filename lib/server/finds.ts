@@ -1,7 +1,7 @@
 import "server-only";
 import { levelOutsideContext } from "@/lib/levels/context-range";
 import { contextRanges } from "./import/lookups";
-import { and, asc, desc, eq, gte, ilike, inArray, lte, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gt, gte, ilike, inArray, lte, or, sql, type SQL } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, trenches, users, type Find } from "@/db/schema";
 import { isUuid } from "@/lib/schemas/common";
@@ -285,6 +285,27 @@ export async function listFinds(db: Db, siteId: string, q: FindListQuery) {
 /** Every find the filters select, in the register's order (for exports). */
 export async function allFinds(db: Db, siteId: string, q: FindFilters): Promise<RegisterRow[]> {
   return registerQuery(db, siteId, q);
+}
+
+/**
+ * Every find the filters select, by number, a page at a time: an export of a whole site holds one page of
+ * rows, never all of them.
+ */
+export async function* findsByNumber(
+  db: Db,
+  siteId: string,
+  q: Omit<FindFilters, "sort" | "dir">,
+  pageSize = 2000,
+): AsyncGenerator<RegisterRow[]> {
+  const filters: FindFilters = { ...q, sort: "number", dir: "asc" };
+  for (let after = 0; ;) {
+    const rows = await registerQuery(db, siteId, filters)
+      .where(and(registerFilter(siteId, filters), gt(finds.number, after)))
+      .limit(pageSize);
+    if (rows.length) yield rows;
+    if (rows.length < pageSize) return;
+    after = rows[rows.length - 1]!.number;
+  }
 }
 
 async function countFinds(db: Db, filter: SQL | undefined): Promise<number> {

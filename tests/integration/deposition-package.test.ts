@@ -10,6 +10,7 @@ import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { seedDemoPhoto } from "@/scripts/seed/seed-demo-photo";
+import { allFinds, findsByNumber } from "@/lib/server/finds";
 import * as packageRoute from "@/app/api/sites/[siteId]/export/package/route";
 
 let demo: DemoSite;
@@ -148,6 +149,21 @@ describe("deposition package", () => {
       expect(readme).toContain(`registers/${file}`);
       for (const col of header) expect(readme, `${file} ${col}`).toMatch(new RegExp(`\\n  ${col}: (?!${col}\\n)`));
     }
+  });
+
+  it("reads the finds a page at a time, each once and in number order, as the register reads them at once", async () => {
+    const db = await getDb();
+    const whole = await allFinds(db, demo.siteId, { sort: "number", dir: "asc" });
+    const paged = [];
+    let pages = 0;
+    for await (const page of findsByNumber(db, demo.siteId, {}, 7)) {
+      expect(page.length).toBeLessThanOrEqual(7);
+      paged.push(...page);
+      pages++;
+    }
+    expect(whole.length).toBeGreaterThan(14);
+    expect(pages).toBe(Math.ceil(whole.length / 7));
+    expect(paged).toEqual(whole);
   });
 
   it("fails validation when a byte changes, a file is added or a tag file is edited", async () => {

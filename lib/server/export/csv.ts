@@ -20,13 +20,13 @@ function numberCell(name: string, v: unknown): number | string {
  * CSV text through papaparse, each cell written by its column's kind: numbers as numbers, text made
  * inert against spreadsheet formulas (see lib/csv-cells.ts).
  */
-export function toCsv(columns: readonly CsvColumn[], rows: unknown[][]): string {
+export function toCsv(columns: readonly CsvColumn[], rows: unknown[][], { header = true } = {}): string {
   const data = rows.map((r) =>
     columns.map(([name, kind], i) => (kind === "number" ? numberCell(name, r[i]) : inertText(String(r[i] ?? "")))),
   );
   return Papa.unparse(
     { fields: columns.map(([name]) => name), data },
-    { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n" },
+    { escapeFormulae: false, quotes: quoteGuarded, newline: "\r\n", header },
   );
 }
 

@@ -1,17 +1,17 @@
 import "server-only";
-import { strToU8 } from "fflate";
-import type { z } from "zod";
 import type { Db } from "@/db/client";
-import type { depositionQuery } from "@/lib/schemas/export";
+import type { Site } from "@/db/schema";
 import { badInput } from "@/lib/server/errors";
-import type { SiteActor } from "@/lib/server/membership";
+import { findsByNumber } from "@/lib/server/finds";
 import { userNames } from "@/lib/server/reads/user-names";
 import { getTrench } from "@/lib/server/trenches";
 import { loadFile } from "@/lib/server/uploads/file-store";
 import { PHOTO_MAX_BYTES } from "@/lib/server/uploads/photo-limits";
 import { fetchUpload } from "@/lib/server/uploads/remote";
-import { bagZipStream, type BagFile } from "./bagit";
-import { allFinds } from "@/lib/server/finds";
+import type { z } from "zod";
+import type { depositionQuery } from "@/lib/schemas/export";
+import type { SiteActor } from "@/lib/server/membership";
+import { bagZip, bagZipStream, type BagFile, type BagInfoLines, type BagSummary } from "./bagit";
 import { findsGeoJson } from "./geojson";
 import { drawSiteMatrix } from "./matrix-image";
 import { packageReadme, type ReadmeRegister } from "./package-readme";
@@ -31,9 +31,29 @@ import {
   type PackagePhoto,
   type PackageRegister,
   type PackageScope,
+  type StreamedRegister,
 } from "./package-registers";
 
 const safeName = (s: string) => s.replace(/[^\w.-]+/g, "_").slice(0, 80);
+const utf8 = (s: string) => new TextEncoder().encode(s);
+
+/**
+ * One file of the package under data/, made only when the zip reaches it (so at most one file, or one
+ * page of a large register, is held at a time); null leaves it out (a photo whose file is gone).
+ */
+export type PackageEntry = () => Promise<BagFile | null>;
+
+/**
+ * Everything the package will hold, known before any of it is read: the list of entries (so a job can
+ * report files done out of the total), the bag's folder name, and what bag-info.txt says.
+ */
+export type PackagePlan = {
+  /** The bag's top folder, and the zip's name without ".zip". */
+  root: string;
+  trenchCode: string | null;
+  entries: PackageEntry[];
+  info: (summary: Omit<BagSummary, "fingerprint">) => BagInfoLines;
+};
 
 /** The photo's original from the upload service when it can be had, else Loamwork's display copy. */
 async function photoFile(
@@ -51,94 +71,31 @@ async function photoFile(
   return display ? { bytes: display, copy: "display", ext: ".jpg" } : null;
 }
 
-/**
- * The files of the package under data/, produced one at a time as the zip asks for them: the registers,
- * the matrix, GeoJSON (when the site is placed in a CRS), the photos, the analysis runs, and last a readme
- * that describes them all.
- */
-async function* payload(
-  db: Db,
-  actor: SiteActor,
-  scope: PackageScope,
-  trenchCode: string | undefined,
-  exporter: string,
-) {
-  const site = actor.site;
-  const registers: ReadmeRegister[] = [];
-  const other: [string, string][] = [];
-  const csvFile = (r: PackageRegister): BagFile => {
-    registers.push(r);
-    return { path: `registers/${r.file}`, bytes: strToU8(r.csv) };
-  };
-  yield csvFile(await trenchesRegister(db, scope));
-  yield csvFile(await contextsRegister(db, scope, trenchCode));
-  yield csvFile(await relationsRegister(db, scope));
-  yield csvFile(await classesRegister(db, scope));
-  yield csvFile(await findsRegister(db, scope));
-  yield csvFile(await samplesRegister(db, scope));
-  yield csvFile(await drawingsRegister(db, scope));
-  yield csvFile(await levelsRegister(db, scope));
-  yield csvFile(await benchmarksRegister(db, scope));
-
-  const { drawing } = await drawSiteMatrix(db, site.id, scope.trenchId, false);
-  other.push(["matrix/matrix.svg", "the stratigraphic matrix as drawn by Loamwork (SVG)"]);
-  yield { path: "matrix/matrix.svg", bytes: strToU8(drawing.svg) };
-
-  if (site.crs) {
-    const found = await allFinds(db, site.id, { trenchId: scope.trenchId, sort: "number", dir: "asc" });
-    other.push(["gis/finds-wgs84.geojson", "finds as points, WGS 84 longitude/latitude (RFC 7946)"]);
-    yield { path: "gis/finds-wgs84.geojson", bytes: strToU8(JSON.stringify(findsGeoJson(site, "lonlat", found))) };
-  } else {
-    other.push(["gis/", "none: the site has no CRS set, so no real-world coordinates could be given"]);
+/** The finds as GeoJSON points in WGS 84, written a page of finds at a time. */
+async function* findsGeoJsonChunks(db: Db, site: Site, trenchId: string | undefined) {
+  const empty = JSON.stringify(findsGeoJson(site, "lonlat", []));
+  // "features" is the collection's last member: the features go between its brackets.
+  if (!empty.endsWith(`"features":[]}`)) throw new Error("GeoJSON export: features must be the last member");
+  yield utf8(empty.slice(0, -2));
+  let first = true;
+  for await (const page of findsByNumber(db, site.id, { trenchId })) {
+    const features = JSON.stringify(findsGeoJson(site, "lonlat", page).features).slice(1, -1);
+    if (!features) continue;
+    yield utf8(first ? features : `,${features}`);
+    first = false;
   }
-
-  const list = await packagePhotos(db, scope);
-  const placed = new Map<string, { path: string; copy: string }>();
-  for (const p of list) {
-    const file = await photoFile(p);
-    if (!file) continue;
-    const path = `files/photos/${p.id.slice(0, 8)}-${safeName(p.fileName)}${file.ext}`;
-    placed.set(p.id, { path, copy: file.copy });
-    yield { path, bytes: file.bytes, compressed: true };
-  }
-  yield csvFile(photosRegister(list, placed));
-  if (list.length) other.push(["files/photos/", "the photos listed in registers/photos.csv"]);
-
-  const runs = await runsRegister(db, scope);
-  yield csvFile(runs.table);
-  for (const r of runs.results) yield { path: r.path, bytes: strToU8(r.json) };
-  if (runs.results.length) other.push(["analysis/", "each finished analysis run's parameters and result (JSON)"]);
-
-  yield {
-    path: "README.txt",
-    bytes: strToU8(
-      packageReadme({
-        siteCode: site.code,
-        siteName: site.name,
-        scope: trenchCode ? `trench ${trenchCode}` : "the whole site",
-        exportedBy: exporter,
-        exportedAt: new Date().toISOString(),
-        datum: site.datumName,
-        registers,
-        otherFiles: other,
-      }),
-    ),
-  };
+  yield utf8("]}");
 }
 
 /**
- * The deposition package (field.md, "The archive") of the whole site, or of one signed-off trench, as a
- * BagIt bag in one zip, streamed to the director while it is built.
+ * The deposition package (field.md, "The archive") of the whole site, or of one signed-off trench: the
+ * registers, the matrix, GeoJSON (when the site is placed in a CRS), the photos, the analysis runs, and last
+ * a readme that describes them all. Refuses a trench that is not signed off.
  */
-export async function depositionPackage(
-  db: Db,
-  actor: SiteActor,
-  q: z.infer<typeof depositionQuery>,
-): Promise<Response> {
-  const site = actor.site;
-  let trenchCode: string | undefined;
-  if (q.trenchId) {
-    const trench = await getTrench(db, site.id, q.trenchId);
+export async function planPackage(db: Db, site: Site, userId: string, trenchId?: string): Promise<PackagePlan> {
+  let trenchCode: string | null = null;
+  if (trenchId) {
+    const trench = await getTrench(db, site.id, trenchId);
     if (!trench.signedOffAt)
       throw badInput(
         `Trench ${trench.code} is not signed off yet: export the whole site (its open records are marked), or sign off its last context first.`,
@@ -146,12 +103,94 @@ export async function depositionPackage(
       );
     trenchCode = trench.code;
   }
-  const exporter = (await userNames(db, [actor.userId])).get(actor.userId) ?? "a director";
+  const exporter = (await userNames(db, [userId])).get(userId) ?? "a director";
   const exportedAt = new Date();
   const day = exportedAt.toISOString().slice(0, 10);
   const root = safeName(`${site.code}${trenchCode ? `-${trenchCode}` : ""}-deposition-${day}`);
-  const scope: PackageScope = { siteId: site.id, trenchId: q.trenchId };
-  const stream = bagZipStream(root, payload(db, actor, scope, trenchCode, exporter), () => [
+  const scope: PackageScope = { siteId: site.id, trenchId };
+
+  const registers: ReadmeRegister[] = [];
+  const other: [string, string][] = [];
+  const csv =
+    (make: () => Promise<PackageRegister> | PackageRegister): PackageEntry =>
+    async () => {
+      const r = await make();
+      registers.push(r);
+      return { path: `registers/${r.file}`, bytes: utf8(r.csv) };
+    };
+  const streamed =
+    (make: () => StreamedRegister): PackageEntry =>
+    async () => {
+      const r = make();
+      async function* chunks() {
+        yield* r.chunks;
+        registers.push(r.meta);
+      }
+      return { path: `registers/${r.meta.file}`, bytes: chunks() };
+    };
+
+  const entries: PackageEntry[] = [
+    csv(() => trenchesRegister(db, scope)),
+    csv(() => contextsRegister(db, scope, trenchCode ?? undefined)),
+    csv(() => relationsRegister(db, scope)),
+    csv(() => classesRegister(db, scope)),
+    streamed(() => findsRegister(db, scope)),
+    csv(() => samplesRegister(db, scope)),
+    csv(() => drawingsRegister(db, scope)),
+    csv(() => levelsRegister(db, scope)),
+    csv(() => benchmarksRegister(db, scope)),
+    async () => {
+      const { drawing } = await drawSiteMatrix(db, site.id, trenchId, false);
+      other.push(["matrix/matrix.svg", "the stratigraphic matrix as drawn by Loamwork (SVG)"]);
+      return { path: "matrix/matrix.svg", bytes: utf8(drawing.svg) };
+    },
+  ];
+
+  if (site.crs) {
+    entries.push(async () => {
+      other.push(["gis/finds-wgs84.geojson", "finds as points, WGS 84 longitude/latitude (RFC 7946)"]);
+      return { path: "gis/finds-wgs84.geojson", bytes: findsGeoJsonChunks(db, site, trenchId) };
+    });
+  } else {
+    other.push(["gis/", "none: the site has no CRS set, so no real-world coordinates could be given"]);
+  }
+
+  const photoList = await packagePhotos(db, scope);
+  const placed = new Map<string, { path: string; copy: string }>();
+  for (const p of photoList)
+    entries.push(async () => {
+      const file = await photoFile(p);
+      if (!file) return null;
+      const path = `files/photos/${p.id.slice(0, 8)}-${safeName(p.fileName)}${file.ext}`;
+      placed.set(p.id, { path, copy: file.copy });
+      return { path, bytes: file.bytes, compressed: true };
+    });
+  entries.push(csv(() => photosRegister(photoList, placed)));
+  if (photoList.length) other.push(["files/photos/", "the photos listed in registers/photos.csv"]);
+
+  const runs = await runsRegister(db, scope);
+  entries.push(csv(() => runs.table));
+  for (const r of runs.results) entries.push(async () => ({ path: r.path, bytes: utf8(r.json) }));
+  if (runs.results.length) other.push(["analysis/", "each finished analysis run's parameters and result (JSON)"]);
+
+  // Last: the readme describes what the entries before it wrote.
+  entries.push(async () => ({
+    path: "README.txt",
+    bytes: utf8(
+      packageReadme({
+        siteCode: site.code,
+        siteName: site.name,
+        scope: trenchCode ? `trench ${trenchCode}` : "the whole site",
+        exportedBy: exporter,
+        exportedAt: exportedAt.toISOString(),
+        datum: site.datumName,
+        registers,
+        otherFiles: other,
+      }),
+    ),
+  }));
+
+  const info = (): BagInfoLines => [
     ["Source-Organization", site.name],
     ["External-Identifier", site.code],
     [
@@ -164,11 +203,43 @@ export async function depositionPackage(
     ["Trench", trenchCode ?? "all"],
     ["Exported-By", exporter],
     ["Exported-At", exportedAt.toISOString()],
-  ]);
+  ];
+  return { root, trenchCode, entries, info };
+}
+
+/**
+ * The plan's files in order, each made when the zip asks for it. `progress` hears (done, total) after
+ * each entry is in the zip (or left out).
+ */
+export async function* packageFiles(
+  plan: PackagePlan,
+  progress?: (done: number, total: number) => void,
+): AsyncGenerator<BagFile> {
+  const total = plan.entries.length;
+  let done = 0;
+  for (const entry of plan.entries) {
+    const file = await entry();
+    // The zip asks for the next file only once this one is written: resuming here means it is in.
+    if (file) yield file;
+    progress?.(++done, total);
+  }
+}
+
+/**
+ * The package streamed straight to the director while it is built (no file kept): for scripts and small
+ * sites; a package job writes the same bytes to a file, with progress.
+ */
+export async function depositionPackage(
+  db: Db,
+  actor: SiteActor,
+  q: z.infer<typeof depositionQuery>,
+): Promise<Response> {
+  const plan = await planPackage(db, actor.site, actor.userId, q.trenchId);
+  const stream = bagZipStream(bagZip(plan.root, packageFiles(plan), plan.info));
   return new Response(stream, {
     headers: {
       "content-type": "application/zip",
-      "content-disposition": `attachment; filename="${root}.zip"`,
+      "content-disposition": `attachment; filename="${plan.root}.zip"`,
       "cache-control": "no-store",
       "x-content-type-options": "nosniff",
     },

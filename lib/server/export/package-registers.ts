@@ -1,5 +1,5 @@
 import "server-only";
-import { asc, eq } from "drizzle-orm";
+import { and, asc, count, eq, inArray } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import {
   analysisRuns,
@@ -13,7 +13,7 @@ import {
   spotLevels,
   trenches,
 } from "@/db/schema";
-import { allFinds } from "@/lib/server/finds";
+import { findsByNumber } from "@/lib/server/finds";
 import { listBenchmarks } from "@/lib/server/benchmarks";
 import { allSamples } from "@/lib/server/samples";
 import { allDrawings } from "@/lib/server/drawings";
@@ -35,6 +35,12 @@ import {
 /** One register of the package: its file under data/registers/, its columns, its rows as CSV text. */
 export type PackageRegister = { file: string; title: string; columns: readonly CsvColumn[]; rows: number; csv: string };
 
+/** What the readme says of a register; a streamed register's `rows` is final once its chunks are read. */
+export type RegisterMeta = Omit<PackageRegister, "csv">;
+
+/** A register too large to hold at once (the finds): its CSV in chunks of one page of rows each. */
+export type StreamedRegister = { meta: RegisterMeta; chunks: AsyncIterable<Uint8Array> };
+
 /** Whole site, or one trench (a trench's package holds only its own records). */
 export type PackageScope = { siteId: string; trenchId?: string };
 
@@ -47,14 +53,20 @@ function register(file: string, title: string, columns: readonly CsvColumn[], ro
 
 export const findPackageColumns: readonly CsvColumn[] = [...findCsvColumns, ["context_state", "text"]];
 
-export async function findsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
-  const rows = await allFinds(db, scope.siteId, { trenchId: scope.trenchId, sort: "number", dir: "asc" });
-  return register(
-    "finds.csv",
-    "Finds register",
-    findPackageColumns,
-    rows.map((f) => [...findCsvRow(f), f.contextState]),
-  );
+const utf8 = new TextEncoder();
+
+/** The finds, by number, read and written a page at a time: a site of any size costs one page of memory. */
+export function findsRegister(db: Db, scope: PackageScope): StreamedRegister {
+  const meta: RegisterMeta = { file: "finds.csv", title: "Finds register", columns: findPackageColumns, rows: 0 };
+  async function* chunks() {
+    yield utf8.encode(toCsv(findPackageColumns, []));
+    for await (const page of findsByNumber(db, scope.siteId, { trenchId: scope.trenchId })) {
+      meta.rows += page.length;
+      const rows = page.map((f) => [...findCsvRow(f), f.contextState]);
+      yield utf8.encode(`\r\n${toCsv(findPackageColumns, rows, { header: false })}`);
+    }
+  }
+  return { meta, chunks: chunks() };
 }
 
 export async function contextsRegister(db: Db, scope: PackageScope, trenchCode?: string): Promise<PackageRegister> {
@@ -139,17 +151,18 @@ export const classColumns: readonly CsvColumn[] = [
 ];
 
 export async function classesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const inScope = scope.trenchId
+    ? and(eq(finds.siteId, scope.siteId), eq(finds.trenchId, scope.trenchId))
+    : eq(finds.siteId, scope.siteId);
   const [rows, found] = await Promise.all([
     db
       .select()
       .from(artefactClasses)
       .where(eq(artefactClasses.siteId, scope.siteId))
       .orderBy(asc(artefactClasses.code)),
-    db.select({ classId: finds.classId, trenchId: finds.trenchId }).from(finds).where(eq(finds.siteId, scope.siteId)),
+    db.select({ classId: finds.classId, n: count() }).from(finds).where(inScope).groupBy(finds.classId),
   ]);
-  const counts = new Map<string, number>();
-  for (const f of found)
-    if (!scope.trenchId || f.trenchId === scope.trenchId) counts.set(f.classId, (counts.get(f.classId) ?? 0) + 1);
+  const counts = new Map(found.map((f) => [f.classId, Number(f.n)]));
   return register(
     "classes.csv",
     "Artefact classes",
@@ -174,7 +187,7 @@ export const levelColumns: readonly CsvColumn[] = [
 
 /** Every reduced level the level book gave, with what it was taken on (a context or spit by number). */
 export async function levelsRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
-  const [runs, levels, sheets, slices, trenchRows, found, marks] = await Promise.all([
+  const [runs, levels, sheets, slices, trenchRows, marks] = await Promise.all([
     db.select().from(levelRuns).where(eq(levelRuns.siteId, scope.siteId)).orderBy(asc(levelRuns.takenOn)),
     db.select().from(spotLevels).where(eq(spotLevels.siteId, scope.siteId)).orderBy(asc(spotLevels.line)),
     db.select({ id: contexts.id, number: contexts.number }).from(contexts).where(eq(contexts.siteId, scope.siteId)),
@@ -184,9 +197,16 @@ export async function levelsRegister(db: Db, scope: PackageScope): Promise<Packa
       .innerJoin(contexts, eq(contexts.id, spits.contextId))
       .where(eq(spits.siteId, scope.siteId)),
     db.select({ id: trenches.id, code: trenches.code }).from(trenches).where(eq(trenches.siteId, scope.siteId)),
-    db.select({ id: finds.id, number: finds.number }).from(finds).where(eq(finds.siteId, scope.siteId)),
     listBenchmarks(db, scope.siteId),
   ]);
+  // Only the finds a level was taken on: the site's finds may be many.
+  const targets = [...new Set(levels.flatMap((l) => (l.targetId ? [l.targetId] : [])))];
+  const found = targets.length
+    ? await db
+        .select({ id: finds.id, number: finds.number })
+        .from(finds)
+        .where(and(eq(finds.siteId, scope.siteId), inArray(finds.id, targets)))
+    : [];
   const names = new Map<string, string>([
     ...sheets.map((c): [string, string] => [c.id, `context ${c.number}`]),
     ...slices.map((s): [string, string] => [s.id, `context ${s.contextNumber} spit ${s.number}`]),
