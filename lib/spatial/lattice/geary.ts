@@ -9,11 +9,10 @@
  *   Var_R = [(n − 1) S1 (n² − 3n + 3 − (n − 1) b2) − ¼ (n − 1) S2 (n² + 3n − 6 − (n² − n + 2) b2)
  *            + S0² (n² − 3 − (n − 1)² b2)] / (n (n − 2)(n − 3) S0²)
  */
-import { centred, checkAlternative, checkPermutations, normalP, rankP, tieTolerance } from "./p-values";
-import { checkGlobal, pairForm, permuteInto, type GlobalMoments, type GlobalTestOptions, type PairForm } from "./moran";
-import type { LatticeAlternative } from "./p-values";
+import { normalP, type LatticeAlternative } from "./p-values";
+import { globalSetup, permutationP, type GlobalMoments, type GlobalTestOptions, type PairForm } from "./moran";
 import type { LatticeWeights } from "./types";
-import { runSteps, stepEvery, type Steps } from "./steps";
+import { runSteps, type Steps } from "./steps";
 
 export interface GearyResult extends GlobalMoments {
   C: number;
@@ -45,19 +44,9 @@ export function* gearySteps(
   w: LatticeWeights,
   options: GlobalTestOptions = {},
 ): Steps<GearyResult> {
-  const alternative = options.alternative ?? "two-sided";
-  const permutations = options.permutations ?? 999;
-  const seed = options.seed ?? 1;
-  checkAlternative(alternative);
-  checkPermutations(permutations);
-  checkGlobal(values, w, "Geary's C");
-  const n = w.n;
-  const { z, m2sum } = centred(values);
-  let z4 = 0;
-  for (let i = 0; i < n; i++) z4 += z[i] ** 4;
-  const K = (n * z4) / (m2sum * m2sum);
+  const setup = globalSetup(values, w, options, "Geary's C");
+  const { alternative, permutations, seed, n, z, m2sum, kurtosis: K, form } = setup;
   const factor = (n - 1) / (2 * w.S0 * m2sum);
-  const form = pairForm(w);
   const C = factor * squaredDifferences(form, z);
   const { S0, S1, S2 } = w;
   const S02 = S0 * S0;
@@ -71,22 +60,8 @@ export function* gearySteps(
     (n * (n - 2) * (n - 3) * S02);
   const zN = (1 - C) / Math.sqrt(varN);
   const zR = (1 - C) / Math.sqrt(varR);
-  let pPerm: number | null = null;
-  if (permutations > 0) {
-    const zp = new Float64Array(n);
-    const eps = tieTolerance(C);
-    let above = 0;
-    let below = 0;
-    const every = stepEvery(permutations);
-    for (let s = 0; s < permutations; s++) {
-      if (s > 0 && s % every === 0) yield s / permutations;
-      permuteInto(z, zp, seed, s);
-      const Cs = factor * squaredDifferences(form, zp);
-      if (Cs >= C - eps) above++;
-      if (Cs <= C + eps) below++;
-    }
-    pPerm = rankP(above, below, permutations, alternative, false);
-  }
+  // Small C is positive autocorrelation.
+  const pPerm = yield* permutationP(setup, C, (zp) => factor * squaredDifferences(form, zp), false);
   return {
     C,
     n,

@@ -110,6 +110,51 @@ export function permuteInto(from: Float64Array, into: Float64Array, seed: number
   }
 }
 
+/** What both global tests start from: the options with their defaults, checked input, centred values. */
+export function globalSetup(values: ArrayLike<number>, w: LatticeWeights, options: GlobalTestOptions, test: string) {
+  const alternative = options.alternative ?? "two-sided";
+  const permutations = options.permutations ?? 999;
+  const seed = options.seed ?? 1;
+  checkAlternative(alternative);
+  checkPermutations(permutations);
+  checkGlobal(values, w, test);
+  const n = w.n;
+  const { z, m2sum } = centred(values);
+  let z4 = 0;
+  for (let i = 0; i < n; i++) z4 += z[i] ** 4;
+  /** Sample kurtosis b2 = n Σz⁴ / (Σz²)². */
+  const kurtosis = (n * z4) / (m2sum * m2sum);
+  return { alternative, permutations, seed, n, z, m2sum, kurtosis, form: pairForm(w) };
+}
+
+/**
+ * The permutation p-value of a global statistic: the values permuted over the squares (permutation s from
+ * stream s of the seed), the statistic recomputed, ties within rounding counted on both sides; null with no
+ * permutations. Yields the fraction done. `largeIsPositive` says which tail is positive autocorrelation.
+ */
+export function* permutationP(
+  setup: Pick<ReturnType<typeof globalSetup>, "alternative" | "permutations" | "seed" | "n" | "z">,
+  observed: number,
+  statistic: (permuted: Float64Array) => number,
+  largeIsPositive = true,
+): Steps<number | null> {
+  const { alternative, permutations, seed, n, z } = setup;
+  if (permutations === 0) return null;
+  const zp = new Float64Array(n);
+  const eps = tieTolerance(observed);
+  let above = 0;
+  let below = 0;
+  const every = stepEvery(permutations);
+  for (let s = 0; s < permutations; s++) {
+    if (s > 0 && s % every === 0) yield s / permutations;
+    permuteInto(z, zp, seed, s);
+    const sim = statistic(zp);
+    if (sim >= observed - eps) above++;
+    if (sim <= observed + eps) below++;
+  }
+  return rankP(above, below, permutations, alternative, largeIsPositive);
+}
+
 export function moranI(values: ArrayLike<number>, w: LatticeWeights, options: GlobalTestOptions = {}): MoranResult {
   return runSteps(moranSteps(values, w, options), options.onProgress);
 }
@@ -120,19 +165,9 @@ export function* moranSteps(
   w: LatticeWeights,
   options: GlobalTestOptions = {},
 ): Steps<MoranResult> {
-  const alternative = options.alternative ?? "two-sided";
-  const permutations = options.permutations ?? 999;
-  const seed = options.seed ?? 1;
-  checkAlternative(alternative);
-  checkPermutations(permutations);
-  checkGlobal(values, w, "Moran's I");
-  const n = w.n;
-  const { z, m2sum } = centred(values);
-  let z4 = 0;
-  for (let i = 0; i < n; i++) z4 += z[i] ** 4;
-  const kurtosis = (n * z4) / (m2sum * m2sum);
+  const setup = globalSetup(values, w, options, "Moran's I");
+  const { alternative, permutations, seed, n, z, m2sum, kurtosis, form } = setup;
   const factor = n / (w.S0 * m2sum);
-  const form = pairForm(w);
   const I = factor * crossSum(form, z);
   const { S0, S1, S2 } = w;
   const S02 = S0 * S0;
@@ -145,22 +180,7 @@ export function* moranSteps(
     expected * expected;
   const zN = (I - expected) / Math.sqrt(varN);
   const zR = (I - expected) / Math.sqrt(varR);
-  let pPerm: number | null = null;
-  if (permutations > 0) {
-    const zp = new Float64Array(n);
-    const eps = tieTolerance(I);
-    let above = 0;
-    let below = 0;
-    const every = stepEvery(permutations);
-    for (let s = 0; s < permutations; s++) {
-      if (s > 0 && s % every === 0) yield s / permutations;
-      permuteInto(z, zp, seed, s);
-      const Is = factor * crossSum(form, zp);
-      if (Is >= I - eps) above++;
-      if (Is <= I + eps) below++;
-    }
-    pPerm = rankP(above, below, permutations, alternative);
-  }
+  const pPerm = yield* permutationP(setup, I, (zp) => factor * crossSum(form, zp));
   return {
     I,
     n,
