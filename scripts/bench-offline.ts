@@ -11,7 +11,8 @@ import "fake-indexeddb/auto";
 import path from "node:path";
 import { rmSync } from "node:fs";
 import os from "node:os";
-import { chromium, type Page } from "playwright-core";
+import type { Page } from "playwright-core";
+import { launchChromium } from "./chromium";
 import { ApiError, buildRequest, type ApiRequest } from "../lib/api/client";
 import { Outbox } from "../lib/offline/outbox";
 import { syncOutbox } from "../lib/offline/sync";
@@ -38,19 +39,7 @@ ensureBuilt();
 const dataDir = path.join(".tmp", "bench-offline");
 rmSync(dataDir, { recursive: true, force: true });
 const stack = await startStack({ port, dataDir, quiet: true });
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-  headless: true,
-  args: [
-    "--no-sandbox",
-    "--disable-gpu",
-    "--disable-quic",
-    "--no-first-run",
-    "--disable-background-networking",
-    "--disable-component-update",
-    "--disable-sync",
-  ],
-});
+const browser = await launchChromium();
 const rows: string[][] = [];
 try {
   const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });

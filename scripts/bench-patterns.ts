@@ -22,7 +22,8 @@ import { rmSync } from "node:fs";
 import path from "node:path";
 import { createServer } from "node:net";
 import { cpus, loadavg } from "node:os";
-import { chromium, type Page } from "playwright-core";
+import type { Page } from "playwright-core";
+import { launchChromium } from "./chromium";
 import { ensureBuilt, startStack } from "./stack";
 import { signInDemo } from "./sign-in-demo";
 
@@ -146,10 +147,7 @@ async function main() {
     smtpPort: await freePort(),
     uploadPort: await freePort(),
   });
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    args: ["--no-sandbox", "--disable-gpu"],
-  });
+  const browser = await launchChromium();
   const samples: Sample[] = [];
   let failed = true;
   let firstMs = NaN;

@@ -14,7 +14,7 @@
  */
 import path from "node:path";
 import { rmSync } from "node:fs";
-import { chromium } from "playwright-core";
+import { launchChromium } from "./chromium";
 import { ensureBuilt, startStack } from "./stack";
 import { signInDemo } from "./sign-in-demo";
 
@@ -43,21 +43,7 @@ ensureBuilt();
 const dataDir = path.join(".tmp", "bench-plan");
 rmSync(dataDir, { recursive: true, force: true });
 const stack = await startStack({ port, dataDir, quiet: true });
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-  headless: true,
-  args: [
-    "--no-sandbox",
-    "--disable-gpu",
-    "--disable-quic",
-    "--no-first-run",
-    "--disable-background-networking",
-    "--disable-component-update",
-    "--disable-sync",
-    "--disable-frame-rate-limit",
-    "--disable-gpu-vsync",
-  ],
-});
+const browser = await launchChromium(["--disable-frame-rate-limit", "--disable-gpu-vsync"]);
 try {
   const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
   // tsx keeps function names with a `__name` helper that does not exist inside the page.

@@ -7,7 +7,7 @@
  */
 import { mkdirSync, rmSync } from "node:fs";
 import path from "node:path";
-import { chromium } from "playwright-core";
+import { launchChromium } from "./chromium";
 import type { DEMO_USERS } from "@/lib/demo-users";
 import { signInDemo } from "./sign-in-demo";
 import { ensureBuilt, startStack } from "./stack";
@@ -42,11 +42,7 @@ async function main() {
   rmSync(out, { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
   const stack = await startStack({ port, dataDir, quiet: true });
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    headless: true,
-    args: ["--no-sandbox", "--disable-gpu"],
-  });
+  const browser = await launchChromium();
   try {
     for (const [size, v] of Object.entries(sizes)) {
       for (const role of ["digger", "specialist", "director"] as const) {

@@ -1,4 +1,5 @@
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
+import { launchChromium } from "@/scripts/chromium";
 import { inject } from "vitest";
 import { watchCsp } from "./csp-watch";
 
@@ -10,19 +11,7 @@ export const baseURL = () => inject("baseURL");
  * Content Security Policy violations (csp-watch.ts), which fail the test.
  */
 export async function openBrowser(): Promise<Browser> {
-  const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    headless: true,
-    args: [
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-    ],
-  });
+  const browser = await launchChromium();
   const newContext = browser.newContext.bind(browser);
   browser.newContext = async (options) => {
     const context = await newContext(options);
