@@ -32,6 +32,12 @@ import { loadTrenchReport } from "./trench-report";
 import { userNames } from "./user-names";
 import { accountNumbers } from "../number-accounting";
 import type { NumberKind } from "@/db/schema";
+import {
+  printedContextRegister,
+  printedFindsRegister,
+  printedLevelBook,
+  printedSamplesRegister,
+} from "./printed-registers";
 
 /**
  * The reads a site's pages make, bound to the database and to the one site whose membership was checked
@@ -78,6 +84,12 @@ export function siteReads(db: Db, actor: SiteActor) {
     drawings: (q: DrawingListQuery) => listDrawings(db, siteId, q),
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
     numberAccounting: (kind: NumberKind) => accountNumbers(db, siteId, kind),
+    printed: {
+      contexts: () => printedContextRegister(db, siteId),
+      finds: () => printedFindsRegister(db, siteId),
+      samples: () => printedSamplesRegister(db, siteId),
+      levelBook: () => printedLevelBook(db, siteId),
+    },
   };
 }
 

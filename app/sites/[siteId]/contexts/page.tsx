@@ -26,6 +26,9 @@ export default async function ContextsPage({
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
         <div className="flex flex-wrap items-end gap-3">
           <h1 className="mr-auto text-3xl font-bold">Context sheets</h1>
+          <Link className="btn" href={`/sites/${siteId}/print/contexts`}>
+            Print the register
+          </Link>
           <Link className="btn" href={`${base}/matrix${chosen ? `?trench=${chosen.id}` : ""}`}>
             Harris matrix
           </Link>

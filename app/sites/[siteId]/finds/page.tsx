@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { Suspense } from "react";
 import { FindsRegister } from "@/components/register/finds-register";
 import { SiteNav } from "@/components/site-nav";
@@ -22,7 +23,12 @@ export default async function FindsRegisterPage({ params }: { params: Promise<{ 
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/finds`} />
       <main className="mx-auto max-w-7xl space-y-4 px-4 py-6">
-        <h1 className="text-3xl font-bold">Finds register</h1>
+        <div className="flex flex-wrap items-end gap-3">
+          <h1 className="mr-auto text-3xl font-bold">Finds register</h1>
+          <Link className="btn" href={`/sites/${siteId}/print/finds`}>
+            Print the register
+          </Link>
+        </div>
         <Suspense fallback={<p>Reading the register…</p>}>
           <FindsRegister
             siteId={siteId}

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { BenchmarkForm } from "@/components/levels/benchmark-form";
 import { DatumForm } from "@/components/levels/datum-form";
 import { LevelBookForm } from "@/components/levels/level-book-form";
@@ -25,8 +26,11 @@ export default async function LevelBookPage({ params }: { params: Promise<{ site
           <span className="text-ink-soft">
             {s.code} {s.name}
           </span>
-          <span className="ml-auto no-print">
-            <PrintButton label="Print the level book" />
+          <span className="ml-auto no-print flex flex-wrap gap-2">
+            <Link className="btn" href={`/sites/${siteId}/print/levels`}>
+              Level book to print
+            </Link>
+            <PrintButton label="Print this page" />
           </span>
         </div>
         <section aria-labelledby="datum-h" className="sheet space-y-2">

@@ -2,36 +2,17 @@ import Link from "next/link";
 import { SiteNav } from "@/components/site-nav";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { numberAccountingQuery } from "@/lib/schemas/number-blocks";
-import type { NumberRange, NumberStatus } from "@/lib/server/number-accounting";
+import {
+  numberHolder as holderOf,
+  numberReason as reasonOf,
+  numberStatusOrder as order,
+  numberStatusWords as statusWords,
+} from "@/components/print/accounting-words";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
 import { formatWhen } from "@/lib/words/when";
 
 export const dynamic = "force-dynamic";
-
-const statusWords: Record<NumberStatus, string> = {
-  find: "Find",
-  sample: "Sample",
-  context: "Context sheet",
-  reserved: "Reserved",
-  void: "Void",
-  unassigned: "Not handed out",
-};
-const order: NumberStatus[] = ["find", "sample", "context", "reserved", "void", "unassigned"];
-
-/** Who holds or held the numbers, and why they are where they are. */
-function holderOf(r: NumberRange): string {
-  if (r.status === "reserved")
-    return `${r.holder ?? "another member"}${r.deviceLabel ? ` on ${r.deviceLabel}` : ""}${r.deviceId ? ` (device ${r.deviceId.slice(0, 8)})` : ""}`;
-  if (r.status === "void") return r.holder ?? "";
-  return "";
-}
-function reasonOf(r: NumberRange): string {
-  if (r.status === "reserved") return "Held for recording offline; not used yet";
-  if (r.status === "void") return `${r.reason ?? "void"}${r.by ? ` — made void by ${r.by}` : ""}`;
-  if (r.status === "unassigned") return "Never handed out";
-  return "";
-}
 
 /**
  * The site's number accounting on paper (field.md, "Numbers"): every number from 1 to the highest is a find,

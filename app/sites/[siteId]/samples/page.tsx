@@ -49,6 +49,9 @@ export default async function SamplesPage({
               Record a sample
             </Link>
           )}
+          <Link className="btn" href={`/sites/${siteId}/print/samples`}>
+            Print the register
+          </Link>
           <a className="btn" href={`/api/sites/${siteId}/export/samples?${filters}`} download>
             Export CSV
           </a>
