@@ -8,6 +8,7 @@
  */
 import { isotropicPairWeights } from "../geometry/edge-isotropic";
 import { translationPairWeights, translationWeight } from "../geometry/edge-translation";
+import { createSetCovarianceTable } from "../geometry/set-covariance-table";
 import { SpatialInputError } from "../errors";
 import { createIsotropicWeights, isotropicWeight } from "../kernel/isotropic-weights";
 import { pairsWithin } from "../geometry/neighbours";
@@ -88,6 +89,9 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
     m = r.length;
   const scanner = createPairScanner(window.bbox, r[m - 1]);
   const tables = createIsotropicWeights(window, r[m - 1]).prepare(ax, ay, nA);
+  // the translation weight depends only on the displacement: the set covariance is prepared once per run
+  const setCovariance = model.correction === "translation" ? createSetCovarianceTable(window, r[m - 1]) : null;
+  const area = window.area;
   const bin = createBinning(window, r, "generic").bin;
   const sums = new Float64Array(m + 1);
   return (bx: Float64Array, by: Float64Array, nB: number, out: Float64Array, offset: number): void => {
@@ -100,7 +104,9 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
       const w =
         model.correction === "isotropic"
           ? isotropicWeight(tables, i, d)
-          : translationWeight(window, bx[j] - ax[i], by[j] - ay[i]);
+          : setCovariance
+            ? area / Math.max(setCovariance.at(bx[j] - ax[i], by[j] - ay[i]), 1e-12 * area)
+            : translationWeight(window, bx[j] - ax[i], by[j] - ay[i]);
       sums[bin(d)] += w;
     }
     for (let k = 1; k < m; k++) sums[k] += sums[k - 1];

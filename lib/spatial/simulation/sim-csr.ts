@@ -4,6 +4,7 @@ import { createIsotropicL } from "../kernel/l-isotropic";
 import { nearestNeighbourDistances } from "../geometry/neighbours";
 import { pairCorrelation } from "../estimators/pair-correlation";
 import { createPairScanner } from "../kernel/pair-grid";
+import { createTranslationL } from "../kernel/l-translation";
 import type { Random } from "../random/random";
 import { createWindowSampler } from "../random/sample-window";
 import type { SimModel } from "./sim-models";
@@ -25,8 +26,16 @@ export function csrLCurve(window: Window, r: Float64Array, correction: "isotropi
       est.l(x, y, n, out.subarray(offset, offset + r.length));
     };
   }
+  // The translation weight depends only on the pair's displacement: with the window's set covariance
+  // prepared once for the run, pairs are weighed by look-up in the enumerating pass (null for windows with
+  // very many edges, which take the general estimator below).
+  const fused = correction === "translation" ? createTranslationL(window, r) : null;
   const scanner = createPairScanner(window.bbox, r[r.length - 1]);
   return (x: Float64Array, y: Float64Array, n: number, out: Float64Array, offset: number): void => {
+    if (fused && n >= 2) {
+      fused.l(x, y, n, out.subarray(offset, offset + r.length));
+      return;
+    }
     const px = x.subarray(0, n),
       py = y.subarray(0, n);
     const pairs = scanner.within(px, py, n);

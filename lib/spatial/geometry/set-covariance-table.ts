@@ -1,0 +1,326 @@
+/**
+ * The window's set covariance g(v) = |W ∩ (W + v)| prepared once per run for every displacement with
+ * |v_x|, |v_y| ≤ reach, so that the translation weight |W| / g(v) of a pair (Ohser 1983) costs a table look-up
+ * and one quadratic instead of a sum over every pair of edges.
+ *
+ * Exact, not an interpolation. edge-translation.ts writes g(v) = Σ_{e,f} σ_e σ_f A_ef(v), where A_ef is the
+ * area of the trapezoid under edge e of W meeting the trapezoid under edge f of W + v. Each A_ef is a
+ * quadratic polynomial in v on every region where its case does not change (which end bounds the common
+ * x-interval on each side, whether that interval is empty, which line is lower at either end); the case
+ * changes only on straight lines in v-space. The v-square is cut into a grid of cells by halving: in a cell
+ * that no such line of (e, f) crosses, A_ef is one polynomial there and is added to the cell's polynomial;
+ * the pairs (e, f) whose case does change inside a cell (few: only lines through the cell) are kept in the
+ * cell's list and computed as edge-translation.ts computes them. g(v) in a cell is then the cell's
+ * polynomial plus its list: the same sum, regrouped, so it differs from edge-translation.ts by rounding only.
+ *
+ * g is even (g(v) = g(−v)), so only v_y ≥ 0 is prepared, where the common baseline of the trapezoids is
+ * y = 0 (coordinates relative to the bounding-box corner).
+ */
+import { setCovariance, trapezoidEdges } from "./edge-translation";
+import type { PairList } from "./neighbours";
+import type { Window } from "../types";
+
+export interface SetCovarianceTable {
+  /** Displacements with |v_x| ≤ reach and |v_y| ≤ reach are looked up; others are computed directly. */
+  readonly reach: number;
+  /** |W ∩ (W + (dx, dy))|. */
+  at(dx: number, dy: number): number;
+  /**
+   * Translation weights |W| / g(x_j − x_i) of every pair, floored as translationPairWeights does (the same
+   * values to rounding).
+   */
+  pairWeights(
+    ax: ArrayLike<number>,
+    ay: ArrayLike<number>,
+    bx: ArrayLike<number>,
+    by: ArrayLike<number>,
+    pairs: PairList,
+    out?: Float64Array,
+  ): Float64Array;
+  /** Cells of the grid, and edge pairs kept in the cells' lists (all cells together). */
+  readonly cells: number;
+  readonly listed: number;
+  /**
+   * The grid itself, for kernels that look up inline: cell c = iy·gx + ix covers v_x ∈ −reach + [ix, ix+1]·h,
+   * v_y ∈ [iy, iy+1]·h (h = reach / gy); cell[8c .. 8c+5] is its polynomial in (v_x, v_y) (terms 1, x, y, x²,
+   * xy, y²), cell[8c+6] and cell[8c+7] the first and end index of its listed pairs (see `listedTerms`).
+   */
+  readonly cell: Float64Array;
+  readonly gx: number;
+  readonly gy: number;
+  readonly invH: number;
+  /** Σ of the listed pairs' terms of cell c at v (v_y ≥ 0, within the cell). */
+  listedTerms(c: number, dx: number, dy: number): number;
+}
+
+export interface SetCovarianceTableOptions {
+  /** Halvings of the v-square (the grid is 2^depth rows by 2^(depth+1) columns); default 7. */
+  depth?: number;
+  /**
+   * Bound on the preparation's work, in edge-pair tests; beyond it (windows with very many edges) the table
+   * is not built and `createSetCovarianceTable` returns null. Default 2·10^7.
+   */
+  budget?: number;
+}
+
+/** A linear form a + b·v_x + c·v_y, as [a, b, c]. */
+type Lin = [number, number, number];
+
+function lin(a: number, b: number, c: number): Lin {
+  return [a, b, c];
+}
+function sub(p: Lin, q: Lin): Lin {
+  return [p[0] - q[0], p[1] - q[1], p[2] - q[2]];
+}
+function add(p: Lin, q: Lin): Lin {
+  return [p[0] + q[0], p[1] + q[1], p[2] + q[2]];
+}
+/** poly += s·p·q (poly: a quadratic [1, x, y, x², xy, y²]). */
+function addProduct(poly: Float64Array, s: number, p: Lin, q: Lin): void {
+  poly[0] += s * p[0] * q[0];
+  poly[1] += s * (p[0] * q[1] + p[1] * q[0]);
+  poly[2] += s * (p[0] * q[2] + p[2] * q[0]);
+  poly[3] += s * p[1] * q[1];
+  poly[4] += s * (p[1] * q[2] + p[2] * q[1]);
+  poly[5] += s * p[2] * q[2];
+}
+
+export function createSetCovarianceTable(
+  window: Window,
+  reach: number,
+  options: SetCovarianceTableOptions = {},
+): SetCovarianceTable | null {
+  const t = trapezoidEdges(window);
+  const { count: E, x0, x1, y0, slope, sigma } = t;
+  const depth = options.depth ?? 7;
+  let budget = options.budget ?? 2e7;
+  const gy = 1 << depth,
+    gx = 2 * gy;
+  const h = reach / gy;
+  const invH = 1 / h;
+  const cells = gx * gy;
+  const cell = new Float64Array(8 * cells);
+  const lists: (Int32Array | null)[] = new Array<Int32Array | null>(cells).fill(null);
+
+  /**
+   * Add the polynomial of (e, f) on the box to poly when its case is fixed there; return false when the
+   * case changes inside the box (then the pair is kept for the children). A pair that is zero throughout
+   * the box returns true and adds nothing.
+   */
+  const classify = (e: number, f: number, xlo: number, xhi: number, ylo: number, yhi: number, poly: Float64Array) => {
+    const ea = x0[e],
+      eb = x1[e],
+      ey = y0[e],
+      es = slope[e];
+    const fa = x0[f],
+      fb = x1[f],
+      fy = y0[f],
+      fs = slope[f];
+    // the common x-interval [max(ea, fa + v_x), min(eb, fb + v_x)] is non-empty for ea − fb < v_x < eb − fa
+    const lo = ea - fb,
+      hi = eb - fa;
+    if (xhi <= lo || xlo >= hi) return true;
+    if (xlo < lo || xhi > hi) return false;
+    const bl = ea - fa, // left end: ea for v_x ≤ bl, fa + v_x beyond
+      br = eb - fb; // right end: fb + v_x for v_x ≤ br, eb beyond
+    if ((xlo < bl && bl < xhi) || (xlo < br && br < xhi)) return false;
+    const xl: Lin = xhi <= bl ? lin(ea, 0, 0) : lin(fa, 1, 0);
+    const xr: Lin = xlo >= br ? lin(eb, 0, 0) : lin(fb, 1, 0);
+    // e's line and f's shifted line at either end
+    const el = lin(ey + es * (xl[0] - ea), es * xl[1], 0);
+    const er = lin(ey + es * (xr[0] - ea), es * xr[1], 0);
+    const gl = lin(fy + fs * (xl[0] - fa), fs * (xl[1] - 1), 1);
+    const gr = lin(fy + fs * (xr[0] - fa), fs * (xr[1] - 1), 1);
+    const dl = sub(el, gl),
+      dr = sub(er, gr);
+    const min = (p: Lin) => p[0] + p[1] * (p[1] > 0 ? xlo : xhi) + p[2] * (p[2] > 0 ? ylo : yhi);
+    const max = (p: Lin) => p[0] + p[1] * (p[1] > 0 ? xhi : xlo) + p[2] * (p[2] > 0 ? yhi : ylo);
+    const dlMin = min(dl),
+      dlMax = max(dl),
+      drMin = min(dr),
+      drMax = max(dr);
+    if ((dlMin < 0 && dlMax > 0) || (drMin < 0 && drMax > 0)) return false;
+    const s = sigma[e] * sigma[f];
+    const width = sub(xr, xl);
+    if (dlMax <= 0 && drMax <= 0) {
+      addProduct(poly, s / 2, width, add(el, er)); // e's line is the lower one throughout
+    } else if (dlMin >= 0 && drMin >= 0) {
+      addProduct(poly, s / 2, width, add(gl, gr));
+    } else {
+      // the lines cross inside the interval, at xc = xl − dl / (es − fs) (es ≠ fs here: parallel lines
+      // have dl ≡ dr, which the cases above take)
+      const k = 1 / (es - fs);
+      const xc = lin(xl[0] - dl[0] * k, xl[1] - dl[1] * k, xl[2] - dl[2] * k);
+      const yc = lin(ey + es * (xc[0] - ea), es * xc[1], es * xc[2]);
+      const lowL = dlMax <= 0 ? el : gl,
+        lowR = drMax <= 0 ? er : gr;
+      addProduct(poly, s / 2, sub(xc, xl), add(lowL, yc));
+      addProduct(poly, s / 2, sub(xr, xc), add(lowR, yc));
+    }
+    return true;
+  };
+
+  let listed = 0;
+  let overBudget = false;
+  const split = (ix: number, iy: number, size: number, pairs: Int32Array, poly: Float64Array): void => {
+    if (overBudget) return;
+    budget -= pairs.length / 2;
+    if (budget < 0) {
+      overBudget = true;
+      return;
+    }
+    const xlo = -reach + ix * h,
+      xhi = -reach + (ix + size) * h,
+      ylo = iy * h,
+      yhi = (iy + size) * h;
+    const own = poly.slice();
+    const kept: number[] = [];
+    for (let k = 0; k < pairs.length; k += 2) {
+      if (!classify(pairs[k], pairs[k + 1], xlo, xhi, ylo, yhi, own)) kept.push(pairs[k], pairs[k + 1]);
+    }
+    const rest = Int32Array.from(kept);
+    if (size === 1 || rest.length === 0) {
+      for (let cy = iy; cy < iy + size; cy++) {
+        for (let cx = ix; cx < ix + size; cx++) {
+          const c = cy * gx + cx;
+          cell.set(own, 8 * c);
+          lists[c] = rest.length > 0 ? rest : null;
+          listed += rest.length / 2;
+        }
+      }
+      return;
+    }
+    const half = size / 2;
+    split(ix, iy, half, rest, own);
+    split(ix + half, iy, half, rest, own);
+    split(ix, iy + half, half, rest, own);
+    split(ix + half, iy + half, half, rest, own);
+  };
+  const all = new Int32Array(2 * E * E);
+  for (let e = 0; e < E; e++) {
+    for (let f = 0; f < E; f++) {
+      all[2 * (e * E + f)] = e;
+      all[2 * (e * E + f) + 1] = f;
+    }
+  }
+  split(0, 0, gy, all, new Float64Array(6));
+  split(gy, 0, gy, all, new Float64Array(6));
+  if (overBudget) return null;
+
+  // the cells' lists, flattened
+  const start = new Int32Array(cells + 1);
+  for (let c = 0; c < cells; c++) {
+    start[c + 1] = start[c] + (lists[c]?.length ?? 0) / 2;
+    cell[8 * c + 6] = start[c];
+    cell[8 * c + 7] = start[c + 1];
+  }
+  const le = new Int32Array(listed),
+    lf = new Int32Array(listed);
+  for (let c = 0; c < cells; c++) {
+    const list = lists[c];
+    if (!list) continue;
+    for (let k = 0; k < list.length; k += 2) {
+      le[start[c] + k / 2] = list[k];
+      lf[start[c] + k / 2] = list[k + 1];
+    }
+  }
+
+  /** g(v) for v_y ≥ 0 within reach: the cell's polynomial and its listed pairs (edge-translation.ts's terms). */
+  const inside = (dx: number, dy: number): number => {
+    let ix = Math.floor((dx + reach) * invH),
+      iy = Math.floor(dy * invH);
+    if (ix >= gx) ix = gx - 1;
+    else if (ix < 0) ix = 0;
+    if (iy >= gy) iy = gy - 1;
+    const c = iy * gx + ix;
+    const o = 8 * c;
+    const total =
+      cell[o] + dx * (cell[o + 1] + cell[o + 3] * dx + cell[o + 4] * dy) + dy * (cell[o + 2] + cell[o + 5] * dy);
+    return cell[o + 6] === cell[o + 7] ? total : total + listedTerms(c, dx, dy);
+  };
+
+  /** The listed pairs of cell c at v (v_y ≥ 0): edge-translation.ts's terms, base y = 0. */
+  const listedTerms = (c: number, dx: number, dy: number): number => {
+    let total = 0;
+    for (let k = start[c], end = start[c + 1]; k < end; k++) {
+      const e = le[k],
+        f = lf[k];
+      const ea = x0[e],
+        eb = x1[e];
+      const fa = x0[f] + dx;
+      const fb = x1[f] + dx;
+      const xl = ea > fa ? ea : fa;
+      const xr = eb < fb ? eb : fb;
+      if (xr <= xl) continue;
+      const ey = y0[e],
+        es = slope[e],
+        fy = y0[f] + dy,
+        fs = slope[f];
+      const el = ey + es * (xl - ea),
+        er = ey + es * (xr - ea);
+      const gl = fy + fs * (xl - fa),
+        gr = fy + fs * (xr - fa);
+      const dl = el - gl,
+        dr = er - gr;
+      let area: number;
+      if ((dl <= 0 && dr <= 0) || (dl >= 0 && dr >= 0)) {
+        const lowL = dl <= 0 && dr <= 0 ? el : gl;
+        const lowR = dl <= 0 && dr <= 0 ? er : gr;
+        area = ((xr - xl) * (lowL + lowR)) / 2;
+      } else {
+        const xc = xl + ((xr - xl) * dl) / (dl - dr);
+        const yc = ey + es * (xc - ea);
+        const lowL = dl < 0 ? el : gl;
+        const lowR = dr < 0 ? er : gr;
+        area = ((xc - xl) * (lowL + yc)) / 2 + ((xr - xc) * (lowR + yc)) / 2;
+      }
+      total += sigma[e] * sigma[f] * area;
+    }
+    return total;
+  };
+
+  const at = (dx: number, dy: number): number => {
+    if (dy < 0 || (dy === 0 && dx < 0)) {
+      dx = -dx;
+      dy = -dy;
+    }
+    if (dx < -reach || dx > reach || dy > reach) return setCovariance(window, dx, dy);
+    return inside(dx, dy);
+  };
+
+  const pairWeights: SetCovarianceTable["pairWeights"] = (ax, ay, bx, by, pairs, out) => {
+    const w = out && out.length >= pairs.count ? out : new Float64Array(pairs.count);
+    const area = window.area;
+    const floor = 1e-12 * area;
+    const pi = pairs.i,
+      pj = pairs.j;
+    for (let p = 0, count = pairs.count; p < count; p++) {
+      const i = pi[p],
+        j = pj[p];
+      let dx = bx[j] - ax[i],
+        dy = by[j] - ay[i];
+      if (dy < 0 || (dy === 0 && dx < 0)) {
+        dx = -dx;
+        dy = -dy;
+      }
+      let overlap: number;
+      if (dx < -reach || dx > reach || dy > reach) overlap = setCovariance(window, dx, dy);
+      else {
+        let ix = Math.floor((dx + reach) * invH),
+          iy = Math.floor(dy * invH);
+        if (ix >= gx) ix = gx - 1;
+        else if (ix < 0) ix = 0;
+        if (iy >= gy) iy = gy - 1;
+        const c = iy * gx + ix;
+        const o = 8 * c;
+        overlap =
+          cell[o] + dx * (cell[o + 1] + cell[o + 3] * dx + cell[o + 4] * dy) + dy * (cell[o + 2] + cell[o + 5] * dy);
+        if (cell[o + 6] !== cell[o + 7]) overlap += listedTerms(c, dx, dy);
+      }
+      w[p] = area / (overlap > floor ? overlap : floor);
+    }
+    return w;
+  };
+
+  return { reach, at, pairWeights, cells, listed, cell, gx, gy, invH, listedTerms };
+}
