@@ -16,6 +16,7 @@ import {
   unique,
   uniqueIndex,
   uuid,
+  type AnyPgColumn,
 } from "drizzle-orm/pg-core";
 
 /** Site roles (product.md "Who uses it"). A person can hold a different role on each site. */
@@ -56,6 +57,16 @@ export const sampleTypeEnum = pgEnum("sample_type", [
 ]);
 /** Where a sample stands after it left the ground. */
 export const sampleStatusEnum = pgEnum("sample_status", ["taken", "processing", "processed", "sent", "discarded"]);
+/** Where a find stands after it left the ground (lib/schemas/processing.ts names each on screen). */
+export const findProcessingEnum = pgEnum("find_processing", [
+  "lifted",
+  "washed",
+  "marked",
+  "bagged",
+  "boxed",
+  "sent",
+  "returned",
+]);
 
 const created = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
 const updated = () => timestamp("updated_at", { withTimezone: true }).notNull().defaultNow();
@@ -305,10 +316,17 @@ export const finds = pgTable(
     recordedAt: timestamp("recorded_at", { withTimezone: true }).notNull().defaultNow(),
     /** Raised by every change: an edit made on an older version is refused, never applied over this one. */
     version: integer("version").notNull().default(1),
+    /** After the trench: washed, marked, bagged, boxed, sent to a specialist (named in sentTo), returned. */
+    processing: findProcessingEnum("processing").notNull().default("lifted"),
+    sentTo: text("sent_to").notNull().default(""),
+    boxId: uuid("box_id").references((): AnyPgColumn => boxes.id, { onDelete: "restrict" }),
+    /** Where it is kept when not in a box, or where in the store its box is not enough to say. */
+    location: text("location").notNull().default(""),
     updatedAt: updated(),
   },
   (t) => [
     uniqueIndex("finds_site_number").on(t.siteId, t.number),
+    index("finds_box").on(t.boxId),
     index("finds_context").on(t.contextId),
     index("finds_class").on(t.classId),
     index("finds_trench").on(t.trenchId),
@@ -463,11 +481,17 @@ export const samples = pgTable(
     takenBy: uuid("taken_by").references(() => users.id),
     takenOn: date("taken_on").notNull(),
     status: sampleStatusEnum("status").notNull().default("taken"),
+    boxId: uuid("box_id").references((): AnyPgColumn => boxes.id, { onDelete: "restrict" }),
+    location: text("location").notNull().default(""),
     recordedBy: uuid("recorded_by").references(() => users.id),
     createdAt: created(),
     updatedAt: updated(),
   },
-  (t) => [uniqueIndex("samples_site_number").on(t.siteId, t.number), index("samples_context").on(t.contextId)],
+  (t) => [
+    uniqueIndex("samples_site_number").on(t.siteId, t.number),
+    index("samples_context").on(t.contextId),
+    index("samples_box").on(t.boxId),
+  ],
 );
 
 export type Sample = typeof samples.$inferSelect;
@@ -740,3 +764,24 @@ export const drawingContexts = pgTable(
 );
 
 export type Drawing = typeof drawings.$inferSelect;
+
+/** The finds store's boxes: numbered per site, kept in a store; their contents are the finds and samples in them. */
+export const boxes = pgTable(
+  "boxes",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    number: integer("number").notNull(),
+    /** The store and the place in it (a building, a room, a bay or shelf). */
+    store: text("store").notNull().default(""),
+    note: text("note").notNull().default(""),
+    createdBy: uuid("created_by").references(() => users.id),
+    createdAt: created(),
+    updatedAt: updated(),
+  },
+  (t) => [uniqueIndex("boxes_site_number").on(t.siteId, t.number)],
+);
+
+export type Box = typeof boxes.$inferSelect;

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { drawingKinds } from "@/lib/schemas/drawing";
 import { sampleStatuses, sampleTypes } from "@/lib/schemas/sample";
+import { findProcessingStates } from "@/lib/schemas/processing";
 import { wireDate } from "./operation";
 
 /** What the archive registers' operations answer (samples; labels and bulk edits add theirs here). */
@@ -25,18 +26,23 @@ export const sampleRecord = z.object({
   purpose: z.string(),
   takenBy: id.nullable(),
   takenOn: z.string(),
+  /** The box it is in and where it is kept (after the trench). */
+  boxId: id.nullable().optional(),
+  location: z.string().optional(),
   updatedAt: wireDate,
 });
 
 /** One row of the samples register: the sample with its trench, context and spit, the taker's name. */
-export const sampleRow = sampleRecord.omit({ takenBy: true, updatedAt: true, spit: true }).extend({
-  takenById: id.nullable(),
-  takenBy: z.string().nullable(),
-  trenchCode: z.string(),
-  contextNumber: z.number(),
-  contextState: z.enum(["open", "awaiting", "signed_off"]),
-  spitNumber: z.number().nullable(),
-});
+export const sampleRow = sampleRecord
+  .omit({ takenBy: true, updatedAt: true, spit: true, boxId: true, location: true })
+  .extend({
+    takenById: id.nullable(),
+    takenBy: z.string().nullable(),
+    trenchCode: z.string(),
+    contextNumber: z.number(),
+    contextState: z.enum(["open", "awaiting", "signed_off"]),
+    spitNumber: z.number().nullable(),
+  });
 
 export const samplePage = z.object({
   page: z.number(),
@@ -52,7 +58,7 @@ export type SampleRow = z.output<typeof sampleRow>;
 
 /** What a bulk edit of finds did: how many changed, and their numbers. */
 export const bulkDone = z.object({
-  action: z.enum(["move", "reclass", "delete"]),
+  action: z.enum(["move", "reclass", "delete", "process"]),
   changed: z.number(),
   numbers: z.array(z.number()),
 });
@@ -96,3 +102,53 @@ export const drawingPage = z.object({
 });
 export const deletedDrawing = z.object({ deleted: id, number: z.number() });
 export type DrawingRow = z.output<typeof drawingRow>;
+
+/** A box of the finds store as stored. */
+export const boxRecord = z.object({
+  id,
+  number: z.number(),
+  store: z.string(),
+  note: z.string(),
+  updatedAt: wireDate,
+});
+export const boxPage = z.object({
+  page: z.number(),
+  pageSize: z.number(),
+  total: z.number(),
+  rows: z.array(
+    z.object({ id, number: z.number(), store: z.string(), note: z.string(), finds: z.number(), samples: z.number() }),
+  ),
+});
+/** A box with what is in it: its finds and samples, in number order. */
+export const boxWithContents = boxRecord.extend({
+  finds: z.array(
+    z.object({
+      id,
+      number: z.number(),
+      classCode: z.string(),
+      classLabel: z.string(),
+      contextNumber: z.number(),
+      trenchCode: z.string(),
+      processing: z.enum(findProcessingStates),
+    }),
+  ),
+  samples: z.array(
+    z.object({
+      id,
+      number: z.number(),
+      type: z.enum(sampleTypes),
+      typeLabel: z.string(),
+      contextNumber: z.number(),
+      trenchCode: z.string(),
+      status: z.enum(sampleStatuses),
+    }),
+  ),
+});
+export const samplesStored = z.object({
+  changed: z.number(),
+  numbers: z.array(z.number()),
+  boxNumber: z.number().nullable(),
+});
+/** The ids of every find the register's filters select (for "select all that match"). */
+export const findIdsAnswer = z.object({ total: z.number(), ids: z.array(id), truncated: z.boolean() });
+export type BoxWithContents = z.output<typeof boxWithContents>;

@@ -2,6 +2,7 @@ import { z } from "zod";
 import type { PhotoView } from "@/lib/geometry/photo-fit-input";
 import { roleSchema } from "@/lib/schemas/common";
 import { importMappingSchema } from "@/lib/schemas/import";
+import { findProcessingStates } from "@/lib/schemas/processing";
 import { relationKinds, relationReadings } from "@/lib/schemas/relation";
 import { wireDate } from "./operation";
 
@@ -34,6 +35,11 @@ export const findRecord = z.object({
   recordedBy: id.nullable(),
   /** Raised by every change; an edit sends the version it was made on as If-Match. */
   version: z.number().int(),
+  /** After the trench (lib/schemas/processing.ts); absent from answers made on a device. */
+  processing: z.enum(findProcessingStates).optional(),
+  sentTo: z.string().optional(),
+  boxId: id.nullable().optional(),
+  location: z.string().optional(),
 });
 
 /** A find as saved, with a warning (not a refusal) when its level lies outside its context's recorded top and base. */
@@ -49,6 +55,7 @@ export const registerRow = findRecord.extend({
   classLabel: z.string(),
   classColour: z.string(),
   classSymbol: z.string(),
+  boxNumber: z.number().nullable().optional(),
 });
 
 export const findPage = z.object({

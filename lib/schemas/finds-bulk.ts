@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { uuid } from "./common";
+import { checkProcessing, processingFields } from "./processing";
 
 /** The most finds one bulk edit changes (a whole context's worth, several times over). */
 export const MAX_BULK_FINDS = 5000;
@@ -38,8 +39,13 @@ export const findsBulkSchema = z.discriminatedUnion(
           .max(500, "A reason is at most 500 characters."),
       })
       .strict(),
+    // After the trench: washed, marked, bagged, boxed, sent out, returned; and where they are kept.
+    z
+      .object({ action: z.literal("process"), findIds, ...processingFields })
+      .strict()
+      .superRefine(checkProcessing),
   ],
-  { error: "Choose what to do: move, reclass or delete." },
+  { error: "Choose what to do: move, reclass, delete or process." },
 );
 
 export type FindsBulk = z.infer<typeof findsBulkSchema>;

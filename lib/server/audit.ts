@@ -25,6 +25,7 @@ export type AuditInput = {
     | "section"
     | "sample"
     | "drawing"
+    | "box"
     | "number_block"
     | "operation";
   recordId: string;

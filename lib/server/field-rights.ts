@@ -95,6 +95,8 @@ export const fieldRights = {
     drawnBy: recorders,
     drawnOn: recorders,
   },
+  // The finds store is kept by whoever processes finds: diggers, specialists and the director alike.
+  box: { number: everyone, store: everyone, note: everyone },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
@@ -111,6 +113,7 @@ const recordWords: Record<RightsRecord, string> = {
   spit: "a spit",
   sample: "a sample",
   drawing: "a drawing",
+  box: "a box",
 };
 
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */

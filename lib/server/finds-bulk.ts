@@ -1,10 +1,11 @@
 import "server-only";
-import { and, eq, inArray } from "drizzle-orm";
+import { and, eq, inArray, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
 import { artefactClasses, contexts, finds, type Context, type Find } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import type { FindsBulk } from "@/lib/schemas/finds-bulk";
 import { recordAudit } from "./audit";
+import { processFinds } from "./find-processing";
 import { getContext } from "./contexts";
 import { PublicError, badInput, forbidden, notFound } from "./errors";
 import { assertContextWritable } from "./locks";
@@ -13,7 +14,7 @@ import { getTrench } from "./trenches";
 
 export type BulkRefusal = { findId: string; number: number; reason: string };
 
-const verbs = { move: "moved", reclass: "re-classed", delete: "deleted" } as const;
+const verbs = { move: "moved", reclass: "re-classed", delete: "deleted", process: "changed" } as const;
 
 /** The refusal of the whole edit, naming every find that stopped it and why. */
 function refuseAll(action: FindsBulk["action"], refused: BulkRefusal[], status: 403 | 409 | 400 = 409): PublicError {
@@ -41,10 +42,11 @@ async function lockReason(tx: Tx, context: Context): Promise<string | null> {
 /**
  * One change to many finds (moved to another context, re-classed, deleted with a reason), all or nothing: if
  * any find is locked, not this person's to change, outside the target trench or not on this site, nothing
- * changes and the refusal names each such find. Every find changed gets its own audit entry.
+ * changes and the refusal names each such find. Every find changed gets its own audit entry and a new version.
+ * Processing and storage (`process`) come after the trench and follow their own rules (find-processing.ts).
  */
 export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) {
-  if (input.action !== "reclass" && actor.role === "specialist") {
+  if ((input.action === "move" || input.action === "delete") && actor.role === "specialist") {
     throw forbidden(
       `A specialist may re-class finds but not ${input.action === "move" ? "move" : "delete"} them; it needs the role digger or director. Nothing was changed.`,
     );
@@ -64,6 +66,7 @@ export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) 
       );
     }
     rows.sort((a, b) => a.number - b.number);
+    if (input.action === "process") return processFinds(tx, actor, input, rows);
     const refused: BulkRefusal[] = [];
     const ctxIds = [...new Set(rows.map((r) => r.contextId))];
     const ctxRows = await tx.select().from(contexts).where(inArray(contexts.id, ctxIds));
@@ -126,7 +129,7 @@ async function outsideTarget(tx: Tx, siteId: string, target: Context, rows: Find
   return out;
 }
 
-async function apply(tx: Tx, actor: SiteActor, input: FindsBulk, rows: Find[]) {
+async function apply(tx: Tx, actor: SiteActor, input: Exclude<FindsBulk, { action: "process" }>, rows: Find[]) {
   const ids = rows.map((r) => r.id);
   const audit = (recordId: string, action: string, before: unknown, after?: unknown, reason?: string) =>
     recordAudit(tx, {
@@ -149,9 +152,10 @@ async function apply(tx: Tx, actor: SiteActor, input: FindsBulk, rows: Find[]) {
       ? {
           contextId: input.contextId,
           trenchId: (await getContext(tx, actor.site.id, input.contextId)).trenchId,
+          version: sql`${finds.version} + 1`,
           updatedAt: new Date(),
         }
-      : { classId: input.classId, updatedAt: new Date() };
+      : { classId: input.classId, version: sql`${finds.version} + 1`, updatedAt: new Date() };
   const after = await tx.update(finds).set(set).where(inArray(finds.id, ids)).returning();
   const byId = new Map(after.map((a) => [a.id, a]));
   for (const f of rows) await audit(f.id, "update", f, byId.get(f.id));

@@ -3,7 +3,7 @@ import { levelOutsideContext } from "@/lib/levels/context-range";
 import { contextRanges } from "./import/lookups";
 import { and, asc, desc, eq, gt, gte, ilike, inArray, lte, or, sql, type SQL } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, finds, trenches, users, type Find } from "@/db/schema";
+import { artefactClasses, boxes, contexts, finds, trenches, users, type Find } from "@/db/schema";
 import { isUuid } from "@/lib/schemas/common";
 import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
@@ -240,12 +240,15 @@ function registerQuery(db: Db, siteId: string, q: FindFilters) {
       classLabel: artefactClasses.label,
       classColour: artefactClasses.colour,
       classSymbol: artefactClasses.symbol,
+      processing: finds.processing,
+      boxNumber: boxes.number,
     })
     .from(finds)
     .innerJoin(contexts, eq(contexts.id, finds.contextId))
     .innerJoin(trenches, eq(trenches.id, finds.trenchId))
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
     .leftJoin(users, eq(users.id, finds.recordedBy))
+    .leftJoin(boxes, eq(boxes.id, finds.boxId))
     .where(registerFilter(siteId, q))
     .orderBy(order, asc(finds.number))
     .$dynamic();
@@ -306,6 +309,19 @@ export async function* findsByNumber(
     if (rows.length < pageSize) return;
     after = rows[rows.length - 1]!.number;
   }
+}
+
+/**
+ * The ids of every find the register's filters select, in number order, up to `limit` (a bulk edit's most):
+ * what "select all that match" picks.
+ */
+export async function findIdsMatching(db: Db, siteId: string, q: FindFilters, limit: number) {
+  const filter = registerFilter(siteId, q);
+  const [rows, total] = await Promise.all([
+    db.select({ id: finds.id }).from(finds).where(filter).orderBy(asc(finds.number)).limit(limit),
+    countFinds(db, filter),
+  ]);
+  return { total, ids: rows.map((r) => r.id), truncated: total > rows.length };
 }
 
 async function countFinds(db: Db, filter: SQL | undefined): Promise<number> {

@@ -19,6 +19,7 @@ const recordOf: Record<string, RightsRecord> = {
   spitUpdate: "spit",
   sampleUpdate: "sample",
   drawingUpdate: "drawing",
+  boxUpdate: "box",
 };
 
 const roles = ["digger", "specialist", "director"] as const;

@@ -129,6 +129,8 @@ describe("bulk edits of finds: all or nothing", () => {
     );
     expect(reclassed.status).toBe(200);
     expect((await rows(ids)).every((f) => f.classId === cls!.id)).toBe(true);
+    // Moved, then re-classed: each change raised the version, so an edit made offline on version 1 is stale.
+    expect((await rows(ids)).map((f) => f.version)).toEqual([3, 3, 3]);
     // A specialist classes finds; moving or deleting them is refused whole.
     const notTheirs = await call(
       bulkRoute,

@@ -15,6 +15,7 @@ import * as datumRoute from "@/app/api/sites/[siteId]/datum/route";
 import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkId]/route";
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
+import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import { makeSite, makeUser, type SiteFixture } from "./fixtures";
 
@@ -365,6 +366,23 @@ updatables.drawingUpdate = {
     title: text(),
     drawnBy: fc.constantFrom(null, fx.people.digger.id, fx.people.director.id),
     drawnOn: fc.integer({ min: 1, max: 30 }).map((d) => `2026-06-${String(d).padStart(2, "0")}`),
+  }),
+};
+
+updatables.boxUpdate = {
+  mod: boxRoute,
+  target: async (fx) => {
+    const db = await getDb();
+    const [b] = await db
+      .insert(schema.boxes)
+      .values({ siteId: fx.site.id, number: 800_000 + unique(), store: "Finds store, bay 1" })
+      .returning();
+    return { params: { siteId: fx.site.id, boxId: b!.id }, read: () => rowOf(schema.boxes, b!.id) };
+  },
+  fields: () => ({
+    number: fc.integer({ min: 1, max: 999_999 }),
+    store: text(),
+    note: text(),
   }),
 };
 

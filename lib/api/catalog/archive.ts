@@ -7,6 +7,8 @@ import {
   sampleUpdateSchema,
 } from "@/lib/schemas/sample";
 import { findsBulkSchema } from "@/lib/schemas/finds-bulk";
+import { findListQuery } from "@/lib/schemas/find";
+import { boxCreateSchema, boxListQuery, boxUpdateSchema, samplesStoreSchema } from "@/lib/schemas/processing";
 import { depositionQuery } from "@/lib/schemas/export";
 import { directorOnly, everyone, recorders, type ApiOperation } from "../operation";
 import {
@@ -17,6 +19,11 @@ import {
   exportDrawingsQuery,
 } from "@/lib/schemas/drawing";
 import {
+  boxPage,
+  boxRecord,
+  boxWithContents,
+  findIdsAnswer,
+  samplesStored,
   bulkDone,
   deletedDrawing,
   deletedSample,
@@ -150,10 +157,65 @@ export const archiveApi = {
   findsBulk: {
     method: "POST",
     path: "/api/sites/{siteId}/finds/bulk",
-    summary: "Move, re-class or delete many finds at once, all or nothing (specialists re-class only)",
+    summary:
+      "Move, re-class, delete or process many finds at once, all or nothing (specialists re-class and process only)",
     roles: everyone,
     doing: "change finds",
     input: findsBulkSchema,
     response: bulkDone,
+  },
+  findIds: {
+    method: "GET",
+    path: "/api/sites/{siteId}/finds/ids",
+    summary: "The ids of every find the register's filters select (select all that match), up to a bulk edit's most",
+    roles: "member",
+    input: findListQuery.omit({ page: true, pageSize: true }),
+    from: "query",
+    response: findIdsAnswer,
+  },
+  samplesStore: {
+    method: "POST",
+    path: "/api/sites/{siteId}/samples/store",
+    summary: "Put one or many samples in a box (or take them out) or give where they are kept, all or nothing",
+    roles: everyone,
+    doing: "record where samples are kept",
+    input: samplesStoreSchema,
+    response: samplesStored,
+  },
+  boxesList: {
+    method: "GET",
+    path: "/api/sites/{siteId}/boxes",
+    summary: "Box register: the finds store's boxes with how many finds and samples each holds; page",
+    roles: "member",
+    input: boxListQuery,
+    from: "query",
+    response: boxPage,
+  },
+  boxesCreate: {
+    method: "POST",
+    path: "/api/sites/{siteId}/boxes",
+    summary: "Add a box to the register (the next number unless one is given)",
+    roles: everyone,
+    doing: "add boxes",
+    input: boxCreateSchema,
+    response: boxRecord,
+    successStatus: 201,
+  },
+  boxRead: {
+    method: "GET",
+    path: "/api/sites/{siteId}/boxes/{boxId}",
+    summary: "One box with its contents: the finds and samples in it",
+    roles: "member",
+    from: "none",
+    response: boxWithContents,
+  },
+  boxUpdate: {
+    method: "PATCH",
+    path: "/api/sites/{siteId}/boxes/{boxId}",
+    summary: "Change a box's number, store or note",
+    roles: everyone,
+    doing: "change boxes",
+    input: boxUpdateSchema,
+    response: boxRecord,
   },
 } as const satisfies Record<string, ApiOperation>;

@@ -8,7 +8,20 @@ import * as sampleStatusRoute from "@/app/api/sites/[siteId]/samples/status/rout
 import * as drawingsRoute from "@/app/api/sites/[siteId]/drawings/route";
 import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
+import * as samplesStoreRoute from "@/app/api/sites/[siteId]/samples/store/route";
+import * as boxesRoute from "@/app/api/sites/[siteId]/boxes/route";
+import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
 import { insertFind } from "./core";
+
+/** A box of the fixture's site, inserted directly so only the call under test writes. */
+export async function makeBox(fx: SiteFixture, store = "Finds store, bay 2") {
+  const db = await getDb();
+  const [b] = await db
+    .insert(schema.boxes)
+    .values({ siteId: fx.site.id, number: 90_000 + nextCount(), store })
+    .returning();
+  return b!;
+}
 
 /** A sample of the fixture's context (or another), inserted directly so only the call under test writes. */
 export async function makeSample(fx: SiteFixture, contextId = fx.context.id) {
@@ -104,5 +117,14 @@ export const archiveCases: RoleCases = {
       params: { siteId: fx.site.id },
       body: { action: "reclass", findIds: [a.id, b.id], classId: cls!.id },
     };
+  },
+  samplesStore: async (fx) => {
+    const [s, b] = [await makeSample(fx), await makeBox(fx)];
+    return { mod: samplesStoreRoute, params: { siteId: fx.site.id }, body: { sampleIds: [s.id], boxId: b.id } };
+  },
+  boxesCreate: async (fx) => ({ mod: boxesRoute, params: { siteId: fx.site.id }, body: { store: "Finds store" } }),
+  boxUpdate: async (fx) => {
+    const b = await makeBox(fx);
+    return { mod: boxRoute, params: { siteId: fx.site.id, boxId: b.id }, body: { store: "Museum store, shelf 4" } };
   },
 };
