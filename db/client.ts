@@ -19,7 +19,7 @@ type Listen = (
   onPayload: (payload: string) => void,
   onReconnect: () => void,
 ) => Promise<() => Promise<void>>;
-type Holder = { ready?: Promise<Db>; close?: () => Promise<void>; listen?: Listen };
+type Holder = { ready?: Promise<Db>; close?: () => Promise<void>; listen?: Listen; pglite?: PGlite };
 const holder: Holder = ((globalThis as Record<string, unknown>).__loamworkDb ??= {}) as Holder;
 
 const migrationsFolder = path.join(process.cwd(), "drizzle");
@@ -75,6 +75,7 @@ async function open(): Promise<Db> {
   const db = drizzlePglite(client, { schema });
   await migratePglite(db, { migrationsFolder });
   holder.listen = (channel, onPayload) => client.listen(channel, onPayload);
+  holder.pglite = client;
   holder.close = () => client.close();
   return db;
 }
@@ -104,11 +105,18 @@ export async function listen(
   return holder.listen(channel, onPayload, onReconnect);
 }
 
+/** The embedded database's own client (backups dump its data folder through it); null on a PostgreSQL server. */
+export async function embeddedClient(): Promise<PGlite | null> {
+  await getDb();
+  return holder.pglite ?? null;
+}
+
 export async function closeDb(): Promise<void> {
   const close = holder.close;
   holder.ready = undefined;
   holder.close = undefined;
   holder.listen = undefined;
+  holder.pglite = undefined;
   if (close) await close();
 }
 

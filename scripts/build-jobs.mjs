@@ -4,7 +4,9 @@
  * (tsx, TypeScript) that development uses to run them from source:
  *   dist/sim-worker-entry.mjs  the simulation worker threads (piscina), for the server and the run worker;
  *   dist/worker.mjs            `npm run worker`, the pg-boss run worker for PostgreSQL deployments;
- *   dist/seed-demo.mjs         `npm run seed`, the demo site.
+ *   dist/seed-demo.mjs         `npm run seed`, the demo site;
+ *   dist/backup.mjs            `npm run backup -- FILE`, the database and files store in one archive;
+ *   dist/restore.mjs           `npm run restore -- FILE`, that archive back into a fresh install.
  * Packages stay outside the bundles (they are the production dependencies, installed beside them), except
  * "server-only", whose guard means nothing outside a React bundle.
  */
@@ -25,6 +27,8 @@ await build({
     "sim-worker-entry": "lib/server/jobs/sim-worker.ts",
     worker: "scripts/worker.ts",
     "seed-demo": "scripts/seed-demo.ts",
+    backup: "scripts/backup.ts",
+    restore: "scripts/restore.ts",
   },
   outdir: "dist",
   outExtension: { ".js": ".mjs" },
@@ -38,4 +42,4 @@ await build({
   sourcemap: true,
   logLevel: "warning",
 });
-console.log("Compiled the run worker, the simulation threads and the seed into dist/.");
+console.log("Compiled the run worker, the simulation threads, the seed, backup and restore into dist/.");

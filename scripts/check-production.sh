@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # A deployment needs no dev tools: on a copy of the repository, install everything, `npm run build`, prune
-# the dev dependencies (`npm prune --omit=dev`), then seed the demo, start the server and run one analysis
-# through the HTTP API to its result — the simulation threads run from the JavaScript the build compiled.
+# the dev dependencies (`npm prune --omit=dev`), then seed the demo, back it up and restore it into a fresh
+# install, start the server on the restored one and run one analysis through the HTTP API to its result —
+# the simulation threads, the seed, backup and restore all run from the JavaScript the build compiled.
 # With PostgreSQL binaries present, the same run goes a second time through pg-boss to `npm run worker`.
 set -euo pipefail
 src="$(cd "$(dirname "$0")/.." && pwd)"
@@ -65,9 +66,14 @@ serve_and_run() {
 echo "-- embedded database: seed, serve, one run in the server's own simulation threads"
 export LOAMWORK_DATA_DIR="$work/pglite"
 npm run seed >"$work/seed.log" 2>&1 || { tail -30 "$work/seed.log"; exit 1; }
+echo "-- backup of the seeded database and files, restored into a fresh install that the server then runs on"
+npm run backup -- "$work/backup.tar.gz" >"$work/backup.log" 2>&1 || { tail -30 "$work/backup.log"; exit 1; }
+export LOAMWORK_DATA_DIR="$work/pglite-restored" LOAMWORK_FILES_DIR="$work/files-restored"
+npm run restore -- "$work/backup.tar.gz" >"$work/restore.log" 2>&1 || { tail -30 "$work/restore.log"; exit 1; }
 serve_and_run
 kill "${pids[-1]}"; wait "${pids[-1]}" 2>/dev/null || true; unset 'pids[-1]'
 unset LOAMWORK_DATA_DIR
+export LOAMWORK_FILES_DIR="$work/files"
 
 bin=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1 || true)
 if [ -z "$bin" ] || [ ! -x "$bin/initdb" ]; then
@@ -85,6 +91,11 @@ pg_stop="stop_pg"
 stop_pg() { as_pg "$bin/pg_ctl" -D "$pg/data" -m fast -w stop >/dev/null 2>&1 || true; rm -rf "$pg"; }
 export DATABASE_URL="postgres://loamwork@127.0.0.1:$pg_port/postgres"
 npm run seed >"$work/seed-pg.log" 2>&1 || { tail -30 "$work/seed-pg.log"; exit 1; }
+echo "-- PostgreSQL: backup through pg_dump, restored into an empty database"
+npm run backup -- "$work/backup-pg.tar.gz" >"$work/backup-pg.log" 2>&1 || { tail -30 "$work/backup-pg.log"; exit 1; }
+as_pg "$bin/createdb" -h 127.0.0.1 -p "$pg_port" -U loamwork restored
+DATABASE_URL="postgres://loamwork@127.0.0.1:$pg_port/restored" LOAMWORK_FILES_DIR="$work/files-restored-pg" \
+  npm run restore -- "$work/backup-pg.tar.gz" >"$work/restore-pg.log" 2>&1 || { tail -30 "$work/restore-pg.log"; exit 1; }
 npm run worker >"$work/worker.log" 2>&1 &
 pids+=($!)
 serve_and_run || { tail -30 "$work/worker.log"; exit 1; }
