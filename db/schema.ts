@@ -1,5 +1,6 @@
 import { sql } from "drizzle-orm";
 import {
+  bigint,
   bigserial,
   boolean,
   date,
@@ -785,3 +786,38 @@ export const boxes = pgTable(
 );
 
 export type Box = typeof boxes.$inferSelect;
+
+export const packageStatusEnum = pgEnum("package_status", ["queued", "running", "done", "failed"]);
+
+/**
+ * A deposition package being written, or written, as a job: its progress in files, and once done the
+ * zip's place in the file store, its size and its fingerprint (the SHA-256 of its manifest-sha256.txt).
+ */
+export const depositionPackages = pgTable(
+  "deposition_packages",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    /** null = the whole site. */
+    trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "cascade" }),
+    status: packageStatusEnum("status").notNull().default("queued"),
+    filesDone: integer("files_done").notNull().default(0),
+    filesTotal: integer("files_total").notNull().default(0),
+    /** The zip's name as downloaded. */
+    fileName: text("file_name"),
+    /** Relative to the file store; set once the zip is complete. */
+    filePath: text("file_path"),
+    bytes: bigint("bytes", { mode: "number" }),
+    fingerprint: text("fingerprint"),
+    error: text("error"),
+    createdBy: uuid("created_by").references(() => users.id),
+    createdAt: created(),
+    startedAt: timestamp("started_at", { withTimezone: true }),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+  },
+  (t) => [index("deposition_packages_site").on(t.siteId)],
+);
+
+export type DepositionPackage = typeof depositionPackages.$inferSelect;

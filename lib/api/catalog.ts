@@ -3,6 +3,7 @@ import { archiveApi } from "./catalog/archive";
 import { coreApi } from "./catalog/core";
 import { levelsApi } from "./catalog/levels";
 import { offlineApi } from "./catalog/offline";
+import { packagesApi } from "./catalog/packages";
 import { patternsApi } from "./catalog/patterns";
 import { planApi } from "./catalog/plan";
 import { publicApi } from "./catalog/public";
@@ -27,6 +28,7 @@ export const api = {
   ...levelsApi,
   ...squaresApi,
   ...archiveApi,
+  ...packagesApi,
   ...offlineApi,
   ...publicApi,
 };

@@ -27,7 +27,8 @@ export type AuditInput = {
     | "drawing"
     | "box"
     | "number_block"
-    | "operation";
+    | "operation"
+    | "package";
   recordId: string;
   before?: unknown;
   after?: unknown;

@@ -9,6 +9,7 @@ import * as schema from "@/db/schema";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
 import { purgeExpiredIdempotencyKeys } from "@/lib/server/idempotency";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
+import { packagesIdle } from "@/lib/server/jobs/package-queue";
 import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
 import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
 import type { Prepared, RoleCases } from "./role-cases/types";
@@ -58,6 +59,7 @@ async function send(
   const req = new Request(url, { method, headers: { "content-type": "application/json", ...headers }, body });
   const res = await prepared.mod[method](req, { params: Promise.resolve(prepared.params) });
   await runsIdle();
+  await packagesIdle();
   return { status: res.status, text: await res.text(), replayed: res.headers.get("Idempotent-Replayed") };
 }
 

@@ -496,6 +496,7 @@ const outsideTheLock: Record<string, string> = {
   benchmarksCreate: "a new benchmark",
   benchmarkUpdate: "a benchmark's level is fixed once a run used it",
   benchmarkDelete: "refused once a run used it",
+  packagesCreate: "reads records, writes a package file; changes no record",
 };
 
 async function snapshot(): Promise<string> {

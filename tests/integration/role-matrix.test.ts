@@ -8,6 +8,7 @@ import { archiveCases } from "./role-cases/archive";
 import { coreCases } from "./role-cases/core";
 import { levelsCases } from "./role-cases/levels";
 import { offlineCases } from "./role-cases/offline";
+import { packagesCases } from "./role-cases/packages";
 import { patternsCases } from "./role-cases/patterns";
 import { planCases } from "./role-cases/plan";
 import { recordingCases } from "./role-cases/recording";
@@ -24,6 +25,7 @@ const writes = {
   ...squaresCases,
   ...archiveCases,
   ...offlineCases,
+  ...packagesCases,
 };
 
 /** Every row of every table except the append-only audit trail, as JSON, to prove a refusal changed nothing. */
@@ -46,6 +48,8 @@ async function snapshot(): Promise<string> {
   ];
   const parts = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));
+  // Packages are counted, not compared: a package started by an earlier case may still be writing progress.
+  parts.push(String((await db.select().from(schema.depositionPackages)).length));
   const audit = await db.select().from(schema.auditEntries);
   parts.push(String(audit.length));
   return parts.join("\n");

@@ -87,22 +87,25 @@ async function* findsGeoJsonChunks(db: Db, site: Site, trenchId: string | undefi
   yield utf8("]}");
 }
 
+/** A package is of the whole site (null) or of one signed-off trench (its code); any other trench is refused. */
+export async function packageTrenchCode(db: Db, site: Site, trenchId: string | undefined): Promise<string | null> {
+  if (!trenchId) return null;
+  const trench = await getTrench(db, site.id, trenchId);
+  if (!trench.signedOffAt)
+    throw badInput(
+      `Trench ${trench.code} is not signed off yet: export the whole site (its open records are marked), or sign off its last context first.`,
+      { trenchId: [`Trench ${trench.code} is not signed off yet.`] },
+    );
+  return trench.code;
+}
+
 /**
  * The deposition package (field.md, "The archive") of the whole site, or of one signed-off trench: the
  * registers, the matrix, GeoJSON (when the site is placed in a CRS), the photos, the analysis runs, and last
  * a readme that describes them all. Refuses a trench that is not signed off.
  */
 export async function planPackage(db: Db, site: Site, userId: string, trenchId?: string): Promise<PackagePlan> {
-  let trenchCode: string | null = null;
-  if (trenchId) {
-    const trench = await getTrench(db, site.id, trenchId);
-    if (!trench.signedOffAt)
-      throw badInput(
-        `Trench ${trench.code} is not signed off yet: export the whole site (its open records are marked), or sign off its last context first.`,
-        { trenchId: [`Trench ${trench.code} is not signed off yet.`] },
-      );
-    trenchCode = trench.code;
-  }
+  const trenchCode = await packageTrenchCode(db, site, trenchId);
   const exporter = (await userNames(db, [userId])).get(userId) ?? "a director";
   const exportedAt = new Date();
   const day = exportedAt.toISOString().slice(0, 10);

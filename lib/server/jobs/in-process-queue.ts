@@ -34,9 +34,9 @@ export async function startInProcessQueue(db: Db): Promise<RunQueue> {
  * A submitter may hand over what it already holds for the run (`hint`); it reaches the work function
  * only when the run starts at once, never after waiting behind others, when it would be out of date.
  */
-type RunWork<H> = (runId: string, signal: AbortSignal, hint?: H) => Promise<void>;
+export type RunWork<H> = (runId: string, signal: AbortSignal, hint?: H) => Promise<void>;
 
-class LocalRunQueue<H = unknown> {
+export class LocalRunQueue<H = unknown> {
   private readonly waiting: string[] = [];
   private readonly active = new Map<string, AbortController>();
   private readonly hints = new Map<string, H>();

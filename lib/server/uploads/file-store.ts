@@ -8,6 +8,11 @@ export function photoFolder(siteId: string, photoId: string): string {
   return path.posix.join("photos", siteId, photoId);
 }
 
+/** The file's place on disk, for reading or writing it as a stream (a package too large to hold). */
+export function storePath(relative: string): string {
+  return absolute(relative);
+}
+
 function absolute(relative: string): string {
   const root = path.resolve(env().LOAMWORK_FILES_DIR);
   const full = path.resolve(root, relative);

@@ -3,6 +3,7 @@ import type { Metadata } from "next";
 import { SiteNav } from "@/components/site-nav";
 import { SignOffNoticeProvider } from "@/components/sign-off/sign-off-notice";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
+import { PackagePanel } from "@/components/archive/package-panel";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
@@ -70,15 +71,6 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
                   >
                     Trench record report
                   </Link>
-                  {director && t.signedOffAt && (
-                    <a
-                      className="mt-1 ml-3 inline-flex min-h-11 items-center underline"
-                      href={`/api/sites/${siteId}/export/package?trenchId=${t.id}`}
-                      download
-                    >
-                      Deposition package of trench {t.code}
-                    </a>
-                  )}
                 </li>
               );
             })}
@@ -92,11 +84,14 @@ export default async function SignOffPage({ params }: { params: Promise<{ siteId
             <p className="mt-1 max-w-3xl text-sm text-ink-soft">
               The archive for a repository: a BagIt bag in one zip with every register as CSV, the matrix, the photos
               and the analysis runs, each file with its SHA-256. Records not yet signed off are marked so in every
-              register. Its fingerprint is written in bag-info.txt inside the zip.
+              register. A package of one trench waits for its sign-off. The package is written on the server (it goes on
+              if you leave this page); its fingerprint, the SHA-256 of its manifest, is stated in bag-info.txt and shown
+              here once it is written.
             </p>
-            <a className="btn mt-2" href={`/api/sites/${siteId}/export/package`} download>
-              Deposition package of the whole site
-            </a>
+            <PackagePanel
+              siteId={siteId}
+              signedOffTrenches={queue.trenches.filter((t) => t.signedOffAt).map((t) => ({ id: t.id, code: t.code }))}
+            />
           </section>
         )}
         <SignOffNoticeProvider>
