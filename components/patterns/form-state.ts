@@ -1,4 +1,4 @@
-import type { RunCreateInput, RunTest, SquareTest, SquareTestKind } from "@/lib/schemas/run";
+import type { RunCreateInput, RunTest, RunTestInput, SquareTest, SquareTestKind } from "@/lib/schemas/run";
 
 /** The workspace form: scope, tests with their options, shared parameters. Every default is changeable. */
 export type FormState = {
@@ -15,7 +15,7 @@ export type FormState = {
     alternative: "two-sided" | "clustered" | "regular";
   };
   quadrat: { on: boolean; cellSize: string };
-  lcsr: { on: boolean; statistic: "mad" | "dclf"; count: "fixed" | "poisson" };
+  lcsr: { on: boolean; statistic: "mad" | "dclf" | "rank"; count: "fixed" | "poisson" };
   pcf: { on: boolean };
   cross: { on: boolean; a: string; b: string; null: "random-labelling" | "a-fixed"; fun: "L" | "K" };
   kdiff: { on: boolean; a: string; b: string };
@@ -62,24 +62,40 @@ export function initialForm(trenchId: string): FormState {
 /** A typed level as a number when it is a plain decimal; otherwise as typed, so the server names the field. */
 const typedLevel = (s: string): unknown => (/^-?\d+(\.\d+)?$/.test(s.trim()) ? Number(s.trim()) : s.trim());
 
-/** The request body the run API takes (lib/schemas/run.ts). */
+/**
+ * The request body the run API takes (lib/schemas/run.ts): the engine's test descriptions, one for each
+ * chosen class where a test studies one class, each with the options the form shows and Loamwork's fixed
+ * choices for the rest (the between-class and g tests use the DCLF statistic with n fixed).
+ */
 export function toRequest(f: FormState): RunCreateInput {
-  const tests: RunTest[] = [];
-  if (f.clarkEvans.on)
-    tests.push({ kind: "clark-evans", correction: f.clarkEvans.correction, alternative: f.clarkEvans.alternative });
-  if (f.quadrat.on) tests.push({ kind: "quadrat", cellSize: Number(f.quadrat.cellSize) });
-  if (f.lcsr.on) tests.push({ kind: "l-envelope", statistic: f.lcsr.statistic, count: f.lcsr.count });
-  if (f.pcf.on) tests.push({ kind: "pcf-envelope" });
-  if (f.cross.on)
+  const tests: RunTestInput[] = [];
+  const each = (make: (classId: string) => RunTestInput) => f.classIds.forEach((c) => tests.push(make(c)));
+  // The engine's between-class estimators offer isotropic and translation; border falls back to isotropic.
+  const pair = f.correction === "translation" ? "translation" : "isotropic";
+  const { clarkEvans: ce, lcsr } = f;
+  if (ce.on) each((c) => ({ type: "clark-evans", class: c, correction: ce.correction, alternative: ce.alternative }));
+  if (f.quadrat.on) each((c) => ({ type: "quadrat", class: c, cellSize: Number(f.quadrat.cellSize) }));
+  if (lcsr.on)
+    each((c) => ({
+      type: "l-envelope",
+      class: c,
+      statistic: lcsr.statistic,
+      count: lcsr.count,
+      correction: f.correction,
+    }));
+  if (f.pcf.on) each((c) => ({ type: "pcf-envelope", class: c, count: "fixed", statistic: "dclf" }));
+  if (f.cross.on) {
+    const { a, b, null: nul, fun } = f.cross;
+    tests.push({ type: "cross-l", a, b, null: nul, fun, count: "fixed", correction: pair, statistic: "dclf" });
+  }
+  if (f.kdiff.on) tests.push({ type: "k-difference", a: f.kdiff.a, b: f.kdiff.b, correction: pair, statistic: "dclf" });
+  if (f.inhom.on)
     tests.push({
-      kind: "cross-l",
-      a: f.cross.a,
-      b: f.cross.b,
-      null: f.cross.null,
-      ...(f.cross.fun === "K" && { fun: "K" as const }),
+      type: "inhomogeneous-l",
+      class: f.inhom.classId,
+      ...(f.inhom.reference !== "all" && { reference: f.inhom.reference }),
+      statistic: "dclf",
     });
-  if (f.kdiff.on) tests.push({ kind: "k-difference", a: f.kdiff.a, b: f.kdiff.b });
-  if (f.inhom.on) tests.push({ kind: "inhomogeneous-l", classId: f.inhom.classId, reference: f.inhom.reference });
   const { kinds, neighbours, style, variable, minArea } = f.squares;
   const squareTests = kinds.map((kind) => ({ kind, neighbours, style, variable, minArea: Number(minArea) || 0 }));
   return {
@@ -94,7 +110,6 @@ export function toRequest(f: FormState): RunCreateInput {
     tests,
     ...(squareTests.length && { squareTests }),
     params: {
-      correction: f.correction,
       nsim: Number(f.nsim),
       level: Number(f.level),
       ...(f.rmax.trim() && { rmax: Number(f.rmax) }),
@@ -115,7 +130,8 @@ export function formFromRun(run: {
   };
   seed: number;
   params: {
-    correction: FormState["correction"];
+    /** Former-shape runs only; a run's tests carry their own correction. */
+    correction?: FormState["correction"];
     rmax: number;
     nsim: number;
     level: number;
@@ -130,15 +146,21 @@ export function formFromRun(run: {
   f.levelTo = run.scope.levelTo === undefined ? "" : String(run.scope.levelTo);
   f.spitIds = [...(run.scope.spitIds ?? [])];
   f.clarkEvans.on = f.lcsr.on = false;
+  let correction = run.params.correction;
   for (const t of run.params.tests) {
-    if (t.kind === "clark-evans") f.clarkEvans = { on: true, correction: t.correction, alternative: t.alternative };
-    if (t.kind === "quadrat") f.quadrat = { on: true, cellSize: String(t.cellSize) };
-    if (t.kind === "l-envelope") f.lcsr = { on: true, statistic: t.statistic, count: t.count };
-    if (t.kind === "pcf-envelope") f.pcf = { on: true };
-    if (t.kind === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null, fun: t.fun === "K" ? "K" : "L" };
-    if (t.kind === "k-difference") f.kdiff = { on: true, a: t.a, b: t.b };
-    if (t.kind === "inhomogeneous-l") f.inhom = { on: true, classId: t.classId, reference: t.reference };
+    if (t.type === "clark-evans") f.clarkEvans = { on: true, correction: t.correction, alternative: t.alternative };
+    if (t.type === "quadrat") f.quadrat = { on: true, cellSize: String(t.cellSize ?? 1) };
+    if (t.type === "l-envelope") {
+      f.lcsr = { on: true, statistic: t.statistic, count: t.count };
+      correction ??= t.correction;
+    }
+    if (t.type === "pcf-envelope") f.pcf = { on: true };
+    if (t.type === "cross-l") f.cross = { on: true, a: t.a, b: t.b, null: t.null, fun: t.fun };
+    if (t.type === "k-difference") f.kdiff = { on: true, a: t.a, b: t.b };
+    if (t.type === "inhomogeneous-l") f.inhom = { on: true, classId: t.class ?? "", reference: t.reference ?? "all" };
   }
+  // The pair tests know isotropic and translation only; with no L test they name the run's correction.
+  for (const t of run.params.tests) if (t.type === "cross-l" || t.type === "k-difference") correction ??= t.correction;
   const sq = run.params.squareTests ?? [];
   if (sq.length)
     f.squares = {
@@ -150,7 +172,7 @@ export function formFromRun(run: {
     };
   return {
     ...f,
-    correction: run.params.correction,
+    correction: correction ?? "isotropic",
     rmax: String(run.params.rmax),
     nsim: String(run.params.nsim),
     level: String(run.params.level),

@@ -52,7 +52,7 @@ export function RunsList({ runs, current, compare, onOpen, onToggleCompare }: Pr
                 {r.params.depth ? ` (${depthWords(r.params.depth)})` : ""} · {r.params.names.classes.join(" ")}
               </td>
               <td className="text-xs">
-                {[...new Set(r.params.tests.map((t) => t.kind))].join(", ")} · {r.params.nsim} sims
+                {[...new Set(r.params.tests.map((t) => t.type))].join(", ")} · {r.params.nsim} sims
               </td>
               <td className="num">{r.seed}</td>
               <td>

@@ -5,10 +5,12 @@ import type { VerticalSpread } from "@/lib/levels/vertical-spread";
 
 /** A run as the API returns it. `outOfDate` is computed on read from the fingerprint. Types only. */
 export type RunParamsStored = {
-  correction: "isotropic" | "translation" | "border";
+  /** Runs stored in the former shape only: the edge correction their tests shared (now on each test). */
+  correction?: "isotropic" | "translation" | "border";
   rmax: number;
   nsim: number;
   level: number;
+  /** The engine's test descriptions, classes named by record id (former-shape rows are read into this shape). */
   tests: RunTest[];
   /** Tests on counts by grid square (absent in runs stored before they existed). */
   squareTests?: SquareTest[];

@@ -62,7 +62,7 @@ export type LOut = Base & {
   kind: "l-envelope";
   classId: string;
   n: number;
-  statistic: "mad" | "dclf";
+  statistic: "mad" | "dclf" | "rank";
   count: "fixed" | "poisson";
   /** L(r) − r and its band. */
   curve: Curve;

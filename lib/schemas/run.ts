@@ -1,5 +1,7 @@
 import { z } from "zod";
 import "@/lib/schemas/messages";
+import { testSpecSchema, type TestSpec } from "@/lib/spatial/run/run-spec";
+import { formerTestSchema } from "./former-run";
 
 /**
  * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,
@@ -13,46 +15,34 @@ const id = z.string().uuid("Not a valid record id.");
 export const correctionSchema = z.enum(["isotropic", "translation", "border"]);
 export type Correction = z.infer<typeof correctionSchema>;
 
-export const testSchema = z.discriminatedUnion("kind", [
-  z.strictObject({
-    kind: z.literal("clark-evans"),
-    /** none: Clark & Evans 1954 as published; donnelly: Donnelly 1978 (rectangles, approximate); monte-carlo: exact in W. */
-    correction: z.enum(["none", "donnelly", "monte-carlo"]).default("monte-carlo"),
-    alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
-  }),
-  z.strictObject({
-    kind: z.literal("quadrat"),
-    cellSize: z.coerce.number().positive("A cell must be larger than 0 m.").max(100).default(1),
-  }),
-  z.strictObject({
-    kind: z.literal("l-envelope"),
-    /** MAD by default, as the engine and spatstat's `mad.test`; DCLF integrates over r and is often more powerful. */
-    statistic: z.enum(["mad", "dclf"]).default("mad"),
-    /** fixed: the observed n in every simulation; poisson: a Poisson number with mean n (spatstat's default). */
-    count: z.enum(["fixed", "poisson"]).default("fixed"),
-  }),
-  z.strictObject({ kind: z.literal("pcf-envelope") }),
-  z.strictObject({
-    kind: z.literal("cross-l"),
-    a: id,
-    b: id,
-    /** random-labelling: do A and B share locations more than labels shuffled among them? a-fixed: are B nearer A than CSR points? */
-    null: z.enum(["random-labelling", "a-fixed"]).default("random-labelling"),
-    /**
-     * The function the envelope test runs on: Besag's cross-L (absent or "L") or Ripley's cross-K, as
-     * spatstat's envelope of Kcross. No default written in, so runs asked for before it existed read the same.
-     */
-    fun: z.enum(["L", "K"]).optional(),
-  }),
-  z.strictObject({ kind: z.literal("k-difference"), a: id, b: id }),
-  z.strictObject({
-    kind: z.literal("inhomogeneous-l"),
-    classId: id,
-    reference: z.union([z.literal("all"), id]).default("all"),
-  }),
-]);
-export type RunTest = z.infer<typeof testSchema>;
-export type TestKind = RunTest["kind"];
+const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * One test of a run: the engine's own test description (lib/spatial/run/run-spec.ts), stored as asked and
+ * run as stored. In Loamwork every class a test names (`class`, `a`, `b`, `reference`) is the class's record
+ * id, and a test on one class names it; the engine is handed the site's class codes in their place.
+ */
+export const testSchema = testSpecSchema.superRefine((t, ctx) => {
+  const fields: [string, string | undefined][] =
+    t.type === "cross-l" || t.type === "k-difference"
+      ? [
+          ["a", t.a],
+          ["b", t.b],
+        ]
+      : [
+          ["class", t.class],
+          ...(t.type === "inhomogeneous-l" ? ([["reference", t.reference]] as [string, string | undefined][]) : []),
+        ];
+  for (const [field, value] of fields) {
+    if (value === undefined) {
+      if (field === "class")
+        ctx.addIssue({ code: "custom", path: [field], message: "Name the class this test runs on." });
+    } else if (!uuid.test(value)) ctx.addIssue({ code: "custom", path: [field], message: "Not a valid record id." });
+  }
+});
+export type RunTest = TestSpec;
+export type RunTestInput = z.input<typeof testSchema>;
+export type TestKind = RunTest["type"];
 
 /**
  * A test on counts by grid square (lib/spatial/lattice), run on each class in scope: its counts summed
@@ -75,7 +65,8 @@ export type SquareTest = z.infer<typeof squareTestSchema>;
 export type SquareTestKind = SquareTest["kind"];
 
 export const runParamsSchema = z.strictObject({
-  correction: correctionSchema.default("isotropic"),
+  /** The edge correction of tests asked for in the former shape (former-run.ts); the engine's tests carry their own. */
+  correction: correctionSchema.optional(),
   /** Largest distance studied (m); default a quarter of the trench's short side. */
   rmax: z.coerce.number().positive("The distance range must be larger than 0 m.").optional(),
   nsim: z.coerce.number().int().min(19, "Use at least 19 simulations (p can then reach 0.05).").max(9999).default(999),
@@ -126,10 +117,11 @@ export type RunScope = z.infer<typeof runScopeSchema>;
 export const runCreateSchema = z
   .strictObject({
     scope: runScopeSchema,
-    tests: z.array(testSchema).max(40),
+    /** Tests in the engine's shape, or in the shape Loamwork asked for before (read by former-run.ts). */
+    tests: z.array(z.union([testSchema, formerTestSchema])).max(200),
     /** Tests on counts by grid square; a run may hold them beside point tests, or alone. */
     squareTests: z.array(squareTestSchema).max(20).default([]),
-    params: runParamsSchema.default({ correction: "isotropic", nsim: 999, level: 0.05 }),
+    params: runParamsSchema.default({ nsim: 999, level: 0.05 }),
     label: z.string().trim().max(120).optional(),
   })
   .refine((r) => r.tests.length + r.squareTests.length > 0, { message: "Choose at least one test.", path: ["tests"] });

@@ -130,8 +130,16 @@ export { runSimChunk } from "./simulation/sim-chunk";
 // Simulation models as data, and the runs that the app, the command line and the workers start
 export { fixedACurve, labellingCurve } from "./simulation/sim-classes";
 export type { EdgeCorrection, PixelIntensity, SimChunk, SimModel, SimSetup } from "./simulation/sim-models";
-export { monteCarloRankPValue } from "./run/run-classic-tests";
-export { parseRunSpec, runSpecSchema, type RunSpec, type RunSpecInput, type TestSpec } from "./run/run-spec";
+export { monteCarloRankPValue, quadratGrid } from "./run/run-classic-tests";
+export {
+  parseRunSpec,
+  runSpecSchema,
+  testSpecSchema,
+  type RunSpec,
+  type RunSpecInput,
+  type TestSpec,
+  type TestSpecInput,
+} from "./run/run-spec";
 export { runDistributionTest, SMALL_RUN, type RunOptions, type RunResult, type TestResult } from "./run/run-test";
 export { ENGINE_VERSION } from "./version";
 

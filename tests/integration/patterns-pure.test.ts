@@ -66,22 +66,26 @@ describe("where the curve leaves the band", () => {
 describe("putting a saved run back in the form", () => {
   it("gives back the same request: scope, tests, parameters and seed", async () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
+    const { testSchema } = await import("@/lib/schemas/run");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
     const tests = [
-      { kind: "l-envelope", statistic: "dclf", count: "poisson" },
-      { kind: "cross-l", a: id(3), b: id(4), null: "a-fixed" },
-      { kind: "quadrat", cellSize: 1.5 },
-    ] as const;
+      { type: "l-envelope", class: id(3), statistic: "dclf", count: "poisson", correction: "translation" },
+      { type: "l-envelope", class: id(4), statistic: "dclf", count: "poisson", correction: "translation" },
+      { type: "cross-l", a: id(3), b: id(4), null: "a-fixed", correction: "translation", statistic: "dclf" },
+      { type: "quadrat", class: id(3), cellSize: 1.5 },
+      { type: "quadrat", class: id(4), cellSize: 1.5 },
+    ].map((t) => testSchema.parse(t));
     const run = {
       scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] },
       seed: 77,
-      params: { correction: "translation" as const, rmax: 1.75, nsim: 499, level: 0.01, tests: [...tests] },
+      params: { rmax: 1.75, nsim: 499, level: 0.01, tests },
     };
     const req = toRequest(formFromRun(run));
     expect(req.scope).toEqual(run.scope);
-    expect(req.params).toEqual({ correction: "translation", rmax: 1.75, nsim: 499, level: 0.01, seed: 77 });
-    expect([...req.tests].sort((a, b) => a.kind.localeCompare(b.kind))).toEqual(
-      [...tests].sort((a, b) => a.kind.localeCompare(b.kind)),
+    expect(req.params).toEqual({ rmax: 1.75, nsim: 499, level: 0.01, seed: 77 });
+    const key = (t: { type: string }) => JSON.stringify(t);
+    expect(req.tests.map((t) => testSchema.parse(t)).sort((a, b) => key(a).localeCompare(key(b)))).toEqual(
+      [...tests].sort((a, b) => key(a).localeCompare(key(b))),
     );
     expect(req.squareTests).toBeUndefined();
   });
@@ -100,11 +104,10 @@ describe("putting a saved run back in the form", () => {
       },
       seed: 9,
       params: {
-        correction: "isotropic" as const,
         rmax: 1,
         nsim: 99,
         level: 0.05,
-        tests: [{ kind: "pcf-envelope" as const }],
+        tests: [{ type: "pcf-envelope" as const, class: id(3), count: "fixed" as const, statistic: "dclf" as const }],
       },
     };
     const form = formFromRun(run);
@@ -128,7 +131,6 @@ describe("putting a saved run back in the form", () => {
       scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] },
       seed: 5,
       params: {
-        correction: "isotropic" as const,
         rmax: 1,
         nsim: 999,
         level: 0.05,
@@ -141,25 +143,23 @@ describe("putting a saved run back in the form", () => {
     expect(req.squareTests).toEqual(squareTests);
   });
 
-  it("keeps a cross-K test cross-K, and asks for cross-L without naming it", async () => {
+  it("keeps a cross-K test cross-K, and a cross-L test cross-L", async () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
+    const { testSchema } = await import("@/lib/schemas/run");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
-    const run = (fun?: "K") => ({
+    const run = (fun: "K" | "L") => ({
       scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3), id(4)] },
       seed: 5,
       params: {
-        correction: "isotropic" as const,
         rmax: 1,
         nsim: 99,
         level: 0.05,
-        tests: [
-          { kind: "cross-l" as const, a: id(3), b: id(4), null: "random-labelling" as const, ...(fun && { fun }) },
-        ],
+        tests: [testSchema.parse({ type: "cross-l", a: id(3), b: id(4), count: "fixed", statistic: "dclf", fun })],
       },
     });
     expect(formFromRun(run("K")).cross.fun).toBe("K");
-    expect(toRequest(formFromRun(run("K"))).tests).toEqual(run("K").params.tests);
-    expect(formFromRun(run()).cross.fun).toBe("L");
-    expect(toRequest(formFromRun(run())).tests).toEqual(run().params.tests);
+    expect(toRequest(formFromRun(run("K"))).tests.map((t) => testSchema.parse(t))).toEqual(run("K").params.tests);
+    expect(formFromRun(run("L")).cross.fun).toBe("L");
+    expect(toRequest(formFromRun(run("L"))).tests.map((t) => testSchema.parse(t))).toEqual(run("L").params.tests);
   });
 });

@@ -1,9 +1,18 @@
 /**
- * Saved runs from before the app took the engine's test names: migration 0009 renames them in the stored
- * parameters, result and method list, so an old run opens with today's names and can be started again with
- * its stored request. Checked as a round trip: a fresh run is written back with the old names (as older
- * versions of Loamwork stored it), the migration's own SQL is applied, and the row must equal the fresh one.
+ * Saved runs from older versions of Loamwork keep opening and reproducing.
+ *
+ * tests/fixtures/former-runs.json holds two runs exactly as the former code stored them (requested, run and
+ * read back from the database before the app took the engine's test descriptions; class, trench and
+ * context ids replaced by {{placeholders}}, and each curve, histogram and cell grid by the SHA-256 of its
+ * JSON to keep the file small). Such a run has tests named by `kind`, run on every class in scope, and
+ * the edge correction beside them; former-run.ts reads it into the engine's tests.
+ *
+ * Checked: migration 0009 still renames the app's first test names in such a row; the row opens with the
+ * engine's tests; and started again with the tests it opened with, it gives the stored result test for
+ * test (same verdicts, p-values, sentences and curves), so the reading keeps each class's place in the
+ * seed's streams.
  */
+import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -13,13 +22,66 @@ import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
+import type { TestOut } from "@/lib/api/run-result";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
+type StoredRun = {
+  scope: Record<string, unknown>;
+  method: string;
+  params: Record<string, unknown>;
+  seed: number;
+  engineVersion: string;
+  result: { tests: Record<string, unknown>[] } & Record<string, unknown>;
+};
+
 let d: DemoSite;
+let former: StoredRun[];
 beforeAll(async () => {
   d = await seedDemoSite();
+  let text = readFileSync(path.join(process.cwd(), "tests/fixtures/former-runs.json"), "utf8");
+  const ids: Record<string, string> = { trench: d.trenchId };
+  for (const [code, id] of Object.entries(d.cls)) ids[`class ${code}`] = id;
+  for (const [n, id] of Object.entries(d.ctx)) ids[`context ${n}`] = id;
+  text = text.replace(/\{\{([^}]+)\}\}/g, (_, name: string) => {
+    const id = ids[name];
+    if (!id) throw new Error(`No demo record for ${name}`);
+    return id;
+  });
+  former = (JSON.parse(text) as { runs: StoredRun[] }).runs;
 });
+
+/** A result test as the fixture keeps it: curves, histograms and cells by their digest. */
+const digest = (t: TestOut | Record<string, unknown>) => {
+  const o: Record<string, unknown> = { ...t };
+  for (const k of ["curve", "histogram", "cells"])
+    if (k in o) o[k] = { sha256: createHash("sha256").update(JSON.stringify(o[k])).digest("hex") };
+  return o;
+};
+
+async function storeFormer(run: StoredRun): Promise<string> {
+  const db = await getDb();
+  const [row] = await db
+    .insert(s.analysisRuns)
+    .values({
+      siteId: d.siteId,
+      trenchId: d.trenchId,
+      scope: run.scope,
+      method: run.method,
+      params: run.params,
+      seed: run.seed,
+      engineVersion: run.engineVersion,
+      fingerprint: "former",
+      status: "done",
+      progress: 1,
+      result: run.result,
+      createdBy: d.people.specialist,
+      finishedAt: new Date(),
+    })
+    .returning();
+  if (!row) throw new Error("run not stored");
+  return row.id;
+}
 
 const OLD: [string, string][] = [
   ['"kind": "l-envelope"', '"kind": "l-csr"'],
@@ -33,26 +95,10 @@ const toOld = (json: unknown) =>
   OLD.reduce((t, [now, old]) => t.split(now).join(old), JSON.stringify(json).replace(/":/g, '": '));
 
 describe("saved runs with the app's former test names", () => {
-  it("are renamed by the migration and open and run again as before", async () => {
-    session.userId = d.people.specialist;
-    const request = {
-      scope: { trenchId: d.trenchId, contextIds: [d.ctx[1005]], classIds: [d.cls.FLK, d.cls.CHP] },
-      tests: [
-        { kind: "l-envelope" },
-        { kind: "pcf-envelope" },
-        { kind: "cross-l", a: d.cls.FLK, b: d.cls.CHP, null: "a-fixed" },
-        { kind: "k-difference", a: d.cls.FLK, b: d.cls.CHP },
-        { kind: "inhomogeneous-l", classId: d.cls.FLK, reference: "all" },
-      ],
-      params: { nsim: 19, seed: 77 },
-    };
-    const res = await call(runsRoute, "POST", { siteId: d.siteId }, request);
-    expect(res.status, JSON.stringify(res.json)).toBe(201);
-    const runId = res.json.id as string;
-    await runsIdle();
+  it("are renamed by the migration to the names the former shape used", async () => {
+    const runId = await storeFormer(former[0]!);
     const db = await getDb();
     const [fresh] = await db.select().from(s.analysisRuns).where(eq(s.analysisRuns.id, runId));
-    expect(fresh?.status).toBe("done");
     if (!fresh) throw new Error("run not stored");
 
     // Written back as an older Loamwork stored it.
@@ -76,21 +122,91 @@ describe("saved runs with the app's former test names", () => {
     expect(renamed?.params).toEqual(fresh.params);
     expect(renamed?.result).toEqual(fresh.result);
     expect(renamed?.method).toBe(fresh.method);
+  });
+});
 
-    // It opens, and its stored request is accepted again as it stands.
+describe("saved runs in the former shape (tests by kind, one correction for the run)", { timeout: 180_000 }, () => {
+  it("open with the engine's tests, one per class, in the order the run read its classes", async () => {
+    session.userId = d.people.specialist;
+    const runId = await storeFormer(former[0]!);
     const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
-    expect(view.result.tests.map((t: { kind: string }) => t.kind)).toEqual(
-      expect.arrayContaining(["l-envelope", "pcf-envelope", "cross-l", "k-difference", "inhomogeneous-l"]),
+    expect(view.result).toEqual(former[0]!.result);
+    const { CHP, FLK, SHD } = d.cls;
+    // The scope chose SHD, FLK, CHP; the run read its classes by code (CHP, FLK, SHD), and so do its tests.
+    expect(view.params.tests).toEqual([
+      ...[CHP, FLK, SHD].map((c) => ({
+        type: "clark-evans",
+        class: c,
+        correction: "monte-carlo",
+        alternative: "two-sided",
+      })),
+      ...[CHP, FLK, SHD].map((c) => ({
+        type: "quadrat",
+        class: c,
+        nx: 4,
+        ny: 4,
+        cellSize: 1.5,
+        alternative: "two-sided",
+      })),
+      // The run's border correction on L; the between-class tests fall back to isotropic, as they did.
+      ...[CHP, FLK, SHD].map((c) => ({
+        type: "l-envelope",
+        class: c,
+        count: "fixed",
+        correction: "border",
+        statistic: "dclf",
+      })),
+      ...[CHP, FLK, SHD].map((c) => ({ type: "pcf-envelope", class: c, count: "fixed", statistic: "dclf" })),
+      {
+        type: "cross-l",
+        a: FLK,
+        b: CHP,
+        null: "a-fixed",
+        count: "fixed",
+        correction: "isotropic",
+        statistic: "dclf",
+        fun: "L",
+      },
+      {
+        type: "cross-l",
+        a: CHP,
+        b: FLK,
+        null: "random-labelling",
+        count: "fixed",
+        correction: "isotropic",
+        statistic: "dclf",
+        fun: "K",
+      },
+      { type: "k-difference", a: FLK, b: SHD, correction: "isotropic", statistic: "dclf" },
+      { type: "inhomogeneous-l", class: CHP, reference: FLK, statistic: "dclf" },
+    ]);
+    expect(view.result.tests.map((t: TestOut) => t.kind)).toEqual(
+      view.params.tests.map((t: { type: string }) => t.type),
     );
-    const again = await call(
-      runsRoute,
-      "POST",
-      { siteId: d.siteId },
-      { scope: view.scope, tests: view.params.tests, params: { nsim: 19, seed: view.seed } },
-    );
-    expect(again.status, JSON.stringify(again.json)).toBe(201);
-    await runsIdle();
-    const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;
-    expect(rerun.result.tests).toEqual(view.result.tests);
+  });
+
+  it("started again with the tests they open with, reproduce the stored result test for test", async () => {
+    session.userId = d.people.specialist;
+    for (const run of former) {
+      const runId = await storeFormer(run);
+      const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
+      const again = await call(
+        runsRoute,
+        "POST",
+        { siteId: d.siteId },
+        {
+          scope: view.scope,
+          tests: view.params.tests,
+          params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
+        },
+      );
+      expect(again.status, JSON.stringify(again.json)).toBe(201);
+      await runsIdle();
+      const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;
+      expect(rerun.status, rerun.error).toBe("done");
+      expect(rerun.result.tests.map(digest)).toEqual(run.result.tests);
+      expect(rerun.result.correction).toBe(run.result.correction);
+      expect(rerun.result.classes).toEqual(run.result.classes);
+    }
   });
 });

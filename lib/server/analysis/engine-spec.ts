@@ -1,119 +1,48 @@
 /**
- * From a Loamwork run (scope read from the database, tests, parameters) to the engine's JSON run spec
- * (lib/spatial/run/run-spec.ts; docs/spatial-cli.md). Classes are named by their site code in the spec.
- * Each engine test remembers which Loamwork test and class it came from, so results map back.
+ * A stored run handed to the engine: its tests as stored (they are the engine's own test descriptions,
+ * lib/spatial/run/run-spec.ts), with the run's records as the window and points. The only change: the tests
+ * and points name classes by their record id, and the engine is given the site's class codes instead, so
+ * that its sentences ("Classes FLK and CHP go together") read in the site's words.
  */
 import type { RunSpecInput, Window } from "@/lib/spatial";
 import { R_COUNT } from "./defaults";
-import type { Correction, RunTest } from "@/lib/schemas/run";
+import type { RunTest } from "@/lib/schemas/run";
 
 export type SpecClass = { id: string; code: string };
 export type SpecFind = { x: number; y: number; classId: string };
-export type SpecEntry = { test: RunTest; classId?: string };
-export type EngineTest = RunSpecInput["tests"][number];
 
 export type BuildInput = {
   window: Window;
   classes: SpecClass[];
   finds: SpecFind[];
   tests: RunTest[];
-  params: { correction: Correction; rmax: number; nsim: number; level: number };
+  params: { rmax: number; nsim: number; level: number };
   seed: number;
 };
 
-/** Quadrat grid for a requested cell size: as many equal cells across the bounding box as fit. */
-export function quadratGrid(window: Window, cellSize: number): { nx: number; ny: number } {
-  const { bbox } = window;
-  const clamp = (v: number) => Math.max(1, Math.min(50, Math.round(v)));
-  return { nx: clamp((bbox.maxX - bbox.minX) / cellSize), ny: clamp((bbox.maxY - bbox.minY) / cellSize) };
-}
-
-export function buildEngineSpec(input: BuildInput): { spec: RunSpecInput; entries: SpecEntry[] } {
+export function buildEngineSpec(input: BuildInput): RunSpecInput {
   const { window, classes, finds, tests, params, seed } = input;
-  const code = new Map(classes.map((c) => [c.id, c.code]));
-  const entries: SpecEntry[] = [];
-  const out: EngineTest[] = [];
-  // The engine's between-class estimators offer isotropic and translation; border falls back to isotropic.
-  const pairCorrection = params.correction === "translation" ? "translation" : "isotropic";
-  const push = (t: EngineTest, entry: SpecEntry) => {
-    out.push(t);
-    entries.push(entry);
+  const codes = new Map(classes.map((c) => [c.id, c.code]));
+  const code = (id: string) => {
+    const c = codes.get(id);
+    if (c === undefined) throw new Error(`A test names class ${id}, which is not in the run's scope.`);
+    return c;
   };
-  for (const t of tests) {
-    switch (t.kind) {
-      case "clark-evans":
-        for (const c of classes)
-          push(
-            { type: "clark-evans", class: c.code, correction: t.correction, alternative: t.alternative },
-            { test: t, classId: c.id },
-          );
-        break;
-      case "quadrat": {
-        const { nx, ny } = quadratGrid(window, t.cellSize);
-        for (const c of classes) push({ type: "quadrat", class: c.code, nx, ny }, { test: t, classId: c.id });
-        break;
-      }
-      case "l-envelope":
-        for (const c of classes)
-          push(
-            {
-              type: "l-envelope",
-              class: c.code,
-              count: t.count,
-              correction: params.correction,
-              statistic: t.statistic,
-            },
-            { test: t, classId: c.id },
-          );
-        break;
-      case "pcf-envelope":
-        for (const c of classes)
-          push({ type: "pcf-envelope", class: c.code, count: "fixed", statistic: "dclf" }, { test: t, classId: c.id });
-        break;
-      case "cross-l":
-        push(
-          {
-            type: "cross-l",
-            a: code.get(t.a)!,
-            b: code.get(t.b)!,
-            null: t.null,
-            count: "fixed",
-            correction: pairCorrection,
-            statistic: "dclf",
-            ...(t.fun === "K" && { fun: "K" as const }),
-          },
-          { test: t },
-        );
-        break;
-      case "k-difference":
-        push(
-          { type: "k-difference", a: code.get(t.a)!, b: code.get(t.b)!, correction: pairCorrection, statistic: "dclf" },
-          { test: t },
-        );
-        break;
-      case "inhomogeneous-l":
-        push(
-          {
-            type: "inhomogeneous-l",
-            class: code.get(t.classId)!,
-            reference: t.reference === "all" ? undefined : code.get(t.reference),
-            statistic: "dclf",
-          },
-          { test: t, classId: t.classId },
-        );
-        break;
-    }
-  }
   const ring = (r: readonly (readonly [number, number] | [number, number])[]) =>
     r.map((v) => [v[0], v[1]] as [number, number]);
-  const spec: RunSpecInput = {
+  return {
     window: { outer: ring(window.outer), holes: window.holes.map(ring) },
-    points: finds.map((f) => ({ x: f.x, y: f.y, cls: code.get(f.classId)! })),
+    points: finds.map((f) => ({ x: f.x, y: f.y, cls: code(f.classId) })),
     seed,
     nsim: params.nsim,
     level: params.level,
     r: { max: params.rmax, count: R_COUNT },
-    tests: out,
+    tests: tests.map((t) =>
+      t.type === "cross-l" || t.type === "k-difference"
+        ? { ...t, a: code(t.a), b: code(t.b) }
+        : t.type === "inhomogeneous-l"
+          ? { ...t, class: code(t.class ?? ""), reference: t.reference === undefined ? undefined : code(t.reference) }
+          : { ...t, class: t.class === undefined ? undefined : code(t.class) },
+    ),
   };
-  return { spec, entries };
 }

@@ -13,6 +13,7 @@ import { buildEngineSpec } from "./engine-spec";
 import { adaptResult } from "./result-adapter";
 import type { RunScope } from "@/lib/schemas/run";
 import type { RunParamsStored } from "@/lib/api/patterns-responses";
+import { readRunTests } from "@/lib/schemas/former-run";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
 import { loadScope, type ScopeData } from "./scope-data";
 import { runSquareTests, squareTestCount } from "./square-tests";
@@ -71,14 +72,13 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
         .finally(() => (writing = null));
     };
     const finds = data.finds.map((f) => ({ x: f.x, y: f.y, classId: f.classId }));
-    const { spec, entries } = buildEngineSpec({
-      window: data.window,
-      classes: data.classes,
-      finds,
-      tests: params.tests,
-      params,
-      seed: row.seed,
-    });
+    // A run queued in the former shape runs its classes in the order the scope reads them, as it always did.
+    const tests = readRunTests(
+      params.tests ?? [],
+      data.classes.map((c) => c.id),
+      params.correction,
+    );
+    const spec = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests, params, seed: row.seed });
     // One progress bar for the whole run: the point tests' share of it, then the square-count tests', in
     // proportion to how many tests each holds.
     const squareWork = squareTestCount(data, params.squareTests ?? []);
@@ -112,11 +112,10 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
       if (stop.signal.aborted) return;
       const result = adaptResult({
         engine,
-        entries,
+        tests,
         window: data.window,
         classes: data.classes,
         finds,
-        correction: params.correction,
         rmax: params.rmax,
         elapsedMs: Date.now() - started,
       });

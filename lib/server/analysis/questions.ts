@@ -2,7 +2,7 @@ import type { RunTest } from "@/lib/schemas/run";
 
 /** What each test asks, in words a specialist can put in a report; cross tests say what inflates them. */
 export function questionOf(t: RunTest, name: (id: string) => string, pool: string): string {
-  switch (t.kind) {
+  switch (t.type) {
     case "clark-evans":
       return "Are nearest neighbours closer (clustered) or farther apart (evenly spread) than for finds placed at random in the trench?";
     case "quadrat":
@@ -18,6 +18,6 @@ export function questionOf(t: RunTest, name: (id: string) => string, pool: strin
     case "k-difference":
       return `Under random labelling of the ${pool} finds, is ${name(t.a)} more (or less) clustered than ${name(t.b)} (segregation, Diggle & Chetwynd 1991)?`;
     case "inhomogeneous-l":
-      return `Is ${name(t.classId)} clustered beyond the general density of ${t.reference === "all" ? "all finds in scope" : name(t.reference)}?`;
+      return `Is ${name(t.class ?? "")} clustered beyond the general density of ${t.reference === undefined ? "all finds in scope" : name(t.reference)}?`;
   }
 }

@@ -3,13 +3,12 @@
  * L(r) − r (0 under CSR) ready to plot, verdict words, the sentence to quote, the question each test
  * answered, the cautions, and the pictures that are not tests (NN histogram, quadrat grid, heat layer).
  */
-import type { RunResult as EngineResult, TestResult as EngineTest, Window } from "@/lib/spatial";
-import type { SpecClass, SpecEntry, SpecFind } from "./engine-spec";
-import { quadratGrid } from "./engine-spec";
+import { quadratGrid, type RunResult as EngineResult, type TestResult as EngineTest, type Window } from "@/lib/spatial";
+import type { SpecClass, SpecFind } from "./engine-spec";
 import { kernelDensity, nnHistogram, quadratCellsOf, type Pts } from "./plot-data";
 import { questionOf } from "./questions";
 import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "@/lib/api/run-result";
-import type { Correction } from "@/lib/schemas/run";
+import type { Correction, RunTest } from "@/lib/schemas/run";
 
 const VERDICTS: Record<string, VerdictWord> = {
   clustered: "clustered",
@@ -44,19 +43,27 @@ function sentenceOf(t: EngineTest): string {
   return `${summary} Test: ${t.test}; null: ${t.null}${sims}; seed ${t.seed}.`;
 }
 
+/** The edge correction the run's curves used, shown with the result: its L test's, else its first curve test's. */
+function correctionOf(tests: RunTest[]): Correction {
+  const l = tests.find((t) => t.type === "l-envelope");
+  if (l) return l.correction;
+  for (const t of tests) if ("correction" in t && t.type !== "clark-evans") return t.correction;
+  return "isotropic";
+}
+
 export type AdaptInput = {
   engine: EngineResult;
-  entries: SpecEntry[];
+  /** The run's tests as stored (class ids), one for each of the engine's results. */
+  tests: RunTest[];
   window: Window;
   classes: (SpecClass & { label: string; colour: string; symbol: string })[];
   finds: SpecFind[];
-  correction: Correction;
   rmax: number;
   elapsedMs: number;
 };
 
 export function adaptResult(input: AdaptInput): RunResult {
-  const { engine, entries, window, classes, finds } = input;
+  const { engine, window, classes, finds } = input;
   const pts = new Map<string, Pts>(classes.map((c) => [c.id, { x: [], y: [] }]));
   for (const f of finds) {
     const p = pts.get(f.classId);
@@ -69,21 +76,21 @@ export function adaptResult(input: AdaptInput): RunResult {
   const name = (id: string) => label.get(id) ?? id;
   const pool = `${finds.length} ${classes.map((c) => c.code).join(" + ")}`;
   const tests: TestOut[] = engine.results.map((t, i) => {
-    const entry = entries[i];
-    if (!entry) throw new Error(`The engine returned ${engine.results.length} results for ${entries.length} tests.`);
+    const spec = input.tests[i];
+    if (!spec) throw new Error(`The engine returned ${engine.results.length} results for ${input.tests.length} tests.`);
     const base = {
       verdict: VERDICTS[t.verdict] ?? "no-evidence",
       sentence: sentenceOf(t),
       p: num(t.pValue),
-      question: questionOf(entry.test, name, pool),
+      question: questionOf(spec, name, pool),
       notes: t.cautions,
     };
     const d = t.details;
-    const classId = entry.classId ?? "";
+    const classId = ("class" in spec && spec.class) || "";
     const n = pts.get(classId)?.x.length ?? t.n;
-    switch (entry.test.kind) {
+    switch (spec.type) {
       case "clark-evans": {
-        const h = nnHistogram(pts.get(classId)!);
+        const h = nnHistogram(pts.get(classId) ?? { x: [], y: [] });
         const meanNN =
           num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
         return {
@@ -95,13 +102,13 @@ export function adaptResult(input: AdaptInput): RunResult {
           z: num(d.z),
           meanNN,
           expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedUnderCsr) ?? 0.5 / Math.sqrt(n / window.area),
-          correction: entry.test.correction,
-          alternative: entry.test.alternative,
+          correction: spec.correction,
+          alternative: spec.alternative,
           histogram: { edges: h.edges, counts: h.counts },
         };
       }
       case "quadrat": {
-        const { nx, ny } = quadratGrid(window, entry.test.cellSize);
+        const { nx, ny } = spec.cellSize === undefined ? spec : quadratGrid(window, spec.cellSize);
         const observed = Array.isArray(d.observed) ? (d.observed as number[]) : [];
         const expected = Array.isArray(d.expected) ? (d.expected as number[]) : [];
         const cells = quadratCellsOf(window, nx, ny, observed, expected);
@@ -112,7 +119,7 @@ export function adaptResult(input: AdaptInput): RunResult {
           kind: "quadrat",
           classId,
           n,
-          cellSize: entry.test.cellSize,
+          cellSize: spec.cellSize ?? Number(((window.bbox.maxX - window.bbox.minX) / nx).toPrecision(6)),
           X2: num(d.X2) ?? num(d.statistic) ?? NaN,
           df: num(d.df) ?? cells.length - 1,
           vmr: num(d.varianceMeanRatio) ?? num(d.vmr) ?? variance / mean,
@@ -128,8 +135,8 @@ export function adaptResult(input: AdaptInput): RunResult {
           kind: "l-envelope",
           classId,
           n,
-          statistic: entry.test.statistic,
-          count: entry.test.count,
+          statistic: spec.statistic,
+          count: spec.count,
           curve,
           departures,
           clusterScale: above ? { from: above.from, to: above.to } : null,
@@ -147,17 +154,17 @@ export function adaptResult(input: AdaptInput): RunResult {
       case "cross-l":
       case "k-difference": {
         // cross-K is drawn as it is (πr² under CSR); L curves as L(r) − r
-        const funK = entry.test.kind === "cross-l" && entry.test.fun === "K";
-        const { curve, departures } = curveOf(t, entry.test.kind === "cross-l" && !funK);
-        const { a, b } = entry.test;
+        const funK = spec.type === "cross-l" && spec.fun === "K";
+        const { curve, departures } = curveOf(t, spec.type === "cross-l" && !funK);
+        const { a, b } = spec;
         return {
           ...base,
-          kind: entry.test.kind,
+          kind: spec.type,
           a,
           b,
           nA: pts.get(a)?.x.length ?? 0,
           nB: pts.get(b)?.x.length ?? 0,
-          null: entry.test.kind === "cross-l" ? entry.test.null : "random-labelling",
+          null: spec.type === "cross-l" ? spec.null : "random-labelling",
           ...(funK && { fun: "K" as const }),
           curve,
           departures,
@@ -170,7 +177,7 @@ export function adaptResult(input: AdaptInput): RunResult {
           kind: "inhomogeneous-l",
           classId,
           n,
-          reference: entry.test.reference,
+          reference: spec.reference ?? "all",
           bandwidth: num(d.bandwidth) ?? 0,
           curve,
           departures,
@@ -192,7 +199,7 @@ export function adaptResult(input: AdaptInput): RunResult {
     nsim: engine.nsim,
     level: engine.level,
     rmax: input.rmax,
-    correction: input.correction,
+    correction: correctionOf(input.tests),
     outline: [window.outer, ...window.holes].map((r) => r.map((v) => [v[0], v[1]] as [number, number])),
     area: window.area,
     classes: inScope,

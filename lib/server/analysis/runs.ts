@@ -10,7 +10,8 @@ import type { SiteActor } from "../membership";
 import { runQueue } from "../jobs/run-queue";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunResult } from "@/lib/api/run-result";
-import type { RunCreate, RunScope, RunTest } from "@/lib/schemas/run";
+import type { RunCreate, RunScope, RunTest, TestKind } from "@/lib/schemas/run";
+import { isFormerTest, readRunTests } from "@/lib/schemas/former-run";
 import type { RunParamsStored, RunView } from "@/lib/api/patterns-responses";
 import { countsByClass, depthSummary, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
@@ -23,32 +24,48 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
   const n = countsByClass(data);
   const code = new Map(data.classes.map((c) => [c.id, c.code]));
   const out: string[] = [];
-  const need = (kind: RunTest["kind"], classId: string) => {
-    if (!code.has(classId)) out.push(`A test names a class that is not in the chosen scope.`);
-    else if ((n.get(classId) ?? 0) < MIN_POINTS[kind])
-      out.push(tooFewMessage(kind, code.get(classId)!, n.get(classId) ?? 0));
+  const need = (kind: TestKind, classId: string | undefined) => {
+    const c = classId === undefined ? undefined : code.get(classId);
+    if (c === undefined || classId === undefined) out.push(`A test names a class that is not in the chosen scope.`);
+    else if ((n.get(classId) ?? 0) < MIN_POINTS[kind]) out.push(tooFewMessage(kind, c, n.get(classId) ?? 0));
   };
   for (const t of tests) {
-    if (t.kind === "cross-l" || t.kind === "k-difference") {
+    if (t.type === "cross-l" || t.type === "k-difference") {
       if (t.a === t.b) out.push("A test between two classes needs two different classes.");
-      need(t.kind, t.a);
-      need(t.kind, t.b);
-    } else if (t.kind === "inhomogeneous-l") {
-      need(t.kind, t.classId);
-      if (t.reference !== "all" && !code.has(t.reference))
-        out.push("The reference class of the inhomogeneous test is not in the chosen scope.");
+      need(t.type, t.a);
+      need(t.type, t.b);
     } else {
-      for (const c of data.classes) need(t.kind, c.id);
+      need(t.type, t.class);
+      if (t.type === "inhomogeneous-l" && t.reference !== undefined && !code.has(t.reference))
+        out.push("The reference class of the inhomogeneous test is not in the chosen scope.");
     }
   }
   return [...new Set(out)];
+}
+
+/** A stored run's tests in the engine's shape: runs stored in the former shape are read by former-run.ts. */
+export function storedTests(row: Pick<AnalysisRun, "params" | "scope" | "result">): RunTest[] {
+  const params = row.params as RunParamsStored;
+  // A finished run ran its classes in the order its result lists them; otherwise in the scope's order.
+  const order = (row.result as RunResult | null)?.classes?.map((c) => c.id) ?? (row.scope as RunScope).classIds;
+  return readRunTests(params.tests ?? [], order, params.correction);
 }
 
 export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Promise<RunView> {
   // Got first, so that a queue starting now hands back older left-behind runs before this one.
   const queue = await runQueue();
   const data = await loadScope(db, actor.site.id, input.scope);
-  const refusals = [...testRefusals(data, input.tests), ...squareRefusals(data, input.squareTests)];
+  if (input.params.correction !== undefined && !input.tests.some(isFormerTest))
+    throw badInput("Each test carries its own edge correction.", {
+      "params.correction": ["Set the correction on each test instead."],
+    });
+  // Tests asked for in the former shape run on every class in scope, in the order the scope reads them.
+  const tests = readRunTests(
+    input.tests,
+    data.classes.map((c) => c.id),
+    input.params.correction,
+  );
+  const refusals = [...testRefusals(data, tests), ...squareRefusals(data, input.squareTests)];
   if (refusals.length) throw badInput(refusals.join(" "), { tests: refusals });
   const rmax = input.params.rmax ?? roundMetres(defaultRmax(data.window));
   if (rmax >= data.window.diameter) {
@@ -58,11 +75,10 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     );
   }
   const params: RunParamsStored = {
-    correction: input.params.correction,
     rmax,
     nsim: input.params.nsim,
     level: input.params.level,
-    tests: input.tests,
+    tests,
     ...(input.squareTests.length ? { squareTests: input.squareTests } : {}),
     label: input.label,
     names: {
@@ -83,7 +99,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
           siteId: actor.site.id,
           trenchId: data.trench.id,
           scope: input.scope,
-          method: [...new Set([...input.tests, ...input.squareTests].map((t) => t.kind))].join(","),
+          method: [...new Set([...tests.map((t) => t.type), ...input.squareTests.map((t) => t.kind)])].join(","),
           params,
           seed,
           engineVersion: ENGINE_VERSION,
@@ -118,7 +134,7 @@ function toView(row: AnalysisRun, outOfDate: boolean): RunView {
     fingerprint: row.fingerprint,
     outOfDate,
     scope: row.scope as RunScope,
-    params: row.params as RunParamsStored,
+    params: { ...(row.params as RunParamsStored), tests: storedTests(row) },
     createdAt: row.createdAt.toISOString(),
     startedAt: row.startedAt?.toISOString() ?? null,
     finishedAt: row.finishedAt?.toISOString() ?? null,
@@ -159,7 +175,7 @@ export async function listRuns(db: Db, siteId: string, trenchId?: string): Promi
   for (const row of rows) {
     const key = JSON.stringify(row.scope);
     if (!byScope.has(key)) byScope.set(key, currentFingerprint(db, siteId, row.scope as RunScope));
-    const { result: _omit, ...view } = toView({ ...row, result: null }, (await byScope.get(key)) !== row.fingerprint);
+    const { result: _omit, ...view } = toView(row, (await byScope.get(key)) !== row.fingerprint);
     out.push(view);
   }
   return out;

@@ -17,6 +17,7 @@ import type { TestSpec } from "./run-spec";
 import { verdictOf } from "./run-verdict";
 import type { TestResult } from "./run-test";
 import { createWindowSampler } from "../random/sample-window";
+import type { Window } from "../types";
 
 type Classic = Extract<TestSpec, { type: "clark-evans" | "quadrat" }>;
 type Outcome = Omit<TestResult, "options" | "level" | "seed" | "cautions">;
@@ -121,9 +122,10 @@ async function quadratMonteCarlo(ctx: RunContext, n: number, nx: number, ny: num
 async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>): Promise<Outcome> {
   const p = classPoints(ctx, t.class);
   const n = p.x.length;
-  const q = quadratTest(ctx.window, p, { nx: t.nx, ny: t.ny, alternative: t.alternative });
+  const { nx, ny } = t.cellSize === undefined ? t : quadratGrid(ctx.window, t.cellSize);
+  const q = quadratTest(ctx.window, p, { nx, ny, alternative: t.alternative });
   // cheap enough to run here: n uniform points and a count per simulation
-  const sims = await quadratMonteCarlo(ctx, n, t.nx, t.ny);
+  const sims = await quadratMonteCarlo(ctx, n, nx, ny);
   const pMonteCarlo = monteCarloRankPValue(q.X2, sims, t.alternative, false);
   const small = Math.min(...q.expected) < 5;
   const pValue = small ? pMonteCarlo : q.p;
@@ -152,6 +154,13 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
       expected: Array.from(q.expected, (e) => Number(e.toPrecision(8))),
     },
   };
+}
+
+/** Quadrat grid for a cell size (m): as many equal cells across the bounding box as fit, 1 to 50 each way. */
+export function quadratGrid(window: Window, cellSize: number): { nx: number; ny: number } {
+  const { bbox } = window;
+  const clamp = (v: number) => Math.max(1, Math.min(50, Math.round(v)));
+  return { nx: clamp((bbox.maxX - bbox.minX) / cellSize), ny: clamp((bbox.maxY - bbox.minY) / cellSize) };
 }
 
 export async function classicTest(ctx: RunContext, t: Classic): Promise<Outcome> {

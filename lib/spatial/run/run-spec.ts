@@ -32,6 +32,8 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
       class: cls.optional(),
       nx: z.number().int().min(1).max(50).default(4),
       ny: z.number().int().min(1).max(50).default(4),
+      /** A cell size (m) instead of nx × ny: as many equal cells across the bounding box as fit (quadratGrid). */
+      cellSize: z.number().positive().max(100).optional(),
       alternative: z.enum(["two-sided", "clustered", "regular"]).default("two-sided"),
     }),
     object({
@@ -68,7 +70,7 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
     }),
   ]);
 
-  return object({
+  const run = object({
     window: object({ outer: ring, holes: z.array(ring).optional() }),
     points: z.array(object({ x: z.number(), y: z.number(), cls: cls.optional() })),
     seed: z.number().int().min(0).max(0xffffffff).default(1),
@@ -83,14 +85,19 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
     workers: z.number().int().min(0).max(16).optional(),
     tests: z.array(test).min(1),
   });
+  return { run, test };
 }
 
-export const runSpecSchema = makeRunSpecSchema(z.strictObject);
-const storedRunSpecSchema = makeRunSpecSchema(z.object as unknown as typeof z.strictObject);
+const strict = makeRunSpecSchema(z.strictObject);
+export const runSpecSchema = strict.run;
+/** One test of a run, strict: the shape an application stores for each test it asks the engine to run. */
+export const testSpecSchema = strict.test;
+const storedRunSpecSchema = makeRunSpecSchema(z.object as unknown as typeof z.strictObject).run;
 
 export type RunSpecInput = z.input<typeof runSpecSchema>;
 export type RunSpec = z.output<typeof runSpecSchema>;
 export type TestSpec = RunSpec["tests"][number];
+export type TestSpecInput = RunSpecInput["tests"][number];
 
 export interface ParseRunSpecOptions {
   /** A description read back from storage: unknown keys are dropped instead of refused. */
