@@ -5,6 +5,7 @@ import { unzipSync } from "fflate";
 import Papa from "papaparse";
 import { session } from "../support/harness";
 import { checkBag } from "../support/bagit-check";
+import { pdfText } from "../support/pdf-text";
 import { makeUser } from "../support/fixtures";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
@@ -149,6 +150,30 @@ describe("deposition package", () => {
       expect(readme).toContain(`registers/${file}`);
       for (const col of header) expect(readme, `${file} ${col}`).toMatch(new RegExp(`\\n  ${col}: (?!${col}\\n)`));
     }
+  });
+
+  it("holds each trench's record as a PDF naming the trench, its contexts and its finds by class", async () => {
+    const db = await getDb();
+    const { bytes } = await fetchPackage(demo.people.director!);
+    const bag = checkBag(unzipSync(bytes));
+    const trenchRows = await db.select().from(s.trenches).where(eq(s.trenches.siteId, demo.siteId));
+    expect(trenchRows.length).toBeGreaterThan(0);
+    for (const t of trenchRows) {
+      const file = bag.files.get(`data/records/trench-${t.code}.pdf`);
+      expect(file, `trench ${t.code}`).toBeDefined();
+      expect(new TextDecoder().decode(file!.slice(0, 5))).toBe("%PDF-");
+      const { pages, title } = await pdfText(file!);
+      expect(title).toBe(`Trench ${t.code} record - WHD26 Whinnydale Holm`);
+      const text = pages.join("\n");
+      expect(text).toContain(`Trench ${t.code}`);
+      const sheets = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, t.id));
+      for (const c of sheets) expect(text, `context ${c.number}`).toContain(`Context ${c.number} · ${c.type}`);
+      // Finds by context and class: the "All" row is the trench's count of finds.
+      const [found] = await db.select({ n: count() }).from(s.finds).where(eq(s.finds.trenchId, t.id));
+      expect(text).toMatch(new RegExp(`\nAll\n\n${found!.n}\n`));
+      expect(text).toContain(t.signedOffAt ? "Signed off by" : "Not signed off");
+    }
+    expect(new TextDecoder().decode(bag.files.get("data/README.txt"))).toContain("records/");
   });
 
   it("reads the finds a page at a time, each once and in number order, as the register reads them at once", async () => {

@@ -4,7 +4,7 @@ import type { Site } from "@/db/schema";
 import { badInput } from "@/lib/server/errors";
 import { findsByNumber } from "@/lib/server/finds";
 import { userNames } from "@/lib/server/reads/user-names";
-import { getTrench } from "@/lib/server/trenches";
+import { getTrench, listTrenches } from "@/lib/server/trenches";
 import { loadFile } from "@/lib/server/uploads/file-store";
 import { PHOTO_MAX_BYTES } from "@/lib/server/uploads/photo-limits";
 import { fetchUpload } from "@/lib/server/uploads/remote";
@@ -13,6 +13,8 @@ import type { depositionQuery } from "@/lib/schemas/export";
 import type { SiteActor } from "@/lib/server/membership";
 import { bagZip, bagZipStream, type BagFile, type BagInfoLines, type BagSummary } from "./bagit";
 import { findsGeoJson } from "./geojson";
+import { readTrenchRecord } from "./trench-record-data";
+import { trenchRecordPdf } from "./trench-record-pdf";
 import { drawSiteMatrix } from "./matrix-image";
 import { packageReadme, type ReadmeRegister } from "./package-readme";
 import {
@@ -148,6 +150,19 @@ export async function planPackage(db: Db, site: Site, userId: string, trenchId?:
       return { path: "matrix/matrix.svg", bytes: utf8(drawing.svg) };
     },
   ];
+
+  // The trench record of each trench in the package, as a PDF.
+  const inScope = (await listTrenches(db, site.id)).filter((t) => !trenchId || t.id === trenchId);
+  for (const trench of inScope)
+    entries.push(async () => {
+      const path = `records/trench-${safeName(trench.code)}.pdf`;
+      return { path, bytes: await trenchRecordPdf(await readTrenchRecord(db, site, trench, exportedAt)) };
+    });
+  if (inScope.length)
+    other.push([
+      "records/",
+      "each trench's record as PDF: summary, sign-off, plan, context sheets, finds by context and class",
+    ]);
 
   if (site.crs) {
     entries.push(async () => {
