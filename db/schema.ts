@@ -3,6 +3,7 @@ import {
   bigint,
   bigserial,
   boolean,
+  check,
   date,
   doublePrecision,
   index,
@@ -118,6 +119,8 @@ export const sites = pgTable("sites", {
   /**
   /** Next drawing number of the drawing register (its own sequence), bumped under the site row's lock. */
   nextDrawingNumber: integer("next_drawing_number").notNull().default(1),
+  /** Next number of the photo register (its own sequence), bumped under the site row's lock. */
+  nextPhotoNumber: integer("next_photo_number").notNull().default(1),
   /**
    * Vertical spread (metres, highest minus lowest reduced level) above which the finds of one class in a
    * Patterns scope are cautioned as possibly mixing several surfaces. Default 0.20 m: common practice.
@@ -185,25 +188,66 @@ export const trenches = pgTable(
   (t) => [uniqueIndex("trenches_site_code").on(t.siteId, t.code)],
 );
 
-export const photos = pgTable("photos", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  siteId: uuid("site_id")
-    .notNull()
-    .references(() => sites.id, { onDelete: "cascade" }),
-  trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
-  fileKey: text("file_key").notNull().unique(),
-  fileName: text("file_name").notNull(),
-  mimeType: text("mime_type").notNull(),
-  width: integer("width"),
-  height: integer("height"),
-  /** Local paths (relative to the file store) of the derivatives sharp made. */
-  displayPath: text("display_path"),
-  thumbPath: text("thumb_path"),
-  /** Control points and the fitted transform (photo pixels → site grid). */
-  fit: jsonb("fit").$type<Record<string, unknown>>(),
-  uploadedBy: uuid("uploaded_by").references(() => users.id),
-  createdAt: created(),
-});
+/** A plan underlay (fitted to the grid) or a record photo of the photo register. */
+export const photoKindEnum = pgEnum("photo_kind", ["plan", "record"]);
+/** Where a record photo's date came from: the camera's EXIF stamp, or the moment it was uploaded. */
+export const photoDateSourceEnum = pgEnum("photo_date_source", ["camera", "upload"]);
+
+/**
+ * Photos: plan underlays (`plan`, of a trench, fitted to the grid) and the photo register (`record`, numbered
+ * per site without gaps, each of exactly one context, find or trench, locked with it). One table, so the
+ * files, their derivatives, the member-only file route and the package treat both alike.
+ */
+export const photos = pgTable(
+  "photos",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    kind: photoKindEnum("kind").notNull().default("plan"),
+    /** A plan photo's trench, or the trench a record photo is of. */
+    trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
+    /** The context or find a record photo is of (at most one of context, find, trench is set for a record photo). */
+    contextId: uuid("context_id").references(() => contexts.id, { onDelete: "restrict" }),
+    findId: uuid("find_id").references(() => finds.id, { onDelete: "restrict" }),
+    /** Photo register number, per site without gaps (record photos only). */
+    number: integer("number"),
+    /** Which way the camera faced, whole degrees clockwise from grid north (0 = N, 90 = E); null = not stated. */
+    facing: integer("facing"),
+    /** The scale shown in the photo as the photographer names it ("1 m", "2 × 1 m"); "none" when there is none. */
+    scale: text("scale").notNull().default(""),
+    caption: text("caption").notNull().default(""),
+    takenBy: uuid("taken_by").references(() => users.id),
+    takenAt: timestamp("taken_at", { withTimezone: true }),
+    takenAtSource: photoDateSourceEnum("taken_at_source"),
+    /** The idempotency key the device sent with the upload: a replayed upload records nothing twice. */
+    clientKey: text("client_key"),
+    fileKey: text("file_key").notNull().unique(),
+    fileName: text("file_name").notNull(),
+    mimeType: text("mime_type").notNull(),
+    width: integer("width"),
+    height: integer("height"),
+    /** Local paths (relative to the file store) of the derivatives sharp made. */
+    displayPath: text("display_path"),
+    thumbPath: text("thumb_path"),
+    /** Control points and the fitted transform (photo pixels → site grid). */
+    fit: jsonb("fit").$type<Record<string, unknown>>(),
+    uploadedBy: uuid("uploaded_by").references(() => users.id),
+    createdAt: created(),
+    updatedAt: updated(),
+  },
+  (t) => [
+    uniqueIndex("photos_site_number").on(t.siteId, t.number),
+    uniqueIndex("photos_site_client_key").on(t.siteId, t.clientKey),
+    index("photos_context").on(t.contextId),
+    index("photos_find").on(t.findId),
+    check(
+      "photos_record_subject",
+      sql`${t.kind} = 'plan' or (${t.number} is not null and num_nonnulls(${t.contextId}, ${t.findId}, ${t.trenchId}) = 1)`,
+    ),
+  ],
+);
 
 export const contexts = pgTable(
   "contexts",

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { drawingKinds } from "@/lib/schemas/drawing";
+import { photoSubjects } from "@/lib/schemas/record-photo";
 import { sampleStatuses, sampleTypes } from "@/lib/schemas/sample";
 import { findProcessingStates } from "@/lib/schemas/processing";
 import { wireDate } from "./operation";
@@ -152,3 +153,43 @@ export const samplesStored = z.object({
 /** The ids of every find the register's filters select (for "select all that match"). */
 export const findIdsAnswer = z.object({ total: z.number(), ids: z.array(id), truncated: z.boolean() });
 export type BoxWithContents = z.output<typeof boxWithContents>;
+/** One entry of the photo register: what it is of, its sheet, and its files (member-only URLs). */
+export const recordPhotoRow = z.object({
+  id,
+  number: z.number(),
+  subject: z.enum(photoSubjects),
+  contextId: id.nullable(),
+  contextNumber: z.number().nullable(),
+  findId: id.nullable(),
+  findNumber: z.number().nullable(),
+  trenchId: id,
+  trenchCode: z.string(),
+  /** The state of what it is of: the context's (or the find's context's), or the trench's sign-off. */
+  state: z.enum(["open", "awaiting", "signed_off"]),
+  /** Locked with what it is of: a context (or a find's context) not open, or a signed-off trench. */
+  locked: z.boolean(),
+  facing: z.number().nullable(),
+  scale: z.string(),
+  caption: z.string(),
+  takenById: id.nullable(),
+  takenBy: z.string().nullable(),
+  takenAt: wireDate.nullable(),
+  /** `camera`: the EXIF date the camera wrote; `upload`: none was in the file, so the upload's moment. */
+  takenAtSource: z.enum(["camera", "upload"]),
+  fileName: z.string(),
+  width: z.number().nullable(),
+  height: z.number().nullable(),
+  thumbUrl: z.string(),
+  displayUrl: z.string(),
+  originalUrl: z.string(),
+  createdAt: wireDate,
+  updatedAt: wireDate,
+});
+export const recordPhotoPage = z.object({
+  page: z.number(),
+  pageSize: z.number(),
+  total: z.number(),
+  rows: z.array(recordPhotoRow),
+});
+export const deletedRecordPhoto = z.object({ deleted: id, number: z.number() });
+export type RecordPhotoRow = z.output<typeof recordPhotoRow>;

@@ -2,32 +2,21 @@ import "server-only";
 import { and, asc, count, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { contexts, drawingContexts, drawings, sites, trenches, users, type Context } from "@/db/schema";
+import { contexts, drawingContexts, drawings, trenches, users, type Context } from "@/db/schema";
 import { isUuid } from "@/lib/schemas/common";
 import type { DrawingCreate, DrawingListQuery, DrawingUpdate } from "@/lib/schemas/drawing";
-import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
 import { recordAudit } from "./audit";
-import { badInput, conflict, notFound } from "./errors";
+import { badInput, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import { assertContextWritable } from "./locks";
 import { assertNamedMember, type SiteActor } from "./membership";
+import { allocateRegisterNumber } from "./register-numbers";
 
 /**
  * The drawing register (issue 15 item 3): plans and sections drawn on film or paper, numbered per site in
  * their own sequence without gaps, each showing one or more contexts of one trench. A drawing is locked
  * with its contexts: while any context it shows is submitted or signed off, it cannot change.
  */
-
-/** The next drawing number, inside the caller's transaction (the UPDATE holds the site row's lock). */
-async function allocateDrawingNumber(tx: Tx, siteId: string): Promise<number> {
-  const [row] = await tx
-    .update(sites)
-    .set({ nextDrawingNumber: sql`${sites.nextDrawingNumber} + 1` })
-    .where(sql`${sites.id} = ${siteId} and ${sites.nextDrawingNumber} <= ${MAX_FIND_NUMBER}`)
-    .returning({ next: sites.nextDrawingNumber });
-  if (row) return row.next - 1;
-  throw conflict(`This site's drawing numbers are used up: they go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`);
-}
 
 async function getDrawing(tx: Db | Tx, siteId: string, drawingId: string) {
   if (!isUuid(drawingId)) throw notFound("That drawing");
@@ -82,7 +71,7 @@ export async function createDrawing(db: Db, actor: SiteActor, input: DrawingCrea
     const shown = await contextsNamed(tx, actor.site.id, input.contextIds);
     for (const c of shown) await assertContextWritable(tx, c, "given new drawings");
     await assertNamedMember(tx, actor.site.id, input.drawnBy, "drawnBy", "who drew it");
-    const number = await allocateDrawingNumber(tx, actor.site.id);
+    const number = await allocateRegisterNumber(tx, actor.site.id, "drawing");
     const [row] = await tx
       .insert(drawings)
       .values({

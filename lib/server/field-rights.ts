@@ -97,6 +97,12 @@ export const fieldRights = {
   },
   // The finds store is kept by whoever processes finds: diggers, specialists and the director alike.
   box: { number: everyone, store: everyone, note: everyone },
+  photo: {
+    facing: recorders,
+    scale: recorders,
+    caption: recorders,
+    takenBy: recorders,
+  },
 } satisfies Record<string, Record<string, readonly Role[]>>;
 
 export type RightsRecord = keyof typeof fieldRights;
@@ -114,6 +120,7 @@ const recordWords: Record<RightsRecord, string> = {
   sample: "a sample",
   drawing: "a drawing",
   box: "a box",
+  photo: "a record photo",
 };
 
 /** The fields of `record` that `role` may change (for forms that show the others read-only). */

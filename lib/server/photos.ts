@@ -1,6 +1,6 @@
 import "server-only";
 import { and, desc, eq } from "drizzle-orm";
-import type { Db } from "@/db/client";
+import type { Db, Tx } from "@/db/client";
 import { photos, type Photo } from "@/db/schema";
 import { fitPhoto, PhotoFitError } from "@/lib/geometry/photo-fit";
 import type { PhotoFitInput, PhotoView, StoredFit } from "@/lib/geometry/photo-fit-input";
@@ -37,17 +37,19 @@ export function toPhotoView(p: Photo): PhotoView {
 }
 
 export async function listPhotos(db: Db, siteId: string, trenchId?: string): Promise<PhotoView[]> {
-  const where = trenchId ? and(eq(photos.siteId, siteId), eq(photos.trenchId, trenchId)) : eq(photos.siteId, siteId);
+  const plan = and(eq(photos.siteId, siteId), eq(photos.kind, "plan"));
+  const where = trenchId ? and(plan, eq(photos.trenchId, trenchId)) : plan;
   const rows = await db.select().from(photos).where(where).orderBy(desc(photos.createdAt));
   return rows.map(toPhotoView);
 }
 
-export async function getPhoto(db: Db, siteId: string, photoId: string): Promise<Photo> {
+/** One photo of the site: a plan underlay, a record photo of the register, or (no kind given, the file route) either. */
+export async function getPhoto(db: Db | Tx, siteId: string, photoId: string, kind?: Photo["kind"]): Promise<Photo> {
   if (!/^[0-9a-f-]{36}$/i.test(photoId)) throw notFound("That photo");
   const [row] = await db
     .select()
     .from(photos)
-    .where(and(eq(photos.siteId, siteId), eq(photos.id, photoId)));
+    .where(and(eq(photos.siteId, siteId), eq(photos.id, photoId), kind ? eq(photos.kind, kind) : undefined));
   if (!row) throw notFound("That photo");
   return row;
 }
@@ -66,7 +68,7 @@ export type UploadedPhoto = {
  * What the audit trail says of a photo: the file by name, size and type, and the photo's id — never the
  * upload service's key, which is a capability for the original, not a description of it.
  */
-function auditedPhoto(p: Photo, size?: number) {
+export function auditedPhoto(p: Photo, size?: number) {
   const { fileKey: _key, ...rest } = p;
   return size === undefined ? rest : { ...rest, size };
 }
@@ -119,7 +121,7 @@ export async function fitSitePhoto(
   photoId: string,
   input: PhotoFitInput,
 ): Promise<PhotoView> {
-  const before = await getPhoto(db, actor.site.id, photoId);
+  const before = await getPhoto(db, actor.site.id, photoId, "plan");
   const { width, height } = before;
   if (width && height) {
     const off = input.points.findIndex((p) => p.px < 0 || p.py < 0 || p.px > width || p.py > height);
@@ -184,7 +186,7 @@ export async function fitSitePhoto(
 }
 
 export async function deleteSitePhoto(db: Db, actor: SiteActor, photoId: string) {
-  const before = await getPhoto(db, actor.site.id, photoId);
+  const before = await getPhoto(db, actor.site.id, photoId, "plan");
   await db.transaction(async (tx) => {
     await tx.delete(photos).where(eq(photos.id, photoId));
     await recordAudit(tx, {

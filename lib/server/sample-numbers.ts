@@ -1,10 +1,9 @@
 import "server-only";
-import { eq, sql } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import type { Tx } from "@/db/client";
 import { sites } from "@/db/schema";
-import { MAX_FIND_NUMBER } from "@/lib/schemas/find";
-import { conflict } from "./errors";
 import { allocateFindNumbers } from "./find-numbers";
+import { allocateRegisterNumber } from "./register-numbers";
 
 /**
  * The next sample number of a site, inside the caller's transaction. A site chooses (field.md) whether
@@ -20,13 +19,5 @@ export async function allocateSampleNumber(tx: Tx, siteId: string): Promise<numb
     .where(eq(sites.id, siteId))
     .for("update");
   if (site?.shared) return allocateFindNumbers(tx, siteId, 1);
-  const [row] = await tx
-    .update(sites)
-    .set({ nextSampleNumber: sql`${sites.nextSampleNumber} + 1` })
-    .where(sql`${sites.id} = ${siteId} and ${sites.nextSampleNumber} <= ${MAX_FIND_NUMBER}`)
-    .returning({ next: sites.nextSampleNumber });
-  if (row) return row.next - 1;
-  throw conflict(`This site's sample numbers are used up: they go up to ${MAX_FIND_NUMBER.toLocaleString("en-GB")}.`, {
-    left: 0,
-  });
+  return allocateRegisterNumber(tx, siteId, "sample");
 }

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { contexts, finds, trenches, type Trench } from "@/db/schema";
+import { contexts, finds, photos, trenches, type Trench } from "@/db/schema";
 import { checkOutline, windowToPolygon, type OutlinePolygon } from "@/lib/geometry/outline";
 import { isUuid } from "@/lib/schemas/common";
 import type { TrenchCreate, TrenchUpdate } from "@/lib/schemas/trench";
@@ -171,6 +171,15 @@ export async function deleteTrench(db: Db, actor: SiteActor, trenchId: string, e
     assertVersion(before, expectedVersion, `Trench ${before.code}`);
     const [ctx] = await tx.select({ id: contexts.id }).from(contexts).where(eq(contexts.trenchId, trenchId)).limit(1);
     if (ctx) throw conflict(`Trench ${before.code} still has contexts; a trench with records cannot be deleted.`);
+    const [photo] = await tx
+      .select({ number: photos.number })
+      .from(photos)
+      .where(and(eq(photos.trenchId, trenchId), eq(photos.kind, "record")))
+      .limit(1);
+    if (photo)
+      throw conflict(
+        `Trench ${before.code} has photo ${photo.number} in the photo register; a trench with records cannot be deleted.`,
+      );
     await tx.delete(trenches).where(eq(trenches.id, trenchId));
     await recordAudit(tx, {
       siteId: actor.site.id,

@@ -20,6 +20,7 @@ const recordOf: Record<string, RightsRecord> = {
   sampleUpdate: "sample",
   drawingUpdate: "drawing",
   boxUpdate: "box",
+  recordPhotoUpdate: "photo",
 };
 
 const roles = ["digger", "specialist", "director"] as const;

@@ -21,7 +21,8 @@ import * as squaresRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/squa
 import * as squareRecordRoute from "@/app/api/sites/[siteId]/square-records/[sampleId]/route";
 import * as squareImportRoute from "@/app/api/sites/[siteId]/square-import/route";
 import { gridTrench, makeSquareRecord, squareCsv } from "./role-cases/squares";
-import { makeDrawing, makeSample } from "./role-cases/archive";
+import { makeDrawing, makeRecordPhoto, makeSample } from "./role-cases/archive";
+import * as recordPhotoRoute from "@/app/api/sites/[siteId]/record-photos/[photoId]/route";
 import * as drawingsRoute from "@/app/api/sites/[siteId]/drawings/route";
 import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as samplesRoute from "@/app/api/sites/[siteId]/samples/route";
@@ -432,6 +433,36 @@ const cases: LockCase[] = [
     }),
   },
   {
+    op: "recordPhotoUpdate",
+    title: "change the caption of a photo of T",
+    prepare: async (fx) => ({
+      mod: recordPhotoRoute,
+      params: { ...site(fx), photoId: (await makeRecordPhoto(fx)).id },
+      body: { caption: "Hearth, half-sectioned", facing: "NE" },
+    }),
+  },
+  {
+    op: "recordPhotoUpdate",
+    title: "change the scale of a photo of a find of T",
+    prepare: async (fx) => ({
+      mod: recordPhotoRoute,
+      params: {
+        ...site(fx),
+        photoId: (await makeRecordPhoto(fx, { findId: (await findIn(fx, fx.context.id)).id })).id,
+      },
+      body: { scale: "20 cm" },
+    }),
+  },
+  {
+    op: "recordPhotoDelete",
+    title: "delete a photo of T",
+    prepare: async (fx) => ({
+      mod: recordPhotoRoute,
+      params: { ...site(fx), photoId: (await makeRecordPhoto(fx)).id },
+      body: { reason: "out of focus" },
+    }),
+  },
+  {
     op: "trenchUpdate",
     title: "redraw the outline so a find of T falls outside",
     alwaysRefused: true,
@@ -519,6 +550,7 @@ async function snapshot(): Promise<string> {
     schema.samples,
     schema.drawings,
     schema.drawingContexts,
+    schema.photos,
   ];
   const parts: string[] = [];
   for (const t of tables) parts.push(JSON.stringify(await db.select().from(t)));

@@ -16,6 +16,7 @@ import * as benchmarkRoute from "@/app/api/sites/[siteId]/benchmarks/[benchmarkI
 import * as sampleRoute from "@/app/api/sites/[siteId]/samples/[sampleId]/route";
 import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/route";
 import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
+import * as recordPhotoRoute from "@/app/api/sites/[siteId]/record-photos/[photoId]/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
 import { makeSite, makeUser, type SiteFixture } from "./fixtures";
 
@@ -400,3 +401,31 @@ export async function makeUpdateSite(): Promise<UpdateFixture> {
     .returning();
   return { ...fx, alt: { contextId: ctx.id, classId: cls.id } };
 }
+
+updatables.recordPhotoUpdate = {
+  mod: recordPhotoRoute,
+  target: async (fx) => {
+    const db = await getDb();
+    const n = unique();
+    const [p] = await db
+      .insert(schema.photos)
+      .values({
+        siteId: fx.site.id,
+        kind: "record",
+        contextId: fx.context.id,
+        number: 800_000 + n,
+        scale: "1 m",
+        fileKey: `updatable-record-photo-${fx.site.id}-${n}`,
+        fileName: `photo-${n}.jpg`,
+        mimeType: "image/jpeg",
+      })
+      .returning();
+    return { params: { siteId: fx.site.id, photoId: p!.id }, read: () => rowOf(schema.photos, p!.id) };
+  },
+  fields: (fx) => ({
+    facing: fc.constantFrom(null, 0, 45, 90, 135, 200, 359),
+    scale: fc.constantFrom("none", "1 m", "2 m", "50 cm"),
+    caption: text(),
+    takenBy: fc.constantFrom(null, fx.people.digger.id, fx.people.director.id),
+  }),
+};

@@ -18,6 +18,7 @@ import {
   drawingUpdateSchema,
   exportDrawingsQuery,
 } from "@/lib/schemas/drawing";
+import { recordPhotoDeleteSchema, recordPhotoListQuery, recordPhotoUpdateSchema } from "@/lib/schemas/record-photo";
 import {
   boxPage,
   boxRecord,
@@ -25,6 +26,9 @@ import {
   findIdsAnswer,
   samplesStored,
   bulkDone,
+  deletedRecordPhoto,
+  recordPhotoPage,
+  recordPhotoRow,
   deletedDrawing,
   deletedSample,
   drawingPage,
@@ -144,6 +148,39 @@ export const archiveApi = {
     roles: "member",
     input: exportDrawingsQuery,
     from: "query",
+  },
+  /*
+   * Record photos are added through the upload route (/api/uploadthing, slug `recordPhoto`, input
+   * lib/schemas/record-photo.ts `recordPhotoUploadSchema`): its middleware applies the recorders' role and the
+   * lock before any byte is sent. Their files come through photoFile, for members only.
+   */
+  recordPhotosList: {
+    method: "GET",
+    path: "/api/sites/{siteId}/record-photos",
+    summary: "Photo register: record photos of contexts, finds and trenches; filter by trench, context, find; page",
+    roles: "member",
+    input: recordPhotoListQuery,
+    from: "query",
+    response: recordPhotoPage,
+  },
+  recordPhotoUpdate: {
+    method: "PATCH",
+    path: "/api/sites/{siteId}/record-photos/{photoId}",
+    summary: "Change a record photo's caption, facing, scale or photographer (locked with what it is of)",
+    roles: recorders,
+    doing: "change record photos",
+    input: recordPhotoUpdateSchema,
+    response: recordPhotoRow,
+  },
+  recordPhotoDelete: {
+    method: "DELETE",
+    path: "/api/sites/{siteId}/record-photos/{photoId}",
+    summary: "Delete a record photo with a reason (its number is never reused)",
+    roles: recorders,
+    doing: "delete record photos",
+    input: recordPhotoDeleteSchema,
+    from: "body",
+    response: deletedRecordPhoto,
   },
   exportPackage: {
     method: "GET",

@@ -17,6 +17,8 @@ import { findsByNumber } from "@/lib/server/finds";
 import { listBenchmarks } from "@/lib/server/benchmarks";
 import { allSamples } from "@/lib/server/samples";
 import { allDrawings } from "@/lib/server/drawings";
+import { allRecordPhotos, type RecordPhotoRow } from "@/lib/server/record-photos";
+import { facingWords } from "@/lib/schemas/record-photo";
 import { userNames } from "@/lib/server/reads/user-names";
 import { contextsForExport } from "./contexts-export";
 import {
@@ -261,8 +263,21 @@ export const photoColumns: readonly CsvColumn[] = [
   ["file", "text"],
   ["copy", "text"],
   ["file_name", "text"],
+  ["photo_kind", "text"],
+  ["photo_number", "number"],
+  ["photo_of", "text"],
+  ["context", "number"],
+  ["find_number", "number"],
   ["trench", "text"],
   ["trench_state", "text"],
+  ["record_state", "text"],
+  ["facing", "text"],
+  ["facing_degrees", "number"],
+  ["scale_shown", "text"],
+  ["caption", "text"],
+  ["photographer", "text"],
+  ["taken_at", "text"],
+  ["taken_at_from", "text"],
   ["width_px", "number"],
   ["height_px", "number"],
   ["fitted_to_grid", "text"],
@@ -284,22 +299,52 @@ export type PackagePhoto = {
   trenchSignedOff: boolean;
   uploadedBy: string;
   uploadedAt: Date;
+  /** A plan underlay, or a record photo of the photo register with its sheet. */
+  kind: "plan" | "record";
+  record: RecordPhotoRow | null;
 };
 
-/** The photos of the site (or trench), in upload order; their files follow the registers. */
+/**
+ * The photos of the site (or trench): plan underlays in upload order, then the photo register in number
+ * order (a record photo of a context or find belongs to that record's trench). Their files follow the registers.
+ */
 export async function packagePhotos(db: Db, scope: PackageScope): Promise<PackagePhoto[]> {
   const rows = await db
     .select({ p: photos, trenchCode: trenches.code, signedOffAt: trenches.signedOffAt })
     .from(photos)
     .leftJoin(trenches, eq(trenches.id, photos.trenchId))
-    .where(eq(photos.siteId, scope.siteId))
+    .where(and(eq(photos.siteId, scope.siteId), eq(photos.kind, "plan")))
     .orderBy(asc(photos.createdAt), asc(photos.id));
   const kept = rows.filter((r) => !scope.trenchId || r.p.trenchId === scope.trenchId);
-  const names = await userNames(
-    db,
-    kept.map((r) => r.p.uploadedBy),
+  const records = await allRecordPhotos(db, scope.siteId, { trenchId: scope.trenchId });
+  const files = new Map(
+    records.length
+      ? (
+          await db
+            .select()
+            .from(photos)
+            .where(
+              inArray(
+                photos.id,
+                records.map((r) => r.id),
+              ),
+            )
+        ).map((p) => [p.id, p])
+      : [],
   );
-  return kept.map(({ p, trenchCode, signedOffAt }) => ({
+  const signedOff = new Map(
+    (
+      await db
+        .select({ id: trenches.id, at: trenches.signedOffAt })
+        .from(trenches)
+        .where(eq(trenches.siteId, scope.siteId))
+    ).map((t) => [t.id, t.at !== null]),
+  );
+  const names = await userNames(db, [
+    ...kept.map((r) => r.p.uploadedBy),
+    ...[...files.values()].map((p) => p.uploadedBy),
+  ]);
+  const plan: PackagePhoto[] = kept.map(({ p, trenchCode, signedOffAt }) => ({
     id: p.id,
     siteId: p.siteId,
     fileKey: p.fileKey,
@@ -313,7 +358,33 @@ export async function packagePhotos(db: Db, scope: PackageScope): Promise<Packag
     trenchSignedOff: signedOffAt !== null,
     uploadedBy: p.uploadedBy ? (names.get(p.uploadedBy) ?? "") : "",
     uploadedAt: p.createdAt,
+    kind: "plan",
+    record: null,
   }));
+  const recorded: PackagePhoto[] = records.flatMap((r) => {
+    const p = files.get(r.id);
+    if (!p) return [];
+    return [
+      {
+        id: p.id,
+        siteId: p.siteId,
+        fileKey: p.fileKey,
+        fileName: p.fileName,
+        mimeType: p.mimeType,
+        displayPath: p.displayPath,
+        width: p.width,
+        height: p.height,
+        fitted: false,
+        trenchCode: r.trenchCode,
+        trenchSignedOff: signedOff.get(r.trenchId) ?? false,
+        uploadedBy: p.uploadedBy ? (names.get(p.uploadedBy) ?? "") : "",
+        uploadedAt: p.createdAt,
+        kind: "record",
+        record: r,
+      },
+    ];
+  });
+  return [...plan, ...recorded];
 }
 
 /** The photos register; `files` says which copy of each photo went into the package, and where. */
@@ -322,18 +393,35 @@ export function photosRegister(list: PackagePhoto[], files: Map<string, { path: 
     "photos.csv",
     "Photos",
     photoColumns,
-    list.map((p) => [
-      files.get(p.id)?.path ?? "",
-      files.get(p.id)?.copy ?? "missing",
-      p.fileName,
-      p.trenchCode,
-      p.trenchSignedOff ? "signed_off" : "open",
-      p.width,
-      p.height,
-      yesNo(p.fitted),
-      p.uploadedBy,
-      iso(p.uploadedAt),
-    ]),
+    list.map((p) => {
+      const r = p.record;
+      return [
+        files.get(p.id)?.path ?? "",
+        files.get(p.id)?.copy ?? "missing",
+        p.fileName,
+        p.kind === "plan" ? "plan underlay" : "record",
+        r?.number ?? null,
+        r?.subject ?? "trench plan",
+        r?.contextNumber ?? null,
+        r?.findNumber ?? null,
+        p.trenchCode,
+        p.trenchSignedOff ? "signed_off" : "open",
+        // A record photo is final once what it is of is: not yet signed off is marked here as in every register.
+        r?.state ?? "",
+        r ? facingWords(r.facing) : "",
+        r?.facing ?? null,
+        r?.scale ?? "",
+        r?.caption ?? "",
+        r?.takenBy ?? "",
+        r?.takenAt ? iso(r.takenAt) : "",
+        r ? (r.takenAtSource === "camera" ? "camera (EXIF)" : "upload time") : "",
+        p.width,
+        p.height,
+        yesNo(p.fitted),
+        p.uploadedBy,
+        iso(p.uploadedAt),
+      ];
+    }),
   );
 }
 

@@ -4,9 +4,12 @@ import { UploadThingError } from "uploadthing/server";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { recorders } from "@/lib/api/operation";
-import { isPublicError } from "../errors";
+import { badInput, isPublicError } from "../errors";
+import { describeFieldErrors, zodFieldErrors } from "../guard";
 import { assertRole, loadSiteActor } from "../membership";
 import { storeUploadedPhoto } from "../photos";
+import { assertRecordPhotoAllowed, storeRecordPhoto } from "../record-photos";
+import { recordPhotoUploadSchema } from "@/lib/schemas/record-photo";
 import { currentUserId } from "../session";
 import { getTrench } from "../trenches";
 import { PHOTO_MAX_BYTES, PHOTO_TYPES } from "./photo-limits";
@@ -14,12 +17,27 @@ import { fetchUpload, forgetUpload } from "./remote";
 
 export { PHOTO_MAX_BYTES, PHOTO_TYPES };
 
-const f = createUploadthing({ errorFormatter: (err) => ({ message: err.message }) });
+/**
+ * The client reads a refusal's message, and for record photos sent from the device's outbox also the
+ * status and reason code the JSON API would have given (a lock is 409 `locked`), so the outbox treats it alike.
+ */
+const f = createUploadthing({
+  errorFormatter: (err) => {
+    const cause = isPublicError(err.cause) ? err.cause : null;
+    return {
+      message: err.message,
+      status: cause?.status ?? null,
+      reason: cause?.code ?? null,
+      fieldErrors: cause?.fieldErrors ?? null,
+    };
+  },
+});
 
 /** Turns Loamwork's refusals into upload refusals the client shows as they are. */
 function refuse(err: unknown): never {
   if (isPublicError(err))
     throw new UploadThingError({
+      cause: err,
       code:
         err.status === 401
           ? "FORBIDDEN"
@@ -32,6 +50,45 @@ function refuse(err: unknown): never {
     });
   throw err;
 }
+
+/** The type and size of each file, refused before anything is sent, naming the file. */
+function checkFiles(files: readonly { name: string; type: string; size: number }[], what: string) {
+  for (const file of files) {
+    if (!PHOTO_TYPES.includes(file.type)) {
+      throw new UploadThingError({
+        code: "BAD_REQUEST",
+        message: `“${file.name}” is ${file.type || "of no known type"}, not a photo: upload a JPEG, PNG, WebP, TIFF, HEIF or AVIF image.`,
+      });
+    }
+    if (file.size > PHOTO_MAX_BYTES) {
+      throw new UploadThingError({
+        code: "TOO_LARGE",
+        message: `“${file.name}” is ${(file.size / 1048576).toFixed(1)} MB; the limit for ${what} is 16 MB.`,
+      });
+    }
+  }
+}
+
+/** Reads the upload's original from the service; on any refusal nothing stays behind there. */
+async function processed<T>(fileKey: string, store: (bytes: Buffer) => Promise<T>, what: string) {
+  try {
+    return await store(await fetchUpload(fileKey, PHOTO_MAX_BYTES));
+  } catch (err) {
+    // Nothing was recorded, so nothing may stay behind at the upload service either.
+    await forgetUpload(fileKey);
+    // The refusal travels back to the uploader as server data: onUploadComplete must not throw.
+    if (isPublicError(err)) return { error: err.message, status: err.status, reason: err.code ?? null };
+    console.error(`[loamwork] ${what} upload processing failed`, err);
+    return {
+      error: "The photo arrived but could not be processed; nothing was recorded.",
+      status: 500,
+      reason: null as string | null,
+    };
+  }
+}
+
+/** The upload's JSON as sent; the record photo's own schema reads it in the middleware, naming each field. */
+const jsonFields = z.record(z.string(), z.union([z.string(), z.number(), z.null()]));
 
 export const uploadRouter = {
   trenchPhoto: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
@@ -47,41 +104,71 @@ export const uploadRouter = {
       } catch (err) {
         refuse(err);
       }
-      for (const file of files) {
-        if (!PHOTO_TYPES.includes(file.type)) {
-          throw new UploadThingError({
-            code: "BAD_REQUEST",
-            message: `“${file.name}” is ${file.type || "of no known type"}, not a photo: upload a JPEG, PNG, WebP, TIFF, HEIF or AVIF image.`,
-          });
-        }
-        if (file.size > PHOTO_MAX_BYTES) {
-          throw new UploadThingError({
-            code: "TOO_LARGE",
-            message: `“${file.name}” is ${(file.size / 1048576).toFixed(1)} MB; the limit for a plan photo is 16 MB.`,
-          });
-        }
-      }
+      checkFiles(files, "a plan photo");
       return { siteId: input.siteId, trenchId: input.trenchId, userId };
     })
     .onUploadComplete(async ({ metadata, file }) => {
-      try {
-        const bytes = await fetchUpload(file.key, PHOTO_MAX_BYTES);
-        const photo = await storeUploadedPhoto(await getDb(), {
-          ...metadata,
-          fileKey: file.key,
-          fileName: file.name,
-          mimeType: file.type,
-          bytes,
-        });
-        return { photoId: photo.id, error: null as string | null };
-      } catch (err) {
-        // Nothing was recorded, so nothing may stay behind at the upload service either.
-        await forgetUpload(file.key);
-        // The refusal travels back to the uploader as server data: onUploadComplete must not throw.
-        if (isPublicError(err)) return { photoId: null, error: err.message };
-        console.error("[loamwork] photo upload processing failed", err);
-        return { photoId: null, error: "The photo arrived but could not be processed; nothing was recorded." };
+      const out = await processed(
+        file.key,
+        async (bytes) => {
+          const photo = await storeUploadedPhoto(await getDb(), {
+            ...metadata,
+            fileKey: file.key,
+            fileName: file.name,
+            mimeType: file.type,
+            bytes,
+          });
+          return { photoId: photo.id as string | null, error: null as string | null };
+        },
+        "photo",
+      );
+      return "photoId" in out ? out : { photoId: null, error: out.error };
+    }),
+
+  /**
+   * A record photo of the photo register: the file with what it is of and its sheet. The device's
+   * idempotency key travels as the `idempotency-key` header, so an upload replayed from the outbox
+   * records one photo.
+   */
+  recordPhoto: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
+    .input(jsonFields)
+    .middleware(async ({ req, input: raw, files }) => {
+      const userId = await currentUserId();
+      if (!userId) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in to upload photos." });
+      const db = await getDb();
+      const parsed = recordPhotoUploadSchema.safeParse(raw);
+      if (!parsed.success) {
+        const fieldErrors = zodFieldErrors(parsed.error);
+        refuse(badInput(`Check the photo's sheet — ${describeFieldErrors(fieldErrors)}`, fieldErrors));
       }
+      const input = parsed.data;
+      try {
+        await assertRecordPhotoAllowed(db, await loadSiteActor(db, userId, input.siteId), input);
+      } catch (err) {
+        refuse(err);
+      }
+      checkFiles(files, "a photo");
+      const key = req.headers.get("idempotency-key");
+      return { userId, input, clientKey: key && key.length <= 100 ? key : null };
+    })
+    .onUploadComplete(async ({ metadata, file }) => {
+      const out = await processed(
+        file.key,
+        async (bytes) => {
+          const photo = await storeRecordPhoto(await getDb(), {
+            ...metadata,
+            fileKey: file.key,
+            fileName: file.name,
+            mimeType: file.type,
+            bytes,
+          });
+          return { photoId: photo.id as string | null, number: photo.number, error: null as string | null };
+        },
+        "record photo",
+      );
+      return "photoId" in out
+        ? { ...out, status: 201, reason: null as string | null }
+        : { photoId: null, number: null, error: out.error, status: out.status, reason: out.reason };
     }),
 } satisfies FileRouter;
 

@@ -11,6 +11,7 @@ import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 import * as samplesStoreRoute from "@/app/api/sites/[siteId]/samples/store/route";
 import * as boxesRoute from "@/app/api/sites/[siteId]/boxes/route";
 import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
+import * as recordPhotoRoute from "@/app/api/sites/[siteId]/record-photos/[photoId]/route";
 import { insertFind } from "./core";
 
 /** A box of the fixture's site, inserted directly so only the call under test writes. */
@@ -59,6 +60,29 @@ export async function makeDrawing(fx: SiteFixture, contextId = fx.context.id) {
   return d!;
 }
 
+/** A record photo of the fixture's context (or of another record), inserted directly so only the call under test writes. */
+export async function makeRecordPhoto(
+  fx: SiteFixture,
+  of: { contextId?: string; findId?: string; trenchId?: string } = { contextId: fx.context.id },
+) {
+  const db = await getDb();
+  const n = nextCount();
+  const [p] = await db
+    .insert(schema.photos)
+    .values({
+      siteId: fx.site.id,
+      kind: "record",
+      ...of,
+      number: 90_000 + n,
+      scale: "1 m",
+      fileKey: `test-record-photo-${fx.site.id}-${n}`,
+      fileName: `photo-${n}.jpg`,
+      mimeType: "image/jpeg",
+    })
+    .returning();
+  return p!;
+}
+
 /** Mutating operations of the archive registers. */
 export const archiveCases: RoleCases = {
   samplesCreate: async (fx) => ({
@@ -97,6 +121,18 @@ export const archiveCases: RoleCases = {
   drawingDelete: async (fx) => {
     const d = await makeDrawing(fx);
     return { mod: drawingRoute, params: { siteId: fx.site.id, drawingId: d.id }, body: { reason: "entered twice" } };
+  },
+  recordPhotoUpdate: async (fx) => {
+    const p = await makeRecordPhoto(fx);
+    return {
+      mod: recordPhotoRoute,
+      params: { siteId: fx.site.id, photoId: p.id },
+      body: { caption: `Section, facing ${nextCount()}` },
+    };
+  },
+  recordPhotoDelete: async (fx) => {
+    const p = await makeRecordPhoto(fx);
+    return { mod: recordPhotoRoute, params: { siteId: fx.site.id, photoId: p.id }, body: { reason: "out of focus" } };
   },
   // Re-classing: the one bulk change every role may make (moving and deleting are tested in finds-bulk.test.ts).
   findsBulk: async (fx) => {
