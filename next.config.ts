@@ -10,7 +10,9 @@ const config: NextConfig = {
   // PGlite opens its own files at run time; keep it out of the bundle (local-services.md).
   // rate-limiter-flexible loads its Drizzle helpers by a computed import that a bundle cannot follow.
   // pg-listen needs pg-format, which loads a file by a path computed at run time.
+  // sql.js (the GeoPackage export) loads its WebAssembly file from beside its own script.
   serverExternalPackages: [
+    "sql.js",
     "@electric-sql/pglite",
     "piscina",
     "sharp",

@@ -65,3 +65,14 @@ const verdict = view.result.tests[0].verdict;
 // FLK in 1005 is laid out clustered by the demo seed (scripts/seed/seed-demo.ts).
 if (verdict !== "clustered") throw new Error(`FLK in 1005 should come out clustered; got ${verdict}`);
 console.log(`Run ${run.id}: done in ${((Date.now() - started) / 1000).toFixed(1)} s, FLK in 1005 ${verdict}.`);
+
+// The GeoPackage export runs SQLite as WebAssembly from its package, outside the server bundle: one download
+// proves the pruned install has it. A GeoPackage is an SQLite file with the application id "GPKG" at byte 68
+// (SQLite file format, database header; OGC GeoPackage 1.2 §1.1.1.1.1).
+const gpkg = await fetch(`${base}/api/sites/${id}/export/gis`, { headers: { cookie: cookie() } });
+const bytes = new Uint8Array(await gpkg.arrayBuffer());
+const head = new TextDecoder().decode(bytes.slice(0, 15));
+const appId = new TextDecoder().decode(bytes.slice(68, 72));
+if (gpkg.status !== 200 || head !== "SQLite format 3" || appId !== "GPKG")
+  throw new Error(`the GeoPackage export failed (${gpkg.status}, ${bytes.length} bytes, header "${head}")`);
+console.log(`GeoPackage of the demo site: ${bytes.length} bytes.`);

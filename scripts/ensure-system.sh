@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # Installs the Debian packages the tests need when they are missing: Debian's chromium (browser tests;
-# never a downloaded browser) and a PostgreSQL server (the integration suite's second run).
+# never a downloaded browser), a PostgreSQL server (the integration suite's second run) and GDAL's
+# command-line tools (the GIS exports are opened with ogrinfo, as a desktop GIS would read them).
 #
 # Another install may hold the package lock (a fresh machine often runs its own updates at first boot):
 # wait for it, up to APT_LOCK_WAIT seconds (default 600), rather than fail at once.
@@ -10,6 +11,7 @@ lock_wait="${APT_LOCK_WAIT:-600}"
 need=()
 [ -x /usr/bin/chromium ] || need+=(chromium)
 ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1 || need+=(postgresql)
+command -v ogrinfo >/dev/null 2>&1 || need+=(gdal-bin)
 [ ${#need[@]} -gt 0 ] || exit 0
 
 echo "Installing Debian packages: ${need[*]}"

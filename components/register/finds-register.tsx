@@ -96,23 +96,14 @@ export function FindsRegister({
         <a className="btn" href={`/api/sites/${siteId}/export/finds?format=csv&${exportQs}`} download>
           Export CSV
         </a>
-        <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=grid&${exportQs}`} download>
-          GeoJSON (site grid)
-        </a>
         {hasCrs && (
-          <a
-            className="btn"
-            href={`/api/sites/${siteId}/export/finds?format=geojson&coords=lonlat&${exportQs}`}
-            download
-          >
+          <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&${exportQs}`} download>
             GeoJSON (WGS 84)
           </a>
         )}
-        {hasCrs && (
-          <a className="btn" href={`/api/sites/${siteId}/export/finds?format=geojson&coords=crs&${exportQs}`} download>
-            GeoJSON (site CRS)
-          </a>
-        )}
+        <a className="btn" href={`/api/sites/${siteId}/export/gis`} download>
+          GeoPackage (GIS)
+        </a>
         {canImport && (
           <Link className="btn-primary" href={`/sites/${siteId}/finds/import`}>
             Import total-station CSV

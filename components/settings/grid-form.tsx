@@ -44,18 +44,20 @@ export function GridForm({ siteId, initial, canEdit }: { siteId: string; initial
       {field("gridOriginY", "Grid origin northing (m)", { inputMode: "decimal", className: "field font-mono" })}
       <div className="sm:col-span-2">
         <label className="label" htmlFor="site-crs">
-          Projected CRS for export (proj4 definition, optional)
+          Projected CRS the site is placed in (OGC WKT or a proj4 definition, optional)
         </label>
-        <input
+        <textarea
           id="site-crs"
-          className="field font-mono text-sm"
+          className="field min-h-24 font-mono text-sm"
           disabled={!canEdit}
-          placeholder="+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy +units=m +no_defs"
+          placeholder='PROJCS["OSGB36 / British National Grid", … AUTHORITY["EPSG","27700"]]'
           {...form.register("crs")}
         />
         <p className="text-sm text-ink-soft">
-          Grid coordinates are shifted by the origin above into this system when finds are exported as projected
-          GeoJSON.
+          The grid's axes are taken as parallel to this system's, with the origin above. Placed, the site's GIS exports
+          also come in this system and in WGS 84 (GeoJSON is WGS 84 only). Give the WKT (as the EPSG registry publishes
+          it) for the GeoPackage to name the system by its EPSG code; a bare proj4 definition places the WGS 84 layers
+          only.
         </p>
         <p className="field-error" aria-live="polite">
           {e.crs?.message}

@@ -7,7 +7,16 @@ import { findListQuery } from "./find";
 export const coordSpaces = ["grid", "crs", "lonlat"] as const;
 export type CoordSpace = (typeof coordSpaces)[number];
 
-const coords = z.enum(coordSpaces, { error: "Coordinates are grid, crs or lonlat." }).default("grid");
+/**
+ * GeoJSON is WGS 84 longitude/latitude only (RFC 7946 §4: no other CRS can be named in it); site-grid and
+ * projected coordinates go out in the GeoPackage, which names its own systems.
+ */
+const coords = z
+  .enum(["lonlat"], {
+    error:
+      "GeoJSON holds WGS 84 longitude/latitude only (RFC 7946); for site-grid or projected coordinates download the GeoPackage (export/gis).",
+  })
+  .optional();
 
 /** The register's own filters, so the export writes exactly what the register shows. */
 export const exportFindsQuery = findListQuery
@@ -17,5 +26,7 @@ export const exportContextsQuery = z.object({ format: z.enum(["csv", "geojson"])
 export const exportTrenchesQuery = z.object({ coords });
 export const matrixQuery = z.object({ trenchId: uuid.optional() });
 export const matrixImageQuery = matrixQuery.extend({ format: z.enum(["svg", "png"]).default("svg") });
+/** The GeoPackage of GIS layers: the whole site, or one trench. */
+export const exportGisQuery = z.object({ trenchId: uuid.optional() });
 /** The deposition package: the whole site, or one signed-off trench. */
 export const depositionQuery = z.object({ trenchId: uuid.optional() });

@@ -4,11 +4,14 @@ import "./messages";
 import { numeric, roleSchema } from "./common";
 import { DEFAULT_LEVEL_SPREAD_CAUTION } from "@/lib/levels/vertical-spread";
 
-/** True when proj4 can read the definition and it is a projection in metres (not longitude/latitude). */
+/**
+ * True when proj4 can read the definition (a proj4 string, or OGC WKT as the EPSG registry publishes it) and
+ * it is a projection in metres (not longitude/latitude).
+ */
 function isProjectedDefinition(def: string): boolean {
   try {
     const p = proj4.Proj(def) as unknown as { projName?: string; units?: string };
-    return p.projName !== "longlat" && (p.units === undefined || p.units === "m");
+    return p.projName !== "longlat" && (p.units === undefined || ["m", "meter", "metre"].includes(p.units));
   } catch {
     return false;
   }
@@ -33,7 +36,7 @@ const siteFields = {
     .nullish()
     .refine(
       (v) => !v || isProjectedDefinition(v),
-      "Not a projected proj4 definition in metres (e.g. +proj=tmerc … +units=m).",
+      "Not a projected CRS in metres: give its OGC WKT (PROJCS[…]) or a proj4 definition (+proj=tmerc … +units=m).",
     ),
   samplesShareFindNumbers: z.boolean({ error: "Say whether samples share the finds' numbers (true or false)." }),
   /** How many find or context numbers a device reserves at once for recording offline. */

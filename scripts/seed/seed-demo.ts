@@ -4,6 +4,7 @@ import * as s from "@/db/schema";
 import { hashPassword } from "@/lib/server/passwords";
 import { windowToPolygon } from "@/lib/geometry/outline";
 import { DEMO_TRENCH } from "@/lib/spatial";
+import { DEMO_PLACEMENT } from "./demo-placement";
 import { seedDemoLevels } from "./seed-demo-levels";
 import { seedDemoSquares } from "./seed-demo-squares";
 import { clusteredLayout, createRandom, evenLayout, randomLayout, windowOf, type Pt } from "./demo-layout";
@@ -175,7 +176,10 @@ export async function seedDemo(db: Db): Promise<{ created: boolean; siteId: stri
         code: DEMO_SITE_CODE,
         name: "Whinnydale Holm",
         gridDescription:
-          "Site grid laid out from peg WH1 (0, 0), axes along the field boundary; metres. Invented demo site.",
+          "Site grid laid out from peg WH1 (0, 0), axes parallel to the National Grid; metres. Invented demo site.",
+        crs: DEMO_PLACEMENT.crs,
+        gridOriginX: DEMO_PLACEMENT.gridOriginX,
+        gridOriginY: DEMO_PLACEMENT.gridOriginY,
         datumKind: "local",
         datumName: "Whinnydale site datum (TBM WH1 taken as 50.000 m)",
         levelTolerance: 0.005,

@@ -11,6 +11,7 @@ import * as contextsRoute from "@/app/api/sites/[siteId]/contexts/route";
 import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/route";
 import { buildOpenApiDocument } from "@/lib/server/openapi";
 import { api } from "@/lib/server/api-catalog";
+import { DEMO_PLACEMENT } from "@/scripts/seed/demo-placement";
 
 const ring = (pts: number[][]) => pts as [number, number][];
 
@@ -293,7 +294,7 @@ describe("OpenAPI document", () => {
 });
 
 describe("site grid settings", () => {
-  it("accepts a projected proj4 definition and refuses longitude/latitude or nonsense, naming the field", async () => {
+  it("accepts a projected proj4 definition or WKT and refuses longitude/latitude or nonsense, naming the field", async () => {
     const { makeSite } = await import("../support/fixtures");
     const siteRoute = await import("@/app/api/sites/[siteId]/route");
     const fx = await makeSite();
@@ -309,10 +310,16 @@ describe("site grid settings", () => {
     );
     expect(ok.status).toBe(200);
     expect(ok.json).toMatchObject({ crs: bng, gridOriginX: 451200 });
-    for (const bad of ["+proj=longlat +datum=WGS84 +no_defs", "+proj=nothing-like-this"]) {
+    // The same system as OGC WKT, the form a GeoPackage names it in: the demo site's own placement.
+    const wkt = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: DEMO_PLACEMENT.crs });
+    expect(wkt.status).toBe(200);
+    expect(wkt.json.crs).toBe(DEMO_PLACEMENT.crs);
+    const wgs84Wkt =
+      'GEOGCS["WGS 84",DATUM["WGS_1984",SPHEROID["WGS 84",6378137,298.257223563]],PRIMEM["Greenwich",0],UNIT["degree",0.0174532925199433],AUTHORITY["EPSG","4326"]]';
+    for (const bad of ["+proj=longlat +datum=WGS84 +no_defs", "+proj=nothing-like-this", wgs84Wkt]) {
       const res = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: bad });
       expect(res.status).toBe(400);
-      expect(res.json.fieldErrors.crs[0]).toMatch(/projected proj4 definition/);
+      expect(res.json.fieldErrors.crs[0]).toMatch(/Not a projected CRS in metres/);
     }
     const cleared = await call(siteRoute, "PATCH", { siteId: fx.site.id }, { crs: "" });
     expect(cleared.json.crs).toBeNull();

@@ -33,20 +33,28 @@ const clockwiseExtent = {
   ],
 };
 
+/** UTM zone 30N on WGS 84: the grid origin on the zone's central meridian (3° W) at the equator. */
+const utm30 = "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs";
+
 describe("GeoJSON exports (RFC 7946)", () => {
   it("writes trench outlines and context extents with exterior rings counter-clockwise and holes clockwise", async () => {
     const fx = await makeSite();
     const db = await getDb();
     await db.update(schema.contexts).set({ extent: clockwiseExtent }).where(eq(schema.contexts.id, fx.context.id));
+    await db
+      .update(schema.sites)
+      .set({ crs: utm30, gridOriginX: 500000, gridOriginY: 0 })
+      .where(eq(schema.sites.id, fx.site.id));
     session.userId = fx.people.specialist.id;
-    const trenches = await (await get(exportTrenchesRoute, fx.site.id, "coords=grid")).json();
+    const trenches = await (await get(exportTrenchesRoute, fx.site.id, "")).json();
     expect(trenches.type).toBe("FeatureCollection");
     const [outer, hole] = trenches.features[0].geometry.coordinates;
     // RFC 7946 §3.1.6: exterior rings counter-clockwise (positive shoelace area), holes clockwise; rings closed.
     expect(signedArea2(outer)).toBeGreaterThan(0);
     expect(signedArea2(hole)).toBeLessThan(0);
-    expect(Math.abs(signedArea2(outer)) / 2).toBeCloseTo(60, 9); // 10 m × 6 m, the fixture's trench
-    expect(Math.abs(signedArea2(hole)) / 2).toBeCloseTo(2, 9); // its 2 m × 1 m baulk
+    // In longitude/latitude a few metres from the equator the areas keep their ratio: the fixture's
+    // 2 m × 1 m baulk in its 10 m × 6 m trench.
+    expect(Math.abs(signedArea2(hole) / signedArea2(outer))).toBeCloseTo(2 / 60, 6);
     for (const ring of [outer, hole]) expect(ring[0]).toEqual(ring[ring.length - 1]);
     const extents = await (await get(exportContextsRoute, fx.site.id, "format=geojson")).json();
     const extent = extents.features.find((f: any) => f.properties.number === fx.context.number);
@@ -55,7 +63,7 @@ describe("GeoJSON exports (RFC 7946)", () => {
     for (const f of empty) expect(f.geometry).toBeNull();
   });
 
-  it("writes finds as x, y (, z) positions in the site grid, and in longitude, latitude through the site's CRS", async () => {
+  it("writes finds as longitude, latitude (, RL) through the site's CRS, and refuses site-grid numbers", async () => {
     const fx = await makeSite();
     const db = await getDb();
     await db.insert(schema.finds).values({
@@ -70,25 +78,29 @@ describe("GeoJSON exports (RFC 7946)", () => {
       method: "typed",
     });
     session.userId = fx.people.digger.id;
-    const grid = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=grid")).json();
-    // RFC 7946 §3.1.1: x (easting) first, then y (northing), then elevation.
-    expect(grid.features[0].geometry).toEqual({ type: "Point", coordinates: [2.5, 4, 10.25] });
-    // The file says what that third number is: a reduced level against the site's datum (a foreign member).
-    expect(grid.heights).toEqual({ z: REDUCED_LEVEL_WORDS, datum: fx.site.datumName, datumKind: fx.site.datumKind });
-    const refused = await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat");
+    // Unplaced, the site has no longitude/latitude to give, and GeoJSON can hold nothing else (RFC 7946 §4).
+    const refused = await get(exportFindsRoute, fx.site.id, "format=geojson");
     expect(refused.status).toBe(400);
+    expect((await refused.json()).error).toMatch(/GeoPackage/);
     // Grid origin at UTM zone 30N (500000 m E, 0 m N): the zone's central meridian, 3° W, on the equator
     // (UTM definition: false easting 500 000 m on the central meridian, zone 30 centred on 3° W).
     await db
       .update(schema.sites)
-      .set({ crs: "+proj=utm +zone=30 +datum=WGS84 +units=m +no_defs", gridOriginX: 500000 - 2.5, gridOriginY: -4 })
+      .set({ crs: utm30, gridOriginX: 500000 - 2.5, gridOriginY: -4 })
       .where(eq(schema.sites.id, fx.site.id));
-    const lonlat = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=lonlat")).json();
-    const [lon, lat] = lonlat.features[0].geometry.coordinates;
+    const lonlat = await (await get(exportFindsRoute, fx.site.id, "format=geojson")).json();
+    const [lon, lat, z] = lonlat.features[0].geometry.coordinates;
+    // RFC 7946 §3.1.1: longitude first, then latitude, then elevation.
     expect(lon).toBeCloseTo(-3, 9);
     expect(lat).toBeCloseTo(0, 9);
-    const crs = await (await get(exportFindsRoute, fx.site.id, "format=geojson&coords=crs")).json();
-    expect(crs.features[0].geometry.coordinates.slice(0, 2)).toEqual([500000, 0]);
+    expect(z).toBe(10.25);
+    // The file says what that third number is: a reduced level against the site's datum (a foreign member).
+    expect(lonlat.heights).toEqual({ z: REDUCED_LEVEL_WORDS, datum: fx.site.datumName, datumKind: fx.site.datumKind });
+    for (const coords of ["grid", "crs"]) {
+      const res = await get(exportFindsRoute, fx.site.id, `format=geojson&coords=${coords}`);
+      expect(res.status).toBe(400);
+      expect((await res.json()).fieldErrors.coords[0]).toMatch(/WGS 84 longitude\/latitude only/);
+    }
   });
 });
 

@@ -3,6 +3,7 @@ import { relationCreateSchema, relationListQuery } from "@/lib/schemas/relation"
 import {
   exportContextsQuery,
   exportFindsQuery,
+  exportGisQuery,
   exportTrenchesQuery,
   matrixImageQuery,
   matrixQuery,
@@ -104,6 +105,15 @@ export const recordingApi = {
     summary: "Trench outlines as GeoJSON",
     roles: "member",
     input: exportTrenchesQuery,
+    from: "query",
+  },
+  exportGis: {
+    method: "GET",
+    path: "/api/sites/{siteId}/export/gis",
+    summary:
+      "GIS layers as an OGC GeoPackage: in the site grid (a local engineering CRS), and in the site's projected CRS and WGS 84 when it is placed",
+    roles: "member",
+    input: exportGisQuery,
     from: "query",
   },
 } as const satisfies Record<string, ApiOperation>;

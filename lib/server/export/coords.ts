@@ -5,16 +5,21 @@ import { badInput } from "@/lib/server/errors";
 
 export type Transform = (x: number, y: number) => [number, number];
 
+/** An OGC WKT definition of a projected CRS (WKT1 PROJCS or WKT2 PROJCRS), as the EPSG registry publishes it. */
+export const isWkt = (def: string) => /^\s*(PROJCS|PROJCRS|PROJECTEDCRS)\s*\[/i.test(def);
+
 /**
- * The site's CRS as proj4 understands it: a proj4 string (anything from "+proj=" on), or a name proj4
- * knows (EPSG:4326, EPSG:3857, …). The site grid is taken as aligned with the CRS axes, its origin at
- * (gridOriginX, gridOriginY) in CRS units (metres).
+ * The site's CRS as proj4 understands it: OGC WKT as it stands, a proj4 string (anything from "+proj="
+ * on), or a name proj4 knows (EPSG:4326, EPSG:3857, …). The site grid is taken as aligned with the CRS
+ * axes, its origin at (gridOriginX, gridOriginY) in CRS units (metres).
  */
 function crsDefinition(site: Site): string {
   const raw = site.crs?.trim();
   if (!raw)
-    throw badInput(`Site ${site.code} has no CRS set; export in site-grid coordinates, or ask a director to set one.`);
-  const at = raw.indexOf("+proj=");
+    throw badInput(
+      `Site ${site.code} is not placed in a projected CRS; download the GeoPackage (its site-grid layers carry the grid as their own coordinate system), or ask a director to place the site in Settings.`,
+    );
+  const at = isWkt(raw) ? -1 : raw.indexOf("+proj=");
   const def = at >= 0 ? raw.slice(at) : raw;
   try {
     proj4(def, "WGS84", [site.gridOriginX, site.gridOriginY]);

@@ -29,10 +29,10 @@ export function download(body: string | Uint8Array, name: string, type: string):
 const geo = (obj: unknown, name: string) => download(JSON.stringify(obj), name, "application/geo+json");
 
 export async function exportFinds(db: Db, site: Site, q: z.infer<typeof exportFindsQuery>): Promise<Response> {
-  const { format, coords, ...filters } = q;
+  const { format, coords: _wgs84, ...filters } = q;
   const rows = await allFinds(db, site.id, filters);
   if (format === "csv") return download(findsCsv(rows), `${site.code}-finds-${stamp()}.csv`, "text/csv; charset=utf-8");
-  return geo(findsGeoJson(site, coords, rows), `${site.code}-finds-${coords}-${stamp()}.geojson`);
+  return geo(findsGeoJson(site, "lonlat", rows), `${site.code}-finds-wgs84-${stamp()}.geojson`);
 }
 
 export async function exportContexts(db: Db, site: Site, q: z.infer<typeof exportContextsQuery>): Promise<Response> {
@@ -45,12 +45,12 @@ export async function exportContexts(db: Db, site: Site, q: z.infer<typeof expor
     properties: { number: c.number, trench: c.trenchCode, type: c.type, state: c.state, relations: c.relations },
   }));
   return geo(
-    outlinesGeoJson(site, q.coords, `${site.code} context extents`, items),
-    `${site.code}-context-extents-${q.coords}-${stamp()}.geojson`,
+    outlinesGeoJson(site, "lonlat", `${site.code} context extents`, items),
+    `${site.code}-context-extents-wgs84-${stamp()}.geojson`,
   );
 }
 
-export async function exportTrenches(db: Db, site: Site, q: z.infer<typeof exportTrenchesQuery>): Promise<Response> {
+export async function exportTrenches(db: Db, site: Site, _q: z.infer<typeof exportTrenchesQuery>): Promise<Response> {
   const rows = await listTrenches(db, site.id);
   const items = rows.map((t) => ({
     id: t.id,
@@ -58,8 +58,8 @@ export async function exportTrenches(db: Db, site: Site, q: z.infer<typeof expor
     properties: { code: t.code, name: t.name, signedOff: t.signedOffAt !== null },
   }));
   return geo(
-    outlinesGeoJson(site, q.coords, `${site.code} trench outlines`, items),
-    `${site.code}-trenches-${q.coords}-${stamp()}.geojson`,
+    outlinesGeoJson(site, "lonlat", `${site.code} trench outlines`, items),
+    `${site.code}-trenches-wgs84-${stamp()}.geojson`,
   );
 }
 

@@ -18,8 +18,8 @@ export default async function ContextsPage({
   const rows = await read.contextSummaries(chosen?.id);
   const canRecord = actor.role !== "specialist";
   const base = `/sites/${siteId}/contexts`;
-  // With a CRS the outlines go out as WGS 84 longitude/latitude (RFC 7946's own); without, in site-grid metres.
-  const coords = actor.site.crs?.trim() ? "&coords=lonlat" : "&coords=grid";
+  // GeoJSON is WGS 84 only (RFC 7946), so it needs the site placed; the GeoPackage carries the site grid itself.
+  const placed = !!actor.site.crs?.trim();
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={base} />
@@ -35,11 +35,18 @@ export default async function ContextsPage({
           <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=csv`} download>
             Contexts CSV
           </a>
-          <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson${coords}`} download>
-            Extents GeoJSON
-          </a>
-          <a className="btn" href={`/api/sites/${siteId}/export/trenches?${coords.slice(1)}`} download>
-            Trench outlines GeoJSON
+          {placed && (
+            <a className="btn" href={`/api/sites/${siteId}/export/contexts?format=geojson`} download>
+              Extents GeoJSON (WGS 84)
+            </a>
+          )}
+          {placed && (
+            <a className="btn" href={`/api/sites/${siteId}/export/trenches`} download>
+              Trench outlines GeoJSON (WGS 84)
+            </a>
+          )}
+          <a className="btn" href={`/api/sites/${siteId}/export/gis${chosen ? `?trenchId=${chosen.id}` : ""}`} download>
+            GeoPackage (GIS)
           </a>
           {canRecord && (
             <Link className="btn-primary" href={`${base}/new`}>
