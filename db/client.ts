@@ -8,6 +8,7 @@ import { migrate as migratePg } from "drizzle-orm/node-postgres/migrator";
 import pg from "pg";
 import createSubscriber from "pg-listen";
 import { env } from "@/lib/env";
+import { processSingleton } from "@/lib/process-singleton";
 import * as schema from "./schema";
 
 /** Both drivers expose the same query builder; the PGlite type is used as the common one. */
@@ -20,7 +21,7 @@ type Listen = (
   onReconnect: () => void,
 ) => Promise<() => Promise<void>>;
 type Holder = { ready?: Promise<Db>; close?: () => Promise<void>; listen?: Listen; pglite?: PGlite };
-const holder: Holder = ((globalThis as Record<string, unknown>).__loamworkDb ??= {}) as Holder;
+const holder = processSingleton<Holder>("database", () => ({}));
 
 const migrationsFolder = path.join(process.cwd(), "drizzle");
 

@@ -1,5 +1,6 @@
 import "server-only";
 import { getDb } from "@/db/client";
+import { processSingleton } from "@/lib/process-singleton";
 import { requeuePackages, writePackage } from "../export/package-writer";
 import { LocalRunQueue } from "./in-process-queue";
 
@@ -9,9 +10,7 @@ import { LocalRunQueue } from "./in-process-queue";
  * written to this server's file store and downloaded from it, which worker processes on other machines
  * do not share; and it is disk work, not computation worth spreading.
  */
-const holder = ((globalThis as Record<string, unknown>).__loamworkPackageQueue ??= {}) as {
-  ready?: Promise<LocalRunQueue>;
-};
+const holder = processSingleton<{ ready?: Promise<LocalRunQueue> }>("package-queue", () => ({}));
 
 async function start(): Promise<LocalRunQueue> {
   const db = await getDb();

@@ -1,6 +1,7 @@
 import "server-only";
 import { getDb, listen, type Db } from "@/db/client";
 import { runStatusEnum } from "@/db/schema";
+import { processSingleton } from "@/lib/process-singleton";
 
 /**
  * What anyone watching a run learns as it happens: its status and progress, as committed to its row.
@@ -19,7 +20,7 @@ export type RunWatcher = {
 const CHANNEL = "loamwork_run";
 
 type Hub = { watchers: Map<string, Set<RunWatcher>>; listening?: Promise<unknown>; db?: Db };
-const hub = ((globalThis as Record<string, unknown>).__loamworkRunEvents ??= { watchers: new Map() }) as Hub;
+const hub = processSingleton<Hub>("run-events", () => ({ watchers: new Map() }));
 
 export const isFinished = (status: RunStatus) => status === "done" || status === "failed" || status === "cancelled";
 

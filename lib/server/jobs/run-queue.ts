@@ -1,6 +1,7 @@
 import "server-only";
 import { getDb } from "@/db/client";
 import { env } from "@/lib/env";
+import { processSingleton } from "@/lib/process-singleton";
 import type { ScopeData } from "../analysis/scope-data";
 import { startInProcessQueue } from "./in-process-queue";
 import { startPgBossQueue } from "./pg-boss-queue";
@@ -26,7 +27,7 @@ export interface RunQueue {
 }
 export type RunQueueKind = "local" | "pg-boss";
 
-const holder = ((globalThis as Record<string, unknown>).__loamworkRunQueue ??= {}) as { ready?: Promise<RunQueue> };
+const holder = processSingleton<{ ready?: Promise<RunQueue> }>("run-queue", () => ({}));
 
 export function runQueueKind(): RunQueueKind {
   const e = env();

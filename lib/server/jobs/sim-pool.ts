@@ -4,6 +4,7 @@ import path from "node:path";
 import { env } from "@/lib/env";
 import { createRandom, runDistributionTest, type SimulationPool } from "@/lib/spatial";
 import { createSimulationPool } from "./thread-pool";
+import { processSingleton } from "@/lib/process-singleton";
 
 /**
  * The engine's worker-thread pool of this process, created once. The worker file is named by its path in
@@ -12,10 +13,7 @@ import { createSimulationPool } from "./thread-pool";
  * threads from the JavaScript `npm run build` compiled into dist/; development and tests run the
  * TypeScript entry through tsx.
  */
-const holder = ((globalThis as Record<string, unknown>).__loamworkSimPool ??= {}) as {
-  pool?: SimulationPool;
-  warm?: Promise<void>;
-};
+const holder = processSingleton<{ pool?: SimulationPool; warm?: Promise<void> }>("simulation-pool", () => ({}));
 
 function workerFile(): string {
   if (env().NODE_ENV !== "production") return path.join(process.cwd(), "lib", "server", "jobs", "sim-worker-entry.mjs");
