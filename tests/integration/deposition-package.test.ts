@@ -211,6 +211,20 @@ describe("deposition package", () => {
       new TextDecoder().decode(entries[`${root}/bag-info.txt`]).replace("WHD26", "WHD27"),
     );
     expect(checkBag(info).problems).toEqual(["bag-info.txt: digest does not match the tag manifest"]);
+
+    const missing = { ...entries };
+    delete missing[`${root}/data/README.txt`];
+    expect(checkBag(missing).problems).toContain("manifest lists data/README.txt, which is not in the bag");
+    expect(checkBag(missing).problems.some((p) => p.startsWith("Payload-Oxum says"))).toBe(true);
+
+    const bagit = { ...entries, [`${root}/bagit.txt`]: new TextEncoder().encode("BagIt-Version: 1.0\n") };
+    expect(checkBag(bagit).problems.some((p) => p.startsWith("bagit.txt is not the two lines"))).toBe(true);
+
+    const manifest = { ...entries };
+    manifest[`${root}/manifest-sha256.txt`] = new TextEncoder().encode(
+      new TextDecoder().decode(entries[`${root}/manifest-sha256.txt`]).replace(/^([0-9a-f]{64}) {2}/, "$1"),
+    );
+    expect(checkBag(manifest).problems.some((p) => p.startsWith("manifest-sha256.txt: malformed line"))).toBe(true);
   });
 
   it("exports one trench only once it is signed off, with only that trench's records", async () => {
