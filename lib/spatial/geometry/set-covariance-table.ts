@@ -63,26 +63,23 @@ export interface SetCovarianceTableOptions {
   budget?: number;
 }
 
-/** A linear form a + b·v_x + c·v_y, as [a, b, c]. */
-type Lin = [number, number, number];
-
-function lin(a: number, b: number, c: number): Lin {
-  return [a, b, c];
-}
-function sub(p: Lin, q: Lin): Lin {
-  return [p[0] - q[0], p[1] - q[1], p[2] - q[2]];
-}
-function add(p: Lin, q: Lin): Lin {
-  return [p[0] + q[0], p[1] + q[1], p[2] + q[2]];
-}
-/** poly += s·p·q (poly: a quadratic [1, x, y, x², xy, y²]). */
-function addProduct(poly: Float64Array, s: number, p: Lin, q: Lin): void {
-  poly[0] += s * p[0] * q[0];
-  poly[1] += s * (p[0] * q[1] + p[1] * q[0]);
-  poly[2] += s * (p[0] * q[2] + p[2] * q[0]);
-  poly[3] += s * p[1] * q[1];
-  poly[4] += s * (p[1] * q[2] + p[2] * q[1]);
-  poly[5] += s * p[2] * q[2];
+/** poly += s·p·q for linear forms p = p0 + p1·v_x + p2·v_y and q (poly: terms 1, x, y, x², xy, y²). */
+function addProduct(
+  poly: Float64Array,
+  s: number,
+  p0: number,
+  p1: number,
+  p2: number,
+  q0: number,
+  q1: number,
+  q2: number,
+): void {
+  poly[0] += s * p0 * q0;
+  poly[1] += s * (p0 * q1 + p1 * q0);
+  poly[2] += s * (p0 * q2 + p2 * q0);
+  poly[3] += s * p1 * q1;
+  poly[4] += s * (p1 * q2 + p2 * q1);
+  poly[5] += s * p2 * q2;
 }
 
 export function createSetCovarianceTable(
@@ -124,38 +121,58 @@ export function createSetCovarianceTable(
     const bl = ea - fa, // left end: ea for v_x ≤ bl, fa + v_x beyond
       br = eb - fb; // right end: fb + v_x for v_x ≤ br, eb beyond
     if ((xlo < bl && bl < xhi) || (xlo < br && br < xhi)) return false;
-    const xl: Lin = xhi <= bl ? lin(ea, 0, 0) : lin(fa, 1, 0);
-    const xr: Lin = xlo >= br ? lin(eb, 0, 0) : lin(fb, 1, 0);
-    // e's line and f's shifted line at either end
-    const el = lin(ey + es * (xl[0] - ea), es * xl[1], 0);
-    const er = lin(ey + es * (xr[0] - ea), es * xr[1], 0);
-    const gl = lin(fy + fs * (xl[0] - fa), fs * (xl[1] - 1), 1);
-    const gr = lin(fy + fs * (xr[0] - fa), fs * (xr[1] - 1), 1);
-    const dl = sub(el, gl),
-      dr = sub(er, gr);
-    const min = (p: Lin) => p[0] + p[1] * (p[1] > 0 ? xlo : xhi) + p[2] * (p[2] > 0 ? ylo : yhi);
-    const max = (p: Lin) => p[0] + p[1] * (p[1] > 0 ? xhi : xlo) + p[2] * (p[2] > 0 ? yhi : ylo);
-    const dlMin = min(dl),
-      dlMax = max(dl),
-      drMin = min(dr),
-      drMax = max(dr);
+    // the ends as linear forms in v: xl = xl0 + xl1·v_x, xr = xr0 + xr1·v_x
+    const leftE = xhi <= bl,
+      rightE = xlo >= br;
+    const xl0 = leftE ? ea : fa,
+      xl1 = leftE ? 0 : 1;
+    const xr0 = rightE ? eb : fb,
+      xr1 = rightE ? 0 : 1;
+    // e's line and f's shifted line at either end: el = el0 + el1·v_x, gl = gl0 + gl1·v_x + v_y, …
+    const el0 = ey + es * (xl0 - ea),
+      el1 = es * xl1;
+    const er0 = ey + es * (xr0 - ea),
+      er1 = es * xr1;
+    const gl0 = fy + fs * (xl0 - fa),
+      gl1 = fs * (xl1 - 1);
+    const gr0 = fy + fs * (xr0 - fa),
+      gr1 = fs * (xr1 - 1);
+    // dl = el − gl = dl0 + dl1·v_x − v_y, and dr alike: their extremes over the box are at its corners
+    const dl0 = el0 - gl0,
+      dl1 = el1 - gl1;
+    const dr0 = er0 - gr0,
+      dr1 = er1 - gr1;
+    const dlMin = dl0 + dl1 * (dl1 > 0 ? xlo : xhi) - yhi,
+      dlMax = dl0 + dl1 * (dl1 > 0 ? xhi : xlo) - ylo;
+    const drMin = dr0 + dr1 * (dr1 > 0 ? xlo : xhi) - yhi,
+      drMax = dr0 + dr1 * (dr1 > 0 ? xhi : xlo) - ylo;
     if ((dlMin < 0 && dlMax > 0) || (drMin < 0 && drMax > 0)) return false;
-    const s = sigma[e] * sigma[f];
-    const width = sub(xr, xl);
+    const half = (sigma[e] * sigma[f]) / 2;
     if (dlMax <= 0 && drMax <= 0) {
-      addProduct(poly, s / 2, width, add(el, er)); // e's line is the lower one throughout
+      // e's line is the lower one throughout: width · (el + er) / 2
+      addProduct(poly, half, xr0 - xl0, xr1 - xl1, 0, el0 + er0, el1 + er1, 0);
     } else if (dlMin >= 0 && drMin >= 0) {
-      addProduct(poly, s / 2, width, add(gl, gr));
+      addProduct(poly, half, xr0 - xl0, xr1 - xl1, 0, gl0 + gr0, gl1 + gr1, 2);
     } else {
       // the lines cross inside the interval, at xc = xl − dl / (es − fs) (es ≠ fs here: parallel lines
       // have dl ≡ dr, which the cases above take)
       const k = 1 / (es - fs);
-      const xc = lin(xl[0] - dl[0] * k, xl[1] - dl[1] * k, xl[2] - dl[2] * k);
-      const yc = lin(ey + es * (xc[0] - ea), es * xc[1], es * xc[2]);
-      const lowL = dlMax <= 0 ? el : gl,
-        lowR = drMax <= 0 ? er : gr;
-      addProduct(poly, s / 2, sub(xc, xl), add(lowL, yc));
-      addProduct(poly, s / 2, sub(xr, xc), add(lowR, yc));
+      const xc0 = xl0 - dl0 * k,
+        xc1 = xl1 - dl1 * k,
+        xc2 = k;
+      const yc0 = ey + es * (xc0 - ea),
+        yc1 = es * xc1,
+        yc2 = es * xc2;
+      const lowLe = dlMax <= 0,
+        lowRe = drMax <= 0;
+      const ll0 = lowLe ? el0 : gl0,
+        ll1 = lowLe ? el1 : gl1,
+        ll2 = lowLe ? 0 : 1;
+      const lr0 = lowRe ? er0 : gr0,
+        lr1 = lowRe ? er1 : gr1,
+        lr2 = lowRe ? 0 : 1;
+      addProduct(poly, half, xc0 - xl0, xc1 - xl1, xc2, ll0 + yc0, ll1 + yc1, ll2 + yc2);
+      addProduct(poly, half, xr0 - xc0, xr1 - xc1, -xc2, lr0 + yc0, lr1 + yc1, lr2 + yc2);
     }
     return true;
   };
