@@ -9,6 +9,7 @@
  * no special cases for collinear edges, which translations along an edge produce all the time.
  */
 import type { PairList } from "./neighbours";
+import { setCovarianceTableFor } from "./set-covariance-table";
 import type { Window } from "../types";
 
 /** Non-vertical edges of W in coordinates relative to the bounding-box corner, sorted by left end. */
@@ -106,6 +107,12 @@ export function setCovariance(window: Window, dx: number, dy: number): number {
 }
 
 /**
+ * Pairs × edge pairs beyond which a table pays for itself (measured on the demo trench: summing directly
+ * costs about 8 ns per edge pair and pair, preparing its table about 40 ms).
+ */
+const TABLE_WORTH = 2e7;
+
+/**
  * Translation weights of every pair (symmetric in i and j); i indexes pattern a, j pattern b (pass the
  * same arrays twice for pairs within one pattern). The overlap cannot vanish for two points of W
  * except for pairs at opposite extremes of the boundary; it is floored at 1e-12·|W| so the weight stays finite.
@@ -119,6 +126,15 @@ export function translationPairWeights(
   pairs: PairList,
   out?: Float64Array,
 ): Float64Array {
+  const edges = trapezoidEdges(window).count;
+  if (pairs.count * edges * edges > TABLE_WORTH) {
+    // many pairs: preparing the window's set covariance once (set-covariance-table.ts, the same sums to
+    // rounding) costs less than summing over every pair of edges for each of them
+    let reach = 0;
+    for (let p = 0; p < pairs.count; p++) if (pairs.d[p] > reach) reach = pairs.d[p];
+    const table = setCovarianceTableFor(window, reach);
+    if (table) return table.pairWeights(ax, ay, bx, by, pairs, out);
+  }
   const w = out && out.length >= pairs.count ? out : new Float64Array(pairs.count);
   const floor = 1e-12 * window.area;
   for (let p = 0; p < pairs.count; p++) {

@@ -7,8 +7,11 @@
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
 import { DEMO_TRENCH } from "./demo-window";
-import { setCovariance } from "./edge-translation";
-import { createSetCovarianceTable, type SetCovarianceTable } from "./set-covariance-table";
+import { setCovariance, translationPairWeights } from "./edge-translation";
+import { pairsWithin } from "./neighbours";
+import { createSetCovarianceTable, setCovarianceTableFor, type SetCovarianceTable } from "./set-covariance-table";
+import { createRandom } from "../random/random";
+import { createWindowSampler } from "../random/sample-window";
 import { createWindow } from "./window";
 import type { Ring, Window, WindowInput } from "../types";
 
@@ -124,5 +127,29 @@ describe("set covariance prepared for a run", () => {
   test("is not prepared when the window has too many edges for the work bound", () => {
     const win = createWindow(pit(40));
     expect(createSetCovarianceTable(win, 1.2, { budget: 1000 })).toBeNull();
+  });
+});
+
+describe("translation weights of many pairs", () => {
+  test("come from the prepared table and equal the direct overlap's", () => {
+    const win = createWindow(pit(40));
+    const n = 400;
+    const x = new Float64Array(n),
+      y = new Float64Array(n);
+    createWindowSampler(win).fill(createRandom(3), n, x, y);
+    const pairs = pairsWithin({ x, y }, 1.2);
+    // enough pairs × edge pairs for the table to pay (edge-translation.ts)
+    expect(pairs.count * 40 * 40).toBeGreaterThan(2e7);
+    const w = translationPairWeights(win, x, y, x, y, pairs);
+    let worst = 0;
+    for (let p = 0; p < pairs.count; p++) {
+      const i = pairs.i[p],
+        j = pairs.j[p];
+      const direct = win.area / setCovariance(win, x[j] - x[i], y[j] - y[i]);
+      worst = Math.max(worst, Math.abs(w[p] - direct) / direct);
+    }
+    expect(worst).toBeLessThan(1e-12);
+    // the window keeps its table: a second call does not prepare another
+    expect(setCovarianceTableFor(win, 1)).toBe(setCovarianceTableFor(win, 1.1));
   });
 });

@@ -341,3 +341,17 @@ export function createSetCovarianceTable(
 
   return { reach, at, pairWeights, cells, listed, cell, gx, gy, invH, listedTerms };
 }
+
+const prepared = new WeakMap<Window, { reach: number; table: SetCovarianceTable | null }>();
+
+/**
+ * The window's table for displacements up to `reach`, prepared once and kept with the window (a table of a
+ * larger reach serves a smaller one). Null when the window has too many edges (see the budget).
+ */
+export function setCovarianceTableFor(window: Window, reach: number): SetCovarianceTable | null {
+  const hit = prepared.get(window);
+  if (hit && hit.reach >= reach) return hit.table;
+  const table = createSetCovarianceTable(window, reach);
+  prepared.set(window, { reach, table });
+  return table;
+}
