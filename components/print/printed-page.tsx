@@ -55,5 +55,9 @@ export function PrintedPage({
 
 /** The mark a record not yet signed off carries on paper. */
 export function SignOffMark({ signedOff }: { signedOff: boolean }) {
-  return signedOff ? <span>signed off</span> : <strong className="printed-unsigned">NOT SIGNED OFF</strong>;
+  return signedOff ? (
+    <span className="whitespace-nowrap text-xs">signed off</span>
+  ) : (
+    <strong className="printed-unsigned whitespace-nowrap text-xs">NOT SIGNED OFF</strong>
+  );
 }

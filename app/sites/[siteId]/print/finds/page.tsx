@@ -41,9 +41,8 @@ export default async function PrintedFindsRegisterPage({ params }: { params: Pro
                 Find
               </th>
               <th scope="col" className="num">
-                Context
+                Context (trench)
               </th>
-              <th scope="col">Trench</th>
               <th scope="col">Class</th>
               <th scope="col" className="num">
                 x
@@ -69,8 +68,9 @@ export default async function PrintedFindsRegisterPage({ params }: { params: Pro
             {r.rows.map((f) => (
               <tr key={f.id} className="align-top" data-number={f.number} data-signed-off={f.signedOff}>
                 <td className="num font-bold">{f.number}</td>
-                <td className="num">{f.contextNumber}</td>
-                <td>{f.trenchCode}</td>
+                <td className="num whitespace-nowrap">
+                  {f.contextNumber} <span className="text-xs">({f.trenchCode})</span>
+                </td>
                 <td>
                   {f.classCode} <span className="text-xs">{f.classLabel}</span>
                 </td>
@@ -82,7 +82,7 @@ export default async function PrintedFindsRegisterPage({ params }: { params: Pro
                 <td>{f.description}</td>
                 <td>
                   {f.recordedBy ?? "—"}
-                  <span className="block text-xs">{formatDay(f.recordedAt, locale)}</span>
+                  <span className="block whitespace-nowrap text-xs">{formatDay(f.recordedAt, locale)}</span>
                 </td>
                 <td>
                   <SignOffMark signedOff={f.signedOff} />

@@ -44,12 +44,8 @@ export default async function PrintedSamplesRegisterPage({ params }: { params: P
               </th>
               <th scope="col">Kind</th>
               <th scope="col" className="num">
-                Context
+                Context (trench), spit
               </th>
-              <th scope="col" className="num">
-                Spit
-              </th>
-              <th scope="col">Trench</th>
               <th scope="col" className="num">
                 x
               </th>
@@ -73,9 +69,12 @@ export default async function PrintedSamplesRegisterPage({ params }: { params: P
               <tr key={s.id} className="align-top" data-number={s.number} data-signed-off={s.signedOff}>
                 <td className="num font-bold">{s.number}</td>
                 <td>{sampleTypeLabels[s.type]}</td>
-                <td className="num">{s.contextNumber}</td>
-                <td className="num">{s.spitNumber ?? ""}</td>
-                <td>{s.trenchCode}</td>
+                <td className="num">
+                  <span className="whitespace-nowrap">
+                    {s.contextNumber} <span className="text-xs">({s.trenchCode})</span>
+                  </span>
+                  {s.spitNumber !== null && <span className="block text-xs">spit {s.spitNumber}</span>}
+                </td>
                 <td className="num">{m(s.x)}</td>
                 <td className="num">{m(s.y)}</td>
                 <td className="num">{m(s.z)}</td>
@@ -83,7 +82,7 @@ export default async function PrintedSamplesRegisterPage({ params }: { params: P
                 <td>{s.purpose}</td>
                 <td>
                   {s.takenBy ?? "—"}
-                  <span className="block text-xs">{formatDay(s.takenOn, locale)}</span>
+                  <span className="block whitespace-nowrap text-xs">{formatDay(s.takenOn, locale)}</span>
                 </td>
                 <td>{sampleStatusLabels[s.status]}</td>
                 <td>
