@@ -1,3 +1,6 @@
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { unzipSync } from "fflate";
 import jsQR from "jsqr";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -69,6 +72,43 @@ describe("the site archive: samples and labels", () => {
       .getByLabel("Or a photo of the label")
       .setInputFiles({ name: "label.png", mimeType: "image/png", buffer: png });
     await page.waitForURL(`**${samplePath}`);
+    await page.context().close();
+  });
+});
+
+describe("the deposition package", () => {
+  it("exports a package", async () => {
+    const page = await newPage(browser);
+    await signIn(page, "director");
+    const site = await openSite(page);
+    await page.goto(`${site}/sign-off`);
+    const panel = page.getByRole("region", { name: "Deposition package" });
+    await panel.getByLabel("Package of").selectOption({ label: "the whole site" });
+    await panel.getByRole("button", { name: "Write the package" }).click();
+
+    // The job's row appears at once, queued, and is followed until it is written.
+    const job = panel.getByRole("list", { name: "Packages written" }).locator("li").first();
+    await shown(job.getByText(/Waiting to start…|files written/));
+    await shown(panel.locator('li[data-status="done"]'), 60_000);
+    const fingerprint = (await job.locator("[data-fingerprint]").textContent())?.trim() ?? "";
+    expect(fingerprint).toMatch(/^[0-9a-f]{64}$/);
+
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      job.getByRole("link", { name: /^Download / }).click(),
+    ]);
+    const zip = unzipSync(new Uint8Array(await readFile((await download.path())!)));
+    const root = Object.keys(zip)[0]!.split("/")[0];
+    expect(download.suggestedFilename()).toBe(`${root}.zip`);
+    expect(new TextDecoder().decode(zip[`${root}/bagit.txt`])).toBe(
+      "BagIt-Version: 1.0\nTag-File-Character-Encoding: UTF-8\n",
+    );
+    const manifest = zip[`${root}/manifest-sha256.txt`]!;
+    expect(createHash("sha256").update(manifest).digest("hex")).toBe(fingerprint);
+    expect(new TextDecoder().decode(zip[`${root}/bag-info.txt`])).toContain(
+      `Package-Fingerprint: sha256:${fingerprint}`,
+    );
+    expect(Object.keys(zip)).toContain(`${root}/data/records/trench-A.pdf`);
     await page.context().close();
   });
 });
