@@ -1,8 +1,9 @@
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
+import { unzipSync } from "fflate";
 import { and, eq, isNotNull } from "drizzle-orm";
 import { session } from "../support/harness";
 import { makeSite } from "../support/fixtures";
@@ -13,6 +14,7 @@ import { DEMO_PLACEMENT } from "@/scripts/seed/demo-placement";
 import * as gisRoute from "@/app/api/sites/[siteId]/export/gis/route";
 import * as findsExportRoute from "@/app/api/sites/[siteId]/export/finds/route";
 import * as trenchesExportRoute from "@/app/api/sites/[siteId]/export/trenches/route";
+import * as packageRoute from "@/app/api/sites/[siteId]/export/package/route";
 
 /*
  * GDAL (Debian's gdal-bin, the library under most desktop GIS) is the outside reader: each export is
@@ -209,6 +211,26 @@ describe("GeoPackage of the GIS layers, read by GDAL", () => {
 
     session.userId = fx.people.stranger.id;
     expect((await download(gisRoute, fx.site.id, "", "stranger.gpkg")).res.status).toBe(404);
+  });
+});
+
+describe("the deposition package's GIS data", () => {
+  it("holds the same GeoPackage, which GDAL opens with every layer and record, and its readme names it", async () => {
+    session.userId = demo.people.director!;
+    const { res, file } = await download(packageRoute, demo.siteId, "", "package.zip");
+    expect(res.status).toBe(200);
+    const entries = unzipSync(new Uint8Array(readFileSync(file)));
+    const name = Object.keys(entries).find((k) => k.endsWith("/data/gis/site.gpkg"));
+    expect(name).toBeDefined();
+    const gpkg = join(dir, "package-site.gpkg");
+    writeFileSync(gpkg, entries[name!]!);
+    const layers = ogrinfo(gpkg);
+    expect(layers.size).toBe(12);
+    const rec = await demoRecords();
+    expect(layers.get("finds_wgs84")!.count).toBe(rec.finds.length);
+    expect(layers.get("trenches_projected")!.wkt).toMatch(/ID\["EPSG",27700\]\]$/);
+    const readme = new TextDecoder().decode(entries[name!.replace("gis/site.gpkg", "README.txt")]);
+    expect(readme).toContain("gis/site.gpkg");
   });
 });
 

@@ -13,6 +13,8 @@ import type { depositionQuery } from "@/lib/schemas/export";
 import type { SiteActor } from "@/lib/server/membership";
 import { bagZip, bagZipStream, type BagFile, type BagInfoLines, type BagSummary } from "./bagit";
 import { findsGeoJson } from "./geojson";
+import { siteGeoPackage } from "./gis-export";
+import { projectedSrs } from "./gis-srs";
 import { readTrenchRecord } from "./trench-record-data";
 import { trenchRecordPdf } from "./trench-record-pdf";
 import { drawSiteMatrix } from "./matrix-image";
@@ -103,8 +105,8 @@ export async function packageTrenchCode(db: Db, site: Site, trenchId: string | u
 
 /**
  * The deposition package (field.md, "The archive") of the whole site, or of one signed-off trench: the
- * registers, the matrix, GeoJSON (when the site is placed in a CRS), the photos, the analysis runs, and last
- * a readme that describes them all. Refuses a trench that is not signed off.
+ * registers, the matrix, a GeoPackage (and GeoJSON when the site is placed in a CRS), the photos, the
+ * analysis runs, and last a readme that describes them all. Refuses a trench that is not signed off.
  */
 export async function planPackage(db: Db, site: Site, userId: string, trenchId?: string): Promise<PackagePlan> {
   const trenchCode = await packageTrenchCode(db, site, trenchId);
@@ -164,13 +166,19 @@ export async function planPackage(db: Db, site: Site, userId: string, trenchId?:
       "each trench's record as PDF: summary, sign-off, plan, context sheets, finds by context and class",
     ]);
 
+  entries.push(async () => {
+    const projected = projectedSrs(site);
+    const layers = !site.crs
+      ? "in the site grid (a local engineering CRS); the site is not placed, so no real-world layers"
+      : `in the site grid (a local engineering CRS)${projected ? `, in ${projected.name}` : ""} and in WGS 84`;
+    other.push(["gis/site.gpkg", `trenches, context extents, finds and samples as an OGC GeoPackage, ${layers}`]);
+    return { path: "gis/site.gpkg", bytes: await siteGeoPackage(db, site, trenchId) };
+  });
   if (site.crs) {
     entries.push(async () => {
       other.push(["gis/finds-wgs84.geojson", "finds as points, WGS 84 longitude/latitude (RFC 7946)"]);
       return { path: "gis/finds-wgs84.geojson", bytes: findsGeoJsonChunks(db, site, trenchId) };
     });
-  } else {
-    other.push(["gis/", "none: the site has no CRS set, so no real-world coordinates could be given"]);
   }
 
   const photoList = await packagePhotos(db, scope);
