@@ -9,6 +9,7 @@ export function siteSections(siteId: string) {
     { href: `${base}/finds`, label: "Finds register" },
     { href: `${base}/samples`, label: "Samples" },
     { href: `${base}/drawings`, label: "Drawings" },
+    { href: `${base}/boxes`, label: "Boxes" },
     { href: `${base}/labels`, label: "Labels" },
     { href: `${base}/contexts`, label: "Context sheets" },
     { href: `${base}/levels`, label: "Level book" },

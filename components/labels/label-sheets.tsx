@@ -42,6 +42,67 @@ function Label({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayou
 }
 
 /**
+ * A box label: the code and the box in words along the top, then what the box holds, one find or sample a
+ * line, in as many columns as the label's width allows. What does not fit is counted on the last line, so
+ * the label never claims to list everything when it does not.
+ */
+function BoxLabel({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayout; siteCode: string }) {
+  const qr = qrPath(item.code);
+  const pad = Math.min(2, layout.heightMm * 0.05);
+  const side = Math.min(layout.heightMm * 0.38, layout.widthMm * 0.3, 24);
+  const big = Math.min(side * 0.28, 6);
+  const line = Math.max(2, Math.min(2.8, layout.heightMm * 0.05));
+  const columns = Math.max(1, Math.floor((layout.widthMm - 2 * pad) / 32));
+  const rows = Math.max(1, Math.floor((layout.heightMm - 3 * pad - side) / (line * 1.15)));
+  const contents = item.contents ?? [];
+  const room = rows * columns;
+  const shown = contents.length > room ? contents.slice(0, room - 1) : contents;
+  const rest = contents.length - shown.length;
+  return (
+    <div
+      className="label-cell label-box"
+      style={{ width: `${layout.widthMm}mm`, height: `${layout.heightMm}mm`, padding: `${pad}mm`, gap: `${pad}mm` }}
+      data-label-code={item.code}
+    >
+      <div className="flex items-start" style={{ gap: `${pad}mm` }}>
+        <svg
+          viewBox={`0 0 ${qr.size} ${qr.size}`}
+          style={{ width: `${side}mm`, height: `${side}mm`, flex: "none" }}
+          role="img"
+          aria-label={`Code ${item.code}`}
+          shapeRendering="crispEdges"
+        >
+          <rect width={qr.size} height={qr.size} fill="#fff" />
+          <path d={qr.d} fill="#000" />
+        </svg>
+        <div className="min-w-0 leading-tight" style={{ fontSize: `${line}mm` }}>
+          <p className="font-mono font-bold" style={{ fontSize: `${big}mm` }}>
+            {siteCode} Box {item.number}
+          </p>
+          <p className="truncate">{item.what || "Store not given"}</p>
+          <p>
+            {contents.length === 0 ? "Empty" : `${contents.length} ${contents.length === 1 ? "record" : "records"}`}
+            {item.trenchCode ? ` · trench ${item.trenchCode}` : ""}
+          </p>
+        </div>
+      </div>
+      <ul
+        className="label-box-contents font-mono"
+        aria-label={`In box ${item.number}`}
+        style={{ columnCount: columns, fontSize: `${line}mm`, lineHeight: 1.15 }}
+      >
+        {shown.map((c) => (
+          <li key={c} className="truncate">
+            {c}
+          </li>
+        ))}
+        {rest > 0 && <li>… and {rest} more: see the box page</li>}
+      </ul>
+    </div>
+  );
+}
+
+/**
  * A4 sheets of labels laid out in millimetres exactly as they print (labels.css names the page with no
  * margin, so the sheet's own margins are the layout's). On screen each label is outlined.
  */
@@ -65,7 +126,11 @@ export function LabelSheets({
             const at = labelPosition(layout, i);
             return (
               <div key={item.key} className="label-place" style={{ left: `${at.x}mm`, top: `${at.y}mm` }}>
-                <Label item={item} layout={layout} siteCode={siteCode} />
+                {item.kindWord === "Box" ? (
+                  <BoxLabel item={item} layout={layout} siteCode={siteCode} />
+                ) : (
+                  <Label item={item} layout={layout} siteCode={siteCode} />
+                )}
               </div>
             );
           })}

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useDates } from "@/components/locale";
+import type { FindProcessing } from "@/lib/schemas/processing";
 
 /** One register row as the API sends it (lib/server/finds.ts listFinds). */
 export type RegisterRow = {
@@ -27,6 +28,8 @@ export type RegisterRow = {
   classLabel: string;
   classColour: string;
   classSymbol: string;
+  processing?: FindProcessing;
+  boxNumber?: number | null;
 };
 
 const lockWords: Record<string, string> = {

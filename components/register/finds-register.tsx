@@ -1,10 +1,10 @@
 "use client";
 
-import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { keepPreviousData, useQuery, useQueryClient } from "@tanstack/react-query";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useMemo, useState } from "react";
+import { useMemo, useRef, useState } from "react";
 import { apiClient } from "@/lib/api/client";
 import { ClassMark } from "./class-mark";
 import { Fragment } from "react";
@@ -12,12 +12,16 @@ import { FindPanel, type RegisterRow } from "./find-panel";
 import { RegisterFilters, type RegisterOptions } from "./register-filters";
 import { readView, viewQuery, withChange, type RegisterView } from "./register-query";
 import { countOf } from "@/lib/words/count";
+import { findProcessingLabels } from "@/lib/schemas/processing";
 import { useDates } from "@/components/locale";
+import { BulkBar } from "./bulk-bar";
+import type { BoxChoice } from "./processing-fields";
 
 const sortable = new Set(["number", "trench", "context", "class", "recorder", "x", "y", "z", "recordedAt"]);
 const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
 
 const columns: ColumnDef<RegisterRow>[] = [
+  { id: "pick", header: "Pick" },
   { id: "number", header: "Find", cell: (c) => <span className="font-bold">{c.row.original.number}</span> },
   { id: "trench", header: "Trench", cell: (c) => c.row.original.trenchCode },
   { id: "context", header: "Context", cell: (c) => c.row.original.contextNumber },
@@ -37,6 +41,18 @@ const columns: ColumnDef<RegisterRow>[] = [
   { id: "recorder", header: "Recorder", cell: (c) => c.row.original.recordedBy ?? "—" },
   { id: "recordedAt", header: "Recorded", cell: (c) => <RecordedDay at={c.row.original.recordedAt} /> },
   {
+    id: "processing",
+    header: "Processing",
+    cell: (c) => (
+      <span className="whitespace-nowrap">
+        {c.row.original.processing ? findProcessingLabels[c.row.original.processing] : "—"}
+        {c.row.original.boxNumber !== null && c.row.original.boxNumber !== undefined
+          ? ` · box ${c.row.original.boxNumber}`
+          : ""}
+      </span>
+    ),
+  },
+  {
     id: "description",
     header: "Description",
     cell: (c) => <span className="block max-w-xs truncate">{c.row.original.description}</span>,
@@ -44,18 +60,31 @@ const columns: ColumnDef<RegisterRow>[] = [
 ];
 const numeric = new Set(["number", "context", "x", "y", "z", "recordedAt"]);
 
-/** The finds register: server-side filters, sorting and paging, all held in the URL. */
+/**
+ * The finds register: server-side filters, sorting and paging, all held in the URL. Finds are picked by hand
+ * (a click, shift-click for a run of rows) or all that match the filters, then changed together in the bar.
+ */
 export function FindsRegister({
   siteId,
   options,
   canImport,
   hasCrs,
+  role,
+  boxes,
 }: {
   siteId: string;
   options: RegisterOptions;
   canImport: boolean;
   hasCrs: boolean;
+  role: "digger" | "specialist" | "director";
+  boxes: BoxChoice[];
 }) {
+  const queryClient = useQueryClient();
+  const [picked, setPicked] = useState<Record<string, boolean>>({});
+  const [allNote, setAllNote] = useState<string | null>(null);
+  const [done, setDone] = useState<string | null>(null);
+  const lastPicked = useRef<number | null>(null);
+  const pickedIds = Object.keys(picked).filter((k) => picked[k]);
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();
@@ -82,13 +111,44 @@ export function FindsRegister({
     manualPagination: true,
     manualFiltering: true,
     pageCount: pages,
-    state: { sorting, pagination: { pageIndex: page - 1, pageSize } },
+    state: { sorting, pagination: { pageIndex: page - 1, pageSize }, rowSelection: picked },
+    enableRowSelection: true,
     enableSortingRemoval: false,
     getRowId: (r) => r.id,
   });
   const sortBy = (id: string) =>
     go({ sort: id, dir: view.sort === id && view.dir !== "desc" ? "desc" : "asc", page: "" });
   const exportQs = viewQuery(view, ["page", "pageSize"]);
+  const pageRows = table.getRowModel().rows;
+  /** A click picks one row; with shift held, every row from the last one clicked to this one takes its state. */
+  const pick = (index: number, on: boolean, range: boolean) => {
+    const from = range && lastPicked.current !== null ? Math.min(lastPicked.current, index) : index;
+    const to = range && lastPicked.current !== null ? Math.max(lastPicked.current, index) : index;
+    const next = { ...picked };
+    for (const r of pageRows.slice(from, to + 1)) {
+      if (on) next[r.id] = true;
+      else delete next[r.id];
+    }
+    lastPicked.current = index;
+    setPicked(next);
+  };
+  const pageAllPicked = pageRows.length > 0 && pageRows.every((r) => picked[r.id]);
+  async function pickAllMatching() {
+    const { page: _p, pageSize: _s, ...filters } = view;
+    const answer = await apiClient.call("findIds", { siteId }, filters);
+    setPicked(Object.fromEntries(answer.ids.map((id) => [id, true])));
+    setDone(null);
+    setAllNote(
+      answer.truncated
+        ? `Only the first ${countOf(answer.ids.length, "find")} of ${answer.total.toLocaleString("en-GB")} were picked: a change takes at most that many at once.`
+        : null,
+    );
+  }
+  const clearPicks = () => {
+    setPicked({});
+    setAllNote(null);
+    lastPicked.current = null;
+  };
 
   return (
     <div className="space-y-3">
@@ -116,6 +176,31 @@ export function FindsRegister({
         )}
       </div>
       <RegisterFilters view={view} options={options} onChange={go} />
+      <div className="flex flex-wrap items-center gap-2">
+        <button type="button" className="btn" disabled={total === 0} onClick={() => void pickAllMatching()}>
+          Pick all {countOf(total, "find")} that match
+        </button>
+        {allNote && <p className="text-sm text-warn">{allNote}</p>}
+        <p role="status" className="font-semibold text-ok">
+          {done}
+        </p>
+      </div>
+      {pickedIds.length > 0 && (
+        <BulkBar
+          siteId={siteId}
+          role={role}
+          ids={pickedIds}
+          contexts={options.contexts}
+          classes={options.classes}
+          boxes={boxes}
+          onClear={clearPicks}
+          onDone={(said) => {
+            setDone(said);
+            clearPicks();
+            void queryClient.invalidateQueries({ queryKey: ["finds", siteId] });
+          }}
+        />
+      )}
       <p aria-live="polite" className="text-sm text-ink-soft">
         {data.isFetching ? (
           "Reading the register…"
@@ -144,7 +229,23 @@ export function FindsRegister({
                       className={numeric.has(h.id) ? "num" : ""}
                       aria-sort={active ? (sorting[0]?.desc ? "descending" : "ascending") : undefined}
                     >
-                      {sortable.has(h.id) ? (
+                      {h.id === "pick" ? (
+                        <label className="inline-flex min-h-11 items-center gap-1">
+                          <input
+                            type="checkbox"
+                            checked={pageAllPicked}
+                            onChange={(e) => {
+                              const next = { ...picked };
+                              for (const r of pageRows) {
+                                if (e.target.checked) next[r.id] = true;
+                                else delete next[r.id];
+                              }
+                              setPicked(next);
+                            }}
+                          />
+                          <span className="sr-only">Pick every find on this page</span>
+                        </label>
+                      ) : sortable.has(h.id) ? (
                         <button
                           type="button"
                           className="inline-flex min-h-11 items-center gap-1 font-semibold"
@@ -163,7 +264,7 @@ export function FindsRegister({
             ))}
           </thead>
           <tbody>
-            {table.getRowModel().rows.map((row) => (
+            {pageRows.map((row, index) => (
               <Fragment key={row.id}>
                 <tr
                   className={`cursor-pointer ${row.id === openId ? "bg-accent-light" : "hover:bg-paper-deep"}`}
@@ -171,7 +272,23 @@ export function FindsRegister({
                 >
                   {row.getVisibleCells().map((cell) => (
                     <td key={cell.id} className={numeric.has(cell.column.id) ? "num" : ""}>
-                      {cell.column.id === "number" ? (
+                      {cell.column.id === "pick" ? (
+                        <label
+                          className="inline-flex min-h-11 min-w-11 items-center"
+                          onClick={(e) => e.stopPropagation()}
+                        >
+                          <input
+                            type="checkbox"
+                            checked={!!picked[row.id]}
+                            onChange={() => undefined}
+                            onClick={(e) => {
+                              e.stopPropagation();
+                              pick(index, !picked[row.id], e.shiftKey);
+                            }}
+                          />
+                          <span className="sr-only">Pick find {row.original.number}</span>
+                        </label>
+                      ) : cell.column.id === "number" ? (
                         <button
                           type="button"
                           className="min-h-11 font-bold underline"

@@ -100,3 +100,73 @@ export function SampleDelete({ siteId, sampleId, number }: { siteId: string; sam
     </details>
   );
 }
+
+/**
+ * Where the samples picked are kept: a box of the box register (or none) and a place in the store. After the
+ * trench, so not locked with the context; a sample with a specialist or discarded goes in no box.
+ */
+export function SampleBoxControl({
+  siteId,
+  sampleIds,
+  boxes,
+  current,
+  onDone,
+}: {
+  siteId: string;
+  sampleIds: string[];
+  boxes: { id: string; number: number; store: string }[];
+  current?: string | null;
+  onDone?: () => void;
+}) {
+  const router = useRouter();
+  const [box, setBox] = useState(current ?? "none");
+  const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
+  const apply = async () => {
+    setNote(null);
+    try {
+      const done = await sendStore(siteId, sampleIds, box === "none" ? null : box);
+      setNote({
+        ok: true,
+        text: done.pending
+          ? "No connection: the change waits on this device."
+          : `${done.changed} ${done.changed === 1 ? "sample" : "samples"} ${done.boxNumber ? `now in box ${done.boxNumber}` : "in no box"}.`,
+      });
+      onDone?.();
+      router.refresh();
+    } catch (err) {
+      setNote({ ok: false, text: err instanceof Error ? err.message : String(err) });
+    }
+  };
+  return (
+    <div className="flex flex-wrap items-end gap-2">
+      <div>
+        <label className="label" htmlFor="sample-box">
+          Box
+        </label>
+        <select id="sample-box" className="field num" value={box} onChange={(e) => setBox(e.target.value)}>
+          <option value="none">In no box</option>
+          {boxes.map((b) => (
+            <option key={b.id} value={b.id}>
+              Box {b.number}
+              {b.store ? ` · ${b.store}` : ""}
+            </option>
+          ))}
+        </select>
+      </div>
+      <button type="button" className="btn" disabled={sampleIds.length === 0} onClick={apply}>
+        Store {sampleIds.length} {sampleIds.length === 1 ? "sample" : "samples"}
+      </button>
+      <p role="status" aria-live="polite" className={note?.ok ? "font-semibold text-ok" : "field-error"}>
+        {note?.text ?? ""}
+      </p>
+    </div>
+  );
+}
+
+async function sendStore(siteId: string, sampleIds: string[], boxId: string | null) {
+  return (await apiClient.call("samplesStore", { siteId }, { sampleIds, boxId })) as {
+    changed: number;
+    boxNumber: number | null;
+    pending?: boolean;
+  };
+}

@@ -4,12 +4,20 @@ import Link from "next/link";
 import { useState } from "react";
 import type { SampleRow } from "@/lib/api/archive-responses";
 import { sampleStatusLabels, sampleTypeLabels } from "@/lib/schemas/sample";
-import { SampleStatusControl } from "./sample-actions";
+import { SampleBoxControl, SampleStatusControl } from "./sample-actions";
 
 const metres = (v: number | null) => (v === null ? "—" : v.toFixed(3));
 
 /** The samples register's rows, with a tick per row for setting the processing status of many at once. */
-export function SamplesTable({ siteId, rows }: { siteId: string; rows: SampleRow[] }) {
+export function SamplesTable({
+  siteId,
+  rows,
+  boxes,
+}: {
+  siteId: string;
+  rows: SampleRow[];
+  boxes: { id: string; number: number; store: string }[];
+}) {
   const [picked, setPicked] = useState<Set<string>>(new Set());
   const toggle = (id: string) =>
     setPicked((p) => {
@@ -22,6 +30,7 @@ export function SamplesTable({ siteId, rows }: { siteId: string; rows: SampleRow
   return (
     <div className="space-y-3">
       <SampleStatusControl siteId={siteId} sampleIds={[...picked]} onDone={() => setPicked(new Set())} />
+      <SampleBoxControl siteId={siteId} sampleIds={[...picked]} boxes={boxes} onDone={() => setPicked(new Set())} />
       <div className="overflow-x-auto">
         <table className="ledger sheet" aria-label="Samples register">
           <thead>

@@ -6,6 +6,7 @@ describe("label codes", () => {
     for (const ref of [
       { siteCode: "WHD26", kind: "F" as const, number: 1234 },
       { siteCode: "ab-2", kind: "S" as const, number: 99_999_999 },
+      { siteCode: "WHD26", kind: "B" as const, number: 12 },
     ]) {
       expect(parseLabelCode(labelCode(ref))).toEqual(ref);
       expect(parseLabelCode(labelCode(ref, "https://loamwork.example.org/"))).toEqual(ref);
@@ -16,6 +17,7 @@ describe("label codes", () => {
       "https://lw.example.org/l/WHD26/S/7",
     );
     expect(labelPath({ siteCode: "WHD26", kind: "S", number: 7 })).toBe("/l/WHD26/S/7");
+    expect(labelCode({ siteCode: "WHD26", kind: "B", number: 12 })).toBe("LW/WHD26/B/12");
   });
 
   it("refuses texts that are not Loamwork labels", () => {

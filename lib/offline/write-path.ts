@@ -28,7 +28,8 @@ export type WritePathDeps = {
 };
 
 /** Operations a digger can make offline, and what each does to the outbox. */
-const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
+type OfflineKind = "create" | "edit" | "delete" | "bulk";
+const offlineOps: Partial<Record<ApiName, OfflineKind>> = {
   findsCreate: "create",
   findUpdate: "edit",
   findDelete: "delete",
@@ -44,6 +45,11 @@ const offlineOps: Partial<Record<ApiName, "create" | "edit" | "delete">> = {
   spitsCreate: "create",
   spitUpdate: "edit",
   levelRunsCreate: "create",
+  // Changes to many records at once (the register's bulk bar, processing in the finds shed): all or nothing
+  // when they reach the server, which names any record that stops them.
+  findsBulk: "bulk",
+  samplesStatus: "bulk",
+  samplesStore: "bulk",
 };
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
@@ -73,7 +79,7 @@ function pathIds(url: string): { siteId: string; recordId: string } {
 
 const needsConnection = (req: ApiRequest) =>
   new ApiError(
-    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations, counts by square, spits and levelling runs works offline.`,
+    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations, counts by square, spits and levelling runs works offline, and so do changes to many finds or samples at once.`,
     0,
   );
 
@@ -102,7 +108,7 @@ export function createWritePath(deps: WritePathDeps) {
   };
 }
 
-async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edit" | "delete"): Promise<unknown> {
+async function queue(deps: WritePathDeps, req: ApiRequest, kind: OfflineKind): Promise<unknown> {
   const { outbox } = deps;
   const { siteId, recordId } = pathIds(req.url);
   const body = req.body ? (JSON.parse(req.body) as Record<string, unknown>) : {};
@@ -175,6 +181,12 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
       : { id: localId, state: "open", signedOffAt: null, extent: null, ...body, pending: true };
   }
 
+  if (kind === "bulk") {
+    const label = bulkLabel(req.operation, body);
+    await outbox.add({ ...base, body: req.body, label });
+    return { ...(typeof body.action === "string" && { action: body.action }), label, pending: true };
+  }
+
   // An edit or delete of a record made on this device and not yet sent changes its queued create.
   const create = await outbox.createOf(recordId);
   if (create) return kind === "edit" ? mergeIntoCreate(outbox, create, body) : dropCreate(outbox, create);
@@ -188,6 +200,20 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: "create" | "edi
     label: `${kind === "edit" ? "change" : "delete"} ${recordWord(req.operation)}`,
   });
   return kind === "edit" ? { id: recordId, ...body, pending: true } : { deleted: recordId, pending: true };
+}
+
+/** "move 3 finds", "status of 2 samples": what a queued change to many records does. */
+function bulkLabel(operation: string, body: Record<string, unknown>): string {
+  const many = (key: string, one: string) => {
+    const n = Array.isArray(body[key]) ? (body[key] as unknown[]).length : 0;
+    return `${n} ${n === 1 ? one : `${one}s`}`;
+  };
+  if (operation === "findsBulk") {
+    const verb = { move: "move", reclass: "re-class", delete: "delete", process: "process" }[String(body.action)];
+    return `${verb ?? "change"} ${many("findIds", "find")}`;
+  }
+  if (operation === "samplesStore") return `store ${many("sampleIds", "sample")}`;
+  return `status of ${many("sampleIds", "sample")}`;
 }
 
 function recordWord(operation: string): string {

@@ -101,6 +101,15 @@ export const fieldLabels: Record<string, string> = {
   title: "Title",
   drawnBy: "Drawn by",
   drawnOn: "Date drawn",
+  // after the trench: processing, boxes, bulk changes
+  processing: "Processing",
+  sentTo: "Sent to",
+  boxId: "Box",
+  location: "Kept at",
+  store: "Store",
+  findIds: "Finds picked",
+  sampleIds: "Samples picked",
+  action: "Change",
   // lists, filters and exports
   page: "Page",
   pageSize: "Rows a page",

@@ -2,7 +2,8 @@ import "server-only";
 import { and, asc, eq, gte, inArray, lte, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db } from "@/db/client";
-import { artefactClasses, contexts, finds, samples, sites, trenches, users, type Site } from "@/db/schema";
+import { artefactClasses, boxes, contexts, finds, samples, sites, trenches, users, type Site } from "@/db/schema";
+import { boxContents } from "./boxes";
 import { labelCode, type LabelKindLetter, type LabelRef } from "@/lib/labels/code";
 import { MAX_LABELS, type LabelSelection } from "@/lib/schemas/labels";
 import { sampleTypeLabels } from "@/lib/schemas/sample";
@@ -13,7 +14,7 @@ import { loadSiteActor } from "./membership";
 /** One label as printed: what it says and the code its QR holds. */
 export type LabelItem = {
   key: string;
-  kindWord: "Find" | "Sample";
+  kindWord: "Find" | "Sample" | "Box";
   number: number;
   trenchCode: string;
   contextNumber: number;
@@ -21,6 +22,8 @@ export type LabelItem = {
   date: string;
   recorder: string;
   code: string;
+  /** A box label lists what is in the box: one line a find or sample (number, class or type, context). */
+  contents?: string[];
 };
 
 const taker = alias(users, "label_taker");
@@ -33,6 +36,7 @@ export async function labelItems(
 ): Promise<{ items: LabelItem[]; truncated: boolean }> {
   const address = site.labelAddress;
   const code = (kind: LabelKindLetter, number: number) => labelCode({ siteCode: site.code, kind, number }, address);
+  if (q.kind === "boxes") return boxLabels(db, site, q, code);
   if (q.kind === "finds") {
     const where: SQL[] = [eq(finds.siteId, site.id)];
     if (q.trenchId) where.push(eq(finds.trenchId, q.trenchId));
@@ -114,6 +118,45 @@ export async function labelItems(
   };
 }
 
+/** Box labels: the box, its store, and every find and sample in it, in number order. */
+async function boxLabels(
+  db: Db,
+  site: Site,
+  q: LabelSelection,
+  code: (kind: LabelKindLetter, number: number) => string,
+): Promise<{ items: LabelItem[]; truncated: boolean }> {
+  const where: SQL[] = [eq(boxes.siteId, site.id)];
+  if (q.fromNumber) where.push(gte(boxes.number, q.fromNumber));
+  if (q.toNumber) where.push(lte(boxes.number, q.toNumber));
+  if (q.ids) where.push(q.ids.length ? inArray(boxes.id, q.ids) : sql`false`);
+  const rows = await db
+    .select()
+    .from(boxes)
+    .where(and(...where))
+    .orderBy(asc(boxes.number))
+    .limit(MAX_LABELS + 1);
+  const items: LabelItem[] = [];
+  for (const box of rows.slice(0, MAX_LABELS)) {
+    const inside = await boxContents(db, box);
+    items.push({
+      key: box.id,
+      kindWord: "Box",
+      number: box.number,
+      trenchCode: [...new Set([...inside.finds, ...inside.samples].map((r) => r.trenchCode))].join(", "),
+      contextNumber: 0,
+      what: box.store,
+      date: box.updatedAt.toISOString().slice(0, 10),
+      recorder: "",
+      code: code("B", box.number),
+      contents: [
+        ...inside.finds.map((f) => `F${f.number} ${f.classCode} · ctx ${f.contextNumber}`),
+        ...inside.samples.map((s) => `S${s.number} ${s.typeLabel} · ctx ${s.contextNumber}`),
+      ],
+    });
+  }
+  return { items, truncated: rows.length > MAX_LABELS };
+}
+
 /**
  * Where a scanned label leads: the record's page, for a member of its site. A stranger, an unknown site code
  * or a number with no record (deleted, or never used) all get the same "not found", revealing nothing.
@@ -127,11 +170,11 @@ export async function resolveLabel(db: Db, userId: string, ref: LabelRef): Promi
   await loadSiteActor(db, userId, site.id).catch(() => {
     throw notFound("That label's record");
   });
-  const table = ref.kind === "F" ? finds : samples;
+  const table = { F: finds, S: samples, B: boxes }[ref.kind];
   const [row] = await db
     .select({ id: table.id })
     .from(table)
     .where(and(eq(table.siteId, site.id), eq(table.number, ref.number)));
   if (!row || !isUuid(row.id)) throw notFound("That label's record");
-  return `/sites/${site.id}/${ref.kind === "F" ? "finds" : "samples"}/${row.id}`;
+  return `/sites/${site.id}/${{ F: "finds", S: "samples", B: "boxes" }[ref.kind]}/${row.id}`;
 }

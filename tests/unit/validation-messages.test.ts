@@ -14,6 +14,8 @@ import * as signOff from "@/lib/schemas/sign-off";
 import * as site from "@/lib/schemas/site";
 import * as trench from "@/lib/schemas/trench";
 import * as runSchemas from "@/lib/schemas/run";
+import * as processing from "@/lib/schemas/processing";
+import * as findsBulk from "@/lib/schemas/finds-bulk";
 import { fieldLabel, fieldLabels } from "@/lib/schemas/messages";
 
 /**
@@ -36,6 +38,8 @@ const modules = {
   site,
   trench,
   runSchemas,
+  processing,
+  findsBulk,
 };
 const probes: unknown[] = [
   undefined,

@@ -22,6 +22,8 @@ import { listSpits } from "../spits";
 import { listTrenchSquares } from "../squares";
 import { listSamples, readSample } from "../samples";
 import { labelItems, resolveLabel } from "../labels";
+import { boxChoices, listBoxes, readBox } from "../boxes";
+import type { BoxListQuery } from "@/lib/schemas/processing";
 import type { LabelRef } from "@/lib/labels/code";
 import type { LabelSelection } from "@/lib/schemas/labels";
 import type { SampleListQuery } from "@/lib/schemas/sample";
@@ -83,6 +85,9 @@ export function siteReads(db: Db, actor: SiteActor) {
     sample: (sampleId: string) => readSample(db, siteId, sampleId),
     drawings: (q: DrawingListQuery) => listDrawings(db, siteId, q),
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
+    boxes: (q: BoxListQuery) => listBoxes(db, siteId, q),
+    boxChoices: () => boxChoices(db, siteId),
+    box: (boxId: string) => readBox(db, siteId, boxId),
     numberAccounting: (kind: NumberKind) => accountNumbers(db, siteId, kind),
     printed: {
       contexts: () => printedContextRegister(db, siteId),

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { DrawingActions } from "@/components/drawings/drawing-actions";
 import { DrawingForm } from "@/components/drawings/drawing-form";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { SiteNav } from "@/components/site-nav";
@@ -33,6 +34,9 @@ export default async function DrawingsPage({
   const open = contexts
     .filter(isContextWritable)
     .map((c) => ({ id: c.id, number: c.number, trenchCode: codes.get(c.trenchId) ?? "?" }));
+  const byNumber = new Map(contexts.map((c) => [c.number, c]));
+  const people = members.map((m) => ({ id: m.userId, name: m.name }));
+  const recorder = actor.role !== "specialist";
   const base = `/sites/${siteId}/drawings`;
   const pages = Math.max(1, Math.ceil(page.total / q.pageSize));
   return (
@@ -52,7 +56,7 @@ export default async function DrawingsPage({
         {actor.role === "specialist" ? null : open.length === 0 ? (
           <p className="sheet">No context is open: a new drawing shows open contexts.</p>
         ) : (
-          <DrawingForm siteId={siteId} contexts={open} members={members.map((m) => ({ id: m.userId, name: m.name }))} />
+          <DrawingForm siteId={siteId} contexts={open} members={people} />
         )}
         {page.rows.length === 0 ? (
           <p className="text-ink-soft">No drawings recorded yet.</p>
@@ -69,6 +73,7 @@ export default async function DrawingsPage({
                 <th>Drawn by</th>
                 <th>Drawn on</th>
                 <th>State</th>
+                {recorder && <th>Change</th>}
               </tr>
             </thead>
             <tbody>
@@ -85,6 +90,29 @@ export default async function DrawingsPage({
                   <td>
                     <StateBadge state={d.state} />
                   </td>
+                  {recorder && (
+                    <td>
+                      <DrawingActions
+                        siteId={siteId}
+                        drawing={{
+                          id: d.id,
+                          number: d.number,
+                          kind: d.kind,
+                          scale: d.scale,
+                          contextIds: d.contextNumbers.flatMap((n) => byNumber.get(n)?.id ?? []),
+                          title: d.title,
+                          drawnBy: d.drawnById,
+                          drawnOn: d.drawnOn,
+                        }}
+                        lockedBy={d.contextNumbers.filter((n) => {
+                          const c = byNumber.get(n);
+                          return c !== undefined && !isContextWritable(c);
+                        })}
+                        contexts={open}
+                        members={people}
+                      />
+                    </td>
+                  )}
                 </tr>
               ))}
             </tbody>

@@ -7,11 +7,12 @@ import { pageSiteActor } from "@/lib/server/page-access";
 export default async function FindsRegisterPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const [trenches, contexts, classes, members] = await Promise.all([
+  const [trenches, contexts, classes, members, boxes] = await Promise.all([
     read.trenches(),
     read.contexts(),
     read.classes(),
     read.members(),
+    read.boxChoices(),
   ]);
   const options = {
     trenches: trenches.map((t) => ({ id: t.id, code: t.code })),
@@ -35,6 +36,8 @@ export default async function FindsRegisterPage({ params }: { params: Promise<{ 
             options={options}
             canImport={actor.role !== "specialist"}
             hasCrs={!!actor.site.crs?.trim()}
+            role={actor.role}
+            boxes={boxes}
           />
         </Suspense>
       </main>

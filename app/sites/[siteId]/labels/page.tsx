@@ -19,7 +19,10 @@ const measures = [
   ["gapYMm", "Gap between rows (mm)", "0.1"],
 ] as const;
 
-/** Bag labels for finds and samples, on the A4 sheet the user picks; printed from the browser as shown. */
+/**
+ * Bag labels for finds and samples, and box labels listing what each box holds, on the A4 sheet the user
+ * picks; printed from the browser as shown.
+ */
 export default async function LabelsPage({
   params,
   searchParams,
@@ -60,6 +63,7 @@ export default async function LabelsPage({
                 <select id="lb-kind" name="kind" className="field" defaultValue={search.kind ?? "finds"}>
                   <option value="finds">Finds</option>
                   <option value="samples">Samples</option>
+                  <option value="boxes">Boxes (with their contents)</option>
                 </select>
               </div>
               <div>
@@ -156,7 +160,9 @@ export default async function LabelsPage({
             </p>
           )}
           {labels && labels.items.length === 0 && (
-            <p className="sheet">No {search.kind === "samples" ? "samples" : "finds"} match.</p>
+            <p className="sheet">
+              No {search.kind === "samples" || search.kind === "boxes" ? search.kind : "finds"} match.
+            </p>
           )}
           <p className="text-sm text-ink-soft">
             Print at 100 % (no “fit to page”). Each code holds{" "}

@@ -25,7 +25,7 @@ export default async function SamplesPage({
   const { actor, read } = await pageSiteActor(siteId);
   const parsed = sampleListQuery.safeParse(Object.fromEntries(Object.entries(search).filter(([, v]) => v)));
   const q = parsed.success ? parsed.data : sampleListQuery.parse({});
-  const [page, contexts] = await Promise.all([read.samples(q), read.contexts()]);
+  const [page, contexts, boxes] = await Promise.all([read.samples(q), read.contexts(), read.boxChoices()]);
   const pages = Math.max(1, Math.ceil(page.total / q.pageSize));
   const filters = new URLSearchParams(
     Object.entries({ contextId: q.contextId, type: q.type, status: q.status }).filter(
@@ -104,7 +104,7 @@ export default async function SamplesPage({
           <span className="num">{page.total}</span> samples match · page <span className="num">{q.page}</span> of{" "}
           <span className="num">{pages}</span>
         </p>
-        <SamplesTable siteId={siteId} rows={page.rows} />
+        <SamplesTable siteId={siteId} rows={page.rows} boxes={boxes} />
         <nav aria-label="Pages" className="flex gap-2">
           {q.page > 1 && (
             <Link className="btn" href={pageHref(q.page - 1)}>

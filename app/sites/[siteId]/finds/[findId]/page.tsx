@@ -4,6 +4,7 @@ import { AuditTrail } from "@/components/audit/audit-trail";
 import { HumanRemainsBanner } from "@/components/cautions";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { FindEditForm } from "@/components/register/find-edit-form";
+import { FindProcessingPanel } from "@/components/register/find-processing";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
 import { changeableFields } from "@/lib/server/field-rights";
@@ -19,7 +20,12 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [ctx, contexts, classes] = await Promise.all([read.context(f.contextId), read.contexts(), read.classes()]);
+  const [ctx, contexts, classes, boxes] = await Promise.all([
+    read.context(f.contextId),
+    read.contexts(),
+    read.classes(),
+    read.boxChoices(),
+  ]);
   const cls = classes.find((c) => c.id === f.classId);
   const signed = ctx.state === "signed_off";
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
@@ -109,6 +115,12 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
             <dd>{f.description || "—"}</dd>
           </dl>
         )}
+        <FindProcessingPanel
+          siteId={siteId}
+          findId={f.id}
+          now={{ processing: f.processing, sentTo: f.sentTo, boxId: f.boxId, location: f.location }}
+          boxes={boxes}
+        />
         <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} locale={locale} />
       </main>
     </>

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { AuditTrail } from "@/components/audit/audit-trail";
 import { LockNotice } from "@/components/contexts/lock-notice";
-import { SampleDelete, SampleStatusControl } from "@/components/samples/sample-actions";
+import { SampleBoxControl, SampleDelete, SampleStatusControl } from "@/components/samples/sample-actions";
 import { SampleForm } from "@/components/samples/sample-form";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
@@ -17,12 +17,13 @@ export default async function SamplePage({ params }: { params: Promise<{ siteId:
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [ctx, contexts, trenches, members, trail] = await Promise.all([
+  const [ctx, contexts, trenches, members, trail, boxes] = await Promise.all([
     read.context(s.contextId),
     read.contexts(),
     read.trenches(),
     read.members(),
     read.audit({ recordType: "sample", recordId: s.id }),
+    read.boxChoices(),
   ]);
   const signed = ctx.state === "signed_off";
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
@@ -99,6 +100,7 @@ export default async function SamplePage({ params }: { params: Promise<{ siteId:
             Now: <strong>{sampleStatusLabels[s.status]}</strong>
           </p>
           <SampleStatusControl siteId={siteId} sampleIds={[s.id]} current={s.status} />
+          <SampleBoxControl siteId={siteId} sampleIds={[s.id]} boxes={boxes} current={s.boxId} />
         </section>
         {writable && <SampleDelete siteId={siteId} sampleId={s.id} number={s.number} />}
         <AuditTrail entries={trail} siteId={siteId} recordType="sample" recordId={s.id} />

@@ -1,0 +1,90 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { BoxForm } from "@/components/boxes/box-form";
+import { SiteNav } from "@/components/site-nav";
+import { pageSiteActor } from "@/lib/server/page-access";
+import { boxListQuery } from "@/lib/schemas/processing";
+
+export const metadata: Metadata = { title: "Boxes" };
+
+type Search = Record<string, string | undefined>;
+
+/** The box register: the finds store's boxes, numbered per site, with where each is kept and how much it holds. */
+export default async function BoxesPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ siteId: string }>;
+  searchParams: Promise<Search>;
+}) {
+  const { siteId } = await params;
+  const search = await searchParams;
+  const { actor, read } = await pageSiteActor(siteId);
+  const parsed = boxListQuery.safeParse(Object.fromEntries(Object.entries(search).filter(([, v]) => v)));
+  const q = parsed.success ? parsed.data : boxListQuery.parse({});
+  const page = await read.boxes(q);
+  const base = `/sites/${siteId}/boxes`;
+  const pages = Math.max(1, Math.ceil(page.total / q.pageSize));
+  return (
+    <>
+      <SiteNav siteId={siteId} role={actor.role} current={base} />
+      <main className="mx-auto max-w-5xl space-y-4 px-4 py-6">
+        <h1 className="text-3xl font-bold">Box register</h1>
+        <p className="text-ink-soft">
+          The boxes of the finds store. A box holds the finds and samples put in it, from the finds register, a
+          find&apos;s page or the samples register; its label lists them.
+        </p>
+        <BoxForm siteId={siteId} />
+        <p>
+          <Link className="btn" href={`/sites/${siteId}/labels?kind=boxes&preset=8`}>
+            Box labels for every box
+          </Link>
+        </p>
+        {page.rows.length === 0 ? (
+          <p className="text-ink-soft">No boxes yet.</p>
+        ) : (
+          <table className="ledger sheet" aria-label="Box register">
+            <thead>
+              <tr>
+                <th className="num">Box</th>
+                <th>Store</th>
+                <th className="num">Finds</th>
+                <th className="num">Samples</th>
+                <th>Note</th>
+              </tr>
+            </thead>
+            <tbody>
+              {page.rows.map((b) => (
+                <tr key={b.id} data-box={b.number}>
+                  <td className="num font-semibold">
+                    <Link className="underline" href={`${base}/${b.id}`}>
+                      {b.number}
+                    </Link>
+                  </td>
+                  <td>{b.store || "—"}</td>
+                  <td className="num">{b.finds}</td>
+                  <td className="num">{b.samples}</td>
+                  <td>{b.note}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+        {pages > 1 && (
+          <nav aria-label="Pages" className="flex gap-2">
+            {q.page > 1 && (
+              <Link className="btn" href={`${base}?page=${q.page - 1}`}>
+                ← Previous
+              </Link>
+            )}
+            {q.page < pages && (
+              <Link className="btn" href={`${base}?page=${q.page + 1}`}>
+                Next →
+              </Link>
+            )}
+          </nav>
+        )}
+      </main>
+    </>
+  );
+}
