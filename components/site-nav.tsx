@@ -10,6 +10,7 @@ export function siteSections(siteId: string) {
     { href: `${base}/samples`, label: "Samples" },
     { href: `${base}/drawings`, label: "Drawings" },
     { href: `${base}/boxes`, label: "Boxes" },
+    { href: `${base}/photos`, label: "Photos" },
     { href: `${base}/labels`, label: "Labels" },
     { href: `${base}/contexts`, label: "Context sheets" },
     { href: `${base}/levels`, label: "Level book" },

@@ -1,5 +1,7 @@
 import type { z, ZodType } from "zod";
 import { api, type ApiName } from "./catalog";
+import { genUploader } from "uploadthing/client";
+import type { recordPhotoUploadSchema } from "@/lib/schemas/record-photo";
 import { announceWrite } from "./record-changes";
 
 /**
@@ -168,4 +170,89 @@ function url<N extends ApiName>(name: N, params: ApiParams<N>, input?: ApiInput<
   return buildRequest(name, params, input).url;
 }
 
-export const apiClient = { call, url };
+// Uploads ------------------------------------------------------------------------------------------
+
+/** A file and what it is of, for an upload route of the uploadthing router (/api/uploadthing). */
+export type UploadRequest = {
+  slug: "recordPhoto";
+  file: File;
+  input: z.input<typeof recordPhotoUploadSchema>;
+  headers: Record<string, string>;
+};
+/** What the router answers once the file is stored and recorded. */
+export type UploadAnswer = { photoId: string; number: number | null; pending?: boolean };
+
+let uploader: ReturnType<typeof genUploader> | null = null;
+
+/** Sends one upload through the uploadthing SDK; a refusal becomes an ApiError like the JSON API's. */
+export async function sendUpload(req: UploadRequest, signal?: AbortSignal): Promise<UploadAnswer> {
+  let res: { serverData: unknown }[];
+  try {
+    uploader ??= genUploader({ package: "loamwork", url: "/api/uploadthing" });
+    res = await uploader.uploadFiles(
+      req.slug as never,
+      {
+        files: [req.file],
+        input: req.input as never,
+        headers: req.headers,
+        signal,
+      } as never,
+    );
+  } catch (err) {
+    if (err instanceof DOMException) throw err;
+    const e = err as { code?: string; message?: string; cause?: unknown };
+    const refusal = e?.cause as { status?: unknown; reason?: unknown; fieldErrors?: unknown } | undefined;
+    if (refusal && typeof refusal === "object" && typeof refusal.status === "number")
+      throw new ApiError(
+        e.message ?? "The upload was refused.",
+        refusal.status,
+        (refusal.fieldErrors as Record<string, string[]> | null) ?? {},
+        undefined,
+        typeof refusal.reason === "string" ? refusal.reason : undefined,
+      );
+    // A refusal the router made before Loamwork's checks (type, size) has a code and the router's words.
+    if (e?.code && ["BAD_REQUEST", "FORBIDDEN", "NOT_FOUND", "TOO_LARGE", "FILE_LIMIT_EXCEEDED"].includes(e.code))
+      throw new ApiError(e.message ?? "The upload was refused.", e.code === "FORBIDDEN" ? 403 : 400);
+    throw new ApiError(NO_ANSWER, 0);
+  }
+  const data = res[0]?.serverData as
+    | { photoId: string | null; number?: number | null; error?: string | null; status?: number; reason?: string | null }
+    | undefined;
+  if (!data) throw new ApiError("The server did not say whether the photo was recorded.", 500);
+  if (data.error || !data.photoId)
+    throw new ApiError(
+      data.error ?? "The photo was not recorded.",
+      data.status ?? 400,
+      {},
+      undefined,
+      data.reason ?? undefined,
+    );
+  return { photoId: data.photoId, number: data.number ?? null };
+}
+
+/** What handles uploads on a device that may be offline; null = straight to the server. */
+export type UploadHandler = (req: UploadRequest, signal?: AbortSignal) => Promise<UploadAnswer>;
+let uploadHandler: UploadHandler | null = null;
+
+/** The signed-in user's outbox takes every upload from here on (null hands them back to the network). */
+export function handleUploads(handler: UploadHandler | null): void {
+  uploadHandler = handler;
+}
+
+/** Uploads a file to an upload route: the one way the browser sends a file, through the device's outbox when it has one. */
+async function upload(
+  slug: UploadRequest["slug"],
+  file: File,
+  input: UploadRequest["input"],
+  options: CallOptions = {},
+): Promise<UploadAnswer> {
+  const req: UploadRequest = {
+    slug,
+    file,
+    input,
+    headers: { "idempotency-key": crypto.randomUUID(), ...options.headers },
+  };
+  return uploadHandler ? uploadHandler(req, options.signal) : sendUpload(req, options.signal);
+}
+
+export const apiClient = { call, url, upload };

@@ -74,6 +74,58 @@ describe("the site archive: samples and labels", () => {
     await page.waitForURL(`**${samplePath}`);
     await page.context().close();
   });
+
+  it("attaches a photo to a context", async () => {
+    const page = await newPage(browser);
+    await signIn(page, "digger");
+    const [site] = await (await page.request.get("/api/sites")).json();
+    const trenches = await (await page.request.get(`/api/sites/${site.id}/trenches`)).json();
+    const contexts = await (await page.request.get(`/api/sites/${site.id}/contexts`)).json();
+    // A fresh open context, so the sheet takes new photos whatever other tests did to the demo's contexts.
+    const taken = new Set(contexts.map((c: { number: number }) => c.number));
+    let number = 3800;
+    while (taken.has(number)) number++;
+    const made = await page.request.post(`/api/sites/${site.id}/contexts`, {
+      data: { trenchId: trenches.find((t: { code: string }) => t.code === "C").id, number, type: "fill" },
+    });
+    expect(made.status()).toBe(201);
+    const ctx = await made.json();
+    await page.goto(`/sites/${site.id}/contexts/${ctx.id}`);
+    const panel = page.getByRole("region", { name: `Photos of context ${number}` });
+    await shown(panel.getByText(`No photos of context ${number} yet.`));
+    const photo = await sharp({ create: { width: 800, height: 600, channels: 3, background: "#8a6a4a" } })
+      .jpeg()
+      .withExif({ IFD2: { DateTimeOriginal: "2026:07:14 09:30:00", OffsetTimeOriginal: "+00:00" } })
+      .toBuffer();
+    await panel
+      .getByLabel("Photo", { exact: true })
+      .setInputFiles({ name: "fill.jpg", mimeType: "image/jpeg", buffer: photo });
+    await panel.getByLabel("Facing").selectOption("NE");
+    await panel.getByLabel("Scale shown").fill("1 m");
+    await panel.getByLabel("Caption").fill(`Fill ${number} before excavation`);
+    await panel.getByRole("button", { name: "Add the photo" }).click();
+    await shown(panel.getByRole("status").filter({ hasText: /Photo \d+ added to context/ }), 30_000);
+    const thumb = panel.locator(`img[alt*="Fill ${number} before excavation"]`);
+    await shown(thumb);
+    // The thumbnail really loads (the member-only file route answered with an image).
+    await page.waitForFunction((alt) => {
+      const img = [...document.querySelectorAll("img")].find((i) => i.alt.includes(alt));
+      return Boolean(img && img.complete && img.naturalWidth > 0);
+    }, `Fill ${number} before excavation`);
+    await expect(panel.getByText(/facing NE · scale 1 m/).count()).resolves.toBe(1);
+    await shown(panel.getByText(/14 Jul 2026, 09:30 UTC/));
+    // Opening it shows the display copy on the page, full size.
+    await panel.getByRole("button", { name: /^Open photo \d+$/ }).click();
+    const viewer = page.getByRole("dialog", { name: /^Photo \d+$/ });
+    await shown(viewer);
+    await page.waitForFunction(() => {
+      const img = [...document.querySelectorAll("img")].find((i) => i.alt.endsWith("display copy"));
+      return img?.complete === true && img.naturalWidth === 800;
+    });
+    await viewer.getByRole("button", { name: "Close" }).click();
+    await expect(viewer.count()).resolves.toBe(0);
+    await page.context().close();
+  });
 });
 
 describe("the deposition package", () => {

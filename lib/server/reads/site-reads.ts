@@ -1,5 +1,7 @@
 import "server-only";
 import { listDrawings } from "../drawings";
+import { listRecordPhotos } from "../record-photos";
+import type { RecordPhotoListQuery } from "@/lib/schemas/record-photo";
 import type { DrawingListQuery } from "@/lib/schemas/drawing";
 import type { Db } from "@/db/client";
 import type { ArtefactClass, Context, Trench } from "@/db/schema";
@@ -84,6 +86,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     samples: (q: SampleListQuery) => listSamples(db, siteId, q),
     sample: (sampleId: string) => readSample(db, siteId, sampleId),
     drawings: (q: DrawingListQuery) => listDrawings(db, siteId, q),
+    recordPhotos: (q: RecordPhotoListQuery) => listRecordPhotos(db, siteId, q),
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
     boxes: (q: BoxListQuery) => listBoxes(db, siteId, q),
     boxChoices: () => boxChoices(db, siteId),

@@ -5,6 +5,7 @@ import { ContextSheetForm } from "@/components/contexts/context-sheet-form";
 import { LevelsPanel } from "@/components/contexts/levels-panel";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { RelationsPanel } from "@/components/contexts/relations-panel";
+import { RecordPhotosPanel } from "@/components/photos/record-photos-panel";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { SignOffActions } from "@/components/sign-off/sign-off-actions";
 import { SiteNav } from "@/components/site-nav";
@@ -40,7 +41,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     if (isPublicError(err) && err.status === 404) notFound();
     throw err;
   });
-  const [trenches, all, problems, names, trail, classNotes, spits, spots] = await Promise.all([
+  const [trenches, all, problems, names, trail, classNotes, spits, spots, members] = await Promise.all([
     read.trenches(),
     read.contextSummaries(),
     read.sheetProblems(c),
@@ -49,6 +50,7 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
     read.contextClassNotes(c),
     read.spits(c.id),
     read.contextSpotLevels(c.id),
+    read.members(),
   ]);
   const trench = trenches.find((t) => t.id === c.trenchId);
   const mine = all.find((x) => x.id === c.id);
@@ -172,6 +174,14 @@ export default async function ContextSheetPage({ params }: { params: Promise<{ s
           number={c.number}
           canEdit={writable}
           others={all.filter((o) => o.id !== c.id).map((o) => ({ id: o.id, number: o.number }))}
+        />
+        <RecordPhotosPanel
+          siteId={siteId}
+          subject="context"
+          subjectId={c.id}
+          what={`context ${c.number}`}
+          canEdit={writable}
+          members={members.map((m) => ({ id: m.userId, name: m.name }))}
         />
         <AuditTrail entries={trail} siteId={siteId} recordType="context" recordId={c.id} locale={locale} />
       </main>

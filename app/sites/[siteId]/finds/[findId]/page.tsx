@@ -5,6 +5,9 @@ import { HumanRemainsBanner } from "@/components/cautions";
 import { LockNotice } from "@/components/contexts/lock-notice";
 import { FindEditForm } from "@/components/register/find-edit-form";
 import { FindProcessingPanel } from "@/components/register/find-processing";
+import { RecordPhotosPanel } from "@/components/photos/record-photos-panel";
+import { recorders } from "@/lib/api/operation";
+import { isRole } from "@/lib/server/membership";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
 import { changeableFields } from "@/lib/server/field-rights";
@@ -29,9 +32,10 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
   const cls = classes.find((c) => c.id === f.classId);
   const signed = ctx.state === "signed_off";
   const lockerId = signed ? ctx.signedOffBy : ctx.submittedBy;
-  const [names, trail] = await Promise.all([
+  const [names, trail, members] = await Promise.all([
     read.userNames([lockerId]),
     read.audit({ recordType: "find", recordId: f.id }),
+    read.members(),
   ]);
   const writable = isContextWritable(ctx);
   // A signed-off find reads its class as it stood at sign-off; a later rename or flag is said, not silently shown.
@@ -120,6 +124,14 @@ export default async function FindPage({ params }: { params: Promise<{ siteId: s
           findId={f.id}
           now={{ processing: f.processing, sentTo: f.sentTo, boxId: f.boxId, location: f.location }}
           boxes={boxes}
+        />
+        <RecordPhotosPanel
+          siteId={siteId}
+          subject="find"
+          subjectId={f.id}
+          what={`find ${f.number}`}
+          canEdit={writable && isRole(actor, recorders)}
+          members={members.map((m) => ({ id: m.userId, name: m.name }))}
         />
         <AuditTrail entries={trail} siteId={siteId} recordType="find" recordId={f.id} locale={locale} />
       </main>

@@ -1,6 +1,7 @@
 import { notFound } from "next/navigation";
 import { DeepTrenchCaution, DEEP_TRENCH_M, HumanRemainsBanner } from "@/components/cautions";
 import { PlanLoader } from "@/components/plan/plan-loader";
+import { RecordPhotosPanel } from "@/components/photos/record-photos-panel";
 import { SectionWorkbench } from "@/components/sections/section-workbench";
 import { SiteNav } from "@/components/site-nav";
 import { SquaresPanel } from "@/components/squares/squares-panel";
@@ -28,7 +29,7 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
     read.sectionFinds(trenchId),
     read.trenchContextLevels(trenchId),
   ]);
-  const squares = await read.trenchSquares(trenchId);
+  const [squares, members] = await Promise.all([read.trenchSquares(trenchId), read.members()]);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current="" />
@@ -77,6 +78,14 @@ export default async function TrenchPage({ params }: { params: Promise<{ siteId:
           finds={finds.map((f) => ({ x: f.x, y: f.y, classId: f.classId, contextId: f.contextId }))}
           canEdit={isRole(actor, recorders)}
           isDirector={actor.role === "director"}
+        />
+        <RecordPhotosPanel
+          siteId={siteId}
+          subject="trench"
+          subjectId={trench.id}
+          what={`trench ${trench.code}`}
+          canEdit={isRole(actor, recorders) && !trench.signedOffAt}
+          members={members.map((m) => ({ id: m.userId, name: m.name }))}
         />
         <SectionWorkbench
           siteId={siteId}
