@@ -1,6 +1,7 @@
 /**
  * Runs once when the server process starts: note each request's client address, and start the analysis-run
- * queue, which re-queues runs a stopped process left behind, so they finish without anyone having to start a new one.
+ * and package queues, which re-queue runs and packages a stopped process left behind, so they finish without
+ * anyone having to start a new one.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
@@ -12,5 +13,11 @@ export async function register() {
     await runQueue();
   } catch (err) {
     console.error("[loamwork] the analysis-run queue did not start; the next run will start it", err);
+  }
+  const { packageQueue } = await import("@/lib/server/jobs/package-queue");
+  try {
+    await packageQueue();
+  } catch (err) {
+    console.error("[loamwork] the package queue did not start; the next package will start it", err);
   }
 }
