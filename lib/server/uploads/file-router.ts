@@ -4,13 +4,11 @@ import { UploadThingError } from "uploadthing/server";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { recorders } from "@/lib/api/operation";
-import { badInput, isPublicError } from "../errors";
-import { describeFieldErrors, zodFieldErrors } from "../guard";
-import { assertRole, loadSiteActor } from "../membership";
+import { PublicError, isPublicError } from "../errors";
+import { runGuarded, siteActor, type GuardOutcome } from "../guard";
 import { storeUploadedPhoto } from "../photos";
 import { assertRecordPhotoAllowed, storeRecordPhoto } from "../record-photos";
 import { recordPhotoUploadSchema } from "@/lib/schemas/record-photo";
-import { currentUserId } from "../session";
 import { getTrench } from "../trenches";
 import { PHOTO_MAX_BYTES, PHOTO_TYPES } from "./photo-limits";
 import { fetchUpload, forgetUpload } from "./remote";
@@ -50,6 +48,15 @@ function refuse(err: unknown): never {
     });
   throw err;
 }
+
+/** The guard's refusal (signed in, member of the site, role, input), as an upload refusal. */
+function refuseOutcome(outcome: Extract<GuardOutcome<unknown>, { ok: false }>): never {
+  if (outcome.status >= 500) throw new UploadThingError({ code: "INTERNAL_SERVER_ERROR", message: outcome.error });
+  const status = outcome.status as PublicError["status"];
+  refuse(new PublicError(status, outcome.error, outcome.fieldErrors, outcome.details, outcome.code));
+}
+
+const trenchPhotoInput = z.object({ siteId: z.string().uuid(), trenchId: z.string().uuid() });
 
 /** The type and size of each file, refused before anything is sent, naming the file. */
 function checkFiles(files: readonly { name: string; type: string; size: number }[], what: string) {
@@ -92,20 +99,21 @@ const jsonFields = z.record(z.string(), z.union([z.string(), z.number(), z.null(
 
 export const uploadRouter = {
   trenchPhoto: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
-    .input(z.object({ siteId: z.string().uuid(), trenchId: z.string().uuid() }))
+    .input(trenchPhotoInput)
     .middleware(async ({ input, files }) => {
-      const userId = await currentUserId();
-      if (!userId) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in to upload photos." });
-      const db = await getDb();
-      try {
-        const actor = await loadSiteActor(db, userId, input.siteId);
-        assertRole(actor, recorders, "upload plan photos");
-        await getTrench(db, input.siteId, input.trenchId);
-      } catch (err) {
-        refuse(err);
-      }
+      // Through the one guarded entry, as every write: signed in, a member of this site, a recorder.
+      const outcome = await runGuarded(
+        { roles: recorders, doing: "upload plan photos", input: trenchPhotoInput },
+        input.siteId,
+        () => input,
+        async ({ db, userId, input: { siteId, trenchId } }) => {
+          await getTrench(db, siteId, trenchId);
+          return { siteId, trenchId, userId };
+        },
+      );
+      if (!outcome.ok) refuseOutcome(outcome);
       checkFiles(files, "a plan photo");
-      return { siteId: input.siteId, trenchId: input.trenchId, userId };
+      return outcome.data;
     })
     .onUploadComplete(async ({ metadata, file }) => {
       const out = await processed(
@@ -133,23 +141,21 @@ export const uploadRouter = {
   recordPhoto: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
     .input(jsonFields)
     .middleware(async ({ req, input: raw, files }) => {
-      const userId = await currentUserId();
-      if (!userId) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in to upload photos." });
-      const db = await getDb();
-      const parsed = recordPhotoUploadSchema.safeParse(raw);
-      if (!parsed.success) {
-        const fieldErrors = zodFieldErrors(parsed.error);
-        refuse(badInput(`Check the photo's sheet — ${describeFieldErrors(fieldErrors)}`, fieldErrors));
-      }
-      const input = parsed.data;
-      try {
-        await assertRecordPhotoAllowed(db, await loadSiteActor(db, userId, input.siteId), input);
-      } catch (err) {
-        refuse(err);
-      }
+      // The site is named inside the sheet (no site for a malformed id: not found); the rest is read after the role.
+      const siteId = z.string().uuid().safeParse(raw.siteId).data;
+      const outcome = await runGuarded(
+        { roles: recorders, doing: "add record photos", input: recordPhotoUploadSchema },
+        siteId,
+        () => raw,
+        async (ctx) => {
+          await assertRecordPhotoAllowed(ctx.db, siteActor(ctx), ctx.input);
+          return { userId: ctx.userId, input: ctx.input };
+        },
+      );
+      if (!outcome.ok) refuseOutcome(outcome);
       checkFiles(files, "a photo");
       const key = req.headers.get("idempotency-key");
-      return { userId, input, clientKey: key && key.length <= 100 ? key : null };
+      return { ...outcome.data, clientKey: key && key.length <= 100 ? key : null };
     })
     .onUploadComplete(async ({ metadata, file }) => {
       const out = await processed(
