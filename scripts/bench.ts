@@ -1,9 +1,9 @@
 /**
  * `npm run bench [-- NAME ...]`: runs every scripts/bench-*.ts (or only bench-NAME.ts), one child process
  * each so that one benchmark's memory and JIT state do not colour the next. Arguments after the names
- * are passed through (e.g. `npm run bench -- spatial --quick`). The only way to start a benchmark: each
- * child gets the same Node options, among them the server condition that server modules (the register
- * benchmark's route handlers) need to load outside Next.
+ * are passed through (e.g. `npm run bench -- spatial --quick`); `npm run bench -- --list` names them all.
+ * The only way to start a benchmark: each child gets the same Node options, among them the server
+ * condition that server modules (the register benchmark's route handlers) need to load outside Next.
  */
 import { spawnSync } from "node:child_process";
 import { readdirSync } from "node:fs";
@@ -18,6 +18,11 @@ const available = readdirSync(here)
   .map((f) => f.slice(6, -3))
   .sort();
 const args = process.argv.slice(2);
+if (args.includes("--list")) {
+  // What `npm run bench` runs, and how each starts, without running any of them.
+  for (const name of available) console.log(`${name}\tnode ${NODE_OPTIONS.join(" ")} scripts/bench-${name}.ts`);
+  process.exit(0);
+}
 const names = args.filter((a) => !a.startsWith("--"));
 const passThrough = args.filter((a) => a.startsWith("--"));
 const chosen = names.length ? names : available;
