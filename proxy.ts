@@ -44,5 +44,7 @@ function withPolicy(headers: Headers, nonce: string, policy: string): Headers {
   return out;
 }
 
-/** Every page; not the API (see above), the service worker (next.config.ts), Next's static files or its image optimiser. */
+/**
+ * Every page; not the API (see above), the service worker (next.config.ts), Next's static files or its image optimiser.
+ */
 export const config = { matcher: ["/((?!api/|serwist/|_next/static/|_next/image|favicon\\.ico).*)"] };

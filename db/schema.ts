@@ -109,7 +109,9 @@ export const sites = pgTable("sites", {
   datumName: text("datum_name").notNull().default("Site datum"),
   /** Largest acceptable misclosure of a closed levelling run, metres (common practice: a few millimetres). */
   levelTolerance: doublePrecision("level_tolerance").notNull().default(0.005),
-  /** Samples take their numbers from the finds' sequence (true) or from their own (false); fixed once a sample exists. */
+  /**
+   * Samples take their numbers from the finds' sequence (true) or from their own (false); fixed once a sample exists.
+   */
   samplesShareFindNumbers: boolean("samples_share_find_numbers").notNull().default(false),
   /** Next sample number when samples have their own sequence; bumped under the site row's lock like finds. */
   nextSampleNumber: integer("next_sample_number").notNull().default(1),
@@ -174,7 +176,10 @@ export const trenches = pgTable(
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
     /** Reduced level of the ground surface before digging; the deep-trench caution is measured from it. */
     surfaceLevel: doublePrecision("surface_level"),
-    /** The square grid bulk finds are counted in (side in metres, lines through the origin on the site grid); null = none yet. */
+    /**
+     * The square grid bulk finds are counted in (side in metres, lines through the origin on the site grid); null =
+     * none yet.
+     */
     squareSize: doublePrecision("square_size"),
     squareOriginX: doublePrecision("square_origin_x"),
     squareOriginY: doublePrecision("square_origin_y"),

@@ -2,7 +2,8 @@
  * Spreadsheet formula injection ("CSV injection"). OWASP's guidance
  * (https://owasp.org/www-community/attacks/CSV_Injection): a cell that begins with = + - @, a tab or a
  * carriage return is read as a formula by Excel, LibreOffice Calc and Google Sheets; prefix such a cell
- * with a single quote so it is shown as text, and wrap it in double quotes. Loamwork also treats the full-width forms (＝ ＋ － ＠, which
+ * with a single quote so it is shown as text, and wrap it in double quotes. Loamwork also treats the full-width forms
+ * (＝ ＋ － ＠, which
  * East Asian input methods type and Excel accepts as formula starters), a line feed, and any of these
  * after leading blanks (Calc can trim them on import) as triggers.
  *

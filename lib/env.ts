@@ -24,7 +24,9 @@ const schema = z.object({
    * X-Forwarded-For. 0 (the default): the header is ignored and the client is the address that connected.
    */
   LOAMWORK_TRUSTED_PROXIES: z.coerce.number().int("Give a whole number of proxies.").min(0).max(10).default(0),
-  /** Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database. */
+  /**
+   * Where distribution-test runs execute: "local" (this process) or "pg-boss" (worker processes); default by database.
+   */
   /** The upload service's ingest URL (the local stand-in's, in development and tests); browsers upload there. */
   UPLOADTHING_INGEST_URL: z.string().url().optional(),
   LOAMWORK_RUN_QUEUE: z.enum(["local", "pg-boss"]).optional(),

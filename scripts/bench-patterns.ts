@@ -93,7 +93,10 @@ const freePort = () =>
     });
   });
 
-/** The run as the API gives it. Once more on a reset connection: the server may close an idle kept-alive socket just as it is reused. */
+/**
+ * The run as the API gives it. Once more on a reset connection: the server may close an idle kept-alive socket just as
+ * it is reused.
+ */
 async function readRun(page: Page, url: string) {
   try {
     return await (await page.request.get(url)).json();
@@ -280,7 +283,8 @@ async function main() {
       };
       const { shownEpoch: _s, receivedEpoch: _r, requestEpoch: _q, clickEpoch: _c, ...measured } = m;
       if (k === 0) firstMs = m.wallMs;
-      if (k > 0) samples.push({ ...measured, serverMs: finished - startedAt, phases }); // run 0 warms up the server and the worker threads
+      // run 0 warms up the server and the worker threads
+      if (k > 0) samples.push({ ...measured, serverMs: finished - startedAt, phases });
     }
     failed = false;
   } finally {

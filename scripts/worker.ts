@@ -5,7 +5,8 @@
  * every worker takes, this one included (LOAMWORK_WORKER_SHARE=local keeps a run's simulations in the
  * process that took it); LOAMWORK_WORKER_THREADS worker threads simulate here (default 2).
  * LOAMWORK_CHUNK_EXPIRE_SECONDS (default 300): after this long a chunk whose worker went silent is offered
- * to another. LOAMWORK_RUN_CHUNKS (default 32): chunks per simulation set. LOAMWORK_WORKER_LOG=1 prints every run and chunk taken.
+ * to another. LOAMWORK_RUN_CHUNKS (default 32): chunks per simulation set. LOAMWORK_WORKER_LOG=1 prints every run and
+ * chunk taken.
  * `npm run build` compiles it, and the threads' entry, to dist/; `npm run worker` runs that JavaScript.
  */
 import { closeDb } from "@/db/client";

@@ -60,7 +60,10 @@ export function drawGrid(c: CanvasRenderingContext2D, v: View, w: number, h: num
   return g.step;
 }
 
-/** Adds the points of a ring (or an open line) to the current path, in screen pixels; the caller closes it if it should be closed. */
+/**
+ * Adds the points of a ring (or an open line) to the current path, in screen pixels; the caller closes it if it should
+ * be closed.
+ */
 function traceRing(c: CanvasRenderingContext2D, v: View, ring: readonly Pt[]) {
   ring.forEach(([x, y], i) => (i === 0 ? c.moveTo(...toScreen(v, x, y)) : c.lineTo(...toScreen(v, x, y))));
 }

@@ -55,7 +55,10 @@ export function PlanOverlay({
   );
 }
 
-/** The pointer's grid position, written straight into the overlay: a state update per pointer move would re-render the whole screen. */
+/**
+ * The pointer's grid position, written straight into the overlay: a state update per pointer move would re-render the
+ * whole screen.
+ */
 export function usePointerReadout() {
   const pointerRef = useRef<HTMLDivElement>(null);
   const setPointer = useCallback((p: Pt | null) => {

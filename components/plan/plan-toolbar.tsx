@@ -78,7 +78,7 @@ export function PlanToolbar({
       aria-label="Plan tools"
       className="flex flex-wrap items-center gap-1 border-b border-paper-edge bg-paper px-2 py-1"
     >
-      {/* Phones: the tools fold into one menu, so the plan keeps the screen (components/plan/compact-tool-menu.tsx). */}
+      {/* Phones: the tools fold into one menu, so the plan keeps the screen (compact-tool-menu.tsx). */}
       <CompactToolMenu tools={tools} tool={tool} onTool={onTool} canEdit={canEdit} />
       {tools.map((t) => (
         <button

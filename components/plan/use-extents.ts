@@ -17,7 +17,9 @@ type Deps = {
   onSaved: () => void;
 };
 
-/** Context extents as saved (a context's optional extent polygon), drawn on the plan and edited with the extent tool. */
+/**
+ * Context extents as saved (a context's optional extent polygon), drawn on the plan and edited with the extent tool.
+ */
 export function useExtents({ siteId, contexts, pushUndo, say, onSaved }: Deps) {
   const [extents, setExtents] = useState(() => new Map(contexts.map((c) => [c.id, c.extent ?? null])));
   const [chosen, setChosen] = useState(contexts[0]?.id ?? "");

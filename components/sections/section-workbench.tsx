@@ -55,7 +55,8 @@ export function SectionWorkbench({
     } catch {
       return null;
     }
-  }, [line?.start, line?.end, line?.halfWidth, ve, name, finds, contextLevels]); // eslint-disable-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [line?.start, line?.end, line?.halfWidth, ve, name, finds, contextLevels]);
   const svg = figure
     ? sectionSvg(figure, { title: `Trench ${trench.code}, section ${name || "(unnamed)"}`, datumName })
     : null;

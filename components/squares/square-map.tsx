@@ -48,7 +48,10 @@ function Swatch({
   return <rect {...common} fill={`url(#${hatch})`} />;
 }
 
-/** A cell's label size: no larger than the map's, and small enough that the words fit inside the cell (monospace, 0.6 em a character). */
+/**
+ * A cell's label size: no larger than the map's, and small enough that the words fit inside the cell (monospace, 0.6 em
+ * a character).
+ */
 const fitFont = (text: string, cellWidth: number, most: number) =>
   Math.min(most, (cellWidth * 0.9) / (text.length * 0.6));
 

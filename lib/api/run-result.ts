@@ -1,6 +1,7 @@
 /**
  * The stored result of a run, as the workspace reads it. Loamwork's own shape, built from the engine's
- * output by lib/server/analysis/result-adapter.ts, so the plots and verdicts do not depend on the engine's internal types.
+ * output by lib/server/analysis/result-adapter.ts, so the plots and verdicts do not depend on the engine's internal
+ * types.
  * Plain numbers and arrays only (it is stored as JSON in analysis_runs.result). Types only: safe to
  * import from client components.
  */

@@ -16,7 +16,9 @@ export function checkOutline(polygon: OutlinePolygon): OutlineCheck {
   }
 }
 
-/** Back to GeoJSON with RFC 7946 §3.1.6 orientation (outer ring counter-clockwise, holes clockwise) and closed rings. */
+/**
+ * Back to GeoJSON with RFC 7946 §3.1.6 orientation (outer ring counter-clockwise, holes clockwise) and closed rings.
+ */
 export function windowToPolygon(window: Window): OutlinePolygon {
   const close = (ring: readonly [number, number][]) => {
     const points = ring.map((p) => [p[0], p[1]] as [number, number]);

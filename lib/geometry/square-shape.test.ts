@@ -63,7 +63,8 @@ describe("clippedSquareShape", () => {
   });
 
   it("a square with a hole: the hole is a ring of the shape and pulls the centroid away from it", () => {
-    // [1,2]×[0,1] less [1.6,1.8]×[0.2,0.6]: area 1 − 0.08; x̄ = (1.5·1 − 1.7·0.08) / 0.92, ȳ = (0.5·1 − 0.4·0.08) / 0.92.
+    // [1,2]×[0,1] less [1.6,1.8]×[0.2,0.6]: area 1 − 0.08; x̄ = (1.5·1 − 1.7·0.08) / 0.92, ȳ = (0.5·1 − 0.4·0.08) /
+    // 0.92.
     const s = shape("1/0");
     expect(s.rings).toHaveLength(2);
     expect(s.centroid[0]).toBeCloseTo((1.5 - 1.7 * 0.08) / 0.92, 12);

@@ -6,7 +6,9 @@ import { closeOutboxDb } from "./outbox-db";
 import { syncOutbox } from "./sync";
 import { createWritePath, worksOffline } from "./write-path";
 
-/** Changes to many finds or samples at once (the register's bulk bar, the finds shed) on a device with no connection. */
+/**
+ * Changes to many finds or samples at once (the register's bulk bar, the finds shed) on a device with no connection.
+ */
 const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
 const classId = "9c1d2e3f-4a5b-4c6d-8e7f-0a1b2c3d4e5f";
 const contextId = "0b7d1f7e-1c2a-4e0b-8f9a-6c5d4e3f2a1b";

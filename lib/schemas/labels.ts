@@ -12,7 +12,10 @@ const recordNumber = numeric(
     .max(99_999_999),
 ).optional();
 
-/** Which records a print of labels covers: finds, samples or boxes, narrowed by trench, context, numbers or a picked list. */
+/**
+ * Which records a print of labels covers: finds, samples or boxes, narrowed by trench, context, numbers or a picked
+ * list.
+ */
 export const labelSelection = z
   .object({
     kind: z.enum(["finds", "samples", "boxes"], { error: "Labels are for finds, samples or boxes." }).default("finds"),

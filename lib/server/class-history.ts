@@ -104,7 +104,9 @@ export async function signedOffClassNotes(db: Db | Tx, siteId: string, signedOff
   return { faces, notes: changes.map(describeClassChange) };
 }
 
-/** What a signed-off context sheet says of the classes of its finds changed since its sign-off (none if not signed off). */
+/**
+ * What a signed-off context sheet says of the classes of its finds changed since its sign-off (none if not signed off).
+ */
 export async function contextClassNotes(db: Db | Tx, context: Context): Promise<string[]> {
   if (context.state !== "signed_off" || !context.signedOffAt) return [];
   const used = await db

@@ -3,7 +3,10 @@ import { and, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { artefactClasses, finds, trenches } from "@/db/schema";
 
-/** The finds in classes flagged as human remains (at most `limit`, lowest numbers first), each with its trench, so a banner can say where. */
+/**
+ * The finds in classes flagged as human remains (at most `limit`, lowest numbers first), each with its trench, so a
+ * banner can say where.
+ */
 export async function listHumanRemains(db: Db, siteId: string, trenchId?: string, limit = 20) {
   return db
     .select({ id: finds.id, number: finds.number, trenchId: finds.trenchId, trenchCode: trenches.code })

@@ -43,7 +43,9 @@ export async function listPhotos(db: Db, siteId: string, trenchId?: string): Pro
   return rows.map(toPhotoView);
 }
 
-/** One photo of the site: a plan underlay, a record photo of the register, or (no kind given, the file route) either. */
+/**
+ * One photo of the site: a plan underlay, a record photo of the register, or (no kind given, the file route) either.
+ */
 export async function getPhoto(db: Db | Tx, siteId: string, photoId: string, kind?: Photo["kind"]): Promise<Photo> {
   if (!/^[0-9a-f-]{36}$/i.test(photoId)) throw notFound("That photo");
   const [row] = await db

@@ -29,7 +29,10 @@ export async function listTrenches(db: Db, siteId: string) {
   return db.select().from(trenches).where(eq(trenches.siteId, siteId)).orderBy(asc(trenches.code));
 }
 
-/** One trench of the site; `forUpdate` locks its row for the rest of the transaction (a sign-off committing at the same moment is waited for). */
+/**
+ * One trench of the site; `forUpdate` locks its row for the rest of the transaction (a sign-off committing at the same
+ * moment is waited for).
+ */
 export async function getTrench(
   db: Db | Tx,
   siteId: string,

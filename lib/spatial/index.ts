@@ -2,7 +2,8 @@
  * Loamwork's distribution-test engine: pure TypeScript, no framework imports. Coordinates in metres on
  * the site grid; every function throws SpatialInputError (errors.ts) with a message naming the problem,
  * and never returns NaN, except where an estimate does not exist: the border-corrected K and L beyond the r
- * where no point lies deep enough inside the window (spatstat's NA). Conventions follow spatstat 3.x (see the design notes on statistics).
+ * where no point lies deep enough inside the window (spatstat's NA). Conventions follow spatstat 3.x (see the design
+ * notes on statistics).
  *
  * Window (the trench)
  *   createWindow({ outer, holes? }): Window          validated, orientation normalised, frozen

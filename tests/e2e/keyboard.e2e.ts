@@ -10,7 +10,9 @@ afterAll(async () => {
   await browser?.close();
 });
 
-/** Presses Tab until the focused element is the one described (its accessible text or label), as a keyboard user would. */
+/**
+ * Presses Tab until the focused element is the one described (its accessible text or label), as a keyboard user would.
+ */
 async function tabTo(page: Page, what: string | RegExp, max = 150): Promise<void> {
   for (let i = 0; i < max; i++) {
     await page.keyboard.press("Tab");

@@ -1,5 +1,6 @@
 /**
- * Recording in a trench with no signal, then syncing exactly once, in Debian's Chromium: the network switched off through the DevTools
+ * Recording in a trench with no signal, then syncing exactly once, in Debian's Chromium: the network switched off
+ * through the DevTools
  * protocol AND the app server stopped (emulated offline alone does not cover the service worker's own
  * requests). The test runs its own app (tests/e2e/support/own-stack.ts) so it can stop and start it.
  */

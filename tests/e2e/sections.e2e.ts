@@ -21,7 +21,8 @@ describe("a section of finds drawn on the plan", () => {
     const classes = await (await page.request.get(`/api/sites/${t.siteId}/classes`)).json();
     const contexts = await (await page.request.get(`/api/sites/${t.siteId}/contexts?trenchId=${t.trenchId}`)).json();
     const contextId = contexts.find((c: { number: number }) => c.number === t.contextNumber).id;
-    // Around a line from (1, 1) to (7, 1) with a band of 0.5 m: 2 and 5 m along are in, 0.6 m off and 3 m north are out.
+    // Around a line from (1, 1) to (7, 1) with a band of 0.5 m: 2 and 5 m along are in, 0.6 m off and 3 m north are
+    // out.
     const at = [
       [2, 1.2, 49.5],
       [3, 0.4, 49.4],

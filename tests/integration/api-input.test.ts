@@ -121,7 +121,8 @@ describe("bad input is refused with the reason and changes nothing", () => {
   it("refuses a find outside its trench, stating the distance to the edge", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    // Trench A is 10 × 6 m from (0, 0); (12, 3) is 2 m east of its edge. Inside the baulk (5, 2.5) is 0.5 m from the hole's edge.
+    // Trench A is 10 × 6 m from (0, 0); (12, 3) is 2 m east of its edge. Inside the baulk (5, 2.5) is 0.5 m from the
+    // hole's edge.
     const outside = await call(
       findsRoute,
       "POST",

@@ -129,7 +129,8 @@ describe("invitations by e-mail", () => {
       { siteId: fx.site.id },
       { email: "no.account@example.org", role: "digger" },
     );
-    // Same status, same body once the address, the ids and the times are taken out: nothing tells whether an account exists.
+    // Same status, same body once the address, the ids and the times are taken out: nothing tells whether an account
+    // exists.
     const blank = (r: typeof a, email: string) =>
       JSON.stringify(r.json)
         .replaceAll(email, "EMAIL")

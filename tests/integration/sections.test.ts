@@ -8,7 +8,10 @@ import * as sectionsRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sec
 import * as sectionRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sections/[sectionId]/route";
 import * as exportRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/sections/[sectionId]/export/route";
 
-/** Finds placed by hand around a line from (0, 1) to (4, 1), band 0.5 m: 1, 2 and 5 inside; 3 off the band; 4 past the end; 6 no level. */
+/**
+ * Finds placed by hand around a line from (0, 1) to (4, 1), band 0.5 m: 1, 2 and 5 inside; 3 off the band; 4 past the
+ * end; 6 no level.
+ */
 async function arrange(fx: SiteFixture) {
   const db = await getDb();
   const at = [

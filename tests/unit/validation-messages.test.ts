@@ -79,7 +79,10 @@ type Def = {
 };
 const def = (s: z.ZodType) => (s as unknown as { _zod: { def: Def } })._zod.def;
 
-/** The object shapes inside a schema (through defaults, optionals, pipes, lists and unions), each with how to wrap an input in it. */
+/**
+ * The object shapes inside a schema (through defaults, optionals, pipes, lists and unions), each with how to wrap an
+ * input in it.
+ */
 function objectsIn(
   s: z.ZodType,
   wrap: (v: unknown) => unknown,

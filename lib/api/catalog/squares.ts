@@ -52,7 +52,9 @@ export const squareImportReport = z.object({
   importId: z.string().nullable(),
 });
 
-/** API operations of bulk finds counted by grid square (issue 16). The grid itself is set on the trench (trenchUpdate). */
+/**
+ * API operations of bulk finds counted by grid square (issue 16). The grid itself is set on the trench (trenchUpdate).
+ */
 export const squaresApi = {
   trenchSquares: {
     method: "GET",

@@ -64,7 +64,10 @@ export type ScopeData = {
   window: Window;
   contexts: Context[];
   classes: ArtefactClass[];
-  /** Every find of the chosen classes in the chosen contexts: the pattern, the labelling pool, the "all finds" background. */
+  /**
+   * Every find of the chosen classes in the chosen contexts: the pattern, the labelling pool, the "all finds"
+   * background.
+   */
   finds: ScopeFind[];
   /** Counts by grid square in the chosen contexts, for the square-count tests. */
   squareSamples: ScopeSquareSample[];

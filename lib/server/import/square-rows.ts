@@ -65,7 +65,10 @@ function readNumber(raw: string): number | null {
 
 const when = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "earlier");
 
-/** Checks every row against the trench's squares, its contexts and spits, and the site's classes; lists every reason a row fails. */
+/**
+ * Checks every row against the trench's squares, its contexts and spits, and the site's classes; lists every reason a
+ * row fails.
+ */
 export function checkSquareRows(
   csv: ParsedCsv,
   columns: Partial<Record<Column, number>>,

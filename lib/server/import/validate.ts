@@ -20,7 +20,9 @@ export type ValidRow = {
   description: string;
 };
 
-/** `warnings`: rows that pass but whose level lies outside their context's recorded top and base (counted, not refused). */
+/**
+ * `warnings`: rows that pass but whose level lies outside their context's recorded top and base (counted, not refused).
+ */
 export type Validation = {
   valid: ValidRow[];
   errors: ImportRowError[];

@@ -45,7 +45,10 @@ export async function createChunkQueue(boss: PgBoss): Promise<void> {
 }
 
 export interface QueuedPoolOptions {
-  /** Chunks a run's simulations are cut into (default 32): several per worker thread, each long enough to outweigh a job's round trip. */
+  /**
+   * Chunks a run's simulations are cut into (default 32): several per worker thread, each long enough to outweigh a
+   * job's round trip.
+   */
   chunks?: number;
   /** How often the coordinator looks for finished chunks (ms). */
   pollMs?: number;

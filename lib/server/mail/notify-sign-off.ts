@@ -9,7 +9,9 @@ import { contextSignedOffMail } from "./templates/context-signed-off";
 import { contextSubmittedMail } from "./templates/context-submitted";
 import { deliver, type Delivery } from "./transport";
 
-/** Who hears about what (issue "E-mail"): submitted → directors; signed off → its recorders; reopened → every member. */
+/**
+ * Who hears about what (issue "E-mail"): submitted → directors; signed off → its recorders; reopened → every member.
+ */
 
 async function emailsOf(db: Db, ids: (string | null)[], exceptUserId: string): Promise<string[]> {
   const wanted = [...new Set(ids.filter((i): i is string => !!i && i !== exceptUserId))];

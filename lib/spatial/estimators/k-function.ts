@@ -4,7 +4,8 @@
  *   K̂(r) = |W| / (n(n−1)) · Σ_{i≠j} w_ij · 1{d_ij < r}     (isotropic, translation)
  *   K̂(r) = Σ_{i≠j} 1{d_ij < r, d_ij ≤ b_i, b_i ≥ r⁻} / (λ · #{i: b_i ≥ r⁻})   (border, r⁻ the previous grid value;
  *          NaN where no i has b_i ≥ r⁻, as spatstat's NA)
- * with λ = n/|W| (in a rectangle on an even grid, spatstat's `Krect.engine` rule instead: see createBinning). Edge weights: isotropic (Ripley 1977) in edge-isotropic.ts, translation (Ohser 1983) in
+ * with λ = n/|W| (in a rectangle on an even grid, spatstat's `Krect.engine` rule instead: see createBinning). Edge
+ * weights: isotropic (Ripley 1977) in edge-isotropic.ts, translation (Ohser 1983) in
  * edge-translation.ts.
  */
 import { borderCounts, cumulativePairSum } from "./k-accumulate";

@@ -2,7 +2,8 @@
  * Inhomogeneous K (Baddeley, Møller & Waagepetersen 2000, Stat. Neerl. 54:329–350):
  *   K̂_inhom(r) = (1/D) · Σ_{i≠j} w_ij / (λ(x_i) λ(x_j)) · 1{d_ij < r},
  * with D = |W| (spatstat `Kinhom(renormalise = FALSE)`) or, by default as in spatstat, D = Σ_i 1/λ(x_i):
- * spatstat's renormalisation (default normpower 1), which rescales the estimate as if Σ 1/λ̂(x_i) were |W|. λ comes from the caller (e.g. a
+ * spatstat's renormalisation (default normpower 1), which rescales the estimate as if Σ 1/λ̂(x_i) were |W|. λ comes
+ * from the caller (e.g. a
  * fitted trend) or from the leave-one-out Gaussian kernel of intensity.ts, whose bandwidth rule is stated
  * there. Isotropic or translation weights; same binning rules as K (r-grid.ts).
  */

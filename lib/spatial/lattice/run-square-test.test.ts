@@ -28,7 +28,8 @@ describe("runSquareTest", () => {
     const res = runSquareTest({ squares: hotCorner() }, { type: "moran", seed: 4 });
     expect(res.verdict).toBe("clustered");
     expect(res.pFrom).toBe("permutation");
-    expect(res.p).toBeCloseTo(2 / 1000, 12); // two-sided: twice (1 + 0) / (999 + 1), no permutation reaching the observed I
+    // two-sided: twice (1 + 0) / (999 + 1), no permutation reaching the observed I
+    expect(res.p).toBeCloseTo(2 / 1000, 12);
     expect(res.summary).toMatch(/^Squares with similar values lie together .* at the 5 % level \(p = 0\.00200\)/);
     expect(res.cautions).toEqual(expect.arrayContaining(LATTICE_CAUTIONS));
     expect(res.cautions.join(" ")).toMatch(/modifiable areal unit problem/);

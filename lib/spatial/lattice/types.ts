@@ -9,7 +9,9 @@ import type { Ring } from "../types";
 export interface LatticeSquare {
   /** The square's id or label as the app shows it ("E12 N34"); named in errors and results. Unique. */
   id: string;
-  /** Column and row on the trench's grid (integers; column grows east, row grows north). For rook/queen from the grid. */
+  /**
+   * Column and row on the trench's grid (integers; column grows east, row grows north). For rook/queen from the grid.
+   */
   col?: number;
   row?: number;
   /** Centre [x, y] in metres on the site grid (the centre of the whole grid square). For distance bands. */

@@ -57,7 +57,9 @@ function makeRunSpecSchema(object: typeof z.strictObject) {
       count: z.enum(["fixed", "poisson"]).default("fixed"),
       correction: pairCorrection,
       statistic,
-      /** The summary function the envelope test runs on: cross-L (default) or cross-K, as spatstat's envelope of Kcross. */
+      /**
+       * The summary function the envelope test runs on: cross-L (default) or cross-K, as spatstat's envelope of Kcross.
+       */
       fun: z.enum(["L", "K"]).default("L"),
     }),
     object({ type: z.literal("k-difference"), a: cls, b: cls, correction: pairCorrection, statistic }),

@@ -36,7 +36,10 @@ export type SimModel =
       statistic: "cross-l" | "cross-k" | "k-diff";
       correction: "isotropic" | "translation";
     }
-  /** Class A fixed at ax, ay; class B replaced by nB (or Poisson(nB)) CSR points. Cross-L̂_AB (cross-K̂_AB with fun "K"), circles on A. */
+  /**
+   * Class A fixed at ax, ay; class B replaced by nB (or Poisson(nB)) CSR points. Cross-L̂_AB (cross-K̂_AB with fun
+   * "K"), circles on A.
+   */
   | {
       kind: "fixed-a";
       ax: number[];

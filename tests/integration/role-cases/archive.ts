@@ -60,7 +60,9 @@ export async function makeDrawing(fx: SiteFixture, contextId = fx.context.id) {
   return d!;
 }
 
-/** A record photo of the fixture's context (or of another record), inserted directly so only the call under test writes. */
+/**
+ * A record photo of the fixture's context (or of another record), inserted directly so only the call under test writes.
+ */
 export async function makeRecordPhoto(
   fx: SiteFixture,
   of: { contextId?: string; findId?: string; trenchId?: string } = { contextId: fx.context.id },

@@ -9,7 +9,9 @@ import * as reopenRoute from "@/app/api/sites/[siteId]/sign-off/[contextId]/reop
 import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
 import * as invitationRoute from "@/app/api/sites/[siteId]/invitations/[invitationId]/route";
 
-/** Fills every sheet field a layer needs for sign-off (the fixture's context is the site's first, so needs no relation). */
+/**
+ * Fills every sheet field a layer needs for sign-off (the fixture's context is the site's first, so needs no relation).
+ */
 export async function completeSheet(contextId: string) {
   const db = await getDb();
   const [c] = await db
@@ -26,7 +28,9 @@ export async function completeSheet(contextId: string) {
   return c;
 }
 
-/** Puts a context straight into a state, as if submitted/signed off by `by` at `at` (arranging a test, not the rule). */
+/**
+ * Puts a context straight into a state, as if submitted/signed off by `by` at `at` (arranging a test, not the rule).
+ */
 export async function putInState(
   contextId: string,
   state: schema.Context["state"],

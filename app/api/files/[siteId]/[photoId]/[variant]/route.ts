@@ -4,7 +4,10 @@ import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
 import { readPhotoFile } from "@/lib/server/photos";
 
-/** Photo files (the derivatives and the uploaded original) are streamed only to members of the photo's site; strangers get 404 like any other record. */
+/**
+ * Photo files (the derivatives and the uploaded original) are streamed only to members of the photo's site; strangers
+ * get 404 like any other record.
+ */
 export const GET = guardedRoute(api.photoFile, (ctx) => {
   const variant = ctx.params.variant;
   if (variant !== "display" && variant !== "thumb" && variant !== "warp" && variant !== "original")
