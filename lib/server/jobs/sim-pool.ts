@@ -12,6 +12,12 @@ import { processSingleton } from "@/lib/process-singleton";
  * inside the bundle, where the worker entry does not exist. A production server (`next start`) runs the
  * threads from the JavaScript `npm run build` compiled into dist/; development and tests run the
  * TypeScript entry through tsx.
+ *
+ * Why development keeps tsx rather than one compiled worker: the engine's source changes between runs there,
+ * so a compiled copy would need a staleness check and a rebuild at every pool start, written atomically
+ * because vitest starts several processes at once; tsx is already what development and the scripts run
+ * under, so the fallback adds no dependency; and NODE_ENV=production never reaches it (dist/ or a clear
+ * error), which scripts/check-production.sh proves with dev dependencies pruned.
  */
 const holder = processSingleton<{ pool?: SimulationPool; warm?: Promise<void> }>("simulation-pool", () => ({}));
 
