@@ -14,7 +14,8 @@ type Refusal = { findId: string; number: number; reason: string };
 /**
  * Why one find cannot take this change, or null. Processing comes after the trench, so a closed or signed-off
  * context does not stop it (as for samples); what stops it is the find's own state: only a find that was sent
- * out can come back, a find with a specialist is not in a box, and a boxed find has a box.
+ * out can come back, a find with a specialist is not in a box, and a boxed find has a box. A find sent out
+ * leaves its box (so the box's label no longer lists it); it goes back into one when it returns.
  */
 function refusalOf(f: Find, input: Process): string | null {
   const state = input.processing ?? f.processing;
@@ -58,6 +59,7 @@ export async function processFinds(
       ...(input.processing !== undefined && { processing: input.processing }),
       ...(input.sentTo !== undefined && { sentTo: input.sentTo }),
       ...(input.boxId !== undefined && { boxId: input.boxId }),
+      ...(input.processing === "sent" && input.boxId === undefined && { boxId: null }),
       ...(input.location !== undefined && { location: input.location }),
       version: sql`${finds.version} + 1`,
       updatedAt: new Date(),

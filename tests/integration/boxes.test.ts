@@ -132,6 +132,13 @@ describe("processing finds after the trench", () => {
     expect(both.status).toBe(409);
     expect(both.json.error).toContain("find 22: it was not sent out (it is lifted, not yet processed)");
     expect((await process(fx, { findIds: [a.id], processing: "returned" })).status).toBe(200);
+    // Boxed, then sent out again: it leaves its box, so the box no longer lists it.
+    const box = await newBox(fx);
+    session.userId = fx.people.digger.id;
+    expect((await process(fx, { findIds: [a.id], processing: "boxed", boxId: box.id })).status).toBe(200);
+    expect((await process(fx, { findIds: [a.id], processing: "sent", sentTo: "Bone lab" })).status).toBe(200);
+    expect((await findRows([a.id]))[0]!.boxId).toBeNull();
+    expect((await process(fx, { findIds: [a.id], processing: "returned" })).status).toBe(200);
     const noBox = await process(fx, { findIds: [a.id], processing: "boxed" });
     expect(noBox.status).toBe(409);
     expect(noBox.json.error).toContain("find 21: it is in no box; pick the box it is in");
