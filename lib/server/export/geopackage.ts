@@ -32,7 +32,8 @@ export type GpkgLayer = {
   /** Whether points may carry a z (gpkg_geometry_columns.z = 2, "optional"). */
   optionalZ: boolean;
   fields: GpkgField[];
-  features: GpkgFeature[];
+  /** Read once, as the layer is written: a large layer can come a page at a time. */
+  features: Iterable<GpkgFeature> | AsyncIterable<GpkgFeature>;
 };
 
 /** The rows every GeoPackage must hold (spec §1.1.2.1.2): undefined Cartesian, undefined geographic, WGS 84. */
@@ -157,7 +158,9 @@ export async function writeGeoPackage(srs: GpkgSrs[], layers: GpkgLayer[], at = 
         `INSERT INTO ${quoted(layer.name)} (geom${layer.fields.map((f) => `, ${quoted(f.name)}`).join("")}) VALUES (?${", ?".repeat(layer.fields.length)})`,
       );
       const box: Envelope = [Infinity, -Infinity, Infinity, -Infinity];
-      for (const f of layer.features) {
+      let written = 0;
+      for await (const f of layer.features) {
+        written++;
         const e = envelopeOf(f.geometry);
         box[0] = Math.min(box[0], e[0]);
         box[1] = Math.max(box[1], e[1]);
@@ -169,7 +172,7 @@ export async function writeGeoPackage(srs: GpkgSrs[], layers: GpkgLayer[], at = 
         ]);
       }
       insert.free();
-      const has = layer.features.length > 0;
+      const has = written > 0;
       db.run("INSERT INTO gpkg_contents VALUES (?, 'features', ?, ?, ?, ?, ?, ?, ?, ?)", [
         layer.name,
         layer.name,

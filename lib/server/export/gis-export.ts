@@ -2,7 +2,7 @@ import "server-only";
 import type { z } from "zod";
 import type { Db } from "@/db/client";
 import type { PolygonJson, Site } from "@/db/schema";
-import { allFinds } from "@/lib/server/finds";
+import { findsByNumber, type RegisterRow } from "@/lib/server/finds";
 import { allSamples } from "@/lib/server/samples";
 import { getTrench, listTrenches } from "@/lib/server/trenches";
 import type { CoordSpace, exportGisQuery } from "@/lib/schemas/export";
@@ -16,22 +16,26 @@ import { projectedSrs, siteGridSrs } from "./gis-srs";
 type GisData = {
   trenches: Awaited<ReturnType<typeof listTrenches>>;
   contexts: Awaited<ReturnType<typeof contextsForExport>>;
-  finds: Awaited<ReturnType<typeof allFinds>>;
+  /** The finds, read again for each layer a page at a time: a site can hold tens of thousands. */
+  finds: () => AsyncIterable<RegisterRow[]>;
   samples: Awaited<ReturnType<typeof allSamples>>;
 };
 
+async function* each<T, U>(pages: AsyncIterable<T[]>, f: (row: T) => U) {
+  for await (const page of pages) for (const row of page) yield f(row);
+}
+
 async function readGisData(db: Db, site: Site, trenchId: string | undefined): Promise<GisData> {
   const inScope = (t: { trenchId: string }) => !trenchId || t.trenchId === trenchId;
-  const [trenches, contexts, finds, samples] = await Promise.all([
+  const [trenches, contexts, samples] = await Promise.all([
     listTrenches(db, site.id),
     contextsForExport(db, site.id),
-    allFinds(db, site.id, { trenchId, sort: "number", dir: "asc" }),
     allSamples(db, site.id, { trenchId }),
   ]);
   return {
     trenches: trenches.filter((t) => !trenchId || t.id === trenchId),
     contexts: contexts.filter((c) => c.extent && inScope(c)),
-    finds,
+    finds: () => findsByNumber(db, site.id, { trenchId }),
     samples: samples.filter((s) => s.x !== null && s.y !== null),
   };
 }
@@ -107,7 +111,7 @@ function layersIn(site: Site, space: CoordSpace, srs: GpkgSrs, d: GisData): Gpkg
         { name: "description", type: "TEXT" },
         { name: "recorded_at", type: "DATETIME" },
       ],
-      features: d.finds.map((f) => {
+      features: each(d.finds(), (f): GpkgFeature => {
         const [x, y] = t(f.x, f.y);
         return {
           geometry: { type: "Point", x, y, z: f.z },
