@@ -239,7 +239,10 @@ export function handleUploads(handler: UploadHandler | null): void {
   uploadHandler = handler;
 }
 
-/** Uploads a file to an upload route: the one way the browser sends a file, through the device's outbox when it has one. */
+/**
+ * Uploads a file to an upload route: the one way the browser sends a file, through the device's outbox when it
+ * has one.
+ */
 async function upload(
   slug: UploadRequest["slug"],
   file: File,
