@@ -1,11 +1,11 @@
-import { ApiError, handleWrites, sendRequest, type ApiRequest } from "@/lib/api/client";
+import { ApiError, handleUploads, handleWrites, sendRequest, type ApiRequest } from "@/lib/api/client";
 import { userCaches } from "./cache-names";
 import { freeNumbers, refreshBlocks, topUpBlocks, type NumberKind } from "./number-blocks";
 import { Outbox } from "./outbox";
 import type { OutboxEntry } from "./outbox-db";
 import { cacheSiteMatrix, deviceLoopCheck } from "./relations";
 import { backoffSeconds, syncOutbox } from "./sync";
-import { createWritePath, isNetworkFailure, worksOffline } from "./write-path";
+import { createUploadPath, createWritePath, isNetworkFailure, worksOffline } from "./write-path";
 
 /**
  * The signed-in user's device: their outbox takes every write (lib/api/client.ts `handleWrites`), a sync
@@ -96,6 +96,14 @@ class Device {
           numberTaken: (site, kind) => void this.numbersFor(site, kind),
         }),
       );
+      // Photos taken with no connection are kept, file and all, and uploaded when it returns.
+      handleUploads(
+        createUploadPath({
+          outbox: box,
+          online: () => navigator.onLine && !this.unreachable,
+          queued: () => void this.refresh().then(() => this.kick()),
+        }),
+      );
       void navigator.storage?.persist?.();
       this.set({ lastSynced: (await box.fact<string>("lastSynced")) ?? null });
     }
@@ -106,6 +114,7 @@ class Device {
 
   stop() {
     handleWrites(null);
+    handleUploads(null);
     this.outbox = null;
     if (this.timer) clearTimeout(this.timer);
     this.snapshot = empty;

@@ -17,7 +17,7 @@ export type OutboxEntry = {
   /** The idempotency key, a UUID made on this device: the server answers its replay with the first answer. */
   key: string;
   siteId: string;
-  operation: ApiName;
+  operation: ApiName | UploadOperation;
   method: string;
   url: string;
   headers: Record<string, string>;
@@ -26,6 +26,9 @@ export type OutboxEntry = {
   localId?: string;
   /** For an edit or delete: the version of the record the change was made on. */
   baseVersion?: number | null;
+  /** For an upload (a photo taken on the device): the file itself, kept as a Blob until it is sent. */
+  file?: Blob;
+  fileName?: string;
   /** What a person reads: "find #1234 in context 1005". */
   label: string;
   state: OutboxState;
@@ -33,6 +36,9 @@ export type OutboxEntry = {
   refusal?: Refusal;
   createdAt: string;
 };
+
+/** An upload kept in the outbox: its route's slug (the upload's input is the entry's body, as JSON). */
+export type UploadOperation = "upload:recordPhoto";
 
 /** A block of numbers reserved for this device and user by the server. */
 export type HeldBlock = {

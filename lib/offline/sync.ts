@@ -1,5 +1,12 @@
-import { ApiError, sendRequest, type ApiRequest } from "@/lib/api/client";
-import { isNetworkFailure } from "./write-path";
+import {
+  ApiError,
+  sendRequest,
+  sendUpload,
+  type ApiRequest,
+  type UploadAnswer,
+  type UploadRequest,
+} from "@/lib/api/client";
+import { isNetworkFailure, uploadOf } from "./write-path";
 import type { Outbox } from "./outbox";
 import type { OutboxEntry, Refusal } from "./outbox-db";
 
@@ -16,6 +23,8 @@ export type SyncOutcome = { sent: number; refused: number; stopped: "done" | "of
 export type SyncDeps = {
   outbox: Outbox;
   send?: (req: ApiRequest) => Promise<unknown>;
+  /** Sends a kept upload (a photo taken offline) through the upload route. */
+  upload?: (req: UploadRequest) => Promise<UploadAnswer>;
   /** After each entry: how many are still waiting. */
   progress?: (waiting: number) => void;
 };
@@ -23,7 +32,12 @@ export type SyncDeps = {
 /** Answers that mean "try again later", not "no". */
 const TRANSIENT = new Set([408, 425, 429, 500, 502, 503, 504]);
 
-export async function syncOutbox({ outbox, send = sendRequest, progress }: SyncDeps): Promise<SyncOutcome> {
+export async function syncOutbox({
+  outbox,
+  send = sendRequest,
+  upload = sendUpload,
+  progress,
+}: SyncDeps): Promise<SyncOutcome> {
   let sent = 0;
   let refused = 0;
   const blocked = new Set<string>();
@@ -41,13 +55,15 @@ export async function syncOutbox({ outbox, send = sendRequest, progress }: SyncD
       continue;
     }
     try {
-      const answer = await send({
-        operation: entry.operation,
-        method: entry.method,
-        url,
-        headers: entry.headers,
-        body,
-      });
+      const answer = entry.operation.startsWith("upload:")
+        ? await upload(uploadOf(entry, body))
+        : await send({
+            operation: entry.operation as ApiRequest["operation"],
+            method: entry.method,
+            url,
+            headers: entry.headers,
+            body,
+          });
       await outbox.sent(entry, answer);
       sent++;
     } catch (err) {
@@ -81,6 +97,8 @@ export function refusalOf(err: ApiError): Refusal {
 export function damaged(e: Partial<OutboxEntry>): string | null {
   if (typeof e.key !== "string" || e.key.length < 8) return "It has no idempotency key.";
   if (typeof e.url !== "string" || !e.url.startsWith("/api/")) return "Its address is missing or not Loamwork's.";
+  if (typeof e.operation === "string" && e.operation.startsWith("upload:") && !(e.file instanceof Blob))
+    return "The photo's file is missing from this device.";
   if (!["POST", "PATCH", "DELETE"].includes(String(e.method))) return "It is not a write.";
   if (e.body !== undefined) {
     try {

@@ -1,4 +1,12 @@
-import { ApiError, NO_ANSWER, sendRequest, type ApiRequest } from "@/lib/api/client";
+import {
+  ApiError,
+  NO_ANSWER,
+  sendRequest,
+  sendUpload,
+  type ApiRequest,
+  type UploadAnswer,
+  type UploadRequest,
+} from "@/lib/api/client";
 import type { ApiName } from "@/lib/api/catalog";
 import { toStored, type RelationKind, type RelationReading } from "@/lib/schemas/relation";
 import type { Outbox } from "./outbox";
@@ -235,4 +243,55 @@ async function dropCreate(outbox: Outbox, create: OutboxEntry) {
   await outbox.remove(create.seq!);
   const number = (JSON.parse(create.body ?? "{}") as { number?: number }).number;
   return { deleted: create.localId, number, pending: true };
+}
+
+// Uploads ------------------------------------------------------------------------------------------
+
+export type UploadPathDeps = {
+  outbox: Outbox;
+  online: () => boolean;
+  send?: (req: UploadRequest, signal?: AbortSignal) => Promise<UploadAnswer>;
+  queued?: () => void;
+};
+
+/**
+ * Where an upload goes on a device that may have no connection: a photo taken offline (or while writes
+ * wait, or when the connection drops on the way) is kept in the outbox with its file as a Blob and the same
+ * idempotency key, and uploaded in order when the connection returns. Its number comes from the server then.
+ */
+export function createUploadPath(deps: UploadPathDeps) {
+  const send = deps.send ?? sendUpload;
+  return async function upload(req: UploadRequest, signal?: AbortSignal): Promise<UploadAnswer> {
+    const key = req.headers[IDEMPOTENCY_HEADER] ?? crypto.randomUUID();
+    const withKey: UploadRequest = { ...req, headers: { ...req.headers, [IDEMPOTENCY_HEADER]: key } };
+    if (deps.online() && (await deps.outbox.count()).waiting === 0) {
+      try {
+        return await send(withKey, signal);
+      } catch (err) {
+        if (!isNetworkFailure(err)) throw err;
+      }
+    }
+    const input = req.input as { siteId?: string; subject?: string };
+    await deps.outbox.add({
+      key,
+      siteId: input.siteId ?? "",
+      operation: `upload:${req.slug}`,
+      method: "POST",
+      url: `/api/uploadthing?slug=${req.slug}`,
+      headers: withKey.headers,
+      body: JSON.stringify(req.input),
+      file: req.file,
+      fileName: req.file.name,
+      label: `photo “${req.file.name}” of a ${input.subject ?? "record"}`,
+    });
+    deps.queued?.();
+    return { photoId: "", number: null, pending: true };
+  };
+}
+
+/** The upload an outbox entry keeps, ready to send again (ids the device made replaced by the server's). */
+export function uploadOf(entry: OutboxEntry, body: string | undefined): UploadRequest {
+  const slug = entry.operation.slice("upload:".length) as UploadRequest["slug"];
+  const file = new File([entry.file!], entry.fileName ?? "photo", { type: entry.file!.type });
+  return { slug, file, input: JSON.parse(body ?? "{}") as UploadRequest["input"], headers: entry.headers };
 }
