@@ -114,8 +114,6 @@ export default tseslint.config(
     // comments and code to the same width. Strings, template literals, URLs and regular expressions may run on:
     // a message or a pattern is easier to find when it is not cut.
     files: ["**/*.{ts,tsx,mjs,js}"],
-    // Two long comments there are left to fold with the export work going on in that folder.
-    ignores: ["lib/server/export/**"],
     rules: {
       "max-len": [
         "error",

@@ -156,7 +156,10 @@ export function samplesCsv(rows: SampleRegisterRow[]): string {
   );
 }
 
-/** The drawing register; `contexts` lists the numbers of the contexts shown, `state` is open until all are signed off. */
+/**
+ * The drawing register; `contexts` lists the numbers of the contexts shown, `state` is open until all are
+ * signed off.
+ */
 export const drawingCsvColumns: readonly CsvColumn[] = [
   ["number", "number"],
   ["kind", "text"],

@@ -10,7 +10,10 @@ import { getTrench } from "../trenches";
 import { toCsv, type CsvColumn } from "./csv";
 import { download } from "./files";
 
-/** along_m: metres along the line from its start; offset_m: metres off it (+ left of start→end); z_rl_m: reduced level. */
+/**
+ * along_m: metres along the line from its start; offset_m: metres off it (+ left of start→end); z_rl_m: reduced
+ * level.
+ */
 const columns: readonly CsvColumn[] = [
   ["number", "number"],
   ["context", "number"],
