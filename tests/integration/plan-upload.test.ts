@@ -2,14 +2,8 @@
  * A photo upload end to end through the app's own file router and the uploadthing SDK's route handler,
  * against the local upload fake (production flow: the fake POSTs the callback to the app).
  */
-import http from "node:http";
-import { mkdtemp } from "node:fs/promises";
-import os from "node:os";
-import path from "node:path";
-import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import sharp from "sharp";
-import { createRouteHandler } from "uploadthing/next";
 import { eq } from "drizzle-orm";
 import { UTApi } from "uploadthing/server";
 import { session } from "../support/harness";
@@ -18,82 +12,38 @@ import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import * as fileRoute from "@/app/api/files/[siteId]/[photoId]/[variant]/route";
 import { listPhotos } from "@/lib/server/photos";
-import { uploadRouter } from "@/lib/server/uploads/file-router";
-import { FAKE_UPLOADTHING_TOKEN, startUploadFake } from "@/lib/dev-services/upload-fake";
+import { FAKE_UPLOADTHING_TOKEN } from "@/lib/dev-services/upload-fake";
+import { startUploadStack, type UploadStack } from "../support/upload-stack";
 
 let fx: SiteFixture;
-let fake: Awaited<ReturnType<typeof startUploadFake>>;
-let app: { url: string; close(): Promise<void> };
+let stack: UploadStack;
 
 beforeAll(async () => {
-  process.env.LOAMWORK_FILES_DIR = await mkdtemp(path.join(os.tmpdir(), "loamwork-files-"));
-  fake = await startUploadFake({
-    port: 0,
-    dir: await mkdtemp(path.join(os.tmpdir(), "loamwork-fake-")),
-    callbackTimeoutMs: 20_000,
-  });
-  // The app's server-side calls (reading an original, deleting a refused one) use UTApi, configured as in the stack.
-  Object.assign(process.env, {
-    UPLOADTHING_TOKEN: FAKE_UPLOADTHING_TOKEN,
-    UPLOADTHING_API_URL: fake.url,
-    UPLOADTHING_INGEST_URL: fake.url,
-    UPLOADTHING_UFS_HOST: fake.ufs.ufsHost,
-    UPLOADTHING_UFS_APP_ID_LOCATION: fake.ufs.ufsAppIdLocation,
-  });
-  const handlers = createRouteHandler({
-    router: uploadRouter,
-    config: { token: FAKE_UPLOADTHING_TOKEN, ingestUrl: fake.url, isDev: false, logLevel: "Error" },
-  });
-  const server = http.createServer(async (req, res) => {
-    const chunks: Buffer[] = [];
-    for await (const c of req) chunks.push(c as Buffer);
-    const request = new Request(`http://${req.headers.host}${req.url}`, {
-      method: req.method,
-      headers: req.headers as Record<string, string>,
-      body: chunks.length ? Buffer.concat(chunks) : undefined,
-    });
-    const out = await (req.method === "POST" ? handlers.POST(request as never) : handlers.GET(request as never));
-    res.writeHead(out.status, Object.fromEntries(out.headers.entries()));
-    res.end(Buffer.from(await out.arrayBuffer()));
-  });
-  await new Promise<void>((r) => server.listen(0, "127.0.0.1", () => r()));
-  app = {
-    url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
-    close: () => new Promise((r) => server.close(() => r())),
-  };
+  stack = await startUploadStack();
   await getDb();
   fx = await makeSite();
 });
 afterAll(async () => {
-  await app?.close();
-  await fake?.stop();
+  await stack?.close();
 });
 
-async function requestUpload(file: { name: string; size: number; type: string }, input: unknown) {
-  const res = await fetch(`${app.url}/api/uploadthing?actionType=upload&slug=trenchPhoto`, {
-    method: "POST",
-    headers: { "content-type": "application/json" },
-    body: JSON.stringify({ files: [{ ...file, lastModified: 1 }], input }),
-  });
-  return { status: res.status, json: (await res.json()) as any };
-}
+const requestUpload = (file: { name: string; size: number; type: string }, input: unknown) =>
+  stack.requestUpload("trenchPhoto", file, input);
+const put: UploadStack["put"] = (...a) => stack.put(...a);
 
 /** Whether the stand-in still holds a file under that key (asked with the app's own credentials). */
 async function heldAtService(key: string) {
-  const { files } = await new UTApi({ token: FAKE_UPLOADTHING_TOKEN, apiUrl: fake.url, logLevel: "Error" }).listFiles();
+  const { files } = await new UTApi({
+    token: FAKE_UPLOADTHING_TOKEN,
+    apiUrl: stack.fake.url,
+    logLevel: "Error",
+  }).listFiles();
   return files.some((f) => f.key === key);
 }
 
 async function getFile(params: Record<string, string>) {
   const res = await fileRoute.GET(new Request("http://localhost/api/files"), { params: Promise.resolve(params) });
   return { status: res.status, type: res.headers.get("content-type"), bytes: Buffer.from(await res.arrayBuffer()) };
-}
-
-async function put(url: string, bytes: Buffer, name: string, type: string) {
-  const form = new FormData();
-  form.append("file", new Blob([new Uint8Array(bytes)], { type }), name);
-  const res = await fetch(url, { method: "PUT", body: form, headers: { Range: "bytes=0-" } });
-  return (await res.json()) as any;
 }
 
 describe("photo upload through the uploadthing route and the fake", () => {
@@ -134,7 +84,7 @@ describe("photo upload through the uploadthing route and the fake", () => {
     expect(photoId).toBeTruthy();
     // Signed out at the upload service, with the URL the upload reported: refused.
     expect((await fetch(out.ufsUrl)).status).toBe(403);
-    expect((await fetch(`${fake.url}/f/${encodeURIComponent(key)}`)).status).toBe(403);
+    expect((await fetch(`${stack.fake.url}/f/${encodeURIComponent(key)}`)).status).toBe(403);
     // A member gets the very bytes through the app; a stranger and a signed-out caller do not.
     const original = await getFile({ siteId: fx.site.id, photoId, variant: "original" });
     expect(original.status).toBe(200);
