@@ -1,3 +1,4 @@
+import type { NumberRange } from "@/lib/server/number-accounting";
 import type { SequenceAccounting } from "@/lib/server/sample-accounting";
 import { numberHolder, numberReason, numberStatusOrder, numberStatusWords } from "./accounting-words";
 
@@ -60,18 +61,27 @@ export function NumberAccountingTable({ accounting: a }: { accounting: SequenceA
           <tbody>
             {a.ranges.map((r, i) => (
               <tr key={i} data-first={r.first} data-last={r.last} data-status={r.status}>
-                <td className="num">{r.first === r.last ? r.first : `${r.first}–${r.last}`}</td>
-                <td className="num">{r.last - r.first + 1}</td>
-                <td className={r.status === "void" || r.status === "reserved" ? "font-semibold" : ""}>
-                  {numberStatusWords[r.status]}
-                </td>
-                <td>{numberHolder(r)}</td>
-                <td>{numberReason(r)}</td>
+                <NumberRangeCells range={r} />
               </tr>
             ))}
           </tbody>
         </table>
       )}
     </section>
+  );
+}
+
+/** One range's cells: the numbers, how many, their status, who holds them, why — on screen and on paper. */
+export function NumberRangeCells({ range: r }: { range: NumberRange }) {
+  return (
+    <>
+      <td className="num">{r.first === r.last ? r.first : `${r.first}–${r.last}`}</td>
+      <td className="num text-right">{r.last - r.first + 1}</td>
+      <td className={r.status === "void" || r.status === "reserved" ? "font-semibold" : ""}>
+        {numberStatusWords[r.status]}
+      </td>
+      <td>{numberHolder(r)}</td>
+      <td>{numberReason(r)}</td>
+    </>
   );
 }

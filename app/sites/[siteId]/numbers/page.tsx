@@ -2,12 +2,8 @@ import Link from "next/link";
 import { SiteNav } from "@/components/site-nav";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { numberAccountingQuery } from "@/lib/schemas/number-blocks";
-import {
-  numberHolder as holderOf,
-  numberReason as reasonOf,
-  numberStatusOrder as order,
-  numberStatusWords as statusWords,
-} from "@/components/print/accounting-words";
+import { numberStatusOrder as order, numberStatusWords as statusWords } from "@/components/print/accounting-words";
+import { NumberRangeCells } from "@/components/print/number-accounting-table";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
 import { formatWhen } from "@/lib/words/when";
@@ -93,13 +89,7 @@ export default async function NumberAccountingPage({
                   data-last={r.last}
                   data-status={r.status}
                 >
-                  <td className="num">{r.first === r.last ? r.first : `${r.first}–${r.last}`}</td>
-                  <td className="num text-right">{r.last - r.first + 1}</td>
-                  <td className={r.status === "void" || r.status === "reserved" ? "font-semibold" : ""}>
-                    {statusWords[r.status]}
-                  </td>
-                  <td>{holderOf(r)}</td>
-                  <td>{reasonOf(r)}</td>
+                  <NumberRangeCells range={r} />
                 </tr>
               ))}
             </tbody>
