@@ -171,8 +171,12 @@ export async function planPackage(db: Db, site: Site, userId: string, trenchId?:
     const layers = !site.crs
       ? "in the site grid (a local engineering CRS); the site is not placed, so no real-world layers"
       : `in the site grid (a local engineering CRS)${projected ? `, in ${projected.name}` : ""} and in WGS 84`;
-    other.push(["gis/site.gpkg", `trenches, context extents, finds and samples as an OGC GeoPackage, ${layers}`]);
-    return { path: "gis/site.gpkg", bytes: await siteGeoPackage(db, site, trenchId) };
+    other.push([
+      "gis/site.gpkg",
+      `trenches, context extents and samples as an OGC GeoPackage, ${layers}; the finds are in the finds ` +
+        "register (site-grid x, y and RL) and, when the site is placed, in gis/finds-wgs84.geojson",
+    ]);
+    return { path: "gis/site.gpkg", bytes: await siteGeoPackage(db, site, trenchId, { withFinds: false }) };
   });
   if (site.crs) {
     entries.push(async () => {

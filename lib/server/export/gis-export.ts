@@ -168,8 +168,16 @@ function layersIn(site: Site, space: CoordSpace, srs: GpkgSrs, d: GisData): Gpkg
 /**
  * The site's GIS data as one GeoPackage: every layer in the site grid (a local engineering CRS), and, when
  * the site is placed, the same layers in its projected CRS (when that is given as WKT) and in WGS 84.
+ * `withFinds: false` leaves the finds layers out (their rows are read lazily, so they are then never read): a
+ * GeoPackage is built in memory (SQLite as WebAssembly), and the deposition package, whose memory must not
+ * grow with the site, carries the finds in its paged register and GeoJSON instead.
  */
-export async function siteGeoPackage(db: Db, site: Site, trenchId?: string): Promise<Uint8Array> {
+export async function siteGeoPackage(
+  db: Db,
+  site: Site,
+  trenchId?: string,
+  { withFinds = true }: { withFinds?: boolean } = {},
+): Promise<Uint8Array> {
   const data = await readGisData(db, site, trenchId);
   const grid = siteGridSrs(site);
   const spaces: [CoordSpace, GpkgSrs][] = [["grid", grid]];
@@ -180,7 +188,9 @@ export async function siteGeoPackage(db: Db, site: Site, trenchId?: string): Pro
   }
   return writeGeoPackage(
     spaces.map(([, srs]) => srs),
-    spaces.flatMap(([space, srs]) => layersIn(site, space, srs, data)),
+    spaces.flatMap(([space, srs]) =>
+      layersIn(site, space, srs, data).filter((l) => withFinds || !l.name.startsWith("finds_")),
+    ),
   );
 }
 
