@@ -241,7 +241,9 @@ function registerQuery(db: Db, siteId: string, q: FindFilters) {
       classColour: artefactClasses.colour,
       classSymbol: artefactClasses.symbol,
       processing: finds.processing,
+      sentTo: finds.sentTo,
       boxNumber: boxes.number,
+      location: finds.location,
     })
     .from(finds)
     .innerJoin(contexts, eq(contexts.id, finds.contextId))

@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, eq, inArray, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Db, Tx } from "@/db/client";
-import { contexts, samples, sites, spits, trenches, users, type Context, type Sample } from "@/db/schema";
+import { boxes, contexts, samples, sites, spits, trenches, users, type Context, type Sample } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { isUuid } from "@/lib/schemas/common";
 import type { SampleCreate, SampleListQuery, SampleUpdate } from "@/lib/schemas/sample";
@@ -267,12 +267,15 @@ function registerQuery(db: Db, siteId: string, q: Omit<SampleListQuery, "page" |
       contextState: contexts.state,
       spitId: samples.spitId,
       spitNumber: spits.number,
+      boxNumber: boxes.number,
+      location: samples.location,
     })
     .from(samples)
     .innerJoin(contexts, eq(contexts.id, samples.contextId))
     .innerJoin(trenches, eq(trenches.id, samples.trenchId))
     .leftJoin(spits, eq(spits.id, samples.spitId))
     .leftJoin(takenByUser, eq(takenByUser.id, samples.takenBy))
+    .leftJoin(boxes, eq(boxes.id, samples.boxId))
     .where(sampleFilter(siteId, q))
     .orderBy(asc(samples.number))
     .$dynamic();

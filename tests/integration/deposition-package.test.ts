@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
-import { count, eq } from "drizzle-orm";
+import { and, count, eq } from "drizzle-orm";
 import { unzipSync } from "fflate";
 import Papa from "papaparse";
 import { session } from "../support/harness";
@@ -15,6 +15,7 @@ import { allFinds, findsByNumber } from "@/lib/server/finds";
 import * as packageRoute from "@/app/api/sites/[siteId]/export/package/route";
 
 let demo: DemoSite;
+let boxed: { box: number; finds: string[]; sent: string };
 
 async function fetchPackage(userId: string | null, query: Record<string, string> = {}) {
   session.userId = userId;
@@ -34,6 +35,7 @@ beforeAll(async () => {
   const [ctx] = await db.select().from(s.contexts).where(eq(s.contexts.siteId, demo.siteId)).limit(1);
   for (const n of [1, 2, 3])
     await db.insert(s.samples).values({
+      location: n === 3 ? "cold store" : "",
       siteId: demo.siteId,
       trenchId: ctx!.trenchId,
       contextId: ctx!.id,
@@ -43,6 +45,24 @@ beforeAll(async () => {
       volumeL: n === 1 ? null : 20 * n,
       purpose: n === 1 ? "=radiocarbon" : "flotation",
     });
+  // One box in the store, holding two finds and a sample; a third find sent out to a specialist.
+  const [box] = await db
+    .insert(s.boxes)
+    .values({ siteId: demo.siteId, number: 7, store: "Riverside store, bay 3", note: "flint" })
+    .returning();
+  const firstFinds = await db
+    .select()
+    .from(s.finds)
+    .where(eq(s.finds.siteId, demo.siteId))
+    .orderBy(s.finds.number)
+    .limit(3);
+  for (const f of firstFinds.slice(0, 2))
+    await db.update(s.finds).set({ processing: "boxed", boxId: box!.id }).where(eq(s.finds.id, f.id));
+  await db
+    .update(s.finds)
+    .set({ processing: "sent", sentTo: "Lithics laboratory", location: "on loan" })
+    .where(eq(s.finds.id, firstFinds[2]!.id));
+  boxed = { box: 7, finds: firstFinds.slice(0, 2).map((f) => String(f.number)), sent: String(firstFinds[2]!.number) };
   const [drawing] = await db
     .insert(s.drawings)
     .values({ siteId: demo.siteId, trenchId: ctx!.trenchId, number: 1, kind: "plan", scale: 20, drawnOn: "2026-07-02" })
@@ -150,6 +170,37 @@ describe("deposition package", () => {
       expect(readme).toContain(`registers/${file}`);
       for (const col of header) expect(readme, `${file} ${col}`).toMatch(new RegExp(`\\n  ${col}: (?!${col}\\n)`));
     }
+  });
+
+  it("says where each find and sample is kept, and lists the boxes with what they hold", async () => {
+    const db = await getDb();
+    const [box] = await db.select().from(s.boxes).where(eq(s.boxes.siteId, demo.siteId));
+    await db
+      .update(s.samples)
+      .set({ boxId: box!.id })
+      .where(and(eq(s.samples.siteId, demo.siteId), eq(s.samples.number, 2)));
+    const bag = checkBag(unzipSync((await fetchPackage(demo.people.director!)).bytes));
+    expect(bag.problems).toEqual([]);
+    const findRows = csvRows(bag.files.get("data/registers/finds.csv")).data;
+    const byNumber = new Map(findRows.map((r) => [r.number, r]));
+    for (const n of boxed.finds) expect(byNumber.get(n)).toMatchObject({ processing: "boxed", box: String(boxed.box) });
+    expect(byNumber.get(boxed.sent)).toMatchObject({
+      processing: "sent",
+      sent_to: "Lithics laboratory",
+      box: "",
+      location: "on loan",
+    });
+    expect(findRows.filter((r) => r.box !== "").length).toBe(2);
+    expect(findRows.filter((r) => r.processing === "lifted").length).toBe(findRows.length - 3);
+    const sampleRows = new Map(csvRows(bag.files.get("data/registers/samples.csv")).data.map((r) => [r.number, r]));
+    expect(sampleRows.get("2")).toMatchObject({ box: "7", location: "" });
+    expect(sampleRows.get("3")).toMatchObject({ box: "", location: "cold store" });
+    expect(csvRows(bag.files.get("data/registers/boxes.csv")).data).toEqual([
+      { number: "7", store: "Riverside store, bay 3", note: "flint", finds: "2", samples: "1" },
+    ]);
+    // The readme says what the new columns mean.
+    const readme = new TextDecoder().decode(bag.files.get("data/README.txt"));
+    expect(readme).toMatch(/box: number of the box/);
   });
 
   it("holds each trench's record as a PDF naming the trench, its contexts and its finds by class", async () => {

@@ -135,25 +135,27 @@ export const sampleCsvColumns: readonly CsvColumn[] = [
 ];
 
 export function samplesCsv(rows: SampleRegisterRow[]): string {
-  return toCsv(
-    sampleCsvColumns,
-    rows.map((s) => [
-      s.number,
-      s.trenchCode,
-      s.contextNumber,
-      s.spitNumber,
-      s.type,
-      s.x,
-      s.y,
-      s.z,
-      s.volumeL,
-      s.purpose,
-      s.takenBy ?? "",
-      s.takenOn,
-      s.status,
-      s.contextState,
-    ]),
-  );
+  return toCsv(sampleCsvColumns, rows.map(sampleCsvRow));
+}
+
+/** One sample's cells, in sampleCsvColumns' order. */
+export function sampleCsvRow(s: SampleRegisterRow): unknown[] {
+  return [
+    s.number,
+    s.trenchCode,
+    s.contextNumber,
+    s.spitNumber,
+    s.type,
+    s.x,
+    s.y,
+    s.z,
+    s.volumeL,
+    s.purpose,
+    s.takenBy ?? "",
+    s.takenOn,
+    s.status,
+    s.contextState,
+  ];
 }
 
 /**

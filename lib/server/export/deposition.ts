@@ -21,6 +21,7 @@ import { drawSiteMatrix } from "./matrix-image";
 import { packageReadme, type ReadmeRegister } from "./package-readme";
 import {
   benchmarksRegister,
+  boxesRegister,
   classesRegister,
   contextsRegister,
   drawingsRegister,
@@ -143,6 +144,7 @@ export async function planPackage(db: Db, site: Site, userId: string, trenchId?:
     csv(() => classesRegister(db, scope)),
     streamed(() => findsRegister(db, scope)),
     csv(() => samplesRegister(db, scope)),
+    csv(() => boxesRegister(db, scope)),
     csv(() => drawingsRegister(db, scope)),
     csv(() => levelsRegister(db, scope)),
     csv(() => benchmarksRegister(db, scope)),

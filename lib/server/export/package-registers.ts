@@ -4,11 +4,13 @@ import type { Db } from "@/db/client";
 import {
   analysisRuns,
   artefactClasses,
+  boxes,
   contextRelations,
   contexts,
   finds,
   levelRuns,
   photos,
+  samples,
   spits,
   spotLevels,
   trenches,
@@ -29,7 +31,7 @@ import {
   findCsvColumns,
   findCsvRow,
   sampleCsvColumns,
-  samplesCsv,
+  sampleCsvRow,
   toCsv,
   type CsvColumn,
 } from "./csv";
@@ -53,7 +55,15 @@ function register(file: string, title: string, columns: readonly CsvColumn[], ro
   return { file, title, columns, rows: rows.length, csv: toCsv(columns, rows) };
 }
 
-export const findPackageColumns: readonly CsvColumn[] = [...findCsvColumns, ["context_state", "text"]];
+/** The finds register of the package: the export's columns, the context's state, and where each find is now. */
+export const findPackageColumns: readonly CsvColumn[] = [
+  ...findCsvColumns,
+  ["context_state", "text"],
+  ["processing", "text"],
+  ["sent_to", "text"],
+  ["box", "number"],
+  ["location", "text"],
+];
 
 const utf8 = new TextEncoder();
 
@@ -64,7 +74,7 @@ export function findsRegister(db: Db, scope: PackageScope): StreamedRegister {
     yield utf8.encode(toCsv(findPackageColumns, []));
     for await (const page of findsByNumber(db, scope.siteId, { trenchId: scope.trenchId })) {
       meta.rows += page.length;
-      const rows = page.map((f) => [...findCsvRow(f), f.contextState]);
+      const rows = page.map((f) => [...findCsvRow(f), f.contextState, f.processing, f.sentTo, f.boxNumber, f.location]);
       yield utf8.encode(`\r\n${toCsv(findPackageColumns, rows, { header: false })}`);
     }
   }
@@ -113,15 +123,57 @@ export async function relationsRegister(db: Db, scope: PackageScope): Promise<Pa
   return register("relations.csv", "Stratigraphic relations", relationColumns, rows);
 }
 
+/** The samples register of the package: the export's columns and where each sample is kept. */
+export const samplePackageColumns: readonly CsvColumn[] = [
+  ...sampleCsvColumns,
+  ["box", "number"],
+  ["location", "text"],
+];
+
 export async function samplesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
   const rows = await allSamples(db, scope.siteId, { trenchId: scope.trenchId });
-  return {
-    file: "samples.csv",
-    title: "Samples register",
-    columns: sampleCsvColumns,
-    rows: rows.length,
-    csv: samplesCsv(rows),
-  };
+  return register(
+    "samples.csv",
+    "Samples register",
+    samplePackageColumns,
+    rows.map((s) => [...sampleCsvRow(s), s.boxNumber, s.location]),
+  );
+}
+
+export const boxColumns: readonly CsvColumn[] = [
+  ["number", "number"],
+  ["store", "text"],
+  ["note", "text"],
+  ["finds", "number"],
+  ["samples", "number"],
+];
+
+/**
+ * The box register: every box with the finds and samples of the package it holds (a trench's package lists
+ * only the boxes that hold something of that trench).
+ */
+export async function boxesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
+  const findsIn = scope.trenchId
+    ? and(eq(finds.siteId, scope.siteId), eq(finds.trenchId, scope.trenchId))
+    : eq(finds.siteId, scope.siteId);
+  const samplesIn = scope.trenchId
+    ? and(eq(samples.siteId, scope.siteId), eq(samples.trenchId, scope.trenchId))
+    : eq(samples.siteId, scope.siteId);
+  const [rows, findCounts, sampleCounts] = await Promise.all([
+    db.select().from(boxes).where(eq(boxes.siteId, scope.siteId)).orderBy(asc(boxes.number)),
+    db.select({ boxId: finds.boxId, n: count() }).from(finds).where(findsIn).groupBy(finds.boxId),
+    db.select({ boxId: samples.boxId, n: count() }).from(samples).where(samplesIn).groupBy(samples.boxId),
+  ]);
+  const held = (list: { boxId: string | null; n: number }[]) => new Map(list.map((r) => [r.boxId, Number(r.n)]));
+  const [f, s] = [held(findCounts), held(sampleCounts)];
+  return register(
+    "boxes.csv",
+    "Box register",
+    boxColumns,
+    rows
+      .map((b) => [b.number, b.store, b.note, f.get(b.id) ?? 0, s.get(b.id) ?? 0])
+      .filter((r) => !scope.trenchId || Number(r[3]) + Number(r[4]) > 0),
+  );
 }
 
 export const trenchColumns: readonly CsvColumn[] = [
