@@ -75,14 +75,36 @@ export function auditedPhoto(p: Photo, size?: number) {
   return size === undefined ? rest : { ...rest, size };
 }
 
+/**
+ * An uploaded photo's derivatives (refusing what is not an image) saved under a new photo id, and the photo
+ * row's file columns: what plan underlays and record photos store alike.
+ */
+export async function savePhotoFiles(
+  siteId: string,
+  up: { userId: string; fileKey: string; fileName: string; mimeType: string; bytes: Buffer },
+) {
+  const d = await makeDerivatives(up.bytes);
+  const id = crypto.randomUUID();
+  const folder = photoFolder(siteId, id);
+  await saveFile(`${folder}/display.jpg`, d.display);
+  await saveFile(`${folder}/thumb.jpg`, d.thumb);
+  const files = {
+    fileKey: up.fileKey,
+    fileName: up.fileName,
+    mimeType: up.mimeType,
+    width: d.width,
+    height: d.height,
+    displayPath: `${folder}/display.jpg`,
+    thumbPath: `${folder}/thumb.jpg`,
+    uploadedBy: up.userId,
+  };
+  return { id, folder, files };
+}
+
 /** Runs in onUploadComplete: derivatives first (refusing non-images), then the record, audited. */
 export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<PhotoView> {
   await getTrench(db, up.siteId, up.trenchId);
-  const d = await makeDerivatives(up.bytes);
-  const id = crypto.randomUUID();
-  const folder = photoFolder(up.siteId, id);
-  await saveFile(`${folder}/display.jpg`, d.display);
-  await saveFile(`${folder}/thumb.jpg`, d.thumb);
+  const { id, files } = await savePhotoFiles(up.siteId, up);
   const row = await db.transaction(async (tx) => {
     const row = written(
       await tx
@@ -91,14 +113,7 @@ export async function storeUploadedPhoto(db: Db, up: UploadedPhoto): Promise<Pho
           id,
           siteId: up.siteId,
           trenchId: up.trenchId,
-          fileKey: up.fileKey,
-          fileName: up.fileName,
-          mimeType: up.mimeType,
-          width: d.width,
-          height: d.height,
-          displayPath: `${folder}/display.jpg`,
-          thumbPath: `${folder}/thumb.jpg`,
-          uploadedBy: up.userId,
+          ...files,
         })
         .returning(),
       "The new photo",

@@ -17,11 +17,10 @@ import { getContext } from "./contexts";
 import { getFind } from "./finds";
 import { assertContextWritable, assertTrenchWritable } from "./locks";
 import { assertNamedMember, assertRole, type SiteActor } from "./membership";
-import { auditedPhoto, getPhoto } from "./photos";
+import { auditedPhoto, getPhoto, savePhotoFiles } from "./photos";
 import { allocateRegisterNumber } from "./register-numbers";
 import { getTrench } from "./trenches";
-import { makeDerivatives } from "./uploads/derivatives";
-import { photoFolder, removeFolder, saveFile } from "./uploads/file-store";
+import { photoFolder, removeFolder } from "./uploads/file-store";
 import { photoTakenAt } from "./uploads/photo-date";
 import { forgetUpload } from "./uploads/remote";
 import { written } from "./written";
@@ -98,12 +97,8 @@ export async function storeRecordPhoto(db: Db, up: UploadedRecordPhoto): Promise
     if (seen.fileKey !== up.fileKey) await forgetUpload(up.fileKey);
     return { id: seen.id, number: seen.number ?? 0 };
   }
-  const d = await makeDerivatives(up.bytes);
+  const { id, folder, files } = await savePhotoFiles(siteId, up);
   const taken = await photoTakenAt(up.bytes);
-  const id = crypto.randomUUID();
-  const folder = photoFolder(siteId, id);
-  await saveFile(`${folder}/display.jpg`, d.display);
-  await saveFile(`${folder}/thumb.jpg`, d.thumb);
   try {
     return await db.transaction(async (tx) => {
       const subject = await writableSubject(tx, siteId, up.input.subject, up.input.subjectId, "given new photos");
@@ -125,14 +120,7 @@ export async function storeRecordPhoto(db: Db, up: UploadedRecordPhoto): Promise
             takenAt: taken.at,
             takenAtSource: taken.source,
             clientKey: up.clientKey,
-            fileKey: up.fileKey,
-            fileName: up.fileName,
-            mimeType: up.mimeType,
-            width: d.width,
-            height: d.height,
-            displayPath: `${folder}/display.jpg`,
-            thumbPath: `${folder}/thumb.jpg`,
-            uploadedBy: up.userId,
+            ...files,
           })
           .returning(),
         "The new photo",
