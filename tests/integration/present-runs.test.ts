@@ -1,0 +1,113 @@
+/**
+ * Runs stored in the result shape Loamwork used up to December 2026 keep opening and reproducing.
+ *
+ * tests/fixtures/present-runs.json holds one run exactly as that code stored it (requested through the API,
+ * run and read back from the database; class, trench and context ids replaced by {{placeholders}}, each
+ * heat layer's pixel values by the SHA-256 of their JSON, the run's time by a round number). It asks for
+ * every kind of distribution test with each choice that changes what is stored: the corrections, the
+ * global statistics, one class fixed and random labelling, cross-K.
+ *
+ * Checked: the run opens with its result as stored, and started again with the tests it opened with, it
+ * gives the same result, test for test.
+ */
+import { createHash } from "node:crypto";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import { beforeAll, describe, expect, it } from "vitest";
+import { session, call } from "../support/harness";
+import { seedDemoSite, type DemoSite } from "../support/demo-site";
+import { getDb } from "@/db/client";
+import * as s from "@/db/schema";
+import { runsIdle } from "@/lib/server/jobs/run-queue";
+import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
+import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+
+type StoredRun = {
+  scope: Record<string, unknown>;
+  method: string;
+  params: Record<string, unknown>;
+  seed: number;
+  engineVersion: string;
+  result: Record<string, unknown>;
+};
+
+let d: DemoSite;
+let stored: StoredRun[];
+beforeAll(async () => {
+  d = await seedDemoSite();
+  let text = readFileSync(path.join(process.cwd(), "tests/fixtures/present-runs.json"), "utf8");
+  const ids: Record<string, string> = { trench: d.trenchId };
+  for (const [code, id] of Object.entries(d.cls)) ids[`class ${code}`] = id;
+  for (const [n, id] of Object.entries(d.ctx)) ids[`context ${n}`] = id;
+  text = text.replace(/\{\{([^}]+)\}\}/g, (_, name: string) => {
+    const id = ids[name];
+    if (!id) throw new Error(`No demo record for ${name}`);
+    return id;
+  });
+  stored = (JSON.parse(text) as { runs: StoredRun[] }).runs;
+});
+
+/** A result as the fixture keeps it: heat layers' pixels by their digest, the run's time left out. */
+function asKept(result: Record<string, unknown>): Record<string, unknown> {
+  const { elapsedMs: _elapsed, timing: _timing, ...rest } = result;
+  const density = rest.density as { values: unknown }[];
+  return {
+    ...rest,
+    density: density.map((l) => ({
+      ...l,
+      values: { sha256: createHash("sha256").update(JSON.stringify(l.values)).digest("hex") },
+    })),
+  };
+}
+
+async function store(run: StoredRun): Promise<string> {
+  const db = await getDb();
+  const [row] = await db
+    .insert(s.analysisRuns)
+    .values({
+      siteId: d.siteId,
+      trenchId: d.trenchId,
+      scope: run.scope,
+      method: run.method,
+      params: run.params,
+      seed: run.seed,
+      engineVersion: run.engineVersion,
+      fingerprint: "stored",
+      status: "done",
+      progress: 1,
+      result: run.result,
+      createdBy: d.people.specialist,
+      finishedAt: new Date(),
+    })
+    .returning();
+  if (!row) throw new Error("run not stored");
+  return row.id;
+}
+
+describe("saved runs in the result shape of December 2026", { timeout: 180_000 }, () => {
+  it("open with their result and reproduce it when started again", async () => {
+    session.userId = d.people.specialist;
+    for (const run of stored) {
+      const runId = await store(run);
+      const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
+      expect(view.status).toBe("done");
+      expect(view.result).toEqual(run.result);
+      const again = await call(
+        runsRoute,
+        "POST",
+        { siteId: d.siteId },
+        {
+          scope: view.scope,
+          tests: view.params.tests,
+          params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
+        },
+      );
+      expect(again.status, JSON.stringify(again.json)).toBe(201);
+      await runsIdle();
+      const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;
+      expect(rerun.status, rerun.error).toBe("done");
+      const { elapsedMs: _e, ...kept } = run.result;
+      expect(asKept(rerun.result)).toEqual(kept);
+    }
+  });
+});
