@@ -9,7 +9,12 @@ import { describe, expect, test } from "vitest";
 import { DEMO_TRENCH } from "./demo-window";
 import { setCovariance, translationPairWeights } from "./edge-translation";
 import { pairsWithin } from "./neighbours";
-import { createSetCovarianceTable, setCovarianceTableFor, type SetCovarianceTable } from "./set-covariance-table";
+import {
+  createSetCovarianceTable,
+  runSetCovarianceTable,
+  setCovarianceTableFor,
+  type SetCovarianceTable,
+} from "./set-covariance-table";
 import { createRandom } from "../random/random";
 import { createWindowSampler } from "../random/sample-window";
 import { createWindow } from "./window";
@@ -151,5 +156,21 @@ describe("translation weights of many pairs", () => {
     expect(worst).toBeLessThan(1e-12);
     // the window keeps its table: a second call does not prepare another
     expect(setCovarianceTableFor(win, 1)).toBe(setCovarianceTableFor(win, 1.1));
+  });
+
+  test("a run's table is kept by outline and reach, and is the one a fresh preparation gives", () => {
+    // each run builds its own Window from the stored outline: the second run in the trench finds the table
+    const first = runSetCovarianceTable(createWindow(DEMO_TRENCH), 2);
+    expect(first).not.toBeNull();
+    expect(runSetCovarianceTable(createWindow(DEMO_TRENCH), 2)).toBe(first);
+    // another reach or another outline is another table, never a neighbour's
+    expect(runSetCovarianceTable(createWindow(DEMO_TRENCH), 1.9)).not.toBe(first);
+    const moved = runSetCovarianceTable(createWindow(shifted(DEMO_TRENCH, 0.1, 0)), 2);
+    expect(moved).not.toBe(first);
+    expect(moved!.at(0.5, 0.25)).toBeCloseTo(first!.at(0.5, 0.25), 12);
+    // the same numbers as a table prepared afresh, bit for bit
+    const fresh = createSetCovarianceTable(createWindow(DEMO_TRENCH), 2)!;
+    expect(Array.from(first!.cell)).toEqual(Array.from(fresh.cell));
+    expect(first!.listed).toBe(fresh.listed);
   });
 });

@@ -355,3 +355,28 @@ export function setCovarianceTableFor(window: Window, reach: number): SetCovaria
   prepared.set(window, { reach, table });
   return table;
 }
+
+/** Tables kept by window outline and reach, across runs in this thread (each is about 2 MB). */
+const RUN_TABLES = 2;
+const byOutline = new Map<string, SetCovarianceTable | null>();
+
+/**
+ * The table for a run's simulations: prepared for exactly this reach, and kept by the window's outline (its
+ * edges), so that the next run in the same trench with the same r max reuses it in this thread instead of
+ * preparing it again (a new Window object each run). The table is the one `createSetCovarianceTable`
+ * would prepare, so the numbers do not depend on which runs came before in the thread.
+ */
+export function runSetCovarianceTable(window: Window, reach: number): SetCovarianceTable | null {
+  const key = `${reach}|${window.edges.subarray(0, 4 * window.edgeCount).join(",")}`;
+  if (byOutline.has(key)) {
+    const hit = byOutline.get(key)!;
+    // most recently used last
+    byOutline.delete(key);
+    byOutline.set(key, hit);
+    return hit;
+  }
+  const table = createSetCovarianceTable(window, reach);
+  if (byOutline.size >= RUN_TABLES) byOutline.delete(byOutline.keys().next().value as string);
+  byOutline.set(key, table);
+  return table;
+}

@@ -8,7 +8,7 @@
  * the next.
  */
 import { createCellGrid } from "./cell-grid";
-import { setCovarianceTableFor, type SetCovarianceTable } from "../geometry/set-covariance-table";
+import { runSetCovarianceTable, type SetCovarianceTable } from "../geometry/set-covariance-table";
 import { createBinning, isAxisRectangle } from "../estimators/r-grid";
 import type { Window } from "../types";
 
@@ -30,7 +30,7 @@ export interface TranslationLEstimator {
 export function createTranslationL(
   window: Window,
   r: Float64Array,
-  table: SetCovarianceTable | null = setCovarianceTableFor(window, r[r.length - 1]),
+  table: SetCovarianceTable | null = runSetCovarianceTable(window, r[r.length - 1]),
 ): TranslationLEstimator | null {
   if (!table) return null;
   const binning = createBinning(window, r);
