@@ -21,6 +21,7 @@
  * Tests and summary functions (options objects, defaults in brackets)
  *   clarkEvans(window, points, { alternative: "two-sided" }) → R, z, p, pClustered, pRegular, donnelly
  *   quadratTest(window, points, { nx: 5, ny: nx, alternative: "two-sided" }) → X2, df, p, cells, …
+ *   nnHistogram(points) → nearest-neighbour distances in Sturges' bins, the picture beside Clark–Evans
  *   kFunction(window, points, { r, correction: ["isotropic"] | "translation" | "border", pairs? }) → K
  *   lFunction(...) → L = √(K/π);  kToL(K)
  *   pairCorrelation(window, points, { r, correction, halfWidth: 0.15/√λ }) → g
@@ -104,6 +105,7 @@ export {
   type QuadratLayout,
   type QuadratResult,
 } from "./estimators/quadrat";
+export { nnHistogram, type NNHistogram } from "./estimators/nn-histogram";
 export { gaussianEdgeMass } from "./geometry/kernel-mass";
 export {
   intensityAtPoints,
@@ -141,7 +143,15 @@ export {
   type TestSpec,
   type TestSpecInput,
 } from "./run/run-spec";
-export { runDistributionTest, SMALL_RUN, type RunOptions, type RunResult, type TestResult } from "./run/run-test";
+export {
+  runDistributionTest,
+  SMALL_RUN,
+  type QuadratCellCount,
+  type RunOptions,
+  type RunResult,
+  type TestPicture,
+  type TestResult,
+} from "./run/run-test";
 export { ENGINE_VERSION } from "./version";
 
 // Outline helpers shared with the plan editor, and the demo trench

@@ -1,6 +1,6 @@
 import { describe, expect, test } from "vitest";
-import { createWindow, quadratTest } from "@/lib/spatial";
-import { kernelDensity, quadratCellsOf } from "./plot-data";
+import { createWindow } from "@/lib/spatial";
+import { kernelDensity } from "./plot-data";
 
 // An L-shaped trench with a hole: the pictures must follow the clipped shape, not the bounding box.
 const window = createWindow({
@@ -42,27 +42,7 @@ function pointsIn(n: number, seed: number) {
   return { x, y };
 }
 
-describe("pictures drawn from the engine's numbers", () => {
-  test("quadrat cells carry the engine's observed and expected counts on its clipped cells", () => {
-    const p = pointsIn(120, 7);
-    const q = quadratTest(window, p, { nx: 5, ny: 4 });
-    const cells = quadratCellsOf(window, 5, 4, Array.from(q.observed), Array.from(q.expected));
-    expect(cells).toHaveLength(q.layout.cells.length);
-    expect(cells.reduce((s, c) => s + c.count, 0)).toBe(120);
-    expect(cells.reduce((s, c) => s + c.expected, 0)).toBeCloseTo(120, 9);
-    // every find is counted in the cell that holds it
-    for (const c of cells) {
-      const inside = p.x.filter((x, k) => x > c.x0 && x <= c.x1 && p.y[k]! > c.y0 && p.y[k]! <= c.y1).length;
-      expect(c.count).toBe(inside);
-    }
-    // no cell lies wholly outside the L (the top-right block is cut away)
-    expect(cells.some((c) => c.x0 >= 4 && c.y0 >= 4)).toBe(false);
-  });
-
-  test("a count list that does not fit the cells is refused, not drawn shifted", () => {
-    expect(() => quadratCellsOf(window, 5, 4, [1, 2, 3], [1, 2, 3])).toThrow(/3 counts for \d+ cells/);
-  });
-
+describe("the heat layer drawn from the engine's numbers", () => {
   test("the heat layer is zero outside the trench and integrates to about n inside it", () => {
     const p = pointsIn(200, 11);
     const d = kernelDensity(window, p, "c1");

@@ -1,49 +1,11 @@
 /**
- * Pictures that go with a result but are not tests: the nearest-neighbour distance histogram, the quadrat
- * grid with observed and expected counts in place, and a kernel density for the heat layer on the plan.
- * Every number comes from the engine (`lib/spatial`); this file only shapes it for storing and drawing.
+ * The heat layer on the plan, a picture that goes with a result but is no test: the engine's kernel density
+ * (`lib/spatial`) on a grid sized for the screen. The tests' own pictures come with the engine's result.
  */
-import { createQuadratLayout, densityGrid, nearestNeighbourDistances, type Window } from "@/lib/spatial";
-import type { DensityOut, QuadratCell } from "@/lib/api/run-result";
+import { densityGrid, type Window } from "@/lib/spatial";
+import type { DensityOut } from "@/lib/api/run-result";
 
 export type Pts = { x: number[]; y: number[] };
-
-/** Histogram of nearest-neighbour distances with Sturges' (1926) number of bins. */
-export function nnHistogram(p: Pts): { edges: number[]; counts: number[]; distances: number[] } {
-  if (p.x.length < 2) return { edges: [], counts: [], distances: [] };
-  const d = Array.from(nearestNeighbourDistances({ x: Float64Array.from(p.x), y: Float64Array.from(p.y) }));
-  const bins = Math.ceil(Math.log2(d.length) + 1);
-  const top = Math.max(...d) || 1;
-  const width = top / bins;
-  const binOf = (v: number) => Math.min(bins - 1, Math.floor(v / width));
-  const counts = Array.from({ length: bins }, (_, b) => d.filter((v) => binOf(v) === b).length);
-  return { edges: Array.from({ length: bins + 1 }, (_, k) => k * width), counts, distances: d };
-}
-
-/**
- * The quadrat test's own cells (clipped to the trench, top row first) paired with the observed and
- * expected counts the engine reported for them, in the same order.
- */
-export function quadratCellsOf(
-  w: Window,
-  nx: number,
-  ny: number,
-  observed: number[],
-  expected: number[],
-): QuadratCell[] {
-  const { cells } = createQuadratLayout(w, nx, ny);
-  if (cells.length !== observed.length || cells.length !== expected.length) {
-    throw new Error(`The quadrat result has ${observed.length} counts for ${cells.length} cells.`);
-  }
-  return cells.map((c, k) => ({
-    x0: c.x0,
-    y0: c.y0,
-    x1: c.x1,
-    y1: c.y1,
-    count: observed[k] ?? 0,
-    expected: expected[k] ?? 0,
-  }));
-}
 
 const DENSITY_PIXELS = 60;
 

@@ -5,7 +5,7 @@
  */
 import { quadratGrid, type RunResult as EngineResult, type TestResult as EngineTest, type Window } from "@/lib/spatial";
 import type { SpecClass, SpecFind } from "./engine-spec";
-import { kernelDensity, nnHistogram, quadratCellsOf, type Pts } from "./plot-data";
+import { kernelDensity, type Pts } from "./plot-data";
 import { questionOf } from "./questions";
 import type { ClassInScope, Curve, Departure, RunResult, TestOut, VerdictWord } from "@/lib/api/run-result";
 import type { Correction, RunTest } from "@/lib/schemas/run";
@@ -90,9 +90,7 @@ export function adaptResult(input: AdaptInput): RunResult {
     const n = pts.get(classId)?.x.length ?? t.n;
     switch (spec.type) {
       case "clark-evans": {
-        const h = nnHistogram(pts.get(classId) ?? { x: [], y: [] });
-        const meanNN =
-          num(d.meanNNDistance) ?? h.distances.reduce((s, v) => s + v, 0) / Math.max(1, h.distances.length);
+        const h = t.picture?.kind === "nn-histogram" ? t.picture : { edges: [], counts: [] };
         return {
           ...base,
           kind: "clark-evans",
@@ -100,7 +98,7 @@ export function adaptResult(input: AdaptInput): RunResult {
           n,
           R: num(d.R) ?? NaN,
           z: num(d.z),
-          meanNN,
+          meanNN: num(d.meanNNDistance) ?? NaN,
           expectedNN: num(d.meanNNDistanceUnderCsr) ?? num(d.expectedUnderCsr) ?? 0.5 / Math.sqrt(n / window.area),
           correction: spec.correction,
           alternative: spec.alternative,
@@ -108,10 +106,8 @@ export function adaptResult(input: AdaptInput): RunResult {
         };
       }
       case "quadrat": {
-        const { nx, ny } = spec.cellSize === undefined ? spec : quadratGrid(window, spec.cellSize);
-        const observed = Array.isArray(d.observed) ? (d.observed as number[]) : [];
-        const expected = Array.isArray(d.expected) ? (d.expected as number[]) : [];
-        const cells = quadratCellsOf(window, nx, ny, observed, expected);
+        const { nx } = spec.cellSize === undefined ? spec : quadratGrid(window, spec.cellSize);
+        const cells = t.picture?.kind === "quadrat-cells" ? t.picture.cells : [];
         const mean = cells.reduce((s, c) => s + c.count, 0) / cells.length;
         const variance = cells.reduce((s, c) => s + (c.count - mean) ** 2, 0) / Math.max(1, cells.length - 1);
         return {

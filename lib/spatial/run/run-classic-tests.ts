@@ -9,6 +9,7 @@
  */
 import { clarkEvans } from "../estimators/clark-evans";
 import { runSimulations } from "../simulation/run-simulations";
+import { nnHistogram } from "../estimators/nn-histogram";
 import { createQuadratLayout, quadratChiSquare, quadratCounts, quadratTest } from "../estimators/quadrat";
 import { createRandom } from "../random/random";
 import { classPoints, STREAMS_PER_TEST, type RunContext } from "./run-context";
@@ -97,6 +98,7 @@ async function clarkEvansTest(ctx: RunContext, t: Extract<Classic, { type: "clar
     nsim,
     n,
     details,
+    picture: { kind: "nn-histogram", ...nnHistogram(p) },
   };
 }
 
@@ -133,6 +135,7 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
     ? "quadrat counts, Monte Carlo X² test (some expected counts < 5)"
     : "quadrat counts, Pearson X² test (Greig-Smith 1952)";
   const v = verdictOf(t, pValue, ctx.spec.level, q.pClustered < q.pRegular ? 1 : -1, test);
+  const expected = Array.from(q.expected, (e) => Number(e.toPrecision(8)));
   return {
     type: t.type,
     test,
@@ -151,7 +154,18 @@ async function quadrat(ctx: RunContext, t: Extract<Classic, { type: "quadrat" }>
       wholeCellVarianceMeanRatio: q.wholeCellVarianceMeanRatio,
       cells: q.layout.cells.length,
       observed: Array.from(q.observed),
-      expected: Array.from(q.expected, (e) => Number(e.toPrecision(8))),
+      expected,
+    },
+    picture: {
+      kind: "quadrat-cells",
+      cells: q.layout.cells.map((c, k) => ({
+        x0: c.x0,
+        y0: c.y0,
+        x1: c.x1,
+        y1: c.y1,
+        count: q.observed[k],
+        expected: expected[k],
+      })),
     },
   };
 }

@@ -33,8 +33,26 @@ export interface TestResult {
   n: number;
   details: Record<string, unknown>;
   curves?: EnvelopeOutcome;
+  /** The picture a test without curves is drawn with (Clark–Evans, quadrat counts). */
+  picture?: TestPicture;
   cautions: string[];
 }
+
+/** One quadrat cell clipped to the trench, with the count observed in it and the count expected under CSR. */
+export interface QuadratCellCount {
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+  count: number;
+  expected: number;
+}
+
+export type TestPicture =
+  /** Nearest-neighbour distances (estimators/nn-histogram.ts). */
+  | { kind: "nn-histogram"; edges: number[]; counts: number[] }
+  /** The quadrat test's own cells, top row first, in the order of `details.observed`. */
+  | { kind: "quadrat-cells"; cells: QuadratCellCount[] };
 
 export interface RunResult {
   engineVersion: string;
