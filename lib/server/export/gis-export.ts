@@ -10,7 +10,16 @@ import { contextsForExport } from "./contexts-export";
 import { makeTransform, type Transform } from "./coords";
 import { download } from "./files";
 import { exportPolygon } from "./geojson";
-import { WGS84_SRS, writeGeoPackage, type GpkgFeature, type GpkgLayer, type GpkgSrs } from "./geopackage";
+import {
+  WGS84_SRS,
+  writeGeoPackage,
+  type GpkgFeature,
+  type GpkgField,
+  type GpkgGeometry,
+  type GpkgLayer,
+  type GpkgSrs,
+  type GpkgValue,
+} from "./geopackage";
 import { projectedSrs, siteGridSrs } from "./gis-srs";
 
 type GisData = {
@@ -20,10 +29,6 @@ type GisData = {
   finds: () => AsyncIterable<RegisterRow[]>;
   samples: Awaited<ReturnType<typeof allSamples>>;
 };
-
-async function* each<T, U>(pages: AsyncIterable<T[]>, f: (row: T) => U) {
-  for await (const page of pages) for (const row of page) yield f(row);
-}
 
 async function readGisData(db: Db, site: Site, trenchId: string | undefined): Promise<GisData> {
   const inScope = (t: { trenchId: string }) => !trenchId || t.trenchId === trenchId;
@@ -40,129 +45,146 @@ async function readGisData(db: Db, site: Site, trenchId: string | undefined): Pr
   };
 }
 
-function polygon(outline: PolygonJson | null, t: Transform): GpkgFeature["geometry"] | null {
+function polygon(outline: PolygonJson | null, t: Transform): GpkgGeometry | null {
   const rings = outline ? exportPolygon(outline, t) : null;
   return rings ? { type: "Polygon", rings: rings.map((r) => r.map((p) => [p[0], p[1]] as [number, number])) } : null;
 }
 
-const withGeometry = (list: (GpkgFeature | null)[]) => list.filter((f): f is GpkgFeature => f !== null);
+function point(x: number, y: number, z: number | null, t: Transform): GpkgGeometry {
+  const [px, py] = t(x, y);
+  return { type: "Point", x: px, y: py, z };
+}
+
+/** A column of a layer: its field and how a row fills it in. */
+type Column<R> = GpkgField & { value: (row: R) => GpkgValue };
+
+/** One layer as the table below states it, the same in every coordinate space. */
+type LayerSpec<R> = {
+  kind: string;
+  what: string;
+  geometryType: GpkgLayer["geometryType"];
+  /** Points may carry a z (the reduced level). */
+  optionalZ: boolean;
+  /** The rows, as a list or a page at a time. */
+  rows: (d: GisData) => R[] | AsyncIterable<R[]>;
+  /** The row's shape in this space, or null for a row with none (it is left out of the layer). */
+  geometry: (row: R, t: Transform) => GpkgGeometry | null;
+  columns: Column<R>[];
+};
+
+type LayerDef = Pick<LayerSpec<unknown>, "kind" | "what" | "geometryType" | "optionalZ"> & {
+  fields: GpkgField[];
+  features: (d: GisData, t: Transform) => GpkgLayer["features"];
+};
+
+function defineLayer<R>({ rows, geometry, columns, ...head }: LayerSpec<R>): LayerDef {
+  const featureOf = (row: R, t: Transform): GpkgFeature | null => {
+    const shape = geometry(row, t);
+    return shape && { geometry: shape, properties: Object.fromEntries(columns.map((c) => [c.name, c.value(row)])) };
+  };
+  return {
+    ...head,
+    fields: columns.map(({ name, type }) => ({ name, type })),
+    features(d, t) {
+      const list = rows(d);
+      if (Array.isArray(list)) return list.map((row) => featureOf(row, t)).filter((f) => f !== null);
+      return (async function* () {
+        for await (const page of list)
+          for (const row of page) {
+            const feature = featureOf(row, t);
+            if (feature) yield feature;
+          }
+      })();
+    },
+  };
+}
+
+type Trench = GisData["trenches"][number];
+type ContextRow = GisData["contexts"][number];
+type Sample = GisData["samples"][number];
+
+/** The four layers: trenches, context extents, finds and samples. */
+const LAYERS: LayerDef[] = [
+  defineLayer<Trench>({
+    kind: "trenches",
+    what: "Trench outlines (baulks as holes)",
+    geometryType: "POLYGON",
+    optionalZ: false,
+    rows: (d) => d.trenches,
+    geometry: (tr, t) => polygon(tr.outline, t),
+    columns: [
+      { name: "code", type: "TEXT", value: (tr) => tr.code },
+      { name: "name", type: "TEXT", value: (tr) => tr.name },
+      { name: "signed_off", type: "BOOLEAN", value: (tr) => !!tr.signedOffAt },
+    ],
+  }),
+  defineLayer<ContextRow>({
+    kind: "contexts",
+    what: "Context extents",
+    geometryType: "POLYGON",
+    optionalZ: false,
+    rows: (d) => d.contexts,
+    geometry: (c, t) => polygon(c.extent, t),
+    columns: [
+      { name: "number", type: "INTEGER", value: (c) => c.number },
+      { name: "trench", type: "TEXT", value: (c) => c.trenchCode },
+      { name: "type", type: "TEXT", value: (c) => c.type },
+      { name: "state", type: "TEXT", value: (c) => c.state },
+    ],
+  }),
+  defineLayer<RegisterRow>({
+    kind: "finds",
+    what: "Finds (z and rl: reduced level, metres against the site datum)",
+    geometryType: "POINT",
+    optionalZ: true,
+    rows: (d) => d.finds(),
+    geometry: (f, t) => point(f.x, f.y, f.z, t),
+    columns: [
+      { name: "number", type: "INTEGER", value: (f) => f.number },
+      { name: "trench", type: "TEXT", value: (f) => f.trenchCode },
+      { name: "context", type: "INTEGER", value: (f) => f.contextNumber },
+      { name: "class", type: "TEXT", value: (f) => f.classCode },
+      { name: "class_label", type: "TEXT", value: (f) => f.classLabel },
+      { name: "rl", type: "REAL", value: (f) => f.z },
+      { name: "count", type: "INTEGER", value: (f) => f.count },
+      { name: "weight_g", type: "REAL", value: (f) => f.weightG },
+      { name: "description", type: "TEXT", value: (f) => f.description },
+      { name: "recorded_at", type: "DATETIME", value: (f) => f.recordedAt.toISOString() },
+    ],
+  }),
+  defineLayer<Sample>({
+    kind: "samples",
+    what: "Samples where their position was taken",
+    geometryType: "POINT",
+    optionalZ: true,
+    rows: (d) => d.samples,
+    geometry: (s, t) => point(s.x ?? 0, s.y ?? 0, s.z, t),
+    columns: [
+      { name: "number", type: "INTEGER", value: (s) => s.number },
+      { name: "trench", type: "TEXT", value: (s) => s.trenchCode },
+      { name: "context", type: "INTEGER", value: (s) => s.contextNumber },
+      { name: "type", type: "TEXT", value: (s) => s.type },
+      { name: "rl", type: "REAL", value: (s) => s.z },
+      { name: "volume_l", type: "REAL", value: (s) => s.volumeL },
+      { name: "purpose", type: "TEXT", value: (s) => s.purpose },
+      { name: "status", type: "TEXT", value: (s) => s.status },
+      { name: "taken_on", type: "DATE", value: (s) => s.takenOn },
+    ],
+  }),
+];
 
 const SUFFIX: Record<CoordSpace, string> = { grid: "site_grid", crs: "projected", lonlat: "wgs84" };
 
-/** The four layers (trenches, context extents, finds, samples) in one coordinate space. */
-function layersIn(site: Site, space: CoordSpace, srs: GpkgSrs, d: GisData): GpkgLayer[] {
+/** The layers of the table in one coordinate space. */
+function layersIn(site: Site, space: CoordSpace, srs: GpkgSrs, d: GisData, defs: LayerDef[]): GpkgLayer[] {
   const t = makeTransform(site, space);
-  const where = `${site.code}, in ${srs.name}`;
-  const layer = (kind: string, what: string, rest: Omit<GpkgLayer, "name" | "description" | "srsId">): GpkgLayer => ({
-    name: `${kind}_${SUFFIX[space]}`,
-    description: `${what} of ${where}`,
-    srsId: srs.srsId,
+  return defs.map(({ kind, what, features, ...rest }) => ({
     ...rest,
-  });
-  return [
-    layer("trenches", "Trench outlines (baulks as holes)", {
-      geometryType: "POLYGON",
-      optionalZ: false,
-      fields: [
-        { name: "code", type: "TEXT" },
-        { name: "name", type: "TEXT" },
-        { name: "signed_off", type: "BOOLEAN" },
-      ],
-      features: withGeometry(
-        d.trenches.map((tr) => {
-          const geometry = polygon(tr.outline, t);
-          return geometry && { geometry, properties: { code: tr.code, name: tr.name, signed_off: !!tr.signedOffAt } };
-        }),
-      ),
-    }),
-    layer("contexts", "Context extents", {
-      geometryType: "POLYGON",
-      optionalZ: false,
-      fields: [
-        { name: "number", type: "INTEGER" },
-        { name: "trench", type: "TEXT" },
-        { name: "type", type: "TEXT" },
-        { name: "state", type: "TEXT" },
-      ],
-      features: withGeometry(
-        d.contexts.map((c) => {
-          const geometry = polygon(c.extent, t);
-          return (
-            geometry && {
-              geometry,
-              properties: { number: c.number, trench: c.trenchCode, type: c.type, state: c.state },
-            }
-          );
-        }),
-      ),
-    }),
-    layer("finds", "Finds (z and rl: reduced level, metres against the site datum)", {
-      geometryType: "POINT",
-      optionalZ: true,
-      fields: [
-        { name: "number", type: "INTEGER" },
-        { name: "trench", type: "TEXT" },
-        { name: "context", type: "INTEGER" },
-        { name: "class", type: "TEXT" },
-        { name: "class_label", type: "TEXT" },
-        { name: "rl", type: "REAL" },
-        { name: "count", type: "INTEGER" },
-        { name: "weight_g", type: "REAL" },
-        { name: "description", type: "TEXT" },
-        { name: "recorded_at", type: "DATETIME" },
-      ],
-      features: each(d.finds(), (f): GpkgFeature => {
-        const [x, y] = t(f.x, f.y);
-        return {
-          geometry: { type: "Point", x, y, z: f.z },
-          properties: {
-            number: f.number,
-            trench: f.trenchCode,
-            context: f.contextNumber,
-            class: f.classCode,
-            class_label: f.classLabel,
-            rl: f.z,
-            count: f.count,
-            weight_g: f.weightG,
-            description: f.description,
-            recorded_at: f.recordedAt.toISOString(),
-          },
-        };
-      }),
-    }),
-    layer("samples", "Samples where their position was taken", {
-      geometryType: "POINT",
-      optionalZ: true,
-      fields: [
-        { name: "number", type: "INTEGER" },
-        { name: "trench", type: "TEXT" },
-        { name: "context", type: "INTEGER" },
-        { name: "type", type: "TEXT" },
-        { name: "rl", type: "REAL" },
-        { name: "volume_l", type: "REAL" },
-        { name: "purpose", type: "TEXT" },
-        { name: "status", type: "TEXT" },
-        { name: "taken_on", type: "DATE" },
-      ],
-      features: d.samples.map((s) => {
-        const [x, y] = t(s.x ?? 0, s.y ?? 0);
-        return {
-          geometry: { type: "Point", x, y, z: s.z },
-          properties: {
-            number: s.number,
-            trench: s.trenchCode,
-            context: s.contextNumber,
-            type: s.type,
-            rl: s.z,
-            volume_l: s.volumeL,
-            purpose: s.purpose,
-            status: s.status,
-            taken_on: s.takenOn,
-          },
-        };
-      }),
-    }),
-  ];
+    name: `${kind}_${SUFFIX[space]}`,
+    description: `${what} of ${site.code}, in ${srs.name}`,
+    srsId: srs.srsId,
+    features: features(d, t),
+  }));
 }
 
 /**
@@ -186,11 +208,10 @@ export async function siteGeoPackage(
     if (projected) spaces.push(["crs", projected]);
     spaces.push(["lonlat", WGS84_SRS]);
   }
+  const defs = LAYERS.filter((l) => withFinds || l.kind !== "finds");
   return writeGeoPackage(
     spaces.map(([, srs]) => srs),
-    spaces.flatMap(([space, srs]) =>
-      layersIn(site, space, srs, data).filter((l) => withFinds || !l.name.startsWith("finds_")),
-    ),
+    spaces.flatMap(([space, srs]) => layersIn(site, space, srs, data, defs)),
   );
 }
 
