@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { PrintButton } from "@/components/sign-off/print-button";
+import { formatWhen } from "@/lib/words/when";
 
 /** A string as a CSS string literal's contents: no quote, backslash, line break or markup can break out. */
 function cssText(s: string): string {
@@ -15,18 +16,20 @@ function cssText(s: string): string {
 export function PrintedPage({
   site,
   title,
-  printedAt,
+  locale,
   back,
   testId,
   children,
 }: {
   site: { code: string; name: string };
   title: string;
-  printedAt: string;
+  /** The reader's locale: the time of printing is written in it. */
+  locale: string;
   back: { href: string; label: string };
   testId: string;
   children: ReactNode;
 }) {
+  const printedAt = formatWhen(new Date(), locale);
   const page = `@media print { @page { size: A4; margin: 16mm 12mm 14mm;
   @top-left { content: "${cssText(`${site.code} ${site.name}`)}"; font-size: 9pt; }
   @top-right { content: "${cssText(title)}"; font-size: 9pt; }
@@ -59,5 +62,30 @@ export function SignOffMark({ signedOff }: { signedOff: boolean }) {
     <span className="whitespace-nowrap text-xs">signed off</span>
   ) : (
     <strong className="printed-unsigned whitespace-nowrap text-xs">NOT SIGNED OFF</strong>
+  );
+}
+
+/**
+ * The count that opens a printed register: how many records and how many of them not yet signed off, then
+ * `note` (the sentence goes on) or a full stop.
+ */
+export function PrintedTally({
+  rows,
+  noun,
+  note,
+}: {
+  rows: readonly { signedOff: boolean }[];
+  noun: string;
+  note?: ReactNode;
+}) {
+  const unsigned = rows.filter((r) => !r.signedOff).length;
+  return (
+    <p>
+      <span className="num">{rows.length}</span> {noun};{" "}
+      <strong data-unsigned={unsigned}>
+        <span className="num">{unsigned}</span> not signed off
+      </strong>
+      {note ? <> {note}</> : "."}
+    </p>
   );
 }

@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import { PrintedPage, SignOffMark } from "@/components/print/printed-page";
+import { metres as m, PrintedTable } from "@/components/print/printed-table";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
-import { formatDay, formatWhen } from "@/lib/words/when";
+import { formatDay } from "@/lib/words/when";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Level book to print" };
 
-const m = (v: number | null) => (v === null ? "" : v.toFixed(3));
 const mm = (v: number) => `${v >= 0 ? "+" : "−"}${Math.abs(v * 1000).toFixed(0)} mm`;
 
 /**
@@ -24,7 +24,7 @@ export default async function PrintedLevelBookPage({ params }: { params: Promise
     <PrintedPage
       site={s}
       title="Level book"
-      printedAt={formatWhen(new Date(), locale)}
+      locale={locale}
       back={{ href: `/sites/${siteId}/levels`, label: "Back to the level book" }}
       testId="printed-levels"
     >
@@ -37,34 +37,20 @@ export default async function PrintedLevelBookPage({ params }: { params: Promise
         <h2 id="bm-h" className="text-xl font-bold">
           Temporary benchmarks
         </h2>
-        <table className="ledger printed-table" aria-label="Benchmarks">
-          <thead>
-            <tr>
-              <th scope="col">Code</th>
-              <th scope="col">Description</th>
-              <th scope="col" className="num">
-                x (m)
-              </th>
-              <th scope="col" className="num">
-                y (m)
-              </th>
-              <th scope="col" className="num">
-                RL (m)
-              </th>
+        <PrintedTable
+          label="Benchmarks"
+          columns={["Code", "Description", { num: "x (m)" }, { num: "y (m)" }, { num: "RL (m)" }]}
+        >
+          {book.benchmarks.map((b) => (
+            <tr key={b.id}>
+              <td>{b.code}</td>
+              <td>{b.description}</td>
+              <td className="num">{m(b.x)}</td>
+              <td className="num">{m(b.y)}</td>
+              <td className="num font-bold">{m(b.level)}</td>
             </tr>
-          </thead>
-          <tbody>
-            {book.benchmarks.map((b) => (
-              <tr key={b.id}>
-                <td>{b.code}</td>
-                <td>{b.description}</td>
-                <td className="num">{m(b.x)}</td>
-                <td className="num">{m(b.y)}</td>
-                <td className="num font-bold">{m(b.level)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </PrintedTable>
       </section>
       {book.runs.length === 0 && <p>No levelling runs booked yet.</p>}
       {book.runs.map((run) => (
@@ -82,49 +68,35 @@ export default async function PrintedLevelBookPage({ params }: { params: Promise
             <SignOffMark signedOff={run.signedOff} />
           </h2>
           <p className="text-sm">Booked by {run.recordedBy ?? "—"}</p>
-          <table className="ledger printed-table" aria-label={`Level book, run of ${run.takenOn}`}>
-            <thead>
-              <tr>
-                <th scope="col" className="num">
-                  Line
-                </th>
-                <th scope="col">Station</th>
-                <th scope="col" className="num">
-                  BS
-                </th>
-                <th scope="col" className="num">
-                  IS
-                </th>
-                <th scope="col" className="num">
-                  FS
-                </th>
-                <th scope="col" className="num">
-                  HPC
-                </th>
-                <th scope="col" className="num">
-                  RL (m)
-                </th>
-                <th scope="col">Remarks</th>
+          <PrintedTable
+            label={`Level book, run of ${run.takenOn}`}
+            columns={[
+              { num: "Line" },
+              "Station",
+              { num: "BS" },
+              { num: "IS" },
+              { num: "FS" },
+              { num: "HPC" },
+              { num: "RL (m)" },
+              "Remarks",
+            ]}
+          >
+            {run.lines.map((l, i) => (
+              <tr key={i} data-line={i + 1}>
+                <td className="num">{i + 1}</td>
+                <td>{l.station}</td>
+                <td className="num">{m(l.backsight)}</td>
+                <td className="num">{m(l.intermediate)}</td>
+                <td className="num">{m(l.foresight)}</td>
+                <td className="num">{m(l.collimation)}</td>
+                <td className="num font-bold">{m(l.level)}</td>
+                <td>
+                  {l.backsight !== null && l.foresight !== null ? "change point" : ""}
+                  {l.flagged ? " ⚑ run outside tolerance" : ""}
+                </td>
               </tr>
-            </thead>
-            <tbody>
-              {run.lines.map((l, i) => (
-                <tr key={i} data-line={i + 1}>
-                  <td className="num">{i + 1}</td>
-                  <td>{l.station}</td>
-                  <td className="num">{m(l.backsight)}</td>
-                  <td className="num">{m(l.intermediate)}</td>
-                  <td className="num">{m(l.foresight)}</td>
-                  <td className="num">{m(l.collimation)}</td>
-                  <td className="num font-bold">{m(l.level)}</td>
-                  <td>
-                    {l.backsight !== null && l.foresight !== null ? "change point" : ""}
-                    {l.flagged ? " ⚑ run outside tolerance" : ""}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </PrintedTable>
           <p className="text-sm" data-check>
             Check: ΣBS <span className="num">{m(run.sumBacksights)}</span> − ΣFS{" "}
             <span className="num">{m(run.sumForesights)}</span> = <span className="num">{m(run.rise)}</span>; last RL −
