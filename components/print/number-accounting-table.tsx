@@ -39,49 +39,62 @@ export function NumberAccountingTable({ accounting: a }: { accounting: SequenceA
             </div>
           ))}
       </dl>
-      {a.overlaps.length > 0 && (
-        <p role="alert" className="font-semibold text-warn">
-          Numbers counted twice (this should never happen; tell the site director):{" "}
-          <span className="num">{a.overlaps.join(", ")}</span>
-        </p>
-      )}
-      {a.ranges.length > 0 && (
-        <table className="ledger printed-table" aria-label="Number accounting">
-          <thead>
-            <tr>
-              <th scope="col">Numbers</th>
-              <th scope="col" className="num">
-                How many
-              </th>
-              <th scope="col">Status</th>
-              <th scope="col">Held by</th>
-              <th scope="col">Why</th>
-            </tr>
-          </thead>
-          <tbody>
-            {a.ranges.map((r, i) => (
-              <tr key={i} data-first={r.first} data-last={r.last} data-status={r.status}>
-                <NumberRangeCells range={r} />
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      )}
+      <NumberOverlaps overlaps={a.overlaps} />
+      {a.ranges.length > 0 && <NumberRangesTable ranges={a.ranges} className="ledger printed-table" />}
     </section>
   );
 }
 
-/** One range's cells: the numbers, how many, their status, who holds them, why — on screen and on paper. */
-export function NumberRangeCells({ range: r }: { range: NumberRange }) {
+/** Numbers the accounting found counted twice, which should never happen: said aloud where there are any. */
+export function NumberOverlaps({ overlaps }: { overlaps: readonly number[] }) {
+  if (overlaps.length === 0) return null;
   return (
-    <>
-      <td className="num">{r.first === r.last ? r.first : `${r.first}–${r.last}`}</td>
-      <td className="num text-right">{r.last - r.first + 1}</td>
-      <td className={r.status === "void" || r.status === "reserved" ? "font-semibold" : ""}>
-        {numberStatusWords[r.status]}
-      </td>
-      <td>{numberHolder(r)}</td>
-      <td>{numberReason(r)}</td>
-    </>
+    <p role="alert" className="font-semibold text-warn">
+      Numbers counted twice (this should never happen; tell the site director):{" "}
+      <span className="num">{overlaps.join(", ")}</span>
+    </p>
+  );
+}
+
+/**
+ * Every run of numbers, one row a run: the numbers, how many, their status, who holds them and why — on
+ * screen and on paper, each with its own table and row style.
+ */
+export function NumberRangesTable({
+  ranges,
+  className,
+  rowClassName,
+}: {
+  ranges: readonly NumberRange[];
+  className: string;
+  rowClassName?: string;
+}) {
+  return (
+    <table className={className} aria-label="Number accounting">
+      <thead>
+        <tr className="text-left">
+          <th scope="col">Numbers</th>
+          <th scope="col" className="num text-right">
+            How many
+          </th>
+          <th scope="col">Status</th>
+          <th scope="col">Held by</th>
+          <th scope="col">Why</th>
+        </tr>
+      </thead>
+      <tbody>
+        {ranges.map((r, i) => (
+          <tr key={i} className={rowClassName} data-first={r.first} data-last={r.last} data-status={r.status}>
+            <td className="num">{r.first === r.last ? r.first : `${r.first}–${r.last}`}</td>
+            <td className="num text-right">{r.last - r.first + 1}</td>
+            <td className={r.status === "void" || r.status === "reserved" ? "font-semibold" : ""}>
+              {numberStatusWords[r.status]}
+            </td>
+            <td>{numberHolder(r)}</td>
+            <td>{numberReason(r)}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

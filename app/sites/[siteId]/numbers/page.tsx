@@ -3,7 +3,7 @@ import { SiteNav } from "@/components/site-nav";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { numberAccountingQuery } from "@/lib/schemas/number-blocks";
 import { numberStatusOrder as order, numberStatusWords as statusWords } from "@/components/print/accounting-words";
-import { NumberRangeCells } from "@/components/print/number-accounting-table";
+import { NumberOverlaps, NumberRangesTable } from "@/components/print/number-accounting-table";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
 import { formatWhen } from "@/lib/words/when";
@@ -59,41 +59,15 @@ export default async function NumberAccountingPage({
               </div>
             ))}
         </dl>
-        {a.overlaps.length > 0 && (
-          <p role="alert" className="font-semibold text-warn">
-            Numbers counted twice (this should never happen; tell the site director):{" "}
-            <span className="num">{a.overlaps.join(", ")}</span>
-          </p>
-        )}
+        <NumberOverlaps overlaps={a.overlaps} />
         {a.ranges.length === 0 ? (
           <p className="text-ink-soft">No number has been handed out yet.</p>
         ) : (
-          <table className="w-full text-sm">
-            <thead>
-              <tr className="text-left">
-                <th scope="col">Numbers</th>
-                <th scope="col" className="text-right">
-                  How many
-                </th>
-                <th scope="col">Status</th>
-                <th scope="col">Held by</th>
-                <th scope="col">Why</th>
-              </tr>
-            </thead>
-            <tbody>
-              {a.ranges.map((r, i) => (
-                <tr
-                  key={i}
-                  className="border-t border-paper-edge align-top"
-                  data-first={r.first}
-                  data-last={r.last}
-                  data-status={r.status}
-                >
-                  <NumberRangeCells range={r} />
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <NumberRangesTable
+            ranges={a.ranges}
+            className="w-full text-sm"
+            rowClassName="border-t border-paper-edge align-top"
+          />
         )}
       </main>
     </>
