@@ -112,6 +112,7 @@ export const boxRecord = z.object({
   note: z.string(),
   updatedAt: wireDate,
 });
+export const deletedBox = z.object({ deleted: id, number: z.number() });
 export const boxPage = z.object({
   page: z.number(),
   pageSize: z.number(),

@@ -58,6 +58,8 @@ const offlineOps: Partial<Record<ApiName, OfflineKind>> = {
   findsBulk: "bulk",
   samplesStatus: "bulk",
   samplesStore: "bulk",
+  // A box made by mistake is deleted where it was noticed; the server refuses it on arrival if it holds anything.
+  boxDelete: "delete",
 };
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
@@ -229,6 +231,7 @@ function recordWord(operation: string): string {
   if (operation.startsWith("context")) return "context";
   if (operation.startsWith("square")) return "square record";
   if (operation.startsWith("spit")) return "spit";
+  if (operation.startsWith("box")) return "box";
   return "relation";
 }
 

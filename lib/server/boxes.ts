@@ -5,6 +5,7 @@ import { artefactClasses, boxes, contexts, finds, samples, sites, trenches, type
 import { isUuid } from "@/lib/schemas/common";
 import type { BoxCreate, BoxListQuery, BoxUpdate, SamplesStore } from "@/lib/schemas/processing";
 import { sampleTypeLabels } from "@/lib/schemas/sample";
+import { countOf } from "@/lib/words/count";
 import { recordAudit } from "./audit";
 import { PublicError, badInput, conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
@@ -105,6 +106,46 @@ export async function updateBox(db: Db, actor: SiteActor, boxId: string, input: 
       after,
     });
     return after!;
+  });
+}
+
+/**
+ * Deletes a box made by mistake. Only an empty box goes: a box that still holds finds or samples is refused,
+ * saying how many, because deleting it would lose where they are kept. Its number is free again (boxes are
+ * numbered for the store's shelves, not accounted like finds). The box row's lock keeps a find from being put
+ * in it while it is checked.
+ */
+export async function deleteBox(db: Db, actor: SiteActor, boxId: string) {
+  return db.transaction(async (tx) => {
+    const before = await getBox(tx, actor.site.id, boxId);
+    await tx.select({ id: boxes.id }).from(boxes).where(eq(boxes.id, before.id)).for("update");
+    const [[inFinds], [inSamples]] = await Promise.all([
+      tx.select({ n: count() }).from(finds).where(eq(finds.boxId, before.id)),
+      tx.select({ n: count() }).from(samples).where(eq(samples.boxId, before.id)),
+    ]);
+    const held = { finds: inFinds?.n ?? 0, samples: inSamples?.n ?? 0 };
+    if (held.finds || held.samples) {
+      const what = [held.finds && countOf(held.finds, "find"), held.samples && countOf(held.samples, "sample")].filter(
+        Boolean,
+      );
+      throw conflict(
+        `Box ${before.number} still holds ${what.join(" and ")}; only an empty box can be deleted. Move ${
+          held.finds + held.samples === 1 ? "it" : "them"
+        } to another box first, then delete the box.`,
+        held,
+        "conflict",
+      );
+    }
+    await tx.delete(boxes).where(eq(boxes.id, before.id));
+    await recordAudit(tx, {
+      siteId: actor.site.id,
+      actorId: actor.userId,
+      action: "delete",
+      recordType: "box",
+      recordId: before.id,
+      before,
+    });
+    return { deleted: before.id, number: before.number };
   });
 }
 

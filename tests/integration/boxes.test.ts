@@ -229,6 +229,61 @@ describe("the box register", () => {
   });
 });
 
+describe("deleting a box", () => {
+  it("an empty box made by mistake is deleted by any role that adds boxes, audited; its number is free again", async () => {
+    const fx = await makeSite();
+    for (const role of ["digger", "specialist", "director"] as const) {
+      const box = await newBox(fx);
+      session.userId = fx.people[role].id;
+      const res = await call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: box.id });
+      expect(res.status, `${role}: ${JSON.stringify(res.json)}`).toBe(200);
+      expect(res.json).toEqual({ deleted: box.id, number: 1 });
+      expect((await call(boxRoute, "GET", { siteId: fx.site.id, boxId: box.id })).status).toBe(404);
+      const [entry] = await auditOf([box.id], "delete");
+      expect(entry).toMatchObject({ actorId: fx.people[role].id, recordType: "box" });
+      expect((entry!.before as { number: number; store: string }).store).toBe("Finds store, bay 3");
+    }
+  });
+
+  it("a box still holding finds or samples is refused, saying how many; nothing is deleted", async () => {
+    const fx = await makeSite();
+    const box = await newBox(fx);
+    const picked = [await find(fx, 81), await find(fx, 82)];
+    const s = await sample(fx, 83);
+    session.userId = fx.people.digger.id;
+    await process(fx, { findIds: picked.map((f) => f.id), processing: "boxed", boxId: box.id });
+    await call(samplesStoreRoute, "POST", { siteId: fx.site.id }, { sampleIds: [s.id], boxId: box.id });
+    const res = await call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: box.id });
+    expect(res.status).toBe(409);
+    expect(res.json.error).toBe(
+      "Box 1 still holds 2 finds and 1 sample; only an empty box can be deleted. Move them to another box first, then delete the box.",
+    );
+    expect(res.json.details).toEqual({ finds: 2, samples: 1 });
+    expect(await auditOf([box.id], "delete")).toHaveLength(0);
+    // Emptied with the bulk tools, it goes.
+    const other = await newBox(fx);
+    session.userId = fx.people.digger.id;
+    expect((await process(fx, { findIds: picked.map((f) => f.id), boxId: other.id })).status).toBe(200);
+    const one = await call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: box.id });
+    expect(one.json.error).toBe(
+      "Box 1 still holds 1 sample; only an empty box can be deleted. Move it to another box first, then delete the box.",
+    );
+    await call(samplesStoreRoute, "POST", { siteId: fx.site.id }, { sampleIds: [s.id], boxId: null });
+    expect((await call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: box.id })).status).toBe(200);
+  });
+
+  it("a box of another site is not found, and a stranger deletes nothing", async () => {
+    const [fx, other] = [await makeSite(), await makeSite()];
+    const theirs = await newBox(other);
+    session.userId = fx.people.director.id;
+    expect((await call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: theirs.id })).status).toBe(404);
+    session.userId = fx.people.stranger.id;
+    expect((await call(boxRoute, "DELETE", { siteId: other.site.id, boxId: theirs.id })).status).toBe(404);
+    const db = await getDb();
+    expect(await db.select().from(schema.boxes).where(eq(schema.boxes.id, theirs.id))).toHaveLength(1);
+  });
+});
+
 describe("select all that match", () => {
   it("gives the ids of every find the register's filters select, across pages", async () => {
     const fx = await makeSite();

@@ -23,6 +23,7 @@ import {
   boxPage,
   boxRecord,
   boxWithContents,
+  deletedBox,
   findIdsAnswer,
   samplesStored,
   bulkDone,
@@ -254,5 +255,14 @@ export const archiveApi = {
     doing: "change boxes",
     input: boxUpdateSchema,
     response: boxRecord,
+  },
+  boxDelete: {
+    method: "DELETE",
+    path: "/api/sites/{siteId}/boxes/{boxId}",
+    summary: "Delete an empty box (one made by mistake); a box still holding finds or samples is refused",
+    roles: everyone,
+    doing: "delete boxes",
+    from: "none",
+    response: deletedBox,
   },
 } as const satisfies Record<string, ApiOperation>;

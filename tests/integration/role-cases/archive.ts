@@ -165,4 +165,8 @@ export const archiveCases: RoleCases = {
     const b = await makeBox(fx);
     return { mod: boxRoute, params: { siteId: fx.site.id, boxId: b.id }, body: { store: "Museum store, shelf 4" } };
   },
+  boxDelete: async (fx) => {
+    const b = await makeBox(fx);
+    return { mod: boxRoute, params: { siteId: fx.site.id, boxId: b.id } };
+  },
 };

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { BoxDelete } from "@/components/boxes/box-delete";
 import { BoxForm } from "@/components/boxes/box-form";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
@@ -109,6 +110,11 @@ export default async function BoxPage({ params }: { params: Promise<{ siteId: st
             </table>
           )}
         </section>
+        <BoxDelete
+          siteId={siteId}
+          box={{ id: box.id, number: box.number }}
+          holds={{ finds: box.finds.length, samples: box.samples.length }}
+        />
       </main>
     </>
   );

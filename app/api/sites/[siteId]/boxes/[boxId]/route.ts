@@ -1,5 +1,5 @@
 import { api } from "@/lib/server/api-catalog";
-import { readBox, updateBox } from "@/lib/server/boxes";
+import { deleteBox, readBox, updateBox } from "@/lib/server/boxes";
 import { siteActor } from "@/lib/server/guard";
 import { guardedRoute } from "@/lib/server/http";
 
@@ -7,3 +7,4 @@ export const GET = guardedRoute(api.boxRead, (ctx) => readBox(ctx.db, siteActor(
 export const PATCH = guardedRoute(api.boxUpdate, (ctx) =>
   updateBox(ctx.db, siteActor(ctx), ctx.params.boxId, ctx.input),
 );
+export const DELETE = guardedRoute(api.boxDelete, (ctx) => deleteBox(ctx.db, siteActor(ctx), ctx.params.boxId));
