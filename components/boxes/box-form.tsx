@@ -4,9 +4,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
 
+const isPending = (answer: unknown) => (answer as { pending?: boolean } | null)?.pending === true;
+
 /**
  * A box's entry: its number (the next free one when left blank on a new box), the store it is kept in and a
- * note. Adds a box, or changes one when `box` is given.
+ * note. Adds a box, or changes one when `box` is given; through the device's write path, so with no connection
+ * the box waits in the outbox.
  */
 export function BoxForm({
   siteId,
@@ -28,24 +31,36 @@ export function BoxForm({
     setFailed(null);
     setSaid(null);
     try {
+      let pending = false;
       if (box) {
-        await apiClient.call("boxUpdate", { siteId, boxId: box.id }, {
+        const saved = await apiClient.call("boxUpdate", { siteId, boxId: box.id }, {
           ...(number.trim() && { number: number.trim() }),
           store,
           note,
         } as never);
-        setSaid("Saved.");
+        pending = isPending(saved);
+        setSaid(
+          pending
+            ? "No connection: the change waits on this device and is sent when the connection is back."
+            : "Saved.",
+        );
       } else {
         const made = await apiClient.call("boxesCreate", { siteId }, {
           ...(number.trim() && { number: number.trim() }),
           store,
           note,
         } as never);
-        setSaid(`Box ${made.number} added.`);
+        pending = isPending(made);
+        setSaid(
+          pending
+            ? `No connection: ${made.number ? `box ${made.number}` : "the new box"} waits on this device and is added when the connection is back${made.number ? "" : " (it takes the next number then)"}.`
+            : `Box ${made.number} added.`,
+        );
         setNumber("");
         setNote("");
       }
-      router.refresh();
+      // Offline, reading the page again would fail and lose what is on screen; the sync refreshes it later.
+      if (!pending) router.refresh();
     } catch (err) {
       if (err instanceof ApiError) setFailed(err);
       else throw err;

@@ -55,3 +55,76 @@ describe("deleting a box on a device with no connection", () => {
     expect(held).toMatchObject({ state: "attention", refusal: { status: 409, message: words, code: "conflict" } });
   });
 });
+
+describe("adding a box on a device with no connection", () => {
+  const findIds = ["6e7f8a9b-0c1d-4e2f-8a3b-4c5d6e7f8a9b"];
+
+  it("waits in the outbox and takes the next number when it reaches the server", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { store: "Finds shed, shelf 2" }))) as {
+      id: string;
+    };
+    expect(made).toEqual({ id: made.id, number: null, store: "Finds shed, shelf 2", note: "", pending: true });
+    const [entry] = await outbox.all();
+    expect(entry).toMatchObject({ operation: "boxesCreate", label: "new box", localId: made.id });
+    expect(JSON.parse(entry!.body!)).toEqual({ store: "Finds shed, shelf 2" });
+    expect(worksOffline("boxesCreate") && worksOffline("boxUpdate")).toBe(true);
+    const s = server();
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 1, refused: 0, stopped: "done" });
+    expect(s.seen.map((r) => [r.operation, r.url])).toEqual([["boxesCreate", `/api/sites/${siteId}/boxes`]]);
+    expect(await outbox.serverIdOf(made.id)).toBeTruthy();
+  });
+
+  it("finds boxed in it on the device wait for it, then go under the box's server id", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { number: 12 } as never))) as { id: string };
+    expect(made).toMatchObject({ number: 12, pending: true });
+    await write(
+      buildRequest("findsBulk", { siteId }, { action: "process", findIds, processing: "boxed", boxId: made.id }),
+    );
+    expect((await outbox.all()).map((e) => e.label)).toEqual(["box 12", "process 1 find"]);
+    const s = server();
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 2, refused: 0, stopped: "done" });
+    const serverId = await outbox.serverIdOf(made.id);
+    expect(JSON.parse(s.seen[1]!.body!).boxId).toBe(serverId);
+  });
+
+  it("changed or deleted before it is sent, the queued box is changed or dropped: nothing reaches the server twice", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { store: "Shed" }))) as { id: string };
+    await write(buildRequest("boxUpdate", { siteId, boxId: made.id }, { note: "pottery only" }));
+    expect((await outbox.all()).map((e) => JSON.parse(e.body!))).toEqual([{ store: "Shed", note: "pottery only" }]);
+    expect(await write(buildRequest("boxDelete", { siteId, boxId: made.id }))).toMatchObject({
+      deleted: made.id,
+      pending: true,
+    });
+    expect(await outbox.all()).toEqual([]);
+  });
+
+  it("a number taken meanwhile is refused on arrival and waits in needs attention; finds boxed in it wait too", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { number: 3 } as never))) as { id: string };
+    await write(
+      buildRequest("findsBulk", { siteId }, { action: "process", findIds, processing: "boxed", boxId: made.id }),
+    );
+    const s = server((req) =>
+      req.operation === "boxesCreate"
+        ? new ApiError("Box 3 is already in the register.", 409, { number: ["Box 3 exists."] }, undefined, "duplicate")
+        : null,
+    );
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 0, refused: 1, stopped: "done" });
+    const [held, waiting] = await outbox.all();
+    expect(held).toMatchObject({ label: "box 3", state: "attention", refusal: { code: "duplicate" } });
+    expect(waiting).toMatchObject({ label: "process 1 find" });
+    expect(waiting!.state).not.toBe("attention");
+    expect(s.seen.map((r) => r.operation)).toEqual(["boxesCreate"]);
+  });
+
+  it("online with nothing waiting, a new box is sent at once with an idempotency key", async () => {
+    const s = server();
+    const write = createWritePath({ outbox, online: () => true, send: s.send });
+    await write(buildRequest("boxesCreate", { siteId }, { store: "Shed" }));
+    expect(s.seen[0]!.headers["idempotency-key"]).toMatch(/^[0-9a-f-]{36}$/);
+    expect((await outbox.count()).waiting).toBe(0);
+  });
+});

@@ -58,6 +58,10 @@ const offlineOps: Partial<Record<ApiName, OfflineKind>> = {
   findsBulk: "bulk",
   samplesStatus: "bulk",
   samplesStore: "bulk",
+  // Boxes are added and changed in the finds shed, often out of reach of a signal. A new box takes the next
+  // number when it reaches the server unless one was given (a number taken meanwhile is refused then).
+  boxesCreate: "create",
+  boxUpdate: "edit",
   // A box made by mistake is deleted where it was noticed; the server refuses it on arrival if it holds anything.
   boxDelete: "delete",
 };
@@ -89,7 +93,7 @@ function pathIds(url: string): { siteId: string; recordId: string } {
 
 const needsConnection = (req: ApiRequest) =>
   new ApiError(
-    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations, counts by square, spits and levelling runs works offline, and so do changes to many finds or samples at once.`,
+    `This change (${req.operation}) needs a connection to the server; it was not made. Recording finds, context sheets, relations, counts by square, spits and levelling runs works offline, and so do changes to many finds or samples at once and the box register.`,
     0,
   );
 
@@ -159,6 +163,16 @@ async function queue(deps: WritePathDeps, req: ApiRequest, kind: OfflineKind): P
       });
       const contextId = spit ? (new URL(req.url, "http://device").pathname.split("/")[5] ?? "") : undefined;
       return { id: localId, ...(spit && { contextId, topLevel: null, baseLevel: null }), ...body, pending: true };
+    }
+    if (req.operation === "boxesCreate") {
+      const number = typeof body.number === "number" || typeof body.number === "string" ? Number(body.number) : null;
+      await outbox.add({
+        ...base,
+        localId,
+        body: JSON.stringify(body),
+        label: number === null ? "new box" : `box ${number}`,
+      });
+      return { id: localId, store: "", note: "", ...body, number, pending: true };
     }
     const numberKind = req.operation === "findsCreate" ? "find" : "context";
     if (body.number === undefined || body.number === null || body.number === "") {
