@@ -5,8 +5,9 @@ import { env } from "@/lib/env";
 import { makeBackup } from "@/lib/server/backup/backup";
 
 /**
- * `npm run backup -- FILE` (after `npm run build`, which compiles it to dist/backup.mjs): the whole database
- * and the uploaded files store in one archive with a manifest of SHA-256 digests. With the embedded database
+ * `npm run backup -- FILE` (after `npm run build`, which compiles it to dist/backup.mjs): the whole database,
+ * the uploaded files store and every photo original (fetched from the upload service the UPLOADTHING_*
+ * settings name) in one archive with a manifest of SHA-256 digests. With the embedded database
  * stop the server first: only one process may open its data folder.
  */
 const file = process.argv[2];
@@ -47,6 +48,12 @@ try {
   console.log(`Backup written to ${target}`);
   console.log(`  database: ${manifest.engine}, ${Object.keys(manifest.rows).length} tables, ${rows} rows`);
   console.log(`  files: ${files} from ${path.resolve(LOAMWORK_FILES_DIR)}`);
+  const originals = manifest.originals ?? [];
+  const megabytes = (originals.reduce((a, o) => a + o.bytes, 0) / 1048576).toFixed(1);
+  const seeded = manifest.seededPhotos
+    ? ` (and ${manifest.seededPhotos} photo(s) the demo seed made, which have none)`
+    : "";
+  console.log(`  photo originals: ${originals.length} from the upload service, ${megabytes} MB${seeded}`);
 } catch (err) {
   await closeDb().catch(() => undefined);
   console.error(`Backup failed: ${(err as Error).message}`);

@@ -7,8 +7,8 @@ import { BackupRefused } from "@/lib/server/backup/manifest";
 /**
  * `npm run restore -- FILE` (after `npm run build`, which compiles it to dist/restore.mjs): brings a backup
  * made by `npm run backup` back into a fresh install — the database named by DATABASE_URL or
- * LOAMWORK_DATA_DIR, and the files store LOAMWORK_FILES_DIR, both empty. A damaged archive is refused before
- * anything is written.
+ * LOAMWORK_DATA_DIR, and the files store LOAMWORK_FILES_DIR, both empty — and the photo originals back to the
+ * upload service the UPLOADTHING_* settings name. A damaged archive is refused before anything is written.
  */
 const file = process.argv[2];
 if (!file) {
@@ -26,7 +26,7 @@ if (!DATABASE_URL && LOAMWORK_DATA_DIR === "memory") {
   process.exit(1);
 }
 try {
-  const { manifest, rows, files } = await restoreBackup({
+  const { manifest, rows, files, originals } = await restoreBackup({
     file: source,
     filesDir: LOAMWORK_FILES_DIR,
     database: DATABASE_URL ? { kind: "postgresql", url: DATABASE_URL } : { kind: "pglite", dataDir: LOAMWORK_DATA_DIR },
@@ -35,6 +35,9 @@ try {
   console.log(`Restored the backup of ${manifest.createdAt} from ${source}`);
   console.log(`  database: ${manifest.engine}, ${Object.keys(rows).length} tables, ${total} rows, as backed up`);
   console.log(`  files: ${files} into ${path.resolve(LOAMWORK_FILES_DIR)}`);
+  console.log(
+    `  photo originals: ${originals.uploaded} sent to the upload service, ${originals.kept} already there unchanged`,
+  );
 } catch (err) {
   console.error(err instanceof BackupRefused ? err.message : `Restore failed: ${(err as Error).message}`);
   process.exit(1);

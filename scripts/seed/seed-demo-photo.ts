@@ -3,6 +3,7 @@ import type { Db } from "@/db/client";
 import * as s from "@/db/schema";
 import { makeDerivatives } from "@/lib/server/uploads/derivatives";
 import { photoFolder, saveFile } from "@/lib/server/uploads/file-store";
+import { seededPhotoKey } from "@/lib/server/uploads/remote";
 import { DEMO_SEED, DEMO_SITE_CODE, DEMO_USERS } from "./seed-demo";
 import { demoTrenchPhoto } from "./demo-photo";
 
@@ -45,7 +46,7 @@ export async function seedDemoPhoto(db: Db): Promise<boolean> {
     id,
     siteId: site.id,
     trenchId: trench.id,
-    fileKey: `demo-${id}`,
+    fileKey: seededPhotoKey(id),
     fileName: photo.fileName,
     mimeType: "image/jpeg",
     width: d.width,

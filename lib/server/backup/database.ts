@@ -1,10 +1,12 @@
 import "server-only";
-import { execFile } from "node:child_process";
-import { readdir } from "node:fs/promises";
+import { execFile, spawn } from "node:child_process";
+import { appendFile, readdir, rm } from "node:fs/promises";
+import path from "node:path";
 import { promisify } from "node:util";
 import type { PGlite } from "@electric-sql/pglite";
 import pg from "pg";
 import { BackupRefused } from "./manifest";
+import { rewriteSql, type KeyRewrite } from "./originals";
 
 const run = promisify(execFile);
 
@@ -13,7 +15,7 @@ export type DatabaseSource = { kind: "pglite"; client: PGlite } | { kind: "postg
 /** Where a restore writes it: a fresh embedded data folder, or an empty database on a server. */
 export type DatabaseTarget = { kind: "pglite"; dataDir: string } | { kind: "postgresql"; url: string };
 
-type Queryable = { query: (text: string) => Promise<{ rows: unknown[] }> };
+export type Queryable = { query: (text: string) => Promise<{ rows: unknown[] }> };
 
 const quote = (name: string) => `"${name.replace(/"/g, '""')}"`;
 
@@ -41,15 +43,21 @@ export async function dumpPglite(client: PGlite): Promise<{ bytes: Uint8Array; r
 
 /**
  * pg_dump of the whole database (custom format, no owners or grants, so it restores under another role),
- * taken in the snapshot the rows were counted in: the counts describe exactly what the dump holds.
+ * taken in the snapshot the rows were counted in: the counts describe exactly what the dump holds. `read`
+ * runs in that snapshot too (the photos whose originals the backup fetches).
  */
-export async function dumpPostgres(url: string, outFile: string): Promise<{ rows: Record<string, number> }> {
+export async function dumpPostgres<T>(
+  url: string,
+  outFile: string,
+  read: (db: Queryable) => Promise<T>,
+): Promise<{ rows: Record<string, number>; read: T }> {
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {
     await client.query("begin isolation level repeatable read read only");
     const { rows: snap } = await client.query<{ id: string }>("select pg_export_snapshot() as id");
     const rows = await countRows(client);
+    const got = await read(client);
     await run(
       "pg_dump",
       ["--format=custom", "--no-owner", "--no-privileges", `--snapshot=${snap[0]!.id}`, `--file=${outFile}`, url],
@@ -58,7 +66,7 @@ export async function dumpPostgres(url: string, outFile: string): Promise<{ rows
       throw new Error(`pg_dump failed: ${err.stderr?.trim() || err.message}`);
     });
     await client.query("commit");
-    return { rows };
+    return { rows, read: got };
   } finally {
     await client.end();
   }
@@ -95,39 +103,79 @@ export async function assertFreshTarget(target: DatabaseTarget): Promise<void> {
   }
 }
 
-/** Writes the embedded database's data folder from its dump; returns its rows as restored. */
-export async function loadPglite(dataDir: string, bytes: Uint8Array): Promise<Record<string, number>> {
+/**
+ * Writes the embedded database's data folder from its dump and rewrites the photos' keys at the upload
+ * service in one transaction; returns its rows as restored. On any failure the folder is emptied again.
+ */
+export async function loadPglite(
+  dataDir: string,
+  bytes: Uint8Array,
+  rewrites: KeyRewrite[] = [],
+): Promise<Record<string, number>> {
   const { PGlite } = await import("@electric-sql/pglite");
-  const client = new PGlite(dataDir, { loadDataDir: new Blob([bytes as Uint8Array<ArrayBuffer>]) });
   try {
-    await client.waitReady;
-    return await countRows(client);
-  } finally {
-    await client.close();
+    const client = new PGlite(dataDir, { loadDataDir: new Blob([bytes as Uint8Array<ArrayBuffer>]) });
+    try {
+      await client.waitReady;
+      if (rewrites.length) await client.exec(`begin;\n${rewriteSql(rewrites)}\ncommit;`);
+      return await countRows(client);
+    } finally {
+      await client.close();
+    }
+  } catch (err) {
+    for (const entry of await readdir(dataDir).catch(() => []))
+      await rm(path.join(dataDir, entry), { recursive: true });
+    throw err;
   }
 }
 
-/**
- * pg_restore into the target database in one transaction: a failure leaves it as it was. Objects a fresh
- * install's first start may already have made (empty tables, the migrations' record) are replaced.
- */
-export async function loadPostgres(url: string, dumpFile: string): Promise<Record<string, number>> {
-  await run(
-    "pg_restore",
-    [
-      "--no-owner",
-      "--no-privileges",
-      "--clean",
-      "--if-exists",
-      "--single-transaction",
-      "--exit-on-error",
-      `--dbname=${url}`,
-      dumpFile,
-    ],
-    { maxBuffer: 16 * 1024 * 1024 },
-  ).catch((err: Error & { stderr?: string }) => {
-    throw new Error(`pg_restore failed (the database was left as it was): ${err.stderr?.trim() || err.message}`);
+/** Runs a command, its output discarded, failing with what it wrote to stderr. */
+function runQuiet(cmd: string, args: string[]): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(cmd, args, { stdio: ["ignore", "ignore", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (c: Buffer) => {
+      if (stderr.length < 64 * 1024) stderr += c.toString("utf8");
+    });
+    child.on("error", reject);
+    child.on("close", (code) =>
+      code === 0 ? resolve() : reject(Object.assign(new Error(`${cmd} exited with ${code}`), { stderr })),
+    );
   });
+}
+
+/**
+ * Loads the dump into the target database in one transaction — pg_restore writes it out as SQL, the photos'
+ * key rewrites follow it, and psql runs the whole in a single transaction that stops at the first error: a
+ * failure leaves the database as it was. Objects a fresh install's first start may already have made (empty
+ * tables, the migrations' record) are replaced.
+ */
+export async function loadPostgres(
+  url: string,
+  dumpFile: string,
+  rewrites: KeyRewrite[] = [],
+): Promise<Record<string, number>> {
+  const script = `${dumpFile}.sql`;
+  await run("pg_restore", ["--no-owner", "--no-privileges", "--clean", "--if-exists", `--file=${script}`, dumpFile], {
+    maxBuffer: 16 * 1024 * 1024,
+  }).catch((err: Error & { stderr?: string }) => {
+    throw new Error(`pg_restore could not read the dump (nothing was written): ${err.stderr?.trim() || err.message}`);
+  });
+  try {
+    if (rewrites.length) await appendFile(script, rewriteSql(rewrites));
+    await runQuiet("psql", [
+      "--no-psqlrc",
+      "--quiet",
+      "--single-transaction",
+      "--set=ON_ERROR_STOP=1",
+      `--file=${script}`,
+      `--dbname=${url}`,
+    ]).catch((err: Error & { stderr?: string }) => {
+      throw new Error(`the restore failed (the database was left as it was): ${err.stderr?.trim() || err.message}`);
+    });
+  } finally {
+    await rm(script, { force: true });
+  }
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {

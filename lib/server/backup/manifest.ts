@@ -15,12 +15,31 @@ export type BackupManifest = {
   rows: Record<string, number>;
   /** Every other file of the archive, with its SHA-256 digest (hex) and size. */
   files: { path: string; sha256: string; bytes: number }[];
+  /**
+   * The photo originals fetched from the upload service (each also listed in `files`): which photo, its key
+   * at the service when backed up, and the file under originals/. Absent in backups made before originals
+   * were included.
+   */
+  originals?: {
+    photoId: string;
+    /** The photo as a person finds it: site code, register number or plan underlay, file name, id. */
+    photo: string;
+    fileKey: string;
+    fileName: string;
+    mimeType: string;
+    path: string;
+    sha256: string;
+    bytes: number;
+  }[];
+  /** Photos the demo seed made without an original (nothing to fetch for them). */
+  seededPhotos?: number;
 };
 
 export const MANIFEST = "manifest.json";
 export const PGLITE_DUMP = "database/pglite-data.tar.gz";
 export const POSTGRES_DUMP = "database/postgresql.dump";
 export const FILES = "files";
+export const ORIGINALS = "originals";
 
 /** A backup that cannot be restored as it stands: the message says why, and nothing has been written. */
 export class BackupRefused extends Error {
@@ -99,5 +118,29 @@ export function parseManifest(text: string): BackupManifest {
     throw new BackupRefused("This file is not a Loamwork backup (its manifest.json is not one). Nothing was restored.");
   if (m.engine !== "pglite" && m.engine !== "postgresql")
     throw new BackupRefused(`The backup names an unknown database engine (${String(m.engine)}). Nothing was restored.`);
+  if (m.originals !== undefined) {
+    const listed = new Map(m.files.map((f) => [f.path, f]));
+    const bad = !Array.isArray(m.originals)
+      ? ["originals is not a list"]
+      : m.originals
+          .filter((o) => {
+            const f = listed.get(o?.path);
+            return (
+              typeof o?.photoId !== "string" ||
+              typeof o.fileKey !== "string" ||
+              typeof o.fileName !== "string" ||
+              typeof o.mimeType !== "string" ||
+              !o.path.startsWith(`${ORIGINALS}/`) ||
+              !f ||
+              f.sha256 !== o.sha256 ||
+              f.bytes !== o.bytes
+            );
+          })
+          .map((o) => String(o?.photo ?? o?.path));
+    if (bad.length)
+      throw new BackupRefused(
+        `The backup's manifest.json lists photo originals that do not match its files (${bad.slice(0, 5).join("; ")}): the archive is damaged. Nothing was restored.`,
+      );
+  }
   return m as BackupManifest;
 }

@@ -4,6 +4,7 @@ import os from "node:os";
 import path from "node:path";
 import * as tar from "tar";
 import { assertFreshTarget, loadPglite, loadPostgres, type DatabaseTarget } from "./database";
+import { assertOriginalsCanGoBack, forgetUploads, putOriginalsBack } from "./originals";
 import {
   BackupRefused,
   FILES,
@@ -22,14 +23,16 @@ const engineWords = { pglite: "the embedded database (PGlite)", postgresql: "a P
  * Restores a backup made by makeBackup into a fresh install. Everything is checked before anything is
  * written: the archive unpacks, every file matches its digest in the manifest and none is extra, the
  * database engine is the one the backup was taken from, and the target database and files store are empty.
- * Then the database is loaded (PostgreSQL in one transaction), the files copied, and every table's rows
- * counted against the manifest.
+ * The photo originals then go back to the configured upload service (kept where it still holds them byte
+ * for byte), the database is loaded with the photos' new keys in the same transaction, the files copied, and
+ * every table's rows counted against the manifest.
  */
-export async function restoreBackup(opts: {
-  file: string;
-  filesDir: string;
-  database: DatabaseTarget;
-}): Promise<{ manifest: BackupManifest; rows: Record<string, number>; files: number }> {
+export async function restoreBackup(opts: { file: string; filesDir: string; database: DatabaseTarget }): Promise<{
+  manifest: BackupManifest;
+  rows: Record<string, number>;
+  files: number;
+  originals: { uploaded: number; kept: number };
+}> {
   const work = await mkdtemp(path.join(os.tmpdir(), "loamwork-restore-"));
   try {
     try {
@@ -58,10 +61,20 @@ export async function restoreBackup(opts: {
         `The files store ${opts.filesDir} is not empty: restore into a fresh install (an empty LOAMWORK_FILES_DIR). Nothing was restored.`,
       );
 
-    const rows =
-      opts.database.kind === "pglite"
-        ? await loadPglite(opts.database.dataDir, await readFile(path.join(work, PGLITE_DUMP)))
-        : await loadPostgres(opts.database.url, path.join(work, POSTGRES_DUMP));
+    assertOriginalsCanGoBack(manifest);
+
+    const back = await putOriginalsBack(work, manifest.originals ?? []);
+    let rows: Record<string, number>;
+    try {
+      rows =
+        opts.database.kind === "pglite"
+          ? await loadPglite(opts.database.dataDir, await readFile(path.join(work, PGLITE_DUMP)), back.rewrites)
+          : await loadPostgres(opts.database.url, path.join(work, POSTGRES_DUMP), back.rewrites);
+    } catch (err) {
+      // The database was left as it was: the originals just sent would be nobody's.
+      await forgetUploads(back.uploaded);
+      throw err;
+    }
     const packed = await listFiles(path.join(work, FILES));
     if (packed.length) await cp(path.join(work, FILES), opts.filesDir, { recursive: true });
 
@@ -69,7 +82,12 @@ export async function restoreBackup(opts: {
       .filter(([table, n]) => rows[table] !== n)
       .map(([table, n]) => `${table}: ${rows[table] ?? "missing"} rows restored, ${n} backed up`);
     if (differ.length) throw new Error(`The restored database differs from the backup: ${differ.join("; ")}.`);
-    return { manifest, rows, files: packed.length };
+    return {
+      manifest,
+      rows,
+      files: packed.length,
+      originals: { uploaded: back.uploaded.length, kept: back.kept },
+    };
   } finally {
     await rm(work, { recursive: true, force: true });
   }

@@ -6,10 +6,17 @@ import { UTApi } from "uploadthing/server";
  * its own key (UTApi.generateSignedURL; locally UPLOADTHING_UFS_HOST points it at the stand-in), and
  * members get it only through the member-checked file route.
  */
-async function signedUrl(fileKey: string): Promise<string> {
+export async function signedUrl(fileKey: string): Promise<string> {
   const { ufsUrl } = await new UTApi({ logLevel: "Error" }).generateSignedURL(fileKey, { expiresIn: 60 });
   return ufsUrl;
 }
+
+/**
+ * The key the demo seed gives its invented plan photo, which was never uploaded and so has no original
+ * anywhere. The upload service never issues such a key (its keys hold no "-").
+ */
+export const seededPhotoKey = (photoId: string) => `demo-${photoId}`;
+export const isSeededPhotoKey = (fileKey: string) => fileKey.startsWith("demo-");
 
 /** Fetches the original an upload left at the upload service (the stand-in locally). */
 export async function fetchUpload(fileKey: string, maxBytes: number): Promise<Buffer> {
