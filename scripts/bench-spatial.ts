@@ -9,7 +9,8 @@
  * - where one simulation's time goes (CPU, one thread): drawing the points, sorting them into cells,
  *   preparing each point's edge slots, enumerating pairs, distances and binning, and the edge weights;
  * - the same test with the translation correction (999 simulations at n = 200; beyond, 99 or 19, scaled),
- *   the translation kernel per call and the once-per-run preparation of the window's set covariance;
+ *   the translation kernel per call (WebAssembly and TypeScript), where its time goes, and the once-per-run
+ *   preparation of the window's set covariance;
  * - when Rscript with spatstat is installed, the same work in spatstat with fewer simulations, scaled
  *   per simulation, and the ratio.
  * `--big` adds n = 20,000 (a whole occupation floor): the isotropic test only, with its peak memory.
@@ -94,8 +95,24 @@ async function measure(n: number): Promise<void> {
   const tcu = process.cpuUsage(tc);
   const tableMs = (tcu.user + tcu.system) / 1000;
   const estTr = createTranslationL(win, r, table);
-  if (!estTr) throw new Error("the set covariance was not prepared");
+  const estTrTs = createTranslationL(win, r, table, { kernel: "typescript" });
+  if (!estTr || !estTrTs) throw new Error("the set covariance was not prepared");
+  if (estTr.kernel !== "wasm") throw new Error("the WebAssembly translation pass did not load");
   const translationKernelMs = timeIt(reps, () => estTr.l(x, y, n, out));
+  const translationKernelTsMs = timeIt(reps, () => estTrTs.l(x, y, n, out));
+  // the translation pass taken apart as the isotropic one: sort, enumerate, distances + bins; the rest is
+  // the look-ups in the set covariance
+  const trPart = {
+    bucket: timeIt(reps, () => estTr.part(x, y, n, "bucket")),
+    count: timeIt(reps, () => estTr.part(x, y, n, "count")),
+    bins: timeIt(reps, () => estTr.part(x, y, n, "bins")),
+  };
+  const translationBreakdown = {
+    bucket: trPart.bucket,
+    enumerate: trPart.count - trPart.bucket,
+    bins: trPart.bins - trPart.count,
+    lookups: translationKernelMs - trPart.bins,
+  };
   const t0 = performance.now();
   const pool = createSimulationPool({ threads: 2 });
   const points = Array.from(x, (v, k) => ({ x: v, y: y[k] }));
@@ -129,7 +146,7 @@ async function measure(n: number): Promise<void> {
   writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
   process.stdout.write(
-    `${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, tableMs, translationKernelMs, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`,
+    `${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, tableMs, translationKernelMs, translationKernelTsMs, translationBreakdown, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`,
   );
 }
 
@@ -189,9 +206,11 @@ async function main(): Promise<void> {
     const trCol = tr
       ? `${(((tr.ms / tr.nsim) * NSIM) / 1000).toFixed(1)} s${tr.nsim !== NSIM ? ` (${tr.nsim} sims, scaled)` : ""} · ${(tr.cpuMs / tr.nsim).toFixed(2)} ms CPU/sim`
       : "not run";
-    const trKernel = `${m.translationKernelMs.toFixed(2)} ms · ${m.tableMs.toFixed(0)} ms`;
+    const tb = m.translationBreakdown as Record<"bucket" | "enumerate" | "bins" | "lookups", number>;
+    const trKernel = `${m.translationKernelMs.toFixed(2)} ms (TypeScript ${m.translationKernelTsMs.toFixed(2)} ms) · ${m.tableMs.toFixed(0)} ms`;
+    const trParts = `${tb.bucket.toFixed(2)} / ${tb.enumerate.toFixed(2)} / ${tb.bins.toFixed(2)} / ${tb.lookups.toFixed(2)} ms`;
     profileRows.push(
-      `| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trKernel} | ${trCol} |`,
+      `| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trKernel} | ${trParts} | ${trCol} |`,
     );
     process.stderr.write(`n = ${n} done\n`);
   }
@@ -213,13 +232,13 @@ async function main(): Promise<void> {
     ...rows,
   ].join("\n");
   const profile = [
-    "| n | draw points | sort into cells | edge slots | pair enumeration | distances + bins | edge weights | one simulation (CPU, one thread) | per simulation in the test (CPU, all threads) | translation kernel (CPU, one thread) · set covariance prepared (once per run) | translation correction: 999-sim test (wall) |",
-    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+    "| n | draw points | sort into cells | edge slots | pair enumeration | distances + bins | edge weights | one simulation (CPU, one thread) | per simulation in the test (CPU, all threads) | translation kernel (CPU, one thread, WebAssembly) · set covariance prepared (once per run) | translation kernel: sort / enumerate / distances + bins / look-ups | translation correction: 999-sim test (wall) |",
+    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
     ...profileRows,
   ].join("\n");
   notes.push(
     "Profile: one simulation of the isotropic L test taken apart (CPU per call, one thread, repeated calls): draw n uniform points in the trench; sort them into the cell grid; each point's edge slots (edges nearer than r max, their angles); enumerate pairs within r max; each pair's distance, bin and histogram entry at unit weight; the rest of the kernel — Ripley's isotropic weight of both ends of every pair whose circle leaves the trench. The parts are differences of cumulative timings, so small ones carry the timer's noise.",
-    "Translation: the same test with the translation correction on the same warm pool; 999 simulations at n = 200, 99 at n = 1000, 19 beyond, scaled per simulation. Each pair's weight |W| / |W ∩ (W + v)| is looked up in the window's set covariance, prepared once per run and thread (set-covariance-table.ts: a quadratic per cell of v, plus the few edge pairs whose case changes inside the cell), in the pass that enumerates and bins the pairs (l-translation.ts); the same sums as the exact polygon overlap of edge-translation.ts to rounding. Translation kernel: that pass alone, CPU per call; preparation: CPU, once.",
+    "Translation: the same test with the translation correction on the same warm pool; 999 simulations at n = 200, 99 at n = 1000, 19 beyond, scaled per simulation. Each pair's weight |W| / |W ∩ (W + v)| is looked up in the window's set covariance, prepared once per run and thread (set-covariance-table.ts: a quadratic per cell of v, plus the few edge pairs whose case changes inside the cell), in the pass that enumerates and bins the pairs (l-translation.ts, run as WebAssembly: asm/translation-scan.ts); the same sums as the exact polygon overlap of edge-translation.ts to rounding. Translation kernel: that pass alone, CPU per call (the TypeScript pass beside it), taken apart as differences of cumulative timings; preparation: CPU, once.",
   );
   const md = `# Spatial engine benchmark\n\n${table}\n\n## Where one simulation's time goes\n\n${profile}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
   mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });

@@ -1,7 +1,9 @@
-/** `npm run build:kernel`: rebuild lib/spatial/kernel/isotropic-scan-wasm.ts from the AssemblyScript source. */
+/** `npm run build:kernel`: rebuild the embedded WebAssembly kernels from their AssemblyScript sources. */
 import { writeFileSync } from "node:fs";
-import { compileKernel, KERNEL_MODULE, renderKernelModule } from "./kernel-build";
+import { compileKernel, kernelModulePath, KERNELS, renderKernelModule } from "./kernel-build";
 
-const binary = await compileKernel();
-writeFileSync(KERNEL_MODULE, renderKernelModule(binary));
-console.log(`${KERNEL_MODULE}: ${binary.length} bytes of WebAssembly`);
+for (const kernel of Object.values(KERNELS)) {
+  const binary = await compileKernel(kernel);
+  writeFileSync(kernelModulePath(kernel), renderKernelModule(binary, kernel));
+  console.log(`${kernelModulePath(kernel)}: ${binary.length} bytes of WebAssembly`);
+}

@@ -16,7 +16,7 @@
  * g is even (g(v) = g(−v)), so only v_y ≥ 0 is prepared, where the common baseline of the trapezoids is
  * y = 0 (coordinates relative to the bounding-box corner).
  */
-import { setCovariance, trapezoidEdges } from "./edge-translation";
+import { setCovariance, trapezoidEdges, type TrapezoidEdges } from "./edge-translation";
 import type { PairList } from "./neighbours";
 import type { Window } from "../types";
 
@@ -51,6 +51,10 @@ export interface SetCovarianceTable {
   readonly invH: number;
   /** Σ of the listed pairs' terms of cell c at v (v_y ≥ 0, within the cell). */
   listedTerms(c: number, dx: number, dy: number): number;
+  /** The listed pairs of all cells: edge listE[k] of W with edge listF[k] of W + v (indices into `trapezoids`). */
+  readonly listE: Int32Array;
+  readonly listF: Int32Array;
+  readonly trapezoids: TrapezoidEdges;
 }
 
 export interface SetCovarianceTableOptions {
@@ -339,7 +343,21 @@ export function createSetCovarianceTable(
     return w;
   };
 
-  return { reach, at, pairWeights, cells, listed, cell, gx, gy, invH, listedTerms };
+  return {
+    reach,
+    at,
+    pairWeights,
+    cells,
+    listed,
+    cell,
+    gx,
+    gy,
+    invH,
+    listedTerms,
+    listE: le,
+    listF: lf,
+    trapezoids: t,
+  };
 }
 
 const prepared = new WeakMap<Window, { reach: number; table: SetCovarianceTable | null }>();

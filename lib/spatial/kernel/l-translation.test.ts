@@ -50,10 +50,10 @@ function worstRelative(a: ArrayLike<number>, b: ArrayLike<number>): number {
 }
 
 /** K and L of the fused estimator against kFunction(translation) for several patterns in one window. */
-function compare(input: WindowInput, sizes: number[], seed: number): number {
+function compare(input: WindowInput, sizes: number[], seed: number, kernel: "wasm" | "typescript" = "wasm"): number {
   const win = createWindow(input);
   const r = defaultRGrid(win, Math.max(...sizes));
-  const est = createTranslationL(win, r)!;
+  const est = createTranslationL(win, r, undefined, { kernel })!;
   expect(est).not.toBeNull();
   const out = new Float64Array(r.length);
   const sampler = createWindowSampler(win);
@@ -75,6 +75,10 @@ describe("translation-corrected K in the simulation loop", () => {
   test("equals the exact estimator in the demo trench with its baulk", () => {
     // growing and shrinking patterns reuse the grid's buffers
     expect(compare(DEMO_TRENCH, [2, 300, 1000, 40, 1500], 1)).toBeLessThan(1e-9);
+  });
+
+  test("equals it with the TypeScript pass too (runtimes without WebAssembly)", () => {
+    expect(compare(DEMO_TRENCH, [300, 1000], 5, "typescript")).toBeLessThan(1e-9);
   });
 
   test("equals it in a pit with 40 sides", () => {

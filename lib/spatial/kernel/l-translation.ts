@@ -5,9 +5,11 @@
  * pair's displacement, so the window's set covariance is prepared once (set-covariance-table.ts) and each
  * unordered pair is weighed once, by one look-up, in the same pass that enumerates the pairs through a cell
  * grid and bins them: no pair list is stored, and the grid and histogram are reused from one pattern to
- * the next.
+ * the next. The pass runs in WebAssembly (translation-scan.ts) where it can, else in the loop below; both
+ * weigh each pair by the same operations and add the pairs in the same order.
  */
 import { createCellGrid } from "./cell-grid";
+import { createWasmTranslationScan, translationScanModule } from "./translation-scan";
 import { runSetCovarianceTable, type SetCovarianceTable } from "../geometry/set-covariance-table";
 import { createBinning, isAxisRectangle } from "../estimators/r-grid";
 import type { Window } from "../types";
@@ -21,6 +23,19 @@ export interface TranslationLEstimator {
   k(x: Float64Array, y: Float64Array, n: number, out: Float64Array): number;
   /** Write L̂(r) into out[0..m-1]. */
   l(x: Float64Array, y: Float64Array, n: number, out: Float64Array): number;
+  /**
+   * One part of the pass, for the benchmark's profile: "bucket" sorts the points into the cell grid;
+   * "count" that and the pair enumeration; "bins" that and each pair's distance and bin at unit weight.
+   * The rest of the pass is the look-ups.
+   */
+  part(x: Float64Array, y: Float64Array, n: number, which: "bucket" | "count" | "bins"): number;
+  /** Which implementation of the pass runs. */
+  readonly kernel: "wasm" | "typescript";
+}
+
+export interface TranslationLOptions {
+  /** "wasm" (default where available, polygon windows) or "typescript": the same sums (tested). */
+  kernel?: "wasm" | "typescript";
 }
 
 /**
@@ -31,6 +46,7 @@ export function createTranslationL(
   window: Window,
   r: Float64Array,
   table: SetCovarianceTable | null = runSetCovarianceTable(window, r[r.length - 1]),
+  options: TranslationLOptions = {},
 ): TranslationLEstimator | null {
   if (!table) return null;
   const binning = createBinning(window, r);
@@ -38,7 +54,7 @@ export function createTranslationL(
   const m = r.length;
   const rmax = r[m - 1];
   // as in l-isotropic.ts: on an even grid the bin is guessed by one multiplication and confirmed against
-  // the thresholds; rectangles keep their own rule through the binner
+  // the thresholds; rectangles keep their own rule through the binner (and the loop below)
   const guess = !isAxisRectangle(window);
   const inv = (m - 1) / rmax;
   const grid = createCellGrid(window.bbox, rmax / REACH);
@@ -48,10 +64,16 @@ export function createTranslationL(
   const { cell, gx, gy, invH, reach, listedTerms } = table;
   const area = window.area;
   const floor = 1e-12 * area;
+  const useWasm = guess && options.kernel !== "typescript" && translationScanModule() !== null;
+  // the loop's stencil: whole rows of 2·REACH + 1 cells, so that both add the pairs in the same order
+  const wasm = useWasm
+    ? createWasmTranslationScan(table, rmax, edges, grid, new Int32Array(REACH + 1).fill(REACH), area)
+    : null;
 
   const sums = (x: Float64Array, y: Float64Array, n: number): number => {
-    hist.fill(0);
     grid.bucket(x, y, n);
+    if (wasm) return wasm.scan(grid, n, hist);
+    hist.fill(0);
     const { sx, sy } = grid;
     let pairs = 0;
     for (let cy = 0; cy < ny; cy++) {
@@ -125,5 +147,10 @@ export function createTranslationL(
     return pairs;
   };
 
-  return { r, k, l };
+  const part = (x: Float64Array, y: Float64Array, n: number, which: "bucket" | "count" | "bins"): number => {
+    grid.bucket(x, y, n);
+    return which === "bucket" || !wasm ? 0 : wasm.scan(grid, n, hist, which);
+  };
+
+  return { r, k, l, part, kernel: wasm ? "wasm" : "typescript" };
 }
