@@ -7,6 +7,8 @@ import type { FindsBulk } from "@/lib/schemas/finds-bulk";
 import { ProcessingFields, emptyDraft, processingBody, type BoxChoice } from "./processing-fields";
 
 type Role = "digger" | "specialist" | "director";
+/** A context finds may be moved to: open, in a trench with a valid outline (the server checks again). */
+export type MoveTarget = { id: string; number: number; trenchId: string; trenchCode: string };
 type Action = "move" | "reclass" | "delete" | "process";
 const actionWords: Record<Action, string> = {
   move: "Move to another context",
@@ -15,11 +17,18 @@ const actionWords: Record<Action, string> = {
   process: "Processing and box",
 };
 
+/** The move targets in their trenches, in the order given (trench code, then number). */
+function byTrench(contexts: MoveTarget[]): [string, MoveTarget[]][] {
+  const groups = new Map<string, MoveTarget[]>();
+  for (const c of contexts) groups.set(c.trenchCode, [...(groups.get(c.trenchCode) ?? []), c]);
+  return [...groups];
+}
+
 /**
  * One change to every find picked in the register, all or nothing. The server decides (a refusal names each
  * find that stops it and why, and nothing changes); the bar only offers what the role may do: a specialist
  * re-classes and processes finds but does not move or delete them. Sent through the device's write path, so
- * with no connection the change waits in the outbox.
+ * with no connection the change waits in the outbox. A move offers only contexts open to new finds.
  */
 export function BulkBar({
   siteId,
@@ -34,7 +43,7 @@ export function BulkBar({
   siteId: string;
   role: Role;
   ids: string[];
-  contexts: { id: string; number: number }[];
+  contexts: MoveTarget[];
   classes: { id: string; code: string; label: string }[];
   boxes: BoxChoice[];
   /** After a change: what was done, in words; the bar closes with the selection. */
@@ -130,12 +139,21 @@ export function BulkBar({
             onChange={(e) => setContextId(e.target.value)}
           >
             <option value="">Pick a context</option>
-            {contexts.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.number}
-              </option>
+            {byTrench(contexts).map(([trench, list]) => (
+              <optgroup key={trench} label={`Trench ${trench}`}>
+                {list.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.number}
+                  </option>
+                ))}
+              </optgroup>
             ))}
           </select>
+          {contexts.length === 0 && (
+            <p className="text-sm text-ink-soft">
+              No context is open to take finds: contexts awaiting sign-off or signed off are not offered.
+            </p>
+          )}
           {error("contextId")}
         </div>
       )}

@@ -14,7 +14,7 @@ import { readView, viewQuery, withChange, type RegisterView } from "./register-q
 import { countOf } from "@/lib/words/count";
 import { findProcessingLabels } from "@/lib/schemas/processing";
 import { useDates } from "@/components/locale";
-import { BulkBar } from "./bulk-bar";
+import { BulkBar, type MoveTarget } from "./bulk-bar";
 import type { BoxChoice } from "./processing-fields";
 
 const sortable = new Set(["number", "trench", "context", "class", "recorder", "x", "y", "z", "recordedAt"]);
@@ -71,6 +71,7 @@ export function FindsRegister({
   hasCrs,
   role,
   boxes,
+  moveTargets,
 }: {
   siteId: string;
   options: RegisterOptions;
@@ -78,6 +79,8 @@ export function FindsRegister({
   hasCrs: boolean;
   role: "digger" | "specialist" | "director";
   boxes: BoxChoice[];
+  /** Contexts finds may be moved to (open, in a trench with a valid outline). */
+  moveTargets: MoveTarget[];
 }) {
   const queryClient = useQueryClient();
   const [picked, setPicked] = useState<Record<string, boolean>>({});
@@ -190,7 +193,7 @@ export function FindsRegister({
           siteId={siteId}
           role={role}
           ids={pickedIds}
-          contexts={options.contexts}
+          contexts={moveTargets}
           classes={options.classes}
           boxes={boxes}
           onClear={clearPicks}

@@ -1,7 +1,7 @@
 import "server-only";
-import { and, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, finds, type Context, type Find } from "@/db/schema";
+import { artefactClasses, contexts, finds, trenches, type Context, type Find } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import type { FindsBulk } from "@/lib/schemas/finds-bulk";
 import { recordAudit } from "./audit";
@@ -109,6 +109,27 @@ export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) 
       );
     return apply(tx, actor, input, rows);
   });
+}
+
+/**
+ * The contexts the register's bulk bar offers as a move's target, by the move's own rules: open (not awaiting
+ * sign-off, not signed off) and in a trench with a valid outline. Whether every find picked lies inside that
+ * trench is still the move's to check: the register may not hold every picked find's position.
+ */
+export async function moveTargets(db: Db | Tx, siteId: string) {
+  const rows = await db
+    .select({
+      id: contexts.id,
+      number: contexts.number,
+      trenchId: trenches.id,
+      trenchCode: trenches.code,
+      outline: trenches.outline,
+    })
+    .from(contexts)
+    .innerJoin(trenches, eq(trenches.id, contexts.trenchId))
+    .where(and(eq(contexts.siteId, siteId), eq(contexts.state, "open")))
+    .orderBy(asc(trenches.code), asc(contexts.number));
+  return rows.filter((r) => checkOutline(r.outline).ok).map(({ outline: _, ...r }) => r);
 }
 
 /** The finds that would lie outside the target context's trench, with the distance to its edge. */

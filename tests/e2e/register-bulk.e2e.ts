@@ -46,7 +46,7 @@ async function contextOf(page: Page, siteId: string, findId: string) {
 }
 
 describe("the finds register: many finds at once", () => {
-  it("a digger picks three finds and moves them, is refused a locked find by name, boxes them and prints the box label", async () => {
+  it("a digger picks three finds and moves them, is refused a locked find by name, boxes them, prints the box label and deletes a box made by mistake", async () => {
     const page = await newPage(browser);
     await signIn(page, "digger");
     const t = await freshTrench(page);
@@ -103,6 +103,10 @@ describe("the finds register: many finds at once", () => {
     await page.getByRole("button", { name: "Pick all 1 find that match" }).click();
     await shown(bar.getByText("1 find picked"));
     await bar.getByLabel("Change", { exact: true }).selectOption("move");
+    // The picker offers only contexts open to new finds: not the one awaiting sign-off.
+    const offered = await bar.getByLabel("Move to context").locator("option").allTextContents();
+    expect(offered).toContain(String(to.number));
+    expect(offered).not.toContain(String(held.number));
     await bar.getByLabel("Move to context").selectOption({ label: String(to.number) });
     await bar.getByRole("button", { name: "Move to another context: 1 find" }).click();
     const refusal = page.getByRole("alert").filter({ hasText: "No find was moved" });
@@ -148,6 +152,30 @@ describe("the finds register: many finds at once", () => {
     expect(ref, `decoded: ${text}`).toMatchObject({ kind: "B", number: boxNumber });
     await page.goto(labelPath(ref!));
     await page.waitForURL(`**${boxPath}`);
+
+    // The full box cannot be deleted: the page says what it holds. An empty box made by mistake goes.
+    await page
+      .locator("summary")
+      .filter({ hasText: `Delete box ${boxNumber}` })
+      .click();
+    await shown(page.getByText(`Box ${boxNumber} still holds 3 finds; only an empty box can be deleted.`));
+    expect(await page.getByRole("button", { name: `Delete box ${boxNumber}` }).isDisabled()).toBe(true);
+    await page.goto(`/sites/${site}/boxes`);
+    await page.getByLabel("Store and place in it").fill(`Made by mistake ${base}`);
+    await page.getByRole("button", { name: "Add a box" }).click();
+    const mistake = page.getByText(/Box \d+ added\./);
+    await shown(mistake);
+    const mistakeNumber = Number(/Box (\d+) added/.exec((await mistake.textContent()) ?? "")?.[1]);
+    await page.locator(`tr[data-box="${mistakeNumber}"]`).getByRole("link").click();
+    await shown(page.getByRole("heading", { level: 1, name: `Box ${mistakeNumber}` }));
+    await page
+      .locator("summary")
+      .filter({ hasText: `Delete box ${mistakeNumber}` })
+      .click();
+    await page.getByRole("button", { name: `Delete box ${mistakeNumber}` }).click();
+    await page.waitForURL(`**/sites/${site}/boxes`);
+    await shown(page.getByRole("heading", { level: 1, name: "Box register" }));
+    expect(await page.locator(`tr[data-box="${mistakeNumber}"]`).count()).toBe(0);
     await page.context().close();
   });
 });

@@ -5,6 +5,7 @@ import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import * as bulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
+import { moveTargets } from "@/lib/server/finds-bulk";
 
 async function find(fx: SiteFixture, number: number, contextId = fx.context.id, x = 1, y = 1) {
   const db = await getDb();
@@ -187,5 +188,59 @@ describe("bulk edits of finds: all or nothing", () => {
     expect(noReason.status).toBe(400);
     expect(noReason.json.fieldErrors.reason).toEqual(["Say why the finds are deleted."]);
     expect(await rows([mine.id])).toHaveLength(1);
+  });
+});
+
+describe("the contexts a move offers", () => {
+  it("lists only contexts open to new finds in a trench with a valid outline; the server still refuses the rest", async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const open = await context(fx, 8901);
+    const signed = await context(fx, 8902, fx.trench.id, "signed_off");
+    const [awaiting] = await db
+      .insert(schema.contexts)
+      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 8903, type: "fill", state: "awaiting" })
+      .returning();
+    // A trench whose outline crosses itself takes no finds until it is redrawn.
+    const [crossed] = await db
+      .insert(schema.trenches)
+      .values({
+        siteId: fx.site.id,
+        code: "B",
+        outline: {
+          type: "Polygon",
+          coordinates: [
+            [
+              [20, 0],
+              [24, 4],
+              [24, 0],
+              [20, 4],
+              [20, 0],
+            ],
+          ],
+        },
+      })
+      .returning();
+    await context(fx, 8904, crossed!.id);
+    const offered = await moveTargets(db, fx.site.id);
+    expect(offered.map((c) => [c.trenchCode, c.number])).toEqual([
+      ["A", fx.context.number],
+      ["A", 8901],
+    ]);
+    expect(offered[1]).toEqual({ id: open.id, number: 8901, trenchId: fx.trench.id, trenchCode: "A" });
+    // What is not offered is still refused when asked for directly.
+    const f = await find(fx, 41);
+    session.userId = fx.people.digger.id;
+    for (const target of [signed, awaiting!]) {
+      const res = await call(
+        bulkRoute,
+        "POST",
+        { siteId: fx.site.id },
+        { action: "move", findIds: [f.id], contextId: target.id },
+      );
+      expect(res.status).toBe(409);
+      expect(res.json.fieldErrors.contextId).toEqual([`Context ${target.number} is not open.`]);
+    }
+    expect((await rows([f.id]))[0]!.contextId).toBe(fx.context.id);
   });
 });

@@ -25,6 +25,7 @@ import { listTrenchSquares } from "../squares";
 import { listSamples, readSample } from "../samples";
 import { labelItems, resolveLabel } from "../labels";
 import { boxChoices, listBoxes, readBox } from "../boxes";
+import { moveTargets } from "../finds-bulk";
 import type { BoxListQuery } from "@/lib/schemas/processing";
 import type { LabelRef } from "@/lib/labels/code";
 import type { LabelSelection } from "@/lib/schemas/labels";
@@ -90,6 +91,7 @@ export function siteReads(db: Db, actor: SiteActor) {
     labels: (q: LabelSelection) => labelItems(db, actor.site, q),
     boxes: (q: BoxListQuery) => listBoxes(db, siteId, q),
     boxChoices: () => boxChoices(db, siteId),
+    findMoveTargets: () => moveTargets(db, siteId),
     box: (boxId: string) => readBox(db, siteId, boxId),
     numberAccounting: (kind: NumberKind) => accountNumbers(db, siteId, kind),
     printed: {

@@ -7,12 +7,13 @@ import { pageSiteActor } from "@/lib/server/page-access";
 export default async function FindsRegisterPage({ params }: { params: Promise<{ siteId: string }> }) {
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const [trenches, contexts, classes, members, boxes] = await Promise.all([
+  const [trenches, contexts, classes, members, boxes, moveTargets] = await Promise.all([
     read.trenches(),
     read.contexts(),
     read.classes(),
     read.members(),
     read.boxChoices(),
+    read.findMoveTargets(),
   ]);
   const options = {
     trenches: trenches.map((t) => ({ id: t.id, code: t.code })),
@@ -38,6 +39,7 @@ export default async function FindsRegisterPage({ params }: { params: Promise<{ 
             hasCrs={!!actor.site.crs?.trim()}
             role={actor.role}
             boxes={boxes}
+            moveTargets={moveTargets}
           />
         </Suspense>
       </main>
