@@ -3,6 +3,7 @@ import { notFound, redirect } from "next/navigation";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { users } from "@/db/schema";
+import type { UrlSearch } from "@/lib/schemas/url-query";
 import { isPublicError } from "./errors";
 import { loadSiteActor, type SiteActor } from "./membership";
 import { siteReads, userReads, type SiteReads } from "./reads/site-reads";
@@ -25,6 +26,9 @@ export async function pageUser() {
   const { db, user } = await signedInUser();
   return { user, read: userReads(db, user.id) };
 }
+
+/** What a site's page with filters in its URL is given: the site from the path, the filters from the query. */
+export type SiteSearchPageProps = { params: Promise<{ siteId: string }>; searchParams: Promise<UrlSearch> };
 
 /** For server components of a site: the caller's role there and the site's reads, or 404 for non-members. */
 export async function pageSiteActor(siteId: string): Promise<{ actor: SiteActor; userName: string; read: SiteReads }> {

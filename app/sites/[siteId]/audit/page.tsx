@@ -1,9 +1,11 @@
 import Link from "next/link";
 import type { Metadata } from "next";
 import { AuditChanges, recordLabel } from "@/components/audit/audit-changes";
+import { FilterSelect } from "@/components/register/filter-select";
 import { SiteNav } from "@/components/site-nav";
 import { auditQuerySchema } from "@/lib/schemas/sign-off";
-import { pageSiteActor } from "@/lib/server/page-access";
+import { readUrlQuery } from "@/lib/schemas/url-query";
+import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
 import { formatWhen } from "@/lib/words/when";
 
@@ -30,19 +32,11 @@ function recordHref(siteId: string, type: string, id: string): string | null {
   return null;
 }
 
-export default async function AuditPage({
-  params,
-  searchParams,
-}: {
-  params: Promise<{ siteId: string }>;
-  searchParams: Promise<Record<string, string | undefined>>;
-}) {
+export default async function AuditPage({ params, searchParams }: SiteSearchPageProps) {
   const locale = await requestLocale();
   const { siteId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const raw = await searchParams;
-  const parsed = auditQuerySchema.safeParse(Object.fromEntries(Object.entries(raw).filter(([, v]) => v)));
-  const filter = parsed.success ? parsed.data : { limit: 200 };
+  const { q: filter, valid } = readUrlQuery(auditQuerySchema, await searchParams);
   const [entries, members] = await Promise.all([read.audit(filter), read.members()]);
   return (
     <>
@@ -54,38 +48,27 @@ export default async function AuditPage({
           changed or removed.
         </p>
         <form className="sheet flex flex-wrap items-end gap-3" method="get">
-          <div>
-            <label className="label" htmlFor="recordType">
-              Kind of record
-            </label>
-            <select id="recordType" name="recordType" className="field" defaultValue={filter.recordType ?? ""}>
-              <option value="">Any</option>
-              {recordTypes.map((t) => (
-                <option key={t} value={t}>
-                  {t}
-                </option>
-              ))}
-            </select>
-          </div>
+          <FilterSelect
+            id="recordType"
+            name="recordType"
+            label="Kind of record"
+            value={filter.recordType}
+            items={recordTypes.map((t) => ({ id: t, text: t }))}
+          />
           <div>
             <label className="label" htmlFor="recordId">
               Record id
             </label>
             <input id="recordId" name="recordId" className="field font-mono" defaultValue={filter.recordId ?? ""} />
           </div>
-          <div>
-            <label className="label" htmlFor="actorId">
-              Person
-            </label>
-            <select id="actorId" name="actorId" className="field" defaultValue={filter.actorId ?? ""}>
-              <option value="">Anyone</option>
-              {members.map((m) => (
-                <option key={m.userId} value={m.userId}>
-                  {m.name}
-                </option>
-              ))}
-            </select>
-          </div>
+          <FilterSelect
+            id="actorId"
+            name="actorId"
+            label="Person"
+            value={filter.actorId}
+            items={members.map((m) => ({ id: m.userId, text: m.name }))}
+            any="Anyone"
+          />
           <button className="btn-primary" type="submit">
             Show
           </button>
@@ -93,7 +76,7 @@ export default async function AuditPage({
             Clear
           </Link>
         </form>
-        {!parsed.success && (
+        {!valid && (
           <p className="field-error" role="alert">
             Those filters are not valid; showing everything.
           </p>

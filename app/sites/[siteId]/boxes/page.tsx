@@ -2,26 +2,17 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { BoxForm } from "@/components/boxes/box-form";
 import { SiteNav } from "@/components/site-nav";
-import { pageSiteActor } from "@/lib/server/page-access";
+import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import { boxListQuery } from "@/lib/schemas/processing";
+import { readUrlQuery } from "@/lib/schemas/url-query";
 
 export const metadata: Metadata = { title: "Boxes" };
 
-type Search = Record<string, string | undefined>;
-
 /** The box register: the finds store's boxes, numbered per site, with where each is kept and how much it holds. */
-export default async function BoxesPage({
-  params,
-  searchParams,
-}: {
-  params: Promise<{ siteId: string }>;
-  searchParams: Promise<Search>;
-}) {
+export default async function BoxesPage({ params, searchParams }: SiteSearchPageProps) {
   const { siteId } = await params;
-  const search = await searchParams;
   const { actor, read } = await pageSiteActor(siteId);
-  const parsed = boxListQuery.safeParse(Object.fromEntries(Object.entries(search).filter(([, v]) => v)));
-  const q = parsed.success ? parsed.data : boxListQuery.parse({});
+  const { q } = readUrlQuery(boxListQuery, await searchParams);
   const page = await read.boxes(q);
   const base = `/sites/${siteId}/boxes`;
   const pages = Math.max(1, Math.ceil(page.total / q.pageSize));

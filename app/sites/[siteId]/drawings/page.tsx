@@ -4,26 +4,17 @@ import { DrawingForm } from "@/components/drawings/drawing-form";
 import { StateBadge } from "@/components/contexts/state-badge";
 import { SiteNav } from "@/components/site-nav";
 import { isContextWritable } from "@/lib/server/locks";
-import { pageSiteActor } from "@/lib/server/page-access";
+import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import { drawingKindLabels, drawingListQuery } from "@/lib/schemas/drawing";
+import { readUrlQuery } from "@/lib/schemas/url-query";
 
 export const metadata: Metadata = { title: "Drawings" };
 
-type Search = Record<string, string | undefined>;
-
 /** The drawing register: plans and sections drawn on film or paper, numbered per site, with the contexts they show. */
-export default async function DrawingsPage({
-  params,
-  searchParams,
-}: {
-  params: Promise<{ siteId: string }>;
-  searchParams: Promise<Search>;
-}) {
+export default async function DrawingsPage({ params, searchParams }: SiteSearchPageProps) {
   const { siteId } = await params;
-  const search = await searchParams;
   const { actor, read } = await pageSiteActor(siteId);
-  const parsed = drawingListQuery.safeParse(Object.fromEntries(Object.entries(search).filter(([, v]) => v)));
-  const q = parsed.success ? parsed.data : drawingListQuery.parse({});
+  const { q } = readUrlQuery(drawingListQuery, await searchParams);
   const [page, contexts, trenches, members] = await Promise.all([
     read.drawings(q),
     read.contexts(),

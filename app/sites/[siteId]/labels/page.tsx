@@ -1,12 +1,12 @@
 import { LabelSheets } from "@/components/labels/label-sheets";
+import { FilterSelect } from "@/components/register/filter-select";
 import { SiteNav } from "@/components/site-nav";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { labelPresets, layoutQuery, perSheet, presetKeys } from "@/lib/labels/layout";
-import { pageSiteActor } from "@/lib/server/page-access";
+import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import { MAX_LABELS, labelSelection } from "@/lib/schemas/labels";
+import { filledIn } from "@/lib/schemas/url-query";
 import "./labels.css";
-
-type Search = Record<string, string | undefined>;
 
 const measures = [
   ["columns", "Columns", "1"],
@@ -19,21 +19,18 @@ const measures = [
   ["gapYMm", "Gap between rows (mm)", "0.1"],
 ] as const;
 
+const numberBounds = [
+  ["lb-from", "fromNumber", "From number"],
+  ["lb-to", "toNumber", "To number"],
+] as const;
+
 /**
  * Bag labels for finds and samples, and box labels listing what each box holds, on the A4 sheet the user
  * picks; printed from the browser as shown.
  */
-export default async function LabelsPage({
-  params,
-  searchParams,
-}: {
-  params: Promise<{ siteId: string }>;
-  searchParams: Promise<Search>;
-}) {
+export default async function LabelsPage({ params, searchParams }: SiteSearchPageProps) {
   const { siteId } = await params;
-  const search = Object.fromEntries(
-    Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== ""),
-  );
+  const search: Partial<Record<string, string>> = filledIn(await searchParams);
   const { actor, read } = await pageSiteActor(siteId);
   const layoutParsed = layoutQuery.safeParse(search);
   const selectionParsed = labelSelection.safeParse(search);
@@ -66,43 +63,28 @@ export default async function LabelsPage({
                   <option value="boxes">Boxes (with their contents)</option>
                 </select>
               </div>
-              <div>
-                <label className="label" htmlFor="lb-context">
-                  Context
-                </label>
-                <select id="lb-context" name="contextId" className="field num" defaultValue={search.contextId ?? ""}>
-                  <option value="">Any</option>
-                  {contexts.map((c) => (
-                    <option key={c.id} value={c.id}>
-                      {c.number}
-                    </option>
-                  ))}
-                </select>
-              </div>
-              <div>
-                <label className="label" htmlFor="lb-from">
-                  From number
-                </label>
-                <input
-                  id="lb-from"
-                  name="fromNumber"
-                  className="field num"
-                  inputMode="numeric"
-                  defaultValue={search.fromNumber ?? ""}
-                />
-              </div>
-              <div>
-                <label className="label" htmlFor="lb-to">
-                  To number
-                </label>
-                <input
-                  id="lb-to"
-                  name="toNumber"
-                  className="field num"
-                  inputMode="numeric"
-                  defaultValue={search.toNumber ?? ""}
-                />
-              </div>
+              <FilterSelect
+                id="lb-context"
+                name="contextId"
+                label="Context"
+                value={search.contextId}
+                items={contexts.map((c) => ({ id: c.id, text: String(c.number) }))}
+                numeric
+              />
+              {numberBounds.map(([id, name, label]) => (
+                <div key={id}>
+                  <label className="label" htmlFor={id}>
+                    {label}
+                  </label>
+                  <input
+                    id={id}
+                    name={name}
+                    className="field num"
+                    inputMode="numeric"
+                    defaultValue={search[name] ?? ""}
+                  />
+                </div>
+              ))}
             </div>
             {search.ids && <input type="hidden" name="ids" value={search.ids} />}
             <div>

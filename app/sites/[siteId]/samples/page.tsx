@@ -1,7 +1,8 @@
 import Link from "next/link";
 import { SamplesTable } from "@/components/samples/samples-table";
+import { FilterSelect } from "@/components/register/filter-select";
 import { SiteNav } from "@/components/site-nav";
-import { pageSiteActor } from "@/lib/server/page-access";
+import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import {
   sampleListQuery,
   sampleStatusLabels,
@@ -9,22 +10,13 @@ import {
   sampleTypeLabels,
   sampleTypes,
 } from "@/lib/schemas/sample";
-
-type Search = Record<string, string | undefined>;
+import { readUrlQuery } from "@/lib/schemas/url-query";
 
 /** The samples register: filters in the URL (a plain form), the page read on the server. */
-export default async function SamplesPage({
-  params,
-  searchParams,
-}: {
-  params: Promise<{ siteId: string }>;
-  searchParams: Promise<Search>;
-}) {
+export default async function SamplesPage({ params, searchParams }: SiteSearchPageProps) {
   const { siteId } = await params;
-  const search = await searchParams;
   const { actor, read } = await pageSiteActor(siteId);
-  const parsed = sampleListQuery.safeParse(Object.fromEntries(Object.entries(search).filter(([, v]) => v)));
-  const q = parsed.success ? parsed.data : sampleListQuery.parse({});
+  const { q } = readUrlQuery(sampleListQuery, await searchParams);
   const [page, contexts, boxes] = await Promise.all([read.samples(q), read.contexts(), read.boxChoices()]);
   const pages = Math.max(1, Math.ceil(page.total / q.pageSize));
   const filters = new URLSearchParams(
@@ -57,45 +49,28 @@ export default async function SamplesPage({
           </a>
         </div>
         <form className="sheet flex flex-wrap items-end gap-3" method="get" aria-label="Filter the samples">
-          <div>
-            <label className="label" htmlFor="sf-context">
-              Context
-            </label>
-            <select id="sf-context" name="contextId" className="field num" defaultValue={q.contextId ?? ""}>
-              <option value="">Any</option>
-              {contexts.map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.number}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="sf-type">
-              Kind
-            </label>
-            <select id="sf-type" name="type" className="field" defaultValue={q.type ?? ""}>
-              <option value="">Any</option>
-              {sampleTypes.map((t) => (
-                <option key={t} value={t}>
-                  {sampleTypeLabels[t]}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="sf-status">
-              Status
-            </label>
-            <select id="sf-status" name="status" className="field" defaultValue={q.status ?? ""}>
-              <option value="">Any</option>
-              {sampleStatuses.map((s) => (
-                <option key={s} value={s}>
-                  {sampleStatusLabels[s]}
-                </option>
-              ))}
-            </select>
-          </div>
+          <FilterSelect
+            id="sf-context"
+            name="contextId"
+            label="Context"
+            value={q.contextId}
+            items={contexts.map((c) => ({ id: c.id, text: String(c.number) }))}
+            numeric
+          />
+          <FilterSelect
+            id="sf-type"
+            name="type"
+            label="Kind"
+            value={q.type}
+            items={sampleTypes.map((t) => ({ id: t, text: sampleTypeLabels[t] }))}
+          />
+          <FilterSelect
+            id="sf-status"
+            name="status"
+            label="Status"
+            value={q.status}
+            items={sampleStatuses.map((s) => ({ id: s, text: sampleStatusLabels[s] }))}
+          />
           <button className="btn" type="submit">
             Filter
           </button>
