@@ -7,7 +7,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { contextCreateSchema, contextTypes, digMethods } from "@/lib/schemas/context";
 import { ApiError, apiClient } from "@/lib/api/client";
-import { applyFieldErrors, FormField } from "./form-field";
+import { applyFieldErrors, FormField, InputField } from "./form-field";
 
 type Input = z.input<typeof contextCreateSchema>;
 type Output = z.output<typeof contextCreateSchema>;
@@ -25,6 +25,11 @@ const measureFields = [
   { name: "lengthM", label: "Length (m)" },
   { name: "widthM", label: "Width (m)" },
   { name: "thicknessM", label: "Thickness (m)" },
+] as const;
+
+const dateFields = [
+  { name: "openedOn", label: "Opened" },
+  { name: "closedOn", label: "Closed" },
 ] as const;
 
 /** The context sheet, checked in the browser by the very schema the server checks it with. */
@@ -66,16 +71,15 @@ export function ContextSheetForm({
   return (
     <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Context sheet">
       <div className="grid gap-3 sm:grid-cols-3">
-        <FormField id="ctx-number" label="Context number" error={e.number?.message}>
-          <input
-            id="ctx-number"
-            className="field num"
-            inputMode="numeric"
-            aria-invalid={!!e.number}
-            aria-describedby="ctx-number-error"
-            {...register("number")}
-          />
-        </FormField>
+        <InputField
+          id="ctx-number"
+          label="Context number"
+          error={e.number?.message}
+          className="field num"
+          inputMode="numeric"
+          aria-invalid={!!e.number}
+          {...register("number")}
+        />
         <FormField id="ctx-type" label="Type" error={e.type?.message}>
           <select id="ctx-type" className="field" aria-describedby="ctx-type-error" {...register("type")}>
             {contextTypes.map((t) => (
@@ -108,16 +112,17 @@ export function ContextSheetForm({
         </FormField>
       </div>
       <div className="grid gap-3 sm:grid-cols-2">
-        {textFields.map((f) => (
-          <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
-            {f.rows === 1 ? (
-              <input
-                id={`ctx-${f.name}`}
-                className="field"
-                aria-describedby={`ctx-${f.name}-error`}
-                {...register(f.name)}
-              />
-            ) : (
+        {textFields.map((f) =>
+          f.rows === 1 ? (
+            <InputField
+              key={f.name}
+              id={`ctx-${f.name}`}
+              label={f.label}
+              error={e[f.name]?.message}
+              {...register(f.name)}
+            />
+          ) : (
+            <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
               <textarea
                 id={`ctx-${f.name}`}
                 className="field"
@@ -125,49 +130,40 @@ export function ContextSheetForm({
                 aria-describedby={`ctx-${f.name}-error`}
                 {...register(f.name)}
               />
-            )}
-          </FormField>
-        ))}
+            </FormField>
+          ),
+        )}
       </div>
       <fieldset className="grid gap-3 sm:grid-cols-4">
         <legend className="label">Dimensions and digging</legend>
         {measureFields.map((f) => (
-          <FormField key={f.name} id={`ctx-${f.name}`} label={f.label} error={e[f.name]?.message}>
-            <input
-              id={`ctx-${f.name}`}
-              className="field num"
-              inputMode="decimal"
-              aria-describedby={`ctx-${f.name}-error`}
-              {...register(f.name)}
-            />
-          </FormField>
+          <InputField
+            key={f.name}
+            id={`ctx-${f.name}`}
+            label={f.label}
+            error={e[f.name]?.message}
+            className="field num"
+            inputMode="decimal"
+            {...register(f.name)}
+          />
         ))}
-        <FormField id="ctx-excavatedBy" label="Excavated by" error={e.excavatedBy?.message}>
-          <input
-            id="ctx-excavatedBy"
-            className="field"
-            aria-describedby="ctx-excavatedBy-error"
-            {...register("excavatedBy")}
-          />
-        </FormField>
-        <FormField id="ctx-openedOn" label="Opened" error={e.openedOn?.message}>
-          <input
-            id="ctx-openedOn"
+        <InputField
+          id="ctx-excavatedBy"
+          label="Excavated by"
+          error={e.excavatedBy?.message}
+          {...register("excavatedBy")}
+        />
+        {dateFields.map((f) => (
+          <InputField
+            key={f.name}
+            id={`ctx-${f.name}`}
+            label={f.label}
+            error={e[f.name]?.message}
             type="date"
             className="field num"
-            aria-describedby="ctx-openedOn-error"
-            {...register("openedOn")}
+            {...register(f.name)}
           />
-        </FormField>
-        <FormField id="ctx-closedOn" label="Closed" error={e.closedOn?.message}>
-          <input
-            id="ctx-closedOn"
-            type="date"
-            className="field num"
-            aria-describedby="ctx-closedOn-error"
-            {...register("closedOn")}
-          />
-        </FormField>
+        ))}
         <FormField id="ctx-digMethod" label="Dug by" error={e.digMethod?.message}>
           <select
             id="ctx-digMethod"
@@ -183,15 +179,14 @@ export function ContextSheetForm({
             ))}
           </select>
         </FormField>
-        <FormField id="ctx-sieveMeshMm" label="Sieve mesh (mm)" error={e.sieveMeshMm?.message}>
-          <input
-            id="ctx-sieveMeshMm"
-            className="field num"
-            inputMode="decimal"
-            aria-describedby="ctx-sieveMeshMm-error"
-            {...register("sieveMeshMm")}
-          />
-        </FormField>
+        <InputField
+          id="ctx-sieveMeshMm"
+          label="Sieve mesh (mm)"
+          error={e.sieveMeshMm?.message}
+          className="field num"
+          inputMode="decimal"
+          {...register("sieveMeshMm")}
+        />
       </fieldset>
       <p className="field-error" role="alert" aria-live="assertive">
         {failure ?? ""}

@@ -1,4 +1,4 @@
-import type { ReactNode } from "react";
+import type { ComponentProps, ReactNode } from "react";
 
 /** A labelled field with its error beside it, announced to screen readers as it appears (aria-live). */
 export function FormField({
@@ -29,6 +29,24 @@ export function FormField({
         {error ?? ""}
       </p>
     </div>
+  );
+}
+
+/**
+ * A labelled input with its error line, which describes it: the input's own props pass through, among them
+ * react-hook-form's registration of the field (its ref too).
+ */
+export function InputField({
+  id,
+  label,
+  error,
+  className = "field",
+  ...input
+}: { id: string; label: string; error?: string } & Omit<ComponentProps<"input">, "id">) {
+  return (
+    <FormField id={id} label={label} error={error}>
+      <input id={id} className={className} aria-describedby={`${id}-error`} {...input} />
+    </FormField>
   );
 }
 

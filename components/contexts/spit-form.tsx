@@ -6,7 +6,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { spitCreateSchema } from "@/lib/schemas/levels";
 import { ApiError, apiClient } from "@/lib/api/client";
-import { applyFieldErrors, FormField } from "./form-field";
+import { applyFieldErrors, InputField } from "./form-field";
 
 type Input = z.input<typeof spitCreateSchema>;
 type Output = z.output<typeof spitCreateSchema>;
@@ -32,33 +32,30 @@ export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; co
   const blank = { setValueAs: (v: unknown) => (v === "" ? null : v) };
   return (
     <form onSubmit={submit} noValidate className="grid items-end gap-3 sm:grid-cols-4" aria-label="Add a spit">
-      <FormField id="spit-number" label="Spit number" error={e.number?.message}>
-        <input
-          id="spit-number"
-          className="field num"
-          inputMode="numeric"
-          aria-describedby="spit-number-error"
-          {...register("number")}
-        />
-      </FormField>
-      <FormField id="spit-top" label="Top RL (m)" error={e.topLevel?.message}>
-        <input
-          id="spit-top"
-          className="field num"
-          inputMode="decimal"
-          aria-describedby="spit-top-error"
-          {...register("topLevel", blank)}
-        />
-      </FormField>
-      <FormField id="spit-base" label="Base RL (m)" error={e.baseLevel?.message}>
-        <input
-          id="spit-base"
-          className="field num"
-          inputMode="decimal"
-          aria-describedby="spit-base-error"
-          {...register("baseLevel", blank)}
-        />
-      </FormField>
+      <InputField
+        id="spit-number"
+        label="Spit number"
+        error={e.number?.message}
+        className="field num"
+        inputMode="numeric"
+        {...register("number")}
+      />
+      <InputField
+        id="spit-top"
+        label="Top RL (m)"
+        error={e.topLevel?.message}
+        className="field num"
+        inputMode="decimal"
+        {...register("topLevel", blank)}
+      />
+      <InputField
+        id="spit-base"
+        label="Base RL (m)"
+        error={e.baseLevel?.message}
+        className="field num"
+        inputMode="decimal"
+        {...register("baseLevel", blank)}
+      />
       <div>
         <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
           Add the spit
