@@ -3,6 +3,14 @@
 import { useState } from "react";
 import { ApiError, apiClient } from "@/lib/api/client";
 
+/** The grid's fields, by the name the trench's update reads them with. */
+const fields = [
+  { key: "squareSize", label: "Square size (m)", width: "w-24" },
+  { key: "squareOriginX", label: "Grid line easting (m)", width: "w-28" },
+  { key: "squareOriginY", label: "Grid line northing (m)", width: "w-28" },
+] as const;
+type GridKey = (typeof fields)[number]["key"];
+
 /** The director's setting of the trench's square grid: square size and the origin its lines pass through. */
 export function GridSettings({
   siteId,
@@ -15,18 +23,16 @@ export function GridSettings({
   grid: { size: number; originX: number; originY: number } | null;
   locked: boolean;
 }) {
-  const [size, setSize] = useState(grid ? String(grid.size) : "1");
-  const [ox, setOx] = useState(grid ? String(grid.originX) : "0");
-  const [oy, setOy] = useState(grid ? String(grid.originY) : "0");
+  const [values, setValues] = useState<Record<GridKey, string>>({
+    squareSize: grid ? String(grid.size) : "1",
+    squareOriginX: grid ? String(grid.originX) : "0",
+    squareOriginY: grid ? String(grid.originY) : "0",
+  });
   const [message, setMessage] = useState<string | null>(null);
   const save = async () => {
     setMessage(null);
     try {
-      await apiClient.call("trenchUpdate", { siteId, trenchId }, {
-        squareSize: size,
-        squareOriginX: ox,
-        squareOriginY: oy,
-      } as never);
+      await apiClient.call("trenchUpdate", { siteId, trenchId }, values as never);
       setMessage("Grid saved.");
     } catch (err) {
       setMessage(
@@ -47,36 +53,21 @@ export function GridSettings({
         void save();
       }}
     >
-      <label className="flex flex-col">
-        <span className="label">Square size (m)</span>
-        <input
-          className="field num w-24"
-          inputMode="decimal"
-          value={size}
-          onChange={(e) => setSize(e.target.value)}
-          disabled={locked}
-        />
-      </label>
-      <label className="flex flex-col">
-        <span className="label">Grid line easting (m)</span>
-        <input
-          className="field num w-28"
-          inputMode="decimal"
-          value={ox}
-          onChange={(e) => setOx(e.target.value)}
-          disabled={locked}
-        />
-      </label>
-      <label className="flex flex-col">
-        <span className="label">Grid line northing (m)</span>
-        <input
-          className="field num w-28"
-          inputMode="decimal"
-          value={oy}
-          onChange={(e) => setOy(e.target.value)}
-          disabled={locked}
-        />
-      </label>
+      {fields.map((f) => (
+        <label key={f.key} className="flex flex-col">
+          <span className="label">{f.label}</span>
+          <input
+            className={`field num ${f.width}`}
+            inputMode="decimal"
+            value={values[f.key]}
+            onChange={(e) => {
+              const value = e.target.value;
+              setValues((v) => ({ ...v, [f.key]: value }));
+            }}
+            disabled={locked}
+          />
+        </label>
+      ))}
       <button type="submit" className="btn" disabled={locked}>
         {grid ? "Change the grid" : "Set the grid"}
       </button>
