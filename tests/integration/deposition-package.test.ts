@@ -6,6 +6,9 @@ import Papa from "papaparse";
 import { session } from "../support/harness";
 import { checkBag } from "../support/bagit-check";
 import { pdfText } from "../support/pdf-text";
+import { markedPaths, pdfContent } from "../support/pdf-content";
+import { FINDS_TAG } from "@/lib/server/export/trench-record-pdf";
+import { symbolPath, type SymbolShape } from "@/lib/geometry/symbol-paths";
 import { makeUser } from "../support/fixtures";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
@@ -203,7 +206,7 @@ describe("deposition package", () => {
     expect(readme).toMatch(/box: number of the box/);
   });
 
-  it("holds each trench's record as a PDF naming the trench, its contexts and its finds by class", async () => {
+  it("holds each trench's record as a PDF naming the trench, its contexts and its finds by class, on the plan too", async () => {
     const db = await getDb();
     const { bytes } = await fetchPackage(demo.people.director!);
     const bag = checkBag(unzipSync(bytes));
@@ -223,6 +226,23 @@ describe("deposition package", () => {
       const [found] = await db.select({ n: count() }).from(s.finds).where(eq(s.finds.trenchId, t.id));
       expect(text).toMatch(new RegExp(`\nAll\n\n${found!.n}\n`));
       expect(text).toContain(t.signedOffAt ? "Signed off by" : "Not signed off");
+      // The plan draws each class's finds as one path of its symbols, in its colour: as many as it has.
+      const byClass = await db
+        .select({ colour: s.artefactClasses.colour, symbol: s.artefactClasses.symbol, n: count() })
+        .from(s.finds)
+        .innerJoin(s.artefactClasses, eq(s.artefactClasses.id, s.finds.classId))
+        .where(eq(s.finds.trenchId, t.id))
+        .groupBy(s.artefactClasses.code, s.artefactClasses.colour, s.artefactClasses.symbol)
+        .orderBy(s.artefactClasses.code);
+      const drawn = (await pdfContent(file!)).flatMap((page) => markedPaths(page, FINDS_TAG));
+      expect(drawn.map((d) => d.fill.map((v) => Math.round(v * 255)))).toEqual(
+        byClass.map((c) => [1, 3, 5].map((i) => parseInt(c.colour.slice(i, i + 2), 16))),
+      );
+      byClass.forEach((c, i) => {
+        const subpaths = (symbolPath[c.symbol as SymbolShape].match(/M/g) ?? []).length;
+        expect(drawn[i]!.ops.filter((o) => o.op === "m").length / subpaths, c.symbol).toBe(c.n);
+      });
+      expect(byClass.reduce((a, c) => a + c.n, 0)).toBe(found!.n);
     }
     expect(new TextDecoder().decode(bag.files.get("data/README.txt"))).toContain("records/");
   });

@@ -33,6 +33,18 @@ export type TrenchRecord = {
   }[];
   /** Finds by context and class, in context then class order. */
   findCounts: { context: number; classCode: string; classLabel: string; finds: number }[];
+  /**
+   * Every find's position on the site grid, by class (in class code order), with the class's colour and
+   * symbol as the plan shows them: the plan draws them. Packed in typed arrays, 16 bytes a find.
+   */
+  findPoints: {
+    classCode: string;
+    classLabel: string;
+    colour: string;
+    symbol: string;
+    x: Float64Array;
+    y: Float64Array;
+  }[];
   exportedAt: Date;
 };
 
@@ -71,6 +83,7 @@ export async function readTrenchRecord(db: Db, site: Site, trench: Trench, expor
     .innerJoin(artefactClasses, eq(artefactClasses.id, finds.classId))
     .where(eq(finds.trenchId, trench.id))
     .groupBy(finds.contextId, artefactClasses.code, artefactClasses.label);
+  const findPoints = await readFindPoints(db, site.id, trench.id);
   // The fingerprint stamped when the trench was last signed off (the sign-off step records it).
   const [stamp] = trench.signedOffAt
     ? await db
@@ -119,6 +132,46 @@ export async function readTrenchRecord(db: Db, site: Site, trench: Trench, expor
         finds: Number(r.n),
       }))
       .sort((a, b) => a.context - b.context || a.classCode.localeCompare(b.classCode)),
+    findPoints,
     exportedAt,
   };
+}
+
+/** The trench's finds as positions by class, read as bare numbers (no find rows are kept). */
+async function readFindPoints(db: Db, siteId: string, trenchId: string): Promise<TrenchRecord["findPoints"]> {
+  const classes = await db
+    .select({
+      id: artefactClasses.id,
+      code: artefactClasses.code,
+      label: artefactClasses.label,
+      colour: artefactClasses.colour,
+      symbol: artefactClasses.symbol,
+    })
+    .from(artefactClasses)
+    .where(eq(artefactClasses.siteId, siteId));
+  const rows = await db
+    .select({ classId: finds.classId, x: finds.x, y: finds.y })
+    .from(finds)
+    .where(eq(finds.trenchId, trenchId));
+  const byClass = new Map<string, { x: number[]; y: number[] }>();
+  for (const r of rows) {
+    let pts = byClass.get(r.classId);
+    if (!pts) byClass.set(r.classId, (pts = { x: [], y: [] }));
+    pts.x.push(r.x);
+    pts.y.push(r.y);
+  }
+  return classes
+    .filter((c) => byClass.has(c.id))
+    .sort((a, b) => a.code.localeCompare(b.code))
+    .map((c) => {
+      const pts = byClass.get(c.id)!;
+      return {
+        classCode: c.code,
+        classLabel: c.label,
+        colour: c.colour,
+        symbol: c.symbol,
+        x: Float64Array.from(pts.x),
+        y: Float64Array.from(pts.y),
+      };
+    });
 }

@@ -1,13 +1,35 @@
 import "server-only";
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import {
+  PDFDocument,
+  StandardFonts,
+  appendBezierCurve,
+  beginMarkedContent,
+  closePath,
+  drawSvgPath,
+  endMarkedContent,
+  fillAndStroke,
+  lineTo,
+  moveTo,
+  popGraphicsState,
+  pushGraphicsState,
+  rgb,
+  setFillingColor,
+  setLineWidth,
+  setStrokingColor,
+  type PDFFont,
+  type PDFOperator,
+  type PDFPage,
+} from "pdf-lib";
 import type { PolygonJson } from "@/db/schema";
+import { symbolPath, type SymbolShape } from "@/lib/geometry/symbol-paths";
 import { formatWhen } from "@/lib/words/when";
 import type { TrenchRecord } from "./trench-record-data";
 
 /**
  * The trench record as a PDF for the deposition package, written by pdf-lib (plain JavaScript, no browser):
- * summary and sign-off, the plan as vector lines (trench outline, context extents), each context sheet
- * with its relations, and the finds counted by context and class. The standard Helvetica needs no font
+ * summary and sign-off, the plan as vector lines (trench outline, context extents) with every find as its
+ * class's symbol in its class's colour and a key, each context sheet with its relations, and the finds
+ * counted by context and class. The standard Helvetica needs no font
  * file; a character it cannot show is written "?".
  */
 const PAGE: [number, number] = [595.28, 841.89]; // A4 in points
@@ -105,8 +127,85 @@ function scaleBar(k: number): number {
   return 1000;
 }
 
-/** The plan: the trench outline and the contexts' extents as lines, numbered, with a scale bar and grid north. */
-function drawPlan(w: Writer, outline: PolygonJson, extents: { number: number; extent: PolygonJson }[]): void {
+/** Radius of a find's symbol on the plan, in points (about 0.6 mm, as a find dot on a drawn plan). */
+export const FIND_SYMBOL_R = 1.6;
+/** The marked-content tag round each class's finds on the plan (one filled path per class). */
+export const FINDS_TAG = "LoamworkFinds";
+
+type PathSegment = { op: "m" | "l" | "c" | "h"; args: number[] };
+const unitShapes = new Map<string, PathSegment[]>();
+
+/**
+ * A class symbol in its unit box (the shared shapes of lib/geometry/symbol-paths.ts, SVG axes: y down) as
+ * PDF path segments, arcs already turned into curves by pdf-lib.
+ */
+function unitShape(symbol: string): PathSegment[] {
+  const known = unitShapes.get(symbol);
+  if (known) return known;
+  const d = symbolPath[symbol as SymbolShape] ?? symbolPath.disc;
+  const segments = drawSvgPath(d, { x: 0, y: 0, scale: 1, color: INK, borderColor: undefined, borderWidth: 0 })
+    .map((op) => op.toString().trim().split(/\s+/))
+    .filter((t) => ["m", "l", "c", "h"].includes(t[t.length - 1] ?? ""))
+    .map((t) => ({ op: t[t.length - 1] as PathSegment["op"], args: t.slice(0, -1).map(Number) }));
+  unitShapes.set(symbol, segments);
+  return segments;
+}
+
+/** Two decimals of a point (a hundredth of a point is far below what prints) keep the plan's stream small. */
+const pt = (n: number) => Math.round(n * 100) / 100;
+
+/** "#rrggbb" as a pdf-lib colour; anything else grey. */
+function colourOf(hex: string) {
+  const m = /^#([0-9a-f]{2})([0-9a-f]{2})([0-9a-f]{2})$/i.exec(hex);
+  return m ? rgb(parseInt(m[1]!, 16) / 255, parseInt(m[2]!, 16) / 255, parseInt(m[3]!, 16) / 255) : SOFT;
+}
+
+/**
+ * Every find of a class as one filled and outlined path: one fill however many finds there are, so a trench
+ * of thousands of finds stays a small file. Wrapped in a marked-content sequence so a reader can tell the
+ * plan's finds from the key.
+ */
+function classSymbols(
+  page: PDFPage,
+  symbol: string,
+  colour: string,
+  points: Iterable<{ x: number; y: number }>,
+  r: number,
+  tag?: string,
+): number {
+  const shape = unitShape(symbol);
+  const ops: PDFOperator[] = [];
+  if (tag) ops.push(beginMarkedContent(tag));
+  ops.push(pushGraphicsState(), setFillingColor(colourOf(colour)), setStrokingColor(INK), setLineWidth(0.3));
+  let n = 0;
+  for (const p of points) {
+    n++;
+    for (const s of shape) {
+      const a = s.args;
+      const x = (i: number) => pt(p.x + r * a[i]!);
+      const y = (i: number) => pt(p.y - r * a[i + 1]!);
+      if (s.op === "m") ops.push(moveTo(x(0), y(0)));
+      else if (s.op === "l") ops.push(lineTo(x(0), y(0)));
+      else if (s.op === "c") ops.push(appendBezierCurve(x(0), y(0), x(2), y(2), x(4), y(4)));
+      else ops.push(closePath());
+    }
+  }
+  ops.push(fillAndStroke(), popGraphicsState());
+  if (tag) ops.push(endMarkedContent());
+  if (n) page.pushOperators(...ops);
+  return n;
+}
+
+/**
+ * The plan: the trench outline and the contexts' extents as lines, numbered, every find as its class's
+ * symbol, with a scale bar and grid north; then the key to the finds' symbols.
+ */
+function drawPlan(
+  w: Writer,
+  outline: PolygonJson,
+  extents: { number: number; extent: PolygonJson }[],
+  finds: TrenchRecord["findPoints"],
+): void {
   const all = [outline, ...extents.map((e) => e.extent)].flatMap((p) => p.coordinates.flat());
   if (!all.length) return;
   const xs = all.map((p) => p[0]);
@@ -133,6 +232,13 @@ function drawPlan(w: Writer, outline: PolygonJson, extents: { number: number; ex
     w.page.drawText(String(e.number), { x: p.x - 8, y: p.y - 3, size: 7, color: SOFT });
   }
   rings(outline, 1.4, INK);
+  for (const c of finds) {
+    const page = w.page;
+    function* placed() {
+      for (let i = 0; i < c.x.length; i++) yield at(c.x[i]!, c.y[i]!);
+    }
+    classSymbols(page, c.symbol, c.colour, placed(), FIND_SYMBOL_R, FINDS_TAG);
+  }
   const bar = scaleBar(k);
   const base = top - boxH + 8;
   w.page.drawLine({ start: { x: MARGIN, y: base }, end: { x: MARGIN + bar * k, y: base }, thickness: 2, color: INK });
@@ -141,6 +247,14 @@ function drawPlan(w: Writer, outline: PolygonJson, extents: { number: number; ex
   w.page.drawLine({ start: { x: nx, y: base }, end: { x: nx, y: base + 24 }, thickness: 1.2, color: INK });
   w.page.drawText("N (grid)", { x: nx - 34, y: base + 28, size: 8, color: INK });
   w.y = top - boxH - 6;
+
+  if (!finds.length) return;
+  w.text("Key to the finds on the plan", { size: 9, bold: true });
+  for (const c of finds) {
+    w.room(12);
+    classSymbols(w.page, c.symbol, c.colour, [{ x: MARGIN + 6, y: w.y - 5 }], 3.5);
+    w.row([[`${c.classCode} ${c.classLabel}: ${c.x.length} find${c.x.length === 1 ? "" : "s"}`, 16]], { size: 8 });
+  }
 }
 
 export async function trenchRecordPdf(r: TrenchRecord): Promise<Uint8Array> {
@@ -181,6 +295,7 @@ export async function trenchRecordPdf(r: TrenchRecord): Promise<Uint8Array> {
     w,
     r.trench.outline,
     r.contexts.flatMap((c) => (c.extent ? [{ number: c.number, extent: c.extent }] : [])),
+    r.findPoints,
   );
 
   w.gap(6);
