@@ -4,7 +4,7 @@
  * travels with the engine's TypeScript into worker threads and bundles without a file to find at run time.
  * Used by `npm run build:kernel` and by the tests that check the committed modules are up to date.
  */
-import { readFileSync } from "node:fs";
+import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import asc from "assemblyscript/asc";
 
@@ -28,11 +28,33 @@ export const kernelModulePath = (kernel: Kernel): string => join(KERNEL_DIR, ker
 /** asc options: release build, SIMD, the minimal runtime (the kernels allocate nothing). */
 const OPTIONS = { optimizeLevel: 3, shrinkLevel: 0, noAssert: true, runtime: "stub", enable: ["simd"] };
 
+/**
+ * The kernel's source is the one entry file; files it imports (asm/bin-search.ts) are read from asm/ and
+ * compiled into it, not exported.
+ */
 export async function compileKernel(kernel: Kernel = KERNELS.isotropic): Promise<Uint8Array> {
-  const source = readFileSync(join(KERNEL_DIR, "asm", kernel.source), "utf8");
-  const out = await asc.compileString({ [kernel.source]: source }, OPTIONS);
-  if (out.error || !out.binary) throw new Error(`asc failed: ${out.error?.message ?? ""}\n${out.stderr.toString()}`);
-  return out.binary;
+  const written: Record<string, Uint8Array> = {};
+  const args = ["--outFile", "kernel.wasm", kernel.source];
+  for (const [k, v] of Object.entries(OPTIONS)) {
+    const flag = `--${k}`;
+    if (v === true) args.push(flag);
+    else args.push(flag, Array.isArray(v) ? v.join(",") : String(v));
+  }
+  const stderr: string[] = [];
+  const out = await asc.main(args, {
+    readFile: (name) => {
+      const path = join(KERNEL_DIR, "asm", name);
+      return name.endsWith(".ts") && existsSync(path) ? readFileSync(path, "utf8") : null;
+    },
+    writeFile: (name, contents) => {
+      written[name] = contents as Uint8Array;
+    },
+    listFiles: () => [],
+    stderr: { write: (s: string | Uint8Array) => stderr.push(String(s)) } as never,
+  });
+  const binary = written["kernel.wasm"];
+  if (out.error || !binary) throw new Error(`asc failed: ${out.error?.message ?? ""}\n${stderr.join("")}`);
+  return binary;
 }
 
 export function renderKernelModule(binary: Uint8Array, kernel: Kernel = KERNELS.isotropic): string {

@@ -43,14 +43,12 @@ export interface SetCovarianceTable {
   /**
    * The grid itself, for kernels that look up inline: cell c = iy·gx + ix covers v_x ∈ −reach + [ix, ix+1]·h,
    * v_y ∈ [iy, iy+1]·h (h = reach / gy); cell[8c .. 8c+5] is its polynomial in (v_x, v_y) (terms 1, x, y, x²,
-   * xy, y²), cell[8c+6] and cell[8c+7] the first and end index of its listed pairs (see `listedTerms`).
+   * xy, y²), cell[8c+6] and cell[8c+7] the first and end index of its listed pairs in `listE`, `listF`.
    */
   readonly cell: Float64Array;
   readonly gx: number;
   readonly gy: number;
   readonly invH: number;
-  /** Σ of the listed pairs' terms of cell c at v (v_y ≥ 0, within the cell). */
-  listedTerms(c: number, dx: number, dy: number): number;
   /** The listed pairs of all cells: edge listE[k] of W with edge listF[k] of W + v (indices into `trapezoids`). */
   readonly listE: Int32Array;
   readonly listF: Int32Array;
@@ -316,28 +314,7 @@ export function createSetCovarianceTable(
     const pi = pairs.i,
       pj = pairs.j;
     for (let p = 0, count = pairs.count; p < count; p++) {
-      const i = pi[p],
-        j = pj[p];
-      let dx = bx[j] - ax[i],
-        dy = by[j] - ay[i];
-      if (dy < 0 || (dy === 0 && dx < 0)) {
-        dx = -dx;
-        dy = -dy;
-      }
-      let overlap: number;
-      if (dx < -reach || dx > reach || dy > reach) overlap = setCovariance(window, dx, dy);
-      else {
-        let ix = Math.floor((dx + reach) * invH),
-          iy = Math.floor(dy * invH);
-        if (ix >= gx) ix = gx - 1;
-        else if (ix < 0) ix = 0;
-        if (iy >= gy) iy = gy - 1;
-        const c = iy * gx + ix;
-        const o = 8 * c;
-        overlap =
-          cell[o] + dx * (cell[o + 1] + cell[o + 3] * dx + cell[o + 4] * dy) + dy * (cell[o + 2] + cell[o + 5] * dy);
-        if (cell[o + 6] !== cell[o + 7]) overlap += listedTerms(c, dx, dy);
-      }
+      const overlap = at(bx[pj[p]] - ax[pi[p]], by[pj[p]] - ay[pi[p]]);
       w[p] = area / (overlap > floor ? overlap : floor);
     }
     return w;
@@ -353,7 +330,6 @@ export function createSetCovarianceTable(
     gx,
     gy,
     invH,
-    listedTerms,
     listE: le,
     listF: lf,
     trapezoids: t,

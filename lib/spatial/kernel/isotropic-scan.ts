@@ -9,12 +9,12 @@
 import type { CellGrid } from "./cell-grid";
 import { fanAngle } from "../geometry/edge-isotropic";
 import { ISOTROPIC_SCAN_WASM } from "./isotropic-scan-wasm";
+import { embeddedModule, layOut } from "./wasm-module";
 import { edgeTolerance } from "./isotropic-weights";
 import type { Window } from "../types";
 
 /** f64 values per block of two edge slots in linear memory (asm/isotropic-scan.ts). */
 const BLOCK = 10;
-const PAGE = 65536;
 
 type ScanExport = (
   n: number,
@@ -53,19 +53,8 @@ type PrepareExport = (
   pScratch: number,
 ) => number;
 
-let compiled: WebAssembly.Module | null | undefined;
-
 /** The compiled kernel, once per thread; null when this runtime cannot compile it (no WebAssembly SIMD). */
-export function isotropicScanModule(): WebAssembly.Module | null {
-  if (compiled === undefined) {
-    try {
-      compiled = new WebAssembly.Module(Uint8Array.from(atob(ISOTROPIC_SCAN_WASM), (c) => c.charCodeAt(0)));
-    } catch {
-      compiled = null;
-    }
-  }
-  return compiled;
-}
+export const isotropicScanModule = embeddedModule(ISOTROPIC_SCAN_WASM);
 
 export interface WasmIsotropicScan {
   /**
@@ -135,29 +124,21 @@ export function createWasmIsotropicScan(
   const layout = (n: number, b: number): void => {
     capN = Math.max(n, capN);
     capBlocks = Math.max(b, capBlocks);
-    let off = 0;
-    const take = (bytes: number): number => {
-      const o = off;
-      off += Math.ceil(bytes / 16) * 16;
-      return o;
-    };
-    at = {
-      r: take(8 * m),
-      hist: take(8 * (m + 1)),
-      ext: take(4 * (reach + 1)),
-      edges: take(32 * edgeCount),
-      scratch: take(40 * edgeCount),
-      cell: take(4 * (cells + 1)),
-      sx: take(8 * capN),
-      sy: take(8 * capN),
-      bd: take(8 * capN),
-      total: take(8 * capN),
-      u: take(8 * capN),
-      start: take(4 * (capN + 1)),
-      blocks: take(8 * BLOCK * capBlocks),
-    };
-    const pages = Math.ceil(off / PAGE) - memory.buffer.byteLength / PAGE;
-    if (pages > 0) memory.grow(pages);
+    at = layOut(memory, {
+      r: 8 * m,
+      hist: 8 * (m + 1),
+      ext: 4 * (reach + 1),
+      edges: 32 * edgeCount,
+      scratch: 40 * edgeCount,
+      cell: 4 * (cells + 1),
+      sx: 8 * capN,
+      sy: 8 * capN,
+      bd: 8 * capN,
+      total: 8 * capN,
+      u: 8 * capN,
+      start: 4 * (capN + 1),
+      blocks: 8 * BLOCK * capBlocks,
+    });
     f64 = new Float64Array(memory.buffer);
     i32 = new Int32Array(memory.buffer);
     f64.set(binEdges, at.r / 8);
@@ -172,133 +153,81 @@ export function createWasmIsotropicScan(
     i32.set(g.cellStart, at.cell / 4);
   };
 
-  return {
-    scan(g, n, hist, u) {
+  /** Fill the points' edge slots, growing the blocks when a pattern needs more than any before. */
+  const prepare = (g: CellGrid, n: number, u: Float64Array | null): void => {
+    load(g, n);
+    if (u) f64.set(u.subarray(0, n), at.u / 8);
+    while (
+      runPrepare(
+        n,
+        edgeCount,
+        rmax,
+        tol,
+        at.sx,
+        at.sy,
+        at.edges,
+        at.bd,
+        at.total,
+        at.start,
+        at.blocks,
+        capBlocks,
+        at.scratch,
+      ) < 0
+    ) {
+      // more edge slots than ever before: room for every point to have every edge within r max
+      layout(capN, n * Math.ceil(edgeCount / 2));
       load(g, n);
       if (u) f64.set(u.subarray(0, n), at.u / 8);
-      while (
-        runPrepare(
-          n,
-          edgeCount,
-          rmax,
-          tol,
-          at.sx,
-          at.sy,
-          at.edges,
-          at.bd,
-          at.total,
-          at.start,
-          at.blocks,
-          capBlocks,
-          at.scratch,
-        ) < 0
-      ) {
-        // more edge slots than ever before: room for every point to have every edge within r max
-        layout(capN, n * Math.ceil(edgeCount / 2));
-        load(g, n);
-        if (u) f64.set(u.subarray(0, n), at.u / 8);
-      }
+    }
+  };
+
+  /** The scan over the loaded pattern (weigh: 0 count, 1 weigh, 2 unit weights); hist gets the bins. */
+  const run = (g: CellGrid, n: number, hist: Float64Array | null, weigh: 0 | 1 | 2, u: boolean): number => {
+    if (hist) f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
+    const pairs = runScan(
+      n,
+      g.nx,
+      g.ny,
+      reach,
+      rmax * rmax,
+      m,
+      (m - 1) / rmax,
+      at.sx,
+      at.sy,
+      at.cell,
+      at.bd,
+      at.total,
+      at.start,
+      at.blocks,
+      at.r,
+      at.hist,
+      u ? at.u : 0,
+      at.ext,
+      weigh,
+    );
+    if (hist) hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
+    return pairs;
+  };
+
+  return {
+    scan(g, n, hist, u) {
+      prepare(g, n, u);
       // a find digitised on the trench edge sees less than 2π of W (computed here, as isotropic-weights.ts)
       const t0 = at.total / 8;
       for (let i = 0; i < n; i++) if (f64[t0 + i] < 0) f64[t0 + i] = fanAngle(edges, edgeCount, g.sx[i], g.sy[i], tol);
-      f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = runScan(
-        n,
-        g.nx,
-        g.ny,
-        reach,
-        rmax * rmax,
-        m,
-        (m - 1) / rmax,
-        at.sx,
-        at.sy,
-        at.cell,
-        at.bd,
-        at.total,
-        at.start,
-        at.blocks,
-        at.r,
-        at.hist,
-        u ? at.u : 0,
-        at.ext,
-        1,
-      );
-      hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
-      return pairs;
+      return run(g, n, hist, 1, u !== null);
     },
     part(g, n, hist, which) {
-      load(g, n);
       if (which === "prepare") {
-        while (
-          runPrepare(
-            n,
-            edgeCount,
-            rmax,
-            tol,
-            at.sx,
-            at.sy,
-            at.edges,
-            at.bd,
-            at.total,
-            at.start,
-            at.blocks,
-            capBlocks,
-            at.scratch,
-          ) < 0
-        ) {
-          layout(capN, n * Math.ceil(edgeCount / 2));
-          load(g, n);
-        }
+        prepare(g, n, null);
         return 0;
       }
-      f64.fill(0, at.hist / 8, at.hist / 8 + m + 1);
-      const pairs = runScan(
-        n,
-        g.nx,
-        g.ny,
-        reach,
-        rmax * rmax,
-        m,
-        (m - 1) / rmax,
-        at.sx,
-        at.sy,
-        at.cell,
-        at.bd,
-        at.total,
-        at.start,
-        at.blocks,
-        at.r,
-        at.hist,
-        0,
-        at.ext,
-        2,
-      );
-      hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
-      return pairs;
+      load(g, n);
+      return run(g, n, hist, 2, false);
     },
     countPairs(g, n) {
       load(g, n);
-      return runScan(
-        n,
-        g.nx,
-        g.ny,
-        reach,
-        rmax * rmax,
-        m,
-        (m - 1) / rmax,
-        at.sx,
-        at.sy,
-        at.cell,
-        at.bd,
-        at.total,
-        at.start,
-        at.blocks,
-        at.r,
-        at.hist,
-        0,
-        at.ext,
-        0,
-      );
+      return run(g, n, null, 0, false);
     },
   };
 }

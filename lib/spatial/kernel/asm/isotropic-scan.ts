@@ -28,24 +28,11 @@
  * first segment distance.
  */
 
+import { binSearch } from "./bin-search";
+
 const TWO_PI: f64 = 6.283185307179586;
 const MAX_WEIGHT: f64 = 100;
 const BLOCK: usize = 80;
-
-/** spatstat's whist rule (r-grid.ts createBinner): smallest k with d < r[k]; d = r[m−1] in bin m−1. */
-@inline function binSearch(d: f64, pR: usize, m: i32): i32 {
-  const last = load<f64>(pR + ((<usize>(m - 1)) << 3));
-  if (d > last) return m;
-  if (d == last) return m - 1;
-  let lo: i32 = 0;
-  let hi: i32 = m - 1;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (load<f64>(pR + ((<usize>mid) << 3)) > d) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
 
 /** Isotropic weight of centre i at distance d > its boundary distance (inv = 1/d). */
 @inline function weightBeyond(i: i32, d: f64, inv: f64, pStart: usize, pBlocks: usize, pTotal: usize): f64 {

@@ -21,20 +21,7 @@
  *   trapezoids  f64[5·E]      per non-vertical edge: x0, x1, y0, slope, sigma (edge-translation.ts)
  */
 
-/** spatstat's whist rule (r-grid.ts createBinner): smallest k with d < r[k]; d = r[m−1] in bin m−1. */
-@inline function binSearch(d: f64, pR: usize, m: i32): i32 {
-  const last = load<f64>(pR + ((<usize>(m - 1)) << 3));
-  if (d > last) return m;
-  if (d == last) return m - 1;
-  let lo: i32 = 0;
-  let hi: i32 = m - 1;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (load<f64>(pR + ((<usize>mid) << 3)) > d) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
+import { binSearch } from "./bin-search";
 
 /** The listed edge pairs' terms of a cell at v = (dx, dy), v_y ≥ 0 (set-covariance-table.ts listedTerms). */
 function listedTerms(k0: i32, k1: i32, dx: f64, dy: f64, pLe: usize, pLf: usize, pTrap: usize, E: i32): f64 {
