@@ -1,11 +1,11 @@
 "use client";
 
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { ClarkEvansOut } from "@/lib/api/run-result";
+import type { ClarkEvansView } from "@/lib/patterns-view/test-view";
 import { PlotFrame } from "./plot-frame";
 
 /** Nearest-neighbour distances of one class, binned. */
-export function NnHistogram({ t, code, colour }: { t: ClarkEvansOut; code: string; colour: string }) {
+export function NnHistogram({ t, code, colour }: { t: ClarkEvansView; code: string; colour: string }) {
   const { edges, counts } = t.histogram;
   // Bin k runs from edge k to edge k + 1; a count without both edges has no place on the axis.
   const bins = counts.flatMap((count, k) => {

@@ -1,6 +1,7 @@
 "use client";
 
-import type { ClassInScope, RunResult, TestOut } from "@/lib/api/run-result";
+import type { ClassInScope, RunResult } from "@/lib/api/run-result";
+import type { TestView } from "@/lib/patterns-view/test-view";
 import { NnHistogram } from "./bar-plots";
 import { QuadratMap } from "./quadrat-map";
 import { CurvePlot } from "./curve-plot";
@@ -12,7 +13,7 @@ export function TestFigure({
   cls,
   name,
 }: {
-  t: TestOut;
+  t: TestView;
   result: RunResult;
   cls?: ClassInScope;
   name: (id: string) => string;

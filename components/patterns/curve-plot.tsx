@@ -11,7 +11,7 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
-import type { Curve, Departure } from "@/lib/api/run-result";
+import type { Curve, Departure } from "@/lib/patterns-view/test-view";
 import { PlotFrame } from "./plot-frame";
 
 type Props = {

@@ -1,4 +1,4 @@
-import type { Departure } from "@/lib/api/run-result";
+import type { Departure } from "@/lib/patterns-view/test-view";
 import { fmtM } from "./words";
 
 /**

@@ -4,7 +4,8 @@
  * "random"), a cluster size is "roughly" (read from where the L curve rejoins its band, which tends to
  * overstate), and "no clear pattern" is not a claim that the finds lie at random.
  */
-import type { ClassInScope, CrossOut, Departure, SquareTestOut, TestOut } from "@/lib/api/run-result";
+import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import type { CrossView, Departure, TestView } from "@/lib/patterns-view/test-view";
 import { mainDepartures } from "./departures";
 
 /** statistics.md: fewer than about 20 points gives little power (the server's LOW_POWER_N). */
@@ -14,7 +15,7 @@ export const LOW_POWER_N = 20;
 const metres = (v: number) => `${Number(v.toPrecision(2))} m`;
 
 /** The badge on a test's card: the answer in plain words. */
-export function badgeWords(t: TestOut): string {
+export function badgeWords(t: TestView): string {
   switch (t.verdict) {
     case "clustered":
       return t.kind === "k-difference" ? "One class more grouped" : "Grouped together";
@@ -30,7 +31,7 @@ export function badgeWords(t: TestOut): string {
 }
 
 /** Too few finds for a "no clear pattern" to mean much (statistics.md: under about 20, little power). */
-function fewIn(t: TestOut): boolean {
+function fewIn(t: TestView): boolean {
   return "nA" in t ? Math.min(t.nA, t.nB) < LOW_POWER_N : t.n < LOW_POWER_N;
 }
 
@@ -46,10 +47,10 @@ function groupSize(deps: Departure[], rmax: number): number | null {
 }
 
 /** The tests that look at one class on its own, strongest first: global envelope tests, then the rest. */
-const ORDER: TestOut["kind"][] = ["l-envelope", "pcf-envelope", "inhomogeneous-l", "clark-evans", "quadrat"];
+const ORDER: TestView["kind"][] = ["l-envelope", "pcf-envelope", "inhomogeneous-l", "clark-evans", "quadrat"];
 
 /** One sentence for a class, from all the tests run on it. */
-export function classSentence(c: ClassInScope, tests: TestOut[], rmax: number): string {
+export function classSentence(c: ClassInScope, tests: TestView[], rmax: number): string {
   const who = `${c.label} (${c.code}) finds`;
   const own = tests
     .filter((t) => "classId" in t && t.classId === c.id)
@@ -75,7 +76,7 @@ export function classSentence(c: ClassInScope, tests: TestOut[], rmax: number): 
 }
 
 /** One sentence for a pair of classes, from a cross-L or K-difference test. */
-export function pairSentence(t: CrossOut, name: (id: string) => string, rmax: number): string {
+export function pairSentence(t: CrossView, name: (id: string) => string, rmax: number): string {
   const a = name(t.a);
   const b = name(t.b);
   switch (t.verdict) {

@@ -2,6 +2,7 @@
 
 import { useCallback, useMemo, useState } from "react";
 import type { RunResult } from "@/lib/api/run-result";
+import { testViews } from "@/lib/patterns-view/test-view";
 import { AfterPaint } from "./after-paint";
 import { PlotFrame } from "./plot-frame";
 
@@ -51,9 +52,10 @@ export function PlanOverlay({ result, runName }: { result: RunResult; runName: s
     .join(" ");
   const density = result.density.find((d) => d.classId === classId);
   const peak = density ? Math.max(...density.values) : 1;
-  const quadrat = result.tests.find((t) => t.kind === "quadrat" && t.classId === classId);
+  const views = useMemo(() => testViews(result), [result]);
+  const quadrat = views.find((t) => t.kind === "quadrat" && t.classId === classId);
   const cls = result.classes.find((c) => c.id === classId);
-  const pts = result.points.find((p) => p.classId === classId);
+  const pts = result.finds.find((p) => p.classId === classId);
   const heat = useMemo(() => {
     if (!density) return [];
     const byShade: string[][] = Array.from({ length: SHADES }, () => []);

@@ -1,6 +1,6 @@
 "use client";
 
-import type { QuadratOut } from "@/lib/api/run-result";
+import type { QuadratView } from "@/lib/patterns-view/test-view";
 import { SquareMap } from "@/components/squares/square-map";
 import { classBreaks, classLabels, classOf, formatValue } from "@/lib/squares/colour-classes";
 import type { MapCell } from "@/lib/squares/map-cells";
@@ -11,7 +11,7 @@ import { PlotFrame } from "./plot-frame";
  * by its observed count (viridis, quantile classes) and labelled "observed / expected", the expected count
  * being proportional to the cell's area inside the trench. Replaces the chart of counts by cell index.
  */
-export function QuadratMap({ t, code, outline }: { t: QuadratOut; code: string; outline: [number, number][][] }) {
+export function QuadratMap({ t, code, outline }: { t: QuadratView; code: string; outline: [number, number][][] }) {
   const scale = classBreaks(
     t.cells.map((c) => c.count),
     "quantile",

@@ -9,6 +9,7 @@ import { SquareResults } from "./square-results";
 import { VerdictCard } from "./verdict-card";
 import { fmtM } from "./words";
 import { depthWords, leftOutWords } from "@/lib/levels/depth-words";
+import { testViews } from "@/lib/patterns-view/test-view";
 
 /** A finished run: header with everything needed to reproduce it, warnings, verdicts and figures, cautions. */
 export function RunResultView({ run, compact = false }: { run: RunView; compact?: boolean }) {
@@ -20,11 +21,12 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
     const c = byId.get(id);
     return c ? `${c.label} (${c.code})` : "?";
   };
+  const views = testViews(result);
   const perClass = result.classes.map((c) => ({
     c,
-    tests: result.tests.filter((t) => "classId" in t && t.classId === c.id),
+    tests: views.filter((t) => "classId" in t && t.classId === c.id),
   }));
-  const between = result.tests.filter((t) => t.kind === "cross-l" || t.kind === "k-difference");
+  const between = views.filter((t) => t.kind === "cross-l" || t.kind === "k-difference");
   const p = run.params;
   return (
     <div className="space-y-4" data-testid="run-result">

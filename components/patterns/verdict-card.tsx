@@ -1,4 +1,4 @@
-import type { TestOut } from "@/lib/api/run-result";
+import type { TestView } from "@/lib/patterns-view/test-view";
 import { departureSentences } from "./departures";
 import { badgeWords, withoutP } from "./plain-words";
 import { fmtP, TEST_LABEL, VERDICT_TONE } from "./words";
@@ -7,7 +7,7 @@ import { fmtP, TEST_LABEL, VERDICT_TONE } from "./words";
  * One test's verdict: the answer in plain words with p (once, in one format), then the detail line in the
  * test's own terms, what it asked, where the curve left the band.
  */
-export function VerdictCard({ t, rmax, subject }: { t: TestOut; rmax: number; subject: string }) {
+export function VerdictCard({ t, rmax, subject }: { t: TestView; rmax: number; subject: string }) {
   const deps =
     "departures" in t
       ? departureSentences(

@@ -1,4 +1,4 @@
-import type { VerdictWord } from "@/lib/api/run-result";
+import type { VerdictWord } from "@/lib/patterns-view/test-view";
 
 export const VERDICT_TONE: Record<VerdictWord, string> = {
   clustered: "border-accent bg-accent-light text-accent-dark",

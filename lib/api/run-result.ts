@@ -1,99 +1,31 @@
 /**
- * The stored result of a run, as the workspace reads it. Loamwork's own shape, built from the engine's
- * output by lib/server/analysis/result-adapter.ts, so the plots and verdicts do not depend on the engine's internal
- * types.
+ * The stored result of a run: the engine's own result (lib/spatial/run/run-test.ts), each test as the engine
+ * gave it (its verdict, p-value, curves and pictures), with what the workspace draws around it: the classes
+ * in scope, the trench outline, where the finds lie, the heat layers, and the tests on counts by grid square
+ * (these still in Loamwork's words, as lib/server/analysis/square-tests.ts words the engine's lattice results).
+ * How a test is worded and drawn (verdict words, the sentence to quote, L(r) − r) is worked out on screen by
+ * lib/patterns-view. Results stored in the earlier shape are read into this one by
+ * lib/server/analysis/former-result.ts, the only place that knows that shape.
  * Plain numbers and arrays only (it is stored as JSON in analysis_runs.result). Types only: safe to
  * import from client components.
  */
+import type { EnvelopeOutcome, RunResult as EngineRunResult, TestResult } from "@/lib/spatial";
 import type { Correction, SquareTestKind } from "@/lib/schemas/run";
-
-export type VerdictWord = "clustered" | "regular" | "no-evidence" | "associated" | "segregated";
-
-/** A stretch of distances where the observed curve lies outside the pointwise band. */
-export type Departure = { side: "above" | "below"; from: number; to: number; rejoins: boolean };
-
-/** null where the curve is undefined (border correction beyond the deepest points): a gap in the plot. */
-export type Curve = {
-  r: number[];
-  obs: (number | null)[];
-  lo?: (number | null)[];
-  hi?: (number | null)[];
-  theo?: (number | null)[];
-};
 
 export type ClassInScope = { id: string; code: string; label: string; colour: string; symbol: string; n: number };
 
-type Base = {
-  /** Plain-language verdict at the run's level. */
-  verdict: VerdictWord;
-  /** One sentence a specialist can quote, naming the test, p, simulations and seed. */
-  sentence: string;
-  p: number | null;
-  /** Which question this test answered (and, for cross tests, what inflates it). */
-  question: string;
-  notes: string[];
-};
+type Drawn = "r" | "observed" | "reference" | "excursions" | "fun" | "nsim" | "pValue" | "statistic";
 
-export type ClarkEvansOut = Base & {
-  kind: "clark-evans";
-  classId: string;
-  n: number;
-  R: number;
-  z: number | null;
-  meanNN: number;
-  expectedNN: number;
-  correction: "none" | "donnelly" | "monte-carlo";
-  alternative: string;
-  /** Nearest-neighbour distances histogram. */
-  histogram: { edges: number[]; counts: number[] };
-};
-export type QuadratCell = { x0: number; y0: number; x1: number; y1: number; count: number; expected: number };
-export type QuadratOut = Base & {
-  kind: "quadrat";
-  classId: string;
-  n: number;
-  cellSize: number;
-  X2: number;
-  df: number;
-  vmr: number;
-  monteCarlo: boolean;
-  cells: QuadratCell[];
-};
-export type LOut = Base & {
-  kind: "l-envelope";
-  classId: string;
-  n: number;
-  statistic: "mad" | "dclf" | "rank";
-  count: "fixed" | "poisson";
-  /** L(r) − r and its band. */
-  curve: Curve;
-  departures: Departure[];
-  /** Rough cluster diameter read from the first departure above (overstates, statistics.md). */
-  clusterScale: { from: number; to: number } | null;
-};
-export type PcfOut = Base & { kind: "pcf-envelope"; classId: string; n: number; curve: Curve; bandwidth: number };
-export type CrossOut = Base & {
-  kind: "cross-l" | "k-difference";
-  a: string;
-  b: string;
-  nA: number;
-  nB: number;
-  null: "random-labelling" | "a-fixed";
-  /** "K": the test ran on cross-K and the curve is K_AB(r) itself; absent: cross-L, drawn as L_AB(r) − r. */
-  fun?: "K";
-  curve: Curve;
-  departures: Departure[];
-};
-export type InhomOut = Base & {
-  kind: "inhomogeneous-l";
-  classId: string;
-  n: number;
-  reference: string;
-  bandwidth: number;
-  curve: Curve;
-  departures: Departure[];
-};
-export type TestOut = ClarkEvansOut | QuadratOut | LOut | PcfOut | CrossOut | InhomOut;
+/**
+ * A test's curves: the engine's, whole. A run stored before the result was the engine's kept only what was
+ * drawn (the curves, the band and where the curve leaves it), so the rest may be absent.
+ */
+export type StoredCurves = Pick<EnvelopeOutcome, Drawn> & {
+  band: Pick<EnvelopeOutcome["band"], "lo" | "hi"> & Partial<EnvelopeOutcome["band"]>;
+} & Partial<Omit<EnvelopeOutcome, Drawn | "band">>;
+
+/** One test's result as the engine gave it; classes are named by their code, as the engine was given them. */
+export type StoredTest = Omit<TestResult, "curves"> & { curves?: StoredCurves };
 
 /** Verdict of a square-count test: like values together, high and low alternating, hot or cold spots found. */
 export type SquareVerdictWord = "clustered" | "dispersed" | "hot-spots" | "no-evidence" | "not-run";
@@ -156,20 +88,18 @@ export type DensityOut = {
   rule: string;
 };
 
-export type RunResult = {
-  engineVersion: string;
-  seed: number;
-  nsim: number;
-  level: number;
+export type RunResult = Omit<EngineRunResult, "results"> & {
+  /** One for each of the run's tests, in its order. */
+  results: StoredTest[];
   rmax: number;
+  /** The edge correction the run's curves used, shown with the result. */
   correction: Correction;
   outline: [number, number][][];
-  area: number;
+  /** The classes in scope, in the order the run read them. */
   classes: ClassInScope[];
-  tests: TestOut[];
   density: DensityOut[];
   /** Where each class's finds lie, for the plan overlay. */
-  points: { classId: string; x: number[]; y: number[] }[];
+  finds: { classId: string; x: number[]; y: number[] }[];
   /** Tests on counts by grid square (absent in runs stored before they existed). */
   squareTests?: SquareTestOut[];
   /** statistics.md's cautions, as the engine words them. */

@@ -152,6 +152,8 @@ export {
   type TestPicture,
   type TestResult,
 } from "./run/run-test";
+export type { CurveFunction, EnvelopeOutcome, Excursion, GlobalSummary } from "./run/run-envelope";
+export type { Verdict } from "./run/run-verdict";
 export { ENGINE_VERSION } from "./version";
 
 // Outline helpers shared with the plan editor, and the demo trench

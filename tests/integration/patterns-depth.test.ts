@@ -128,7 +128,7 @@ describe("Patterns scope by depth", () => {
     expect(run.status, run.error).toBe("done");
     expect(run.scope).toMatchObject({ levelFrom: 41.2, levelTo: 41.3 });
     expect(run.result.classes[0].n).toBe(inRange.filter((p) => p.cls === "FL").length);
-    expect(run.result.points[0].x).toHaveLength(n.FL);
+    expect(run.result.finds[0].x).toHaveLength(n.FL);
     expect(run.params.depth.noLevel.numbers).toEqual(numbersOf(planned.filter((p) => p.cls === "FL" && p.z === null)));
     expect(run.outOfDate).toBe(false);
   });

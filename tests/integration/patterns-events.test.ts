@@ -13,6 +13,7 @@ import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import * as eventsRoute from "@/app/api/sites/[siteId]/runs/[runId]/events/route";
 import * as cancelRoute from "@/app/api/sites/[siteId]/runs/[runId]/cancel/route";
+import { testViews } from "@/lib/patterns-view/test-view";
 
 let d: DemoSite;
 
@@ -96,8 +97,8 @@ describe("run events", () => {
     expect(last.data.outOfDate).toBe(false);
     // the same run as the JSON route reads it
     const read = (await call(runRoute, "GET", { siteId: d.siteId, runId: id })).json;
-    expect(last.data.result.tests).toEqual(read.result.tests);
-    const flk = last.data.result.tests.find((t: { classId: string }) => t.classId === d.cls.FLK);
+    expect(last.data.result.results).toEqual(read.result.results);
+    const flk = testViews(last.data.result).find((t) => "classId" in t && t.classId === d.cls.FLK)!;
     expect(flk.verdict).toBe("clustered");
     const timing = last.data.result.timing;
     expect(timing.engineEnd).toBeGreaterThan(timing.engineStart);

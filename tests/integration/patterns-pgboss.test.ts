@@ -11,6 +11,7 @@ import type pg from "pg";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
+import { testViews } from "@/lib/patterns-view/test-view";
 
 /**
  * Everything the environment needs is settled here, before any module reads it (lib/env caches it): the
@@ -126,7 +127,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
     await waitFor(res.json.id, (r) => r.status === "done");
     const read = await call(mods.runRoute, "GET", { siteId: d.siteId, runId: res.json.id });
     expect(read.json.progress).toBe(1);
-    expect(read.json.result.tests[0].verdict).toBe("clustered");
+    expect(testViews(read.json.result)[0]!.verdict).toBe("clustered");
     expect(read.json.outOfDate).toBe(false);
   }, 120_000);
 
@@ -190,6 +191,6 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
     const last = events.at(-1)!;
     expect(last.event).toBe("run");
     expect(last.data.status).toBe("done");
-    expect(last.data.result.tests[0].verdict).toBe("clustered");
+    expect(testViews(last.data.result)[0]!.verdict).toBe("clustered");
   }, 120_000);
 });

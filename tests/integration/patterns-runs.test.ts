@@ -49,7 +49,7 @@ describe("runs", () => {
     expect(a.status).toBe("done");
     expect(a.progress).toBe(1);
     expect(a.fingerprint).toBe(b.fingerprint);
-    expect(b.result.tests).toEqual(a.result.tests);
+    expect(b.result.results).toEqual(a.result.results);
     expect(a.outOfDate).toBe(false);
 
     // A digger moves one SHD find of 1005 by 10 cm, through the ordinary route.

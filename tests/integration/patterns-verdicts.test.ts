@@ -13,6 +13,7 @@ import * as s from "@/db/schema";
 import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import type { RunView } from "@/lib/api/patterns-responses";
+import { testViews } from "@/lib/patterns-view/test-view";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
@@ -67,7 +68,7 @@ describe("verdicts on the demo site, trench A context 1005", { timeout: 180_000 
       params: { nsim: 199, seed: 7 },
     });
     const verdict = (code: string, kind = "l-envelope") =>
-      run.result!.tests.find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
+      testViews(run.result!).find((t) => t.kind === kind && "classId" in t && t.classId === demo.cls[code])!;
     expect(verdict("FLK", "clark-evans").verdict).toBe("clustered");
     expect(verdict("SHD", "clark-evans").verdict).toBe("no-evidence");
     expect(verdict("FCR", "clark-evans").verdict).toBe("regular");
@@ -100,7 +101,7 @@ describe("FLK and CHP: which null detects that they go together", { timeout: 180
       tests: [{ kind: "cross-l", a: demo.cls.FLK, b: demo.cls.CHP, null: nul }],
       params: { nsim: 199, seed: 11 },
     });
-    return run.result!.tests[0];
+    return testViews(run.result!)[0];
   };
 
   it("one class fixed (FLK stays, CHP at random): associated", async () => {
@@ -123,7 +124,7 @@ describe("FLK and CHP: which null detects that they go together", { timeout: 180
       tests: [{ kind: "cross-l", a: demo.cls.FLK, b: demo.cls.CHP, null: "a-fixed", ...(fun && { fun }) }],
       params: { nsim: 199, seed: 11 },
     });
-    const [l, k] = [(await runToEnd(body())).result!.tests[0], (await runToEnd(body("K"))).result!.tests[0]];
+    const [l, k] = [testViews((await runToEnd(body())).result!)[0], testViews((await runToEnd(body("K"))).result!)[0]];
     if (k.kind !== "cross-l" || l.kind !== "cross-l") throw new Error("wrong kind");
     expect(k.fun).toBe("K");
     expect(l.fun).toBeUndefined();
@@ -157,7 +158,7 @@ describe("the other tests of the workspace run end to end and come back plottabl
       ],
       params: { nsim: 39, seed: 3 },
     });
-    const tests = run.result!.tests;
+    const tests = testViews(run.result!);
     expect(tests.map((t) => t.kind).sort()).toEqual([
       "inhomogeneous-l",
       "k-difference",

@@ -175,9 +175,9 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
     await mods.execute.executeRun(db, copy.id, { signal: new AbortController().signal, pool: null });
     const [single] = await db.select().from(analysisRuns).where(eq(analysisRuns.id, copy.id));
     expect(single.status).toBe("done");
-    const shared = row.result as { tests: unknown[] };
-    const alone = single.result as { tests: { p: number }[] };
-    expect(alone.tests.length).toBe(4);
-    expect(shared.tests).toEqual(alone.tests);
+    const shared = row.result as { results: unknown[] };
+    const alone = single.result as { results: unknown[] };
+    expect(alone.results.length).toBe(4);
+    expect(shared.results).toEqual(alone.results);
   }, 300_000);
 });

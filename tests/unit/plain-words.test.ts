@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { badgeWords, classSentence, pairSentence, squareSentence, withoutP } from "@/components/patterns/plain-words";
-import type { ClassInScope, CrossOut, LOut, SquareTestOut, TestOut } from "@/lib/api/run-result";
+import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import type { CrossView, LView, TestView } from "@/lib/patterns-view/test-view";
 
 const cls = (n: number): ClassInScope => ({
   id: "c1",
@@ -10,7 +11,7 @@ const cls = (n: number): ClassInScope => ({
   symbol: "disc",
   n,
 });
-const lTest = (verdict: TestOut["verdict"], n: number, departures: LOut["departures"] = []): LOut => ({
+const lTest = (verdict: TestView["verdict"], n: number, departures: LView["departures"] = []): LView => ({
   kind: "l-envelope",
   classId: "c1",
   n,
@@ -25,7 +26,7 @@ const lTest = (verdict: TestOut["verdict"], n: number, departures: LOut["departu
   departures,
   clusterScale: null,
 });
-const cross = (verdict: TestOut["verdict"], nA: number, nB: number, departures: CrossOut["departures"] = []) =>
+const cross = (verdict: TestView["verdict"], nA: number, nB: number, departures: CrossView["departures"] = []) =>
   ({
     kind: "cross-l",
     a: "a",
@@ -40,7 +41,7 @@ const cross = (verdict: TestOut["verdict"], nA: number, nB: number, departures: 
     null: "random-labelling",
     curve: { r: [], obs: [] },
     departures,
-  }) as CrossOut;
+  }) as CrossView;
 const name = (id: string) => (id === "a" ? "Flint flake (FLK)" : "Burnt stone (BST)");
 const everySentence = (n: number) =>
   (["clustered", "regular", "no-evidence"] as const).map((v) => classSentence(cls(n), [lTest(v, n)], 2));
@@ -76,7 +77,10 @@ describe("results in plain words", () => {
     expect(classSentence(cls(80), [lTest("regular", 80)], 2)).toContain("spread more evenly than chance");
     const both = classSentence(
       cls(80),
-      [lTest("regular", 80), { ...lTest("clustered", 80), kind: "pcf-envelope", bandwidth: 0.2 } as unknown as TestOut],
+      [
+        lTest("regular", 80),
+        { ...lTest("clustered", 80), kind: "pcf-envelope", bandwidth: 0.2 } as unknown as TestView,
+      ],
       2,
     );
     expect(both).toContain("the tests disagree");
@@ -98,7 +102,7 @@ describe("results in plain words", () => {
       "Flint flake (FLK) and Burnt stone (BST) are found near each other more than chance would give, within roughly 0.84 m.",
     );
     expect(pairSentence(cross("segregated", 40, 40), name, 2)).toContain("keep apart");
-    const kd = { ...cross("clustered", 40, 40), kind: "k-difference" } as CrossOut;
+    const kd = { ...cross("clustered", 40, 40), kind: "k-difference" } as CrossView;
     expect(pairSentence({ ...kd, departures: [{ side: "below", from: 0.1, to: 1, rejoins: true }] }, name, 2)).toBe(
       "Burnt stone (BST) finds are more tightly grouped than Flint flake (FLK) finds.",
     );

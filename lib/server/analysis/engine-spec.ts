@@ -4,7 +4,7 @@
  * and points name classes by their record id, and the engine is given the site's class codes instead, so
  * that its sentences ("Classes FLK and CHP go together") read in the site's words.
  */
-import type { RunSpecInput, Window } from "@/lib/spatial";
+import type { RunSpecInput, TestSpec, Window } from "@/lib/spatial";
 import { R_COUNT } from "./defaults";
 import type { RunTest } from "@/lib/schemas/run";
 
@@ -37,12 +37,15 @@ export function buildEngineSpec(input: BuildInput): RunSpecInput {
     nsim: params.nsim,
     level: params.level,
     r: { max: params.rmax, count: R_COUNT },
-    tests: tests.map((t) =>
-      t.type === "cross-l" || t.type === "k-difference"
-        ? { ...t, a: code(t.a), b: code(t.b) }
-        : t.type === "inhomogeneous-l"
-          ? { ...t, class: code(t.class ?? ""), reference: t.reference === undefined ? undefined : code(t.reference) }
-          : { ...t, class: t.class === undefined ? undefined : code(t.class) },
-    ),
+    tests: tests.map((t) => engineTest(t, code)),
   };
+}
+
+/** A stored test with its classes named by `code` instead of their record ids, as the engine is given it. */
+export function engineTest(t: RunTest, code: (id: string) => string): TestSpec {
+  return t.type === "cross-l" || t.type === "k-difference"
+    ? { ...t, a: code(t.a), b: code(t.b) }
+    : t.type === "inhomogeneous-l"
+      ? { ...t, class: code(t.class ?? ""), reference: t.reference === undefined ? undefined : code(t.reference) }
+      : { ...t, class: t.class === undefined ? undefined : code(t.class) };
 }

@@ -10,7 +10,7 @@ import {
   type SimulationPool,
 } from "@/lib/spatial";
 import { buildEngineSpec } from "./engine-spec";
-import { adaptResult } from "./result-adapter";
+import { storedResult } from "./stored-result";
 import type { RunScope } from "@/lib/schemas/run";
 import type { RunParamsStored } from "@/lib/api/patterns-responses";
 import { readRunTests } from "@/lib/schemas/former-run";
@@ -110,7 +110,7 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
       const engineEnd = Date.now();
       await writing;
       if (stop.signal.aborted) return;
-      const result = adaptResult({
+      const result = storedResult({
         engine,
         tests,
         window: data.window,

@@ -9,9 +9,9 @@ import { badInput, conflict, notFound } from "../errors";
 import type { SiteActor } from "../membership";
 import { runQueue } from "../jobs/run-queue";
 import { defaultRmax, roundMetres } from "./defaults";
-import type { RunResult } from "@/lib/api/run-result";
 import type { RunCreate, RunScope, RunTest, TestKind } from "@/lib/schemas/run";
 import { isFormerTest, readRunTests } from "@/lib/schemas/former-run";
+import { readRunResult, storedTests } from "./stored-result";
 import type { RunParamsStored, RunView } from "@/lib/api/patterns-responses";
 import { countsByClass, depthSummary, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
@@ -41,14 +41,6 @@ export function testRefusals(data: ScopeData, tests: RunTest[]): string[] {
     }
   }
   return [...new Set(out)];
-}
-
-/** A stored run's tests in the engine's shape: runs stored in the former shape are read by former-run.ts. */
-export function storedTests(row: Pick<AnalysisRun, "params" | "scope" | "result">): RunTest[] {
-  const params = row.params as RunParamsStored;
-  // A finished run ran its classes in the order its result lists them; otherwise in the scope's order.
-  const order = (row.result as RunResult | null)?.classes?.map((c) => c.id) ?? (row.scope as RunScope).classIds;
-  return readRunTests(params.tests ?? [], order, params.correction);
 }
 
 export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Promise<RunView> {
@@ -139,7 +131,7 @@ function toView(row: AnalysisRun, outOfDate: boolean): RunView {
     startedAt: row.startedAt?.toISOString() ?? null,
     finishedAt: row.finishedAt?.toISOString() ?? null,
     now: new Date().toISOString(),
-    result: (row.result as RunResult | null) ?? null,
+    result: readRunResult(row),
   };
 }
 

@@ -6,6 +6,7 @@ import { readingFrom, readingLabels } from "@/lib/schemas/relation";
 import { drawMatrix } from "@/lib/server/export/matrix-svg";
 import { classChangesSince, classesAsSignedOff, describeClassChange, type ClassFace } from "@/lib/server/class-history";
 import { buildMatrix } from "@/lib/server/matrix";
+import { readRunResult } from "@/lib/server/analysis/stored-result";
 import { trenchFingerprint, trenchRecordSet } from "@/lib/server/sign-off";
 
 /**
@@ -115,7 +116,7 @@ export async function loadTrenchReport(db: Db, trench: Trench) {
     matrixSvg,
     finds,
     classes: usedClasses,
-    runs,
+    runs: runs.map((run) => ({ ...run, result: readRunResult(run) })),
     fingerprint,
     stampedFingerprint,
   };

@@ -7,7 +7,7 @@ import { PlanFigure } from "@/components/sign-off/plan-figure";
 import { PrintButton } from "@/components/sign-off/print-button";
 import { SquareMapsPrint } from "@/components/squares/square-maps-print";
 import { StateBadge } from "@/components/contexts/state-badge";
-import type { RunResult } from "@/lib/api/run-result";
+import { testViews } from "@/lib/patterns-view/test-view";
 import { isPublicError } from "@/lib/server/errors";
 import { pageSiteActor } from "@/lib/server/page-access";
 import "./print.css";
@@ -265,7 +265,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
           </h2>
           {r.runs.length === 0 && <p className="text-ink-soft">No finished runs on this trench.</p>}
           {r.runs.map((run) => {
-            const result = run.result as RunResult | null;
+            const result = run.result;
             return (
               <article key={run.id} className="report-sheet sheet mt-3">
                 <h3 className="font-bold">
@@ -276,7 +276,7 @@ export default async function TrenchReportPage({ params }: { params: Promise<{ s
                   · records fingerprint <span className="num break-all">{run.fingerprint}</span>
                 </p>
                 <ul className="mt-1 list-disc pl-5 text-sm">
-                  {(result?.tests ?? []).map((t, i) => (
+                  {(result ? testViews(result) : []).map((t, i) => (
                     <li key={i}>
                       <strong>{t.verdict}</strong>: {t.sentence}
                     </li>

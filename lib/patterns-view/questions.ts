@@ -1,7 +1,10 @@
-import type { RunTest } from "@/lib/schemas/run";
+import type { TestSpec } from "@/lib/spatial";
 
-/** What each test asks, in words a specialist can put in a report; cross tests say what inflates them. */
-export function questionOf(t: RunTest, name: (id: string) => string, pool: string): string {
+/**
+ * What each test asks, in words a specialist can put in a report; cross tests say what inflates them.
+ * `name` names a class by the code the engine knows it by; `pool` is the finds of all classes in scope.
+ */
+export function questionOf(t: TestSpec, name: (code: string) => string, pool: string): string {
   switch (t.type) {
     case "clark-evans":
       return "Are nearest neighbours closer (clustered) or farther apart (evenly spread) than for finds placed at random in the trench?";
