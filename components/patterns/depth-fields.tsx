@@ -20,12 +20,16 @@ const rl = (v: number | null) => (v === null ? "—" : v.toFixed(3));
 const errorOf = (errors: Record<string, string[]>, field: string) =>
   (errors[field] ?? errors[`scope.${field}`] ?? []).join(" ");
 
+/** The two ends of the range of reduced levels. */
+const levelFields = [
+  { key: "levelFrom", id: "scope-level-from", label: "Lowest level (RL, m)", placeholder: "e.g. 41.150" },
+  { key: "levelTo", id: "scope-level-to", label: "Highest level (RL, m)", placeholder: "e.g. 41.350" },
+] as const;
+
 /** Depth limits of the scope: a range of reduced levels and/or chosen spits of the chosen contexts. */
 export function DepthFields({ form, set, contexts, spits, summary, errors }: Props) {
   const chosen = contexts.filter((c) => form.contextIds.includes(c.id));
   const offered = chosen.flatMap((c) => spits.filter((s) => s.contextId === c.id).map((s) => ({ s, c })));
-  const fromError = errorOf(errors, "levelFrom");
-  const toError = errorOf(errors, "levelTo");
   const spitError = errorOf(errors, "spitIds");
   const d = summary?.depth;
   return (
@@ -36,42 +40,29 @@ export function DepthFields({ form, set, contexts, spits, summary, errors }: Pro
         contexts.
       </p>
       <div className="grid grid-cols-2 gap-2">
-        <div>
-          <label className="label" htmlFor="scope-level-from">
-            Lowest level (RL, m)
-          </label>
-          <input
-            id="scope-level-from"
-            className="field num"
-            inputMode="decimal"
-            placeholder="e.g. 41.150"
-            value={form.levelFrom}
-            onChange={(e) => set({ levelFrom: e.target.value })}
-            aria-describedby="scope-level-from-error"
-            aria-invalid={fromError ? true : undefined}
-          />
-          <p id="scope-level-from-error" className="field-error" aria-live="polite">
-            {fromError}
-          </p>
-        </div>
-        <div>
-          <label className="label" htmlFor="scope-level-to">
-            Highest level (RL, m)
-          </label>
-          <input
-            id="scope-level-to"
-            className="field num"
-            inputMode="decimal"
-            placeholder="e.g. 41.350"
-            value={form.levelTo}
-            onChange={(e) => set({ levelTo: e.target.value })}
-            aria-describedby="scope-level-to-error"
-            aria-invalid={toError ? true : undefined}
-          />
-          <p id="scope-level-to-error" className="field-error" aria-live="polite">
-            {toError}
-          </p>
-        </div>
+        {levelFields.map((f) => {
+          const error = errorOf(errors, f.key);
+          return (
+            <div key={f.key}>
+              <label className="label" htmlFor={f.id}>
+                {f.label}
+              </label>
+              <input
+                id={f.id}
+                className="field num"
+                inputMode="decimal"
+                placeholder={f.placeholder}
+                value={form[f.key]}
+                onChange={(e) => set({ [f.key]: e.target.value })}
+                aria-describedby={`${f.id}-error`}
+                aria-invalid={error ? true : undefined}
+              />
+              <p id={`${f.id}-error`} className="field-error" aria-live="polite">
+                {error}
+              </p>
+            </div>
+          );
+        })}
       </div>
       {offered.length > 0 && (
         <div>
