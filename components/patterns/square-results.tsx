@@ -4,7 +4,8 @@ import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
 import { SquareMap } from "@/components/squares/square-map";
 import { testMapCells } from "@/lib/squares/test-map";
 import { PlotFrame } from "./plot-frame";
-import { SQUARE_BADGE, squareSentence, withoutP } from "./plain-words";
+import { SQUARE_BADGE, squareSentence } from "./plain-words";
+import { TestNotes, TestTerms } from "./test-terms";
 import { fmtP } from "./words";
 
 const NAME: Record<SquareTestOut["kind"], string> = {
@@ -82,27 +83,9 @@ export function SquareResults({
               {t.p !== null && <span className="num text-sm" data-testid="p-value">{`p = ${fmtP(t.p)}`}</span>}
             </header>
             <p>{squareSentence(t, label(t.classId))}</p>
-            <p className="text-sm">
-              <span className="font-semibold">In the test&apos;s terms: </span>
-              {withoutP(t.sentence)}
-            </p>
-            <p className="text-sm text-ink-soft">
-              <span className="font-semibold">Question answered: </span>
-              {t.question}
-            </p>
+            <TestTerms sentence={t.sentence} question={t.question} />
             <TestMap t={t} code={code(t.classId)} outline={outline} />
-            {t.notes.length > 0 && (
-              <details className="text-sm">
-                <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">
-                  Cautions on this test ({t.notes.length})
-                </summary>
-                <ul className="list-disc pl-5">
-                  {t.notes.map((n, k) => (
-                    <li key={k}>{n}</li>
-                  ))}
-                </ul>
-              </details>
-            )}
+            <TestNotes title="Cautions on this test" notes={t.notes} />
           </article>
         ))}
       </div>

@@ -1,6 +1,7 @@
 import type { TestView } from "@/lib/patterns-view/test-view";
 import { departureSentences } from "./departures";
-import { badgeWords, withoutP } from "./plain-words";
+import { badgeWords } from "./plain-words";
+import { TestNotes, TestTerms } from "./test-terms";
 import { fmtP, TEST_LABEL, VERDICT_TONE } from "./words";
 
 /**
@@ -32,14 +33,7 @@ export function VerdictCard({ t, rmax, subject }: { t: TestView; rmax: number; s
           data-testid="p-value"
         >{`p ${t.p !== null && t.p < 1e-12 ? "" : "= "}${fmtP(t.p)}`}</span>
       </header>
-      <p className="text-sm">
-        <span className="font-semibold">In the test&apos;s terms: </span>
-        {withoutP(t.sentence)}
-      </p>
-      <p className="text-sm text-ink-soft">
-        <span className="font-semibold">Question answered: </span>
-        {t.question}
-      </p>
+      <TestTerms sentence={t.sentence} question={t.question} />
       {deps.length > 0 && (
         <ul className="list-disc pl-5 text-sm">
           {deps.map((d, i) => (
@@ -47,18 +41,7 @@ export function VerdictCard({ t, rmax, subject }: { t: TestView; rmax: number; s
           ))}
         </ul>
       )}
-      {t.notes.length > 0 && (
-        <details className="text-sm">
-          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-ink-soft">
-            Notes on this test ({t.notes.length})
-          </summary>
-          <ul className="list-disc pl-5">
-            {t.notes.map((n, i) => (
-              <li key={i}>{n}</li>
-            ))}
-          </ul>
-        </details>
-      )}
+      <TestNotes title="Notes on this test" notes={t.notes} />
     </article>
   );
 }
