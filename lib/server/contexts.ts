@@ -6,6 +6,7 @@ import { isUuid } from "@/lib/schemas/common";
 import type { ContextCreate, ContextUpdate } from "@/lib/schemas/context";
 import { recordAudit } from "./audit";
 import { badInput, conflict, notFound } from "./errors";
+import { photosHoldIt, photosOf } from "./attached-photos";
 import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
@@ -140,6 +141,8 @@ export async function deleteContext(
     assertVersion(before, expectedVersion, `Context ${before.number}`);
     const [hasFind] = await tx.select({ id: finds.id }).from(finds).where(eq(finds.contextId, contextId)).limit(1);
     if (hasFind) throw conflict(`Context ${before.number} still has finds; move or delete them first.`);
+    const pictured = (await photosOf(tx, "context", [contextId])).get(contextId);
+    if (pictured) throw conflict(`Context ${before.number} was not deleted: ${photosHoldIt(pictured)}.`);
     await tx.delete(contexts).where(eq(contexts.id, contextId));
     await recordAudit(tx, {
       siteId: actor.site.id,

@@ -8,6 +8,7 @@ import { recordAudit } from "./audit";
 import { processFinds } from "./find-processing";
 import { getContext } from "./contexts";
 import { PublicError, badInput, forbidden, notFound } from "./errors";
+import { photosHoldIt, photosOf } from "./attached-photos";
 import { assertContextWritable } from "./locks";
 import type { SiteActor } from "./membership";
 import { getTrench } from "./trenches";
@@ -93,6 +94,13 @@ export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) 
             number: f.number,
             reason: "it was recorded in a spit of its context; move it on its own page and choose its spit there",
           });
+    }
+    if (input.action === "delete") {
+      const pictured = await photosOf(tx, "find", ids);
+      for (const f of rows) {
+        const n = pictured.get(f.id);
+        if (n) refused.push({ findId: f.id, number: f.number, reason: photosHoldIt(n) });
+      }
     }
     if (input.action === "reclass") {
       const [cls] = await tx

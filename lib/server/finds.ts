@@ -8,7 +8,8 @@ import { isUuid } from "@/lib/schemas/common";
 import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
-import { PublicError, badInput, notFound } from "./errors";
+import { PublicError, badInput, conflict, notFound } from "./errors";
+import { photosHoldIt, photosOf } from "./attached-photos";
 import { allocateFindNumbers } from "./find-numbers";
 import { assertContextWritable } from "./locks";
 import { assertFieldRights } from "./field-rights";
@@ -158,6 +159,8 @@ export async function deleteFind(db: Db, actor: SiteActor, findId: string, expec
     const context = await getContext(tx, actor.site.id, before.contextId);
     await assertContextWritable(tx, context, "changed (nor its finds)");
     assertVersion(before, expectedVersion, `Find ${before.number}`);
+    const pictured = (await photosOf(tx, "find", [findId])).get(findId);
+    if (pictured) throw conflict(`Find ${before.number} was not deleted: ${photosHoldIt(pictured)}.`);
     await tx.delete(finds).where(eq(finds.id, findId));
     await voidDeletedNumber(tx, actor.site.id, "find", before.number, before.recordedBy, actor.userId, "find deleted");
     await recordAudit(tx, {
