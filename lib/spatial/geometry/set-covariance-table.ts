@@ -49,6 +49,8 @@ export interface SetCovarianceTable {
   readonly gx: number;
   readonly gy: number;
   readonly invH: number;
+  /** Σ of the listed pairs' terms of cell c at v (v_y ≥ 0, within the cell). */
+  listedTerms(c: number, dx: number, dy: number): number;
   /** The listed pairs of all cells: edge listE[k] of W with edge listF[k] of W + v (indices into `trapezoids`). */
   readonly listE: Int32Array;
   readonly listF: Int32Array;
@@ -330,6 +332,7 @@ export function createSetCovarianceTable(
     gx,
     gy,
     invH,
+    listedTerms,
     listE: le,
     listF: lf,
     trapezoids: t,

@@ -71,34 +71,3 @@ export function createCellGrid(bbox: BBox, cellSize: number): CellGrid {
   };
   return grid;
 }
-
-/**
- * The half stencil of a grid with `reach` cells per r max, as the pair loops walk it: for every sorted
- * position p, `visit(p, q0, q1)` with each run q0 .. q1 − 1 of positions to pair p with — the rest of p's
- * cell and the next `reach` cells of its row, then each of the next `reach` rows from cx − reach to
- * cx + reach (a contiguous run of sorted positions each) — so that every unordered pair within r max comes
- * once. Returns the sum of what `visit` returns (the pair loops count their pairs with it).
- */
-export function sumOverHalfStencil(
-  grid: CellGrid,
-  reach: number,
-  visit: (p: number, q0: number, q1: number) => number,
-): number {
-  const { nx, ny, cellStart } = grid;
-  let total = 0;
-  for (let cy = 0; cy < ny; cy++) {
-    for (let cx = 0; cx < nx; cx++) {
-      const s0 = cellStart[cy * nx + cx],
-        s1 = cellStart[cy * nx + cx + 1];
-      const rowEnd = cellStart[cy * nx + Math.min(nx - 1, cx + reach) + 1];
-      const lo = Math.max(0, cx - reach),
-        hi = Math.min(nx - 1, cx + reach);
-      for (let p = s0; p < s1; p++) {
-        total += visit(p, p + 1, rowEnd);
-        for (let row = cy + 1; row <= cy + reach && row < ny; row++)
-          total += visit(p, cellStart[row * nx + lo], cellStart[row * nx + hi + 1]);
-      }
-    }
-  }
-  return total;
-}

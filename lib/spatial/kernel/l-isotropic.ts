@@ -6,7 +6,7 @@
  * pass, so no pair list is
  * stored; the grid, weight tables and histogram are reused from one pattern to the next.
  */
-import { createCellGrid, sumOverHalfStencil } from "./cell-grid";
+import { createCellGrid } from "./cell-grid";
 import { createWasmIsotropicScan, isotropicScanModule } from "./isotropic-scan";
 import { createIsotropicWeights, weightBeyond } from "./isotropic-weights";
 import { createBinning, isAxisRectangle } from "../estimators/r-grid";
@@ -74,6 +74,7 @@ export function createIsotropicL(
   // the TypeScript loop's edge tables (the WebAssembly scan prepares its own in linear memory)
   const weights = wasm ? null : createIsotropicWeights(window, rmax);
   const hist = new Float64Array(m + 1);
+  const { nx, ny, cellStart } = grid;
   const r2 = rmax * rmax;
 
   let su = new Float64Array(0);
@@ -92,30 +93,46 @@ export function createIsotropicL(
       st = tables ? tables.start : order,
       sl = tables ? tables.slots : sx,
       tot = tables ? tables.total : sx;
-    // each unordered pair once, through the half stencil of the grid (cell-grid.ts)
-    return sumOverHalfStencil(grid, REACH, (p, q0, q1) => {
-      const xa = sx[p],
-        ya = sy[p];
-      let pairs = 0;
-      for (let q = q0; q < q1; q++) {
-        const dx = sx[q] - xa,
-          dy = sy[q] - ya,
-          dd = dx * dx + dy * dy;
-        if (dd > r2) continue;
-        pairs++;
-        if (tables === null) continue;
-        const d = Math.sqrt(dd);
-        // most circles of the pair lie wholly inside W (weight 1): test that here, without a call
-        const invD = 1 / d;
-        const w =
-          (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) +
-          (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
-        let b = guess ? Math.floor(d * inv) + 1 : 0;
-        if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
-        hist[b] += u ? w * su[p] * su[q] : w;
+    let pairs = 0;
+    for (let cy = 0; cy < ny; cy++) {
+      for (let cx = 0; cx < nx; cx++) {
+        const s0 = cellStart[cy * nx + cx],
+          s1 = cellStart[cy * nx + cx + 1];
+        // half stencil: the rest of this cell and the next REACH cells of the row, then the next REACH
+        // rows from cx − REACH to cx + REACH (each a contiguous run of sorted positions)
+        const rowEnd = cellStart[cy * nx + Math.min(nx - 1, cx + REACH) + 1];
+        const lo = Math.max(0, cx - REACH),
+          hi = Math.min(nx - 1, cx + REACH);
+        for (let p = s0; p < s1; p++) {
+          const xa = sx[p],
+            ya = sy[p];
+          for (let pass = 0; pass <= REACH; pass++) {
+            const row = cy + pass;
+            if (row >= ny) break;
+            const q0 = pass === 0 ? p + 1 : cellStart[row * nx + lo];
+            const q1 = pass === 0 ? rowEnd : cellStart[row * nx + hi + 1];
+            for (let q = q0; q < q1; q++) {
+              const dx = sx[q] - xa,
+                dy = sy[q] - ya,
+                dd = dx * dx + dy * dy;
+              if (dd > r2) continue;
+              pairs++;
+              if (tables === null) continue;
+              const d = Math.sqrt(dd);
+              // most circles of the pair lie wholly inside W (weight 1): test that here, without a call
+              const invD = 1 / d;
+              const w =
+                (d <= bd[p] ? 1 : weightBeyond(st, sl, tot, p, d, invD)) +
+                (d <= bd[q] ? 1 : weightBeyond(st, sl, tot, q, d, invD));
+              let b = guess ? Math.floor(d * inv) + 1 : 0;
+              if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
+              hist[b] += u ? w * su[p] * su[q] : w;
+            }
+          }
+        }
       }
-      return pairs;
-    });
+    }
+    return pairs;
   };
 
   const sums = (x: Float64Array, y: Float64Array, n: number, out: Float64Array, u?: Float64Array): number => {

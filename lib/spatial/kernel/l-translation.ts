@@ -8,7 +8,7 @@
  * the next. The pass runs in WebAssembly (translation-scan.ts) where it can, else in the loop below; both
  * weigh each pair by the same operations and add the pairs in the same order.
  */
-import { createCellGrid, sumOverHalfStencil } from "./cell-grid";
+import { createCellGrid } from "./cell-grid";
 import { createWasmTranslationScan, translationScanModule } from "./translation-scan";
 import { runSetCovarianceTable, type SetCovarianceTable } from "../geometry/set-covariance-table";
 import { createBinning, isAxisRectangle } from "../estimators/r-grid";
@@ -61,8 +61,9 @@ export function createTranslationL(
   const inv = (m - 1) / rmax;
   const grid = createCellGrid(window.bbox, rmax / REACH);
   const r2 = rmax * rmax;
+  const { nx, ny, cellStart } = grid;
   const hist = new Float64Array(m + 1);
-  const at = table.at;
+  const { cell, gx, gy, invH, reach, listedTerms } = table;
   const area = window.area;
   const floor = 1e-12 * area;
   const useWasm = guess && options.kernel !== "typescript" && translationScanModule() !== null;
@@ -76,27 +77,58 @@ export function createTranslationL(
     if (wasm) return wasm.scan(grid, n, hist);
     hist.fill(0);
     const { sx, sy } = grid;
-    // each unordered pair once, through the half stencil of the grid (cell-grid.ts)
-    return sumOverHalfStencil(grid, REACH, (p, q0, q1) => {
-      const xa = sx[p],
-        ya = sy[p];
-      let pairs = 0;
-      for (let q = q0; q < q1; q++) {
-        const dx = sx[q] - xa,
-          dy = sy[q] - ya;
-        const dd = dx * dx + dy * dy;
-        if (dd > r2) continue;
-        pairs++;
-        const d = Math.sqrt(dd);
-        let b = guess ? Math.floor(d * inv) + 1 : 0;
-        if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
-        if (b >= m) continue;
-        // g(v) = g(−v): the table looks up the displacement with v_y ≥ 0, the same vector for either order
-        const g = at(dx, dy);
-        hist[b] += area / (g > floor ? g : floor);
+    let pairs = 0;
+    for (let cy = 0; cy < ny; cy++) {
+      for (let cx = 0; cx < nx; cx++) {
+        const s0 = cellStart[cy * nx + cx],
+          s1 = cellStart[cy * nx + cx + 1];
+        // half stencil: the rest of this cell and the next REACH cells of the row, then the next REACH
+        // rows from cx − REACH to cx + REACH (each a contiguous run of sorted positions)
+        const rowEnd = cellStart[cy * nx + Math.min(nx - 1, cx + REACH) + 1];
+        const lo = Math.max(0, cx - REACH),
+          hi = Math.min(nx - 1, cx + REACH);
+        for (let p = s0; p < s1; p++) {
+          const xa = sx[p],
+            ya = sy[p];
+          for (let pass = 0; pass <= REACH; pass++) {
+            const row = cy + pass;
+            if (row >= ny) break;
+            const q0 = pass === 0 ? p + 1 : cellStart[row * nx + lo];
+            const q1 = pass === 0 ? rowEnd : cellStart[row * nx + hi + 1];
+            for (let q = q0; q < q1; q++) {
+              let dx = sx[q] - xa,
+                dy = sy[q] - ya;
+              const dd = dx * dx + dy * dy;
+              if (dd > r2) continue;
+              pairs++;
+              const d = Math.sqrt(dd);
+              let b = guess ? Math.floor(d * inv) + 1 : 0;
+              if (!(b > 0 && b < m && edges[b - 1] <= d && d < edges[b])) b = bin(d);
+              if (b >= m) continue;
+              // g is even: look up the displacement with v_y ≥ 0 (the same vector for either order)
+              if (dy < 0 || (dy === 0 && dx < 0)) {
+                dx = -dx;
+                dy = -dy;
+              }
+              let ix = Math.floor((dx + reach) * invH),
+                iy = Math.floor(dy * invH);
+              if (ix >= gx) ix = gx - 1;
+              else if (ix < 0) ix = 0;
+              if (iy >= gy) iy = gy - 1;
+              const c = iy * gx + ix;
+              const o = 8 * c;
+              let g =
+                cell[o] +
+                dx * (cell[o + 1] + cell[o + 3] * dx + cell[o + 4] * dy) +
+                dy * (cell[o + 2] + cell[o + 5] * dy);
+              if (cell[o + 6] !== cell[o + 7]) g += listedTerms(c, dx, dy);
+              hist[b] += area / (g > floor ? g : floor);
+            }
+          }
+        }
       }
-      return pairs;
-    });
+    }
+    return pairs;
   };
 
   const k = (x: Float64Array, y: Float64Array, n: number, out: Float64Array): number => {
