@@ -34,7 +34,10 @@ export function PackagePanel({ siteId, signedOffTrenches }: Props) {
   });
   const start = useMutation({
     mutationFn: () => apiClient.call("packagesCreate", { siteId }, trenchId ? { trenchId } : {}),
-    onSuccess: (job) => {
+    onSuccess: async (job) => {
+      // A list read still on its way was asked before this package existed: cancelled, or its answer would
+      // replace the list without the new package and stop the following.
+      await qc.cancelQueries({ queryKey: ["packages", siteId] });
       qc.setQueryData(["packages", siteId], (old: PackageJob[] | undefined) => [job, ...(old ?? [])]);
     },
   });

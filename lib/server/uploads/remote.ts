@@ -18,9 +18,12 @@ export async function signedUrl(fileKey: string): Promise<string> {
 export const seededPhotoKey = (photoId: string) => `demo-${photoId}`;
 export const isSeededPhotoKey = (fileKey: string) => fileKey.startsWith("demo-");
 
+const FETCH_TIMEOUT_MS = 60_000;
+
 /** Fetches the original an upload left at the upload service (the stand-in locally). */
 export async function fetchUpload(fileKey: string, maxBytes: number): Promise<Buffer> {
-  const res = await fetch(await signedUrl(fileKey));
+  // A service that stops answering must not hold a package or a backup for ever.
+  const res = await fetch(await signedUrl(fileKey), { signal: AbortSignal.timeout(FETCH_TIMEOUT_MS) });
   if (!res.ok) throw new Error(`upload service answered ${res.status} for the stored file`);
   const bytes = Buffer.from(await res.arrayBuffer());
   if (bytes.length > maxBytes) throw new Error("the stored file is larger than the upload limit");
