@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { parseLabelCode, labelPath } from "@/lib/labels/code";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { freshContext } from "./support/fresh-context";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -78,19 +79,9 @@ describe("the site archive: samples and labels", () => {
   it("attaches a photo to a context", async () => {
     const page = await newPage(browser);
     await signIn(page, "digger");
-    const [site] = await (await page.request.get("/api/sites")).json();
-    const trenches = await (await page.request.get(`/api/sites/${site.id}/trenches`)).json();
-    const contexts = await (await page.request.get(`/api/sites/${site.id}/contexts`)).json();
     // A fresh open context, so the sheet takes new photos whatever other tests did to the demo's contexts.
-    const taken = new Set(contexts.map((c: { number: number }) => c.number));
-    let number = 3800;
-    while (taken.has(number)) number++;
-    const made = await page.request.post(`/api/sites/${site.id}/contexts`, {
-      data: { trenchId: trenches.find((t: { code: string }) => t.code === "C").id, number, type: "fill" },
-    });
-    expect(made.status()).toBe(201);
-    const ctx = await made.json();
-    await page.goto(`/sites/${site.id}/contexts/${ctx.id}`);
+    const { siteId, contextId, number } = await freshContext(page, { type: "fill" });
+    await page.goto(`/sites/${siteId}/contexts/${contextId}`);
     const panel = page.getByRole("region", { name: `Photos of context ${number}` });
     await shown(panel.getByText(`No photos of context ${number} yet.`));
     const photo = await sharp({ create: { width: 800, height: 600, channels: 3, background: "#8a6a4a" } })

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { freshContext } from "./support/fresh-context";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -52,43 +53,20 @@ describe("keyboard only", () => {
   it("the sheet and the sign-off queue: a digger fills in and submits, the director signs off, without a pointer", async () => {
     const d = await newPage(browser);
     await signIn(d, "digger");
-    const [site] = await (await d.request.get("/api/sites")).json();
-    const trenches = await (await d.request.get(`/api/sites/${site.id}/trenches`)).json();
-    const contexts = await (await d.request.get(`/api/sites/${site.id}/contexts`)).json();
-    const taken = new Set(contexts.map((c: { number: number }) => c.number));
-    let number = 3900;
-    const create = () =>
-      d.request.post(`/api/sites/${site.id}/contexts`, {
-        data: {
-          trenchId: trenches.find((t: { code: string }) => t.code === "C").id,
-          number,
-          type: "layer",
-          compaction: "firm",
-          composition: "silty sand",
-          description: "A layer.",
-          interpretation: "Subsoil.",
-        },
-      });
-    // A number free in the list may still be held in a device's block by another browser test: take the next.
-    while (taken.has(number)) number++;
-    let made = await create();
-    for (let tries = 0; made.status() === 409 && tries < 200; tries++) {
-      number++;
-      made = await create();
-    }
-    expect(made.status(), await made.text()).toBe(201);
-    const ctx = await made.json();
-    const top = contexts.find((c: { number: number }) => c.number === 3001);
-    expect(
-      (
-        await d.request.post(`/api/sites/${site.id}/relations`, {
-          data: { contextId: ctx.id, reading: "below", otherId: top.id },
-        })
-      ).status(),
-    ).toBe(201);
+    const { siteId, contextId, number } = await freshContext(
+      d,
+      {
+        type: "layer",
+        compaction: "firm",
+        composition: "silty sand",
+        description: "A layer.",
+        interpretation: "Subsoil.",
+      },
+      { below: 3001 },
+    );
 
     // The sheet: the missing colour is typed and saved from the keyboard.
-    await d.goto(`/sites/${site.id}/contexts/${ctx.id}`);
+    await d.goto(`/sites/${siteId}/contexts/${contextId}`);
     await tabTo(d, "Colour");
     await d.keyboard.type("mid brown");
     await tabTo(d, "Save the sheet");
@@ -96,14 +74,14 @@ describe("keyboard only", () => {
     await shown(d.getByRole("button", { name: `Submit ${number} for sign-off`, disabled: false }));
 
     // The queue: submitted from the keyboard.
-    await d.goto(`/sites/${site.id}/sign-off`);
+    await d.goto(`/sites/${siteId}/sign-off`);
     await tabTo(d, `Submit ${number} for sign-off`);
     await d.keyboard.press("Enter");
     await shown(d.locator(`tr[data-context="${number}"]`).getByText("awaiting sign-off"));
 
     const boss = await newPage(browser);
     await signIn(boss, "director");
-    await boss.goto(`/sites/${site.id}/sign-off`);
+    await boss.goto(`/sites/${siteId}/sign-off`);
     await tabTo(boss, `Sign off ${number}`);
     await boss.keyboard.press("Enter");
     await shown(boss.getByRole("alertdialog"));

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { freshContext } from "./support/fresh-context";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -14,27 +15,15 @@ describe("panels that summarise a record stay true after a write", () => {
   it("adding a relation on a new sheet clears its sign-off problem, enables Submit and shows in its trail, without a reload", async () => {
     const page = await newPage(browser);
     await signIn(page, "digger");
-    const [site] = await (await page.request.get("/api/sites")).json();
-    const trenches = await (await page.request.get(`/api/sites/${site.id}/trenches`)).json();
-    const contexts = await (await page.request.get(`/api/sites/${site.id}/contexts`)).json();
-    const taken = new Set(contexts.map((c: { number: number }) => c.number));
-    let number = 3700;
-    while (taken.has(number)) number++;
-    const made = await page.request.post(`/api/sites/${site.id}/contexts`, {
-      data: {
-        trenchId: trenches.find((t: { code: string }) => t.code === "C").id,
-        number,
-        type: "layer",
-        colour: "mid brown",
-        compaction: "firm",
-        composition: "silty sand",
-        description: "A layer.",
-        interpretation: "Subsoil.",
-      },
+    const { siteId, contextId, number } = await freshContext(page, {
+      type: "layer",
+      colour: "mid brown",
+      compaction: "firm",
+      composition: "silty sand",
+      description: "A layer.",
+      interpretation: "Subsoil.",
     });
-    expect(made.status()).toBe(201);
-    const ctx = await made.json();
-    await page.goto(`/sites/${site.id}/contexts/${ctx.id}`);
+    await page.goto(`/sites/${siteId}/contexts/${contextId}`);
     const problems = page.getByRole("list", { name: "What keeps this sheet from sign-off" });
     await shown(problems.getByText("no stratigraphic relation"));
     const submit = page.getByRole("button", { name: `Submit ${number} for sign-off` });

@@ -1,10 +1,11 @@
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { inject } from "vitest";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { DEMO_USERS } from "@/scripts/seed/seed-demo";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
 import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { freshContext } from "./support/fresh-context";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -28,44 +29,22 @@ async function mailTo(to: string, subject: string) {
   throw new Error(`no mail to ${to} with "${subject}" in the sink`);
 }
 
-/** A fresh, complete context in trench C below 3001, recorded by the digger through the JSON API. */
-async function freshContext(page: Page) {
-  const [site] = await (await page.request.get("/api/sites")).json();
-  const trenches = await (await page.request.get(`/api/sites/${site.id}/trenches`)).json();
-  const contexts = await (await page.request.get(`/api/sites/${site.id}/contexts`)).json();
-  const taken = new Set(contexts.map((c: { number: number }) => c.number));
-  let number = 3500;
-  while (taken.has(number)) number++;
-  const res = await page.request.post(`/api/sites/${site.id}/contexts`, {
-    data: {
-      trenchId: trenches.find((t: { code: string }) => t.code === "C").id,
-      number,
-      type: "layer",
-      colour: "mid brown",
-      compaction: "firm",
-      composition: "silty sand",
-      description: "Layer under the topsoil.",
-      interpretation: "Subsoil.",
-    },
-  });
-  expect(res.status()).toBe(201);
-  const ctx = await res.json();
-  const top = contexts.find((c: { number: number }) => c.number === 3001);
-  expect(
-    (
-      await page.request.post(`/api/sites/${site.id}/relations`, {
-        data: { contextId: ctx.id, reading: "below", otherId: top.id },
-      })
-    ).status(),
-  ).toBe(201);
-  return { siteId: site.id as string, contextId: ctx.id as string, number };
-}
-
 describe("sign-off in the browser", () => {
   it("a digger submits, the director signs off, the digger cannot edit, the director reopens with a reason and the digger is told", async () => {
     const d = await newPage(browser);
     await signIn(d, "digger");
-    const { siteId, contextId, number } = await freshContext(d);
+    const { siteId, contextId, number } = await freshContext(
+      d,
+      {
+        type: "layer",
+        colour: "mid brown",
+        compaction: "firm",
+        composition: "silty sand",
+        description: "Layer under the topsoil.",
+        interpretation: "Subsoil.",
+      },
+      { below: 3001 },
+    );
 
     await d.goto(`/sites/${siteId}/sign-off`);
     await d.getByRole("button", { name: `Submit ${number} for sign-off` }).click();
