@@ -8,17 +8,13 @@
  * Prints a markdown table. Not a test: the figures depend on the machine.
  */
 import "fake-indexeddb/auto";
-import path from "node:path";
-import { rmSync } from "node:fs";
 import os from "node:os";
 import type { Page } from "playwright-core";
-import { launchChromium } from "./chromium";
 import { ApiError, buildRequest, type ApiRequest } from "../lib/api/client";
 import { Outbox } from "../lib/offline/outbox";
 import { syncOutbox } from "../lib/offline/sync";
 import { createWritePath } from "../lib/offline/write-path";
-import { ensureBuilt, startStack } from "./stack";
-import { signInDemo } from "./sign-in-demo";
+import { BENCH_TRENCH_RING, importBenchTrench, median, seeded, withBenchBrowser } from "./browser-bench";
 
 const N = Number(process.env.BENCH_FINDS ?? 5000);
 const QUEUED = Number(process.env.BENCH_QUEUED ?? 500);
@@ -26,62 +22,21 @@ const RUNS = Number(process.env.BENCH_RUNS ?? 3);
 const port = Number(process.env.BENCH_PORT ?? 3392);
 
 function points(n: number) {
-  let s = 20261203;
-  const rnd = () => (s = (s * 48271) % 2147483647) / 2147483647;
+  const rnd = seeded(20261203);
   return Array.from(
     { length: n },
     () => [Number((1 + rnd() * 38).toFixed(3)), Number((1 + rnd() * 28).toFixed(3))] as const,
   );
 }
-const median = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
 
-ensureBuilt();
-const dataDir = path.join(".tmp", "bench-offline");
-rmSync(dataDir, { recursive: true, force: true });
-const stack = await startStack({ port, dataDir, quiet: true });
-const browser = await launchChromium();
 const rows: string[][] = [];
-try {
-  const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
-  await context.addInitScript({ content: "window.__name = (f) => f;" });
-  const page = await context.newPage();
-  await signInDemo(page, "director");
-  const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
-  const outline = {
-    type: "Polygon",
-    coordinates: [
-      [
-        [0, 0],
-        [40, 0],
-        [40, 30],
-        [0, 30],
-        [0, 0],
-      ],
-    ],
-  };
-  const trench = await (
-    await page.request.post(`/api/sites/${site.id}/trenches`, {
-      data: { code: "OFFB", name: "Offline benchmark", outline },
-    })
-  ).json();
-  const ctx = await (
-    await page.request.post(`/api/sites/${site.id}/contexts`, {
-      data: { trenchId: trench.id, number: 9101, type: "deposit" },
-    })
-  ).json();
-  const classes = (await (await page.request.get(`/api/sites/${site.id}/classes`)).json()) as {
-    id: string;
-    code: string;
-  }[];
-  const csv = [
-    "x,y,class,context",
-    ...points(N).map(([x, y], i) => `${x},${y},${classes[i % classes.length].code},9101`),
-  ].join("\n");
-  const imported = await page.request.post(`/api/sites/${site.id}/import`, {
-    data: { csv, fileName: "bench.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } },
-    timeout: 300_000,
-  });
-  if (imported.status() !== 201) throw new Error(`import failed: ${imported.status()} ${await imported.text()}`);
+await withBenchBrowser("offline", { port }, async ({ stack, browser, context, page, siteId }) => {
+  const outline = { type: "Polygon" as const, coordinates: [BENCH_TRENCH_RING] };
+  const {
+    trenchId,
+    contextIds: [contextId],
+    classes,
+  } = await importBenchTrench(page, siteId, { code: "OFFB", name: "Offline benchmark", outline }, [9101], points(N));
 
   // 1. Sync of QUEUED finds, queued offline by the device's own write path.
   const cookie = (await context.cookies()).map((c) => `${c.name}=${c.value}`).join("; ");
@@ -99,18 +54,18 @@ try {
       });
     return body;
   };
-  await send(buildRequest("siteUpdate", { siteId: site.id }, { numberBlockSize: QUEUED } as never));
+  await send(buildRequest("siteUpdate", { siteId }, { numberBlockSize: QUEUED } as never));
   const block = (await send({
     operation: "numberBlocksCreate" as never,
     method: "POST",
-    url: `/api/sites/${site.id}/number-blocks`,
+    url: `/api/sites/${siteId}/number-blocks`,
     headers: { "content-type": "application/json" },
     body: JSON.stringify({ kind: "find", deviceId: crypto.randomUUID() }),
   })) as { id: string; first: number; last: number };
   const outbox = await Outbox.open("bench");
   await outbox.putBlock({
     id: block.id,
-    siteId: site.id,
+    siteId,
     kind: "find",
     first: block.first,
     last: block.last,
@@ -121,8 +76,8 @@ try {
     await write(
       buildRequest(
         "findsCreate",
-        { siteId: site.id },
-        { contextId: ctx.id, classId: classes[i % classes.length].id, x, y, method: "plan" },
+        { siteId },
+        { contextId, classId: classes[i % classes.length].id, x, y, method: "plan" },
       ),
     );
   const t0 = performance.now();
@@ -131,7 +86,7 @@ try {
   if (out.sent !== QUEUED) throw new Error(`sync sent ${out.sent} of ${QUEUED}: ${JSON.stringify(out)}`);
 
   // 2. Offline reload of the plan with N + QUEUED finds, and 3. what the service worker keeps.
-  const planUrl = `/sites/${site.id}/trenches/${trench.id}`;
+  const planUrl = `/sites/${siteId}/trenches/${trenchId}`;
   await page.goto(planUrl);
   await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 30_000 });
   await page.waitForFunction(
@@ -167,10 +122,7 @@ try {
   );
   console.log("| measure | result |\n| --- | --- |");
   for (const r of rows) console.log(`| ${r.join(" | ")} |`);
-} finally {
-  await browser.close();
-  await stack.stop();
-}
+});
 
 /** Bytes held in each of the origin's caches (bodies read back, as the browser stores them). */
 function cacheSizes(page: Page): Promise<Record<string, number>> {

@@ -12,11 +12,7 @@
  *     Every zoom frame changes the scale and so draws every find afresh.
  * Prints a markdown table. Not a test: the figures depend on the machine.
  */
-import path from "node:path";
-import { rmSync } from "node:fs";
-import { launchChromium } from "./chromium";
-import { ensureBuilt, startStack } from "./stack";
-import { signInDemo } from "./sign-in-demo";
+import { BENCH_TRENCH_RING, importBenchTrench, median, seeded, withBenchBrowser } from "./browser-bench";
 
 const N = Number(process.env.BENCH_FINDS ?? 5000);
 const RUNS = Number(process.env.BENCH_RUNS ?? 3);
@@ -24,8 +20,7 @@ const port = Number(process.env.BENCH_PORT ?? 3390);
 
 /** Seeded points inside a 40 × 30 m trench with a 6 × 4 m baulk (Park–Miller minimal standard LCG). */
 function points(n: number) {
-  let s = 20261201;
-  const rnd = () => (s = (s * 48271) % 2147483647) / 2147483647;
+  const rnd = seeded(20261201);
   const out: [number, number][] = [];
   while (out.length < n) {
     const x = rnd() * 40;
@@ -36,63 +31,29 @@ function points(n: number) {
   return out;
 }
 
-const median = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
 const p95 = (a: number[]) => [...a].sort((x, y) => x - y)[Math.floor(a.length * 0.95)];
 
-ensureBuilt();
-const dataDir = path.join(".tmp", "bench-plan");
-rmSync(dataDir, { recursive: true, force: true });
-const stack = await startStack({ port, dataDir, quiet: true });
-const browser = await launchChromium(["--disable-frame-rate-limit", "--disable-gpu-vsync"]);
-try {
-  const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
-  // tsx keeps function names with a `__name` helper that does not exist inside the page.
-  await context.addInitScript({ content: "window.__name = (f) => f;" });
-  const page = await context.newPage();
-  await signInDemo(page, "director");
-  const [site] = (await (await page.request.get("/api/sites")).json()) as { id: string }[];
-  const outline = {
-    type: "Polygon",
-    coordinates: [
-      [
-        [0, 0],
-        [40, 0],
-        [40, 30],
-        [0, 30],
-        [0, 0],
-      ],
-      [
-        [17, 13],
-        [23, 13],
-        [23, 17],
-        [17, 17],
-        [17, 13],
-      ],
-    ],
-  };
-  const trench = await (
-    await page.request.post(`/api/sites/${site.id}/trenches`, { data: { code: "BENCH", name: "Benchmark", outline } })
-  ).json();
-  for (const n of [9001, 9002, 9003])
-    await page.request.post(`/api/sites/${site.id}/contexts`, {
-      data: { trenchId: trench.id, number: n, type: "deposit" },
-    });
-  const classes = ((await (await page.request.get(`/api/sites/${site.id}/classes`)).json()) as { code: string }[]).map(
-    (c) => c.code,
+const chromiumArgs = ["--disable-frame-rate-limit", "--disable-gpu-vsync"];
+await withBenchBrowser("plan", { port, chromiumArgs }, async ({ browser, page, siteId }) => {
+  const baulk = [
+    [17, 13],
+    [23, 13],
+    [23, 17],
+    [17, 17],
+    [17, 13],
+  ];
+  const outline = { type: "Polygon" as const, coordinates: [BENCH_TRENCH_RING, baulk] };
+  const { trenchId } = await importBenchTrench(
+    page,
+    siteId,
+    { code: "BENCH", name: "Benchmark", outline },
+    [9001, 9002, 9003],
+    points(N),
   );
-  const csv = [
-    "x,y,class,context",
-    ...points(N).map(([x, y], i) => `${x},${y},${classes[i % classes.length]},${9001 + (i % 3)}`),
-  ].join("\n");
-  const imported = await page.request.post(`/api/sites/${site.id}/import`, {
-    data: { csv, fileName: "bench.csv", mapping: { x: "x", y: "y", classCode: "class", contextNumber: "context" } },
-    timeout: 300_000,
-  });
-  if (imported.status() !== 201) throw new Error(`import failed: ${imported.status()} ${await imported.text()}`);
 
   const rows: string[][] = [];
   for (let run = 1; run <= RUNS; run++) {
-    await page.goto(`/sites/${site.id}/trenches/${trench.id}`);
+    await page.goto(`/sites/${siteId}/trenches/${trenchId}`);
     await page.waitForFunction(() => performance.getEntriesByName("loamwork-plan-finds").length > 0, undefined, {
       timeout: 60_000,
     });
@@ -184,7 +145,4 @@ try {
   );
   console.log("| --- | --- | --- | --- | --- | --- | --- | --- | --- | --- |");
   for (const r of rows) console.log(`| ${r.join(" | ")} |`);
-} finally {
-  await browser.close();
-  await stack.stop();
-}
+});
