@@ -1,48 +1,21 @@
 import "fake-indexeddb/auto";
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { ApiError, NO_ANSWER, buildRequest, type ApiRequest } from "@/lib/api/client";
+import { describe, expect, it } from "vitest";
+import { ApiError, NO_ANSWER, buildRequest } from "@/lib/api/client";
 import { freeNumbers, refreshBlocks } from "./number-blocks";
 import { Outbox } from "./outbox";
 import { closeOutboxDb } from "./outbox-db";
 import { backoffSeconds, damaged, syncOutbox } from "./sync";
 import { createWritePath, isNetworkFailure } from "./write-path";
+import { HELD_BLOCKS, classId, contextId, outboxPerTest, siteId, standInServer, trenchId } from "./test-device";
 
-const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
-const contextId = "0b7d1f7e-1c2a-4e0b-8f9a-6c5d4e3f2a1b";
-const classId = "9c1d2e3f-4a5b-4c6d-8e7f-0a1b2c3d4e5f";
-const trenchId = "1a2b3c4d-5e6f-4a7b-8c9d-0e1f2a3b4c5d";
-let userN = 0;
 let userId = "";
 let outbox: Outbox;
-
-beforeEach(async () => {
-  userId = `u-${++userN}`;
-  outbox = await Outbox.open(userId);
-  await outbox.putBlock({ id: "b1", siteId, kind: "find", first: 501, last: 550, used: [] });
-  await outbox.putBlock({ id: "b2", siteId, kind: "context", first: 9001, last: 9010, used: [] });
+outboxPerTest("u", HELD_BLOCKS, (o, u) => {
+  outbox = o;
+  userId = u;
 });
-afterEach(() => closeOutboxDb(userId));
 
 const find = (x: number) => buildRequest("findsCreate", { siteId }, { contextId, classId, x, y: 1, method: "plan" });
-
-/** A server stand-in: records what reached it, gives ids, refuses by a rule. */
-function server(refuse: (req: ApiRequest) => ApiError | null = () => null) {
-  const seen: ApiRequest[] = [];
-  const byKey = new Map<string, unknown>();
-  return {
-    seen,
-    send: async (req: ApiRequest) => {
-      const key = req.headers["idempotency-key"];
-      if (byKey.has(key)) return byKey.get(key);
-      const refusal = refuse(req);
-      if (refusal) throw refusal;
-      seen.push(req);
-      const answer = { id: crypto.randomUUID(), ...(req.body ? JSON.parse(req.body) : {}) };
-      byKey.set(key, answer);
-      return answer;
-    },
-  };
-}
 
 describe("the write path on a device", () => {
   it("offline, a find is queued with its own key and takes the lowest free number of the block", async () => {
@@ -81,7 +54,7 @@ describe("the write path on a device", () => {
   });
 
   it("online with nothing waiting, a write goes straight to the server with an idempotency key", async () => {
-    const s = server();
+    const s = standInServer();
     const write = createWritePath({ outbox, online: () => true, send: s.send });
     await write(find(1));
     expect(s.seen).toHaveLength(1);
@@ -156,7 +129,7 @@ describe("counts by square on a device", () => {
     await write(square(3, 12));
     await write(square(4, 0));
     await write(square(3, 14)); // the same square corrected: the server keeps the last
-    const s = server();
+    const s = standInServer();
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 3, refused: 0, stopped: "done" });
     expect(s.seen.map((r) => [r.method, JSON.parse(r.body!).col, JSON.parse(r.body!).counts[0].count])).toEqual([
       ["POST", 3, 12],
@@ -170,7 +143,7 @@ describe("counts by square on a device", () => {
   it("a square record refused on sync (a locked context) waits in needs attention with the reason", async () => {
     const write = createWritePath({ outbox, online: () => false });
     await write(square(3, 12));
-    const s = server(() => new ApiError("Context 1005 is locked.", 409, {}, undefined, "locked"));
+    const s = standInServer(() => new ApiError("Context 1005 is locked.", 409, {}, undefined, "locked"));
     expect(await syncOutbox({ outbox, send: s.send })).toMatchObject({ sent: 0, refused: 1 });
     const [entry] = await outbox.all();
     expect(entry.label).toBe("counts in square column 3, row 2");
@@ -190,7 +163,7 @@ describe("sync", () => {
     await write(
       buildRequest("relationsCreate", { siteId }, { contextId: ctx.id, reading: "above", otherId: contextId }),
     );
-    const s = server();
+    const s = standInServer();
     const waiting: number[] = [];
     const out = await syncOutbox({ outbox, send: s.send, progress: (n) => waiting.push(n) });
     expect(out).toEqual({ sent: 3, refused: 0, stopped: "done" });
@@ -206,7 +179,7 @@ describe("sync", () => {
     const write = createWritePath({ outbox, online: () => false });
     for (let i = 0; i < 5; i++) await write(find(i));
     const copy = await outbox.all();
-    const s = server();
+    const s = standInServer();
     await syncOutbox({ outbox, send: s.send });
     for (const e of copy) await outbox.put(e);
     const again = await syncOutbox({ outbox, send: s.send });
@@ -219,7 +192,7 @@ describe("sync", () => {
     await write(find(1));
     await write(find(2));
     await write(find(3));
-    const s = server((req) =>
+    const s = standInServer((req) =>
       JSON.parse(req.body!).x === 2 ? new ApiError("Context 1005 is signed off.", 409, {}, {}, "locked") : null,
     );
     const out = await syncOutbox({ outbox, send: s.send });
@@ -278,7 +251,7 @@ describe("sync", () => {
     await write(find(2));
     const [first] = await outbox.all();
     await outbox.put({ ...first, body: "{not json" });
-    const s = server();
+    const s = standInServer();
     const out = await syncOutbox({ outbox, send: s.send });
     expect(out).toEqual({ sent: 1, refused: 1, stopped: "done" });
     expect((await outbox.all())[0]).toMatchObject({ state: "attention", refusal: { code: "damaged" } });
