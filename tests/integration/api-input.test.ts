@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { session, call } from "../support/harness";
-import { makeSite } from "../support/fixtures";
+import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { eq } from "drizzle-orm";
@@ -14,6 +14,31 @@ import { api } from "@/lib/server/api-catalog";
 import { DEMO_PLACEMENT } from "@/scripts/seed/demo-placement";
 
 const ring = (pts: number[][]) => pts as [number, number][];
+
+/** A find at (x, y) in the fixture's context, recorded by whoever the session holds. */
+const findAt = (fx: SiteFixture, x: number, y: number) =>
+  call(findsRoute, "POST", { siteId: fx.site.id }, { contextId: fx.context.id, classId: fx.cls.id, x, y });
+
+/** The fixture's trench outline cut down to the 5 m square at the grid's origin. */
+const shrinkTo5m = (fx: SiteFixture) =>
+  call(
+    trenchRoute,
+    "PATCH",
+    { siteId: fx.site.id, trenchId: fx.trench.id },
+    {
+      outline: {
+        type: "Polygon",
+        coordinates: [
+          ring([
+            [0, 0],
+            [5, 0],
+            [5, 5],
+            [0, 5],
+          ]),
+        ],
+      },
+    },
+  );
 
 describe("bad input is refused with the reason and changes nothing", () => {
   const badOutlines: [string, [number, number][][], RegExp][] = [
@@ -123,21 +148,11 @@ describe("bad input is refused with the reason and changes nothing", () => {
     session.userId = fx.people.digger.id;
     // Trench A is 10 × 6 m from (0, 0); (12, 3) is 2 m east of its edge. Inside the baulk (5, 2.5) is 0.5 m from the
     // hole's edge.
-    const outside = await call(
-      findsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      { contextId: fx.context.id, classId: fx.cls.id, x: 12, y: 3 },
-    );
+    const outside = await findAt(fx, 12, 3);
     expect(outside.status).toBe(400);
     expect(outside.json.details.distance).toBeCloseTo(2, 9);
     expect(outside.json.error).toMatch(/2\.000 m outside/);
-    const inBaulk = await call(
-      findsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      { contextId: fx.context.id, classId: fx.cls.id, x: 5, y: 2.5 },
-    );
+    const inBaulk = await findAt(fx, 5, 2.5);
     expect(inBaulk.status).toBe(400);
     expect(inBaulk.json.details.distance).toBeCloseTo(0.5, 9);
     const db = await getDb();
@@ -193,30 +208,8 @@ describe("bad input is refused with the reason and changes nothing", () => {
   it("refuses an outline change that would leave a find outside the trench", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    await call(
-      findsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      { contextId: fx.context.id, classId: fx.cls.id, x: 9, y: 5 },
-    );
-    const res = await call(
-      trenchRoute,
-      "PATCH",
-      { siteId: fx.site.id, trenchId: fx.trench.id },
-      {
-        outline: {
-          type: "Polygon",
-          coordinates: [
-            ring([
-              [0, 0],
-              [5, 0],
-              [5, 5],
-              [0, 5],
-            ]),
-          ],
-        },
-      },
-    );
+    await findAt(fx, 9, 5);
+    const res = await shrinkTo5m(fx);
     expect(res.status).toBe(409);
     expect(res.json.error).toMatch(/leave 1 find outside/);
   });
@@ -224,36 +217,14 @@ describe("bad input is refused with the reason and changes nothing", () => {
   it("names who signed off a context whose finds an outline change would strand", async () => {
     const fx = await makeSite();
     session.userId = fx.people.digger.id;
-    await call(
-      findsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      { contextId: fx.context.id, classId: fx.cls.id, x: 9, y: 5 },
-    );
+    await findAt(fx, 9, 5);
     const db = await getDb();
     await db
       .update(schema.contexts)
       .set({ state: "signed_off", signedOffBy: fx.people.director.id, signedOffAt: new Date("2026-07-14T09:30:00Z") })
       .where(eq(schema.contexts.id, fx.context.id));
     const before = await db.select().from(schema.trenches).where(eq(schema.trenches.id, fx.trench.id));
-    const res = await call(
-      trenchRoute,
-      "PATCH",
-      { siteId: fx.site.id, trenchId: fx.trench.id },
-      {
-        outline: {
-          type: "Polygon",
-          coordinates: [
-            ring([
-              [0, 0],
-              [5, 0],
-              [5, 5],
-              [0, 5],
-            ]),
-          ],
-        },
-      },
-    );
+    const res = await shrinkTo5m(fx);
     expect(res.status).toBe(409);
     expect(res.json.error).toContain(
       `Context ${fx.context.number} was signed off by Director on 14 Jul 2026, 09:30 UTC`,

@@ -18,7 +18,8 @@ import * as drawingRoute from "@/app/api/sites/[siteId]/drawings/[drawingId]/rou
 import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
 import * as recordPhotoRoute from "@/app/api/sites/[siteId]/record-photos/[photoId]/route";
 import * as spitRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/spits/[spitId]/route";
-import { makeSite, makeUser, type SiteFixture } from "./fixtures";
+import { makeSite, type SiteFixture } from "./fixtures";
+import { insertContext, insertFindRow, insertMember, insertTrench } from "./rows";
 
 export type UpdateFixture = SiteFixture & { alt: { contextId: string; classId: string } };
 
@@ -136,9 +137,8 @@ export const updatables: Record<string, Updatable> = {
   memberUpdate: {
     mod: memberRoute,
     target: async (fx) => {
-      const u = await makeUser("Member");
+      const u = await insertMember(fx, "Member");
       const db = await getDb();
-      await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: u.id, role: "digger" });
       return {
         params: { siteId: fx.site.id, userId: u.id },
         read: async () => {
@@ -174,26 +174,13 @@ export const updatables: Record<string, Updatable> = {
   trenchUpdate: {
     mod: trenchRoute,
     target: async (fx) => {
-      const db = await getDb();
-      const [t] = await db
-        .insert(schema.trenches)
-        .values({
-          siteId: fx.site.id,
-          code: `U${unique()}`,
-          outline: {
-            type: "Polygon",
-            coordinates: [
-              [
-                [0, 0],
-                [5, 0],
-                [5, 5],
-                [0, 5],
-                [0, 0],
-              ],
-            ],
-          },
-        })
-        .returning();
+      const t = await insertTrench(fx, `U${unique()}`, [
+        [0, 0],
+        [5, 0],
+        [5, 5],
+        [0, 5],
+        [0, 0],
+      ]);
       return { params: { siteId: fx.site.id, trenchId: t.id }, read: () => rowOf(schema.trenches, t.id) };
     },
     fields: () => ({
@@ -210,11 +197,7 @@ export const updatables: Record<string, Updatable> = {
   contextUpdate: {
     mod: contextRoute,
     target: async (fx) => {
-      const db = await getDb();
-      const [c] = await db
-        .insert(schema.contexts)
-        .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 300_000 + unique(), type: "fill" })
-        .returning();
+      const c = await insertContext(fx, 300_000 + unique(), "fill");
       return { params: { siteId: fx.site.id, contextId: c.id }, read: () => rowOf(schema.contexts, c.id) };
     },
     fields: () => ({
@@ -247,20 +230,7 @@ export const updatables: Record<string, Updatable> = {
   findUpdate: {
     mod: findRoute,
     target: async (fx) => {
-      const db = await getDb();
-      const [f] = await db
-        .insert(schema.finds)
-        .values({
-          siteId: fx.site.id,
-          trenchId: fx.trench.id,
-          contextId: fx.context.id,
-          classId: fx.cls.id,
-          number: 500_000 + unique(),
-          x: 1,
-          y: 1,
-          method: "typed",
-        })
-        .returning();
+      const f = await insertFindRow(fx, 500_000 + unique());
       return { params: { siteId: fx.site.id, findId: f.id }, read: () => rowOf(schema.finds, f.id) };
     },
     fields: (fx) => ({

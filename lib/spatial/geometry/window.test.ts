@@ -17,6 +17,18 @@ const ell: Ring = [
   [0, 10],
 ];
 
+/** A ring written as "x y, x y, …" (NaN allowed), so that a refused outline reads on one line. */
+const ringOf = (text: string): Ring =>
+  text.split(",").map((pair) => pair.trim().split(/\s+/).map(Number) as [number, number]);
+
+/** Making the window of this outline (and these holes), to be called by `expect(…).toThrow`. */
+const windowOf =
+  (outer: Ring | string, ...holes: (Ring | string)[]) =>
+  () => {
+    const ring = (r: Ring | string) => (typeof r === "string" ? ringOf(r) : r);
+    return createWindow(holes.length ? { outer: ring(outer), holes: holes.map(ring) } : { outer: ring(outer) });
+  };
+
 describe("createWindow", () => {
   it("gives area and perimeter of a rectangle (a·b and 2(a+b))", () => {
     const w = rectangleWindow(1, 2, 4, 7);
@@ -115,152 +127,35 @@ describe("createWindow", () => {
   });
 
   it("refuses fewer than 3 distinct vertices", () => {
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [1, 1],
-          [1, 1],
-          [0, 0],
-        ],
-      }),
-    ).toThrow(/at least 3 distinct/);
+    expect(windowOf("0 0, 1 1, 1 1, 0 0")).toThrow(/at least 3 distinct/);
   });
 
   it("refuses collinear and non-finite vertices", () => {
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [1, 1],
-          [2, 2],
-        ],
-      }),
-    ).toThrow(/zero area/);
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [1, NaN],
-          [2, 0],
-        ],
-      }),
-    ).toThrow(/Vertex 2 of the outer ring/);
+    expect(windowOf("0 0, 1 1, 2 2")).toThrow(/zero area/);
+    expect(windowOf("0 0, 1 NaN, 2 0")).toThrow(/Vertex 2 of the outer ring/);
   });
 
   it("refuses a self-crossing outline (bow tie)", () => {
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [2, 2],
-          [2, 0],
-          [0, 2],
-        ],
-      }),
-    ).toThrow(SpatialInputError);
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [2, 2],
-          [2, 0],
-          [0, 2],
-        ],
-      }),
-    ).toThrow(/crosses or touches itself/);
+    const bowTie = windowOf("0 0, 2 2, 2 0, 0 2");
+    expect(bowTie).toThrow(SpatialInputError);
+    expect(bowTie).toThrow(/crosses or touches itself/);
   });
 
   it("refuses an outline that touches itself at a vertex", () => {
     // Two squares meeting at (1, 1): the figure-of-eight
-    expect(() =>
-      createWindow({
-        outer: [
-          [0, 0],
-          [1, 0],
-          [1, 1],
-          [2, 1],
-          [2, 2],
-          [1, 2],
-          [1, 1],
-          [0, 1],
-        ],
-      }),
-    ).toThrow(/crosses or touches itself/);
+    expect(windowOf("0 0, 1 0, 1 1, 2 1, 2 2, 1 2, 1 1, 0 1")).toThrow(/crosses or touches itself/);
   });
 
   it("refuses holes outside, crossing, or touching the outer ring", () => {
-    expect(() =>
-      createWindow({
-        outer: ell,
-        holes: [
-          [
-            [7, 7],
-            [8, 7],
-            [8, 8],
-          ],
-        ],
-      }),
-    ).toThrow(/Hole 1 is not strictly inside/);
-    expect(() =>
-      createWindow({
-        outer: ell,
-        holes: [
-          [
-            [9, 1],
-            [11, 1],
-            [11, 2],
-          ],
-        ],
-      }),
-    ).toThrow(/Hole 1 is not strictly inside/);
-    expect(() =>
-      createWindow({
-        outer: ell,
-        holes: [
-          [
-            [9, 1],
-            [10, 1],
-            [10, 2],
-          ],
-        ],
-      }),
-    ).toThrow(/Hole 1 is not strictly inside/);
+    expect(windowOf(ell, "7 7, 8 7, 8 8")).toThrow(/Hole 1 is not strictly inside/);
+    expect(windowOf(ell, "9 1, 11 1, 11 2")).toThrow(/Hole 1 is not strictly inside/);
+    expect(windowOf(ell, "9 1, 10 1, 10 2")).toThrow(/Hole 1 is not strictly inside/);
   });
 
   it("refuses overlapping or nested holes", () => {
-    const h1: Ring = [
-      [1, 1],
-      [3, 1],
-      [3, 3],
-      [1, 3],
-    ];
-    expect(() =>
-      createWindow({
-        outer: ell,
-        holes: [
-          h1,
-          [
-            [2, 2],
-            [3.5, 2],
-            [3.5, 3.5],
-          ],
-        ],
-      }),
-    ).toThrow(/Holes 1 and 2/);
-    expect(() =>
-      createWindow({
-        outer: ell,
-        holes: [
-          h1,
-          [
-            [1.5, 1.5],
-            [2, 1.5],
-            [2, 2],
-          ],
-        ],
-      }),
-    ).toThrow(/Holes 1 and 2/);
+    const h1 = "1 1, 3 1, 3 3, 1 3";
+    expect(windowOf(ell, h1, "2 2, 3.5 2, 3.5 3.5")).toThrow(/Holes 1 and 2/);
+    expect(windowOf(ell, h1, "1.5 1.5, 2 1.5, 2 2")).toThrow(/Holes 1 and 2/);
   });
 
   it("agrees with @turf/turf kinks on random quadrilaterals (outside check of the crossing rule)", () => {

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
-import { makeUser } from "../../support/fixtures";
+import { insertContext, insertFindRow, insertMember, insertTrench } from "../../support/rows";
 import type { SiteFixture } from "../../support/fixtures";
 import { nextCount, type RoleCases } from "./types";
 import * as sitesRoute from "@/app/api/sites/route";
@@ -25,15 +25,11 @@ export const coreCases: RoleCases = {
     body: { name: `Renamed ${nextCount()}`, levelSpreadCaution: 0.25 },
   }),
   memberUpdate: async (fx) => {
-    const u = await makeUser("Member");
-    const db = await getDb();
-    await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: u.id, role: "digger" });
+    const u = await insertMember(fx, "Member");
     return { mod: memberRoute, params: { siteId: fx.site.id, userId: u.id }, body: { role: "specialist" } };
   },
   memberRemove: async (fx) => {
-    const u = await makeUser("Leaver");
-    const db = await getDb();
-    await db.insert(schema.memberships).values({ siteId: fx.site.id, userId: u.id, role: "digger" });
+    const u = await insertMember(fx, "Leaver");
     return { mod: memberRoute, params: { siteId: fx.site.id, userId: u.id } };
   },
   classesCreate: async (fx) => ({
@@ -71,25 +67,12 @@ export const coreCases: RoleCases = {
     body: { name: `North ${nextCount()}` },
   }),
   trenchDelete: async (fx) => {
-    const db = await getDb();
-    const [t] = await db
-      .insert(schema.trenches)
-      .values({
-        siteId: fx.site.id,
-        code: `D${nextCount()}`,
-        outline: {
-          type: "Polygon",
-          coordinates: [
-            [
-              [0, 0],
-              [1, 0],
-              [1, 1],
-              [0, 0],
-            ],
-          ],
-        },
-      })
-      .returning();
+    const t = await insertTrench(fx, `D${nextCount()}`, [
+      [0, 0],
+      [1, 0],
+      [1, 1],
+      [0, 0],
+    ]);
     return { mod: trenchRoute, params: { siteId: fx.site.id, trenchId: t.id } };
   },
   contextsCreate: async (fx) => ({
@@ -103,11 +86,7 @@ export const coreCases: RoleCases = {
     body: { colour: `mid brown ${nextCount()}` },
   }),
   contextDelete: async (fx) => {
-    const db = await getDb();
-    const [c] = await db
-      .insert(schema.contexts)
-      .values({ siteId: fx.site.id, trenchId: fx.trench.id, number: 7000 + nextCount(), type: "cut" })
-      .returning();
+    const c = await insertContext(fx, 7000 + nextCount(), "cut");
     return { mod: contextRoute, params: { siteId: fx.site.id, contextId: c.id } };
   },
   findsCreate: async (fx) => ({
@@ -137,20 +116,5 @@ export const coreCases: RoleCases = {
   },
 };
 
-export async function insertFind(fx: SiteFixture) {
-  const db = await getDb();
-  const [f] = await db
-    .insert(schema.finds)
-    .values({
-      siteId: fx.site.id,
-      trenchId: fx.trench.id,
-      contextId: fx.context.id,
-      classId: fx.cls.id,
-      number: 90000 + nextCount(),
-      x: 1,
-      y: 1,
-      method: "typed",
-    })
-    .returning();
-  return f;
-}
+/** A find in the fixture's context, numbered clear of the ones the routes give. */
+export const insertFind = (fx: SiteFixture) => insertFindRow(fx, 90000 + nextCount());
