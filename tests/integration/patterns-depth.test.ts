@@ -76,6 +76,24 @@ function scopeQuery(fx: SiteFixture, classIds: string[], extra: Record<string, s
   return { trenchId: fx.trench.id, contextIds: fx.context.id, classIds: classIds.join(","), ...extra };
 }
 
+/** A Clark–Evans run of the fixture's flint in its context, its scope narrowed by `depth`, by the session's user. */
+function postRun(
+  fx: SiteFixture,
+  depth: Record<string, unknown>,
+  { seed = 1, correction }: { seed?: number; correction?: "none" } = {},
+) {
+  return call(
+    runsRoute,
+    "POST",
+    { siteId: fx.site.id },
+    {
+      scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id], ...depth },
+      tests: [correction ? { kind: "clark-evans", correction } : { kind: "clark-evans" }],
+      params: { nsim: 19, seed },
+    },
+  );
+}
+
 async function runsOnSite(siteId: string) {
   const db = await getDb();
   const [row] = await db.select({ n: count() }).from(schema.analysisRuns).where(eq(schema.analysisRuns.siteId, siteId));
@@ -106,22 +124,7 @@ describe("Patterns scope by depth", () => {
     expect(res.json.depth.noLevel.count).toBe(7);
 
     // The run reads the same finds, stores the range with its scope and the finds it left out.
-    const created = await call(
-      runsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      {
-        scope: {
-          trenchId: fx.trench.id,
-          contextIds: [fx.context.id],
-          classIds: [fx.cls.id],
-          levelFrom: 41.2,
-          levelTo: 41.3,
-        },
-        tests: [{ kind: "clark-evans", correction: "none" }],
-        params: { nsim: 19, seed: 4 },
-      },
-    );
+    const created = await postRun(fx, { levelFrom: 41.2, levelTo: 41.3 }, { seed: 4, correction: "none" });
     expect(created.status, JSON.stringify(created.json)).toBe(201);
     await runsIdle();
     const run = (await call(runRoute, "GET", { siteId: fx.site.id, runId: created.json.id })).json;
@@ -171,13 +174,9 @@ describe("Patterns scope by depth", () => {
   it("the stored fingerprint includes the depth limits, and a level moved out of the range puts the run out of date", async () => {
     const { fx, planned, rows } = await depthSite();
     session.userId = fx.people.specialist.id;
-    const body = (extra: Record<string, unknown>) => ({
-      scope: { trenchId: fx.trench.id, contextIds: [fx.context.id], classIds: [fx.cls.id], ...extra },
-      tests: [{ kind: "clark-evans", correction: "none" }],
-      params: { nsim: 19, seed: 4 },
-    });
-    const whole = await call(runsRoute, "POST", { siteId: fx.site.id }, body({}));
-    const ranged = await call(runsRoute, "POST", { siteId: fx.site.id }, body({ levelFrom: 41.1, levelTo: 41.4 }));
+    const once = { seed: 4, correction: "none" } as const;
+    const whole = await postRun(fx, {}, once);
+    const ranged = await postRun(fx, { levelFrom: 41.1, levelTo: 41.4 }, once);
     expect(whole.status).toBe(201);
     expect(ranged.status).toBe(201);
     await runsIdle();
@@ -204,22 +203,7 @@ describe("Patterns scope by depth", () => {
     const { fx } = await depthSite();
     session.userId = fx.people.specialist.id;
     const before = await runsOnSite(fx.site.id);
-    const res = await call(
-      runsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      {
-        scope: {
-          trenchId: fx.trench.id,
-          contextIds: [fx.context.id],
-          classIds: [fx.cls.id],
-          levelFrom: 41.4,
-          levelTo: 41.2,
-        },
-        tests: [{ kind: "clark-evans" }],
-        params: { nsim: 19, seed: 1 },
-      },
-    );
+    const res = await postRun(fx, { levelFrom: 41.4, levelTo: 41.2 });
     expect(res.status).toBe(400);
     expect(res.json.fieldErrors["scope.levelFrom"]).toEqual([
       "The lower level (from) must not be higher than the upper level (to).",
@@ -250,21 +234,7 @@ describe("Patterns scope by depth", () => {
     const other = await depthSite();
     session.userId = fx.people.specialist.id;
     const before = await runsOnSite(fx.site.id);
-    const res = await call(
-      runsRoute,
-      "POST",
-      { siteId: fx.site.id },
-      {
-        scope: {
-          trenchId: fx.trench.id,
-          contextIds: [fx.context.id],
-          classIds: [fx.cls.id],
-          spitIds: [other.spitId.get(1)],
-        },
-        tests: [{ kind: "clark-evans" }],
-        params: { nsim: 19, seed: 1 },
-      },
-    );
+    const res = await postRun(fx, { spitIds: [other.spitId.get(1)] });
     expect(res.status).toBe(400);
     expect(res.json.fieldErrors).toHaveProperty(["scope.spitIds"]);
     expect(await runsOnSite(fx.site.id)).toBe(before);

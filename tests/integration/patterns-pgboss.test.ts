@@ -5,13 +5,12 @@
  * server (scripts/with-postgres.sh); otherwise starts a throwaway cluster on a loopback port. Skipped,
  * with a message, only when no PostgreSQL binaries exist.
  */
-import { spawn, type ChildProcess } from "node:child_process";
-import path from "node:path";
 import type pg from "pg";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { testViews } from "@/lib/patterns-view/test-view";
+import { startRunWorker, stopRunWorker, untilReady, type RunWorker } from "../support/run-worker";
 
 /**
  * Everything the environment needs is settled here, before any module reads it (lib/env caches it): the
@@ -28,8 +27,9 @@ if (!setup.available)
     "patterns-pgboss: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.",
   );
 
-let worker: ChildProcess | undefined;
-let workerLog = "";
+let worker: RunWorker | undefined;
+/** The worker's output so far, for the messages of failing checks. */
+const workerLog = () => worker?.log ?? "";
 
 describe.skipIf(!setup.available)("runs through pg-boss and a separate worker process", () => {
   let d: { siteId: string; trenchId: string; ctx: string; flk: string; specialist: string };
@@ -37,7 +37,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
   const load = async () => ({
     client: await import("@/db/client"),
     s: await import("@/db/schema"),
-    seed: await import("@/scripts/seed/seed-demo"),
+    demo: await import("../support/demo-site"),
     runner: await import("@/lib/server/jobs/run-queue"),
     runsRoute: await import("@/app/api/sites/[siteId]/runs/route"),
     runRoute: await import("@/app/api/sites/[siteId]/runs/[runId]/route"),
@@ -48,80 +48,54 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
   beforeAll(async () => {
     mods = await load();
     expect(mods.runner.runQueueKind()).toBe("pg-boss");
-    const db = await mods.client.getDb();
-    const { siteId } = await mods.seed.seedDemo(db);
-    const { s } = mods;
-    const [trench] = await db
-      .select()
-      .from(s.trenches)
-      .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-    const [ctx] = await db
-      .select()
-      .from(s.contexts)
-      .where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
-    const [flk] = await db
-      .select()
-      .from(s.artefactClasses)
-      .where(and(eq(s.artefactClasses.siteId, siteId), eq(s.artefactClasses.code, "FLK")));
-    const [spec] = await db.select().from(s.users).where(eq(s.users.email, "specialist@loamwork.test"));
-    d = { siteId, trenchId: trench.id, ctx: ctx.id, flk: flk.id, specialist: spec.id };
+    const demo = await mods.demo.seedDemoSite();
+    d = {
+      siteId: demo.siteId,
+      trenchId: demo.trenchId,
+      ctx: demo.ctx[1005]!,
+      flk: demo.cls.FLK!,
+      specialist: demo.people.specialist!,
+    };
     // The worker is its own process, started as `npm run worker` starts it.
-    worker = spawn(
-      process.execPath,
-      [path.resolve("node_modules/tsx/dist/cli.mjs"), "--conditions=react-server", "scripts/worker.ts"],
-      {
-        env: {
-          ...process.env,
-          NODE_ENV: "production",
-          DATABASE_URL: process.env.DATABASE_URL,
-          LOAMWORK_DATA_DIR: "unused",
-        },
-        stdio: ["ignore", "pipe", "pipe"],
-      },
-    );
-    worker.stdout!.on("data", (b) => (workerLog += b));
-    worker.stderr!.on("data", (b) => (workerLog += b));
-    for (let i = 0; i < 600 && !workerLog.includes("run worker ready"); i++) {
-      if (worker.exitCode !== null) throw new Error(`the worker exited:\n${workerLog}`);
-      await new Promise((r) => setTimeout(r, 100));
-    }
-    expect(workerLog).toContain("run worker ready");
+    worker = startRunWorker();
+    await untilReady([worker]);
+    expect(worker.log).toContain("run worker ready");
   }, 120_000);
 
   afterAll(async () => {
-    if (worker && worker.exitCode === null) {
-      const gone = new Promise((r) => worker!.once("exit", r));
-      worker.kill("SIGTERM");
-      await gone;
-    }
+    await stopRunWorker(worker);
     await mods?.runner.stopRunQueue();
     await mods?.client.closeDb();
     setup.stop();
   }, 60_000);
 
-  const waitFor = async (runId: string, want: (row: { status: string; progress: number }) => boolean) => {
-    const db = await mods.client.getDb();
-    for (let i = 0; i < 1200; i++) {
-      const [row] = await db.select().from(mods.s.analysisRuns).where(eq(mods.s.analysisRuns.id, runId));
-      if (want(row)) return row;
-      if (row.status === "failed") throw new Error(`run failed: ${row.error}\n${workerLog}`);
-      await new Promise((r) => setTimeout(r, 100));
-    }
-    throw new Error(`the run never reached the wanted state\n${workerLog}`);
-  };
-
-  it("the app only queues the run; the worker process computes it (FLK clustered)", async () => {
-    session.userId = d.specialist;
-    const res = await call(
+  /** The specialist's run of the L-function envelope on FLK in context 1005, as the Patterns page sends it. */
+  const queueRun = (nsim: number, seed: number) =>
+    call(
       mods.runsRoute,
       "POST",
       { siteId: d.siteId },
       {
         scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
         tests: [{ kind: "l-envelope" }],
-        params: { nsim: 99, seed: 3 },
+        params: { nsim, seed },
       },
     );
+
+  const waitFor = async (runId: string, want: (row: { status: string; progress: number }) => boolean) => {
+    const db = await mods.client.getDb();
+    for (let i = 0; i < 1200; i++) {
+      const [row] = await db.select().from(mods.s.analysisRuns).where(eq(mods.s.analysisRuns.id, runId));
+      if (want(row)) return row;
+      if (row.status === "failed") throw new Error(`run failed: ${row.error}\n${workerLog()}`);
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    throw new Error(`the run never reached the wanted state\n${workerLog()}`);
+  };
+
+  it("the app only queues the run; the worker process computes it (FLK clustered)", async () => {
+    session.userId = d.specialist;
+    const res = await queueRun(99, 3);
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     expect(res.json.status).toBe("queued");
     await waitFor(res.json.id, (r) => r.status === "done");
@@ -133,16 +107,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("a cancel from the app stops the run in the worker", async () => {
     session.userId = d.specialist;
-    const res = await call(
-      mods.runsRoute,
-      "POST",
-      { siteId: d.siteId },
-      {
-        scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
-        tests: [{ kind: "l-envelope" }],
-        params: { nsim: 9999, seed: 4 },
-      },
-    );
+    const res = await queueRun(9999, 4);
     await waitFor(res.json.id, (r) => r.status === "running" && r.progress > 0);
     expect((await call(mods.cancelRoute, "POST", { siteId: d.siteId, runId: res.json.id })).status).toBe(200);
     // The worker's job ends (pg-boss marks it completed) without writing a result.
@@ -153,7 +118,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
         [res.json.id],
       );
       if (rows[0]?.state === "completed") break;
-      if (i > 600) throw new Error(`the worker did not stop the run\n${workerLog}`);
+      if (i > 600) throw new Error(`the worker did not stop the run\n${workerLog()}`);
       await new Promise((r) => setTimeout(r, 100));
     }
     const read = await call(mods.runRoute, "GET", { siteId: d.siteId, runId: res.json.id });
@@ -163,16 +128,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
 
   it("the app's event stream follows the run the worker computes: progress as it rises, then the result", async () => {
     session.userId = d.specialist;
-    const res = await call(
-      mods.runsRoute,
-      "POST",
-      { siteId: d.siteId },
-      {
-        scope: { trenchId: d.trenchId, contextIds: [d.ctx], classIds: [d.flk] },
-        tests: [{ kind: "l-envelope" }],
-        params: { nsim: 4999, seed: 5 },
-      },
-    );
+    const res = await queueRun(4999, 5);
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     const stream = await mods.eventsRoute.GET(new Request("http://localhost/api/test"), {
       params: Promise.resolve({ siteId: d.siteId, runId: res.json.id }),
@@ -185,7 +141,7 @@ describe.skipIf(!setup.available)("runs through pg-boss and a separate worker pr
       .filter((b) => b.startsWith("event: "))
       .map((b) => ({ event: /^event: (.*)$/m.exec(b)![1], data: JSON.parse(/^data: (.*)$/m.exec(b)![1]) }));
     const progress = events.filter((e) => e.event === "progress").map((e) => e.data.progress as number);
-    expect(progress.length, workerLog).toBeGreaterThan(2);
+    expect(progress.length, workerLog()).toBeGreaterThan(2);
     expect(progress).toEqual([...progress].sort((a, b) => a - b));
     expect(progress.at(-1)).toBeGreaterThan(0.5);
     const last = events.at(-1)!;

@@ -5,11 +5,11 @@
  * runs out pg-boss offers it again and the other worker computes it. Two `npm run worker` processes against
  * the PostgreSQL server the suite gives this file (or a throwaway cluster, as patterns-pgboss.test.ts).
  */
-import { spawn, type ChildProcess } from "node:child_process";
 import type pg from "pg";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
+import { startRunWorker, stopRunWorker, untilReady, type RunWorker } from "../support/run-worker";
 
 /**
  * Everything the environment needs is settled here, before any module reads it (lib/env caches it): the
@@ -26,30 +26,17 @@ if (!setup.available)
     "patterns-workers: skipped — no PostgreSQL binaries under /usr/lib/postgresql and no server given by the suite.",
   );
 
-type Worker = { proc: ChildProcess; log: string };
-const workers: Worker[] = [];
+const workers: RunWorker[] = [];
 /** Chunk time before a silent worker's chunk is offered again: short, so the test waits little for it. */
 const EXPIRE_SECONDS = 8;
 
-function startWorker(): Worker {
-  const w: Worker = { log: "", proc: undefined as unknown as ChildProcess };
-  // node itself with tsx as its loader (not tsx's command line, which runs the script in a child process
-  // that a kill of the parent would leave behind)
-  w.proc = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], {
-    env: {
-      ...process.env,
-      NODE_ENV: "production",
-      DATABASE_URL: process.env.DATABASE_URL,
-      LOAMWORK_DATA_DIR: "unused",
-      LOAMWORK_WORKER_THREADS: "1",
-      LOAMWORK_WORKER_LOG: "1",
-      LOAMWORK_RUN_CHUNKS: "8",
-      LOAMWORK_CHUNK_EXPIRE_SECONDS: String(EXPIRE_SECONDS),
-    },
-    stdio: ["ignore", "pipe", "pipe"],
+function startWorker(): RunWorker {
+  const w = startRunWorker({
+    LOAMWORK_WORKER_THREADS: "1",
+    LOAMWORK_WORKER_LOG: "1",
+    LOAMWORK_RUN_CHUNKS: "8",
+    LOAMWORK_CHUNK_EXPIRE_SECONDS: String(EXPIRE_SECONDS),
   });
-  w.proc.stdout!.on("data", (b) => (w.log += b));
-  w.proc.stderr!.on("data", (b) => (w.log += b));
   workers.push(w);
   return w;
 }
@@ -68,7 +55,7 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
   const load = async () => ({
     client: await import("@/db/client"),
     s: await import("@/db/schema"),
-    seed: await import("@/scripts/seed/seed-demo"),
+    demo: await import("../support/demo-site"),
     runner: await import("@/lib/server/jobs/run-queue"),
     execute: await import("@/lib/server/analysis/execute-run"),
     runsRoute: await import("@/app/api/sites/[siteId]/runs/route"),
@@ -78,37 +65,25 @@ describe.skipIf(!setup.available)("one run shared by two worker processes", () =
   beforeAll(async () => {
     mods = await load();
     expect(mods.runner.runQueueKind()).toBe("pg-boss");
-    const db = await mods.client.getDb();
-    const { siteId } = await mods.seed.seedDemo(db);
-    const { s } = mods;
-    const [trench] = await db
-      .select()
-      .from(s.trenches)
-      .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-    const [ctx] = await db
-      .select()
-      .from(s.contexts)
-      .where(and(eq(s.contexts.trenchId, trench.id), eq(s.contexts.number, 1005)));
-    const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
-    const wanted = classes.filter((c) => ["FLK", "CHP", "FCR"].includes(c.code)).map((c) => c.id);
-    const [spec] = await db.select().from(s.users).where(eq(s.users.email, "specialist@loamwork.test"));
-    d = { siteId, trenchId: trench.id, ctx: ctx.id, classes: wanted, specialist: spec.id };
+    const demo = await mods.demo.seedDemoSite();
+    d = {
+      siteId: demo.siteId,
+      trenchId: demo.trenchId,
+      ctx: demo.ctx[1005]!,
+      // In the site's own order of classes, as the scope picker lists them.
+      classes: Object.entries(demo.cls)
+        .filter(([code]) => ["FLK", "CHP", "FCR"].includes(code))
+        .map(([, id]) => id),
+      specialist: demo.people.specialist!,
+    };
     const a = startWorker(),
       b = startWorker();
-    await until("two ready workers", () =>
-      [a, b].every((w) => w.log.includes("run worker ready") || w.proc.exitCode !== null),
-    );
+    await untilReady([a, b], 120_000);
     for (const w of [a, b]) expect(w.log).toContain("run worker ready");
   }, 180_000);
 
   afterAll(async () => {
-    for (const w of workers) {
-      if (w.proc.exitCode === null && w.proc.signalCode === null) {
-        const gone = new Promise((r) => w.proc.once("exit", r));
-        w.proc.kill("SIGTERM");
-        await gone;
-      }
-    }
+    for (const w of workers) await stopRunWorker(w);
     await mods?.runner.stopRunQueue();
     await mods?.client.closeDb();
     setup.stop();
