@@ -145,13 +145,19 @@ function PackageRow({ siteId, job, when }: { siteId: string; job: PackageJob; wh
               {job.fingerprint}
             </code>
           </p>
-          <a
-            className="btn inline-flex"
-            href={`/api/sites/${siteId}/packages/${job.id}/file`}
-            download={job.fileName ?? undefined}
-          >
-            Download {job.fileName}
-          </a>
+          {job.fileKept ? (
+            <a
+              className="btn inline-flex"
+              href={`/api/sites/${siteId}/packages/${job.id}/file`}
+              download={job.fileName ?? undefined}
+            >
+              Download {job.fileName}
+            </a>
+          ) : (
+            <p className="text-ink-soft">
+              The file was removed when newer packages were written; only the newest few are kept.
+            </p>
+          )}
         </div>
       )}
     </li>

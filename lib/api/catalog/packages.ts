@@ -14,6 +14,8 @@ export const packageView = z.object({
   bytes: z.number().nullable(),
   /** SHA-256 of the package's manifest-sha256.txt, as bag-info.txt states it. */
   fingerprint: z.string().nullable(),
+  /** False once the zip was removed to make room: only the newest few finished packages of a site are kept. */
+  fileKept: z.boolean(),
   error: z.string().nullable(),
   createdBy: z.string(),
   createdAt: wireDate,

@@ -13,6 +13,7 @@ import { storePath } from "@/lib/server/uploads/file-store";
 import { written } from "@/lib/server/written";
 import { packageQueue } from "@/lib/server/jobs/package-queue";
 import { packageTrenchCode } from "./deposition";
+import { KEEP_PACKAGES, downloadStarted } from "./package-prune";
 
 /** A package job as the screen and scripts see it. */
 export type PackageView = {
@@ -24,6 +25,8 @@ export type PackageView = {
   fileName: string | null;
   bytes: number | null;
   fingerprint: string | null;
+  /** False once a finished package's zip was removed to make room (only the newest few are kept). */
+  fileKept: boolean;
   error: string | null;
   createdBy: string;
   createdAt: Date;
@@ -44,6 +47,7 @@ async function views(db: Db, rows: { p: DepositionPackage; trench: string | null
     fileName: p.fileName,
     bytes: p.bytes,
     fingerprint: p.fingerprint,
+    fileKept: p.filePath !== null,
     error: p.error,
     createdBy: p.createdBy ? (names.get(p.createdBy) ?? "") : "",
     createdAt: p.createdAt,
@@ -127,6 +131,10 @@ export async function packageFile(db: Db, actor: SiteActor, packageId: string, r
     .from(depositionPackages)
     .where(and(eq(depositionPackages.siteId, actor.site.id), eq(depositionPackages.id, packageId)));
   if (!row) throw notFound("That package");
+  if (row.status === "done" && !row.filePath)
+    throw conflict(
+      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of a site are kept. Its fingerprint stays in the list; write a new package to download one.`,
+    );
   if (row.status !== "done" || !row.filePath)
     throw conflict(
       `This package is ${row.status === "failed" ? "failed" : "not written yet"}; there is no file to download.`,
@@ -145,7 +153,10 @@ export async function packageFile(db: Db, actor: SiteActor, packageId: string, r
   if (range === "bad")
     return new Response(null, { status: 416, headers: { ...headers, "content-range": `bytes */${size}` } });
   const { start, end } = range ?? { start: 0, end: size - 1 };
-  const body = Readable.toWeb(createReadStream(full, { start, end })) as ReadableStream<Uint8Array>;
+  const stream = createReadStream(full, { start, end });
+  // While it streams (and a while after, for a resumed download) the file is not pruned.
+  stream.once("close", downloadStarted(row.id));
+  const body = Readable.toWeb(stream) as ReadableStream<Uint8Array>;
   return new Response(body, {
     status: range ? 206 : 200,
     headers: {

@@ -11,6 +11,7 @@ import { isPublicError } from "@/lib/server/errors";
 import { storePath } from "@/lib/server/uploads/file-store";
 import { bagZip, type BagSummary } from "./bagit";
 import { packageFiles, planPackage } from "./deposition";
+import { prunePackages } from "./package-prune";
 
 /** Progress is written at most this often (and once at the end): a row per photo would be needless churn. */
 const PROGRESS_EVERY_MS = 250;
@@ -74,6 +75,8 @@ export async function writePackage(db: Db, packageId: string, signal: AbortSigna
         finishedAt: new Date(),
       })
       .where(eq(depositionPackages.id, packageId));
+    // Older zips go once a newer one is complete; a failure to tidy up never fails the package just written.
+    await prunePackages(db, claimed.siteId).catch((err) => console.error("[loamwork] package prune failed", err));
   } catch (err) {
     await rm(part, { force: true });
     if (!isPublicError(err)) console.error(`[loamwork] package ${packageId} failed`, err);

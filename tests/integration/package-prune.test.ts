@@ -1,0 +1,96 @@
+import { existsSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { call, session } from "../support/harness";
+import { makeSite, type SiteFixture } from "../support/fixtures";
+import { getDb } from "@/db/client";
+import * as s from "@/db/schema";
+import { packageFilePath } from "@/lib/server/export/package-writer";
+import { KEEP_PACKAGES, RESUME_GRACE_MS, prunePackages } from "@/lib/server/export/package-prune";
+import { packagesIdle } from "@/lib/server/jobs/package-queue";
+import { saveFile, storePath } from "@/lib/server/uploads/file-store";
+import * as packagesRoute from "@/app/api/sites/[siteId]/packages/route";
+import * as fileRoute from "@/app/api/sites/[siteId]/packages/[packageId]/file/route";
+
+/** Old deposition packages' zips are removed once newer ones finish; the newest few and any being downloaded stay. */
+async function finished(fx: SiteFixture, daysAgo: number) {
+  const db = await getDb();
+  const at = new Date(Date.UTC(2026, 6, 20) - daysAgo * 86_400_000);
+  const [row] = await db
+    .insert(s.depositionPackages)
+    .values({ siteId: fx.site.id, status: "done", createdBy: fx.people.director.id, createdAt: at, finishedAt: at })
+    .returning();
+  const relative = packageFilePath(fx.site.id, row!.id);
+  await saveFile(relative, Buffer.from(`zip of ${daysAgo} days ago `.repeat(100)));
+  await db
+    .update(s.depositionPackages)
+    .set({ filePath: relative, fileName: `p${daysAgo}.zip`, bytes: 2_000, fingerprint: "f".repeat(64) })
+    .where(eq(s.depositionPackages.id, row!.id));
+  return { id: row!.id, file: storePath(relative) };
+}
+const download = (fx: SiteFixture, packageId: string) =>
+  fileRoute.GET(new Request("http://localhost/x"), { params: Promise.resolve({ siteId: fx.site.id, packageId }) });
+const filePathOf = async (id: string) =>
+  (await (await getDb()).select().from(s.depositionPackages).where(eq(s.depositionPackages.id, id)))[0]!.filePath;
+
+describe("pruning old deposition packages", () => {
+  it(`keeps the newest ${KEEP_PACKAGES} finished zips of a site and one still being downloaded; removes the rest`, async () => {
+    const fx = await makeSite();
+    const [p1, p2, p3, p4, p5] = [
+      await finished(fx, 1),
+      await finished(fx, 2),
+      await finished(fx, 3),
+      await finished(fx, 4),
+      await finished(fx, 5),
+    ];
+    const other = await makeSite();
+    const elsewhere = [
+      await finished(other, 10),
+      await finished(other, 11),
+      await finished(other, 12),
+      await finished(other, 13),
+    ];
+    session.userId = fx.people.director.id;
+    // Package 4 is being downloaded: its stream is open.
+    const reading = await download(fx, p4!.id);
+    expect(reading.status).toBe(200);
+    const now = Date.now();
+    expect(await prunePackages(await getDb(), fx.site.id, now)).toEqual([p5!.id]);
+    expect([p1, p2, p3, p4].map((p) => existsSync(p!.file))).toEqual([true, true, true, true]);
+    expect(existsSync(p5!.file)).toBe(false);
+    expect(await filePathOf(p5!.id)).toBeNull();
+    // Another site's packages are its own.
+    expect(elsewhere.every((p) => existsSync(p.file))).toBe(true);
+
+    // The removed one says so, and the list shows it without a file.
+    const gone = await download(fx, p5!.id);
+    expect(gone.status).toBe(409);
+    expect(((await gone.json()) as { error: string }).error).toBe(
+      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of a site are kept. Its fingerprint stays in the list; write a new package to download one.`,
+    );
+    const list = await call(packagesRoute, "GET", { siteId: fx.site.id });
+    const byId = new Map((list.json as { id: string; fileKept: boolean; fingerprint: string }[]).map((p) => [p.id, p]));
+    expect(byId.get(p5!.id)).toMatchObject({ fileKept: false, fingerprint: "f".repeat(64) });
+    expect(byId.get(p4!.id)).toMatchObject({ fileKept: true });
+
+    // The download ends; its file stays a while for a resumed (Range) download, then goes.
+    expect((await reading.arrayBuffer()).byteLength).toBe("zip of 4 days ago ".length * 100);
+    expect(await prunePackages(await getDb(), fx.site.id, Date.now())).toEqual([]);
+    expect(await prunePackages(await getDb(), fx.site.id, Date.now() + RESUME_GRACE_MS + 1_000)).toEqual([p4!.id]);
+    expect(existsSync(p4!.file)).toBe(false);
+  });
+
+  it("runs when a new package finishes", async () => {
+    const fx = await makeSite();
+    const old = [await finished(fx, 1), await finished(fx, 2), await finished(fx, 3)];
+    session.userId = fx.people.director.id;
+    const started = await call(packagesRoute, "POST", { siteId: fx.site.id }, {});
+    expect(started.status, JSON.stringify(started.json)).toBe(201);
+    await packagesIdle();
+    const db = await getDb();
+    const [fresh] = await db.select().from(s.depositionPackages).where(eq(s.depositionPackages.id, started.json.id));
+    expect(fresh).toMatchObject({ status: "done", error: null });
+    expect(old.map((p) => existsSync(p.file))).toEqual([true, true, false]);
+    expect(await filePathOf(old[2]!.id)).toBeNull();
+  });
+});
