@@ -20,6 +20,7 @@ import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
+import { runsRegister } from "@/lib/server/export/package-registers";
 import { testViews } from "@/lib/patterns-view/test-view";
 import type { RunResult } from "@/lib/api/run-result";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
@@ -130,5 +131,21 @@ describe("saved runs in the result shape of December 2026", { timeout: 180_000 }
       expect(rerun.status, rerun.error).toBe("done");
       expect(shown(rerun.result)).toEqual(keptShown(run.result));
     }
+  });
+
+  it("go into a deposition package in today's shape, as the API gives them", async () => {
+    session.userId = d.people.specialist;
+    const [run] = stored;
+    if (!run) throw new Error("the fixture holds no run");
+    const runId = await store(run);
+    const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
+    const { results } = await runsRegister(await getDb(), { siteId: d.siteId });
+    const file = results.find((r) => r.path === `analysis/${runId}.json`);
+    if (!file) throw new Error("the package has no file for the stored run");
+    const packed = JSON.parse(file.json);
+    expect(packed.run).toBe(runId);
+    expect(packed.result.tests).toBeUndefined(); // the stored shape's name for them
+    expect(packed.result).toEqual(view.result);
+    expect(packed.params).toEqual(view.params);
   });
 });

@@ -11,7 +11,7 @@ import { runQueue } from "../jobs/run-queue";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunCreate, RunScope, RunTest, TestKind } from "@/lib/schemas/run";
 import { isFormerTest, readRunTests } from "@/lib/schemas/former-run";
-import { readRunResult, storedTests } from "./stored-result";
+import { readStoredRun } from "./stored-result";
 import type { RunParamsStored, RunView } from "@/lib/api/patterns-responses";
 import { countsByClass, depthSummary, stratWarningsFor } from "./scope-summary";
 import { currentFingerprint, loadScope, type ScopeData } from "./scope-data";
@@ -126,12 +126,11 @@ function toView(row: AnalysisRun, outOfDate: boolean): RunView {
     fingerprint: row.fingerprint,
     outOfDate,
     scope: row.scope as RunScope,
-    params: { ...(row.params as RunParamsStored), tests: storedTests(row) },
+    ...readStoredRun(row),
     createdAt: row.createdAt.toISOString(),
     startedAt: row.startedAt?.toISOString() ?? null,
     finishedAt: row.finishedAt?.toISOString() ?? null,
     now: new Date().toISOString(),
-    result: readRunResult(row),
   };
 }
 

@@ -80,3 +80,8 @@ export function readRunResult(row: Pick<AnalysisRun, "params" | "scope" | "resul
   if (stored === null || stored === undefined) return null;
   return isFormerResult(stored) ? readFormerResult(stored, storedTests(row)) : (stored as RunResult);
 }
+
+/** A stored run's parameters and result in today's shapes, as the API and the deposition package give them. */
+export function readStoredRun(row: Pick<AnalysisRun, "params" | "scope" | "result">) {
+  return { params: { ...(row.params as RunParamsStored), tests: storedTests(row) }, result: readRunResult(row) };
+}

@@ -22,6 +22,7 @@ import { allDrawings } from "@/lib/server/drawings";
 import { allRecordPhotos, type RecordPhotoRow } from "@/lib/server/record-photos";
 import { facingWords } from "@/lib/schemas/record-photo";
 import { userNames } from "@/lib/server/reads/user-names";
+import { readStoredRun } from "@/lib/server/analysis/stored-result";
 import { contextsForExport } from "./contexts-export";
 import {
   contextCsvColumns,
@@ -504,7 +505,8 @@ export async function runsRegister(db: Db, scope: PackageScope) {
     .map(({ r }) => ({
       path: `analysis/${r.id}.json`,
       json: JSON.stringify(
-        { run: r.id, method: r.method, scope: r.scope, params: r.params, seed: r.seed, result: r.result },
+        // Runs stored in an older shape are written in today's, so that a package holds one shape of run.
+        { run: r.id, method: r.method, scope: r.scope, seed: r.seed, ...readStoredRun(r) },
         null,
         1,
       ),
