@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { eq, inArray } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { makeSite, type SiteFixture } from "../support/fixtures";
+import { insertFindRow } from "../support/rows";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
@@ -9,24 +10,7 @@ import * as contextRoute from "@/app/api/sites/[siteId]/contexts/[contextId]/rou
 import * as bulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 
 /** A record with photos in the photo register is not deleted, and the refusal says why and what to do. */
-async function find(fx: SiteFixture, number: number) {
-  const [f] = await (
-    await getDb()
-  )
-    .insert(schema.finds)
-    .values({
-      siteId: fx.site.id,
-      trenchId: fx.trench.id,
-      contextId: fx.context.id,
-      classId: fx.cls.id,
-      number,
-      x: 1,
-      y: 1,
-      method: "plan",
-    })
-    .returning();
-  return f!;
-}
+const find = insertFindRow;
 let photoN = 0;
 async function photoOf(fx: SiteFixture, of: { findId: string } | { contextId: string }) {
   photoN++;

@@ -12,11 +12,10 @@
  * opened with, it gives that result, test for test, with the same plan layers.
  */
 import { createHash } from "node:crypto";
-import { readFileSync } from "node:fs";
-import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
+import { readRunFixture, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
@@ -26,29 +25,13 @@ import type { RunResult } from "@/lib/api/run-result";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
-type StoredRun = {
-  scope: Record<string, unknown>;
-  method: string;
-  params: Record<string, unknown>;
-  seed: number;
-  engineVersion: string;
-  result: Record<string, unknown>;
-};
+type StoredRun = StoredRunFixture<Record<string, unknown>>;
 
 let d: DemoSite;
 let stored: StoredRun[];
 beforeAll(async () => {
   d = await seedDemoSite();
-  let text = readFileSync(path.join(process.cwd(), "tests/fixtures/present-runs.json"), "utf8");
-  const ids: Record<string, string> = { trench: d.trenchId };
-  for (const [code, id] of Object.entries(d.cls)) ids[`class ${code}`] = id;
-  for (const [n, id] of Object.entries(d.ctx)) ids[`context ${n}`] = id;
-  text = text.replace(/\{\{([^}]+)\}\}/g, (_, name: string) => {
-    const id = ids[name];
-    if (!id) throw new Error(`No demo record for ${name}`);
-    return id;
-  });
-  stored = (JSON.parse(text) as { runs: StoredRun[] }).runs;
+  stored = readRunFixture("present-runs.json", d);
 });
 
 /** What the workspace shows of a result, as the fixture keeps it: heat layers' pixels by their digest. */

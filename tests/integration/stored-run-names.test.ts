@@ -19,6 +19,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq, sql } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
+import { readRunFixture, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
@@ -26,29 +27,13 @@ import { testViews, type TestView } from "@/lib/patterns-view/test-view";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
-type StoredRun = {
-  scope: Record<string, unknown>;
-  method: string;
-  params: Record<string, unknown>;
-  seed: number;
-  engineVersion: string;
-  result: { tests: Record<string, unknown>[] } & Record<string, unknown>;
-};
+type StoredRun = StoredRunFixture<{ tests: Record<string, unknown>[] } & Record<string, unknown>>;
 
 let d: DemoSite;
 let former: StoredRun[];
 beforeAll(async () => {
   d = await seedDemoSite();
-  let text = readFileSync(path.join(process.cwd(), "tests/fixtures/former-runs.json"), "utf8");
-  const ids: Record<string, string> = { trench: d.trenchId };
-  for (const [code, id] of Object.entries(d.cls)) ids[`class ${code}`] = id;
-  for (const [n, id] of Object.entries(d.ctx)) ids[`context ${n}`] = id;
-  text = text.replace(/\{\{([^}]+)\}\}/g, (_, name: string) => {
-    const id = ids[name];
-    if (!id) throw new Error(`No demo record for ${name}`);
-    return id;
-  });
-  former = (JSON.parse(text) as { runs: StoredRun[] }).runs;
+  former = readRunFixture("former-runs.json", d);
 });
 
 /** A result test as the fixture keeps it: curves, histograms and cells by their digest. */
