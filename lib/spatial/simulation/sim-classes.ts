@@ -8,7 +8,7 @@
  */
 import { isotropicPairWeights } from "../geometry/edge-isotropic";
 import { translationPairWeights, translationWeight } from "../geometry/edge-translation";
-import { createSetCovarianceTable } from "../geometry/set-covariance-table";
+import { runSetCovarianceTable } from "../geometry/set-covariance-table";
 import { SpatialInputError } from "../errors";
 import { createIsotropicWeights, isotropicWeight } from "../kernel/isotropic-weights";
 import { pairsWithin } from "../geometry/neighbours";
@@ -89,8 +89,9 @@ export function fixedACurve(window: Window, r: Float64Array, model: Extract<SimM
     m = r.length;
   const scanner = createPairScanner(window.bbox, r[m - 1]);
   const tables = createIsotropicWeights(window, r[m - 1]).prepare(ax, ay, nA);
-  // the translation weight depends only on the displacement: the set covariance is prepared once per run
-  const setCovariance = model.correction === "translation" ? createSetCovarianceTable(window, r[m - 1]) : null;
+  // the translation weight depends only on the displacement: the set covariance is prepared once per run and
+  // kept in this thread for the next run in the same trench with the same r max
+  const setCovariance = model.correction === "translation" ? runSetCovarianceTable(window, r[m - 1]) : null;
   const area = window.area;
   const bin = createBinning(window, r, "generic").bin;
   const sums = new Float64Array(m + 1);
