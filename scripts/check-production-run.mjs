@@ -61,7 +61,7 @@ while (view.status === "queued" || view.status === "running") {
   view = await call("GET", `/api/sites/${id}/runs/${run.id}`);
 }
 if (view.status !== "done") throw new Error(`the run ended ${view.status}: ${view.error}`);
-const verdict = view.result.tests[0].verdict;
+const verdict = view.result.results[0]?.verdict;
 // FLK in 1005 is laid out clustered by the demo seed (scripts/seed/seed-demo.ts).
 if (verdict !== "clustered") throw new Error(`FLK in 1005 should come out clustered; got ${verdict}`);
 console.log(`Run ${run.id}: done in ${((Date.now() - started) / 1000).toFixed(1)} s, FLK in 1005 ${verdict}.`);
