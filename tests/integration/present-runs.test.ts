@@ -15,14 +15,12 @@ import { createHash } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
-import { readRunFixture, type StoredRunFixture } from "../support/run-fixtures";
+import { readRunFixture, startAgainAsOpened, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { runsIdle } from "@/lib/server/jobs/run-queue";
 import { runsRegister } from "@/lib/server/export/package-registers";
 import { testViews } from "@/lib/patterns-view/test-view";
 import type { RunResult } from "@/lib/api/run-result";
-import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
 type StoredRun = StoredRunFixture<Record<string, unknown>>;
@@ -98,20 +96,7 @@ describe("saved runs in the result shape of December 2026", { timeout: 180_000 }
       expect(view.result.results).toHaveLength((run.result.tests as unknown[]).length);
       expect(view.result.elapsedMs).toBe(run.result.elapsedMs);
       expect(shown(view.result)).toEqual(keptShown(run.result));
-      const again = await call(
-        runsRoute,
-        "POST",
-        { siteId: d.siteId },
-        {
-          scope: view.scope,
-          tests: view.params.tests,
-          params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
-        },
-      );
-      expect(again.status, JSON.stringify(again.json)).toBe(201);
-      await runsIdle();
-      const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;
-      expect(rerun.status, rerun.error).toBe("done");
+      const rerun = await startAgainAsOpened(d.siteId, view);
       expect(shown(rerun.result)).toEqual(keptShown(run.result));
     }
   });

@@ -19,12 +19,10 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq, sql } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
-import { readRunFixture, type StoredRunFixture } from "../support/run-fixtures";
+import { readRunFixture, startAgainAsOpened, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { runsIdle } from "@/lib/server/jobs/run-queue";
 import { testViews, type TestView } from "@/lib/patterns-view/test-view";
-import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
 type StoredRun = StoredRunFixture<{ tests: Record<string, unknown>[] } & Record<string, unknown>>;
@@ -214,20 +212,7 @@ describe("saved runs in the former shape (tests by kind, one correction for the 
     for (const run of former) {
       const runId = await storeFormer(run, { pictures: "empty" });
       const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
-      const again = await call(
-        runsRoute,
-        "POST",
-        { siteId: d.siteId },
-        {
-          scope: view.scope,
-          tests: view.params.tests,
-          params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
-        },
-      );
-      expect(again.status, JSON.stringify(again.json)).toBe(201);
-      await runsIdle();
-      const rerun = (await call(runRoute, "GET", { siteId: d.siteId, runId: again.json.id })).json;
-      expect(rerun.status, rerun.error).toBe("done");
+      const rerun = await startAgainAsOpened(d.siteId, view);
       expect(testViews(rerun.result).map(digest)).toEqual(run.result.tests);
       expect(rerun.result.correction).toBe(run.result.correction);
       expect(rerun.result.classes).toEqual(run.result.classes);

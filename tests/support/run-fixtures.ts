@@ -1,6 +1,14 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
+import { expect } from "vitest";
+import { runsIdle } from "@/lib/server/jobs/run-queue";
+import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
+import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import type { DemoSite } from "./demo-site";
+import { call } from "./harness";
+
+/** A run as the JSON API gives it, read as the tests read it. */
+type RunViewJson = Awaited<ReturnType<typeof call>>["json"];
 
 /** A run as a former version of Loamwork stored it in analysis_runs, kept in tests/fixtures. */
 export type StoredRunFixture<Result = Record<string, unknown>> = {
@@ -29,4 +37,26 @@ export function readRunFixture<Result>(file: string, d: DemoSite): StoredRunFixt
     },
   );
   return (JSON.parse(text) as { runs: StoredRunFixture<Result>[] }).runs;
+}
+
+/**
+ * Starts a stored run again as the API opened it (its scope, tests, simulations, level, r max and seed), waits
+ * for the queue, and gives the new run as the API reads it; fails the test if it is refused or does not finish.
+ */
+export async function startAgainAsOpened(siteId: string, view: RunViewJson): Promise<RunViewJson> {
+  const again = await call(
+    runsRoute,
+    "POST",
+    { siteId },
+    {
+      scope: view.scope,
+      tests: view.params.tests,
+      params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
+    },
+  );
+  expect(again.status, JSON.stringify(again.json)).toBe(201);
+  await runsIdle();
+  const rerun = (await call(runRoute, "GET", { siteId, runId: again.json.id })).json;
+  expect(rerun.status, rerun.error).toBe("done");
+  return rerun;
 }
