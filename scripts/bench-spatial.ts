@@ -33,6 +33,8 @@ import {
 } from "../lib/spatial";
 import { createSetCovarianceTable } from "../lib/spatial/geometry/set-covariance-table";
 import { createTranslationL } from "../lib/spatial/kernel/l-translation";
+import { pointwiseEnvelope, rankForLevel } from "../lib/spatial/envelopes/envelope";
+import { globalTest } from "../lib/spatial/envelopes/global-test";
 import { createSimulationPool } from "../lib/server/jobs/thread-pool";
 
 const NSIM = 999;
@@ -51,6 +53,10 @@ function timeIt(reps: number, f: () => void): number {
   const c = process.cpuUsage(c0);
   return (c.user + c.system) / 1000 / reps;
 }
+
+/** Milliseconds as a table cell; a part not measured at this n (null in the JSON line) as a dash. */
+const ms = (v: number | null | undefined, digits: number): string =>
+  typeof v === "number" && Number.isFinite(v) ? `${v.toFixed(digits)} ms` : "–";
 
 /** Child mode: measure one n and print a JSON line. */
 async function measure(n: number): Promise<void> {
@@ -113,6 +119,18 @@ async function measure(n: number): Promise<void> {
     bins: trPart.bins - trPart.count,
     lookups: translationKernelMs - trPart.bins,
   };
+  // the band: after the simulations, a test's pointwise envelope and MAD global test over 999 curves of m
+  // values (their cost depends on 999 × m, not on n): the observed L and 999 simulated curves of this window
+  const bandSims = new Float64Array(NSIM * r.length);
+  const bandRandom = createRandom(7);
+  for (let i = 0; i < NSIM; i++)
+    for (let k = 0; k < r.length; k++) bandSims[i * r.length + k] = out[k] + 0.01 * (bandRandom.next() - 0.5);
+  const bandSet = { m: r.length, s: NSIM, sims: bandSims };
+  const theory = Float64Array.from(r);
+  const bandMs = timeIt(n >= 20000 ? 2 : 5, () => {
+    pointwiseEnvelope(bandSet, rankForLevel(NSIM, 0.05));
+    globalTest(out, bandSet, r, { statistic: "mad", theory, rng: createRandom(8) });
+  });
   const t0 = performance.now();
   const pool = createSimulationPool({ threads: 2 });
   const points = Array.from(x, (v, k) => ({ x: v, y: y[k] }));
@@ -146,7 +164,7 @@ async function measure(n: number): Promise<void> {
   writeFileSync(csv, `x,y\n${Array.from(x, (v, k) => `${v},${y[k]}`).join("\n")}\n`);
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
   process.stdout.write(
-    `${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, translation, tableMs, translationKernelMs, translationKernelTsMs, translationBreakdown, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`,
+    `${JSON.stringify({ n, m: r.length, rmax: r[r.length - 1], pairs, kMs, kernelMs, kernelTsMs, pairMs, breakdown, bandMs, translation, tableMs, translationKernelMs, translationKernelTsMs, translationBreakdown, startupMs, nsim, testMs, testCpuMs, load, p: res.results[0].pValue, maxRssMb, csv })}\n`,
   );
 }
 
@@ -197,7 +215,7 @@ async function main(): Promise<void> {
       rCols = `${R.k.toFixed(3)} s | ${(rPerSim * NSIM).toFixed(0)} s (${R.nsim} sims, scaled ×${(NSIM / R.nsim).toFixed(1)}) | ${((rPerSim * NSIM) / ((perSim * NSIM) / 1000)).toFixed(0)}×`;
     }
     rows.push(
-      `| ${n} | ${m.pairs} | ${m.kMs.toFixed(1)} ms | ${m.kernelMs.toFixed(2)} ms | ${m.kernelTsMs.toFixed(2)} ms | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${(m.testCpuMs / 1000).toFixed(2)} s | ${m.load.toFixed(1)} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
+      `| ${n} | ${m.pairs} | ${ms(m.kMs, 1)} | ${ms(m.kernelMs, 2)} | ${ms(m.kernelTsMs, 2)} | ${(m.testMs / 1000).toFixed(2)} s${m.nsim !== NSIM ? ` (${m.nsim} sims)` : ""} | ${(m.testCpuMs / 1000).toFixed(2)} s | ${m.load.toFixed(1)} | ${perSim.toFixed(2)} ms | ${((100 * m.pairMs) / m.kernelMs).toFixed(0)} % | ${m.maxRssMb.toFixed(0)} MB | ${(m.startupMs / 1000).toFixed(2)} s | ${rCols} |`,
     );
     const b = m.breakdown as Record<"sample" | "bucket" | "prepare" | "enumerate" | "bins" | "weights", number>;
     const total = b.sample + m.kernelMs;
@@ -207,10 +225,10 @@ async function main(): Promise<void> {
       ? `${(((tr.ms / tr.nsim) * NSIM) / 1000).toFixed(1)} s${tr.nsim !== NSIM ? ` (${tr.nsim} sims, scaled)` : ""} · ${(tr.cpuMs / tr.nsim).toFixed(2)} ms CPU/sim`
       : "not run";
     const tb = m.translationBreakdown as Record<"bucket" | "enumerate" | "bins" | "lookups", number>;
-    const trKernel = `${m.translationKernelMs.toFixed(2)} ms (TypeScript ${m.translationKernelTsMs.toFixed(2)} ms) · ${m.tableMs.toFixed(0)} ms`;
+    const trKernel = `${ms(m.translationKernelMs, 2)} (TypeScript ${ms(m.translationKernelTsMs, 2)}) · ${ms(m.tableMs, 0)}`;
     const trParts = `${tb.bucket.toFixed(2)} / ${tb.enumerate.toFixed(2)} / ${tb.bins.toFixed(2)} / ${tb.lookups.toFixed(2)} ms`;
     profileRows.push(
-      `| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trKernel} | ${trParts} | ${trCol} |`,
+      `| ${n} | ${pc(b.sample)} | ${pc(b.bucket)} | ${pc(b.prepare)} | ${pc(b.enumerate)} | ${pc(b.bins)} | ${pc(b.weights)} | ${total.toFixed(2)} ms | ${ms(m.bandMs, 1)} | ${(m.testCpuMs / m.nsim).toFixed(2)} ms | ${trKernel} | ${trParts} | ${trCol} |`,
     );
     process.stderr.write(`n = ${n} done\n`);
   }
@@ -232,12 +250,12 @@ async function main(): Promise<void> {
     ...rows,
   ].join("\n");
   const profile = [
-    "| n | draw points | sort into cells | edge slots | pair enumeration | distances + bins | edge weights | one simulation (CPU, one thread) | per simulation in the test (CPU, all threads) | translation kernel (CPU, one thread, WebAssembly) · set covariance prepared (once per run) | translation kernel: sort / enumerate / distances + bins / look-ups | translation correction: 999-sim test (wall) |",
-    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
+    "| n | draw points | sort into cells | edge slots | pair enumeration | distances + bins | edge weights | one simulation (CPU, one thread) | band and global test, once per test (CPU) | per simulation in the test (CPU, all threads) | translation kernel (CPU, one thread, WebAssembly) · set covariance prepared (once per run) | translation kernel: sort / enumerate / distances + bins / look-ups | translation correction: 999-sim test (wall) |",
+    "| ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |",
     ...profileRows,
   ].join("\n");
   notes.push(
-    "Profile: one simulation of the isotropic L test taken apart (CPU per call, one thread, repeated calls): draw n uniform points in the trench; sort them into the cell grid; each point's edge slots (edges nearer than r max, their angles); enumerate pairs within r max; each pair's distance, bin and histogram entry at unit weight; the rest of the kernel — Ripley's isotropic weight of both ends of every pair whose circle leaves the trench. The parts are differences of cumulative timings, so small ones carry the timer's noise.",
+    "Profile: one simulation of the isotropic L test taken apart (CPU per call, one thread, repeated calls): draw n uniform points in the trench; sort them into the cell grid; each point's edge slots (edges nearer than r max, their angles); enumerate pairs within r max; each pair's distance, bin and histogram entry at unit weight; the rest of the kernel — Ripley's isotropic weight of both ends of every pair whose circle leaves the trench. The parts are differences of cumulative timings, so small ones carry the timer's noise. Band: once per test, after its simulations, the pointwise envelope (rank for 5 %) and the MAD global test over 999 curves of the grid's 513 values (a cost of 999 × 513, whatever n).",
     "Translation: the same test with the translation correction on the same warm pool; 999 simulations at n = 200, 99 at n = 1000, 19 beyond, scaled per simulation. Each pair's weight |W| / |W ∩ (W + v)| is looked up in the window's set covariance, prepared once per run and thread (set-covariance-table.ts: a quadratic per cell of v, plus the few edge pairs whose case changes inside the cell), in the pass that enumerates and bins the pairs (l-translation.ts, run as WebAssembly: asm/translation-scan.ts); the same sums as the exact polygon overlap of edge-translation.ts to rounding. Translation kernel: that pass alone, CPU per call (the TypeScript pass beside it), taken apart as differences of cumulative timings; preparation: CPU, once.",
   );
   const md = `# Spatial engine benchmark\n\n${table}\n\n## Where one simulation's time goes\n\n${profile}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
