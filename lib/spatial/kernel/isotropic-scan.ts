@@ -36,6 +36,8 @@ type ScanExport = (
   pU: number,
   pExt: number,
   weigh: number,
+  pNear: number,
+  pNearDd: number,
 ) => number;
 type PrepareExport = (
   n: number,
@@ -116,6 +118,8 @@ export function createWasmIsotropicScan(
     u: 0,
     start: 0,
     blocks: 0,
+    near: 0,
+    nearDd: 0,
   };
   let f64 = new Float64Array(0),
     i32 = new Int32Array(0);
@@ -138,6 +142,8 @@ export function createWasmIsotropicScan(
       u: 8 * capN,
       start: 4 * (capN + 1),
       blocks: 8 * BLOCK * capBlocks,
+      near: 4 * capN,
+      nearDd: 8 * capN,
     });
     f64 = new Float64Array(memory.buffer);
     i32 = new Int32Array(memory.buffer);
@@ -204,6 +210,8 @@ export function createWasmIsotropicScan(
       u ? at.u : 0,
       at.ext,
       weigh,
+      at.near,
+      at.nearDd,
     );
     if (hist) hist.set(f64.subarray(at.hist / 8, at.hist / 8 + m + 1));
     return pairs;

@@ -18,6 +18,7 @@
  *   u           f64[n]        optional factor per point (0 = none): pair weight w·u_p·u_q
  *   ext         i32[reach+1]  stencil: row dy of the half stencil spans columns cx − ext[dy] .. cx + ext[dy]
  *               (row 0: cx .. cx + ext[0]); only cells that can hold a point within r max of the cell
+ *   near, nearDd  i32[n], f64[n]  scratch: the points within r max of the current centre, and their d²
  *
  * `prepare` fills bd, total and the blocks from the window's edges (f64[4·E]: ax ay bx by) as
  * isotropic-weights.ts prepares its slots; a point on the boundary (bd ≤ tol) gets total = −1 and the caller
@@ -79,7 +80,7 @@ const BLOCK: usize = 80;
 export function scan(
   n: i32, nx: i32, ny: i32, reach: i32, r2: f64, m: i32, guessStep: f64,
   pSx: usize, pSy: usize, pCell: usize, pBd: usize, pTotal: usize, pStart: usize, pBlocks: usize,
-  pR: usize, pHist: usize, pU: usize, pExt: usize, weigh: i32,
+  pR: usize, pHist: usize, pU: usize, pExt: usize, weigh: i32, pNear: usize, pNearDd: usize,
 ): i32 {
   let pairs: i32 = 0;
   for (let cy = 0; cy < ny; cy++) {
@@ -93,8 +94,9 @@ export function scan(
       for (let p = s0; p < s1; p++) {
         const xa = load<f64>(pSx + ((<usize>p) << 3));
         const ya = load<f64>(pSy + ((<usize>p) << 3));
-        const bdp = load<f64>(pBd + ((<usize>p) << 3));
-        const up = pU ? load<f64>(pU + ((<usize>p) << 3)) : 1.0;
+        // first every point of the stencil within r max, kept in order without a branch (whether a
+        // candidate is near is close to a coin toss, which a branch would mispredict), then those weighed
+        let near: i32 = 0;
         for (let pass = 0; pass <= reach; pass++) {
           const row = cy + pass;
           if (row >= ny) break;
@@ -105,20 +107,27 @@ export function scan(
             const dx = load<f64>(pSx + ((<usize>q) << 3)) - xa;
             const dy = load<f64>(pSy + ((<usize>q) << 3)) - ya;
             const dd = dx * dx + dy * dy;
-            if (dd > r2) continue;
-            pairs++;
-            if (!weigh) continue;
-            const d = Math.sqrt(dd);
-            const inv = 1 / d;
-            // weigh = 2 (the benchmark's profile): distances and bins with unit weights, no edge correction
-            const w = weigh == 2 ? 2.0 :
-              (d <= bdp ? 1.0 : weightBeyond(p, d, inv, pStart, pBlocks, pTotal)) +
-              (d <= load<f64>(pBd + ((<usize>q) << 3)) ? 1.0 : weightBeyond(q, d, inv, pStart, pBlocks, pTotal));
-            let b = <i32>Math.floor(d * guessStep) + 1;
-            if (!(b > 0 && b < m && load<f64>(pR + ((<usize>(b - 1)) << 3)) <= d && d < load<f64>(pR + ((<usize>b) << 3)))) b = binSearch(d, pR, m);
-            const at = pHist + ((<usize>b) << 3);
-            store<f64>(at, load<f64>(at) + (pU ? w * up * load<f64>(pU + ((<usize>q) << 3)) : w));
+            store<i32>(pNear + ((<usize>near) << 2), q);
+            store<f64>(pNearDd + ((<usize>near) << 3), dd);
+            near += <i32>(dd <= r2);
           }
+        }
+        pairs += near;
+        if (!weigh) continue;
+        const bdp = load<f64>(pBd + ((<usize>p) << 3));
+        const up = pU ? load<f64>(pU + ((<usize>p) << 3)) : 1.0;
+        for (let k = 0; k < near; k++) {
+          const q = load<i32>(pNear + ((<usize>k) << 2));
+          const d = Math.sqrt(load<f64>(pNearDd + ((<usize>k) << 3)));
+          const inv = 1 / d;
+          // weigh = 2 (the benchmark's profile): distances and bins with unit weights, no edge correction
+          const w = weigh == 2 ? 2.0 :
+            (d <= bdp ? 1.0 : weightBeyond(p, d, inv, pStart, pBlocks, pTotal)) +
+            (d <= load<f64>(pBd + ((<usize>q) << 3)) ? 1.0 : weightBeyond(q, d, inv, pStart, pBlocks, pTotal));
+          let b = <i32>Math.floor(d * guessStep) + 1;
+          if (!(b > 0 && b < m && load<f64>(pR + ((<usize>(b - 1)) << 3)) <= d && d < load<f64>(pR + ((<usize>b) << 3)))) b = binSearch(d, pR, m);
+          const at = pHist + ((<usize>b) << 3);
+          store<f64>(at, load<f64>(at) + (pU ? w * up * load<f64>(pU + ((<usize>q) << 3)) : w));
         }
       }
     }
