@@ -8,7 +8,8 @@
  *   time spent enumerating pairs (the floor: what is left if the weights were free);
  * - where one simulation's time goes (CPU, one thread): drawing the points, sorting them into cells,
  *   preparing each point's edge slots, enumerating pairs, distances and binning, and the edge weights;
- * - the same test with the translation correction (999 simulations at n = 200; beyond, 99 or 19, scaled),
+ * - the same test with the translation correction (999 simulations up to n = 1000, or with --quick at n = 200
+ *   only; beyond, 99 or 19, scaled),
  *   the translation kernel per call (WebAssembly and TypeScript), where its time goes, and the once-per-run
  *   preparation of the window's set covariance;
  * - when Rscript with spatstat is installed, the same work in spatstat with fewer simulations, scaled
@@ -149,7 +150,7 @@ async function measure(n: number): Promise<void> {
   // the translation correction: the same test (fewer simulations beyond n = 1000, scaled per simulation)
   let translation: { nsim: number; ms: number; cpuMs: number } | null = null;
   if (n < 20000) {
-    const tNsim = n <= 200 && !quick ? NSIM : n <= 1000 ? 99 : 19;
+    const tNsim = n <= (quick ? 200 : 1000) ? NSIM : n <= 1000 ? 99 : 19;
     const c2 = process.cpuUsage();
     const t2 = performance.now();
     await runDistributionTest(
@@ -256,7 +257,7 @@ async function main(): Promise<void> {
   ].join("\n");
   notes.push(
     "Profile: one simulation of the isotropic L test taken apart (CPU per call, one thread, repeated calls): draw n uniform points in the trench; sort them into the cell grid; each point's edge slots (edges nearer than r max, their angles); enumerate pairs within r max; each pair's distance, bin and histogram entry at unit weight; the rest of the kernel — Ripley's isotropic weight of both ends of every pair whose circle leaves the trench. The parts are differences of cumulative timings, so small ones carry the timer's noise. Band: once per test, after its simulations, the pointwise envelope (rank for 5 %) and the MAD global test over 999 curves of the grid's 513 values (a cost of 999 × 513, whatever n).",
-    "Translation: the same test with the translation correction on the same warm pool; 999 simulations at n = 200, 99 at n = 1000, 19 beyond, scaled per simulation. Each pair's weight |W| / |W ∩ (W + v)| is looked up in the window's set covariance, prepared once per run and thread (set-covariance-table.ts: a quadratic per cell of v, plus the few edge pairs whose case changes inside the cell), in the pass that enumerates and bins the pairs (l-translation.ts, run as WebAssembly: asm/translation-scan.ts); the same sums as the exact polygon overlap of edge-translation.ts to rounding. Translation kernel: that pass alone, CPU per call (the TypeScript pass beside it), taken apart as differences of cumulative timings; preparation: CPU, once.",
+    "Translation: the same test with the translation correction on the same warm pool; 999 simulations up to n = 1000 (with --quick: at n = 200, 99 at n = 1000), 19 beyond, scaled per simulation. Each pair's weight |W| / |W ∩ (W + v)| is looked up in the window's set covariance, prepared once per run and thread (set-covariance-table.ts: a quadratic per cell of v, plus the few edge pairs whose case changes inside the cell), in the pass that enumerates and bins the pairs (l-translation.ts, run as WebAssembly: asm/translation-scan.ts); the same sums as the exact polygon overlap of edge-translation.ts to rounding. Translation kernel: that pass alone, CPU per call (the TypeScript pass beside it), taken apart as differences of cumulative timings; preparation: CPU, once.",
   );
   const md = `# Spatial engine benchmark\n\n${table}\n\n## Where one simulation's time goes\n\n${profile}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n`;
   mkdirSync(join(import.meta.dirname, "..", "bench"), { recursive: true });
