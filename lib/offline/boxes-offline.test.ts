@@ -1,37 +1,15 @@
 import "fake-indexeddb/auto";
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { ApiError, buildRequest, type ApiRequest } from "@/lib/api/client";
-import { Outbox } from "./outbox";
-import { closeOutboxDb } from "./outbox-db";
+import { describe, expect, it } from "vitest";
+import { ApiError, buildRequest } from "@/lib/api/client";
+import type { Outbox } from "./outbox";
 import { syncOutbox } from "./sync";
+import { outboxPerTest, siteId, standInServer } from "./test-device";
 import { createWritePath, worksOffline } from "./write-path";
 
 /** The box register on a device with no connection: boxes deleted (and added) in the finds shed. */
-const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
 const boxId = "4d5e6f7a-8b9c-4d0e-9f1a-2b3c4d5e6f7a";
-let userN = 0;
-let userId = "";
 let outbox: Outbox;
-
-beforeEach(async () => {
-  userId = `boxes-${++userN}`;
-  outbox = await Outbox.open(userId);
-});
-afterEach(() => closeOutboxDb(userId));
-
-/** A server stand-in: records what reached it, refuses what `refuse` says. */
-function server(refuse?: (req: ApiRequest) => ApiError | null) {
-  const seen: ApiRequest[] = [];
-  return {
-    seen,
-    send: async (req: ApiRequest) => {
-      seen.push(req);
-      const no = refuse?.(req);
-      if (no) throw no;
-      return req.method === "DELETE" ? { deleted: boxId, number: 4 } : { id: crypto.randomUUID() };
-    },
-  };
-}
+outboxPerTest("boxes", [], (o) => (outbox = o));
 
 describe("deleting a box on a device with no connection", () => {
   it("waits in the outbox with a key and a label, and the screen hears it is pending", async () => {
@@ -49,7 +27,7 @@ describe("deleting a box on a device with no connection", () => {
     await write(buildRequest("boxDelete", { siteId, boxId }));
     const words =
       "Box 4 still holds 2 finds; only an empty box can be deleted. Move them to another box first, then delete the box.";
-    const s = server(() => new ApiError(words, 409, {}, { finds: 2, samples: 0 }, "conflict"));
+    const s = standInServer(() => new ApiError(words, 409, {}, { finds: 2, samples: 0 }, "conflict"));
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 0, refused: 1, stopped: "done" });
     const [held] = await outbox.all();
     expect(held).toMatchObject({ state: "attention", refusal: { status: 409, message: words, code: "conflict" } });
@@ -69,7 +47,7 @@ describe("adding a box on a device with no connection", () => {
     expect(entry).toMatchObject({ operation: "boxesCreate", label: "new box", localId: made.id });
     expect(JSON.parse(entry!.body!)).toEqual({ store: "Finds shed, shelf 2" });
     expect(worksOffline("boxesCreate") && worksOffline("boxUpdate")).toBe(true);
-    const s = server();
+    const s = standInServer();
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 1, refused: 0, stopped: "done" });
     expect(s.seen.map((r) => [r.operation, r.url])).toEqual([["boxesCreate", `/api/sites/${siteId}/boxes`]]);
     expect(await outbox.serverIdOf(made.id)).toBeTruthy();
@@ -83,7 +61,7 @@ describe("adding a box on a device with no connection", () => {
       buildRequest("findsBulk", { siteId }, { action: "process", findIds, processing: "boxed", boxId: made.id }),
     );
     expect((await outbox.all()).map((e) => e.label)).toEqual(["box 12", "process 1 find"]);
-    const s = server();
+    const s = standInServer();
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 2, refused: 0, stopped: "done" });
     const serverId = await outbox.serverIdOf(made.id);
     expect(JSON.parse(s.seen[1]!.body!).boxId).toBe(serverId);
@@ -107,7 +85,7 @@ describe("adding a box on a device with no connection", () => {
     await write(
       buildRequest("findsBulk", { siteId }, { action: "process", findIds, processing: "boxed", boxId: made.id }),
     );
-    const s = server((req) =>
+    const s = standInServer((req) =>
       req.operation === "boxesCreate"
         ? new ApiError("Box 3 is already in the register.", 409, { number: ["Box 3 exists."] }, undefined, "duplicate")
         : null,
@@ -121,7 +99,7 @@ describe("adding a box on a device with no connection", () => {
   });
 
   it("online with nothing waiting, a new box is sent at once with an idempotency key", async () => {
-    const s = server();
+    const s = standInServer();
     const write = createWritePath({ outbox, online: () => true, send: s.send });
     await write(buildRequest("boxesCreate", { siteId }, { store: "Shed" }));
     expect(s.seen[0]!.headers["idempotency-key"]).toMatch(/^[0-9a-f-]{36}$/);

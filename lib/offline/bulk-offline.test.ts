@@ -1,43 +1,18 @@
 import "fake-indexeddb/auto";
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { ApiError, buildRequest, type ApiRequest } from "@/lib/api/client";
-import { Outbox } from "./outbox";
-import { closeOutboxDb } from "./outbox-db";
+import { describe, expect, it } from "vitest";
+import { ApiError, buildRequest } from "@/lib/api/client";
+import type { Outbox } from "./outbox";
 import { syncOutbox } from "./sync";
+import { classId, contextId, outboxPerTest, siteId, standInServer } from "./test-device";
 import { createWritePath, worksOffline } from "./write-path";
 
 /**
  * Changes to many finds or samples at once (the register's bulk bar, the finds shed) on a device with no connection.
  */
-const siteId = "5f0c6a52-8a7e-4a57-9d3e-0a2b1c3d4e5f";
-const classId = "9c1d2e3f-4a5b-4c6d-8e7f-0a1b2c3d4e5f";
-const contextId = "0b7d1f7e-1c2a-4e0b-8f9a-6c5d4e3f2a1b";
 const boxId = "4d5e6f7a-8b9c-4d0e-9f1a-2b3c4d5e6f7a";
 const onServer = ["6e7f8a9b-0c1d-4e2f-8a3b-4c5d6e7f8a9b", "7f8a9b0c-1d2e-4f3a-9b4c-5d6e7f8a9b0c"];
-let userN = 0;
-let userId = "";
 let outbox: Outbox;
-
-beforeEach(async () => {
-  userId = `bulk-${++userN}`;
-  outbox = await Outbox.open(userId);
-  await outbox.putBlock({ id: "b1", siteId, kind: "find", first: 701, last: 750, used: [] });
-});
-afterEach(() => closeOutboxDb(userId));
-
-/** A server stand-in: records what reached it, gives created records an id, refuses what `refuse` says. */
-function server(refuse?: (req: ApiRequest) => ApiError | null) {
-  const seen: ApiRequest[] = [];
-  return {
-    seen,
-    send: async (req: ApiRequest) => {
-      seen.push(req);
-      const no = refuse?.(req);
-      if (no) throw no;
-      return { id: crypto.randomUUID(), ...(req.body ? JSON.parse(req.body) : {}) };
-    },
-  };
-}
+outboxPerTest("bulk", [{ id: "b1", siteId, kind: "find", first: 701, last: 750, used: [] }], (o) => (outbox = o));
 
 describe("bulk changes on a device with no connection", () => {
   it("wait in the outbox with a key and a label, and the screen hears they are pending", async () => {
@@ -76,7 +51,7 @@ describe("bulk changes on a device with no connection", () => {
         processing: "washed",
       } as never),
     );
-    const s = server();
+    const s = standInServer();
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 2, refused: 0, stopped: "done" });
     expect(s.seen.map((r) => r.operation)).toEqual(["findsCreate", "findsBulk"]);
     const serverId = await outbox.serverIdOf(made.id);
@@ -91,7 +66,7 @@ describe("bulk changes on a device with no connection", () => {
       buildRequest("findsBulk", { siteId }, { action: "process", findIds: onServer, processing: "washed" } as never),
     );
     const words = "No find was moved: 1 find stops it. find 12: Context 8801 was signed off by Director";
-    const s = server((req) =>
+    const s = standInServer((req) =>
       JSON.parse(req.body!).action === "move" ? new ApiError(words, 409, {}, undefined, "conflict") : null,
     );
     expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 1, refused: 1, stopped: "done" });
@@ -101,7 +76,7 @@ describe("bulk changes on a device with no connection", () => {
   });
 
   it("online with nothing waiting, a bulk change is sent at once with an idempotency key", async () => {
-    const s = server();
+    const s = standInServer();
     const write = createWritePath({ outbox, online: () => true, send: s.send });
     await write(buildRequest("findsBulk", { siteId }, { action: "reclass", findIds: onServer, classId } as never));
     expect(s.seen).toHaveLength(1);

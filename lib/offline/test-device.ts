@@ -40,8 +40,8 @@ export function outboxPerTest(
 }
 
 /**
- * A server stand-in: records what reached it, gives each created record an id, answers a key it has seen with
- * its first answer, and refuses what `refuse` says (before recording it).
+ * A server stand-in: records what reached it (a refused request too), gives each created record an id, answers a
+ * key it has seen with its first answer, and refuses what `refuse` says.
  */
 export function standInServer(refuse: (req: ApiRequest) => ApiError | null = () => null) {
   const seen: ApiRequest[] = [];
@@ -51,9 +51,9 @@ export function standInServer(refuse: (req: ApiRequest) => ApiError | null = () 
     send: async (req: ApiRequest) => {
       const key = req.headers["idempotency-key"];
       if (byKey.has(key)) return byKey.get(key);
+      seen.push(req);
       const refusal = refuse(req);
       if (refusal) throw refusal;
-      seen.push(req);
       const answer = { id: crypto.randomUUID(), ...(req.body ? JSON.parse(req.body) : {}) };
       byKey.set(key, answer);
       return answer;
