@@ -15,9 +15,8 @@ import { createHash } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
-import { readRunFixture, startAgainAsOpened, type StoredRunFixture } from "../support/run-fixtures";
+import { readRunFixture, startAgainAsOpened, storeRunFixture, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
-import * as s from "@/db/schema";
 import { runsRegister } from "@/lib/server/export/package-registers";
 import { testViews } from "@/lib/patterns-view/test-view";
 import type { RunResult } from "@/lib/api/run-result";
@@ -62,35 +61,11 @@ const keptShown = (r: Record<string, unknown>) => ({
   run: [r.engineVersion, r.seed, r.nsim, r.level, r.rmax, r.area],
 });
 
-async function store(run: StoredRun): Promise<string> {
-  const db = await getDb();
-  const [row] = await db
-    .insert(s.analysisRuns)
-    .values({
-      siteId: d.siteId,
-      trenchId: d.trenchId,
-      scope: run.scope,
-      method: run.method,
-      params: run.params,
-      seed: run.seed,
-      engineVersion: run.engineVersion,
-      fingerprint: "stored",
-      status: "done",
-      progress: 1,
-      result: run.result,
-      createdBy: d.people.specialist,
-      finishedAt: new Date(),
-    })
-    .returning();
-  if (!row) throw new Error("run not stored");
-  return row.id;
-}
-
 describe("saved runs in the result shape of December 2026", { timeout: 180_000 }, () => {
   it("open with their result and reproduce it when started again", async () => {
     session.userId = d.people.specialist;
     for (const run of stored) {
-      const runId = await store(run);
+      const runId = await storeRunFixture(d, run);
       const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
       expect(view.status).toBe("done");
       expect(view.result.results).toHaveLength((run.result.tests as unknown[]).length);
@@ -105,7 +80,7 @@ describe("saved runs in the result shape of December 2026", { timeout: 180_000 }
     session.userId = d.people.specialist;
     const [run] = stored;
     if (!run) throw new Error("the fixture holds no run");
-    const runId = await store(run);
+    const runId = await storeRunFixture(d, run);
     const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
     const { results } = await runsRegister(await getDb(), { siteId: d.siteId });
     const file = results.find((r) => r.path === `analysis/${runId}.json`);

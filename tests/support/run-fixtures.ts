@@ -1,6 +1,8 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { expect } from "vitest";
+import { getDb } from "@/db/client";
+import * as s from "@/db/schema";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
@@ -39,9 +41,35 @@ export function readRunFixture<Result>(file: string, d: DemoSite): StoredRunFixt
   return (JSON.parse(text) as { runs: StoredRunFixture<Result>[] }).runs;
 }
 
+/** Puts a fixture's run into analysis_runs as the former code left it (done, by the specialist); gives its id. */
+export async function storeRunFixture(d: DemoSite, run: StoredRunFixture<object>): Promise<string> {
+  const db = await getDb();
+  const [row] = await db
+    .insert(s.analysisRuns)
+    .values({
+      siteId: d.siteId,
+      trenchId: d.trenchId,
+      scope: run.scope,
+      method: run.method,
+      params: run.params,
+      seed: run.seed,
+      engineVersion: run.engineVersion,
+      fingerprint: "stored",
+      status: "done",
+      progress: 1,
+      result: run.result as Record<string, unknown>,
+      createdBy: d.people.specialist,
+      finishedAt: new Date(),
+    })
+    .returning();
+  if (!row) throw new Error("run not stored");
+  return row.id;
+}
+
 /**
- * Starts a stored run again as the API opened it (its scope, tests, simulations, level, r max and seed), waits
- * for the queue, and gives the new run as the API reads it; fails the test if it is refused or does not finish.
+ * Starts a stored run again as the API opened it (its scope, tests, square tests, simulations, level, r max
+ * and seed), waits for the queue, and gives the new run as the API reads it; fails the test if it is refused
+ * or does not finish.
  */
 export async function startAgainAsOpened(siteId: string, view: RunViewJson): Promise<RunViewJson> {
   const again = await call(
@@ -51,6 +79,7 @@ export async function startAgainAsOpened(siteId: string, view: RunViewJson): Pro
     {
       scope: view.scope,
       tests: view.params.tests,
+      ...(view.params.squareTests && { squareTests: view.params.squareTests }),
       params: { nsim: view.params.nsim, level: view.params.level, rmax: view.params.rmax, seed: view.seed },
     },
   );

@@ -1,0 +1,46 @@
+/**
+ * Runs with tests on counts by grid square, stored in the shape Loamwork used up to December 2026, keep
+ * opening and reproducing.
+ *
+ * tests/fixtures/present-square-runs.json holds two runs exactly as that code stored them (requested through
+ * the API, run on the demo's counts by square in context 1005 and read back from the database; class, trench
+ * and context ids replaced by {{placeholders}}, each heat layer's pixel values by the SHA-256 of their JSON,
+ * the run's times by round numbers). Between them they ask for every square-count test (Moran's I, Geary's
+ * C, local Moran's I, Getis–Ord Gi*), density and count, rook, queen and a distance band, binary and
+ * row-standardised weights, a minimum area that leaves squares out, a class with no counts by square (not
+ * run), and one run with a distribution test beside its square test.
+ *
+ * Checked: each run opens with the square-count results it stored, and started again with the tests it
+ * opened with, it gives them again, test for test and square for square.
+ */
+import { beforeAll, describe, expect, it } from "vitest";
+import { session, call } from "../support/harness";
+import { seedDemoSite, type DemoSite } from "../support/demo-site";
+import { readRunFixture, startAgainAsOpened, storeRunFixture, type StoredRunFixture } from "../support/run-fixtures";
+import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+
+type StoredRun = StoredRunFixture<{ squareTests: Record<string, unknown>[]; elapsedMs: number }>;
+
+let d: DemoSite;
+let stored: StoredRun[];
+beforeAll(async () => {
+  d = await seedDemoSite();
+  stored = readRunFixture("present-square-runs.json", d);
+});
+
+describe("saved runs with square-count tests in the result shape of December 2026", { timeout: 180_000 }, () => {
+  it("open with their square results and reproduce them when started again", async () => {
+    session.userId = d.people.specialist;
+    expect(stored.map((r) => r.result.squareTests.length)).toEqual([12, 1]);
+    for (const run of stored) {
+      const runId = await storeRunFixture(d, run);
+      const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
+      expect(view.status).toBe("done");
+      expect(view.result.elapsedMs).toBe(run.result.elapsedMs);
+      expect(view.result.squareTests).toEqual(run.result.squareTests);
+      const rerun = await startAgainAsOpened(d.siteId, view);
+      expect(rerun.params.squareTests).toEqual(view.params.squareTests);
+      expect(rerun.result.squareTests).toEqual(run.result.squareTests);
+    }
+  });
+});
