@@ -7,7 +7,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { contextCreateSchema, contextTypes, digMethods } from "@/lib/schemas/context";
 import { ApiError, apiClient } from "@/lib/api/client";
-import { applyFieldErrors, FormField, InputField } from "./form-field";
+import { applyFieldErrors, FormField, InputField, NumberField } from "./form-field";
 
 type Input = z.input<typeof contextCreateSchema>;
 type Output = z.output<typeof contextCreateSchema>;
@@ -71,12 +71,11 @@ export function ContextSheetForm({
   return (
     <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Context sheet">
       <div className="grid gap-3 sm:grid-cols-3">
-        <InputField
+        <NumberField
           id="ctx-number"
           label="Context number"
           error={e.number?.message}
-          className="field num"
-          inputMode="numeric"
+          whole
           aria-invalid={!!e.number}
           {...register("number")}
         />
@@ -137,13 +136,11 @@ export function ContextSheetForm({
       <fieldset className="grid gap-3 sm:grid-cols-4">
         <legend className="label">Dimensions and digging</legend>
         {measureFields.map((f) => (
-          <InputField
+          <NumberField
             key={f.name}
             id={`ctx-${f.name}`}
             label={f.label}
             error={e[f.name]?.message}
-            className="field num"
-            inputMode="decimal"
             {...register(f.name)}
           />
         ))}
@@ -179,12 +176,10 @@ export function ContextSheetForm({
             ))}
           </select>
         </FormField>
-        <InputField
+        <NumberField
           id="ctx-sieveMeshMm"
           label="Sieve mesh (mm)"
           error={e.sieveMeshMm?.message}
-          className="field num"
-          inputMode="decimal"
           {...register("sieveMeshMm")}
         />
       </fieldset>

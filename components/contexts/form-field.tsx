@@ -50,6 +50,11 @@ export function InputField({
   );
 }
 
+/** A labelled number input (figures aligned): the decimal keypad, or the whole-number one when `whole`. */
+export function NumberField({ whole = false, ...field }: { whole?: boolean } & ComponentProps<typeof InputField>) {
+  return <InputField className="field num" inputMode={whole ? "numeric" : "decimal"} {...field} />;
+}
+
 /** Server field errors (zod's flattened paths) onto react-hook-form's setError. */
 export function applyFieldErrors(
   fieldErrors: Record<string, string[]> | undefined,

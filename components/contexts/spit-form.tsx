@@ -6,10 +6,16 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { spitCreateSchema } from "@/lib/schemas/levels";
 import { ApiError, apiClient } from "@/lib/api/client";
-import { applyFieldErrors, InputField } from "./form-field";
+import { applyFieldErrors, NumberField } from "./form-field";
 
 type Input = z.input<typeof spitCreateSchema>;
 type Output = z.output<typeof spitCreateSchema>;
+
+/** The spit's top and base, each a reduced level that may be left blank until the spit is levelled. */
+const levelFields = [
+  { name: "topLevel", id: "spit-top", label: "Top RL (m)" },
+  { name: "baseLevel", id: "spit-base", label: "Base RL (m)" },
+] as const;
 
 /** Adds a spit to the context: its number from the top and, when levelled, its top and base reduced levels. */
 export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; contextId: string; nextNumber: number }) {
@@ -32,30 +38,10 @@ export function SpitForm({ siteId, contextId, nextNumber }: { siteId: string; co
   const blank = { setValueAs: (v: unknown) => (v === "" ? null : v) };
   return (
     <form onSubmit={submit} noValidate className="grid items-end gap-3 sm:grid-cols-4" aria-label="Add a spit">
-      <InputField
-        id="spit-number"
-        label="Spit number"
-        error={e.number?.message}
-        className="field num"
-        inputMode="numeric"
-        {...register("number")}
-      />
-      <InputField
-        id="spit-top"
-        label="Top RL (m)"
-        error={e.topLevel?.message}
-        className="field num"
-        inputMode="decimal"
-        {...register("topLevel", blank)}
-      />
-      <InputField
-        id="spit-base"
-        label="Base RL (m)"
-        error={e.baseLevel?.message}
-        className="field num"
-        inputMode="decimal"
-        {...register("baseLevel", blank)}
-      />
+      <NumberField id="spit-number" label="Spit number" error={e.number?.message} whole {...register("number")} />
+      {levelFields.map((f) => (
+        <NumberField key={f.name} id={f.id} label={f.label} error={e[f.name]?.message} {...register(f.name, blank)} />
+      ))}
       <div>
         <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
           Add the spit
