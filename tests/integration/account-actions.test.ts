@@ -5,7 +5,8 @@ import "../support/harness";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
-import { checkPassword, hashPassword } from "@/lib/server/passwords";
+import { checkPassword } from "@/lib/server/passwords";
+import { makeAccount } from "../support/fixtures";
 import { confirmResetAction, requestResetAction } from "@/app/reset-password/actions";
 
 const mail = useMailSink();
@@ -29,10 +30,7 @@ describe("password reset forms", () => {
 
   it("refuses two different passwords under the second field and changes nothing; the same twice sets it", async () => {
     const db = await getDb();
-    const [u] = await db
-      .insert(schema.users)
-      .values({ email: "twice@example.org", name: "Twice", passwordHash: await hashPassword("old-password-1") })
-      .returning();
+    const u = await makeAccount("twice@example.org", "old-password-1", "Twice");
     expect(await requestResetAction({}, form({ email: "twice@example.org" }))).toEqual({ done: true });
     const [m] = messagesTo(mail.dir, "twice@example.org");
     const token = m.text.match(new RegExp(`${TEST_APP_URL}/reset-password/([A-Za-z0-9_-]+)`))![1];

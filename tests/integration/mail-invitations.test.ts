@@ -2,11 +2,11 @@ import { TEST_APP_URL, useMailSink } from "../support/mail-sink";
 import { describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
-import { makeSite } from "../support/fixtures";
+import { makeAccount, makeSite } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { messagesTo } from "@/lib/server/mail/sink-reader";
-import { hashPassword, checkPassword } from "@/lib/server/passwords";
+import { checkPassword } from "@/lib/server/passwords";
 import * as invitationsRoute from "@/app/api/sites/[siteId]/invitations/route";
 import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
 import { api, type ApiOperation } from "@/lib/server/api-catalog";
@@ -67,14 +67,7 @@ describe("invitations by e-mail", () => {
   it("an existing account proves itself with its password; an expired link is refused", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [known] = await db
-      .insert(schema.users)
-      .values({
-        email: "known@example.org",
-        name: "Known Person",
-        passwordHash: await hashPassword("known-password-9"),
-      })
-      .returning();
+    const known = await makeAccount("known@example.org", "known-password-9", "Known Person");
     session.userId = fx.people.director.id;
     await call(invitationsRoute, "POST", { siteId: fx.site.id }, { email: "known@example.org", role: "digger" });
     const token = tokenIn(messagesTo(mail.dir, "known@example.org")[0].text, "invite");
@@ -100,14 +93,7 @@ describe("invitations by e-mail", () => {
   it("adds no one without consent: a known and an unknown address get the same answer, and only acceptance joins", async () => {
     const fx = await makeSite();
     const db = await getDb();
-    const [known] = await db
-      .insert(schema.users)
-      .values({
-        email: "has.account@example.org",
-        name: "Has Account",
-        passwordHash: await hashPassword("known-password-9"),
-      })
-      .returning();
+    const known = await makeAccount("has.account@example.org", "known-password-9", "Has Account");
     // No route puts an account on a site at once: the members collection takes no POST.
     expect("POST" in membersRoute).toBe(false);
     const adds = (Object.values(api) as ApiOperation[]).filter(
@@ -174,14 +160,7 @@ describe("invitations by e-mail", () => {
 describe("password reset by e-mail", () => {
   it("mails a one-hour link to an account, sets the new password once, and answers alike for unknown addresses", async () => {
     const db = await getDb();
-    const [u] = await db
-      .insert(schema.users)
-      .values({
-        email: "forgetful@example.org",
-        name: "Forgetful Digger",
-        passwordHash: await hashPassword("old-password-1"),
-      })
-      .returning();
+    const u = await makeAccount("forgetful@example.org", "old-password-1", "Forgetful Digger");
     const unknown = await call(resetRequestRoute, "POST", {}, { email: "nobody@example.org" });
     const known = await call(resetRequestRoute, "POST", {}, { email: "Forgetful@example.org" });
     expect(unknown).toEqual(known);

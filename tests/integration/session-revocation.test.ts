@@ -2,21 +2,12 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { asRequest, CookieJar, sessionUserId, signInOverHttp, signOutOverHttp } from "@/tests/support/auth-client";
 import { getDb } from "@/db/client";
+import { makeAccount } from "../support/fixtures";
 import { passwordResets, users } from "@/db/schema";
-import { hashPassword } from "@/lib/server/passwords";
 import { currentUserId } from "@/lib/server/session";
 import { hashToken } from "@/lib/server/invitations";
 import { confirmPasswordReset } from "@/lib/server/password-reset";
 import * as sitesRoute from "@/app/api/sites/route";
-
-async function makeUser(email: string, password: string) {
-  const db = await getDb();
-  const [u] = await db
-    .insert(users)
-    .values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) })
-    .returning();
-  return u;
-}
 
 /** GET /api/sites (a guarded route) with exactly this cookie: its status. */
 async function listSites(cookie: string): Promise<number> {
@@ -48,7 +39,7 @@ beforeAll(async () => {
 
 describe("a saved session cookie after the session ends", () => {
   it("is refused after signing out: reads and writes answer 401 and the session endpoint reports no user", async () => {
-    const user = await makeUser("cai@dig.test", "cai-password-1");
+    const user = await makeAccount("cai@dig.test", "cai-password-1");
     const jar = new CookieJar();
     await signInOverHttp(jar, "cai@dig.test", "cai-password-1");
     const saved = jar.sessionCookie();
@@ -72,7 +63,7 @@ describe("a saved session cookie after the session ends", () => {
   });
 
   it("is refused after a password reset, on every device that held one", async () => {
-    const user = await makeUser("dee@dig.test", "dee-password-1");
+    const user = await makeAccount("dee@dig.test", "dee-password-1");
     const laptop = new CookieJar();
     const tablet = new CookieJar();
     await signInOverHttp(laptop, "dee@dig.test", "dee-password-1");

@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { CookieJar, asRequest, signInOverHttp } from "@/tests/support/auth-client";
 import { getDb } from "@/db/client";
-import { passwordResets, users } from "@/db/schema";
-import { hashPassword } from "@/lib/server/passwords";
+import { makeAccount } from "../support/fixtures";
+import { passwordResets } from "@/db/schema";
 import { hashToken } from "@/lib/server/invitations";
 import { confirmPasswordReset } from "@/lib/server/password-reset";
 import { clientAddress } from "@/lib/server/client-address";
@@ -16,21 +16,12 @@ beforeAll(async () => {
   await getDb();
 }, 120_000);
 
-async function makeUser(email: string, password: string) {
-  const db = await getDb();
-  const [u] = await db
-    .insert(users)
-    .values({ email, name: email.split("@")[0], passwordHash: await hashPassword(password) })
-    .returning();
-  return u;
-}
-
 const from = (address: string, more: Record<string, string> = {}) => ({ [PEER_HEADER]: address, ...more });
 const signedIn = (res: Response, jar: CookieJar) => res.status === 302 && jar.sessionCookie() !== "";
 
 describe("sign-in limits", () => {
   it("counts guesses sent at once: of 8 parallel guesses from one address only 5 are checked, 3 get 429 with Retry-After", async () => {
-    await makeUser("eve-target@dig.test", "owner-password-1");
+    await makeAccount("eve-target@dig.test", "owner-password-1");
     const answers = await Promise.all(
       Array.from({ length: 8 }, (_, k) =>
         signInOverHttp(new CookieJar(), "eve-target@dig.test", `guess-${k}`, from("203.0.113.7")),
@@ -54,7 +45,7 @@ describe("sign-in limits", () => {
   });
 
   it("lets the owner in at once from a fresh address while the guessing address is refused", async () => {
-    const owner = await makeUser("owner@dig.test", "owner-password-2");
+    const owner = await makeAccount("owner@dig.test", "owner-password-2");
     for (let k = 0; k < PAIR_LIMIT.points + 1; k++)
       await signInOverHttp(new CookieJar(), "owner@dig.test", `guess-${k}`, from("198.51.100.9"));
     const jar = new CookieJar();
@@ -68,7 +59,7 @@ describe("sign-in limits", () => {
   });
 
   it("ignores X-Forwarded-For unless proxies are configured: a guesser cannot claim a new address per try", async () => {
-    await makeUser("xff@dig.test", "owner-password-3");
+    await makeAccount("xff@dig.test", "owner-password-3");
     const statuses: number[] = [];
     for (let k = 0; k < PAIR_LIMIT.points + 2; k++) {
       const res = await signInOverHttp(
@@ -108,7 +99,7 @@ describe("sign-in limits", () => {
   });
 
   it("refuses the sign-in form too, with the wait in words, and a password reset lifts the limit", async () => {
-    const user = await makeUser("form@dig.test", "owner-password-4");
+    const user = await makeAccount("form@dig.test", "owner-password-4");
     const here = from("203.0.113.99");
     for (let k = 0; k < PAIR_LIMIT.points; k++) await admitSignIn("form@dig.test", new Headers(here));
     const form = new FormData();

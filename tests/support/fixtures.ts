@@ -1,5 +1,6 @@
 import { getDb } from "@/db/client";
 import { artefactClasses, contexts, memberships, sites, trenches, users, type Role } from "@/db/schema";
+import { hashPassword } from "@/lib/server/passwords";
 
 let seq = 0;
 const next = () => ++seq;
@@ -33,6 +34,16 @@ export async function makeUser(name = `Person ${next()}`) {
     .values({ email: `${name.toLowerCase().replace(/\W+/g, ".")}.${next()}@test.invalid`, name, passwordHash: "x" })
     .returning();
   return u;
+}
+
+/** An account that signs in with this e-mail and password (hashed as sign-up hashes it); named after the address. */
+export async function makeAccount(email: string, password: string, name = email.split("@")[0]!) {
+  const db = await getDb();
+  const [u] = await db
+    .insert(users)
+    .values({ email, name, passwordHash: await hashPassword(password) })
+    .returning();
+  return u!;
 }
 
 /** A site with one member per role, a stranger, a trench, a context and an artefact class. */
