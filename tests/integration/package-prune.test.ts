@@ -13,12 +13,19 @@ import * as packagesRoute from "@/app/api/sites/[siteId]/packages/route";
 import * as fileRoute from "@/app/api/sites/[siteId]/packages/[packageId]/file/route";
 
 /** Old deposition packages' zips are removed once newer ones finish; the newest few and any being downloaded stay. */
-async function finished(fx: SiteFixture, daysAgo: number) {
+async function finished(fx: SiteFixture, daysAgo: number, trenchId: string | null = null) {
   const db = await getDb();
   const at = new Date(Date.UTC(2026, 6, 20) - daysAgo * 86_400_000);
   const [row] = await db
     .insert(s.depositionPackages)
-    .values({ siteId: fx.site.id, status: "done", createdBy: fx.people.director.id, createdAt: at, finishedAt: at })
+    .values({
+      siteId: fx.site.id,
+      trenchId,
+      status: "done",
+      createdBy: fx.people.director.id,
+      createdAt: at,
+      finishedAt: at,
+    })
     .returning();
   const relative = packageFilePath(fx.site.id, row!.id);
   await saveFile(relative, Buffer.from(`zip of ${daysAgo} days ago `.repeat(100)));
@@ -34,7 +41,7 @@ const filePathOf = async (id: string) =>
   (await (await getDb()).select().from(s.depositionPackages).where(eq(s.depositionPackages.id, id)))[0]!.filePath;
 
 describe("pruning old deposition packages", () => {
-  it(`keeps the newest ${KEEP_PACKAGES} finished zips of a site and one still being downloaded; removes the rest`, async () => {
+  it(`keeps the newest ${KEEP_PACKAGES} whole-site zips and one still being downloaded; removes the rest`, async () => {
     const fx = await makeSite();
     const [p1, p2, p3, p4, p5] = [
       await finished(fx, 1),
@@ -66,7 +73,7 @@ describe("pruning old deposition packages", () => {
     const gone = await download(fx, p5!.id);
     expect(gone.status).toBe(409);
     expect(((await gone.json()) as { error: string }).error).toBe(
-      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of a site are kept. Its fingerprint stays in the list; write a new package to download one.`,
+      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of the whole site and of each trench are kept. Its fingerprint stays in the list; write a new package to download one.`,
     );
     const list = await call(packagesRoute, "GET", { siteId: fx.site.id });
     const byId = new Map((list.json as { id: string; fileKept: boolean; fingerprint: string }[]).map((p) => [p.id, p]));
@@ -78,6 +85,25 @@ describe("pruning old deposition packages", () => {
     expect(await prunePackages(await getDb(), fx.site.id, Date.now())).toEqual([]);
     expect(await prunePackages(await getDb(), fx.site.id, Date.now() + RESUME_GRACE_MS + 1_000)).toEqual([p4!.id]);
     expect(existsSync(p4!.file)).toBe(false);
+  });
+
+  it(`keeps the newest ${KEEP_PACKAGES} of the whole site and of each trench apart`, async () => {
+    const fx = await makeSite();
+    const db = await getDb();
+    const [trenchB] = await db
+      .insert(s.trenches)
+      .values({ siteId: fx.site.id, code: "B", outline: fx.trench.outline })
+      .returning();
+    // Oldest first in each scope: the whole site's packages are older than every trench package.
+    const whole = [await finished(fx, 20), await finished(fx, 21), await finished(fx, 22), await finished(fx, 23)];
+    const trenchA = [];
+    for (const daysAgo of [1, 2, 3, 4, 5]) trenchA.push(await finished(fx, daysAgo, fx.trench.id));
+    const b = [await finished(fx, 6, trenchB!.id), await finished(fx, 7, trenchB!.id)];
+    const pruned = await prunePackages(db, fx.site.id, Date.now());
+    expect(new Set(pruned)).toEqual(new Set([whole[3]!.id, trenchA[3]!.id, trenchA[4]!.id]));
+    expect(whole.map((p) => existsSync(p.file))).toEqual([true, true, true, false]);
+    expect(trenchA.map((p) => existsSync(p.file))).toEqual([true, true, true, false, false]);
+    expect(b.map((p) => existsSync(p.file))).toEqual([true, true]);
   });
 
   it("runs when a new package finishes", async () => {

@@ -14,7 +14,7 @@ export const packageView = z.object({
   bytes: z.number().nullable(),
   /** SHA-256 of the package's manifest-sha256.txt, as bag-info.txt states it. */
   fingerprint: z.string().nullable(),
-  /** False once the zip was removed to make room: only the newest few finished packages of a site are kept. */
+  /** False once the zip was removed to make room: only the newest few of the whole site and of each trench are kept. */
   fileKept: z.boolean(),
   error: z.string().nullable(),
   createdBy: z.string(),

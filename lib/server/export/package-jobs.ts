@@ -25,7 +25,7 @@ export type PackageView = {
   fileName: string | null;
   bytes: number | null;
   fingerprint: string | null;
-  /** False once a finished package's zip was removed to make room (only the newest few are kept). */
+  /** False once a finished package's zip was removed to make room (only the newest few per scope are kept). */
   fileKept: boolean;
   error: string | null;
   createdBy: string;
@@ -133,7 +133,7 @@ export async function packageFile(db: Db, actor: SiteActor, packageId: string, r
   if (!row) throw notFound("That package");
   if (row.status === "done" && !row.filePath)
     throw conflict(
-      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of a site are kept. Its fingerprint stays in the list; write a new package to download one.`,
+      `This package's file was removed when newer ones were written: the newest ${KEEP_PACKAGES} packages of the whole site and of each trench are kept. Its fingerprint stays in the list; write a new package to download one.`,
     );
   if (row.status !== "done" || !row.filePath)
     throw conflict(

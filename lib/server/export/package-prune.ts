@@ -7,9 +7,11 @@ import { processSingleton } from "@/lib/process-singleton";
 import { storePath } from "@/lib/server/uploads/file-store";
 
 /**
- * Finished packages whose zip is kept, per site. A package is handed to a repository, and each zip holds
- * every photo and scan of the site, so keeping every one would fill the store season by season; the newest
- * few still let a director download the last one again or compare it with the one before.
+ * Finished packages whose zip is kept, per scope: the whole site, and each trench on its own. A package is
+ * handed to a repository, and each zip holds every photo and scan of what it covers, so keeping every one
+ * would fill the store season by season; the newest few still let a director download the last one again or
+ * compare it with the one before. Scopes are counted apart so that a season of trench packages never pushes
+ * out the last whole-site package, nor one trench's packages another's.
  */
 export const KEEP_PACKAGES = 3;
 
@@ -39,13 +41,14 @@ function beingDownloaded(packageId: string, now: number): boolean {
 }
 
 /**
- * After a package finishes: the site's finished packages beyond the newest KEEP_PACKAGES lose their zip (the
- * row stays, with its fingerprint, and says the file was removed). A zip this process is sending, or sent
+ * After a package finishes: in each scope of the site (the whole site; each trench), the finished packages
+ * beyond the newest KEEP_PACKAGES lose their zip (the row stays, with its fingerprint, and says the file was
+ * removed). A zip this process is sending, or sent
  * moments ago, is left for a later prune. Another server process's downloads cannot be seen from here.
  */
 export async function prunePackages(db: Db, siteId: string, now = Date.now()): Promise<string[]> {
   const rows = await db
-    .select({ id: depositionPackages.id, filePath: depositionPackages.filePath })
+    .select({ id: depositionPackages.id, trenchId: depositionPackages.trenchId, filePath: depositionPackages.filePath })
     .from(depositionPackages)
     .where(
       and(
@@ -55,8 +58,12 @@ export async function prunePackages(db: Db, siteId: string, now = Date.now()): P
       ),
     )
     .orderBy(desc(depositionPackages.finishedAt), desc(depositionPackages.createdAt));
+  const seen = new Map<string | null, number>();
   const pruned: string[] = [];
-  for (const row of rows.slice(KEEP_PACKAGES)) {
+  for (const row of rows) {
+    const newer = seen.get(row.trenchId) ?? 0;
+    seen.set(row.trenchId, newer + 1);
+    if (newer < KEEP_PACKAGES) continue;
     if (!row.filePath || beingDownloaded(row.id, now)) continue;
     // The row first: a download asked for from now on hears the file is gone rather than finding half of it.
     await db.update(depositionPackages).set({ filePath: null }).where(eq(depositionPackages.id, row.id));
