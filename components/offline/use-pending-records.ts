@@ -2,17 +2,8 @@
 
 import { useMemo, useSyncExternalStore } from "react";
 import { device } from "@/lib/offline/device";
-import type { OutboxEntry } from "@/lib/offline/outbox-db";
+import { queuedBoxes, queuedCreates } from "@/lib/offline/queued";
 import type { ContextRow, FindRow } from "@/components/plan/rows";
-
-type Body = Record<string, unknown>;
-const bodyOf = (e: OutboxEntry): Body | null => {
-  try {
-    return e.body ? (JSON.parse(e.body) as Body) : null;
-  } catch {
-    return null;
-  }
-};
 
 /**
  * The plan's records with those made on this device and not yet sent: contexts opened here join the
@@ -22,14 +13,12 @@ const bodyOf = (e: OutboxEntry): Body | null => {
 export function usePendingRecords(trenchId: string, contexts: ContextRow[]) {
   const s = useSyncExternalStore(device.subscribe, device.getSnapshot, device.getServerSnapshot);
   const withPending = useMemo(() => {
-    const made = s.entries
-      .filter((e) => e.operation === "contextsCreate" && e.localId)
-      .map((e) => ({ e, b: bodyOf(e) }))
-      .filter(({ b }) => b && b.trenchId === trenchId)
-      .map(({ e, b }): ContextRow => ({
-        id: e.localId!,
-        number: Number(b!.number),
-        type: String(b!.type ?? "deposit"),
+    const made = queuedCreates(s.entries, "contextsCreate")
+      .filter(({ body: b }) => b.trenchId === trenchId)
+      .map(({ localId, body: b }): ContextRow => ({
+        id: localId,
+        number: Number(b.number),
+        type: String(b.type ?? "deposit"),
         state: "open",
         signedOffAt: null,
         extent: null,
@@ -40,25 +29,23 @@ export function usePendingRecords(trenchId: string, contexts: ContextRow[]) {
   /** Adds the queued finds of this trench's contexts that the list does not hold yet. */
   const addPendingFinds = useMemo(() => {
     const byId = new Map(withPending.map((c) => [c.id, c]));
-    const pending = s.entries
-      .filter((e) => e.operation === "findsCreate" && e.localId)
-      .map((e) => ({ e, b: bodyOf(e) }))
-      .filter(({ b }) => b && byId.has(String(b.contextId)))
-      .map(({ e, b }): FindRow => {
-        const ctx = byId.get(String(b!.contextId))!;
+    const pending = queuedCreates(s.entries, "findsCreate")
+      .filter(({ body: b }) => byId.has(String(b.contextId)))
+      .map(({ entry: e, localId, body: b }): FindRow => {
+        const ctx = byId.get(String(b.contextId))!;
         return {
-          id: e.localId!,
-          number: Number(b!.number),
+          id: localId,
+          number: Number(b.number),
           trenchId,
           contextId: ctx.id,
-          classId: String(b!.classId),
-          x: Number(b!.x),
-          y: Number(b!.y),
-          z: (b!.z as number | null) ?? null,
-          count: (b!.count as number | null) ?? null,
-          weightG: (b!.weightG as number | null) ?? null,
-          description: String(b!.description ?? ""),
-          method: String(b!.method ?? "plan"),
+          classId: String(b.classId),
+          x: Number(b.x),
+          y: Number(b.y),
+          z: (b.z as number | null) ?? null,
+          count: (b.count as number | null) ?? null,
+          weightG: (b.weightG as number | null) ?? null,
+          description: String(b.description ?? ""),
+          method: String(b.method ?? "plan"),
           recordedAt: e.createdAt,
           recordedBy: null,
           version: 0,
@@ -76,4 +63,10 @@ export function usePendingRecords(trenchId: string, contexts: ContextRow[]) {
   }, [s.entries, withPending, trenchId]);
 
   return { contexts: withPending, addPendingFinds };
+}
+
+/** The site's boxes added on this device and not yet sent, for the box register to list beside its own. */
+export function usePendingBoxes(siteId: string) {
+  const s = useSyncExternalStore(device.subscribe, device.getSnapshot, device.getServerSnapshot);
+  return useMemo(() => queuedBoxes(s.entries, siteId), [s.entries, siteId]);
 }

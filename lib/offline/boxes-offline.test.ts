@@ -2,6 +2,7 @@ import "fake-indexeddb/auto";
 import { describe, expect, it } from "vitest";
 import { ApiError, buildRequest } from "@/lib/api/client";
 import type { Outbox } from "./outbox";
+import { queuedBoxes } from "./queued";
 import { syncOutbox } from "./sync";
 import { outboxPerTest, siteId, standInServer } from "./test-device";
 import { createWritePath, worksOffline } from "./write-path";
@@ -104,5 +105,34 @@ describe("adding a box on a device with no connection", () => {
     await write(buildRequest("boxesCreate", { siteId }, { store: "Shed" }));
     expect(s.seen[0]!.headers["idempotency-key"]).toMatch(/^[0-9a-f-]{36}$/);
     expect((await outbox.count()).waiting).toBe(0);
+  });
+});
+
+describe("the box register on a device with boxes not yet sent", () => {
+  it("lists the site's queued boxes, marked waiting, with changes made before sending, until they sync", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const blank = (await write(buildRequest("boxesCreate", { siteId }, { store: "Shed" }))) as { id: string };
+    const numbered = (await write(buildRequest("boxesCreate", { siteId }, { number: 7 } as never))) as { id: string };
+    await write(buildRequest("boxUpdate", { siteId, boxId: numbered.id }, { note: "bone only" }));
+    const otherSite = "7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d";
+    await write(buildRequest("boxesCreate", { siteId: otherSite }, { store: "Elsewhere" }));
+    await write(buildRequest("boxDelete", { siteId, boxId }));
+    expect(queuedBoxes(await outbox.all(), siteId)).toEqual([
+      { id: blank.id, number: null, store: "Shed", note: "", state: "waiting" },
+      { id: numbered.id, number: 7, store: "", note: "bone only", state: "waiting" },
+    ]);
+    const s = standInServer();
+    await syncOutbox({ outbox, send: s.send });
+    expect(queuedBoxes(await outbox.all(), siteId)).toEqual([]);
+  });
+
+  it("a queued box the server refused stays listed, marked as needing attention", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { number: 3 } as never))) as { id: string };
+    const s = standInServer(() => new ApiError("Box 3 is already in the register.", 409, {}, undefined, "duplicate"));
+    await syncOutbox({ outbox, send: s.send });
+    expect(queuedBoxes(await outbox.all(), siteId)).toEqual([
+      { id: made.id, number: 3, store: "", note: "", state: "attention" },
+    ]);
   });
 });

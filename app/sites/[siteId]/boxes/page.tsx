@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { BoxForm } from "@/components/boxes/box-form";
+import { BoxTable } from "@/components/boxes/box-table";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor, type SiteSearchPageProps } from "@/lib/server/page-access";
 import { boxListQuery } from "@/lib/schemas/processing";
@@ -31,36 +32,7 @@ export default async function BoxesPage({ params, searchParams }: SiteSearchPage
             Box labels for every box
           </Link>
         </p>
-        {page.rows.length === 0 ? (
-          <p className="text-ink-soft">No boxes yet.</p>
-        ) : (
-          <table className="ledger sheet" aria-label="Box register">
-            <thead>
-              <tr>
-                <th className="num">Box</th>
-                <th>Store</th>
-                <th className="num">Finds</th>
-                <th className="num">Samples</th>
-                <th>Note</th>
-              </tr>
-            </thead>
-            <tbody>
-              {page.rows.map((b) => (
-                <tr key={b.id} data-box={b.number}>
-                  <td className="num font-semibold">
-                    <Link className="underline" href={`${base}/${b.id}`}>
-                      {b.number}
-                    </Link>
-                  </td>
-                  <td>{b.store || "—"}</td>
-                  <td className="num">{b.finds}</td>
-                  <td className="num">{b.samples}</td>
-                  <td>{b.note}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        )}
+        <BoxTable siteId={siteId} rows={page.rows} />
         {pages > 1 && (
           <nav aria-label="Pages" className="flex gap-2">
             {q.page > 1 && (
