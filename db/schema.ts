@@ -865,6 +865,8 @@ export const depositionPackages = pgTable(
     createdAt: created(),
     startedAt: timestamp("started_at", { withTimezone: true }),
     finishedAt: timestamp("finished_at", { withTimezone: true }),
+    /** When a download of the zip last began or ended, on any server process: pruning spares it for a while. */
+    downloadedAt: timestamp("downloaded_at", { withTimezone: true }),
   },
   (t) => [index("deposition_packages_site").on(t.siteId)],
 );

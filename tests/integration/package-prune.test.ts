@@ -6,7 +6,7 @@ import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { packageFilePath } from "@/lib/server/export/package-writer";
-import { KEEP_PACKAGES, RESUME_GRACE_MS, prunePackages } from "@/lib/server/export/package-prune";
+import { KEEP_PACKAGES, RESUME_GRACE_MS, prunePackages, recordDownload } from "@/lib/server/export/package-prune";
 import { packagesIdle } from "@/lib/server/jobs/package-queue";
 import { saveFile, storePath } from "@/lib/server/uploads/file-store";
 import * as packagesRoute from "@/app/api/sites/[siteId]/packages/route";
@@ -104,6 +104,35 @@ describe("pruning old deposition packages", () => {
     expect(whole.map((p) => existsSync(p.file))).toEqual([true, true, true, false]);
     expect(trenchA.map((p) => existsSync(p.file))).toEqual([true, true, true, false, false]);
     expect(b.map((p) => existsSync(p.file))).toEqual([true, true]);
+  });
+
+  it("spares a zip whose download another server process noted, for the resume grace", async () => {
+    const fx = await makeSite();
+    const [, , , oldest] = [await finished(fx, 1), await finished(fx, 2), await finished(fx, 3), await finished(fx, 4)];
+    const began = Date.now();
+    // Process A, streaming the zip, notes the download; process B shares only the database with it.
+    await recordDownload(await getDb(), fx.site.id, oldest!.id, new Date(began));
+    const fresh = await getDb();
+    expect(await prunePackages(fresh, fx.site.id, began + RESUME_GRACE_MS - 60_000)).toEqual([]);
+    expect(existsSync(oldest!.file)).toBe(true);
+    expect(await filePathOf(oldest!.id)).not.toBeNull();
+    // Once the hour has passed with no further download, the next prune removes it.
+    expect(await prunePackages(fresh, fx.site.id, began + RESUME_GRACE_MS + 1_000)).toEqual([oldest!.id]);
+    expect(existsSync(oldest!.file)).toBe(false);
+  });
+
+  it("notes each download on the package's row, so no process has to remember it", async () => {
+    const fx = await makeSite();
+    const p = await finished(fx, 1);
+    session.userId = fx.people.director.id;
+    const before = Date.now();
+    const reading = await download(fx, p.id);
+    expect(reading.status).toBe(200);
+    const noted = async () =>
+      (await (await getDb()).select().from(s.depositionPackages).where(eq(s.depositionPackages.id, p.id)))[0]!
+        .downloadedAt;
+    expect((await noted())!.getTime()).toBeGreaterThanOrEqual(before);
+    await reading.arrayBuffer();
   });
 
   it("runs when a new package finishes", async () => {

@@ -13,7 +13,7 @@ import { storePath } from "@/lib/server/uploads/file-store";
 import { written } from "@/lib/server/written";
 import { packageQueue } from "@/lib/server/jobs/package-queue";
 import { packageTrenchCode } from "./deposition";
-import { KEEP_PACKAGES, downloadStarted } from "./package-prune";
+import { KEEP_PACKAGES, recordDownload } from "./package-prune";
 
 /** A package job as the screen and scripts see it. */
 export type PackageView = {
@@ -126,10 +126,8 @@ export function parseRange(header: string | null, size: number): { start: number
 
 /** The finished package's zip, streamed from disk; a Range request gets that part (206). */
 export async function packageFile(db: Db, actor: SiteActor, packageId: string, req: Request): Promise<Response> {
-  const [row] = await db
-    .select()
-    .from(depositionPackages)
-    .where(and(eq(depositionPackages.siteId, actor.site.id), eq(depositionPackages.id, packageId)));
+  // Noted before the file is looked at, so a prune on any process leaves it while it streams and after.
+  const row = await recordDownload(db, actor.site.id, packageId);
   if (!row) throw notFound("That package");
   if (row.status === "done" && !row.filePath)
     throw conflict(
@@ -154,8 +152,12 @@ export async function packageFile(db: Db, actor: SiteActor, packageId: string, r
     return new Response(null, { status: 416, headers: { ...headers, "content-range": `bytes */${size}` } });
   const { start, end } = range ?? { start: 0, end: size - 1 };
   const stream = createReadStream(full, { start, end });
-  // While it streams (and a while after, for a resumed download) the file is not pruned.
-  stream.once("close", downloadStarted(row.id));
+  // Its end is noted too: the file stays a while after, for a download resumed with a Range request.
+  stream.once("close", () => {
+    recordDownload(db, actor.site.id, row.id).catch((err) =>
+      console.error("[loamwork] could not note a package download's end", err),
+    );
+  });
   const body = Readable.toWeb(stream) as ReadableStream<Uint8Array>;
   return new Response(body, {
     status: range ? 206 : 200,

@@ -1,9 +1,8 @@
 import "server-only";
 import { rm } from "node:fs/promises";
-import { and, desc, eq, isNotNull } from "drizzle-orm";
+import { and, desc, eq, isNotNull, isNull, lt, or } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { depositionPackages } from "@/db/schema";
-import { processSingleton } from "@/lib/process-singleton";
+import { depositionPackages, type DepositionPackage } from "@/db/schema";
 import { storePath } from "@/lib/server/uploads/file-store";
 
 /**
@@ -18,37 +17,44 @@ export const KEEP_PACKAGES = 3;
 /** A download that ended this recently may be resumed with a Range request, so its file stays a while. */
 export const RESUME_GRACE_MS = 60 * 60 * 1000;
 
-type Reading = { open: number; last: number };
-const reading = processSingleton("package-downloads", () => new Map<string, Reading>());
-
-/** A download of a package's zip began; call the answer when its stream closes. */
-export function downloadStarted(packageId: string, now = Date.now()): () => void {
-  const r = reading.get(packageId) ?? { open: 0, last: now };
-  reading.set(packageId, { open: r.open + 1, last: now });
-  let ended = false;
-  return () => {
-    if (ended) return;
-    ended = true;
-    const cur = reading.get(packageId);
-    if (cur) reading.set(packageId, { open: Math.max(0, cur.open - 1), last: Date.now() });
-  };
+/**
+ * A download of the package's zip begins (or ends): noted on its row, so that a prune on any server process,
+ * not only the one streaming it, leaves the file for the resume grace. One statement reads the row and notes
+ * the download, so a prune either removed the file before (the row says so) or sees the download.
+ */
+export async function recordDownload(
+  db: Db,
+  siteId: string,
+  packageId: string,
+  at = new Date(),
+): Promise<DepositionPackage | undefined> {
+  const [row] = await db
+    .update(depositionPackages)
+    .set({ downloadedAt: at })
+    .where(and(eq(depositionPackages.siteId, siteId), eq(depositionPackages.id, packageId)))
+    .returning();
+  return row;
 }
 
-/** True while this process streams the package's zip, or streamed it within the resume grace. */
-function beingDownloaded(packageId: string, now: number): boolean {
-  const r = reading.get(packageId);
-  return !!r && (r.open > 0 || now - r.last < RESUME_GRACE_MS);
+/** True when a download of the zip began or ended within the resume grace, on whichever process served it. */
+function beingDownloaded(downloadedAt: Date | null, now: number): boolean {
+  return downloadedAt !== null && now - downloadedAt.getTime() < RESUME_GRACE_MS;
 }
 
 /**
  * After a package finishes: in each scope of the site (the whole site; each trench), the finished packages
  * beyond the newest KEEP_PACKAGES lose their zip (the row stays, with its fingerprint, and says the file was
- * removed). A zip this process is sending, or sent
- * moments ago, is left for a later prune. Another server process's downloads cannot be seen from here.
+ * removed). A zip whose download began or ended within the resume grace, on any server process, is left
+ * for a later prune.
  */
 export async function prunePackages(db: Db, siteId: string, now = Date.now()): Promise<string[]> {
   const rows = await db
-    .select({ id: depositionPackages.id, trenchId: depositionPackages.trenchId, filePath: depositionPackages.filePath })
+    .select({
+      id: depositionPackages.id,
+      trenchId: depositionPackages.trenchId,
+      filePath: depositionPackages.filePath,
+      downloadedAt: depositionPackages.downloadedAt,
+    })
     .from(depositionPackages)
     .where(
       and(
@@ -64,9 +70,23 @@ export async function prunePackages(db: Db, siteId: string, now = Date.now()): P
     const newer = seen.get(row.trenchId) ?? 0;
     seen.set(row.trenchId, newer + 1);
     if (newer < KEEP_PACKAGES) continue;
-    if (!row.filePath || beingDownloaded(row.id, now)) continue;
+    if (!row.filePath || beingDownloaded(row.downloadedAt, now)) continue;
     // The row first: a download asked for from now on hears the file is gone rather than finding half of it.
-    await db.update(depositionPackages).set({ filePath: null }).where(eq(depositionPackages.id, row.id));
+    // Only if no download was noted since the read above (by another process, say): then the file stays.
+    const cleared = await db
+      .update(depositionPackages)
+      .set({ filePath: null })
+      .where(
+        and(
+          eq(depositionPackages.id, row.id),
+          or(
+            isNull(depositionPackages.downloadedAt),
+            lt(depositionPackages.downloadedAt, new Date(now - RESUME_GRACE_MS)),
+          ),
+        ),
+      )
+      .returning({ id: depositionPackages.id });
+    if (!cleared.length) continue;
     await rm(storePath(row.filePath), { force: true });
     pruned.push(row.id);
   }

@@ -1,0 +1,1 @@
+ALTER TABLE "deposition_packages" ADD COLUMN "downloaded_at" timestamp with time zone;
