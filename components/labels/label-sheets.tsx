@@ -2,9 +2,25 @@ import type { LabelItem } from "@/lib/server/labels";
 import { labelPosition, perSheet, type LabelLayout } from "@/lib/labels/layout";
 import { qrPath } from "@/lib/labels/qr";
 
+/** The record's code as a square QR code, `sideMm` wide, printed black on white with crisp modules. */
+function QrCode({ code, sideMm }: { code: string; sideMm: number }) {
+  const qr = qrPath(code);
+  return (
+    <svg
+      viewBox={`0 0 ${qr.size} ${qr.size}`}
+      style={{ width: `${sideMm}mm`, height: `${sideMm}mm`, flex: "none" }}
+      role="img"
+      aria-label={`Code ${code}`}
+      shapeRendering="crispEdges"
+    >
+      <rect width={qr.size} height={qr.size} fill="#fff" />
+      <path d={qr.d} fill="#000" />
+    </svg>
+  );
+}
+
 /** One label: the QR code on the left, the record in words on the right, sized from the label's height. */
 function Label({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayout; siteCode: string }) {
-  const qr = qrPath(item.code);
   const pad = Math.min(2, layout.heightMm * 0.06);
   const side = Math.min(layout.heightMm - 2 * pad, layout.widthMm * 0.45);
   const big = Math.min(layout.heightMm * 0.2, 7);
@@ -15,16 +31,7 @@ function Label({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayou
       style={{ width: `${layout.widthMm}mm`, height: `${layout.heightMm}mm`, padding: `${pad}mm`, gap: `${pad}mm` }}
       data-label-code={item.code}
     >
-      <svg
-        viewBox={`0 0 ${qr.size} ${qr.size}`}
-        style={{ width: `${side}mm`, height: `${side}mm`, flex: "none" }}
-        role="img"
-        aria-label={`Code ${item.code}`}
-        shapeRendering="crispEdges"
-      >
-        <rect width={qr.size} height={qr.size} fill="#fff" />
-        <path d={qr.d} fill="#000" />
-      </svg>
+      <QrCode code={item.code} sideMm={side} />
       <div className="min-w-0 overflow-hidden leading-tight" style={{ fontSize: `${small}mm` }}>
         <p className="font-mono font-bold" style={{ fontSize: `${big}mm` }}>
           {siteCode} {item.kindWord === "Find" ? "F" : "S"}
@@ -47,7 +54,6 @@ function Label({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayou
  * the label never claims to list everything when it does not.
  */
 function BoxLabel({ item, layout, siteCode }: { item: LabelItem; layout: LabelLayout; siteCode: string }) {
-  const qr = qrPath(item.code);
   const pad = Math.min(2, layout.heightMm * 0.05);
   const side = Math.min(layout.heightMm * 0.38, layout.widthMm * 0.3, 24);
   const big = Math.min(side * 0.28, 6);
@@ -65,16 +71,7 @@ function BoxLabel({ item, layout, siteCode }: { item: LabelItem; layout: LabelLa
       data-label-code={item.code}
     >
       <div className="flex items-start" style={{ gap: `${pad}mm` }}>
-        <svg
-          viewBox={`0 0 ${qr.size} ${qr.size}`}
-          style={{ width: `${side}mm`, height: `${side}mm`, flex: "none" }}
-          role="img"
-          aria-label={`Code ${item.code}`}
-          shapeRendering="crispEdges"
-        >
-          <rect width={qr.size} height={qr.size} fill="#fff" />
-          <path d={qr.d} fill="#000" />
-        </svg>
+        <QrCode code={item.code} sideMm={side} />
         <div className="min-w-0 leading-tight" style={{ fontSize: `${line}mm` }}>
           <p className="font-mono font-bold" style={{ fontSize: `${big}mm` }}>
             {siteCode} Box {item.number}
