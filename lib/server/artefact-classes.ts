@@ -5,13 +5,23 @@ import { artefactClasses, contexts, finds, type ArtefactClass } from "@/db/schem
 import type { z } from "zod";
 import type { artefactClassCreateSchema, artefactClassUpdateSchema } from "@/lib/schemas/artefact-class";
 import { recordAudit } from "./audit";
-import { conflict, notFound } from "./errors";
+import { badInput, conflict, notFound } from "./errors";
 import { assertFieldRights } from "./field-rights";
 import type { SiteActor } from "./membership";
 import { written } from "./written";
 
 export async function listClasses(db: Db, siteId: string) {
   return db.select().from(artefactClasses).where(eq(artefactClasses.siteId, siteId)).orderBy(asc(artefactClasses.code));
+}
+
+/** The class a find is given, or a 400 on `classId` when it is not one of this site's classes. */
+export async function assertSiteClass(tx: Db | Tx, siteId: string, classId: string) {
+  const [row] = await tx
+    .select()
+    .from(artefactClasses)
+    .where(and(eq(artefactClasses.siteId, siteId), eq(artefactClasses.id, classId)));
+  if (!row) throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
+  return row;
 }
 
 export async function createClass(db: Db, actor: SiteActor, input: z.infer<typeof artefactClassCreateSchema>) {

@@ -1,13 +1,14 @@
 import "server-only";
 import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { artefactClasses, contexts, finds, trenches, type Context, type Find } from "@/db/schema";
+import { contexts, finds, trenches, type Context, type Find } from "@/db/schema";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import type { FindsBulk } from "@/lib/schemas/finds-bulk";
 import { recordAudit } from "./audit";
 import { processFinds } from "./find-processing";
 import { getContext } from "./contexts";
 import { PublicError, badInput, forbidden, notFound } from "./errors";
+import { assertSiteClass } from "./artefact-classes";
 import { photosHoldIt, photosOf } from "./attached-photos";
 import { assertContextWritable } from "./locks";
 import type { SiteActor } from "./membership";
@@ -103,12 +104,7 @@ export async function bulkEditFinds(db: Db, actor: SiteActor, input: FindsBulk) 
       }
     }
     if (input.action === "reclass") {
-      const [cls] = await tx
-        .select()
-        .from(artefactClasses)
-        .where(and(eq(artefactClasses.siteId, actor.site.id), eq(artefactClasses.id, input.classId)));
-      if (!cls)
-        throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
+      await assertSiteClass(tx, actor.site.id, input.classId);
     }
     if (refused.length)
       throw refuseAll(

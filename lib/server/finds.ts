@@ -9,6 +9,7 @@ import type { FindCreate, FindListQuery, FindUpdate } from "@/lib/schemas/find";
 import { checkOutline, distanceOutside } from "@/lib/geometry/outline";
 import { recordAudit } from "./audit";
 import { PublicError, badInput, conflict, notFound } from "./errors";
+import { assertSiteClass } from "./artefact-classes";
 import { photosHoldIt, photosOf } from "./attached-photos";
 import { allocateFindNumbers } from "./find-numbers";
 import { assertContextWritable } from "./locks";
@@ -27,15 +28,6 @@ export async function getFind(db: Db | Tx, siteId: string, findId: string): Prom
     .from(finds)
     .where(and(eq(finds.siteId, siteId), eq(finds.id, findId)));
   if (!row) throw notFound("That find");
-  return row;
-}
-
-async function assertClass(tx: Db | Tx, siteId: string, classId: string) {
-  const [row] = await tx
-    .select()
-    .from(artefactClasses)
-    .where(and(eq(artefactClasses.siteId, siteId), eq(artefactClasses.id, classId)));
-  if (!row) throw badInput("That artefact class is not one of this site's classes.", { classId: ["Unknown class."] });
   return row;
 }
 
@@ -75,7 +67,7 @@ export async function createFind(db: Db, actor: SiteActor, input: FindCreate) {
   return db.transaction(async (tx) => {
     const context = await getContext(tx, actor.site.id, input.contextId);
     await assertContextWritable(tx, context, "given new finds");
-    await assertClass(tx, actor.site.id, input.classId);
+    await assertSiteClass(tx, actor.site.id, input.classId);
     await assertInsideTrench(tx, actor.site.id, context.trenchId, input.x, input.y);
     // A number sent with the find was taken from a block the sender holds (recorded offline); else the next one.
     if (input.number !== undefined) await assertFindNumberHeld(tx, actor, input.number);
@@ -127,7 +119,7 @@ export async function updateFind(
       await assertContextWritable(tx, to, "given new finds");
       trenchId = to.trenchId;
     }
-    if (input.classId) await assertClass(tx, actor.site.id, input.classId);
+    if (input.classId) await assertSiteClass(tx, actor.site.id, input.classId);
     await assertInsideTrench(tx, actor.site.id, trenchId, input.x ?? before.x, input.y ?? before.y);
     const [after] = await tx
       .update(finds)

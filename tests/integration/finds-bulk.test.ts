@@ -5,6 +5,8 @@ import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import * as bulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
+import * as findsRoute from "@/app/api/sites/[siteId]/finds/route";
+import * as findRoute from "@/app/api/sites/[siteId]/finds/[findId]/route";
 import { moveTargets } from "@/lib/server/finds-bulk";
 
 async function find(fx: SiteFixture, number: number, contextId = fx.context.id, x = 1, y = 1) {
@@ -242,5 +244,36 @@ describe("the contexts a move offers", () => {
       expect(res.json.fieldErrors.contextId).toEqual([`Context ${target.number} is not open.`]);
     }
     expect((await rows([f.id]))[0]!.contextId).toBe(fx.context.id);
+  });
+});
+
+describe("a find's class is one of this site's classes", () => {
+  it("refuses another site's class on a new find, an edit and a bulk reclass, naming classId; nothing is written", async () => {
+    const fx = await makeSite();
+    const other = await makeSite();
+    const f = await find(fx, 51);
+    const before = await rows([f.id]);
+    const words = "That artefact class is not one of this site's classes.";
+    session.userId = fx.people.director.id;
+    const made = await call(
+      findsRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { contextId: fx.context.id, classId: other.cls.id, x: 2, y: 2 },
+    );
+    const edited = await call(findRoute, "PATCH", { siteId: fx.site.id, findId: f.id }, { classId: other.cls.id });
+    const reclassed = await call(
+      bulkRoute,
+      "POST",
+      { siteId: fx.site.id },
+      { action: "reclass", findIds: [f.id], classId: other.cls.id },
+    );
+    for (const res of [made, edited, reclassed]) {
+      expect(res.status).toBe(400);
+      expect(res.json.error).toBe(words);
+      expect(res.json.fieldErrors).toEqual({ classId: ["Unknown class."] });
+    }
+    const db = await getDb();
+    expect(await db.select().from(schema.finds).where(eq(schema.finds.siteId, fx.site.id))).toEqual(before);
   });
 });
