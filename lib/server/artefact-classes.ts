@@ -14,6 +14,21 @@ export async function listClasses(db: Db, siteId: string) {
   return db.select().from(artefactClasses).where(eq(artefactClasses.siteId, siteId)).orderBy(asc(artefactClasses.code));
 }
 
+/** The site's classes as a plan or a key draws them (code, label, colour, symbol), in code order. */
+export async function listClassLooks(db: Db, siteId: string) {
+  return db
+    .select({
+      id: artefactClasses.id,
+      code: artefactClasses.code,
+      label: artefactClasses.label,
+      colour: artefactClasses.colour,
+      symbol: artefactClasses.symbol,
+    })
+    .from(artefactClasses)
+    .where(eq(artefactClasses.siteId, siteId))
+    .orderBy(asc(artefactClasses.code));
+}
+
 /** The class a find is given, or a 400 on `classId` when it is not one of this site's classes. */
 export async function assertSiteClass(tx: Db | Tx, siteId: string, classId: string) {
   const [row] = await tx

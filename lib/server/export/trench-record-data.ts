@@ -13,6 +13,7 @@ import {
   type Trench,
 } from "@/db/schema";
 import { readingFrom, readingLabels } from "@/lib/schemas/relation";
+import { listClassLooks } from "../artefact-classes";
 
 /**
  * What the trench record in the package shows, read with counts from the database rather than every find:
@@ -139,16 +140,7 @@ export async function readTrenchRecord(db: Db, site: Site, trench: Trench, expor
 
 /** The trench's finds as positions by class, read as bare numbers (no find rows are kept). */
 async function readFindPoints(db: Db, siteId: string, trenchId: string): Promise<TrenchRecord["findPoints"]> {
-  const classes = await db
-    .select({
-      id: artefactClasses.id,
-      code: artefactClasses.code,
-      label: artefactClasses.label,
-      colour: artefactClasses.colour,
-      symbol: artefactClasses.symbol,
-    })
-    .from(artefactClasses)
-    .where(eq(artefactClasses.siteId, siteId));
+  const classes = await listClassLooks(db, siteId);
   const rows = await db
     .select({ classId: finds.classId, x: finds.x, y: finds.y })
     .from(finds)

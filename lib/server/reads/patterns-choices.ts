@@ -1,7 +1,8 @@
 import "server-only";
 import { asc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { artefactClasses, contexts, spits, trenches } from "@/db/schema";
+import { contexts, spits, trenches } from "@/db/schema";
+import { listClassLooks } from "../artefact-classes";
 
 /** What the Patterns workspace offers to choose from: the site's trenches, contexts, their spits and find classes. */
 export async function patternsChoices(db: Db, siteId: string) {
@@ -23,17 +24,7 @@ export async function patternsChoices(db: Db, siteId: string) {
       .from(contexts)
       .where(eq(contexts.siteId, siteId))
       .orderBy(asc(contexts.number)),
-    db
-      .select({
-        id: artefactClasses.id,
-        code: artefactClasses.code,
-        label: artefactClasses.label,
-        colour: artefactClasses.colour,
-        symbol: artefactClasses.symbol,
-      })
-      .from(artefactClasses)
-      .where(eq(artefactClasses.siteId, siteId))
-      .orderBy(asc(artefactClasses.code)),
+    listClassLooks(db, siteId),
     db
       .select({
         id: spits.id,
