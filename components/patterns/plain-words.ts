@@ -4,7 +4,8 @@
  * "random"), a cluster size is "roughly" (read from where the L curve rejoins its band, which tends to
  * overstate), and "no clear pattern" is not a claim that the finds lie at random.
  */
-import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import type { ClassInScope } from "@/lib/api/run-result";
+import type { SquareTestView } from "@/lib/patterns-view/square-view";
 import type { CrossView, Departure, TestView } from "@/lib/patterns-view/test-view";
 import { mainDepartures } from "./departures";
 
@@ -103,7 +104,7 @@ export function pairSentence(t: CrossView, name: (id: string) => string, rmax: n
 }
 
 /** Badge words of a square-count test. */
-export const SQUARE_BADGE: Record<SquareTestOut["verdict"], string> = {
+export const SQUARE_BADGE: Record<SquareTestView["verdict"], string> = {
   clustered: "Rich squares lie together",
   dispersed: "Rich and poor squares alternate",
   "hot-spots": "Hot or cold spots",
@@ -112,7 +113,7 @@ export const SQUARE_BADGE: Record<SquareTestOut["verdict"], string> = {
 };
 
 /** One sentence for a square-count test on one class. */
-export function squareSentence(t: SquareTestOut, who: string): string {
+export function squareSentence(t: SquareTestView, who: string): string {
   switch (t.verdict) {
     case "clustered":
       return `${who}: squares rich in them lie next to each other, and so do poor ones, more than chance would give.`;

@@ -9,6 +9,7 @@ import { SquareResults } from "./square-results";
 import { VerdictCard } from "./verdict-card";
 import { fmtM } from "./words";
 import { depthWords, leftOutWords } from "@/lib/levels/depth-words";
+import { squareTestViews } from "@/lib/patterns-view/square-view";
 import { testViews } from "@/lib/patterns-view/test-view";
 
 /** A finished run: header with everything needed to reproduce it, warnings, verdicts and figures, cautions. */
@@ -22,6 +23,7 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
     return c ? `${c.label} (${c.code})` : "?";
   };
   const views = testViews(result);
+  const squareTests = squareTestViews(result);
   const perClass = result.classes.map((c) => ({
     c,
     tests: views.filter((t) => "classId" in t && t.classId === c.id),
@@ -121,8 +123,8 @@ export function RunResultView({ run, compact = false }: { run: RunView; compact?
           </div>
         </section>
       )}
-      {result.squareTests && result.squareTests.length > 0 && (
-        <SquareResults tests={result.squareTests} classes={result.classes} outline={result.outline} />
+      {squareTests.length > 0 && (
+        <SquareResults tests={squareTests} classes={result.classes} outline={result.outline} />
       )}
       <PlanOverlay result={result} runName={run.id.slice(0, 8)} />
       <section className="sheet" aria-labelledby={`cautions-${run.id}`}>

@@ -1,6 +1,7 @@
 "use client";
 
-import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import type { ClassInScope } from "@/lib/api/run-result";
+import type { SquareTestView } from "@/lib/patterns-view/square-view";
 import { SquareMap } from "@/components/squares/square-map";
 import { testMapCells } from "@/lib/squares/test-map";
 import { PlotFrame } from "./plot-frame";
@@ -8,14 +9,14 @@ import { SQUARE_BADGE, squareSentence } from "./plain-words";
 import { TestNotes, TestTerms } from "./test-terms";
 import { fmtP } from "./words";
 
-const NAME: Record<SquareTestOut["kind"], string> = {
+const NAME: Record<SquareTestView["kind"], string> = {
   moran: "Moran's I",
   geary: "Geary's C",
   "local-moran": "Local Moran's I",
   "getis-ord": "Getis–Ord Gi*",
 };
 /** One result's squares on the plan, with its export buttons (SVG and PNG keep the legend; CSV the numbers). */
-function TestMap({ t, code, outline }: { t: SquareTestOut; code: string; outline: [number, number][][] }) {
+function TestMap({ t, code, outline }: { t: SquareTestView; code: string; outline: [number, number][][] }) {
   if (!t.cells.length) return null;
   const { cells, legend } = testMapCells(t, code);
   const name = `${NAME[t.kind]} ${code}`;
@@ -58,7 +59,7 @@ export function SquareResults({
   classes,
   outline,
 }: {
-  tests: SquareTestOut[];
+  tests: SquareTestView[];
   classes: ClassInScope[];
   outline: [number, number][][];
 }) {

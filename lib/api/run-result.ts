@@ -1,16 +1,24 @@
 /**
  * The stored result of a run: the engine's own result (lib/spatial/run/run-test.ts), each test as the engine
  * gave it (its verdict, p-value, curves and pictures), with what the workspace draws around it: the classes
- * in scope, the trench outline, where the finds lie, the heat layers, and the tests on counts by grid square
- * (these still in Loamwork's words, as lib/server/analysis/square-tests.ts words the engine's lattice results).
- * How a test is worded and drawn (verdict words, the sentence to quote, L(r) − r) is worked out on screen by
- * lib/patterns-view. Results stored in the earlier shape are read into this one by
- * lib/server/analysis/former-result.ts, the only place that knows that shape.
+ * in scope, the trench outline, where the finds lie, the heat layers; and each test on counts by grid square
+ * as the engine gave it too (lib/spatial/lattice/run-square-test.ts), with the squares it was handed.
+ * How a test is worded and drawn (verdict words, the sentence to quote, L(r) − r, a square's hot or cold
+ * spot) is worked out on screen by lib/patterns-view. Results stored in the earlier shapes (distribution
+ * tests in Loamwork's words; square-count tests in Loamwork's words) are read into this one by
+ * lib/server/analysis/former-result.ts, the only place that knows those shapes.
  * Plain numbers and arrays only (it is stored as JSON in analysis_runs.result). Types only: safe to
  * import from client components.
  */
-import type { EnvelopeOutcome, RunResult as EngineRunResult, TestResult } from "@/lib/spatial";
-import type { Correction, SquareTestKind } from "@/lib/schemas/run";
+import type {
+  EnvelopeOutcome,
+  RunResult as EngineRunResult,
+  SquareResult,
+  SquareTestResult,
+  SquareTestSpec,
+  TestResult,
+} from "@/lib/spatial";
+import type { Correction } from "@/lib/schemas/run";
 
 export type ClassInScope = { id: string; code: string; label: string; colour: string; symbol: string; n: number };
 
@@ -27,52 +35,46 @@ export type StoredCurves = Pick<EnvelopeOutcome, Drawn> & {
 /** One test's result as the engine gave it; classes are named by their code, as the engine was given them. */
 export type StoredTest = Omit<TestResult, "curves"> & { curves?: StoredCurves };
 
-/** Verdict of a square-count test: like values together, high and low alternating, hot or cold spots found. */
-export type SquareVerdictWord = "clustered" | "dispersed" | "hot-spots" | "no-evidence" | "not-run";
-export type SquareClassWord = "hot spot" | "cold spot" | "high among low" | "low among high" | "none";
-
-/** One square of the grid in a square-count result, placed on the plan (its whole square, x0..x1, y0..y1). */
-export type SquareCellOut = {
+/** A square as the run handed it to a square-count test, placed on the plan (its whole grid square). */
+export type SquareUnit = {
   label: string;
   x0: number;
   y0: number;
   x1: number;
   y1: number;
-  /** Excavated m² used, and the variable tested (density per m² or count). */
+  /** m² dug in the scope (summed over the records that counted the class) and the class's count summed over them. */
   area: number;
-  value: number;
-  /** Local tests: local I_i or Gi* (a z-score), the permutation p and the false-discovery-rate adjusted p. */
-  statistic: number | null;
-  p: number | null;
-  pAdjusted: number | null;
-  class: SquareClassWord;
+  count: number;
 };
 
-/** A test on counts by grid square, for one class (lib/spatial/lattice, through runSquareTest). */
-export type SquareTestOut = {
-  kind: SquareTestKind;
-  classId: string;
-  verdict: SquareVerdictWord;
-  sentence: string;
-  p: number | null;
-  pFrom: "permutation" | "randomisation" | "normal" | null;
-  question: string;
-  notes: string[];
-  /** Squares tested, and those left out with the reason. */
-  n: number;
-  leftOut: { label: string; reason: string }[];
-  neighbours: string;
-  style: "row" | "binary";
-  variable: "density" | "count";
-  permutations: number;
-  seed: number;
-  /** Global tests: the statistic and its expectation under the null. */
-  statistic: number | null;
-  expected: number | null;
-  z: number | null;
-  gridSize: number;
-  cells: SquareCellOut[];
+type SquareGlobal = NonNullable<SquareTestResult["global"]>;
+
+/**
+ * A square-count test's result: the engine's, whole. A run stored before it was the engine's kept the
+ * statistic, its expectation and its z under randomisation, and per square no z or normal p, so those may
+ * be absent.
+ */
+export type StoredSquareResult = Omit<SquareTestResult, "global" | "squares"> & {
+  global?: Pick<SquareGlobal, "statistic" | "expected"> & {
+    z: Pick<SquareGlobal["z"], "randomisation"> & Partial<SquareGlobal["z"]>;
+  } & Partial<Pick<SquareGlobal, "variance" | "p">>;
+  squares?: (Omit<SquareResult, "z" | "pNormal"> & Partial<Pick<SquareResult, "z" | "pNormal">>)[];
 };
+
+/**
+ * A test on counts by grid square, for one class (lib/spatial/lattice, through runSquareTest): the squares
+ * it was handed and the engine's result with the run's own cautions (squares dug to unequal depth); or, when
+ * the engine refused the class (too few squares, all alike), its spec, how many squares it was handed and
+ * why. How it is worded and drawn is worked out by lib/patterns-view/square-view.ts.
+ */
+export type StoredSquareTest = {
+  classId: string;
+  /** The trench's square size (m). */
+  gridSize: number;
+} & (
+  | { units: SquareUnit[]; result: StoredSquareResult; cautions: string[] }
+  | { spec: SquareTestSpec; n: number; refused: string }
+);
 
 /** Kernel intensity on a pixel grid (row 0 at minY), for the heat layer on the plan. */
 export type DensityOut = {
@@ -100,8 +102,8 @@ export type RunResult = Omit<EngineRunResult, "results"> & {
   density: DensityOut[];
   /** Where each class's finds lie, for the plan overlay. */
   finds: { classId: string; x: number[]; y: number[] }[];
-  /** Tests on counts by grid square (absent in runs stored before they existed). */
-  squareTests?: SquareTestOut[];
+  /** Tests on counts by grid square, one per test and class in scope (absent in runs stored before they existed). */
+  squareTests?: StoredSquareTest[];
   /** statistics.md's cautions, as the engine words them. */
   cautions: string[];
   elapsedMs: number;

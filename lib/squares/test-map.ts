@@ -1,4 +1,4 @@
-import type { SquareCellOut, SquareTestOut } from "@/lib/api/run-result";
+import type { SquareCellView, SquareTestView } from "@/lib/patterns-view/square-view";
 import { classBreaks, classingWords, classLabels, classOf, formatValue } from "./colour-classes";
 import type { MapCell, MapLegend, SpotLine } from "./map-cells";
 
@@ -7,7 +7,7 @@ import type { MapCell, MapLegend, SpotLine } from "./map-cells";
  * quantile classes, and the squares a local test marks after the false-discovery-rate adjustment
  * outlined (red for hot, blue dashed for cold, dotted for a square unlike its neighbours).
  */
-export const SPOT_LINES: Record<Exclude<SquareCellOut["class"], "none">, SpotLine> = {
+export const SPOT_LINES: Record<Exclude<SquareCellView["class"], "none">, SpotLine> = {
   "hot spot": { stroke: "#b2182b" },
   "cold spot": { stroke: "#2166ac", dash: "4 2" },
   "high among low": { stroke: "#b2182b", dash: "1 2" },
@@ -16,7 +16,7 @@ export const SPOT_LINES: Record<Exclude<SquareCellOut["class"], "none">, SpotLin
 
 const p3 = (p: number) => (p < 0.001 ? "< 0.001" : p.toFixed(3));
 
-export function testMapCells(t: SquareTestOut, code: string): { cells: MapCell[]; legend: MapLegend } {
+export function testMapCells(t: SquareTestView, code: string): { cells: MapCell[]; legend: MapLegend } {
   const unit = t.variable === "density" ? `${code} per m²` : `${code} count`;
   const scale = classBreaks(
     t.cells.map((c) => c.value),

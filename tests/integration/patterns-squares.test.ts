@@ -12,6 +12,7 @@ import { makeSite, type SiteFixture } from "../support/fixtures";
 import { gridTrench } from "./role-cases/squares";
 import { seedDemoSite } from "../support/demo-site";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
+import { squareTestViews } from "@/lib/patterns-view/square-view";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 import * as trenchRoute from "@/app/api/sites/[siteId]/trenches/[trenchId]/route";
@@ -87,7 +88,7 @@ describe("square-count tests in a run", () => {
     await runsIdle();
     const run = await read(fx, res.json.id);
     expect(run.status, run.error).toBe("done");
-    expect(run.result.squareTests[0].n).toBe(counted.length);
+    expect(squareTestViews(run.result)[0].n).toBe(counted.length);
     expect(counted.length).toBeLessThan(samples.length);
   });
 
@@ -104,7 +105,7 @@ describe("square-count tests in a run", () => {
     const run = await read(fx, res.json.id);
     expect(run.status, run.error).toBe("done");
     expect(run.params.squareTests.map((t: { kind: string }) => t.kind)).toEqual(["moran", "getis-ord"]);
-    const [moran, gi] = run.result.squareTests;
+    const [moran, gi] = squareTestViews(run.result);
     expect(moran.kind).toBe("moran");
     expect(moran.n).toBe(58);
     expect(moran.verdict).toBe("clustered");
@@ -145,7 +146,7 @@ describe("square-count tests in a run", () => {
     await runsIdle();
     const run = (await call(runRoute, "GET", { siteId: d.siteId, runId: res.json.id })).json;
     expect(run.status, run.error).toBe("done");
-    const [moran, gi] = run.result.squareTests;
+    const [moran, gi] = squareTestViews(run.result);
     expect(moran.verdict).toBe("clustered");
     // The demo's chips crowd round spots at (2.2, 2.0) and (2.6, 6.2) (scripts/seed/seed-demo-squares.ts).
     const hot = gi.cells.filter((c: { class: string }) => c.class === "hot spot");

@@ -10,14 +10,18 @@
  * row-standardised weights, a minimum area that leaves squares out, a class with no counts by square (not
  * run), and one run with a distribution test beside its square test.
  *
- * Checked: each run opens with the square-count results it stored, and started again with the tests it
- * opened with, it gives them again, test for test and square for square.
+ * Checked: each run opens with its square-count results read into today's shape (the engine's own result,
+ * with the squares it was handed), which the workspace shows as it showed the stored ones: the same verdicts,
+ * sentences, notes and squares. Started again with the tests it opened with, it gives them again test for
+ * test and square for square, and the engine's new result holds everything read from the stored one.
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { readRunFixture, startAgainAsOpened, storeRunFixture, type StoredRunFixture } from "../support/run-fixtures";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
+import { squareTestViews } from "@/lib/patterns-view/square-view";
+import type { StoredSquareTest } from "@/lib/api/run-result";
 
 type StoredRun = StoredRunFixture<{ squareTests: Record<string, unknown>[]; elapsedMs: number }>;
 
@@ -37,10 +41,18 @@ describe("saved runs with square-count tests in the result shape of December 202
       const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
       expect(view.status).toBe("done");
       expect(view.result.elapsedMs).toBe(run.result.elapsedMs);
-      expect(view.result.squareTests).toEqual(run.result.squareTests);
+      const opened: StoredSquareTest[] = view.result.squareTests;
+      expect(opened.every((t) => ("result" in t && t.result.spec) || ("refused" in t && t.spec))).toBe(true);
+      expect(squareTestViews(view.result)).toEqual(run.result.squareTests);
       const rerun = await startAgainAsOpened(d.siteId, view);
       expect(rerun.params.squareTests).toEqual(view.params.squareTests);
-      expect(rerun.result.squareTests).toEqual(run.result.squareTests);
+      expect(squareTestViews(rerun.result)).toEqual(run.result.squareTests);
+      const again: StoredSquareTest[] = rerun.result.squareTests;
+      again.forEach((t, i) => {
+        const was = opened[i]!;
+        if ("refused" in was) expect(t).toEqual(was);
+        else expect("result" in t && t.result).toMatchObject(was.result);
+      });
     }
   });
 });

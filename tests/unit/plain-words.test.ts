@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { badgeWords, classSentence, pairSentence, squareSentence, withoutP } from "@/components/patterns/plain-words";
-import type { ClassInScope, SquareTestOut } from "@/lib/api/run-result";
+import type { ClassInScope } from "@/lib/api/run-result";
+import type { SquareTestView } from "@/lib/patterns-view/square-view";
 import type { CrossView, LView, TestView } from "@/lib/patterns-view/test-view";
 
 const cls = (n: number): ClassInScope => ({
@@ -122,7 +123,7 @@ describe("results in plain words", () => {
     const t = {
       verdict: "hot-spots",
       cells: [{ class: "hot spot" }, { class: "hot spot" }, { class: "cold spot" }, { class: "none" }],
-    } as SquareTestOut;
+    } as SquareTestView;
     expect(squareSentence(t, "Flint flake (FLK) finds")).toBe(
       "Flint flake (FLK) finds: 2 hot spots and 1 cold spot among the squares, more than chance would give.",
     );

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { SquareMap } from "@/components/squares/square-map";
-import type { SquareTestOut } from "@/lib/api/run-result";
+import type { SquareTestView } from "@/lib/patterns-view/square-view";
 import type { GridSquare } from "@/lib/geometry/square-grid";
 import { shadeCells, type MapCell, type MapLegend } from "@/lib/squares/map-cells";
 import { squareCells, type SampleLike } from "@/lib/squares/square-values";
@@ -106,7 +106,7 @@ describe("the square map's SVG", () => {
   });
 
   it("a run's local test: squares carry the tested value and their finding, outlined, named in the legend", () => {
-    const cell = (col: number, value: number, cls: SquareTestOut["cells"][number]["class"]) => ({
+    const cell = (col: number, value: number, cls: SquareTestView["cells"][number]["class"]) => ({
       label: `${col}/0`,
       x0: col,
       y0: 0,
@@ -123,7 +123,7 @@ describe("the square map's SVG", () => {
       kind: "getis-ord",
       variable: "count",
       cells: [cell(0, 40, "hot spot"), cell(1, 1, "none"), cell(2, 0, "cold spot")],
-    } as SquareTestOut;
+    } as SquareTestView;
     const { cells, legend } = testMapCells(t, "FLK");
     const svg = draw(cells, legend);
     const g = squaresIn(svg);

@@ -9,7 +9,8 @@ import { clipSquares } from "@/lib/geometry/square-grid";
 import { clippedSquareShape } from "@/lib/geometry/square-shape";
 import { latticeSquares, squareCells, type SampleLike } from "@/lib/squares/square-values";
 import { createWindow } from "@/lib/spatial";
-import { runSquareTests } from "./square-tests";
+import { squareTestView } from "@/lib/patterns-view/square-view";
+import { runSquareTests as runStored } from "./square-tests";
 import type { ScopeData } from "./scope-data";
 
 const outer: [number, number][] = [
@@ -120,6 +121,9 @@ describe("runSquareTests on a cut trench", () => {
     return out;
   };
   const params = { nsim: 0, level: 0.05 };
+  /** The tests as the workspace shows them. */
+  const runSquareTests = async (...args: Parameters<typeof runStored>) =>
+    (await runStored(...args)).map((t) => squareTestView(t, () => "FLK"));
 
   it("takes neighbours from the cut squares and says so in the result and its cautions", async () => {
     const [t] = await runSquareTests(

@@ -1,9 +1,15 @@
 import "server-only";
-import { runSquareTestAsync, SpatialInputError, type LatticeSquare, type SquareTestResult } from "@/lib/spatial";
+import {
+  parseSquareTestSpec,
+  runSquareTestAsync,
+  SpatialInputError,
+  type LatticeSquare,
+  type SquareTestSpec,
+} from "@/lib/spatial";
 import { clippedSquareShape, type SquareShape } from "@/lib/geometry/square-shape";
 import { latticeSquares, squareCells, type SampleLike, type SquareCell } from "@/lib/squares/square-values";
 import { gridOf, trenchSquares } from "../squares";
-import type { SquareCellOut, SquareTestOut, SquareVerdictWord } from "@/lib/api/run-result";
+import type { SquareUnit, StoredSquareTest } from "@/lib/api/run-result";
 import type { SquareTest } from "@/lib/schemas/run";
 import type { ScopeData } from "./scope-data";
 
@@ -19,23 +25,28 @@ import type { ScopeData } from "./scope-data";
  * The run's permutations and level serve every test; test k of the run uses seed + k.
  */
 
-export const SQUARE_QUESTIONS: Record<SquareTest["kind"], string> = {
-  moran:
-    "Do squares with similar counts lie next to each other more than if the counts were placed over the dug squares at random (Moran's I)?",
-  geary:
-    "Do neighbouring squares differ less (or more) in their counts than if the counts were placed at random (Geary's C, which weighs differences between neighbours)?",
-  "local-moran":
-    "Which squares sit among neighbours like themselves (high among high, low among low), or stand out from them, more than chance placement allows (local Moran's I)?",
-  "getis-ord":
-    "Where are the hot and cold spots: squares whose neighbourhood, the square included, holds more or fewer finds than chance placement allows (Getis–Ord Gi*)?",
-};
-
-const VERDICT: Record<SquareTestResult["verdict"], SquareVerdictWord> = {
-  clustered: "clustered",
-  dispersed: "dispersed",
-  "hot or cold spots": "hot-spots",
-  "no evidence against the null": "no-evidence",
-};
+/**
+ * The engine's spec for one asked-for square-count test (rook and queen from the squares as the outline
+ * cuts them; a distance band of 1.5 squares unless given), with the run's permutations, seed and level.
+ */
+export function squareTestSpec(
+  t: SquareTest,
+  gridSize: number,
+  run: { permutations: number; seed: number; level: number },
+): SquareTestSpec {
+  return parseSquareTestSpec({
+    type: t.kind,
+    neighbours:
+      t.neighbours === "distance"
+        ? { type: "distance", upper: t.band ?? 1.5 * gridSize }
+        : { type: t.neighbours, from: "shapes" },
+    style: t.style,
+    variable: t.variable,
+    minArea: t.minArea,
+    isolated: "drop",
+    ...run,
+  });
+}
 
 /** Why the square tests cannot run in this scope (no grid, no records). */
 export function squareRefusals(data: ScopeData, tests: SquareTest[]): string[] {
@@ -85,7 +96,7 @@ export async function runSquareTests(
   params: { nsim: number; level: number },
   seed: number,
   options: SquareTestsProgress = {},
-): Promise<SquareTestOut[]> {
+): Promise<StoredSquareTest[]> {
   if (!tests.length) return [];
   const total = squareTestCount(data, tests);
   const grid = gridOf(data.trench);
@@ -115,7 +126,7 @@ export async function runSquareTests(
     const key = `${c.col},${c.row}`;
     return shapes.get(key) ?? shapes.set(key, clippedSquareShape(data.window, c)).get(key)!;
   };
-  const out: SquareTestOut[] = [];
+  const out: StoredSquareTest[] = [];
   let k = 0;
   for (const t of tests) {
     for (const cls of data.classes) {
@@ -139,92 +150,22 @@ export async function runSquareTests(
                 : `Squares were dug through different numbers of spits or contexts in this scope (${Math.min(...depth)} to ${Math.max(...depth)}): the counts are summed per square, so a square dug deeper holds more finds whatever their spread. Test the density, or contexts dug evenly.`,
             ]
           : [];
-      const spec = {
-        type: t.kind,
-        neighbours:
-          t.neighbours === "distance"
-            ? { type: "distance", upper: t.band ?? 1.5 * grid.size }
-            : { type: t.neighbours, from: "shapes" },
-        style: t.style,
-        variable: t.variable,
-        minArea: t.minArea,
-        isolated: "drop",
-        permutations: params.nsim,
-        seed: testSeed,
-        level: params.level,
-      };
-      const base = {
-        kind: t.kind,
-        classId: cls.id,
-        question: SQUARE_QUESTIONS[t.kind],
-        style: t.style,
-        variable: t.variable,
-        permutations: params.nsim,
-        seed: testSeed,
-        gridSize: grid.size,
-      };
-      const cellOf = (label: string, value: number, extra: Partial<SquareCellOut> = {}): SquareCellOut => {
-        const c = byLabel.get(label)!;
-        return {
-          label,
-          x0: c.x0,
-          y0: c.y0,
-          x1: c.x1,
-          y1: c.y1,
-          area: c.excavated,
-          value,
-          statistic: null,
-          p: null,
-          pAdjusted: null,
-          class: "none",
-          ...extra,
-        };
-      };
+      const spec = squareTestSpec(t, grid.size, { permutations: params.nsim, seed: testSeed, level: params.level });
       try {
-        const r = await runSquareTestAsync({ squares }, spec, {
+        const result = await runSquareTestAsync({ squares }, spec, {
           signal: options.signal,
           onProgress: (f) => options.onProgress?.((done + f) / total),
         });
-        const cells = r.squares
-          ? r.squares.map((q) =>
-              cellOf(q.id, q.value, { statistic: q.statistic, p: q.p, pAdjusted: q.pAdjusted, class: q.class }),
-            )
-          : squares
-              .filter((q) => !r.leftOut.some((l) => l.id === q.id))
-              .map((q) => cellOf(q.id, t.variable === "density" ? q.value / q.area : q.value));
-        out.push({
-          ...base,
-          verdict: VERDICT[r.verdict],
-          sentence: `${r.summary} Null: ${r.nullName}; seed ${testSeed}.`,
-          p: r.p,
-          pFrom: r.pFrom,
-          notes: [...uneven, ...r.cautions],
-          n: r.n,
-          leftOut: r.leftOut.map((l) => ({ label: l.id, reason: l.reason })),
-          neighbours: r.neighbours,
-          statistic: r.global?.statistic ?? null,
-          expected: r.global?.expected ?? null,
-          z: r.global?.z.randomisation ?? null,
-          cells,
+        // Each square handed to the engine came from a cell: placed on the plan by its whole grid square.
+        const units = squares.flatMap((q): SquareUnit[] => {
+          const c = byLabel.get(q.id);
+          return c ? [{ label: q.id, x0: c.x0, y0: c.y0, x1: c.x1, y1: c.y1, area: q.area, count: q.value }] : [];
         });
+        out.push({ classId: cls.id, gridSize: grid.size, units, result, cautions: uneven });
       } catch (err) {
         if (!(err instanceof SpatialInputError)) throw err;
         // This class cannot be tested here (too few squares, all alike): said on the result, the run goes on.
-        out.push({
-          ...base,
-          verdict: "not-run",
-          sentence: `Not run for ${cls.code}: ${err.message}`,
-          p: null,
-          pFrom: null,
-          notes: [err.message],
-          n: squares.length,
-          leftOut: [],
-          neighbours: "",
-          statistic: null,
-          expected: null,
-          z: null,
-          cells: [],
-        });
+        out.push({ classId: cls.id, gridSize: grid.size, spec, n: squares.length, refused: err.message });
       }
       options.onProgress?.(k / total);
     }

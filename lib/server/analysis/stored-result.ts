@@ -78,7 +78,8 @@ export function storedTests(row: Pick<AnalysisRun, "params" | "scope" | "result"
 export function readRunResult(row: Pick<AnalysisRun, "params" | "scope" | "result">): RunResult | null {
   const stored: unknown = row.result;
   if (stored === null || stored === undefined) return null;
-  return isFormerResult(stored) ? readFormerResult(stored, storedTests(row)) : (stored as RunResult);
+  if (!isFormerResult(stored)) return stored as RunResult;
+  return readFormerResult(stored, storedTests(row), (row.params as RunParamsStored).squareTests ?? []);
 }
 
 /** A stored run's parameters and result in today's shapes, as the API and the deposition package give them. */
