@@ -1,14 +1,9 @@
+import { boundsOf } from "@/lib/geometry/plan-view";
 import type { PolygonJson } from "@/lib/server/reads/row-types";
 
 /** A small static drawing of a trench outline (holes shown as paper), for lists and the overview. */
 export function OutlineSketch({ outline, size = 120 }: { outline: PolygonJson; size?: number }) {
-  const all = outline.coordinates.flat();
-  const xs = all.map((p) => p[0]);
-  const ys = all.map((p) => p[1]);
-  const minX = Math.min(...xs),
-    maxX = Math.max(...xs),
-    minY = Math.min(...ys),
-    maxY = Math.max(...ys);
+  const { minX, maxX, minY, maxY } = boundsOf(outline.coordinates.flat());
   const span = Math.max(maxX - minX, maxY - minY) || 1;
   const pad = span * 0.05;
   // Site grid north is up: flip y for the screen.

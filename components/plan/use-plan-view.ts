@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useRef, useState } from "react";
 import type { Pt, Rings } from "@/lib/geometry/outline-edit";
-import { fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view";
+import { boundsOf, fitBounds, gridLines, toScreen, zoomAt } from "@/lib/geometry/plan-view";
 import type { FindRow } from "./rows";
 import { createViewStore } from "./view-store";
 
@@ -29,12 +29,7 @@ export function usePlanView(rings: Rings, savedRings: Rings) {
   const trenchBounds = useCallback(() => {
     const pts = (rings[0]?.length ? rings : savedRings).flat();
     if (!pts.length) return { minX: 0, minY: 0, maxX: 10, maxY: 10 };
-    return {
-      minX: Math.min(...pts.map((p) => p[0])),
-      minY: Math.min(...pts.map((p) => p[1])),
-      maxX: Math.max(...pts.map((p) => p[0])),
-      maxY: Math.max(...pts.map((p) => p[1])),
-    };
+    return boundsOf(pts);
   }, [rings, savedRings]);
   const zoomToTrench = useCallback(() => {
     if (!size.width) return;

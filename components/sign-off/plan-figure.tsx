@@ -1,4 +1,5 @@
 import type { PolygonJson } from "@/lib/server/reads/row-types";
+import { boundsOf } from "@/lib/geometry/plan-view";
 import { symbolPath, type SymbolShape } from "@/lib/geometry/symbol-paths";
 
 export type PlanPoint = { x: number; y: number; symbol: string; colour: string; label: string };
@@ -25,13 +26,7 @@ export function PlanFigure({
   points: PlanPoint[];
   width?: number;
 }) {
-  const all = outline.coordinates.flat();
-  const xs = all.map((p) => p[0]);
-  const ys = all.map((p) => p[1]);
-  const minX = Math.min(...xs),
-    maxX = Math.max(...xs),
-    minY = Math.min(...ys),
-    maxY = Math.max(...ys);
+  const { minX, maxX, minY, maxY } = boundsOf(outline.coordinates.flat());
   const span = Math.max(maxX - minX, maxY - minY) || 1;
   const pad = span * 0.12;
   const vx = minX - pad,

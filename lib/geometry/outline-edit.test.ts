@@ -10,7 +10,7 @@ import {
   ringsToPolygon,
   type Rings,
 } from "./outline-edit";
-import { fitBounds, gridLines, niceStep, scaleBar, toScreen, toWorld, zoomAt } from "./plan-view";
+import { boundsOf, fitBounds, gridLines, niceStep, scaleBar, toScreen, toWorld, zoomAt } from "./plan-view";
 
 const square: Rings = [
   [
@@ -161,6 +161,12 @@ describe("plan view", () => {
     const z = zoomAt(v, 2, 200, 250);
     expect(toWorld(z, 200, 250)).toEqual([2, 3]);
     expect(z.scale).toBe(100);
+  });
+  it("bounds every point given, one point as itself, and an empty list as an empty box", () => {
+    const spread = [...square[0]!, [12, -2] as [number, number], [4, 9] as [number, number]];
+    expect(boundsOf(spread)).toEqual({ minX: 0, minY: -2, maxX: 12, maxY: 9 });
+    expect(boundsOf([[-3.5, 2]])).toEqual({ minX: -3.5, minY: 2, maxX: -3.5, maxY: 2 });
+    expect(boundsOf([])).toEqual({ minX: Infinity, minY: Infinity, maxX: -Infinity, maxY: -Infinity });
   });
   it("fits bounds into the viewport", () => {
     const f = fitBounds({ minX: 0, minY: 0, maxX: 10, maxY: 6 }, 1000, 600, 50);

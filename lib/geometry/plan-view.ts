@@ -5,6 +5,21 @@
 export type View = { scale: number; ox: number; oy: number };
 export type Bounds = { minX: number; minY: number; maxX: number; maxY: number };
 
+/** The smallest box holding every point (x, y): an empty list gives an empty box (min Infinity, max −Infinity). */
+export function boundsOf(points: Iterable<readonly [number, number]>): Bounds {
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
+  for (const [x, y] of points) {
+    minX = Math.min(minX, x);
+    minY = Math.min(minY, y);
+    maxX = Math.max(maxX, x);
+    maxY = Math.max(maxY, y);
+  }
+  return { minX, minY, maxX, maxY };
+}
+
 export const MIN_SCALE = 2;
 export const MAX_SCALE = 20_000;
 

@@ -1,6 +1,7 @@
 import "server-only";
 import initSqlJs, { type SqlJsStatic } from "sql.js";
 import wkx from "wkx";
+import { boundsOf } from "@/lib/geometry/plan-view";
 
 /**
  * An OGC GeoPackage (OGC 12-128r18, version 1.2) written with SQLite compiled to WebAssembly: the three
@@ -92,9 +93,8 @@ type Envelope = [minX: number, maxX: number, minY: number, maxY: number];
 
 function envelopeOf(g: GpkgGeometry): Envelope {
   if (g.type === "Point") return [g.x, g.x, g.y, g.y];
-  const xs = g.rings.flat().map((p) => p[0]);
-  const ys = g.rings.flat().map((p) => p[1]);
-  return [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const b = boundsOf(g.rings.flat());
+  return [b.minX, b.maxX, b.minY, b.maxY];
 }
 
 function wkb(g: GpkgGeometry): Uint8Array {

@@ -21,6 +21,7 @@ import {
   type PDFPage,
 } from "pdf-lib";
 import type { PolygonJson } from "@/db/schema";
+import { boundsOf } from "@/lib/geometry/plan-view";
 import { symbolPath, type SymbolShape } from "@/lib/geometry/symbol-paths";
 import { formatWhen } from "@/lib/words/when";
 import type { TrenchRecord } from "./trench-record-data";
@@ -208,9 +209,7 @@ function drawPlan(
 ): void {
   const all = [outline, ...extents.map((e) => e.extent)].flatMap((p) => p.coordinates.flat());
   if (!all.length) return;
-  const xs = all.map((p) => p[0]);
-  const ys = all.map((p) => p[1]);
-  const [minX, maxX, minY, maxY] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const { minX, maxX, minY, maxY } = boundsOf(all);
   const boxH = 360;
   const k = Math.min(WIDTH / Math.max(maxX - minX, 1e-6), (boxH - 30) / Math.max(maxY - minY, 1e-6));
   w.room(boxH);

@@ -1,6 +1,7 @@
 import "server-only";
 import sharp from "sharp";
 import { applyFit, invertFit, mat3 } from "@/lib/geometry/photo-fit";
+import { boundsOf } from "@/lib/geometry/plan-view";
 import { badInput } from "../errors";
 
 /** Longest side of the warped raster. */
@@ -38,10 +39,7 @@ export async function warpProjective(display: Buffer, matrix: number[]): Promise
     });
   }
   const grid = corners.map(([px, py]) => applyFit(matrix, px, py));
-  const minX = Math.min(...grid.map((g) => g[0]));
-  const maxX = Math.max(...grid.map((g) => g[0]));
-  const minY = Math.min(...grid.map((g) => g[1]));
-  const maxY = Math.max(...grid.map((g) => g[1]));
+  const { minX, maxX, minY, maxY } = boundsOf(grid);
   const ppm = Math.min(
     Math.sqrt((w * h) / ((maxX - minX) * (maxY - minY))),
     WARP_PX / Math.max(maxX - minX, maxY - minY),
