@@ -7,6 +7,19 @@ import { formatMetres } from "@/lib/geometry/plan-view";
 
 export type DraftPoint = { px: number; py: number; x: string; y: string };
 
+/** The control points being placed and the fit asked for: what the plan screen hands the panel. */
+export type PhotoFitControls = {
+  points: DraftPoint[];
+  active: number | null;
+  model: FitModel | "auto";
+  onPoints: (p: DraftPoint[]) => void;
+  onActive: (i: number | null) => void;
+  onModel: (m: FitModel | "auto") => void;
+  onFit: () => void;
+  fitting: boolean;
+  error: string | null;
+};
+
 /** Control points: tap the photo here, then type (or tap on the plan) the peg's grid position. */
 export function PhotoFitPanel({
   photo,
@@ -20,19 +33,7 @@ export function PhotoFitPanel({
   fitting,
   error,
   canEdit,
-}: {
-  photo: PhotoView;
-  points: DraftPoint[];
-  active: number | null;
-  model: FitModel | "auto";
-  onPoints: (p: DraftPoint[]) => void;
-  onActive: (i: number | null) => void;
-  onModel: (m: FitModel | "auto") => void;
-  onFit: () => void;
-  fitting: boolean;
-  error: string | null;
-  canEdit: boolean;
-}) {
+}: PhotoFitControls & { photo: PhotoView; canEdit: boolean }) {
   const img = useRef<HTMLImageElement>(null);
   const w = photo.width ?? 1;
   const h = photo.height ?? 1;

@@ -1,8 +1,7 @@
 "use client";
 
-import type { FitModel } from "@/lib/geometry/photo-fit";
 import type { PhotoView } from "@/lib/geometry/photo-fit-input";
-import { PhotoFitPanel, type DraftPoint } from "./photo-fit-panel";
+import { PhotoFitPanel, type PhotoFitControls } from "./photo-fit-panel";
 import { PhotoUpload } from "./photo-upload";
 
 export function PhotoPanel({
@@ -24,17 +23,7 @@ export function PhotoPanel({
   onPhoto: (id: string) => void;
   onUploaded: (id: string) => void;
   onDelete: (id: string) => void;
-  fit: {
-    points: DraftPoint[];
-    active: number | null;
-    model: FitModel | "auto";
-    onPoints: (p: DraftPoint[]) => void;
-    onActive: (i: number | null) => void;
-    onModel: (m: FitModel | "auto") => void;
-    onFit: () => void;
-    fitting: boolean;
-    error: string | null;
-  };
+  fit: PhotoFitControls;
 }) {
   return (
     <div className="space-y-4">
