@@ -1,9 +1,9 @@
 import "server-only";
 import { and, asc, count, eq, inArray } from "drizzle-orm";
+import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { Db } from "@/db/client";
 import {
   analysisRuns,
-  artefactClasses,
   boxes,
   contextRelations,
   contexts,
@@ -18,6 +18,7 @@ import {
 import { findsByNumber } from "@/lib/server/finds";
 import { listBenchmarks } from "@/lib/server/benchmarks";
 import { allSamples } from "@/lib/server/samples";
+import { listClasses } from "@/lib/server/artefact-classes";
 import { allDrawings } from "@/lib/server/drawings";
 import { allRecordPhotos, type RecordPhotoRow } from "@/lib/server/record-photos";
 import { facingWords } from "@/lib/schemas/record-photo";
@@ -141,6 +142,13 @@ export async function samplesRegister(db: Db, scope: PackageScope): Promise<Pack
   );
 }
 
+/** Rows of the package's site, and only of its trench when the package is a trench's. */
+function inScope(table: { siteId: AnyPgColumn; trenchId: AnyPgColumn }, scope: PackageScope) {
+  return scope.trenchId
+    ? and(eq(table.siteId, scope.siteId), eq(table.trenchId, scope.trenchId))
+    : eq(table.siteId, scope.siteId);
+}
+
 export const boxColumns: readonly CsvColumn[] = [
   ["number", "number"],
   ["store", "text"],
@@ -154,12 +162,8 @@ export const boxColumns: readonly CsvColumn[] = [
  * only the boxes that hold something of that trench).
  */
 export async function boxesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
-  const findsIn = scope.trenchId
-    ? and(eq(finds.siteId, scope.siteId), eq(finds.trenchId, scope.trenchId))
-    : eq(finds.siteId, scope.siteId);
-  const samplesIn = scope.trenchId
-    ? and(eq(samples.siteId, scope.siteId), eq(samples.trenchId, scope.trenchId))
-    : eq(samples.siteId, scope.siteId);
+  const findsIn = inScope(finds, scope);
+  const samplesIn = inScope(samples, scope);
   const [rows, findCounts, sampleCounts] = await Promise.all([
     db.select().from(boxes).where(eq(boxes.siteId, scope.siteId)).orderBy(asc(boxes.number)),
     db.select({ boxId: finds.boxId, n: count() }).from(finds).where(findsIn).groupBy(finds.boxId),
@@ -206,16 +210,9 @@ export const classColumns: readonly CsvColumn[] = [
 ];
 
 export async function classesRegister(db: Db, scope: PackageScope): Promise<PackageRegister> {
-  const inScope = scope.trenchId
-    ? and(eq(finds.siteId, scope.siteId), eq(finds.trenchId, scope.trenchId))
-    : eq(finds.siteId, scope.siteId);
   const [rows, found] = await Promise.all([
-    db
-      .select()
-      .from(artefactClasses)
-      .where(eq(artefactClasses.siteId, scope.siteId))
-      .orderBy(asc(artefactClasses.code)),
-    db.select({ classId: finds.classId, n: count() }).from(finds).where(inScope).groupBy(finds.classId),
+    listClasses(db, scope.siteId),
+    db.select({ classId: finds.classId, n: count() }).from(finds).where(inScope(finds, scope)).groupBy(finds.classId),
   ]);
   const counts = new Map(found.map((f) => [f.classId, Number(f.n)]));
   return register(
