@@ -1,12 +1,13 @@
 import "server-only";
-import { and, asc, eq, sql } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import type { Db, Tx } from "@/db/client";
-import { findSections, type FindSection, type Site, type Trench } from "@/db/schema";
+import { contexts, findSections, type FindSection, type Site, type Trench } from "@/db/schema";
 import { buildSectionFigure, sectionSvg, type ContextLevels, type SectionFigure } from "@/lib/levels/section-figure";
 import type { SectionCreate } from "@/lib/schemas/section";
 import { recordAudit } from "./audit";
 import { conflict, notFound } from "./errors";
 import { allFinds } from "./finds";
+import { contextRanges } from "./import/lookups";
 import type { SiteActor } from "./membership";
 import { getTrench } from "./trenches";
 
@@ -79,22 +80,17 @@ export async function deleteSection(db: Db, actor: SiteActor, trenchId: string, 
  * among the spot levels taken on them and the levels of their spits. A context with none has nulls.
  */
 export async function trenchContextLevels(db: Db | Tx, siteId: string, trenchId: string): Promise<ContextLevels[]> {
-  type Row = { number: number; top: number | string | null; base: number | string | null };
-  const result = await db.execute(sql`
-    with tops as (
-      select s.target_id as context_id, s.level from spot_levels s where s.site_id = ${siteId} and s.target = 'context_top'
-      union all select p.context_id, p.top_level from spits p where p.site_id = ${siteId} and p.top_level is not null
-    ), bases as (
-      select s.target_id as context_id, s.level from spot_levels s where s.site_id = ${siteId} and s.target = 'context_base'
-      union all select p.context_id, p.base_level from spits p where p.site_id = ${siteId} and p.base_level is not null
-    )
-    select c.number,
-      (select max(t.level) from tops t where t.context_id = c.id) as top,
-      (select min(b.level) from bases b where b.context_id = c.id) as base
-    from contexts c where c.site_id = ${siteId} and c.trench_id = ${trenchId} order by c.number`);
-  const rows = (result as unknown as { rows: Row[] }).rows;
-  const num = (v: number | string | null) => (v === null ? null : Number(v));
-  return rows.map((r) => ({ number: Number(r.number), top: num(r.top), base: num(r.base) }));
+  const ranges = await contextRanges(db, siteId);
+  const rows = await db
+    .select({ id: contexts.id, number: contexts.number })
+    .from(contexts)
+    .where(and(eq(contexts.siteId, siteId), eq(contexts.trenchId, trenchId)))
+    .orderBy(asc(contexts.number));
+  return rows.map((c) => ({
+    number: c.number,
+    top: ranges.get(c.id)?.top ?? null,
+    base: ranges.get(c.id)?.base ?? null,
+  }));
 }
 
 /** The finds of a trench as a section reads them (position, level, context, class face). */
