@@ -2,16 +2,10 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { readReading, reduceAsBooked } from "./level-book";
 import { reduceLevelRun, type LevelBookRow } from "./levelling";
+import { workedBook } from "./worked-example";
 
-/** The worked example of levelling.test.ts (readings made up, every RL worked by hand). */
-const book: LevelBookRow[] = [
-  { station: "BM A", backsight: 1.525 },
-  { station: "find 17", intermediate: 1.87 },
-  { station: "find 18", intermediate: 2.14 },
-  { station: "CP1", foresight: 2.615, backsight: 0.985 },
-  { station: "top of 1005", intermediate: 1.005 },
-  { station: "BM B", foresight: 1.76 },
-];
+/** The worked example (worked-example.ts: readings made up, every RL worked by hand). */
+const book = workedBook;
 
 describe("reduceAsBooked", () => {
   it("reduces the worked example line by line, with the hand-worked levels and closure", () => {
