@@ -113,6 +113,13 @@ export const boxRecord = z.object({
   updatedAt: wireDate,
 });
 export const deletedBox = z.object({ deleted: id, number: z.number() });
+/** A box emptied into another: the two boxes' numbers and the finds and samples moved, by number. */
+export const boxEmptied = z.object({
+  from: z.number(),
+  into: z.number(),
+  findNumbers: z.array(z.number()),
+  sampleNumbers: z.array(z.number()),
+});
 export const boxPage = z.object({
   page: z.number(),
   pageSize: z.number(),

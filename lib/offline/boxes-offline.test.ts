@@ -108,6 +108,45 @@ describe("adding a box on a device with no connection", () => {
   });
 });
 
+describe("emptying a box into another on a device with no connection", () => {
+  const intoBoxId = "8f9e0d1c-2b3a-4c5d-9e6f-7a8b9c0d1e2f";
+
+  it("waits in the outbox with a key and a label; sent in order when the connection is back", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const answer = await write(buildRequest("boxEmpty", { siteId, boxId }, { intoBoxId }));
+    expect(answer).toEqual({ label: "empty a box into another", pending: true });
+    const [entry] = await outbox.all();
+    expect(entry).toMatchObject({ operation: "boxEmpty", method: "POST", label: "empty a box into another", siteId });
+    expect(entry!.key).toMatch(/^[0-9a-f-]{36}$/);
+    expect(worksOffline("boxEmpty")).toBe(true);
+    const s = standInServer();
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 1, refused: 0, stopped: "done" });
+    expect(s.seen.map((r) => [r.url, JSON.parse(r.body!)])).toEqual([
+      [`/api/sites/${siteId}/boxes/${boxId}/empty`, { intoBoxId }],
+    ]);
+    expect(s.seen[0]!.headers["idempotency-key"]).toBe(entry!.key);
+  });
+
+  it("into a box added on the device, it waits for that box and goes under the box's server id", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    const made = (await write(buildRequest("boxesCreate", { siteId }, { number: 20 } as never))) as { id: string };
+    await write(buildRequest("boxEmpty", { siteId, boxId }, { intoBoxId: made.id }));
+    const s = standInServer();
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 2, refused: 0, stopped: "done" });
+    expect(JSON.parse(s.seen[1]!.body!).intoBoxId).toBe(await outbox.serverIdOf(made.id));
+  });
+
+  it("the other box deleted meanwhile: refused on arrival, kept in needs attention with the server's words", async () => {
+    const write = createWritePath({ outbox, online: () => false });
+    await write(buildRequest("boxEmpty", { siteId, boxId }, { intoBoxId }));
+    const words = "The box to empty it into is not one of this site's boxes: it may have been deleted.";
+    const s = standInServer(() => new ApiError(words, 400, { intoBoxId: ["Unknown box."] }));
+    expect(await syncOutbox({ outbox, send: s.send })).toEqual({ sent: 0, refused: 1, stopped: "done" });
+    const [held] = await outbox.all();
+    expect(held).toMatchObject({ state: "attention", refusal: { status: 400, message: words } });
+  });
+});
+
 describe("the box register on a device with boxes not yet sent", () => {
   it("lists the site's queued boxes, marked waiting, with changes made before sending, until they sync", async () => {
     const write = createWritePath({ outbox, online: () => false });

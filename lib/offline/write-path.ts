@@ -64,6 +64,9 @@ const offlineOps: Partial<Record<ApiName, OfflineKind>> = {
   boxUpdate: "edit",
   // A box made by mistake is deleted where it was noticed; the server refuses it on arrival if it holds anything.
   boxDelete: "delete",
+  // A box emptied into another on the shelf is recorded there; on arrival the server moves what the box holds
+  // then, or refuses (the other box deleted meanwhile, or nothing left in it) and the entry needs attention.
+  boxEmpty: "bulk",
 };
 
 export const IDEMPOTENCY_HEADER = "idempotency-key";
@@ -237,6 +240,7 @@ function bulkLabel(operation: string, body: Record<string, unknown>): string {
     return `${verb ?? "change"} ${many("findIds", "find")}`;
   }
   if (operation === "samplesStore") return `store ${many("sampleIds", "sample")}`;
+  if (operation === "boxEmpty") return "empty a box into another";
   return `status of ${many("sampleIds", "sample")}`;
 }
 

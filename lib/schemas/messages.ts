@@ -105,6 +105,7 @@ export const fieldLabels: Record<string, string> = {
   processing: "Processing",
   sentTo: "Sent to",
   boxId: "Box",
+  intoBoxId: "Box to move everything into",
   location: "Kept at",
   store: "Store",
   findIds: "Finds picked",

@@ -81,7 +81,17 @@ export const boxCreateSchema = z
 /** No defaults here: a field left out stays as it is. */
 export const boxUpdateSchema = z.object(boxFields).partial().strict();
 export const boxListQuery = pageQuery.extend({ store: z.string().trim().max(200).optional() });
+/** Everything in a box moved into another box of the site. */
+export const boxEmptySchema = z
+  .object({
+    intoBoxId: z
+      .string({ error: "Pick the box to empty it into." })
+      .min(1, "Pick the box to empty it into.")
+      .pipe(uuid),
+  })
+  .strict();
 
 export type BoxCreate = z.infer<typeof boxCreateSchema>;
 export type BoxUpdate = z.infer<typeof boxUpdateSchema>;
 export type BoxListQuery = z.infer<typeof boxListQuery>;
+export type BoxEmpty = z.infer<typeof boxEmptySchema>;

@@ -28,6 +28,10 @@ function refusalOf(f: Find, input: Process): string | null {
   return null;
 }
 
+/** What a find's audit entry records of its processing and place: boxing a find, or emptying its box. */
+export const processingOf = (f: Find | undefined) =>
+  f && { processing: f.processing, sentTo: f.sentTo, boxId: f.boxId, location: f.location, version: f.version };
+
 /** The after-the-trench change of many finds, all or nothing; one audit entry per find. */
 export async function processFinds(
   tx: Tx,
@@ -72,8 +76,6 @@ export async function processFinds(
     )
     .returning();
   const byId = new Map(after.map((a) => [a.id, a]));
-  const pick = (f: Find | undefined) =>
-    f && { processing: f.processing, sentTo: f.sentTo, boxId: f.boxId, location: f.location, version: f.version };
   for (const f of rows)
     await recordAudit(tx, {
       siteId: actor.site.id,
@@ -81,8 +83,8 @@ export async function processFinds(
       action: "process",
       recordType: "find",
       recordId: f.id,
-      before: pick(f),
-      after: { ...pick(byId.get(f.id)), ...(box && { boxNumber: box.number }) },
+      before: processingOf(f),
+      after: { ...processingOf(byId.get(f.id)), ...(box && { boxNumber: box.number }) },
     });
   return { action: input.action, changed: rows.length, numbers: rows.map((r) => r.number) };
 }

@@ -521,6 +521,7 @@ const outsideTheLock: Record<string, string> = {
   boxesCreate: "a box of the finds store; no find or context changes",
   boxUpdate: "a box's number, store or note; no find or context changes",
   boxDelete: "only an empty box is deleted; no find or context changes (boxes.test.ts)",
+  boxEmpty: "where finds and samples are kept comes after the trench; their sheets are unchanged (boxes.test.ts)",
   samplesStatus: "post-excavation processing comes after the trench; the sample's sheet is unchanged (samples.test.ts)",
   numberBlocksCreate: "reserves numbers; records nothing in a context",
   numberBlockRelease: "numbers only; records keep theirs",

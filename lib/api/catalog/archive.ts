@@ -8,7 +8,13 @@ import {
 } from "@/lib/schemas/sample";
 import { findsBulkSchema } from "@/lib/schemas/finds-bulk";
 import { findListQuery } from "@/lib/schemas/find";
-import { boxCreateSchema, boxListQuery, boxUpdateSchema, samplesStoreSchema } from "@/lib/schemas/processing";
+import {
+  boxCreateSchema,
+  boxEmptySchema,
+  boxListQuery,
+  boxUpdateSchema,
+  samplesStoreSchema,
+} from "@/lib/schemas/processing";
 import { depositionQuery } from "@/lib/schemas/export";
 import { directorOnly, everyone, recorders, type ApiOperation } from "../operation";
 import {
@@ -21,6 +27,7 @@ import {
 import { recordPhotoDeleteSchema, recordPhotoListQuery, recordPhotoUpdateSchema } from "@/lib/schemas/record-photo";
 import {
   boxPage,
+  boxEmptied,
   boxRecord,
   boxWithContents,
   deletedBox,
@@ -264,5 +271,14 @@ export const archiveApi = {
     doing: "delete boxes",
     from: "none",
     response: deletedBox,
+  },
+  boxEmpty: {
+    method: "POST",
+    path: "/api/sites/{siteId}/boxes/{boxId}/empty",
+    summary: "Move everything in a box (its finds and samples) into another of the site's boxes, all or nothing",
+    roles: everyone,
+    doing: "empty boxes into others",
+    input: boxEmptySchema,
+    response: boxEmptied,
   },
 } as const satisfies Record<string, ApiOperation>;

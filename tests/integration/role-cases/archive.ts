@@ -1,3 +1,4 @@
+import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import type { SiteFixture } from "../../support/fixtures";
@@ -11,6 +12,7 @@ import * as findsBulkRoute from "@/app/api/sites/[siteId]/finds/bulk/route";
 import * as samplesStoreRoute from "@/app/api/sites/[siteId]/samples/store/route";
 import * as boxesRoute from "@/app/api/sites/[siteId]/boxes/route";
 import * as boxRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/route";
+import * as boxEmptyRoute from "@/app/api/sites/[siteId]/boxes/[boxId]/empty/route";
 import * as recordPhotoRoute from "@/app/api/sites/[siteId]/record-photos/[photoId]/route";
 import { insertFind } from "./core";
 
@@ -168,5 +170,10 @@ export const archiveCases: RoleCases = {
   boxDelete: async (fx) => {
     const b = await makeBox(fx);
     return { mod: boxRoute, params: { siteId: fx.site.id, boxId: b.id } };
+  },
+  boxEmpty: async (fx) => {
+    const [from, into, f] = [await makeBox(fx), await makeBox(fx), await insertFind(fx)];
+    await (await getDb()).update(schema.finds).set({ boxId: from.id }).where(eq(schema.finds.id, f.id));
+    return { mod: boxEmptyRoute, params: { siteId: fx.site.id, boxId: from.id }, body: { intoBoxId: into.id } };
   },
 };

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { BoxDelete } from "@/components/boxes/box-delete";
+import { BoxEmpty } from "@/components/boxes/box-empty";
 import { BoxForm } from "@/components/boxes/box-form";
 import { SiteNav } from "@/components/site-nav";
 import { isPublicError } from "@/lib/server/errors";
@@ -15,10 +16,13 @@ export const metadata: Metadata = { title: "Box" };
 export default async function BoxPage({ params }: { params: Promise<{ siteId: string; boxId: string }> }) {
   const { siteId, boxId } = await params;
   const { actor, read } = await pageSiteActor(siteId);
-  const box = await read.box(boxId).catch((err) => {
-    if (isPublicError(err) && err.status === 404) notFound();
-    throw err;
-  });
+  const [box, choices] = await Promise.all([
+    read.box(boxId).catch((err) => {
+      if (isPublicError(err) && err.status === 404) notFound();
+      throw err;
+    }),
+    read.boxChoices(),
+  ]);
   return (
     <>
       <SiteNav siteId={siteId} role={actor.role} current={`/sites/${siteId}/boxes`} />
@@ -110,6 +114,12 @@ export default async function BoxPage({ params }: { params: Promise<{ siteId: st
             </table>
           )}
         </section>
+        <BoxEmpty
+          siteId={siteId}
+          box={{ id: box.id, number: box.number }}
+          holds={{ finds: box.finds.length, samples: box.samples.length }}
+          others={choices.filter((b) => b.id !== box.id)}
+        />
         <BoxDelete
           siteId={siteId}
           box={{ id: box.id, number: box.number }}
