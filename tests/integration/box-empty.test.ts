@@ -146,6 +146,24 @@ describe("emptying a box into another", () => {
     expect(await auditsOf([...from.finds.map((f) => f.id), from.samples[0]!.id])).toHaveLength(0);
   });
 
+  it("racing a deletion of the other box, one of the two is refused cleanly and no find is left in a lost box", async () => {
+    const fx = await makeSite();
+    const from = await boxWith(fx, 2, 1);
+    const into = await makeBox(fx);
+    session.userId = fx.people.specialist.id;
+    const [moved, deleted] = await Promise.all([
+      empty(fx, from.box.id, { intoBoxId: into.id }),
+      call(boxRoute, "DELETE", { siteId: fx.site.id, boxId: into.id }),
+    ]);
+    const outcome = [moved.status, deleted.status].join(" ");
+    expect(["200 409", "400 200"], JSON.stringify([moved.json, deleted.json])).toContain(outcome);
+    const where = await boxIdsOf(
+      schema.finds,
+      from.finds.map((f) => f.id),
+    );
+    expect(where).toEqual(outcome === "200 409" ? [into.id, into.id] : [from.box.id, from.box.id]);
+  });
+
   it("an empty box, or one of another site, is refused plainly", async () => {
     const [fx, other] = [await makeSite(), await makeSite()];
     const [bare, into] = [await makeBox(fx), await makeBox(fx)];
