@@ -4,9 +4,9 @@ import { unzipSync } from "fflate";
 import jsQR from "jsqr";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { parseLabelCode, labelPath } from "@/lib/labels/code";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { newPage, openBrowser, openDemoSite, shown, signIn } from "./support/browser";
 import { freshContext } from "./support/fresh-context";
 
 let browser: Browser;
@@ -16,12 +16,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close();
 });
-
-async function openSite(page: Page): Promise<string> {
-  await page.getByRole("listitem").filter({ hasText: "Whinnydale Holm" }).getByRole("link").first().click();
-  await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
-  return new URL(page.url()).pathname;
-}
 
 /** The QR codes in a PNG, read by jsqr from its pixels (what a phone's camera would see on paper). */
 async function decodeQr(png: Buffer): Promise<string | null> {
@@ -35,7 +29,7 @@ describe("the site archive: samples and labels", () => {
   it("a digger records a sample, prints its label, and the code read from the printed sheet opens the sample", async () => {
     const page = await newPage(browser);
     await signIn(page, "digger");
-    const site = await openSite(page);
+    const site = await openDemoSite(page);
     await page.goto(`${site}/samples/new`);
     await page.getByLabel("Kind of sample").selectOption("charcoal");
     await page.getByLabel("Volume (litres)").fill("0");
@@ -123,7 +117,7 @@ describe("the deposition package", () => {
   it("exports a package", async () => {
     const page = await newPage(browser);
     await signIn(page, "director");
-    const site = await openSite(page);
+    const site = await openDemoSite(page);
     await page.goto(`${site}/sign-off`);
     const panel = page.getByRole("region", { name: "Deposition package" });
     await panel.getByLabel("Package of").selectOption({ label: "the whole site" });

@@ -7,7 +7,7 @@
 import { readFile } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { newPage, openBrowser, openDemoSite, shown, signIn } from "./support/browser";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -18,8 +18,7 @@ afterAll(async () => {
 });
 
 async function openPatterns(page: Page) {
-  await page.getByRole("listitem").filter({ hasText: "Whinnydale Holm" }).getByRole("link").first().click();
-  await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
+  await openDemoSite(page);
   await page.getByRole("navigation", { name: "Site sections" }).getByRole("link", { name: "Patterns" }).click();
   await shown(page.getByRole("heading", { level: 1, name: "Patterns" }));
 }

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { newPage, openBrowser, shown, signIn } from "./support/browser";
+import { newPage, openBrowser, openDemoSite, shown, signIn } from "./support/browser";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -10,13 +10,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close();
 });
-
-/** Opens the demo site from the sites list and returns its base address. */
-async function openSite(page: Page): Promise<string> {
-  await page.getByRole("listitem").filter({ hasText: "Whinnydale Holm" }).getByRole("link").first().click();
-  await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
-  return new URL(page.url()).pathname;
-}
 
 async function openSheet(page: Page, site: string, number: number, description: string) {
   await page.goto(`${site}/contexts/new`);
@@ -41,7 +34,7 @@ describe("recording: context sheets, the matrix and the register", () => {
   it("a digger records three contexts with relations, is refused a loop, sees the matrix and opens a sheet from it", async () => {
     const page = await newPage(browser);
     await signIn(page, "digger");
-    const site = await openSite(page);
+    const site = await openDemoSite(page);
     const base = 6100 + Math.floor(Math.random() * 800) * 3;
     const [a, b, c] = [base, base + 1, base + 2];
     const sheetA = await openSheet(page, site, a, "Upper silt");
@@ -78,7 +71,7 @@ describe("recording: context sheets, the matrix and the register", () => {
   it("filters the register through the URL and exports exactly what it shows", async () => {
     const page = await newPage(browser);
     await signIn(page, "specialist");
-    const site = await openSite(page);
+    const site = await openDemoSite(page);
     await page.goto(`${site}/finds`);
     await shown(page.getByText("finds match"));
     await page.getByLabel("Context", { exact: true }).selectOption({ label: "1005" });

@@ -35,6 +35,13 @@ export async function newPage(browser: Browser, size: keyof typeof viewports = "
 /** Signs in through the real form as one of the demo users (the same steps the benchmarks take). */
 export { signInDemo as signIn } from "@/scripts/sign-in-demo";
 
+/** From the sites list, opens the demo site (Whinnydale Holm) and returns its base address. */
+export async function openDemoSite(page: Page): Promise<string> {
+  await page.getByRole("listitem").filter({ hasText: "Whinnydale Holm" }).getByRole("link").first().click();
+  await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
+  return new URL(page.url()).pathname;
+}
+
 /** Waits up to `timeout` ms for the locator to show; fails the test naming what was missing. */
 export async function shown(locator: import("playwright-core").Locator, timeout = 10_000): Promise<void> {
   try {
