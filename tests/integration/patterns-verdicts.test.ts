@@ -6,40 +6,18 @@
  * here have p at the floor 1/(s+1) or far above 0.05, so 199 decides them as clearly.
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
 import { session, call } from "../support/harness";
-import { getDb } from "@/db/client";
-import * as s from "@/db/schema";
-import { DEMO_USERS, seedDemo } from "@/scripts/seed/seed-demo";
+import { seedDemoSite, type DemoSite } from "../support/demo-site";
 import { runsIdle } from "@/lib/server/jobs/run-queue";
 import type { RunView } from "@/lib/api/patterns-responses";
 import { testViews } from "@/lib/patterns-view/test-view";
 import * as runsRoute from "@/app/api/sites/[siteId]/runs/route";
 import * as runRoute from "@/app/api/sites/[siteId]/runs/[runId]/route";
 
-let demo: Awaited<ReturnType<typeof demoScope>>;
-
-async function demoScope() {
-  const db = await getDb();
-  const { siteId } = await seedDemo(db);
-  const [trench] = await db
-    .select()
-    .from(s.trenches)
-    .where(and(eq(s.trenches.siteId, siteId), eq(s.trenches.code, "A")));
-  const contexts = await db.select().from(s.contexts).where(eq(s.contexts.trenchId, trench.id));
-  const classes = await db.select().from(s.artefactClasses).where(eq(s.artefactClasses.siteId, siteId));
-  const [specialist] = await db.select().from(s.users).where(eq(s.users.email, DEMO_USERS[1].email));
-  return {
-    siteId,
-    trenchId: trench.id,
-    specialist: specialist.id,
-    ctx: Object.fromEntries(contexts.map((c) => [c.number, c.id])) as Record<number, string>,
-    cls: Object.fromEntries(classes.map((c) => [c.code, c.id])) as Record<string, string>,
-  };
-}
+let demo: DemoSite;
 
 async function runToEnd(body: unknown): Promise<RunView> {
-  session.userId = demo.specialist;
+  session.userId = demo.people.specialist;
   const started = await call(runsRoute, "POST", { siteId: demo.siteId }, body);
   expect(started.status, JSON.stringify(started.json)).toBe(201);
   await runsIdle();
@@ -50,7 +28,7 @@ async function runToEnd(body: unknown): Promise<RunView> {
 }
 
 beforeAll(async () => {
-  demo = await demoScope();
+  demo = await seedDemoSite();
 });
 
 // Each test waits for whole runs of 199 simulations: on a busy two-core machine that can pass a minute.
