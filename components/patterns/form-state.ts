@@ -23,7 +23,8 @@ export type FormState = {
   /** Tests on counts by grid square: which ones, and their neighbours, weights, variable and minimum area. */
   squares: {
     kinds: SquareTestKind[];
-    neighbours: SquareTest["neighbours"];
+    /** Rook and queen between the squares as the trench cuts them; a distance band of 1.5 squares. */
+    neighbours: "queen" | "rook" | "distance";
     style: SquareTest["style"];
     variable: SquareTest["variable"];
     minArea: string;
@@ -97,7 +98,13 @@ export function toRequest(f: FormState): RunCreateInput {
       statistic: "dclf",
     });
   const { kinds, neighbours, style, variable, minArea } = f.squares;
-  const squareTests = kinds.map((kind) => ({ kind, neighbours, style, variable, minArea: Number(minArea) || 0 }));
+  const squareTests = kinds.map((type) => ({
+    type,
+    neighbours: neighbours === "distance" ? { type: neighbours } : { type: neighbours, from: "shapes" as const },
+    style,
+    variable,
+    minArea: Number(minArea) || 0,
+  }));
   return {
     scope: {
       trenchId: f.trenchId,
@@ -164,8 +171,8 @@ export function formFromRun(run: {
   const sq = run.params.squareTests ?? [];
   if (sq.length)
     f.squares = {
-      kinds: sq.map((t) => t.kind),
-      neighbours: sq[0]!.neighbours,
+      kinds: sq.map((t) => t.type),
+      neighbours: sq[0]!.neighbours.type,
       style: sq[0]!.style,
       variable: sq[0]!.variable,
       minArea: String(sq[0]!.minArea),

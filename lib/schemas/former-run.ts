@@ -1,6 +1,7 @@
 import { z } from "zod";
 import "@/lib/schemas/messages";
 import type { TestSpec } from "@/lib/spatial/run/run-spec";
+import type { SquareTest } from "./run";
 
 /**
  * The one reader of runs in the shape Loamwork used before it took the engine's test descriptions: a test
@@ -42,6 +43,20 @@ export const formerTestSchema = z.discriminatedUnion("kind", [
   }),
 ]);
 export type FormerTest = z.output<typeof formerTestSchema>;
+
+/** A test on counts by grid square as Loamwork asked for it before it took the engine's spec. */
+export const formerSquareTestSchema = z.strictObject({
+  kind: z.enum(["moran", "geary", "local-moran", "getis-ord"]),
+  neighbours: z.enum(["queen", "rook", "distance"]).default("queen"),
+  /** The distance band's upper limit (m), for neighbours "distance"; default 1.5 squares. */
+  band: z.coerce.number().positive("The distance band must be longer than 0 m.").max(1000).optional(),
+  style: z.enum(["row", "binary"]).default("row"),
+  /** density: count per excavated m² (the default); count: the raw count. */
+  variable: z.enum(["density", "count"]).default("density"),
+  /** Squares with less excavated area (m²) are left out. */
+  minArea: z.coerce.number().min(0).max(100).default(0),
+});
+export type FormerSquareTest = z.output<typeof formerSquareTestSchema>;
 
 export const isFormerTest = (t: unknown): t is FormerTest =>
   typeof t === "object" && t !== null && "kind" in t && !("type" in t);
@@ -125,4 +140,29 @@ export function readRunTests(
       ? fromFormerTests([formerTestSchema.parse(t)], classOrder, correction ?? "isotropic")
       : [t as TestSpec],
   );
+}
+
+/**
+ * A run's square-count tests in the engine's shape (less the run's permutations, seed and level), whichever
+ * shape they were asked or stored in. A former test is what the former code handed the engine: rook and
+ * queen from the squares as the outline cuts them, its band (or, unset, 1.5 squares when it runs), isolated
+ * squares dropped, two-sided.
+ */
+export function readSquareTests(tests: readonly unknown[]): SquareTest[] {
+  return tests.map((t): SquareTest => {
+    if (!(typeof t === "object" && t !== null && "kind" in t && !("type" in t))) return t as SquareTest;
+    const f = formerSquareTestSchema.parse(t);
+    return {
+      type: f.kind,
+      neighbours:
+        f.neighbours === "distance"
+          ? { type: "distance", lower: 0, ...(f.band !== undefined && { upper: f.band }) }
+          : { type: f.neighbours, from: "shapes" },
+      style: f.style,
+      variable: f.variable,
+      minArea: f.minArea,
+      isolated: "drop",
+      alternative: "two-sided",
+    };
+  });
 }

@@ -1,7 +1,8 @@
 import { z } from "zod";
 import "@/lib/schemas/messages";
 import { testSpecSchema, type TestSpec } from "@/lib/spatial/run/run-spec";
-import { formerTestSchema } from "./former-run";
+import { neighbourRuleSchema, squareTestSpecSchema } from "@/lib/spatial/lattice/square-test-spec";
+import { formerSquareTestSchema, formerTestSchema } from "./former-run";
 
 /**
  * What a specialist asks for when starting a run: the scope (one trench, the contexts that form one surface,
@@ -44,25 +45,35 @@ export type RunTest = TestSpec;
 export type RunTestInput = z.input<typeof testSchema>;
 export type TestKind = RunTest["type"];
 
+const [contiguity, distanceBand] = neighbourRuleSchema.options;
+
 /**
- * A test on counts by grid square (lib/spatial/lattice), run on each class in scope: its counts summed
- * over the chosen contexts and their spits, per square of the trench's grid. Neighbours are rook or queen
- * between the squares as the outline and holes cut them, or a distance band between the cut squares'
- * centroids; the permutations, seed and level are the run's.
+ * A test on counts by grid square, run on each class in scope: the engine's own spec
+ * (lib/spatial/lattice/square-test-spec.ts) less the run's permutations, seed and level, which serve every
+ * test. Its counts are summed over the chosen contexts and their spits, per square of the trench's grid.
+ * Loamwork's defaults where the engine's differ: rook and queen between the squares as the outline and
+ * holes cut them ("shapes"), a distance band up to 1.5 squares of the trench's grid when no upper limit is
+ * given, and a square left with no neighbours dropped rather than refusing the test.
  */
-export const squareTestSchema = z.strictObject({
-  kind: z.enum(["moran", "geary", "local-moran", "getis-ord"]),
-  neighbours: z.enum(["queen", "rook", "distance"]).default("queen"),
-  /** The distance band's upper limit (m), for neighbours "distance"; default 1.5 squares. */
-  band: z.coerce.number().positive("The distance band must be longer than 0 m.").max(1000).optional(),
-  style: z.enum(["row", "binary"]).default("row"),
-  /** density: count per excavated m² (the default); count: the raw count. */
-  variable: z.enum(["density", "count"]).default("density"),
-  /** Squares with less excavated area (m²) are left out. */
+export const squareTestSchema = squareTestSpecSchema.omit({ permutations: true, seed: true, level: true }).extend({
+  neighbours: z
+    .discriminatedUnion("type", [
+      contiguity.extend({ from: z.enum(["grid", "shapes"]).default("shapes") }),
+      distanceBand.extend({
+        upper: z.coerce.number().positive("The distance band must be longer than 0 m.").max(1000).optional(),
+      }),
+    ])
+    .default({ type: "queen", from: "shapes" })
+    .refine((n) => n.type !== "distance" || n.upper === undefined || n.lower < n.upper, {
+      message: "The distance band's lower limit must be below its upper limit.",
+      path: ["lower"],
+    }),
   minArea: z.coerce.number().min(0).max(100).default(0),
+  isolated: z.enum(["refuse", "drop"]).default("drop"),
 });
-export type SquareTest = z.infer<typeof squareTestSchema>;
-export type SquareTestKind = SquareTest["kind"];
+export type SquareTest = z.output<typeof squareTestSchema>;
+export type SquareTestInput = z.input<typeof squareTestSchema>;
+export type SquareTestKind = SquareTest["type"];
 
 export const runParamsSchema = z.strictObject({
   /** The edge correction of tests asked for in the former shape (former-run.ts); the engine's tests carry their own. */
@@ -119,8 +130,14 @@ export const runCreateSchema = z
     scope: runScopeSchema,
     /** Tests in the engine's shape, or in the shape Loamwork asked for before (read by former-run.ts). */
     tests: z.array(z.union([testSchema, formerTestSchema])).max(200),
-    /** Tests on counts by grid square; a run may hold them beside point tests, or alone. */
-    squareTests: z.array(squareTestSchema).max(20).default([]),
+    /**
+     * Tests on counts by grid square, in the engine's shape or the one Loamwork asked for before (read by
+     * former-run.ts); a run may hold them beside point tests, or alone.
+     */
+    squareTests: z
+      .array(z.union([squareTestSchema, formerSquareTestSchema]))
+      .max(20)
+      .default([]),
     params: runParamsSchema.default({ nsim: 999, level: 0.05 }),
     label: z.string().trim().max(120).optional(),
   })

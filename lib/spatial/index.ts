@@ -180,6 +180,7 @@ export {
 } from "./lattice/run-square-test";
 export { PROGRESS_STEPS, type StepOptions, type AsyncStepOptions } from "./lattice/steps";
 export {
+  neighbourRuleSchema,
   parseSquareTestSpec,
   squareTestSpecSchema,
   type SquareTestSpec,

@@ -123,10 +123,12 @@ describe("putting a saved run back in the form", () => {
   it("keeps the square-count tests and their options", async () => {
     const { formFromRun, toRequest } = await import("@/components/patterns/form-state");
     const id = (k: number) => `00000000-0000-4000-8000-00000000000${k}`;
+    const { squareTestSchema } = await import("@/lib/schemas/run");
+    const asked = { neighbours: { type: "rook", from: "shapes" }, style: "binary", variable: "count", minArea: 0.1 };
     const squareTests = [
-      { kind: "moran", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
-      { kind: "getis-ord", neighbours: "rook", style: "binary", variable: "count", minArea: 0.1 },
-    ] as const;
+      squareTestSchema.parse({ type: "moran", ...asked }),
+      squareTestSchema.parse({ type: "getis-ord", ...asked }),
+    ];
     const run = {
       scope: { trenchId: id(1), contextIds: [id(2)], classIds: [id(3)] },
       seed: 5,
@@ -140,7 +142,7 @@ describe("putting a saved run back in the form", () => {
     };
     const req = toRequest(formFromRun(run));
     expect(req.tests).toEqual([]);
-    expect(req.squareTests).toEqual(squareTests);
+    expect(req.squareTests?.map((t) => squareTestSchema.parse(t))).toEqual(squareTests);
   });
 
   it("keeps a cross-K test cross-K, and a cross-L test cross-L", async () => {

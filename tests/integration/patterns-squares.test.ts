@@ -97,14 +97,14 @@ describe("square-count tests in a run", () => {
     await recordEverySquare(fx);
     // 999 permutations: with fewer, the smallest p of a square could not survive the adjustment over 58.
     const res = await start(fx, {
-      squareTests: [{ kind: "moran" }, { kind: "getis-ord", style: "binary" }],
+      squareTests: [{ type: "moran" }, { type: "getis-ord", style: "binary" }],
       params: { nsim: 999, seed: 11 },
     });
     expect(res.status, JSON.stringify(res.json)).toBe(201);
     await runsIdle();
     const run = await read(fx, res.json.id);
     expect(run.status, run.error).toBe("done");
-    expect(run.params.squareTests.map((t: { kind: string }) => t.kind)).toEqual(["moran", "getis-ord"]);
+    expect(run.params.squareTests.map((t: { type: string }) => t.type)).toEqual(["moran", "getis-ord"]);
     const [moran, gi] = squareTestViews(run.result);
     expect(moran.kind).toBe("moran");
     expect(moran.n).toBe(58);
@@ -157,6 +157,60 @@ describe("square-count tests in a run", () => {
     }
     // Spit 2 is dug only in the northern squares so far: the run says so.
     expect(moran.notes[0]).toMatch(/different numbers of spits or contexts in this scope \(1 to 2\)/);
+  });
+
+  it("takes a square test asked in the former shape as the engine's spec, stored and run as asked in it", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    const former = await start(fx, {
+      squareTests: [
+        { kind: "local-moran", neighbours: "distance", band: 2, variable: "count", minArea: 0.2 },
+        { kind: "geary", neighbours: "rook" },
+      ],
+    });
+    expect(former.status, JSON.stringify(former.json)).toBe(201);
+    const asked = [
+      {
+        type: "local-moran",
+        neighbours: { type: "distance", lower: 0, upper: 2 },
+        style: "row",
+        variable: "count",
+        minArea: 0.2,
+        isolated: "drop",
+        alternative: "two-sided",
+      },
+      {
+        type: "geary",
+        neighbours: { type: "rook", from: "shapes" },
+        style: "row",
+        variable: "density",
+        minArea: 0,
+        isolated: "drop",
+        alternative: "two-sided",
+      },
+    ];
+    const today = await start(fx, { squareTests: asked });
+    expect(today.status, JSON.stringify(today.json)).toBe(201);
+    await runsIdle();
+    const [a, b] = [await read(fx, former.json.id), await read(fx, today.json.id)];
+    expect(a.params.squareTests).toEqual(asked);
+    expect(b.params.squareTests).toEqual(asked);
+    expect(a.status, a.error).toBe("done");
+    expect(squareTestViews(a.result)).toEqual(squareTestViews(b.result));
+    expect(squareTestViews(a.result).map((t) => t.neighbours)).toEqual([
+      "square centres up to 2 m apart",
+      "rook contiguity (a shared edge), from the clipped squares",
+    ]);
+  });
+
+  it("refuses a distance band whose lower limit is not below its upper one, naming the field", async () => {
+    const fx = await makeSite();
+    await recordEverySquare(fx);
+    const res = await start(fx, {
+      squareTests: [{ type: "moran", neighbours: { type: "distance", lower: 2, upper: 1.5 } }],
+    });
+    expect(res.status).toBe(400);
+    expect(JSON.stringify(res.json)).toContain("The distance band's lower limit must be below its upper limit.");
   });
 
   it("marks the run out of date when a count it read changes", async () => {

@@ -10,7 +10,8 @@
  * row-standardised weights, a minimum area that leaves squares out, a class with no counts by square (not
  * run), and one run with a distribution test beside its square test.
  *
- * Checked: each run opens with its square-count results read into today's shape (the engine's own result,
+ * Checked: each run opens with the square tests it asked for read as the engine's spec, and its
+ * square-count results read into today's shape (the engine's own result,
  * with the squares it was handed), which the workspace shows as it showed the stored ones: the same verdicts,
  * sentences, notes and squares. Started again with the tests it opened with, it gives them again test for
  * test and square for square, and the engine's new result holds everything read from the stored one.
@@ -41,6 +42,10 @@ describe("saved runs with square-count tests in the result shape of December 202
       const view = (await call(runRoute, "GET", { siteId: d.siteId, runId })).json;
       expect(view.status).toBe("done");
       expect(view.result.elapsedMs).toBe(run.result.elapsedMs);
+      // The square tests it asked for, stored in the former request's shape, read as the engine's spec.
+      const asked = run.params.squareTests as { kind: string }[];
+      expect(view.params.squareTests.map((t: { type: string }) => t.type)).toEqual(asked.map((t) => t.kind));
+      expect(view.params.squareTests.every((t: object) => !("kind" in t))).toBe(true);
       const opened: StoredSquareTest[] = view.result.squareTests;
       expect(opened.every((t) => ("result" in t && t.result.spec) || ("refused" in t && t.spec))).toBe(true);
       expect(squareTestViews(view.result)).toEqual(run.result.squareTests);

@@ -13,7 +13,7 @@ import { buildEngineSpec } from "./engine-spec";
 import { storedResult } from "./stored-result";
 import type { RunScope } from "@/lib/schemas/run";
 import type { RunParamsStored } from "@/lib/api/patterns-responses";
-import { readRunTests } from "@/lib/schemas/former-run";
+import { readRunTests, readSquareTests } from "@/lib/schemas/former-run";
 import { markDone, markFailed, markRunning, writeProgress } from "./run-rows";
 import { loadScope, type ScopeData } from "./scope-data";
 import { runSquareTests, squareTestCount } from "./square-tests";
@@ -81,7 +81,8 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
     const spec = buildEngineSpec({ window: data.window, classes: data.classes, finds, tests, params, seed: row.seed });
     // One progress bar for the whole run: the point tests' share of it, then the square-count tests', in
     // proportion to how many tests each holds.
-    const squareWork = squareTestCount(data, params.squareTests ?? []);
+    const squareTests = readSquareTests(params.squareTests ?? []);
+    const squareWork = squareTestCount(data, squareTests);
     const pointShare = squareWork ? spec.tests.length / (spec.tests.length + squareWork) : 1;
     try {
       const engineStart = Date.now();
@@ -103,7 +104,7 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
             results: [],
             cautions: [],
           };
-      const squareTests = await runSquareTests(data, params.squareTests ?? [], params, row.seed, {
+      const squareResults = await runSquareTests(data, squareTests, params, row.seed, {
         signal: stop.signal,
         onProgress: (f) => onProgress(pointShare + f * (1 - pointShare)),
       });
@@ -119,7 +120,7 @@ export async function executeRun(db: Db, runId: string, options: ExecuteOptions)
         rmax: params.rmax,
         elapsedMs: Date.now() - started,
       });
-      if (squareTests.length) result.squareTests = squareTests;
+      if (squareResults.length) result.squareTests = squareResults;
       result.timing = { engineStart, engineEnd };
       await markDone(db, runId, result);
     } finally {

@@ -209,7 +209,7 @@ function readFormerSquareTests(
   return stored.map((t, k): StoredSquareTest => {
     if (!isFormerSquareTest(t)) return t;
     const own = asked[Math.floor(k / Math.max(1, classes))];
-    if (!own || own.kind !== t.kind)
+    if (!own || own.type !== t.kind)
       throw new Error(`A stored result's square test ${k + 1} (${t.kind}) does not match the run's square tests.`);
     const spec = squareTestSpec({ ...own, style: t.style, variable: t.variable }, t.gridSize, {
       permutations: t.permutations,

@@ -10,7 +10,7 @@ import type { SiteActor } from "../membership";
 import { runQueue } from "../jobs/run-queue";
 import { defaultRmax, roundMetres } from "./defaults";
 import type { RunCreate, RunScope, RunTest, TestKind } from "@/lib/schemas/run";
-import { isFormerTest, readRunTests } from "@/lib/schemas/former-run";
+import { isFormerTest, readRunTests, readSquareTests } from "@/lib/schemas/former-run";
 import { readStoredRun } from "./stored-result";
 import type { RunParamsStored, RunView } from "@/lib/api/patterns-responses";
 import { countsByClass, depthSummary, stratWarningsFor } from "./scope-summary";
@@ -57,7 +57,9 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     data.classes.map((c) => c.id),
     input.params.correction,
   );
-  const refusals = [...testRefusals(data, tests), ...squareRefusals(data, input.squareTests)];
+  // Square-count tests asked for in the former shape are read into the engine's spec.
+  const squareTests = readSquareTests(input.squareTests);
+  const refusals = [...testRefusals(data, tests), ...squareRefusals(data, squareTests)];
   if (refusals.length) throw badInput(refusals.join(" "), { tests: refusals });
   const rmax = input.params.rmax ?? roundMetres(defaultRmax(data.window));
   if (rmax >= data.window.diameter) {
@@ -71,7 +73,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
     nsim: input.params.nsim,
     level: input.params.level,
     tests,
-    ...(input.squareTests.length ? { squareTests: input.squareTests } : {}),
+    ...(squareTests.length ? { squareTests } : {}),
     label: input.label,
     names: {
       trench: data.trench.code,
@@ -91,7 +93,7 @@ export async function createRun(db: Db, actor: SiteActor, input: RunCreate): Pro
           siteId: actor.site.id,
           trenchId: data.trench.id,
           scope: input.scope,
-          method: [...new Set([...tests.map((t) => t.type), ...input.squareTests.map((t) => t.kind)])].join(","),
+          method: [...new Set([...tests.map((t) => t.type), ...squareTests.map((t) => t.type)])].join(","),
           params,
           seed,
           engineVersion: ENGINE_VERSION,

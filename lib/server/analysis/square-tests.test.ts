@@ -10,6 +10,7 @@ import { clippedSquareShape } from "@/lib/geometry/square-shape";
 import { latticeSquares, squareCells, type SampleLike } from "@/lib/squares/square-values";
 import { createWindow } from "@/lib/spatial";
 import { squareTestView } from "@/lib/patterns-view/square-view";
+import { squareTestSchema } from "@/lib/schemas/run";
 import { runSquareTests as runStored } from "./square-tests";
 import type { ScopeData } from "./scope-data";
 
@@ -121,17 +122,18 @@ describe("runSquareTests on a cut trench", () => {
     return out;
   };
   const params = { nsim: 0, level: 0.05 };
+  const rookBinaryDensity = squareTestSchema.parse({
+    type: "moran",
+    neighbours: { type: "rook" },
+    style: "binary",
+    variable: "density",
+  });
   /** The tests as the workspace shows them. */
   const runSquareTests = async (...args: Parameters<typeof runStored>) =>
     (await runStored(...args)).map((t) => squareTestView(t, () => "FLK"));
 
   it("takes neighbours from the cut squares and says so in the result and its cautions", async () => {
-    const [t] = await runSquareTests(
-      scope(every()),
-      [{ kind: "moran", neighbours: "rook", style: "binary", variable: "density" }] as never,
-      params,
-      1,
-    );
+    const [t] = await runSquareTests(scope(every()), [rookBinaryDensity], params, 1);
     expect(t!.neighbours).toBe("rook contiguity (a shared edge), from the clipped squares");
     expect(t!.notes.join(" ")).toMatch(/Neighbours from the squares as the outline and holes cut them/);
     expect(t!.notes.join(" ")).toMatch(/Edge squares: tested as density/);
@@ -140,18 +142,8 @@ describe("runSquareTests on a cut trench", () => {
   it("density over the area dug summed over spits: a square dug twice with the same finds per spit is not richer", async () => {
     const one = every();
     const two = [...one, ...one.filter((s) => s.col === 0).map((s) => ({ ...s, spit: "s2" }))];
-    const [a] = await runSquareTests(
-      scope(one),
-      [{ kind: "moran", neighbours: "rook", style: "binary", variable: "density" }] as never,
-      params,
-      1,
-    );
-    const [b] = await runSquareTests(
-      scope(two),
-      [{ kind: "moran", neighbours: "rook", style: "binary", variable: "density" }] as never,
-      params,
-      1,
-    );
+    const [a] = await runSquareTests(scope(one), [rookBinaryDensity], params, 1);
+    const [b] = await runSquareTests(scope(two), [rookBinaryDensity], params, 1);
     // Column 0 dug through two spits with the same counts in each: its density, and so Moran's I, unchanged.
     expect(b!.statistic).toBeCloseTo(a!.statistic!, 12);
     const cell = b!.cells.find((c) => c.label === "0/1")!;

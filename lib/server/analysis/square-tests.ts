@@ -26,24 +26,18 @@ import type { ScopeData } from "./scope-data";
  */
 
 /**
- * The engine's spec for one asked-for square-count test (rook and queen from the squares as the outline
- * cuts them; a distance band of 1.5 squares unless given), with the run's permutations, seed and level.
+ * The engine's spec for one asked-for square-count test: as asked, a distance band with no upper limit
+ * reaching 1.5 squares of the trench's grid, with the run's permutations, seed and level.
  */
 export function squareTestSpec(
   t: SquareTest,
   gridSize: number,
   run: { permutations: number; seed: number; level: number },
 ): SquareTestSpec {
+  const n = t.neighbours;
   return parseSquareTestSpec({
-    type: t.kind,
-    neighbours:
-      t.neighbours === "distance"
-        ? { type: "distance", upper: t.band ?? 1.5 * gridSize }
-        : { type: t.neighbours, from: "shapes" },
-    style: t.style,
-    variable: t.variable,
-    minArea: t.minArea,
-    isolated: "drop",
+    ...t,
+    neighbours: n.type === "distance" ? { ...n, upper: n.upper ?? 1.5 * gridSize } : n,
     ...run,
   });
 }

@@ -9,8 +9,8 @@ import { kernelDensity, type Pts } from "./plot-data";
 import type { AnalysisRun } from "@/db/schema";
 import type { ClassInScope, RunResult } from "@/lib/api/run-result";
 import type { RunParamsStored } from "@/lib/api/patterns-responses";
-import { readRunTests } from "@/lib/schemas/former-run";
-import type { Correction, RunScope, RunTest } from "@/lib/schemas/run";
+import { readRunTests, readSquareTests } from "@/lib/schemas/former-run";
+import type { Correction, RunScope, RunTest, SquareTest } from "@/lib/schemas/run";
 import { isFormerResult, readFormerResult } from "./former-result";
 
 /** The edge correction the run's curves used, shown with the result: its L test's, else its first curve test's. */
@@ -74,15 +74,24 @@ export function storedTests(row: Pick<AnalysisRun, "params" | "scope" | "result"
   return readRunTests(params.tests ?? [], order, params.correction);
 }
 
+/** A stored run's square-count tests in the engine's shape: those stored in the former shape read by former-run.ts. */
+export function storedSquareTests(row: Pick<AnalysisRun, "params">): SquareTest[] {
+  return readSquareTests((row.params as RunParamsStored).squareTests ?? []);
+}
+
 /** A stored run's result in today's shape, whatever shape it was stored in (null before it finished). */
 export function readRunResult(row: Pick<AnalysisRun, "params" | "scope" | "result">): RunResult | null {
   const stored: unknown = row.result;
   if (stored === null || stored === undefined) return null;
   if (!isFormerResult(stored)) return stored as RunResult;
-  return readFormerResult(stored, storedTests(row), (row.params as RunParamsStored).squareTests ?? []);
+  return readFormerResult(stored, storedTests(row), storedSquareTests(row));
 }
 
 /** A stored run's parameters and result in today's shapes, as the API and the deposition package give them. */
 export function readStoredRun(row: Pick<AnalysisRun, "params" | "scope" | "result">) {
-  return { params: { ...(row.params as RunParamsStored), tests: storedTests(row) }, result: readRunResult(row) };
+  const params = row.params as RunParamsStored;
+  return {
+    params: { ...params, tests: storedTests(row), ...(params.squareTests && { squareTests: storedSquareTests(row) }) },
+    result: readRunResult(row),
+  };
 }

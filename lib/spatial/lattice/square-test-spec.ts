@@ -6,7 +6,8 @@
 import { z } from "zod";
 import { SpatialInputError } from "../errors";
 
-const neighbours = z.discriminatedUnion("type", [
+/** Who neighbours whom (types.ts NeighbourRule): contiguity on the grid or the clipped shapes, or a distance band. */
+export const neighbourRuleSchema = z.discriminatedUnion("type", [
   z.strictObject({ type: z.enum(["rook", "queen"]), from: z.enum(["grid", "shapes"]).default("grid") }),
   z.strictObject({
     type: z.literal("distance"),
@@ -17,7 +18,7 @@ const neighbours = z.discriminatedUnion("type", [
 
 export const squareTestSpecSchema = z.strictObject({
   type: z.enum(["moran", "geary", "local-moran", "getis-ord"]),
-  neighbours: neighbours.default({ type: "queen", from: "grid" }),
+  neighbours: neighbourRuleSchema.default({ type: "queen", from: "grid" }),
   style: z.enum(["binary", "row"]).default("row"),
   variable: z.enum(["density", "count"]).default("density"),
   /** Squares with less excavated area (m²) are left out. */
