@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { StateBadge } from "@/components/contexts/state-badge";
+import { FilterSelect } from "@/components/register/filter-select";
 import { SiteNav } from "@/components/site-nav";
 import { pageSiteActor } from "@/lib/server/page-access";
 import { requestLocale } from "@/lib/server/request-locale";
@@ -40,32 +41,23 @@ export default async function PhotoRegisterPage({
           they show. Add photos from a context sheet, a find or a trench.
         </p>
         <form method="get" className="sheet flex flex-wrap items-end gap-3" aria-label="Filter the photo register">
-          <div>
-            <label className="label" htmlFor="photos-trench">
-              Trench
-            </label>
-            <select id="photos-trench" name="trenchId" className="field" defaultValue={q.trenchId ?? ""}>
-              <option value="">All trenches</option>
-              {trenches.map((t) => (
-                <option key={t.id} value={t.id}>
-                  {t.code}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="photos-context">
-              Context
-            </label>
-            <select id="photos-context" name="contextId" className="field num" defaultValue={q.contextId ?? ""}>
-              <option value="">All contexts</option>
-              {contexts.map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.number}
-                </option>
-              ))}
-            </select>
-          </div>
+          <FilterSelect
+            id="photos-trench"
+            name="trenchId"
+            label="Trench"
+            value={q.trenchId}
+            items={trenches.map((t) => ({ id: t.id, text: t.code }))}
+            any="All trenches"
+          />
+          <FilterSelect
+            id="photos-context"
+            name="contextId"
+            label="Context"
+            value={q.contextId}
+            items={contexts.map((c) => ({ id: c.id, text: String(c.number) }))}
+            any="All contexts"
+            numeric
+          />
           <button type="submit" className="btn">
             Show
           </button>
