@@ -5,11 +5,12 @@
  * requests). The test runs its own app (tests/e2e/support/own-stack.ts) so it can stop and start it.
  */
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, CDPSession, Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import type { Stack } from "@/scripts/stack";
 import { openBrowser, shown, signIn } from "./support/browser";
 import { freshTrench, tapPlan } from "./support/plan-trench";
 import { ownStack } from "./support/own-stack";
+import { keptOnDevice, networkOff, trenchContextId } from "./support/offline-device";
 
 let browser: Browser;
 let stack: Stack;
@@ -41,39 +42,12 @@ afterEach(async () => {
 });
 
 /**
- * The network off (or on again) for every page of the context, through the DevTools protocol. One session
- * per page: conditions set through one session stay in force until that same session lifts them.
- */
-const sessions = new WeakMap<Page, CDPSession>();
-async function networkOff(context: BrowserContext, page: Page, off: boolean) {
-  await context.setOffline(off);
-  const cdp = sessions.get(page) ?? (await context.newCDPSession(page));
-  sessions.set(page, cdp);
-  await cdp.send("Network.emulateNetworkConditions", {
-    offline: off,
-    latency: 0,
-    downloadThroughput: -1,
-    uploadThroughput: -1,
-  });
-}
-
-/**
  * Opens a page once the service worker is active: a page whose loading began while the worker was still
  * being installed is not taken over by it (the browser's rule), so it would never be kept on the device.
  */
 async function openWithWorker(page: Page, url: string) {
   await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
   await page.goto(url);
-}
-
-/** Waits until the service worker controls the page and keeps its address in the pages cache. */
-async function keptOnDevice(page: Page, url: string) {
-  await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 45_000 });
-  await page.waitForFunction(
-    async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })),
-    new URL(url, stack.url).href,
-    { timeout: 45_000 },
-  );
 }
 
 /** The device's status in the header (data attributes say the state and the counts). */
@@ -148,7 +122,7 @@ describe("recording offline and syncing exactly once", () => {
     step("open the plan online");
     await openWithWorker(page, planUrl);
     await shown(page.getByTestId("plan-canvas"), 20_000);
-    await keptOnDevice(page, planUrl);
+    await keptOnDevice(page, planUrl, stack.url);
     // Online once: the device reserves a block of find numbers and one of context numbers.
     await waitForNumbers(page);
     step("numbers reserved");
@@ -239,7 +213,7 @@ describe("recording offline and syncing exactly once", () => {
     await signIn(page, "digger");
     const t = await freshTrench(page);
     const base = `/api/sites/${t.siteId}`;
-    const target = await contextId(page, t);
+    const target = await trenchContextId(page, t);
     const other = await page.request.post(`${base}/contexts`, {
       data: { trenchId: t.trenchId, number: t.contextNumber + 1, type: "deposit" },
     });
@@ -248,7 +222,7 @@ describe("recording offline and syncing exactly once", () => {
     step("test 2: plan online");
     await openWithWorker(page, planUrl);
     await shown(page.getByTestId("plan-canvas"), 20_000);
-    await keptOnDevice(page, planUrl);
+    await keptOnDevice(page, planUrl, stack.url);
     await waitForNumbers(page);
 
     await networkOff(context, page, true);
@@ -351,11 +325,4 @@ async function counts(page: Page, t: { siteId: string; trenchId: string }) {
     contextNumbers: contexts.map((c) => c.number),
     relations: relations.length,
   };
-}
-
-async function contextId(page: Page, t: { siteId: string; trenchId: string }) {
-  const list = (await (await page.request.get(`/api/sites/${t.siteId}/contexts?trenchId=${t.trenchId}`)).json()) as {
-    id: string;
-  }[];
-  return list[0].id;
 }

@@ -4,11 +4,12 @@
  * requests). The test runs its own app (tests/e2e/support/own-stack.ts) so it can stop and start it.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import type { Stack } from "@/scripts/stack";
 import { openBrowser, shown, signIn } from "./support/browser";
 import { freshTrench } from "./support/plan-trench";
 import { ownStack } from "./support/own-stack";
+import { keptOnDevice, networkOff, trenchContextId } from "./support/offline-device";
 
 let browser: Browser;
 let stack: Stack;
@@ -20,28 +21,6 @@ afterAll(async () => {
   await stack?.stop();
 });
 
-/** The network off for every page of the context, through the DevTools protocol. */
-async function networkOff(context: BrowserContext, page: Page, off: boolean) {
-  await context.setOffline(off);
-  const cdp = await context.newCDPSession(page);
-  await cdp.send("Network.emulateNetworkConditions", {
-    offline: off,
-    latency: 0,
-    downloadThroughput: -1,
-    uploadThroughput: -1,
-  });
-}
-
-/** Waits until the service worker controls the page and keeps its address in the pages cache. */
-async function keptOnDevice(page: Page, url: string) {
-  await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), null, { timeout: 45_000 });
-  await page.waitForFunction(
-    async (u) => Boolean(await (await caches.open("loamwork-pages")).match(u, { ignoreVary: true })),
-    new URL(url, stack.url).href,
-    { timeout: 45_000 },
-  );
-}
-
 describe("the app on a device with no connection", () => {
   it("opens a trench plan seen once online, with its finds, after the server has gone", async () => {
     const context = await browser.newContext({ baseURL: stack.url, viewport: { width: 1366, height: 900 } });
@@ -50,7 +29,7 @@ describe("the app on a device with no connection", () => {
     const t = await freshTrench(page);
     const made = await page.request.post(`/api/sites/${t.siteId}/finds`, {
       data: {
-        contextId: await contextId(page, t),
+        contextId: await trenchContextId(page, t),
         classId: await firstClass(page, t.siteId),
         x: 2,
         y: 1,
@@ -61,7 +40,7 @@ describe("the app on a device with no connection", () => {
     const planUrl = `/sites/${t.siteId}/trenches/${t.trenchId}`;
     await page.goto(planUrl);
     await shown(page.getByTestId("plan-canvas"), 20_000);
-    await keptOnDevice(page, planUrl);
+    await keptOnDevice(page, planUrl, stack.url);
 
     await stack.stopApp();
     await networkOff(context, page, true);
@@ -78,12 +57,6 @@ describe("the app on a device with no connection", () => {
   });
 });
 
-async function contextId(page: Page, t: { siteId: string; trenchId: string }) {
-  const list = (await (await page.request.get(`/api/sites/${t.siteId}/contexts?trenchId=${t.trenchId}`)).json()) as {
-    id: string;
-  }[];
-  return list[0].id;
-}
 async function firstClass(page: Page, siteId: string) {
   return ((await (await page.request.get(`/api/sites/${siteId}/classes`)).json()) as { id: string }[])[0].id;
 }
