@@ -206,6 +206,30 @@ const formatWords: Record<string, string> = {
   url: "is not a web address",
 };
 
+/** The keys that say which form of a record is meant (a test's type, a former request's kind). */
+const FORM_KEYS = new Set(["type", "kind"]);
+
+const missesItsForm = (issues: readonly z.core.$ZodIssue[]): boolean =>
+  issues.some(
+    (i) =>
+      (i.path.length === 1 && FORM_KEYS.has(String(i.path[0]))) ||
+      (i.code === "unrecognized_keys" && i.keys.some((k) => FORM_KEYS.has(k))),
+  );
+
+/**
+ * A value that fits none of the forms a field accepts (a test in the engine's shape or in the one Loamwork
+ * asked for before): what is wrong with it in the form it was meant as, i.e. the form whose type or kind it
+ * names (else the form it comes nearest to), so that a misspelt option is named rather than the whole value
+ * refused. Undefined when the union says nothing of its forms.
+ */
+function unionMessage(errors: readonly (readonly z.core.$ZodIssue[])[] | undefined): string | undefined {
+  const forms = (errors ?? []).filter((e) => e.length > 0);
+  if (!forms.length) return undefined;
+  const rank = (e: readonly z.core.$ZodIssue[]) => (missesItsForm(e) ? 1_000 : 0) + e.length;
+  const meant = forms.reduce((best, e) => (rank(e) < rank(best) ? e : best));
+  return meant.map((i) => i.message).join(" ");
+}
+
 /** The message for one refused value, in words a recorder can act on. */
 export function loamworkMessage(issue: z.core.$ZodRawIssue): string {
   const label = fieldLabel(issue.path);
@@ -242,7 +266,7 @@ export function loamworkMessage(issue: z.core.$ZodRawIssue): string {
     case "unrecognized_keys":
       return `${issue.keys.map((k) => `"${k}"`).join(", ")} ${issue.keys.length > 1 ? "are not fields" : "is not a field"} Loamwork keeps here.`;
     case "invalid_union":
-      return `${label} is not one of the forms Loamwork accepts.`;
+      return unionMessage(issue.errors) ?? `${label} is not one of the forms Loamwork accepts.`;
     default:
       return `${label} is not valid.`;
   }

@@ -199,4 +199,25 @@ describe("validation messages", () => {
     ).toEqual(["Context is missing: fill it in."]);
     expect(fieldLabel(["scope", "contextIds", 0])).toBe("Contexts");
   });
+
+  it("says what is wrong with a test in the form it names, not that it fits no form", () => {
+    // A test may be asked for in the engine's shape or the one Loamwork asked for before; a value that fits
+    // neither was answered "is not one of the forms Loamwork accepts", naming nothing to correct.
+    const id = "6f1c2a8e-6a59-4a2b-9a57-6c1f3f0f9b21";
+    const scope = { trenchId: id, contextIds: [id], classIds: [id] };
+    const refused = (body: Record<string, unknown>) =>
+      runSchemas.runCreateSchema.safeParse({ scope, tests: [], ...body }).error?.issues.map((i) => i.message);
+    expect(refused({ squareTests: [{ type: "moran", style: "diagonal" }] })).toEqual([
+      "Weights: pick one of binary, row.",
+    ]);
+    expect(refused({ squareTests: [{ kind: "moran", neighbours: "bishop" }] })).toEqual([
+      "Neighbours: pick one of queen, rook, distance.",
+    ]);
+    expect(refused({ squareTests: [{ type: "moron" }] })).toEqual([
+      "Type: pick one of moran, geary, local-moran, getis-ord.",
+    ]);
+    expect(refused({ tests: [{ type: "l-envelope", class: id, correction: "boarder" }] })).toEqual([
+      "Edge correction: pick one of isotropic, translation, border.",
+    ]);
+  });
 });
