@@ -155,7 +155,8 @@ function PackageRow({ siteId, job, when }: { siteId: string; job: PackageJob; wh
             </a>
           ) : (
             <p className="text-ink-soft">
-              The file was removed when newer packages were written; only the newest few are kept.
+              The file was removed when newer packages were written: the newest three of the whole site and of each
+              trench are kept. Write the package again to download it.
             </p>
           )}
         </div>
