@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { FormField, applyFieldErrors } from "@/components/contexts/form-field";
+import { InputField, NumberField, applyFieldErrors } from "@/components/contexts/form-field";
 import { ApiError, apiClient } from "@/lib/api/client";
 import { benchmarkCreateSchema } from "@/lib/schemas/levels";
 
@@ -29,17 +29,10 @@ export function BenchmarkForm({ siteId }: { siteId: string }) {
       setFailure(err instanceof Error ? err.message : String(err));
     }
   });
-  const field = (name: keyof Input, label: string, numeric = false) => (
-    <FormField id={`bm-${name}`} label={label} error={e[name]?.message}>
-      <input
-        id={`bm-${name}`}
-        className={numeric ? "field num" : "field"}
-        inputMode={numeric ? "decimal" : undefined}
-        aria-describedby={`bm-${name}-error`}
-        {...register(name)}
-      />
-    </FormField>
-  );
+  const field = (name: keyof Input, label: string, numeric = false) => {
+    const Field = numeric ? NumberField : InputField;
+    return <Field id={`bm-${name}`} label={label} error={e[name]?.message} {...register(name)} />;
+  };
   return (
     <form
       onSubmit={submit}

@@ -5,7 +5,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { findUpdateSchema } from "@/lib/schemas/find";
-import { applyFieldErrors, FormField } from "@/components/contexts/form-field";
+import { applyFieldErrors, FormField, NumberField } from "@/components/contexts/form-field";
 import { ApiError, apiClient } from "@/lib/api/client";
 
 type Input = z.input<typeof findUpdateSchema>;
@@ -52,16 +52,13 @@ export function FindEditForm({
     }
   });
   const num = (name: "x" | "y" | "z" | "count" | "weightG", label: string) => (
-    <FormField id={`find-${name}`} label={label} error={e[name]?.message}>
-      <input
-        id={`find-${name}`}
-        className="field num"
-        inputMode="decimal"
-        aria-describedby={`find-${name}-error`}
-        {...register(name)}
-        disabled={locked(name)}
-      />
-    </FormField>
+    <NumberField
+      id={`find-${name}`}
+      label={label}
+      error={e[name]?.message}
+      {...register(name)}
+      disabled={locked(name)}
+    />
   );
   return (
     <form onSubmit={submit} noValidate className="sheet space-y-3" aria-label="Edit the find">
