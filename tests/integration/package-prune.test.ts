@@ -1,12 +1,19 @@
 import { existsSync } from "node:fs";
-import { describe, expect, it } from "vitest";
+import { EventEmitter } from "node:events";
+import { describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { call, session } from "../support/harness";
 import { makeSite, type SiteFixture } from "../support/fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { packageFilePath } from "@/lib/server/export/package-writer";
-import { KEEP_PACKAGES, RESUME_GRACE_MS, prunePackages, recordDownload } from "@/lib/server/export/package-prune";
+import {
+  KEEP_PACKAGES,
+  RESUME_GRACE_MS,
+  keepNotingDownload,
+  prunePackages,
+  recordDownload,
+} from "@/lib/server/export/package-prune";
 import { packagesIdle } from "@/lib/server/jobs/package-queue";
 import { saveFile, storePath } from "@/lib/server/uploads/file-store";
 import * as packagesRoute from "@/app/api/sites/[siteId]/packages/route";
@@ -147,5 +154,26 @@ describe("pruning old deposition packages", () => {
     expect(fresh).toMatchObject({ status: "done", error: null });
     expect(old.map((p) => existsSync(p.file))).toEqual([true, true, false]);
     expect(await filePathOf(old[2]!.id)).toBeNull();
+  });
+
+  it("notes a download again while it streams, so one longer than the grace keeps its file", () => {
+    vi.useFakeTimers({ toFake: ["setInterval", "clearInterval"] });
+    try {
+      const stream = new EventEmitter();
+      let noted = 0;
+      keepNotingDownload(stream, async () => {
+        noted++;
+      });
+      // three hours of streaming: noted at least once within every resume grace
+      vi.advanceTimersByTime(3 * RESUME_GRACE_MS);
+      expect(noted).toBe(3 * 4);
+      // and once more at its end, after which nothing more
+      stream.emit("close");
+      expect(noted).toBe(3 * 4 + 1);
+      vi.advanceTimersByTime(3 * RESUME_GRACE_MS);
+      expect(noted).toBe(3 * 4 + 1);
+    } finally {
+      vi.useRealTimers();
+    }
   });
 });

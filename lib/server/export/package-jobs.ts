@@ -13,7 +13,7 @@ import { storePath } from "@/lib/server/uploads/file-store";
 import { written } from "@/lib/server/written";
 import { packageQueue } from "@/lib/server/jobs/package-queue";
 import { packageTrenchCode } from "./deposition";
-import { KEEP_PACKAGES, recordDownload } from "./package-prune";
+import { KEEP_PACKAGES, keepNotingDownload, recordDownload } from "./package-prune";
 
 /** A package job as the screen and scripts see it. */
 export type PackageView = {
@@ -152,12 +152,9 @@ export async function packageFile(db: Db, actor: SiteActor, packageId: string, r
     return new Response(null, { status: 416, headers: { ...headers, "content-range": `bytes */${size}` } });
   const { start, end } = range ?? { start: 0, end: size - 1 };
   const stream = createReadStream(full, { start, end });
-  // Its end is noted too: the file stays a while after, for a download resumed with a Range request.
-  stream.once("close", () => {
-    recordDownload(db, actor.site.id, row.id).catch((err) =>
-      console.error("[loamwork] could not note a package download's end", err),
-    );
-  });
+  // Noted again while it streams, and at its end: the file stays a while after, for a download resumed with a
+  // Range request.
+  keepNotingDownload(stream, () => recordDownload(db, actor.site.id, row.id));
   const body = Readable.toWeb(stream) as ReadableStream<Uint8Array>;
   return new Response(body, {
     status: range ? 206 : 200,

@@ -36,6 +36,26 @@ export async function recordDownload(
   return row;
 }
 
+/**
+ * While a download streams, note it again every quarter of the resume grace (and once more when it ends), so
+ * that a download lasting longer than the grace is never taken for an old one by a prune on another process.
+ */
+export function keepNotingDownload(
+  stream: { once(event: "close", listener: () => void): unknown },
+  note: () => Promise<unknown>,
+  everyMs = RESUME_GRACE_MS / 4,
+): void {
+  const noted = () => {
+    note().catch((err) => console.error("[loamwork] could not note a package download", err));
+  };
+  const timer = setInterval(noted, everyMs);
+  timer.unref?.();
+  stream.once("close", () => {
+    clearInterval(timer);
+    noted();
+  });
+}
+
 /** True when a download of the zip began or ended within the resume grace, on whichever process served it. */
 function beingDownloaded(downloadedAt: Date | null, now: number): boolean {
   return downloadedAt !== null && now - downloadedAt.getTime() < RESUME_GRACE_MS;
