@@ -35,13 +35,11 @@ export type StoredCurves = Pick<EnvelopeOutcome, Drawn> & {
 /** One test's result as the engine gave it; classes are named by their code, as the engine was given them. */
 export type StoredTest = Omit<TestResult, "curves"> & { curves?: StoredCurves };
 
+/** A grid square named by its label and placed on the plan: its whole square, x0..x1, y0..y1 (m). */
+export type PlacedSquare = { label: string; x0: number; y0: number; x1: number; y1: number };
+
 /** A square as the run handed it to a square-count test, placed on the plan (its whole grid square). */
-export type SquareUnit = {
-  label: string;
-  x0: number;
-  y0: number;
-  x1: number;
-  y1: number;
+export type SquareUnit = PlacedSquare & {
   /** m² dug in the scope (summed over the records that counted the class) and the class's count summed over them. */
   area: number;
   count: number;

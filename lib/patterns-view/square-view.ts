@@ -5,7 +5,14 @@
  * plan with its value, its local statistic and its class words. Pure functions of the stored result: safe
  * for client components and for the server alike.
  */
-import type { ClassInScope, RunResult, SquareUnit, StoredSquareResult, StoredSquareTest } from "@/lib/api/run-result";
+import type {
+  ClassInScope,
+  PlacedSquare,
+  RunResult,
+  SquareUnit,
+  StoredSquareResult,
+  StoredSquareTest,
+} from "@/lib/api/run-result";
 import type { SquareClass, SquareTestSpec, SquareVerdict } from "@/lib/spatial";
 
 /** Verdict of a square-count test: like values together, high and low alternating, hot or cold spots found. */
@@ -14,12 +21,7 @@ export type SquareVerdictWord = "clustered" | "dispersed" | "hot-spots" | "no-ev
 export type SquareClassWord = SquareClass;
 
 /** One square of the grid in a square-count result, placed on the plan (its whole square, x0..x1, y0..y1). */
-export type SquareCellView = {
-  label: string;
-  x0: number;
-  y0: number;
-  x1: number;
-  y1: number;
+export type SquareCellView = PlacedSquare & {
   /** Excavated m² used, and the variable tested (density per m² or count). */
   area: number;
   value: number;

@@ -19,7 +19,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq, sql } from "drizzle-orm";
 import { session, call } from "../support/harness";
 import { seedDemoSite, type DemoSite } from "../support/demo-site";
-import { readRunFixture, startAgainAsOpened, type StoredRunFixture } from "../support/run-fixtures";
+import { readRunFixture, startAgainAsOpened, storeRunFixture, type StoredRunFixture } from "../support/run-fixtures";
 import { getDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { testViews, type TestView } from "@/lib/patterns-view/test-view";
@@ -65,7 +65,6 @@ const withoutPictures = (t: Record<string, unknown>) =>
   Object.fromEntries(Object.entries(t).filter(([k]) => !(k in PICTURES)));
 
 async function storeFormer(run: StoredRun, opts: { pictures?: "empty" } = {}): Promise<string> {
-  const db = await getDb();
   const result =
     opts.pictures === "empty"
       ? {
@@ -82,26 +81,7 @@ async function storeFormer(run: StoredRun, opts: { pictures?: "empty" } = {}): P
           })),
         }
       : run.result;
-  const [row] = await db
-    .insert(s.analysisRuns)
-    .values({
-      siteId: d.siteId,
-      trenchId: d.trenchId,
-      scope: run.scope,
-      method: run.method,
-      params: run.params,
-      seed: run.seed,
-      engineVersion: run.engineVersion,
-      fingerprint: "former",
-      status: "done",
-      progress: 1,
-      result,
-      createdBy: d.people.specialist,
-      finishedAt: new Date(),
-    })
-    .returning();
-  if (!row) throw new Error("run not stored");
-  return row.id;
+  return storeRunFixture(d, run, { result, fingerprint: "former" });
 }
 
 const OLD: [string, string][] = [

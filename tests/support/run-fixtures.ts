@@ -41,8 +41,15 @@ export function readRunFixture<Result>(file: string, d: DemoSite): StoredRunFixt
   return (JSON.parse(text) as { runs: StoredRunFixture<Result>[] }).runs;
 }
 
-/** Puts a fixture's run into analysis_runs as the former code left it (done, by the specialist); gives its id. */
-export async function storeRunFixture(d: DemoSite, run: StoredRunFixture<object>): Promise<string> {
+/**
+ * Puts a fixture's run into analysis_runs as the former code left it (done, by the specialist); gives its id.
+ * `result` stores another result in its place (a test's variant of the fixture's), `fingerprint` marks the row.
+ */
+export async function storeRunFixture(
+  d: DemoSite,
+  run: StoredRunFixture<object>,
+  opts: { result?: object; fingerprint?: string } = {},
+): Promise<string> {
   const db = await getDb();
   const [row] = await db
     .insert(s.analysisRuns)
@@ -54,10 +61,10 @@ export async function storeRunFixture(d: DemoSite, run: StoredRunFixture<object>
       params: run.params,
       seed: run.seed,
       engineVersion: run.engineVersion,
-      fingerprint: "stored",
+      fingerprint: opts.fingerprint ?? "stored",
       status: "done",
       progress: 1,
-      result: run.result as Record<string, unknown>,
+      result: (opts.result ?? run.result) as Record<string, unknown>,
       createdBy: d.people.specialist,
       finishedAt: new Date(),
     })
