@@ -71,13 +71,15 @@ export const findProcessingEnum = pgEnum("find_processing", [
 ]);
 
 const created = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
+/** A record's id: a random UUID made by the database. */
+const idColumn = () => uuid("id").primaryKey().defaultRandom();
 const updated = () => timestamp("updated_at", { withTimezone: true }).notNull().defaultNow();
 
 /** GeoJSON Polygon in site-grid metres: first ring outer, the rest holes. */
 export type PolygonJson = { type: "Polygon"; coordinates: [number, number][][] };
 
 export const users = pgTable("users", {
-  id: uuid("id").primaryKey().defaultRandom(),
+  id: idColumn(),
   email: text("email").notNull().unique(),
   name: text("name").notNull(),
   passwordHash: text("password_hash").notNull(),
@@ -94,7 +96,7 @@ export const rateLimits = pgTable("rate_limits", {
 });
 
 export const sites = pgTable("sites", {
-  id: uuid("id").primaryKey().defaultRandom(),
+  id: idColumn(),
   code: text("code").notNull().unique(),
   name: text("name").notNull(),
   gridDescription: text("grid_description").notNull().default(""),
@@ -133,12 +135,16 @@ export const sites = pgTable("sites", {
   createdAt: created(),
 });
 
+/** The site a record belongs to; the record goes with its site. */
+const siteRef = () =>
+  uuid("site_id")
+    .notNull()
+    .references(() => sites.id, { onDelete: "cascade" });
+
 export const memberships = pgTable(
   "memberships",
   {
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    siteId: siteRef(),
     userId: uuid("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
@@ -149,10 +155,8 @@ export const memberships = pgTable(
 );
 
 export const invitations = pgTable("invitations", {
-  id: uuid("id").primaryKey().defaultRandom(),
-  siteId: uuid("site_id")
-    .notNull()
-    .references(() => sites.id, { onDelete: "cascade" }),
+  id: idColumn(),
+  siteId: siteRef(),
   email: text("email").notNull(),
   role: roleEnum("role").notNull(),
   tokenHash: text("token_hash").notNull().unique(),
@@ -167,10 +171,8 @@ export const invitations = pgTable("invitations", {
 export const trenches = pgTable(
   "trenches",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     code: text("code").notNull(),
     name: text("name").notNull().default(""),
     outline: jsonb("outline").$type<PolygonJson>().notNull(),
@@ -206,10 +208,8 @@ export const photoDateSourceEnum = pgEnum("photo_date_source", ["camera", "uploa
 export const photos = pgTable(
   "photos",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     kind: photoKindEnum("kind").notNull().default("plan"),
     /** A plan photo's trench, or the trench a record photo is of. */
     trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
@@ -257,10 +257,8 @@ export const photos = pgTable(
 export const contexts = pgTable(
   "contexts",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "restrict" }),
@@ -298,10 +296,8 @@ export const contexts = pgTable(
 export const contextRelations = pgTable(
   "context_relations",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     /** Reads "from <kind> to": 1004 above 1007, 1005 cuts 1004, 1006 fills 1005, 1008 same_as 1009. */
     fromId: uuid("from_id")
       .notNull()
@@ -319,10 +315,8 @@ export const contextRelations = pgTable(
 export const artefactClasses = pgTable(
   "artefact_classes",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     code: text("code").notNull(),
     label: text("label").notNull(),
     material: text("material").notNull().default(""),
@@ -337,10 +331,8 @@ export const artefactClasses = pgTable(
 export const finds = pgTable(
   "finds",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "restrict" }),
@@ -395,10 +387,8 @@ export const importMappings = pgTable("import_mappings", {
 export const analysisRuns = pgTable(
   "analysis_runs",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "cascade" }),
@@ -454,7 +444,7 @@ export type AuditEntry = typeof auditEntries.$inferSelect;
 export type Photo = typeof photos.$inferSelect;
 
 export const passwordResets = pgTable("password_resets", {
-  id: uuid("id").primaryKey().defaultRandom(),
+  id: idColumn(),
   userId: uuid("user_id")
     .notNull()
     .references(() => users.id, { onDelete: "cascade" }),
@@ -468,10 +458,8 @@ export const passwordResets = pgTable("password_resets", {
 export const benchmarks = pgTable(
   "benchmarks",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     code: text("code").notNull(),
     description: text("description").notNull(),
     x: doublePrecision("x").notNull(),
@@ -488,10 +476,8 @@ export const benchmarks = pgTable(
 export const spits = pgTable(
   "spits",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     contextId: uuid("context_id")
       .notNull()
       .references(() => contexts.id, { onDelete: "restrict" }),
@@ -508,10 +494,8 @@ export const spits = pgTable(
 export const samples = pgTable(
   "samples",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "restrict" }),
@@ -559,10 +543,8 @@ export type LevelBookLine = {
 export const levelRuns = pgTable(
   "level_runs",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "set null" }),
     takenOn: date("taken_on").notNull(),
     startBenchmarkId: uuid("start_benchmark_id")
@@ -583,10 +565,8 @@ export const levelRuns = pgTable(
 export const spotLevels = pgTable(
   "spot_levels",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     runId: uuid("run_id")
       .notNull()
       .references(() => levelRuns.id, { onDelete: "cascade" }),
@@ -615,10 +595,8 @@ export type SpotLevel = typeof spotLevels.$inferSelect;
 export const squareSamples = pgTable(
   "square_samples",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "restrict" }),
@@ -666,10 +644,8 @@ export type SquareCount = typeof squareCounts.$inferSelect;
 export const findSections = pgTable(
   "find_sections",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "cascade" }),
@@ -722,10 +698,8 @@ export const numberKindEnum = pgEnum("number_kind", ["find", "context"]);
 export const numberBlocks = pgTable(
   "number_blocks",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     kind: numberKindEnum("kind").notNull(),
     first: integer("first_number").notNull(),
     last: integer("last_number").notNull(),
@@ -746,10 +720,8 @@ export const numberBlocks = pgTable(
 export const numberVoids = pgTable(
   "number_voids",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     kind: numberKindEnum("kind").notNull(),
     first: integer("first_number").notNull(),
     last: integer("last_number").notNull(),
@@ -778,10 +750,8 @@ export const drawingKindEnum = pgEnum("drawing_kind", ["plan", "section"]);
 export const drawings = pgTable(
   "drawings",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     trenchId: uuid("trench_id")
       .notNull()
       .references(() => trenches.id, { onDelete: "restrict" }),
@@ -819,10 +789,8 @@ export type Drawing = typeof drawings.$inferSelect;
 export const boxes = pgTable(
   "boxes",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     number: integer("number").notNull(),
     /** The store and the place in it (a building, a room, a bay or shelf). */
     store: text("store").notNull().default(""),
@@ -845,10 +813,8 @@ export const packageStatusEnum = pgEnum("package_status", ["queued", "running", 
 export const depositionPackages = pgTable(
   "deposition_packages",
   {
-    id: uuid("id").primaryKey().defaultRandom(),
-    siteId: uuid("site_id")
-      .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+    id: idColumn(),
+    siteId: siteRef(),
     /** null = the whole site. */
     trenchId: uuid("trench_id").references(() => trenches.id, { onDelete: "cascade" }),
     status: packageStatusEnum("status").notNull().default("queued"),
