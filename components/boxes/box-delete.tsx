@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import { countOf } from "@/lib/words/count";
 
 /**
@@ -33,8 +33,8 @@ export function BoxDelete({
     setBusy(true);
     setFailed(null);
     try {
-      const answer = (await apiClient.call("boxDelete", { siteId, boxId: box.id })) as { pending?: boolean };
-      if (answer.pending) setSaid(`No connection: box ${box.number} is deleted when the connection is back.`);
+      const answer = await apiClient.call("boxDelete", { siteId, boxId: box.id });
+      if (keptOnDevice(answer)) setSaid(`No connection: box ${box.number} is deleted when the connection is back.`);
       else router.push(`/sites/${siteId}/boxes`);
     } catch (err) {
       if (err instanceof ApiError) setFailed(err.message);

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import { countOf } from "@/lib/words/count";
 
 type BoxChoice = { id: string; number: number; store: string };
@@ -40,21 +40,17 @@ export function BoxEmpty({
     setBusy(true);
     setFailed(null);
     try {
-      const answer = (await apiClient.call("boxEmpty", { siteId, boxId: box.id }, { intoBoxId: into.id })) as {
-        pending?: boolean;
-        findNumbers?: number[];
-        sampleNumbers?: number[];
-      };
+      const answer = await apiClient.call("boxEmpty", { siteId, boxId: box.id }, { intoBoxId: into.id });
       setConfirming(false);
-      if (answer.pending) {
+      if (keptOnDevice(answer)) {
         setSaid(
           `No connection: box ${box.number} is emptied into box ${into.number} when the connection is back (what it holds then moves).`,
         );
         return;
       }
       const moved = [
-        answer.findNumbers?.length && countOf(answer.findNumbers.length, "find"),
-        answer.sampleNumbers?.length && countOf(answer.sampleNumbers.length, "sample"),
+        answer.findNumbers.length && countOf(answer.findNumbers.length, "find"),
+        answer.sampleNumbers.length && countOf(answer.sampleNumbers.length, "sample"),
       ]
         .filter(Boolean)
         .join(" and ");

@@ -2,9 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
-
-const isPending = (answer: unknown) => (answer as { pending?: boolean } | null)?.pending === true;
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 
 /**
  * A box's entry: its number (the next free one when left blank on a new box), the store it is kept in and a
@@ -38,7 +36,7 @@ export function BoxForm({
           store,
           note,
         } as never);
-        pending = isPending(saved);
+        pending = keptOnDevice(saved);
         setSaid(
           pending
             ? "No connection: the change waits on this device and is sent when the connection is back."
@@ -50,7 +48,7 @@ export function BoxForm({
           store,
           note,
         } as never);
-        pending = isPending(made);
+        pending = keptOnDevice(made);
         setSaid(
           pending
             ? `No connection: ${made.number ? `box ${made.number}` : "the new box"} waits on this device and is added when the connection is back${made.number ? "" : " (it takes the next number then)"}.`

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import { readReading, reduceAsBooked } from "@/lib/levels/level-book";
 import type { LevelBookRow } from "@/lib/levels/levelling";
 import { levelRunCreateSchema, type levelTargets } from "@/lib/schemas/levels";
@@ -146,9 +146,9 @@ export function LevelBookForm({
         setMessage("The book has mistakes: see the lines marked.");
         return;
       }
-      const answer = (await apiClient.call("levelRunsCreate", { siteId }, body)) as { pending?: boolean };
+      const answer = await apiClient.call("levelRunsCreate", { siteId }, body);
       setMessage(
-        `${answer.pending ? "Run kept on this device, to be booked when it is back online" : "Run booked"}: ${lines.length} levels from ${start?.code}${live.misclosure === null ? ", not closed on a benchmark" : `, closing error ${(live.misclosure * 1000).toFixed(0)} mm`}.`,
+        `${keptOnDevice(answer) ? "Run kept on this device, to be booked when it is back online" : "Run booked"}: ${lines.length} levels from ${start?.code}${live.misclosure === null ? ", not closed on a benchmark" : `, closing error ${(live.misclosure * 1000).toFixed(0)} mm`}.`,
       );
       setLines([blankLine("benchmark", startId), blankLine("find"), blankLine("benchmark", closingId)]);
     } catch (err) {

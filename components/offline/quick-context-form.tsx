@@ -1,7 +1,7 @@
 "use client";
 
 import { useEffect, useState, type FormEvent } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import { contextTypes } from "@/lib/schemas/context";
 import { readingLabels, relationReadings, type RelationReading } from "@/lib/schemas/relation";
 import { device } from "@/lib/offline/device";
@@ -58,7 +58,7 @@ export function QuickContextForm({ siteId }: { siteId: string }) {
       }
       setMessage({
         ok: true,
-        text: `Context ${number}${related} ${(made as { pending?: boolean }).pending ? "kept on this device; it is sent when the server can be reached." : "opened."}`,
+        text: `Context ${number}${related} ${keptOnDevice(made) ? "kept on this device; it is sent when the server can be reached." : "opened."}`,
       });
       ev.currentTarget?.reset();
       await device.refresh();

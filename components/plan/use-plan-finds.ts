@@ -3,7 +3,7 @@
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useMemo } from "react";
 import { nearestEdge, type Pt, type Rings } from "@/lib/geometry/outline-edit";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import type { ContextRow, FindRow } from "./rows";
 import type { Refused } from "./draw-marks";
 import type { QuickFind } from "./find-form";
@@ -99,7 +99,7 @@ export function usePlanFinds({ siteId, trenchId, initialFinds, contexts, savedRi
             patch((rows) => rows.filter((r) => r.id !== row.id));
           },
         });
-        const kept = (created as { pending?: boolean }).pending;
+        const kept = keptOnDevice(created);
         say(
           created.levelWarning ? "warn" : "ok",
           `${kept ? `Find #${row.number} kept on this device (number from its block); it is sent when the server can be reached.` : `Find #${row.number} recorded (number allocated by the server).`}${created.levelWarning ? ` ${created.levelWarning}` : ""}`,

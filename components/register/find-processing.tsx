@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { ApiError, apiClient } from "@/lib/api/client";
+import { ApiError, apiClient, keptOnDevice } from "@/lib/api/client";
 import { findProcessingLabels, type FindProcessing } from "@/lib/schemas/processing";
 import { ProcessingFields, emptyDraft, processingBody, type BoxChoice } from "./processing-fields";
 
@@ -34,12 +34,12 @@ export function FindProcessingPanel({
     setSaid(null);
     setFailed(null);
     try {
-      const answer = (await apiClient.call(
+      const answer = await apiClient.call(
         "findsBulk",
         { siteId },
         { action: "process", findIds: [findId], ...processingBody(draft) },
-      )) as { pending?: boolean };
-      setSaid(answer.pending ? "No connection: the change waits on this device." : "Saved.");
+      );
+      setSaid(keptOnDevice(answer) ? "No connection: the change waits on this device." : "Saved.");
       setDraft(emptyDraft);
       router.refresh();
     } catch (err) {

@@ -2,7 +2,7 @@
 
 import { useEffect, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { ApiError, apiClient, type ApiAnswer } from "@/lib/api/client";
+import { ApiError, apiClient, type ApiAnswer, keptOnDevice } from "@/lib/api/client";
 import { formatValue } from "@/lib/squares/colour-classes";
 
 type Sample = ApiAnswer<"trenchSquares">["samples"][number];
@@ -82,7 +82,7 @@ export function SquareForm({
         })),
       } as never);
       onDone(
-        (made as { pending?: boolean } | null)?.pending
+        keptOnDevice(made)
           ? `Square ${square.label} kept on this device; it is sent when the server can be reached.`
           : `Square ${square.label} saved.`,
       );
@@ -107,7 +107,7 @@ export function SquareForm({
     try {
       const gone = await apiClient.call("squareDelete", { siteId, sampleId: existing.id });
       onDone(
-        (gone as { pending?: boolean } | null)?.pending
+        keptOnDevice(gone)
           ? `Square ${square.label}: the deletion is kept on this device; it is sent when the server can be reached.`
           : `Square ${square.label} is no longer recorded as dug in that context.`,
       );

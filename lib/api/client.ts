@@ -157,11 +157,15 @@ async function call<N extends ApiName>(
   const answer = await sendWrite(req, options.signal);
   // A write kept in the device's outbox changed nothing on the server yet: reading the server again (offline,
   // a failed read makes the router load the whole page) would only lose what is on screen. The sync announces.
-  if (!isPending(answer)) announceWrite(req);
+  if (!keptOnDevice(answer)) announceWrite(req);
   return answer as ApiAnswer<N>;
 }
 
-function isPending(answer: unknown): boolean {
+/**
+ * True when a write's answer says it was kept in the device's outbox (no connection): the server has not seen
+ * it yet, and the page says so rather than "saved".
+ */
+export function keptOnDevice(answer: unknown): answer is { pending: true } {
   return typeof answer === "object" && answer !== null && (answer as { pending?: unknown }).pending === true;
 }
 
